@@ -1,0 +1,77 @@
+import { Controller, Get, Query } from '@nestjs/common';
+import { ApiBearerAuth, ApiOkResponse, ApiPropertyOptional, ApiTags } from '@nestjs/swagger';
+import { InjectRepository } from '@nestjs/typeorm';
+import { Type } from 'class-transformer';
+import { IsIn, IsInt, IsOptional, IsString, IsUUID, Max, MaxLength, Min } from 'class-validator';
+import { Repository } from 'typeorm';
+import { type AuditEventView, type Page } from '@kerfwright/contracts';
+import { Roles } from '../common/decorators/auth.decorators';
+import { AuditEvent } from './audit-event.entity';
+
+export class ListAuditQuery {
+  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) page?: number;
+  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize?: number;
+  @ApiPropertyOptional({ enum: ['user', 'material', 'machine_profile', 'design', 'job', 'safety'] })
+  @IsOptional()
+  @IsString()
+  @MaxLength(40)
+  entityType?: string;
+  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(64) entityId?: string;
+  @ApiPropertyOptional() @IsOptional() @IsUUID() actorId?: string;
+  @ApiPropertyOptional({ description: 'Action prefix, e.g. "job." or "user.update"' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(80)
+  action?: string;
+  @ApiPropertyOptional({ enum: ['createdAt', '-createdAt'] })
+  @IsOptional()
+  @IsIn(['createdAt', '-createdAt'])
+  sort?: string;
+}
+
+/** The audit trail of every write, newest first; supervisors only. */
+@ApiTags('audit')
+@ApiBearerAuth()
+@Controller('audit')
+@Roles('supervisor')
+export class AuditController {
+  constructor(@InjectRepository(AuditEvent) private readonly events: Repository<AuditEvent>) {}
+
+  @Get()
+  @ApiOkResponse({ description: 'A page of audit events' })
+  async list(@Query() q: ListAuditQuery): Promise<Page<AuditEventView>> {
+    const page = q.page ?? 1;
+    const pageSize = q.pageSize ?? 50;
+    const qb = this.events
+      .createQueryBuilder('e')
+      .leftJoin('users', 'u', 'u.id = e.actor_id')
+      .addSelect('u.display_name', 'actor_name');
+    if (q.entityType) qb.andWhere('e.entity_type = :t', { t: q.entityType });
+    if (q.entityId) qb.andWhere('e.entity_id = :eid', { eid: q.entityId });
+    if (q.actorId) qb.andWhere('e.actor_id = :aid', { aid: q.actorId });
+    if (q.action) qb.andWhere('e.action LIKE :a', { a: `${q.action.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+    const total = await qb.getCount();
+    const { entities, raw } = await qb
+      .orderBy('e.id', q.sort === 'createdAt' ? 'ASC' : 'DESC')
+      .offset((page - 1) * pageSize)
+      .limit(pageSize)
+      .getRawAndEntities<{ actor_name: string | null }>();
+    return {
+      items: entities.map((e, i) => ({
+        id: e.id,
+        actorId: e.actorId,
+        actorName: raw[i]?.actor_name ?? null,
+        action: e.action,
+        entityType: e.entityType,
+        entityId: e.entityId,
+        before: e.before,
+        after: e.after,
+        requestId: e.requestId,
+        createdAt: e.createdAt.toISOString(),
+      })),
+      total,
+      page,
+      pageSize,
+    };
+  }
+}

@@ -1,0 +1,35 @@
+import { Module } from '@nestjs/common';
+import { type ConfigType } from '@nestjs/config';
+import { JwtModule } from '@nestjs/jwt';
+import { PassportModule } from '@nestjs/passport';
+import { ThrottlerModule } from '@nestjs/throttler';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { authConfig } from '../config/app.config';
+import { User } from '../users/user.entity';
+import { AuthController } from './auth.controller';
+import { AuthService } from './auth.service';
+import { JwtStrategy } from './jwt.strategy';
+
+@Module({
+  imports: [
+    TypeOrmModule.forFeature([User]),
+    PassportModule,
+    JwtModule.registerAsync({
+      inject: [authConfig.KEY],
+      useFactory: (c: ConfigType<typeof authConfig>) => ({
+        secret: c.jwtSecret,
+        signOptions: { expiresIn: c.jwtTtl as `${number}h`, algorithm: 'HS256' },
+      }),
+    }),
+    ThrottlerModule.forRootAsync({
+      inject: [authConfig.KEY],
+      useFactory: (c: ConfigType<typeof authConfig>) => ({
+        throttlers: [{ name: 'login', ttl: c.loginWindowMs, limit: c.loginLimit }],
+        errorMessage: 'Too many sign-in attempts; wait a minute and try again',
+      }),
+    }),
+  ],
+  controllers: [AuthController],
+  providers: [AuthService, JwtStrategy],
+})
+export class AuthModule {}

@@ -1,0 +1,23 @@
+import { Transform } from 'class-transformer';
+import { IsEmail, IsString, MaxLength, MinLength } from 'class-validator';
+import {
+  DISPLAY_NAME_MAX_LENGTH,
+  PASSWORD_MAX_LENGTH,
+  PASSWORD_MIN_LENGTH,
+  type RegisterRequest,
+} from '@kerfwright/contracts';
+
+export class RegisterDto implements RegisterRequest {
+  @IsEmail({}, { message: 'email must be an e-mail address' }) @MaxLength(254) email: string;
+
+  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @IsString()
+  @MinLength(1, { message: 'displayName must not be empty' })
+  @MaxLength(DISPLAY_NAME_MAX_LENGTH)
+  displayName: string;
+
+  @IsString()
+  @MinLength(PASSWORD_MIN_LENGTH, { message: `password must be at least ${PASSWORD_MIN_LENGTH} characters` })
+  @MaxLength(PASSWORD_MAX_LENGTH)
+  password: string;
+}

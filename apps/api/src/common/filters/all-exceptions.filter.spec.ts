@@ -1,0 +1,64 @@
+import { type ArgumentsHost, BadRequestException, NotFoundException } from '@nestjs/common';
+import { AppError } from '../errors';
+import { AllExceptionsFilter, isDatabaseUnavailable } from './all-exceptions.filter';
+
+function run(exception: unknown) {
+  let status = 0;
+  let body: Record<string, unknown> = {};
+  const res = {
+    headersSent: false,
+    status(s: number) {
+      status = s;
+      return this;
+    },
+    json(b: Record<string, unknown>) {
+      body = b;
+    },
+  };
+  const req = { method: 'GET', originalUrl: '/api/x', requestId: 'req-1' };
+  const host = {
+    switchToHttp: () => ({ getRequest: () => req, getResponse: () => res }),
+  } as unknown as ArgumentsHost;
+  new AllExceptionsFilter().catch(exception, host);
+  return { status, body };
+}
+
+describe('the one error body', () => {
+  it('keeps the code, message and details of an application error', () => {
+    const { status, body } = run(new AppError(409, 'JOB.ILLEGAL_TRANSITION', 'no', { from: 'draft' }));
+    expect(status).toBe(409);
+    expect(body).toEqual({
+      statusCode: 409,
+      code: 'JOB.ILLEGAL_TRANSITION',
+      message: 'no',
+      details: { from: 'draft' },
+      requestId: 'req-1',
+    });
+  });
+
+  it('gives framework errors a default AREA.REASON code', () => {
+    expect(run(new NotFoundException('Cannot GET /api/x')).body).toMatchObject({ code: 'ROUTE.NOT_FOUND' });
+    expect(run(new BadRequestException()).body).toMatchObject({ statusCode: 400, code: 'REQUEST.INVALID' });
+  });
+
+  it('maps body-parser failures to 4xx without internals', () => {
+    const tooLarge = Object.assign(new Error('request entity too large'), {
+      status: 413,
+      type: 'entity.too.large',
+    });
+    expect(run(tooLarge)).toMatchObject({ status: 413, body: { code: 'REQUEST.TOO_LARGE' } });
+  });
+
+  it('hides unexpected errors behind a 500 with no stack trace', () => {
+    const { status, body } = run(new Error('secret internals at db.ts:12'));
+    expect(status).toBe(500);
+    expect(body.code).toBe('SERVER.INTERNAL');
+    expect(JSON.stringify(body)).not.toContain('secret internals');
+  });
+
+  it('answers 503 when PostgreSQL is unreachable', () => {
+    const down = Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5432'), { code: 'ECONNREFUSED' });
+    expect(isDatabaseUnavailable(down)).toBe(true);
+    expect(run(down)).toMatchObject({ status: 503, body: { code: 'SERVICE.DATABASE_UNAVAILABLE' } });
+  });
+});

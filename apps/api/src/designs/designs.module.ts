@@ -1,0 +1,13 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { Design } from './design.entity';
+import { DesignsController } from './designs.controller';
+import { DesignsService } from './designs.service';
+
+@Module({
+  imports: [TypeOrmModule.forFeature([Design])],
+  controllers: [DesignsController],
+  providers: [DesignsService],
+  exports: [DesignsService, TypeOrmModule],
+})
+export class DesignsModule {}

@@ -1,0 +1,56 @@
+import { Controller, Get, HttpStatus, Inject } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import type Redis from 'ioredis';
+import { DataSource } from 'typeorm';
+import { type HealthView } from '@kerfwright/contracts';
+import { Public } from '../common/decorators/auth.decorators';
+import { AppError } from '../common/errors';
+import { REDIS } from '../redis/redis.module';
+
+const CHECK_TIMEOUT_MS = 1500;
+
+function withTimeout<T>(p: Promise<T>): Promise<T> {
+  return Promise.race([
+    p,
+    new Promise<T>((_, reject) => setTimeout(() => reject(new Error('timeout')), CHECK_TIMEOUT_MS).unref()),
+  ]);
+}
+
+@Controller('health')
+export class HealthController {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    @Inject(REDIS) private readonly redis: Redis,
+  ) {}
+
+  /** 200 when PostgreSQL and Redis both answer; otherwise 503 with the same view in `details`. */
+  @Public()
+  @Get()
+  async check(): Promise<HealthView> {
+    const [database, redis] = await Promise.all([
+      withTimeout(this.dataSource.query('SELECT 1')).then(
+        () => 'up' as const,
+        () => 'down' as const,
+      ),
+      withTimeout(this.redis.ping()).then(
+        (r) => (r === 'PONG' ? ('up' as const) : ('down' as const)),
+        () => 'down' as const,
+      ),
+    ]);
+    const view: HealthView = {
+      status: database === 'up' && redis === 'up' ? 'ok' : 'degraded',
+      database,
+      redis,
+      version: process.env.npm_package_version ?? '0.1.0',
+    };
+    if (view.status !== 'ok') {
+      throw new AppError(
+        HttpStatus.SERVICE_UNAVAILABLE,
+        'SERVICE.DEGRADED',
+        'A backing service is down',
+        view,
+      );
+    }
+    return view;
+  }
+}

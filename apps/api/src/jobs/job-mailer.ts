@@ -1,0 +1,79 @@
+import { Inject, Injectable } from '@nestjs/common';
+import { type ConfigType } from '@nestjs/config';
+import { type EntityManager } from 'typeorm';
+import { type JobAction } from '@kerfwright/contracts';
+import { mailConfig } from '../mail/mail.config';
+import { MailOutboxService } from '../mail/mail-outbox.service';
+import { composeMail } from '../mail/mail-templates';
+import { Design } from '../designs/design.entity';
+import { type Job } from './job.entity';
+
+/** Who hears about a job's state change, and what they are told. */
+@Injectable()
+export class JobMailer {
+  constructor(
+    private readonly outbox: MailOutboxService,
+    @Inject(mailConfig.KEY) private readonly config: ConfigType<typeof mailConfig>,
+  ) {}
+
+  async onTransition(m: EntityManager, job: Job, action: JobAction): Promise<void> {
+    const design = await m.findOne(Design, { where: { id: job.designId } });
+    const title = design?.name ?? 'a design';
+    const link = { label: 'Open the job', url: `${this.config.appUrl}/jobs/${job.id}` };
+    const requester = () => this.outbox.addressOfUser(m, job.requesterId);
+    switch (action) {
+      case 'request': {
+        const mail = composeMail(
+          `Cut requested: ${title}`,
+          [
+            `A new cut job for "${title}" (quantity ${job.quantity}) is waiting to be prepared.`,
+            'Pick the material, the machine profile and the colours, then check the layout and estimates.',
+          ],
+          link,
+        );
+        await this.outbox.enqueue(m, {
+          kind: 'job.requested',
+          to: await this.outbox.addressesOfRoles(m, ['fabricator']),
+          ...mail,
+        });
+        return;
+      }
+      case 'approve':
+      case 'release': {
+        const verb = action === 'approve' ? 'approved' : 'released to the machines';
+        const mail = composeMail(
+          `Job ${verb}: ${title}`,
+          [
+            `The cut job for "${title}" has been ${verb}.`,
+            action === 'release'
+              ? 'Operators: acknowledge the safety notices for this job before downloading its files.'
+              : 'Its files are prepared next; operators will see it on the release desk once it is released.',
+          ],
+          link,
+        );
+        const to = [...(await requester()), ...(await this.outbox.addressesOfRoles(m, ['operator']))];
+        await this.outbox.enqueue(m, {
+          kind: action === 'approve' ? 'job.approved' : 'job.released',
+          to,
+          ...mail,
+        });
+        return;
+      }
+      case 'return': {
+        const mail = composeMail(
+          `Job returned: ${title}`,
+          [
+            `Your cut job for "${title}" was returned to you.`,
+            `Reason given: ${job.returnReason ?? '(none)'}`,
+            'You can reopen it as a draft, change the design, and request it again.',
+          ],
+          link,
+        );
+        await this.outbox.enqueue(m, { kind: 'job.returned', to: await requester(), ...mail });
+        return;
+      }
+      default:
+        return;
+    }
+  }
+}

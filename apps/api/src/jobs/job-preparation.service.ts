@@ -1,0 +1,134 @@
+import { HttpStatus, Injectable } from '@nestjs/common';
+import { type EntityManager } from 'typeorm';
+import { type DesignSpec, type JobPreparation, toMachineSpec } from '@kerfwright/contracts';
+import { prepareCut, SolidError, SpecValidationError } from '@kerfwright/geometry';
+import { AuditService } from '../audit/audit.service';
+import { AppError } from '../common/errors';
+import { MachineProfilesService } from '../machine-profiles/machine-profiles.service';
+import { MaterialsService } from '../materials/materials.service';
+import { badSolid, invalidSpec } from '../designs/design-engine';
+import { type PrepareJobDto } from './dto/job.dto';
+import { type Job } from './job.entity';
+
+export const DEFAULT_MARGIN_MM = 5;
+export const DEFAULT_GAP_MM = 3;
+
+/**
+ * Preparation: checks material and machine against each other and the hazard table, then has the
+ * geometry engine build the model for the real stock and machine and lay it out on sheets.
+ */
+@Injectable()
+export class JobPreparationService {
+  constructor(
+    private readonly profiles: MachineProfilesService,
+    private readonly materials: MaterialsService,
+    private readonly audit: AuditService,
+  ) {}
+
+  async prepare(
+    m: EntityManager,
+    job: Job,
+    dto: PrepareJobDto,
+  ): Promise<{ spec: DesignSpec; colours: string[]; preparation: JobPreparation }> {
+    const version = await this.profiles.getApprovedVersion(dto.profileVersionId, m);
+    const material = await this.materials.assertUsableOn(m, dto.materialId, version.kind);
+    const setting = version.settings.find((s) => s.materialId === material.id);
+    if (!setting) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.NO_MACHINE_SETTINGS',
+        `The machine profile has no settings for ${material.name}; add them to a new profile version first`,
+      );
+    }
+    const offered = material.colours;
+    const colours = dto.colours.length > 0 ? dto.colours : offered.slice(0, 1);
+    const unknown = colours.filter((c) => offered.length > 0 && !offered.includes(c));
+    if (unknown.length > 0) {
+      throw new AppError(
+        HttpStatus.BAD_REQUEST,
+        'JOB.UNKNOWN_COLOUR',
+        `${material.name} is not stocked in ${unknown.join(', ')}`,
+        [{ field: 'colours', messages: [`offered: ${offered.join(', ')}`] }],
+      );
+    }
+    const sheet = dto.sheet ?? material.stockSheets[0];
+    if (!sheet) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.NO_STOCK_SHEET',
+        `${material.name} has no stock sheet size; give one`,
+      );
+    }
+    const thicknessMm = material.measuredThicknessMm ?? material.nominalThicknessMm;
+    const machine = toMachineSpec(version.kind, setting);
+    const spec: DesignSpec = {
+      ...job.spec,
+      ...(dto.scale ? { scale: dto.scale } : {}),
+      stock: { thicknessMm, flexible: material.flexible },
+      machine,
+      bed: { widthMm: version.bedWidthMm, heightMm: version.bedHeightMm },
+    };
+    let prepared;
+    try {
+      prepared = prepareCut(spec, {
+        sheet,
+        marginMm: dto.marginMm ?? DEFAULT_MARGIN_MM,
+        gapMm: dto.gapMm ?? DEFAULT_GAP_MM,
+        colours: { count: colours.length, rule: dto.colourRule },
+        quantity: job.quantity,
+      });
+    } catch (err) {
+      if (err instanceof SpecValidationError) throw invalidSpec(err.fieldErrors);
+      if (err instanceof SolidError) throw badSolid(err);
+      throw err;
+    }
+    const { model, layout, summary } = prepared;
+    if (model.report.errors.length > 0) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.DESIGN_INVALID',
+        `In ${material.name} at ${thicknessMm} mm the design cannot be cut: ${model.report.errors[0]!.message}`,
+        model.report.errors,
+      );
+    }
+    if (!layout.ok || !summary) {
+      const failure = layout.ok ? { code: 'LAYOUT.INVALID', message: 'no layout', pieces: [] } : layout;
+      throw new AppError(HttpStatus.CONFLICT, 'JOB.LAYOUT_FAILED', failure.message, {
+        code: failure.code,
+        pieces: failure.pieces,
+      });
+    }
+    return { spec, colours, preparation: summary };
+  }
+
+  /** The version must exist and be approved right now. */
+  async assertProfileVersionUsable(m: EntityManager, versionId: string): Promise<void> {
+    await this.profiles.getApprovedVersion(versionId, m);
+  }
+
+  /** Keeps the kerf measured on a job's cut in the profile's kerf history (audited like any write). */
+  async recordMeasuredKerf(
+    m: EntityManager,
+    job: Job,
+    kerfMm: number,
+    userId: string,
+    requestId: string,
+  ): Promise<void> {
+    const rows: { id: string }[] = await m.query(
+      `INSERT INTO kerf_records (profile_id, material_id, kerf_mm, job_id, notes, recorded_by)
+       SELECT v.profile_id, $2, $3, $4, 'measured on the job''s cut', $5 FROM machine_profile_versions v WHERE v.id = $1
+       RETURNING id`,
+      [job.profileVersionId, job.materialId, kerfMm, job.id, userId],
+    );
+    if (rows[0]) {
+      await this.audit.record(m, {
+        actorId: userId,
+        action: 'kerf-record.create',
+        entityType: 'kerf_record',
+        entityId: rows[0].id,
+        after: { jobId: job.id, kerfMm },
+        requestId,
+      });
+    }
+  }
+}

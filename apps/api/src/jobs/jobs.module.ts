@@ -1,0 +1,24 @@
+import { Module } from '@nestjs/common';
+import { ConfigModule } from '@nestjs/config';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { MachineProfilesModule } from '../machine-profiles/machine-profiles.module';
+import { MaterialsModule } from '../materials/materials.module';
+import { mailConfig } from '../mail/mail.config';
+import { Job, JobTransition } from './job.entity';
+import { JobMailer } from './job-mailer';
+import { JobPreparationService } from './job-preparation.service';
+import { JobsController } from './jobs.controller';
+import { JobsService } from './jobs.service';
+
+@Module({
+  imports: [
+    TypeOrmModule.forFeature([Job, JobTransition]),
+    ConfigModule.forFeature(mailConfig),
+    MachineProfilesModule,
+    MaterialsModule,
+  ],
+  controllers: [JobsController],
+  providers: [JobsService, JobPreparationService, JobMailer],
+  exports: [JobsService],
+})
+export class JobsModule {}

@@ -1,0 +1,65 @@
+import { ApiPropertyOptional } from '@nestjs/swagger';
+import { Type } from 'class-transformer';
+import { IsIn, IsInt, IsOptional, IsString, IsUUID, Max, MaxLength, Min } from 'class-validator';
+import {
+  type ListMachineProfilesQuery,
+  MACHINE_PROFILE_KINDS,
+  type MachineProfileKind,
+  PROFILE_VERSION_STATES,
+  type ProfileVersionState,
+} from '@kerfwright/contracts';
+
+export class ListMachineProfilesQueryDto implements ListMachineProfilesQuery {
+  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  page?: number;
+
+  @ApiPropertyOptional({ minimum: 1, maximum: 200, default: 25 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  @Max(200)
+  pageSize?: number;
+
+  @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
+  @IsOptional()
+  @IsIn(MACHINE_PROFILE_KINDS)
+  kind?: MachineProfileKind;
+
+  @ApiPropertyOptional({ enum: PROFILE_VERSION_STATES, description: 'State of the latest version' })
+  @IsOptional()
+  @IsIn(PROFILE_VERSION_STATES)
+  state?: ProfileVersionState;
+
+  @ApiPropertyOptional({ maxLength: 100, description: 'Searched in the name' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(100)
+  q?: string;
+}
+
+export class ListKerfRecordsQueryDto {
+  @ApiPropertyOptional({ format: 'uuid' })
+  @IsOptional()
+  @IsUUID()
+  materialId?: string;
+
+  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  page?: number;
+
+  @ApiPropertyOptional({ minimum: 1, maximum: 1000, default: 200 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  @Max(1000)
+  pageSize?: number;
+}

@@ -1,0 +1,45 @@
+import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
+import { Transform } from 'class-transformer';
+import { IsInt, IsNotEmpty, IsString, MaxLength, Min } from 'class-validator';
+import {
+  type CreateProfileVersionRequest,
+  MACHINE_PROFILE_LIMITS as L,
+  type ProfileTransitionRequest,
+  type ReturnProfileVersionRequest,
+  type UpdateProfileVersionRequest,
+} from '@kerfwright/contracts';
+import { OptionalNotNull } from '../../materials/dto/optional';
+import { ProfileVersionContentDto } from './profile-version-content.dto';
+
+/** Changes applied to a copy of the profile's latest version, giving a new draft. */
+export class CreateProfileVersionDto
+  extends PartialType(ProfileVersionContentDto, { skipNullProperties: false })
+  implements CreateProfileVersionRequest {}
+
+/** Changes to a draft, with the lockVersion the client read. */
+export class UpdateProfileVersionDto
+  extends PartialType(ProfileVersionContentDto, { skipNullProperties: false })
+  implements UpdateProfileVersionRequest
+{
+  @ApiProperty({ minimum: 1, description: 'The lockVersion the client read (optimistic locking)' })
+  @IsInt()
+  @Min(1)
+  lockVersion: number;
+}
+
+export class ProfileTransitionDto implements ProfileTransitionRequest {
+  @ApiPropertyOptional({ minimum: 1, description: 'The lockVersion the client read; a stale one gets 409' })
+  @OptionalNotNull()
+  @IsInt()
+  @Min(1)
+  lockVersion?: number;
+}
+
+export class ReturnProfileVersionDto extends ProfileTransitionDto implements ReturnProfileVersionRequest {
+  @ApiProperty({ maxLength: L.reasonLength, description: 'What must change before approval' })
+  @Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value))
+  @IsString()
+  @IsNotEmpty()
+  @MaxLength(L.reasonLength)
+  reason: string;
+}

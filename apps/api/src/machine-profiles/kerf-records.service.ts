@@ -1,0 +1,176 @@
+import { HttpStatus, Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, type EntityManager } from 'typeorm';
+import { type KerfRecordView, type MachineProfileVersionView, type Page } from '@kerfwright/contracts';
+import { AuditService } from '../audit/audit.service';
+import { AppError, notFound } from '../common/errors';
+import { Material } from '../materials/material.entity';
+import { type CreateKerfRecordDto } from './dto/create-kerf-record.dto';
+import { type ListKerfRecordsQueryDto } from './dto/list-machine-profiles.query';
+import { KerfRecord, MachineProfile } from './machine-profile.entity';
+import { MachineProfilesService, type ProfileActor } from './machine-profiles.service';
+import { measuredKerfRangeMm } from './profile-rules';
+
+/** Kerfs measured on test cuts (or jobs) per machine and material, and adopting one into a draft. */
+@Injectable()
+export class KerfRecordsService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+    private readonly profiles: MachineProfilesService,
+  ) {}
+
+  async record(actor: ProfileActor, profileId: string, dto: CreateKerfRecordDto): Promise<KerfRecordView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await manager.findOneBy(MachineProfile, { id: profileId });
+      if (!profile) throw notFound('MACHINE_PROFILE', 'No such machine profile');
+      const errors: { field: string; messages: string[] }[] = [];
+      const range = measuredKerfRangeMm(profile.kind);
+      if (dto.kerfMm < range.min || dto.kerfMm > range.max) {
+        errors.push({
+          field: 'kerfMm',
+          messages: [`kerfMm must be between ${range.min} and ${range.max} mm on a ${profile.kind}`],
+        });
+      }
+      const material = await manager.findOneBy(Material, { id: dto.materialId });
+      if (!material) errors.push({ field: 'materialId', messages: ['no such material'] });
+      if (dto.jobId !== undefined) {
+        const jobs: unknown[] = await manager.query(`SELECT 1 FROM jobs WHERE id = $1`, [dto.jobId]);
+        if (jobs.length === 0) errors.push({ field: 'jobId', messages: ['no such job'] });
+      }
+      if (errors.length) {
+        throw new AppError(
+          HttpStatus.BAD_REQUEST,
+          'VALIDATION.FAILED',
+          `Invalid request: ${errors.map((e) => `${e.field} (${e.messages.join('; ')})`).join(', ')}`,
+          errors,
+        );
+      }
+      const saved = await manager.save(
+        KerfRecord,
+        manager.create(KerfRecord, {
+          profileId,
+          materialId: dto.materialId,
+          kerfMm: dto.kerfMm,
+          jobId: dto.jobId ?? null,
+          notes: dto.notes ?? '',
+          recordedBy: actor.id,
+          adoptedVersionId: null,
+        }),
+      );
+      const view = toKerfRecordView(saved, material!.name);
+      await this.audit.record(manager, {
+        actorId: actor.id,
+        action: 'kerf-record.create',
+        entityType: 'kerf-record',
+        entityId: saved.id,
+        after: view,
+        requestId: actor.requestId,
+      });
+      return view;
+    });
+  }
+
+  /** The history for one machine, oldest first (for a chart), optionally of one material. */
+  async list(profileId: string, query: ListKerfRecordsQueryDto): Promise<Page<KerfRecordView>> {
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? 200;
+    const profile = await this.dataSource.manager.findOneBy(MachineProfile, { id: profileId });
+    if (!profile) throw notFound('MACHINE_PROFILE', 'No such machine profile');
+    const qb = this.dataSource
+      .getRepository(KerfRecord)
+      .createQueryBuilder('k')
+      .where('k.profile_id = :profileId', { profileId });
+    if (query.materialId) qb.andWhere('k.material_id = :materialId', { materialId: query.materialId });
+    qb.orderBy('k.created_at', 'ASC')
+      .addOrderBy('k.id', 'ASC')
+      .skip((page - 1) * pageSize)
+      .take(pageSize);
+    const [rows, total] = await qb.getManyAndCount();
+    const names = await this.names(this.dataSource.manager, rows);
+    return {
+      items: rows.map((r) => toKerfRecordView(r, names.get(r.materialId) ?? '')),
+      total,
+      page,
+      pageSize,
+    };
+  }
+
+  /**
+   * Puts a measured value into the profile's draft: the open draft if there is one, else a new draft
+   * copied from the latest version. A router's measured cut width becomes its tool diameter.
+   */
+  async adopt(actor: ProfileActor, profileId: string, recordId: string): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.profiles.lockProfile(manager, profileId);
+      const record = await manager.findOneBy(KerfRecord, { id: recordId, profileId });
+      if (!record) throw notFound('KERF_RECORD', 'No such kerf record for this machine profile');
+      const open = await this.profiles.openVersion(manager, profileId);
+      if (open?.state === 'submitted') {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'MACHINE_PROFILE.VERSION_PENDING',
+          `Version ${open.number} awaits approval; wait for the decision (or have it sent back) before adopting a new value`,
+          { versionId: open.id },
+        );
+      }
+      const base = open ?? (await this.profiles.latestVersion(manager, profileId));
+      const content = this.profiles.contentOf(base);
+      const index = content.settings.findIndex((s) => s.materialId === record.materialId);
+      if (index < 0) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'MACHINE_PROFILE.NO_SETTING_FOR_MATERIAL',
+          `Version ${base.number} has no settings for this material; add them (speeds, power, passes) before adopting a kerf`,
+          { materialId: record.materialId },
+        );
+      }
+      const setting = content.settings[index]!;
+      content.settings[index] =
+        profile.kind === 'cnc-router'
+          ? { ...setting, toolDiameterMm: record.kerfMm }
+          : { ...setting, kerfMm: record.kerfMm };
+      await this.profiles.checkContent(manager, profile.kind, content);
+      const target = open
+        ? await this.profiles.change(manager, actor, open, content, 'machine-profile-version.update')
+        : await this.profiles.insertDraft(manager, actor, profile, content, base.number);
+      const before = toKerfRecordView(record, '');
+      await manager.update(KerfRecord, { id: record.id }, { adoptedVersionId: target.id });
+      await this.audit.record(manager, {
+        actorId: actor.id,
+        action: 'kerf-record.adopt',
+        entityType: 'kerf-record',
+        entityId: record.id,
+        before,
+        after: { ...before, adoptedVersionId: target.id },
+        requestId: actor.requestId,
+      });
+      return this.profiles.view(manager, target);
+    });
+  }
+
+  private async names(manager: EntityManager, rows: readonly KerfRecord[]): Promise<Map<string, string>> {
+    const ids = [...new Set(rows.map((r) => r.materialId))];
+    if (ids.length === 0) return new Map();
+    const materials: { id: string; name: string }[] = await manager.query(
+      `SELECT id, name FROM materials WHERE id = ANY($1::uuid[])`,
+      [ids],
+    );
+    return new Map(materials.map((m) => [m.id, m.name]));
+  }
+}
+
+export function toKerfRecordView(r: KerfRecord, materialName: string): KerfRecordView {
+  return {
+    id: r.id,
+    profileId: r.profileId,
+    materialId: r.materialId,
+    materialName,
+    kerfMm: r.kerfMm,
+    jobId: r.jobId,
+    notes: r.notes,
+    recordedBy: r.recordedBy,
+    adoptedVersionId: r.adoptedVersionId,
+    createdAt: r.createdAt.toISOString(),
+  };
+}

@@ -1,0 +1,668 @@
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import { type ConfigType } from '@nestjs/config';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, type EntityManager, In } from 'typeorm';
+import {
+  isLaserKind,
+  laserRefusal,
+  type MachineProfileDetailView,
+  type MachineProfileKind,
+  type MachineProfileSummaryView,
+  type MachineProfileVersionView,
+  type Page,
+  type ProfileSetting,
+  type ProfileVersionContent,
+  type ProfileVersionState,
+} from '@kerfwright/contracts';
+import { AuditService } from '../audit/audit.service';
+import { AppError, notFound } from '../common/errors';
+import { MailOutboxService } from '../mail/mail-outbox.service';
+import { composeMail } from '../mail/mail-templates';
+import { mailConfig } from '../mail/mail.config';
+import { likePattern, PG_UNIQUE_VIOLATION, pgError } from '../materials/db-helpers';
+import { HazardTableService } from '../materials/hazard-table.service';
+import { Material } from '../materials/material.entity';
+import { type CreateMachineProfileDto } from './dto/create-machine-profile.dto';
+import { type ListMachineProfilesQueryDto } from './dto/list-machine-profiles.query';
+import {
+  type CreateProfileVersionDto,
+  type ProfileTransitionDto,
+  type ReturnProfileVersionDto,
+  type UpdateProfileVersionDto,
+} from './dto/profile-version-requests.dto';
+import { MachineProfile, MachineProfileVersion, toVersionView } from './machine-profile.entity';
+import { settingErrors } from './profile-rules';
+
+/** Who is acting, for the audit trail and mails. */
+export interface ProfileActor {
+  id: string;
+  displayName: string;
+  requestId: string;
+}
+
+/** An approved version with its profile's name and kind: what a job may be prepared with. */
+export interface ApprovedProfileVersion extends MachineProfileVersionView {
+  profileName: string;
+  kind: MachineProfileKind;
+}
+
+type VersionChanges = Partial<Omit<MachineProfileVersion, 'id' | 'profileId' | 'number' | 'lockVersion'>>;
+
+const AREA = 'MACHINE_PROFILE';
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+const noNames = new Map<string, string>();
+
+@Injectable()
+export class MachineProfilesService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+    private readonly mail: MailOutboxService,
+    private readonly hazards: HazardTableService,
+    @Inject(mailConfig.KEY) private readonly mailCfg: ConfigType<typeof mailConfig>,
+  ) {}
+
+  // ---- reads ------------------------------------------------------------------------------------
+
+  async list(query: ListMachineProfilesQueryDto): Promise<Page<MachineProfileSummaryView>> {
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? 25;
+    const qb = this.dataSource.getRepository(MachineProfile).createQueryBuilder('p');
+    if (query.kind) qb.andWhere('p.kind = :kind', { kind: query.kind });
+    if (query.q) qb.andWhere('p.name ILIKE :like', { like: likePattern(query.q) });
+    if (query.state) {
+      qb.andWhere(
+        `(SELECT v.state FROM machine_profile_versions v WHERE v.profile_id = p.id ORDER BY v.number DESC LIMIT 1) = :state`,
+        { state: query.state },
+      );
+    }
+    qb.orderBy('p.name', 'ASC')
+      .addOrderBy('p.id', 'ASC')
+      .skip((page - 1) * pageSize)
+      .take(pageSize);
+    const [profiles, total] = await qb.getManyAndCount();
+    const manager = this.dataSource.manager;
+    const versions = profiles.length
+      ? await manager.find(MachineProfileVersion, {
+          where: { profileId: In(profiles.map((p) => p.id)) },
+          order: { number: 'DESC' },
+        })
+      : [];
+    const names = await this.materialNames(manager, versions);
+    const items = profiles.map((p) =>
+      this.summary(
+        p,
+        versions.filter((v) => v.profileId === p.id),
+        names,
+      ),
+    );
+    return { items, total, page, pageSize };
+  }
+
+  async get(id: string): Promise<MachineProfileDetailView> {
+    return this.detail(this.dataSource.manager, id);
+  }
+
+  /**
+   * For the jobs module: the version, which must be approved (409 MACHINE_PROFILE.NOT_APPROVED
+   * otherwise). Pass the job's transaction manager to read inside it.
+   */
+  async getApprovedVersion(versionId: string, manager?: EntityManager): Promise<ApprovedProfileVersion> {
+    const m = manager ?? this.dataSource.manager;
+    const v = UUID.test(versionId) ? await m.findOneBy(MachineProfileVersion, { id: versionId }) : null;
+    if (!v)
+      throw new AppError(
+        HttpStatus.NOT_FOUND,
+        `${AREA}.VERSION_NOT_FOUND`,
+        'No such machine profile version',
+      );
+    const profile = await m.findOneByOrFail(MachineProfile, { id: v.profileId });
+    if (v.state !== 'approved') {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        `${AREA}.NOT_APPROVED`,
+        `Version ${v.number} of "${profile.name}" is ${v.state}; only an approved version can be used for a job`,
+        { profileId: profile.id, versionId: v.id, state: v.state },
+      );
+    }
+    return this.approvedView(m, profile, v);
+  }
+
+  /** For the jobs module: the profile's approved version now (409 MACHINE_PROFILE.NOT_APPROVED if none). */
+  async currentApprovedVersion(profileId: string, manager?: EntityManager): Promise<ApprovedProfileVersion> {
+    const m = manager ?? this.dataSource.manager;
+    const profile = UUID.test(profileId) ? await m.findOneBy(MachineProfile, { id: profileId }) : null;
+    if (!profile) throw notFound(AREA, 'No such machine profile');
+    const v = await m.findOneBy(MachineProfileVersion, { profileId, state: 'approved' });
+    if (!v) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        `${AREA}.NOT_APPROVED`,
+        `"${profile.name}" has no approved version yet; a supervisor must approve one before it is used for a job`,
+        { profileId },
+      );
+    }
+    return this.approvedView(m, profile, v);
+  }
+
+  // ---- writes -----------------------------------------------------------------------------------
+
+  /** A new profile and its version 1 as a draft. */
+  async create(actor: ProfileActor, dto: CreateMachineProfileDto): Promise<MachineProfileDetailView> {
+    return this.mapDbErrors(
+      this.dataSource.transaction(async (manager) => {
+        const content = this.contentOf(dto);
+        await this.checkContent(manager, dto.kind, content);
+        const profile = await manager.save(
+          MachineProfile,
+          manager.create(MachineProfile, { name: dto.name, kind: dto.kind, createdBy: actor.id }),
+        );
+        await this.audit.record(manager, {
+          actorId: actor.id,
+          action: 'machine-profile.create',
+          entityType: 'machine-profile',
+          entityId: profile.id,
+          after: { id: profile.id, name: profile.name, kind: profile.kind },
+          requestId: actor.requestId,
+        });
+        await this.insertDraft(manager, actor, profile, content, null);
+        return this.detail(manager, profile.id);
+      }),
+    );
+  }
+
+  /** A new draft: a copy of the latest version with the given changes. One open version at a time. */
+  async createVersion(
+    actor: ProfileActor,
+    profileId: string,
+    dto: CreateProfileVersionDto,
+  ): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.lockProfile(manager, profileId);
+      await this.refuseOpenVersion(manager, profile);
+      const base = await this.latestVersion(manager, profileId);
+      const content = { ...this.contentOf(base), ...this.changesOf(dto) };
+      await this.checkContent(manager, profile.kind, content);
+      const v = await this.insertDraft(manager, actor, profile, content, base.number);
+      return this.view(manager, v);
+    });
+  }
+
+  /** Edits a draft (only drafts change; submitted and approved versions are fixed). */
+  async updateVersion(
+    actor: ProfileActor,
+    profileId: string,
+    versionId: string,
+    dto: UpdateProfileVersionDto,
+  ): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.lockProfile(manager, profileId);
+      const v = await this.loadVersion(manager, profileId, versionId);
+      this.expect(v, ['draft'], dto.lockVersion, 'edited');
+      const content = { ...this.contentOf(v), ...this.changesOf(dto) };
+      await this.checkContent(manager, profile.kind, content);
+      return this.view(
+        manager,
+        await this.change(manager, actor, v, content, 'machine-profile-version.update'),
+      );
+    });
+  }
+
+  /** Draft → submitted; every active supervisor gets a mail asking for review. */
+  async submit(
+    actor: ProfileActor,
+    profileId: string,
+    versionId: string,
+    dto: ProfileTransitionDto,
+  ): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.lockProfile(manager, profileId);
+      const v = await this.loadVersion(manager, profileId, versionId);
+      this.expect(v, ['draft'], dto.lockVersion, 'submitted');
+      if (v.settings.length === 0) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          `${AREA}.INCOMPLETE`,
+          'Add the settings for at least one material before submitting the version',
+        );
+      }
+      await this.checkContent(manager, profile.kind, this.contentOf(v));
+      const saved = await this.change(
+        manager,
+        actor,
+        v,
+        { state: 'submitted', submittedBy: actor.id, submittedAt: new Date(), returnReason: null },
+        'machine-profile-version.submit',
+      );
+      const mail = composeMail(
+        `Machine profile to review: ${profile.name}, version ${v.number}`,
+        [
+          `${actor.displayName} has submitted version ${v.number} of the machine profile "${profile.name}" (${profile.kind}) for approval.`,
+          `It holds cutting values for ${v.settings.length} material(s). Jobs can only use it once a supervisor has approved it.`,
+          'Please look it over, then approve it or send it back with a reason.',
+        ],
+        { label: 'Review the machine profile', url: this.link(profile.id) },
+      );
+      await this.mail.enqueue(manager, {
+        kind: 'machine-profile.submitted',
+        to: await this.mail.addressesOfRoles(manager, ['supervisor']),
+        ...mail,
+      });
+      return this.view(manager, saved);
+    });
+  }
+
+  /** Submitted → approved; the version approved before it is retired. Supervisors only. */
+  async approve(
+    actor: ProfileActor,
+    profileId: string,
+    versionId: string,
+    dto: ProfileTransitionDto,
+  ): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.lockProfile(manager, profileId);
+      const v = await this.loadVersion(manager, profileId, versionId);
+      this.expect(v, ['submitted'], dto.lockVersion, 'approved');
+      // Materials may have changed since the version was submitted (e.g. marked not laser-allowed).
+      await this.checkContent(manager, profile.kind, this.contentOf(v));
+      const previous = await manager.findOneBy(MachineProfileVersion, { profileId, state: 'approved' });
+      if (previous) {
+        await this.change(
+          manager,
+          actor,
+          previous,
+          { state: 'retired', retiredBy: actor.id, retiredAt: new Date() },
+          'machine-profile-version.retire',
+        );
+      }
+      const saved = await this.change(
+        manager,
+        actor,
+        v,
+        { state: 'approved', approvedBy: actor.id, approvedAt: new Date() },
+        'machine-profile-version.approve',
+      );
+      await this.notifySubmitter(
+        manager,
+        v,
+        `Machine profile approved: ${profile.name}, version ${v.number}`,
+        [
+          `${actor.displayName} has approved version ${v.number} of the machine profile "${profile.name}".`,
+          previous
+            ? `It replaces version ${previous.number}, which is now retired; new jobs use version ${v.number}.`
+            : 'Jobs can now be prepared with it.',
+        ],
+        profile.id,
+      );
+      return this.view(manager, saved);
+    });
+  }
+
+  /** Submitted → draft with the supervisor's reason; the submitter is told why. */
+  async returnToDraft(
+    actor: ProfileActor,
+    profileId: string,
+    versionId: string,
+    dto: ReturnProfileVersionDto,
+  ): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.lockProfile(manager, profileId);
+      const v = await this.loadVersion(manager, profileId, versionId);
+      this.expect(v, ['submitted'], dto.lockVersion, 'sent back');
+      const saved = await this.change(
+        manager,
+        actor,
+        v,
+        { state: 'draft', returnReason: dto.reason, returnedBy: actor.id, returnedAt: new Date() },
+        'machine-profile-version.return',
+      );
+      await this.notifySubmitter(
+        manager,
+        v,
+        `Machine profile sent back: ${profile.name}, version ${v.number}`,
+        [
+          `${actor.displayName} has sent version ${v.number} of the machine profile "${profile.name}" back to draft.`,
+          `Reason: ${dto.reason}`,
+          'Change the draft and submit it again when it is ready.',
+        ],
+        profile.id,
+      );
+      return this.view(manager, saved);
+    });
+  }
+
+  /** Takes a version out of use (an approved one) or closes an abandoned draft. Supervisors only. */
+  async retire(
+    actor: ProfileActor,
+    profileId: string,
+    versionId: string,
+    dto: ProfileTransitionDto,
+  ): Promise<MachineProfileVersionView> {
+    return this.dataSource.transaction(async (manager) => {
+      await this.lockProfile(manager, profileId);
+      const v = await this.loadVersion(manager, profileId, versionId);
+      this.expect(v, ['approved', 'draft', 'submitted'], dto.lockVersion, 'retired');
+      const saved = await this.change(
+        manager,
+        actor,
+        v,
+        { state: 'retired', retiredBy: actor.id, retiredAt: new Date() },
+        'machine-profile-version.retire',
+      );
+      return this.view(manager, saved);
+    });
+  }
+
+  // ---- helpers shared with kerf records ---------------------------------------------------------
+
+  /** Locks the profile row: every version write of a profile runs one at a time. */
+  async lockProfile(manager: EntityManager, profileId: string): Promise<MachineProfile> {
+    const p = await manager.findOne(MachineProfile, {
+      where: { id: profileId },
+      lock: { mode: 'pessimistic_write' },
+    });
+    if (!p) throw notFound(AREA, 'No such machine profile');
+    return p;
+  }
+
+  async latestVersion(manager: EntityManager, profileId: string): Promise<MachineProfileVersion> {
+    const v = await manager.findOne(MachineProfileVersion, {
+      where: { profileId },
+      order: { number: 'DESC' },
+    });
+    if (!v) throw notFound(AREA, 'The machine profile has no versions');
+    return v;
+  }
+
+  async openVersion(manager: EntityManager, profileId: string): Promise<MachineProfileVersion | null> {
+    return manager.findOneBy(MachineProfileVersion, { profileId, state: In(['draft', 'submitted']) });
+  }
+
+  async insertDraft(
+    manager: EntityManager,
+    actor: { id: string; requestId: string },
+    profile: MachineProfile,
+    content: Required<ProfileVersionContent>,
+    basedOnNumber: number | null,
+  ): Promise<MachineProfileVersion> {
+    const number = basedOnNumber === null ? 1 : (await this.latestVersion(manager, profile.id)).number + 1;
+    const v = await manager.save(
+      MachineProfileVersion,
+      manager.create(MachineProfileVersion, {
+        profileId: profile.id,
+        number,
+        basedOnNumber,
+        state: 'draft',
+        ...content,
+        createdBy: actor.id,
+        lockVersion: 1,
+      }),
+    );
+    await this.audit.record(manager, {
+      actorId: actor.id,
+      action: 'machine-profile-version.create',
+      entityType: 'machine-profile-version',
+      entityId: v.id,
+      after: toVersionView(v, noNames),
+      requestId: actor.requestId,
+    });
+    return v;
+  }
+
+  /** Writes changes to a version if its lock_version is unchanged, raising it; audited. */
+  async change(
+    manager: EntityManager,
+    actor: { id: string; requestId: string },
+    v: MachineProfileVersion,
+    changes: VersionChanges,
+    action: string,
+  ): Promise<MachineProfileVersion> {
+    const result = await manager.update(
+      MachineProfileVersion,
+      { id: v.id, lockVersion: v.lockVersion },
+      { ...changes, lockVersion: v.lockVersion + 1 },
+    );
+    if (result.affected !== 1) throw stale(v.lockVersion);
+    const saved = await manager.findOneByOrFail(MachineProfileVersion, { id: v.id });
+    await this.audit.record(manager, {
+      actorId: actor.id,
+      action,
+      entityType: 'machine-profile-version',
+      entityId: v.id,
+      before: toVersionView(v, noNames),
+      after: toVersionView(saved, noNames),
+      requestId: actor.requestId,
+    });
+    return saved;
+  }
+
+  /**
+   * Checks a version's settings for the machine kind: the right fields for the kind, each material
+   * existing and named once, and on a laser only materials that may be cut on one.
+   */
+  async checkContent(
+    manager: EntityManager,
+    kind: MachineProfileKind,
+    content: ProfileVersionContent,
+  ): Promise<void> {
+    const errors = settingErrors(kind, content.settings);
+    const ids = [...new Set(content.settings.map((s) => s.materialId))];
+    const materials = ids.length ? await manager.findBy(Material, { id: In(ids) }) : [];
+    const byId = new Map(materials.map((m) => [m.id, m]));
+    content.settings.forEach((s, i) => {
+      if (!byId.has(s.materialId))
+        errors.push({ field: `settings[${i}].materialId`, messages: ['no such material'] });
+    });
+    if (errors.length) {
+      throw new AppError(
+        HttpStatus.BAD_REQUEST,
+        'VALIDATION.FAILED',
+        `Invalid request: ${errors.map((e) => `${e.field} (${e.messages.join('; ')})`).join(', ')}`,
+        errors,
+      );
+    }
+    if (!isLaserKind(kind)) return;
+    const table = await this.hazards.rows(manager);
+    for (const [i, s] of content.settings.entries()) {
+      const m = byId.get(s.materialId)!;
+      const refusal = m.laserAllowed
+        ? laserRefusal(m.family, table)
+        : m.hazardNote || 'it is marked as not laser-allowed';
+      if (refusal !== null) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'MATERIAL.LASER_PROHIBITED',
+          `${m.name} may not be cut on a laser, so a ${kind} profile cannot hold settings for it: ${refusal}`,
+          { field: `settings[${i}].materialId`, materialId: m.id, family: m.family },
+        );
+      }
+    }
+  }
+
+  async view(manager: EntityManager, v: MachineProfileVersion): Promise<MachineProfileVersionView> {
+    return toVersionView(v, await this.materialNames(manager, [v]));
+  }
+
+  contentOf(v: ProfileVersionContent): Required<ProfileVersionContent> {
+    return {
+      bedWidthMm: v.bedWidthMm,
+      bedHeightMm: v.bedHeightMm,
+      rapidSpeedMmS: v.rapidSpeedMmS,
+      hourlyRate: v.hourlyRate,
+      currency: v.currency ?? 'EUR',
+      settings: v.settings.map((s) => settingOf(s)),
+      notes: v.notes ?? '',
+    };
+  }
+
+  // ---- private ----------------------------------------------------------------------------------
+
+  private changesOf(dto: Partial<ProfileVersionContent>): Partial<Required<ProfileVersionContent>> {
+    const out: Partial<Required<ProfileVersionContent>> = {};
+    if (dto.bedWidthMm !== undefined) out.bedWidthMm = dto.bedWidthMm;
+    if (dto.bedHeightMm !== undefined) out.bedHeightMm = dto.bedHeightMm;
+    if (dto.rapidSpeedMmS !== undefined) out.rapidSpeedMmS = dto.rapidSpeedMmS;
+    if (dto.hourlyRate !== undefined) out.hourlyRate = dto.hourlyRate;
+    if (dto.currency !== undefined) out.currency = dto.currency;
+    if (dto.settings !== undefined) out.settings = dto.settings.map((s) => settingOf(s));
+    if (dto.notes !== undefined) out.notes = dto.notes;
+    return out;
+  }
+
+  private async loadVersion(
+    manager: EntityManager,
+    profileId: string,
+    versionId: string,
+  ): Promise<MachineProfileVersion> {
+    const v = await manager.findOneBy(MachineProfileVersion, { id: versionId, profileId });
+    if (!v)
+      throw new AppError(
+        HttpStatus.NOT_FOUND,
+        `${AREA}.VERSION_NOT_FOUND`,
+        'No such version of this profile',
+      );
+    return v;
+  }
+
+  private expect(
+    v: MachineProfileVersion,
+    from: ProfileVersionState[],
+    lockVersion: number | undefined,
+    what: string,
+  ): void {
+    if (!from.includes(v.state)) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        `${AREA}.INVALID_STATE`,
+        `Version ${v.number} is ${v.state}; only a ${from.join(' or ')} version can be ${what}`,
+        { state: v.state, allowed: from },
+      );
+    }
+    if (lockVersion !== undefined && lockVersion !== v.lockVersion) throw stale(v.lockVersion, lockVersion);
+  }
+
+  private async refuseOpenVersion(manager: EntityManager, profile: MachineProfile): Promise<void> {
+    const open = await this.openVersion(manager, profile.id);
+    if (open) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        `${AREA}.OPEN_VERSION_EXISTS`,
+        `Version ${open.number} of "${profile.name}" is still ${open.state}: change that version (or have it returned) instead of starting another`,
+        { versionId: open.id, number: open.number, state: open.state },
+      );
+    }
+  }
+
+  private async notifySubmitter(
+    manager: EntityManager,
+    v: MachineProfileVersion,
+    subject: string,
+    paragraphs: string[],
+    profileId: string,
+  ): Promise<void> {
+    if (!v.submittedBy) return;
+    const mail = composeMail(subject, paragraphs, {
+      label: 'Open the machine profile',
+      url: this.link(profileId),
+    });
+    await this.mail.enqueue(manager, {
+      kind: 'machine-profile.decided',
+      to: await this.mail.addressOfUser(manager, v.submittedBy),
+      ...mail,
+    });
+  }
+
+  private link(profileId: string): string {
+    return `${this.mailCfg.appUrl.replace(/\/+$/, '')}/machine-profiles/${profileId}`;
+  }
+
+  private async detail(manager: EntityManager, id: string): Promise<MachineProfileDetailView> {
+    const p = await manager.findOneBy(MachineProfile, { id });
+    if (!p) throw notFound(AREA, 'No such machine profile');
+    const versions = await manager.find(MachineProfileVersion, {
+      where: { profileId: id },
+      order: { number: 'DESC' },
+    });
+    const names = await this.materialNames(manager, versions);
+    return { ...this.summary(p, versions, names), versions: versions.map((v) => toVersionView(v, names)) };
+  }
+
+  /** Versions newest first. */
+  private summary(
+    p: MachineProfile,
+    versions: MachineProfileVersion[],
+    names: ReadonlyMap<string, string>,
+  ): MachineProfileSummaryView {
+    const approved = versions.find((v) => v.state === 'approved');
+    return {
+      id: p.id,
+      name: p.name,
+      kind: p.kind,
+      currentApproved: approved ? toVersionView(approved, names) : null,
+      latest: toVersionView(versions[0]!, names),
+      createdAt: p.createdAt.toISOString(),
+    };
+  }
+
+  private async approvedView(
+    manager: EntityManager,
+    profile: MachineProfile,
+    v: MachineProfileVersion,
+  ): Promise<ApprovedProfileVersion> {
+    return { ...(await this.view(manager, v)), profileName: profile.name, kind: profile.kind };
+  }
+
+  private async materialNames(
+    manager: EntityManager,
+    versions: readonly MachineProfileVersion[],
+  ): Promise<Map<string, string>> {
+    const ids = [...new Set(versions.flatMap((v) => v.settings.map((s) => s.materialId)))];
+    if (ids.length === 0) return new Map();
+    const rows = await manager.find(Material, { where: { id: In(ids) }, select: { id: true, name: true } });
+    return new Map(rows.map((m) => [m.id, m.name]));
+  }
+
+  private async mapDbErrors<T>(work: Promise<T>): Promise<T> {
+    try {
+      return await work;
+    } catch (err) {
+      const pg = pgError(err);
+      if (pg?.code === PG_UNIQUE_VIOLATION && pg.constraint === 'machine_profiles_name_lower_key') {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          `${AREA}.NAME_TAKEN`,
+          'A machine profile with this name already exists',
+          {
+            field: 'name',
+          },
+        );
+      }
+      throw err;
+    }
+  }
+}
+
+/** Only the known fields of a setting, in a stable order (no stray keys reach the database). */
+function settingOf(s: ProfileSetting): ProfileSetting {
+  const out: ProfileSetting = {
+    materialId: s.materialId,
+    cutSpeedMmS: s.cutSpeedMmS,
+    markSpeedMmS: s.markSpeedMmS,
+    passes: s.passes,
+    pierceTimeS: s.pierceTimeS,
+  };
+  if (s.kerfMm !== undefined) out.kerfMm = s.kerfMm;
+  if (s.toolDiameterMm !== undefined) out.toolDiameterMm = s.toolDiameterMm;
+  if (s.powerPct !== undefined) out.powerPct = s.powerPct;
+  if (s.spindleRpm !== undefined) out.spindleRpm = s.spindleRpm;
+  return out;
+}
+
+function stale(current: number, sent?: number): AppError {
+  return new AppError(
+    HttpStatus.CONFLICT,
+    `${AREA}.STALE_VERSION`,
+    `The version was changed by someone else${sent === undefined ? '' : ` (lockVersion now ${current}, you sent ${sent})`}; reload it and try again`,
+    { currentLockVersion: current },
+  );
+}

@@ -1,0 +1,44 @@
+import { Injectable } from '@nestjs/common';
+import { type EntityManager } from 'typeorm';
+import { type Role } from '@kerfwright/contracts';
+
+export interface OutgoingMail {
+  kind: string;
+  to: string[];
+  subject: string;
+  text: string;
+  html: string;
+}
+
+/**
+ * Queues mail in the same transaction as the state change that causes it (a transactional outbox):
+ * the change never waits for the mail server, and a rolled-back change sends nothing.
+ */
+@Injectable()
+export class MailOutboxService {
+  async enqueue(manager: EntityManager, mail: OutgoingMail): Promise<void> {
+    const to = [...new Set(mail.to.map((a) => a.trim()).filter(Boolean))];
+    if (to.length === 0) return;
+    await manager.query(
+      `INSERT INTO mail_outbox (recipients, subject, text_body, html_body, kind) VALUES ($1, $2, $3, $4, $5)`,
+      [JSON.stringify(to), mail.subject.slice(0, 200), mail.text, mail.html, mail.kind],
+    );
+  }
+
+  /** E-mail addresses of the active users holding any of the roles. */
+  async addressesOfRoles(manager: EntityManager, roles: Role[]): Promise<string[]> {
+    const rows: { email: string }[] = await manager.query(
+      `SELECT email FROM users WHERE active AND role = ANY($1::user_role[]) ORDER BY email`,
+      [roles],
+    );
+    return rows.map((r) => r.email);
+  }
+
+  async addressOfUser(manager: EntityManager, userId: string): Promise<string[]> {
+    const rows: { email: string }[] = await manager.query(
+      `SELECT email FROM users WHERE id = $1 AND active`,
+      [userId],
+    );
+    return rows.map((r) => r.email);
+  }
+}

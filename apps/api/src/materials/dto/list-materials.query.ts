@@ -1,0 +1,51 @@
+import { ApiPropertyOptional } from '@nestjs/swagger';
+import { Transform, Type } from 'class-transformer';
+import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
+import {
+  type ListMaterialsQuery,
+  MATERIAL_FAMILIES,
+  MATERIAL_SORT_FIELDS,
+  type MaterialFamily,
+  type MaterialSortField,
+} from '@kerfwright/contracts';
+
+const SORTS = [...MATERIAL_SORT_FIELDS, ...MATERIAL_SORT_FIELDS.map((f) => `-${f}` as const)];
+
+export class ListMaterialsQueryDto implements ListMaterialsQuery {
+  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  page?: number;
+
+  @ApiPropertyOptional({ minimum: 1, maximum: 200, default: 25 })
+  @IsOptional()
+  @Type(() => Number)
+  @IsInt()
+  @Min(1)
+  @Max(200)
+  pageSize?: number;
+
+  @ApiPropertyOptional({ enum: SORTS, default: 'name', description: "A field; prefix '-' for descending" })
+  @IsOptional()
+  @IsIn(SORTS)
+  sort?: MaterialSortField | `-${MaterialSortField}`;
+
+  @ApiPropertyOptional({ enum: MATERIAL_FAMILIES })
+  @IsOptional()
+  @IsIn(MATERIAL_FAMILIES)
+  family?: MaterialFamily;
+
+  @ApiPropertyOptional({ maxLength: 100, description: 'Searched in the name and notes' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(100)
+  q?: string;
+
+  @ApiPropertyOptional({ type: Boolean })
+  @IsOptional()
+  @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))
+  @IsBoolean()
+  laserAllowed?: boolean;
+}

@@ -1,0 +1,60 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { Type } from 'class-transformer';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  Matches,
+  MaxLength,
+  Min,
+  MinLength,
+  ValidateIf,
+  ValidateNested,
+} from 'class-validator';
+import {
+  MACHINE_PROFILE_KINDS,
+  MATERIAL_FAMILIES,
+  type MachineProfileKind,
+  type MaterialFamily,
+} from '@kerfwright/contracts';
+
+export class NoticeFilterQuery {
+  @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
+  @IsOptional()
+  @IsIn(MACHINE_PROFILE_KINDS)
+  machineKind?: MachineProfileKind;
+  @ApiPropertyOptional({ enum: MATERIAL_FAMILIES })
+  @IsOptional()
+  @IsIn(MATERIAL_FAMILIES)
+  materialFamily?: MaterialFamily;
+}
+
+export class LocalRulesDto {
+  @ApiProperty({ maxLength: 20000, description: 'Markdown; shown with every notice' })
+  @IsString()
+  @MinLength(1)
+  @MaxLength(20000)
+  body: string;
+}
+
+export class NoticeVersionRefDto {
+  @ApiProperty() @IsString() @Matches(/^[a-z0-9]+(-[a-z0-9]+)*$/) @MaxLength(80) id: string;
+  @ApiProperty() @IsInt() @Min(1) version: number;
+}
+
+export class AcknowledgeSafetyDto {
+  @ApiProperty({ type: [NoticeVersionRefDto] })
+  @IsArray()
+  @ArrayMaxSize(100)
+  @ValidateNested({ each: true })
+  @Type(() => NoticeVersionRefDto)
+  notices: NoticeVersionRefDto[];
+  @ApiProperty({ nullable: true, type: Number })
+  @ValidateIf((_o, v) => v !== null)
+  @IsInt()
+  @Min(1)
+  localRulesVersion: number | null;
+}

@@ -1,0 +1,210 @@
+import { HttpStatus, Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, type EntityManager } from 'typeorm';
+import {
+  type AcknowledgeSafetyRequest,
+  type JobSafetyView,
+  type LocalRulesView,
+  type MachineProfileKind,
+  type MaterialFamily,
+  type MaterialHazard,
+  noticeApplies,
+  type SafetyNotice,
+} from '@kerfwright/contracts';
+import { AuditService } from '../audit/audit.service';
+import { type AuthUser } from '../common/decorators/auth.decorators';
+import { AppError, notFound } from '../common/errors';
+
+interface NoticeRow {
+  notice_key: string;
+  version: number;
+  title: string;
+  severity: SafetyNotice['severity'];
+  machine_kinds: SafetyNotice['appliesTo']['machineKinds'];
+  material_families: SafetyNotice['appliesTo']['materialFamilies'];
+  body: string;
+  sources: string[];
+}
+
+const toNotice = (r: NoticeRow): SafetyNotice => ({
+  id: r.notice_key,
+  version: r.version,
+  title: r.title,
+  severity: r.severity,
+  appliesTo: { machineKinds: r.machine_kinds, materialFamilies: r.material_families },
+  body: r.body,
+  sources: r.sources,
+});
+
+const SEVERITY_ORDER: Record<string, number> = { danger: 0, warning: 1, caution: 2 };
+
+/** Safety notices (current versions), the hazard table, local rules and operators' acknowledgements. */
+@Injectable()
+export class SafetyService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+  ) {}
+
+  async notices(
+    filter: { machineKind?: MachineProfileKind; materialFamily?: MaterialFamily } = {},
+    m: EntityManager = this.dataSource.manager,
+  ): Promise<SafetyNotice[]> {
+    const rows: NoticeRow[] = await m.query(`SELECT * FROM safety_notices WHERE current ORDER BY notice_key`);
+    return rows
+      .map(toNotice)
+      .filter((n) => {
+        const kinds = n.appliesTo.machineKinds as readonly string[];
+        const families = n.appliesTo.materialFamilies as readonly string[];
+        return (
+          (!filter.machineKind || kinds.includes('*') || kinds.includes(filter.machineKind)) &&
+          (!filter.materialFamily || families.includes('*') || families.includes(filter.materialFamily))
+        );
+      })
+      .sort(
+        (a, b) =>
+          (SEVERITY_ORDER[a.severity] ?? 9) - (SEVERITY_ORDER[b.severity] ?? 9) || a.id.localeCompare(b.id),
+      );
+  }
+
+  async hazards(): Promise<MaterialHazard[]> {
+    const rows: (MaterialHazard & { condition: string | null })[] = await this.dataSource.query(
+      `SELECT family, examples, laser, hazard, condition, source FROM material_hazards ORDER BY laser DESC, family`,
+    );
+    return rows.map(({ condition, ...r }) => (condition ? { ...r, condition } : r));
+  }
+
+  async localRules(m: EntityManager = this.dataSource.manager): Promise<LocalRulesView | null> {
+    const rows: { version: number; body: string; author_name: string | null; created_at: Date }[] =
+      await m.query(
+        `SELECT r.version, r.body, u.display_name AS author_name, r.created_at
+         FROM local_rules r LEFT JOIN users u ON u.id = r.author_id ORDER BY r.version DESC LIMIT 1`,
+      );
+    const r = rows[0];
+    return r
+      ? {
+          version: r.version,
+          body: r.body,
+          authorName: r.author_name,
+          updatedAt: new Date(r.created_at).toISOString(),
+        }
+      : null;
+  }
+
+  async updateLocalRules(user: AuthUser, body: string, requestId: string): Promise<LocalRulesView> {
+    return this.dataSource.transaction(async (m) => {
+      await m.query(`LOCK TABLE local_rules IN EXCLUSIVE MODE`);
+      const before = await this.localRules(m);
+      const version = (before?.version ?? 0) + 1;
+      await m.query(`INSERT INTO local_rules (version, body, author_id) VALUES ($1, $2, $3)`, [
+        version,
+        body,
+        user.id,
+      ]);
+      await this.audit.record(m, {
+        actorId: user.id,
+        action: 'safety.local-rules',
+        entityType: 'safety',
+        entityId: 'local-rules',
+        before: before ?? undefined,
+        after: { version, body },
+        requestId,
+      });
+      return (await this.localRules(m))!;
+    });
+  }
+
+  /** The notices that apply to a job's machine and material, and whether the caller acknowledged them. */
+  async forJob(
+    user: AuthUser,
+    jobId: string,
+    m: EntityManager = this.dataSource.manager,
+  ): Promise<JobSafetyView> {
+    const rows: {
+      requester_id: string;
+      state: string;
+      kind: MachineProfileKind | null;
+      family: MaterialFamily | null;
+    }[] = await m.query(
+      `SELECT j.requester_id, j.state, p.kind, mat.family
+         FROM jobs j
+         LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
+         LEFT JOIN machine_profiles p ON p.id = v.profile_id
+         LEFT JOIN materials mat ON mat.id = j.material_id
+        WHERE j.id = $1`,
+      [jobId],
+    );
+    const job = rows[0];
+    if (!job || (user.role === 'hobbyist' && job.requester_id !== user.id))
+      throw notFound('JOB', 'No such job');
+    const all = await this.notices({}, m);
+    const notices =
+      job.kind && job.family ? all.filter((n) => noticeApplies(n, job.kind!, job.family!)) : all;
+    const localRules = await this.localRules(m);
+    const acks: {
+      notice_versions: { id: string; version: number }[];
+      local_rules_version: number | null;
+      created_at: Date;
+    }[] = await m.query(
+      `SELECT notice_versions, local_rules_version, created_at FROM safety_acknowledgements
+          WHERE job_id = $1 AND user_id = $2 ORDER BY created_at DESC LIMIT 1`,
+      [jobId, user.id],
+    );
+    const last = acks[0];
+    const acknowledged =
+      !!last &&
+      (last.local_rules_version ?? null) === (localRules?.version ?? null) &&
+      notices.every((n) => last.notice_versions.some((a) => a.id === n.id && a.version === n.version));
+    return {
+      jobId,
+      machineKind: job.kind,
+      materialFamily: job.family,
+      notices,
+      localRules,
+      acknowledged,
+      acknowledgedAt: acknowledged && last ? new Date(last.created_at).toISOString() : null,
+    };
+  }
+
+  /**
+   * Records that the caller read and accepts exactly the current notice versions for the job. A stale list
+   * (a notice changed since the page was opened) is refused so nobody acknowledges text they did not see.
+   */
+  async acknowledge(
+    user: AuthUser,
+    jobId: string,
+    dto: AcknowledgeSafetyRequest,
+    requestId: string,
+  ): Promise<JobSafetyView> {
+    return this.dataSource.transaction(async (m) => {
+      const view = await this.forJob(user, jobId, m);
+      const want = view.notices.map((n) => `${n.id}@${n.version}`).sort();
+      const got = dto.notices.map((n) => `${n.id}@${n.version}`).sort();
+      const rulesMatch = (dto.localRulesVersion ?? null) === (view.localRules?.version ?? null);
+      if (want.join('|') !== got.join('|') || !rulesMatch) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'SAFETY.STALE_ACKNOWLEDGEMENT',
+          'The safety notices changed; read the current ones and acknowledge again',
+          {
+            current: view.notices.map((n) => ({ id: n.id, version: n.version })),
+            localRulesVersion: view.localRules?.version ?? null,
+          },
+        );
+      }
+      await m.query(
+        `INSERT INTO safety_acknowledgements (job_id, user_id, notice_versions, local_rules_version) VALUES ($1, $2, $3, $4)`,
+        [jobId, user.id, JSON.stringify(dto.notices), dto.localRulesVersion],
+      );
+      await this.audit.record(m, {
+        actorId: user.id,
+        action: 'safety.acknowledge',
+        entityType: 'job',
+        entityId: jobId,
+        after: { notices: got, localRulesVersion: dto.localRulesVersion },
+        requestId,
+      });
+      return this.forJob(user, jobId, m);
+    });
+  }
+}

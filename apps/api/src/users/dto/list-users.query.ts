@@ -1,0 +1,21 @@
+import { Type } from 'class-transformer';
+import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
+import { ROLES, type Role } from '@kerfwright/contracts';
+import { Transform } from 'class-transformer';
+
+export const USER_SORT_FIELDS = ['email', 'displayName', 'role', 'createdAt'] as const;
+
+export class ListUsersQuery {
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1) page?: number;
+  @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize?: number;
+  /** A field name, optionally prefixed with '-' for descending order. */
+  @IsOptional()
+  @IsIn([...USER_SORT_FIELDS, ...USER_SORT_FIELDS.map((f) => `-${f}`)])
+  sort?: string;
+  @IsOptional() @IsIn(ROLES) role?: Role;
+  @IsOptional()
+  @Transform(({ value }) => (value === 'true' ? true : value === 'false' ? false : value))
+  @IsBoolean()
+  active?: boolean;
+  @IsOptional() @IsString() @MaxLength(100) q?: string;
+}

@@ -1,0 +1,83 @@
+import { HttpStatus, Injectable } from '@nestjs/common';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, Repository } from 'typeorm';
+import { type Page, type UserView } from '@kerfwright/contracts';
+import { AuditService } from '../audit/audit.service';
+import { AppError, notFound } from '../common/errors';
+import { type ListUsersQuery } from './dto/list-users.query';
+import { type UpdateUserDto } from './dto/update-user.dto';
+import { toUserView, User } from './user.entity';
+
+const SORT_COLUMNS: Record<string, string> = {
+  email: 'u.email',
+  displayName: 'u.display_name',
+  role: 'u.role',
+  createdAt: 'u.created_at',
+};
+
+@Injectable()
+export class UsersService {
+  constructor(
+    @InjectRepository(User) private readonly users: Repository<User>,
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+  ) {}
+
+  async list(query: ListUsersQuery): Promise<Page<UserView>> {
+    const page = query.page ?? 1;
+    const pageSize = query.pageSize ?? 25;
+    const sort = query.sort ?? 'email';
+    const desc = sort.startsWith('-');
+    const column = SORT_COLUMNS[desc ? sort.slice(1) : sort] ?? 'u.email';
+    const qb = this.users.createQueryBuilder('u');
+    if (query.role) qb.andWhere('u.role = :role', { role: query.role });
+    if (query.active !== undefined) qb.andWhere('u.active = :active', { active: query.active });
+    if (query.q) {
+      const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      qb.andWhere('(u.email ILIKE :like OR u.display_name ILIKE :like)', { like });
+    }
+    qb.orderBy(column, desc ? 'DESC' : 'ASC')
+      .addOrderBy('u.id', 'ASC')
+      .skip((page - 1) * pageSize)
+      .take(pageSize);
+    const [rows, total] = await qb.getManyAndCount();
+    return { items: rows.map(toUserView), total, page, pageSize };
+  }
+
+  async update(actorId: string, id: string, dto: UpdateUserDto, requestId: string): Promise<UserView> {
+    if (dto.role === undefined && dto.active === undefined) {
+      throw new AppError(
+        HttpStatus.BAD_REQUEST,
+        'VALIDATION.FAILED',
+        'Nothing to change: give role or active',
+        [{ field: 'role', messages: ['role or active is required'] }],
+      );
+    }
+    if (id === actorId) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'USER.SELF_CHANGE',
+        'Supervisors cannot change their own role or deactivate themselves; ask another supervisor',
+      );
+    }
+    return this.dataSource.transaction(async (manager) => {
+      const user = await manager.findOne(User, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!user) throw notFound('USER', 'No such user');
+      const before = toUserView(user);
+      if (dto.role !== undefined) user.role = dto.role;
+      if (dto.active !== undefined) user.active = dto.active;
+      const saved = await manager.save(User, user);
+      const after = toUserView(saved);
+      await this.audit.record(manager, {
+        actorId,
+        action: 'user.update',
+        entityType: 'user',
+        entityId: id,
+        before,
+        after,
+        requestId,
+      });
+      return after;
+    });
+  }
+}

@@ -1,0 +1,138 @@
+import { JwtService } from '@nestjs/jwt';
+import { randomUUID } from 'node:crypto';
+import { DEV_JWT_SECRET } from '../src/config/env.validation';
+import { countRows, createUser, expectErrorBody, startTestApp, type TestContext } from './support/test-app';
+
+describe('sign-in and registration (real PostgreSQL)', () => {
+  let ctx: TestContext;
+  beforeAll(async () => {
+    ctx = await startTestApp();
+  });
+  afterAll(async () => {
+    await ctx.app.close();
+  });
+
+  it('reports PostgreSQL and Redis up on /api/health', async () => {
+    const res = await ctx.http.get('/api/health').expect(200);
+    expect(res.body).toMatchObject({ status: 'ok', database: 'up', redis: 'up' });
+  });
+
+  it('registers a hobbyist and returns a working token', async () => {
+    const email = `new-${randomUUID().slice(0, 8)}@tests.example`;
+    const res = await ctx.http
+      .post('/api/auth/register')
+      .send({ email, displayName: 'Ada New', password: 'a-long-password' })
+      .expect(201);
+    expect(res.body.user).toMatchObject({ email, role: 'hobbyist', active: true });
+    const me = await ctx.http
+      .get('/api/auth/me')
+      .set('Authorization', `Bearer ${res.body.accessToken}`)
+      .expect(200);
+    expect(me.body.email).toBe(email);
+  });
+
+  it('refuses a second account with the same e-mail in any letter case', async () => {
+    const email = `dup-${randomUUID().slice(0, 8)}@tests.example`;
+    await ctx.http
+      .post('/api/auth/register')
+      .send({ email, displayName: 'One', password: 'a-long-password' })
+      .expect(201);
+    const res = await ctx.http
+      .post('/api/auth/register')
+      .send({ email: email.toUpperCase(), displayName: 'Two', password: 'a-long-password' })
+      .expect(409);
+    expectErrorBody(res.body, 409, 'AUTH.EMAIL_TAKEN');
+  });
+
+  it('rejects a malformed body with 400 naming the field, and writes nothing', async () => {
+    const before = await countRows(ctx, 'users');
+    const res = await ctx.http
+      .post('/api/auth/register')
+      .send({ email: 'not-an-email', displayName: 'X', password: 'short' })
+      .expect(400);
+    expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+    const fields = (res.body.details as { field: string }[]).map((d) => d.field).sort();
+    expect(fields).toEqual(['email', 'password']);
+    expect(await countRows(ctx, 'users')).toBe(before);
+  });
+
+  it('refuses to let a registration choose its own role', async () => {
+    const before = await countRows(ctx, 'users');
+    const res = await ctx.http
+      .post('/api/auth/register')
+      .send({
+        email: `esc-${randomUUID().slice(0, 8)}@tests.example`,
+        displayName: 'E',
+        password: 'a-long-password',
+        role: 'supervisor',
+      })
+      .expect(400);
+    expect(res.body.details).toEqual([expect.objectContaining({ field: 'role' })]);
+    expect(await countRows(ctx, 'users')).toBe(before);
+  });
+
+  it('answers a wrong password and an unknown e-mail alike with 401', async () => {
+    const user = await createUser(ctx, 'operator');
+    const wrong = await ctx.http
+      .post('/api/auth/login')
+      .send({ email: user.email, password: 'wrong-password' })
+      .expect(401);
+    expectErrorBody(wrong.body, 401, 'AUTH.INVALID_CREDENTIALS');
+    const unknown = await ctx.http
+      .post('/api/auth/login')
+      .send({ email: 'nobody@tests.example', password: 'wrong-password' })
+      .expect(401);
+    expect(unknown.body.message).toBe(wrong.body.message);
+  });
+
+  it('answers malformed JSON with 400 and the error body', async () => {
+    const res = await ctx.http
+      .post('/api/auth/login')
+      .set('Content-Type', 'application/json')
+      .send('{"email":')
+      .expect(400);
+    expectErrorBody(res.body, 400);
+  });
+
+  it('refuses requests without, with a tampered, or with an expired token', async () => {
+    const user = await createUser(ctx, 'fabricator');
+    expectErrorBody((await ctx.http.get('/api/auth/me').expect(401)).body, 401, 'AUTH.UNAUTHENTICATED');
+    const [h, p, s] = user.token.split('.');
+    const forgedPayload = Buffer.from(JSON.stringify({ sub: user.id, role: 'supervisor' })).toString(
+      'base64url',
+    );
+    const tampered = `${h}.${forgedPayload}.${s}`;
+    await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${tampered}`).expect(401);
+    expect(p).toBeDefined();
+    const otherKey = new JwtService({ secret: 'some-other-secret-entirely-0123456789' });
+    const foreign = await otherKey.signAsync({ sub: user.id, role: 'supervisor' });
+    await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${foreign}`).expect(401);
+    const secret = process.env.KW_JWT_SECRET ?? DEV_JWT_SECRET;
+    const expired = await new JwtService({ secret }).signAsync(
+      { sub: user.id, role: user.role, exp: Math.floor(Date.now() / 1000) - 60 },
+      {},
+    );
+    await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${expired}`).expect(401);
+  });
+
+  it('stops a deactivated user’s token at once', async () => {
+    const user = await createUser(ctx, 'hobbyist');
+    await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${user.token}`).expect(200);
+    await ctx.db.query(`UPDATE users SET active = false WHERE id = $1`, [user.id]);
+    await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${user.token}`).expect(401);
+    await ctx.http.post('/api/auth/login').send({ email: user.email, password: user.password }).expect(401);
+  });
+
+  it('limits sign-in attempts per address and e-mail with 429', async () => {
+    const email = `brute-${randomUUID().slice(0, 8)}@tests.example`;
+    const limit = Number(process.env.KW_LOGIN_LIMIT ?? 10);
+    for (let i = 0; i < limit; i++) {
+      await ctx.http.post('/api/auth/login').send({ email, password: 'guess-guess' }).expect(401);
+    }
+    const res = await ctx.http.post('/api/auth/login').send({ email, password: 'guess-guess' }).expect(429);
+    expectErrorBody(res.body, 429, 'RATE_LIMIT.EXCEEDED');
+    // Another account from the same address is not locked out.
+    const other = await createUser(ctx, 'hobbyist');
+    expect(other.token).toBeTruthy();
+  });
+});

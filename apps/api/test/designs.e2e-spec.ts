@@ -1,0 +1,182 @@
+import {
+  createUser,
+  countRows,
+  expectErrorBody,
+  startTestApp,
+  type TestContext,
+  type TestUser,
+} from './support/test-app';
+import { octahedronHexagons } from './support/workshop-fixtures';
+
+// A small convex solid of our own as OFF text: a square pyramid (5 vertices, 5 faces).
+const PYRAMID_OFF = `OFF
+5 5 0
+-1 -1 0
+1 -1 0
+1 1 0
+-1 1 0
+0 0 1.2
+4 0 3 2 1
+3 0 1 4
+3 1 2 4
+3 2 3 4
+3 3 0 4
+`;
+
+describe('designs', () => {
+  let ctx: TestContext;
+  let owner: TestUser;
+  let other: TestUser;
+  let fabricator: TestUser;
+  let supervisor: TestUser;
+  beforeAll(async () => {
+    ctx = await startTestApp();
+    owner = await createUser(ctx, 'hobbyist');
+    other = await createUser(ctx, 'hobbyist');
+    fabricator = await createUser(ctx, 'fabricator');
+    supervisor = await createUser(ctx, 'supervisor');
+  });
+  afterAll(async () => {
+    await ctx.app.close();
+  });
+  const auth = (u: TestUser) => ({ Authorization: `Bearer ${u.token}` });
+
+  async function create(u: TestUser, name = 'Reading-room octahedron') {
+    const res = await ctx.http
+      .post('/api/designs')
+      .set(auth(u))
+      .send({ name, spec: octahedronHexagons() })
+      .expect(201);
+    return res.body;
+  }
+
+  it('creates a design with the engine’s preview figures', async () => {
+    const d = await create(owner);
+    expect(d.ownerId).toBe(owner.id);
+    // The octahedron has 8 faces and 12 edges (Euler: 6 − 12 + 8 = 2); hexagons of this size meet at every edge.
+    expect(d.preview).toMatchObject({ valid: true, pieceCount: 8, crossingCount: 12 });
+    expect(d.preview.diameterMm).toBeCloseTo(240, 1);
+  });
+
+  it('refuses a malformed spec naming the field, and stores nothing', async () => {
+    const before = await countRows(ctx, 'designs');
+    const spec = { ...octahedronHexagons(), piece: { sides: 6, step: 2, size: 1.3 } };
+    const res = await ctx.http
+      .post('/api/designs')
+      .set(auth(owner))
+      .send({ name: 'Compound', spec })
+      .expect(400);
+    expectErrorBody(res.body, 400, 'DESIGN.INVALID_SPEC');
+    expect(res.body.details.map((d: { field: string }) => d.field)).toContain('spec.piece.step');
+    expect(await countRows(ctx, 'designs')).toBe(before);
+  });
+
+  it('keeps designs private between hobbyists (404), visible to staff', async () => {
+    const d = await create(owner);
+    const nf = await ctx.http.get(`/api/designs/${d.id}`).set(auth(other)).expect(404);
+    expectErrorBody(nf.body, 404, 'DESIGN.NOT_FOUND');
+    await ctx.http
+      .patch(`/api/designs/${d.id}`)
+      .set(auth(other))
+      .send({ name: 'Mine now', version: d.version })
+      .expect(404);
+    await ctx.http.delete(`/api/designs/${d.id}`).set(auth(other)).expect(404);
+    await ctx.http.post(`/api/designs/${d.id}/duplicate`).set(auth(other)).expect(404);
+    await ctx.http.get(`/api/designs/${d.id}`).set(auth(fabricator)).expect(200);
+    const list = await ctx.http.get('/api/designs?pageSize=200').set(auth(other)).expect(200);
+    expect(list.body.items.every((x: { ownerId: string }) => x.ownerId === other.id)).toBe(true);
+  });
+
+  it('lets staff read but only the owner or a supervisor change a design', async () => {
+    const d = await create(owner);
+    const res = await ctx.http
+      .patch(`/api/designs/${d.id}`)
+      .set(auth(fabricator))
+      .send({ name: 'X', version: d.version })
+      .expect(403);
+    expectErrorBody(res.body, 403, 'DESIGN.NOT_OWNER');
+    await ctx.http
+      .patch(`/api/designs/${d.id}`)
+      .set(auth(supervisor))
+      .send({ name: 'Renamed', version: d.version })
+      .expect(200);
+  });
+
+  it('refuses a stale version with 409', async () => {
+    const d = await create(owner);
+    await ctx.http
+      .patch(`/api/designs/${d.id}`)
+      .set(auth(owner))
+      .send({ name: 'First', version: d.version })
+      .expect(200);
+    const res = await ctx.http
+      .patch(`/api/designs/${d.id}`)
+      .set(auth(owner))
+      .send({ name: 'Second', version: d.version })
+      .expect(409);
+    expectErrorBody(res.body, 409, 'DESIGN.STALE_VERSION');
+  });
+
+  it('duplicates a design into the caller’s own', async () => {
+    const d = await create(owner);
+    const copy = await ctx.http.post(`/api/designs/${d.id}/duplicate`).set(auth(fabricator)).expect(201);
+    expect(copy.body).toMatchObject({ ownerId: fabricator.id, name: `${d.name} (copy)`, spec: d.spec });
+  });
+
+  it('accepts an uploaded OFF solid checked by the engine', async () => {
+    const d = await create(owner);
+    const check = await ctx.http
+      .post('/api/designs/solid-check')
+      .set(auth(owner))
+      .attach('file', Buffer.from(PYRAMID_OFF), 'pyramid.off')
+      .expect(200);
+    expect(check.body).toMatchObject({ format: 'off', vertexCount: 5, faceCount: 5 });
+    const res = await ctx.http
+      .post(`/api/designs/${d.id}/solid`)
+      .set(auth(owner))
+      .attach('file', Buffer.from(PYRAMID_OFF), 'pyramid.off')
+      .expect(201);
+    expect(res.body.solidFileName).toBe('pyramid.off');
+    expect(res.body.preview.pieceCount).toBe(5);
+  });
+
+  it.each([
+    ['a coplanar point set', 'OFF\n4 1 0\n0 0 0\n1 0 0\n0 1 0\n1 1 0\n4 0 1 3 2\n', 'scatter.off', 400],
+    ['text that is not OBJ or OFF', 'hello world, not a solid', 'notes.obj', 400],
+    ['NaN coordinates', 'v 0 0 0\nv 1 0 0\nv 0 1 0\nv 0 0 NaN\n', 'nan.obj', 400],
+    ['a wrong file type', 'v 0 0 0', 'model.stl', 415],
+    ['binary content', '\u0000\u0001\u0002binary', 'blob.obj', 400],
+  ])('refuses %s and stores nothing', async (_what, text, name, status) => {
+    const d = await create(owner);
+    const res = await ctx.http
+      .post(`/api/designs/${d.id}/solid`)
+      .set(auth(owner))
+      .attach('file', Buffer.from(text), name)
+      .expect(status);
+    expectErrorBody(res.body, status);
+    const after = await ctx.http.get(`/api/designs/${d.id}`).set(auth(owner)).expect(200);
+    expect(after.body.spec.solid).toBe('octahedron');
+    expect(after.body.version).toBe(d.version);
+  });
+
+  it('refuses an upload over the size limit with 413', async () => {
+    const d = await create(owner);
+    const big = Buffer.alloc(2 * 1024 * 1024 + 10, 'v 0 0 0\n');
+    const res = await ctx.http
+      .post(`/api/designs/${d.id}/solid`)
+      .set(auth(owner))
+      .attach('file', big, 'big.obj')
+      .expect(413);
+    expectErrorBody(res.body, 413);
+  });
+
+  it('refuses to delete a design that has jobs, and deletes one that has none', async () => {
+    const d = await create(owner);
+    await ctx.http.post('/api/jobs').set(auth(owner)).send({ designId: d.id }).expect(201);
+    const res = await ctx.http.delete(`/api/designs/${d.id}`).set(auth(owner)).expect(409);
+    expectErrorBody(res.body, 409, 'DESIGN.IN_USE');
+    const free = await create(owner);
+    await ctx.http.delete(`/api/designs/${free.id}`).set(auth(owner)).expect(204);
+    await ctx.http.get(`/api/designs/${free.id}`).set(auth(owner)).expect(404);
+  });
+});

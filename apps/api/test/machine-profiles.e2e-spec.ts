@@ -1,0 +1,836 @@
+import * as fs from 'node:fs';
+import * as path from 'node:path';
+import { randomUUID } from 'node:crypto';
+import { type MaterialHazard, type Role } from '@kerfwright/contracts';
+import { type MailCatcher, startMailCatcher } from '../src/dev-mail/mail-catcher';
+import { MachineProfilesService } from '../src/machine-profiles/machine-profiles.service';
+import { MailDispatcherService } from '../src/mail/mail-dispatcher.service';
+import {
+  countRows,
+  createUser,
+  expectErrorBody,
+  startTestApp,
+  type TestContext,
+  type TestUser,
+} from './support/test-app';
+
+/** The workshop's hazard table as shipped in safety/ (the file the seed loads into material_hazards). */
+const HAZARD_FILE = path.join(__dirname, '..', '..', '..', 'safety', 'material-hazards.json');
+const HAZARDS = (JSON.parse(fs.readFileSync(HAZARD_FILE, 'utf8')) as { rows: MaterialHazard[] }).rows;
+
+async function ensureHazardTable(ctx: TestContext): Promise<void> {
+  for (const r of HAZARDS) {
+    await ctx.db.query(
+      `INSERT INTO material_hazards (family, examples, laser, hazard, condition, source) VALUES ($1, $2, $3, $4, $5, $6)
+       ON CONFLICT (family) DO NOTHING`,
+      [r.family, JSON.stringify(r.examples), r.laser, r.hazard, r.condition ?? null, r.source],
+    );
+  }
+}
+
+const ROLES: Role[] = ['hobbyist', 'fabricator', 'operator', 'supervisor'];
+const unique = (prefix: string): string => `${prefix} ${randomUUID().slice(0, 8)}`;
+
+interface VersionBody {
+  id: string;
+  number: number;
+  state: string;
+  lockVersion: number;
+  settings: { materialId: string; kerfMm?: number; toolDiameterMm?: number; materialName: string }[];
+  basedOnNumber: number | null;
+  returnReason: string | null;
+}
+interface ProfileBody {
+  id: string;
+  name: string;
+  latest: VersionBody;
+  currentApproved: VersionBody | null;
+  versions: VersionBody[];
+}
+
+describe('machine profiles, versions and kerf records', () => {
+  let ctx: TestContext;
+  let catcher: MailCatcher;
+  const users = {} as Record<Role, TestUser>;
+  let secondSupervisor: TestUser;
+  let plywood: string;
+  let acrylic: string;
+  let pvc: string;
+  let felt: string;
+  const auth = (who: Role | TestUser) => ({
+    Authorization: `Bearer ${typeof who === 'string' ? users[who].token : who.token}`,
+  });
+
+  /** CO2 laser on 3 mm birch plywood: about 0.15 mm kerf (common practice, from memory). */
+  const laserSetting = (materialId: string, kerfMm = 0.15) => ({
+    materialId,
+    kerfMm,
+    cutSpeedMmS: 15,
+    markSpeedMmS: 300,
+    powerPct: 70,
+    passes: 1,
+    pierceTimeS: 0.2,
+  });
+  /** A 1/8 inch (3.175 mm) two-flute end mill is a usual router bit for 3–6 mm sheet (common practice). */
+  const routerSetting = (materialId: string, toolDiameterMm = 3.175) => ({
+    materialId,
+    toolDiameterMm,
+    cutSpeedMmS: 20,
+    markSpeedMmS: 40,
+    passes: 2,
+    pierceTimeS: 0,
+    spindleRpm: 18000,
+  });
+  const profileBody = (overrides: Record<string, unknown> = {}) => ({
+    name: unique('Bay laser'),
+    kind: 'co2-laser',
+    bedWidthMm: 600,
+    bedHeightMm: 400,
+    rapidSpeedMmS: 500,
+    hourlyRate: 30,
+    currency: 'EUR',
+    settings: [laserSetting(plywood)],
+    notes: 'test profile',
+    ...overrides,
+  });
+
+  async function material(family: string, extra: Record<string, unknown> = {}): Promise<string> {
+    const res = await ctx.http
+      .post('/api/materials')
+      .set(auth('fabricator'))
+      .send({ name: unique(`${family} sheet`), family, nominalThicknessMm: 3, ...extra })
+      .expect(201);
+    return res.body.id as string;
+  }
+  async function createProfile(overrides: Record<string, unknown> = {}): Promise<ProfileBody> {
+    const res = await ctx.http
+      .post('/api/machine-profiles')
+      .set(auth('fabricator'))
+      .send(profileBody(overrides));
+    expect(res.status).toBe(201);
+    return res.body as ProfileBody;
+  }
+  const versionPath = (p: { id: string }, v: { id: string }, action = '') =>
+    `/api/machine-profiles/${p.id}/versions/${v.id}${action ? `/${action}` : ''}`;
+  function act(who: Role | TestUser, p: { id: string }, v: { id: string }, action: string, body = {}) {
+    return ctx.http
+      .post(versionPath(p, v, action))
+      .set(auth(who))
+      .send(body);
+  }
+  async function submitted(overrides: Record<string, unknown> = {}) {
+    const p = await createProfile(overrides);
+    const v = (await act('fabricator', p, p.latest, 'submit').expect(200)).body as VersionBody;
+    return { p, v };
+  }
+  async function approved(overrides: Record<string, unknown> = {}) {
+    const { p, v } = await submitted(overrides);
+    const a = (await act('supervisor', p, v, 'approve').expect(200)).body as VersionBody;
+    return { p, v: a };
+  }
+  async function kerfRecord(p: { id: string }, materialId: string, kerfMm: number) {
+    const res = await ctx.http
+      .post(`/api/machine-profiles/${p.id}/kerf-records`)
+      .set(auth('operator'))
+      .send({ materialId, kerfMm, notes: 'test cut, 20 mm square, callipers' })
+      .expect(201);
+    return res.body as { id: string; kerfMm: number; adoptedVersionId: string | null };
+  }
+  async function mailsAbout(text: string) {
+    await ctx.app.get(MailDispatcherService).dispatchDue();
+    return catcher.messages.filter((m) => m.subject.includes(text));
+  }
+
+  beforeAll(async () => {
+    catcher = await startMailCatcher({ smtpPort: 0 });
+    process.env.KW_SMTP_PORT = String(catcher.smtpPort);
+    ctx = await startTestApp();
+    await ensureHazardTable(ctx);
+    for (const role of ROLES) users[role] = await createUser(ctx, role);
+    secondSupervisor = await createUser(ctx, 'supervisor');
+    plywood = await material('plywood');
+    acrylic = await material('acrylic');
+    felt = await material('felt');
+    pvc = await material('pvc');
+  });
+  afterAll(async () => {
+    await ctx.app.close();
+    await catcher.stop();
+  });
+
+  describe('role matrix', () => {
+    type Call = { method: 'get' | 'post' | 'patch'; path: string; body?: object };
+    const all = ROLES;
+    const routes: { name: string; allowed: Role[]; call: () => Promise<Call> }[] = [
+      {
+        name: 'GET /machine-profiles',
+        allowed: all,
+        call: async () => ({ method: 'get', path: '/api/machine-profiles' }),
+      },
+      {
+        name: 'POST /machine-profiles',
+        allowed: ['fabricator', 'supervisor'],
+        call: async () => ({ method: 'post', path: '/api/machine-profiles', body: profileBody() }),
+      },
+      {
+        name: 'GET /machine-profiles/:id',
+        allowed: all,
+        call: async () => ({ method: 'get', path: `/api/machine-profiles/${(await createProfile()).id}` }),
+      },
+      {
+        name: 'POST /machine-profiles/:id/versions',
+        allowed: ['fabricator', 'supervisor'],
+        call: async () => {
+          const { p } = await approved();
+          return { method: 'post', path: `/api/machine-profiles/${p.id}/versions`, body: { hourlyRate: 35 } };
+        },
+      },
+      {
+        name: 'PATCH /machine-profiles/:id/versions/:versionId',
+        allowed: ['fabricator', 'supervisor'],
+        call: async () => {
+          const p = await createProfile();
+          return {
+            method: 'patch',
+            path: versionPath(p, p.latest),
+            body: { lockVersion: 1, notes: 'edited' },
+          };
+        },
+      },
+      {
+        name: 'POST …/submit',
+        allowed: ['fabricator', 'supervisor'],
+        call: async () => {
+          const p = await createProfile();
+          return { method: 'post', path: versionPath(p, p.latest, 'submit'), body: {} };
+        },
+      },
+      {
+        name: 'POST …/approve',
+        allowed: ['supervisor'],
+        call: async () => {
+          const { p, v } = await submitted();
+          return { method: 'post', path: versionPath(p, v, 'approve'), body: {} };
+        },
+      },
+      {
+        name: 'POST …/return',
+        allowed: ['supervisor'],
+        call: async () => {
+          const { p, v } = await submitted();
+          return { method: 'post', path: versionPath(p, v, 'return'), body: { reason: 'Power too high' } };
+        },
+      },
+      {
+        name: 'POST …/retire',
+        allowed: ['supervisor'],
+        call: async () => {
+          const { p, v } = await approved();
+          return { method: 'post', path: versionPath(p, v, 'retire'), body: {} };
+        },
+      },
+      {
+        name: 'POST /machine-profiles/:id/kerf-records',
+        allowed: ['operator', 'fabricator', 'supervisor'],
+        call: async () => {
+          const p = await createProfile();
+          return {
+            method: 'post',
+            path: `/api/machine-profiles/${p.id}/kerf-records`,
+            body: { materialId: plywood, kerfMm: 0.16 },
+          };
+        },
+      },
+      {
+        name: 'GET /machine-profiles/:id/kerf-records',
+        allowed: ['operator', 'fabricator', 'supervisor'],
+        call: async () => ({
+          method: 'get',
+          path: `/api/machine-profiles/${(await createProfile()).id}/kerf-records`,
+        }),
+      },
+      {
+        name: 'POST …/kerf-records/:recordId/adopt',
+        allowed: ['fabricator', 'supervisor'],
+        call: async () => {
+          const { p } = await approved();
+          const r = await kerfRecord(p, plywood, 0.17);
+          return {
+            method: 'post',
+            path: `/api/machine-profiles/${p.id}/kerf-records/${r.id}/adopt`,
+            body: {},
+          };
+        },
+      },
+    ];
+    const cases = routes.flatMap((r) => ROLES.map((role) => ({ ...r, role, ok: r.allowed.includes(role) })));
+
+    it.each(cases)('$name as $role → allowed: $ok', async ({ role, ok, call }) => {
+      const c = await call();
+      const audit = await countRows(ctx, 'audit_events');
+      const req = ctx.http[c.method](c.path).set(auth(role));
+      const res = c.body ? await req.send(c.body) : await req;
+      if (ok) {
+        expect(res.status).toBeGreaterThanOrEqual(200);
+        expect(res.status).toBeLessThan(300);
+      } else {
+        expect(res.status).toBe(403);
+        expectErrorBody(res.body, 403, 'AUTH.FORBIDDEN');
+        expect(await countRows(ctx, 'audit_events')).toBe(audit);
+      }
+    });
+
+    it('refuses requests without a token (401)', async () => {
+      const res = await ctx.http.get('/api/machine-profiles').expect(401);
+      expectErrorBody(res.body, 401, 'AUTH.UNAUTHENTICATED');
+    });
+  });
+
+  it('runs the whole version lifecycle, keeps approved versions unchanged, and audits every step', async () => {
+    const service = ctx.app.get(MachineProfilesService);
+    const p = await createProfile();
+    expect(p.versions).toHaveLength(1);
+    expect(p.latest).toMatchObject({ number: 1, state: 'draft', basedOnNumber: null, lockVersion: 1 });
+    expect(p.latest.settings[0]!.materialName).toMatch(/plywood sheet/);
+    expect(p.currentApproved).toBeNull();
+    await expect(service.getApprovedVersion(p.latest.id)).rejects.toMatchObject({
+      response: expect.objectContaining({ code: 'MACHINE_PROFILE.NOT_APPROVED' }),
+    });
+    await expect(service.currentApprovedVersion(p.id)).rejects.toMatchObject({ status: 409 });
+
+    // Submit → a submitted version is fixed.
+    const s1 = (await act('fabricator', p, p.latest, 'submit', { lockVersion: 1 }).expect(200))
+      .body as VersionBody;
+    expect(s1).toMatchObject({ state: 'submitted', lockVersion: 2 });
+    const frozen = await ctx.http
+      .patch(versionPath(p, s1))
+      .set(auth('fabricator'))
+      .send({ lockVersion: 2, hourlyRate: 99 })
+      .expect(409);
+    expectErrorBody(frozen.body, 409, 'MACHINE_PROFILE.INVALID_STATE');
+
+    // Return with a reason → draft again; the reason is required.
+    const noReason = await act('supervisor', p, s1, 'return', {}).expect(400);
+    expect(noReason.body.details[0].field).toBe('reason');
+    const r1 = (
+      await act('supervisor', p, s1, 'return', { reason: 'Pierce time looks long for 3 mm ply' }).expect(200)
+    ).body as VersionBody;
+    expect(r1).toMatchObject({ state: 'draft', returnReason: 'Pierce time looks long for 3 mm ply' });
+
+    // Edit the returned draft; a stale lockVersion is refused.
+    const e1 = await ctx.http
+      .patch(versionPath(p, r1))
+      .set(auth('fabricator'))
+      .send({ lockVersion: r1.lockVersion, settings: [{ ...laserSetting(plywood), pierceTimeS: 0.1 }] })
+      .expect(200);
+    const staleEdit = await ctx.http
+      .patch(versionPath(p, r1))
+      .set(auth('fabricator'))
+      .send({ lockVersion: r1.lockVersion, notes: 'late' })
+      .expect(409);
+    expectErrorBody(staleEdit.body, 409, 'MACHINE_PROFILE.STALE_VERSION');
+
+    // Submit again and approve.
+    await act('fabricator', p, r1, 'submit', { lockVersion: e1.body.lockVersion }).expect(200);
+    const a1 = (await act('supervisor', p, r1, 'approve').expect(200)).body as VersionBody;
+    expect(a1.state).toBe('approved');
+    expect(a1.returnReason).toBeNull();
+    const approvedNow = await service.currentApprovedVersion(p.id);
+    expect(approvedNow).toMatchObject({ id: r1.id, kind: 'co2-laser', profileName: p.name });
+    expect((await service.getApprovedVersion(r1.id)).settings[0]).toMatchObject({
+      kerfMm: 0.15,
+      pierceTimeS: 0.1,
+    });
+
+    // Editing an approved profile makes a new draft from it; only one open version at a time.
+    const approvedEdit = await ctx.http
+      .patch(versionPath(p, a1))
+      .set(auth('fabricator'))
+      .send({ lockVersion: a1.lockVersion, hourlyRate: 40 })
+      .expect(409);
+    expectErrorBody(approvedEdit.body, 409, 'MACHINE_PROFILE.INVALID_STATE');
+    const v2 = (
+      await ctx.http
+        .post(`/api/machine-profiles/${p.id}/versions`)
+        .set(auth('fabricator'))
+        .send({ settings: [laserSetting(plywood, 0.18)], hourlyRate: 40 })
+        .expect(201)
+    ).body as VersionBody;
+    expect(v2).toMatchObject({ number: 2, state: 'draft', basedOnNumber: 1 });
+    const another = await ctx.http
+      .post(`/api/machine-profiles/${p.id}/versions`)
+      .set(auth('fabricator'))
+      .send({})
+      .expect(409);
+    expectErrorBody(another.body, 409, 'MACHINE_PROFILE.OPEN_VERSION_EXISTS');
+    expect((await service.currentApprovedVersion(p.id)).id).toBe(r1.id);
+
+    // Approving version 2 retires version 1, whose content is unchanged (jobs keep its id).
+    await act('fabricator', p, v2, 'submit').expect(200);
+    await act('supervisor', p, v2, 'approve').expect(200);
+    const detail = (await ctx.http.get(`/api/machine-profiles/${p.id}`).set(auth('hobbyist')).expect(200))
+      .body as ProfileBody;
+    expect(detail.versions.map((v) => [v.number, v.state])).toEqual([
+      [2, 'approved'],
+      [1, 'retired'],
+    ]);
+    expect(detail.currentApproved!.id).toBe(v2.id);
+    expect(detail.versions[1]!.settings[0]!.kerfMm).toBe(0.15);
+    expect(detail.versions[0]!.settings[0]!.kerfMm).toBe(0.18);
+    await expect(service.getApprovedVersion(r1.id)).rejects.toMatchObject({ status: 409 });
+
+    // Retire: no approved version is left.
+    const v2now = detail.versions[0]!;
+    await act('supervisor', p, v2now, 'retire', { lockVersion: v2now.lockVersion }).expect(200);
+    await expect(service.currentApprovedVersion(p.id)).rejects.toMatchObject({
+      response: expect.objectContaining({ code: 'MACHINE_PROFILE.NOT_APPROVED' }),
+    });
+    const again = await act('supervisor', p, v2now, 'approve').expect(409);
+    expectErrorBody(again.body, 409, 'MACHINE_PROFILE.INVALID_STATE');
+
+    const audit: { action: string }[] = await ctx.db.query(
+      `SELECT action FROM audit_events WHERE entity_id = ANY($1) ORDER BY id`,
+      [[p.id, r1.id, v2.id]],
+    );
+    expect(audit.map((a) => a.action)).toEqual([
+      'machine-profile.create',
+      'machine-profile-version.create',
+      'machine-profile-version.submit',
+      'machine-profile-version.return',
+      'machine-profile-version.update',
+      'machine-profile-version.submit',
+      'machine-profile-version.approve',
+      'machine-profile-version.create',
+      'machine-profile-version.submit',
+      'machine-profile-version.retire',
+      'machine-profile-version.approve',
+      'machine-profile-version.retire',
+    ]);
+  });
+
+  it('keeps submitted and approved versions fixed in the database itself; drafts stay editable', async () => {
+    const { p, v } = await approved();
+    await expect(
+      ctx.db.query(`UPDATE machine_profile_versions SET hourly_rate = 99 WHERE id = $1`, [v.id]),
+    ).rejects.toThrow(/cannot change/);
+    await act('supervisor', p, v, 'retire').expect(200);
+    await expect(
+      ctx.db.query(`UPDATE machine_profile_versions SET settings = '[]' WHERE id = $1`, [v.id]),
+    ).rejects.toThrow(/cannot change/);
+    const d = await createProfile();
+    await ctx.db.query(`UPDATE machine_profile_versions SET notes = 'raw edit' WHERE id = $1`, [d.latest.id]);
+  });
+
+  it('accepts a state change with no request body at all', async () => {
+    const p = await createProfile();
+    const res = await ctx.http
+      .post(versionPath(p, p.latest, 'submit'))
+      .set(auth('fabricator'))
+      .expect(200);
+    expect(res.body.state).toBe('submitted');
+  });
+
+  it('lets exactly one of two supervisors approving the same version at once win; the other gets 409', async () => {
+    const { p, v } = await submitted();
+    const results = await Promise.all([
+      act('supervisor', p, v, 'approve', { lockVersion: v.lockVersion }),
+      act(secondSupervisor, p, v, 'approve', { lockVersion: v.lockVersion }),
+    ]);
+    expect(results.map((r) => r.status).sort()).toEqual([200, 409]);
+    const loser = results.find((r) => r.status === 409)!;
+    expectErrorBody(loser.body, 409);
+    expect(['MACHINE_PROFILE.INVALID_STATE', 'MACHINE_PROFILE.STALE_VERSION']).toContain(loser.body.code);
+    const rows: { state: string }[] = await ctx.db.query(
+      `SELECT state FROM machine_profile_versions WHERE profile_id = $1`,
+      [p.id],
+    );
+    expect(rows).toEqual([{ state: 'approved' }]);
+    const approvals: unknown[] = await ctx.db.query(
+      `SELECT 1 FROM audit_events WHERE entity_id = $1 AND action = 'machine-profile-version.approve'`,
+      [v.id],
+    );
+    expect(approvals).toHaveLength(1);
+  });
+
+  it('mails every active supervisor when a version is submitted, and the submitter when it is sent back', async () => {
+    const p = await createProfile({ name: unique('Mail test laser') });
+    await act('fabricator', p, p.latest, 'submit').expect(200);
+    const submittedMails = await mailsAbout(p.name);
+    expect(submittedMails).toHaveLength(1);
+    const mail = submittedMails[0]!;
+    expect(mail.subject).toMatch(/^Machine profile to review/);
+    expect(mail.to).toEqual(expect.arrayContaining([users.supervisor.email, secondSupervisor.email]));
+    expect(mail.to).not.toContain(users.fabricator.email);
+    expect(mail.text).toContain(`/machine-profiles/${p.id}`);
+    expect(mail.html).toContain('<p>');
+
+    await act('supervisor', p, p.latest, 'return', { reason: 'Add the acrylic settings too' }).expect(200);
+    const all = await mailsAbout(p.name);
+    const back = all.find((m) => m.subject.startsWith('Machine profile sent back'))!;
+    expect(back.to).toEqual([users.fabricator.email]);
+    expect(back.text).toContain('Add the acrylic settings too');
+  });
+
+  describe('validation: ranges and kind rules name the field; nothing is written', () => {
+    const invalid: [string, () => Record<string, unknown>, string][] = [
+      ['bed wider than 5000 mm', () => ({ bedWidthMm: 5001 }), 'bedWidthMm'],
+      ['zero rapid speed', () => ({ rapidSpeedMmS: 0 }), 'rapidSpeedMmS'],
+      ['negative hourly rate', () => ({ hourlyRate: -1 }), 'hourlyRate'],
+      ['unknown kind', () => ({ kind: 'plasma' }), 'kind'],
+      ['kerf above 2 mm', () => ({ settings: [laserSetting(plywood, 2.5)] }), 'settings.0.kerfMm'],
+      [
+        'zero cut speed',
+        () => ({ settings: [{ ...laserSetting(plywood), cutSpeedMmS: 0 }] }),
+        'settings.0.cutSpeedMmS',
+      ],
+      [
+        'fractional passes',
+        () => ({ settings: [{ ...laserSetting(plywood), passes: 1.5 }] }),
+        'settings.0.passes',
+      ],
+      [
+        'power above 100 %',
+        () => ({ settings: [{ ...laserSetting(plywood), powerPct: 120 }] }),
+        'settings.0.powerPct',
+      ],
+      [
+        'material id not a uuid',
+        () => ({ settings: [{ ...laserSetting(plywood), materialId: 'ply' }] }),
+        'settings.0.materialId',
+      ],
+      ['laser kerf of 0', () => ({ settings: [laserSetting(plywood, 0)] }), 'settings[0].kerfMm'],
+      [
+        'laser without power',
+        () => ({ settings: [{ ...laserSetting(plywood), powerPct: undefined }] }),
+        'settings[0].powerPct',
+      ],
+      [
+        'tool diameter on a laser',
+        () => ({ settings: [{ ...laserSetting(plywood), toolDiameterMm: 3 }] }),
+        'settings[0].toolDiameterMm',
+      ],
+      [
+        'router without a tool',
+        () => ({ kind: 'cnc-router', settings: [{ ...routerSetting(plywood), toolDiameterMm: undefined }] }),
+        'settings[0].toolDiameterMm',
+      ],
+      [
+        'tool diameter above 25 mm',
+        () => ({ kind: 'cnc-router', settings: [routerSetting(plywood, 30)] }),
+        'settings.0.toolDiameterMm',
+      ],
+      [
+        'kerf on a router',
+        () => ({ kind: 'cnc-router', settings: [{ ...routerSetting(plywood), kerfMm: 0.2 }] }),
+        'settings[0].kerfMm',
+      ],
+      [
+        'a material twice',
+        () => ({ settings: [laserSetting(plywood), laserSetting(plywood)] }),
+        'settings[1].materialId',
+      ],
+      ['an unknown material', () => ({ settings: [laserSetting(randomUUID())] }), 'settings[0].materialId'],
+    ];
+    it.each(invalid)('refuses %s', async (_what, override, field) => {
+      const counts = async () =>
+        Promise.all(
+          ['machine_profiles', 'machine_profile_versions', 'audit_events'].map((t) => countRows(ctx, t)),
+        );
+      const before = await counts();
+      const res = await ctx.http
+        .post('/api/machine-profiles')
+        .set(auth('fabricator'))
+        .send(profileBody(override()))
+        .expect(400);
+      expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+      expect(res.body.details.map((d: { field: string }) => d.field)).toContain(field);
+      expect(await counts()).toEqual(before);
+    });
+
+    it('accepts a blade cutter with a zero kerf (a knife removes almost nothing)', async () => {
+      const p = await createProfile({
+        kind: 'blade-cutter',
+        settings: [{ ...laserSetting(felt, 0), powerPct: undefined }],
+      });
+      expect(p.latest.settings[0]!.kerfMm).toBe(0);
+    });
+
+    it('refuses a duplicate profile name with 409', async () => {
+      const p = await createProfile();
+      const res = await ctx.http
+        .post('/api/machine-profiles')
+        .set(auth('fabricator'))
+        .send(profileBody({ name: p.name.toUpperCase() }))
+        .expect(409);
+      expectErrorBody(res.body, 409, 'MACHINE_PROFILE.NAME_TAKEN');
+    });
+  });
+
+  describe('prohibited materials never get laser settings', () => {
+    // PVC gives off hydrochloric acid gas under a laser (common practice; safety/material-hazards.json).
+    it.each(['co2-laser', 'diode-laser', 'fibre-laser'])(
+      'refuses PVC settings on a %s, writing nothing',
+      async (kind) => {
+        const before = await countRows(ctx, 'machine_profiles');
+        const res = await ctx.http
+          .post('/api/machine-profiles')
+          .set(auth('fabricator'))
+          .send(profileBody({ kind, settings: [laserSetting(pvc)] }))
+          .expect(409);
+        expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+        expect(res.body.details).toMatchObject({ field: 'settings[0].materialId', materialId: pvc });
+        expect(await countRows(ctx, 'machine_profiles')).toBe(before);
+      },
+    );
+
+    it('allows PVC on a CNC router (the laser rules concern beams)', async () => {
+      await createProfile({ kind: 'cnc-router', settings: [routerSetting(pvc)] });
+    });
+
+    it('refuses to approve a version whose material was taken off the laser after it was submitted', async () => {
+      const { p, v } = await submitted({ settings: [laserSetting(acrylic)] });
+      const m = (await ctx.http.get(`/api/materials/${acrylic}`).set(auth('fabricator')).expect(200)).body;
+      await ctx.http
+        .patch(`/api/materials/${acrylic}`)
+        .set(auth('fabricator'))
+        .send({
+          version: m.version,
+          laserAllowed: false,
+          hazardNote: 'This batch is extruded with an unknown coating',
+        })
+        .expect(200);
+      const res = await act('supervisor', p, v, 'approve').expect(409);
+      expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+      const rows: { state: string }[] = await ctx.db.query(
+        `SELECT state FROM machine_profile_versions WHERE id = $1`,
+        [v.id],
+      );
+      expect(rows[0]!.state).toBe('submitted');
+    });
+  });
+
+  it('lists profiles with their approved and latest versions, filtered by kind and latest state, paged', async () => {
+    const tag = randomUUID().slice(0, 8);
+    const { p: a } = await approved({ name: `List ${tag} a` });
+    await ctx.http
+      .post(`/api/machine-profiles/${a.id}/versions`)
+      .set(auth('fabricator'))
+      .send({ hourlyRate: 31 })
+      .expect(201);
+    const b = await createProfile({
+      name: `List ${tag} b`,
+      kind: 'cnc-router',
+      settings: [routerSetting(plywood)],
+    });
+    await submitted({ name: `List ${tag} c` });
+
+    const all = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&pageSize=2`)
+      .set(auth('hobbyist'))
+      .expect(200);
+    expect(all.body.total).toBe(3);
+    expect(all.body.items.map((p: ProfileBody) => p.name)).toEqual([`List ${tag} a`, `List ${tag} b`]);
+    const first = all.body.items[0] as ProfileBody;
+    expect(first.currentApproved).toMatchObject({ number: 1, state: 'approved' });
+    expect(first.latest).toMatchObject({ number: 2, state: 'draft' });
+    const page2 = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&pageSize=2&page=2`)
+      .set(auth('hobbyist'))
+      .expect(200);
+    expect(page2.body.items.map((p: ProfileBody) => p.name)).toEqual([`List ${tag} c`]);
+
+    const routers = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&kind=cnc-router`)
+      .set(auth('operator'))
+      .expect(200);
+    expect(routers.body.items.map((p: ProfileBody) => p.id)).toEqual([b.id]);
+    const waiting = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&state=submitted`)
+      .set(auth('supervisor'))
+      .expect(200);
+    expect(waiting.body.items.map((p: ProfileBody) => p.name)).toEqual([`List ${tag} c`]);
+    const drafts = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&state=draft`)
+      .set(auth('supervisor'))
+      .expect(200);
+    expect(drafts.body.total).toBe(2);
+    const bad = await ctx.http.get('/api/machine-profiles?state=pending').set(auth('supervisor')).expect(400);
+    expect(bad.body.details[0].field).toBe('state');
+  });
+
+  describe('kerf records', () => {
+    it('records measured kerfs, lists the history by material, and adopts one into a new draft', async () => {
+      const { p, v } = await approved({ settings: [laserSetting(plywood), laserSetting(felt, 0.2)] });
+      const r1 = await kerfRecord(p, plywood, 0.17);
+      await kerfRecord(p, felt, 0.25);
+      const r3 = await kerfRecord(p, plywood, 0.16);
+      expect(r1).toMatchObject({ kerfMm: 0.17, adoptedVersionId: null });
+
+      const hist = await ctx.http
+        .get(`/api/machine-profiles/${p.id}/kerf-records?materialId=${plywood}`)
+        .set(auth('operator'))
+        .expect(200);
+      expect(hist.body.items.map((r: { kerfMm: number }) => r.kerfMm)).toEqual([0.17, 0.16]);
+      expect(hist.body.items[0].materialName).toMatch(/plywood sheet/);
+      const allRecords = await ctx.http
+        .get(`/api/machine-profiles/${p.id}/kerf-records`)
+        .set(auth('fabricator'))
+        .expect(200);
+      expect(allRecords.body.total).toBe(3);
+
+      const adopted = (
+        await ctx.http
+          .post(`/api/machine-profiles/${p.id}/kerf-records/${r1.id}/adopt`)
+          .set(auth('fabricator'))
+          .expect(201)
+      ).body as VersionBody;
+      expect(adopted).toMatchObject({ number: 2, state: 'draft', basedOnNumber: 1 });
+      expect(adopted.settings.find((s) => s.materialId === plywood)!.kerfMm).toBe(0.17);
+      expect(adopted.settings.find((s) => s.materialId === felt)!.kerfMm).toBe(0.2);
+      // A second adoption goes into the same open draft.
+      const again = (
+        await ctx.http
+          .post(`/api/machine-profiles/${p.id}/kerf-records/${r3.id}/adopt`)
+          .set(auth('fabricator'))
+          .expect(201)
+      ).body as VersionBody;
+      expect(again).toMatchObject({ id: adopted.id, number: 2, lockVersion: adopted.lockVersion + 1 });
+      expect(again.settings.find((s) => s.materialId === plywood)!.kerfMm).toBe(0.16);
+      const rows: { adopted_version_id: string }[] = await ctx.db.query(
+        `SELECT adopted_version_id FROM kerf_records WHERE id = ANY($1) ORDER BY kerf_mm DESC`,
+        [[r1.id, r3.id]],
+      );
+      expect(rows.map((r) => r.adopted_version_id)).toEqual([adopted.id, adopted.id]);
+      // The approved version is untouched.
+      const approvedNow = await ctx.app.get(MachineProfilesService).currentApprovedVersion(p.id);
+      expect(approvedNow.id).toBe(v.id);
+      expect(approvedNow.settings.find((s) => s.materialId === plywood)!.kerfMm).toBe(0.15);
+
+      // While the draft awaits approval, nothing more can be adopted.
+      await act('fabricator', p, again, 'submit').expect(200);
+      const pending = await ctx.http
+        .post(`/api/machine-profiles/${p.id}/kerf-records/${r1.id}/adopt`)
+        .set(auth('fabricator'))
+        .expect(409);
+      expectErrorBody(pending.body, 409, 'MACHINE_PROFILE.VERSION_PENDING');
+
+      const audit: { action: string }[] = await ctx.db.query(
+        `SELECT action FROM audit_events WHERE entity_id = ANY($1) ORDER BY id`,
+        [[r1.id, r3.id]],
+      );
+      expect(audit.map((a) => a.action)).toEqual([
+        'kerf-record.create',
+        'kerf-record.create',
+        'kerf-record.adopt',
+        'kerf-record.adopt',
+      ]);
+    });
+
+    it('adopts a router measurement as the tool diameter', async () => {
+      const { p } = await approved({ kind: 'cnc-router', settings: [routerSetting(plywood)] });
+      const r = await kerfRecord(p, plywood, 3.3);
+      const res = await ctx.http
+        .post(`/api/machine-profiles/${p.id}/kerf-records/${r.id}/adopt`)
+        .set(auth('supervisor'))
+        .expect(201);
+      expect(res.body.settings[0]).toMatchObject({ toolDiameterMm: 3.3 });
+      expect(res.body.settings[0].kerfMm).toBeUndefined();
+    });
+
+    it('refuses to adopt a value for a material the profile has no settings for', async () => {
+      const { p } = await approved();
+      const r = await kerfRecord(p, felt, 0.3);
+      const res = await ctx.http
+        .post(`/api/machine-profiles/${p.id}/kerf-records/${r.id}/adopt`)
+        .set(auth('fabricator'))
+        .expect(409);
+      expectErrorBody(res.body, 409, 'MACHINE_PROFILE.NO_SETTING_FOR_MATERIAL');
+    });
+
+    it.each([
+      ['a laser kerf above 2 mm', { kerfMm: 2.5 }, 'kerfMm'],
+      ['a zero kerf', { kerfMm: 0 }, 'kerfMm'],
+      ['an unknown material', { materialId: '00000000-0000-4000-8000-000000000000' }, 'materialId'],
+      ['an unknown job', { jobId: '00000000-0000-4000-8000-000000000000' }, 'jobId'],
+      ['an unknown field', { colour: 'red' }, 'colour'],
+    ])('refuses a record with %s, writing nothing', async (_what, override, field) => {
+      const p = await createProfile();
+      const before = await countRows(ctx, 'kerf_records');
+      const res = await ctx.http
+        .post(`/api/machine-profiles/${p.id}/kerf-records`)
+        .set(auth('operator'))
+        .send({ materialId: plywood, kerfMm: 0.16, ...override })
+        .expect(400);
+      expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+      expect(res.body.details.map((d: { field: string }) => d.field)).toContain(field);
+      expect(await countRows(ctx, 'kerf_records')).toBe(before);
+    });
+
+    it('answers 404 for a record of another profile', async () => {
+      const { p: a } = await approved();
+      const { p: b } = await approved();
+      const r = await kerfRecord(a, plywood, 0.16);
+      const res = await ctx.http
+        .post(`/api/machine-profiles/${b.id}/kerf-records/${r.id}/adopt`)
+        .set(auth('fabricator'))
+        .expect(404);
+      expectErrorBody(res.body, 404, 'KERF_RECORD.NOT_FOUND');
+    });
+  });
+
+  it('refuses to delete a material a machine profile uses', async () => {
+    const m = await material('mdf');
+    await createProfile({ settings: [laserSetting(m)] });
+    const res = await ctx.http.delete(`/api/materials/${m}`).set(auth('fabricator')).expect(409);
+    expectErrorBody(res.body, 409, 'MATERIAL.IN_USE');
+    expect(res.body.details).toMatchObject({ profileVersions: 1 });
+  });
+
+  it('answers 404 for unknown profiles and versions', async () => {
+    const p = await createProfile();
+    const other = await createProfile();
+    const nf = await ctx.http.get(`/api/machine-profiles/${randomUUID()}`).set(auth('hobbyist')).expect(404);
+    expectErrorBody(nf.body, 404, 'MACHINE_PROFILE.NOT_FOUND');
+    const wrong = await act('fabricator', p, other.latest, 'submit').expect(404);
+    expectErrorBody(wrong.body, 404, 'MACHINE_PROFILE.VERSION_NOT_FOUND');
+  });
+
+  it('lists every machine-profile route with its shapes in the OpenAPI document', async () => {
+    const doc = await ctx.http.get('/api/docs-json').expect(200);
+    const paths = doc.body.paths as Record<string, Record<string, { responses: Record<string, unknown> }>>;
+    const expected: [string, string][] = [
+      ['/api/machine-profiles', 'get'],
+      ['/api/machine-profiles', 'post'],
+      ['/api/machine-profiles/{id}', 'get'],
+      ['/api/machine-profiles/{id}/versions', 'post'],
+      ['/api/machine-profiles/{id}/versions/{versionId}', 'patch'],
+      ['/api/machine-profiles/{id}/versions/{versionId}/submit', 'post'],
+      ['/api/machine-profiles/{id}/versions/{versionId}/approve', 'post'],
+      ['/api/machine-profiles/{id}/versions/{versionId}/return', 'post'],
+      ['/api/machine-profiles/{id}/versions/{versionId}/retire', 'post'],
+      ['/api/machine-profiles/{id}/kerf-records', 'get'],
+      ['/api/machine-profiles/{id}/kerf-records', 'post'],
+      ['/api/machine-profiles/{id}/kerf-records/{recordId}/adopt', 'post'],
+    ];
+    for (const [p, method] of expected) {
+      const op = paths[p]?.[method];
+      expect(op).toBeDefined();
+      const ok = Object.entries(op!.responses).find(([status]) => status.startsWith('2'));
+      expect(JSON.stringify(ok)).toMatch(/#\/components\/schemas\//);
+    }
+    const schemas = doc.body.components.schemas as Record<string, { properties: Record<string, unknown> }>;
+    expect(Object.keys(schemas.ProfileSettingDto!.properties)).toEqual(
+      expect.arrayContaining([
+        'materialId',
+        'kerfMm',
+        'toolDiameterMm',
+        'cutSpeedMmS',
+        'passes',
+        'pierceTimeS',
+      ]),
+    );
+    expect(Object.keys(schemas.MachineProfileVersionResponse!.properties)).toEqual(
+      expect.arrayContaining(['state', 'lockVersion', 'settings', 'returnReason']),
+    );
+  });
+});

@@ -1,0 +1,173 @@
+import { type Role } from '@kerfwright/contracts';
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../testing/fetch-stub';
+import { userFixture } from '../testing/fixtures';
+import { renderApp } from '../testing/render-app';
+import { getAccessToken } from '../lib/token-store';
+
+const healthy = { status: 'ok', database: 'up', redis: 'up', version: '0.1.0' };
+
+function signedInAs(role: Role) {
+  const me = userFixture(role);
+  const stub = stubFetch({
+    'GET /api/auth/me': () => json(200, me),
+    'GET /api/health': () => json(200, healthy),
+    'GET /api/users': () => json(200, { items: [me], total: 1, page: 1, pageSize: 25 }),
+  });
+  return { me, ...stub };
+}
+
+describe('navigation per role', () => {
+  it('shows the supervisor Home and People', async () => {
+    signedInAs('supervisor');
+    renderApp('/', { token: 't' });
+    const nav = await screen.findByRole('navigation', { name: 'Main' });
+    const links = within(nav)
+      .getAllByRole('link')
+      .map((a) => a.textContent);
+    expect(links).toEqual(['Home', 'People']);
+    expect(within(nav).getByRole('link', { name: 'People' })).toHaveAttribute('href', '/people');
+  });
+
+  it.each(['hobbyist', 'fabricator', 'operator'] as const)('shows only Home to the %s', async (role) => {
+    signedInAs(role);
+    renderApp('/', { token: 't' });
+    const nav = await screen.findByRole('navigation', { name: 'Main' });
+    expect(
+      within(nav)
+        .getAllByRole('link')
+        .map((a) => a.textContent),
+    ).toEqual(['Home']);
+    expect(screen.queryByRole('link', { name: 'People' })).not.toBeInTheDocument();
+  });
+
+  it("shows the user's name and role in the app bar and marks the current page", async () => {
+    const { me } = signedInAs('fabricator');
+    renderApp('/', { token: 't' });
+    const bar = await screen.findByTestId('signed-in-user');
+    expect(bar).toHaveTextContent(me.displayName);
+    expect(bar).toHaveTextContent('Fabricator');
+    const nav = screen.getByRole('navigation', { name: 'Main' });
+    expect(within(nav).getByRole('link', { name: 'Home' })).toHaveAttribute('aria-current', 'page');
+  });
+});
+
+describe('home page', () => {
+  it.each(['hobbyist', 'fabricator', 'operator', 'supervisor'] as const)(
+    'greets the %s, says what the role does and shows the service health',
+    async (role) => {
+      const { me } = signedInAs(role);
+      renderApp('/', { token: 't' });
+      const home = await screen.findByTestId(`home-${role}`);
+      expect(within(home).getByRole('heading', { level: 1 })).toHaveTextContent(/home$/);
+      expect(home).toHaveTextContent(`Welcome, ${me.displayName}.`);
+      expect(within(home).getByRole('heading', { name: 'Your part in the workshop' })).toBeInTheDocument();
+      const health = within(home).getByTestId('service-health');
+      expect(await within(health).findByText('Kerfwright is running normally.')).toBeInTheDocument();
+      expect(health).toHaveTextContent('Version 0.1.0');
+    },
+  );
+
+  it('shows a degraded service from the 503 body instead of an error', async () => {
+    const me = userFixture('operator');
+    const degraded = { status: 'degraded', database: 'up', redis: 'down', version: '0.1.0' };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, me),
+      'GET /api/health': () =>
+        json(503, {
+          statusCode: 503,
+          code: 'SERVICE.DEGRADED',
+          message: 'A backing service is down',
+          details: degraded,
+          requestId: 'r',
+        }),
+    });
+    renderApp('/', { token: 't' });
+    const health = await screen.findByTestId('service-health');
+    expect(await within(health).findByText(/Part of the service is down/)).toBeInTheDocument();
+    expect(within(health).getByText('Down')).toBeInTheDocument();
+  });
+});
+
+describe('protected routes', () => {
+  it('sends a visitor without a token to sign-in, remembering the page', async () => {
+    const { fetchMock } = stubFetch({});
+    const { router } = renderApp('/people');
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe('/sign-in');
+    expect(router.state.location.search).toBe('?redirectTo=%2Fpeople');
+    expect(fetchMock).not.toHaveBeenCalled();
+  });
+
+  it('signs out and returns to sign-in when the API rejects the stored token', async () => {
+    stubFetch({
+      'GET /api/auth/me': () =>
+        json(401, {
+          statusCode: 401,
+          code: 'AUTH.UNAUTHENTICATED',
+          message: 'Sign in first',
+          requestId: 'r',
+        }),
+    });
+    const { router } = renderApp('/', { token: 'expired' });
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe('/sign-in');
+    expect(getAccessToken()).toBeNull();
+  });
+
+  it('explains a failed account check and still offers a way out', async () => {
+    stubFetch({
+      'GET /api/auth/me': () =>
+        json(500, { statusCode: 500, code: 'INTERNAL', message: 'Something broke', requestId: 'req-500' }),
+    });
+    const { user, router } = renderApp('/', { token: 't' });
+    expect(await screen.findByText('We could not load your account')).toBeInTheDocument();
+    expect(screen.getByText('req-500')).toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Sign out' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe('/sign-in'));
+    expect(getAccessToken()).toBeNull();
+  });
+
+  it('tells a hobbyist that People is not part of their role', async () => {
+    const { calls } = signedInAs('hobbyist');
+    renderApp('/people', { token: 't' });
+    expect(await screen.findByText('This page is not part of your role')).toBeInTheDocument();
+    expect(calls.some((c) => c.url.pathname === '/api/users')).toBe(false);
+  });
+
+  it('signs out from the app bar: token and cache gone, back at sign-in', async () => {
+    signedInAs('operator');
+    const { user, router } = renderApp('/', { token: 't' });
+    await screen.findByTestId('home-operator');
+    await user.click(screen.getByRole('button', { name: 'Sign out' }));
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe('/sign-in');
+    expect(getAccessToken()).toBeNull();
+  });
+
+  it('opens the page asked for after signing in', async () => {
+    const supervisor = userFixture('supervisor');
+    stubFetch({
+      'POST /api/auth/login': () => json(200, { accessToken: 'jwt', user: supervisor }),
+      'GET /api/auth/me': () => json(200, supervisor),
+      'GET /api/users': () => json(200, { items: [supervisor], total: 1, page: 1, pageSize: 25 }),
+    });
+    const { user, router } = renderApp('/sign-in?redirectTo=%2Fpeople');
+    await user.type(await screen.findByLabelText(/E-mail/), supervisor.email);
+    await user.type(screen.getByLabelText(/Password/), 'kerfwright-demo');
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe('/people'));
+    expect(await screen.findByRole('heading', { level: 1, name: 'People' })).toBeInTheDocument();
+  });
+});
+
+describe('unknown addresses', () => {
+  it('shows the 404 page with a way home, signed in or not', async () => {
+    stubFetch({});
+    renderApp('/no/such/page');
+    expect(await screen.findByRole('heading', { name: 'Page not found' })).toBeInTheDocument();
+    expect(screen.getByText('/no/such/page')).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Go to your home page' })).toHaveAttribute('href', '/');
+  });
+});

@@ -1,0 +1,13 @@
+import { describe, expect, it } from 'vitest';
+import { navigationFor } from './navigation';
+
+// Roles and what they may use: the roles table in the design notes (supervisor may do everything).
+describe('navigationFor', () => {
+  it('gives the supervisor Home and People', () => {
+    expect(navigationFor('supervisor').map((i) => i.label)).toEqual(['Home', 'People']);
+  });
+
+  it.each(['hobbyist', 'fabricator', 'operator'] as const)('gives the %s Home only', (role) => {
+    expect(navigationFor(role).map((i) => i.label)).toEqual(['Home']);
+  });
+});

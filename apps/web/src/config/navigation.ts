@@ -1,0 +1,29 @@
+import { type Role } from '@kerfwright/contracts';
+import { paths } from './paths';
+
+export interface NavItem {
+  label: string;
+  href: string;
+  /** Roles that may open the page. A supervisor may do everything, so always listed. */
+  roles: readonly Role[];
+  /** Matches only the exact path (for Home, which is the prefix of every path). */
+  end?: boolean;
+}
+
+/**
+ * The side navigation. Only pages that exist are listed, and each role sees only what it may use;
+ * the API enforces the same rules on every route.
+ */
+export const NAV_ITEMS: readonly NavItem[] = [
+  {
+    label: 'Home',
+    href: paths.home.getHref(),
+    roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'],
+    end: true,
+  },
+  { label: 'People', href: paths.people.getHref(), roles: ['supervisor'] },
+];
+
+export function navigationFor(role: Role): NavItem[] {
+  return NAV_ITEMS.filter((item) => item.roles.includes(role));
+}

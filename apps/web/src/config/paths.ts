@@ -1,0 +1,25 @@
+/** Every page of the app and how to link to it. Routes and links read these; no path is typed twice. */
+
+function safeRedirect(target: string | null | undefined): string | undefined {
+  // Only same-app paths: "/people" is fine, "//elsewhere.example" and "https://…" are not.
+  if (!target || !target.startsWith('/') || target.startsWith('//')) return undefined;
+  return target;
+}
+
+export const paths = {
+  home: { path: '/', getHref: () => '/' },
+  people: { path: '/people', getHref: () => '/people' },
+  signIn: {
+    path: '/sign-in',
+    getHref: (redirectTo?: string | null) => {
+      const target = safeRedirect(redirectTo);
+      return target && target !== '/' ? `/sign-in?redirectTo=${encodeURIComponent(target)}` : '/sign-in';
+    },
+  },
+  register: { path: '/register', getHref: () => '/register' },
+} as const;
+
+/** The page to open after signing in: the `redirectTo` query value if it is a path inside the app. */
+export function redirectTarget(search: URLSearchParams): string {
+  return safeRedirect(search.get('redirectTo')) ?? paths.home.getHref();
+}

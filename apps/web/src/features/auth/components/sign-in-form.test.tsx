@@ -1,0 +1,90 @@
+import { screen, waitFor } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { renderWithProviders } from '../../../testing/render-app';
+import { getAccessToken } from '../../../lib/token-store';
+import { SignInForm } from './sign-in-form';
+
+function setup() {
+  const onSuccess = vi.fn();
+  const utils = renderWithProviders(<SignInForm onSuccess={onSuccess} />);
+  return { ...utils, onSuccess };
+}
+
+describe('SignInForm', () => {
+  it('asks for both fields when submitted empty, without calling the API', async () => {
+    const { fetchMock } = stubFetch({});
+    const { user } = setup();
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+
+    expect(await screen.findByText('Enter your e-mail address')).toBeInTheDocument();
+    expect(screen.getByText('Enter your password')).toBeInTheDocument();
+    expect(screen.getByLabelText(/E-mail/)).toHaveAttribute('aria-invalid', 'true');
+    expect(fetchMock).not.toHaveBeenCalled();
+  });
+
+  it('rejects an e-mail address without a domain', async () => {
+    stubFetch({});
+    const { user } = setup();
+    await user.type(screen.getByLabelText(/E-mail/), 'someone@');
+    await user.type(screen.getByLabelText(/Password/), 'kerfwright-demo');
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByText(/Enter a valid e-mail address/)).toBeInTheDocument();
+  });
+
+  it('shows the API message when the password is wrong', async () => {
+    stubFetch({
+      'POST /api/auth/login': () =>
+        json(401, {
+          statusCode: 401,
+          code: 'AUTH.INVALID_CREDENTIALS',
+          message: 'E-mail or password is wrong',
+          requestId: 'r1',
+        }),
+    });
+    const { user, onSuccess } = setup();
+    await user.type(screen.getByLabelText(/E-mail/), 'operator@workshop.example');
+    await user.type(screen.getByLabelText(/Password/), 'not-the-password');
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+
+    expect(await screen.findByRole('alert')).toHaveTextContent('E-mail or password is wrong');
+    expect(onSuccess).not.toHaveBeenCalled();
+    expect(getAccessToken()).toBeNull();
+  });
+
+  it('puts the API field errors under the matching fields', async () => {
+    stubFetch({
+      'POST /api/auth/login': () =>
+        json(400, {
+          statusCode: 400,
+          code: 'VALIDATION.FAILED',
+          message: 'Invalid request',
+          details: [{ field: 'email', messages: ['email must be an e-mail address'] }],
+          requestId: 'r2',
+        }),
+    });
+    const { user } = setup();
+    await user.type(screen.getByLabelText(/E-mail/), 'a@b.example');
+    await user.type(screen.getByLabelText(/Password/), 'whatever-it-is');
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+
+    expect(await screen.findByText('Email must be an e-mail address')).toBeInTheDocument();
+    expect(screen.getByLabelText(/E-mail/)).toHaveAttribute('aria-invalid', 'true');
+  });
+
+  it('sends the trimmed e-mail and keeps the token on success', async () => {
+    const operator = userFixture('operator');
+    const { calls } = stubFetch({
+      'POST /api/auth/login': () => json(200, { accessToken: 'jwt-operator', user: operator }),
+    });
+    const { user, onSuccess } = setup();
+    await user.type(screen.getByLabelText(/E-mail/), '  operator@workshop.example ');
+    await user.type(screen.getByLabelText(/Password/), 'kerfwright-demo');
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+
+    await waitFor(() => expect(onSuccess).toHaveBeenCalledTimes(1));
+    expect(calls[0]?.body).toEqual({ email: 'operator@workshop.example', password: 'kerfwright-demo' });
+    expect(getAccessToken()).toBe('jwt-operator');
+  });
+});

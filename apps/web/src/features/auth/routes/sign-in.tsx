@@ -1,0 +1,25 @@
+import Typography from '@mui/material/Typography';
+import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { AuthLayout } from '../../../components/layouts/auth-layout';
+import { RouterLink } from '../../../components/ui/router-link';
+import { paths, redirectTarget } from '../../../config/paths';
+import { useAccessToken } from '../../../lib/token-store';
+import { SignInForm } from '../components/sign-in-form';
+
+export function SignInRoute() {
+  const token = useAccessToken();
+  const navigate = useNavigate();
+  const [search] = useSearchParams();
+  const target = redirectTarget(search);
+
+  if (token) return <Navigate to={target} replace />;
+  return (
+    <AuthLayout title="Sign in">
+      <title>Sign in · Kerfwright</title>
+      <SignInForm onSuccess={() => void navigate(target, { replace: true })} />
+      <Typography sx={{ mt: 3 }}>
+        New to the workshop? <RouterLink to={paths.register.getHref()}>Create an account</RouterLink>
+      </Typography>
+    </AuthLayout>
+  );
+}

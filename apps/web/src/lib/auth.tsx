@@ -1,0 +1,78 @@
+/**
+ * Who is signed in. The token lives in the token store; the user comes from GET /api/auth/me and is kept in
+ * the query cache under `authKeys.me`, so every part of the app reads the same answer.
+ */
+import { type UserView } from '@kerfwright/contracts';
+import Button from '@mui/material/Button';
+import { queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
+import { createContext, type ReactNode, useCallback, useContext } from 'react';
+import { Navigate, useLocation, useNavigate } from 'react-router-dom';
+import { paths } from '../config/paths';
+import { FullPageProgress } from '../components/ui/full-page-progress';
+import { ErrorPanel } from '../components/errors/error-panel';
+import { api } from './api-client';
+import { clearAccessToken, useAccessToken } from './token-store';
+
+export const authKeys = {
+  all: ['auth'] as const,
+  me: () => [...authKeys.all, 'me'] as const,
+};
+
+export function getMe(signal?: AbortSignal): Promise<UserView> {
+  return api.get<UserView>('/auth/me', undefined, signal);
+}
+
+export function meQueryOptions() {
+  return queryOptions({
+    queryKey: authKeys.me(),
+    queryFn: ({ signal }) => getMe(signal),
+    staleTime: 5 * 60_000,
+  });
+}
+
+/** Set by `RequireAuth` once the API has confirmed who is signed in. */
+const CurrentUserContext = createContext<UserView | null>(null);
+
+/**
+ * The signed-in user. Only call below `RequireAuth`, which renders its children only while it has one
+ * (on sign-out it stops rendering them before the cache is cleared, so this never sees a half-state).
+ */
+export function useUser(): UserView {
+  const user = useContext(CurrentUserContext);
+  if (!user) throw new Error('useUser needs a signed-in user: render it inside RequireAuth');
+  return user;
+}
+
+/** Signs out: forgets the token and everything cached for this user, then opens the sign-in page. */
+export function useSignOut(): () => void {
+  const queryClient = useQueryClient();
+  const navigate = useNavigate();
+  return useCallback(() => {
+    clearAccessToken();
+    queryClient.clear();
+    void navigate(paths.signIn.getHref(), { replace: true });
+  }, [queryClient, navigate]);
+}
+
+/** Renders its children for a signed-in user whose token the API still accepts; otherwise opens sign-in. */
+export function RequireAuth({ children }: { children: ReactNode }) {
+  const token = useAccessToken();
+  const location = useLocation();
+  const me = useQuery({ ...meQueryOptions(), enabled: token !== null });
+  const signOut = useSignOut();
+
+  if (!token) {
+    return <Navigate to={paths.signIn.getHref(location.pathname + location.search)} replace />;
+  }
+  if (me.isPending) return <FullPageProgress label="Checking your sign-in…" />;
+  if (me.isError) {
+    return (
+      <ErrorPanel title="We could not load your account" error={me.error} onRetry={() => void me.refetch()}>
+        <Button variant="outlined" onClick={signOut}>
+          Sign out
+        </Button>
+      </ErrorPanel>
+    );
+  }
+  return <CurrentUserContext.Provider value={me.data}>{children}</CurrentUserContext.Provider>;
+}

@@ -1,0 +1,58 @@
+/**
+ * The signed-in user's bearer token, kept in localStorage so a reload keeps the session.
+ * Components follow it with `useAccessToken`; other tabs see sign-in and sign-out through the storage event.
+ */
+import { useSyncExternalStore } from 'react';
+
+export const TOKEN_STORAGE_KEY = 'kerfwright.accessToken';
+
+type Listener = () => void;
+const listeners = new Set<Listener>();
+
+function read(): string | null {
+  try {
+    return window.localStorage.getItem(TOKEN_STORAGE_KEY);
+  } catch {
+    return null; // storage blocked (private mode, policy): behave as signed out
+  }
+}
+
+function notify(): void {
+  for (const listener of [...listeners]) listener();
+}
+
+export function getAccessToken(): string | null {
+  return read();
+}
+
+export function setAccessToken(token: string): void {
+  try {
+    window.localStorage.setItem(TOKEN_STORAGE_KEY, token);
+  } finally {
+    notify();
+  }
+}
+
+export function clearAccessToken(): void {
+  try {
+    window.localStorage.removeItem(TOKEN_STORAGE_KEY);
+  } finally {
+    notify();
+  }
+}
+
+export function subscribeAccessToken(listener: Listener): () => void {
+  listeners.add(listener);
+  const onStorage = (event: StorageEvent) => {
+    if (event.key === TOKEN_STORAGE_KEY || event.key === null) listener();
+  };
+  window.addEventListener('storage', onStorage);
+  return () => {
+    listeners.delete(listener);
+    window.removeEventListener('storage', onStorage);
+  };
+}
+
+export function useAccessToken(): string | null {
+  return useSyncExternalStore(subscribeAccessToken, read, () => null);
+}

@@ -1,0 +1,117 @@
+/**
+ * The cut pack: the files of a job. Built by the geometry library's pack entry
+ * (`@kerfwright/geometry/pack`, Node only) and stored by the API's export queue. Lengths in mm.
+ */
+import type { DesignSpec } from './spec';
+import type { ColourRuleName } from './jobs';
+
+export const CUT_PACK_FILE_ROLES = [
+  'sheet-dxf',
+  'sheet-svg',
+  'setup-sheet',
+  'assembly-guide',
+  'coupon-dxf',
+  'coupon-svg',
+  'manifest',
+  'archive',
+] as const;
+export type CutPackFileRole = (typeof CUT_PACK_FILE_ROLES)[number];
+
+export interface CutPackFile {
+  /** File name inside the pack: lower-case letters, digits, dots and dashes only (e.g. `sheet-01-saffron.dxf`). */
+  name: string;
+  role: CutPackFileRole;
+  contentType: string;
+  data: Uint8Array;
+}
+
+/** Machine settings the estimates and the setup sheet use (from the approved profile version). */
+export interface CutPackMachine {
+  profileName: string;
+  profileVersion: number;
+  kind: string;
+  bedWidthMm: number;
+  bedHeightMm: number;
+  cutSpeedMmS: number;
+  markSpeedMmS: number;
+  pierceTimeS: number;
+  rapidSpeedMmS: number;
+  passes: number;
+  powerPct?: number;
+  hourlyRate: number;
+  currency: string;
+}
+
+export interface CutPackInput {
+  /** The spec with the real stock and machine (as a prepared job keeps it). */
+  spec: DesignSpec;
+  sheet: { widthMm: number; heightMm: number };
+  marginMm: number;
+  gapMm: number;
+  /** Colour names in order; their count is the number of colours. */
+  colours: string[];
+  colourRule?: ColourRuleName;
+  quantity: number;
+  machine: CutPackMachine;
+  material: { name: string; family: string; thicknessMm: number; pricePerSheet: number; currency: string };
+  job: { id: string; title: string; requester: string };
+  /** Notices that apply, for the setup sheet. */
+  notices: { id: string; version: number; title: string; severity: string }[];
+  localRulesVersion: number | null;
+  units: 'mm' | 'in';
+  /** Also write one ZIP of every file. */
+  archive: boolean;
+  /** Time stamp printed in the files (the library itself reads no clock). */
+  createdAt: string;
+}
+
+export interface CutPackEstimate {
+  cutLengthMm: number;
+  markLengthMm: number;
+  pierces: number;
+  travelMm: number;
+  minutes: number;
+  machineCost: number;
+  materialCost: number;
+  currency: string;
+}
+
+export interface CutPackManifestEntry {
+  name: string;
+  role: CutPackFileRole;
+  contentType: string;
+  bytes: number;
+  sha256: string;
+}
+
+export interface CutPackManifest {
+  jobId: string;
+  createdAt: string;
+  units: 'mm' | 'in';
+  sheetCount: number;
+  estimate: CutPackEstimate;
+  files: CutPackManifestEntry[];
+}
+
+export interface CutPackResult {
+  files: CutPackFile[];
+  manifest: CutPackManifest;
+}
+
+/** Export records of the cut-pack queue. */
+export const EXPORT_STATES = ['queued', 'running', 'done', 'failed'] as const;
+export type ExportState = (typeof EXPORT_STATES)[number];
+
+export interface ExportView {
+  id: string;
+  jobId: string;
+  state: ExportState;
+  /** 0–100. */
+  progress: number;
+  attempts: number;
+  errorCode: string | null;
+  errorMessage: string | null;
+  files: { name: string; role: CutPackFileRole; contentType: string; bytes: number; sha256: string }[];
+  createdAt: string;
+  finishedAt: string | null;
+}

@@ -1,0 +1,150 @@
+import type { Role } from './roles';
+
+/** A job moves draft → requested → prepared → approved → released → cut → closed, or is returned. */
+export const JOB_STATES = [
+  'draft',
+  'requested',
+  'prepared',
+  'approved',
+  'released',
+  'cut',
+  'closed',
+  'returned',
+] as const;
+export type JobState = (typeof JOB_STATES)[number];
+
+export const JOB_ACTIONS = [
+  'request',
+  'prepare',
+  'approve',
+  'release',
+  'cut',
+  'close',
+  'return',
+  'reopen',
+] as const;
+export type JobAction = (typeof JOB_ACTIONS)[number];
+
+export interface JobTransitionRule {
+  action: JobAction;
+  from: readonly JobState[];
+  to: JobState;
+  /** Roles that may take the action (a supervisor always may). `owner` = the job's requester. */
+  roles: readonly (Role | 'owner')[];
+  /** What the action means, in the workshop's words. */
+  label: string;
+}
+
+/** The job state machine: the server enforces it and the web client uses it to offer actions. */
+export const JOB_TRANSITIONS: readonly JobTransitionRule[] = [
+  { action: 'request', from: ['draft'], to: 'requested', roles: ['owner'], label: 'Request the cut' },
+  {
+    action: 'prepare',
+    from: ['requested', 'prepared'],
+    to: 'prepared',
+    roles: ['fabricator'],
+    label: 'Prepare: material, machine, layout',
+  },
+  { action: 'approve', from: ['prepared'], to: 'approved', roles: ['supervisor'], label: 'Approve the job' },
+  {
+    action: 'release',
+    from: ['approved'],
+    to: 'released',
+    roles: ['fabricator'],
+    label: 'Release to the machines',
+  },
+  { action: 'cut', from: ['released'], to: 'cut', roles: ['operator'], label: 'Record the cut' },
+  { action: 'close', from: ['cut'], to: 'closed', roles: ['operator', 'fabricator'], label: 'Close the job' },
+  {
+    action: 'return',
+    from: ['requested', 'prepared', 'approved'],
+    to: 'returned',
+    roles: ['fabricator'],
+    label: 'Return with a reason',
+  },
+  { action: 'reopen', from: ['returned'], to: 'draft', roles: ['owner'], label: 'Reopen as a draft' },
+];
+
+export function transitionFor(action: JobAction): JobTransitionRule {
+  const rule = JOB_TRANSITIONS.find((t) => t.action === action);
+  if (!rule) throw new Error(`unknown job action ${action}`);
+  return rule;
+}
+
+/** Actions a user may take on a job in its current state. */
+export function allowedJobActions(state: JobState, role: Role, isOwner: boolean): JobAction[] {
+  return JOB_TRANSITIONS.filter(
+    (t) =>
+      t.from.includes(state) &&
+      (role === 'supervisor' || t.roles.includes(role) || (isOwner && t.roles.includes('owner'))),
+  ).map((t) => t.action);
+}
+
+export interface JobTransitionView {
+  from: JobState | null;
+  to: JobState;
+  action: string;
+  actorId: string | null;
+  actorName: string | null;
+  reason: string | null;
+  at: string;
+}
+
+/** What preparation computed: the engine's figures for the chosen material, machine and stock. */
+export interface JobPreparation {
+  thicknessMm: number;
+  machineKind: 'laser' | 'router';
+  kerfMm?: number;
+  toolDiameterMm?: number;
+  pieceCount: number;
+  crossingCount: number;
+  diameterMm: number;
+  sheetCount: number;
+  sheet: { widthMm: number; heightMm: number };
+  utilisation: number;
+  warnings: string[];
+  estimate?: {
+    cutLengthMm: number;
+    markLengthMm: number;
+    pierces: number;
+    minutes: number;
+    machineCost: number;
+    materialCost: number;
+    currency: string;
+  };
+}
+
+export interface JobView {
+  id: string;
+  state: JobState;
+  designId: string;
+  designName: string;
+  requesterId: string;
+  requesterName: string;
+  quantity: number;
+  notes: string;
+  materialId: string | null;
+  materialName: string | null;
+  colours: string[];
+  profileVersionId: string | null;
+  profileName: string | null;
+  profileVersionNumber: number | null;
+  returnReason: string | null;
+  preparation: JobPreparation | null;
+  actualMinutes: number | null;
+  sheetsUsed: number | null;
+  measuredKerfMm: number | null;
+  version: number;
+  createdAt: string;
+  updatedAt: string;
+  /** Actions the caller may take now. */
+  actions: JobAction[];
+}
+
+export interface JobDetailView extends JobView {
+  transitions: JobTransitionView[];
+}
+
+/** Rules that share a model's pieces among stock colours (see the geometry library's colour plans). */
+export const COLOUR_RULES = ['neighbour-distinct', 'vertex-distinct', 'opposite-match'] as const;
+export type ColourRuleName = (typeof COLOUR_RULES)[number];

@@ -1,0 +1,267 @@
+// Nesting bench: true-shape nesting (bottom-left fill over no-fit polygons + lattice pattern pass) against a
+// bounding-box rectangle packer from npm (maxrects-packer 2.7.4) on the same designs, side by side.
+// Run after `npm run build -w @kerfwright/geometry`:  node libs/geometry/bench/nest.bench.mjs
+import os from 'node:os';
+import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs';
+import { nestParts } from '../dist/nest/index.js';
+import { solveColourPlan } from '../dist/colour/index.js';
+
+const SHEET = { widthMm: 600, heightMm: 400 };
+const GAP = 3;
+const RUNS = 3;
+
+// ---------- Shapes (our own designs) ----------
+function regular(n, R, startDeg = 90) {
+  return Array.from({ length: n }, (_, i) => {
+    const a = ((startDeg + (360 * i) / n) * Math.PI) / 180;
+    return [R * Math.cos(a), R * Math.sin(a)];
+  });
+}
+function star(n, k, R) {
+  const inner = (R * Math.cos((Math.PI * k) / n)) / Math.cos((Math.PI * (k - 1)) / n);
+  return Array.from({ length: 2 * n }, (_, i) => {
+    const r = i % 2 === 0 ? R : inner;
+    const a = Math.PI / 2 + (Math.PI * i) / n;
+    return [r * Math.cos(a), r * Math.sin(a)];
+  });
+}
+/** A slot of width w and depth d cut from vertex `tip` toward the centre (vertex must be convex). */
+function withSlot(outline, tip, w, d) {
+  const n = outline.length;
+  const t = outline[tip];
+  const prev = outline[(tip - 1 + n) % n];
+  const next = outline[(tip + 1) % n];
+  const r = Math.hypot(t[0], t[1]);
+  const u = [-t[0] / r, -t[1] / r];
+  const side = [-u[1], u[0]];
+  const unit = (p) => {
+    const l = Math.hypot(p[0] - t[0], p[1] - t[1]);
+    return [(p[0] - t[0]) / l, (p[1] - t[1]) / l];
+  };
+  const up = unit(prev);
+  const un = unit(next);
+  const along = w / 2 / Math.abs(up[0] * u[1] - up[1] * u[0]);
+  const sgn = up[0] * side[0] + up[1] * side[1] > 0 ? 1 : -1;
+  const deep = (s) => [t[0] + u[0] * d + side[0] * s * (w / 2), t[1] + u[1] * d + side[1] * s * (w / 2)];
+  return [
+    ...outline.slice(0, tip),
+    [t[0] + up[0] * along, t[1] + up[1] * along],
+    deep(sgn),
+    deep(-sgn),
+    [t[0] + un[0] * along, t[1] + un[1] * along],
+    ...outline.slice(tip + 1),
+  ];
+}
+function area(poly) {
+  let s = 0;
+  for (let i = 0; i < poly.length; i++) {
+    const a = poly[i];
+    const b = poly[(i + 1) % poly.length];
+    s += a[0] * b[1] - b[0] * a[1];
+  }
+  return Math.abs(s) / 2;
+}
+
+// Density bounds for the area lower bound (REFERENCES "Packing"): tiles 1; pentagon (5 − √5)/3; decagon lattice
+// 0.9137; anything else 1 (the trivial bound).
+const PENTAGON = (5 - Math.sqrt(5)) / 3;
+// Slots are cut from the highest vertex index down, so earlier indices stay valid.
+const slottedHex = withSlot(withSlot(regular(6, 50, 0), 3, 3, 18), 0, 3, 18);
+const designs = [
+  {
+    name: 'triangles side 100 ×60',
+    density: 1,
+    parts: [{ id: 'tri', outline: regular(3, 100 / Math.sqrt(3)), quantity: 60 }],
+  },
+  {
+    name: 'squares side 80 ×40',
+    density: 1,
+    rect: true,
+    parts: [{ id: 'sq', outline: regular(4, 80 / Math.SQRT2, 45), quantity: 40 }],
+  },
+  {
+    name: 'pentagons R50 ×40',
+    density: PENTAGON,
+    parts: [{ id: 'pent', outline: regular(5, 50), quantity: 40 }],
+  },
+  { name: 'hexagons R45 ×40', density: 1, parts: [{ id: 'hex', outline: regular(6, 45, 0), quantity: 40 }] },
+  {
+    name: 'decagons R60 ×30',
+    density: 0.9137,
+    parts: [{ id: 'dec', outline: regular(10, 60), quantity: 30 }],
+  },
+  {
+    name: '{5/2} stars R60, 2 slots ×40',
+    density: 1,
+    parts: [{ id: 's52', outline: withSlot(withSlot(star(5, 2, 60), 4, 3, 15), 0, 3, 15), quantity: 40 }],
+  },
+  {
+    name: '{8/3} stars R70, 2 slots ×24',
+    density: 1,
+    parts: [{ id: 's83', outline: withSlot(withSlot(star(8, 3, 70), 8, 3, 20), 0, 3, 20), quantity: 24 }],
+  },
+  {
+    name: 'mixed: tri/hex/pent, 3 sizes ×54',
+    density: 1,
+    parts: [
+      { id: 'tri-l', outline: regular(3, 70), quantity: 12 },
+      { id: 'hex-m', outline: regular(6, 40, 0), quantity: 18 },
+      { id: 'pent-s', outline: regular(5, 28), quantity: 24 },
+    ],
+  },
+];
+
+// ---------- Bounding-box baseline ----------
+function bboxPack(design) {
+  const packer = new MaxRectsPacker(SHEET.widthMm, SHEET.heightMm, GAP, {
+    smart: false,
+    pot: false,
+    square: false,
+    allowRotation: true,
+    border: 0,
+  });
+  for (const p of design.parts) {
+    const xs = p.outline.map((q) => q[0]);
+    const ys = p.outline.map((q) => q[1]);
+    const w = Math.max(...xs) - Math.min(...xs);
+    const h = Math.max(...ys) - Math.min(...ys);
+    for (let i = 0; i < p.quantity; i++) packer.add(w, h, { a: area(p.outline) });
+  }
+  const perSheet = packer.bins.map(
+    (b) => b.rects.reduce((s, r) => s + r.data.a, 0) / (SHEET.widthMm * SHEET.heightMm),
+  );
+  return {
+    sheets: packer.bins.length,
+    firstCount: packer.bins[0]?.rects.length ?? 0,
+    best: Math.max(...perSheet),
+  };
+}
+
+function median(xs) {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+const rows = [];
+const perPartMs = [];
+const perPartCpu = [];
+/** CPU time (user + system) since c0, ms: steadier than wall time when other work shares the cores. */
+function cpuMs(c0) {
+  const d = process.cpuUsage(c0);
+  return (d.user + d.system) / 1000;
+}
+for (const d of designs) {
+  const input = { sheet: SHEET, marginMm: 0, gapMm: GAP, parts: d.parts };
+  const times = [];
+  const cpuTimes = [];
+  let r;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    const c0 = process.cpuUsage();
+    r = nestParts(input);
+    times.push(performance.now() - t0);
+    cpuTimes.push(cpuMs(c0));
+  }
+  if (!r.ok) throw new Error(`${d.name}: ${r.error.message}`);
+  const tsTimes = [];
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    nestParts({ ...input, method: 'true-shape' });
+    tsTimes.push(performance.now() - t0);
+  }
+  const tsCpu = [];
+  for (let i = 0; i < RUNS; i++) {
+    const c0 = process.cpuUsage();
+    nestParts({ ...input, method: 'true-shape' });
+    tsCpu.push(cpuMs(c0));
+  }
+  const pieces = d.parts.reduce((s, p) => s + p.quantity, 0);
+  // Bottom-left fill runs twice per call (left- and right-edge rules): per placement = time ÷ (2 × pieces).
+  const msPerPart = median(tsTimes) / (2 * pieces);
+  const cpuPerPart = median(tsCpu) / (2 * pieces);
+  perPartMs.push(msPerPart);
+  perPartCpu.push(cpuPerPart);
+  const partArea = d.parts.reduce((s, p) => s + area(p.outline) * p.quantity, 0);
+  const lower = Math.ceil(partArea / (SHEET.widthMm * SHEET.heightMm * d.density));
+  const best = Math.max(...r.sheets.map((s) => s.utilisation));
+  const bb = bboxPack(d);
+  rows.push({
+    design: d.name,
+    sheets: r.totals.sheetCount,
+    lowerBound: lower,
+    atBound: r.totals.sheetCount === lower ? 'yes' : 'no',
+    firstSheet: r.sheets[0].placements.length,
+    bestUtil: best.toFixed(3),
+    totalUtil: r.totals.utilisation.toFixed(3),
+    bboxSheets: bb.sheets,
+    bboxFirst: bb.firstCount,
+    bboxBestUtil: bb.best.toFixed(3),
+    ratio: d.rect ? `${(best / bb.best).toFixed(2)} (rect)` : (best / bb.best).toFixed(2),
+    medianMs: median(times).toFixed(0),
+    cpuMs: median(cpuTimes).toFixed(0),
+    blMsPerPart: msPerPart.toFixed(1),
+    blCpuPerPart: cpuPerPart.toFixed(1),
+    method: r.totals.groups[0].method,
+  });
+}
+console.table(rows);
+
+// ---------- 60 pieces, 3 colours: colour plan + nesting ----------
+// An abstract 60-face input (a closed band of 60 faces, each sharing an edge with the next) for the colour plan;
+// a real solid comes from the solids module.
+const faces = Array.from({ length: 60 }, (_, i) => [2 * i, 2 * i + 1, (2 * i + 2) % 120, (2 * i + 3) % 120]);
+const t60 = [];
+const c60 = [];
+let layout;
+for (let i = 0; i < RUNS; i++) {
+  const t0 = performance.now();
+  const c0 = process.cpuUsage();
+  const plan = solveColourPlan({
+    faceCount: 60,
+    faceVertices: faces,
+    rule: 'neighbour-distinct',
+    count: 3,
+    countCap: 0,
+  });
+  const byColour = [0, 1, 2].map((c) => Object.values(plan.assignment).filter((x) => x === c).length);
+  layout = nestParts({
+    sheet: SHEET,
+    marginMm: 5,
+    gapMm: GAP,
+    parts: byColour.map((q, c) => ({
+      id: `hex-slotted-${c}`,
+      outline: slottedHex,
+      quantity: q,
+      group: `colour-${c}`,
+    })),
+  });
+  t60.push(performance.now() - t0);
+  c60.push(cpuMs(c0));
+}
+console.log(
+  `60 slotted hexagons in 3 colours: ${layout.ok ? layout.totals.sheetCount : 'failed'} sheets,` +
+    ` median ${median(t60).toFixed(0)} ms wall, ${median(c60).toFixed(0)} ms CPU over ${RUNS} runs (wall ${t60.map((t) => t.toFixed(0)).join(', ')})`,
+);
+
+const nonRect = rows.filter((r, i) => !designs[i].rect);
+const ratios = nonRect.map((r) => Number(r.ratio));
+console.log(
+  `utilisation ratio true-shape ÷ bounding-box (non-rectangles): median ${median(ratios).toFixed(2)}, min ${Math.min(...ratios).toFixed(2)}`,
+);
+console.log(
+  `designs at the area lower bound: ${rows.filter((r) => r.atBound === 'yes').length} of ${rows.length}`,
+);
+const mean = (xs) => xs.reduce((a, b) => a + b, 0) / xs.length;
+console.log(
+  `bottom-left placement per part: wall median ${median(perPartMs).toFixed(1)} ms, mean ${mean(perPartMs).toFixed(1)},` +
+    ` max ${Math.max(...perPartMs).toFixed(1)}; CPU median ${median(perPartCpu).toFixed(1)} ms,` +
+    ` mean ${mean(perPartCpu).toFixed(1)}, max ${Math.max(...perPartCpu).toFixed(1)}`,
+);
+const cpus = os.cpus();
+console.log(
+  `machine: ${cpus[0]?.model ?? 'unknown'} × ${cpus.length}, node ${process.version},` +
+    ` load average ${os
+      .loadavg()
+      .map((x) => x.toFixed(1))
+      .join(' ')}`,
+);

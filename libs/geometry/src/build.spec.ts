@@ -1,0 +1,83 @@
+import { buildModel } from './build';
+import { listSolids, getSolid } from './solids/catalogue';
+import { suggestSizes } from './pieces/place';
+import { signedArea } from './math/polygon';
+import { design, octahedronHexagons } from './test-support/designs';
+
+describe('buildModel scaling', () => {
+  it('planeDistance sets the nearest plane distance; other planes keep their proportion', () => {
+    // A 2 × 4 × 6 box of our own as OFF text: plane distances 1, 2, 3.
+    const off = `OFF\n8 0 0\n${[-1, 1]
+      .flatMap((x) => [-2, 2].flatMap((y) => [-3, 3].map((z) => `${x} ${y} ${z}`)))
+      .join('\n')}\n`;
+    const r = buildModel(
+      design({
+        solid: { format: 'off', text: off },
+        piece: { sides: 4, rotationDeg: 45, size: 1 },
+        scale: { by: 'planeDistance', mm: 50 },
+      }),
+    ).report;
+    expect(r.planeDistanceMm).toBeCloseTo(50, 9);
+    const dists = r.pieces.map((p) => Math.hypot(...p.centreMm)).sort((a, b) => a - b);
+    expect(dists.map((d) => Math.round(d))).toEqual([50, 50, 100, 100, 150, 150]);
+    expect(r.solid.faceCount).toBe(6);
+  });
+
+  it('diameter is twice the farthest piece vertex; pieceCircumradius sets the piece circumradius', () => {
+    const byDiameter = buildModel(octahedronHexagons({ scale: { by: 'diameter', mm: 300 } })).report;
+    expect(byDiameter.diameterMm).toBeCloseTo(300, 6);
+    // Derived: a tip lies at √(d² + R²) = d·√(1 + size²) from the centre.
+    expect(byDiameter.planeDistanceMm).toBeCloseTo(150 / Math.sqrt(1 + 1.3 ** 2), 6);
+    const byRadius = buildModel(octahedronHexagons({ scale: { by: 'pieceCircumradius', mm: 90 } }));
+    for (const p of byRadius.pieces) expect(p.circumradiusMm).toBeCloseTo(90, 9);
+  });
+});
+
+describe('report', () => {
+  it('has unit outward normals, counter-clockwise outlines with their areas, and slot counts that add up', () => {
+    const r = buildModel(octahedronHexagons()).report;
+    expect(r.solid).toMatchObject({ name: 'octahedron', faceCount: 8 });
+    expect(r.solid.dihedralAnglesDeg).toEqual([109.4712]);
+    for (const p of r.pieces) {
+      expect(Math.hypot(...p.normal)).toBeCloseTo(1, 5);
+      const c = p.centreMm;
+      expect(p.normal[0] * c[0] + p.normal[1] * c[1] + p.normal[2] * c[2]).toBeGreaterThan(0);
+      expect(signedArea(p.outline)).toBeGreaterThan(0);
+      expect(p.areaMm2).toBeCloseTo(signedArea(p.outline), 2);
+      expect(p.areaMm2).toBeGreaterThan(p.nominalAreaMm2);
+    }
+    expect(r.pieces.reduce((s, p) => s + p.slotCount, 0)).toBe(2 * r.crossings.length);
+  });
+});
+
+describe('every catalogue solid', () => {
+  const shapes = [
+    { sides: 4, step: 1, rotationDeg: 45 },
+    { sides: 6, step: 1, rotationDeg: 0 },
+    { sides: 5, step: 2, rotationDeg: 0 },
+    { sides: 8, step: 3, rotationDeg: 10 },
+  ];
+  it.each(listSolids().map((s) => s.id))(
+    '%s builds with several shapes, rigid and flexible, laser and router',
+    (id) => {
+      for (const shape of shapes) {
+        const overlap = suggestSizes(getSolid(id), shape).overlap;
+        expect(overlap).not.toBeNull();
+        const size = (overlap ?? 1) * 1.4;
+        for (const [stock, machine] of [
+          [{ thicknessMm: 3 }, { kind: 'laser', kerfMm: 0.15 }],
+          [
+            { thicknessMm: 0.4, flexible: true },
+            { kind: 'router', toolDiameterMm: 0.3 },
+          ],
+        ] as const) {
+          const m = buildModel(design({ solid: id, piece: { ...shape, size }, stock, machine }));
+          expect(m.report.crossings.length).toBeGreaterThan(0);
+          for (const p of m.pieces) {
+            if (p.outline.length) expect(signedArea(p.outline)).toBeGreaterThan(0);
+          }
+        }
+      }
+    },
+  );
+});

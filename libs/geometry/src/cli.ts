@@ -1,0 +1,62 @@
+#!/usr/bin/env node
+/**
+ * Command-line entry: `kerfwright <command> …` (from the repo root: `npm run -s cli -- build SPEC.json
+ * --out DIR`). The only module of this package that touches the file system.
+ */
+import * as fs from 'node:fs';
+import * as path from 'node:path';
+import { COMMANDS } from './cli/commands';
+import { type CliIo, UsageError } from './cli/command';
+
+const io: CliIo = {
+  out: (t) => process.stdout.write(t.endsWith('\n') ? t : t + '\n'),
+  err: (t) => process.stderr.write(t.endsWith('\n') ? t : t + '\n'),
+  readText: (p) => fs.readFileSync(p, 'utf8'),
+  writeText: (p, t) => fs.writeFileSync(p, t),
+  makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
+  joinPath: (...parts) => path.join(...parts),
+};
+
+function help(): string {
+  return [
+    'usage: kerfwright <command> [arguments]',
+    '',
+    ...COMMANDS.map((c) => `  ${c.usage.padEnd(40)} ${c.summary}`),
+  ].join('\n');
+}
+
+/** Runs one command line; returns the exit code. */
+export async function main(argv: readonly string[], cliIo: CliIo = io): Promise<number> {
+  const [name, ...rest] = argv;
+  if (!name || name === '--help' || name === '-h' || name === 'help') {
+    cliIo.out(help());
+    return name ? 0 : 2;
+  }
+  const command = COMMANDS.find((c) => c.name === name);
+  if (!command) {
+    cliIo.err(`error: unknown command "${name}" (commands: ${COMMANDS.map((c) => c.name).join(', ')})`);
+    return 2;
+  }
+  try {
+    return await command.run(rest, cliIo);
+  } catch (e) {
+    if (e instanceof UsageError) {
+      cliIo.err(`error: ${e.message}`);
+      return 2;
+    }
+    cliIo.err(`error: internal failure: ${(e as Error).message}`);
+    return 3;
+  }
+}
+
+if (require.main === module) {
+  main(process.argv.slice(2)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (e: unknown) => {
+      process.stderr.write(`error: ${(e as Error).message}\n`);
+      process.exitCode = 3;
+    },
+  );
+}

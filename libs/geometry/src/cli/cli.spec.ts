@@ -1,0 +1,98 @@
+import * as fs from 'node:fs';
+import * as os from 'node:os';
+import * as path from 'node:path';
+import DxfParser from 'dxf-parser';
+import { main } from '../cli';
+import { type CliIo } from './command';
+import { octahedronHexagons } from '../test-support/designs';
+
+const fixtures = path.join(__dirname, '..', 'test-support', 'fixtures');
+
+function run(args: string[]) {
+  const out: string[] = [];
+  const err: string[] = [];
+  const io: CliIo = {
+    out: (t) => out.push(t),
+    err: (t) => err.push(t),
+    readText: (p) => fs.readFileSync(p, 'utf8'),
+    writeText: (p, t) => fs.writeFileSync(p, t),
+    makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
+    joinPath: (...parts) => path.join(...parts),
+  };
+  return main(args, io).then((code) => ({ code, out: out.join(''), err: err.join('') }));
+}
+
+describe('CLI build', () => {
+  let dir: string;
+  beforeEach(() => {
+    dir = fs.mkdtempSync(path.join(os.tmpdir(), 'kw-cli-'));
+  });
+  afterEach(() => fs.rmSync(dir, { recursive: true, force: true }));
+
+  it.each(['octahedron-hexagons', 'cube-squares-45', 'cube-star-8-3'])(
+    'writes report.json and a DXF and an SVG per piece for %s',
+    async (name) => {
+      const r = await run(['build', path.join(fixtures, `${name}.json`), '--out', dir]);
+      expect(r.code).toBe(0);
+      const report = JSON.parse(fs.readFileSync(path.join(dir, 'report.json'), 'utf8'));
+      const files = fs.readdirSync(dir).sort();
+      expect(files).toHaveLength(1 + 2 * report.pieces.length);
+      for (const p of report.pieces) {
+        expect(files).toContain(`${p.id}.dxf`);
+        expect(files).toContain(`${p.id}.svg`);
+      }
+      const doc = new DxfParser().parseSync(fs.readFileSync(path.join(dir, 'P1.dxf'), 'utf8'));
+      expect(doc?.header.$INSUNITS).toBe(4);
+    },
+  );
+
+  it('prints the report with --json', async () => {
+    const r = await run(['build', path.join(fixtures, 'octahedron-hexagons.json'), '--json']);
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.out).pieces).toHaveLength(8);
+  });
+
+  it('exits non-zero with one line and writes nothing for an invalid spec', async () => {
+    const r = await run(['build', path.join(fixtures, 'bad-compound.json'), '--out', dir]);
+    expect(r.code).toBe(2);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
+    expect(r.err).toMatch(/piece\.step/);
+    expect(r.err).toMatch(/colour/);
+    expect(fs.readdirSync(dir)).toEqual([]);
+  });
+
+  it('exits non-zero with one line and writes nothing for a bad upload', async () => {
+    const spec = path.join(dir, 'spec.json');
+    fs.writeFileSync(
+      spec,
+      JSON.stringify(
+        octahedronHexagons({ solid: { format: 'off', text: 'OFF\n3 0 0\n0 0 0\n1 0 0\n0 1 0\n' } }),
+      ),
+    );
+    const out = path.join(dir, 'out');
+    const r = await run(['build', spec, '--out', out]);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/SOLID\.FLAT/);
+    expect(fs.existsSync(out)).toBe(false);
+  });
+
+  it('writes the report but no cut files when the design has errors', async () => {
+    const spec = path.join(dir, 'spec.json');
+    fs.writeFileSync(spec, JSON.stringify(octahedronHexagons({ piece: { sides: 6, size: 0.5 } })));
+    const out = path.join(dir, 'out');
+    const r = await run(['build', spec, '--out', out]);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/DESIGN\.NO_CROSSINGS/);
+    expect(fs.readdirSync(out)).toEqual(['report.json']);
+  });
+
+  it('reports unreadable JSON, unknown commands and missing arguments', async () => {
+    const spec = path.join(dir, 'spec.json');
+    fs.writeFileSync(spec, '{ not json');
+    expect((await run(['build', spec, '--out', dir])).code).toBe(2);
+    expect((await run(['frobnicate'])).code).toBe(2);
+    expect((await run(['build'])).code).toBe(2);
+    expect((await run(['build', spec])).code).toBe(2);
+    expect((await run(['--help'])).out).toMatch(/build SPEC\.json/);
+  });
+});

@@ -1,0 +1,47 @@
+/** What a CLI subcommand gets: its arguments and the process's streams and file system. */
+export interface CliIo {
+  out: (text: string) => void;
+  err: (text: string) => void;
+  readText: (path: string) => string;
+  writeText: (path: string, text: string) => void;
+  makeDir: (path: string) => void;
+  joinPath: (...parts: string[]) => string;
+}
+
+/** One subcommand of `kerfwright` (build, and later nest, pack, coupon…). Returns the exit code. */
+export interface CliCommand {
+  name: string;
+  /** One line for the help text. */
+  summary: string;
+  usage: string;
+  run(args: readonly string[], io: CliIo): number | Promise<number>;
+}
+
+/** Thrown for bad command-line use; printed as one line with exit code 2. */
+export class UsageError extends Error {}
+
+/** Splits `--flag value`, `--flag=value` and bare `--switch` options from positional arguments. */
+export function parseArgs(
+  args: readonly string[],
+  valued: readonly string[],
+  switches: readonly string[],
+): { positional: string[]; options: Map<string, string | true> } {
+  const positional: string[] = [];
+  const options = new Map<string, string | true>();
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i] as string;
+    if (!a.startsWith('--')) {
+      positional.push(a);
+      continue;
+    }
+    const [name, inline] = a.slice(2).split(/=(.*)/s, 2) as [string, string | undefined];
+    if (valued.includes(name)) {
+      const v = inline ?? args[++i];
+      if (v === undefined) throw new UsageError(`--${name} needs a value`);
+      options.set(name, v);
+    } else if (switches.includes(name) && inline === undefined) {
+      options.set(name, true);
+    } else throw new UsageError(`unknown option --${name}`);
+  }
+  return { positional, options };
+}

@@ -1,0 +1,222 @@
+/**
+ * Colour plans: which piece is cut from which colour of stock, by a rule over the base solid's faces.
+ *
+ * Rules (faces are numbered 0…faceCount−1; piece i lies in face i):
+ *  - 'neighbour-distinct': two faces sharing an edge (two vertices) never share a colour.
+ *  - 'vertex-distinct': all faces around each vertex have different colours.
+ *  - 'opposite-match': each pair of opposite faces (parallel planes, normals pointing apart) shares a colour,
+ *    and faces sharing an edge differ. Faces with no opposite face only obey the second part.
+ *
+ * Balance: with n faces and k colours, every colour is used floor(n/k) or ceil(n/k) times (equal counts when
+ * k divides n). Under 'opposite-match' each opposite pair counts twice, so balance is sought over faces as
+ * well. If the rule can be met only with unequal counts, the plan is returned with feasible = true and
+ * balanced = false; if it cannot be met at all, feasible = false and message says "no plan exists".
+ *
+ * Solved as a Boolean satisfiability problem with logic-solver (MiniSat compiled to JavaScript): one variable
+ * per face and colour, exactly one colour per face, the rule as clauses, balance as cardinality constraints.
+ * Counting: distinctPlans counts plans up to renaming of the colours (two plans that differ only by a
+ * permutation of colour indices count once), found by enumeration under a value-precedence symmetry break
+ * (colour c may appear only after colour c−1 has appeared on a lower-numbered face), stopped at countCap.
+ * It counts balanced plans when a balanced plan exists, otherwise all plans.
+ */
+import Logic from 'logic-solver';
+
+export type ColourRule = 'vertex-distinct' | 'opposite-match' | 'neighbour-distinct';
+
+export interface ColourPlanInput {
+  faceCount: number;
+  /** Vertex indices of each face (any order). */
+  faceVertices: readonly (readonly number[])[];
+  /** Opposite face pairs; when absent for 'opposite-match', derived from normals. */
+  opposite?: readonly (readonly [number, number])[];
+  /** Outward unit normals per face, used to derive opposite pairs (normals within 1e-6 of antiparallel). */
+  normals?: readonly (readonly [number, number, number])[];
+  rule: ColourRule;
+  /** Number of colours of stock, ≥ 1. */
+  count: number;
+  /** Piece id per face, used as keys of the assignment (default: the face index as a string). */
+  pieceIds?: readonly string[];
+  /** Stop counting plans at this many (default 1000); 0 skips counting. */
+  countCap?: number;
+}
+
+export interface ColourPlan {
+  rule: ColourRule;
+  count: number;
+  feasible: boolean;
+  /** Colour index (0 … count−1) per piece id; empty when infeasible. */
+  assignment: Record<string, number>;
+  /** Colour counts meet floor/ceil(n / count). */
+  balanced: boolean;
+  /** Plans up to renaming of colours, counted up to countCap. */
+  distinctPlans?: number;
+  /** True when counting stopped at the cap (there are at least that many). */
+  distinctPlansCapped?: boolean;
+  /** Pieces per colour in the returned assignment. */
+  colourCounts: number[];
+  message?: string;
+}
+
+export class ColourPlanInputError extends Error {}
+
+/** Pairs of faces sharing at least two vertices (an edge). */
+export function edgeAdjacentFaces(faceVertices: readonly (readonly number[])[]): [number, number][] {
+  const pairs: [number, number][] = [];
+  const sets = faceVertices.map((f) => new Set(f));
+  for (let i = 0; i < sets.length; i++)
+    for (let j = i + 1; j < sets.length; j++) {
+      let shared = 0;
+      for (const v of sets[i]!) if (sets[j]!.has(v)) shared++;
+      if (shared >= 2) pairs.push([i, j]);
+    }
+  return pairs;
+}
+
+/** Faces around each vertex: vertex index → face indices. */
+export function facesAroundVertices(faceVertices: readonly (readonly number[])[]): Map<number, number[]> {
+  const map = new Map<number, number[]>();
+  faceVertices.forEach((f, i) => {
+    for (const v of new Set(f)) {
+      const list = map.get(v) ?? [];
+      list.push(i);
+      map.set(v, list);
+    }
+  });
+  return map;
+}
+
+/** Opposite face pairs from outward normals: n_i · n_j ≈ −1. */
+export function oppositePairsFromNormals(
+  normals: readonly (readonly [number, number, number])[],
+): [number, number][] {
+  const pairs: [number, number][] = [];
+  const used = new Set<number>();
+  for (let i = 0; i < normals.length; i++) {
+    if (used.has(i)) continue;
+    const a = normals[i]!;
+    const la = Math.hypot(a[0], a[1], a[2]);
+    for (let j = i + 1; j < normals.length; j++) {
+      if (used.has(j)) continue;
+      const b = normals[j]!;
+      const lb = Math.hypot(b[0], b[1], b[2]);
+      const dot = (a[0] * b[0] + a[1] * b[1] + a[2] * b[2]) / (la * lb);
+      if (dot < -1 + 1e-6) {
+        pairs.push([i, j]);
+        used.add(i);
+        used.add(j);
+        break;
+      }
+    }
+  }
+  return pairs;
+}
+
+function validate(input: ColourPlanInput): void {
+  const { faceCount, faceVertices, count } = input;
+  if (!Number.isInteger(faceCount) || faceCount < 1) throw new ColourPlanInputError('faceCount must be ≥ 1');
+  if (faceVertices.length !== faceCount)
+    throw new ColourPlanInputError(`faceVertices has ${faceVertices.length} faces, expected ${faceCount}`);
+  if (!Number.isInteger(count) || count < 1)
+    throw new ColourPlanInputError('count must be a whole number ≥ 1');
+  if (!['vertex-distinct', 'opposite-match', 'neighbour-distinct'].includes(input.rule))
+    throw new ColourPlanInputError(`unknown rule "${String(input.rule)}"`);
+  if (input.pieceIds && input.pieceIds.length !== faceCount)
+    throw new ColourPlanInputError(`pieceIds has ${input.pieceIds.length} ids, expected ${faceCount}`);
+  if (input.pieceIds && new Set(input.pieceIds).size !== faceCount)
+    throw new ColourPlanInputError('pieceIds must be distinct');
+  for (const [a, b] of input.opposite ?? [])
+    if (!(a >= 0 && a < faceCount && b >= 0 && b < faceCount && a !== b))
+      throw new ColourPlanInputError(`opposite pair [${a}, ${b}] is not a pair of faces`);
+  if (input.normals && input.normals.length !== faceCount)
+    throw new ColourPlanInputError(`normals has ${input.normals.length} entries, expected ${faceCount}`);
+}
+
+const v = (face: number, colour: number): string => `f${face}c${colour}`;
+
+/**
+ * Finds a colour plan for the rule and colour count (see the module comment for the rules, balance and
+ * counting). Throws ColourPlanInputError for malformed input.
+ */
+export function solveColourPlan(input: ColourPlanInput): ColourPlan {
+  validate(input);
+  const { faceCount: n, faceVertices, rule, count: k } = input;
+  const cap = input.countCap ?? 1000;
+  const solver = new Logic.Solver();
+  for (let f = 0; f < n; f++) {
+    const vars: string[] = [];
+    for (let c = 0; c < k; c++) vars.push(v(f, c));
+    solver.require(Logic.exactlyOne(vars));
+  }
+  const distinct = (a: number, b: number) => {
+    for (let c = 0; c < k; c++) solver.forbid(Logic.and(v(a, c), v(b, c)));
+  };
+  if (rule === 'vertex-distinct') {
+    for (const faces of facesAroundVertices(faceVertices).values())
+      for (let c = 0; c < k; c++) solver.require(Logic.atMostOne(faces.map((f) => v(f, c))));
+  } else {
+    for (const [a, b] of edgeAdjacentFaces(faceVertices)) distinct(a, b);
+  }
+  let oppositeCount = 0;
+  if (rule === 'opposite-match') {
+    const pairs = input.opposite ?? (input.normals ? oppositePairsFromNormals(input.normals) : []);
+    oppositeCount = pairs.length;
+    for (const [a, b] of pairs) for (let c = 0; c < k; c++) solver.require(Logic.equiv(v(a, c), v(b, c)));
+  }
+  // Value precedence: colour c on face f needs colour c−1 on some lower face (one plan per colour renaming).
+  for (let f = 0; f < n; f++)
+    for (let c = 1; c < k; c++) {
+      const earlier: string[] = [];
+      for (let g = 0; g < f; g++) earlier.push(v(g, c - 1));
+      solver.require(Logic.implies(v(f, c), Logic.or(earlier)));
+    }
+  const lo = Math.floor(n / k);
+  const hi = Math.ceil(n / k);
+  const balanceTerms: Logic.Formula[] = [];
+  for (let c = 0; c < k; c++) {
+    const s = Logic.sum(Array.from({ length: n }, (_, f) => v(f, c)));
+    balanceTerms.push(Logic.lessThanOrEqual(s, Logic.constantBits(hi)));
+    balanceTerms.push(Logic.greaterThanOrEqual(s, Logic.constantBits(lo)));
+  }
+  const balance = Logic.and(balanceTerms);
+  let solution = solver.solveAssuming(balance);
+  if (!solution) solution = solver.solve();
+  const base = { rule, count: k };
+  if (!solution)
+    return {
+      ...base,
+      feasible: false,
+      assignment: {},
+      balanced: false,
+      colourCounts: [],
+      message: `no plan exists: rule "${rule}" cannot be met with ${k} colour${k === 1 ? '' : 's'}`,
+    };
+  const colours = readColours(solution, n, k);
+  const assignment: Record<string, number> = {};
+  colours.forEach((c, f) => (assignment[input.pieceIds?.[f] ?? String(f)] = c));
+  const colourCounts = Array.from({ length: k }, (_, c) => colours.filter((x) => x === c).length);
+  const balanced = colourCounts.every((x) => x >= lo && x <= hi);
+  const plan: ColourPlan = { ...base, feasible: true, assignment, balanced, colourCounts };
+  const notes: string[] = [];
+  if (!balanced) notes.push('the rule can be met only with unequal colour counts');
+  if (rule === 'opposite-match' && oppositeCount === 0) notes.push('the solid has no opposite faces');
+  if (cap > 0) {
+    if (balanced) solver.require(balance);
+    let found = 0;
+    let s: Logic.Solution | null = solution;
+    while (s && found < cap) {
+      found++;
+      solver.forbid(Logic.and(s.getTrueVars().filter((name) => /^f\d+c\d+$/.test(name))));
+      s = found < cap ? solver.solve() : null;
+    }
+    plan.distinctPlans = found;
+    plan.distinctPlansCapped = found >= cap;
+  }
+  if (notes.length > 0) plan.message = notes.join('; ');
+  return plan;
+}
+
+function readColours(solution: Logic.Solution, n: number, k: number): number[] {
+  const out: number[] = new Array<number>(n).fill(-1);
+  for (let f = 0; f < n; f++) for (let c = 0; c < k; c++) if (solution.evaluate(v(f, c))) out[f] = c;
+  return out;
+}

@@ -1,0 +1,75 @@
+import * as polygonClipping from 'polygon-clipping';
+import { buildModel } from '../build';
+import { cubeSquares45, cubeStars83, octahedronHexagons } from '../test-support/designs';
+import { dirToFrame, toFrame } from '../pieces/place';
+import { computePairIntervals } from './crossings';
+
+describe('crossings', () => {
+  it.each([1.2, 1.5, 2])(
+    'cube with squares turned 45°, size %p: one crossing per edge, 2a(s − 1) long, at 90°',
+    (s) => {
+      // Derived: the top square is |x| + |y| ≤ s·a; on the edge line x = a it spans |y| ≤ a(s − 1).
+      const m = buildModel(cubeSquares45(s));
+      expect(m.report.crossings).toHaveLength(12);
+      for (const c of m.report.crossings) {
+        expect(c.angleDeg).toBeCloseTo(90, 9);
+        expect(c.lengthMm).toBeCloseTo(2 * 80 * (s - 1), 5);
+      }
+    },
+  );
+
+  it('octahedron with hexagons: crossings at the acute plane angle 180° − 109.4712°', () => {
+    // Handbook dihedral angle of the octahedron (REFERENCES.md, from memory).
+    const m = buildModel(octahedronHexagons());
+    expect(m.report.crossings.length).toBeGreaterThan(0);
+    for (const c of m.report.crossings) expect(c.angleDeg).toBeCloseTo(180 - 109.4712, 3);
+  });
+
+  it('star pieces meet a neighbour plane in several crossings', () => {
+    const m = buildModel(cubeStars83());
+    const perPair = new Map<string, number>();
+    for (const c of m.report.crossings) perPair.set(`${c.a}-${c.b}`, (perPair.get(`${c.a}-${c.b}`) ?? 0) + 1);
+    expect(Math.max(...perPair.values())).toBeGreaterThan(1);
+  });
+
+  it("each piece's intervals on a plane line match an independent polygon library", () => {
+    // polygon-clipping (an independent general-purpose library): the area of the piece inside a thin
+    // band along the line, divided by the band's width, is the total length of the piece's intervals.
+    const m = buildModel(cubeStars83());
+    const placed = m.pieces.map((p) => ({ frame: p.frame, outline: p.shape }));
+    const pairs = computePairIntervals(placed);
+    expect(pairs.length).toBeGreaterThan(0);
+    const h = 1e-3;
+    for (const pair of pairs.slice(0, 6)) {
+      for (const [which, ivs] of [
+        [pair.a, pair.intervalsA],
+        [pair.b, pair.intervalsB],
+      ] as const) {
+        const fr = placed[which]!.frame;
+        const p = toFrame(fr, pair.point);
+        const d = dirToFrame(fr, pair.dir);
+        const n = [-d[1], d[0]];
+        const L = 1e4;
+        const band: [number, number][] = [
+          [p[0] - L * d[0] - h * n[0]!, p[1] - L * d[1] - h * n[1]!],
+          [p[0] + L * d[0] - h * n[0]!, p[1] + L * d[1] - h * n[1]!],
+          [p[0] + L * d[0] + h * n[0]!, p[1] + L * d[1] + h * n[1]!],
+          [p[0] - L * d[0] + h * n[0]!, p[1] - L * d[1] + h * n[1]!],
+        ];
+        const shape = placed[which]!.outline.map((q) => [q[0], q[1]] as [number, number]);
+        const inter = polygonClipping.intersection([shape], [band]);
+        let area = 0;
+        for (const poly of inter) {
+          for (const [k, ring] of poly.entries()) {
+            let a = 0;
+            for (let i = 0; i + 1 < ring.length; i++)
+              a += ring[i]![0] * ring[i + 1]![1] - ring[i + 1]![0] * ring[i]![1];
+            area += (k === 0 ? 1 : -1) * Math.abs(a / 2);
+          }
+        }
+        const total = ivs.reduce((s, [lo, hi]) => s + hi - lo, 0);
+        expect(area / (2 * h)).toBeCloseTo(total, 2);
+      }
+    }
+  });
+});

@@ -1,0 +1,83 @@
+import type { BuiltModel } from '../build';
+import { solveColourPlan, type ColourPlan, type ColourRule } from '../colour';
+import { nestParts, type NestResult, type NestSheetResult, type NestTotals } from '../nest';
+
+/** How a built model is laid out on stock: sheet size, margin, gap, colours and copies. Lengths in mm. */
+export interface LayoutOptions {
+  sheet: { widthMm: number; heightMm: number };
+  marginMm: number;
+  gapMm: number;
+  /** Number of stock colours (≥ 1) and the rule that assigns pieces to them (needed when count > 1). */
+  colours: { count: number; rule?: ColourRule };
+  /** Copies of the whole model. Default 1. */
+  quantity?: number;
+}
+
+export type ModelLayout =
+  | {
+      ok: true;
+      /** Null when there is one colour. */
+      colourPlan: ColourPlan | null;
+      /** Colour index (0-based) per piece id. */
+      pieceColour: Record<string, number>;
+      sheets: NestSheetResult[];
+      totals: NestTotals;
+    }
+  | {
+      ok: false;
+      code: 'LAYOUT.NO_COLOUR_PLAN' | 'LAYOUT.PIECE_TOO_LARGE' | 'LAYOUT.INVALID';
+      message: string;
+      pieces: string[];
+    };
+
+/**
+ * Lays a built model's compensated piece outlines onto sheets: solves the colour plan, then nests each
+ * colour on its own sheets (true shape, see nest/). Sheet groups are named by colour index ("0", "1", …).
+ */
+export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLayout {
+  const count = Math.max(1, Math.floor(options.colours.count));
+  const ids = model.pieces.map((p) => p.id);
+  let colourPlan: ColourPlan | null = null;
+  let pieceColour: Record<string, number> = Object.fromEntries(ids.map((id) => [id, 0]));
+  if (count > 1) {
+    colourPlan = solveColourPlan({
+      faceCount: model.solid.faces.length,
+      faceVertices: model.solid.faces.map((f) => f.vertices),
+      normals: model.solid.faces.map((f) => f.normal),
+      opposite: model.solid.oppositeFaces,
+      rule: options.colours.rule ?? 'neighbour-distinct',
+      count,
+      pieceIds: model.pieces.map((p) => p.id),
+    });
+    if (!colourPlan.feasible) {
+      return {
+        ok: false,
+        code: 'LAYOUT.NO_COLOUR_PLAN',
+        message: colourPlan.message ?? `no plan exists for rule ${colourPlan.rule} with ${count} colours`,
+        pieces: [],
+      };
+    }
+    pieceColour = colourPlan.assignment;
+  }
+  const quantity = Math.max(1, Math.floor(options.quantity ?? 1));
+  const result: NestResult = nestParts({
+    sheet: options.sheet,
+    marginMm: options.marginMm,
+    gapMm: options.gapMm,
+    parts: model.pieces.map((p) => ({
+      id: p.id,
+      outline: p.outline,
+      quantity,
+      group: String(pieceColour[p.id] ?? 0),
+    })),
+  });
+  if (!result.ok) {
+    return {
+      ok: false,
+      code: result.error.code === 'PART_DOES_NOT_FIT' ? 'LAYOUT.PIECE_TOO_LARGE' : 'LAYOUT.INVALID',
+      message: result.error.message,
+      pieces: result.error.partIds,
+    };
+  }
+  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals };
+}

@@ -1,0 +1,161 @@
+import { type Vec2, at, cross2, sub2 } from './vec';
+
+/** A simple polygon as a list of 2D points (mm), without repeating the first point. */
+export type Polygon = readonly Vec2[];
+
+/** Signed area (positive when counter-clockwise). */
+export function signedArea(poly: Polygon): number {
+  let s = 0;
+  for (let i = 0, n = poly.length; i < n; i++) {
+    const a = at(poly, i);
+    const b = at(poly, (i + 1) % n);
+    s += a[0] * b[1] - b[0] * a[1];
+  }
+  return s / 2;
+}
+
+export function perimeter(poly: Polygon): number {
+  let s = 0;
+  for (let i = 0, n = poly.length; i < n; i++) {
+    const a = at(poly, i);
+    const b = at(poly, (i + 1) % n);
+    s += Math.hypot(b[0] - a[0], b[1] - a[1]);
+  }
+  return s;
+}
+
+export function ensureCounterClockwise(poly: Polygon): Vec2[] {
+  return signedArea(poly) < 0 ? [...poly].reverse() : [...poly];
+}
+
+/**
+ * Parameter intervals where the line p + t·d lies inside the polygon (even–odd rule).
+ * Vertices exactly on the line count as lying on its negative side, so a line through a vertex is
+ * handled once. Intervals are sorted and disjoint; t is in units of |d|.
+ */
+export function lineIntervals(poly: Polygon, p: Vec2, d: Vec2): [number, number][] {
+  const ts: number[] = [];
+  const n = poly.length;
+  const [px, py] = p;
+  const [dx, dy] = d;
+  const dd = dx * dx + dy * dy;
+  let prev = poly[n - 1];
+  if (!prev) return [];
+  let sa = dx * (prev[1] - py) - dy * (prev[0] - px);
+  for (let i = 0; i < n; i++) {
+    const b = poly[i] as Vec2;
+    const sb = dx * (b[1] - py) - dy * (b[0] - px);
+    if (sa > 0 !== sb > 0) {
+      const k = sa / (sa - sb);
+      const x = prev[0] + (b[0] - prev[0]) * k - px;
+      const y = prev[1] + (b[1] - prev[1]) * k - py;
+      ts.push((x * dx + y * dy) / dd);
+    }
+    prev = b;
+    sa = sb;
+  }
+  if (ts.length > 2) ts.sort((x, y) => x - y);
+  else if (ts.length === 2 && (ts[0] as number) > (ts[1] as number)) ts.reverse();
+  const out: [number, number][] = [];
+  for (let i = 0; i + 1 < ts.length; i += 2) {
+    const t0 = ts[i] as number;
+    const t1 = ts[i + 1] as number;
+    if (t1 > t0) out.push([t0, t1]);
+  }
+  return out;
+}
+
+/** Overlaps of two sorted interval lists. */
+export function intersectIntervals(
+  a: readonly (readonly [number, number])[],
+  b: readonly (readonly [number, number])[],
+): [number, number][] {
+  const out: [number, number][] = [];
+  let i = 0;
+  let j = 0;
+  while (i < a.length && j < b.length) {
+    const x = at(a, i);
+    const y = at(b, j);
+    const lo = Math.max(x[0], y[0]);
+    const hi = Math.min(x[1], y[1]);
+    if (hi > lo) out.push([lo, hi]);
+    if (x[1] < y[1]) i++;
+    else j++;
+  }
+  return out;
+}
+
+/** Distance from point (qx, qy) to segment ab (no allocation: this runs in hot loops). */
+function pointSegDist(qx: number, qy: number, ax: number, ay: number, bx: number, by: number): number {
+  const abx = bx - ax;
+  const aby = by - ay;
+  const l2 = abx * abx + aby * aby;
+  let t = l2 > 0 ? ((qx - ax) * abx + (qy - ay) * aby) / l2 : 0;
+  t = t < 0 ? 0 : t > 1 ? 1 : t;
+  const ex = qx - (ax + abx * t);
+  const ey = qy - (ay + aby * t);
+  return Math.sqrt(ex * ex + ey * ey);
+}
+
+/** Distance from point q to segment ab. */
+export function pointSegmentDistance(q: Vec2, a: Vec2, b: Vec2): number {
+  return pointSegDist(q[0], q[1], a[0], a[1], b[0], b[1]);
+}
+
+const orient = (ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number =>
+  (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
+
+/** Whether the segments ab and cd cross at a single interior point. */
+export function segmentsIntersect(a: Vec2, b: Vec2, c: Vec2, d: Vec2): boolean {
+  const d1 = orient(a[0], a[1], b[0], b[1], c[0], c[1]);
+  const d2 = orient(a[0], a[1], b[0], b[1], d[0], d[1]);
+  const d3 = orient(c[0], c[1], d[0], d[1], a[0], a[1]);
+  const d4 = orient(c[0], c[1], d[0], d[1], b[0], b[1]);
+  return d1 > 0 !== d2 > 0 && d3 > 0 !== d4 > 0 && d1 !== 0 && d3 !== 0;
+}
+
+export function segmentSegmentDistance(a: Vec2, b: Vec2, c: Vec2, d: Vec2): number {
+  if (segmentsIntersect(a, b, c, d)) return 0;
+  return Math.min(
+    pointSegDist(a[0], a[1], c[0], c[1], d[0], d[1]),
+    pointSegDist(b[0], b[1], c[0], c[1], d[0], d[1]),
+    pointSegDist(c[0], c[1], a[0], a[1], b[0], b[1]),
+    pointSegDist(d[0], d[1], a[0], a[1], b[0], b[1]),
+  );
+}
+
+/** Even–odd point-in-polygon test. */
+export function containsPoint(poly: Polygon, q: Vec2): boolean {
+  let inside = false;
+  for (let i = 0, n = poly.length, j = n - 1; i < n; j = i++) {
+    const a = at(poly, i);
+    const b = at(poly, j);
+    if (a[1] > q[1] !== b[1] > q[1] && q[0] < ((b[0] - a[0]) * (q[1] - a[1])) / (b[1] - a[1]) + a[0]) {
+      inside = !inside;
+    }
+  }
+  return inside;
+}
+
+/** Convex hull (Andrew's monotone chain), counter-clockwise, collinear points dropped. */
+export function convexHull2(points: readonly Vec2[]): Vec2[] {
+  const pts = [...points].sort((p, q) => p[0] - q[0] || p[1] - q[1]);
+  if (pts.length < 3) return pts;
+  const turn = (o: Vec2, a: Vec2, b: Vec2) => cross2(sub2(a, o), sub2(b, o));
+  const lower: Vec2[] = [];
+  for (const p of pts) {
+    while (lower.length >= 2 && turn(at(lower, lower.length - 2), at(lower, lower.length - 1), p) <= 0)
+      lower.pop();
+    lower.push(p);
+  }
+  const upper: Vec2[] = [];
+  for (let i = pts.length - 1; i >= 0; i--) {
+    const p = at(pts, i);
+    while (upper.length >= 2 && turn(at(upper, upper.length - 2), at(upper, upper.length - 1), p) <= 0)
+      upper.pop();
+    upper.push(p);
+  }
+  lower.pop();
+  upper.pop();
+  return lower.concat(upper);
+}

@@ -1,0 +1,131 @@
+/**
+ * The one place where nesting talks to clipper-lib (Angus Johnson's Clipper, JavaScript port 6.4.2).
+ * Clipper works on integer coordinates: every length in millimetres is multiplied by SCALE_PER_MM here and
+ * nowhere else in src/nest. All polygons are closed; orientation follows Clipper (positive area = CCW with
+ * y up).
+ */
+import * as ClipperLib from 'clipper-lib';
+import { convexMinkowskiSum } from './convex-decomposition';
+
+/** Integer units per millimetre (1 unit = 1 µm). Coordinates up to ~1e9 units stay in Clipper's fast range. */
+export const SCALE_PER_MM = 1000;
+
+export interface IntPoint {
+  X: number;
+  Y: number;
+}
+export type IntPath = IntPoint[];
+export type IntPaths = IntPath[];
+
+/** Millimetres to integer units, rounded to the nearest unit. */
+export function toUnits(mm: number): number {
+  return Math.round(mm * SCALE_PER_MM);
+}
+
+/** Integer units to millimetres. */
+export function toMm(units: number): number {
+  return units / SCALE_PER_MM;
+}
+
+/** A polygon in millimetres ([x, y] pairs) to an integer Clipper path. */
+export function toIntPath(points: readonly (readonly [number, number])[]): IntPath {
+  return points.map(([x, y]) => ({ X: toUnits(x), Y: toUnits(y) }));
+}
+
+/** Signed area in square millimetres of an integer path (positive when CCW). */
+export function areaMm2(path: IntPath): number {
+  return ClipperLib.Clipper.Area(path) / (SCALE_PER_MM * SCALE_PER_MM);
+}
+
+/** Signed area in square units. */
+export function areaUnits(path: IntPath): number {
+  return ClipperLib.Clipper.Area(path);
+}
+
+/**
+ * Grows a closed polygon outward by deltaMm, with mitred joins (miter limit 2, so very sharp tips are squared
+ * off) or round ones. A mitred offset contains the round offset, so every point of its boundary is at least
+ * deltaMm from the polygon: safe for gaps.
+ */
+export function growPolygon(path: IntPath, deltaMm: number, joins: 'miter' | 'round' = 'miter'): IntPaths {
+  // Round joins: arcs drawn with chords at most 10 µm inside the true arc.
+  const offset = new ClipperLib.ClipperOffset(
+    2,
+    joins === 'round' ? 0.01 * SCALE_PER_MM : 0.25 * SCALE_PER_MM,
+  );
+  const join = joins === 'round' ? ClipperLib.JoinType.jtRound : ClipperLib.JoinType.jtMiter;
+  offset.AddPath(path, join, ClipperLib.EndType.etClosedPolygon);
+  const out: IntPaths = [];
+  offset.Execute(out, deltaMm * SCALE_PER_MM);
+  return out;
+}
+
+/**
+ * No-fit polygon of a moving path around a fixed one: the set of translations t for which moving + t meets
+ * the interior of fixed, i.e. the Minkowski sum fixed ⊕ (−moving). Built as the union of the sums of convex
+ * pieces (both polygons cut into convex pieces beforehand: convex-decomposition.ts), each a convex hull of
+ * vertex sums; Clipper only does the union. Pass the pieces of the fixed polygon and of the negated moving one.
+ * Holes are dropped: a union of many overlapping polygons can leave sliver holes a few µm² in size, and a
+ * placement in one would overlap. Losing true pockets (a part wholly inside another's cavity) is the safe side.
+ */
+export function noFitPolygonFromPieces(fixedPieces: IntPaths, negatedMovingPieces: IntPaths): IntPaths {
+  const sums: IntPaths = [];
+  for (const a of fixedPieces) for (const b of negatedMovingPieces) sums.push(convexMinkowskiSum(a, b));
+  return unionPaths(sums).filter((p) => ClipperLib.Clipper.Area(p) > 0);
+}
+
+/** The same with Clipper's own MinkowskiSum (edge-pair parallelograms); a fallback for odd inputs. */
+export function noFitPolygon(fixed: IntPaths, moving: IntPath): IntPaths {
+  const negated = moving.map((p) => ({ X: -p.X, Y: -p.Y }));
+  const sum = ClipperLib.Clipper.MinkowskiSum(negated, fixed, true);
+  return sum.filter((p) => ClipperLib.Clipper.Area(p) > 0);
+}
+
+/** Union of closed paths (non-zero fill). */
+export function unionPaths(paths: IntPaths): IntPaths {
+  const c = new ClipperLib.Clipper();
+  c.AddPaths(paths, ClipperLib.PolyType.ptSubject, true);
+  const out: IntPaths = [];
+  c.Execute(
+    ClipperLib.ClipType.ctUnion,
+    out,
+    ClipperLib.PolyFillType.pftNonZero,
+    ClipperLib.PolyFillType.pftNonZero,
+  );
+  return out;
+}
+
+/** subject minus the union of clips (non-zero fill on both). */
+export function differencePaths(subject: IntPaths, clips: IntPaths): IntPaths {
+  const c = new ClipperLib.Clipper();
+  c.AddPaths(subject, ClipperLib.PolyType.ptSubject, true);
+  if (clips.length > 0) c.AddPaths(clips, ClipperLib.PolyType.ptClip, true);
+  const out: IntPaths = [];
+  c.Execute(
+    ClipperLib.ClipType.ctDifference,
+    out,
+    ClipperLib.PolyFillType.pftNonZero,
+    ClipperLib.PolyFillType.pftNonZero,
+  );
+  return out;
+}
+
+/** Intersection of two path sets (non-zero fill). */
+export function intersectPaths(a: IntPaths, b: IntPaths): IntPaths {
+  const c = new ClipperLib.Clipper();
+  c.AddPaths(a, ClipperLib.PolyType.ptSubject, true);
+  c.AddPaths(b, ClipperLib.PolyType.ptClip, true);
+  const out: IntPaths = [];
+  c.Execute(
+    ClipperLib.ClipType.ctIntersection,
+    out,
+    ClipperLib.PolyFillType.pftNonZero,
+    ClipperLib.PolyFillType.pftNonZero,
+  );
+  return out;
+}
+
+/** 1 inside, 0 outside, -1 on the boundary (Clipper's convention) for one path. */
+export function pointInPath(x: number, y: number, path: IntPath): number {
+  return ClipperLib.Clipper.PointInPolygon({ X: x, Y: y }, path);
+}

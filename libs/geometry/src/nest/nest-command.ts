@@ -1,0 +1,116 @@
+/**
+ * The `nest` command of the geometry CLI, without file I/O: validates parsed JSON of the form
+ * { "sheet": {"widthMm","heightMm"}, "marginMm", "gapMm", "parts": [{"id","outline":[[x,y]…],"quantity",
+ * "group"?, "rotationsDeg"?}], "rotationsDeg"? } and returns the object to print. Invalid input and parts that
+ * cannot fit come back as { "error": { "code", "message", "partIds" } } (the caller decides the exit code).
+ */
+import { nestParts, type NestInput, type NestPartInput, type NestTotals } from './nest';
+
+export interface NestOutput {
+  sheets?: {
+    group: string;
+    placements: { part: string; x: number; y: number; rotationDeg: number }[];
+    utilisation: number;
+    usedLengthMm: number;
+  }[];
+  totals?: NestTotals;
+  error?: { code: string; message: string; partIds: string[] };
+}
+
+function isRecord(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+function finite(v: unknown): v is number {
+  return typeof v === 'number' && Number.isFinite(v);
+}
+
+function rotations(v: unknown, where: string, problems: string[]): readonly number[] | 'auto' | undefined {
+  if (v === undefined || v === 'auto') return v;
+  if (Array.isArray(v) && v.length > 0 && v.every(finite)) return v;
+  problems.push(`${where}.rotationsDeg must be "auto" or a non-empty list of numbers`);
+  return undefined;
+}
+
+/** Validates the command's input and nests it. Never throws for bad input. */
+export function runNestCommand(input: unknown): NestOutput {
+  const problems: string[] = [];
+  const invalid = (): NestOutput => ({
+    error: { code: 'INVALID_INPUT', message: problems.join('; '), partIds: [] },
+  });
+  if (!isRecord(input)) {
+    problems.push('input must be a JSON object');
+    return invalid();
+  }
+  const sheet = input.sheet;
+  if (
+    !isRecord(sheet) ||
+    !finite(sheet.widthMm) ||
+    !finite(sheet.heightMm) ||
+    sheet.widthMm <= 0 ||
+    sheet.heightMm <= 0
+  )
+    problems.push('sheet must be {"widthMm": > 0, "heightMm": > 0}');
+  const marginMm = input.marginMm ?? 0;
+  const gapMm = input.gapMm ?? 0;
+  if (!finite(marginMm) || marginMm < 0) problems.push('marginMm must be a number ≥ 0');
+  if (!finite(gapMm) || gapMm < 0) problems.push('gapMm must be a number ≥ 0');
+  const runRotations = rotations(input.rotationsDeg, 'input', problems);
+  const parts: NestPartInput[] = [];
+  if (!Array.isArray(input.parts) || input.parts.length === 0)
+    problems.push('parts must be a non-empty list');
+  else
+    input.parts.forEach((p: unknown, i: number) => {
+      const where = `parts[${i}]`;
+      if (!isRecord(p)) {
+        problems.push(`${where} must be an object`);
+        return;
+      }
+      if (typeof p.id !== 'string' || p.id.length === 0)
+        problems.push(`${where}.id must be a non-empty string`);
+      const q = p.quantity ?? 1;
+      if (!finite(q) || !Number.isInteger(q) || q < 0)
+        problems.push(`${where}.quantity must be a whole number ≥ 0`);
+      const outline = p.outline;
+      const okOutline =
+        Array.isArray(outline) &&
+        outline.length >= 3 &&
+        outline.every(
+          (pt: unknown) => Array.isArray(pt) && pt.length === 2 && finite(pt[0]) && finite(pt[1]),
+        );
+      if (!okOutline) problems.push(`${where}.outline must be a list of at least 3 [x, y] number pairs`);
+      if (p.group !== undefined && typeof p.group !== 'string')
+        problems.push(`${where}.group must be a string`);
+      const rot = rotations(p.rotationsDeg, where, problems);
+      if (typeof p.id === 'string' && okOutline && finite(q))
+        parts.push({
+          id: p.id,
+          outline: outline as [number, number][],
+          quantity: q,
+          ...(typeof p.group === 'string' ? { group: p.group } : {}),
+          ...(rot !== undefined ? { rotationsDeg: rot } : {}),
+        });
+    });
+  if (problems.length > 0) return invalid();
+  const nestInput: NestInput = {
+    sheet: {
+      widthMm: (sheet as { widthMm: number }).widthMm,
+      heightMm: (sheet as { heightMm: number }).heightMm,
+    },
+    marginMm: marginMm as number,
+    gapMm: gapMm as number,
+    parts,
+    ...(runRotations !== undefined ? { rotationsDeg: runRotations } : {}),
+  };
+  const result = nestParts(nestInput);
+  if (!result.ok) return { error: result.error };
+  return {
+    sheets: result.sheets.map((s) => ({
+      group: s.group,
+      placements: s.placements,
+      utilisation: s.utilisation,
+      usedLengthMm: s.usedLengthMm,
+    })),
+    totals: result.totals,
+  };
+}

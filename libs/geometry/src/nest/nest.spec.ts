@@ -1,0 +1,351 @@
+import * as polygonClipping from 'polygon-clipping';
+import { nestParts, type NestInput, type NestResult } from './nest';
+import { runNestCommand } from './nest-command';
+
+// ---------- Shapes built here ----------
+type P = [number, number];
+
+/** Regular {n/k} polygon (k = 1) or star outline of circumradius R, first vertex at angle startDeg. */
+function regular(n: number, R: number, startDeg = 90): P[] {
+  return Array.from({ length: n }, (_, i) => {
+    const a = ((startDeg + (360 * i) / n) * Math.PI) / 180;
+    return [R * Math.cos(a), R * Math.sin(a)] as P;
+  });
+}
+
+/** Outline of the star {n/k}: 2n vertices alternating between the tips and the inner crossing points. */
+function star(n: number, k: number, R: number): P[] {
+  const inner = (R * Math.cos((Math.PI * k) / n)) / Math.cos((Math.PI * (k - 1)) / n);
+  return Array.from({ length: 2 * n }, (_, i) => {
+    const r = i % 2 === 0 ? R : inner;
+    const a = Math.PI / 2 + (Math.PI * i) / n;
+    return [r * Math.cos(a), r * Math.sin(a)] as P;
+  });
+}
+
+/** Cuts a slot of width w and depth d from tip vertex i of a CCW star outline toward the centre. */
+function withSlot(outline: P[], tip: number, w: number, d: number): P[] {
+  const n = outline.length;
+  const t = outline[tip]!;
+  const prev = outline[(tip - 1 + n) % n]!;
+  const next = outline[(tip + 1) % n]!;
+  const r = Math.hypot(t[0], t[1]);
+  const u: P = [-t[0] / r, -t[1] / r]; // toward the centre
+  const side: P = [-u[1], u[0]];
+  const unit = (p: P): P => {
+    const l = Math.hypot(p[0] - t[0], p[1] - t[1]);
+    return [(p[0] - t[0]) / l, (p[1] - t[1]) / l];
+  };
+  const up = unit(prev);
+  const un = unit(next);
+  const sinHalf = Math.abs(up[0] * u[1] - up[1] * u[0]); // sine of half the tip angle
+  const along = w / 2 / sinHalf;
+  const onPrev: P = [t[0] + up[0] * along, t[1] + up[1] * along];
+  const onNext: P = [t[0] + un[0] * along, t[1] + un[1] * along];
+  const sgn = up[0] * side[0] + up[1] * side[1] > 0 ? 1 : -1;
+  const deep = (s: number): P => [
+    t[0] + u[0] * d + side[0] * s * (w / 2),
+    t[1] + u[1] * d + side[1] * s * (w / 2),
+  ];
+  return [...outline.slice(0, tip), onPrev, deep(sgn), deep(-sgn), onNext, ...outline.slice(tip + 1)];
+}
+
+function area(poly: P[]): number {
+  let s = 0;
+  for (let i = 0; i < poly.length; i++) {
+    const a = poly[i]!;
+    const b = poly[(i + 1) % poly.length]!;
+    s += a[0] * b[1] - b[0] * a[1];
+  }
+  return Math.abs(s) / 2;
+}
+
+// ---------- Independent checker (polygon-clipping + plain segment distances) ----------
+function placed(outline: P[], x: number, y: number, deg: number): P[] {
+  const t = (deg * Math.PI) / 180;
+  return outline.map(([px, py]) => [
+    px * Math.cos(t) - py * Math.sin(t) + x,
+    px * Math.sin(t) + py * Math.cos(t) + y,
+  ]);
+}
+
+function mpArea(mp: polygonClipping.MultiPolygon): number {
+  let s = 0;
+  for (const poly of mp) poly.forEach((ring, i) => (s += (i === 0 ? 1 : -1) * area(ring as P[])));
+  return s;
+}
+
+function segDist(p: P, q: P, a: P, b: P): number {
+  const pd = (pt: P, s: P, e: P) => {
+    const dx = e[0] - s[0];
+    const dy = e[1] - s[1];
+    const l2 = dx * dx + dy * dy;
+    const t = l2 === 0 ? 0 : Math.max(0, Math.min(1, ((pt[0] - s[0]) * dx + (pt[1] - s[1]) * dy) / l2));
+    return Math.hypot(pt[0] - s[0] - t * dx, pt[1] - s[1] - t * dy);
+  };
+  return Math.min(pd(p, a, b), pd(q, a, b), pd(a, p, q), pd(b, p, q));
+}
+
+function boundaryDistance(A: P[], B: P[]): number {
+  let d = Infinity;
+  for (let i = 0; i < A.length; i++)
+    for (let j = 0; j < B.length; j++)
+      d = Math.min(d, segDist(A[i]!, A[(i + 1) % A.length]!, B[j]!, B[(j + 1) % B.length]!));
+  return d;
+}
+
+function box(p: P[]) {
+  const xs = p.map((q) => q[0]);
+  const ys = p.map((q) => q[1]);
+  return { minX: Math.min(...xs), maxX: Math.max(...xs), minY: Math.min(...ys), maxY: Math.max(...ys) };
+}
+
+/** Checks every sheet: inside the sheet less margin, no overlap, pairwise distance ≥ gap (tolerance 2 µm). */
+function checkLayout(input: NestInput, result: NestResult): void {
+  if (!result.ok) throw new Error(result.error.message);
+  const outlines = new Map(input.parts.map((p) => [p.id, p.outline as P[]]));
+  const m = input.marginMm;
+  const { widthMm: W, heightMm: H } = input.sheet;
+  const usable: P[] = [
+    [m, m],
+    [W - m, m],
+    [W - m, H - m],
+    [m, H - m],
+  ];
+  const counts = new Map<string, number>();
+  for (const sheet of result.sheets) {
+    const polys = sheet.placements.map((pl) => placed(outlines.get(pl.part)!, pl.x, pl.y, pl.rotationDeg));
+    sheet.placements.forEach((pl) => counts.set(pl.part, (counts.get(pl.part) ?? 0) + 1));
+    for (const p of polys) {
+      const outside = mpArea(polygonClipping.difference([p], [usable]));
+      expect(outside).toBeLessThan(1e-3);
+      const b = box(p);
+      expect(b.minX).toBeGreaterThanOrEqual(m - 2e-3);
+      expect(b.maxX).toBeLessThanOrEqual(W - m + 2e-3);
+    }
+    const boxes = polys.map(box);
+    for (let i = 0; i < polys.length; i++)
+      for (let j = i + 1; j < polys.length; j++) {
+        const a = boxes[i]!;
+        const b = boxes[j]!;
+        const g = input.gapMm;
+        if (a.maxX + g < b.minX || b.maxX + g < a.minX || a.maxY + g < b.minY || b.maxY + g < a.minY)
+          continue;
+        const overlap = mpArea(polygonClipping.intersection([polys[i]!], [polys[j]!]));
+        expect(overlap).toBeLessThan(1e-6);
+        if (g > 0) expect(boundaryDistance(polys[i]!, polys[j]!)).toBeGreaterThanOrEqual(g - 2e-3);
+      }
+    // Reported utilisation is the pieces' area over the sheet area.
+    const a = polys.reduce((s, p) => s + area(p), 0);
+    expect(sheet.utilisation).toBeCloseTo(a / (W * H), 4);
+  }
+  for (const p of input.parts) expect(counts.get(p.id) ?? 0).toBe(p.quantity);
+}
+
+function firstSheetCount(r: NestResult): number {
+  return r.ok ? (r.sheets[0]?.placements.length ?? 0) : -1;
+}
+
+// ---------- Tests ----------
+describe('nestParts — true shape', () => {
+  it('puts at least 40 equilateral triangles (side 100) on a 600 × 400 sheet with a 3 mm gap (REFERENCES: rows of alternating triangles give 40, bounding boxes 20)', () => {
+    const input: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 0,
+      gapMm: 3,
+      parts: [{ id: 'tri', outline: regular(3, 100 / Math.sqrt(3)), quantity: 40 }],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1); // all 40 on one sheet
+    expect(firstSheetCount(r)).toBe(40);
+  });
+
+  it('puts 15 decagons (circumradius 60) on a 600 × 400 sheet with a 3 mm gap (REFERENCES: 15 whichever way)', () => {
+    const input: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 0,
+      gapMm: 3,
+      parts: [{ id: 'dec', outline: regular(10, 60), quantity: 15 }],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1);
+    expect(firstSheetCount(r)).toBe(15);
+  });
+
+  it('nests slotted {8/3} and {5/2} stars given clockwise, with a margin, without overlap', () => {
+    const s83 = withSlot(withSlot(star(8, 3, 70), 4, 3, 20), 0, 3, 20);
+    const s52 = withSlot(withSlot(star(5, 2, 50), 4, 3, 12), 0, 3, 12).reverse(); // clockwise
+    const input: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 8,
+      gapMm: 2,
+      parts: [
+        { id: 'star83', outline: s83, quantity: 7 },
+        { id: 'star52', outline: s52, quantity: 9 },
+      ],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    // Bounding boxes alone: 140×140 and 95×90 boxes → at most 4×2 + … fewer pieces per sheet than true shape.
+    expect(r.ok && r.totals.sheetCount).toBeLessThanOrEqual(2);
+  });
+
+  it('keeps each colour group on its own sheets and honours fixed rotations', () => {
+    const sq = regular(4, 30, 45);
+    const input: NestInput = {
+      sheet: { widthMm: 300, heightMm: 200 },
+      marginMm: 5,
+      gapMm: 1,
+      rotationsDeg: [0],
+      parts: [
+        { id: 'red-tri', outline: regular(3, 40), quantity: 5, group: 'red' },
+        { id: 'blue-sq', outline: sq, quantity: 6, group: 'blue' },
+      ],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    if (!r.ok) return;
+    for (const s of r.sheets) {
+      expect(new Set(s.partIds).size).toBe(1);
+      expect(s.partIds[0]!.startsWith(s.group)).toBe(true);
+      for (const p of s.placements) expect(p.rotationDeg).toBe(0);
+    }
+    expect(r.totals.sheetsByGroup).toEqual({ red: 1, blue: 1 });
+  });
+
+  it('names a part that cannot fit on an empty sheet at any rotation', () => {
+    const r = nestParts({
+      sheet: { widthMm: 200, heightMm: 100 },
+      marginMm: 5,
+      gapMm: 1,
+      parts: [
+        { id: 'ok', outline: regular(4, 20), quantity: 1 },
+        { id: 'huge', outline: regular(6, 120), quantity: 1 },
+      ],
+    });
+    expect(r.ok).toBe(false);
+    if (!r.ok) {
+      expect(r.error.code).toBe('PART_DOES_NOT_FIT');
+      expect(r.error.partIds).toEqual(['huge']);
+      expect(r.error.message).toContain('huge');
+    }
+  });
+});
+
+describe('nestParts — outside density checks', () => {
+  // Derived: squares, equilateral triangles and regular hexagons tile the plane (density 1); with a gap g each
+  // piece grown by g/2 with mitred corners still tiles, so at most W·H / A(grown) pieces fit, and at least
+  // those whose tile lies wholly inside the sheet less a border one piece diameter d wide: (W − d)(H − d) / A(grown).
+  const W = 1000;
+  const H = 700;
+  const gap = 2;
+  const cases: [string, P[], number][] = [
+    ['square side 60', regular(4, 60 / Math.SQRT2, 45), 4],
+    ['triangle side 90', regular(3, 90 / Math.sqrt(3)), 3],
+    ['hexagon circumradius 40', regular(6, 40, 0), 6],
+  ];
+  it.each(cases)('%s approaches the tiling density less computed edge losses', (_name, outline, n) => {
+    const a = area(outline);
+    const perimeter = n * Math.hypot(outline[1]![0] - outline[0]![0], outline[1]![1] - outline[0]![1]);
+    const exterior = (2 * Math.PI) / n;
+    const d = gap / 2;
+    const grown = a + perimeter * d + d * d * n * Math.tan(exterior / 2); // REFERENCES: Steiner, mitred joins
+    const diameter = 2 * Math.max(...outline.map((p) => Math.hypot(p[0], p[1]))) + gap;
+    const upper = Math.floor((W * H) / grown);
+    const lower = Math.floor(((W - diameter) * (H - diameter)) / grown);
+    const input: NestInput = {
+      sheet: { widthMm: W, heightMm: H },
+      marginMm: 0,
+      gapMm: gap,
+      parts: [{ id: 'p', outline, quantity: upper }],
+    };
+    const r = nestParts({ ...input, method: 'pattern' });
+    checkLayout(input, r);
+    const count = firstSheetCount(r);
+    expect(count).toBeGreaterThanOrEqual(lower);
+    expect(count).toBeLessThanOrEqual(upper);
+    expect(r.ok && r.sheets[0]!.utilisation).toBeGreaterThanOrEqual((lower * a) / (W * H));
+  });
+
+  it('regular pentagons never beat the densest pentagon packing (5 − √5)/3 ≈ 0.9213 (Kuperberg & Kuperberg 1990; Hales & Kusner 2016) and come within 15 % of it (edge losses included)', () => {
+    const outline = regular(5, 35);
+    const input: NestInput = {
+      sheet: { widthMm: W, heightMm: H },
+      marginMm: 0,
+      gapMm: 0,
+      parts: [{ id: 'pent', outline, quantity: 400 }],
+    };
+    const r = nestParts({ ...input, method: 'pattern' });
+    checkLayout(input, r);
+    if (!r.ok) return;
+    const u = r.sheets[0]!.utilisation;
+    const bound = (5 - Math.sqrt(5)) / 3;
+    // Edge effects can only lower a finite sheet's density; pieces sticking past the edges are not allowed.
+    expect(u).toBeLessThanOrEqual(bound);
+    expect(u).toBeGreaterThan(bound * 0.85);
+  });
+});
+
+describe('runNestCommand', () => {
+  it('returns sheets with placements that put each outline where it says (rotate about own origin, then translate)', () => {
+    const outline: P[] = [
+      [0, 0],
+      [50, 0],
+      [50, 10],
+      [10, 10],
+      [10, 40],
+      [0, 40],
+    ]; // an L, non-convex
+    const json = {
+      sheet: { widthMm: 200, heightMm: 120 },
+      marginMm: 4,
+      gapMm: 2,
+      parts: [{ id: 'L', outline, quantity: 9 }],
+    };
+    const out = runNestCommand(JSON.parse(JSON.stringify(json)));
+    expect(out.error).toBeUndefined();
+    const sheets = out.sheets!;
+    expect(sheets.length).toBeGreaterThan(0);
+    for (const s of sheets) {
+      expect(typeof s.utilisation).toBe('number');
+      for (const p of s.placements) expect(Object.keys(p).sort()).toEqual(['part', 'rotationDeg', 'x', 'y']);
+    }
+    checkLayout(json, {
+      ok: true,
+      sheets: sheets.map((s) => ({ ...s, partIds: [], method: 'true-shape' })),
+      totals: out.totals!,
+    });
+  });
+
+  it('rejects malformed input with a message for each problem', () => {
+    const out = runNestCommand({
+      sheet: { widthMm: -1 },
+      gapMm: 'x',
+      parts: [{ id: '', outline: [[0, 0]] }],
+    });
+    expect(out.error?.code).toBe('INVALID_INPUT');
+    expect(out.error?.message).toMatch(/sheet/);
+    expect(out.error?.message).toMatch(/gapMm/);
+    expect(out.error?.message).toMatch(/parts\[0\]\.id/);
+    expect(out.error?.message).toMatch(/parts\[0\]\.outline/);
+    expect(runNestCommand(null).error?.code).toBe('INVALID_INPUT');
+  });
+
+  it('rejects a self-intersecting outline', () => {
+    const bowtie: P[] = [
+      [0, 0],
+      [20, 10],
+      [20, 0],
+      [0, 20],
+    ];
+    const out = runNestCommand({
+      sheet: { widthMm: 100, heightMm: 100 },
+      marginMm: 0,
+      gapMm: 0,
+      parts: [{ id: 'bow', outline: bowtie, quantity: 1 }],
+    });
+    expect(out.error?.message).toMatch(/self-intersecting/);
+  });
+});

@@ -1,0 +1,368 @@
+/**
+ * True-shape nesting of arbitrary simple polygons onto rectangular sheets, one colour group per sheet.
+ *
+ * Coordinates: millimetres, sheet origin at its lower-left corner, x along the sheet's width, y along its
+ * height. A placement means: rotate the part's outline about the part's own origin by rotationDeg
+ * (counter-clockwise), then translate by (x, y). Parts never overlap, are at least gapMm apart and stay at
+ * least marginMm inside every sheet edge (up to 1 µm of rounding). Outlines may be given clockwise or
+ * counter-clockwise, may be non-convex (stars with slot notches), but must be simple (no self-crossing).
+ *
+ * Two methods run per group and the better result is kept (fewer sheets, then the longer free strip at the
+ * right end of the last sheet, then the larger free area on it, then the shorter total used length):
+ *  - bottom-left fill over no-fit polygons (bottom-left.ts), largest parts first;
+ *  - a pattern pass (pattern.ts): every part with two or more copies is laid on its best single or double
+ *    lattice (with 'auto' rotation, four extra orientations per symmetry period of the outline are tried),
+ *    edge gaps on full sheets are topped up with more copies, the other parts are added by bottom-left fill
+ *    into the gaps and onto new sheets.
+ * Every placement is also checked directly against its neighbours (clearOfItems in variants.ts), and a plan
+ * failing that check is never preferred, as a guard against numerical slivers in the polygon unions.
+ * Rotations: 'auto' tries 0° and 180°, then the rotations laying the longest convex-hull edges flat (at the
+ * bottom or the top), then 90° and 270°, keeping the first four that give distinct shapes (autoRotations).
+ */
+import {
+  bottomLeftFill,
+  findPosition,
+  type PlacedItem,
+  type SheetFrame,
+  type SheetState,
+} from './bottom-left';
+import { bestPattern } from './pattern';
+import { cleanPolygon, isSimplePolygon, signedArea, toCounterClockwise, type Point } from './polygon';
+import {
+  autoRotations,
+  clearOfItems,
+  distinctRotations,
+  GeometryCache,
+  patternRotations,
+  type PreparedPart,
+  type Variant,
+} from './variants';
+import { SCALE_PER_MM } from './clipper-adapter';
+
+export interface NestSheetSize {
+  widthMm: number;
+  heightMm: number;
+}
+
+export interface NestPartInput {
+  id: string;
+  /** Closed outline in mm, [x, y] pairs, either orientation, no repeated closing point needed. */
+  outline: readonly (readonly [number, number])[];
+  quantity: number;
+  /** Colour group: each group is nested onto its own sheets. Default "default". */
+  group?: string;
+  /** Allowed rotations for this part (degrees CCW); overrides the run's setting. */
+  rotationsDeg?: readonly number[] | 'auto';
+}
+
+export interface NestInput {
+  sheet: NestSheetSize;
+  marginMm: number;
+  gapMm: number;
+  parts: readonly NestPartInput[];
+  /** Allowed rotations (degrees CCW) for every part, or 'auto' (default): see autoRotations(). */
+  rotationsDeg?: readonly number[] | 'auto';
+  /** 'best' (default) runs both methods and keeps the better; the others force one method. */
+  method?: 'best' | 'true-shape' | 'pattern';
+}
+
+export interface NestPlacement {
+  part: string;
+  x: number;
+  y: number;
+  rotationDeg: number;
+}
+
+export interface NestSheetResult {
+  group: string;
+  placements: NestPlacement[];
+  /** Pieces' area ÷ whole sheet area. */
+  utilisation: number;
+  /** Distance from the sheet's left edge to the right-most point of any piece, mm. */
+  usedLengthMm: number;
+  /** Part id of each placement, in the same order. */
+  partIds: string[];
+  method: 'true-shape' | 'pattern';
+}
+
+export interface NestTotals {
+  sheetCount: number;
+  pieceCount: number;
+  partAreaMm2: number;
+  sheetAreaMm2: number;
+  /** Total pieces' area ÷ total sheet area. */
+  utilisation: number;
+  sheetsByGroup: Record<string, number>;
+  /** Per group: sheets used and the strip left free at the right of its last sheet (mm). */
+  groups: { group: string; sheets: number; lastOffcutLengthMm: number; method: string }[];
+}
+
+export type NestErrorCode = 'INVALID_INPUT' | 'PART_DOES_NOT_FIT';
+
+export type NestResult =
+  | { ok: true; sheets: NestSheetResult[]; totals: NestTotals }
+  | { ok: false; error: { code: NestErrorCode; message: string; partIds: string[] } };
+
+const DEFAULT_GROUP = 'default';
+
+function fail(code: NestErrorCode, message: string, partIds: string[] = []): NestResult {
+  return { ok: false, error: { code, message, partIds } };
+}
+
+function prepare(input: NestInput): PreparedPart[] | NestResult {
+  const parts: PreparedPart[] = [];
+  const ids = new Set<string>();
+  for (const [index, p] of input.parts.entries()) {
+    if (ids.has(p.id)) return fail('INVALID_INPUT', `part id "${p.id}" is used twice`, [p.id]);
+    ids.add(p.id);
+    const cleaned = cleanPolygon(p.outline as Point[]);
+    if (cleaned.length < 3 || Math.abs(signedArea(cleaned)) < 1e-9)
+      return fail('INVALID_INPUT', `part "${p.id}" has no area`, [p.id]);
+    if (!isSimplePolygon(cleaned))
+      return fail('INVALID_INPUT', `part "${p.id}" has a self-intersecting outline`, [p.id]);
+    const outline = toCounterClockwise(cleaned);
+    const rot = p.rotationsDeg ?? input.rotationsDeg ?? 'auto';
+    const rotationsDeg = rot === 'auto' ? autoRotations(outline) : distinctRotations(outline, rot);
+    if (rotationsDeg.length === 0)
+      return fail('INVALID_INPUT', `part "${p.id}" has no allowed rotation`, [p.id]);
+    parts.push({
+      index,
+      id: p.id,
+      group: p.group ?? DEFAULT_GROUP,
+      quantity: p.quantity,
+      outline,
+      areaMm2: signedArea(outline),
+      rotationsDeg,
+      patternRotationsDeg: rot === 'auto' ? patternRotations(outline) : rotationsDeg,
+    });
+  }
+  return parts;
+}
+
+interface GroupPlan {
+  sheets: SheetState[];
+  method: string;
+}
+
+function usedLengthUnits(sheet: SheetState): number {
+  let m = 0;
+  for (const it of sheet.items) m = Math.max(m, it.tx + it.variant.ubounds.maxX);
+  return m;
+}
+
+/** Lower is better: sheets, then the last sheet's used length, then its used area, then total used length. */
+function planScore(plan: GroupPlan): number[] {
+  const last = plan.sheets[plan.sheets.length - 1];
+  const total = plan.sheets.reduce((s, sh) => s + usedLengthUnits(sh), 0);
+  return [
+    plan.sheets.length,
+    last ? usedLengthUnits(last) : 0,
+    last ? Math.round(last.usedAreaMm2) : 0,
+    total,
+  ];
+}
+
+/**
+ * Direct check of a plan, independent of the no-fit polygons: every pair of nearby parts is intersected
+ * (one grown by the gap, the other as is). Clipper's Minkowski sums of non-convex outlines can come out
+ * incomplete on rare inputs; a plan that fails this check is never returned when another passes.
+ */
+function planIsClear(plan: GroupPlan, gapMm: number): boolean {
+  for (const sheet of plan.sheets)
+    for (let i = 1; i < sheet.items.length; i++) {
+      const it = sheet.items[i]!;
+      if (!clearOfItems(sheet.items.slice(0, i), it.variant, it.tx, it.ty, gapMm)) return false;
+    }
+  return true;
+}
+
+function betterPlan(a: GroupPlan, b: GroupPlan | null, gapMm: number): boolean {
+  if (b && !planIsClear(a, gapMm)) return false;
+  if (b && !planIsClear(b, gapMm)) return true;
+  if (!b) return true;
+  const sa = planScore(a);
+  const sb = planScore(b);
+  for (let i = 0; i < sa.length; i++) if (sa[i] !== sb[i]) return sa[i]! < sb[i]!;
+  return false;
+}
+
+function copiesOf(cache: GeometryCache, parts: readonly PreparedPart[]): Variant[][] {
+  const list: { part: PreparedPart; variants: Variant[] }[] = [];
+  for (const part of parts) {
+    const variants = part.rotationsDeg.map((d) => cache.variant(part.index, d));
+    for (let q = 0; q < part.quantity; q++) list.push({ part, variants });
+  }
+  list.sort((a, b) => b.part.areaMm2 - a.part.areaMm2 || a.part.index - b.part.index);
+  return list.map((l) => l.variants);
+}
+
+function patternPlan(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  group: string,
+  parts: readonly PreparedPart[],
+  patterned: readonly PreparedPart[],
+): GroupPlan | null {
+  const sheets: SheetState[] = [];
+  const rest: PreparedPart[] = parts.filter((p) => !patterned.includes(p));
+  const labels: string[] = [];
+  for (const part of patterned) {
+    const pat = bestPattern(cache, frame, part.index, part.patternRotationsDeg);
+    if (!pat) {
+      rest.push(part);
+      continue;
+    }
+    labels.push(`${part.id}: ${pat.description}`);
+    // Gaps the lattice leaves at the sheet edges are topped up by bottom-left fill with further copies.
+    const variants = [...new Set([...part.rotationsDeg, ...pat.slots.map((x) => x.variant.rotationDeg)])].map(
+      (d) => cache.variant(part.index, d),
+    );
+    let left = part.quantity;
+    while (left > 0) {
+      const take = Math.min(left, pat.slots.length);
+      const items: PlacedItem[] = pat.slots.slice(0, take).map((x) => ({ ...x }));
+      const sheet: SheetState = { group, items, usedAreaMm2: take * part.areaMm2, method: 'pattern' };
+      sheets.push(sheet);
+      left -= take;
+      while (left > 0) {
+        const c = findPosition(cache, frame, sheet, variants, 'left');
+        if (!c) break;
+        sheet.items.push({ variant: c.variant, tx: c.tx, ty: c.ty });
+        sheet.usedAreaMm2 += part.areaMm2;
+        left--;
+      }
+    }
+  }
+  if (labels.length === 0) return null;
+  const r = bottomLeftFill(cache, frame, group, copiesOf(cache, rest), sheets);
+  if (r.failed !== null) return null;
+  return { sheets: r.sheets, method: `pattern (${labels.join('; ')})` };
+}
+
+function nestGroup(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  group: string,
+  parts: readonly PreparedPart[],
+  method: NonNullable<NestInput['method']>,
+): GroupPlan {
+  let best: GroupPlan | null = null;
+  if (method !== 'pattern') {
+    for (const rule of ['left', 'right'] as const) {
+      const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), [], rule);
+      const plan = { sheets: r.sheets, method: `true-shape (bottom-left fill, ${rule} edge first)` };
+      if (r.failed === null && betterPlan(plan, best, cache.gapMm)) best = plan;
+    }
+  }
+  if (method !== 'true-shape') {
+    const repeated = parts
+      .filter((p) => p.quantity >= 2)
+      .sort((a, b) => b.areaMm2 * b.quantity - a.areaMm2 * a.quantity);
+    const options: PreparedPart[][] = [];
+    if (repeated.length > 0) options.push([repeated[0]!]);
+    if (repeated.length > 1) options.push(repeated);
+    for (const opt of options) {
+      const plan = patternPlan(cache, frame, group, parts, opt);
+      if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
+    }
+    if (!best) {
+      const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), []);
+      best = { sheets: r.sheets, method: 'true-shape (bottom-left fill)' };
+    }
+  }
+  return best as GroupPlan;
+}
+
+function round(v: number, digits = 6): number {
+  const f = 10 ** digits;
+  return Math.round(v * f) / f;
+}
+
+/**
+ * Nests parts onto sheets: true shape, per-part rotations, each group on its own sheets. Returns an error
+ * result naming any part that cannot fit on an empty sheet at any allowed rotation.
+ */
+export function nestParts(input: NestInput): NestResult {
+  const { sheet, marginMm, gapMm } = input;
+  if (!(sheet.widthMm > 0 && sheet.heightMm > 0)) return fail('INVALID_INPUT', 'sheet size must be positive');
+  if (!(marginMm >= 0) || !(gapMm >= 0)) return fail('INVALID_INPUT', 'margin and gap must be ≥ 0');
+  for (const p of input.parts)
+    if (!Number.isInteger(p.quantity) || p.quantity < 0)
+      return fail('INVALID_INPUT', `part "${p.id}" quantity must be a whole number ≥ 0`, [p.id]);
+  const prepared = prepare(input);
+  if (!Array.isArray(prepared)) return prepared;
+  const frame: SheetFrame = { widthMm: sheet.widthMm, heightMm: sheet.heightMm, marginMm };
+  const cache = new GeometryCache(prepared, gapMm);
+
+  const tooBig: string[] = [];
+  for (const part of prepared) {
+    if (part.quantity === 0) continue;
+    const fits = part.rotationsDeg.some((d) => {
+      const b = cache.variant(part.index, d).bounds;
+      return (
+        b.maxX - b.minX <= sheet.widthMm - 2 * marginMm + 1e-9 &&
+        b.maxY - b.minY <= sheet.heightMm - 2 * marginMm + 1e-9
+      );
+    });
+    if (!fits) tooBig.push(part.id);
+  }
+  if (tooBig.length > 0)
+    return fail(
+      'PART_DOES_NOT_FIT',
+      `part${tooBig.length > 1 ? 's' : ''} ${tooBig.map((id) => `"${id}"`).join(', ')} cannot fit on an empty ` +
+        `${sheet.widthMm} × ${sheet.heightMm} mm sheet with a ${marginMm} mm margin at any allowed rotation`,
+      tooBig,
+    );
+
+  const groups: string[] = [];
+  for (const p of prepared) if (p.quantity > 0 && !groups.includes(p.group)) groups.push(p.group);
+  const sheetArea = sheet.widthMm * sheet.heightMm;
+  const sheets: NestSheetResult[] = [];
+  const groupTotals: NestTotals['groups'] = [];
+  const sheetsByGroup: Record<string, number> = {};
+  for (const group of groups) {
+    const parts = prepared.filter((p) => p.group === group && p.quantity > 0);
+    const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best');
+    for (const s of plan.sheets) {
+      const items = [...s.items].sort((a, b) => a.tx - b.tx || a.ty - b.ty);
+      const placements = items.map((it) => ({
+        part: prepared[it.variant.partIndex]!.id,
+        x: round(it.tx / SCALE_PER_MM),
+        y: round(it.ty / SCALE_PER_MM),
+        rotationDeg: it.variant.rotationDeg,
+      }));
+      const area = items.reduce((a, it) => a + it.variant.areaMm2, 0);
+      sheets.push({
+        group,
+        placements,
+        utilisation: round(area / sheetArea),
+        usedLengthMm: round(usedLengthUnits(s) / SCALE_PER_MM, 3),
+        partIds: placements.map((p) => p.part),
+        method: s.method,
+      });
+    }
+    const last = plan.sheets[plan.sheets.length - 1];
+    sheetsByGroup[group] = plan.sheets.length;
+    groupTotals.push({
+      group,
+      sheets: plan.sheets.length,
+      lastOffcutLengthMm: round(sheet.widthMm - (last ? usedLengthUnits(last) / SCALE_PER_MM : 0), 3),
+      method: plan.method,
+    });
+  }
+  const partArea = prepared.reduce((a, p) => a + p.areaMm2 * p.quantity, 0);
+  const pieceCount = sheets.reduce((a, s) => a + s.placements.length, 0);
+  return {
+    ok: true,
+    sheets,
+    totals: {
+      sheetCount: sheets.length,
+      pieceCount,
+      partAreaMm2: round(partArea, 3),
+      sheetAreaMm2: sheets.length * sheetArea,
+      utilisation: sheets.length > 0 ? round(partArea / (sheets.length * sheetArea)) : 0,
+      sheetsByGroup,
+      groups: groupTotals,
+    },
+  };
+}

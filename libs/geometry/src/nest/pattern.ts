@@ -1,0 +1,350 @@
+/**
+ * Pattern pass for many congruent pieces: a "cell" of one piece, or of a piece and its copy turned 180° placed
+ * touching it (a point-symmetric pair), is repeated on a lattice, as in double-lattice packings of convex
+ * bodies (G. Kuperberg & W. Kuperberg, "Double-lattice packings of convex bodies in the plane", Discrete
+ * Comput. Geom. 5, 1990 — from memory of the venue). The row vector is the shortest horizontal translation
+ * leaving the cell clear of its own no-fit polygon; the second vector is the lowest clear translation over a
+ * sweep of horizontal offsets. The lattice is clipped to the sheet less its margin, and the arrangement holding
+ * the most pieces on one sheet wins.
+ */
+import { pointInPath, unionPaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
+import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
+import { strictlyInside, translatePaths, type GeometryCache, type Variant } from './variants';
+
+interface CellPiece {
+  variant: Variant;
+  dx: number;
+  dy: number;
+}
+
+export interface PatternResult {
+  /** Slots on one sheet, ordered by right edge then bottom edge (fill order). */
+  slots: PlacedItem[];
+  /** Pieces per unit area of the infinite lattice (per mm²). */
+  densityPerMm2: number;
+  description: string;
+}
+
+function crossingsAtY(paths: IntPaths, y: number): number[] {
+  const xs: number[] = [];
+  for (const p of paths)
+    for (let i = 0; i < p.length; i++) {
+      const a = p[i]!;
+      const b = p[(i + 1) % p.length]!;
+      if (a.Y > y !== b.Y > y) xs.push(a.X + ((y - a.Y) * (b.X - a.X)) / (b.Y - a.Y));
+    }
+  return xs.sort((u, v) => u - v);
+}
+
+/** Edges of a path set bucketed by x, for fast vertical-line crossings. */
+class VerticalIndex {
+  private readonly bins: number[][] = [];
+  private readonly coords: number[] = [];
+  private readonly minX: number;
+  private readonly width: number;
+  private readonly count = 64;
+
+  constructor(paths: IntPaths) {
+    let minX = Infinity;
+    let maxX = -Infinity;
+    for (const p of paths)
+      for (const q of p) {
+        minX = Math.min(minX, q.X);
+        maxX = Math.max(maxX, q.X);
+      }
+    this.minX = minX;
+    this.width = Math.max(1, maxX - minX) / this.count;
+    for (let i = 0; i < this.count; i++) this.bins.push([]);
+    for (const p of paths)
+      for (let i = 0; i < p.length; i++) {
+        const a = p[i]!;
+        const b = p[(i + 1) % p.length]!;
+        if (a.X === b.X) continue;
+        const e = this.coords.length;
+        this.coords.push(a.X, a.Y, b.X, b.Y);
+        const lo = this.bin(Math.min(a.X, b.X));
+        const hi = this.bin(Math.max(a.X, b.X));
+        for (let k = lo; k <= hi; k++) this.bins[k]!.push(e);
+      }
+  }
+
+  private bin(x: number): number {
+    return Math.min(this.count - 1, Math.max(0, Math.floor((x - this.minX) / this.width)));
+  }
+
+  /** Sorted y values where the vertical line at x crosses the paths (half-open rule at vertices). */
+  crossingsAt(x: number): number[] {
+    const ys: number[] = [];
+    const c = this.coords;
+    for (const e of this.bins[this.bin(x)]!) {
+      const ax = c[e]!;
+      const ay = c[e + 1]!;
+      const bx = c[e + 2]!;
+      const by = c[e + 3]!;
+      if (ax > x !== bx > x) ys.push(ay + ((x - ax) * (by - ay)) / (bx - ax));
+    }
+    return ys.sort((u, v) => u - v);
+  }
+}
+
+function insideAt(paths: IntPaths, x: number, y: number): boolean {
+  return strictlyInside(paths, Math.round(x), Math.round(y), pointInPath);
+}
+
+/** No-fit polygon of the cell against a translated copy of itself. */
+function cellNfp(cache: GeometryCache, cell: readonly CellPiece[]): IntPaths {
+  const all: IntPaths = [];
+  for (const a of cell)
+    for (const b of cell) {
+      const n = cache.nfp(a.variant, b.variant);
+      for (const p of translatePaths(n.paths, a.dx - b.dx, a.dy - b.dy)) all.push(p);
+    }
+  return unionPaths(all);
+}
+
+function boxOf(paths: IntPaths): { minX: number; minY: number; maxX: number; maxY: number } {
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const p of paths)
+    for (const q of p) {
+      minX = Math.min(minX, q.X);
+      minY = Math.min(minY, q.Y);
+      maxX = Math.max(maxX, q.X);
+      maxY = Math.max(maxY, q.Y);
+    }
+  return { minX, minY, maxX, maxY };
+}
+
+/** Smallest ax > 0 such that every k·(ax, 0), k ≥ 1, is clear of the cell's no-fit polygon. */
+function rowPeriod(nfp: IntPaths, width: number): number | null {
+  const xs = crossingsAtY(nfp, 0);
+  const exits: number[] = [];
+  for (let i = 1; i < xs.length; i += 2) if (xs[i]! > 0) exits.push(Math.ceil(xs[i]!) + 1);
+  for (const ax of exits) {
+    let ok = true;
+    for (let k = 1; k * ax <= width + ax; k++)
+      if (insideAt(nfp, k * ax, 0)) {
+        ok = false;
+        break;
+      }
+    if (ok) return ax;
+  }
+  return null;
+}
+
+/** Lowest by > 0 such that (bx + k·ax, by) is clear for every k. */
+function lowestClear(nfp: VerticalIndex, box: ReturnType<typeof boxOf>, ax: number, bx: number): number {
+  const intervals: [number, number][] = [];
+  const kMin = Math.floor((box.minX - bx) / ax) - 1;
+  const kMax = Math.ceil((box.maxX - bx) / ax) + 1;
+  for (let k = kMin; k <= kMax; k++) {
+    const ys = nfp.crossingsAt(bx + k * ax);
+    for (let i = 0; i + 1 < ys.length; i += 2) intervals.push([ys[i]!, ys[i + 1]!]);
+  }
+  intervals.sort((p, q) => p[0] - q[0]);
+  // Sorted by lower end: walk up while the current height is covered.
+  let y = 0.5;
+  for (const [lo, hi] of intervals) {
+    if (lo >= y) break;
+    if (hi > y) y = hi;
+  }
+  return Math.ceil(y) + 1;
+}
+
+interface Lattice {
+  ax: number;
+  bx: number;
+  by: number;
+}
+
+/**
+ * Candidate lattices for the cell: the row period, then the lowest clear second vector for a sweep of
+ * horizontal offsets. Returns the densest few plus the rectangular one (bx = 0), since the fullest sheet is
+ * not always the densest lattice.
+ */
+function candidateLattices(nfp: IntPaths, keep = 6): Lattice[] {
+  const box = boxOf(nfp);
+  const ax = rowPeriod(nfp, box.maxX - box.minX);
+  if (ax === null) return [];
+  const index = new VerticalIndex(nfp);
+  const samples = new Set<number>();
+  const steps = 32;
+  for (let i = 0; i < steps; i++) samples.add(Math.round((i * ax) / steps));
+  // Offsets where a vertex of the no-fit polygon lines up (at most 64 of them, evenly picked).
+  const vertexXs: number[] = [];
+  for (const p of nfp) for (const q of p) vertexXs.push(((q.X % ax) + ax) % ax);
+  const stride = Math.max(1, Math.ceil(vertexXs.length / 64));
+  for (let i = 0; i < vertexXs.length; i += stride) {
+    samples.add(Math.round(vertexXs[i]!));
+    samples.add(Math.round(vertexXs[i]! + 1) % ax);
+  }
+  const found: Lattice[] = [];
+  for (const bx of samples) {
+    const by = lowestClear(index, box, ax, bx);
+    // Second row of the lattice must be clear too (2b + k·a).
+    let ok = true;
+    for (let k = -3; k <= 3 && ok; k++) if (insideAt(nfp, 2 * bx + k * ax, 2 * by)) ok = false;
+    if (ok) found.push({ ax, bx, by });
+  }
+  found.sort((p, q) => p.by - q.by || p.bx - q.bx);
+  const out: Lattice[] = [];
+  for (const l of found) {
+    if (out.length >= keep) break;
+    if (out.some((o) => Math.abs(o.by - l.by) < 1000)) continue;
+    out.push(l);
+  }
+  const rect = found.find((l) => l.bx === 0);
+  if (rect && !out.includes(rect)) out.push(rect);
+  return out;
+}
+
+/** Slots of a lattice of cells on one sheet, for a few origin shifts; the fullest wins. */
+function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice): PlacedItem[] {
+  const fits = cell.map((c) => innerFit(frame, c.variant));
+  if (fits.some((f) => f === null)) return [];
+  let cellMinY = Infinity;
+  let cellMinX = Infinity;
+  for (let i = 0; i < cell.length; i++) {
+    const f = fits[i]!;
+    cellMinY = Math.min(cellMinY, cell[i]!.dy - f.y0);
+    cellMinX = Math.min(cellMinX, cell[i]!.dx - f.x0);
+  }
+  // Origin o such that the lowest piece of row 0 sits on the margin; try shifts so some row starts flush left.
+  const oy = -cellMinY;
+  let best: PlacedItem[] = [];
+  for (let shiftRow = 0; shiftRow < 3; shiftRow++) {
+    const ox0 = -cellMinX - shiftRow * lat.bx;
+    const ox = ox0 - Math.floor(ox0 / lat.ax) * lat.ax - lat.ax;
+    const slots: PlacedItem[] = [];
+    for (let j = 0; ; j++) {
+      const rowY = oy + j * lat.by;
+      if (rowY + cellMinY > frame.heightMm * SCALE_PER_MM) break;
+      const rowX = ox + j * lat.bx - Math.ceil((ox + j * lat.bx) / lat.ax + 2) * lat.ax;
+      for (let i = 0; ; i++) {
+        const x = rowX + i * lat.ax;
+        if (x + cellMinX > frame.widthMm * SCALE_PER_MM) break;
+        for (let p = 0; p < cell.length; p++) {
+          const c = cell[p]!;
+          const f = fits[p]!;
+          const tx = x + c.dx;
+          const ty = rowY + c.dy;
+          if (tx >= f.x0 && tx <= f.x1 && ty >= f.y0 && ty <= f.y1)
+            slots.push({ variant: c.variant, tx, ty });
+        }
+      }
+    }
+    if (slots.length > best.length) best = slots;
+  }
+  best.sort(
+    (p, q) =>
+      p.tx + p.variant.ubounds.maxX - (q.tx + q.variant.ubounds.maxX) ||
+      p.ty + p.variant.ubounds.minY - (q.ty + q.variant.ubounds.minY),
+  );
+  return best;
+}
+
+/** Checks every pair of slots against the no-fit polygons (a guard on the construction). */
+export function slotsAreClear(cache: GeometryCache, slots: readonly PlacedItem[]): boolean {
+  for (let i = 0; i < slots.length; i++)
+    for (let j = 0; j < slots.length; j++) {
+      if (i === j) continue;
+      const a = slots[i]!;
+      const b = slots[j]!;
+      const n = cache.nfp(a.variant, b.variant);
+      const rx = b.tx - a.tx;
+      const ry = b.ty - a.ty;
+      if (rx <= n.box.minX || rx >= n.box.maxX || ry <= n.box.minY || ry >= n.box.maxY) continue;
+      if (strictlyInside(n.paths, rx, ry, pointInPath)) return false;
+    }
+  return true;
+}
+
+function pairOffsets(cache: GeometryCache, a: Variant, b: Variant): { dx: number; dy: number }[] {
+  const n = cache.nfp(a, b);
+  const scored: { dx: number; dy: number; area: number; w: number; h: number }[] = [];
+  const seen = new Set<string>();
+  const points: { X: number; Y: number }[] = [];
+  for (const p of n.paths)
+    for (let i = 0; i < p.length; i++) {
+      const q = p[i]!;
+      const r = p[(i + 1) % p.length]!;
+      // Vertices (point contacts) and points along each edge (sliding edge contacts).
+      for (const t of [0, 0.25, 0.5, 0.75])
+        points.push({ X: Math.round(q.X + t * (r.X - q.X)), Y: Math.round(q.Y + t * (r.Y - q.Y)) });
+    }
+  for (const q of points) {
+    const k = `${q.X},${q.Y}`;
+    if (seen.has(k)) continue;
+    seen.add(k);
+    if (strictlyInside(n.paths, q.X, q.Y, pointInPath)) continue;
+    const minX = Math.min(a.ubounds.minX, b.ubounds.minX + q.X);
+    const maxX = Math.max(a.ubounds.maxX, b.ubounds.maxX + q.X);
+    const minY = Math.min(a.ubounds.minY, b.ubounds.minY + q.Y);
+    const maxY = Math.max(a.ubounds.maxY, b.ubounds.maxY + q.Y);
+    const w = maxX - minX;
+    const h = maxY - minY;
+    scored.push({ dx: q.X, dy: q.Y, area: w * h, w, h });
+  }
+  const pick = new Map<string, { dx: number; dy: number }>();
+  const take = (list: typeof scored, count: number) => {
+    for (const s of list.slice(0, count)) pick.set(`${s.dx},${s.dy}`, { dx: s.dx, dy: s.dy });
+  };
+  take(
+    [...scored].sort((p, q) => p.area - q.area),
+    10,
+  );
+  take(
+    [...scored].sort((p, q) => p.h - q.h || p.w - q.w),
+    4,
+  );
+  take(
+    [...scored].sort((p, q) => p.w - q.w || p.h - q.h),
+    4,
+  );
+  return [...pick.values()];
+}
+
+/**
+ * Best lattice pattern for copies of one part with the given allowed rotations; null when no pattern fits.
+ * Pair cells are tried only when a rotation's 180° partner is allowed.
+ */
+export function bestPattern(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  partIndex: number,
+  rotationsDeg: readonly number[],
+): PatternResult | null {
+  const allowed = new Set(rotationsDeg.map((d) => Math.round((((d % 360) + 360) % 360) * 1e6)));
+  const results: PatternResult[] = [];
+  const consider = (cell: CellPiece[], label: string) => {
+    const nfp = cellNfp(cache, cell);
+    for (const lat of candidateLattices(nfp)) {
+      const slots = fillSheet(frame, cell, lat);
+      if (slots.length === 0) continue;
+      const density = (cell.length * SCALE_PER_MM * SCALE_PER_MM) / (lat.ax * lat.by);
+      results.push({ slots, densityPerMm2: density, description: label });
+    }
+  };
+  const primaries = new Set<number>();
+  for (const deg of rotationsDeg) {
+    const v = cache.variant(partIndex, deg);
+    consider([{ variant: v, dx: 0, dy: 0 }], `lattice ${v.rotationDeg}°`);
+    const partner = (v.rotationDeg + 180) % 360;
+    primaries.add(Math.round(v.rotationDeg * 1e6));
+    if (!allowed.has(Math.round(partner * 1e6)) || primaries.has(Math.round(partner * 1e6))) continue;
+    const w = cache.variant(partIndex, partner);
+    for (const off of pairOffsets(cache, v, w))
+      consider(
+        [
+          { variant: v, dx: 0, dy: 0 },
+          { variant: w, dx: off.dx, dy: off.dy },
+        ],
+        `double lattice ${v.rotationDeg}°/${w.rotationDeg}°`,
+      );
+  }
+  results.sort((p, q) => q.slots.length - p.slots.length || q.densityPerMm2 - p.densityPerMm2);
+  // The construction should always be clear; check the chosen one and fall back to the next if not.
+  return results.find((r) => slotsAreClear(cache, r.slots)) ?? null;
+}

@@ -1,0 +1,15 @@
+declare module 'obj-file-parser' {
+  interface ObjVertex {
+    x: number;
+    y: number;
+    z: number;
+  }
+  interface ObjModel {
+    name: string;
+    vertices: ObjVertex[];
+  }
+  export default class OBJFile {
+    constructor(text: string, defaultModelName?: string);
+    parse(): { models: ObjModel[]; materialLibraries: string[] };
+  }
+}

@@ -1,0 +1,145 @@
+import { parseSolidText, MAX_SOLID_VERTICES, MAX_SOLID_TEXT_LENGTH } from './parse';
+import { SolidError } from './polyhedron';
+import { getSolid } from './catalogue';
+
+// A cube of our own as a triangulated OBJ, shifted off the origin (12 triangles, 2 per square face).
+const cubeObj = (dx = 10, dy = -4, dz = 7) => {
+  const v: string[] = [];
+  for (const x of [0, 2])
+    for (const y of [0, 2]) for (const z of [0, 2]) v.push(`v ${x + dx} ${y + dy} ${z + dz}`);
+  const f = [
+    [1, 2, 4],
+    [1, 4, 3],
+    [5, 7, 8],
+    [5, 8, 6],
+    [1, 5, 6],
+    [1, 6, 2],
+    [3, 4, 8],
+    [3, 8, 7],
+    [1, 3, 7],
+    [1, 7, 5],
+    [2, 6, 8],
+    [2, 8, 4],
+  ].map((t) => `f ${t.join(' ')}`);
+  return ['# our own test cube', 'o box', ...v, ...f].join('\n');
+};
+
+const offCube = `OFF
+# a unit cube of our own, with a redundant point in the middle of one face
+9 0 0
+0 0 0
+1 0 0
+0 1 0
+1 1 0
+0 0 1
+1 0 1
+0 1 1
+1 1 1
+0.5 0.5 1
+`;
+
+const code = (f: () => unknown): string => {
+  try {
+    f();
+  } catch (e) {
+    if (e instanceof SolidError) return e.code;
+    throw e;
+  }
+  return 'no error';
+};
+
+describe('uploaded solids', () => {
+  it('merges the two triangles of each OBJ cube face into one square face and centres the cube', () => {
+    const s = parseSolidText('obj', cubeObj());
+    expect(s.faces).toHaveLength(6);
+    expect(s.faces.every((f) => f.vertices.length === 4)).toBe(true);
+    expect(s.vertices).toHaveLength(8);
+    for (const f of s.faces) expect(f.distance).toBeCloseTo(1, 9);
+    const c = s.vertices.reduce((a, v) => [a[0] + v[0], a[1] + v[1], a[2] + v[2]], [0, 0, 0]);
+    c.forEach((x) => expect(x).toBeCloseTo(0, 9));
+    // Euler's formula holds for the merged hull.
+    expect(s.vertices.length - s.edges.length + s.faces.length).toBe(2);
+    expect(s.edges.every((e) => Math.abs(e.dihedralDeg - 90) < 1e-9)).toBe(true);
+  });
+
+  it('reads OFF, dropping a point that lies inside a face', () => {
+    const s = parseSolidText('off', offCube);
+    expect(s.vertices).toHaveLength(8);
+    expect(s.faces).toHaveLength(6);
+  });
+
+  it('reads OFF variants with counts on the header line and extra numbers per vertex (COFF)', () => {
+    const lines = offCube.split('\n');
+    const coff = ['COFF 8 0 0', ...lines.slice(3, 11).map((l) => `${l} 255 0 0 255`)].join('\n');
+    expect(parseSolidText('off', coff).faces).toHaveLength(6);
+    expect(code(() => parseSolidText('off', '4OFF\n4 0 0\n0 0 0 0\n1 0 0 0\n0 1 0 0\n0 0 1 0'))).toBe(
+      'SOLID.NOT_OFF',
+    );
+  });
+
+  it('merges the facets of a rotated, shifted dodecahedron written with 4 decimals into 12 pentagons', () => {
+    // Our own upload: catalogue coordinates turned, moved and rounded as a mesh exporter might.
+    const turn = ([x, y, z]: readonly number[]) => {
+      const [a, b] = [0.3, 1.1];
+      const x1 = x! * Math.cos(a) - y! * Math.sin(a);
+      const y1 = x! * Math.sin(a) + y! * Math.cos(a);
+      return [x1 + 5, y1 * Math.cos(b) - z! * Math.sin(b) - 3, y1 * Math.sin(b) + z! * Math.cos(b) + 2];
+    };
+    const text = getSolid('dodecahedron')
+      .vertices.map(
+        (v) =>
+          `v ${turn(v)
+            .map((c) => c.toFixed(4))
+            .join(' ')}`,
+      )
+      .join('\n');
+    const s = parseSolidText('obj', text);
+    expect(s.faces).toHaveLength(12);
+    expect(s.faces.every((f) => f.vertices.length === 5)).toBe(true);
+    // Handbook dihedral of the dodecahedron (REFERENCES.md, from memory), within the rounding.
+    for (const e of s.edges) expect(e.dihedralDeg).toBeCloseTo(116.5651, 1);
+  });
+
+  it('merges facets that are coplanar within the stated tolerance', () => {
+    // Move one corner of the OBJ cube by 1e-7 (relative 3e-8 of the radius): still six faces.
+    const s = parseSolidText('obj', cubeObj().replace('v 12 -2 9', 'v 12.0000001 -2 9'));
+    expect(s.faces).toHaveLength(6);
+  });
+
+  it('rejects bad uploads with a coded error', () => {
+    expect(code(() => parseSolidText('obj', 'hello, this is not a mesh'))).toBe('SOLID.NOT_OBJ');
+    expect(code(() => parseSolidText('off', 'v 0 0 0\nv 1 0 0'))).toBe('SOLID.NOT_OFF');
+    expect(code(() => parseSolidText('off', 'OFF\n4 0 0\n0 0 0\n1 0 0\n'))).toBe('SOLID.NOT_OFF');
+    expect(code(() => parseSolidText('obj', 'v 0 0 0\nv 1 0 0\nv 0 1 0'))).toBe('SOLID.FLAT');
+    expect(code(() => parseSolidText('obj', 'v 0 0 0\nv 1 0 0\nv 0 1 0\nv 1 1 0\nv 2 3 0'))).toBe(
+      'SOLID.FLAT',
+    );
+    expect(code(() => parseSolidText('obj', 'v 0 0 0\nv 1 0 0\nv 0 1 0\nv 0 0 NaN'))).toBe(
+      'SOLID.NOT_FINITE',
+    );
+    expect(code(() => parseSolidText('off', 'OFF\n4 0 0\n0 0 0\n1 0 0\n0 1 0\n0 0 Infinity\n'))).toBe(
+      'SOLID.NOT_FINITE',
+    );
+    expect(code(() => parseSolidText('obj', 'v 1 2\nv 0 0 0\nv 1 0 0\nv 0 1 0'))).toBe('SOLID.NOT_OBJ');
+    const many = Array.from(
+      { length: MAX_SOLID_VERTICES + 1 },
+      (_, i) => `v ${Math.cos(i)} ${Math.sin(i)} ${i % 7}`,
+    );
+    expect(code(() => parseSolidText('obj', many.join('\n')))).toBe('SOLID.TOO_MANY_VERTICES');
+    expect(code(() => parseSolidText('off', `OFF\n${MAX_SOLID_VERTICES + 1} 0 0\n`))).toBe(
+      'SOLID.TOO_MANY_VERTICES',
+    );
+    expect(code(() => parseSolidText('obj', ' '.repeat(MAX_SOLID_TEXT_LENGTH + 1)))).toBe('SOLID.TOO_LARGE');
+  });
+
+  it('refuses a hull with too many faces to be pieces', () => {
+    // A finely sampled sphere of our own (golden-angle spiral) has hundreds of faces.
+    const pts = Array.from({ length: 400 }, (_, i) => {
+      const z = 1 - (2 * (i + 0.5)) / 400;
+      const r = Math.sqrt(1 - z * z);
+      const a = i * Math.PI * (3 - Math.sqrt(5));
+      return `v ${r * Math.cos(a)} ${r * Math.sin(a)} ${z}`;
+    });
+    expect(code(() => parseSolidText('obj', pts.join('\n')))).toBe('SOLID.TOO_MANY_FACES');
+  });
+});

@@ -1,0 +1,102 @@
+import OBJFile from 'obj-file-parser';
+import { type Vec3 } from '../math/vec';
+import { type Solid, SolidError, solidFromPoints } from './polyhedron';
+
+/** Largest accepted upload, in UTF-16 code units of the text (about bytes for ASCII files). */
+export const MAX_SOLID_TEXT_LENGTH = 5_000_000;
+/** Largest accepted number of vertices in an upload. */
+export const MAX_SOLID_VERTICES = 20_000;
+/** Largest number of faces (pieces) a solid may have after coplanar facets are merged. */
+export const MAX_SOLID_FACES = 200;
+
+export type SolidTextFormat = 'obj' | 'off';
+
+/** Vertex coordinates from Wavefront OBJ text (obj-file-parser; all objects and groups). */
+export function parseObjVertices(text: string): Vec3[] {
+  if (!/^\s*v\s/m.test(text))
+    throw new SolidError('SOLID.NOT_OBJ', 'the text has no OBJ vertex lines ("v x y z")');
+  const lines = text.split(/\r?\n/);
+  for (let i = 0; i < lines.length; i++) {
+    const m = /^\s*v\s+(.*)$/.exec(lines[i] as string);
+    if (m && (m[1] ?? '').trim().split(/\s+/).length < 3) {
+      throw new SolidError('SOLID.NOT_OBJ', `OBJ line ${i + 1} gives fewer than three vertex coordinates`);
+    }
+  }
+  let parsed: ReturnType<OBJFile['parse']>;
+  try {
+    parsed = new OBJFile(text).parse();
+  } catch (e) {
+    throw new SolidError('SOLID.NOT_OBJ', `the OBJ text could not be read: ${(e as Error).message}`);
+  }
+  return parsed.models.flatMap((m) => m.vertices.map((v): Vec3 => [v.x, v.y, v.z]));
+}
+
+/**
+ * Vertex coordinates from OFF text (Object File Format): a header keyword OFF (or a variant such as
+ * COFF, NOFF, STOFF whose vertex lines carry extra numbers after x y z), the counts "vertexCount
+ * faceCount edgeCount" (on the header line or the next), then one vertex per line. Comments start with
+ * #. Face lines are not needed (the hull is recomputed) and are not read.
+ */
+export function parseOffVertices(text: string): Vec3[] {
+  const lines = text
+    .split(/\r?\n/)
+    .map((l) => l.replace(/#.*/, '').trim())
+    .filter((l) => l.length > 0);
+  const header = (lines.shift() ?? '').split(/\s+/);
+  const keyword = header.shift() ?? '';
+  if (!/^(ST)?C?N?4?n?OFF$/.test(keyword)) {
+    throw new SolidError('SOLID.NOT_OFF', 'OFF text must start with the keyword OFF');
+  }
+  if (/4|n/.test(keyword.replace(/OFF$/, ''))) {
+    throw new SolidError('SOLID.NOT_OFF', `only three-dimensional OFF is accepted, not ${keyword}`);
+  }
+  const countTokens = header.length ? header : (lines.shift() ?? '').split(/\s+/);
+  const [nv, nf] = countTokens.map(Number);
+  if (nv === undefined || nf === undefined || !Number.isInteger(nv) || !Number.isInteger(nf) || nv < 0) {
+    throw new SolidError('SOLID.NOT_OFF', 'the OFF header must give whole vertex, face and edge counts');
+  }
+  if (nv > MAX_SOLID_VERTICES) throw tooMany(nv);
+  if (lines.length < nv) throw new SolidError('SOLID.NOT_OFF', `the OFF text ends before its ${nv} vertices`);
+  return lines.slice(0, nv).map((l, i) => {
+    const t = l.split(/\s+/);
+    if (t.length < 3)
+      throw new SolidError('SOLID.NOT_OFF', `OFF vertex ${i + 1} has fewer than three coordinates`);
+    return [Number(t[0]), Number(t[1]), Number(t[2])] as Vec3;
+  });
+}
+
+const tooMany = (n: number) =>
+  new SolidError(
+    'SOLID.TOO_MANY_VERTICES',
+    `the solid has ${n} vertices; at most ${MAX_SOLID_VERTICES} are accepted`,
+  );
+
+/**
+ * A convex solid from uploaded OBJ or OFF text: the convex hull of the vertices, coplanar facets merged,
+ * centred on its volume centroid. Throws SolidError with a code and a sentence for bad uploads.
+ */
+export function parseSolidText(format: SolidTextFormat, text: string, name?: string): Solid {
+  if (typeof text !== 'string') throw new SolidError('SOLID.NOT_TEXT', 'the solid must be given as text');
+  if (text.length > MAX_SOLID_TEXT_LENGTH) {
+    throw new SolidError(
+      'SOLID.TOO_LARGE',
+      `the file is ${text.length} characters long; at most ${MAX_SOLID_TEXT_LENGTH} are accepted`,
+    );
+  }
+  let points: Vec3[];
+  if (format === 'obj') points = parseObjVertices(text);
+  else if (format === 'off') points = parseOffVertices(text);
+  else throw new SolidError('SOLID.FORMAT', `unknown solid format "${String(format)}" (use obj or off)`);
+  if (points.length > MAX_SOLID_VERTICES) throw tooMany(points.length);
+  if (points.some((p) => !p.every((c) => typeof c === 'number' && Number.isFinite(c)))) {
+    throw new SolidError('SOLID.NOT_FINITE', 'a vertex coordinate is missing, NaN or infinite');
+  }
+  const solid = solidFromPoints(`uploaded-${format}`, name ?? `uploaded-${format}`, points);
+  if (solid.faces.length > MAX_SOLID_FACES) {
+    throw new SolidError(
+      'SOLID.TOO_MANY_FACES',
+      `the hull has ${solid.faces.length} faces after merging coplanar facets; at most ${MAX_SOLID_FACES} are accepted`,
+    );
+  }
+  return solid;
+}

@@ -1,0 +1,78 @@
+import { buildModel } from '../build';
+import { design, cubeSquares45, cubeStars83 } from '../test-support/designs';
+
+const codes = (list: { code: string }[]) => [...new Set(list.map((e) => e.code))].sort();
+
+describe('validity report', () => {
+  it('a valid design has no errors', () => {
+    expect(buildModel(cubeSquares45()).report.errors).toEqual([]);
+  });
+
+  it('names both pieces when a crossing lies wholly inside one of them (they cannot be slid together)', () => {
+    // A hexagonal prism with squares (our own design): the small end squares' crossings with the sides
+    // lie inside the side squares, so the side pieces would need closed holes.
+    const r = buildModel(design({ solid: 'prism-6', piece: { sides: 4, size: 2 } })).report;
+    const e = r.errors.filter((x) => x.code === 'CROSSING.NOT_ASSEMBLABLE');
+    expect(e.length).toBeGreaterThan(0);
+    for (const x of e) {
+      expect(x.pieces).toHaveLength(2);
+      for (const id of x.pieces) expect(x.message).toContain(id);
+    }
+  });
+
+  it('reports slots of one piece that overlap whichever ends they open from', () => {
+    // Rhombic triacontahedron with small {5/2} stars: three tips meet near each 5-fold corner.
+    const r = buildModel(
+      design({
+        solid: 'rhombic-triacontahedron',
+        piece: { sides: 5, step: 2, size: 0.4 },
+        stock: { thicknessMm: 0.3 },
+      }),
+    ).report;
+    expect(codes(r.errors)).toContain('SLOT.COLLISION');
+    expect(r.errors.find((e) => e.code === 'SLOT.COLLISION')?.pieces).toHaveLength(3);
+  });
+
+  it('warns about thin webs using the minimum web (default 2 × thickness)', () => {
+    const thick = buildModel(cubeStars83({ stock: { thicknessMm: 3 } })).report;
+    expect(codes(thick.warnings)).toContain('SLOT.THIN_WEB');
+    expect(thick.errors).toEqual([]);
+    const relaxed = buildModel(cubeStars83({ stock: { thicknessMm: 3 }, minWebMm: 0.1 })).report;
+    expect(codes(relaxed.warnings)).not.toContain('SLOT.THIN_WEB');
+  });
+
+  it('refuses pieces larger than the bed, in any orientation', () => {
+    // Derived: a square of circumradius 120 mm has sides of 169.7 mm; no turn fits it in 150 × 150.
+    const small = buildModel(cubeSquares45(1.5, { bed: { widthMm: 150, heightMm: 150 } })).report;
+    expect(codes(small.errors)).toEqual(['PIECE.LARGER_THAN_BED']);
+    const large = buildModel(cubeSquares45(1.5, { bed: { widthMm: 175, heightMm: 175 } })).report;
+    expect(large.errors).toEqual([]);
+  });
+
+  it('refuses slots narrower than the kerf or the router tool', () => {
+    const laser = buildModel(
+      cubeSquares45(1.5, {
+        stock: { thicknessMm: 0.3, flexible: true },
+        machine: { kind: 'laser', kerfMm: 0.5 },
+      }),
+    ).report;
+    expect(codes(laser.errors)).toEqual(['SLOT.NARROWER_THAN_KERF']);
+    const router = buildModel(cubeSquares45(1.5, { machine: { kind: 'router', toolDiameterMm: 6 } })).report;
+    expect(codes(router.errors)).toEqual(['SLOT.NARROWER_THAN_TOOL']);
+    const tooTight = buildModel(cubeSquares45(1.5, { fitMm: -3.5 })).report;
+    expect(codes(tooTight.errors)).toEqual(['SLOT.WIDTH_NOT_POSITIVE']);
+  });
+
+  it('reports a design whose pieces do not touch', () => {
+    const r = buildModel(design({ solid: 'cube', piece: { sides: 4, size: 0.9 } })).report;
+    expect(r.crossings).toEqual([]);
+    expect(codes(r.errors)).toEqual(['DESIGN.NO_CROSSINGS']);
+  });
+
+  it('warns when a crossing is shorter than its slot is wide', () => {
+    // Derived: at size 1.02 the squares cross 2 × 80 × 0.02 = 3.2 mm, less than 6 mm stock.
+    const r = buildModel(cubeSquares45(1.02, { stock: { thicknessMm: 6 } })).report;
+    expect(codes(r.warnings)).toContain('CROSSING.SHORTER_THAN_SLOT');
+    expect(r.crossings[0]?.lengthMm).toBeCloseTo(3.2, 6);
+  });
+});

@@ -1,0 +1,39 @@
+// Adds up the results of every suite that scripts/test.sh ran and prints the closing line
+// `N passed, N failed`. Inputs: a folder of Jest/Vitest JSON reports (*.json) and check results (*.check).
+import fs from 'node:fs';
+import path from 'node:path';
+
+const dir = process.argv[2];
+let passed = 0;
+let failed = 0;
+const rows = [];
+for (const name of fs.readdirSync(dir).sort()) {
+  const file = path.join(dir, name);
+  const suite = name.replace(/\.(json|check)$/, '');
+  if (name.endsWith('.check')) {
+    const ok = fs.readFileSync(file, 'utf8').trim() === 'pass';
+    if (ok) passed++;
+    else failed++;
+    rows.push([suite, ok ? 1 : 0, ok ? 0 : 1]);
+  } else if (name.endsWith('.json')) {
+    let p;
+    let f;
+    try {
+      const r = JSON.parse(fs.readFileSync(file, 'utf8'));
+      p = r.numPassedTests ?? 0;
+      f = (r.numFailedTests ?? 0) + (r.numRuntimeErrorTestSuites ?? 0);
+      if (r.success === false && f === 0) f = 1;
+    } catch {
+      p = 0;
+      f = 1;
+    }
+    passed += p;
+    failed += f;
+    rows.push([suite, p, f]);
+  }
+}
+console.log('\nSuite results:');
+for (const [suite, p, f] of rows)
+  console.log(`  ${f ? 'FAIL' : 'ok  '} ${suite.padEnd(28)} ${p} passed, ${f} failed`);
+console.log(`\n${passed} passed, ${failed} failed`);
+process.exit(failed > 0 || passed === 0 ? 1 : 0);
