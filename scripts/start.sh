@@ -15,6 +15,9 @@ export KW_REDIS_DIR="${KW_REDIS_DIR:-$KW_STATE_DIR/redis}"
 export KW_REDIS_PERSIST=1
 export KW_SMTP_PORT="${KW_SMTP_PORT:-2525}"
 export KW_MAIL_VIEW_PORT="${KW_MAIL_VIEW_PORT:-2580}"
+export KW_STORAGE="${KW_STORAGE:-s3}"
+export KW_S3_PORT="${KW_S3_PORT:-4569}"
+export KW_S3_DIR="${KW_S3_DIR:-$KW_STATE_DIR/s3}"
 
 ensure_debian_packages postgresql redis-server curl
 ensure_node_modules
@@ -22,21 +25,25 @@ build_all
 
 API_PID=""
 MAIL_PID=""
+S3_PID=""
 STARTED_PG=0
 STARTED_REDIS=0
+
+stop_pid() { # pid: TERM one process this script started, and wait for it
+  if [ -n "$1" ] && kill -0 "$1" 2>/dev/null; then
+    kill -TERM "$1" 2>/dev/null || true
+    wait "$1" 2>/dev/null || true
+  fi
+}
+
 cleanup() {
   trap - INT TERM EXIT
   log "stopping"
-  if [ -n "$API_PID" ] && kill -0 "$API_PID" 2>/dev/null; then
-    kill -TERM "$API_PID" 2>/dev/null || true
-    wait "$API_PID" 2>/dev/null || true
-  fi
-  if [ -n "$MAIL_PID" ] && kill -0 "$MAIL_PID" 2>/dev/null; then
-    kill -TERM "$MAIL_PID" 2>/dev/null || true
-    wait "$MAIL_PID" 2>/dev/null || true
-  fi
-  [ "$STARTED_REDIS" = 1 ] && scripts/redis.sh stop || true
-  [ "$STARTED_PG" = 1 ] && db/scripts/pg.sh stop || true
+  stop_pid "$API_PID"
+  stop_pid "$MAIL_PID"
+  stop_pid "$S3_PID"
+  if [ "$STARTED_REDIS" = 1 ]; then scripts/redis.sh stop || true; fi
+  if [ "$STARTED_PG" = 1 ]; then db/scripts/pg.sh stop || true; fi
   log "stopped"
 }
 trap cleanup INT TERM EXIT
@@ -50,6 +57,12 @@ node db/dist/src/cli.js seed
 # The development SMTP catch-all standing in for the mail service.
 node apps/api/dist/dev-mail/main.js &
 MAIL_PID=$!
+
+# The S3-compatible fake standing in for object storage (cut-pack files), unless files go to a folder.
+if [ "$KW_STORAGE" = s3 ] && [ -z "${KW_S3_ENDPOINT:-}" ]; then
+  node apps/api/dist/dev-s3/main.js &
+  S3_PID=$!
+fi
 
 node apps/api/dist/main.js &
 API_PID=$!
@@ -70,50 +83,6 @@ cat <<MSG
 MSG
 node db/dist/src/cli.js demo-users
 cat <<MSG
-
-  Press Ctrl-C to stop everything this command started.
-
-MSG
-wait "$API_PID" 2>/dev/null || true
-  fi
-  if [ -n "$MAIL_PID" ] && kill -0 "$MAIL_PID" 2>/dev/null; then
-    kill -TERM "$MAIL_PID" 2>/dev/null || true
-    wait "$MAIL_PID" 2>/dev/null || true
-  fi
-  [ "$STARTED_REDIS" = 1 ] && scripts/redis.sh stop || true
-  [ "$STARTED_PG" = 1 ] && db/scripts/pg.sh stop || true
-  log "stopped"
-}
-trap cleanup INT TERM EXIT
-
-mkdir -p "$KW_STATE_DIR"
-db/scripts/pg.sh start && STARTED_PG=1
-scripts/redis.sh start && STARTED_REDIS=1
-node db/dist/src/cli.js migrate
-node db/dist/src/cli.js seed
-
-# The development SMTP catch-all standing in for the mail service.
-node apps/api/dist/dev-mail/main.js &
-MAIL_PID=$!
-
-node apps/api/dist/main.js &
-API_PID=$!
-if ! wait_for_http "http://127.0.0.1:$KW_PORT/api/health" 90; then
-  log "the API did not become healthy on port $KW_PORT"
-  exit 1
-fi
-
-cat <<MSG
-
-  Kerfwright is running:  http://127.0.0.1:$KW_PORT
-  API health:             http://127.0.0.1:$KW_PORT/api/health
-  Data folder:            $KW_STATE_DIR
-
-  Demo sign-ins (password for all: $KW_DEMO_PASSWORD; never valid in production mode):
-    supervisor  supervisor@millbrook-makerspace.example
-    fabricator  fabricator@millbrook-makerspace.example
-    operator    operator@millbrook-makerspace.example
-    hobbyist    hobbyist@millbrook-makerspace.example
 
   Press Ctrl-C to stop everything this command started.
 
