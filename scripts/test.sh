@@ -19,6 +19,9 @@ export KW_PG_FAST=1
 export KW_LOGIN_LIMIT=10
 export KW_SMTP_PORT="${KW_TEST_SMTP_PORT:-2535}"
 export KW_MAIL_POLL_MS=500
+export KW_STORAGE=s3
+export KW_S3_PORT="${KW_TEST_S3_PORT:-4579}"
+export KW_S3_DIR="$KW_STATE_DIR/s3"
 export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
 
 set -e
@@ -30,10 +33,12 @@ set +e
 RESULTS="$KW_STATE_DIR/results"
 API_PID=""
 MAIL_PID=""
+S3_PID=""
 cleanup() {
   trap - INT TERM EXIT
   if [ -n "$API_PID" ] && kill -0 "$API_PID" 2>/dev/null; then kill -TERM "$API_PID"; wait "$API_PID" 2>/dev/null; fi
   if [ -n "$MAIL_PID" ] && kill -0 "$MAIL_PID" 2>/dev/null; then kill -TERM "$MAIL_PID"; wait "$MAIL_PID" 2>/dev/null; fi
+  if [ -n "$S3_PID" ] && kill -0 "$S3_PID" 2>/dev/null; then kill -TERM "$S3_PID"; wait "$S3_PID" 2>/dev/null; fi
   scripts/redis.sh stop >/dev/null 2>&1
   db/scripts/pg.sh stop >/dev/null 2>&1
 }
@@ -77,6 +82,8 @@ echo '{"success":false,"numPassedTests":0,"numFailedTests":1}' > "$RESULTS/web-c
 # Browser tests against the running product (with the mail catch-all, as `npm start` runs it).
 KW_MAIL_VIEW_PORT=0 node apps/api/dist/dev-mail/main.js > "$KW_STATE_DIR/mail.log" 2>&1 &
 MAIL_PID=$!
+node apps/api/dist/dev-s3/main.js > "$KW_STATE_DIR/s3.log" 2>&1 &
+S3_PID=$!
 node apps/api/dist/main.js > "$KW_STATE_DIR/api.log" 2>&1 &
 API_PID=$!
 if wait_for_http "http://127.0.0.1:$KW_PORT/api/health" 90; then

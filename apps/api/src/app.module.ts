@@ -5,6 +5,7 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { AuditModule } from './audit/audit.module';
 import { AuthModule } from './auth/auth.module';
 import { DesignsModule } from './designs/designs.module';
+import { ExportsModule } from './exports/exports.module';
 import { JobsModule } from './jobs/jobs.module';
 import { SafetyModule } from './safety/safety.module';
 import { MailModule } from './mail/mail.module';
@@ -55,6 +56,7 @@ import { UsersModule } from './users/users.module';
     DesignsModule,
     JobsModule,
     SafetyModule,
+    ExportsModule,
   ],
   controllers: [HealthController],
   providers: [

@@ -261,7 +261,7 @@ describe('jobs through their states', () => {
     const job = await draftJob();
     await act(users.hobbyist, job.id, 'request');
     let mails = await mailsSent();
-    const requested = mails.find((m) => m.subject.startsWith('Cut requested'));
+    const requested = mails.find((m) => m.subject.startsWith('Cut requested') && m.text.includes(job.id));
     expect(requested?.to).toContain(users.fabricator.email);
     expect(requested?.to).not.toContain(users.hobbyist.email);
     await act(users.fabricator, job.id, 'prepare', prepareBody());
@@ -269,7 +269,8 @@ describe('jobs through their states', () => {
     await act(users.fabricator, job.id, 'release');
     mails = await mailsSent();
     for (const prefix of ['Job approved', 'Job released']) {
-      const m = mails.find((x) => x.subject.startsWith(prefix));
+      // Other suites' mail may still be queued in the shared outbox: pick this job's by its requester.
+      const m = mails.find((x) => x.subject.startsWith(prefix) && x.to.includes(users.hobbyist.email));
       expect(m?.to).toEqual(expect.arrayContaining([users.hobbyist.email, users.operator.email]));
       expect(m?.html).toContain('<p>');
     }

@@ -13,7 +13,10 @@ export function launchBrowser(): Promise<Browser> {
     args: [
       '--headless',
       '--no-sandbox',
-      '--disable-gpu',
+      // No GPU here: WebGL (the studio's 3D preview) renders in software through SwiftShader.
+      '--use-angle=swiftshader',
+      '--enable-unsafe-swiftshader',
+      '--ignore-gpu-blocklist',
       '--disable-quic',
       '--no-first-run',
       '--disable-background-networking',
@@ -62,5 +65,29 @@ export async function firaSansApplied(
     );
     const el = document.querySelector(sel) ?? document.body;
     return { loaded, family: getComputedStyle(el).fontFamily };
+  }, selector);
+}
+
+/**
+ * Reads the WebGL canvas's pixels (the preview keeps its drawing buffer) and counts distinct colours on a
+ * sparse grid: a blank or single-colour canvas gives 1, a rendered model many.
+ */
+export async function canvasColourCount(
+  page: Page,
+  selector: string,
+): Promise<{ width: number; height: number; colours: number }> {
+  return page.evaluate((sel) => {
+    const canvas = document.querySelector(sel);
+    if (!(canvas instanceof HTMLCanvasElement)) throw new Error(`no canvas at ${sel}`);
+    const gl = canvas.getContext('webgl2') ?? canvas.getContext('webgl');
+    if (!gl) throw new Error('the canvas has no WebGL context');
+    const width = gl.drawingBufferWidth;
+    const height = gl.drawingBufferHeight;
+    const pixels = new Uint8Array(width * height * 4);
+    gl.readPixels(0, 0, width, height, gl.RGBA, gl.UNSIGNED_BYTE, pixels);
+    const seen = new Set<string>();
+    for (let i = 0; i < pixels.length; i += 4 * 31)
+      seen.add(`${pixels[i]},${pixels[i + 1]},${pixels[i + 2]}`);
+    return { width, height, colours: seen.size };
   }, selector);
 }

@@ -84,7 +84,7 @@ describe(`Kerfwright in Chromium at ${BASE_URL}`, () => {
     await signInToHome(page, demoUser('hobbyist').email, DEMO_PASSWORD);
     await page.getByTestId('home-hobbyist').waitFor();
     const nav = page.getByRole('navigation', { name: 'Main' });
-    expect(await nav.getByRole('link').allTextContents()).toEqual(['Home']);
+    expect(await nav.getByRole('link').allTextContents()).toEqual(['Home', 'Designs', 'Jobs', 'Safety']);
 
     await page.goto('/people');
     await page.getByText('This page is not part of your role').waitFor();

@@ -91,6 +91,8 @@ export interface CutPackManifest {
   sheetCount: number;
   estimate: CutPackEstimate;
   files: CutPackManifestEntry[];
+  /** Labels that found no room, a scale mark placed off the sheet, and similar notes. */
+  warnings?: string[];
 }
 
 export interface CutPackResult {

@@ -101,6 +101,10 @@ export interface JobPreparation {
   diameterMm: number;
   sheetCount: number;
   sheet: { widthMm: number; heightMm: number };
+  /** Layout settings used, so the cut pack lays the sheets out exactly as preparation did. */
+  marginMm?: number;
+  gapMm?: number;
+  colourRule?: ColourRuleName;
   utilisation: number;
   warnings: string[];
   estimate?: {

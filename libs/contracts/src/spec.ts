@@ -42,10 +42,49 @@ export interface ScaleSpec {
   mm: number;
 }
 
+/** Scales that search for the largest model that fits the stock (see the geometry library's README). */
+export const FIT_SCALE_BY = ['fitSheets', 'fitBed'] as const;
+export type FitScaleBy = (typeof FIT_SCALE_BY)[number];
+
+/**
+ * Scaling to stock: `fitSheets` — the largest model whose layout needs at most `sheets` sheets of
+ * `stock.sheet` (found by a search over the layout); `fitBed` — the largest model whose biggest piece fits
+ * `bed` in some orientation.
+ */
+export type FitScaleSpec = { by: 'fitSheets'; sheets: number } | { by: 'fitBed' };
+
+/** Every scale a spec may give: a fixed size or a fit to the stock. */
+export type AnyScaleSpec = ScaleSpec | FitScaleSpec;
+
 export interface StockSpec {
   thicknessMm: number;
   /** Flexible stock (card): slots are thickness + fit wide whatever the crossing angle. Defaults to false. */
   flexible?: boolean;
+  /** Sheet size of the stock; when given, the layout reports how many sheets the model needs. */
+  sheet?: SheetSpec;
+  /** Margin kept free along the sheet's edges. Defaults to 5 mm. */
+  marginMm?: number;
+  /** Gap between pieces on a sheet. Defaults to 3 mm. */
+  gapMm?: number;
+}
+
+export interface SheetSpec {
+  widthMm: number;
+  heightMm: number;
+}
+
+/** Colour rules for sharing pieces among stock colours (same names as COLOUR_RULES in jobs). */
+export const COLOUR_PLAN_RULES = ['neighbour-distinct', 'vertex-distinct', 'opposite-match'] as const;
+export type ColourPlanRule = (typeof COLOUR_PLAN_RULES)[number];
+
+/** How many colours of stock the model is cut from, and the rule that assigns pieces to them. */
+export interface ColoursSpec {
+  /** Number of colours (1–12). May be left out when `names` is given. */
+  count?: number;
+  /** Defaults to `neighbour-distinct`. */
+  rule?: ColourPlanRule;
+  /** Colour names in order (for file names and labels); their number must match `count`. */
+  names?: string[];
 }
 
 export interface LaserMachineSpec {
@@ -83,6 +122,16 @@ export interface DesignSpec {
   minWebMm?: number;
   /** Machine bed; when given, every piece must fit on it. */
   bed?: BedSpec;
+  /** Colours of stock; when given, the report carries a colour plan. */
+  colours?: ColoursSpec;
+}
+
+/**
+ * What the geometry library accepts: a DesignSpec whose scale may also be a fit to the stock
+ * (`fitSheets`, `fitBed`). A fit resolves to a fixed diameter (see DesignReport.scale).
+ */
+export interface DesignSpecInput extends Omit<DesignSpec, 'scale'> {
+  scale: AnyScaleSpec;
 }
 
 /** One finding of the validity check. Errors block files; warnings do not. */
@@ -171,6 +220,48 @@ export interface DesignReport {
   stock: { thicknessMm: number; flexible: boolean };
   pieces: ReportPiece[];
   crossings: ReportCrossing[];
+  /** True when the default slot-end rule made slots collide and a search chose the ends instead. */
+  slotEndsSearched?: boolean;
+  /** How the size was reached (always present from the geometry library). */
+  scale?: ReportScale;
+  /** Present when the spec gives `colours`. */
+  colourPlan?: ReportColourPlan;
+  /** Sheets of `stock.sheet` the layout uses (only from a build with layout, when the sheet is given). */
+  sheetCount?: number;
   errors: DesignIssue[];
   warnings: DesignIssue[];
+}
+
+/** How a build reached its size. Lengths in mm. */
+export interface ReportScale {
+  method: ScaleBy | FitScaleBy;
+  /** The resulting overall diameter (as DesignReport.diameterMm). */
+  diameterMm: number;
+  /** The same size as a fixed scale: build with `{ by: 'diameter', mm: diameterMm }` to reproduce it. */
+  mmPerUnit: number;
+  /** fitSheets: the most sheets asked for. */
+  sheets?: number;
+  /** fitSheets: false when the size is only the upper bound (a build without layout). */
+  resolved?: boolean;
+  /** Builds (fitBed) or layouts (fitSheets) the search evaluated. */
+  evaluations?: number;
+  /** fitSheets: the search stops when the largest fitting and the smallest failing size differ by this fraction. */
+  tolerance?: number;
+}
+
+export interface ReportColourPlan {
+  rule: ColourPlanRule;
+  count: number;
+  feasible: boolean;
+  /** Colour index (0 … count − 1) per piece id; empty when no plan exists. */
+  assignment: Record<string, number>;
+  /** Colour counts are as equal as the piece count allows. */
+  balanced: boolean;
+  /** Pieces per colour. */
+  colourCounts: number[];
+  /** Plans up to renaming of colours, counted up to a small cap. */
+  distinctPlans?: number;
+  /** True when counting stopped at the cap. */
+  distinctPlansCapped?: boolean;
+  message?: string;
 }

@@ -1,10 +1,15 @@
 import type {
+  BedSpec,
   DesignIssue,
   DesignReport,
   MachineSpec,
   ReportCrossing,
+  ReportColourPlan,
   ReportPiece,
+  ReportScale,
 } from '@kerfwright/contracts';
+import { type ColourPlan, solveColourPlan } from './colour';
+import { bestFitRatio } from './scale/fit-ratio';
 import { type Vec2, type Vec3, at, scale3 } from './math/vec';
 import { type Polygon, signedArea } from './math/polygon';
 import { type Solid } from './solids/polyhedron';
@@ -60,6 +65,21 @@ export interface BuiltModel {
   report: DesignReport;
 }
 
+/** Groups of pieces joined by crossings (connected components), each listed by piece index. */
+export function connectedGroups(count: number, links: readonly { a: number; b: number }[]): number[][] {
+  const parent = Array.from({ length: count }, (_, i) => i);
+  const find = (i: number): number => {
+    let r = i;
+    while (parent[r] !== r) r = parent[r] as number;
+    while (parent[i] !== r) [i, parent[i]] = [parent[i] as number, r];
+    return r;
+  };
+  for (const l of links) parent[find(l.a)] = find(l.b);
+  const groups = new Map<number, number[]>();
+  for (let i = 0; i < count; i++) groups.set(find(i), [...(groups.get(find(i)) ?? []), i]);
+  return [...groups.values()];
+}
+
 let uploadCache: { key: string; solid: Solid } | null = null;
 
 /** The base solid a spec names (catalogue id or uploaded text; the last upload is cached). */
@@ -72,18 +92,25 @@ export function resolveSolid(spec: ResolvedSpec): Solid {
   return solid;
 }
 
-/** Millimetres per model unit for a scale spec (see ScaleSpec in the contracts). */
+/**
+ * Millimetres per model unit for a fixed scale (see ScaleSpec in the contracts). The fit scales
+ * (fitSheets, fitBed) are searches: see sizeWithoutLayout and buildWithLayout.
+ */
 export function scaleFactor(solid: Solid, spec: ResolvedSpec): number {
   const ds = solid.faces.map((f) => f.distance);
   const dMin = Math.min(...ds);
   const dMax = Math.max(...ds);
-  switch (spec.scale.by) {
+  const sc = spec.scale;
+  if (sc.by === 'fitSheets' || sc.by === 'fitBed') {
+    throw new Error(`scale.by "${sc.by}" is a search, not a fixed scale: use buildModel or buildWithLayout`);
+  }
+  switch (sc.by) {
     case 'planeDistance':
-      return spec.scale.mm / dMin;
+      return sc.mm / dMin;
     case 'diameter':
-      return spec.scale.mm / (2 * dMax * Math.sqrt(1 + spec.piece.size ** 2));
+      return sc.mm / (2 * dMax * Math.sqrt(1 + spec.piece.size ** 2));
     case 'pieceCircumradius':
-      return spec.scale.mm / (spec.piece.size * dMax);
+      return sc.mm / (spec.piece.size * dMax);
   }
 }
 
@@ -112,15 +139,196 @@ function cachedSuggestions(solid: Solid, spec: ResolvedSpec): SuggestedSizes {
 }
 
 /**
- * Builds a design: pieces, crossings, slot pairs, compensated outlines and the validity report. `input`
- * is any JSON value; invalid specs throw SpecValidationError, bad uploads throw SolidError.
+ * Builds a design: pieces, crossings, slot pairs, compensated outlines, the validity report and (when the
+ * spec gives `colours`) a colour plan. `input` is any JSON value; invalid specs throw SpecValidationError,
+ * bad uploads throw SolidError. Runs no layout, so it stays fast enough for every keystroke: a `fitSheets`
+ * scale is built at its upper bound (report.scale.resolved = false, warning SCALE.UPPER_BOUND); use
+ * buildWithLayout for the searched size and the sheet count.
  */
 export function buildModel(input: unknown): BuiltModel {
   const v = validateSpec(input);
   if (!v.ok) throw new SpecValidationError(v.errors);
   const spec = v.spec;
   const solid = resolveSolid(spec);
-  const mmPerUnit = scaleFactor(solid, spec);
+  const sized = sizeWithoutLayout(spec, solid);
+  const model = sized.model;
+  if (spec.scale.by === 'fitSheets') {
+    model.report.warnings.push({
+      code: 'SCALE.UPPER_BOUND',
+      message:
+        `the size that fits ${spec.scale.sheets} sheet${spec.scale.sheets === 1 ? '' : 's'} is found by ` +
+        'laying the pieces out; this is an upper bound (build with layout for the size itself)',
+      pieces: [],
+    });
+  }
+  model.report.scale = scaleSummary(model, {
+    ...(spec.scale.by === 'fitSheets' ? { sheets: spec.scale.sheets, resolved: false } : {}),
+    ...(sized.evaluations > 1 ? { evaluations: sized.evaluations } : {}),
+  });
+  attachColourPlan(model);
+  return model;
+}
+
+/** The report's scale summary for a built model. */
+export function scaleSummary(model: BuiltModel, extra: Partial<ReportScale> = {}): ReportScale {
+  return {
+    method: model.spec.scale.by,
+    diameterMm: model.report.diameterMm,
+    mmPerUnit: model.report.mmPerUnit,
+    ...extra,
+  };
+}
+
+/** Plans cap the count of distinct colour plans in the report (counting is a search per plan). */
+export const REPORT_COLOUR_PLAN_CAP = 12;
+
+/** Solves the spec's colour plan (when it gives colours) into the report; no plan is error COLOUR.NO_PLAN. */
+export function attachColourPlan(model: BuiltModel, plan?: ColourPlan): ColourPlan | null {
+  const colours = model.spec.colours;
+  if (!colours) return null;
+  const p = plan ?? solveModelColourPlan(model, REPORT_COLOUR_PLAN_CAP);
+  const r: ReportColourPlan = {
+    rule: p.rule,
+    count: p.count,
+    feasible: p.feasible,
+    assignment: p.assignment,
+    balanced: p.balanced,
+    colourCounts: p.colourCounts,
+  };
+  if (p.distinctPlans !== undefined) r.distinctPlans = p.distinctPlans;
+  if (p.distinctPlansCapped !== undefined) r.distinctPlansCapped = p.distinctPlansCapped;
+  if (p.message) r.message = p.message;
+  model.report.colourPlan = r;
+  if (!p.feasible) {
+    model.report.errors.push({
+      code: 'COLOUR.NO_PLAN',
+      message: p.message ?? `no plan exists: rule "${p.rule}" cannot be met with ${p.count} colours`,
+      pieces: [],
+    });
+  }
+  return p;
+}
+
+/** The colour plan for a built model's faces under the spec's colours (count 1 when none). */
+export function solveModelColourPlan(model: BuiltModel, countCap = 0): ColourPlan {
+  const colours = model.spec.colours ?? { count: 1, rule: 'neighbour-distinct' as const };
+  return solveColourPlan({
+    faceCount: model.solid.faces.length,
+    faceVertices: model.solid.faces.map((f) => f.vertices),
+    normals: model.solid.faces.map((f) => f.normal),
+    opposite: model.solid.oppositeFaces,
+    rule: colours.rule,
+    count: colours.count,
+    pieceIds: model.pieces.map((p) => p.id),
+    countCap,
+  });
+}
+
+/**
+ * The model at the spec's size, without layout: fixed scales directly; fitBed by searching the scale at
+ * which the largest piece just fits the bed; fitSheets at its upper bound (see fitSheetsUpperBound).
+ */
+export function sizeWithoutLayout(
+  spec: ResolvedSpec,
+  solid: Solid,
+): { model: BuiltModel; evaluations: number } {
+  const sc = spec.scale;
+  if (sc.by === 'fitBed') {
+    const bed = spec.bed as BedSpec;
+    return fitToRectangle(spec, solid, bed.widthMm, bed.heightMm);
+  }
+  if (sc.by === 'fitSheets') return fitSheetsUpperBound(spec, solid);
+  return { model: buildAtScale(spec, solid, scaleFactor(solid, spec)), evaluations: 1 };
+}
+
+/** Largest piece fit ratio (see bestFitRatio) of a built model on a width × height rectangle. */
+export function modelFitRatio(model: BuiltModel, widthMm: number, heightMm: number): number {
+  let worst = 0;
+  for (const p of model.pieces) {
+    const outline = p.outline.length > 0 ? p.outline : p.shape;
+    worst = Math.max(worst, bestFitRatio(outline, widthMm, heightMm).ratio);
+  }
+  return worst;
+}
+
+/**
+ * The largest model whose every piece fits a width × height rectangle in some orientation. The fit ratio
+ * r(m) (see bestFitRatio) of the compensated outlines is nearly affine in the scale m (the shapes scale,
+ * slot widths and kerf do not), so a secant search on r(m) = 1 converges in a few builds; it stops when
+ * 1 − 1e-7 < r ≤ 1 or after 12 builds, and returns the largest built model with r ≤ 1.
+ */
+export function fitToRectangle(
+  spec: ResolvedSpec,
+  solid: Solid,
+  widthMm: number,
+  heightMm: number,
+): { model: BuiltModel; evaluations: number } {
+  const dMax = Math.max(...solid.faces.map((f) => f.distance));
+  let m0 = (0.5 * Math.min(widthMm, heightMm)) / (spec.piece.size * dMax);
+  const model0 = buildAtScale(spec, solid, m0);
+  let r0 = modelFitRatio(model0, widthMm, heightMm);
+  let evaluations = 1;
+  let best: { m: number; model: BuiltModel } | null = r0 <= 1 ? { m: m0, model: model0 } : null;
+  let m1 = m0 / r0;
+  while (evaluations < 12) {
+    const model1 = buildAtScale(spec, solid, m1);
+    const r1 = modelFitRatio(model1, widthMm, heightMm);
+    evaluations++;
+    if (r1 <= 1 && (!best || m1 > best.m)) best = { m: m1, model: model1 };
+    if (r1 <= 1 && r1 > 1 - 1e-7) break;
+    const slope = (r1 - r0) / (m1 - m0);
+    let next = slope > 0 && Number.isFinite(slope) ? m1 + (1 - r1) / slope : m1 / r1;
+    // Aim a hair inside the rectangle so the search ends on a fitting size.
+    next *= 1 - 1e-8;
+    [m0, r0] = [m1, r1];
+    if (!(next > 0) || Math.abs(next - m1) <= 1e-12 * m1) break;
+    m1 = next;
+  }
+  if (best) return { model: best.model, evaluations };
+  // Not converged to a fitting size: scale down from the last size, backing off further each time.
+  let m = m0 / r0;
+  for (let k = 0; ; k++) {
+    m *= 1 - 1e-6 * 2 ** k;
+    const model = buildAtScale(spec, solid, m);
+    evaluations++;
+    const r = modelFitRatio(model, widthMm, heightMm);
+    if (r <= 1 || evaluations > 40) return { model, evaluations };
+    m /= r;
+  }
+}
+
+/**
+ * An upper bound on the fitSheets size, without layout: the smaller of the size at which the largest
+ * piece just fits the sheet inside its margins (and the bed, when given) and the size at which the
+ * pieces' total area equals `sheets` × the usable sheet area (area grows as the square of the scale).
+ */
+export function fitSheetsUpperBound(
+  spec: ResolvedSpec,
+  solid: Solid,
+): { model: BuiltModel; evaluations: number } {
+  const sheet = spec.sheet as NonNullable<ResolvedSpec['sheet']>;
+  const sheets = spec.scale.by === 'fitSheets' ? spec.scale.sheets : 1;
+  const w = sheet.widthMm - 2 * sheet.marginMm;
+  const h = sheet.heightMm - 2 * sheet.marginMm;
+  let fit = fitToRectangle(spec, solid, w, h);
+  let evaluations = fit.evaluations;
+  if (spec.bed) {
+    const onBed = fitToRectangle(spec, solid, spec.bed.widthMm, spec.bed.heightMm);
+    evaluations += onBed.evaluations;
+    if (onBed.model.mmPerUnit < fit.model.mmPerUnit) fit = onBed;
+  }
+  const area = fit.model.pieces.reduce((sum, p) => sum + Math.abs(signedArea(p.outline)), 0);
+  const usable = sheets * w * h;
+  if (area > usable) {
+    const m = fit.model.mmPerUnit * Math.sqrt(usable / area);
+    evaluations++;
+    return { model: buildAtScale(spec, solid, m), evaluations };
+  }
+  return { model: fit.model, evaluations };
+}
+
+/** Builds a validated spec at a given scale (mm per model unit), without colour plan or scale summary. */
+export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number): BuiltModel {
   const frames = pieceFrames(solid, mmPerUnit);
   const { sides, step, rotationDeg, size } = spec.piece;
   const ids = frames.map((_, i) => `P${i + 1}`);
@@ -166,6 +374,32 @@ export function buildModel(input: unknown): BuiltModel {
   }
   if (crossings.length === 0) {
     issues.error('DESIGN.NO_CROSSINGS', 'no two pieces touch: make the pieces larger or turn them', []);
+  } else {
+    // A piece with no slot is held by nothing: it would fall out (an error, named per piece).
+    const slotless = frames.map((_, i) => i).filter((i) => at(plan.slots, i).length === 0);
+    for (const i of slotless) {
+      issues.error(
+        'PIECE.NO_SLOT',
+        `${at(ids, i)} has no slot: no other piece holds it, so it would fall out of the model`,
+        [at(ids, i)],
+      );
+    }
+    // Groups that do not hold each other come apart: the model cannot be assembled as one (an error).
+    const held = new Set(frames.map((_, i) => i).filter((i) => !slotless.includes(i)));
+    const groups = connectedGroups(
+      frames.length,
+      crossings.filter((c) => at(plan.options, c.index) !== null),
+    ).filter((g) => g.some((i) => held.has(i)));
+    if (groups.length > 1) {
+      const [main, ...rest] = [...groups].sort((x, y) => y.length - x.length);
+      const loose = rest.flat().map((i) => at(ids, i));
+      issues.error(
+        'DESIGN.NOT_CONNECTED',
+        `the pieces fall into ${groups.length} groups that do not hold each other: ` +
+          `${loose.join(', ')} ${loose.length === 1 ? 'is' : 'are'} not held by the other ${main?.length ?? 0}`,
+        loose,
+      );
+    }
   }
   crossings.forEach((c, i) => {
     const w = at(widths, i);
@@ -210,7 +444,7 @@ export function buildModel(input: unknown): BuiltModel {
     }
     const comp = machine.kind === 'laser' ? compensateKerf(notched.outline, machine.kerfMm) : notched;
     for (const s of slots) {
-      const web = slotWeb(shape, s);
+      const web = slotWeb(shape, s, spec.minWebMm);
       if (web < spec.minWebMm) {
         const partner = at(ids, s.partner);
         issues.warn(
@@ -275,6 +509,7 @@ export function buildModel(input: unknown): BuiltModel {
   });
 
   const report = makeReport(spec, solid, mmPerUnit, pieces, crossings, plan.options, widths, removed, issues);
+  report.slotEndsSearched = plan.searched;
   return { spec, solid, mmPerUnit, pieces, crossings, slotSearchUsed: plan.searched, report };
 }
 

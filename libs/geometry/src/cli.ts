@@ -13,6 +13,7 @@ const io: CliIo = {
   err: (t) => process.stderr.write(t.endsWith('\n') ? t : t + '\n'),
   readText: (p) => fs.readFileSync(p, 'utf8'),
   writeText: (p, t) => fs.writeFileSync(p, t),
+  writeBytes: (p, d) => fs.writeFileSync(p, d),
   makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
   joinPath: (...parts) => path.join(...parts),
 };

@@ -5,10 +5,35 @@
  */
 export const GEOMETRY_API_VERSION = 1;
 
-export { buildModel, resolveSolid, scaleFactor, pieceOutline3d } from './build';
+export {
+  buildModel,
+  resolveSolid,
+  scaleFactor,
+  pieceOutline3d,
+  connectedGroups,
+  REPORT_COLOUR_PLAN_CAP,
+} from './build';
+export {
+  buildWithLayout,
+  sheetsNeeded,
+  FIT_SHEETS_TOLERANCE,
+  FIT_SHEETS_MAX_LAYOUTS,
+} from './layout/build-with-layout';
+export type { LayoutBuild } from './layout/build-with-layout';
+export { bestFitRatio } from './scale/fit-ratio';
 export type { BuiltModel, BuiltPiece, BuiltSlot } from './build';
-export { validateSpec, SpecValidationError, MAX_PIECE_SIZE, MAX_SCALE_MM } from './spec/validate-spec';
-export type { ResolvedSpec, SpecValidation } from './spec/validate-spec';
+export {
+  validateSpec,
+  SpecValidationError,
+  MAX_PIECE_SIZE,
+  MAX_SCALE_MM,
+  MAX_FIT_SHEETS,
+  MAX_COLOURS,
+  MAX_SHEET_MM,
+  DEFAULT_SHEET_MARGIN_MM,
+  DEFAULT_SHEET_GAP_MM,
+} from './spec/validate-spec';
+export type { ResolvedSpec, ResolvedScale, SpecValidation } from './spec/validate-spec';
 export { getSolid, listSolids, isSolidId, MIN_PRISM_SIDES, MAX_PRISM_SIDES } from './solids/catalogue';
 export type { SolidSummary } from './solids/catalogue';
 export { solidFromPoints, SolidError, COPLANAR_TOLERANCE } from './solids/polyhedron';
@@ -44,3 +69,7 @@ export type { LayoutOptions, ModelLayout } from './layout/plan-layout';
 export { prepareCut } from './layout/prepare-cut';
 export type { CutPreparation } from './layout/prepare-cut';
 export { designPreview } from './layout/design-preview';
+
+// Labels and estimates (browser-safe); the cut pack itself is Node-only: '@kerfwright/geometry/pack'.
+export * from './labels';
+export * from './estimate';

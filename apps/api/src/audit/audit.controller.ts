@@ -1,16 +1,15 @@
 import { Controller, Get, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOkResponse, ApiPropertyOptional, ApiTags } from '@nestjs/swagger';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Type } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, IsUUID, Max, MaxLength, Min } from 'class-validator';
+import { IsIn, IsOptional, IsString, IsUUID, MaxLength } from 'class-validator';
 import { Repository } from 'typeorm';
 import { type AuditEventView, type Page } from '@kerfwright/contracts';
 import { Roles } from '../common/decorators/auth.decorators';
+import { likePattern } from '../common/db-helpers';
+import { PageQueryDto, pageWindow } from '../common/paging';
 import { AuditEvent } from './audit-event.entity';
 
-export class ListAuditQuery {
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) page?: number;
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize?: number;
+export class ListAuditQuery extends PageQueryDto {
   @ApiPropertyOptional({ enum: ['user', 'material', 'machine_profile', 'design', 'job', 'safety'] })
   @IsOptional()
   @IsString()
@@ -40,8 +39,7 @@ export class AuditController {
   @Get()
   @ApiOkResponse({ description: 'A page of audit events' })
   async list(@Query() q: ListAuditQuery): Promise<Page<AuditEventView>> {
-    const page = q.page ?? 1;
-    const pageSize = q.pageSize ?? 50;
+    const { page, pageSize, skip, take } = pageWindow(q, 50);
     const qb = this.events
       .createQueryBuilder('e')
       .leftJoin('users', 'u', 'u.id = e.actor_id')
@@ -49,12 +47,12 @@ export class AuditController {
     if (q.entityType) qb.andWhere('e.entity_type = :t', { t: q.entityType });
     if (q.entityId) qb.andWhere('e.entity_id = :eid', { eid: q.entityId });
     if (q.actorId) qb.andWhere('e.actor_id = :aid', { aid: q.actorId });
-    if (q.action) qb.andWhere('e.action LIKE :a', { a: `${q.action.replace(/[\\%_]/g, (c) => `\\${c}`)}%` });
+    if (q.action) qb.andWhere('e.action LIKE :a', { a: `${likePattern(q.action).slice(1)}` });
     const total = await qb.getCount();
     const { entities, raw } = await qb
       .orderBy('e.id', q.sort === 'createdAt' ? 'ASC' : 'DESC')
-      .offset((page - 1) * pageSize)
-      .limit(pageSize)
+      .offset(skip)
+      .limit(take)
       .getRawAndEntities<{ actor_name: string | null }>();
     return {
       items: entities.map((e, i) => ({

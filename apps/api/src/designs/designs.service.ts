@@ -4,7 +4,9 @@ import { DataSource, type EntityManager, Repository } from 'typeorm';
 import { type DesignSummary, type DesignView, type Page, type SolidTextFormat } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
+import { likePattern } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
+import { pageWindow, sortOrder } from '../common/paging';
 import { checkSolidText, previewDesign } from './design-engine';
 import { Design, toDesignSummary, toDesignView } from './design.entity';
 import { type CreateDesignDto, type ListDesignsQuery, type UpdateDesignDto } from './dto/design.dto';
@@ -33,20 +35,15 @@ export class DesignsService {
   ) {}
 
   async list(user: AuthUser, query: ListDesignsQuery): Promise<Page<DesignSummary>> {
-    const page = query.page ?? 1;
-    const pageSize = query.pageSize ?? 25;
-    const sort = query.sort ?? '-updatedAt';
-    const desc = sort.startsWith('-');
+    const { page, pageSize, skip, take } = pageWindow(query);
+    const [column, direction] = sortOrder(query.sort ?? '-updatedAt', SORT_COLUMNS, 'd.updated_at');
     const qb = this.designs.createQueryBuilder('d').leftJoinAndSelect('d.owner', 'owner');
     if (user.role === 'hobbyist' || query.scope === 'mine') qb.andWhere('d.owner_id = :me', { me: user.id });
     if (query.q) {
-      const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      const like = likePattern(query.q);
       qb.andWhere('(d.name ILIKE :like OR d.description ILIKE :like)', { like });
     }
-    qb.orderBy(SORT_COLUMNS[desc ? sort.slice(1) : sort] ?? 'd.updated_at', desc ? 'DESC' : 'ASC')
-      .addOrderBy('d.id', 'ASC')
-      .skip((page - 1) * pageSize)
-      .take(pageSize);
+    qb.orderBy(column, direction).addOrderBy('d.id', 'ASC').skip(skip).take(take);
     const [rows, total] = await qb.getManyAndCount();
     return { items: rows.map(toDesignSummary), total, page, pageSize };
   }

@@ -9,10 +9,9 @@ import {
   VersionColumn,
 } from 'typeorm';
 import { type DesignSpec, JOB_STATES, type JobPreparation, type JobState } from '@kerfwright/contracts';
+import { numericColumn } from '../common/db-helpers';
 import { Design } from '../designs/design.entity';
 import { User } from '../users/user.entity';
-
-const numeric = { to: (v: number | null) => v, from: (v: string | null) => (v === null ? null : Number(v)) };
 
 @Entity('jobs')
 export class Job {
@@ -33,10 +32,10 @@ export class Job {
   @Column({ type: 'text', default: '' }) notes: string;
   @Column({ name: 'return_reason', type: 'text', nullable: true }) returnReason: string | null;
   @Column({ type: 'jsonb', nullable: true }) preparation: JobPreparation | null;
-  @Column({ name: 'actual_minutes', type: 'numeric', nullable: true, transformer: numeric }) actualMinutes:
-    number | null;
+  @Column({ name: 'actual_minutes', type: 'numeric', nullable: true, transformer: numericColumn })
+  actualMinutes: number | null;
   @Column({ name: 'sheets_used', type: 'integer', nullable: true }) sheetsUsed: number | null;
-  @Column({ name: 'measured_kerf_mm', type: 'numeric', nullable: true, transformer: numeric })
+  @Column({ name: 'measured_kerf_mm', type: 'numeric', nullable: true, transformer: numericColumn })
   measuredKerfMm: number | null;
   @VersionColumn() version: number;
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' }) createdAt: Date;

@@ -11,7 +11,9 @@ import {
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
+import { likePattern } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
+import { pageWindow, sortOrder } from '../common/paging';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { canReadDesign } from '../designs/designs.service';
 import { Design } from '../designs/design.entity';
@@ -27,7 +29,7 @@ const SORT_COLUMNS: Record<string, string> = {
 };
 
 /** Staff see every job that has left the draft stage; everyone sees their own. */
-function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state'>): boolean {
+export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state'>): boolean {
   if (job.requesterId === user.id) return true;
   if (user.role === 'hobbyist') return false;
   return job.state !== 'draft' || user.role === 'supervisor';
@@ -48,10 +50,8 @@ export class JobsService {
   ) {}
 
   async list(user: AuthUser, query: ListJobsQuery): Promise<Page<JobView>> {
-    const page = query.page ?? 1;
-    const pageSize = query.pageSize ?? 25;
-    const sort = query.sort ?? '-updatedAt';
-    const desc = sort.startsWith('-');
+    const { page, pageSize, skip, take } = pageWindow(query);
+    const [column, direction] = sortOrder(query.sort ?? '-updatedAt', SORT_COLUMNS, 'j.updated_at');
     const qb = this.dataSource.manager
       .createQueryBuilder(Job, 'j')
       .leftJoinAndSelect('j.design', 'design')
@@ -63,15 +63,12 @@ export class JobsService {
     }
     if (query.state) qb.andWhere('j.state = :state', { state: query.state });
     if (query.q) {
-      const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      const like = likePattern(query.q);
       qb.andWhere('(design.name ILIKE :like OR requester.display_name ILIKE :like OR j.notes ILIKE :like)', {
         like,
       });
     }
-    qb.orderBy(SORT_COLUMNS[desc ? sort.slice(1) : sort] ?? 'j.updated_at', desc ? 'DESC' : 'ASC')
-      .addOrderBy('j.id', 'ASC')
-      .skip((page - 1) * pageSize)
-      .take(pageSize);
+    qb.orderBy(column, direction).addOrderBy('j.id', 'ASC').skip(skip).take(take);
     const [rows, total] = await qb.getManyAndCount();
     const names = await this.names(this.dataSource.manager, rows);
     return { items: rows.map((j) => this.toView(j, user, names)), total, page, pageSize };
@@ -238,30 +235,60 @@ export class JobsService {
           },
         );
       }
-      const from = job.state;
       await apply(m, job);
-      job.state = rule.to;
-      await m.save(job);
-      await m.insert(JobTransition, {
-        jobId: id,
-        fromState: from,
-        toState: rule.to,
-        action,
-        actorId: user.id,
-        reason,
-      });
-      await this.audit.record(m, {
-        actorId: user.id,
-        action: `job.${action}`,
-        entityType: 'job',
-        entityId: id,
-        before: { state: from },
-        after: { state: rule.to, ...(reason ? { reason } : {}) },
-        requestId: requestIdOf(req),
-      });
-      await this.mailer.onTransition(m, job, action);
+      await this.applyTransition(m, job, action, user.id, requestIdOf(req), reason);
       return this.detail(m, user, id);
     });
+  }
+
+  /**
+   * approved → released for the cut-pack queue, inside the transaction that marks the export done (no HTTP
+   * request; the actor is whoever asked for the export). Returns false, changing nothing, when the job is
+   * not approved any more (a re-export of a released job, or a job returned meanwhile).
+   */
+  async releaseForExport(
+    m: EntityManager,
+    jobId: string,
+    actorId: string | null,
+    requestId: string | null,
+  ): Promise<boolean> {
+    const job = await m.findOne(Job, { where: { id: jobId }, lock: { mode: 'pessimistic_write' } });
+    if (!job || !transitionFor('release').from.includes(job.state)) return false;
+    await this.applyTransition(m, job, 'release', actorId, requestId, null);
+    return true;
+  }
+
+  /** The state change itself, its transition record, audit event and mails (checks are the caller's). */
+  private async applyTransition(
+    m: EntityManager,
+    job: Job,
+    action: JobAction,
+    actorId: string | null,
+    requestId: string | null,
+    reason: string | null,
+  ): Promise<void> {
+    const rule = transitionFor(action);
+    const from = job.state;
+    job.state = rule.to;
+    await m.save(job);
+    await m.insert(JobTransition, {
+      jobId: job.id,
+      fromState: from,
+      toState: rule.to,
+      action,
+      actorId,
+      reason,
+    });
+    await this.audit.record(m, {
+      actorId,
+      action: `job.${action}`,
+      entityType: 'job',
+      entityId: job.id,
+      before: { state: from },
+      after: { state: rule.to, ...(reason ? { reason } : {}) },
+      requestId,
+    });
+    await this.mailer.onTransition(m, job, action);
   }
 
   private async detail(m: EntityManager, user: AuthUser, id: string): Promise<JobDetailView> {

@@ -5,7 +5,7 @@ import {
   type ProfileSetting,
   type ProfileVersionState,
 } from '@kerfwright/contracts';
-import { numericColumn } from '../materials/db-helpers';
+import { numericColumn } from '../common/db-helpers';
 
 @Entity('machine_profiles')
 export class MachineProfile {

@@ -19,7 +19,7 @@ import { AppError, notFound } from '../common/errors';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { composeMail } from '../mail/mail-templates';
 import { mailConfig } from '../mail/mail.config';
-import { likePattern, PG_UNIQUE_VIOLATION, pgError } from '../materials/db-helpers';
+import { likePattern, PG_UNIQUE_VIOLATION, pgError } from '../common/db-helpers';
 import { HazardTableService } from '../materials/hazard-table.service';
 import { Material } from '../materials/material.entity';
 import { type CreateMachineProfileDto } from './dto/create-machine-profile.dto';

@@ -7,7 +7,7 @@ import {
   VersionColumn,
 } from 'typeorm';
 import { type MaterialFamily, type MaterialView, type StockSheet } from '@kerfwright/contracts';
-import { numericColumn } from './db-helpers';
+import { numericColumn } from '../common/db-helpers';
 
 @Entity('materials')
 export class Material {

@@ -12,7 +12,7 @@ import {
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { AppError, notFound } from '../common/errors';
-import { likePattern, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION, pgError } from './db-helpers';
+import { likePattern, PG_FOREIGN_KEY_VIOLATION, PG_UNIQUE_VIOLATION, pgError } from '../common/db-helpers';
 import { type CreateMaterialDto } from './dto/create-material.dto';
 import { type ListMaterialsQueryDto } from './dto/list-materials.query';
 import { type UpdateMaterialDto } from './dto/update-material.dto';

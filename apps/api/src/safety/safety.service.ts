@@ -4,6 +4,7 @@ import { DataSource, type EntityManager } from 'typeorm';
 import {
   type AcknowledgeSafetyRequest,
   type JobSafetyView,
+  type JobState,
   type LocalRulesView,
   type MachineProfileKind,
   type MaterialFamily,
@@ -14,6 +15,7 @@ import {
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
+import { canReadJob } from '../jobs/jobs.service';
 
 interface NoticeRow {
   notice_key: string;
@@ -135,8 +137,9 @@ export class SafetyService {
       [jobId],
     );
     const job = rows[0];
-    if (!job || (user.role === 'hobbyist' && job.requester_id !== user.id))
+    if (!job || !canReadJob(user, { requesterId: job.requester_id, state: job.state as JobState })) {
       throw notFound('JOB', 'No such job');
+    }
     const all = await this.notices({}, m);
     const notices =
       job.kind && job.family ? all.filter((n) => noticeApplies(n, job.kind!, job.family!)) : all;

@@ -69,6 +69,10 @@ export class FsStorage implements ObjectStorage {
     return out.sort((a, b) => a.key.localeCompare(b.key));
   }
 
+  async delete(key: string): Promise<void> {
+    await fs.promises.rm(this.file(key), { force: true });
+  }
+
   async deletePrefix(prefix: string): Promise<number> {
     const objects = await this.list(prefix);
     for (const o of objects) await fs.promises.rm(this.file(o.key), { force: true });

@@ -11,6 +11,7 @@ export interface ObjectStorage {
   get(key: string): Promise<{ body: Readable; size: number; contentType: string }>;
   exists(key: string): Promise<boolean>;
   list(prefix: string): Promise<StoredObject[]>;
+  delete(key: string): Promise<void>;
   deletePrefix(prefix: string): Promise<number>;
   /** Checks the store answers (and creates the bucket or folder if needed). */
   ready(): Promise<void>;

@@ -1,6 +1,7 @@
 import { Readable } from 'node:stream';
 import {
   CreateBucketCommand,
+  DeleteObjectCommand,
   DeleteObjectsCommand,
   GetObjectCommand,
   HeadBucketCommand,
@@ -26,7 +27,18 @@ export class S3Storage implements ObjectStorage {
     });
   }
 
-  async ready(): Promise<void> {
+  private bucketReady: Promise<void> | null = null;
+
+  /** Checks the bucket once per process (creating it if missing); a failed check is tried again next time. */
+  ready(): Promise<void> {
+    this.bucketReady ??= this.ensureBucket().catch((err: unknown) => {
+      this.bucketReady = null;
+      throw err;
+    });
+    return this.bucketReady;
+  }
+
+  private async ensureBucket(): Promise<void> {
     try {
       await this.client.send(new HeadBucketCommand({ Bucket: this.config.bucket }));
     } catch {
@@ -79,6 +91,10 @@ export class S3Storage implements ObjectStorage {
       token = page.IsTruncated ? page.NextContinuationToken : undefined;
     } while (token);
     return out;
+  }
+
+  async delete(key: string): Promise<void> {
+    await this.client.send(new DeleteObjectCommand({ Bucket: this.config.bucket, Key: assertSafeKey(key) }));
   }
 
   async deletePrefix(prefix: string): Promise<number> {

@@ -3,7 +3,9 @@ import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, Repository } from 'typeorm';
 import { type Page, type UserView } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
+import { likePattern } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
+import { pageWindow, sortOrder } from '../common/paging';
 import { type ListUsersQuery } from './dto/list-users.query';
 import { type UpdateUserDto } from './dto/update-user.dto';
 import { toUserView, User } from './user.entity';
@@ -24,22 +26,16 @@ export class UsersService {
   ) {}
 
   async list(query: ListUsersQuery): Promise<Page<UserView>> {
-    const page = query.page ?? 1;
-    const pageSize = query.pageSize ?? 25;
-    const sort = query.sort ?? 'email';
-    const desc = sort.startsWith('-');
-    const column = SORT_COLUMNS[desc ? sort.slice(1) : sort] ?? 'u.email';
+    const { page, pageSize, skip, take } = pageWindow(query);
+    const [column, direction] = sortOrder(query.sort ?? 'email', SORT_COLUMNS, 'u.email');
     const qb = this.users.createQueryBuilder('u');
     if (query.role) qb.andWhere('u.role = :role', { role: query.role });
     if (query.active !== undefined) qb.andWhere('u.active = :active', { active: query.active });
     if (query.q) {
-      const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      const like = likePattern(query.q);
       qb.andWhere('(u.email ILIKE :like OR u.display_name ILIKE :like)', { like });
     }
-    qb.orderBy(column, desc ? 'DESC' : 'ASC')
-      .addOrderBy('u.id', 'ASC')
-      .skip((page - 1) * pageSize)
-      .take(pageSize);
+    qb.orderBy(column, direction).addOrderBy('u.id', 'ASC').skip(skip).take(take);
     const [rows, total] = await qb.getManyAndCount();
     return { items: rows.map(toUserView), total, page, pageSize };
   }

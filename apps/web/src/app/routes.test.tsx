@@ -19,28 +19,31 @@ function signedInAs(role: Role) {
 }
 
 describe('navigation per role', () => {
-  it('shows the supervisor Home and People', async () => {
+  it('shows the supervisor Home, Designs, Jobs, Safety and People', async () => {
     signedInAs('supervisor');
     renderApp('/', { token: 't' });
     const nav = await screen.findByRole('navigation', { name: 'Main' });
     const links = within(nav)
       .getAllByRole('link')
       .map((a) => a.textContent);
-    expect(links).toEqual(['Home', 'People']);
+    expect(links).toEqual(['Home', 'Designs', 'Jobs', 'Safety', 'People']);
     expect(within(nav).getByRole('link', { name: 'People' })).toHaveAttribute('href', '/people');
   });
 
-  it.each(['hobbyist', 'fabricator', 'operator'] as const)('shows only Home to the %s', async (role) => {
-    signedInAs(role);
-    renderApp('/', { token: 't' });
-    const nav = await screen.findByRole('navigation', { name: 'Main' });
-    expect(
-      within(nav)
-        .getAllByRole('link')
-        .map((a) => a.textContent),
-    ).toEqual(['Home']);
-    expect(screen.queryByRole('link', { name: 'People' })).not.toBeInTheDocument();
-  });
+  it.each(['hobbyist', 'fabricator', 'operator'] as const)(
+    'shows Home, Designs, Jobs and Safety (no People) to the %s',
+    async (role) => {
+      signedInAs(role);
+      renderApp('/', { token: 't' });
+      const nav = await screen.findByRole('navigation', { name: 'Main' });
+      expect(
+        within(nav)
+          .getAllByRole('link')
+          .map((a) => a.textContent),
+      ).toEqual(['Home', 'Designs', 'Jobs', 'Safety']);
+      expect(screen.queryByRole('link', { name: 'People' })).not.toBeInTheDocument();
+    },
+  );
 
   it("shows the user's name and role in the app bar and marks the current page", async () => {
     const { me } = signedInAs('fabricator');

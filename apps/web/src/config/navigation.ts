@@ -21,6 +21,17 @@ export const NAV_ITEMS: readonly NavItem[] = [
     roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'],
     end: true,
   },
+  {
+    label: 'Designs',
+    href: paths.designs.getHref(),
+    roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'],
+  },
+  { label: 'Jobs', href: paths.jobs.getHref(), roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'] },
+  {
+    label: 'Safety',
+    href: paths.safety.getHref(),
+    roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'],
+  },
   { label: 'People', href: paths.people.getHref(), roles: ['supervisor'] },
 ];
 

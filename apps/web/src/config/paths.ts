@@ -9,6 +9,12 @@ function safeRedirect(target: string | null | undefined): string | undefined {
 export const paths = {
   home: { path: '/', getHref: () => '/' },
   people: { path: '/people', getHref: () => '/people' },
+  designs: { path: '/designs', getHref: () => '/designs' },
+  designNew: { path: '/designs/new', getHref: () => '/designs/new' },
+  design: { path: '/designs/:designId', getHref: (id: string) => `/designs/${encodeURIComponent(id)}` },
+  jobs: { path: '/jobs', getHref: () => '/jobs' },
+  safety: { path: '/safety', getHref: () => '/safety' },
+  job: { path: '/jobs/:jobId', getHref: (id: string) => `/jobs/${encodeURIComponent(id)}` },
   signIn: {
     path: '/sign-in',
     getHref: (redirectTo?: string | null) => {

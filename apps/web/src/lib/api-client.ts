@@ -131,7 +131,29 @@ export const api = {
     apiRequest<T>(path, { query, signal }),
   post: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'POST', body }),
   patch: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PATCH', body }),
+  put: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PUT', body }),
 };
+
+/** Fetches a file with the bearer token and hands it to the browser as a download under `fileName`. */
+export async function downloadFile(path: string, fileName: string): Promise<void> {
+  const token = getAccessToken();
+  const response = await fetch(buildUrl(path), {
+    headers: token ? { Authorization: `Bearer ${token}` } : {},
+  });
+  if (!response.ok) {
+    const error = await parseErrorResponse(response);
+    if (response.status === 401 && token) clearAccessToken();
+    throw error;
+  }
+  const url = URL.createObjectURL(await response.blob());
+  const link = document.createElement('a');
+  link.href = url;
+  link.download = fileName;
+  document.body.append(link);
+  link.click();
+  link.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
 
 /** A sentence to show a person for any error thrown while talking to the API. */
 export function errorMessage(error: unknown): string {

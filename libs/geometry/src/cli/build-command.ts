@@ -1,4 +1,4 @@
-import { buildModel } from '../build';
+import { buildWithLayout } from '../layout/build-with-layout';
 import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError } from '../spec/validate-spec';
 import { pieceToDxf } from '../writers/dxf';
@@ -6,8 +6,9 @@ import { pieceToSvg } from '../writers/svg';
 import { type CliCommand, UsageError, parseArgs } from './command';
 
 /**
- * `build SPEC.json --out DIR [--json]`: builds a design, writes DIR/report.json and, when the design has
- * no errors, one DXF and one SVG per piece (DIR/P1.dxf, DIR/P1.svg, …). Exit codes: 0 built; 1 the design
+ * `build SPEC.json --out DIR [--json]`: builds a design (with its layout when the spec gives stock.sheet,
+ * and fit scales searched: buildWithLayout), writes DIR/report.json and, when the design has no errors,
+ * one DXF and one SVG per piece (DIR/P1.dxf, DIR/P1.svg, …). Exit codes: 0 built; 1 the design
  * has errors (report written, no cut files); 2 unreadable or invalid spec or solid (nothing written).
  */
 export const buildCommand: CliCommand = {
@@ -38,7 +39,7 @@ export const buildCommand: CliCommand = {
     }
     let model;
     try {
-      model = buildModel(spec);
+      model = buildWithLayout(spec).model;
     } catch (e) {
       if (e instanceof SpecValidationError) io.err(`error: ${e.message}`);
       else if (e instanceof SolidError) io.err(`error: bad solid (${e.code}): ${e.message}`);

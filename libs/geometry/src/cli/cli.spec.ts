@@ -16,6 +16,7 @@ function run(args: string[]) {
     err: (t) => err.push(t),
     readText: (p) => fs.readFileSync(p, 'utf8'),
     writeText: (p, t) => fs.writeFileSync(p, t),
+    writeBytes: (p, d) => fs.writeFileSync(p, d),
     makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
     joinPath: (...parts) => path.join(...parts),
   };
@@ -29,22 +30,31 @@ describe('CLI build', () => {
   });
   afterEach(() => fs.rmSync(dir, { recursive: true, force: true }));
 
-  it.each(['octahedron-hexagons', 'cube-squares-45', 'cube-star-8-3'])(
-    'writes report.json and a DXF and an SVG per piece for %s',
-    async (name) => {
-      const r = await run(['build', path.join(fixtures, `${name}.json`), '--out', dir]);
-      expect(r.code).toBe(0);
-      const report = JSON.parse(fs.readFileSync(path.join(dir, 'report.json'), 'utf8'));
-      const files = fs.readdirSync(dir).sort();
-      expect(files).toHaveLength(1 + 2 * report.pieces.length);
-      for (const p of report.pieces) {
-        expect(files).toContain(`${p.id}.dxf`);
-        expect(files).toContain(`${p.id}.svg`);
-      }
-      const doc = new DxfParser().parseSync(fs.readFileSync(path.join(dir, 'P1.dxf'), 'utf8'));
-      expect(doc?.header.$INSUNITS).toBe(4);
-    },
-  );
+  it.each([
+    'octahedron-hexagons',
+    'cube-squares-45',
+    'cube-star-8-3',
+    'uploaded-rhombic-dodecahedron-hexagons',
+  ])('writes report.json and a DXF and an SVG per piece for %s', async (name) => {
+    const r = await run(['build', path.join(fixtures, `${name}.json`), '--out', dir]);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(fs.readFileSync(path.join(dir, 'report.json'), 'utf8'));
+    const files = fs.readdirSync(dir).sort();
+    expect(files).toHaveLength(1 + 2 * report.pieces.length);
+    for (const p of report.pieces) {
+      expect(files).toContain(`${p.id}.dxf`);
+      expect(files).toContain(`${p.id}.svg`);
+    }
+    const doc = new DxfParser().parseSync(fs.readFileSync(path.join(dir, 'P1.dxf'), 'utf8'));
+    expect(doc?.header.$INSUNITS).toBe(4);
+  });
+
+  it('writes no cut files for the antiprism lamp whose top and bottom stars have no slot', async () => {
+    const r = await run(['build', path.join(fixtures, 'uploaded-antiprism-stars.json'), '--out', dir]);
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/PIECE\.NO_SLOT/);
+    expect(fs.readdirSync(dir)).toEqual(['report.json']);
+  });
 
   it('prints the report with --json', async () => {
     const r = await run(['build', path.join(fixtures, 'octahedron-hexagons.json'), '--json']);

@@ -4,6 +4,7 @@ export interface CliIo {
   err: (text: string) => void;
   readText: (path: string) => string;
   writeText: (path: string, text: string) => void;
+  writeBytes: (path: string, data: Uint8Array) => void;
   makeDir: (path: string) => void;
   joinPath: (...parts: string[]) => string;
 }

@@ -100,6 +100,26 @@ describe('router dog-bone reliefs', () => {
     expect(Math.SQRT2 - 1).toBeCloseTo(0.414, 3);
   });
 
+  it('draws each relief arc through its slot corner', () => {
+    const tool = 3.175;
+    const m = buildModel(
+      cubeSquares45(1.5, { machine: { kind: 'router', toolDiameterMm: tool }, stock: { thicknessMm: 6 } }),
+    );
+    for (const p of m.pieces) {
+      for (const s of p.slots) {
+        const n: Vec2 = [-s.axis[1], s.axis[0]];
+        for (const side of [-1, 1]) {
+          const corner: Vec2 = [
+            s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
+            s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
+          ];
+          const nearest = Math.min(...p.outline.map((q) => Math.hypot(q[0] - corner[0], q[1] - corner[1])));
+          expect(nearest).toBeLessThan(1e-9);
+        }
+      }
+    }
+  });
+
   it('keeps the slots nominal and removes material beyond each slot’s inner corners', () => {
     const tool = 3.175;
     const m = buildModel(

@@ -67,7 +67,8 @@ let lastFan: { half: number; r: number; fan: [number, number][] } | null = null;
 function arcFan(half: number, r: number): [number, number][] {
   if (lastFan && lastFan.half === half && lastFan.r === r) return lastFan.fan;
   const step = Math.acos(Math.max(-1, 1 - CIRCLE_TOLERANCE_MM / r));
-  const n = Math.max(4, Math.ceil((2 * half) / step));
+  // An even count puts a sample exactly on the corner, so the corner itself is always cleared.
+  const n = 2 * Math.max(2, Math.ceil(half / step));
   const fan = Array.from({ length: n + 1 }, (_, k) => {
     const a = -half + (2 * half * k) / n;
     return [Math.cos(a), Math.sin(a)] as [number, number];

@@ -11,6 +11,8 @@ export interface LayoutOptions {
   colours: { count: number; rule?: ColourRule };
   /** Copies of the whole model. Default 1. */
   quantity?: number;
+  /** A colour plan already solved for this model (skips solving it again). */
+  colourPlan?: ColourPlan;
 }
 
 export type ModelLayout =
@@ -40,15 +42,18 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
   let colourPlan: ColourPlan | null = null;
   let pieceColour: Record<string, number> = Object.fromEntries(ids.map((id) => [id, 0]));
   if (count > 1) {
-    colourPlan = solveColourPlan({
-      faceCount: model.solid.faces.length,
-      faceVertices: model.solid.faces.map((f) => f.vertices),
-      normals: model.solid.faces.map((f) => f.normal),
-      opposite: model.solid.oppositeFaces,
-      rule: options.colours.rule ?? 'neighbour-distinct',
-      count,
-      pieceIds: model.pieces.map((p) => p.id),
-    });
+    colourPlan =
+      options.colourPlan ??
+      solveColourPlan({
+        faceCount: model.solid.faces.length,
+        faceVertices: model.solid.faces.map((f) => f.vertices),
+        normals: model.solid.faces.map((f) => f.normal),
+        opposite: model.solid.oppositeFaces,
+        rule: options.colours.rule ?? 'neighbour-distinct',
+        count,
+        pieceIds: model.pieces.map((p) => p.id),
+        countCap: 0,
+      });
     if (!colourPlan.feasible) {
       return {
         ok: false,

@@ -61,6 +61,27 @@ export function growPolygon(path: IntPath, deltaMm: number, joins: 'miter' | 'ro
 }
 
 /**
+ * Morphological closing of a closed CCW polygon by radiusMm (grow, then shrink by the same amount), united
+ * with the polygon itself so the result always contains it: notches and slots narrower than 2 × radiusMm are
+ * filled, convex corners stay where they were. Returns the outer outline (largest positive area).
+ */
+export function closePolygon(path: IntPath, radiusMm: number): IntPath {
+  if (radiusMm <= 0) return path;
+  const grow = new ClipperLib.ClipperOffset(4, 0.25 * SCALE_PER_MM);
+  grow.AddPath(path, ClipperLib.JoinType.jtMiter, ClipperLib.EndType.etClosedPolygon);
+  const grown: IntPaths = [];
+  grow.Execute(grown, radiusMm * SCALE_PER_MM);
+  const shrink = new ClipperLib.ClipperOffset(4, 0.25 * SCALE_PER_MM);
+  shrink.AddPaths(grown, ClipperLib.JoinType.jtMiter, ClipperLib.EndType.etClosedPolygon);
+  const shrunk: IntPaths = [];
+  shrink.Execute(shrunk, -radiusMm * SCALE_PER_MM);
+  const merged = unionPaths([...shrunk, path]);
+  let best: IntPath | null = null;
+  for (const p of merged) if (!best || ClipperLib.Clipper.Area(p) > ClipperLib.Clipper.Area(best)) best = p;
+  return best && ClipperLib.Clipper.Area(best) >= ClipperLib.Clipper.Area(path) ? best : path;
+}
+
+/**
  * No-fit polygon of a moving path around a fixed one: the set of translations t for which moving + t meets
  * the interior of fixed, i.e. the Minkowski sum fixed ⊕ (−moving). Built as the union of the sums of convex
  * pieces (both polygons cut into convex pieces beforehand: convex-decomposition.ts), each a convex hull of

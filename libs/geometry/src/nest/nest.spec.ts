@@ -1,6 +1,7 @@
 import * as polygonClipping from 'polygon-clipping';
 import { nestParts, type NestInput, type NestResult } from './nest';
 import { runNestCommand } from './nest-command';
+import { GeometryCache } from './variants';
 
 // ---------- Shapes built here ----------
 type P = [number, number];
@@ -48,6 +49,30 @@ function withSlot(outline: P[], tip: number, w: number, d: number): P[] {
     t[1] + u[1] * d + side[1] * s * (w / 2),
   ];
   return [...outline.slice(0, tip), onPrev, deep(sgn), deep(-sgn), onNext, ...outline.slice(tip + 1)];
+}
+
+/** Cuts a rectangular notch w wide and d deep into the middle of edge i (CCW outline), square to the edge. */
+function withEdgeNotch(outline: P[], i: number, w: number, d: number): P[] {
+  const a = outline[i]!;
+  const b = outline[(i + 1) % outline.length]!;
+  const l = Math.hypot(b[0] - a[0], b[1] - a[1]);
+  const e: P = [(b[0] - a[0]) / l, (b[1] - a[1]) / l];
+  const n: P = [-e[1], e[0]]; // inward for a CCW outline
+  const m: P = [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+  const at = (s: number, depth: number): P => [
+    m[0] + e[0] * s * (w / 2) + n[0] * depth,
+    m[1] + e[1] * s * (w / 2) + n[1] * depth,
+  ];
+  return [...outline.slice(0, i + 1), at(-1, 0), at(-1, d), at(1, d), at(1, 0), ...outline.slice(i + 1)];
+}
+
+/** The outline turned by deg about the origin and shifted by (dx, dy), as a model's pieces arrive. */
+function moved(outline: P[], deg: number, dx: number, dy: number): P[] {
+  const t = (deg * Math.PI) / 180;
+  return outline.map(([x, y]) => [
+    x * Math.cos(t) - y * Math.sin(t) + dx,
+    x * Math.sin(t) + y * Math.cos(t) + dy,
+  ]);
 }
 
 function area(poly: P[]): number {
@@ -213,6 +238,74 @@ describe('nestParts — true shape', () => {
       for (const p of s.placements) expect(p.rotationDeg).toBe(0);
     }
     expect(r.totals.sheetsByGroup).toEqual({ red: 1, blue: 1 });
+  });
+
+  it('lays out one copy each of 24 congruent notched triangles given turned and shifted, two colours', () => {
+    // Equilateral triangles of side 100 with 9 mm × 25 mm notches on different edges: one NFP shape (the hull)
+    // is shared by all of them; the placements are still checked against the true notched outlines.
+    const tri = regular(3, 100 / Math.sqrt(3));
+    const parts = Array.from({ length: 24 }, (_, k) => {
+      let o = tri;
+      for (let e = 2; e >= 0; e--) if ((k >> e) & 1 || e === k % 3) o = withEdgeNotch(o, e, 9, 25);
+      return { id: `t${k}`, outline: moved(o, 17 * k, 5 * k, -3 * k), quantity: 1, group: `c${k % 2}` };
+    });
+    const input: NestInput = { sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3, parts };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    // 12 triangles per colour: far below the 35 per sheet of REFERENCES' simple true-shape placer.
+    expect(r.ok && r.totals.sheetsByGroup).toEqual({ c0: 1, c1: 1 });
+    const cache = new GeometryCache(
+      parts.map((p, index) => ({
+        index,
+        id: p.id,
+        group: p.group,
+        quantity: 1,
+        outline: p.outline,
+        areaMm2: area(p.outline),
+        rotationsDeg: [0],
+        patternRotationsDeg: [0],
+      })),
+      3,
+    );
+    expect(cache.shapeCount).toBe(1);
+  });
+
+  it('closes a slot narrower than twice the gap but still fits a part into a wide pocket', () => {
+    // A U of 200 × 100 with a 60 × 80 pocket and a 2 mm slot in its base: two 30 mm squares fit only in the
+    // pocket on a 206 × 106 sheet (derived: 60 − 2·3 = 54 ≥ 30 across, 80 − 3 = 77 ≥ 2·30 + 3 deep).
+    const u: P[] = [
+      [0, 0],
+      [90, 0],
+      [90, 15],
+      [92, 15],
+      [92, 0],
+      [200, 0],
+      [200, 100],
+      [130, 100],
+      [130, 20],
+      [70, 20],
+      [70, 100],
+      [0, 100],
+    ];
+    const sq: P[] = [
+      [0, 0],
+      [30, 0],
+      [30, 30],
+      [0, 30],
+    ];
+    const input: NestInput = {
+      sheet: { widthMm: 206, heightMm: 106 },
+      marginMm: 0,
+      gapMm: 3,
+      rotationsDeg: [0],
+      parts: [
+        { id: 'u', outline: u, quantity: 1 },
+        { id: 'sq', outline: sq, quantity: 2 },
+      ],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1);
   });
 
   it('names a part that cannot fit on an empty sheet at any rotation', () => {

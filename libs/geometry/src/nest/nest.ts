@@ -10,10 +10,14 @@
  * Two methods run per group and the better result is kept (fewer sheets, then the longer free strip at the
  * right end of the last sheet, then the larger free area on it, then the shorter total used length):
  *  - bottom-left fill over no-fit polygons (bottom-left.ts), largest parts first;
- *  - a pattern pass (pattern.ts): every part with two or more copies is laid on its best single or double
+ *  - a pattern pass (pattern.ts): every part with three or more copies is laid on its best single or double
  *    lattice (with 'auto' rotation, four extra orientations per symmetry period of the outline are tried),
  *    edge gaps on full sheets are topped up with more copies, the other parts are added by bottom-left fill
  *    into the gaps and onto new sheets.
+ * No-fit polygons are built on simplified outlines that contain the true ones (notches narrower than about
+ * twice the gap closed; the convex hull for convex-ish pieces), and pieces whose simplified outlines are
+ * congruent share them up to a shift (nfpOutline and GeometryCache in variants.ts): slotted pieces of one model
+ * cost one set of Minkowski sums, not one per piece.
  * Every placement is also checked directly against its neighbours (clearOfItems in variants.ts), and a plan
  * failing that check is never preferred, as a guard against numerical slivers in the polygon unions.
  * Rotations: 'auto' tries 0° and 180°, then the rotations laying the longest convex-hull edges flat (at the
@@ -105,6 +109,12 @@ export type NestResult =
 
 const DEFAULT_GROUP = 'default';
 
+/**
+ * Parts with fewer copies are left to bottom-left fill: a lattice of two copies is one pair, which bottom-left
+ * fill finds as well, and the lattice search per part costs far more than placing two copies.
+ */
+const MIN_PATTERN_COPIES = 3;
+
 function fail(code: NestErrorCode, message: string, partIds: string[] = []): NestResult {
   return { ok: false, error: { code, message, partIds } };
 }
@@ -133,7 +143,9 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
       outline,
       areaMm2: signedArea(outline),
       rotationsDeg,
-      patternRotationsDeg: rot === 'auto' ? patternRotations(outline) : rotationsDeg,
+      // Only repeated parts are laid in patterns; the finer sweep is not needed for single copies.
+      patternRotationsDeg:
+        rot === 'auto' && p.quantity >= MIN_PATTERN_COPIES ? patternRotations(outline) : rotationsDeg,
     });
   }
   return parts;
@@ -256,7 +268,7 @@ function nestGroup(
   }
   if (method !== 'true-shape') {
     const repeated = parts
-      .filter((p) => p.quantity >= 2)
+      .filter((p) => p.quantity >= MIN_PATTERN_COPIES)
       .sort((a, b) => b.areaMm2 * b.quantity - a.areaMm2 * a.quantity);
     const options: PreparedPart[][] = [];
     if (repeated.length > 0) options.push([repeated[0]!]);

@@ -212,31 +212,49 @@ function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice):
     cellMinX = Math.min(cellMinX, cell[i]!.dx - f.x0);
   }
   // Origin o such that the lowest piece of row 0 sits on the margin; try shifts so some row starts flush left.
-  const oy = -cellMinY;
-  let best: PlacedItem[] = [];
-  for (let shiftRow = 0; shiftRow < 3; shiftRow++) {
-    const ox0 = -cellMinX - shiftRow * lat.bx;
+  // (Lowering the lattice by fractions of a row or shifting it by fractions of the period was tried: no more
+  // pieces on the bench designs, at many times the cost.)
+  const W = frame.widthMm * SCALE_PER_MM;
+  const H = frame.heightMm * SCALE_PER_MM;
+  const oys = [-cellMinY];
+  const oxs = [0, 1, 2].map((shiftRow) => -cellMinX - shiftRow * lat.bx);
+  // Counts first (no allocation), then the slots of the fullest origin.
+  const visit = (ox0: number, oy: number, out: PlacedItem[] | null): number => {
     const ox = ox0 - Math.floor(ox0 / lat.ax) * lat.ax - lat.ax;
-    const slots: PlacedItem[] = [];
+    let count = 0;
     for (let j = 0; ; j++) {
       const rowY = oy + j * lat.by;
-      if (rowY + cellMinY > frame.heightMm * SCALE_PER_MM) break;
+      if (rowY + cellMinY > H) break;
       const rowX = ox + j * lat.bx - Math.ceil((ox + j * lat.bx) / lat.ax + 2) * lat.ax;
       for (let i = 0; ; i++) {
         const x = rowX + i * lat.ax;
-        if (x + cellMinX > frame.widthMm * SCALE_PER_MM) break;
+        if (x + cellMinX > W) break;
         for (let p = 0; p < cell.length; p++) {
           const c = cell[p]!;
           const f = fits[p]!;
           const tx = x + c.dx;
           const ty = rowY + c.dy;
-          if (tx >= f.x0 && tx <= f.x1 && ty >= f.y0 && ty <= f.y1)
-            slots.push({ variant: c.variant, tx, ty });
+          if (tx >= f.x0 && tx <= f.x1 && ty >= f.y0 && ty <= f.y1) {
+            count++;
+            out?.push({ variant: c.variant, tx, ty });
+          }
         }
       }
     }
-    if (slots.length > best.length) best = slots;
-  }
+    return count;
+  };
+  let bestCount = 0;
+  let bestOrigin: [number, number] | null = null;
+  for (const oy of oys)
+    for (const ox0 of oxs) {
+      const n = visit(ox0, oy, null);
+      if (n > bestCount) {
+        bestCount = n;
+        bestOrigin = [ox0, oy];
+      }
+    }
+  const best: PlacedItem[] = [];
+  if (bestOrigin) visit(bestOrigin[0], bestOrigin[1], best);
   best.sort(
     (p, q) =>
       p.tx + p.variant.ubounds.maxX - (q.tx + q.variant.ubounds.maxX) ||

@@ -6,10 +6,12 @@
 import { convexPieces } from './convex-decomposition';
 import {
   areaUnits,
+  closePolygon,
   growPolygon,
   intersectPaths,
   noFitPolygonFromPieces,
   noFitPolygon,
+  pointInPath,
   toIntPath,
   SCALE_PER_MM,
   type IntPath,
@@ -33,13 +35,8 @@ export interface Variant {
   rotationDeg: number;
   /** Rotated outline, counter-clockwise, integer units. */
   poly: IntPath;
-  /** Rotated outline grown by gap + safety, integer units (used for no-fit polygons). */
-  grown: IntPaths;
-  /** Convex pieces of the outer grown outline and of the negated outline (lazily built). */
-  grownPieces?: IntPaths | null;
-  negatedPieces?: IntPaths | null;
-  /** Rotated outline grown by gap + half the safety, round joins (used to check placements directly). */
-  checkGrown: IntPaths;
+  /** Rotated outline grown by gap + half the safety, round joins (direct checks; built on first use). */
+  checkGrown?: IntPaths;
   /** Bounds of the exact (floating) rotated outline, mm. */
   bounds: Bounds;
   /** Bounds rounded outward, integer units. */
@@ -172,27 +169,162 @@ function boxOfPaths(paths: IntPaths): IntBounds {
   return { minX, minY, maxX, maxY };
 }
 
+/**
+ * Outline used for no-fit polygons, as a rotated and shifted copy of a shared "NFP shape": the part's outline
+ * with its narrow notches closed (see nfpOutline). closed(part) ≈ R(thetaDeg)·shape + (ox, oy), integer units.
+ */
+interface ShapeRef {
+  shape: number;
+  thetaDeg: number;
+  ox: number;
+  oy: number;
+}
+
+/** One rotation of an NFP shape: its closed outline and that outline grown by the gap (integer units). */
+interface ShapeVariant {
+  poly: IntPath;
+  grown: IntPaths;
+  grownPieces?: IntPaths | null;
+  negatedPieces?: IntPaths | null;
+}
+
+/**
+ * How far (µm) the closed outlines of two parts may differ and still share one NFP shape; the shared shapes are
+ * grown by this much more (plus rounding) so the shared no-fit polygons still contain every true one.
+ */
+const SHARE_TOL_UNITS = 4;
+const SHARE_EXTRA_MM = (2 * SHARE_TOL_UNITS + 5) / SCALE_PER_MM;
+
+/**
+ * Extra closing radius beyond the gap (mm): notches narrower than 2 × (gap + this) are closed for no-fit
+ * polygons. Why this loses (almost) nothing: a point of another part must stay at least the gap away from this
+ * part, so it can never lie inside a notch narrower than 2 × gap (every point there is within half the notch
+ * width of a wall); in a notch narrower than 2 × gap + 2 × NOTCH_SLACK_MM only a feature thinner than
+ * 2 × NOTCH_SLACK_MM could enter. Closing the notch also forbids positions near its mouth that are within the
+ * gap of the filled mouth but not of the part: a lens at most gap − √(gap² − w²/4) deep (0.4 mm for a 3 mm slot
+ * with a 3 mm gap). Validity never depends on this: the closed outline contains the true one, so its no-fit
+ * polygon contains the true no-fit polygon, and every placement is checked against the true outlines.
+ */
+export const NOTCH_SLACK_MM = 0.5;
+
+/**
+ * A piece whose convex hull exceeds its closed outline by at most this fraction of the outline's area uses the
+ * hull for no-fit polygons (slotted triangles of a 30-plane design: 12–17 %; squares with dog-boned slots: 3 %).
+ * The pockets lost are the wide notches only a small part could use; the hull is convex, so its no-fit polygons
+ * are single convex sums, and congruent pieces with different slots share one shape. Validity as above.
+ */
+export const HULL_NOTCH_FRACTION = 0.2;
+
+/**
+ * Drops hull vertices lying within tol units of the line through their neighbours (notch mouths on an edge,
+ * left by floating-point noise), so congruent pieces with different notches get the same hull. Moves the hull
+ * inward by at most tol, which SHARE_EXTRA_MM covers.
+ */
+function dropNearlyCollinear(path: IntPath, tol: number): IntPath {
+  const out = [...path];
+  for (let i = 0; out.length > 3 && i < out.length;) {
+    const a = out[(i - 1 + out.length) % out.length]!;
+    const b = out[i]!;
+    const c = out[(i + 1) % out.length]!;
+    const len = Math.hypot(c.X - a.X, c.Y - a.Y);
+    const dist = len === 0 ? 0 : Math.abs((b.X - a.X) * (c.Y - a.Y) - (b.Y - a.Y) * (c.X - a.X)) / len;
+    if (dist <= tol) out.splice(i, 1);
+    else i++;
+  }
+  return out;
+}
+
+/** The outline used for no-fit polygons: narrow notches closed, the hull for convex-ish pieces. */
+export function nfpOutline(outline: Point[], gapMm: number): IntPath {
+  const path = toIntPath(outline);
+  const hull = dropNearlyCollinear(toIntPath(convexHull(outline)), 1);
+  // The closed outline lies between the outline and its hull: a hull within the fraction of the outline's own
+  // area is within it of the closed outline's too, and the (slower) closing is skipped.
+  if (areaUnits(hull) <= (1 + HULL_NOTCH_FRACTION) * areaUnits(path)) return hull;
+  const closed = closePolygon(path, gapMm + NOTCH_SLACK_MM);
+  return areaUnits(hull) <= (1 + HULL_NOTCH_FRACTION) * areaUnits(closed) ? hull : closed;
+}
+
+function centroidOf(path: IntPath): { x: number; y: number } {
+  let a = 0;
+  let cx = 0;
+  let cy = 0;
+  for (let i = 0; i < path.length; i++) {
+    const p = path[i]!;
+    const q = path[(i + 1) % path.length]!;
+    const c = p.X * q.Y - q.X * p.Y;
+    a += c;
+    cx += (p.X + q.X) * c;
+    cy += (p.Y + q.Y) * c;
+  }
+  return { x: cx / (3 * a), y: cy / (3 * a) };
+}
+
+/**
+ * If `b` is `a` turned by some angle θ and shifted (same vertex cycle, every vertex within tol units), returns
+ * θ (degrees) and the shift (units) with b ≈ R(θ)·a + shift; otherwise null. Mirror images are not matched.
+ */
+function congruence(
+  a: IntPath,
+  b: IntPath,
+  tol: number,
+): { thetaDeg: number; ox: number; oy: number } | null {
+  const n = a.length;
+  if (b.length !== n || n < 3) return null;
+  const ca = centroidOf(a);
+  const cb = centroidOf(b);
+  const a0 = a[0]!;
+  const ra = Math.hypot(a0.X - ca.x, a0.Y - ca.y);
+  for (let i = 0; i < n; i++) {
+    const bi = b[i]!;
+    if (Math.abs(Math.hypot(bi.X - cb.x, bi.Y - cb.y) - ra) > tol) continue;
+    const t = Math.atan2(bi.Y - cb.y, bi.X - cb.x) - Math.atan2(a0.Y - ca.y, a0.X - ca.x);
+    const c = Math.cos(t);
+    const s = Math.sin(t);
+    let ok = true;
+    for (let j = 0; j < n && ok; j++) {
+      const p = a[j]!;
+      const q = b[(i + j) % n]!;
+      const x = (p.X - ca.x) * c - (p.Y - ca.y) * s + cb.x;
+      const y = (p.X - ca.x) * s + (p.Y - ca.y) * c + cb.y;
+      if (Math.abs(x - q.X) > tol || Math.abs(y - q.Y) > tol) ok = false;
+    }
+    if (!ok) continue;
+    const thetaDeg = (t * 180) / Math.PI;
+    return { thetaDeg, ox: cb.x - (ca.x * c - ca.y * s), oy: cb.y - (ca.x * s + ca.y * c) };
+  }
+  return null;
+}
+
 /** Builds and caches variants and no-fit polygons for one nesting run. */
 export class GeometryCache {
   private readonly variants = new Map<string, Variant>();
   private readonly nfps = new Map<string, NfpEntry>();
+  private readonly shapeNfps = new Map<string, NfpEntry>();
+  private readonly shapeVariants = new Map<string, ShapeVariant>();
+  /** Closed outlines (integer units, CCW, about the first part's origin) of the distinct NFP shapes. */
+  private readonly shapes: IntPath[] = [];
+  private readonly refOf: ShapeRef[];
   nfpCount = 0;
-
-  /** Index of the first part with the same outline: parts that differ only by id or group share geometry. */
-  private readonly shapeOf: number[];
 
   constructor(
     readonly parts: readonly PreparedPart[],
     readonly gapMm: number,
   ) {
-    const seen = new Map<string, number>();
-    this.shapeOf = parts.map((p) => {
-      const key = JSON.stringify(p.outline);
-      const first = seen.get(key);
-      if (first !== undefined) return first;
-      seen.set(key, p.index);
-      return p.index;
+    this.refOf = parts.map((p) => {
+      const closed = nfpOutline(p.outline, gapMm);
+      for (let k = 0; k < this.shapes.length; k++) {
+        const m = congruence(this.shapes[k]!, closed, SHARE_TOL_UNITS);
+        if (m) return { shape: k, ...m };
+      }
+      this.shapes.push(closed);
+      return { shape: this.shapes.length - 1, thetaDeg: 0, ox: 0, oy: 0 };
     });
+  }
+
+  /** Number of distinct NFP shapes (parts whose closed outlines are congruent share one). */
+  get shapeCount(): number {
+    return this.shapes.length;
   }
 
   variant(partIndex: number, rotationDeg: number): Variant {
@@ -205,8 +337,6 @@ export class GeometryCache {
     const rot = rotatePolygon(part.outline, deg);
     let poly = toIntPath(rot);
     if (signedArea(rot) < 0) poly = poly.reverse();
-    const grown = growPolygon(poly, this.gapMm + GAP_SAFETY_MM);
-    const checkGrown = growPolygon(poly, this.gapMm + GAP_SAFETY_MM / 2, 'round');
     const bounds = boundsOf(rot);
     const ubounds: IntBounds = {
       minX: Math.floor(bounds.minX * SCALE_PER_MM),
@@ -219,8 +349,6 @@ export class GeometryCache {
       partIndex,
       rotationDeg: deg,
       poly,
-      grown,
-      checkGrown,
       bounds,
       ubounds,
       areaMm2: part.areaMm2,
@@ -229,41 +357,151 @@ export class GeometryCache {
     return v;
   }
 
-  /** No-fit polygon of `moving` around `fixed` placed at the origin (translations that violate the gap). */
-  nfp(fixed: Variant, moving: Variant): NfpEntry {
-    const fs = this.shapeOf[fixed.partIndex] ?? fixed.partIndex;
-    const ms = this.shapeOf[moving.partIndex] ?? moving.partIndex;
-    const key = `${fs}@${fixed.rotationDeg}|${ms}@${moving.rotationDeg}`;
-    const hit = this.nfps.get(key);
+  private shapeVariant(shape: number, deg: number): ShapeVariant {
+    const key = `${shape}@${deg}`;
+    const hit = this.shapeVariants.get(key);
+    if (hit) return hit;
+    const base = this.shapes[shape]!;
+    const t = (deg * Math.PI) / 180;
+    const c = Math.cos(t);
+    const s = Math.sin(t);
+    const poly = base.map((q) => ({ X: Math.round(q.X * c - q.Y * s), Y: Math.round(q.X * s + q.Y * c) }));
+    const sv: ShapeVariant = { poly, grown: growPolygon(poly, this.gapMm + GAP_SAFETY_MM + SHARE_EXTRA_MM) };
+    this.shapeVariants.set(key, sv);
+    return sv;
+  }
+
+  /** No-fit polygon between two NFP shapes at the given rotations (fixed at the origin). */
+  private shapeNfp(fs: number, fixedDeg: number, ms: number, movingDeg: number): NfpEntry {
+    const key = `${fs}@${fixedDeg}|${ms}@${movingDeg}`;
+    const hit = this.shapeNfps.get(key);
     if (hit) return hit;
     // Rotating both parts by θ rotates their no-fit polygon by θ (Minkowski sums commute with rotation), so
     // only the relative rotation needs a Minkowski sum; the rest are rotated copies. Rounding the rotated
-    // vertices moves them by under 1 µm, well inside GAP_SAFETY_MM.
-    const relative = normaliseAngle(moving.rotationDeg - fixed.rotationDeg);
+    // vertices moves them by under 1 µm, inside the safety margins.
+    const relative = normaliseAngle(movingDeg - fixedDeg);
     let paths: IntPaths;
-    if (fixed.rotationDeg === 0 && (fs > ms || (fs === ms && relative > 180))) {
+    if (fixedDeg === 0 && (fs > ms || (fs === ms && relative > 180))) {
       // Mirror pair: NFP(F, M) = −NFP(M, F) up to the way the gap is grown (both contain the exact set of
-      // positions closer than the gap, the round-joined one), and NFP(M_r, F_0) is NFP(M_0, F_−r) turned by r.
-      const mirror = this.nfp(this.variant(ms, 0), this.variant(fs, normaliseAngle(-relative)));
+      // positions closer than the gap), and NFP(M_r, F_0) is NFP(M_0, F_−r) turned by r.
+      const mirror = this.shapeNfp(ms, 0, fs, normaliseAngle(-relative));
       paths = rotatePaths(mirror.paths, relative + 180);
-    } else if (fixed.rotationDeg === 0) {
+    } else if (fixedDeg === 0) {
+      const fixed = this.shapeVariant(fs, 0);
+      const moving = this.shapeVariant(ms, relative);
       const fp = grownPiecesOf(fixed);
       const mp = negatedPiecesOf(moving);
       paths = fp && mp ? noFitPolygonFromPieces(fp, mp) : noFitPolygon(fixed.grown, moving.poly);
       this.nfpCount++;
     } else {
-      const base = this.nfp(this.variant(fs, 0), this.variant(ms, relative));
-      paths = rotatePaths(base.paths, fixed.rotationDeg);
+      const base = this.shapeNfp(fs, 0, ms, relative);
+      paths = rotatePaths(base.paths, fixedDeg);
     }
     const entry = { paths, box: boxOfPaths(paths) };
+    this.shapeNfps.set(key, entry);
+    return entry;
+  }
+
+  /**
+   * No-fit polygon of `moving` around `fixed` placed at the origin: a set of translations containing every one
+   * that brings the parts closer than the gap (built from the parts' closed outlines, so slightly larger
+   * around narrow notches). Congruent parts share the Minkowski sums; only the shift differs.
+   */
+  nfp(fixed: Variant, moving: Variant): NfpEntry {
+    const key = `${fixed.key}|${moving.key}`;
+    const hit = this.nfps.get(key);
+    if (hit) return hit;
+    const a = this.refOf[fixed.partIndex]!;
+    const b = this.refOf[moving.partIndex]!;
+    const base = this.shapeNfp(
+      a.shape,
+      normaliseAngle(fixed.rotationDeg + a.thetaDeg),
+      b.shape,
+      normaliseAngle(moving.rotationDeg + b.thetaDeg),
+    );
+    // closed(part at r) = R(r + θ)·shape + R(r)·offset: the shift of the pair is R(ra)·oa − R(rb)·ob.
+    const ta = (fixed.rotationDeg * Math.PI) / 180;
+    const tb = (moving.rotationDeg * Math.PI) / 180;
+    const dx = Math.round(
+      a.ox * Math.cos(ta) - a.oy * Math.sin(ta) - (b.ox * Math.cos(tb) - b.oy * Math.sin(tb)),
+    );
+    const dy = Math.round(
+      a.ox * Math.sin(ta) + a.oy * Math.cos(ta) - (b.ox * Math.sin(tb) + b.oy * Math.cos(tb)),
+    );
+    const entry =
+      dx === 0 && dy === 0
+        ? base
+        : {
+            paths: translatePaths(base.paths, dx, dy),
+            box: {
+              minX: base.box.minX + dx,
+              minY: base.box.minY + dy,
+              maxX: base.box.maxX + dx,
+              maxY: base.box.maxY + dy,
+            },
+          };
     this.nfps.set(key, entry);
     return entry;
   }
 }
 
+/** Squared distance from point p to segment ab (coordinates relative, so the squares stay exact enough). */
+function pointSegmentDist2(px: number, py: number, ax: number, ay: number, bx: number, by: number): number {
+  const dx = bx - ax;
+  const dy = by - ay;
+  const l2 = dx * dx + dy * dy;
+  let t = l2 === 0 ? 0 : ((px - ax) * dx + (py - ay) * dy) / l2;
+  t = t < 0 ? 0 : t > 1 ? 1 : t;
+  const ex = px - ax - t * dx;
+  const ey = py - ay - t * dy;
+  return ex * ex + ey * ey;
+}
+
 /**
- * Direct placement check, independent of no-fit polygons: true when moving at (tx, ty) stays at least the gap
- * (less about 10 µm of arc tolerance) away from every item. Guards against the rare sliver artefacts of Clipper's Minkowski unions.
+ * True when the boundaries of a (shifted by (ax, ay)) and b (shifted by (bx, by)) are at least d apart
+ * (d > 0, integer units). Two segments at least d apart do not cross, so their distance is the least of the
+ * four endpoint-to-segment distances.
+ */
+function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: number, by: number, d: number) {
+  const d2 = d * d;
+  for (let i = 0; i < a.length; i++) {
+    const p = a[i]!;
+    const q = a[(i + 1) % a.length]!;
+    const p0x = p.X + ax;
+    const p0y = p.Y + ay;
+    const p1x = q.X + ax;
+    const p1y = q.Y + ay;
+    const minX = Math.min(p0x, p1x) - d;
+    const maxX = Math.max(p0x, p1x) + d;
+    const minY = Math.min(p0y, p1y) - d;
+    const maxY = Math.max(p0y, p1y) + d;
+    for (let j = 0; j < b.length; j++) {
+      const r = b[j]!;
+      const s = b[(j + 1) % b.length]!;
+      const r0x = r.X + bx;
+      const r0y = r.Y + by;
+      const r1x = s.X + bx;
+      const r1y = s.Y + by;
+      if ((r0x < minX && r1x < minX) || (r0x > maxX && r1x > maxX)) continue;
+      if ((r0y < minY && r1y < minY) || (r0y > maxY && r1y > maxY)) continue;
+      if (
+        pointSegmentDist2(p0x, p0y, r0x, r0y, r1x, r1y) < d2 ||
+        pointSegmentDist2(p1x, p1y, r0x, r0y, r1x, r1y) < d2 ||
+        pointSegmentDist2(r0x, r0y, p0x, p0y, p1x, p1y) < d2 ||
+        pointSegmentDist2(r1x, r1y, p0x, p0y, p1x, p1y) < d2
+      )
+        return false;
+    }
+  }
+  return true;
+}
+
+/**
+ * Direct placement check on the true outlines, independent of no-fit polygons: true when moving at (tx, ty)
+ * stays at least the gap (less 1 µm of rounding) away from every item and neither contains the other. With no
+ * gap it tests for an overlap of positive area instead (touching is allowed). Guards against the rare sliver
+ * artefacts of Clipper's Minkowski unions and checks the positions found on simplified (closed or hull)
+ * outlines.
  */
 export function clearOfItems(
   items: readonly { variant: Variant; tx: number; ty: number }[],
@@ -273,6 +511,7 @@ export function clearOfItems(
   gapMm: number,
 ): boolean {
   const reach = Math.ceil((gapMm + 1) * SCALE_PER_MM);
+  const d = gapMm * SCALE_PER_MM - 1;
   const mb = moving.ubounds;
   let path: IntPath | null = null;
   for (const it of items) {
@@ -284,8 +523,22 @@ export function clearOfItems(
       ty + mb.maxY + reach < it.ty + b.minY
     )
       continue;
+    if (d > 0) {
+      if (!boundariesApart(it.variant.poly, it.tx, it.ty, moving.poly, tx, ty, d)) return false;
+      // Boundaries apart: the outlines are disjoint unless one lies inside the other.
+      const m0 = moving.poly[0]!;
+      const i0 = it.variant.poly[0]!;
+      if (pointInPath(m0.X + tx - it.tx, m0.Y + ty - it.ty, it.variant.poly) !== 0) return false;
+      if (pointInPath(i0.X + it.tx - tx, i0.Y + it.ty - ty, moving.poly) !== 0) return false;
+      continue;
+    }
     path ??= moving.poly.map((q) => ({ X: q.X + tx, Y: q.Y + ty }));
-    if (intersectPaths(translatePaths(it.variant.checkGrown, it.tx, it.ty), [path]).length > 0) return false;
+    const grown = (it.variant.checkGrown ??= growPolygon(
+      it.variant.poly,
+      gapMm + GAP_SAFETY_MM / 2,
+      'round',
+    ));
+    if (intersectPaths(translatePaths(grown, it.tx, it.ty), [path]).length > 0) return false;
   }
   return true;
 }
@@ -297,7 +550,7 @@ function piecesOrNull(path: IntPath): IntPaths | null {
   return Math.abs(total - areaUnits(path)) <= 1e-9 * Math.abs(areaUnits(path)) + 1 ? pieces : null;
 }
 
-function grownPiecesOf(v: Variant): IntPaths | null {
+function grownPiecesOf(v: ShapeVariant): IntPaths | null {
   if (v.grownPieces === undefined) {
     const outer = v.grown.filter((p) => areaUnits(p) > 0);
     v.grownPieces = outer.length === 1 ? piecesOrNull(outer[0]!) : null;
@@ -305,7 +558,7 @@ function grownPiecesOf(v: Variant): IntPaths | null {
   return v.grownPieces;
 }
 
-function negatedPiecesOf(v: Variant): IntPaths | null {
+function negatedPiecesOf(v: ShapeVariant): IntPaths | null {
   if (v.negatedPieces === undefined)
     v.negatedPieces = piecesOrNull(v.poly.map((q) => ({ X: -q.X, Y: -q.Y })));
   return v.negatedPieces;

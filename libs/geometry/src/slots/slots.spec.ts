@@ -72,6 +72,31 @@ describe('slot pairs', () => {
     }
   });
 
+  it('where either end would do, each piece takes the half ahead of it with its own centre on its left', () => {
+    // Checked from the report alone: for piece a, walking from b's opening toward a's opening must keep
+    // a's centre on the left seen from outside (normal up), and likewise for b the other way.
+    const r = buildModel(cubeSquares45()).report;
+    const byId = new Map(r.pieces.map((p) => [p.id, p]));
+    const cross = (u: number[], v: number[]) => [
+      u[1]! * v[2]! - u[2]! * v[1]!,
+      u[2]! * v[0]! - u[0]! * v[2]!,
+      u[0]! * v[1]! - u[1]! * v[0]!,
+    ];
+    const dot = (u: number[], v: number[]) => u.reduce((s, x, i) => s + x * v[i]!, 0);
+    for (const c of r.crossings) {
+      for (const [id, from, to] of [
+        [c.a, c.slotEndB!, c.slotEndA!],
+        [c.b, c.slotEndA!, c.slotEndB!],
+      ] as const) {
+        const p = byId.get(id)!;
+        const walk = to.map((x, i) => x - from[i]!);
+        const mid = to.map((x, i) => (x + from[i]!) / 2);
+        const toCentre = p.centreMm.map((x, i) => x - mid[i]!);
+        expect(dot(cross(p.normal, walk), toCentre)).toBeGreaterThan(0);
+      }
+    }
+  });
+
   it.each([
     ['octahedron with hexagons', octahedronHexagons()],
     ['cube with squares turned 45°', cubeSquares45()],
@@ -111,7 +136,12 @@ describe('slot pairs', () => {
       return kinds;
     };
     const m = buildModel(spec);
-    expect(m.report.errors).toEqual([]);
+    // The top and bottom stars touch no other piece: they have no slot and would fall out (an error),
+    // which does not change the other pieces.
+    expect(m.report.errors.map((e) => [e.code, e.pieces])).toEqual([
+      ['PIECE.NO_SLOT', ['P1']],
+      ['PIECE.NO_SLOT', ['P12']],
+    ]);
     for (const set of byKind(m).values()) expect(set.size).toBe(1);
     // The same solid uploaded as OBJ text (scaled, shifted, rounded to 6 decimals) builds the same pieces.
     const obj = m.solid.vertices

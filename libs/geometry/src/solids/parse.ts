@@ -91,12 +91,5 @@ export function parseSolidText(format: SolidTextFormat, text: string, name?: str
   if (points.some((p) => !p.every((c) => typeof c === 'number' && Number.isFinite(c)))) {
     throw new SolidError('SOLID.NOT_FINITE', 'a vertex coordinate is missing, NaN or infinite');
   }
-  const solid = solidFromPoints(`uploaded-${format}`, name ?? `uploaded-${format}`, points);
-  if (solid.faces.length > MAX_SOLID_FACES) {
-    throw new SolidError(
-      'SOLID.TOO_MANY_FACES',
-      `the hull has ${solid.faces.length} faces after merging coplanar facets; at most ${MAX_SOLID_FACES} are accepted`,
-    );
-  }
-  return solid;
+  return solidFromPoints(`uploaded-${format}`, name ?? `uploaded-${format}`, points, MAX_SOLID_FACES);
 }

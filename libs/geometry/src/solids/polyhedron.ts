@@ -52,7 +52,12 @@ export class SolidError extends Error {
  * solid's rotations carry first vertices onto each other (see alignFirstVertices). The result depends
  * only on the points and their input order.
  */
-export function solidFromPoints(id: string, name: string, input: readonly Vec3[]): Solid {
+export function solidFromPoints(
+  id: string,
+  name: string,
+  input: readonly Vec3[],
+  maxFaces = Infinity,
+): Solid {
   for (const p of input) {
     if (!p.every((c) => Number.isFinite(c))) {
       throw new SolidError('SOLID.NOT_FINITE', 'a vertex coordinate is NaN or infinite');
@@ -85,6 +90,12 @@ export function solidFromPoints(id: string, name: string, input: readonly Vec3[]
     if (!g) {
       g = { n: tri.n, d: dot3(tri.n, tri.a), pts: new Set() };
       groups.push(g);
+      if (groups.length > maxFaces) {
+        throw new SolidError(
+          'SOLID.TOO_MANY_FACES',
+          `the hull has more than ${maxFaces} faces after merging coplanar facets; at most ${maxFaces} are accepted`,
+        );
+      }
     }
     for (const i of tri.t) g.pts.add(i);
   }

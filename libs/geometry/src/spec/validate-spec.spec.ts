@@ -56,6 +56,71 @@ describe('validateSpec', () => {
     expect(fields({})).toEqual(['machine', 'piece', 'scale', 'solid', 'stock']);
   });
 
+  it('accepts stock sheet, margin, gap, colours and the fit scales, with defaults', () => {
+    const v = validateSpec({
+      ...octahedronHexagons(),
+      scale: { by: 'fitSheets', sheets: 3 },
+      stock: { thicknessMm: 3, sheet: { widthMm: 600, heightMm: 400 } },
+      colours: { count: 2 },
+    });
+    expect(v.ok).toBe(true);
+    if (v.ok) {
+      expect(v.spec.sheet).toEqual({ widthMm: 600, heightMm: 400, marginMm: 5, gapMm: 3 });
+      expect(v.spec.colours).toEqual({ count: 2, rule: 'neighbour-distinct' });
+      expect(v.spec.scale).toEqual({ by: 'fitSheets', sheets: 3 });
+    }
+    const bed = validateSpec({
+      ...octahedronHexagons(),
+      scale: { by: 'fitBed' },
+      bed: { widthMm: 300, heightMm: 200 },
+      colours: { names: ['Saffron', 'Teal'], rule: 'opposite-match' },
+    });
+    expect(bed.ok && bed.spec.colours).toEqual({
+      count: 2,
+      rule: 'opposite-match',
+      names: ['Saffron', 'Teal'],
+    });
+  });
+
+  it('names each bad stock, colour and fit-scale field', () => {
+    const sheet = { widthMm: 600, heightMm: 400 };
+    const o = octahedronHexagons();
+    expect(fields({ ...o, stock: { thicknessMm: 3, sheet: { widthMm: -1, heightMm: 400 } } })).toEqual([
+      'stock.sheet.widthMm',
+    ]);
+    expect(fields({ ...o, stock: { thicknessMm: 3, sheet: { widthMm: 600 } } })).toEqual([
+      'stock.sheet.heightMm',
+    ]);
+    expect(fields({ ...o, stock: { thicknessMm: 3, sheet, marginMm: -2, gapMm: 'x' } })).toEqual([
+      'stock.gapMm',
+      'stock.marginMm',
+    ]);
+    expect(fields({ ...o, stock: { thicknessMm: 3, sheet, marginMm: 200 } })).toEqual(['stock.marginMm']);
+    expect(fields({ ...o, stock: { thicknessMm: 3, gapMm: 2 } })).toEqual(['stock.gapMm']);
+    expect(fields({ ...o, colours: { count: 0 } })).toEqual(['colours.count']);
+    expect(fields({ ...o, colours: { count: 13 } })).toEqual(['colours.count']);
+    expect(fields({ ...o, colours: { count: 2, rule: 'rainbow' } })).toEqual(['colours.rule']);
+    expect(fields({ ...o, colours: { count: 3, names: ['a', 'b'] } })).toEqual(['colours.names']);
+    expect(fields({ ...o, colours: 4 })).toEqual(['colours']);
+    expect(fields({ ...o, scale: { by: 'fitSheets', sheets: 2 } })).toEqual(['stock.sheet']);
+    expect(fields({ ...o, scale: { by: 'fitSheets' }, stock: { thicknessMm: 3, sheet } })).toEqual([
+      'scale.sheets',
+    ]);
+    expect(
+      fields({ ...o, scale: { by: 'fitSheets', sheets: 0.5 }, stock: { thicknessMm: 3, sheet } }),
+    ).toEqual(['scale.sheets']);
+    expect(
+      fields({
+        ...o,
+        scale: { by: 'fitSheets', sheets: 2 },
+        stock: { thicknessMm: 3, sheet },
+        colours: { count: 3 },
+      }),
+    ).toEqual(['scale.sheets']);
+    expect(fields({ ...o, scale: { by: 'fitBed' } })).toEqual(['bed']);
+    expect(fields({ ...o, scale: { by: 'fitBed', mm: 100 }, bed: sheet })).toEqual(['scale.mm']);
+  });
+
   it('refuses compounds such as {6/2} with a message', () => {
     const v = validateSpec({ ...octahedronHexagons(), piece: { sides: 6, step: 2, size: 1 } });
     expect(v.ok ? '' : v.errors[0]?.messages.join()).toMatch(/compound/);

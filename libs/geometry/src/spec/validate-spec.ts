@@ -1,6 +1,8 @@
 import type {
   BedSpec,
+  ColourPlanRule,
   DesignSpec,
+  DesignSpecInput,
   FieldError,
   MachineSpec,
   ScaleBy,
@@ -14,8 +16,11 @@ import { checkPieceShape, type PieceShape } from '../pieces/shape';
 export interface ResolvedSpec {
   solid: string | UploadedSolid;
   piece: PieceShape;
-  scale: { by: ScaleBy; mm: number };
+  scale: ResolvedScale;
   stock: { thicknessMm: number; flexible: boolean };
+  /** Sheet of stock with margin and gap; null when the spec gives no sheet. */
+  sheet: { widthMm: number; heightMm: number; marginMm: number; gapMm: number } | null;
+  colours: { count: number; rule: ColourPlanRule; names?: string[] } | null;
   machine: MachineSpec;
   fitMm: number;
   depthClearanceMm: number;
@@ -23,12 +28,29 @@ export interface ResolvedSpec {
   bed: BedSpec | null;
 }
 
+export type ResolvedScale =
+  { by: ScaleBy; mm: number } | { by: 'fitSheets'; sheets: number } | { by: 'fitBed' };
+
 export type SpecValidation = { ok: true; spec: ResolvedSpec } | { ok: false; errors: FieldError[] };
 
 /** Largest piece size accepted (circumradius ÷ plane distance). */
 export const MAX_PIECE_SIZE = 50;
 /** Largest model dimension accepted, mm. */
 export const MAX_SCALE_MM = 10_000;
+/** Most sheets a fitSheets scale may ask for. */
+export const MAX_FIT_SHEETS = 50;
+/** Most colours of stock. */
+export const MAX_COLOURS = 12;
+/** Largest sheet side accepted, mm. */
+export const MAX_SHEET_MM = 10_000;
+/** Margin and gap used when the spec gives a sheet but not these, mm. */
+export const DEFAULT_SHEET_MARGIN_MM = 5;
+export const DEFAULT_SHEET_GAP_MM = 3;
+const COLOUR_RULE_NAMES: readonly ColourPlanRule[] = [
+  'neighbour-distinct',
+  'vertex-distinct',
+  'opposite-match',
+];
 
 class Collector {
   readonly errors: FieldError[] = [];
@@ -103,6 +125,7 @@ export function validateSpec(input: unknown): SpecValidation {
     'depthClearanceMm',
     'minWebMm',
     'bed',
+    'colours',
   ]);
 
   let solid: string | UploadedSolid = '';
@@ -149,25 +172,65 @@ export function validateSpec(input: unknown): SpecValidation {
     }
   }
 
-  const scale = { by: 'planeDistance' as ScaleBy, mm: NaN };
+  let scale: ResolvedScale = { by: 'planeDistance', mm: NaN };
   const sc = section(c, input, 'scale');
   if (sc) {
-    allowOnly(c, sc, 'scale.', ['by', 'mm']);
-    if (sc.by !== 'planeDistance' && sc.by !== 'diameter' && sc.by !== 'pieceCircumradius') {
-      c.add('scale.by', 'scale.by must be "planeDistance", "diameter" or "pieceCircumradius"');
-    } else scale.by = sc.by;
-    scale.mm = num(c, sc, 'mm', 'scale.', { minExclusive: 0, max: MAX_SCALE_MM });
+    if (sc.by === 'planeDistance' || sc.by === 'diameter' || sc.by === 'pieceCircumradius') {
+      allowOnly(c, sc, 'scale.', ['by', 'mm']);
+      scale = { by: sc.by, mm: num(c, sc, 'mm', 'scale.', { minExclusive: 0, max: MAX_SCALE_MM }) };
+    } else if (sc.by === 'fitSheets') {
+      allowOnly(c, sc, 'scale.', ['by', 'sheets']);
+      scale = {
+        by: 'fitSheets',
+        sheets: num(c, sc, 'sheets', 'scale.', { integer: true, min: 1, max: MAX_FIT_SHEETS }),
+      };
+      if (!isObject(input.stock) || input.stock.sheet === undefined)
+        c.add('stock.sheet', 'stock.sheet is required when scale.by is "fitSheets"');
+    } else if (sc.by === 'fitBed') {
+      allowOnly(c, sc, 'scale.', ['by']);
+      scale = { by: 'fitBed' };
+      if (input.bed === undefined) c.add('bed', 'bed is required when scale.by is "fitBed"');
+    } else {
+      if (sc.mm !== undefined) num(c, sc, 'mm', 'scale.', { minExclusive: 0, max: MAX_SCALE_MM });
+      c.add(
+        'scale.by',
+        'scale.by must be "planeDistance", "diameter", "pieceCircumradius", "fitSheets" or "fitBed"',
+      );
+    }
   }
 
   const stock = { thicknessMm: NaN, flexible: false };
+  let sheet: ResolvedSpec['sheet'] = null;
   const st = section(c, input, 'stock');
   if (st) {
-    allowOnly(c, st, 'stock.', ['thicknessMm', 'flexible']);
+    allowOnly(c, st, 'stock.', ['thicknessMm', 'flexible', 'sheet', 'marginMm', 'gapMm']);
     stock.thicknessMm = num(c, st, 'thicknessMm', 'stock.', { minExclusive: 0, max: 100 });
     if (st.flexible !== undefined && typeof st.flexible !== 'boolean') {
       c.add('stock.flexible', 'stock.flexible must be true or false');
     }
     stock.flexible = st.flexible === true;
+    if (st.sheet !== undefined) {
+      const sh = st.sheet;
+      if (!isObject(sh)) c.add('stock.sheet', 'stock.sheet must be {"widthMm", "heightMm"}');
+      else {
+        allowOnly(c, sh, 'stock.sheet.', ['widthMm', 'heightMm']);
+        const opts = { minExclusive: 0, max: MAX_SHEET_MM };
+        const widthMm = num(c, sh, 'widthMm', 'stock.sheet.', opts);
+        const heightMm = num(c, sh, 'heightMm', 'stock.sheet.', opts);
+        const marginMm = num(c, st, 'marginMm', 'stock.', {
+          min: 0,
+          max: 1000,
+          optional: DEFAULT_SHEET_MARGIN_MM,
+        });
+        const gapMm = num(c, st, 'gapMm', 'stock.', { min: 0, max: 1000, optional: DEFAULT_SHEET_GAP_MM });
+        if (widthMm > 0 && heightMm > 0 && 2 * marginMm >= Math.min(widthMm, heightMm))
+          c.add('stock.marginMm', 'stock.marginMm leaves no room on the sheet');
+        sheet = { widthMm, heightMm, marginMm, gapMm };
+      }
+    } else {
+      for (const k of ['marginMm', 'gapMm'])
+        if (st[k] !== undefined) c.add(`stock.${k}`, `stock.${k} needs stock.sheet`);
+    }
   }
 
   let machine: MachineSpec = { kind: 'laser', kerfMm: 0 };
@@ -203,8 +266,52 @@ export function validateSpec(input: unknown): SpecValidation {
       };
     }
   }
+  let colours: ResolvedSpec['colours'] = null;
+  if (input.colours !== undefined) {
+    const co = section(c, input, 'colours');
+    if (co) {
+      allowOnly(c, co, 'colours.', ['count', 'rule', 'names']);
+      let names: string[] | undefined;
+      if (co.names !== undefined) {
+        const ok =
+          Array.isArray(co.names) &&
+          co.names.length >= 1 &&
+          co.names.length <= MAX_COLOURS &&
+          co.names.every((x) => typeof x === 'string' && x.trim().length > 0 && x.length <= 60);
+        if (ok) names = co.names as string[];
+        else c.add('colours.names', `colours.names must be 1 to ${MAX_COLOURS} names of 1 to 60 characters`);
+      }
+      const count = num(c, co, 'count', 'colours.', {
+        integer: true,
+        min: 1,
+        max: MAX_COLOURS,
+        ...(names ? { optional: names.length } : {}),
+      });
+      if (names && count !== names.length)
+        c.add('colours.names', `colours.names has ${names.length} names but colours.count is ${count}`);
+      let rule: ColourPlanRule = 'neighbour-distinct';
+      if (co.rule !== undefined) {
+        if (COLOUR_RULE_NAMES.includes(co.rule as ColourPlanRule)) rule = co.rule as ColourPlanRule;
+        else
+          c.add(
+            'colours.rule',
+            `colours.rule must be one of ${COLOUR_RULE_NAMES.map((r) => `"${r}"`).join(', ')}`,
+          );
+      }
+      colours = { count, rule, ...(names ? { names } : {}) };
+    }
+  }
+  if (scale.by === 'fitSheets' && colours && scale.sheets < colours.count) {
+    c.add(
+      'scale.sheets',
+      `scale.sheets must be at least colours.count (${colours.count}): each colour is cut from its own sheets`,
+    );
+  }
   if (c.errors.length) return { ok: false, errors: c.errors };
-  return { ok: true, spec: { solid, piece, scale, stock, machine, fitMm, depthClearanceMm, minWebMm, bed } };
+  return {
+    ok: true,
+    spec: { solid, piece, scale, stock, sheet, colours, machine, fitMm, depthClearanceMm, minWebMm, bed },
+  };
 }
 
 /** Thrown by buildModel for a spec that fails validateSpec; carries the field errors. */
@@ -218,5 +325,5 @@ export class SpecValidationError extends Error {
   }
 }
 
-/** The spec type accepted from callers (defaults optional). */
-export type { DesignSpec };
+/** The spec types accepted from callers (defaults optional). */
+export type { DesignSpec, DesignSpecInput };

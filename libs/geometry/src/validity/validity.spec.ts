@@ -69,6 +69,60 @@ describe('validity report', () => {
     expect(codes(r.errors)).toEqual(['DESIGN.NO_CROSSINGS']);
   });
 
+  it('reports pieces with no slot as errors: nothing holds them', () => {
+    // A pentagonal antiprism with {5/2} stars at size 0.9 (our own lamp design): the side stars hold
+    // each other, the top and bottom stars touch nothing, so they would fall out.
+    const r = buildModel(
+      design({
+        solid: 'antiprism-5',
+        piece: { sides: 5, step: 2, rotationDeg: 18, size: 0.9 },
+        stock: { thicknessMm: 0.5, flexible: true },
+      }),
+    ).report;
+    expect(r.errors.map((e) => [e.code, e.pieces])).toEqual([
+      ['PIECE.NO_SLOT', ['P1']],
+      ['PIECE.NO_SLOT', ['P12']],
+    ]);
+    expect(r.pieces.filter((p) => p.slotCount === 0).map((p) => p.id)).toEqual(['P1', 'P12']);
+    // The other ten hold each other: no separate-groups error on top.
+    expect(codes(r.errors)).not.toContain('DESIGN.NOT_CONNECTED');
+  });
+
+  it('reports a model that comes apart in groups as an error', () => {
+    // Cube planes with triangles at rotation 0, size 1.5 (our own design): every piece has slots, but the
+    // crossings join the pieces in two groups of three.
+    const r = buildModel(design({ solid: 'cube', piece: { sides: 3, size: 1.5 } })).report;
+    expect(r.pieces.every((p) => p.slotCount > 0)).toBe(true);
+    // Independent grouping from the report's crossings (breadth-first search over a–b links).
+    const links = new Map<string, string[]>();
+    for (const c of r.crossings) {
+      links.set(c.a, [...(links.get(c.a) ?? []), c.b]);
+      links.set(c.b, [...(links.get(c.b) ?? []), c.a]);
+    }
+    const seen = new Set<string>();
+    const groups: string[][] = [];
+    for (const p of r.pieces) {
+      if (seen.has(p.id)) continue;
+      const group: string[] = [];
+      const queue = [p.id];
+      seen.add(p.id);
+      while (queue.length) {
+        const id = queue.shift() as string;
+        group.push(id);
+        for (const n of links.get(id) ?? []) {
+          if (seen.has(n)) continue;
+          seen.add(n);
+          queue.push(n);
+        }
+      }
+      groups.push(group.sort());
+    }
+    expect(groups.length).toBe(2);
+    expect(codes(r.errors)).toEqual(['DESIGN.NOT_CONNECTED']);
+    const loose = r.errors[0]?.pieces.sort();
+    expect(groups.map((g) => g.join())).toContain(loose?.join());
+  });
+
   it('warns when a crossing is shorter than its slot is wide', () => {
     // Derived: at size 1.02 the squares cross 2 × 80 × 0.02 = 3.2 mm, less than 6 mm stock.
     const r = buildModel(cubeSquares45(1.02, { stock: { thicknessMm: 6 } })).report;

@@ -1,11 +1,13 @@
 import type { DesignIssue } from '@kerfwright/contracts';
-import { type Vec2, add2, scale2, toRad } from '../math/vec';
-import { type Polygon, convexHull2, pointSegmentDistance, segmentSegmentDistance } from '../math/polygon';
+import { type Vec2, add2, scale2 } from '../math/vec';
+import { type Polygon, pointSegmentDistance, segmentSegmentDistance } from '../math/polygon';
+import { bestFitRatio } from '../scale/fit-ratio';
 import { type Slot } from '../slots/slots';
 
 /** Least material between a slot's inner part and the piece's edge, mm. The inner part is the deeper
- * half of both walls plus the bottom; the edge is the piece shape's outline before slotting. */
-export function slotWeb(shape: Polygon, s: Slot): number {
+ * half of both walls plus the bottom; the edge is the piece shape's outline before slotting. Distances
+ * of `limit` or more are not searched: the result is then `limit`. */
+export function slotWeb(shape: Polygon, s: Slot, limit = Infinity): number {
   const n: Vec2 = [-s.axis[1], s.axis[0]];
   const h = s.width / 2;
   const mid = add2(s.end, scale2(s.axis, s.depth / 2));
@@ -20,7 +22,7 @@ export function slotWeb(shape: Polygon, s: Slot): number {
   const cx = (s.end[0] + bottom[0]) / 2;
   const cy = (s.end[1] + bottom[1]) / 2;
   const rad = Math.sqrt((s.depth / 2) ** 2 + h * h);
-  let best = Infinity;
+  let best = limit;
   const m = shape.length;
   for (let k = 0; k < m; k++) {
     const a = shape[k] as Vec2;
@@ -56,28 +58,9 @@ export function slotGap(s: Slot, t: Slot, limit = Infinity): number {
   return best;
 }
 
-/** Whether a contour fits a width × height bed in some orientation (tried every half degree). */
+/** Whether a contour fits a width × height bed in some orientation (every 0.5°, refined: see bestFitRatio). */
 export function fitsBed(outline: Polygon, widthMm: number, heightMm: number): boolean {
-  const hull = convexHull2(outline);
-  for (let k = 0; k < 360; k++) {
-    const a = toRad(k / 2);
-    const c = Math.cos(a);
-    const s = Math.sin(a);
-    let x0 = Infinity;
-    let x1 = -Infinity;
-    let y0 = Infinity;
-    let y1 = -Infinity;
-    for (const p of hull) {
-      const x = p[0] * c - p[1] * s;
-      const y = p[0] * s + p[1] * c;
-      x0 = Math.min(x0, x);
-      x1 = Math.max(x1, x);
-      y0 = Math.min(y0, y);
-      y1 = Math.max(y1, y);
-    }
-    if (x1 - x0 <= widthMm && y1 - y0 <= heightMm) return true;
-  }
-  return false;
+  return bestFitRatio(outline, widthMm, heightMm).ratio <= 1 + 1e-9;
 }
 
 /** Collects design errors (which block files) and warnings (which do not). */

@@ -1,6 +1,6 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Type } from 'class-transformer';
-import { IsIn, IsInt, IsObject, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { IsIn, IsInt, IsObject, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
+import { PageQueryDto } from '../../common/paging';
 import { type CreateDesignRequest, type DesignSpec, type UpdateDesignRequest } from '@kerfwright/contracts';
 
 const SPEC_DOC = {
@@ -42,9 +42,7 @@ export class UpdateDesignDto implements UpdateDesignRequest {
 
 export const DESIGN_SORT_FIELDS = ['name', 'createdAt', 'updatedAt'] as const;
 
-export class ListDesignsQuery {
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) page?: number;
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize?: number;
+export class ListDesignsQuery extends PageQueryDto {
   @ApiPropertyOptional({ enum: [...DESIGN_SORT_FIELDS, ...DESIGN_SORT_FIELDS.map((f) => `-${f}`)] })
   @IsOptional()
   @IsIn([...DESIGN_SORT_FIELDS, ...DESIGN_SORT_FIELDS.map((f) => `-${f}`)])

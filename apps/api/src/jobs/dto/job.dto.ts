@@ -24,6 +24,7 @@ import {
   SCALE_BY,
   type ScaleBy,
 } from '@kerfwright/contracts';
+import { PageQueryDto } from '../../common/paging';
 
 export class CreateJobDto {
   @ApiProperty() @IsUUID() designId: string;
@@ -122,9 +123,7 @@ export class RecordCutDto extends JobActionDto {
 
 export const JOB_SORT_FIELDS = ['createdAt', 'updatedAt', 'state'] as const;
 
-export class ListJobsQuery {
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) page?: number;
-  @ApiPropertyOptional() @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize?: number;
+export class ListJobsQuery extends PageQueryDto {
   @ApiPropertyOptional({ enum: [...JOB_SORT_FIELDS, ...JOB_SORT_FIELDS.map((f) => `-${f}`)] })
   @IsOptional()
   @IsIn([...JOB_SORT_FIELDS, ...JOB_SORT_FIELDS.map((f) => `-${f}`)])

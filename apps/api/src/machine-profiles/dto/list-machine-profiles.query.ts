@@ -8,23 +8,9 @@ import {
   PROFILE_VERSION_STATES,
   type ProfileVersionState,
 } from '@kerfwright/contracts';
+import { PageQueryDto } from '../../common/paging';
 
-export class ListMachineProfilesQueryDto implements ListMachineProfilesQuery {
-  @ApiPropertyOptional({ minimum: 1, default: 1 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt()
-  @Min(1)
-  page?: number;
-
-  @ApiPropertyOptional({ minimum: 1, maximum: 200, default: 25 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt()
-  @Min(1)
-  @Max(200)
-  pageSize?: number;
-
+export class ListMachineProfilesQueryDto extends PageQueryDto implements ListMachineProfilesQuery {
   @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
   @IsOptional()
   @IsIn(MACHINE_PROFILE_KINDS)

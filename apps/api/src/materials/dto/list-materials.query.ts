@@ -1,6 +1,6 @@
 import { ApiPropertyOptional } from '@nestjs/swagger';
-import { Transform, Type } from 'class-transformer';
-import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
+import { Transform } from 'class-transformer';
+import { IsBoolean, IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
 import {
   type ListMaterialsQuery,
   MATERIAL_FAMILIES,
@@ -8,25 +8,11 @@ import {
   type MaterialFamily,
   type MaterialSortField,
 } from '@kerfwright/contracts';
+import { PageQueryDto } from '../../common/paging';
 
 const SORTS = [...MATERIAL_SORT_FIELDS, ...MATERIAL_SORT_FIELDS.map((f) => `-${f}` as const)];
 
-export class ListMaterialsQueryDto implements ListMaterialsQuery {
-  @ApiPropertyOptional({ minimum: 1, default: 1 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt()
-  @Min(1)
-  page?: number;
-
-  @ApiPropertyOptional({ minimum: 1, maximum: 200, default: 25 })
-  @IsOptional()
-  @Type(() => Number)
-  @IsInt()
-  @Min(1)
-  @Max(200)
-  pageSize?: number;
-
+export class ListMaterialsQueryDto extends PageQueryDto implements ListMaterialsQuery {
   @ApiPropertyOptional({ enum: SORTS, default: 'name', description: "A field; prefix '-' for descending" })
   @IsOptional()
   @IsIn(SORTS)

@@ -1,13 +1,11 @@
-import { Type } from 'class-transformer';
-import { IsBoolean, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
+import { IsBoolean, IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
 import { ROLES, type Role } from '@kerfwright/contracts';
 import { Transform } from 'class-transformer';
+import { PageQueryDto } from '../../common/paging';
 
 export const USER_SORT_FIELDS = ['email', 'displayName', 'role', 'createdAt'] as const;
 
-export class ListUsersQuery {
-  @IsOptional() @Type(() => Number) @IsInt() @Min(1) page?: number;
-  @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize?: number;
+export class ListUsersQuery extends PageQueryDto {
   /** A field name, optionally prefixed with '-' for descending order. */
   @IsOptional()
   @IsIn([...USER_SORT_FIELDS, ...USER_SORT_FIELDS.map((f) => `-${f}`)])

@@ -7,7 +7,7 @@ import { useForm } from 'react-hook-form';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { type RegisterInput, registerInputSchema, useRegister } from '../api/register';
-import { FormErrorAlert } from './form-error-alert';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 
 /** A new member's account. Everyone who registers starts as a hobbyist; a supervisor can change that. */
 export function RegisterForm({ onSuccess }: { onSuccess: () => void }) {

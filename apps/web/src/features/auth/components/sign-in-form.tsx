@@ -6,7 +6,7 @@ import { useForm } from 'react-hook-form';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { type LoginInput, loginInputSchema, useLogin } from '../api/login';
-import { FormErrorAlert } from './form-error-alert';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 
 /** E-mail and password; on success the caller decides where to go. */
 export function SignInForm({ onSuccess }: { onSuccess: () => void }) {

@@ -1,5 +1,5 @@
 import Alert from '@mui/material/Alert';
-import { errorMessage } from '../../../lib/api-client';
+import { errorMessage } from '../../lib/api-client';
 
 /** The API's answer when it is about the whole form rather than one field. */
 export function FormErrorAlert({ error }: { error: unknown }) {

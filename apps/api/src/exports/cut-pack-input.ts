@@ -1,0 +1,91 @@
+import { Injectable } from '@nestjs/common';
+import { type EntityManager } from 'typeorm';
+import { type CutPackInput, type MaterialFamily, noticeApplies } from '@kerfwright/contracts';
+import { Design } from '../designs/design.entity';
+import { Job } from '../jobs/job.entity';
+import { DEFAULT_GAP_MM, DEFAULT_MARGIN_MM } from '../jobs/job-preparation.service';
+import { MachineProfilesService } from '../machine-profiles/machine-profiles.service';
+import { Material } from '../materials/material.entity';
+import { SafetyService } from '../safety/safety.service';
+import { User } from '../users/user.entity';
+import { ExportFailure } from './export-failure';
+
+/**
+ * Everything the geometry library needs to build a job's cut pack, read from the job as it was prepared
+ * and approved: its spec and sheet, colours and quantity, the material, the approved profile version's
+ * settings for that material, and the safety notices that apply.
+ */
+@Injectable()
+export class CutPackInputService {
+  constructor(
+    private readonly profiles: MachineProfilesService,
+    private readonly safety: SafetyService,
+  ) {}
+
+  async forJob(m: EntityManager, jobId: string, createdAt: Date): Promise<CutPackInput> {
+    const job = await m.findOne(Job, { where: { id: jobId } });
+    if (!job) throw new ExportFailure('EXPORT.JOB_GONE', 'The job no longer exists');
+    if (!job.preparation || !job.materialId || !job.profileVersionId) {
+      throw new ExportFailure('EXPORT.JOB_NOT_PREPARED', 'The job has no preparation to build files from');
+    }
+    const version = await this.profiles.getApprovedVersion(job.profileVersionId, m).catch((err: unknown) => {
+      throw ExportFailure.from(err, 'EXPORT.PROFILE_NOT_APPROVED');
+    });
+    const material = await m.findOne(Material, { where: { id: job.materialId } });
+    if (!material) throw new ExportFailure('EXPORT.MATERIAL_GONE', 'The job’s material no longer exists');
+    const setting = version.settings.find((s) => s.materialId === material.id);
+    if (!setting) {
+      throw new ExportFailure(
+        'EXPORT.NO_MACHINE_SETTINGS',
+        `The machine profile version has no settings for ${material.name}`,
+      );
+    }
+    const design = await m.findOne(Design, { where: { id: job.designId } });
+    const requester = await m.findOne(User, { where: { id: job.requesterId } });
+    const sheet = job.preparation.sheet;
+    const stock =
+      material.stockSheets.find((s) => s.widthMm === sheet.widthMm && s.heightMm === sheet.heightMm) ??
+      material.stockSheets[0];
+    const notices = (await this.safety.notices({}, m)).filter((n) =>
+      noticeApplies(n, version.kind, material.family as MaterialFamily),
+    );
+    const localRules = await this.safety.localRules(m);
+    return {
+      spec: job.spec,
+      sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm },
+      marginMm: job.preparation.marginMm ?? DEFAULT_MARGIN_MM,
+      gapMm: job.preparation.gapMm ?? DEFAULT_GAP_MM,
+      ...(job.preparation.colourRule ? { colourRule: job.preparation.colourRule } : {}),
+      colours: job.colours.length > 0 ? job.colours : (material.colours.slice(0, 1) ?? []),
+      quantity: job.quantity,
+      machine: {
+        profileName: version.profileName,
+        profileVersion: version.number,
+        kind: version.kind,
+        bedWidthMm: version.bedWidthMm,
+        bedHeightMm: version.bedHeightMm,
+        cutSpeedMmS: setting.cutSpeedMmS,
+        markSpeedMmS: setting.markSpeedMmS,
+        pierceTimeS: setting.pierceTimeS,
+        rapidSpeedMmS: version.rapidSpeedMmS,
+        passes: setting.passes,
+        ...(setting.powerPct !== undefined ? { powerPct: setting.powerPct } : {}),
+        hourlyRate: version.hourlyRate,
+        currency: version.currency,
+      },
+      material: {
+        name: material.name,
+        family: material.family,
+        thicknessMm: job.preparation.thicknessMm,
+        pricePerSheet: stock?.pricePerSheet ?? 0,
+        currency: stock?.currency ?? version.currency,
+      },
+      job: { id: job.id, title: design?.name ?? 'Untitled design', requester: requester?.displayName ?? '' },
+      notices: notices.map((n) => ({ id: n.id, version: n.version, title: n.title, severity: n.severity })),
+      localRulesVersion: localRules?.version ?? null,
+      units: 'mm',
+      archive: true,
+      createdAt: createdAt.toISOString(),
+    };
+  }
+}

@@ -1,0 +1,421 @@
+import { createHash, randomUUID } from 'node:crypto';
+import { setTimeout as sleep } from 'node:timers/promises';
+import { type ExportView } from '@kerfwright/contracts';
+import { OBJECT_STORAGE, type ObjectStorage } from '../src/storage/object-storage';
+import { acknowledge, approvedJob, auth, binary, pollExport } from './support/export-fixtures';
+import { type S3Fake, startS3Fake } from './support/object-store';
+import { dropQueueKeys } from './support/queue-keys';
+import {
+  createUser,
+  expectErrorBody,
+  startTestApp,
+  type TestContext,
+  type TestUser,
+} from './support/test-app';
+import { startWorker, stopWorker, type WorkerProcess } from './support/worker-process';
+import { createWorkshop, type WorkshopFixture } from './support/workshop-fixtures';
+
+jest.setTimeout(90000);
+
+type People = Record<'owner' | 'other' | 'fabricator' | 'operator' | 'supervisor', TestUser>;
+
+/** SHA-256 of the bytes as Node's crypto computes it (FIPS 180-4), the reference every checksum must match. */
+const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+
+/** Each run gets its own Bull key prefix and bucket so nothing else on this Redis takes its jobs. */
+function isolatedEnv(s3: S3Fake, tag: string): Record<string, string> {
+  return {
+    KW_QUEUE_PREFIX: `kw-test-${tag}`,
+    KW_STORAGE: 's3',
+    KW_S3_PORT: String(s3.port),
+    KW_S3_BUCKET: `kw-test-${tag}`,
+    KW_EXPORT_LOCK_MS: '3000',
+    KW_EXPORT_STALLED_CHECK_MS: '1000',
+    KW_EXPORT_BACKOFF_MS: '300',
+    KW_EXPORT_ATTEMPTS: '4',
+  };
+}
+
+async function everyone(ctx: TestContext): Promise<People> {
+  return {
+    owner: await createUser(ctx, 'hobbyist'),
+    other: await createUser(ctx, 'hobbyist'),
+    fabricator: await createUser(ctx, 'fabricator'),
+    operator: await createUser(ctx, 'operator'),
+    supervisor: await createUser(ctx, 'supervisor'),
+  };
+}
+
+async function download(ctx: TestContext, user: TestUser, exportId: string, name: string, status = 200) {
+  return ctx.http
+    .get(`/api/exports/${exportId}/files/${name}`)
+    .set(auth(user))
+    .buffer(true)
+    .parse(binary)
+    .expect(status);
+}
+
+describe('cut-pack exports worked inside the API process', () => {
+  const tag = randomUUID().slice(0, 8);
+  let s3: S3Fake;
+  let ctx: TestContext;
+  let w: WorkshopFixture;
+  let p: People;
+  let jobId: string;
+  let exportId: string;
+  const saved: Record<string, string | undefined> = {};
+
+  beforeAll(async () => {
+    s3 = await startS3Fake(`kw-test-${tag}`);
+    for (const [k, v] of Object.entries({ ...isolatedEnv(s3, tag), KW_WORKER_MODE: 'inline' })) {
+      saved[k] = process.env[k];
+      process.env[k] = v;
+    }
+    ctx = await startTestApp();
+    w = await createWorkshop(ctx);
+    p = await everyone(ctx);
+    jobId = await approvedJob(ctx, w, p);
+  });
+  afterAll(async () => {
+    await ctx?.app.close();
+    await s3?.dispose();
+    await dropQueueKeys(`kw-test-${tag}`);
+    for (const [k, v] of Object.entries(saved)) {
+      if (v === undefined) delete process.env[k];
+      else process.env[k] = v;
+    }
+  });
+
+  it('builds the pack off the request path and releases the approved job with checksummed files', async () => {
+    const res = await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.fabricator)).expect(202);
+    exportId = res.body.exportId as string;
+    expect(exportId).toMatch(/^[0-9a-f-]{36}$/);
+    const view = await pollExport(
+      ctx,
+      p.fabricator,
+      exportId,
+      (v) => v.state === 'done' || v.state === 'failed',
+    );
+    expect(view).toMatchObject({ state: 'done', progress: 100, attempts: 1, errorCode: null });
+
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    expect(job.body.state).toBe('released');
+    const last = job.body.transitions.at(-1);
+    expect(last).toMatchObject({
+      from: 'approved',
+      to: 'released',
+      action: 'release',
+      actorId: p.fabricator.id,
+    });
+    const audit: { action: string }[] = await ctx.db.query(
+      `SELECT action FROM audit_events WHERE entity_id = $1 ORDER BY id`,
+      [jobId],
+    );
+    expect(audit.map((a) => a.action).slice(-3)).toEqual(['export.request', 'export.done', 'job.release']);
+    const mail: { n: string }[] = await ctx.db.query(
+      `SELECT count(*)::text AS n FROM mail_outbox WHERE kind = 'job.released' AND subject LIKE '%Octahedron lamp%'`,
+    );
+    expect(Number(mail[0]!.n)).toBeGreaterThanOrEqual(1);
+
+    // Every kind of file a cut pack holds, each stored under the job-scoped prefix.
+    const roles = new Set(view.files.map((f) => f.role));
+    for (const role of ['sheet-dxf', 'sheet-svg', 'setup-sheet', 'assembly-guide', 'manifest', 'archive']) {
+      expect(roles).toContain(role);
+    }
+    const rows: { name: string; storage_key: string; sha256: string; bytes: string }[] = await ctx.db.query(
+      `SELECT name, storage_key, sha256, bytes FROM export_files WHERE export_id = $1 ORDER BY storage_key`,
+      [exportId],
+    );
+    expect(rows).toHaveLength(view.files.length);
+    for (const r of rows) expect(r.storage_key).toBe(`jobs/${jobId}/exports/${exportId}/${r.name}`);
+    const storage = ctx.app.get<ObjectStorage>(OBJECT_STORAGE);
+    const listed = await storage.list(`jobs/${jobId}/exports/${exportId}/`);
+    expect(listed.map((o) => o.key)).toEqual(rows.map((r) => r.storage_key));
+
+    // Downloaded bytes hash to the recorded checksums, with the stored content type and a safe file name.
+    await acknowledge(ctx, p.operator, jobId);
+    const manifestFile = view.files.find((f) => f.role === 'manifest')!;
+    const manifest = JSON.parse(
+      (await download(ctx, p.operator, exportId, manifestFile.name)).body.toString('utf8'),
+    ) as { files: { name: string; sha256: string; bytes: number }[] };
+    for (const f of view.files) {
+      const got = await download(ctx, p.operator, exportId, f.name);
+      const body = got.body as Buffer;
+      expect(sha256(body)).toBe(f.sha256);
+      expect(body.length).toBe(f.bytes);
+      expect(got.headers['content-type']).toContain(f.contentType.split(';')[0]!);
+      expect(got.headers['content-disposition']).toBe(`attachment; filename="${f.name}"`);
+      // RFC 9530 Repr-Digest: the algorithm, then the digest in base64 between colons.
+      expect(got.headers['repr-digest']).toBe(
+        `sha-256=:${createHash('sha256').update(body).digest('base64')}:`,
+      );
+      const entry = manifest.files.find((e) => e.name === f.name);
+      if (entry) expect(entry.sha256).toBe(f.sha256);
+      // File signatures: PDF header "%PDF-" (ISO 32000-1, 7.5.2), ZIP local header "PK\x03\x04"
+      // (PKWARE APPNOTE.TXT 4.3.7), DXF opens with a SECTION group (AutoCAD DXF Reference), SVG root element.
+      if (f.name.endsWith('.pdf')) expect(body.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+      if (f.name.endsWith('.zip')) expect(body.subarray(0, 4).toString('latin1')).toBe('PK\x03\x04');
+      if (f.name.endsWith('.dxf')) expect(body.toString('utf8')).toMatch(/^\s*0\s*\r?\nSECTION/);
+      if (f.name.endsWith('.svg')) expect(body.toString('utf8')).toMatch(/<svg[\s>]/);
+    }
+    expect(manifest.files.length).toBeGreaterThan(0);
+  });
+
+  it('refuses downloads before acknowledgement, and other people’s files', async () => {
+    const view = (await ctx.http.get(`/api/exports/${exportId}`).set(auth(p.supervisor)).expect(200))
+      .body as ExportView;
+    const guide = view.files.find((f) => f.role === 'assembly-guide')!;
+    const sheet = view.files.find((f) => f.role === 'sheet-dxf')!;
+    // Staff who have not acknowledged the current notices: 403, whoever they are.
+    for (const u of [p.supervisor, p.fabricator]) {
+      const res = await download(ctx, u, exportId, sheet.name, 403);
+      expectErrorBody(JSON.parse(res.body.toString()), 403, 'SAFETY.ACKNOWLEDGEMENT_REQUIRED');
+    }
+    await acknowledge(ctx, p.supervisor, jobId);
+    await download(ctx, p.supervisor, exportId, sheet.name, 200);
+    const acks: { notice_versions: { id: string; version: number }[]; created_at: Date }[] =
+      await ctx.db.query(
+        `SELECT notice_versions, created_at FROM safety_acknowledgements WHERE job_id = $1 AND user_id = $2`,
+        [jobId, p.supervisor.id],
+      );
+    expect(acks).toHaveLength(1);
+    expect(acks[0]!.notice_versions.length).toBeGreaterThan(0);
+
+    // New local rules make every earlier acknowledgement stale.
+    await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(p.supervisor))
+      .send({ body: `Rules ${tag}` })
+      .expect(200);
+    expectErrorBody(
+      JSON.parse((await download(ctx, p.operator, exportId, sheet.name, 403)).body.toString()),
+      403,
+      'SAFETY.ACKNOWLEDGEMENT_REQUIRED',
+    );
+    await acknowledge(ctx, p.operator, jobId);
+    await download(ctx, p.operator, exportId, sheet.name, 200);
+
+    // The requester gets the assembly guide of their own job, and nothing else.
+    const mine = await ctx.http.get(`/api/exports/${exportId}`).set(auth(p.owner)).expect(200);
+    expect(mine.body.files.map((f: { role: string }) => f.role)).toEqual(['assembly-guide']);
+    const got = await download(ctx, p.owner, exportId, guide.name, 200);
+    expect(sha256(got.body as Buffer)).toBe(guide.sha256);
+    await download(ctx, p.owner, exportId, sheet.name, 404);
+    // Another hobbyist sees neither the export nor the file.
+    await ctx.http.get(`/api/exports/${exportId}`).set(auth(p.other)).expect(404);
+    await ctx.http.get(`/api/jobs/${jobId}/exports`).set(auth(p.other)).expect(404);
+    await download(ctx, p.other, exportId, guide.name, 404);
+  });
+
+  it('never lets a requested name reach storage unless it is a recorded file of the export', async () => {
+    for (const name of [
+      '..%2F..%2Fetc%2Fpasswd',
+      '%2E%2E',
+      'SHEET-01.DXF',
+      `..%2F${exportId}%2Fmanifest.json`,
+      'manifest.json%00.pdf',
+      'no-such-file.pdf',
+    ]) {
+      const res = await ctx.http.get(`/api/exports/${exportId}/files/${name}`).set(auth(p.operator));
+      expect([400, 404]).toContain(res.status);
+    }
+    await ctx.http.get(`/api/exports/not-a-uuid/files/manifest.json`).set(auth(p.operator)).expect(400);
+  });
+
+  it('refuses to queue a job that is not approved, and roles that may not', async () => {
+    const d = await ctx.http.get(`/api/jobs/${jobId}/exports`).set(auth(p.operator)).expect(200);
+    expect(d.body).toHaveLength(1);
+    await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.operator)).expect(403);
+    await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.owner)).expect(403);
+    const j = await ctx.http
+      .post('/api/jobs')
+      .set(auth(p.owner))
+      .send({
+        designId: (await ctx.db.query(`SELECT design_id FROM jobs WHERE id = $1`, [jobId]))[0].design_id,
+      })
+      .expect(201);
+    await ctx.http
+      .post(`/api/jobs/${j.body.id}/request`)
+      .set(auth(p.owner))
+      .send({ version: j.body.version })
+      .expect(200);
+    const res = await ctx.http.post(`/api/jobs/${j.body.id}/exports`).set(auth(p.fabricator)).expect(409);
+    expectErrorBody(res.body, 409, 'EXPORT.JOB_NOT_READY');
+  });
+
+  it('streams progress as server-sent events for a re-export of the released job', async () => {
+    const res = await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.supervisor)).expect(202);
+    const id = res.body.exportId as string;
+    expect(id).not.toBe(exportId);
+    const sse = await ctx.http
+      .get(`/api/exports/${id}/events`)
+      .set(auth(p.fabricator))
+      .buffer(true)
+      .parse((r, done) => {
+        let text = '';
+        r.setEncoding('utf8');
+        r.on('data', (c: string) => (text += c));
+        r.on('end', () => done(null, text));
+      })
+      .expect(200);
+    expect(sse.headers['content-type']).toContain('text/event-stream');
+    const events = (sse.body as string)
+      .split('\n\n')
+      .filter((b) => b.includes('data:'))
+      .map((b) => ({
+        type: /^event: (.*)$/m.exec(b)?.[1],
+        data: JSON.parse(/^data: (.*)$/m.exec(b)![1]!) as ExportView,
+      }));
+    expect(events.at(-1)).toMatchObject({ type: 'done', data: { state: 'done', progress: 100 } });
+    const progress = events.map((e) => e.data.progress);
+    expect([...progress].sort((a, b) => a - b)).toEqual(progress);
+    // The re-export of a released job leaves the job as it is: one release in its history.
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    expect(job.body.transitions.filter((t: { action: string }) => t.action === 'release')).toHaveLength(1);
+  });
+
+  it('retries with backoff while storage is down, then finishes once', async () => {
+    const id2 = await approvedJob(ctx, w, p);
+    await s3.stop();
+    const res = await ctx.http.post(`/api/jobs/${id2}/exports`).set(auth(p.fabricator)).expect(202);
+    const id = res.body.exportId as string;
+    const failedOnce = await pollExport(
+      ctx,
+      p.fabricator,
+      id,
+      (v) => v.attempts >= 1 && v.errorCode !== null,
+    );
+    expect(failedOnce.state).not.toBe('done');
+    await s3.restart();
+    const view = await pollExport(ctx, p.fabricator, id, (v) => v.state === 'done' || v.state === 'failed');
+    expect(view.state).toBe('done');
+    expect(view.attempts).toBeGreaterThanOrEqual(2);
+    expect(view.errorCode).toBeNull();
+    const job = await ctx.http.get(`/api/jobs/${id2}`).set(auth(p.fabricator)).expect(200);
+    expect(job.body.state).toBe('released');
+  });
+});
+
+describe('cut-pack exports worked by separate worker processes', () => {
+  const tag = randomUUID().slice(0, 8);
+  let s3: S3Fake;
+  let ctx: TestContext;
+  let w: WorkshopFixture;
+  let p: People;
+  const workers: WorkerProcess[] = [];
+  const saved: Record<string, string | undefined> = {};
+  let env: Record<string, string>;
+
+  beforeAll(async () => {
+    s3 = await startS3Fake(`kw-test-${tag}`);
+    env = isolatedEnv(s3, tag);
+    for (const [k, v] of Object.entries({ ...env, KW_WORKER_MODE: 'off' })) {
+      saved[k] = process.env[k];
+      process.env[k] = v;
+    }
+    ctx = await startTestApp();
+    w = await createWorkshop(ctx);
+    p = await everyone(ctx);
+  });
+  afterAll(async () => {
+    for (const worker of workers) await stopWorker(worker, 'SIGKILL');
+    await ctx?.app.close();
+    await s3?.dispose();
+    await dropQueueKeys(`kw-test-${tag}`);
+    for (const [k, v] of Object.entries(saved)) {
+      if (v === undefined) delete process.env[k];
+      else process.env[k] = v;
+    }
+  });
+
+  it('lets the API only enqueue when its worker mode is off', async () => {
+    const jobId = await approvedJob(ctx, w, p);
+    const res = await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.fabricator)).expect(202);
+    await sleep(1500);
+    const view = await pollExport(ctx, p.fabricator, res.body.exportId as string, () => true);
+    expect(view).toMatchObject({ state: 'queued', attempts: 0, progress: 0 });
+    // A worker process picks it up.
+    const worker = startWorker(env);
+    workers.push(worker);
+    await worker.ready;
+    const done = await pollExport(
+      ctx,
+      p.fabricator,
+      view.id,
+      (v) => v.state === 'done' || v.state === 'failed',
+    );
+    expect(done.state).toBe('done');
+    await stopWorker(worker);
+  });
+
+  it('finishes exactly once after the worker building it is killed (SIGKILL) half-way', async () => {
+    const jobId = await approvedJob(ctx, w, p);
+    const slow = { ...env, KW_EXPORT_STEP_DELAY_MS: '700' };
+    const first = startWorker(slow);
+    workers.push(first);
+    await first.ready;
+    const res = await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.fabricator)).expect(202);
+    const exportId = res.body.exportId as string;
+    const prefix = `jobs/${jobId}/exports/${exportId}/`;
+    const storage = ctx.app.get<ObjectStorage>(OBJECT_STORAGE);
+    // Wait until some, not all, files are stored, then kill the worker without warning.
+    const end = Date.now() + 30000;
+    while ((await storage.list(prefix)).length < 2) {
+      if (Date.now() > end) throw new Error(`no files stored:\n${first.output()}`);
+      await sleep(100);
+    }
+    first.child.kill('SIGKILL');
+    await first.exited;
+    const stored = (await storage.list(prefix)).length;
+
+    // Nothing half-written is visible: not done, no files listed, downloads refused.
+    const mid = (await ctx.http.get(`/api/exports/${exportId}`).set(auth(p.operator)).expect(200))
+      .body as ExportView;
+    expect(mid.state).toBe('running');
+    expect(mid.files).toEqual([]);
+    await acknowledge(ctx, p.operator, jobId);
+    const early = await download(ctx, p.operator, exportId, 'manifest.json', 409);
+    expectErrorBody(JSON.parse(early.body.toString()), 409, 'EXPORT.NOT_DONE');
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.operator)).expect(200);
+    expect(job.body.state).toBe('approved');
+
+    // Another worker takes the export over once the dead worker's lock has expired.
+    const second = startWorker(env);
+    workers.push(second);
+    const view = await pollExport(
+      ctx,
+      p.fabricator,
+      exportId,
+      (v) => v.state === 'done' || v.state === 'failed',
+    );
+    expect(view.state).toBe('done');
+    expect(view.attempts).toBe(2);
+    expect(view.files.length).toBeGreaterThan(stored);
+
+    const exportsOfJob: { state: string }[] = await ctx.db.query(
+      `SELECT state FROM exports WHERE job_id = $1`,
+      [jobId],
+    );
+    expect(exportsOfJob).toEqual([{ state: 'done' }]);
+    const events: { action: string }[] = await ctx.db.query(
+      `SELECT action FROM audit_events WHERE entity_id = $1 AND action IN ('export.done', 'job.release')`,
+      [jobId],
+    );
+    expect(events.map((e) => e.action).sort()).toEqual(['export.done', 'job.release']);
+    const released = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.operator)).expect(200);
+    expect(released.body.transitions.filter((t: { action: string }) => t.action === 'release')).toHaveLength(
+      1,
+    );
+
+    // No orphan objects: the stored objects are exactly the recorded files, and their bytes match.
+    const rows: { storage_key: string; sha256: string; name: string }[] = await ctx.db.query(
+      `SELECT storage_key, sha256, name FROM export_files WHERE export_id = $1 ORDER BY storage_key`,
+      [exportId],
+    );
+    expect((await storage.list(prefix)).map((o) => o.key)).toEqual(rows.map((r) => r.storage_key));
+    for (const r of rows) {
+      expect(sha256((await download(ctx, p.operator, exportId, r.name)).body as Buffer)).toBe(r.sha256);
+    }
+    await stopWorker(second);
+  });
+});

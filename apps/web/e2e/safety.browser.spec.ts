@@ -1,0 +1,58 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { BASE_URL, launchBrowser, newContext, SCREENSHOT_DIR, signInToHome } from './browser';
+import { DEMO_PASSWORD, demoUser } from './demo-users';
+
+let browser: Browser;
+let context: BrowserContext;
+let page: Page;
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+beforeEach(async () => {
+  context = await newContext(browser);
+  page = await context.newPage();
+});
+
+afterEach(async () => {
+  await context?.close();
+});
+
+describe(`Safety page in Chromium at ${BASE_URL}`, () => {
+  it('shows a hobbyist the notices, the hazard table with PVC refused for lasers, and the local rules', async () => {
+    await signInToHome(page, demoUser('hobbyist').email, DEMO_PASSWORD);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Safety' }).click();
+    await page.getByTestId('safety-page').waitFor();
+    await page.getByTestId('notices').getByRole('alert').first().waitFor();
+    // Chlorinated plastics must never go on a laser (DESIGN.md safety rules; common practice).
+    await page.getByLabel('On a laser').selectOption('no');
+    await page.getByTestId('hazard-pvc').waitFor();
+    expect(await page.getByTestId('hazard-pvc').textContent()).toMatch(/never/);
+    expect(await page.getByRole('button', { name: 'Edit the local rules' }).count()).toBe(0);
+    await page.screenshot({ path: path.join(SCREENSHOT_DIR, 'safety.png'), fullPage: true });
+  });
+
+  it('lets the supervisor save the local rules as a new version', async () => {
+    await signInToHome(page, demoUser('supervisor').email, DEMO_PASSWORD);
+    await page.goto('/safety');
+    const rules = page.getByTestId('local-rules');
+    await rules.waitFor();
+    const version = page.getByText(/^Version \d+/);
+    const before = Number((await version.textContent())?.match(/Version (\d+)/)?.[1] ?? 0);
+    await page.getByRole('button', { name: 'Edit the local rules' }).click();
+    const body = page.getByLabel('Local rules');
+    const text = await body.inputValue();
+    await body.fill(`${text.trim()}\n\nChecked by the browser test.`);
+    await page.getByRole('button', { name: 'Save as a new version' }).click();
+    await page.getByText(`Version ${before + 1}`, { exact: false }).waitFor();
+    expect(await rules.textContent()).toContain('Checked by the browser test.');
+  });
+});

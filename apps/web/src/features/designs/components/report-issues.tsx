@@ -1,0 +1,48 @@
+import { type DesignIssue } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Chip from '@mui/material/Chip';
+import Stack from '@mui/material/Stack';
+
+/** The validity report: errors (block files) and warnings, each with chips for the pieces it concerns. */
+export function ReportIssues({
+  errors,
+  warnings,
+  onSelectPiece,
+  limit = 12,
+}: {
+  errors: readonly DesignIssue[];
+  warnings: readonly DesignIssue[];
+  onSelectPiece: (id: string) => void;
+  limit?: number;
+}) {
+  if (errors.length === 0 && warnings.length === 0) {
+    return (
+      <Alert severity="success" data-testid="report-valid">
+        The engine found no problems: every slot opens from its piece&apos;s edge and nothing collides.
+      </Alert>
+    );
+  }
+  const items = [
+    ...errors.map((issue) => ({ issue, severity: 'error' as const })),
+    ...warnings.map((issue) => ({ issue, severity: 'warning' as const })),
+  ];
+  return (
+    <Stack spacing={1} data-testid="report-issues">
+      {items.slice(0, limit).map(({ issue, severity }, i) => (
+        <Alert key={i} severity={severity} variant="outlined">
+          {issue.message}
+          {issue.pieces.length > 0 ? (
+            <Stack direction="row" spacing={0.5} sx={{ mt: 0.5, flexWrap: 'wrap' }} useFlexGap>
+              {issue.pieces.slice(0, 8).map((id) => (
+                <Chip key={id} size="small" label={id} onClick={() => onSelectPiece(id)} />
+              ))}
+            </Stack>
+          ) : null}
+        </Alert>
+      ))}
+      {items.length > limit ? (
+        <Alert severity="info">{`${items.length - limit} more findings are not shown.`}</Alert>
+      ) : null}
+    </Stack>
+  );
+}

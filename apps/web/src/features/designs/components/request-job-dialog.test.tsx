@@ -1,0 +1,30 @@
+import { screen, waitFor } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { renderWithProviders } from '../../../testing/render-app';
+import { RequestJobDialog } from './request-job-dialog';
+
+describe('request a cut job dialog', () => {
+  it('needs 1 to 100 whole copies and sends the numbers it was given', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <RequestJobDialog open busy={false} error={null} onSubmit={onSubmit} onClose={() => undefined} />,
+    );
+    const copies = await screen.findByLabelText('Copies');
+    await user.clear(copies);
+    await user.type(copies, '0');
+    await user.click(screen.getByRole('button', { name: 'Request the cut' }));
+    expect(await screen.findByText('At least 1 copy')).toBeInTheDocument();
+    await user.clear(copies);
+    await user.type(copies, '101');
+    await user.click(screen.getByRole('button', { name: 'Request the cut' }));
+    expect(await screen.findByText('At most 100 copies')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+
+    await user.clear(copies);
+    await user.type(copies, '2');
+    await user.type(screen.getByLabelText('Notes for the workshop'), 'Teal if possible');
+    await user.click(screen.getByRole('button', { name: 'Request the cut' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]?.[0]).toEqual({ quantity: 2, notes: 'Teal if possible' });
+  });
+});

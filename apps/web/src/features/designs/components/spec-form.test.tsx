@@ -1,0 +1,91 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { validateSpec } from '@kerfwright/geometry';
+import { screen, waitFor } from '@testing-library/react';
+import { useForm } from 'react-hook-form';
+import { describe, expect, it } from 'vitest';
+import { renderWithProviders } from '../../../testing/render-app';
+import {
+  DEFAULT_DESIGN_VALUES,
+  type DesignFormValues,
+  designFormSchema,
+  toDesignSpec,
+} from './design-form-schema';
+import { SpecForm } from './spec-form';
+
+function Harness({ onValues }: { onValues?: (v: DesignFormValues) => void }) {
+  const form = useForm<DesignFormValues>({
+    resolver: zodResolver(designFormSchema),
+    mode: 'onChange',
+    defaultValues: DEFAULT_DESIGN_VALUES,
+  });
+  return (
+    <form onSubmit={form.handleSubmit((v) => onValues?.(v))} noValidate>
+      <SpecForm
+        form={form}
+        upload={null}
+        onUpload={() => undefined}
+        suggestedSizes={{ touch: 0.7071, overlap: 0.8 }}
+      />
+      <button type="submit">Check</button>
+    </form>
+  );
+}
+
+describe('design studio spec form', () => {
+  it('refuses fewer than 3 sides, a step of half the sides or more, and an empty name', async () => {
+    const { user } = renderWithProviders(<Harness />);
+    const sides = await screen.findByLabelText('Sides (n)');
+    await user.clear(sides);
+    await user.type(sides, '2');
+    expect(await screen.findByText('At least 3 sides')).toBeInTheDocument();
+
+    await user.clear(sides);
+    await user.type(sides, '6');
+    const step = screen.getByLabelText('Step (k)');
+    await user.clear(step);
+    await user.type(step, '3');
+    // {6/3} is no star polygon: k must stay below n/2 (regular star polygons, common practice in geometry texts).
+    expect(await screen.findByText('Step must be less than half the sides (below 3)')).toBeInTheDocument();
+
+    await user.clear(screen.getByLabelText('Name'));
+    expect(await screen.findByText('Give the design a name')).toBeInTheDocument();
+  });
+
+  it('asks for a number when a length is emptied, and for a positive thickness', async () => {
+    const { user } = renderWithProviders(<Harness />);
+    await user.clear(await screen.findByLabelText('Scale (mm)'));
+    expect(await screen.findByText('Scale: enter a number')).toBeInTheDocument();
+    const thickness = screen.getByLabelText('Thickness (mm)');
+    await user.clear(thickness);
+    await user.type(thickness, '0');
+    expect(await screen.findByText('Thickness must be more than 0')).toBeInTheDocument();
+  });
+
+  it('asks for a tool diameter instead of a kerf when the machine is a router', async () => {
+    const { user } = renderWithProviders(<Harness />);
+    expect(await screen.findByLabelText('Kerf (mm)')).toBeInTheDocument();
+    await user.selectOptions(screen.getByLabelText('Machine kind'), 'router');
+    expect(await screen.findByLabelText('Tool diameter (mm)')).toBeInTheDocument();
+    expect(screen.queryByLabelText('Kerf (mm)')).not.toBeInTheDocument();
+  });
+
+  it("puts the engine's suggested size into the size field", async () => {
+    let submitted: DesignFormValues | undefined;
+    const { user } = renderWithProviders(<Harness onValues={(v) => (submitted = v)} />);
+    await user.click(await screen.findByRole('button', { name: 'touch 0.707' }));
+    expect(screen.getByLabelText('Size')).toHaveValue(0.7071);
+    await user.click(screen.getByRole('button', { name: 'Check' }));
+    await waitFor(() => expect(submitted?.size).toBe(0.7071));
+  });
+
+  it('turns valid form values into a spec that the geometry library accepts', () => {
+    const parsed = designFormSchema.parse({ ...DEFAULT_DESIGN_VALUES, sides: 8, step: 3, solidId: 'cube' });
+    const spec = toDesignSpec(parsed, null);
+    expect(spec?.piece).toEqual({ sides: 8, step: 3, rotationDeg: 0, size: 1.3 });
+    expect(validateSpec(spec).ok).toBe(true);
+    const router = toDesignSpec({ ...parsed, machineKind: 'router', toolDiameterMm: 3.175 }, null);
+    expect(router?.machine).toEqual({ kind: 'router', toolDiameterMm: 3.175 });
+    // An uploaded solid is needed when the source is "upload".
+    expect(toDesignSpec({ ...parsed, solidSource: 'upload' }, null)).toBeNull();
+  });
+});

@@ -1,0 +1,114 @@
+import Alert from '@mui/material/Alert';
+import Button from '@mui/material/Button';
+import LinearProgress from '@mui/material/LinearProgress';
+import Paper from '@mui/material/Paper';
+import Stack from '@mui/material/Stack';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableRow from '@mui/material/TableRow';
+import Typography from '@mui/material/Typography';
+import { useState } from 'react';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { downloadFile } from '../../../lib/api-client';
+import { useJobExports } from '../api/get-job-exports';
+import { useJobSafety } from '../api/get-job-safety';
+import { useRequestCutPack } from '../api/request-cut-pack';
+
+function formatBytes(bytes: number): string {
+  if (bytes < 1024) return `${bytes} B`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(1)} KB`;
+  return `${(bytes / 1024 / 1024).toFixed(2)} MB`;
+}
+
+/**
+ * The job's cut pack for staff: prepare it (progress while the queue works), then its files with sizes. Files
+ * are offered only once the caller has acknowledged the job's current safety notices and local rules.
+ */
+export function CutPackPanel({
+  jobId,
+  canPrepare,
+  onOpenSafety,
+}: {
+  jobId: string;
+  /** Fabricators (and supervisors) queue the pack; operators download it. */
+  canPrepare: boolean;
+  onOpenSafety: () => void;
+}) {
+  const exports = useJobExports(jobId, true);
+  const safety = useJobSafety(jobId, true);
+  const request = useRequestCutPack(jobId);
+  const [downloadError, setDownloadError] = useState<unknown>(null);
+  const newest = exports.data?.[0];
+  const busy = newest && (newest.state === 'queued' || newest.state === 'running');
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2, mt: 2 }} data-testid="cut-pack">
+      <Stack direction="row" sx={{ alignItems: 'center', mb: 1 }}>
+        <Typography variant="h2" sx={{ flex: 1 }}>
+          Cut pack
+        </Typography>
+        {canPrepare && !busy ? (
+          <Button variant="outlined" onClick={() => request.mutate()} disabled={request.isPending}>
+            {newest ? 'Prepare the cut pack again' : 'Prepare the cut pack'}
+          </Button>
+        ) : null}
+      </Stack>
+      {exports.error ? <FormErrorAlert error={exports.error} /> : null}
+      {request.error ? <FormErrorAlert error={request.error} /> : null}
+      {downloadError ? <FormErrorAlert error={downloadError} /> : null}
+      {!newest && exports.isSuccess ? (
+        <Typography color="text.secondary">No cut pack has been prepared for this job yet.</Typography>
+      ) : null}
+      {busy ? (
+        <Stack spacing={1}>
+          <Typography variant="body2">{`Preparing the files (${newest.state}, ${newest.progress} %)`}</Typography>
+          <LinearProgress variant="determinate" value={newest.progress} aria-label="Preparing the cut pack" />
+        </Stack>
+      ) : null}
+      {newest?.state === 'failed' ? (
+        <Alert severity="error">{newest.errorMessage ?? 'The cut pack could not be prepared.'}</Alert>
+      ) : null}
+      {newest?.state === 'done' ? (
+        safety.data?.acknowledged ? (
+          <Table size="small" aria-label="Cut pack files">
+            <TableBody>
+              {newest.files.map((f) => (
+                <TableRow key={f.name}>
+                  <TableCell>{f.name}</TableCell>
+                  <TableCell>{f.role}</TableCell>
+                  <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
+                  <TableCell align="right">
+                    <Button
+                      size="small"
+                      onClick={() => {
+                        setDownloadError(null);
+                        downloadFile(
+                          `/exports/${encodeURIComponent(newest.id)}/files/${encodeURIComponent(f.name)}`,
+                          f.name,
+                        ).catch(setDownloadError);
+                      }}
+                    >
+                      {`Download ${f.name}`}
+                    </Button>
+                  </TableCell>
+                </TableRow>
+              ))}
+            </TableBody>
+          </Table>
+        ) : (
+          <Alert
+            severity="warning"
+            action={
+              <Button color="inherit" onClick={onOpenSafety}>
+                Read the notices
+              </Button>
+            }
+          >
+            {`The cut pack is ready (${newest.files.length} files). Acknowledge the safety notices to download it.`}
+          </Alert>
+        )
+      ) : null}
+    </Paper>
+  );
+}

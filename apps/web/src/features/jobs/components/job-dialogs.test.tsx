@@ -1,0 +1,151 @@
+import { type MachineProfileSummaryView, type MaterialView } from '@kerfwright/contracts';
+import { screen, waitFor } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { renderWithProviders } from '../../../testing/render-app';
+import { PrepareJobDialog } from './prepare-job-dialog';
+import { RecordCutDialog } from './record-cut-dialog';
+import { ReturnJobDialog } from './return-job-dialog';
+
+const noop = () => undefined;
+
+describe('return job dialog', () => {
+  it('needs a reason before sending a job back', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <ReturnJobDialog open busy={false} error={null} onSubmit={onSubmit} onClose={noop} />,
+    );
+    await user.click(await screen.findByRole('button', { name: 'Return with this reason' }));
+    expect(await screen.findByText('Say why the job goes back (at least 3 characters)')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+    await user.type(screen.getByLabelText('Reason'), 'Slots too tight for this acrylic');
+    await user.click(screen.getByRole('button', { name: 'Return with this reason' }));
+    await waitFor(() =>
+      expect(onSubmit).toHaveBeenCalledWith(
+        { reason: 'Slots too tight for this acrylic' },
+        expect.anything(),
+      ),
+    );
+  });
+});
+
+describe('record the cut dialog', () => {
+  it('needs the machine time and whole sheets; the measured kerf may stay empty', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <RecordCutDialog open busy={false} error={null} defaultSheets={2} onSubmit={onSubmit} onClose={noop} />,
+    );
+    await user.click(await screen.findByRole('button', { name: 'Record the cut' }));
+    expect(await screen.findByText('Enter the machine time in minutes')).toBeInTheDocument();
+    await user.type(screen.getByLabelText('Machine time (minutes)'), '12');
+    const sheets = screen.getByLabelText('Sheets used');
+    await user.clear(sheets);
+    await user.type(sheets, '1.5');
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    expect(await screen.findByText('A whole number of sheets')).toBeInTheDocument();
+    await user.clear(sheets);
+    await user.type(sheets, '2');
+    await user.type(screen.getByLabelText('Measured kerf (mm, optional)'), '3');
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    expect(await screen.findByText('At most 2 mm')).toBeInTheDocument();
+    await user.clear(screen.getByLabelText('Measured kerf (mm, optional)'));
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    const values = onSubmit.mock.calls[0]?.[0] as {
+      actualMinutes: number;
+      sheetsUsed: number;
+      measuredKerfMm: number;
+    };
+    expect(values.actualMinutes).toBe(12);
+    expect(values.sheetsUsed).toBe(2);
+    expect(Number.isNaN(values.measuredKerfMm)).toBe(true);
+  });
+});
+
+const acrylic = {
+  id: 'm-acrylic',
+  name: 'Cast acrylic 3 mm',
+  family: 'acrylic',
+  nominalThicknessMm: 3,
+  measuredThicknessMm: null,
+  flexible: false,
+  colours: ['clear', 'amber'],
+  stockSheets: [
+    { widthMm: 600, heightMm: 400, pricePerSheet: 14.5, currency: 'EUR' },
+    { widthMm: 1000, heightMm: 600, pricePerSheet: 30, currency: 'EUR' },
+  ],
+  laserAllowed: true,
+  hazardNote: '',
+  notes: '',
+  version: 1,
+  createdAt: '2026-01-01T00:00:00.000Z',
+  updatedAt: '2026-01-01T00:00:00.000Z',
+} as MaterialView;
+
+const laser = {
+  id: 'p-laser',
+  name: 'CO2 laser',
+  kind: 'co2-laser',
+  currentApproved: {
+    id: 'v-approved',
+    number: 3,
+    settings: [
+      {
+        materialId: 'm-acrylic',
+        kerfMm: 0.18,
+        cutSpeedMmS: 12,
+        markSpeedMmS: 200,
+        passes: 1,
+        pierceTimeS: 0.2,
+      },
+    ],
+  },
+  latest: { id: 'v-approved', number: 3 },
+  createdAt: '2026-01-01T00:00:00.000Z',
+} as unknown as MachineProfileSummaryView;
+
+const draftOnly = {
+  id: 'p-router',
+  name: 'Router without approval',
+  kind: 'cnc-router',
+  currentApproved: null,
+  latest: { id: 'v-draft', number: 1 },
+  createdAt: '2026-01-01T00:00:00.000Z',
+} as unknown as MachineProfileSummaryView;
+
+describe('prepare job dialog', () => {
+  it('needs a material, an approved profile version and a colour, and sends the chosen sheet', async () => {
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () =>
+        json(200, { items: [laser, draftOnly], total: 2, page: 1, pageSize: 100 }),
+    });
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={onSubmit} onClose={noop} />,
+    );
+    await user.click(await screen.findByRole('button', { name: 'Prepare' }));
+    expect(await screen.findByText('Choose a material')).toBeInTheDocument();
+    expect(screen.getByText('Choose an approved machine profile')).toBeInTheDocument();
+    expect(screen.getByText('Choose at least one colour')).toBeInTheDocument();
+
+    // Only profiles with an approved version are offered.
+    const profile = screen.getByLabelText('Machine profile (approved version)');
+    await screen.findByRole('option', { name: 'CO2 laser · co2-laser · v3' });
+    expect(screen.queryByRole('option', { name: /Router without approval/ })).not.toBeInTheDocument();
+
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    await user.selectOptions(profile, 'v-approved');
+    await user.click(await screen.findByLabelText('amber'));
+    await user.selectOptions(screen.getByLabelText('Sheet'), '1');
+    await user.click(screen.getByRole('button', { name: 'Prepare' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]?.[0]).toEqual({
+      materialId: 'm-acrylic',
+      profileVersionId: 'v-approved',
+      colours: ['amber'],
+      colourRule: 'neighbour-distinct',
+      sheet: { widthMm: 1000, heightMm: 600 },
+    });
+  });
+});

@@ -1,0 +1,92 @@
+import Alert from '@mui/material/Alert';
+import Button from '@mui/material/Button';
+import Checkbox from '@mui/material/Checkbox';
+import CircularProgress from '@mui/material/CircularProgress';
+import Dialog from '@mui/material/Dialog';
+import DialogActions from '@mui/material/DialogActions';
+import DialogContent from '@mui/material/DialogContent';
+import DialogTitle from '@mui/material/DialogTitle';
+import FormControlLabel from '@mui/material/FormControlLabel';
+import Stack from '@mui/material/Stack';
+import Typography from '@mui/material/Typography';
+import { useState } from 'react';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
+import { useJobSafety } from '../api/get-job-safety';
+
+const SEVERITY = { danger: 'error', warning: 'warning', caution: 'info' } as const;
+
+/**
+ * The notices that apply to this job's material and machine kind and the workshop's local rules. The operator
+ * acknowledges exactly these versions; the job's files are offered only after that.
+ */
+export function SafetyDialog({
+  jobId,
+  open,
+  onClose,
+}: {
+  jobId: string;
+  open: boolean;
+  onClose: () => void;
+}) {
+  const safety = useJobSafety(jobId, open);
+  const acknowledge = useAcknowledgeJobSafety(jobId);
+  const [read, setRead] = useState(false);
+  const view = safety.data;
+  return (
+    <Dialog open={open} onClose={onClose} fullWidth maxWidth="md" aria-labelledby="safety-title">
+      <DialogTitle id="safety-title">Safety before cutting</DialogTitle>
+      <DialogContent dividers>
+        {safety.isPending ? <CircularProgress aria-label="Loading the notices" /> : null}
+        {safety.isError ? <FormErrorAlert error={safety.error} /> : null}
+        {acknowledge.error ? <FormErrorAlert error={acknowledge.error} /> : null}
+        {view ? (
+          <Stack spacing={2} data-testid="safety-notices">
+            <Typography variant="body2" color="text.secondary">
+              {`For ${view.materialFamily ?? 'this material'} on a ${view.machineKind ?? 'machine'}. These notices do not replace local codes, the machine maker's manual or the workshop's own rules.`}
+            </Typography>
+            {view.notices.map((n) => (
+              <Alert key={`${n.id}@${n.version}`} severity={SEVERITY[n.severity]} variant="outlined">
+                <Typography sx={{ fontWeight: 500 }}>{n.title}</Typography>
+                <Typography variant="body2" sx={{ whiteSpace: 'pre-line' }}>
+                  {n.body}
+                </Typography>
+              </Alert>
+            ))}
+            <Typography variant="h3">Local rules</Typography>
+            <Typography variant="body2" sx={{ whiteSpace: 'pre-line' }} data-testid="local-rules">
+              {view.localRules?.body || 'The workshop has not written local rules yet; ask a supervisor.'}
+            </Typography>
+            {view.acknowledged ? (
+              <Alert severity="success" data-testid="safety-acknowledged">
+                {`You acknowledged these notices${view.acknowledgedAt ? ` on ${new Date(view.acknowledgedAt).toLocaleString()}` : ''}.`}
+              </Alert>
+            ) : (
+              <FormControlLabel
+                control={<Checkbox checked={read} onChange={(e) => setRead(e.target.checked)} />}
+                label="I have read these notices and the local rules and will follow them"
+              />
+            )}
+          </Stack>
+        ) : null}
+      </DialogContent>
+      <DialogActions>
+        <Button onClick={onClose}>Close</Button>
+        {view && !view.acknowledged ? (
+          <Button
+            variant="contained"
+            disabled={!read || acknowledge.isPending}
+            onClick={() =>
+              acknowledge.mutate({
+                notices: view.notices.map((n) => ({ id: n.id, version: n.version })),
+                localRulesVersion: view.localRules?.version ?? null,
+              })
+            }
+          >
+            Acknowledge
+          </Button>
+        ) : null}
+      </DialogActions>
+    </Dialog>
+  );
+}

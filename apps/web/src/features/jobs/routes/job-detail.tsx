@@ -1,0 +1,305 @@
+import { type JobAction, type JobDetailView, transitionFor } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import CircularProgress from '@mui/material/CircularProgress';
+import Dialog from '@mui/material/Dialog';
+import DialogActions from '@mui/material/DialogActions';
+import DialogContent from '@mui/material/DialogContent';
+import DialogTitle from '@mui/material/DialogTitle';
+import Paper from '@mui/material/Paper';
+import Stack from '@mui/material/Stack';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableHead from '@mui/material/TableHead';
+import TableRow from '@mui/material/TableRow';
+import ToggleButton from '@mui/material/ToggleButton';
+import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
+import Typography from '@mui/material/Typography';
+import { useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { ErrorPanel } from '../../../components/errors/error-panel';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { useUser } from '../../../lib/auth';
+import { formatLength, type LengthUnit } from '../../../lib/units';
+import { useJob } from '../api/get-job';
+import { useTakeJobAction } from '../api/take-job-action';
+import { CutPackPanel } from '../components/cut-pack-panel';
+import { JobStateChip } from '../components/job-state-chip';
+import { PrepareJobDialog } from '../components/prepare-job-dialog';
+import { RecordCutDialog } from '../components/record-cut-dialog';
+import { ReturnJobDialog } from '../components/return-job-dialog';
+import { SafetyDialog } from '../components/safety-dialog';
+
+/** Actions that need more than a confirmation open their own dialog. */
+type Open = JobAction | 'safety' | null;
+
+export function JobDetailRoute() {
+  const { jobId = '' } = useParams();
+  const job = useJob(jobId);
+  if (job.isPending) {
+    return (
+      <Box sx={{ display: 'grid', placeItems: 'center', minHeight: 240 }}>
+        <CircularProgress aria-label="Loading the job" />
+      </Box>
+    );
+  }
+  if (job.isError) {
+    return (
+      <ErrorPanel title="The job could not be loaded" error={job.error} onRetry={() => void job.refetch()} />
+    );
+  }
+  return <JobDetail job={job.data} />;
+}
+
+function JobDetail({ job }: { job: JobDetailView }) {
+  const user = useUser();
+  const action = useTakeJobAction();
+  const [open, setOpen] = useState<Open>(null);
+  const [unit, setUnit] = useState<LengthUnit>('mm');
+  const fmt = (mm: number) => formatLength(mm, unit);
+  const prep = job.preparation;
+
+  const take = (a: JobAction, extra: Record<string, unknown> = {}) =>
+    action.mutate(
+      { id: job.id, action: a, body: { version: job.version, ...extra } },
+      { onSuccess: () => setOpen(null) },
+    );
+  const start = (a: JobAction) => {
+    action.reset();
+    setOpen(a);
+  };
+  const canAcknowledge = job.state === 'released' && (user.role === 'operator' || user.role === 'supervisor');
+  // Staff see the cut pack once the job is approved; downloads still need the safety acknowledgement.
+  const canSeePack =
+    user.role !== 'hobbyist' && ['approved', 'released', 'cut', 'closed'].includes(job.state);
+
+  return (
+    <Box sx={{ maxWidth: 1200 }} data-testid="job-detail">
+      <title>{`${job.designName} · Job · Kerfwright`}</title>
+      <Stack direction="row" spacing={2} sx={{ alignItems: 'center', mb: 1 }}>
+        <Typography variant="h1">{job.designName}</Typography>
+        <JobStateChip state={job.state} />
+        <Box sx={{ flex: 1 }} />
+        <ToggleButtonGroup
+          size="small"
+          exclusive
+          value={unit}
+          onChange={(_, u: LengthUnit | null) => u && setUnit(u)}
+          aria-label="Units"
+        >
+          <ToggleButton value="mm">mm</ToggleButton>
+          <ToggleButton value="in">inch</ToggleButton>
+        </ToggleButtonGroup>
+      </Stack>
+      <Typography color="text.secondary" sx={{ mb: 2 }}>
+        {`Requested by ${job.requesterName} · ${job.quantity} ${job.quantity === 1 ? 'copy' : 'copies'} · `}
+        <Link to={`/designs/${job.designId}`}>open the design</Link>
+      </Typography>
+      {job.returnReason && job.state === 'returned' ? (
+        <Alert severity="error" sx={{ mb: 2 }} data-testid="return-reason">
+          {`Returned: ${job.returnReason}`}
+        </Alert>
+      ) : null}
+      {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
+
+      <Stack
+        direction="row"
+        spacing={1}
+        sx={{ mb: 3, flexWrap: 'wrap' }}
+        useFlexGap
+        data-testid="job-actions"
+      >
+        {job.actions.map((a) => (
+          <Button
+            key={a}
+            variant={a === 'return' ? 'outlined' : 'contained'}
+            color={a === 'return' ? 'error' : 'primary'}
+            onClick={() => start(a)}
+          >
+            {transitionFor(a).label}
+          </Button>
+        ))}
+        {canAcknowledge ? (
+          <Button variant="outlined" color="warning" onClick={() => setOpen('safety')}>
+            Safety notices
+          </Button>
+        ) : null}
+        {job.actions.length === 0 && !canAcknowledge ? (
+          <Typography color="text.secondary">Nothing for you to do on this job now.</Typography>
+        ) : null}
+      </Stack>
+
+      <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', md: '1fr 1fr' } }}>
+        <Paper variant="outlined" sx={{ p: 2 }}>
+          <Typography variant="h2" sx={{ mb: 1 }}>
+            Material and machine
+          </Typography>
+          <Facts
+            rows={[
+              ['Material', job.materialName ?? 'not chosen yet'],
+              ['Colours', job.colours.length ? job.colours.join(', ') : '—'],
+              [
+                'Machine profile',
+                job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : 'not chosen yet',
+              ],
+              ['Notes', job.notes || '—'],
+            ]}
+          />
+          {job.actualMinutes !== null ? (
+            <Facts
+              rows={[
+                ['Machine time', `${job.actualMinutes} min`],
+                ['Sheets used', String(job.sheetsUsed ?? '—')],
+                ['Measured kerf', job.measuredKerfMm === null ? '—' : fmt(job.measuredKerfMm)],
+              ]}
+            />
+          ) : null}
+        </Paper>
+        <Paper variant="outlined" sx={{ p: 2 }} data-testid="job-layout">
+          <Typography variant="h2" sx={{ mb: 1 }}>
+            Layout and estimates
+          </Typography>
+          {prep ? (
+            <>
+              <Facts
+                rows={[
+                  ['Pieces', String(prep.pieceCount)],
+                  ['Crossings', String(prep.crossingCount)],
+                  ['Diameter', fmt(prep.diameterMm)],
+                  [
+                    'Sheets',
+                    `${prep.sheetCount} of ${fmt(prep.sheet.widthMm)} × ${fmt(prep.sheet.heightMm)}`,
+                  ],
+                  ['Utilisation', `${(prep.utilisation * 100).toFixed(1)} %`],
+                  ['Stock', `${fmt(prep.thicknessMm)} on a ${prep.machineKind}`],
+                  ...(prep.estimate
+                    ? ([
+                        ['Cut length', fmt(prep.estimate.cutLengthMm)],
+                        ['Pierces', String(prep.estimate.pierces)],
+                        ['Machine time', `${prep.estimate.minutes.toFixed(1)} min`],
+                        [
+                          'Cost',
+                          `${(prep.estimate.machineCost + prep.estimate.materialCost).toFixed(2)} ${prep.estimate.currency} (machine ${prep.estimate.machineCost.toFixed(2)}, material ${prep.estimate.materialCost.toFixed(2)})`,
+                        ],
+                      ] as [string, string][])
+                    : []),
+                ]}
+              />
+              {prep.warnings.map((w, i) => (
+                <Alert key={i} severity="warning" sx={{ mt: 1 }}>
+                  {w}
+                </Alert>
+              ))}
+            </>
+          ) : (
+            <Typography color="text.secondary">A fabricator lays the job out when preparing it.</Typography>
+          )}
+        </Paper>
+      </Box>
+
+      {canSeePack ? (
+        <CutPackPanel
+          jobId={job.id}
+          canPrepare={user.role === 'fabricator' || user.role === 'supervisor'}
+          onOpenSafety={() => setOpen('safety')}
+        />
+      ) : null}
+
+      <Paper variant="outlined" sx={{ p: 2, mt: 2 }}>
+        <Typography variant="h2" sx={{ mb: 1 }}>
+          History
+        </Typography>
+        <Table size="small" aria-label="History">
+          <TableHead>
+            <TableRow>
+              <TableCell>When</TableCell>
+              <TableCell>Step</TableCell>
+              <TableCell>By</TableCell>
+              <TableCell>Reason</TableCell>
+            </TableRow>
+          </TableHead>
+          <TableBody>
+            {job.transitions.map((t, i) => (
+              <TableRow key={i}>
+                <TableCell>{new Date(t.at).toLocaleString()}</TableCell>
+                <TableCell>{`${t.from ?? 'new'} → ${t.to}`}</TableCell>
+                <TableCell>{t.actorName ?? '—'}</TableCell>
+                <TableCell>{t.reason ?? ''}</TableCell>
+              </TableRow>
+            ))}
+          </TableBody>
+        </Table>
+      </Paper>
+
+      {open === 'prepare' ? (
+        <PrepareJobDialog
+          open
+          busy={action.isPending}
+          error={action.error}
+          onSubmit={(body) => take('prepare', { ...body })}
+          onClose={() => setOpen(null)}
+        />
+      ) : null}
+      {open === 'return' ? (
+        <ReturnJobDialog
+          open
+          busy={action.isPending}
+          error={action.error}
+          onSubmit={(v) => take('return', { reason: v.reason.trim() })}
+          onClose={() => setOpen(null)}
+        />
+      ) : null}
+      {open === 'cut' ? (
+        <RecordCutDialog
+          open
+          busy={action.isPending}
+          error={action.error}
+          defaultSheets={prep?.sheetCount ?? 1}
+          onSubmit={(v) =>
+            take('cut', {
+              actualMinutes: v.actualMinutes,
+              sheetsUsed: v.sheetsUsed,
+              ...(Number.isNaN(v.measuredKerfMm) ? {} : { measuredKerfMm: v.measuredKerfMm }),
+            })
+          }
+          onClose={() => setOpen(null)}
+        />
+      ) : null}
+      {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}
+      {open && !['prepare', 'return', 'cut', 'safety'].includes(open) ? (
+        <Dialog open onClose={() => setOpen(null)} aria-labelledby="confirm-title">
+          <DialogTitle id="confirm-title">{transitionFor(open as JobAction).label}?</DialogTitle>
+          <DialogContent>
+            {action.error ? <FormErrorAlert error={action.error} /> : null}
+            <Typography>{`The job moves from ${job.state} to ${transitionFor(open as JobAction).to}.`}</Typography>
+          </DialogContent>
+          <DialogActions>
+            <Button onClick={() => setOpen(null)}>Cancel</Button>
+            <Button variant="contained" disabled={action.isPending} onClick={() => take(open as JobAction)}>
+              Confirm
+            </Button>
+          </DialogActions>
+        </Dialog>
+      ) : null}
+    </Box>
+  );
+}
+
+function Facts({ rows }: { rows: [string, string][] }) {
+  return (
+    <Box component="dl" sx={{ display: 'grid', gridTemplateColumns: '160px 1fr', rowGap: 0.5, m: 0, mb: 1 }}>
+      {rows.map(([k, v]) => (
+        <Box key={k} sx={{ display: 'contents' }}>
+          <Typography component="dt" color="text.secondary" variant="body2">
+            {k}
+          </Typography>
+          <Typography component="dd" variant="body2" sx={{ m: 0 }}>
+            {v}
+          </Typography>
+        </Box>
+      ))}
+    </Box>
+  );
+}

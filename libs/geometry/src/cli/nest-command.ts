@@ -1,0 +1,28 @@
+import { runNestCommand } from '../nest';
+import { type CliCommand, UsageError, parseArgs } from './command';
+import { readJsonArg } from './read-json';
+
+/**
+ * `nest PARTS.json`: nests the parts on sheets (see runNestCommand for the input) and prints the result
+ * as JSON on stdout. Exit codes: 0 nested; 1 the output carries an `error` (invalid input, a part that
+ * fits no sheet); 2 unreadable JSON or bad arguments.
+ */
+export const nestCommand: CliCommand = {
+  name: 'nest',
+  summary: 'nest part outlines onto sheets and print the placements as JSON',
+  usage: 'nest PARTS.json',
+  run(args, io) {
+    const { positional } = parseArgs(args, [], []);
+    const [file, extra] = positional;
+    if (!file || extra !== undefined) throw new UsageError('usage: nest PARTS.json');
+    const input = readJsonArg(io, file);
+    if (!input) return 2;
+    const output = runNestCommand(input.value);
+    io.out(JSON.stringify(output, null, 2));
+    if (output.error) {
+      io.err(`error: ${output.error.code}: ${output.error.message}`);
+      return 1;
+    }
+    return 0;
+  },
+};

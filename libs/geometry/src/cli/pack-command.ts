@@ -1,0 +1,84 @@
+import type { CutPackResult } from '@kerfwright/contracts';
+import { CutPackError } from '../pack/pack';
+import { type PackCommandOptions, runCouponCommand, runPackCommand } from '../pack/cli-commands';
+import { type CliCommand, type CliIo, UsageError, parseArgs } from './command';
+import { readJsonArg } from './read-json';
+
+/** Exit code for a pack failure: 2 for a spec that cannot be read as a design, 1 for a design or layout that fails. */
+function exitCodeOf(e: CutPackError): number {
+  return e.code === 'PACK.DESIGN_INVALID' || e.code === 'PACK.LAYOUT_FAILED' ? 1 : 2;
+}
+
+function writePack(io: CliIo, outDir: string, result: CutPackResult): void {
+  io.makeDir(outDir);
+  for (const f of result.files) io.writeBytes(io.joinPath(outDir, f.name), f.data);
+}
+
+function summaryLine(result: CutPackResult, outDir: string): string {
+  const m = result.manifest;
+  const e = m.estimate;
+  return (
+    `wrote ${result.files.length} files to ${outDir}: ${m.sheetCount} sheet${m.sheetCount === 1 ? '' : 's'}, ` +
+    `cut ${e.cutLengthMm} mm, ${e.pierces} pierces, about ${e.minutes} min` +
+    (m.warnings?.length ? `; ${m.warnings.length} warning(s): ${m.warnings.join('; ')}` : '')
+  );
+}
+
+async function runPackLike(
+  args: readonly string[],
+  io: CliIo,
+  usage: string,
+  make: (spec: unknown, options: PackCommandOptions) => Promise<CutPackResult>,
+  switches: readonly string[],
+): Promise<number> {
+  const { positional, options } = parseArgs(args, ['out', 'units'], ['json', ...switches]);
+  const [specPath, extra] = positional;
+  const outDir = options.get('out');
+  if (!specPath || extra !== undefined || typeof outDir !== 'string') throw new UsageError(`usage: ${usage}`);
+  const units = options.get('units') ?? 'mm';
+  if (units !== 'mm' && units !== 'in') throw new UsageError('--units must be "mm" or "in"');
+  const input = readJsonArg(io, specPath);
+  if (!input) return 2;
+  let result: CutPackResult;
+  try {
+    result = await make(input.value, { units, archive: options.get('zip') === true });
+  } catch (e) {
+    if (!(e instanceof CutPackError)) throw e;
+    io.err(`error: ${e.code}: ${e.message}`.replace(/\s*\n\s*/g, ' '));
+    return exitCodeOf(e);
+  }
+  writePack(io, outDir, result);
+  if (options.get('json') === true) io.out(JSON.stringify(result.manifest, null, 2));
+  else io.out(summaryLine(result, outDir));
+  return 0;
+}
+
+/**
+ * `pack SPEC.json --out DIR [--units in] [--zip] [--json]`: the whole cut pack (sheets as DXF and SVG,
+ * coupon, setup sheet and assembly guide PDFs, manifest; --zip adds one ZIP of all). The spec may carry
+ * `stock.sheet`, `stock.marginMm`, `stock.gapMm` and `colours`; machine settings not in the spec come from
+ * CLI_DEFAULT_MACHINE. Prints a summary line, or the manifest with --json. Exit codes: 0 written; 1 the
+ * design has errors or does not lay out (nothing written); 2 unreadable JSON or invalid spec (nothing
+ * written).
+ */
+const PACK_USAGE = 'pack SPEC.json --out DIR [--units in] [--zip] [--json]';
+const COUPON_USAGE = 'coupon SPEC.json --out DIR [--units in] [--json]';
+
+export const packCommand: CliCommand = {
+  name: 'pack',
+  summary: 'write the cut pack of a design spec: sheets, coupon, setup sheet, assembly guide, manifest',
+  usage: PACK_USAGE,
+  run(args, io) {
+    return runPackLike(args, io, PACK_USAGE, runPackCommand, ['zip']);
+  },
+};
+
+/** `coupon SPEC.json --out DIR [--units in] [--json]`: the fit-test coupon alone (exit codes as pack). */
+export const couponCommand: CliCommand = {
+  name: 'coupon',
+  summary: 'write the fit-test coupon of a design spec (DXF, SVG, manifest)',
+  usage: COUPON_USAGE,
+  run(args, io) {
+    return runPackLike(args, io, COUPON_USAGE, runCouponCommand, []);
+  },
+};

@@ -1,0 +1,147 @@
+import type { DesignReport, DesignSpec } from '@kerfwright/contracts';
+import { buildModel } from '../build';
+import { getSolid } from '../solids/catalogue';
+import { cubeSquares45, octahedronHexagons } from '../test-support/designs';
+import { buildWithLayout, sheetsNeeded } from './build-with-layout';
+
+const sheet = { widthMm: 600, heightMm: 400 };
+const withSheet = (spec: DesignSpec, extra: object = {}): DesignSpec => ({
+  ...spec,
+  stock: { ...spec.stock, sheet },
+  ...extra,
+});
+
+/**
+ * An independent colour-plan checker: adjacency from the solid's edge list (the two faces of each edge),
+ * vertices from its vertex–face incidence, opposite faces from the report's piece normals (dot = −1).
+ */
+function ruleBroken(solidId: string, report: DesignReport): string[] {
+  const plan = report.colourPlan;
+  if (!plan) return ['no plan'];
+  const solid = getSolid(solidId);
+  const colour = (face: number) => plan.assignment[`P${face + 1}`];
+  const broken: string[] = [];
+  for (let f = 0; f < solid.faces.length; f++) {
+    const c = colour(f);
+    if (c === undefined || c < 0 || c >= plan.count || !Number.isInteger(c))
+      broken.push(`P${f + 1} uncoloured`);
+  }
+  if (plan.rule === 'vertex-distinct') {
+    solid.vertexFaces.forEach((faces, v) => {
+      if (new Set(faces.map(colour)).size !== faces.length) broken.push(`vertex ${v}`);
+    });
+  } else {
+    for (const e of solid.edges)
+      if (colour(e.faces[0]) === colour(e.faces[1])) broken.push(`edge ${e.faces}`);
+  }
+  if (plan.rule === 'opposite-match') {
+    report.pieces.forEach((a, i) =>
+      report.pieces.forEach((b, j) => {
+        const dot = a.normal[0] * b.normal[0] + a.normal[1] * b.normal[1] + a.normal[2] * b.normal[2];
+        if (j > i && dot < -1 + 1e-6 && colour(i) !== colour(j)) broken.push(`opposite ${a.id} ${b.id}`);
+      }),
+    );
+  }
+  return broken;
+}
+
+describe('colour plan in the build report', () => {
+  it.each([
+    ['cube', cubeSquares45(1.5), 3, 'neighbour-distinct'],
+    ['cube', cubeSquares45(1.5), 3, 'opposite-match'],
+    ['octahedron', octahedronHexagons(), 4, 'vertex-distinct'],
+    ['octahedron', octahedronHexagons(), 2, 'neighbour-distinct'],
+  ] as const)('%s with %i colours, %s: the plan keeps the rule', (solid, spec, count, rule) => {
+    const r = buildModel({ ...spec, colours: { count, rule } }).report;
+    expect(r.colourPlan).toMatchObject({ rule, count, feasible: true });
+    expect(ruleBroken(solid, r)).toEqual([]);
+    expect(r.colourPlan?.colourCounts.reduce((a, b) => a + b, 0)).toBe(r.pieces.length);
+    expect(r.colourPlan?.distinctPlans).toBeGreaterThanOrEqual(1);
+    expect(r.errors).toEqual([]);
+  });
+
+  it('reports a rule with no plan as an error that blocks files', () => {
+    // Derived: the three faces around a cube vertex touch pairwise, so neighbours-differ needs 3 colours;
+    // each opposite pair touches both other pairs, so opposite-match needs 3 too. Four faces meet at each
+    // octahedron vertex, so vertex-distinct needs 4.
+    for (const [spec, count, rule] of [
+      [cubeSquares45(1.5), 2, 'neighbour-distinct'],
+      [cubeSquares45(1.5), 2, 'opposite-match'],
+      [octahedronHexagons(), 3, 'vertex-distinct'],
+    ] as const) {
+      const r = buildModel({ ...spec, colours: { count, rule } }).report;
+      expect(r.colourPlan).toMatchObject({ feasible: false, assignment: {} });
+      expect(r.errors.map((e) => e.code)).toEqual(['COLOUR.NO_PLAN']);
+      expect(r.errors[0]?.message).toMatch(/no plan exists/);
+    }
+  });
+
+  it('leaves the report without a plan when no colours are given', () => {
+    expect(buildModel(cubeSquares45(1.5)).report.colourPlan).toBeUndefined();
+  });
+});
+
+describe('sheet count', () => {
+  it('is in the report of a build with layout when the stock has a sheet, and matches sheetsNeeded', () => {
+    const spec = withSheet(octahedronHexagons());
+    const { model, layout } = buildWithLayout(spec);
+    expect(layout?.ok).toBe(true);
+    expect(model.report.sheetCount).toBe(layout?.ok ? layout.totals.sheetCount : -1);
+    expect(sheetsNeeded(spec)).toBe(model.report.sheetCount);
+    // Without a sheet there is no layout and no count; buildModel never lays out.
+    expect(buildWithLayout(octahedronHexagons()).model.report.sheetCount).toBeUndefined();
+    expect(buildModel(spec).report.sheetCount).toBeUndefined();
+    expect(() => sheetsNeeded(octahedronHexagons())).toThrow(/stock\.sheet/);
+  });
+
+  it('counts more sheets for a larger model and reports a piece larger than the sheet', () => {
+    // Derived bound: each sheet holds at most its own area of pieces.
+    for (const mm of [80, 120]) {
+      const spec = withSheet(octahedronHexagons({ scale: { by: 'planeDistance', mm } }));
+      const { model } = buildWithLayout(spec);
+      const area = model.report.pieces.reduce((s, p) => s + p.areaMm2, 0);
+      expect(model.report.sheetCount).toBeGreaterThanOrEqual(Math.ceil(area / (600 * 400)));
+    }
+    const huge = withSheet(octahedronHexagons({ scale: { by: 'planeDistance', mm: 300 } }));
+    const r = buildWithLayout(huge).model.report;
+    expect(r.errors.map((e) => e.code)).toEqual(['LAYOUT.PIECE_TOO_LARGE']);
+    expect(sheetsNeeded(huge)).toBeNull();
+  });
+});
+
+describe('fitSheets scale', () => {
+  const spec = (sheets: number) =>
+    withSheet(cubeSquares45(1.5), { scale: { by: 'fitSheets', sheets } }) as unknown as DesignSpec;
+
+  it('finds a model that fits N sheets while 1 % larger needs more', () => {
+    const { model, layout, resolvedSpec } = buildWithLayout(spec(2));
+    const r = model.report;
+    expect(r.errors).toEqual([]);
+    expect(r.scale).toMatchObject({ method: 'fitSheets', sheets: 2, resolved: true, tolerance: 0.005 });
+    expect(r.scale?.evaluations).toBeLessThanOrEqual(16);
+    expect(r.sheetCount).toBeLessThanOrEqual(2);
+    expect(layout?.ok && layout.totals.sheetCount).toBe(r.sheetCount);
+    expect(resolvedSpec.scale).toEqual({ by: 'diameter', mm: r.diameterMm });
+    // The resolved size, rebuilt as a fixed diameter, lays out the same; 1 % larger needs a third sheet.
+    expect(sheetsNeeded(resolvedSpec)).toBe(r.sheetCount);
+    const larger = sheetsNeeded({ ...resolvedSpec, scale: { by: 'diameter', mm: r.diameterMm * 1.01 } });
+    expect(larger === null || larger > 2).toBe(true);
+  });
+
+  it('gives an upper bound without layout in buildModel, and never a smaller model from the search', () => {
+    const bound = buildModel(spec(2)).report;
+    expect(bound.scale).toMatchObject({ method: 'fitSheets', resolved: false });
+    expect(bound.warnings.map((w) => w.code)).toContain('SCALE.UPPER_BOUND');
+    const searched = buildWithLayout(spec(2)).model.report;
+    expect(searched.diameterMm).toBeLessThanOrEqual(bound.diameterMm + 1e-6);
+    // Derived: the pieces' total area can be at most the sheets' usable area (600 − 10) × (400 − 10).
+    const area = bound.pieces.reduce((s, p) => s + p.areaMm2, 0);
+    expect(area).toBeLessThanOrEqual(2 * 590 * 390 * (1 + 1e-6));
+  });
+
+  it('does not search when the colour rule has no plan', () => {
+    const r = buildWithLayout({ ...spec(3), colours: { count: 2, rule: 'neighbour-distinct' } }).model.report;
+    expect(r.errors.map((e) => e.code)).toEqual(['COLOUR.NO_PLAN']);
+    expect(r.scale?.resolved).toBe(false);
+  });
+});

@@ -1,0 +1,155 @@
+import type { DesignSpec } from '@kerfwright/contracts';
+import {
+  type BuiltModel,
+  attachColourPlan,
+  buildAtScale,
+  fitSheetsUpperBound,
+  resolveSolid,
+  scaleSummary,
+  solveModelColourPlan,
+  buildModel,
+} from '../build';
+import { type ColourPlan } from '../colour';
+import { SpecValidationError, validateSpec, type ResolvedSpec } from '../spec/validate-spec';
+import { layoutModel, type ModelLayout } from './plan-layout';
+
+/** fitSheets stops when the largest fitting size and the smallest failing size differ by this fraction. */
+export const FIT_SHEETS_TOLERANCE = 0.005;
+/** Most layouts one fitSheets search runs. */
+export const FIT_SHEETS_MAX_LAYOUTS = 16;
+
+export interface LayoutBuild {
+  model: BuiltModel;
+  /** The layout on `stock.sheet`; null without a sheet or when the design has errors. */
+  layout: ModelLayout | null;
+  /** The spec at the size built, with a fixed `diameter` scale (what to store to reproduce it). */
+  resolvedSpec: DesignSpec;
+}
+
+/**
+ * Builds a spec and lays it out on `stock.sheet` when the spec gives one: the report gains `sheetCount`
+ * (or an error LAYOUT.PIECE_TOO_LARGE / LAYOUT.INVALID when the layout fails), and a `fitSheets` scale is
+ * searched (see fitSheetsSearch). For the CLI, the API and workers; the browser's per-keystroke preview
+ * uses buildModel, which runs no layout. Throws what buildModel throws.
+ */
+export function buildWithLayout(input: unknown): LayoutBuild {
+  const v = validateSpec(input);
+  if (!v.ok) throw new SpecValidationError(v.errors);
+  const spec = v.spec;
+  if (spec.scale.by === 'fitSheets') return fitSheetsSearch(spec, input as DesignSpec);
+  const model = buildModel(input);
+  const layout = spec.sheet && model.report.errors.length === 0 ? layOut(model, spec) : null;
+  if (layout) noteLayout(model, layout);
+  return { model, layout, resolvedSpec: resolvedSpecOf(input as DesignSpec, model) };
+}
+
+/**
+ * Sheets of `stock.sheet` the spec's model needs as given (its own scale; a fitSheets scale is searched
+ * first). Null when the design has errors or a piece does not fit the sheet. Throws SpecValidationError
+ * for an invalid spec or one without `stock.sheet`.
+ */
+export function sheetsNeeded(input: unknown): number | null {
+  const v = validateSpec(input);
+  if (!v.ok) throw new SpecValidationError(v.errors);
+  if (!v.spec.sheet) {
+    throw new SpecValidationError([
+      { field: 'stock.sheet', messages: ['stock.sheet is required to count sheets'] },
+    ]);
+  }
+  const { model, layout } = buildWithLayout(input);
+  return model.report.errors.length === 0 && layout?.ok ? layout.totals.sheetCount : null;
+}
+
+function layOut(model: BuiltModel, spec: ResolvedSpec, colourPlan?: ColourPlan): ModelLayout {
+  const sheet = spec.sheet as NonNullable<ResolvedSpec['sheet']>;
+  return layoutModel(model, {
+    sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm },
+    marginMm: sheet.marginMm,
+    gapMm: sheet.gapMm,
+    colours: { count: spec.colours?.count ?? 1, rule: spec.colours?.rule ?? 'neighbour-distinct' },
+    ...(colourPlan ? { colourPlan } : {}),
+  });
+}
+
+function noteLayout(model: BuiltModel, layout: ModelLayout): void {
+  if (layout.ok) model.report.sheetCount = layout.totals.sheetCount;
+  else if (layout.code !== 'LAYOUT.NO_COLOUR_PLAN') {
+    // No colour plan is already the error COLOUR.NO_PLAN.
+    model.report.errors.push({ code: layout.code, message: layout.message, pieces: layout.pieces });
+  }
+}
+
+function resolvedSpecOf(input: DesignSpec, model: BuiltModel): DesignSpec {
+  return { ...input, scale: { by: 'diameter', mm: model.report.diameterMm } };
+}
+
+/**
+ * The largest model whose layout uses at most `scale.sheets` sheets, with no design errors. Nesting is a
+ * heuristic, so "fits in N sheets" is not strictly monotone in the size; the search treats it as monotone
+ * and keeps the largest size it saw fit:
+ * 1. the upper bound (fitSheetsUpperBound: the largest piece fits the sheet, total area ≤ N sheets);
+ *    if it fits, done;
+ * 2. otherwise step down by factors of 0.85 until a size fits (at most 8 steps);
+ * 3. bisect (geometric mean) between the largest fitting and the smallest failing size until they differ
+ *    by FIT_SHEETS_TOLERANCE (0.5 %), or FIT_SHEETS_MAX_LAYOUTS layouts have run.
+ * When no size fits, the report has error SCALE.NO_FIT (with the last model tried). The colour plan is
+ * solved once (it does not depend on the size); without one (COLOUR.NO_PLAN) no search runs.
+ */
+export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBuild {
+  const sheets = spec.scale.by === 'fitSheets' ? spec.scale.sheets : 1;
+  const solid = resolveSolid(spec);
+  const upper = fitSheetsUpperBound(spec, solid);
+  const plan = spec.colours ? solveModelColourPlan(upper.model, 12) : undefined;
+  const summary = (model: BuiltModel, layouts: number, resolved: boolean) => {
+    model.report.scale = scaleSummary(model, {
+      sheets,
+      resolved,
+      evaluations: layouts,
+      tolerance: FIT_SHEETS_TOLERANCE,
+    });
+    attachColourPlan(model, plan);
+  };
+  if (plan && !plan.feasible) {
+    summary(upper.model, 0, false);
+    return { model: upper.model, layout: null, resolvedSpec: resolvedSpecOf(input, upper.model) };
+  }
+  let layouts = 0;
+  const evaluate = (model: BuiltModel) => {
+    if (model.report.errors.length > 0) return { model, layout: null, fits: false };
+    layouts++;
+    const layout = layOut(model, spec, plan);
+    return { model, layout, fits: layout.ok && layout.totals.sheetCount <= sheets };
+  };
+  type Trial = ReturnType<typeof evaluate>;
+  let hi: Trial = evaluate(upper.model);
+  let lo: Trial | null = hi.fits ? hi : null;
+  for (let step = 0; !lo && step < 8; step++) {
+    const t = evaluate(buildAtScale(spec, solid, hi.model.mmPerUnit * 0.85));
+    if (t.fits) lo = t;
+    else hi = t;
+  }
+  if (!lo) {
+    const model = hi.model;
+    summary(model, layouts, false);
+    model.report.errors.push({
+      code: 'SCALE.NO_FIT',
+      message:
+        `no size tried fits ${sheets} sheet${sheets === 1 ? '' : 's'} of ` +
+        `${spec.sheet?.widthMm} × ${spec.sheet?.heightMm} mm without errors`,
+      pieces: [],
+    });
+    if (hi.layout) noteLayout(model, hi.layout);
+    return { model, layout: hi.layout, resolvedSpec: resolvedSpecOf(input, model) };
+  }
+  while (lo !== hi && hi.model.mmPerUnit / lo.model.mmPerUnit - 1 > FIT_SHEETS_TOLERANCE) {
+    if (layouts >= FIT_SHEETS_MAX_LAYOUTS) break;
+    const m = Math.sqrt(lo.model.mmPerUnit * hi.model.mmPerUnit);
+    const t = evaluate(buildAtScale(spec, solid, m));
+    if (t.fits) lo = t;
+    else hi = t;
+  }
+  const model = lo.model;
+  summary(model, layouts, true);
+  if (lo.layout) noteLayout(model, lo.layout);
+  return { model, layout: lo.layout, resolvedSpec: resolvedSpecOf(input, model) };
+}

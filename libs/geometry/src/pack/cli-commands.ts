@@ -1,0 +1,167 @@
+/**
+ * Pack and coupon for the command line: take the parsed JSON spec (which may carry the issue-4 fields
+ * `stock.sheet`, `stock.marginMm`, `stock.gapMm` and `colours: {count, rule}`), fill what a workshop would
+ * otherwise supply from its machine profile and materials library with stated defaults, and build the
+ * files. The CLI entry writes the returned files to --out.
+ */
+import type { ColourRuleName, CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contracts';
+import { buildWithLayout } from '../layout/build-with-layout';
+import { validateSpec } from '../spec/validate-spec';
+import { CutPackError, createCoupon, createCutPack } from './pack';
+
+export interface PackCommandOptions {
+  sheet?: { widthMm: number; heightMm: number };
+  marginMm?: number;
+  gapMm?: number;
+  /** Colour names, or a count (named colour-1, colour-2 …). */
+  colours?: string[] | number;
+  colourRule?: ColourRuleName;
+  quantity?: number;
+  units?: 'mm' | 'in';
+  archive?: boolean;
+  machine?: Partial<CutPackInput['machine']>;
+  material?: Partial<CutPackInput['material']>;
+  job?: Partial<CutPackInput['job']>;
+  notices?: CutPackInput['notices'];
+  /** Time stamp printed in the files; default the Unix epoch (the library reads no clock). */
+  createdAt?: string;
+}
+
+const isObj = (v: unknown): v is Record<string, unknown> =>
+  typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Splits the layout fields off a spec; returns the design spec buildModel accepts and the extras. */
+export function splitSpec(raw: unknown): {
+  spec: DesignSpec;
+  sheet?: { widthMm: number; heightMm: number };
+  marginMm?: number;
+  gapMm?: number;
+  colours?: { count?: number; rule?: ColourRuleName; names?: string[] };
+} {
+  if (!isObj(raw)) return { spec: raw as DesignSpec };
+  const { colours, ...rest } = raw;
+  const out: ReturnType<typeof splitSpec> = { spec: rest as unknown as DesignSpec };
+  if (isObj(rest.stock)) {
+    const { sheet, marginMm, gapMm, ...stock } = rest.stock;
+    out.spec = { ...(rest as unknown as DesignSpec), stock: stock as unknown as DesignSpec['stock'] };
+    if (isObj(sheet)) out.sheet = { widthMm: Number(sheet.widthMm), heightMm: Number(sheet.heightMm) };
+    if (typeof marginMm === 'number') out.marginMm = marginMm;
+    if (typeof gapMm === 'number') out.gapMm = gapMm;
+  }
+  if (isObj(colours)) {
+    out.colours = {};
+    if (typeof colours.count === 'number') out.colours.count = colours.count;
+    if (typeof colours.rule === 'string') out.colours.rule = colours.rule as ColourRuleName;
+    if (Array.isArray(colours.names)) out.colours.names = colours.names.map(String);
+  }
+  return out;
+}
+
+/** Defaults for a run without a machine profile: a 60 W CO2 laser on 3 mm ply (REFERENCES starting values). */
+export const CLI_DEFAULT_MACHINE: CutPackInput['machine'] = {
+  profileName: 'command-line defaults',
+  profileVersion: 0,
+  kind: 'laser',
+  bedWidthMm: 600,
+  bedHeightMm: 400,
+  cutSpeedMmS: 15,
+  markSpeedMmS: 100,
+  pierceTimeS: 0.2,
+  rapidSpeedMmS: 300,
+  passes: 1,
+  hourlyRate: 0,
+  currency: 'EUR',
+};
+
+export function packInputFrom(rawSpec: unknown, o: PackCommandOptions = {}): CutPackInput {
+  const s = splitSpec(rawSpec);
+  const sheet = o.sheet ?? s.sheet ?? { widthMm: 600, heightMm: 400 };
+  const count =
+    typeof o.colours === 'number' ? o.colours : (s.colours?.count ?? s.colours?.names?.length ?? 1);
+  const colours = Array.isArray(o.colours)
+    ? o.colours
+    : (s.colours?.names ?? Array.from({ length: Math.max(1, count) }, (_, i) => `colour-${i + 1}`));
+  const rule = o.colourRule ?? s.colours?.rule;
+  const machineKind = s.spec.machine?.kind ?? 'laser';
+  return {
+    spec: s.spec,
+    sheet,
+    marginMm: o.marginMm ?? s.marginMm ?? 5,
+    gapMm: o.gapMm ?? s.gapMm ?? 3,
+    colours,
+    ...(rule ? { colourRule: rule } : {}),
+    quantity: o.quantity ?? 1,
+    machine: { ...CLI_DEFAULT_MACHINE, kind: machineKind, ...o.machine },
+    material: {
+      name: 'stock',
+      family: 'unspecified',
+      thicknessMm: s.spec.stock?.thicknessMm ?? 0,
+      pricePerSheet: 0,
+      currency: 'EUR',
+      ...o.material,
+    },
+    job: { id: 'cli', title: 'command-line pack', requester: 'command line', ...o.job },
+    notices: o.notices ?? [],
+    localRulesVersion: null,
+    units: o.units ?? 'mm',
+    archive: o.archive ?? false,
+    createdAt: o.createdAt ?? '1970-01-01T00:00:00.000Z',
+  };
+}
+
+/**
+ * Checks a parsed spec and turns a fit scale (`fitSheets`, `fitBed`) into the fixed diameter it resolves
+ * to (buildWithLayout), so the pack is cut at that size. Throws CutPackError PACK.SPEC_INVALID for an
+ * invalid spec and PACK.DESIGN_INVALID when the fitted design has errors.
+ */
+export function resolveSpecForPack(rawSpec: unknown): unknown {
+  const v = validateSpec(rawSpec);
+  if (!v.ok) {
+    const text = v.errors.map((e) => (e.field ? `${e.field}: ` : '') + e.messages.join('; ')).join(' | ');
+    throw new CutPackError(
+      'PACK.SPEC_INVALID',
+      `invalid spec: ${text}`,
+      v.errors.map((e) => e.field),
+    );
+  }
+  if (v.spec.scale.by !== 'fitSheets' && v.spec.scale.by !== 'fitBed') return rawSpec;
+  let built;
+  try {
+    built = buildWithLayout(rawSpec);
+  } catch (e) {
+    throw new CutPackError('PACK.SPEC_INVALID', (e as Error).message);
+  }
+  const errors = built.model.report.errors;
+  if (errors.length > 0) {
+    throw new CutPackError(
+      'PACK.DESIGN_INVALID',
+      `the design has errors: ${errors.map((e) => `${e.code}: ${e.message}`).join('; ')}`,
+      errors.map((e) => e.code),
+    );
+  }
+  return built.resolvedSpec;
+}
+
+/** `pack SPEC.json --out DIR`: the whole cut pack for a parsed spec (fit scales resolved first). */
+export async function runPackCommand(
+  rawSpec: unknown,
+  options: PackCommandOptions = {},
+): Promise<CutPackResult> {
+  return createCutPack(packInputFrom(resolveSpecForPack(rawSpec), options));
+}
+
+/** `coupon SPEC.json --out DIR`: the fit-test coupon alone. */
+export async function runCouponCommand(
+  rawSpec: unknown,
+  options: Pick<PackCommandOptions, 'units' | 'archive' | 'machine' | 'job' | 'createdAt'> = {},
+): Promise<CutPackResult> {
+  const input = packInputFrom(resolveSpecForPack(rawSpec), options);
+  return createCoupon({
+    spec: input.spec,
+    units: input.units,
+    createdAt: input.createdAt,
+    machine: input.machine,
+    job: input.job,
+    archive: input.archive,
+  });
+}

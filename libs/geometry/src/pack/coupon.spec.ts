@@ -1,0 +1,123 @@
+import * as polygonClipping from 'polygon-clipping';
+import type { DesignSpec } from '@kerfwright/contracts';
+import { buildModel } from '../build';
+import { design } from '../test-support/designs';
+import { createCoupon, createCutPack } from './pack';
+import { packInputFrom } from './cli-commands';
+import { type P, disc, outsideArea, readDxf, readSvg, scaleBars } from './read-back.test';
+
+/** Rhombic triacontahedron planes with triangles: 30 pieces crossing at 36° and 60° (our own design). */
+const triacontaTriangles = (extra: Partial<DesignSpec> = {}): DesignSpec =>
+  design({
+    solid: 'rhombic-triacontahedron',
+    piece: { sides: 3, step: 1, rotationDeg: 0, size: 0.6 },
+    scale: { by: 'diameter', mm: 300 },
+    ...extra,
+  });
+
+/** Widths of the gaps (slots) a horizontal line at y crosses in a contour, left to right (polygon-clipping). */
+function gapsAt(contour: P[], y: number): number[] {
+  const xs = contour.map((p) => p[0]);
+  const band: P[] = [
+    [Math.min(...xs) - 1, y - 0.005],
+    [Math.max(...xs) + 1, y - 0.005],
+    [Math.max(...xs) + 1, y + 0.005],
+    [Math.min(...xs) - 1, y + 0.005],
+  ];
+  const parts = (polygonClipping.intersection([contour], [band]) as P[][][])
+    .map((poly) => poly[0]!.map((p) => p[0]))
+    .map((r) => [Math.min(...r), Math.max(...r)] as const)
+    .sort((a, b) => a[0] - b[0]);
+  return parts.slice(1).map((p, i) => p[0] - parts[i]![1]);
+}
+
+const nominal = (t: number, angleDeg: number) => t / Math.tan((angleDeg * Math.PI) / 360);
+
+describe('fit-test coupon', () => {
+  it('grades slot widths around t·cot(θ/2) at the steepest and shallowest crossing angles', async () => {
+    const spec = triacontaTriangles({ machine: { kind: 'laser', kerfMm: 0.2 } });
+    const model = buildModel(spec);
+    const angles = model.report.crossings.map((c) => c.angleDeg);
+    const steep = Math.max(...angles);
+    const shallow = Math.min(...angles);
+    // REFERENCES "Geometry": footprint t·cot(θ/2) is 1.732 t at 60° and 3.078 t at 36°.
+    expect(nominal(3, steep)).toBeCloseTo(1.732 * 3, 2);
+    expect(nominal(3, shallow)).toBeCloseTo(3.078 * 3, 2);
+    const r = await createCoupon({ ...packInputFrom(spec), archive: false });
+    expect(r.files.map((f) => f.name)).toEqual(['coupon.dxf', 'coupon.svg', 'manifest.json']);
+    const d = readDxf(r.files[0]!.data);
+    expect(d.insUnits).toBe(4);
+    expect(d.cut).toHaveLength(2);
+    // Strips from bottom to top: C1 (steepest) lies below C2 (shallowest).
+    const strips = [...d.cut].sort(
+      (a, b) => Math.min(...a.map((p) => p[1])) - Math.min(...b.map((p) => p[1])),
+    );
+    const offsets = [-0.15, -0.1, -0.05, 0, 0.05, 0.1, 0.15];
+    [steep, shallow].forEach((angle, i) => {
+      const c = strips[i]!;
+      const ys = c.map((p) => p[1]);
+      const top = Math.max(...ys);
+      const bottom = Math.min(...ys);
+      const depth = (top - bottom) / 2;
+      // Drawn widths at mid-depth of the graded slots: nominal + offset, narrowed by the kerf.
+      const expected = offsets.map((o) => Math.round((nominal(3, angle) + o) * 100) / 100 - 0.2);
+      const measured = gapsAt(c, top - depth / 2);
+      expect(measured).toHaveLength(7);
+      measured.forEach((w, k) => expect(w).toBeCloseTo(expected[k]!, 3));
+      // The key slot from the bottom edge: the other strip's computed width.
+      const other = i === 0 ? shallow : steep;
+      const key = gapsAt(c, bottom + depth / 2);
+      expect(key).toHaveLength(1);
+      expect(key[0]).toBeCloseTo(Math.round(nominal(3, other) * 100) / 100 - 0.2, 3);
+    });
+    // Engraved widths and ids stay inside the strips, 1 mm clear (0.8 + kerf/2) of every cut line; the
+    // rest of the mark layer is the 50 mm or larger scale bar.
+    for (const s of d.mark)
+      for (const p of s) {
+        const inPiece = strips.some((c) => outsideArea(disc(p, 0.9 - 1e-3), c) < 1e-9);
+        if (!inPiece) for (const c of strips) expect(outsideArea(disc(p, 1.9), c)).toBeGreaterThan(0);
+      }
+    expect(scaleBars(d.mark)[0]).toBeGreaterThanOrEqual(50);
+    // Engraved labels: one per graded slot and the key, plus the strip's own: 9 labels × 2 strips of
+    // strokes exist (each label at least one stroke).
+    expect(d.mark.length).toBeGreaterThan(18);
+    const svg = readSvg(r.files[1]!.data);
+    expect(svg.unit).toBe('mm');
+    expect(svg.cut).toHaveLength(2);
+  });
+
+  it('gives a router coupon plain widths (no kerf) with dog-bone reliefs below mid-depth', async () => {
+    const spec: DesignSpec = {
+      solid: 'cube',
+      piece: { sides: 4, rotationDeg: 45, size: 1.5 },
+      scale: { by: 'diameter', mm: 300 },
+      stock: { thicknessMm: 6 },
+      machine: { kind: 'router', toolDiameterMm: 3.175 },
+      fitMm: 0.1,
+    };
+    const r = await createCoupon({ ...packInputFrom(spec), archive: false });
+    const d = readDxf(r.files[0]!.data);
+    const c = [...d.cut].sort(
+      (a, b) => Math.min(...a.map((p) => p[1])) - Math.min(...b.map((p) => p[1])),
+    )[0]!;
+    const ys = c.map((p) => p[1]);
+    const top = Math.max(...ys);
+    const depth = (top - Math.min(...ys)) / 2;
+    // Cube planes cross at 90°: w = t + fit = 6.1 mm (REFERENCES: cot 45° = 1).
+    const measured = gapsAt(c, top - depth / 2);
+    expect(measured.map((w) => Math.round(w * 1000) / 1000)).toEqual([5.95, 6, 6.05, 6.1, 6.15, 6.2, 6.25]);
+    // Dog-bones: just above the slot bottom the cut-outs are wider than the slots.
+    // (The key slot's reliefs from the bottom edge reach this height too, at the right end: skip them.)
+    const nearBottom = gapsAt(c, top - depth + 0.3).slice(0, 7);
+    expect(nearBottom).toHaveLength(7);
+    nearBottom.forEach((w, k) => expect(w).toBeGreaterThan(measured[k]! + 0.05));
+  });
+
+  it('is part of every cut pack, in the pack units', async () => {
+    const spec = design({ solid: 'octahedron', piece: { sides: 6, step: 1, rotationDeg: 0, size: 1.3 } });
+    const r = await createCutPack({ ...packInputFrom(spec, { units: 'in' }), archive: false });
+    const coupon = r.files.find((f) => f.role === 'coupon-dxf')!;
+    expect(readDxf(coupon.data).insUnits).toBe(1);
+    expect(r.manifest.files.map((f) => f.role)).toEqual(expect.arrayContaining(['coupon-dxf', 'coupon-svg']));
+  });
+});

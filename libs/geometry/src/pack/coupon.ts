@@ -1,0 +1,172 @@
+/**
+ * Fit-test coupon: two strips of the job's stock. C1 tests the design's steepest crossing angle, C2 its
+ * shallowest. Each strip has, opening from its top edge, a graded series of slots around the computed
+ * width for its angle (default −0.15 … +0.15 mm in 0.05 mm steps), each width engraved beside its slot,
+ * and, opening from its bottom edge near the right end, one key slot at the computed width for the other
+ * strip's angle. To test C1: slide C2's key slot into each of C1's graded slots at C1's angle (and the
+ * reverse for C2); the best fit tells the operator which allowance to use. Slot widths follow the design:
+ * nominal t·cot(θ/2) (or t + fit for flexible stock) plus the fit allowance, then the machine compensation.
+ * Piece frame: mm, strip's lower-left corner at the origin, y up.
+ */
+import { type Vec2 } from '../math/vec';
+import { type BuiltModel } from '../build';
+import { type Slot, nominalSlotWidth, slotRectangle } from '../slots/slots';
+import { compensateKerf, notchOutline } from '../compensation/compensate';
+import { labelPiece } from '../labels';
+import { type EstimateMachine } from '../estimate';
+import { type SheetDrawing, type SheetPart, type Units, drawSheet, placePoint } from './sheet-drawing';
+
+export interface CouponOptions {
+  /** Offsets from the computed width, mm. Default −0.15 … +0.15 in 0.05 steps. */
+  offsetsMm?: readonly number[];
+}
+
+export interface CouponStrip {
+  id: string;
+  angleDeg: number;
+  /** Computed slot width (nominal + fit) for the angle, mm. */
+  widthMm: number;
+  /** Graded slot widths as engraved (before machine compensation), left to right. */
+  seriesMm: number[];
+  /** Width of the key slot (the other strip's computed width). */
+  keyWidthMm: number;
+  outline: Vec2[];
+  marks: Vec2[][];
+  lengthMm: number;
+  heightMm: number;
+}
+
+export interface Coupon {
+  strips: [CouponStrip, CouponStrip];
+  drawing: SheetDrawing;
+  warnings: string[];
+}
+
+export const DEFAULT_COUPON_OFFSETS = [-0.15, -0.1, -0.05, 0, 0.05, 0.1, 0.15];
+
+const r2 = (x: number) => Math.round(x * 100) / 100;
+
+function makeSlot(end: Vec2, axis: Vec2, depth: number, width: number): Slot {
+  const s: Slot = {
+    crossing: -1,
+    piece: 0,
+    partner: 0,
+    end,
+    axis,
+    depth,
+    width,
+    lead: 1,
+    inner: [],
+    bounds: { cx: end[0] + (axis[0] * depth) / 2, cy: end[1] + (axis[1] * depth) / 2, r: depth + width },
+  };
+  s.inner = slotRectangle(s, false);
+  return s;
+}
+
+/** Builds the coupon for a built model (its stock, fit allowance and machine), laid out on a small sheet. */
+export function buildCoupon(
+  model: BuiltModel,
+  units: Units,
+  machine: EstimateMachine,
+  options: CouponOptions = {},
+): Coupon {
+  const spec = model.spec;
+  const t = spec.stock.thicknessMm;
+  const angles = model.crossings.map((c) => c.angleDeg);
+  const steep = angles.length ? Math.max(...angles) : 90;
+  const shallow = angles.length ? Math.min(...angles) : 90;
+  const widthFor = (deg: number) => nominalSlotWidth(t, deg, spec.stock.flexible) + spec.fitMm;
+  const offsets = options.offsetsMm ?? DEFAULT_COUPON_OFFSETS;
+  // Widths are engraved to 0.01 mm: cut exactly what is engraved.
+  const wSteep = r2(widthFor(steep));
+  const wShallow = r2(widthFor(shallow));
+  const removed = spec.machine.kind === 'laser' ? spec.machine.kerfMm : 0;
+  const reliefR = spec.machine.kind === 'router' ? spec.machine.toolDiameterMm / 2 : 0;
+  const maxW = Math.max(wSteep, wShallow) + Math.max(0, ...offsets);
+  const height = Math.max(30, 2 * (maxW + 10), 6 * t);
+  const depth = height / 2;
+  const pitch = maxW + 11;
+  const margin = 6;
+  const warnings: string[] = [];
+
+  const strip = (id: string, angleDeg: number, w: number, keyW: number): CouponStrip => {
+    const series = offsets.map((o) => r2(w + o)).filter((x) => x - removed > 0.01);
+    const length = 2 * margin + (series.length + 1) * pitch + keyW;
+    const slots = series.map((sw, i) => makeSlot([margin + pitch * (i + 0.5), height], [0, -1], depth, sw));
+    const key = makeSlot([length - margin - pitch / 2, 0], [0, 1], depth, keyW);
+    const shape: Vec2[] = [
+      [0, 0],
+      [length, 0],
+      [length, height],
+      [0, height],
+    ];
+    const notched = notchOutline(shape, [...slots, key], reliefR);
+    const outline =
+      spec.machine.kind === 'laser'
+        ? compensateKerf(notched.outline, spec.machine.kerfMm).outline
+        : notched.outline;
+    const labelled = labelPiece(
+      {
+        id: `${id} ${r2(angleDeg).toFixed(1)} DEG`,
+        outline,
+        slots: [
+          ...series.map((sw, i) => ({
+            partner: sw.toFixed(2),
+            end: slots[i]!.end,
+            axis: slots[i]!.axis,
+            depthMm: depth,
+            widthMm: sw,
+          })),
+          {
+            partner: `KEY ${r2(keyW).toFixed(2)}`,
+            end: key.end,
+            axis: key.axis,
+            depthMm: depth,
+            widthMm: keyW,
+          },
+        ],
+      },
+      { clearanceMm: 0.8 + removed / 2, maxHeightMm: 4, maxSlotHeightMm: 3, minHeightMm: 1.2 },
+    );
+    warnings.push(...labelled.warnings.map((x) => `coupon: ${x}`));
+    return {
+      id,
+      angleDeg,
+      widthMm: w,
+      seriesMm: series,
+      keyWidthMm: keyW,
+      outline,
+      marks: labelled.labels.flatMap((l) => l.strokes),
+      lengthMm: length,
+      heightMm: height,
+    };
+  };
+  const c1 = strip('C1', steep, wSteep, wShallow);
+  const c2 = strip('C2', shallow, wShallow, wSteep);
+  const sheetMargin = 5;
+  const gap = 6;
+  const scaleBand = 16;
+  const widthMm =
+    Math.max(c1.lengthMm, c2.lengthMm, units === 'in' ? 2 * 25.4 + 2 : 52) + 2 * sheetMargin + 2;
+  const heightMm = 2 * height + gap + 2 * sheetMargin + scaleBand + 4;
+  const parts: SheetPart[] = [c1, c2].map((s, i) => {
+    const dy = sheetMargin + scaleBand + 2 + i * (height + gap) + 1;
+    return {
+      id: s.id,
+      outline: s.outline.map((p) => placePoint(p, 0, sheetMargin + 1, dy)),
+      marks: s.marks.map((m) => m.map((p) => placePoint(p, 0, sheetMargin + 1, dy))),
+    };
+  });
+  const drawing = drawSheet({
+    name: 'coupon',
+    title: `Fit-test coupon: C1 ${r2(steep)} deg, C2 ${r2(shallow)} deg`,
+    colourName: '',
+    sheet: { widthMm, heightMm },
+    marginMm: sheetMargin,
+    clearMm: 2,
+    parts,
+    units,
+    machine,
+  });
+  return { strips: [c1, c2], drawing, warnings: [...warnings, ...drawing.warnings] };
+}

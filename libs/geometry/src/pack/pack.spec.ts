@@ -1,0 +1,397 @@
+import { createHash } from 'node:crypto';
+import JSZip from 'jszip';
+import type { CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contracts';
+import { buildModel } from '../build';
+import { design, octahedronHexagons } from '../test-support/designs';
+import { CutPackError, createCutPack } from './pack';
+import { packInputFrom, runPackCommand } from './cli-commands';
+import { SAFETY_DEFERRAL } from './documents';
+import {
+  type P,
+  disc,
+  outsideArea,
+  overlapArea,
+  perimeterOf,
+  polyArea,
+  readDxf,
+  readPdf,
+  readSvg,
+  scaleBars,
+} from './read-back.test';
+
+const NOTICES = [
+  { id: 'SAF-LASER-FIRE', version: 3, title: 'Never leave a running laser unattended', severity: 'danger' },
+  { id: 'SAF-ACRYLIC-FUMES', version: 1, title: 'Acrylic fumes need extraction', severity: 'warning' },
+];
+
+function input(spec: DesignSpec, extra: Partial<CutPackInput> = {}): CutPackInput {
+  return {
+    ...packInputFrom(spec, {}),
+    sheet: { widthMm: 600, heightMm: 400 },
+    marginMm: 5,
+    gapMm: 3,
+    colours: ['saffron', 'teal'],
+    colourRule: 'neighbour-distinct',
+    machine: {
+      profileName: 'Bay 2 CO2',
+      profileVersion: 4,
+      kind: 'laser',
+      bedWidthMm: 600,
+      bedHeightMm: 400,
+      cutSpeedMmS: 12,
+      markSpeedMmS: 150,
+      pierceTimeS: 0.3,
+      rapidSpeedMmS: 400,
+      passes: 1,
+      powerPct: 65,
+      hourlyRate: 30,
+      currency: 'EUR',
+    },
+    material: {
+      name: 'Cast acrylic 3 mm',
+      family: 'acrylic',
+      thicknessMm: 3,
+      pricePerSheet: 18.5,
+      currency: 'EUR',
+    },
+    job: { id: 'job-42', title: 'Octahedron lamp', requester: 'ada' },
+    notices: NOTICES,
+    localRulesVersion: 7,
+    units: 'mm',
+    archive: true,
+    createdAt: '2026-05-04T10:20:30.000Z',
+    ...extra,
+  };
+}
+
+const file = (r: CutPackResult, name: string) => {
+  const f = r.files.find((x) => x.name === name);
+  if (!f) throw new Error(`no ${name} in ${r.files.map((x) => x.name).join(', ')}`);
+  return f;
+};
+const sheetsOf = (r: CutPackResult, ext: string) =>
+  r.files.filter((f) => f.role === (ext === 'dxf' ? 'sheet-dxf' : 'sheet-svg'));
+const pdfText = async (data: Uint8Array) => readPdf(data);
+
+describe('createCutPack (octahedron hexagons, two colours, mm)', () => {
+  const spec = octahedronHexagons();
+  let pack: CutPackResult;
+  beforeAll(async () => {
+    pack = await createCutPack(input(spec));
+  });
+
+  it('writes per sheet a DXF and an SVG, the coupon, two PDFs, a manifest and a ZIP', () => {
+    const names = pack.files.map((f) => f.name);
+    expect(names).toEqual(
+      expect.arrayContaining([
+        'sheet-01-saffron.dxf',
+        'sheet-01-saffron.svg',
+        'coupon.dxf',
+        'coupon.svg',
+        'setup-sheet.pdf',
+        'assembly-guide.pdf',
+        'manifest.json',
+      ]),
+    );
+    for (const n of names) expect(n).toMatch(/^[a-z0-9.-]+$/);
+    expect(sheetsOf(pack, 'dxf')).toHaveLength(pack.manifest.sheetCount);
+    expect(sheetsOf(pack, 'svg')).toHaveLength(pack.manifest.sheetCount);
+    expect(pack.files.filter((f) => f.role === 'archive')).toHaveLength(1);
+  });
+
+  it('DXF (read back with dxf-parser): mm units, closed cut contours of the real pieces, no overlaps, all on the sheet', () => {
+    const model = buildModel(spec);
+    const areas = model.pieces.map((p) => p.outline.map((q) => [q[0], q[1]] as P)).map(polyArea);
+    let contours = 0;
+    for (const f of sheetsOf(pack, 'dxf')) {
+      const d = readDxf(f.data);
+      // $INSUNITS = 4 means millimetres (Autodesk DXF reference, from memory).
+      expect(d.insUnits).toBe(4);
+      expect(d.layers).toEqual(expect.arrayContaining(['cut', 'mark']));
+      expect(d.all.filter((x) => x.layer === 'cut').every((x) => x.closed)).toBe(true);
+      const sheet: P[] = [
+        [0, 0],
+        [600, 0],
+        [600, 400],
+        [0, 400],
+      ];
+      d.cut.forEach((c, i) => {
+        // polygon-clipping: every contour is one of the built pieces (by area) and lies on the sheet.
+        const a = polyArea(c);
+        expect(Math.min(...areas.map((x) => Math.abs(x - a)))).toBeLessThan(1e-3);
+        expect(outsideArea(c, sheet)).toBeLessThan(1e-6);
+        for (const o of d.cut.slice(i + 1)) expect(overlapArea(c, o)).toBeLessThan(1e-6);
+      });
+      contours += d.cut.length;
+    }
+    expect(contours).toBe(model.pieces.length);
+  });
+
+  it('cuts no segment twice and no contour after the contour enclosing it (parsed DXF, polygon-clipping)', () => {
+    for (const f of sheetsOf(pack, 'dxf')) {
+      const d = readDxf(f.data);
+      const segs: { a: P; b: P; c: number }[] = [];
+      d.cut.forEach((c, ci) => c.forEach((p, i) => segs.push({ a: p, b: c[(i + 1) % c.length]!, c: ci })));
+      // Duplicates: the same segment (either direction) twice, or two collinear segments overlapping.
+      const key = (s: { a: P; b: P }) =>
+        [s.a, s.b]
+          .map((p) => `${p[0].toFixed(4)},${p[1].toFixed(4)}`)
+          .sort()
+          .join('|');
+      expect(new Set(segs.map(key)).size).toBe(segs.length);
+      for (let i = 0; i < segs.length; i++) {
+        for (let j = i + 1; j < segs.length; j++) {
+          const s = segs[i]!;
+          const t = segs[j]!;
+          if (s.c === t.c) continue;
+          const dx = s.b[0] - s.a[0];
+          const dy = s.b[1] - s.a[1];
+          const len = Math.hypot(dx, dy);
+          if (len < 1e-9) continue;
+          const off = (p: P) => Math.abs((p[0] - s.a[0]) * dy - (p[1] - s.a[1]) * dx) / len;
+          if (off(t.a) > 1e-4 || off(t.b) > 1e-4) continue;
+          const along = (p: P) => ((p[0] - s.a[0]) * dx + (p[1] - s.a[1]) * dy) / len;
+          const [u0, u1] = [along(t.a), along(t.b)].sort((x, y) => x - y) as [number, number];
+          expect(Math.min(u1, len) - Math.max(u0, 0)).toBeLessThan(1e-4);
+        }
+      }
+      for (let i = 0; i < d.cut.length; i++)
+        for (let j = i + 1; j < d.cut.length; j++) {
+          const later = d.cut[j]!;
+          const inside = outsideArea(later, d.cut[i]!) < 1e-6 && polyArea(later) < polyArea(d.cut[i]!);
+          expect(inside).toBe(false);
+        }
+    }
+  });
+
+  it('keeps every label stroke inside its piece, at least 1 mm from every cut line (parsed DXF, polygon-clipping)', () => {
+    const kerf = 0.15;
+    for (const f of sheetsOf(pack, 'dxf')) {
+      const d = readDxf(f.data);
+      const bars = scaleBars(d.mark);
+      expect(bars).toEqual([100]);
+      for (const s of d.mark) {
+        for (const p of s) {
+          const around = disc(p, 1 + kerf / 2 - 1e-3);
+          const host = d.cut.find((c) => outsideArea(around, c) < 1e-9);
+          if (host) continue;
+          // Not in a piece: then it belongs to the scale mark and keeps clear of every piece.
+          for (const c of d.cut) expect(overlapArea(disc(p, 2 - 1e-3), c)).toBeLessThan(1e-9);
+        }
+      }
+    }
+  });
+
+  it('SVG: width/height in mm with a viewBox of the same numbers, and a 100 mm scale bar', () => {
+    for (const f of sheetsOf(pack, 'svg')) {
+      const s = readSvg(f.data);
+      // W3C SVG: width/height in mm with a viewBox of the same numbers makes one user unit one millimetre.
+      expect(s.unit).toBe('mm');
+      expect(s.width).toBe(600);
+      expect(s.height).toBe(400);
+      expect(s.viewBox).toEqual([0, 0, 600, 400]);
+      expect(scaleBars(s.mark)).toEqual([100]);
+      const dxf = readDxf(file(pack, f.name.replace('.svg', '.dxf')).data);
+      expect(s.cut.length).toBe(dxf.cut.length);
+      // Same contours, y flipped (SVG y points down).
+      s.cut.forEach((c, i) => {
+        const flipped = c.map((p) => [p[0], 400 - p[1]] as P);
+        expect(polyArea(flipped)).toBeCloseTo(polyArea(dxf.cut[i]!), 4);
+        expect(outsideArea(flipped, dxf.cut[i]!)).toBeLessThan(1e-4);
+      });
+    }
+  });
+
+  it('estimates agree with the parsed files and the time model', () => {
+    // Recomputed from the parsed DXF files (dxf-parser): cut length is the sum of contour perimeters,
+    // pierces the number of contours, travel the rapid moves from the origin through the marks then the
+    // cuts in file order; time per REFERENCES "Stock and machines".
+    let cut = 0;
+    let mark = 0;
+    let travel = 0;
+    let pierces = 0;
+    for (const f of sheetsOf(pack, 'dxf')) {
+      const d = readDxf(f.data);
+      let at: P = [0, 0];
+      const move = (p: P) => {
+        travel += Math.hypot(p[0] - at[0], p[1] - at[1]);
+      };
+      for (const x of d.all) {
+        move(x.pts[0]!);
+        at = x.closed ? x.pts[0]! : x.pts[x.pts.length - 1]!;
+        if (x.layer === 'cut') {
+          cut += perimeterOf(x.pts);
+          pierces++;
+        } else mark += perimeterOf(x.pts, false);
+      }
+      expect(d.all.findIndex((x) => x.layer === 'cut')).toBeGreaterThan(
+        d.all.findLastIndex((x) => x.layer === 'mark'),
+      );
+    }
+    const e = pack.manifest.estimate;
+    expect(e.cutLengthMm).toBeCloseTo(cut, 1);
+    expect(e.markLengthMm).toBeCloseTo(mark, 1);
+    expect(e.pierces).toBe(pierces);
+    expect(e.travelMm).toBeCloseTo(travel, 1);
+    const seconds = cut / 12 + mark / 150 + pierces * 0.3 + travel / 400;
+    expect(e.minutes).toBeCloseTo(seconds / 60, 1);
+    expect(e.machineCost).toBeCloseTo((seconds / 3600) * 30, 1);
+    expect(e.materialCost).toBeCloseTo(pack.manifest.sheetCount * 18.5, 6);
+  });
+
+  it('setup sheet (read back with pdf-parse) lists material, machine settings, estimates, notices and the deferral', async () => {
+    const { text, info } = await pdfText(file(pack, 'setup-sheet.pdf').data);
+    for (const s of [
+      'Cast acrylic 3 mm',
+      '3.00 mm',
+      'Kerf 0.15 mm',
+      '12.0 mm/s, 1 pass',
+      '150.0 mm/s',
+      '65.0 %',
+      'Pierce time 0.30 s',
+      '400.0 mm/s',
+      `Sheet count ${pack.manifest.sheetCount}`,
+      'Bay 2 CO2 v4',
+      'SAF-LASER-FIRE v3: Never leave a running laser unattended (danger)',
+      'SAF-ACRYLIC-FUMES v1: Acrylic fumes need extraction (warning)',
+      'Workshop rules version 7',
+      SAFETY_DEFERRAL,
+      `Pierces ${pack.manifest.estimate.pierces}`,
+      `${pack.manifest.estimate.materialCost.toFixed(2)} EUR`,
+      'sheet-01-saffron 100 MM',
+      'Sheet 1 of 2: saffron',
+      'Sheet 2 of 2: teal',
+      'millimetres (DXF $INSUNITS 4',
+    ])
+      expect(text).toContain(s);
+    expect(String(info.CreationDate)).toContain('20260504102030');
+  });
+
+  it('assembly guide (pdf-parse) lists pieces by colour and an order in which every new piece joins a placed one', async () => {
+    const { text } = await pdfText(file(pack, 'assembly-guide.pdf').data);
+    const model = buildModel(spec);
+    expect(text).toContain('Pieces by colour');
+    expect(text).toContain('saffron');
+    expect(text).toContain('teal');
+    const steps = [...text.matchAll(/(\d+)\. (P\d+) \((\w+)\): ([^.]*)\./g)];
+    expect(steps.map((m) => m[2]).sort()).toEqual(model.pieces.map((p) => p.id).sort());
+    const placed = new Set<string>();
+    for (const [, , id, , joins] of steps) {
+      if (placed.size > 0) {
+        const partners = [...joins!.matchAll(/slot for (P\d+) onto/g)].map((m) => m[1]!);
+        expect(partners.length).toBeGreaterThan(0);
+        for (const p of partners) {
+          expect(placed.has(p)).toBe(true);
+          // Each named join is a real crossing of the design.
+          expect(
+            model.report.crossings.some((c) => (c.a === id && c.b === p) || (c.b === id && c.a === p)),
+          ).toBe(true);
+        }
+      }
+      placed.add(id!);
+    }
+  });
+
+  it('manifest checksums and sizes match the files (node:crypto SHA-256), and the ZIP holds them all (jszip)', async () => {
+    const listed = pack.manifest.files;
+    const others = pack.files.filter((f) => f.role !== 'manifest' && f.role !== 'archive');
+    expect(listed.map((x) => x.name)).toEqual(others.map((f) => f.name));
+    for (const f of others) {
+      const m = listed.find((x) => x.name === f.name)!;
+      expect(m.bytes).toBe(f.data.byteLength);
+      expect(m.sha256).toBe(createHash('sha256').update(f.data).digest('hex'));
+    }
+    const manifest = JSON.parse(new TextDecoder().decode(file(pack, 'manifest.json').data));
+    expect(manifest).toEqual(JSON.parse(JSON.stringify(pack.manifest)));
+    const zip = await JSZip.loadAsync(pack.files.find((f) => f.role === 'archive')!.data);
+    const inZip = Object.keys(zip.files).sort();
+    expect(inZip).toEqual([...others.map((f) => f.name), 'manifest.json'].sort());
+    for (const f of others) {
+      const data = await zip.file(f.name)!.async('uint8array');
+      expect(createHash('sha256').update(data).digest('hex')).toBe(
+        createHash('sha256').update(f.data).digest('hex'),
+      );
+    }
+  });
+
+  it('is deterministic for the same input (same checksums, same ZIP bytes)', async () => {
+    const seen: number[] = [];
+    const again = await createCutPack(input(spec), (f) => seen.push(f));
+    expect(again.manifest).toEqual(pack.manifest);
+    expect(seen.every((f, i) => f >= 0 && f <= 1 && (i === 0 || f >= seen[i - 1]!))).toBe(true);
+    expect(seen[seen.length - 1]).toBe(1);
+    const zipA = pack.files.find((f) => f.role === 'archive')!.data;
+    const zipB = again.files.find((f) => f.role === 'archive')!.data;
+    expect(Buffer.from(zipA).equals(Buffer.from(zipB))).toBe(true);
+  });
+});
+
+describe('createCutPack in inches', () => {
+  it('writes true inches: $INSUNITS 1, every cut vertex 1/25.4 of the mm file, a 4 in scale bar', async () => {
+    const spec = octahedronHexagons();
+    const one = { colours: ['natural'], archive: false };
+    const [mm, inch] = await Promise.all([
+      createCutPack(input(spec, { ...one, units: 'mm' })),
+      createCutPack(input(spec, { ...one, units: 'in' })),
+    ]);
+    const mmD = sheetsOf(mm, 'dxf').map((f) => readDxf(f.data));
+    const inD = sheetsOf(inch, 'dxf').map((f) => readDxf(f.data));
+    expect(inD).toHaveLength(mmD.length);
+    const sortKey = (c: P[]) =>
+      c
+        .map((p) => [Math.round(p[0] * 1e3), Math.round(p[1] * 1e3)])
+        .sort((a, b) => a[0]! - b[0]! || a[1]! - b[1]!)
+        .join(';');
+    inD.forEach((d, i) => {
+      // $INSUNITS = 1 means inches (Autodesk DXF reference, from memory); 1 in = 25.4 mm exactly (by definition).
+      expect(d.insUnits).toBe(1);
+      const scaled = d.cut.map((c) => sortKey(c.map((p) => [p[0] * 25.4, p[1] * 25.4] as P))).sort();
+      expect(scaled).toEqual(mmD[i]!.cut.map(sortKey).sort());
+      expect(scaleBars(d.mark)).toEqual([4]);
+    });
+    for (const f of sheetsOf(inch, 'svg')) {
+      const s = readSvg(f.data);
+      expect(s.unit).toBe('in');
+      expect(s.width).toBeCloseTo(600 / 25.4, 5);
+      expect(s.viewBox[2]).toBeCloseTo(600 / 25.4, 5);
+      expect(scaleBars(s.mark).map((x) => Math.round(x * 1e4) / 1e4)).toEqual([4]);
+    }
+    const { text } = await pdfText(file(inch, 'setup-sheet.pdf').data);
+    expect(text).toContain('inches (DXF $INSUNITS 1');
+    expect(text).toContain('4 IN');
+  });
+});
+
+describe('createCutPack failures and the command-line helper', () => {
+  it('refuses a design with errors and a layout that cannot fit', async () => {
+    const bad = design({ solid: 'cube', piece: { sides: 4, rotationDeg: 45, size: 0.5 } });
+    await expect(createCutPack(input(bad))).rejects.toMatchObject({ code: 'PACK.DESIGN_INVALID' });
+    const malformed = { ...octahedronHexagons(), piece: { sides: 6, step: 2, size: 1.3 } };
+    await expect(createCutPack(input(malformed))).rejects.toMatchObject({ code: 'PACK.SPEC_INVALID' });
+    const tiny = input(octahedronHexagons(), { sheet: { widthMm: 60, heightMm: 60 } });
+    await expect(createCutPack(tiny)).rejects.toBeInstanceOf(CutPackError);
+    await expect(createCutPack(tiny)).rejects.toMatchObject({ code: 'PACK.LAYOUT_FAILED' });
+  });
+
+  it('runPackCommand reads sheet, margin, gap and colours from the spec', async () => {
+    const raw = {
+      ...octahedronHexagons(),
+      stock: { thicknessMm: 3, sheet: { widthMm: 500, heightMm: 450 }, marginMm: 8, gapMm: 4 },
+      colours: { count: 2, rule: 'neighbour-distinct' },
+    };
+    const r = await runPackCommand(raw);
+    const svgs = sheetsOf(r, 'svg').map((f) => readSvg(f.data));
+    expect(svgs.map((s) => [s.width, s.height])).toEqual(svgs.map(() => [500, 450]));
+    const dxfNames = sheetsOf(r, 'dxf').map((f) => f.name);
+    expect(dxfNames.some((n) => /^sheet-\d+-colour-1\.dxf$/.test(n))).toBe(true);
+    expect(dxfNames.some((n) => /^sheet-\d+-colour-2\.dxf$/.test(n))).toBe(true);
+    for (const f of sheetsOf(r, 'dxf')) {
+      for (const c of readDxf(f.data).cut) {
+        // 8 mm margin: every vertex at least 8 mm inside the sheet edges (up to rounding).
+        for (const p of c) {
+          expect(Math.min(p[0], p[1], 500 - p[0], 450 - p[1])).toBeGreaterThan(8 - 1e-3);
+        }
+      }
+    }
+  });
+});

@@ -1,0 +1,386 @@
+/**
+ * The cut pack (Node only): per sheet a DXF and an SVG, the fit-test coupon, the setup sheet and the
+ * assembly guide (PDF), manifest.json with SHA-256 checksums, and optionally one ZIP of it all. See
+ * README.md beside this file for the contents and formats.
+ */
+import { createHash } from 'node:crypto';
+import JSZip from 'jszip';
+import type {
+  CutPackEstimate,
+  CutPackFile,
+  CutPackInput,
+  CutPackManifest,
+  CutPackResult,
+  DesignSpec,
+} from '@kerfwright/contracts';
+import { type BuiltModel, buildModel } from '../build';
+import { layoutModel } from '../layout/plan-layout';
+import { type EstimateMachine, estimateJob } from '../estimate';
+import { type PieceLabels, labelPiece } from '../labels';
+import { type Vec2 } from '../math/vec';
+import { assemblyOrder } from './assembly';
+import { type Coupon, buildCoupon } from './coupon';
+import { assemblyGuidePdf, setupSheetPdf } from './documents';
+import { sheetToDxf, sheetToSvg } from './sheet-files';
+import { type SheetDrawing, drawSheet, placePoint } from './sheet-drawing';
+
+/** Thrown when a pack cannot be made; `code` reads AREA.REASON. */
+export class CutPackError extends Error {
+  constructor(
+    readonly code: string,
+    message: string,
+    readonly details: string[] = [],
+  ) {
+    super(message);
+  }
+}
+
+const CONTENT_TYPES = {
+  dxf: 'application/dxf',
+  svg: 'image/svg+xml',
+  pdf: 'application/pdf',
+  json: 'application/json',
+  zip: 'application/zip',
+} as const;
+
+const enc = new TextEncoder();
+
+/** A file-name-safe form of a colour name: lower-case letters, digits and dashes. */
+export function slug(text: string, fallback: string): string {
+  const s = text
+    .toLowerCase()
+    .normalize('NFKD')
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 40);
+  return s || fallback;
+}
+
+function toEstimateMachine(m: CutPackInput['machine']): EstimateMachine {
+  return {
+    cutSpeedMmS: m.cutSpeedMmS,
+    markSpeedMmS: m.markSpeedMmS,
+    pierceTimeS: m.pierceTimeS,
+    rapidSpeedMmS: m.rapidSpeedMmS,
+    passes: m.passes,
+    hourlyRate: m.hourlyRate,
+  };
+}
+
+function checkInput(input: CutPackInput): void {
+  const m = input.machine;
+  const bad = (
+    [
+      ['machine.cutSpeedMmS', m.cutSpeedMmS],
+      ['machine.markSpeedMmS', m.markSpeedMmS],
+      ['machine.rapidSpeedMmS', m.rapidSpeedMmS],
+    ] as const
+  )
+    .filter(([, v]) => !(v > 0))
+    .map(([k]) => k);
+  if (!(m.pierceTimeS >= 0)) bad.push('machine.pierceTimeS' as never);
+  if (bad.length)
+    throw new CutPackError('PACK.BAD_MACHINE', `machine speeds must be positive: ${bad.join(', ')}`, bad);
+  if (input.units !== 'mm' && input.units !== 'in')
+    throw new CutPackError('PACK.BAD_UNITS', 'units must be "mm" or "in"');
+  if (input.colours.length < 1)
+    throw new CutPackError('PACK.NO_COLOURS', 'at least one colour of stock is needed');
+}
+
+function buildChecked(spec: DesignSpec): BuiltModel {
+  let model: BuiltModel;
+  try {
+    model = buildModel(spec);
+  } catch (e) {
+    // A malformed spec (SpecValidationError) or an unusable uploaded solid (SolidError).
+    throw new CutPackError('PACK.SPEC_INVALID', (e as Error).message);
+  }
+  if (model.report.errors.length > 0) {
+    throw new CutPackError(
+      'PACK.DESIGN_INVALID',
+      `the design has errors: ${model.report.errors.map((e) => e.message).join('; ')}`,
+      model.report.errors.map((e) => e.code),
+    );
+  }
+  return model;
+}
+
+const sha256 = (data: Uint8Array) => createHash('sha256').update(data).digest('hex');
+
+function roundEstimate(e: CutPackEstimate): CutPackEstimate {
+  const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
+  return {
+    cutLengthMm: r(e.cutLengthMm, 2),
+    markLengthMm: r(e.markLengthMm, 2),
+    pierces: e.pierces,
+    travelMm: r(e.travelMm, 2),
+    minutes: r(e.minutes, 2),
+    machineCost: r(e.machineCost, 2),
+    materialCost: r(e.materialCost, 2),
+    currency: e.currency,
+  };
+}
+
+async function finish(
+  input: Pick<CutPackInput, 'job' | 'createdAt' | 'units' | 'archive'>,
+  files: CutPackFile[],
+  sheetCount: number,
+  estimate: CutPackEstimate,
+  warnings: string[],
+  archiveName: string,
+): Promise<CutPackResult> {
+  const manifest: CutPackManifest = {
+    jobId: input.job.id,
+    createdAt: input.createdAt,
+    units: input.units,
+    sheetCount,
+    estimate,
+    files: files.map((f) => ({
+      name: f.name,
+      role: f.role,
+      contentType: f.contentType,
+      bytes: f.data.byteLength,
+      sha256: sha256(f.data),
+    })),
+    warnings,
+  };
+  const all: CutPackFile[] = [
+    ...files,
+    {
+      name: 'manifest.json',
+      role: 'manifest',
+      contentType: CONTENT_TYPES.json,
+      data: enc.encode(JSON.stringify(manifest, null, 2) + '\n'),
+    },
+  ];
+  if (input.archive) {
+    const zip = new JSZip();
+    const when = new Date(input.createdAt);
+    const date = Number.isNaN(when.getTime()) ? new Date(0) : when;
+    for (const f of all) zip.file(f.name, f.data, { date, binary: true });
+    const data = await zip.generateAsync({ type: 'uint8array', compression: 'DEFLATE', platform: 'UNIX' });
+    all.push({ name: archiveName, role: 'archive', contentType: CONTENT_TYPES.zip, data });
+  }
+  return { files: all, manifest };
+}
+
+function couponFiles(coupon: Coupon, units: CutPackInput['units']): CutPackFile[] {
+  return [
+    {
+      name: 'coupon.dxf',
+      role: 'coupon-dxf',
+      contentType: CONTENT_TYPES.dxf,
+      data: enc.encode(sheetToDxf(coupon.drawing, units)),
+    },
+    {
+      name: 'coupon.svg',
+      role: 'coupon-svg',
+      contentType: CONTENT_TYPES.svg,
+      data: enc.encode(sheetToSvg(coupon.drawing, units)),
+    },
+  ];
+}
+
+/** Labels of every piece (in its own frame), keyed by piece id. */
+function labelPieces(
+  model: BuiltModel,
+  colourNames: Record<string, string>,
+  removedMm: number,
+): Map<string, PieceLabels> {
+  const out = new Map<string, PieceLabels>();
+  for (const p of model.pieces) {
+    out.set(
+      p.id,
+      labelPiece(
+        { id: p.id, outline: p.outline, slots: p.slots.map((s) => ({ ...s, widthMm: s.widthMm })) },
+        { colourName: colourNames[p.id], clearanceMm: 1 + removedMm / 2 },
+      ),
+    );
+  }
+  return out;
+}
+
+/**
+ * Builds the cut pack of a prepared job. Throws CutPackError (PACK.DESIGN_INVALID, PACK.LAYOUT_FAILED,
+ * PACK.BAD_MACHINE…) when no pack can be made. `onProgress` gets fractions 0…1.
+ */
+export async function createCutPack(
+  input: CutPackInput,
+  onProgress?: (fraction: number) => void,
+): Promise<CutPackResult> {
+  const progress = (f: number) => onProgress?.(Math.min(1, Math.max(0, f)));
+  checkInput(input);
+  progress(0.02);
+  const model = buildChecked(input.spec);
+  progress(0.15);
+  const rule = input.colourRule;
+  const layout = layoutModel(model, {
+    sheet: input.sheet,
+    marginMm: input.marginMm,
+    gapMm: input.gapMm,
+    colours: { count: input.colours.length, ...(rule ? { rule } : {}) },
+    quantity: input.quantity,
+  });
+  if (!layout.ok) throw new CutPackError('PACK.LAYOUT_FAILED', layout.message, layout.pieces);
+  progress(0.35);
+  const colourName = (i: number) => input.colours[i] ?? `colour ${i + 1}`;
+  const multiColour = input.colours.length > 1;
+  const pieceColourName = Object.fromEntries(
+    model.pieces.map((p) => [
+      p.id,
+      multiColour ? colourName(layout.pieceColour[p.id] ?? 0).toUpperCase() : '',
+    ]),
+  );
+  const removed = model.spec.machine.kind === 'laser' ? model.spec.machine.kerfMm : 0;
+  const labels = labelPieces(model, pieceColourName, removed);
+  const warnings: string[] = [...labels.values()].flatMap((l) => l.warnings);
+  if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
+    warnings.push(
+      `the material is ${input.material.thicknessMm} mm thick but the design was built for ` +
+        `${model.spec.stock.thicknessMm} mm stock: slot widths follow the design`,
+    );
+  }
+  if (input.machine.kind !== model.spec.machine.kind) {
+    warnings.push(
+      `the machine profile is a ${input.machine.kind} but the design is compensated for a ${model.spec.machine.kind}`,
+    );
+  }
+  const byId = new Map(model.pieces.map((p) => [p.id, p]));
+  const machine = toEstimateMachine(input.machine);
+  const count = layout.sheets.length;
+  const width = String(count).length < 2 ? 2 : String(count).length;
+  const sheets: SheetDrawing[] = layout.sheets.map((s, i) => {
+    const colour = colourName(Number(s.group));
+    const parts = s.placements.map((pl) => {
+      const piece = byId.get(pl.part);
+      if (!piece) throw new CutPackError('PACK.LAYOUT_FAILED', `layout names an unknown piece ${pl.part}`);
+      const place = (p: Vec2) => placePoint(p, pl.rotationDeg, pl.x, pl.y);
+      return {
+        id: pl.part,
+        outline: piece.outline.map(place),
+        marks: (labels.get(pl.part)?.labels ?? []).flatMap((l) => l.strokes.map((st) => st.map(place))),
+      };
+    });
+    const num = String(i + 1).padStart(width, '0');
+    return drawSheet({
+      name: `sheet-${num}-${slug(colour, `colour-${Number(s.group) + 1}`)}`,
+      title: `Sheet ${i + 1} of ${count}: ${colour}`,
+      colourName: colour,
+      sheet: input.sheet,
+      marginMm: input.marginMm,
+      clearMm: Math.max(2, input.gapMm),
+      parts,
+      units: input.units,
+      machine,
+    });
+  });
+  warnings.push(...sheets.flatMap((s) => s.warnings));
+  progress(0.55);
+  const coupon = buildCoupon(model, input.units, machine);
+  warnings.push(...coupon.warnings);
+  const job = estimateJob(
+    sheets.map((s) => ({ cut: s.cut, mark: s.mark })),
+    machine,
+    input.material.pricePerSheet,
+  );
+  const files: CutPackFile[] = [];
+  for (const s of sheets) {
+    files.push({
+      name: `${s.name}.dxf`,
+      role: 'sheet-dxf',
+      contentType: CONTENT_TYPES.dxf,
+      data: enc.encode(sheetToDxf(s, input.units)),
+    });
+    files.push({
+      name: `${s.name}.svg`,
+      role: 'sheet-svg',
+      contentType: CONTENT_TYPES.svg,
+      data: enc.encode(sheetToSvg(s, input.units)),
+    });
+  }
+  files.push(...couponFiles(coupon, input.units));
+  progress(0.7);
+  files.push({
+    name: 'setup-sheet.pdf',
+    role: 'setup-sheet',
+    contentType: CONTENT_TYPES.pdf,
+    data: await setupSheetPdf({ input, model, sheets, estimate: job, coupon, warnings }),
+  });
+  progress(0.82);
+  const steps = assemblyOrder(
+    model.pieces.map((p) => p.id),
+    model.report.crossings,
+  );
+  files.push({
+    name: 'assembly-guide.pdf',
+    role: 'assembly-guide',
+    contentType: CONTENT_TYPES.pdf,
+    data: await assemblyGuidePdf({ input, model, pieceColour: layout.pieceColour, steps }),
+  });
+  progress(0.92);
+  const estimate = roundEstimate({
+    cutLengthMm: job.cutLengthMm,
+    markLengthMm: job.markLengthMm,
+    pierces: job.pierces,
+    travelMm: job.travelMm,
+    minutes: job.minutes,
+    machineCost: job.machineCost,
+    materialCost: job.materialCost,
+    currency: input.machine.currency,
+  });
+  const result = await finish(
+    input,
+    files,
+    sheets.length,
+    estimate,
+    warnings,
+    `${slug(`cut-pack-${input.job.id}`, 'cut-pack')}.zip`,
+  );
+  progress(1);
+  return result;
+}
+
+/** What the coupon alone needs. */
+export type CouponInput = Pick<CutPackInput, 'spec' | 'units' | 'createdAt' | 'machine' | 'job'> & {
+  archive?: boolean;
+  /** Slot width offsets, mm (default −0.15 … +0.15 in 0.05 steps). */
+  offsetsMm?: number[];
+};
+
+/** The fit-test coupon alone: coupon.dxf, coupon.svg and manifest.json (and optionally a ZIP). */
+export async function createCoupon(
+  input: CouponInput,
+  onProgress?: (fraction: number) => void,
+): Promise<CutPackResult> {
+  const model = buildChecked(input.spec);
+  onProgress?.(0.4);
+  const machine = toEstimateMachine(input.machine);
+  const coupon = buildCoupon(
+    model,
+    input.units,
+    machine,
+    input.offsetsMm ? { offsetsMm: input.offsetsMm } : {},
+  );
+  const files = couponFiles(coupon, input.units);
+  const e = coupon.drawing.estimate;
+  const estimate = roundEstimate({
+    cutLengthMm: e.cutLengthMm,
+    markLengthMm: e.markLengthMm,
+    pierces: e.pierces,
+    travelMm: e.travelMm,
+    minutes: e.seconds / 60,
+    machineCost: (e.seconds / 3600) * input.machine.hourlyRate,
+    materialCost: 0,
+    currency: input.machine.currency,
+  });
+  const result = await finish(
+    { ...input, archive: input.archive ?? false },
+    files,
+    1,
+    estimate,
+    coupon.warnings,
+    `${slug(`coupon-${input.job.id}`, 'coupon')}.zip`,
+  );
+  onProgress?.(1);
+  return result;
+}

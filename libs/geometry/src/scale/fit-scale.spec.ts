@@ -1,0 +1,80 @@
+import { buildModel } from '../build';
+import { type Vec2 } from '../math/vec';
+import { design } from '../test-support/designs';
+import { bestFitRatio } from './fit-ratio';
+
+const square = (s: number, turnDeg = 0): Vec2[] => {
+  const a = (turnDeg * Math.PI) / 180;
+  return (
+    [
+      [0, 0],
+      [s, 0],
+      [s, s],
+      [0, s],
+    ] as Vec2[]
+  ).map(([x, y]) => [x * Math.cos(a) - y * Math.sin(a), x * Math.sin(a) + y * Math.cos(a)] as Vec2);
+};
+
+describe('bestFitRatio', () => {
+  it('fits a square of side s on a b × b bed exactly when s ≤ b, whichever way it is turned', () => {
+    // Derived: a square's bounding box is least when its sides are parallel to the bed's (side s); turned
+    // 45° it needs s√2. The search turns it back, so the ratio is s / b for any starting turn.
+    for (const turn of [0, 17, 45, 80]) {
+      expect(bestFitRatio(square(100, turn), 120, 120).ratio).toBeCloseTo(100 / 120, 9);
+      expect(bestFitRatio(square(100, turn), 100, 100).ratio).toBeCloseTo(1, 9);
+    }
+    // Held at 45° (no search), the box is s√2 wide (derived): that is what the search must beat.
+    const turned = square(100, 45);
+    const xs = turned.map((p) => p[0]);
+    expect(Math.max(...xs) - Math.min(...xs)).toBeCloseTo(100 * Math.SQRT2, 9);
+  });
+
+  it('finds the diagonal for a strip longer than the bed', () => {
+    // Derived: an L × w strip turned by θ has a box (L cos θ + w sin θ) × (L sin θ + w cos θ); on a square
+    // bed the larger side is least where both are equal, θ = 45°, giving (L + w)/√2.
+    const L = 130;
+    const w = 5;
+    const strip: Vec2[] = [
+      [0, 0],
+      [L, 0],
+      [L, w],
+      [0, w],
+    ];
+    const r = bestFitRatio(strip, 100, 100);
+    expect(r.ratio).toBeCloseTo((L + w) / Math.SQRT2 / 100, 7);
+    expect(Math.abs(r.angleDeg - 45)).toBeLessThan(1e-3);
+    // On a 140 × 6 bed only lying along it works (derived: the width L cos θ + w sin θ stays ≥ L up to
+    // θ = 2·atan(w/L) ≈ 4.4°, beyond which the height L sin θ + w cos θ exceeds 6): ratio 130/140.
+    expect(bestFitRatio(strip, 140, 6).ratio).toBeCloseTo(130 / 140, 9);
+  });
+});
+
+describe('fitBed scale', () => {
+  // Cube planes with squares at rotation 0 (sides parallel to the cube's edges) and size 1.8: each slot
+  // opens inside an edge, away from the corners, so the compensated piece is a square of side
+  // 2h + kerf (h = half-side = R/√2; a mitred kerf/2 offset adds kerf/2 on each side) — derived.
+  const cube = (extra: object) =>
+    design({ solid: 'cube', piece: { sides: 4, rotationDeg: 0, size: 1.8 }, ...extra });
+
+  it('makes the largest piece just fit the bed', () => {
+    const b = 300;
+    const kerf = 0.15;
+    const r = buildModel(cube({ scale: { by: 'fitBed' }, bed: { widthMm: b, heightMm: b } })).report;
+    // Derived: 2h + kerf = b; R = h√2; plane distance d = R / 1.8; diameter = 2 d √(1 + 1.8²).
+    const h = (b - kerf) / 2;
+    const d = (h * Math.SQRT2) / 1.8;
+    expect(r.diameterMm).toBeCloseTo(2 * d * Math.sqrt(1 + 1.8 ** 2), 3);
+    expect(r.planeDistanceMm).toBeCloseTo(d, 3);
+    expect(r.scale).toMatchObject({ method: 'fitBed', diameterMm: r.diameterMm });
+    expect(r.errors).toEqual([]);
+    for (const p of r.pieces) expect(bestFitRatio(p.outline, b, b).ratio).toBeLessThanOrEqual(1 + 1e-9);
+  });
+
+  it('gives a model that fits, while 1 % larger does not', () => {
+    const bed = { widthMm: 400, heightMm: 250 };
+    const fitted = buildModel(cube({ scale: { by: 'fitBed' }, bed })).report;
+    expect(fitted.errors).toEqual([]);
+    const larger = buildModel(cube({ scale: { by: 'diameter', mm: fitted.diameterMm * 1.01 }, bed })).report;
+    expect(larger.errors.map((e) => e.code)).toContain('PIECE.LARGER_THAN_BED');
+  });
+});
