@@ -10,8 +10,10 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const benches = [
   'libs/geometry/bench/build.bench.mjs',
   'libs/geometry/bench/nest.bench.mjs',
+  'libs/geometry/bench/layout.bench.mjs',
   'libs/geometry/bench/pack.bench.mjs',
   'scripts/bench-queue.mjs',
+  'scripts/bench-api.mjs',
 ].filter((b) => fs.existsSync(path.join(root, b)));
 
 if (!fs.existsSync(path.join(root, 'libs/geometry/dist/index.js'))) {

@@ -17,6 +17,8 @@ export const JSON_BODY_LIMIT = '1mb';
 /** Builds the whole application exactly as production runs it (tests use this too). */
 export async function createApp(options: { logger?: LogLevel[] | false } = {}): Promise<INestApplication> {
   const app = await NestFactory.create<NestExpressApplication>(AppModule, {
+    // A failure while starting (bad configuration, database down) rejects instead of aborting the process.
+    abortOnError: false,
     bodyParser: false,
     logger: options.logger ?? ['error', 'warn', 'log'],
   });
@@ -40,7 +42,9 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
       strictTransportSecurity: false,
     }),
   );
-  app.enableCors(config.corsOrigin ? { origin: config.corsOrigin, credentials: false } : { origin: false });
+  // Same-origin by default; KW_CORS_ORIGIN allows exactly one other origin (echoed only to that origin).
+  app.enableCors(config.corsOrigin ? { origin: [config.corsOrigin], credentials: false } : { origin: false });
+  app.use(apiResponseHeaders);
   app.useBodyParser('json', { limit: JSON_BODY_LIMIT });
   app.setGlobalPrefix('api');
   app.useGlobalPipes(createValidationPipe());
@@ -49,6 +53,23 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
   serveWebApp(app, config.webDist);
   return app;
 }
+
+/**
+ * API answers hold account and workshop data: browsers and proxies must not keep them (OWASP ASVS 8.2.1),
+ * and one opened directly is saved rather than rendered (ASVS 14.4.2). Downloads set their own
+ * disposition; the API documentation pages are left alone.
+ */
+function apiResponseHeaders(req: Request, res: Response, next: NextFunction): void {
+  if (req.path.startsWith('/api/') && !req.path.startsWith('/api/docs')) {
+    res.setHeader('Cache-Control', 'no-store');
+    if (!FILE_DOWNLOAD.test(req.path))
+      res.setHeader('Content-Disposition', 'attachment; filename="api.json"');
+  }
+  next();
+}
+
+/** Cut-pack downloads name their own file (Nest does not replace a disposition already set). */
+const FILE_DOWNLOAD = /^\/api\/exports\/[^/]+\/files\//;
 
 /** OpenAPI description of every route at /api/docs (JSON at /api/docs-json). */
 function mountApiDocs(app: NestExpressApplication): void {

@@ -9,17 +9,22 @@ import {
   type TestContext,
   type TestUser,
 } from './support/test-app';
+import { isolateExports, releaseJob } from './support/export-fixtures';
 import { createWorkshop, octahedronHexagons, type WorkshopFixture } from './support/workshop-fixtures';
+
+jest.setTimeout(90000);
 
 describe('jobs through their states', () => {
   let ctx: TestContext;
   let catcher: MailCatcher;
   let w: WorkshopFixture;
+  let exportsEnv: { restore(): Promise<void> };
   const users = {} as Record<'hobbyist' | 'other' | 'fabricator' | 'operator' | 'supervisor', TestUser>;
 
   beforeAll(async () => {
     catcher = await startMailCatcher({ smtpPort: 0 });
     process.env.KW_SMTP_PORT = String(catcher.smtpPort);
+    exportsEnv = isolateExports();
     ctx = await startTestApp();
     users.hobbyist = await createUser(ctx, 'hobbyist');
     users.other = await createUser(ctx, 'hobbyist');
@@ -31,6 +36,7 @@ describe('jobs through their states', () => {
   afterAll(async () => {
     await ctx.app.close();
     await catcher.stop();
+    await exportsEnv.restore();
   });
   const auth = (u: TestUser) => ({ Authorization: `Bearer ${u.token}` });
 
@@ -86,7 +92,7 @@ describe('jobs through their states', () => {
     expect(prep.utilisation).toBeLessThanOrEqual(1);
     expect(prepared.body.profileVersionId).toBe(w.laserVersionId);
     await act(users.supervisor, job.id, 'approve');
-    await act(users.fabricator, job.id, 'release');
+    await releaseJob(ctx, users.fabricator, job.id);
     const cut = await act(users.operator, job.id, 'cut', {
       actualMinutes: 22.5,
       sheetsUsed: 1,
@@ -123,10 +129,56 @@ describe('jobs through their states', () => {
       'job.request',
       'job.prepare',
       'job.approve',
+      'export.request',
+      'export.done',
       'job.release',
       'job.cut',
       'job.close',
     ]);
+  });
+
+  it('releases only through the cut-pack queue: 202 { exportId }, released in the transaction that stores the files', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    const exportsBefore = await countRows(ctx, 'exports');
+    // A stale version and a role that may not release change nothing and queue nothing.
+    const stale = await ctx.http
+      .post(`/api/jobs/${job.id}/release`)
+      .set(auth(users.fabricator))
+      .send({ version: 1 })
+      .expect(409);
+    expectErrorBody(stale.body, 409, 'JOB.STALE_VERSION');
+    await act(users.hobbyist, job.id, 'release', {}, 403);
+    await act(users.operator, job.id, 'release', {}, 403);
+    expect(await countRows(ctx, 'exports')).toBe(exportsBefore);
+
+    const done = await releaseJob(ctx, users.fabricator, job.id);
+    expect(done.files.length).toBeGreaterThan(0);
+    const after = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.hobbyist)).expect(200);
+    expect(after.body.state).toBe('released');
+    expect(after.body.transitions.at(-1)).toMatchObject({
+      from: 'approved',
+      to: 'released',
+      action: 'release',
+      actorId: users.fabricator.id,
+    });
+    // now() is the transaction's start time in PostgreSQL: equal stamps mean one transaction.
+    const stamps: { finished: Date; released: Date }[] = await ctx.db.query(
+      `SELECT e.finished_at AS finished, t.created_at AS released
+         FROM exports e JOIN job_transitions t ON t.job_id = e.job_id AND t.action = 'release'
+        WHERE e.id = $1`,
+      [done.id],
+    );
+    expect(stamps).toHaveLength(1);
+    expect(stamps[0]!.released.getTime()).toBe(stamps[0]!.finished.getTime());
+    // Released already: a second release is an illegal transition (a re-export goes through /exports).
+    expectErrorBody(
+      (await act(users.fabricator, job.id, 'release', {}, 409)).body,
+      409,
+      'JOB.ILLEGAL_TRANSITION',
+    );
   });
 
   it('answers every illegal transition with 409 and the error body, changing nothing', async () => {
@@ -219,6 +271,83 @@ describe('jobs through their states', () => {
     ]);
   });
 
+  it('prepares at the size a fit scale finds: the design’s fitBed, or a fitSheets override', async () => {
+    const d = await ctx.http
+      .post('/api/designs')
+      .set(auth(users.hobbyist))
+      .send({
+        name: 'Bed-sized octahedron',
+        spec: {
+          ...octahedronHexagons(),
+          scale: { by: 'fitBed' },
+          bed: { widthMm: 1000, heightMm: 600 },
+          stock: {
+            thicknessMm: 3,
+            flexible: false,
+            sheet: { widthMm: 600, heightMm: 400 },
+            marginMm: 6,
+            gapMm: 4,
+          },
+        },
+      })
+      .expect(201);
+    const j = await ctx.http
+      .post('/api/jobs')
+      .set(auth(users.hobbyist))
+      .send({ designId: d.body.id })
+      .expect(201);
+    await act(users.hobbyist, j.body.id, 'request');
+    // The test laser's bed is 1000 × 600 mm; the material's stock sheet 600 × 400 mm (workshop fixture).
+    const one = await act(users.fabricator, j.body.id, 'prepare', {
+      ...prepareBody(),
+      scale: { by: 'fitSheets', sheets: 1 },
+    });
+    expect(one.body.preparation).toMatchObject({ sheetCount: 1, marginMm: 6, gapMm: 4 });
+    const stored = async () =>
+      (
+        (await ctx.db.query(`SELECT spec->'scale' AS scale FROM jobs WHERE id = $1`, [j.body.id])) as {
+          scale: { by: string; mm: number };
+        }[]
+      )[0]!.scale;
+    // The job keeps the size found as a fixed diameter, so its cut pack is cut at exactly that size.
+    expect(await stored()).toEqual({ by: 'diameter', mm: expect.any(Number) });
+    expect((await stored()).mm).toBeCloseTo(one.body.preparation.diameterMm, 1);
+    const bed = await act(users.fabricator, j.body.id, 'prepare', prepareBody());
+    expect((await stored()).by).toBe('diameter');
+    // Laid out on one 600 × 400 sheet the model is no larger than when only each piece must fit the bed.
+    expect(one.body.preparation.diameterMm).toBeLessThanOrEqual(bed.body.preparation.diameterMm + 0.01);
+    for (const scale of [{ by: 'fitBed', mm: 200 }, { by: 'fitSheets' }, { by: 'diameter' }]) {
+      const bad = await act(users.fabricator, j.body.id, 'prepare', { ...prepareBody(), scale }, 400);
+      expectErrorBody(bad.body, 400);
+      expect(bad.body.details.map((x: { field: string }) => x.field)).toContain('scale.by');
+    }
+  });
+
+  it('keeps four eyes on a job: the supervisor who prepared it cannot approve it (403), another can', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    const mine = await act(users.supervisor, job.id, 'prepare', prepareBody());
+    // The actions offered leave approval out for the supervisor who prepared it.
+    expect(mine.body.actions).not.toContain('approve');
+    expect(mine.body.actions).toContain('return');
+    const before = await countRows(ctx, 'job_transitions');
+    const refused = await act(users.supervisor, job.id, 'approve', {}, 403);
+    expectErrorBody(refused.body, 403, 'JOB.SELF_APPROVAL');
+    expect(refused.body.message).toMatch(/another supervisor/);
+    expect(await countRows(ctx, 'job_transitions')).toBe(before);
+    const second = await createUser(ctx, 'supervisor');
+    const seen = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(second)).expect(200);
+    expect(seen.body.actions).toContain('approve');
+    const approved = await act(second, job.id, 'approve');
+    expect(approved.body.state).toBe('approved');
+    // It is the preparation in effect that counts: re-prepared by a fabricator, the first supervisor may approve.
+    const other = await draftJob();
+    await act(users.hobbyist, other.id, 'request');
+    await act(users.supervisor, other.id, 'prepare', prepareBody());
+    await act(users.fabricator, other.id, 'prepare', prepareBody());
+    expect((await act(users.supervisor, other.id, 'approve')).body.state).toBe('approved');
+  });
+
   it('lets exactly one of two fabricators preparing the same job win', async () => {
     const job = await draftJob();
     await act(users.hobbyist, job.id, 'request');
@@ -266,7 +395,7 @@ describe('jobs through their states', () => {
     expect(requested?.to).not.toContain(users.hobbyist.email);
     await act(users.fabricator, job.id, 'prepare', prepareBody());
     await act(users.supervisor, job.id, 'approve');
-    await act(users.fabricator, job.id, 'release');
+    await releaseJob(ctx, users.fabricator, job.id);
     mails = await mailsSent();
     for (const prefix of ['Job approved', 'Job released']) {
       // Other suites' mail may still be queued in the shared outbox: pick this job's by its requester.
@@ -282,6 +411,31 @@ describe('jobs through their states', () => {
       (m) => m.subject.startsWith('Job returned') && m.text.includes('Needs a thicker stock'),
     );
     expect(ret?.to).toEqual([users.other.email]);
+  });
+
+  it('documents the response shapes of the designs and jobs routes at /api/docs', async () => {
+    const doc = (await ctx.http.get('/api/docs-json').expect(200)).body as {
+      paths: Record<string, Record<string, { responses: Record<string, { content?: unknown }> }>>;
+      components: { schemas: Record<string, { properties: Record<string, unknown> }> };
+    };
+    const schemaOf = (path: string, method: string, status: string): string =>
+      JSON.stringify(doc.paths[path]?.[method]?.responses[status]?.content ?? null);
+    expect(schemaOf('/api/designs', 'get', '200')).toContain('#/components/schemas/DesignPageDto');
+    expect(schemaOf('/api/designs/{id}', 'get', '200')).toContain('#/components/schemas/DesignViewDto');
+    expect(schemaOf('/api/jobs', 'get', '200')).toContain('#/components/schemas/JobPageDto');
+    expect(schemaOf('/api/jobs', 'post', '201')).toContain('#/components/schemas/JobDetailViewDto');
+    expect(schemaOf('/api/jobs/{id}', 'get', '200')).toContain('#/components/schemas/JobDetailViewDto');
+    for (const action of ['request', 'prepare', 'approve', 'cut', 'close', 'return', 'reopen']) {
+      expect(schemaOf(`/api/jobs/{id}/${action}`, 'post', '200')).toContain('JobDetailViewDto');
+    }
+    expect(schemaOf('/api/jobs/{id}/release', 'post', '202')).toContain('ExportRequestedDto');
+    const s = doc.components.schemas;
+    expect(Object.keys(s.DesignSummaryDto!.properties)).toEqual(expect.arrayContaining(['solid', 'preview']));
+    expect(Object.keys(s.DesignSummaryDto!.properties)).not.toContain('spec');
+    expect(Object.keys(s.JobDetailViewDto!.properties)).toEqual(
+      expect.arrayContaining(['state', 'actions', 'preparation', 'transitions', 'version']),
+    );
+    expect(Object.keys(s.JobPageDto!.properties).sort()).toEqual(['items', 'page', 'pageSize', 'total']);
   });
 
   it('keeps the state change when the mail server is down, and delivers later', async () => {

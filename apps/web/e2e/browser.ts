@@ -1,3 +1,4 @@
+import fs from 'node:fs';
 import path from 'node:path';
 import { type Browser, type BrowserContext, chromium, type Page } from 'playwright-core';
 
@@ -90,4 +91,42 @@ export async function canvasColourCount(
       seen.add(`${pixels[i]},${pixels[i + 1]},${pixels[i + 2]}`);
     return { width, height, colours: seen.size };
   }, selector);
+}
+
+/** A test file's browser session: the page of the running test, and a way to start over as someone else. */
+export interface PageSession {
+  /** Closes the test's context and opens a fresh one (no cookies, no storage); hands its new page on. */
+  restart(): Promise<void>;
+}
+
+/**
+ * Registers the jest hooks every browser test file needs: one Chromium per file (and the screenshot folder),
+ * a fresh context and page per test, all closed afterwards. `onPage` receives each new page.
+ */
+export function openPagePerTest(onPage: (page: Page) => void): PageSession {
+  let browser: Browser | undefined;
+  let context: BrowserContext | undefined;
+  const open = async () => {
+    context = await newContext(browser!);
+    onPage(await context.newPage());
+  };
+
+  beforeAll(async () => {
+    browser = await launchBrowser();
+    fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  beforeEach(open);
+  afterEach(async () => {
+    await context?.close();
+  });
+
+  return {
+    restart: async () => {
+      await context?.close();
+      await open();
+    },
+  };
 }

@@ -1,37 +1,12 @@
-import fs from 'node:fs';
 import path from 'node:path';
-import { type Browser, type BrowserContext, type Page } from 'playwright-core';
-import {
-  BASE_URL,
-  firaSansApplied,
-  launchBrowser,
-  newContext,
-  SCREENSHOT_DIR,
-  signIn,
-  signInToHome,
-} from './browser';
+import { type Page } from 'playwright-core';
+import { BASE_URL, firaSansApplied, SCREENSHOT_DIR, signIn, signInToHome, openPagePerTest } from './browser';
 import { DEMO_PASSWORD, DEMO_USERS, demoUser } from './demo-users';
 
-let browser: Browser;
-let context: BrowserContext;
 let page: Page;
 
-beforeAll(async () => {
-  browser = await launchBrowser();
-  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
-});
-
-afterAll(async () => {
-  await browser?.close();
-});
-
-beforeEach(async () => {
-  context = await newContext(browser);
-  page = await context.newPage();
-});
-
-afterEach(async () => {
-  await context?.close();
+openPagePerTest((p) => {
+  page = p;
 });
 
 describe(`Kerfwright in Chromium at ${BASE_URL}`, () => {

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { type DataSource, type EntityManager } from 'typeorm';
 import { type MaterialHazard, type SafetyNotice } from '@kerfwright/contracts';
@@ -277,9 +278,14 @@ async function seedJob(
       sheet: material.stockSheets[0],
       marginMm: 5,
       gapMm: 3,
-      colours: { count: job.colours.length },
+      colours: { count: job.colours.length, ...(spec.colours?.rule ? { rule: spec.colours.rule } : {}) },
       quantity: job.quantity,
     });
+    // A demo job that went through preparation must carry what preparation produces.
+    if (!prepared.summary) {
+      const why = prepared.layout.ok ? 'the design has errors' : prepared.layout.message;
+      throw new Error(`seed job "${job.key}" reached preparation but cannot be prepared: ${why}`);
+    }
     preparation = prepared.summary;
   }
   const hasMachine = reached.some((st) => PREPARED_STATES.has(st)) || job.state === 'returned';
@@ -323,6 +329,17 @@ async function seedJob(
       ],
     );
     from = h.state;
+  }
+  // A job that was released has a cut pack. The seed only records that it is owed (queued); the first API or
+  // worker process that works the queue builds it (its reconciler finds exports owed in PostgreSQL), so the
+  // demo's released jobs come with real files and no job is released without one.
+  const release = job.history.find((h) => h.state === 'released');
+  if (release) {
+    const exportId = randomUUID();
+    await m.query(
+      `INSERT INTO exports (id, job_id, state, requested_by, storage_prefix) VALUES ($1, $2, 'queued', $3, $4)`,
+      [exportId, jobId, idOf(ids.users, release.by, 'user'), `jobs/${jobId}/exports/${exportId}/`],
+    );
   }
   for (const ack of job.acknowledgements) {
     const versions =

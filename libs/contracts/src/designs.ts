@@ -1,4 +1,4 @@
-import type { DesignIssue, DesignSpec } from './spec';
+import type { DesignIssue, DesignSpec, DesignSpecInput } from './spec';
 
 /** The engine's figures kept with a design so lists show them without rebuilding. */
 export interface DesignPreview {
@@ -29,16 +29,17 @@ export interface DesignView {
 /** List rows leave out the spec's uploaded solid text, which can be large. */
 export type DesignSummary = Omit<DesignView, 'spec'> & { solid: string };
 
+/** A design's spec may size the model by a fit to the stock (`fitSheets`, `fitBed`), as in the CLI. */
 export interface CreateDesignRequest {
   name: string;
   description?: string;
-  spec: DesignSpec;
+  spec: DesignSpecInput;
 }
 
 export interface UpdateDesignRequest {
   name?: string;
   description?: string;
-  spec?: DesignSpec;
+  spec?: DesignSpecInput;
   /** The version the client read; a stale one gets 409. */
   version: number;
 }

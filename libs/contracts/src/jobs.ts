@@ -33,6 +33,16 @@ export interface JobTransitionRule {
   roles: readonly (Role | 'owner')[];
   /** What the action means, in the workshop's words. */
   label: string;
+  /**
+   * Set when the action is carried out by the cut-pack queue: the route answers `202 { exportId }` and the
+   * job reaches `to` only when that export is done (in the same transaction), never before its files exist.
+   */
+  viaExport?: true;
+}
+
+/** The answer of `POST /api/jobs/:id/release` (and of `POST /api/jobs/:id/exports`): the queued export. */
+export interface ExportRequested {
+  exportId: string;
 }
 
 /** The job state machine: the server enforces it and the web client uses it to offer actions. */
@@ -52,6 +62,7 @@ export const JOB_TRANSITIONS: readonly JobTransitionRule[] = [
     to: 'released',
     roles: ['fabricator'],
     label: 'Release to the machines',
+    viaExport: true,
   },
   { action: 'cut', from: ['released'], to: 'cut', roles: ['operator'], label: 'Record the cut' },
   { action: 'close', from: ['cut'], to: 'closed', roles: ['operator', 'fabricator'], label: 'Close the job' },

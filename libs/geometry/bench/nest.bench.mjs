@@ -1,9 +1,11 @@
-// Nesting bench: true-shape nesting (bottom-left fill over no-fit polygons + lattice pattern pass) against a
-// bounding-box rectangle packer from npm (maxrects-packer 2.7.4) on the same designs, side by side.
+// Nesting bench: true-shape nesting (bottom-left fill over no-fit polygons + lattice pattern pass with a
+// double-lattice search) against a bounding-box rectangle packer from npm (maxrects-packer 2.7.4) on the same
+// designs, side by side.
 // Run after `npm run build -w @kerfwright/geometry`:  node libs/geometry/bench/nest.bench.mjs
 import os from 'node:os';
 import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs';
 import { nestParts } from '../dist/nest/index.js';
+import { densestDoubleLattice } from '../dist/nest/double-lattice.js';
 import { solveColourPlan } from '../dist/colour/index.js';
 
 const SHEET = { widthMm: 600, heightMm: 400 };
@@ -253,8 +255,10 @@ console.log(
   const dec = designs.find((d) => d.name.startsWith('decagons'));
   const many = { ...dec.parts[0], quantity: 260 };
   const t0 = performance.now();
+  const c0 = process.cpuUsage();
   const r = nestParts({ sheet: big, marginMm: 0, gapMm: GAP, parts: [many] });
   const ms = performance.now() - t0;
+  const cpu = cpuMs(c0);
   const xs = many.outline.map((q) => q[0]);
   const ys = many.outline.map((q) => q[1]);
   const packer = new MaxRectsPacker(big.widthMm, big.heightMm, GAP, {
@@ -270,8 +274,29 @@ console.log(
   const theirs = packer.bins[0]?.rects.length ?? 0;
   console.log(
     `decagons R60 on ${big.widthMm} × ${big.heightMm}: first sheet ${ours} (${r.ok ? r.totals.groups[0].method : 'failed'})` +
-      ` vs bounding boxes ${theirs}: ratio ${(ours / theirs).toFixed(2)}, ${ms.toFixed(0)} ms`,
+      ` vs bounding boxes ${theirs}: ratio ${(ours / theirs).toFixed(2)}, ${ms.toFixed(0)} ms wall, ${cpu.toFixed(0)} ms CPU`,
   );
+}
+
+// ---------- Densest double lattices on the unbounded plane, no gap, against published values ----------
+// REFERENCES "Packing": pentagon (5 − √5)/3 (Kuperberg & Kuperberg 1990), heptagon ≈ 0.8927 (best known double
+// lattice), octagon (4 + 4√2)/(5 + 4√2) and decagon ≈ 0.9137 (lattices), triangle and hexagon 1 (tilings).
+{
+  const refs = [
+    ['triangle', 3, 120, 1],
+    ['pentagon', 5, 72, (5 - Math.sqrt(5)) / 3],
+    ['hexagon', 6, 60, 1],
+    ['heptagon', 7, 360 / 7, 0.8927],
+    ['octagon', 8, 45, (4 + 4 * Math.SQRT2) / (5 + 4 * Math.SQRT2)],
+    ['decagon', 10, 36, 0.9137],
+  ];
+  const parts = [];
+  for (const [name, n, period, ref] of refs) {
+    const c0 = process.cpuUsage();
+    const lat = densestDoubleLattice(regular(n, 50), 0, period);
+    parts.push(`${name} ${lat.density.toFixed(5)} (ref ${ref.toFixed(4)}, ${cpuMs(c0).toFixed(0)} ms CPU)`);
+  }
+  console.log(`densest double lattice found, plane: ${parts.join('; ')}`);
 }
 
 const nonRect = rows.filter((r, i) => !designs[i].rect);

@@ -1,5 +1,5 @@
 import { Controller, Get, Query } from '@nestjs/common';
-import { ApiBearerAuth, ApiOkResponse, ApiPropertyOptional, ApiTags } from '@nestjs/swagger';
+import { ApiBearerAuth, ApiOkResponse, ApiProperty, ApiPropertyOptional, ApiTags } from '@nestjs/swagger';
 import { InjectRepository } from '@nestjs/typeorm';
 import { IsIn, IsOptional, IsString, IsUUID, MaxLength } from 'class-validator';
 import { Repository } from 'typeorm';
@@ -28,6 +28,27 @@ export class ListAuditQuery extends PageQueryDto {
   sort?: string;
 }
 
+export class AuditEventResponse implements AuditEventView {
+  @ApiProperty() id: string;
+  @ApiProperty({ type: String, format: 'uuid', nullable: true }) actorId: string | null;
+  @ApiProperty({ type: String, nullable: true }) actorName: string | null;
+  @ApiProperty({ description: 'What was done, e.g. job.approve' }) action: string;
+  @ApiProperty() entityType: string;
+  @ApiProperty() entityId: string;
+  @ApiProperty({ type: 'object', nullable: true, additionalProperties: true }) before: unknown;
+  @ApiProperty({ type: 'object', nullable: true, additionalProperties: true }) after: unknown;
+  @ApiProperty({ type: String, nullable: true, description: 'The X-Request-Id of the write' })
+  requestId: string | null;
+  @ApiProperty({ format: 'date-time' }) createdAt: string;
+}
+
+export class AuditPageResponse implements Page<AuditEventView> {
+  @ApiProperty({ type: [AuditEventResponse] }) items: AuditEventResponse[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
+}
+
 /** The audit trail of every write, newest first; supervisors only. */
 @ApiTags('audit')
 @ApiBearerAuth()
@@ -37,7 +58,7 @@ export class AuditController {
   constructor(@InjectRepository(AuditEvent) private readonly events: Repository<AuditEvent>) {}
 
   @Get()
-  @ApiOkResponse({ description: 'A page of audit events' })
+  @ApiOkResponse({ type: AuditPageResponse, description: 'A page of audit events' })
   async list(@Query() q: ListAuditQuery): Promise<Page<AuditEventView>> {
     const { page, pageSize, skip, take } = pageWindow(q, 50);
     const qb = this.events

@@ -1,12 +1,16 @@
 import { Body, Controller, Get, HttpCode, Post, Req, UseGuards } from '@nestjs/common';
+import { ApiBearerAuth, ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { type AuthResponse, type UserView } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Public } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { UserResponse } from '../users/dto/user.response';
 import { AuthService } from './auth.service';
+import { AuthTokenResponse } from './dto/auth.response';
 import { LoginDto } from './dto/login.dto';
 import { RegisterDto } from './dto/register.dto';
 import { LoginThrottlerGuard } from './login-throttler.guard';
 
+@ApiTags('auth')
 @Controller('auth')
 export class AuthController {
   constructor(private readonly auth: AuthService) {}
@@ -14,6 +18,7 @@ export class AuthController {
   @Public()
   @UseGuards(LoginThrottlerGuard)
   @Post('register')
+  @ApiCreatedResponse({ type: AuthTokenResponse, description: 'The new hobbyist account, signed in' })
   register(@Body() dto: RegisterDto, @Req() req: unknown): Promise<AuthResponse> {
     return this.auth.register(dto, requestIdOf(req));
   }
@@ -22,11 +27,14 @@ export class AuthController {
   @UseGuards(LoginThrottlerGuard)
   @Post('login')
   @HttpCode(200)
+  @ApiOkResponse({ type: AuthTokenResponse, description: 'A bearer token and the signed-in user' })
   login(@Body() dto: LoginDto): Promise<AuthResponse> {
     return this.auth.login(dto);
   }
 
   @Get('me')
+  @ApiBearerAuth()
+  @ApiOkResponse({ type: UserResponse, description: 'The signed-in user' })
   me(@CurrentUser() user: AuthUser): Promise<UserView> {
     return this.auth.me(user.id);
   }

@@ -24,7 +24,15 @@ import { JwtStrategy } from './jwt.strategy';
     ThrottlerModule.forRootAsync({
       inject: [authConfig.KEY],
       useFactory: (c: ConfigType<typeof authConfig>) => ({
-        throttlers: [{ name: 'login', ttl: c.loginWindowMs, limit: c.loginLimit }],
+        throttlers: [
+          { name: 'login', ttl: c.loginWindowMs, limit: c.loginLimit },
+          {
+            name: 'login-address',
+            ttl: c.loginWindowMs,
+            limit: c.loginAddressLimit,
+            getTracker: (req: Record<string, unknown>) => (typeof req.ip === 'string' ? req.ip : 'unknown'),
+          },
+        ],
         errorMessage: 'Too many sign-in attempts; wait a minute and try again',
       }),
     }),

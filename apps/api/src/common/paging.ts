@@ -3,14 +3,17 @@ import { Type } from 'class-transformer';
 import { IsInt, IsOptional, Max, Min } from 'class-validator';
 
 export const MAX_PAGE_SIZE = 200;
+/** Highest page number accepted: far past any real table, and keeps OFFSET a plain integer in SQL. */
+export const MAX_PAGE = 1_000_000;
 
 /** `page` and `pageSize` of every table endpoint; list queries extend it with their sort and filters. */
 export class PageQueryDto {
-  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @ApiPropertyOptional({ minimum: 1, maximum: MAX_PAGE, default: 1 })
   @IsOptional()
   @Type(() => Number)
   @IsInt()
   @Min(1)
+  @Max(MAX_PAGE)
   page?: number;
 
   @ApiPropertyOptional({ minimum: 1, maximum: MAX_PAGE_SIZE, default: 25 })

@@ -14,6 +14,10 @@ export const authConfig = registerAs('auth', () => ({
   jwtSecret: process.env.KW_JWT_SECRET ?? DEV_JWT_SECRET,
   jwtTtl: process.env.KW_JWT_TTL ?? '8h',
   loginLimit: Number(process.env.KW_LOGIN_LIMIT ?? 10),
+  /** Sign-in attempts per client address over all e-mails (credential stuffing); 10 × the per-account limit. */
+  loginAddressLimit: Number(
+    process.env.KW_LOGIN_ADDRESS_LIMIT ?? 10 * Number(process.env.KW_LOGIN_LIMIT ?? 10),
+  ),
   loginWindowMs: Number(process.env.KW_LOGIN_WINDOW_S ?? 60) * 1000,
 }));
 

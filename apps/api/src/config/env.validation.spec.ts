@@ -18,4 +18,12 @@ describe('configuration validated at boot', () => {
     expect(() => validateEnv({ KW_PORT: 'eighty' })).toThrow(/KW_PORT/);
     expect(() => validateEnv({ KW_MODE: 'staging' })).toThrow(/KW_MODE/);
   });
+
+  it('takes one CORS origin, never a wildcard or a path', () => {
+    expect(() => validateEnv({ KW_CORS_ORIGIN: 'https://shop.example.org' })).not.toThrow();
+    expect(() => validateEnv({ KW_CORS_ORIGIN: 'http://127.0.0.1:5173' })).not.toThrow();
+    expect(() => validateEnv({ KW_CORS_ORIGIN: '*' })).toThrow(/KW_CORS_ORIGIN/);
+    expect(() => validateEnv({ KW_CORS_ORIGIN: 'https://shop.example.org/app' })).toThrow(/KW_CORS_ORIGIN/);
+    expect(() => validateEnv({ KW_LOGIN_ADDRESS_LIMIT: '0' })).toThrow(/KW_LOGIN_ADDRESS_LIMIT/);
+  });
 });

@@ -1,6 +1,16 @@
 import 'reflect-metadata';
 import { plainToInstance } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, Max, Min, MinLength, validateSync } from 'class-validator';
+import {
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  Matches,
+  Max,
+  Min,
+  MinLength,
+  validateSync,
+} from 'class-validator';
 
 export const DEV_JWT_SECRET = 'kerfwright-development-secret-not-for-production';
 export const MODES = ['development', 'test', 'production'] as const;
@@ -21,9 +31,15 @@ export class EnvVars {
   @IsOptional() @IsString() KW_REDIS_HOST?: string;
   @IsOptional() @IsInt() @Min(1) @Max(65535) KW_REDIS_PORT?: number;
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_LIMIT?: number;
+  @IsOptional() @IsInt() @Min(1) KW_LOGIN_ADDRESS_LIMIT?: number;
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_WINDOW_S?: number;
   @IsOptional() @IsString() KW_WEB_DIST?: string;
-  @IsOptional() @IsString() KW_CORS_ORIGIN?: string;
+  /** One origin (scheme://host[:port]); never a wildcard or a path. */
+  @IsOptional()
+  @Matches(/^https?:\/\/[A-Za-z0-9.-]+(:\d{1,5})?$/, {
+    message: 'KW_CORS_ORIGIN must be one origin such as https://shop.example.org (no wildcard, no path)',
+  })
+  KW_CORS_ORIGIN?: string;
 }
 
 /**

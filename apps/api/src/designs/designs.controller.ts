@@ -35,6 +35,7 @@ import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { DesignsService } from './designs.service';
 import {
   CreateDesignDto,
+  DesignPageDto,
   DesignViewDto,
   ListDesignsQuery,
   SolidCheckDto,
@@ -61,7 +62,7 @@ export class DesignsController {
   constructor(private readonly designs: DesignsService) {}
 
   @Get()
-  @ApiOkResponse({ description: 'A page of designs (hobbyists see their own)' })
+  @ApiOkResponse({ type: DesignPageDto, description: 'A page of designs (hobbyists see their own)' })
   list(@CurrentUser() user: AuthUser, @Query() query: ListDesignsQuery): Promise<Page<DesignSummary>> {
     return this.designs.list(user, query);
   }

@@ -32,9 +32,25 @@ export const exportsConfig = registerAs('exports', () => {
     lockMs: int('KW_EXPORT_LOCK_MS', 15000, 1000),
     stalledCheckMs: int('KW_EXPORT_STALLED_CHECK_MS', 5000, 500),
     stepDelayMs: int('KW_EXPORT_STEP_DELAY_MS', 0, 0),
+    /**
+     * How often a worker compares the queue with the exports owed in PostgreSQL (see exports.reconciler.ts);
+     * 0 turns it off (the API test suites, which share one database between several queue prefixes).
+     */
+    reconcileMs: int('KW_EXPORT_RECONCILE_MS', 10000, 0),
   };
 });
 export type ExportsConfig = ReturnType<typeof exportsConfig>;
 
 export const EXPORT_QUEUE = 'cut-packs';
 export const EXPORT_JOB = 'build';
+
+/** Bull job options: the export id is the job id, so adding it twice is a no-op. */
+export function exportJobOptions(config: Pick<ExportsConfig, 'attempts' | 'backoffMs'>, exportId: string) {
+  return {
+    jobId: exportId,
+    attempts: config.attempts,
+    backoff: { type: 'exponential', delay: config.backoffMs },
+    removeOnComplete: true,
+    removeOnFail: 1000,
+  };
+}

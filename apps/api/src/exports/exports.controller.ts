@@ -1,4 +1,5 @@
 import {
+  Body,
   Controller,
   Get,
   HttpCode,
@@ -11,19 +12,39 @@ import {
   StreamableFile,
   type MessageEvent,
 } from '@nestjs/common';
-import { ApiAcceptedResponse, ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  ApiAcceptedResponse,
+  ApiBearerAuth,
+  ApiExtraModels,
+  ApiOkResponse,
+  ApiOperation,
+  ApiProduces,
+  ApiTags,
+  getSchemaPath,
+} from '@nestjs/swagger';
 import { type Response } from 'express';
 import { type Observable } from 'rxjs';
-import { type ExportView } from '@kerfwright/contracts';
+import { type ExportRequested, type ExportView } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { JobActionDto } from '../jobs/dto/job.dto';
+import { ExportRequestedDto, ExportViewDto } from './dto/export.dto';
 import { ExportsService } from './exports.service';
 
 const ID = new ParseUUIDPipe();
+/** Content types of cut-pack files: DXF/SVG drawings, PDF sheets and guide, the JSON manifest, the ZIP archive. */
+const FILE_CONTENT_TYPES = [
+  'application/dxf',
+  'image/svg+xml',
+  'application/pdf',
+  'application/json',
+  'application/zip',
+];
 
 /** Cut-pack exports: queued by fabricators, followed by polling or server-sent events, downloaded by operators. */
 @ApiTags('exports')
 @ApiBearerAuth()
+@ApiExtraModels(ExportViewDto)
 @Controller()
 export class ExportsController {
   constructor(private readonly exports: ExportsService) {}
@@ -34,23 +55,45 @@ export class ExportsController {
   @ApiOperation({
     summary: 'Queue the cut pack of an approved (or released) job; when done, an approved job is released',
   })
-  @ApiAcceptedResponse({ description: '{ exportId }: follow it at /api/exports/{exportId}' })
+  @ApiAcceptedResponse({ type: ExportRequestedDto, description: 'Follow it at /api/exports/{exportId}' })
   request(
     @CurrentUser() u: AuthUser,
     @Param('id', ID) id: string,
     @Req() req: unknown,
-  ): Promise<{ exportId: string }> {
+  ): Promise<ExportRequested> {
     return this.exports.request(u, id, requestIdOf(req));
   }
 
+  @Post('jobs/:id/release')
+  @HttpCode(202)
+  @Roles('fabricator')
+  @ApiTags('jobs')
+  @ApiOperation({
+    summary:
+      'approved → released (fabricator): queues the cut pack; the job is released when the export is done',
+  })
+  @ApiAcceptedResponse({
+    type: ExportRequestedDto,
+    description: 'The queued export; the job stays approved until its files are stored',
+  })
+  release(
+    @CurrentUser() u: AuthUser,
+    @Param('id', ID) id: string,
+    @Body() dto: JobActionDto,
+    @Req() req: unknown,
+  ): Promise<ExportRequested> {
+    return this.exports.release(u, id, dto.version, requestIdOf(req));
+  }
+
   @Get('jobs/:id/exports')
-  @ApiOkResponse({ description: 'The job’s exports, newest first' })
+  @ApiOkResponse({ type: [ExportViewDto], description: 'The job’s exports, newest first' })
   list(@CurrentUser() u: AuthUser, @Param('id', ID) id: string): Promise<ExportView[]> {
     return this.exports.list(u, id);
   }
 
   @Get('exports/:id')
   @ApiOkResponse({
+    type: ExportViewDto,
     description: 'State, progress %, error code and (when done) files with SHA-256 checksums',
   })
   get(@CurrentUser() u: AuthUser, @Param('id', ID) id: string): Promise<ExportView> {
@@ -59,6 +102,25 @@ export class ExportsController {
 
   @Sse('exports/:id/events')
   @ApiOperation({ summary: 'Server-sent events: the export view on every change; ends with done or failed' })
+  @ApiProduces('text/event-stream')
+  @ApiOkResponse({
+    description:
+      'A text/event-stream. Each event is named `progress`, `done` or `failed` (the last one sent) and its ' +
+      '`data` line is the export view as JSON',
+    content: {
+      'text/event-stream': {
+        schema: {
+          type: 'object',
+          description: 'One server-sent event',
+          required: ['event', 'data'],
+          properties: {
+            event: { type: 'string', enum: ['progress', 'done', 'failed'] },
+            data: { $ref: getSchemaPath(ExportViewDto) },
+          },
+        },
+      },
+    },
+  })
   events(@CurrentUser() u: AuthUser, @Param('id', ID) id: string): Promise<Observable<MessageEvent>> {
     return this.exports.events(u, id);
   }
@@ -67,6 +129,14 @@ export class ExportsController {
   @ApiOperation({
     summary:
       'Download one file (staff: after acknowledging the job’s current safety notices; hobbyists: their own assembly guide)',
+  })
+  @ApiProduces(...FILE_CONTENT_TYPES)
+  @ApiOkResponse({
+    description:
+      'The stored bytes, with Content-Disposition: attachment and a Repr-Digest (RFC 9530) SHA-256 header',
+    content: Object.fromEntries(
+      FILE_CONTENT_TYPES.map((t) => [t, { schema: { type: 'string', format: 'binary' } }]),
+    ),
   })
   async download(
     @CurrentUser() u: AuthUser,

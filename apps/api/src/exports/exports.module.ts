@@ -13,6 +13,7 @@ import { Export, ExportFile } from './export.entity';
 import { EXPORT_QUEUE, exportsConfig } from './exports.config';
 import { ExportsController } from './exports.controller';
 import { ExportsProcessor, PACK_BUILDER } from './exports.processor';
+import { ExportsReconciler } from './exports.reconciler';
 import { ExportsService } from './exports.service';
 
 @Module({
@@ -43,6 +44,7 @@ import { ExportsService } from './exports.service';
   providers: [
     ExportsService,
     ExportsProcessor,
+    ExportsReconciler,
     CutPackInputService,
     { provide: PACK_BUILDER, useValue: buildPack },
   ],

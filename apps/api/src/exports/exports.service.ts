@@ -1,22 +1,24 @@
 import { randomUUID } from 'node:crypto';
 import { type Readable } from 'node:stream';
 import { InjectQueue } from '@nestjs/bull';
-import { HttpStatus, Inject, Injectable, type MessageEvent } from '@nestjs/common';
+import { HttpStatus, Inject, Injectable, Logger, type MessageEvent } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { distinctUntilChanged, from, type Observable, switchMap, takeWhile, timer, map } from 'rxjs';
 import { DataSource, In } from 'typeorm';
-import { type ExportView } from '@kerfwright/contracts';
+import { type ExportRequested, type ExportView, transitionFor } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
 import { Job } from '../jobs/job.entity';
+import { canReadJob } from '../jobs/jobs.service';
 import { SafetyService } from '../safety/safety.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
 import { exportPrefix, isSafeFileName } from './export-keys';
 import { Export, ExportFile } from './export.entity';
-import { EXPORT_JOB, EXPORT_QUEUE, exportsConfig } from './exports.config';
+import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
+import { withDeadline } from './exports.reconciler';
 import { type ExportJobData } from './exports.processor';
 
 /** States of a job whose cut pack may be (re)built. */
@@ -24,6 +26,8 @@ const EXPORTABLE = ['approved', 'released', 'cut', 'closed'];
 /** What a hobbyist may download: the assembly guide of their own job, nothing else. */
 const HOBBYIST_ROLES = ['assembly-guide'];
 const POLL_MS = 500;
+/** How long a request waits for Redis to take a new export before answering anyway. */
+const QUEUE_ADD_MS = 3000;
 
 export interface OpenedFile {
   name: string;
@@ -36,6 +40,8 @@ export interface OpenedFile {
 /** Export records: asking for a cut pack, following it, and reading its files back. */
 @Injectable()
 export class ExportsService {
+  private readonly logger = new Logger('Exports');
+
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     @InjectQueue(EXPORT_QUEUE) private readonly queue: Queue<ExportJobData>,
@@ -46,13 +52,49 @@ export class ExportsService {
   ) {}
 
   /**
+   * Releases an approved job the only way a job is released: by queueing its cut pack. The export, once done,
+   * moves the job to released in the same transaction that records its files (see ExportsProcessor.finish),
+   * so the job is never released without them. The job must be approved and the caller must name the
+   * version they read (409 JOB.ILLEGAL_TRANSITION / JOB.STALE_VERSION otherwise); an export of the job
+   * already queued or running is answered instead of a second one.
+   */
+  release(user: AuthUser, jobId: string, version: number, requestId: string): Promise<ExportRequested> {
+    const rule = transitionFor('release');
+    return this.request(user, jobId, requestId, (job) => {
+      if (!rule.from.includes(job.state)) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'JOB.ILLEGAL_TRANSITION',
+          `A ${job.state} job cannot be given "release"`,
+          { state: job.state, action: 'release', allowedFrom: rule.from },
+        );
+      }
+      if (job.version !== version) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'JOB.STALE_VERSION',
+          'The job changed since you read it; reload it and try again',
+          { current: job.version },
+        );
+      }
+    });
+  }
+
+  /**
    * Queues a cut pack for an approved job (or a released one, again). While an export of the job is queued
    * or running, asking again answers that export (and re-queues it should the queue have lost it).
+   * `check` runs on the locked job before anything is written (release's state and version checks).
    */
-  async request(user: AuthUser, jobId: string, requestId: string): Promise<{ exportId: string }> {
+  async request(
+    user: AuthUser,
+    jobId: string,
+    requestId: string,
+    check?: (job: Job) => void,
+  ): Promise<ExportRequested> {
     const exp = await this.dataSource.transaction(async (m) => {
       const job = await m.findOne(Job, { where: { id: jobId }, lock: { mode: 'pessimistic_write' } });
-      if (!job || job.state === 'draft') throw notFound('JOB', 'No such job');
+      if (!job || !canReadJob(user, job)) throw notFound('JOB', 'No such job');
+      check?.(job);
       if (!EXPORTABLE.includes(job.state)) {
         throw new AppError(
           HttpStatus.CONFLICT,
@@ -83,31 +125,17 @@ export class ExportsService {
       return created;
     });
     try {
-      await this.queue.add(EXPORT_JOB, { exportId: exp.id, requestId }, this.jobOptions(exp.id));
+      await withDeadline(
+        this.queue.add(EXPORT_JOB, { exportId: exp.id, requestId }, exportJobOptions(this.config, exp.id)),
+        QUEUE_ADD_MS,
+        'adding to the queue',
+      );
     } catch (err) {
-      await this.dataSource.query(
-        `UPDATE exports SET state = 'failed', error_code = 'EXPORT.QUEUE_UNAVAILABLE', error_message = $2,
-                finished_at = now() WHERE id = $1 AND state = 'queued'`,
-        [exp.id, String((err as Error).message).slice(0, 500)],
-      );
-      throw new AppError(
-        HttpStatus.SERVICE_UNAVAILABLE,
-        'EXPORT.QUEUE_UNAVAILABLE',
-        'The export queue is not available; try again shortly',
-      );
+      // Redis is down or slow. The export stays queued in PostgreSQL, which is the record of what is owed;
+      // the add completes when Redis answers again, or a worker's reconciler puts it on the queue.
+      this.logger.warn(`export ${exp.id} is owed but not yet on the queue: ${String(err)}`);
     }
     return { exportId: exp.id };
-  }
-
-  /** Bull job options: the export id is the job id, so adding it twice is a no-op. */
-  private jobOptions(exportId: string) {
-    return {
-      jobId: exportId,
-      attempts: this.config.attempts,
-      backoff: { type: 'exponential', delay: this.config.backoffMs },
-      removeOnComplete: true,
-      removeOnFail: 1000,
-    };
   }
 
   async get(user: AuthUser, id: string): Promise<ExportView> {

@@ -1,4 +1,5 @@
 import { Controller, Get, HttpStatus, Inject } from '@nestjs/common';
+import { ApiOkResponse, ApiServiceUnavailableResponse, ApiTags } from '@nestjs/swagger';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type Redis from 'ioredis';
 import { DataSource } from 'typeorm';
@@ -6,6 +7,7 @@ import { type HealthView } from '@kerfwright/contracts';
 import { Public } from '../common/decorators/auth.decorators';
 import { AppError } from '../common/errors';
 import { REDIS } from '../redis/redis.module';
+import { HealthResponse } from './dto/health.response';
 
 const CHECK_TIMEOUT_MS = 1500;
 
@@ -16,6 +18,7 @@ function withTimeout<T>(p: Promise<T>): Promise<T> {
   ]);
 }
 
+@ApiTags('health')
 @Controller('health')
 export class HealthController {
   constructor(
@@ -26,6 +29,10 @@ export class HealthController {
   /** 200 when PostgreSQL and Redis both answer; otherwise 503 with the same view in `details`. */
   @Public()
   @Get()
+  @ApiOkResponse({ type: HealthResponse, description: 'PostgreSQL and Redis both answer' })
+  @ApiServiceUnavailableResponse({
+    description: 'SERVICE.DEGRADED: a backing service is down; the health view is in `details`',
+  })
   async check(): Promise<HealthView> {
     const [database, redis] = await Promise.all([
       withTimeout(this.dataSource.query('SELECT 1')).then(

@@ -1,13 +1,19 @@
 import { HttpStatus, Injectable } from '@nestjs/common';
 import { type EntityManager } from 'typeorm';
-import { type DesignSpec, type JobPreparation, toMachineSpec } from '@kerfwright/contracts';
-import { prepareCut, SolidError, SpecValidationError } from '@kerfwright/geometry';
+import {
+  type ColourRuleName,
+  type DesignSpec,
+  type DesignSpecInput,
+  type JobPreparation,
+  toMachineSpec,
+} from '@kerfwright/contracts';
+import { buildWithLayout, prepareCut, SolidError, SpecValidationError } from '@kerfwright/geometry';
 import { AuditService } from '../audit/audit.service';
 import { AppError } from '../common/errors';
 import { MachineProfilesService } from '../machine-profiles/machine-profiles.service';
 import { MaterialsService } from '../materials/materials.service';
 import { badSolid, invalidSpec } from '../designs/design-engine';
-import { type PrepareJobDto } from './dto/job.dto';
+import { type PrepareJobDto, toScaleSpec } from './dto/job.dto';
 import { type Job } from './job.entity';
 
 export const DEFAULT_MARGIN_MM = 5;
@@ -61,20 +67,34 @@ export class JobPreparationService {
     }
     const thicknessMm = material.measuredThicknessMm ?? material.nominalThicknessMm;
     const machine = toMachineSpec(version.kind, setting);
-    const spec: DesignSpec = {
-      ...job.spec,
-      ...(dto.scale ? { scale: dto.scale } : {}),
+    // The design's own layout settings and colour rule apply unless the fabricator overrides them.
+    const designed = job.spec as DesignSpecInput;
+    const marginMm = dto.marginMm ?? designed.stock.marginMm ?? DEFAULT_MARGIN_MM;
+    const gapMm = dto.gapMm ?? designed.stock.gapMm ?? DEFAULT_GAP_MM;
+    const colourRule = dto.colourRule ?? designed.colours?.rule;
+    const { colours: _designColours, ...rest } = designed;
+    const input: DesignSpecInput = {
+      ...rest,
+      scale: dto.scale ? toScaleSpec(dto.scale) : designed.scale,
       stock: { thicknessMm, flexible: material.flexible },
       machine,
       bed: { widthMm: version.bedWidthMm, heightMm: version.bedHeightMm },
     };
     let prepared;
+    let spec: DesignSpec;
     try {
+      spec = resolveFitScale(input, {
+        sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm },
+        marginMm,
+        gapMm,
+        colourCount: colours.length,
+        colourRule,
+      });
       prepared = prepareCut(spec, {
         sheet,
-        marginMm: dto.marginMm ?? DEFAULT_MARGIN_MM,
-        gapMm: dto.gapMm ?? DEFAULT_GAP_MM,
-        colours: { count: colours.length, rule: dto.colourRule },
+        marginMm,
+        gapMm,
+        colours: { count: colours.length, rule: colourRule },
         quantity: job.quantity,
       });
     } catch (err) {
@@ -131,4 +151,41 @@ export class JobPreparationService {
       });
     }
   }
+}
+
+/**
+ * A fit scale (`fitSheets`: the largest model on N sheets of the chosen stock, `fitBed`: the largest whose
+ * pieces fit the machine's bed) searched by the geometry library and fixed as the diameter it found, so the
+ * job and its cut pack are cut at exactly that size. A fixed scale is returned as it is.
+ */
+export function resolveFitScale(
+  input: DesignSpecInput,
+  stock: {
+    sheet: { widthMm: number; heightMm: number };
+    marginMm: number;
+    gapMm: number;
+    colourCount: number;
+    colourRule?: ColourRuleName;
+  },
+): DesignSpec {
+  if (input.scale.by !== 'fitSheets' && input.scale.by !== 'fitBed') return input as DesignSpec;
+  // The search lays the pieces out on the chosen stock; each colour is cut from its own sheets.
+  const search: DesignSpecInput = {
+    ...input,
+    stock: { ...input.stock, sheet: stock.sheet, marginMm: stock.marginMm, gapMm: stock.gapMm },
+    ...(stock.colourCount > 1
+      ? { colours: { count: stock.colourCount, ...(stock.colourRule ? { rule: stock.colourRule } : {}) } }
+      : {}),
+  };
+  const { model, resolvedSpec } = buildWithLayout(search);
+  if (model.report.errors.length > 0) {
+    throw new AppError(
+      HttpStatus.CONFLICT,
+      'JOB.DESIGN_INVALID',
+      `The design cannot be fitted to the stock: ${model.report.errors[0]!.message}`,
+      model.report.errors,
+    );
+  }
+  // Cut at the size found, with the job's own stock (the layout settings travel in the preparation).
+  return { ...input, scale: resolvedSpec.scale } as DesignSpec;
 }

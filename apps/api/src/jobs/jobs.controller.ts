@@ -1,5 +1,13 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query, Req } from '@nestjs/common';
-import { ApiBearerAuth, ApiCreatedResponse, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBearerAuth,
+  ApiConflictResponse,
+  ApiCreatedResponse,
+  ApiForbiddenResponse,
+  ApiOkResponse,
+  ApiOperation,
+  ApiTags,
+} from '@nestjs/swagger';
 import { type JobDetailView, type JobView, type Page } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser } from '../common/decorators/auth.decorators';
 import {
@@ -10,13 +18,15 @@ import {
   RecordCutDto,
   ReturnJobDto,
 } from './dto/job.dto';
+import { JobDetailViewDto, JobPageDto } from './dto/job.response';
 import { JobsService } from './jobs.service';
 
 const ID = new ParseUUIDPipe();
 
 /**
  * Jobs and their state changes. Each action is its own route so roles and bodies stay explicit; the
- * state machine (JOB_TRANSITIONS in contracts) decides what is legal (409 otherwise).
+ * state machine (JOB_TRANSITIONS in contracts) decides what is legal (409 otherwise). Release goes through
+ * the cut-pack queue, so its route lives with the exports (`POST /api/jobs/:id/release`, 202 { exportId }).
  */
 @ApiTags('jobs')
 @ApiBearerAuth()
@@ -25,13 +35,13 @@ export class JobsController {
   constructor(private readonly jobs: JobsService) {}
 
   @Get()
-  @ApiOkResponse({ description: 'A page of jobs (hobbyists see their own)' })
+  @ApiOkResponse({ type: JobPageDto, description: 'A page of jobs (hobbyists see their own)' })
   list(@CurrentUser() user: AuthUser, @Query() query: ListJobsQuery): Promise<Page<JobView>> {
     return this.jobs.list(user, query);
   }
 
   @Post()
-  @ApiCreatedResponse({ description: 'A draft job for a design' })
+  @ApiCreatedResponse({ type: JobDetailViewDto, description: 'A draft job for a design' })
   create(
     @CurrentUser() user: AuthUser,
     @Body() dto: CreateJobDto,
@@ -41,13 +51,15 @@ export class JobsController {
   }
 
   @Get(':id')
-  @ApiOkResponse({ description: 'The job with its history of transitions' })
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job with its history of transitions' })
   get(@CurrentUser() user: AuthUser, @Param('id', ID) id: string): Promise<JobDetailView> {
     return this.jobs.get(user, id);
   }
 
   @Post(':id/request')
   @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiOperation({ summary: 'draft → requested (the requester)' })
   request(
     @CurrentUser() u: AuthUser,
@@ -60,6 +72,8 @@ export class JobsController {
 
   @Post(':id/prepare')
   @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiOperation({
     summary:
       'requested → prepared (fabricator): material, machine profile version, colours; the engine lays it out',
@@ -75,7 +89,13 @@ export class JobsController {
 
   @Post(':id/approve')
   @HttpCode(200)
-  @ApiOperation({ summary: 'prepared → approved (supervisor)' })
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
+  @ApiOperation({ summary: 'prepared → approved (a supervisor who did not prepare the job)' })
+  @ApiForbiddenResponse({
+    description:
+      'JOB.ACTION_NOT_ALLOWED: supervisors only; JOB.SELF_APPROVAL: the caller prepared this job (four-eyes rule)',
+  })
   approve(
     @CurrentUser() u: AuthUser,
     @Param('id', ID) id: string,
@@ -85,20 +105,10 @@ export class JobsController {
     return this.jobs.approve(u, id, dto.version, req);
   }
 
-  @Post(':id/release')
-  @HttpCode(200)
-  @ApiOperation({ summary: 'approved → released (fabricator)' })
-  release(
-    @CurrentUser() u: AuthUser,
-    @Param('id', ID) id: string,
-    @Body() dto: JobActionDto,
-    @Req() req: unknown,
-  ) {
-    return this.jobs.release(u, id, dto.version, req);
-  }
-
   @Post(':id/cut')
   @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiOperation({ summary: 'released → cut (operator): actual time, sheets used, measured kerf' })
   cut(
     @CurrentUser() u: AuthUser,
@@ -111,6 +121,8 @@ export class JobsController {
 
   @Post(':id/close')
   @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiOperation({ summary: 'cut → closed (operator or fabricator)' })
   close(
     @CurrentUser() u: AuthUser,
@@ -123,6 +135,8 @@ export class JobsController {
 
   @Post(':id/return')
   @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiOperation({ summary: 'requested | prepared | approved → returned, with a reason (fabricator)' })
   returnJob(
     @CurrentUser() u: AuthUser,
@@ -135,6 +149,8 @@ export class JobsController {
 
   @Post(':id/reopen')
   @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiOperation({ summary: 'returned → draft (the requester)' })
   reopen(
     @CurrentUser() u: AuthUser,

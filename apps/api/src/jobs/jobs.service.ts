@@ -28,6 +28,27 @@ const SORT_COLUMNS: Record<string, string> = {
   state: 'j.state',
 };
 
+/** Job columns (entity properties) a list row needs; the spec stays in the database. */
+const LIST_COLUMNS: readonly (keyof Job)[] = [
+  'id',
+  'state',
+  'designId',
+  'requesterId',
+  'quantity',
+  'notes',
+  'materialId',
+  'colours',
+  'profileVersionId',
+  'returnReason',
+  'preparation',
+  'actualMinutes',
+  'sheetsUsed',
+  'measuredKerfMm',
+  'version',
+  'createdAt',
+  'updatedAt',
+];
+
 /** Staff see every job that has left the draft stage; everyone sees their own. */
 export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state'>): boolean {
   if (job.requesterId === user.id) return true;
@@ -38,6 +59,8 @@ export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state
 interface Names {
   materials: Map<string, string>;
   profiles: Map<string, { name: string; number: number }>;
+  /** Who prepared each prepared job (its latest `prepare`): they may not approve it (four eyes). */
+  preparers: Map<string, string>;
 }
 
 @Injectable()
@@ -52,10 +75,15 @@ export class JobsService {
   async list(user: AuthUser, query: ListJobsQuery): Promise<Page<JobView>> {
     const { page, pageSize, skip, take } = pageWindow(query);
     const [column, direction] = sortOrder(query.sort ?? '-updatedAt', SORT_COLUMNS, 'j.updated_at');
+    // Only what a row of the list shows: not the job's or the design's spec (an uploaded solid can be large).
+    // Both joins are many-to-one, so plain LIMIT/OFFSET pages correctly without TypeORM's distinct subquery.
     const qb = this.dataSource.manager
       .createQueryBuilder(Job, 'j')
-      .leftJoinAndSelect('j.design', 'design')
-      .leftJoinAndSelect('j.requester', 'requester');
+      .select(LIST_COLUMNS.map((c) => `j.${c}`))
+      .leftJoin('j.design', 'design')
+      .addSelect(['design.id', 'design.name'])
+      .leftJoin('j.requester', 'requester')
+      .addSelect(['requester.id', 'requester.displayName']);
     if (user.role === 'hobbyist' || query.scope === 'mine') {
       qb.andWhere('j.requester_id = :me', { me: user.id });
     } else if (user.role !== 'supervisor') {
@@ -68,7 +96,7 @@ export class JobsService {
         like,
       });
     }
-    qb.orderBy(column, direction).addOrderBy('j.id', 'ASC').skip(skip).take(take);
+    qb.orderBy(column, direction).addOrderBy('j.id', 'ASC').offset(skip).limit(take);
     const [rows, total] = await qb.getManyAndCount();
     const names = await this.names(this.dataSource.manager, rows);
     return { items: rows.map((j) => this.toView(j, user, names)), total, page, pageSize };
@@ -142,13 +170,22 @@ export class JobsService {
 
   approve(user: AuthUser, id: string, version: number, req: unknown) {
     return this.transition(user, id, 'approve', version, req, async (m, job) => {
+      // Four eyes: whoever prepared the job (its preparation in effect) cannot also approve it.
+      const prepared = await m.findOne(JobTransition, {
+        where: { jobId: job.id, action: 'prepare' },
+        order: { id: 'DESC' },
+      });
+      if (prepared?.actorId === user.id) {
+        throw new AppError(
+          HttpStatus.FORBIDDEN,
+          'JOB.SELF_APPROVAL',
+          'You prepared this job, so another supervisor must approve it (four-eyes rule)',
+          { preparedBy: user.id },
+        );
+      }
       // The profile version must still be approved when the job is.
       if (job.profileVersionId) await this.preparation.assertProfileVersionUsable(m, job.profileVersionId);
     });
-  }
-
-  release(user: AuthUser, id: string, version: number, req: unknown) {
-    return this.transition(user, id, 'release', version, req, async () => undefined);
   }
 
   recordCut(user: AuthUser, id: string, dto: RecordCutDto, req: unknown) {
@@ -319,6 +356,16 @@ export class JobsService {
     const versionIds = [...new Set(jobs.map((j) => j.profileVersionId).filter((x): x is string => !!x))];
     const materials = new Map<string, string>();
     const profiles = new Map<string, { name: string; number: number }>();
+    const preparers = new Map<string, string>();
+    const preparedIds = jobs.filter((j) => j.state === 'prepared').map((j) => j.id);
+    if (preparedIds.length) {
+      const rows: { job_id: string; actor_id: string | null }[] = await m.query(
+        `SELECT DISTINCT ON (job_id) job_id, actor_id FROM job_transitions
+          WHERE job_id = ANY($1::uuid[]) AND action = 'prepare' ORDER BY job_id, id DESC`,
+        [preparedIds],
+      );
+      for (const r of rows) if (r.actor_id) preparers.set(r.job_id, r.actor_id);
+    }
     if (materialIds.length) {
       const rows: { id: string; name: string }[] = await m.query(
         `SELECT id, name FROM materials WHERE id = ANY($1::uuid[])`,
@@ -333,7 +380,7 @@ export class JobsService {
       );
       for (const r of rows) profiles.set(r.id, { name: r.name, number: Number(r.number) });
     }
-    return { materials, profiles };
+    return { materials, profiles, preparers };
   }
 
   private toView(job: Job, user: AuthUser, names: Names): JobView {
@@ -361,7 +408,9 @@ export class JobsService {
       version: job.version,
       createdAt: job.createdAt.toISOString(),
       updatedAt: job.updatedAt.toISOString(),
-      actions: allowedJobActions(job.state, user.role, job.requesterId === user.id),
+      actions: allowedJobActions(job.state, user.role, job.requesterId === user.id).filter(
+        (a) => a !== 'approve' || names.preparers.get(job.id) !== user.id,
+      ),
     };
   }
 }

@@ -155,14 +155,20 @@ export class MachineProfilesController {
   }
 
   @Post(':id/versions/:versionId/approve')
-  @ApiOperation({ summary: 'submitted → approved (supervisor); the previously approved version is retired' })
+  @ApiOperation({
+    summary:
+      'submitted → approved (a supervisor other than the version’s drafter and submitter); the previously approved version is retired',
+  })
   @Roles('supervisor')
   @HttpCode(200)
   @ApiOkResponse({
     type: MachineProfileVersionResponse,
     description: 'Approved; the version approved before is retired',
   })
-  @ApiForbiddenResponse({ description: 'AUTH.FORBIDDEN: supervisors only' })
+  @ApiForbiddenResponse({
+    description:
+      'AUTH.FORBIDDEN: supervisors only; MACHINE_PROFILE.SELF_APPROVAL: the caller drafted or submitted this version (four-eyes rule)',
+  })
   @ApiConflictResponse({ description: 'MACHINE_PROFILE.INVALID_STATE or MACHINE_PROFILE.STALE_VERSION' })
   approve(
     @CurrentUser() user: AuthUser,

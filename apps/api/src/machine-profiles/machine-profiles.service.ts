@@ -263,6 +263,14 @@ export class MachineProfilesService {
       const profile = await this.lockProfile(manager, profileId);
       const v = await this.loadVersion(manager, profileId, versionId);
       this.expect(v, ['submitted'], dto.lockVersion, 'approved');
+      // Four eyes: whoever drafted or submitted the version cannot also approve it.
+      if (v.createdBy === actor.id || v.submittedBy === actor.id) {
+        throw new AppError(
+          HttpStatus.FORBIDDEN,
+          `${AREA}.SELF_APPROVAL`,
+          `You ${v.submittedBy === actor.id ? 'submitted' : 'drafted'} version ${v.number}, so another supervisor must approve it (four-eyes rule)`,
+        );
+      }
       // Materials may have changed since the version was submitted (e.g. marked not laser-allowed).
       await this.checkContent(manager, profile.kind, this.contentOf(v));
       const previous = await manager.findOneBy(MachineProfileVersion, { profileId, state: 'approved' });

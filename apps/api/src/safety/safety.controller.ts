@@ -1,5 +1,12 @@
 import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Put, Query, Req } from '@nestjs/common';
-import { ApiBearerAuth, ApiOkResponse, ApiOperation, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBearerAuth,
+  ApiExtraModels,
+  ApiOkResponse,
+  ApiOperation,
+  ApiTags,
+  getSchemaPath,
+} from '@nestjs/swagger';
 import {
   type JobSafetyView,
   type LocalRulesView,
@@ -9,16 +16,24 @@ import {
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { AcknowledgeSafetyDto, LocalRulesDto, NoticeFilterQuery } from './dto/safety.dto';
+import {
+  JobSafetyResponse,
+  LocalRulesResponse,
+  MaterialHazardResponse,
+  SafetyNoticeResponse,
+} from './dto/safety.response';
 import { SafetyService } from './safety.service';
 
 @ApiTags('safety')
 @ApiBearerAuth()
+@ApiExtraModels(LocalRulesResponse)
 @Controller()
 export class SafetyController {
   constructor(private readonly safety: SafetyService) {}
 
   @Get('safety/notices')
   @ApiOkResponse({
+    type: [SafetyNoticeResponse],
     description:
       'Current notice versions, most serious first, optionally for one machine kind and material family',
   })
@@ -27,13 +42,16 @@ export class SafetyController {
   }
 
   @Get('safety/hazards')
-  @ApiOkResponse({ description: 'The material hazard table' })
+  @ApiOkResponse({ type: [MaterialHazardResponse], description: 'The material hazard table' })
   hazards(): Promise<MaterialHazard[]> {
     return this.safety.hazards();
   }
 
   @Get('safety/local-rules')
-  @ApiOkResponse({ description: 'The workshop’s own rules (latest version), or null' })
+  @ApiOkResponse({
+    description: 'The workshop’s own rules (latest version), or null (an empty body) when none are set',
+    schema: { allOf: [{ $ref: getSchemaPath(LocalRulesResponse) }], nullable: true },
+  })
   localRules(): Promise<LocalRulesView | null> {
     return this.safety.localRules();
   }
@@ -41,6 +59,7 @@ export class SafetyController {
   @Put('safety/local-rules')
   @Roles('supervisor')
   @ApiOperation({ summary: 'Replace the local rules (a new version; supervisor)' })
+  @ApiOkResponse({ type: LocalRulesResponse, description: 'The new version' })
   updateLocalRules(
     @CurrentUser() u: AuthUser,
     @Body() dto: LocalRulesDto,
@@ -51,6 +70,7 @@ export class SafetyController {
 
   @Get('jobs/:id/safety')
   @ApiOkResponse({
+    type: JobSafetyResponse,
     description: 'Notices for the job’s machine and material, local rules, and the caller’s acknowledgement',
   })
   forJob(@CurrentUser() u: AuthUser, @Param('id', new ParseUUIDPipe()) id: string): Promise<JobSafetyView> {
@@ -63,6 +83,7 @@ export class SafetyController {
   @ApiOperation({
     summary: 'Acknowledge the current notices and local rules for a job (operator or supervisor)',
   })
+  @ApiOkResponse({ type: JobSafetyResponse, description: 'The job’s safety view, now acknowledged' })
   acknowledge(
     @CurrentUser() u: AuthUser,
     @Param('id', new ParseUUIDPipe()) id: string,

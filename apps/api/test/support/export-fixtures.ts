@@ -1,7 +1,12 @@
+import { randomUUID } from 'node:crypto';
+import * as fs from 'node:fs';
+import * as os from 'node:os';
+import * as path from 'node:path';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { type Response } from 'superagent';
 import { type ExportView } from '@kerfwright/contracts';
 import { type TestContext, type TestUser } from './test-app';
+import { dropQueueKeys } from './queue-keys';
 import { octahedronHexagons, type WorkshopFixture } from './workshop-fixtures';
 
 export const auth = (u: TestUser) => ({ Authorization: `Bearer ${u.token}` });
@@ -82,4 +87,58 @@ export function binary(res: Response, done: (err: Error | null, body: Buffer) =>
   const stream = res as unknown as NodeJS.ReadableStream;
   stream.on('data', (c: Buffer) => chunks.push(c));
   stream.on('end', () => done(null, Buffer.concat(chunks)));
+}
+
+/**
+ * Gives a suite's app a cut-pack queue and file store of its own (a fresh Bull prefix on the test Redis and
+ * the filesystem storage driver in a fresh folder), so releasing jobs works without the S3 fake and no other
+ * suite's exports are taken. Call before startTestApp; `restore` after closing the app.
+ */
+export function isolateExports(): { restore(): Promise<void> } {
+  const prefix = `kw-test-${randomUUID().slice(0, 8)}`;
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'kw-files-test-'));
+  const env: Record<string, string> = {
+    KW_QUEUE_PREFIX: prefix,
+    KW_STORAGE: 'fs',
+    KW_STORAGE_DIR: dir,
+    KW_WORKER_MODE: 'inline',
+    KW_EXPORT_BACKOFF_MS: '300',
+  };
+  const saved: Record<string, string | undefined> = {};
+  for (const [k, v] of Object.entries(env)) {
+    saved[k] = process.env[k];
+    process.env[k] = v;
+  }
+  return {
+    async restore() {
+      await dropQueueKeys(prefix);
+      fs.rmSync(dir, { recursive: true, force: true });
+      for (const [k, v] of Object.entries(saved)) {
+        if (v === undefined) delete process.env[k];
+        else process.env[k] = v;
+      }
+    },
+  };
+}
+
+/**
+ * Releases an approved job the one way there is: POST /api/jobs/:id/release answers 202 { exportId } and the
+ * job becomes released when that export is done. Waits for it and returns the finished export.
+ */
+export async function releaseJob(ctx: TestContext, user: TestUser, jobId: string): Promise<ExportView> {
+  const current = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(user)).expect(200);
+  const res = await ctx.http
+    .post(`/api/jobs/${jobId}/release`)
+    .set(auth(user))
+    .send({ version: current.body.version })
+    .expect(202);
+  const view = await pollExport(
+    ctx,
+    user,
+    res.body.exportId as string,
+    (v) => v.state === 'done' || v.state === 'failed',
+  );
+  if (view.state !== 'done')
+    throw new Error(`export ${view.id} failed: ${view.errorCode} ${view.errorMessage}`);
+  return view;
 }

@@ -18,7 +18,7 @@ export interface TestContext {
 }
 
 export async function startTestApp(): Promise<TestContext> {
-  const app = await createApp({ logger: false });
+  const app = await createApp({ logger: process.env.KW_TEST_LOG ? ['error', 'warn'] : false });
   await app.init();
   const db = app.get<DataSource>(getDataSourceToken());
   return { app, http: request(app.getHttpServer()), db };

@@ -19,31 +19,53 @@ function signedInAs(role: Role) {
 }
 
 describe('navigation per role', () => {
-  it('shows the supervisor Home, Designs, Jobs, Safety and People', async () => {
+  it('shows the supervisor every page, People, Approvals and the audit trail included', async () => {
     signedInAs('supervisor');
     renderApp('/', { token: 't' });
     const nav = await screen.findByRole('navigation', { name: 'Main' });
     const links = within(nav)
       .getAllByRole('link')
       .map((a) => a.textContent);
-    expect(links).toEqual(['Home', 'Designs', 'Jobs', 'Safety', 'People']);
+    expect(links).toEqual([
+      'Home',
+      'Designs',
+      'Jobs',
+      'Release desk',
+      'Safety',
+      'Materials',
+      'Machine profiles',
+      'Approvals',
+      'People',
+      'Audit trail',
+    ]);
     expect(within(nav).getByRole('link', { name: 'People' })).toHaveAttribute('href', '/people');
   });
 
-  it.each(['hobbyist', 'fabricator', 'operator'] as const)(
-    'shows Home, Designs, Jobs and Safety (no People) to the %s',
-    async (role) => {
-      signedInAs(role);
-      renderApp('/', { token: 't' });
-      const nav = await screen.findByRole('navigation', { name: 'Main' });
-      expect(
-        within(nav)
-          .getAllByRole('link')
-          .map((a) => a.textContent),
-      ).toEqual(['Home', 'Designs', 'Jobs', 'Safety']);
-      expect(screen.queryByRole('link', { name: 'People' })).not.toBeInTheDocument();
-    },
-  );
+  it('shows the fabricator Materials and Machine profiles but no supervisor pages', async () => {
+    signedInAs('fabricator');
+    renderApp('/', { token: 't' });
+    const nav = await screen.findByRole('navigation', { name: 'Main' });
+    expect(
+      within(nav)
+        .getAllByRole('link')
+        .map((a) => a.textContent),
+    ).toEqual(['Home', 'Designs', 'Jobs', 'Safety', 'Materials', 'Machine profiles']);
+  });
+
+  it.each([
+    ['hobbyist', ['Home', 'Designs', 'Jobs', 'Safety']],
+    ['operator', ['Home', 'Designs', 'Jobs', 'Release desk', 'Safety']],
+  ] as const)('shows the %s its pages and no People', async (role, expected) => {
+    signedInAs(role);
+    renderApp('/', { token: 't' });
+    const nav = await screen.findByRole('navigation', { name: 'Main' });
+    expect(
+      within(nav)
+        .getAllByRole('link')
+        .map((a) => a.textContent),
+    ).toEqual(expected);
+    expect(screen.queryByRole('link', { name: 'People' })).not.toBeInTheDocument();
+  });
 
   it("shows the user's name and role in the app bar and marks the current page", async () => {
     const { me } = signedInAs('fabricator');

@@ -10,12 +10,21 @@ import { DesignsRoute } from '../features/designs/routes/designs';
 import { JobDetailRoute } from '../features/jobs/routes/job-detail';
 import { JobsBoardRoute } from '../features/jobs/routes/jobs-board';
 import { SafetyRoute } from '../features/safety/routes/safety';
+import { ApprovalsRoute } from '../features/approvals/routes/approvals';
+import { AuditTrailRoute } from '../features/audit/routes/audit-trail';
+import { MachineProfileRoute } from '../features/machine-profiles/routes/machine-profile';
+import { MachineProfilesRoute } from '../features/machine-profiles/routes/machine-profiles';
+import { MaterialsRoute } from '../features/materials/routes/materials';
 import { PeopleRoute } from '../features/users/routes/people';
+import { ReleaseDeskRoute } from '../features/release-desk/routes/release-desk';
 import { RequireAuth } from '../lib/auth';
 import { RequireRole } from '../lib/authorization';
 import { NotFoundRoute } from './routes/not-found';
 
-/** Every page of the app. Pages below "/" need a signed-in user; People needs a supervisor. */
+/**
+ * Every page of the app. Pages below "/" need a signed-in user; People, Approvals and the audit trail need a
+ * supervisor; Materials and Machine profiles a fabricator (or supervisor).
+ */
 export const routes: RouteObject[] = [
   {
     errorElement: <RouteError />,
@@ -42,11 +51,65 @@ export const routes: RouteObject[] = [
           { path: paths.job.path, element: <JobDetailRoute />, errorElement: <RouteError embedded /> },
           { path: paths.safety.path, element: <SafetyRoute />, errorElement: <RouteError embedded /> },
           {
+            path: paths.releaseDesk.path,
+            errorElement: <RouteError embedded />,
+            element: (
+              <RequireRole allowed={['operator']}>
+                <ReleaseDeskRoute />
+              </RequireRole>
+            ),
+          },
+          {
             path: paths.people.path,
             errorElement: <RouteError embedded />,
             element: (
               <RequireRole allowed={['supervisor']}>
                 <PeopleRoute />
+              </RequireRole>
+            ),
+          },
+          {
+            path: paths.materials.path,
+            errorElement: <RouteError embedded />,
+            element: (
+              <RequireRole allowed={['fabricator']}>
+                <MaterialsRoute />
+              </RequireRole>
+            ),
+          },
+          {
+            path: paths.machineProfiles.path,
+            errorElement: <RouteError embedded />,
+            element: (
+              <RequireRole allowed={['fabricator']}>
+                <MachineProfilesRoute />
+              </RequireRole>
+            ),
+          },
+          {
+            path: paths.machineProfile.path,
+            errorElement: <RouteError embedded />,
+            element: (
+              <RequireRole allowed={['fabricator']}>
+                <MachineProfileRoute />
+              </RequireRole>
+            ),
+          },
+          {
+            path: paths.approvals.path,
+            errorElement: <RouteError embedded />,
+            element: (
+              <RequireRole allowed={['supervisor']}>
+                <ApprovalsRoute />
+              </RequireRole>
+            ),
+          },
+          {
+            path: paths.audit.path,
+            errorElement: <RouteError embedded />,
+            element: (
+              <RequireRole allowed={['supervisor']}>
+                <AuditTrailRoute />
               </RequireRole>
             ),
           },

@@ -27,12 +27,17 @@ export const NAV_ITEMS: readonly NavItem[] = [
     roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'],
   },
   { label: 'Jobs', href: paths.jobs.getHref(), roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'] },
+  { label: 'Release desk', href: paths.releaseDesk.getHref(), roles: ['operator', 'supervisor'] },
   {
     label: 'Safety',
     href: paths.safety.getHref(),
     roles: ['hobbyist', 'fabricator', 'operator', 'supervisor'],
   },
+  { label: 'Materials', href: paths.materials.getHref(), roles: ['fabricator', 'supervisor'] },
+  { label: 'Machine profiles', href: paths.machineProfiles.getHref(), roles: ['fabricator', 'supervisor'] },
+  { label: 'Approvals', href: paths.approvals.getHref(), roles: ['supervisor'] },
   { label: 'People', href: paths.people.getHref(), roles: ['supervisor'] },
+  { label: 'Audit trail', href: paths.audit.getHref(), roles: ['supervisor'] },
 ];
 
 export function navigationFor(role: Role): NavItem[] {

@@ -14,7 +14,16 @@ export const paths = {
   design: { path: '/designs/:designId', getHref: (id: string) => `/designs/${encodeURIComponent(id)}` },
   jobs: { path: '/jobs', getHref: () => '/jobs' },
   safety: { path: '/safety', getHref: () => '/safety' },
+  releaseDesk: { path: '/release-desk', getHref: () => '/release-desk' },
   job: { path: '/jobs/:jobId', getHref: (id: string) => `/jobs/${encodeURIComponent(id)}` },
+  materials: { path: '/materials', getHref: () => '/materials' },
+  machineProfiles: { path: '/machine-profiles', getHref: () => '/machine-profiles' },
+  machineProfile: {
+    path: '/machine-profiles/:profileId',
+    getHref: (id: string) => `/machine-profiles/${encodeURIComponent(id)}`,
+  },
+  approvals: { path: '/approvals', getHref: () => '/approvals' },
+  audit: { path: '/audit', getHref: () => '/audit' },
   signIn: {
     path: '/sign-in',
     getHref: (redirectTo?: string | null) => {

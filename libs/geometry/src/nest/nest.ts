@@ -11,9 +11,13 @@
  * right end of the last sheet, then the larger free area on it, then the shorter total used length):
  *  - bottom-left fill over no-fit polygons (bottom-left.ts), largest parts first;
  *  - a pattern pass (pattern.ts): every part with three or more copies is laid on its best single or double
- *    lattice (with 'auto' rotation, four extra orientations per symmetry period of the outline are tried),
- *    edge gaps on full sheets are topped up with more copies, the other parts are added by bottom-left fill
- *    into the gaps and onto new sheets.
+ *    lattice: a double-lattice search on the part's convex hull (double-lattice.ts: rotation, touching position
+ *    of the 180° copy and lattice vectors searched, rows along the width or the height, the fullest sheet kept),
+ *    and lattices built on the no-fit polygons of the outline itself (for stars and slotted pieces; with 'auto'
+ *    rotation, four extra orientations per symmetry period of the outline are tried). Edge gaps on full sheets
+ *    are topped up with more copies by bottom-left fill; the last, partial sheet of a part is either the
+ *    lattice's left-most slots or bottom-left fill of the copies left, whichever leaves the longer offcut; the
+ *    other parts are added by bottom-left fill into the gaps and onto new sheets.
  * No-fit polygons are built on simplified outlines that contain the true ones (notches narrower than about
  * twice the gap closed; the convex hull for convex-ish pieces), and pieces whose simplified outlines are
  * congruent share them up to a shift (nfpOutline and GeometryCache in variants.ts): slotted pieces of one model
@@ -146,6 +150,7 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
       // Only repeated parts are laid in patterns; the finer sweep is not needed for single copies.
       patternRotationsDeg:
         rot === 'auto' && p.quantity >= MIN_PATTERN_COPIES ? patternRotations(outline) : rotationsDeg,
+      freeRotation: rot === 'auto',
     });
   }
   return parts;
@@ -219,7 +224,7 @@ function patternPlan(
   const rest: PreparedPart[] = parts.filter((p) => !patterned.includes(p));
   const labels: string[] = [];
   for (const part of patterned) {
-    const pat = bestPattern(cache, frame, part.index, part.patternRotationsDeg);
+    const pat = bestPattern(cache, frame, part.index, part.patternRotationsDeg, part.freeRotation === true);
     if (!pat) {
       rest.push(part);
       continue;
@@ -232,6 +237,27 @@ function patternPlan(
     let left = part.quantity;
     while (left > 0) {
       const take = Math.min(left, pat.slots.length);
+      if (take < pat.slots.length) {
+        // The last, partial sheet: the lattice's left-most slots, or bottom-left fill of the copies left over
+        // (left edge first), whichever leaves the longer offcut at the right.
+        const prefix: SheetState = {
+          group,
+          items: pat.slots.slice(0, take).map((x) => ({ ...x })),
+          usedAreaMm2: take * part.areaMm2,
+          method: 'pattern',
+        };
+        const bl = bottomLeftFill(
+          cache,
+          frame,
+          group,
+          Array.from({ length: take }, () => variants),
+          [],
+          'left',
+        );
+        const alt = bl.failed === null && bl.sheets.length === 1 ? bl.sheets[0]! : null;
+        sheets.push(alt && usedLengthUnits(alt) < usedLengthUnits(prefix) ? alt : prefix);
+        break;
+      }
       const items: PlacedItem[] = pat.slots.slice(0, take).map((x) => ({ ...x }));
       const sheet: SheetState = { group, items, usedAreaMm2: take * part.areaMm2, method: 'pattern' };
       sheets.push(sheet);

@@ -5,11 +5,23 @@
  * Comput. Geom. 5, 1990 — from memory of the venue). The row vector is the shortest horizontal translation
  * leaving the cell clear of its own no-fit polygon; the second vector is the lowest clear translation over a
  * sweep of horizontal offsets. The lattice is clipped to the sheet less its margin, and the arrangement holding
- * the most pieces on one sheet wins.
+ * the most pieces on one sheet wins. The double-lattice search on the part's convex hull (double-lattice.ts)
+ * adds its arrangements to the same contest.
  */
 import { pointInPath, unionPaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
 import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
-import { strictlyInside, translatePaths, type GeometryCache, type Variant } from './variants';
+import { sheetLattices, type SheetLattice } from './double-lattice';
+import { convexHull } from './polygon';
+import {
+  clearOfItems,
+  distinctRotations,
+  normaliseAngle,
+  strictlyInside,
+  symmetryPeriodDeg,
+  translatePaths,
+  type GeometryCache,
+  type Variant,
+} from './variants';
 
 interface CellPiece {
   variant: Variant;
@@ -23,6 +35,8 @@ export interface PatternResult {
   /** Pieces per unit area of the infinite lattice (per mm²). */
   densityPerMm2: number;
   description: string;
+  /** Already checked on the true outlines (inside the sheet, at least the gap apart). */
+  verified?: boolean;
 }
 
 function crossingsAtY(paths: IntPaths, y: number): number[] {
@@ -325,17 +339,116 @@ function pairOffsets(cache: GeometryCache, a: Variant, b: Variant): { dx: number
 }
 
 /**
+ * Double-lattice searches of one nesting run (one GeometryCache), keyed by outline and rotations: the colour
+ * groups of one model share their piece shapes, so each shape is searched once per run.
+ */
+const convexRuns = new WeakMap<GeometryCache, Map<string, SheetLattice[]>>();
+
+/**
+ * Sheet slots of the double-lattice search on the part's convex hull (double-lattice.ts), as placed items on
+ * the true outline; each arrangement is checked again on the true outlines (inside the usable sheet, at least
+ * the gap apart) and dropped if any slot fails. Works for any outline: a lattice of hulls is a valid lattice of
+ * the pieces; for stars and slotted pieces the no-fit polygon lattices below usually do better.
+ */
+function convexLatticePatterns(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  partIndex: number,
+  rotationsDeg: readonly number[],
+  free: boolean,
+): PatternResult[] {
+  const part = cache.parts[partIndex]!;
+  const outline = part.outline;
+  const key = (d: number) => Math.round(normaliseAngle(d) * 1e6);
+  const allowed = new Set(rotationsDeg.map(key));
+  // A rotation is usable when it is allowed or gives the same shape as an allowed one.
+  const usable = (d: number) =>
+    free ||
+    allowed.has(key(d)) ||
+    distinctRotations(outline, [...rotationsDeg, d]).length === rotationsDeg.length;
+  let angles: number[] = [...rotationsDeg];
+  if (free) {
+    // Rotation is free: sweep one symmetry period of the hull (24 steps; the lattice is one of hulls, so turning
+    // by the hull's period gives the same packing), plus the preferred rotations.
+    const period = symmetryPeriodDeg(convexHull(outline));
+    for (let i = 0; i < 24; i++) angles.push((i * period) / 24);
+    angles = [...new Set(angles.map((d) => normaliseAngle(d)))];
+  }
+  let runs = convexRuns.get(cache);
+  if (!runs) convexRuns.set(cache, (runs = new Map()));
+  const runKey = JSON.stringify([
+    outline.map((q) => [Math.round(q[0] * 1e6), Math.round(q[1] * 1e6)]),
+    angles,
+    free,
+    rotationsDeg,
+  ]);
+  let found = runs.get(runKey);
+  if (!found) {
+    found = sheetLattices(
+      outline,
+      { ...frame, gapMm: cache.gapMm },
+      { anglesDeg: angles, free, partnerAllowed: (d) => usable(d + 180) },
+    );
+    runs.set(runKey, found);
+  }
+  const out: PatternResult[] = [];
+  /**
+   * With fixed rotations, a rotation that is not in the list but gives the same shape as one that is (the part's
+   * own symmetry) is reported as that one, shifted so the outline lands in the same place.
+   */
+  const asAllowed = (d: number): { deg: number; dx: number; dy: number } | null => {
+    if (free || allowed.has(key(d))) return { deg: d, dx: 0, dy: 0 };
+    const a = rotationsDeg.find((r) => distinctRotations(outline, [r, d]).length === 1);
+    if (a === undefined) return null;
+    const bd = cache.variant(partIndex, d).bounds;
+    const ba = cache.variant(partIndex, a).bounds;
+    return { deg: a, dx: bd.minX - ba.minX, dy: bd.minY - ba.minY };
+  };
+  for (const arr of found) {
+    if (arr.placements.some((pl) => !usable(pl.rotationDeg))) continue;
+    const slots: PlacedItem[] = [];
+    for (const pl of arr.placements) {
+      const as = asAllowed(pl.rotationDeg);
+      if (!as) continue;
+      const variant = cache.variant(partIndex, as.deg);
+      const fit = innerFit(frame, variant);
+      const tx = Math.round((pl.x + as.dx) * SCALE_PER_MM);
+      const ty = Math.round((pl.y + as.dy) * SCALE_PER_MM);
+      if (!fit || tx < fit.x0 || tx > fit.x1 || ty < fit.y0 || ty > fit.y1) continue;
+      if (!clearOfItems(slots, variant, tx, ty, cache.gapMm)) continue;
+      slots.push({ variant, tx, ty });
+    }
+    if (slots.length === 0) continue;
+    slots.sort(
+      (p, q) =>
+        p.tx + p.variant.ubounds.maxX - (q.tx + q.variant.ubounds.maxX) ||
+        p.ty + p.variant.ubounds.minY - (q.ty + q.variant.ubounds.minY),
+    );
+    const cells = arr.lattice.partner ? 2 : 1;
+    out.push({
+      slots,
+      densityPerMm2: cells / (arr.lattice.ax * arr.lattice.by),
+      description: arr.description,
+      verified: true,
+    });
+  }
+  return out;
+}
+
+/**
  * Best lattice pattern for copies of one part with the given allowed rotations; null when no pattern fits.
- * Pair cells are tried only when a rotation's 180° partner is allowed.
+ * Pair cells are tried only when a rotation's 180° partner is allowed. With `free` rotation the double-lattice
+ * search on the part's hull also sweeps the rotation continuously.
  */
 export function bestPattern(
   cache: GeometryCache,
   frame: SheetFrame,
   partIndex: number,
   rotationsDeg: readonly number[],
+  free = false,
 ): PatternResult | null {
   const allowed = new Set(rotationsDeg.map((d) => Math.round((((d % 360) + 360) % 360) * 1e6)));
-  const results: PatternResult[] = [];
+  const results: PatternResult[] = [...convexLatticePatterns(cache, frame, partIndex, rotationsDeg, free)];
   const consider = (cell: CellPiece[], label: string) => {
     const nfp = cellNfp(cache, cell);
     for (const lat of candidateLattices(nfp)) {
@@ -364,5 +477,5 @@ export function bestPattern(
   }
   results.sort((p, q) => q.slots.length - p.slots.length || q.densityPerMm2 - p.densityPerMm2);
   // The construction should always be clear; check the chosen one and fall back to the next if not.
-  return results.find((r) => slotsAreClear(cache, r.slots)) ?? null;
+  return results.find((r) => r.verified === true || slotsAreClear(cache, r.slots)) ?? null;
 }

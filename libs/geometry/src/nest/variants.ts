@@ -55,6 +55,8 @@ export interface PreparedPart {
   rotationsDeg: number[];
   /** Rotations the pattern pass may try (a finer sweep when rotation is free). */
   patternRotationsDeg: number[];
+  /** Any rotation allowed ('auto'): the double-lattice search then sweeps the rotation continuously. */
+  freeRotation?: boolean;
 }
 
 function normaliseAngle(deg: number): number {

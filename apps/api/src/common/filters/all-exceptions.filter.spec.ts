@@ -60,5 +60,36 @@ describe('the one error body', () => {
     const down = Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5432'), { code: 'ECONNREFUSED' });
     expect(isDatabaseUnavailable(down)).toBe(true);
     expect(run(down)).toMatchObject({ status: 503, body: { code: 'SERVICE.DATABASE_UNAVAILABLE' } });
+    const dropped = Object.assign(new Error('Query runner already released.'), {
+      name: 'QueryRunnerAlreadyReleasedError',
+    });
+    expect(run(dropped)).toMatchObject({ status: 503, body: { code: 'SERVICE.DATABASE_UNAVAILABLE' } });
+  });
+
+  it('maps body-parser failures that Express hands over wrapped in an HttpException', () => {
+    const syntax = Object.assign(new SyntaxError("Expected property name or '}' in JSON at position 23"), {
+      status: 400,
+      type: 'entity.parse.failed',
+    });
+    const wrapped = new BadRequestException(syntax.message, { cause: syntax });
+    const { status, body } = run(wrapped);
+    expect(status).toBe(400);
+    expect(body).toMatchObject({
+      code: 'REQUEST.MALFORMED_JSON',
+      message: 'The request body is not valid JSON',
+    });
+  });
+
+  it('answers a value PostgreSQL cannot store with 400 and a lost uniqueness race with 409', () => {
+    const pg = (code: string) =>
+      Object.assign(new Error('invalid byte sequence for encoding "UTF8": 0x00'), {
+        name: 'QueryFailedError',
+        driverError: { code },
+      });
+    // SQLSTATE 22021 character_not_in_repertoire, 23505 unique_violation (PostgreSQL manual, appendix A).
+    expect(run(pg('22021'))).toMatchObject({ status: 400, body: { code: 'REQUEST.INVALID_VALUE' } });
+    expect(JSON.stringify(run(pg('22021')).body)).not.toContain('UTF8');
+    expect(run(pg('23505'))).toMatchObject({ status: 409, body: { code: 'STATE.CONFLICT' } });
+    expect(run(pg('42P01'))).toMatchObject({ status: 500, body: { code: 'SERVER.INTERNAL' } });
   });
 });

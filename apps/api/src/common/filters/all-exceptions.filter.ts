@@ -44,6 +44,9 @@ export class AllExceptionsFilter implements ExceptionFilter {
   }
 
   private toBody(exception: unknown, requestId: string): ErrorBody {
+    // Express and body-parser errors reach filters wrapped in an HttpException whose cause is the original.
+    const parserError = exception instanceof HttpException ? bodyParserError(exception.cause) : null;
+    if (parserError) return { ...parserError, requestId };
     if (exception instanceof HttpException) {
       const statusCode = exception.getStatus();
       const response = exception.getResponse();
@@ -67,26 +70,17 @@ export class AllExceptionsFilter implements ExceptionFilter {
       return body;
     }
     // Errors raised by Express middleware (body parser: malformed JSON, body too large) carry a status.
-    const e = exception as { status?: unknown; statusCode?: unknown; type?: unknown; message?: unknown };
+    const direct = bodyParserError(exception);
+    if (direct) return { ...direct, requestId };
+    const e = exception as { status?: unknown; statusCode?: unknown; message?: unknown };
     const status =
       typeof e.status === 'number' ? e.status : typeof e.statusCode === 'number' ? e.statusCode : 500;
     if (status >= 400 && status < 500) {
-      const code =
-        e.type === 'entity.parse.failed'
-          ? 'REQUEST.MALFORMED_JSON'
-          : e.type === 'entity.too.large'
-            ? 'REQUEST.TOO_LARGE'
-            : (DEFAULT_CODES[status] ?? `HTTP.${status}`);
-      const message =
-        e.type === 'entity.parse.failed'
-          ? 'The request body is not valid JSON'
-          : e.type === 'entity.too.large'
-            ? 'The request body is too large'
-            : typeof e.message === 'string'
-              ? e.message
-              : 'Bad request';
-      return { statusCode: status, code, message, requestId };
+      const message = typeof e.message === 'string' ? e.message : 'Bad request';
+      return { statusCode: status, code: DEFAULT_CODES[status] ?? `HTTP.${status}`, message, requestId };
     }
+    const data = databaseInputError(exception);
+    if (data) return { ...data, requestId };
     if (isDatabaseUnavailable(exception)) {
       return {
         statusCode: HttpStatus.SERVICE_UNAVAILABLE,
@@ -124,6 +118,55 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   ) {
     return true;
   }
+  // A transaction whose connection the server dropped: TypeORM has already released its query runner.
+  if ((err as Error | undefined)?.name === 'QueryRunnerAlreadyReleasedError') return true;
   const msg = typeof e?.message === 'string' ? e.message : '';
   return /Connection terminated|connect ECONNREFUSED|terminating connection/i.test(msg);
+}
+
+/** The body parser's own errors (by their `type`), in our words rather than the parser's. */
+function bodyParserError(err: unknown): Omit<ErrorBody, 'requestId'> | null {
+  const type = (err as { type?: unknown } | null | undefined)?.type;
+  if (type === 'entity.parse.failed') {
+    return { statusCode: 400, code: 'REQUEST.MALFORMED_JSON', message: 'The request body is not valid JSON' };
+  }
+  if (type === 'entity.too.large') {
+    return { statusCode: 413, code: 'REQUEST.TOO_LARGE', message: 'The request body is too large' };
+  }
+  if (type === 'encoding.unsupported' || type === 'charset.unsupported') {
+    return {
+      statusCode: 415,
+      code: 'REQUEST.UNSUPPORTED_MEDIA_TYPE',
+      message: 'Send the body as UTF-8 JSON',
+    };
+  }
+  return null;
+}
+
+/**
+ * A PostgreSQL error caused by the values sent rather than by the server: class 22 (data exception: a
+ * value out of range, too long, or holding a character the database cannot store) is the client's 400; a
+ * unique or foreign-key violation that a service did not turn into its own error is a 409. Anything else
+ * stays a 500. (SQLSTATE classes: PostgreSQL manual, appendix A "Error Codes".)
+ */
+export function databaseInputError(err: unknown): Omit<ErrorBody, 'requestId'> | null {
+  const e = err as { name?: unknown; code?: unknown; driverError?: { code?: unknown } } | null;
+  if (!e || e.name !== 'QueryFailedError') return null;
+  const code = typeof e.driverError?.code === 'string' ? e.driverError.code : e.code;
+  if (typeof code !== 'string') return null;
+  if (code.startsWith('22')) {
+    return {
+      statusCode: HttpStatus.BAD_REQUEST,
+      code: 'REQUEST.INVALID_VALUE',
+      message: 'A value in the request cannot be stored (out of range, too long or not valid text)',
+    };
+  }
+  if (code === '23505' || code === '23503') {
+    return {
+      statusCode: HttpStatus.CONFLICT,
+      code: 'STATE.CONFLICT',
+      message: 'The change conflicts with other records; reload and try again',
+    };
+  }
+  return null;
 }

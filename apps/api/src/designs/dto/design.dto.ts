@@ -1,17 +1,33 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional, OmitType } from '@nestjs/swagger';
 import { IsIn, IsInt, IsObject, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
 import { PageQueryDto } from '../../common/paging';
-import { type CreateDesignRequest, type DesignSpec, type UpdateDesignRequest } from '@kerfwright/contracts';
+import {
+  type CreateDesignRequest,
+  type DesignIssue,
+  type DesignPreview,
+  type DesignSpec,
+  type DesignSummary,
+  type DesignView,
+  type Page,
+  type DesignSpecInput,
+  type UpdateDesignRequest,
+} from '@kerfwright/contracts';
 
 const SPEC_DOC = {
   description:
-    'The design spec (same shape as the geometry CLI): solid, piece {sides, step, rotationDeg, size}, scale {by, mm}, stock {thicknessMm, flexible}, machine {kind, kerfMm | toolDiameterMm}, fitMm',
+    'The design spec, the same shape as the geometry CLI takes (checked by the engine; kept and returned as sent): ' +
+    'solid (catalogue id or uploaded {format, text}), piece {sides, step, rotationDeg, size}, ' +
+    'scale {by: planeDistance | diameter | pieceCircumradius, mm} or {by: "fitSheets", sheets} or {by: "fitBed"} (needs bed), ' +
+    'stock {thicknessMm, flexible, sheet {widthMm, heightMm}, marginMm, gapMm}, machine {kind, kerfMm | toolDiameterMm}, ' +
+    'colours {count, rule: neighbour-distinct | vertex-distinct | opposite-match, names}, bed {widthMm, heightMm}, ' +
+    'fitMm, depthClearanceMm, minWebMm',
   example: {
     solid: 'octahedron',
     piece: { sides: 6, step: 1, rotationDeg: 0, size: 1.3 },
-    scale: { by: 'diameter', mm: 240 },
-    stock: { thicknessMm: 3, flexible: false },
+    scale: { by: 'fitSheets', sheets: 2 },
+    stock: { thicknessMm: 3, flexible: false, sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3 },
     machine: { kind: 'laser', kerfMm: 0.15 },
+    colours: { count: 2, rule: 'neighbour-distinct' },
     fitMm: -0.05,
   },
 };
@@ -19,7 +35,7 @@ const SPEC_DOC = {
 export class CreateDesignDto implements CreateDesignRequest {
   @ApiProperty({ maxLength: 120 }) @IsString() @MinLength(1) @MaxLength(120) name: string;
   @ApiPropertyOptional({ maxLength: 2000 }) @IsOptional() @IsString() @MaxLength(2000) description?: string;
-  @ApiProperty({ type: 'object', additionalProperties: true, ...SPEC_DOC }) @IsObject() spec: DesignSpec;
+  @ApiProperty({ type: 'object', additionalProperties: true, ...SPEC_DOC }) @IsObject() spec: DesignSpecInput;
 }
 
 export class UpdateDesignDto implements UpdateDesignRequest {
@@ -33,7 +49,7 @@ export class UpdateDesignDto implements UpdateDesignRequest {
   @ApiPropertyOptional({ type: 'object', additionalProperties: true, ...SPEC_DOC })
   @IsOptional()
   @IsObject()
-  spec?: DesignSpec;
+  spec?: DesignSpecInput;
   @ApiProperty({ description: 'The version you read; a stale one is refused with 409' })
   @IsInt()
   @Min(1)
@@ -61,36 +77,48 @@ export class ListDesignsQuery extends PageQueryDto {
   scope?: 'mine' | 'all';
 }
 
-export class DesignPreviewDto {
-  @ApiProperty() valid: boolean;
-  @ApiProperty() pieceCount: number;
-  @ApiProperty() crossingCount: number;
-  @ApiProperty() diameterMm: number;
-  @ApiProperty() planeDistanceMm: number;
-  @ApiProperty({ type: 'array', items: { type: 'object' } }) errors: {
-    code: string;
-    message: string;
-    pieces: string[];
-  }[];
-  @ApiProperty({ type: 'array', items: { type: 'object' } }) warnings: {
-    code: string;
-    message: string;
-    pieces: string[];
-  }[];
+export class DesignIssueDto implements DesignIssue {
+  @ApiProperty({ description: 'AREA.REASON, e.g. CROSSING.NOT_ASSEMBLABLE' }) code: string;
+  @ApiProperty() message: string;
+  @ApiProperty({ type: [String], description: 'Ids of the pieces concerned' }) pieces: string[];
 }
 
-export class DesignViewDto {
-  @ApiProperty() id: string;
-  @ApiProperty() ownerId: string;
+export class DesignPreviewDto implements DesignPreview {
+  @ApiProperty({ description: 'No errors: the design can be cut' }) valid: boolean;
+  @ApiProperty() pieceCount: number;
+  @ApiProperty() crossingCount: number;
+  @ApiProperty({ description: 'Overall diameter, mm' }) diameterMm: number;
+  @ApiProperty({ description: 'Distance from the centre to the nearest piece plane, mm' })
+  planeDistanceMm: number;
+  @ApiProperty({ type: [DesignIssueDto] }) errors: DesignIssueDto[];
+  @ApiProperty({ type: [DesignIssueDto] }) warnings: DesignIssueDto[];
+}
+
+export class DesignViewDto implements DesignView {
+  @ApiProperty({ format: 'uuid' }) id: string;
+  @ApiProperty({ format: 'uuid' }) ownerId: string;
   @ApiProperty() ownerName: string;
   @ApiProperty() name: string;
   @ApiProperty() description: string;
-  @ApiProperty({ type: 'object', additionalProperties: true }) spec: DesignSpec;
-  @ApiProperty({ nullable: true, type: String }) solidFileName: string | null;
+  @ApiProperty({ type: 'object', additionalProperties: true, ...SPEC_DOC }) spec: DesignSpec;
+  @ApiProperty({ nullable: true, type: String, description: 'Original file name of an uploaded solid' })
+  solidFileName: string | null;
   @ApiProperty({ type: DesignPreviewDto }) preview: DesignPreviewDto;
-  @ApiProperty() version: number;
-  @ApiProperty() createdAt: string;
-  @ApiProperty() updatedAt: string;
+  @ApiProperty({ description: 'Send it back with PATCH (optimistic locking)' }) version: number;
+  @ApiProperty({ format: 'date-time' }) createdAt: string;
+  @ApiProperty({ format: 'date-time' }) updatedAt: string;
+}
+
+/** A list row: the design without its spec (an uploaded solid can be large), with the solid's name. */
+export class DesignSummaryDto extends OmitType(DesignViewDto, ['spec'] as const) implements DesignSummary {
+  @ApiProperty({ description: 'Catalogue id or the uploaded solid’s name' }) solid: string;
+}
+
+export class DesignPageDto implements Page<DesignSummary> {
+  @ApiProperty({ type: [DesignSummaryDto] }) items: DesignSummaryDto[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
 }
 
 export class SolidCheckDto {

@@ -14,16 +14,22 @@ import {
   MaxLength,
   Min,
   MinLength,
+  ValidateBy,
   ValidateNested,
+  type ValidationArguments,
 } from 'class-validator';
 import {
+  type AnyScaleSpec,
   COLOUR_RULES,
   type ColourRuleName,
+  FIT_SCALE_BY,
+  type FitScaleBy,
   JOB_STATES,
   type JobState,
   SCALE_BY,
   type ScaleBy,
 } from '@kerfwright/contracts';
+import { MAX_FIT_SHEETS } from '@kerfwright/geometry';
 import { PageQueryDto } from '../../common/paging';
 
 export class CreateJobDto {
@@ -50,9 +56,62 @@ export class SheetSizeDto {
   @ApiProperty() @IsNumber() @IsPositive() @Max(5000) heightMm: number;
 }
 
+const ANY_SCALE_BY = [...SCALE_BY, ...FIT_SCALE_BY] as const;
+
+/** Which fields each kind of scale takes: a fixed scale `mm`, fitSheets `sheets`, fitBed neither. */
+function fieldsOf(by: unknown): { mm: boolean; sheets: boolean } {
+  return { mm: (SCALE_BY as readonly unknown[]).includes(by), sheets: by === 'fitSheets' };
+}
+
+/** Checks on `by` that `mm` and `sheets` are given exactly when that kind of scale takes them. */
+const MatchingScaleFields = () =>
+  ValidateBy({
+    name: 'matchingScaleFields',
+    validator: {
+      validate: (by: unknown, args?: ValidationArguments) => {
+        const o = (args?.object ?? {}) as { mm?: unknown; sheets?: unknown };
+        const want = fieldsOf(by);
+        return want.mm === (o.mm !== undefined) && want.sheets === (o.sheets !== undefined);
+      },
+      defaultMessage: (args?: ValidationArguments) => {
+        const want = fieldsOf(args?.value);
+        if (want.mm)
+          return 'a fixed scale (planeDistance, diameter, pieceCircumradius) takes mm and no sheets';
+        if (want.sheets) return 'scale.by "fitSheets" takes sheets and no mm';
+        return 'scale.by "fitBed" takes neither mm nor sheets';
+      },
+    },
+  });
+
+/**
+ * The size of the model, as in the design spec and the geometry CLI: a fixed scale `{ by, mm }`, the
+ * largest model on N sheets `{ by: "fitSheets", sheets }`, or the largest that fits the machine's bed
+ * `{ by: "fitBed" }`.
+ */
 export class ScaleDto {
-  @ApiProperty({ enum: SCALE_BY }) @IsIn(SCALE_BY) by: ScaleBy;
-  @ApiProperty() @IsNumber() @IsPositive() @Max(10000) mm: number;
+  @ApiProperty({ enum: ANY_SCALE_BY })
+  @IsIn(ANY_SCALE_BY)
+  @MatchingScaleFields()
+  by: ScaleBy | FitScaleBy;
+  @ApiPropertyOptional({ description: 'Fixed scales only: the size in mm' })
+  @IsOptional()
+  @IsNumber()
+  @IsPositive()
+  @Max(10000)
+  mm?: number;
+  @ApiPropertyOptional({ minimum: 1, maximum: MAX_FIT_SHEETS, description: 'fitSheets only: most sheets' })
+  @IsOptional()
+  @IsInt()
+  @Min(1)
+  @Max(MAX_FIT_SHEETS)
+  sheets?: number;
+}
+
+/** The scale as the geometry library takes it (the DTO has been validated). */
+export function toScaleSpec(dto: ScaleDto): AnyScaleSpec {
+  if (dto.by === 'fitSheets') return { by: 'fitSheets', sheets: dto.sheets! };
+  if (dto.by === 'fitBed') return { by: 'fitBed' };
+  return { by: dto.by, mm: dto.mm! };
 }
 
 export class PrepareJobDto extends JobActionDto {

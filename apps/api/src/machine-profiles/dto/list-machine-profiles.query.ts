@@ -8,7 +8,7 @@ import {
   PROFILE_VERSION_STATES,
   type ProfileVersionState,
 } from '@kerfwright/contracts';
-import { PageQueryDto } from '../../common/paging';
+import { MAX_PAGE, PageQueryDto } from '../../common/paging';
 
 export class ListMachineProfilesQueryDto extends PageQueryDto implements ListMachineProfilesQuery {
   @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
@@ -34,11 +34,12 @@ export class ListKerfRecordsQueryDto {
   @IsUUID()
   materialId?: string;
 
-  @ApiPropertyOptional({ minimum: 1, default: 1 })
+  @ApiPropertyOptional({ minimum: 1, maximum: MAX_PAGE, default: 1 })
   @IsOptional()
   @Type(() => Number)
   @IsInt()
   @Min(1)
+  @Max(MAX_PAGE)
   page?: number;
 
   @ApiPropertyOptional({ minimum: 1, maximum: 1000, default: 200 })

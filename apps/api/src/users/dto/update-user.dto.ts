@@ -1,7 +1,11 @@
+import { ApiPropertyOptional } from '@nestjs/swagger';
 import { IsBoolean, IsIn, IsOptional } from 'class-validator';
 import { ROLES, type Role, type UpdateUserRequest } from '@kerfwright/contracts';
 
 export class UpdateUserDto implements UpdateUserRequest {
-  @IsOptional() @IsIn(ROLES) role?: Role;
-  @IsOptional() @IsBoolean() active?: boolean;
+  @ApiPropertyOptional({ enum: ROLES }) @IsOptional() @IsIn(ROLES) role?: Role;
+  @ApiPropertyOptional({ description: 'false deactivates the user' })
+  @IsOptional()
+  @IsBoolean()
+  active?: boolean;
 }

@@ -1,12 +1,21 @@
 import {
   COLOUR_RULES,
-  type DesignSpec,
+  type DesignSpecInput,
   type DesignView,
+  FIT_SCALE_BY,
   MACHINE_KINDS,
   SCALE_BY,
   type UploadedSolid,
 } from '@kerfwright/contracts';
-import { MAX_PIECE_SIDES, MAX_PIECE_SIZE, MAX_SCALE_MM } from '@kerfwright/geometry';
+import {
+  DEFAULT_SHEET_GAP_MM,
+  DEFAULT_SHEET_MARGIN_MM,
+  MAX_FIT_SHEETS,
+  MAX_PIECE_SIDES,
+  MAX_PIECE_SIZE,
+  MAX_SCALE_MM,
+  MAX_SHEET_MM,
+} from '@kerfwright/geometry';
 import { z } from 'zod';
 
 const num = (label: string) => z.number({ error: `${label}: enter a number` });
@@ -27,10 +36,22 @@ export const designFormSchema = z
     size: num('Size')
       .gt(0, 'Size must be more than 0')
       .max(MAX_PIECE_SIZE, `Size is at most ${MAX_PIECE_SIZE}`),
-    scaleBy: z.enum(SCALE_BY),
+    scaleBy: z.enum([...SCALE_BY, ...FIT_SCALE_BY]),
     scaleMm: num('Scale')
       .gt(0, 'Scale must be more than 0 mm')
       .max(MAX_SCALE_MM, `At most ${MAX_SCALE_MM} mm`),
+    fitSheets: num('Sheets')
+      .int('Sheets: a whole number')
+      .min(1, 'At least 1 sheet')
+      .max(MAX_FIT_SHEETS, `At most ${MAX_FIT_SHEETS} sheets`),
+    sheetWidthMm: num('Sheet width').gt(0, 'More than 0 mm').max(MAX_SHEET_MM, `At most ${MAX_SHEET_MM} mm`),
+    sheetHeightMm: num('Sheet height')
+      .gt(0, 'More than 0 mm')
+      .max(MAX_SHEET_MM, `At most ${MAX_SHEET_MM} mm`),
+    marginMm: num('Margin').min(0, 'Cannot be negative').max(100, 'At most 100 mm'),
+    gapMm: num('Gap').min(0, 'Cannot be negative').max(100, 'At most 100 mm'),
+    bedWidthMm: num('Bed width').gt(0, 'More than 0 mm').max(MAX_SHEET_MM, `At most ${MAX_SHEET_MM} mm`),
+    bedHeightMm: num('Bed height').gt(0, 'More than 0 mm').max(MAX_SHEET_MM, `At most ${MAX_SHEET_MM} mm`),
     thicknessMm: num('Thickness').gt(0, 'Thickness must be more than 0').max(50, 'At most 50 mm'),
     flexible: z.boolean(),
     machineKind: z.enum(MACHINE_KINDS),
@@ -46,6 +67,14 @@ export const designFormSchema = z
         code: 'custom',
         path: ['step'],
         message: `Step must be less than half the sides (below ${v.sides / 2})`,
+      });
+    }
+    // The library cuts each colour from its own sheets, so N sheets hold at most N colours.
+    if (v.scaleBy === 'fitSheets' && Number.isInteger(v.colourCount) && v.fitSheets < v.colourCount) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['fitSheets'],
+        message: `At least one sheet per colour (${v.colourCount})`,
       });
     }
     if (v.solidSource === 'catalogue' && !v.solidId) {
@@ -66,6 +95,14 @@ export const DEFAULT_DESIGN_VALUES: DesignFormValues = {
   size: 1.3,
   scaleBy: 'diameter',
   scaleMm: 240,
+  fitSheets: 2,
+  // A common laser-bed stock size (common practice); the fabricator picks the real stock when preparing.
+  sheetWidthMm: 600,
+  sheetHeightMm: 400,
+  marginMm: DEFAULT_SHEET_MARGIN_MM,
+  gapMm: DEFAULT_SHEET_GAP_MM,
+  bedWidthMm: 600,
+  bedHeightMm: 400,
   thicknessMm: 3,
   flexible: false,
   machineKind: 'laser',
@@ -76,26 +113,56 @@ export const DEFAULT_DESIGN_VALUES: DesignFormValues = {
   colourRule: 'neighbour-distinct',
 };
 
-/** The spec the geometry library and the API take, from valid form values (and an uploaded solid). */
-export function toDesignSpec(v: DesignFormValues, upload: UploadedSolid | null): DesignSpec | null {
+/** True for the scales that search the largest model fitting the stock (sheets or bed). */
+export function isFitScale(scaleBy: DesignFormValues['scaleBy']): scaleBy is 'fitSheets' | 'fitBed' {
+  return scaleBy === 'fitSheets' || scaleBy === 'fitBed';
+}
+
+/**
+ * The spec the geometry library builds for the preview, from valid form values (and an uploaded solid):
+ * the stock sheet (for the layout and the fitSheets search) and, for fitBed, the bed. Colours stay out: the
+ * preview solves the colour plan itself, once per solid (see use-built-model).
+ */
+export function toDesignSpec(v: DesignFormValues, upload: UploadedSolid | null): DesignSpecInput | null {
   const solid = v.solidSource === 'upload' ? upload : v.solidId;
   if (!solid) return null;
   return {
     solid,
     piece: { sides: v.sides, step: v.step, rotationDeg: v.rotationDeg, size: v.size },
-    scale: { by: v.scaleBy, mm: v.scaleMm },
-    stock: { thicknessMm: v.thicknessMm, flexible: v.flexible },
+    scale:
+      v.scaleBy === 'fitSheets'
+        ? { by: 'fitSheets', sheets: v.fitSheets }
+        : v.scaleBy === 'fitBed'
+          ? { by: 'fitBed' }
+          : { by: v.scaleBy, mm: v.scaleMm },
+    stock: {
+      thicknessMm: v.thicknessMm,
+      flexible: v.flexible,
+      sheet: { widthMm: v.sheetWidthMm, heightMm: v.sheetHeightMm },
+      marginMm: v.marginMm,
+      gapMm: v.gapMm,
+    },
     machine:
       v.machineKind === 'laser'
         ? { kind: 'laser', kerfMm: v.kerfMm }
         : { kind: 'router', toolDiameterMm: v.toolDiameterMm },
     fitMm: v.fitMm,
+    ...(v.scaleBy === 'fitBed' ? { bed: { widthMm: v.bedWidthMm, heightMm: v.bedHeightMm } } : {}),
   };
 }
 
-/** Form values for a saved design (colours are the studio's own choice; they start from the defaults). */
+/** The spec a design is saved with: the preview's spec plus the colours (count and rule). */
+export function toSavedSpec(v: DesignFormValues, upload: UploadedSolid | null): DesignSpecInput | null {
+  const spec = toDesignSpec(v, upload);
+  if (!spec) return null;
+  return v.colourCount > 1 ? { ...spec, colours: { count: v.colourCount, rule: v.colourRule } } : spec;
+}
+
+/** Form values for a saved design. */
 export function fromDesign(design: DesignView): { values: DesignFormValues; upload: UploadedSolid | null } {
-  const s = design.spec;
+  // A saved spec may carry a fit scale, stock sheet, bed and colours (DesignSpecInput) even where typed fixed.
+  const s = design.spec as DesignSpecInput;
+  const sc = s.scale;
   const upload = typeof s.solid === 'string' ? null : s.solid;
   return {
     upload,
@@ -109,8 +176,17 @@ export function fromDesign(design: DesignView): { values: DesignFormValues; uplo
       step: s.piece.step ?? 1,
       rotationDeg: s.piece.rotationDeg ?? 0,
       size: s.piece.size,
-      scaleBy: s.scale.by,
-      scaleMm: s.scale.mm,
+      scaleBy: sc.by,
+      scaleMm: 'mm' in sc ? sc.mm : DEFAULT_DESIGN_VALUES.scaleMm,
+      fitSheets: sc.by === 'fitSheets' ? sc.sheets : DEFAULT_DESIGN_VALUES.fitSheets,
+      sheetWidthMm: s.stock.sheet?.widthMm ?? DEFAULT_DESIGN_VALUES.sheetWidthMm,
+      sheetHeightMm: s.stock.sheet?.heightMm ?? DEFAULT_DESIGN_VALUES.sheetHeightMm,
+      marginMm: s.stock.marginMm ?? DEFAULT_DESIGN_VALUES.marginMm,
+      gapMm: s.stock.gapMm ?? DEFAULT_DESIGN_VALUES.gapMm,
+      bedWidthMm: s.bed?.widthMm ?? DEFAULT_DESIGN_VALUES.bedWidthMm,
+      bedHeightMm: s.bed?.heightMm ?? DEFAULT_DESIGN_VALUES.bedHeightMm,
+      colourCount: s.colours?.count ?? (s.colours?.names?.length || DEFAULT_DESIGN_VALUES.colourCount),
+      colourRule: s.colours?.rule ?? DEFAULT_DESIGN_VALUES.colourRule,
       thicknessMm: s.stock.thicknessMm,
       flexible: s.stock.flexible ?? false,
       machineKind: s.machine.kind,

@@ -1,9 +1,11 @@
 import { type DesignReport } from '@kerfwright/contracts';
-import { Canvas, useThree } from '@react-three/fiber';
-import { useEffect, useMemo, useRef } from 'react';
+import { Canvas, useFrame, useThree } from '@react-three/fiber';
+import { memo, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
-import { pieceColour } from './piece-colours';
+import { pieceSlab, type SlabArrays } from './piece-slab';
+import { isSoftwareWebGl } from './render-quality';
+import { pieceColour } from '../../layout/components/piece-colours';
 
 interface ModelPreview3dProps {
   report: DesignReport;
@@ -14,60 +16,114 @@ interface ModelPreview3dProps {
   onSelectPiece?: (id: string) => void;
 }
 
-/** Each piece as a flat slab of the stock's thickness, placed in its plane and coloured by the colour plan. */
-function pieceGeometry(piece: DesignReport['pieces'][number], thicknessMm: number): THREE.ExtrudeGeometry {
-  const shape = new THREE.Shape(piece.outline.map(([x, y]) => new THREE.Vector2(x, y)));
-  const geometry = new THREE.ExtrudeGeometry(shape, { depth: thicknessMm, bevelEnabled: false });
-  geometry.translate(0, 0, -thicknessMm / 2);
-  const basis = new THREE.Matrix4().makeBasis(
-    new THREE.Vector3(...piece.frameX),
-    new THREE.Vector3(...piece.frameY),
-    new THREE.Vector3(...piece.normal),
-  );
-  basis.setPosition(new THREE.Vector3(...piece.centreMm));
-  geometry.applyMatrix4(basis);
-  return geometry;
+/**
+ * One BufferGeometry per piece id, kept while the preview is on screen: an edit that keeps a piece's
+ * triangle count (a size, thickness or kerf change usually does) rewrites its buffers in place, so three.js
+ * updates the GPU buffers instead of deleting and creating them.
+ */
+function useGeometryPool() {
+  const pool = useRef(new Map<string, THREE.BufferGeometry>());
+  useEffect(() => {
+    const geometries = pool.current;
+    // Disposing frees the GPU buffers only; a geometry drawn again is uploaded again.
+    return () => geometries.forEach((g) => g.dispose());
+  }, []);
+  return pool.current;
 }
 
-function Pieces({ report, pieceColours, modelKey, selectedPiece, onSelectPiece }: ModelPreview3dProps) {
+function writeSlab(geometry: THREE.BufferGeometry, slab: SlabArrays): void {
+  const position = geometry.getAttribute('position') as THREE.BufferAttribute | undefined;
+  const normal = geometry.getAttribute('normal') as THREE.BufferAttribute | undefined;
+  if (position && normal && position.array.length === slab.positions.length) {
+    (position.array as Float32Array).set(slab.positions);
+    (normal.array as Float32Array).set(slab.normals);
+    position.needsUpdate = true;
+    normal.needsUpdate = true;
+  } else {
+    // A new size of buffer: three.js cannot resize a GPU buffer, so the geometry gets new ones.
+    geometry.dispose();
+    geometry.setAttribute('position', new THREE.BufferAttribute(slab.positions, 3));
+    geometry.setAttribute('normal', new THREE.BufferAttribute(slab.normals, 3));
+  }
+  geometry.computeBoundingSphere();
+  geometry.computeBoundingBox();
+}
+
+function Pieces({
+  report,
+  pieceColours,
+  modelKey,
+  selectedPiece,
+  onSelectPiece,
+  software,
+}: ModelPreview3dProps & { software: boolean }) {
   const invalidate = useThree((s) => s.invalidate);
-  const gl = useThree((s) => s.gl);
-  const geometries = useMemo(
-    () => report.pieces.map((p) => ({ id: p.id, geometry: pieceGeometry(p, report.stock.thicknessMm) })),
+  const pool = useGeometryPool();
+  const slabs = useMemo(
+    () => report.pieces.map((p) => ({ id: p.id, slab: pieceSlab(p, report.stock.thicknessMm) })),
     [report],
   );
-  useEffect(() => () => geometries.forEach((g) => g.geometry.dispose()), [geometries]);
+  const geometryOf = (id: string) => {
+    let geometry = pool.get(id);
+    if (!geometry) {
+      geometry = new THREE.BufferGeometry();
+      pool.set(id, geometry);
+    }
+    return geometry;
+  };
+  // Fill the pooled geometries before the frame is drawn; drop those of pieces that are gone.
+  useLayoutEffect(() => {
+    const ids = new Set(slabs.map((s) => s.id));
+    for (const { id, slab } of slabs) writeSlab(geometryOf(id), slab);
+    for (const [id, geometry] of pool) {
+      if (!ids.has(id)) {
+        geometry.dispose();
+        pool.delete(id);
+      }
+    }
+    // geometryOf only reads and fills the pool, which lives as long as this component.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [slabs, pool]);
 
-  // Mark the canvas once a frame with this model has really been drawn (the browser test times edits by it).
-  useEffect(() => {
+  // Mark the canvas once a frame with this model has really been drawn (the browser test times edits by it):
+  // this callback takes over drawing (priority 1), so the mark follows the draw call of that very frame.
+  const pending = useRef<string | null>(null);
+  useLayoutEffect(() => {
+    pending.current = modelKey;
     invalidate();
-    let second = 0;
-    const first = requestAnimationFrame(() => {
-      second = requestAnimationFrame(() => gl.domElement.setAttribute('data-rendered-key', modelKey));
-    });
-    return () => {
-      cancelAnimationFrame(first);
-      cancelAnimationFrame(second);
-    };
-  }, [geometries, pieceColours, modelKey, invalidate, gl]);
+  }, [slabs, pieceColours, modelKey, invalidate]);
+  useFrame(({ gl: renderer, scene, camera }) => {
+    renderer.render(scene, camera);
+    if (pending.current !== null) {
+      renderer.domElement.setAttribute('data-rendered-key', pending.current);
+      pending.current = null;
+    }
+  }, 1);
 
   return (
     <group>
-      {geometries.map(({ id, geometry }) => (
+      {slabs.map(({ id }) => (
         <mesh
           key={id}
-          geometry={geometry}
+          geometry={geometryOf(id)}
           onClick={(event) => {
             event.stopPropagation();
             onSelectPiece?.(id);
           }}
         >
-          <meshStandardMaterial
-            color={pieceColour(pieceColours[id])}
-            emissive={id === selectedPiece ? '#5a2a10' : '#000000'}
-            roughness={0.75}
-            metalness={0.02}
-          />
+          {software ? (
+            <meshLambertMaterial
+              color={pieceColour(pieceColours[id])}
+              emissive={id === selectedPiece ? '#5a2a10' : '#000000'}
+            />
+          ) : (
+            <meshStandardMaterial
+              color={pieceColour(pieceColours[id])}
+              emissive={id === selectedPiece ? '#5a2a10' : '#000000'}
+              roughness={0.75}
+              metalness={0.02}
+            />
+          )}
         </mesh>
       ))}
     </group>
@@ -103,14 +159,18 @@ function Controls({ diameterMm }: { diameterMm: number }) {
   return null;
 }
 
-/** The assembled model in 3D (three.js through React Three Fiber). Drag to orbit, scroll to zoom. */
-export function ModelPreview3d(props: ModelPreview3dProps) {
+/**
+ * The assembled model in 3D (three.js through React Three Fiber). Drag to orbit, scroll to zoom. Memoised:
+ * a studio re-render that does not change the model, its colours or the selection leaves the scene alone.
+ */
+export const ModelPreview3d = memo(function ModelPreview3d(props: ModelPreview3dProps) {
+  const software = useMemo(isSoftwareWebGl, []);
   return (
     <Canvas
       data-testid="preview-3d"
       frameloop="demand"
-      dpr={[1, 2]}
-      gl={{ preserveDrawingBuffer: true, antialias: true }}
+      dpr={software ? 1 : [1, 2]}
+      gl={{ preserveDrawingBuffer: true, antialias: !software }}
       camera={{ fov: 40 }}
       style={{ background: '#f4f1ea', borderRadius: 8 }}
       aria-label="3D preview of the assembled model"
@@ -119,7 +179,7 @@ export function ModelPreview3d(props: ModelPreview3dProps) {
       <directionalLight position={[300, 500, 400]} intensity={1.6} />
       <directionalLight position={[-400, -200, -300]} intensity={0.6} />
       <Controls diameterMm={props.report.diameterMm} />
-      <Pieces {...props} />
+      <Pieces {...props} software={software} />
     </Canvas>
   );
-}
+});

@@ -1,6 +1,6 @@
 import { type ReportPiece } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
-import { pieceColour } from './piece-colours';
+import { pieceColour } from '../../layout/components/piece-colours';
 
 interface PieceView2dProps {
   piece: ReportPiece;

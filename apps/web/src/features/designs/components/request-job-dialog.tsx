@@ -1,15 +1,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import Button from '@mui/material/Button';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogContentText from '@mui/material/DialogContentText';
-import DialogTitle from '@mui/material/DialogTitle';
 import Stack from '@mui/material/Stack';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { FormTextField } from '../../../components/ui/form-text-field';
-import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 
 export const requestJobSchema = z.object({
   quantity: z
@@ -28,13 +22,7 @@ export function RequestJobDialog({
   error,
   onSubmit,
   onClose,
-}: {
-  open: boolean;
-  busy: boolean;
-  error: unknown;
-  onSubmit: (values: RequestJobValues) => void;
-  onClose: () => void;
-}) {
+}: FormDialogBaseProps<RequestJobValues>) {
   const {
     register,
     handleSubmit,
@@ -44,38 +32,32 @@ export function RequestJobDialog({
     defaultValues: { quantity: 1, notes: '' },
   });
   return (
-    <Dialog open={open} onClose={onClose} aria-labelledby="request-job-title" fullWidth maxWidth="sm">
-      <form noValidate onSubmit={handleSubmit(onSubmit)}>
-        <DialogTitle id="request-job-title">Request a cut job</DialogTitle>
-        <DialogContent>
-          <DialogContentText sx={{ mb: 2 }}>
-            A fabricator picks the material and machine settings and lays the pieces out; a supervisor
-            approves the job before it is cut.
-          </DialogContentText>
-          <Stack spacing={2}>
-            {error ? <FormErrorAlert error={error} /> : null}
-            <FormTextField
-              label="Copies"
-              type="number"
-              registration={register('quantity', { valueAsNumber: true })}
-              error={errors.quantity}
-            />
-            <FormTextField
-              label="Notes for the workshop"
-              registration={register('notes')}
-              error={errors.notes}
-              multiline
-              minRows={2}
-            />
-          </Stack>
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={onClose}>Cancel</Button>
-          <Button type="submit" variant="contained" disabled={busy}>
-            Request the cut
-          </Button>
-        </DialogActions>
-      </form>
-    </Dialog>
+    <FormDialog
+      open={open}
+      titleId="request-job-title"
+      title="Request a cut job"
+      intro="A fabricator picks the material and machine settings and lays the pieces out; a supervisor approves the job before it is cut."
+      error={error}
+      busy={busy}
+      submitLabel="Request the cut"
+      onSubmit={handleSubmit(onSubmit)}
+      onClose={onClose}
+    >
+      <Stack spacing={2}>
+        <FormTextField
+          label="Copies"
+          type="number"
+          registration={register('quantity', { valueAsNumber: true })}
+          error={errors.quantity}
+        />
+        <FormTextField
+          label="Notes for the workshop"
+          registration={register('notes')}
+          error={errors.notes}
+          multiline
+          minRows={2}
+        />
+      </Stack>
+    </FormDialog>
   );
 }

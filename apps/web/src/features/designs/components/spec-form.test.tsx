@@ -1,4 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import { type DesignView } from '@kerfwright/contracts';
 import { validateSpec } from '@kerfwright/geometry';
 import { screen, waitFor } from '@testing-library/react';
 import { useForm } from 'react-hook-form';
@@ -8,7 +9,9 @@ import {
   DEFAULT_DESIGN_VALUES,
   type DesignFormValues,
   designFormSchema,
+  fromDesign,
   toDesignSpec,
+  toSavedSpec,
 } from './design-form-schema';
 import { SpecForm } from './spec-form';
 
@@ -87,5 +90,53 @@ describe('design studio spec form', () => {
     expect(router?.machine).toEqual({ kind: 'router', toolDiameterMm: 3.175 });
     // An uploaded solid is needed when the source is "upload".
     expect(toDesignSpec({ ...parsed, solidSource: 'upload' }, null)).toBeNull();
+  });
+
+  it('offers fit to sheets (a number of sheets of the stock sheet) and fit to the bed', async () => {
+    let submitted: DesignFormValues | undefined;
+    const { user } = renderWithProviders(<Harness onValues={(v) => (submitted = v)} />);
+    const scaleBy = await screen.findByLabelText('Scale by');
+    await user.selectOptions(scaleBy, 'fitSheets');
+    const sheets = await screen.findByLabelText('Sheets');
+    expect(screen.queryByLabelText('Scale (mm)')).not.toBeInTheDocument();
+    await user.clear(sheets);
+    await user.type(sheets, '0');
+    expect(await screen.findByText('At least 1 sheet')).toBeInTheDocument();
+    // Two colours (the default) need two sheets at least: each colour has sheets of its own.
+    await user.clear(sheets);
+    await user.type(sheets, '1');
+    expect(await screen.findByText('At least one sheet per colour (2)')).toBeInTheDocument();
+    await user.clear(sheets);
+    await user.type(sheets, '3');
+    await user.clear(screen.getByLabelText('Sheet width (mm)'));
+    await user.type(screen.getByLabelText('Sheet width (mm)'), '450');
+    await user.click(screen.getByRole('button', { name: 'Check' }));
+    await waitFor(() => expect(submitted?.fitSheets).toBe(3));
+    const spec = toDesignSpec(submitted as DesignFormValues, null);
+    expect(spec?.scale).toEqual({ by: 'fitSheets', sheets: 3 });
+    expect(spec?.stock.sheet).toEqual({ widthMm: 450, heightMm: 400 });
+    expect(validateSpec(spec).ok).toBe(true);
+
+    await user.selectOptions(scaleBy, 'fitBed');
+    expect(await screen.findByLabelText('Bed width (mm)')).toBeInTheDocument();
+    expect(screen.queryByLabelText('Sheets')).not.toBeInTheDocument();
+  });
+
+  it('saves the colours with the design and reads a fit scale back from a saved spec', () => {
+    const parsed = designFormSchema.parse({ ...DEFAULT_DESIGN_VALUES, scaleBy: 'fitBed', colourCount: 3 });
+    const saved = toSavedSpec(parsed, null);
+    expect(saved?.colours).toEqual({ count: 3, rule: 'neighbour-distinct' });
+    expect(saved?.scale).toEqual({ by: 'fitBed' });
+    expect(saved?.bed).toEqual({ widthMm: 600, heightMm: 400 });
+    expect(validateSpec(saved).ok).toBe(true);
+    const back = fromDesign({
+      id: 'd1',
+      name: 'Round trip',
+      description: '',
+      spec: saved,
+    } as unknown as DesignView).values;
+    expect(back.scaleBy).toBe('fitBed');
+    expect(back.colourCount).toBe(3);
+    expect(back.bedWidthMm).toBe(600);
   });
 });

@@ -5,8 +5,8 @@ import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
-import { type ReactNode } from 'react';
-import { Controller, type UseFormReturn, useWatch } from 'react-hook-form';
+import { memo, type ReactNode } from 'react';
+import { Controller, type UseFormReturn, useFormState, useWatch } from 'react-hook-form';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { type DesignFormValues } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
@@ -17,6 +17,8 @@ const SCALE_LABELS: Record<DesignFormValues['scaleBy'], string> = {
   diameter: 'Overall diameter',
   planeDistance: 'Centre to nearest piece plane',
   pieceCircumradius: 'Piece size (circumradius)',
+  fitSheets: 'Fit to sheets (largest on N sheets)',
+  fitBed: 'Fit to the machine bed',
 };
 
 const RULE_LABELS: Record<(typeof COLOUR_RULES)[number], string> = {
@@ -36,8 +38,12 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** The spec's fields. Every change goes to the live preview; messages show under the fields. */
-export function SpecForm({
+/**
+ * The spec's fields. Every change goes to the live preview; messages show under the fields. The fields are
+ * uncontrolled and the form state is read here (useFormState), so the studio's re-render on each keystroke
+ * skips this form (memo) unless the suggestions change.
+ */
+export const SpecForm = memo(function SpecForm({
   form,
   upload,
   onUpload,
@@ -48,13 +54,12 @@ export function SpecForm({
   onUpload: (solid: UploadedSolid) => void;
   suggestedSizes: { touch: number | null; overlap: number | null } | null;
 }) {
-  const {
-    register,
+  const { register, control, setValue } = form;
+  const { errors } = useFormState({ control });
+  const [solidSource, machineKind, scaleBy] = useWatch({
     control,
-    setValue,
-    formState: { errors },
-  } = form;
-  const [solidSource, machineKind] = useWatch({ control, name: ['solidSource', 'machineKind'] });
+    name: ['solidSource', 'machineKind', 'scaleBy'],
+  });
   const n = { valueAsNumber: true } as const;
   const native = { select: { native: true } } as const;
   const setSize = (size: number) =>
@@ -177,14 +182,83 @@ export function SpecForm({
             </option>
           ))}
         </FormTextField>
-        <FormTextField
-          label="Scale (mm)"
-          type="number"
-          registration={register('scaleMm', n)}
-          error={errors.scaleMm}
-          size="small"
-          slotProps={{ htmlInput: { step: 'any' } }}
-        />
+        {scaleBy === 'fitSheets' ? (
+          <FormTextField
+            label="Sheets"
+            type="number"
+            registration={register('fitSheets', n)}
+            error={errors.fitSheets}
+            size="small"
+            helperText="of the stock sheet size below"
+          />
+        ) : scaleBy === 'fitBed' ? (
+          <Stack direction="row" spacing={1}>
+            <FormTextField
+              label="Bed width (mm)"
+              type="number"
+              registration={register('bedWidthMm', n)}
+              error={errors.bedWidthMm}
+              size="small"
+              slotProps={{ htmlInput: { step: 'any' } }}
+            />
+            <FormTextField
+              label="Bed height (mm)"
+              type="number"
+              registration={register('bedHeightMm', n)}
+              error={errors.bedHeightMm}
+              size="small"
+              slotProps={{ htmlInput: { step: 'any' } }}
+            />
+          </Stack>
+        ) : (
+          <FormTextField
+            label="Scale (mm)"
+            type="number"
+            registration={register('scaleMm', n)}
+            error={errors.scaleMm}
+            size="small"
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+        )}
+      </Section>
+
+      <Section title="Stock sheet">
+        <Stack direction="row" spacing={1}>
+          <FormTextField
+            label="Sheet width (mm)"
+            type="number"
+            registration={register('sheetWidthMm', n)}
+            error={errors.sheetWidthMm}
+            size="small"
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+          <FormTextField
+            label="Sheet height (mm)"
+            type="number"
+            registration={register('sheetHeightMm', n)}
+            error={errors.sheetHeightMm}
+            size="small"
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+        </Stack>
+        <Stack direction="row" spacing={1}>
+          <FormTextField
+            label="Margin (mm)"
+            type="number"
+            registration={register('marginMm', n)}
+            error={errors.marginMm}
+            size="small"
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+          <FormTextField
+            label="Gap (mm)"
+            type="number"
+            registration={register('gapMm', n)}
+            error={errors.gapMm}
+            size="small"
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+        </Stack>
       </Section>
 
       <Section title="Stock and machine">
@@ -282,4 +356,4 @@ export function SpecForm({
       </Section>
     </Stack>
   );
-}
+});

@@ -1,14 +1,20 @@
-import { type DesignSpec } from '@kerfwright/contracts';
-import { type BuiltModel, buildModel, type ColourRule, solveColourPlan } from '@kerfwright/geometry';
+import { type DesignSpecInput } from '@kerfwright/contracts';
+import { type BuiltModel, buildModel, type ColourPlan, type ColourRule } from '@kerfwright/geometry';
 import { useDeferredValue, useMemo } from 'react';
+import { cachedColourPlan } from './colour-plan-cache';
 
 export interface BuiltPreview {
+  /** The spec this preview was built from. */
+  spec: DesignSpecInput | null;
   model: BuiltModel | null;
   /** Colour index per piece id (all 0 when one colour, or when the rule has no plan). */
   pieceColour: Record<string, number>;
+  /** The plan behind pieceColour when there are several colours (the layout reuses it). */
+  colourPlan: ColourPlan | null;
   colourMessage: string | null;
   /** Why the engine refused the spec (field errors or a failure), when it did. */
   failure: string | null;
+  /** Time spent in the geometry library for this preview (model build and, when not cached, colour plan). */
   buildMs: number;
   /** Identifies the spec this preview was built from. */
   key: string;
@@ -16,10 +22,11 @@ export interface BuiltPreview {
 
 /**
  * Runs the geometry library in the browser on every change. The spec is deferred, so typing stays responsive
- * while a large model builds; the last finished model stays on screen meanwhile.
+ * while a large model builds; the last finished model stays on screen meanwhile. The colour plan does not
+ * depend on the size, so it is solved once per solid, count and rule (see colour-plan-cache).
  */
 export function useBuiltModel(
-  spec: DesignSpec | null,
+  spec: DesignSpecInput | null,
   colourCount: number,
   colourRule: ColourRule,
 ): BuiltPreview {
@@ -28,36 +35,48 @@ export function useBuiltModel(
   return useMemo(() => build(deferred.spec, deferred.colourCount, deferred.colourRule), [deferred]);
 }
 
-function build(spec: DesignSpec | null, colourCount: number, colourRule: ColourRule): BuiltPreview {
+function build(spec: DesignSpecInput | null, colourCount: number, colourRule: ColourRule): BuiltPreview {
   const key = JSON.stringify([spec, colourCount, colourRule]);
-  if (!spec) return { model: null, pieceColour: {}, colourMessage: null, failure: null, buildMs: 0, key };
+  const empty = {
+    spec,
+    model: null,
+    pieceColour: {},
+    colourPlan: null,
+    colourMessage: null,
+    buildMs: 0,
+    key,
+  };
+  if (!spec) return { ...empty, failure: null };
   const started = performance.now();
   let model: BuiltModel;
   try {
     model = buildModel(spec);
   } catch (error) {
-    const message = error instanceof Error ? error.message : String(error);
-    return { model: null, pieceColour: {}, colourMessage: null, failure: message, buildMs: 0, key };
+    return { ...empty, failure: error instanceof Error ? error.message : String(error) };
   }
   let pieceColour: Record<string, number> = Object.fromEntries(model.pieces.map((p) => [p.id, 0]));
+  let colourPlan: ColourPlan | null = null;
   let colourMessage: string | null = null;
   if (colourCount > 1) {
     try {
-      const plan = solveColourPlan({
-        faceCount: model.solid.faces.length,
-        faceVertices: model.solid.faces.map((f) => f.vertices),
-        normals: model.solid.faces.map((f) => f.normal),
-        opposite: model.solid.oppositeFaces,
-        rule: colourRule,
-        count: colourCount,
-        pieceIds: model.pieces.map((p) => p.id),
-        countCap: 0,
-      });
-      if (plan.feasible) pieceColour = plan.assignment;
-      else colourMessage = plan.message ?? `No colour plan for this rule with ${colourCount} colours.`;
+      const ids = model.pieces.map((p) => p.id);
+      const plan = cachedColourPlan(model.solid, ids, colourCount, colourRule);
+      if (plan.feasible) {
+        pieceColour = plan.assignment;
+        colourPlan = plan;
+      } else colourMessage = plan.message ?? `No colour plan for this rule with ${colourCount} colours.`;
     } catch (error) {
       colourMessage = error instanceof Error ? error.message : String(error);
     }
   }
-  return { model, pieceColour, colourMessage, failure: null, buildMs: performance.now() - started, key };
+  return {
+    spec,
+    model,
+    pieceColour,
+    colourPlan,
+    colourMessage,
+    failure: null,
+    buildMs: performance.now() - started,
+    key,
+  };
 }

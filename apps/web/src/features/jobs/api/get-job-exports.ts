@@ -8,15 +8,14 @@ export function getJobExports(id: string, signal?: AbortSignal): Promise<ExportV
   return api.get<ExportView[]>(`/jobs/${encodeURIComponent(id)}/exports`, undefined, signal);
 }
 
-/** Polls every second while the newest export is queued or running (the progress bar follows it). */
+/**
+ * The job's exports. A running one is followed by useFollowExport (its events, or polling), which keeps this
+ * list current and refreshes it when the export ends.
+ */
 export function useJobExports(id: string, enabled: boolean) {
   return useQuery({
     queryKey: jobsKeys.exports(id),
     queryFn: ({ signal }) => getJobExports(id, signal),
     enabled,
-    refetchInterval: (query) => {
-      const newest = query.state.data?.[0];
-      return newest && (newest.state === 'queued' || newest.state === 'running') ? 1000 : false;
-    },
   });
 }

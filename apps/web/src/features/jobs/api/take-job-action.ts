@@ -1,6 +1,7 @@
 import { type JobAction, type JobView } from '@kerfwright/contracts';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { followExport } from './follow-export';
 import { jobsKeys } from './jobs-keys';
 
 /** Body of a transition: always the job version read (409 when stale), plus what the action needs. */
@@ -10,19 +11,40 @@ export interface JobActionVariables {
   body: { version: number } & Record<string, unknown>;
 }
 
-/** POST /api/jobs/:id/<action> → the job after the transition (the server checks role and state). */
-export function takeJobAction({ id, action, body }: JobActionVariables): Promise<JobView> {
-  return api.post<JobView>(`/jobs/${encodeURIComponent(id)}/${action}`, body);
+/**
+ * What a transition answers: the job after it (200), or, for a transition that waits on the cut-pack queue
+ * (release: 202), the export to follow; the job moves on when that export is done.
+ */
+export type JobActionResult = JobView | { exportId: string };
+
+export function isQueuedAction(result: JobActionResult): result is { exportId: string } {
+  return typeof (result as { exportId?: unknown }).exportId === 'string';
+}
+
+/** POST /api/jobs/:id/<action> (the server checks role and state). */
+export function takeJobAction({ id, action, body }: JobActionVariables): Promise<JobActionResult> {
+  return api.post<JobActionResult>(`/jobs/${encodeURIComponent(id)}/${action}`, body);
 }
 
 export function useTakeJobAction() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: takeJobAction,
-    onSuccess: (_job, v) => {
+    onSuccess: (result, v) => {
+      if (isQueuedAction(result)) {
+        // The job moves on when its export is done: follow it (events, else polling), then read the job again.
+        void followExport(result.exportId, () => undefined, new AbortController().signal)
+          .catch(() => null)
+          .then(() => {
+            void queryClient.invalidateQueries({ queryKey: jobsKeys.detail(v.id) });
+            void queryClient.invalidateQueries({ queryKey: jobsKeys.lists() });
+            void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(v.id) });
+          });
+      }
       void queryClient.invalidateQueries({ queryKey: jobsKeys.detail(v.id) });
       void queryClient.invalidateQueries({ queryKey: jobsKeys.lists() });
       void queryClient.invalidateQueries({ queryKey: jobsKeys.safety(v.id) });
+      void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(v.id) });
     },
   });
 }

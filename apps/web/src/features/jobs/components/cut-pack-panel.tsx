@@ -11,6 +11,7 @@ import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { downloadFile } from '../../../lib/api-client';
+import { useFollowExport } from '../api/follow-export';
 import { useJobExports } from '../api/get-job-exports';
 import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
@@ -39,7 +40,11 @@ export function CutPackPanel({
   const safety = useJobSafety(jobId, true);
   const request = useRequestCutPack(jobId);
   const [downloadError, setDownloadError] = useState<unknown>(null);
-  const newest = exports.data?.[0];
+  const listed = exports.data?.[0];
+  const listedBusy = listed && (listed.state === 'queued' || listed.state === 'running');
+  // A queued or running pack (asked for here, or by a release) is followed live until it ends.
+  const live = useFollowExport(listedBusy ? listed.id : null, jobId);
+  const newest = live.view && live.view.id === listed?.id ? live.view : listed;
   const busy = newest && (newest.state === 'queued' || newest.state === 'running');
 
   return (
@@ -57,6 +62,7 @@ export function CutPackPanel({
       {exports.error ? <FormErrorAlert error={exports.error} /> : null}
       {request.error ? <FormErrorAlert error={request.error} /> : null}
       {downloadError ? <FormErrorAlert error={downloadError} /> : null}
+      {live.error ? <FormErrorAlert error={live.error} /> : null}
       {!newest && exports.isSuccess ? (
         <Typography color="text.secondary">No cut pack has been prepared for this job yet.</Typography>
       ) : null}

@@ -1,16 +1,12 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { COLOUR_RULES } from '@kerfwright/contracts';
-import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogTitle from '@mui/material/DialogTitle';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import FormHelperText from '@mui/material/FormHelperText';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { Controller, useForm, useWatch } from 'react-hook-form';
+import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { useMachineProfiles } from '../api/get-machine-profiles';
@@ -26,13 +22,7 @@ export interface PrepareJobBody {
 }
 
 /** The fabricator's choices: material, an approved machine profile version, colours and sheet size. */
-export function PrepareJobDialog(props: {
-  open: boolean;
-  busy: boolean;
-  error: unknown;
-  onSubmit: (body: PrepareJobBody) => void;
-  onClose: () => void;
-}) {
+export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
   const materials = useMaterials(props.open);
   const profiles = useMachineProfiles(props.open);
   const {
@@ -74,124 +64,117 @@ export function PrepareJobDialog(props: {
 
   const materialField = register('materialId');
   return (
-    <Dialog open={props.open} onClose={props.onClose} fullWidth maxWidth="sm" aria-labelledby="prepare-title">
-      <form noValidate onSubmit={(e) => void submit(e)}>
-        <DialogTitle id="prepare-title">Prepare the job</DialogTitle>
-        <DialogContent>
-          {props.error ? <FormErrorAlert error={props.error} /> : null}
-          {materials.isError ? <FormErrorAlert error={materials.error} /> : null}
-          {profiles.isError ? <FormErrorAlert error={profiles.error} /> : null}
-          <Stack spacing={2} sx={{ mt: 1 }}>
-            <FormTextField
-              select
-              slotProps={native}
-              label="Material"
-              registration={{
-                ...materialField,
-                onChange: async (e) => {
-                  setValue('colours', []);
-                  setValue('sheetIndex', '0');
-                  return materialField.onChange(e);
-                },
-              }}
-              error={errors.materialId}
-            >
-              <option value="">Choose…</option>
-              {(materials.data?.items ?? []).map((m) => (
-                <option key={m.id} value={m.id}>
-                  {`${m.name}${m.laserAllowed ? '' : ' (not for lasers)'}`}
-                </option>
-              ))}
-            </FormTextField>
-            <FormTextField
-              select
-              slotProps={native}
-              label="Machine profile (approved version)"
-              registration={register('profileVersionId')}
-              error={errors.profileVersionId}
-            >
-              <option value="">Choose…</option>
-              {approved.map((p) => (
-                <option key={p.id} value={p.currentApproved?.id}>
-                  {`${p.name} · ${p.kind} · v${p.currentApproved?.number}`}
-                </option>
-              ))}
-            </FormTextField>
-            {material ? (
-              <>
-                <Controller
-                  control={control}
-                  name="colours"
-                  render={({ field }) => (
-                    <Stack>
-                      <Typography variant="body2" color="text.secondary">
-                        Colours of stock
-                      </Typography>
-                      <Stack direction="row" sx={{ flexWrap: 'wrap' }}>
-                        {material.colours.map((c) => (
-                          <FormControlLabel
-                            key={c}
-                            label={c}
-                            control={
-                              <Checkbox
-                                checked={field.value.includes(c)}
-                                onChange={(e) =>
-                                  field.onChange(
-                                    e.target.checked
-                                      ? [...field.value, c]
-                                      : field.value.filter((x) => x !== c),
-                                  )
-                                }
-                              />
+    <FormDialog
+      open={props.open}
+      titleId="prepare-title"
+      title="Prepare the job"
+      error={props.error}
+      busy={props.busy}
+      submitLabel="Prepare"
+      onSubmit={submit}
+      onClose={props.onClose}
+    >
+      {materials.isError ? <FormErrorAlert error={materials.error} /> : null}
+      {profiles.isError ? <FormErrorAlert error={profiles.error} /> : null}
+      <Stack spacing={2} sx={{ mt: 1 }}>
+        <FormTextField
+          select
+          slotProps={native}
+          label="Material"
+          registration={{
+            ...materialField,
+            onChange: async (e) => {
+              setValue('colours', []);
+              setValue('sheetIndex', '0');
+              return materialField.onChange(e);
+            },
+          }}
+          error={errors.materialId}
+        >
+          <option value="">Choose…</option>
+          {(materials.data?.items ?? []).map((m) => (
+            <option key={m.id} value={m.id}>
+              {`${m.name}${m.laserAllowed ? '' : ' (not for lasers)'}`}
+            </option>
+          ))}
+        </FormTextField>
+        <FormTextField
+          select
+          slotProps={native}
+          label="Machine profile (approved version)"
+          registration={register('profileVersionId')}
+          error={errors.profileVersionId}
+        >
+          <option value="">Choose…</option>
+          {approved.map((p) => (
+            <option key={p.id} value={p.currentApproved?.id}>
+              {`${p.name} · ${p.kind} · v${p.currentApproved?.number}`}
+            </option>
+          ))}
+        </FormTextField>
+        {material ? (
+          <>
+            <Controller
+              control={control}
+              name="colours"
+              render={({ field }) => (
+                <Stack>
+                  <Typography variant="body2" color="text.secondary">
+                    Colours of stock
+                  </Typography>
+                  <Stack direction="row" sx={{ flexWrap: 'wrap' }}>
+                    {material.colours.map((c) => (
+                      <FormControlLabel
+                        key={c}
+                        label={c}
+                        control={
+                          <Checkbox
+                            checked={field.value.includes(c)}
+                            onChange={(e) =>
+                              field.onChange(
+                                e.target.checked ? [...field.value, c] : field.value.filter((x) => x !== c),
+                              )
                             }
                           />
-                        ))}
-                      </Stack>
-                      {errors.colours ? (
-                        <FormHelperText error>{errors.colours.message}</FormHelperText>
-                      ) : null}
-                    </Stack>
-                  )}
-                />
-                <FormTextField
-                  select
-                  slotProps={native}
-                  label="Sheet"
-                  registration={register('sheetIndex')}
-                  error={errors.sheetIndex}
-                >
-                  {material.stockSheets.map((s, i) => (
-                    <option key={i} value={String(i)}>
-                      {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet} ${s.currency}`}
-                    </option>
-                  ))}
-                </FormTextField>
-              </>
-            ) : errors.colours ? (
-              <FormHelperText error>{errors.colours.message}</FormHelperText>
-            ) : null}
+                        }
+                      />
+                    ))}
+                  </Stack>
+                  {errors.colours ? <FormHelperText error>{errors.colours.message}</FormHelperText> : null}
+                </Stack>
+              )}
+            />
             <FormTextField
               select
               slotProps={native}
-              label="Colour rule"
-              registration={register('colourRule')}
-              error={errors.colourRule}
+              label="Sheet"
+              registration={register('sheetIndex')}
+              error={errors.sheetIndex}
             >
-              {COLOUR_RULES.map((r) => (
-                <option key={r} value={r}>
-                  {r}
+              {material.stockSheets.map((s, i) => (
+                <option key={i} value={String(i)}>
+                  {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet} ${s.currency}`}
                 </option>
               ))}
             </FormTextField>
-          </Stack>
-        </DialogContent>
-        <DialogActions>
-          <Button onClick={props.onClose}>Cancel</Button>
-          <Button type="submit" variant="contained" disabled={props.busy}>
-            Prepare
-          </Button>
-        </DialogActions>
-      </form>
-    </Dialog>
+          </>
+        ) : errors.colours ? (
+          <FormHelperText error>{errors.colours.message}</FormHelperText>
+        ) : null}
+        <FormTextField
+          select
+          slotProps={native}
+          label="Colour rule"
+          registration={register('colourRule')}
+          error={errors.colourRule}
+        >
+          {COLOUR_RULES.map((r) => (
+            <option key={r} value={r}>
+              {r}
+            </option>
+          ))}
+        </FormTextField>
+      </Stack>
+    </FormDialog>
   );
 }

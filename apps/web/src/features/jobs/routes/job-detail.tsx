@@ -26,6 +26,7 @@ import { formatLength, type LengthUnit } from '../../../lib/units';
 import { useJob } from '../api/get-job';
 import { useTakeJobAction } from '../api/take-job-action';
 import { CutPackPanel } from '../components/cut-pack-panel';
+import { JobSheetsPanel } from '../components/job-sheets-panel';
 import { JobStateChip } from '../components/job-state-chip';
 import { PrepareJobDialog } from '../components/prepare-job-dialog';
 import { RecordCutDialog } from '../components/record-cut-dialog';
@@ -198,6 +199,10 @@ function JobDetail({ job }: { job: JobDetailView }) {
           )}
         </Paper>
       </Box>
+
+      {prep && ['prepared', 'approved', 'released'].includes(job.state) ? (
+        <JobSheetsPanel job={job} unit={unit} />
+      ) : null}
 
       {canSeePack ? (
         <CutPackPanel

@@ -1,76 +1,47 @@
-import { ROLES } from '@kerfwright/contracts';
-import Box from '@mui/material/Box';
-import MenuItem from '@mui/material/MenuItem';
-import TextField from '@mui/material/TextField';
-import { useEffect, useState } from 'react';
+import { ROLES, type Role } from '@kerfwright/contracts';
+import { FilterBar, labelled, SearchFilter, SelectFilter } from '../../../components/data-table/filter-bar';
 import { ROLE_LABELS } from '../../../config/roles';
-import { type StatusFilter, type UsersSearchChange } from '../hooks/use-users-search-params';
+import { type StatusFilter } from '../hooks/use-users-search-params';
 
 interface UsersFiltersProps {
   q: string;
-  role: string;
-  status: StatusFilter;
-  onChange: (change: UsersSearchChange) => void;
+  role: Role | undefined;
+  status: StatusFilter | undefined;
+  onChange: (change: { q?: string; role?: Role; status?: StatusFilter }) => void;
 }
 
-const SEARCH_DELAY_MS = 300;
+const ROLE_OPTIONS = labelled(ROLES, ROLE_LABELS);
+const STATUS_OPTIONS = [
+  { value: 'active', label: 'Active' },
+  { value: 'inactive', label: 'Deactivated' },
+] as const;
 
 /** Search by name or e-mail, and narrow by role and status. */
 export function UsersFilters({ q, role, status, onChange }: UsersFiltersProps) {
-  const [text, setText] = useState(q);
-
-  // Follow the address when it changes from outside (Back, a cleared filter).
-  useEffect(() => setText(q), [q]);
-
-  // Ask the API once typing pauses, not on every key.
-  useEffect(() => {
-    if (text === q) return;
-    const timer = window.setTimeout(() => onChange({ q: text }), SEARCH_DELAY_MS);
-    return () => window.clearTimeout(timer);
-  }, [text, q, onChange]);
-
   return (
-    <Box
-      role="search"
-      aria-label="Find people"
-      sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr 1fr' }, mb: 2 }}
-    >
-      <TextField
+    <FilterBar label="Find people" columns="2fr 1fr 1fr">
+      <SearchFilter
         id="people-search"
         label="Search name or e-mail"
-        type="search"
-        value={text}
-        onChange={(event) => setText(event.target.value)}
-        slotProps={{ htmlInput: { maxLength: 100 } }}
-        size="small"
+        value={q}
+        onSearch={(text) => onChange({ q: text })}
       />
-      <TextField
+      <SelectFilter
         id="people-role"
-        select
         label="Role"
+        allLabel="All roles"
         value={role}
-        onChange={(event) => onChange({ role: event.target.value })}
-        size="small"
-      >
-        <MenuItem value="all">All roles</MenuItem>
-        {ROLES.map((r) => (
-          <MenuItem key={r} value={r}>
-            {ROLE_LABELS[r]}
-          </MenuItem>
-        ))}
-      </TextField>
-      <TextField
+        options={ROLE_OPTIONS}
+        onChange={(value) => onChange({ role: value })}
+      />
+      <SelectFilter
         id="people-status"
-        select
         label="Status"
+        allLabel="Everyone"
         value={status}
-        onChange={(event) => onChange({ status: event.target.value as StatusFilter })}
-        size="small"
-      >
-        <MenuItem value="all">Everyone</MenuItem>
-        <MenuItem value="active">Active</MenuItem>
-        <MenuItem value="inactive">Deactivated</MenuItem>
-      </TextField>
-    </Box>
+        options={STATUS_OPTIONS}
+        onChange={(value) => onChange({ status: value })}
+      />
+    </FilterBar>
   );
 }

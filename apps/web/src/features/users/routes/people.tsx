@@ -1,20 +1,16 @@
 import { type Role, type UserView } from '@kerfwright/contracts';
-import Box from '@mui/material/Box';
-import LinearProgress from '@mui/material/LinearProgress';
-import Paper from '@mui/material/Paper';
-import Snackbar from '@mui/material/Snackbar';
-import TablePagination from '@mui/material/TablePagination';
-import Typography from '@mui/material/Typography';
 import { useState } from 'react';
-import { ErrorPanel } from '../../../components/errors/error-panel';
+import { DataTable } from '../../../components/data-table/data-table';
+import { ListPage } from '../../../components/layouts/list-page';
 import { ROLE_LABELS } from '../../../config/roles';
 import { useUser } from '../../../lib/auth';
 import { useUsers } from '../api/get-users';
 import { type UpdateUserVariables, useUpdateUser } from '../api/update-user';
 import { ConfirmChangeDialog, type PendingChange } from '../components/confirm-change-dialog';
 import { UsersFilters } from '../components/users-filters';
-import { UsersTable } from '../components/users-table';
-import { PAGE_SIZES, useUsersSearchParams } from '../hooks/use-users-search-params';
+import { userColumns } from '../components/users-table';
+import { useUsersSearchParams } from '../hooks/use-users-search-params';
+import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 
 interface Pending extends PendingChange {
   variables: UpdateUserVariables;
@@ -24,8 +20,8 @@ interface Pending extends PendingChange {
 /** Supervisors: everyone with an account, their roles and whether they may sign in. */
 export function PeopleRoute() {
   const me = useUser();
-  const { params, status, update } = useUsersSearchParams();
-  const users = useUsers(params);
+  const { params, query, set, tableProps } = useUsersSearchParams();
+  const users = useUsers(query);
   const updateUser = useUpdateUser();
   const [pending, setPending] = useState<Pending | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
@@ -69,10 +65,6 @@ export function PeopleRoute() {
     );
   };
 
-  const total = users.data?.total ?? 0;
-  // A page past the end (a stale link, or the last row filtered away) shows the last page instead.
-  const pageIndex = Math.min(params.page - 1, Math.max(0, Math.ceil(total / params.pageSize) - 1));
-
   const confirm = () => {
     if (!pending) return;
     updateUser.mutate(pending.variables, {
@@ -84,50 +76,29 @@ export function PeopleRoute() {
   };
 
   return (
-    <Box sx={{ maxWidth: 1200 }}>
-      <title>People · Kerfwright</title>
-      <Typography variant="h1" sx={{ mb: 1 }}>
-        People
-      </Typography>
-      <Typography color="text.secondary" sx={{ mb: 3 }}>
-        Everyone with a Kerfwright account. Change a role or deactivate an account; every change is recorded.
-      </Typography>
-
-      <UsersFilters q={params.q ?? ''} role={params.role ?? 'all'} status={status} onChange={update} />
-
-      {users.isError ? (
-        <ErrorPanel
-          title="The list of people could not be loaded"
-          error={users.error}
-          onRetry={() => void users.refetch()}
+    <ListPage
+      title="People"
+      intro="Everyone with a Kerfwright account. Change a role or deactivate an account; every change is recorded."
+      filters={<UsersFilters q={params.q ?? ''} role={params.role} status={params.status} onChange={set} />}
+      query={users}
+      errorTitle="The list of people could not be loaded"
+      table={
+        <DataTable
+          label="People"
+          columns={userColumns({ currentUserId: me.id, onRoleChange: askRole, onActiveChange: askActive })}
+          rows={users.data?.items}
+          rowKey={(user) => user.id}
+          rowProps={(user) => ({ 'data-testid': `person-${user.email}` })}
+          loadingRows={Math.min(params.pageSize, 5)}
+          minWidth={760}
+          emptyText="No one matches these filters."
+          fetching={users.isFetching}
+          fetchingLabel="Loading people"
+          total={users.data?.total ?? 0}
+          {...tableProps}
         />
-      ) : (
-        <Paper variant="outlined" sx={{ position: 'relative' }}>
-          <Box sx={{ height: 4 }}>
-            {users.isFetching ? <LinearProgress aria-label="Loading people" /> : null}
-          </Box>
-          <UsersTable
-            users={users.data?.items}
-            loadingRows={Math.min(params.pageSize, 5)}
-            sort={params.sort}
-            currentUserId={me.id}
-            onSort={(sort) => update({ sort })}
-            onRoleChange={askRole}
-            onActiveChange={askActive}
-          />
-          <TablePagination
-            component="div"
-            count={total}
-            page={pageIndex}
-            rowsPerPage={params.pageSize}
-            rowsPerPageOptions={[...PAGE_SIZES]}
-            labelRowsPerPage="Rows per page"
-            onPageChange={(_, page) => update({ page: page + 1 })}
-            onRowsPerPageChange={(event) => update({ pageSize: Number(event.target.value) })}
-          />
-        </Paper>
-      )}
-
+      }
+    >
       <ConfirmChangeDialog
         change={pending}
         busy={updateUser.isPending}
@@ -135,13 +106,7 @@ export function PeopleRoute() {
         onConfirm={confirm}
         onCancel={() => setPending(null)}
       />
-      <Snackbar
-        open={notice !== null}
-        autoHideDuration={5000}
-        onClose={() => setNotice(null)}
-        message={notice}
-        anchorOrigin={{ vertical: 'bottom', horizontal: 'center' }}
-      />
-    </Box>
+      <NoticeSnackbar notice={notice} onClose={() => setNotice(null)} />
+    </ListPage>
   );
 }

@@ -1,0 +1,103 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import {
+  COLOUR_RULES,
+  type ColourRuleName,
+  JOB_ACTIONS,
+  JOB_STATES,
+  type JobAction,
+  type JobDetailView,
+  type JobPreparation,
+  type JobState,
+  type JobTransitionView,
+  type JobView,
+  type Page,
+} from '@kerfwright/contracts';
+
+/** OpenAPI shapes of the job answers (the types themselves live in @kerfwright/contracts). */
+export class SheetDto {
+  @ApiProperty() widthMm: number;
+  @ApiProperty() heightMm: number;
+}
+
+export class JobEstimateDto {
+  @ApiProperty() cutLengthMm: number;
+  @ApiProperty() markLengthMm: number;
+  @ApiProperty() pierces: number;
+  @ApiProperty() minutes: number;
+  @ApiProperty() machineCost: number;
+  @ApiProperty() materialCost: number;
+  @ApiProperty() currency: string;
+}
+
+export class JobPreparationDto implements JobPreparation {
+  @ApiProperty() thicknessMm: number;
+  @ApiProperty({ enum: ['laser', 'router'] }) machineKind: 'laser' | 'router';
+  @ApiPropertyOptional() kerfMm?: number;
+  @ApiPropertyOptional() toolDiameterMm?: number;
+  @ApiProperty() pieceCount: number;
+  @ApiProperty() crossingCount: number;
+  @ApiProperty() diameterMm: number;
+  @ApiProperty() sheetCount: number;
+  @ApiProperty({ type: SheetDto }) sheet: SheetDto;
+  @ApiPropertyOptional() marginMm?: number;
+  @ApiPropertyOptional() gapMm?: number;
+  @ApiPropertyOptional({ enum: COLOUR_RULES }) colourRule?: ColourRuleName;
+  @ApiProperty({ description: 'Pieces’ area over the sheets’ area, 0–1' }) utilisation: number;
+  @ApiProperty({ type: [String] }) warnings: string[];
+  @ApiPropertyOptional({ type: JobEstimateDto }) estimate?: JobEstimateDto;
+}
+
+export class JobViewDto implements JobView {
+  @ApiProperty({ format: 'uuid' }) id: string;
+  @ApiProperty({ enum: JOB_STATES }) state: JobState;
+  @ApiProperty({ format: 'uuid' }) designId: string;
+  @ApiProperty() designName: string;
+  @ApiProperty({ format: 'uuid' }) requesterId: string;
+  @ApiProperty() requesterName: string;
+  @ApiProperty() quantity: number;
+  @ApiProperty() notes: string;
+  @ApiProperty({ type: String, format: 'uuid', nullable: true }) materialId: string | null;
+  @ApiProperty({ type: String, nullable: true }) materialName: string | null;
+  @ApiProperty({ type: [String] }) colours: string[];
+  @ApiProperty({
+    type: String,
+    format: 'uuid',
+    nullable: true,
+    description: 'The exact approved version used',
+  })
+  profileVersionId: string | null;
+  @ApiProperty({ type: String, nullable: true }) profileName: string | null;
+  @ApiProperty({ type: Number, nullable: true }) profileVersionNumber: number | null;
+  @ApiProperty({ type: String, nullable: true }) returnReason: string | null;
+  @ApiProperty({ type: JobPreparationDto, nullable: true }) preparation: JobPreparationDto | null;
+  @ApiProperty({ type: Number, nullable: true }) actualMinutes: number | null;
+  @ApiProperty({ type: Number, nullable: true }) sheetsUsed: number | null;
+  @ApiProperty({ type: Number, nullable: true }) measuredKerfMm: number | null;
+  @ApiProperty({ description: 'Send it back with every action (optimistic locking)' }) version: number;
+  @ApiProperty({ format: 'date-time' }) createdAt: string;
+  @ApiProperty({ format: 'date-time' }) updatedAt: string;
+  @ApiProperty({ enum: JOB_ACTIONS, isArray: true, description: 'Actions the caller may take now' })
+  actions: JobAction[];
+}
+
+export class JobTransitionViewDto implements JobTransitionView {
+  @ApiProperty({ enum: JOB_STATES, nullable: true }) from: JobState | null;
+  @ApiProperty({ enum: JOB_STATES }) to: JobState;
+  @ApiProperty() action: string;
+  @ApiProperty({ type: String, format: 'uuid', nullable: true }) actorId: string | null;
+  @ApiProperty({ type: String, nullable: true }) actorName: string | null;
+  @ApiProperty({ type: String, nullable: true }) reason: string | null;
+  @ApiProperty({ format: 'date-time' }) at: string;
+}
+
+export class JobDetailViewDto extends JobViewDto implements JobDetailView {
+  @ApiProperty({ type: [JobTransitionViewDto], description: 'Every state change, oldest first' })
+  transitions: JobTransitionViewDto[];
+}
+
+export class JobPageDto implements Page<JobView> {
+  @ApiProperty({ type: [JobViewDto] }) items: JobViewDto[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
+}

@@ -1,0 +1,47 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useEffect } from 'react';
+import { useForm } from 'react-hook-form';
+import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
+import { FormTextField } from '../../../components/ui/form-text-field';
+import { type SendBackValues, sendBackSchema } from './send-back-schema';
+
+/** Sends a profile version or a job back; the reason is required and shown to whoever submitted it. */
+export function SendBackDialog(
+  props: FormDialogBaseProps<SendBackValues> & {
+    /** What goes back, e.g. "version 2 of CO2 laser". */
+    subject: string;
+  },
+) {
+  const {
+    register,
+    handleSubmit,
+    reset,
+    formState: { errors },
+  } = useForm<SendBackValues>({ resolver: zodResolver(sendBackSchema), defaultValues: { reason: '' } });
+  useEffect(() => {
+    if (props.open) reset({ reason: '' });
+  }, [props.open, reset]);
+  const submit = handleSubmit((v) => props.onSubmit(v));
+  return (
+    <FormDialog
+      open={props.open}
+      titleId="send-back-title"
+      title={`Send back ${props.subject}`}
+      intro="It goes back with your reason, which its author sees and answers with a changed version."
+      error={props.error}
+      busy={props.busy}
+      submitLabel="Send back with this reason"
+      submitColor="error"
+      onSubmit={submit}
+      onClose={props.onClose}
+    >
+      <FormTextField
+        label="Reason"
+        registration={register('reason')}
+        error={errors.reason}
+        multiline
+        minRows={3}
+      />
+    </FormDialog>
+  );
+}

@@ -1,0 +1,135 @@
+import { type JobView, type MachineProfileSummaryView } from '@kerfwright/contracts';
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { renderApp } from '../../../testing/render-app';
+
+const supervisor = userFixture('supervisor');
+
+const setting = {
+  materialId: 'm-acrylic',
+  materialName: 'Cast acrylic 3 mm',
+  // 3 mm cast acrylic on a CO2 laser: kerf about 0.15–0.23 mm (laser-cutting services' artwork guides, common practice).
+  kerfMm: 0.18,
+  cutSpeedMmS: 12,
+  markSpeedMmS: 250,
+  powerPct: 65,
+  passes: 1,
+  pierceTimeS: 0.3,
+};
+
+const approved = {
+  id: 'v-1',
+  profileId: 'p-laser',
+  number: 1,
+  state: 'approved',
+  bedWidthMm: 600,
+  bedHeightMm: 400,
+  rapidSpeedMmS: 400,
+  hourlyRate: 24,
+  currency: 'EUR',
+  settings: [setting],
+  notes: '',
+  returnReason: null,
+  basedOnNumber: null,
+  lockVersion: 3,
+  submittedAt: '2026-01-02T10:00:00.000Z',
+} as unknown as MachineProfileSummaryView['latest'];
+
+const waiting = {
+  ...approved,
+  id: 'v-2',
+  number: 2,
+  state: 'submitted',
+  lockVersion: 2,
+  settings: [{ ...setting, kerfMm: 0.16 }],
+} as MachineProfileSummaryView['latest'];
+
+const profile: MachineProfileSummaryView = {
+  id: 'p-laser',
+  name: 'CO2 laser, 60 W',
+  kind: 'co2-laser',
+  currentApproved: approved,
+  latest: waiting,
+  createdAt: '2026-01-01T00:00:00.000Z',
+};
+
+const job = {
+  id: 'j-1',
+  state: 'prepared',
+  designName: 'Hexagon star',
+  requesterName: 'Jun Park',
+  quantity: 3,
+  materialName: 'Card stock 300 g/m²',
+  colours: ['saffron', 'teal'],
+  profileName: 'CO2 laser, 60 W',
+  profileVersionNumber: 1,
+  preparation: null,
+  version: 4,
+} as unknown as JobView;
+
+function approvalsApi() {
+  return stubFetch({
+    'GET /api/auth/me': () => json(200, supervisor),
+    'GET /api/machine-profiles': () => json(200, { items: [profile], total: 1, page: 1, pageSize: 100 }),
+    'GET /api/jobs': () => json(200, { items: [job], total: 1, page: 1, pageSize: 100 }),
+    'POST /api/machine-profiles/p-laser/versions/v-2/return': (call) =>
+      json(200, { ...waiting, state: 'draft', returnReason: (call.body as { reason: string }).reason }),
+    'POST /api/jobs/j-1/approve': () => json(200, { ...job, state: 'approved' }),
+  });
+}
+
+describe('Approvals (supervisor)', () => {
+  it('shows only what the waiting version changes against the approved one', async () => {
+    const { calls } = approvalsApi();
+    renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+    const changes = within(card).getAllByTestId('version-change');
+    expect(changes).toHaveLength(1);
+    expect(changes[0]).toHaveTextContent('Cast acrylic 3 mm');
+    expect(changes[0]).toHaveTextContent('Kerf');
+    expect(changes[0]).toHaveTextContent('0.18 mm');
+    expect(changes[0]).toHaveTextContent('0.16 mm');
+    expect(calls.find((c) => c.url.pathname === '/api/machine-profiles')?.url.searchParams.get('state')).toBe(
+      'submitted',
+    );
+    expect(calls.find((c) => c.url.pathname === '/api/jobs')?.url.searchParams.get('state')).toBe('prepared');
+  });
+
+  it('sends a version back only with a reason, and the lockVersion it read', async () => {
+    const { calls } = approvalsApi();
+    const { user } = renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+    await user.click(within(card).getByRole('button', { name: 'Send back' }));
+    const dialog = await screen.findByRole('dialog', { name: /Send back version 2/ });
+    await user.click(within(dialog).getByRole('button', { name: 'Send back with this reason' }));
+    expect(
+      await within(dialog).findByText('Say what must change (at least 3 characters)'),
+    ).toBeInTheDocument();
+    expect(calls.some((c) => c.method === 'POST')).toBe(false);
+    await user.type(within(dialog).getByLabelText('Reason'), 'Test the kerf on a second batch');
+    await user.click(within(dialog).getByRole('button', { name: 'Send back with this reason' }));
+    await waitFor(() => expect(calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(calls.find((c) => c.method === 'POST')?.body).toEqual({
+      lockVersion: 2,
+      reason: 'Test the kerf on a second batch',
+    });
+  });
+
+  it('approves a prepared job with the job version it read', async () => {
+    const { calls } = approvalsApi();
+    const { user } = renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-job');
+    expect(card).toHaveTextContent('Hexagon star × 3');
+    await user.click(within(card).getByRole('button', { name: 'Approve the job' }));
+    await waitFor(() => expect(calls.some((c) => c.url.pathname === '/api/jobs/j-1/approve')).toBe(true));
+    expect(calls.find((c) => c.url.pathname === '/api/jobs/j-1/approve')?.body).toEqual({ version: 4 });
+  });
+
+  it('tells a fabricator that Approvals is not part of their role', async () => {
+    stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('fabricator')) });
+    renderApp('/approvals', { token: 't' });
+    expect(await screen.findByText('This page is not part of your role')).toBeInTheDocument();
+  });
+});

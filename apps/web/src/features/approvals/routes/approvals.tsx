@@ -1,0 +1,215 @@
+import { type JobView, type MachineProfileSummaryView } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Card from '@mui/material/Card';
+import CardContent from '@mui/material/CardContent';
+import Chip from '@mui/material/Chip';
+import Typography from '@mui/material/Typography';
+import { useState } from 'react';
+import { RouterLink } from '../../../components/ui/router-link';
+import { paths } from '../../../config/paths';
+import { errorMessage } from '../../../lib/api-client';
+import { KIND_LABELS } from '../../machine-profiles/components/profile-labels';
+import { useDecideJob } from '../api/decide-job';
+import { useDecideProfileVersion } from '../api/decide-profile-version';
+import { useWaitingJobs } from '../api/get-waiting-jobs';
+import { useWaitingVersions } from '../api/get-waiting-versions';
+import { DecisionActions } from '../components/decision-actions';
+import { SendBackDialog } from '../components/send-back-dialog';
+import { VersionChanges } from '../components/version-changes';
+import { WaitingSection } from '../components/waiting-section';
+import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
+
+const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+type SendingBack =
+  { kind: 'version'; profile: MachineProfileSummaryView } | { kind: 'job'; job: JobView } | null;
+
+/** The waiting version a decision is about, and the lockVersion it was read at. */
+const decidingOn = (p: MachineProfileSummaryView) => ({
+  profileId: p.id,
+  versionId: p.latest.id,
+  lockVersion: p.latest.lockVersion,
+});
+
+/** Supervisors: machine profile versions and jobs waiting for a decision, each approved or sent back. */
+export function ApprovalsRoute() {
+  const versions = useWaitingVersions();
+  const jobs = useWaitingJobs();
+  const decideVersion = useDecideProfileVersion();
+  const decideJob = useDecideJob();
+  const [sendingBack, setSendingBack] = useState<SendingBack>(null);
+  const [notice, setNotice] = useState<string | null>(null);
+
+  const approveVersion = (p: MachineProfileSummaryView) => {
+    decideJob.reset();
+    decideVersion.mutate(
+      { ...decidingOn(p), decision: 'approve' },
+      {
+        onSuccess: (v) => setNotice(`Version ${v.number} of ${p.name} is approved; jobs use it from now on.`),
+      },
+    );
+  };
+  const approveJob = (j: JobView) => {
+    decideVersion.reset();
+    decideJob.mutate(
+      { jobId: j.id, version: j.version, decision: 'approve' },
+      { onSuccess: () => setNotice(`${j.designName} is approved for release.`) },
+    );
+  };
+  const sendBack = (reason: string) => {
+    if (!sendingBack) return;
+    if (sendingBack.kind === 'version') {
+      const p = sendingBack.profile;
+      decideVersion.mutate(
+        { ...decidingOn(p), decision: 'return', reason },
+        {
+          onSuccess: () => {
+            setSendingBack(null);
+            setNotice(`Version ${p.latest.number} of ${p.name} is back with its author.`);
+          },
+        },
+      );
+    } else {
+      const j = sendingBack.job;
+      decideJob.mutate(
+        { jobId: j.id, version: j.version, decision: 'return', reason },
+        {
+          onSuccess: () => {
+            setSendingBack(null);
+            setNotice(`${j.designName} is sent back.`);
+          },
+        },
+      );
+    }
+  };
+
+  const pendingError = sendingBack ? null : (decideVersion.error ?? decideJob.error);
+  const dialogMutation = sendingBack?.kind === 'job' ? decideJob : decideVersion;
+
+  return (
+    <Box sx={{ maxWidth: 1100 }} data-testid="approvals-page">
+      <title>Approvals · Kerfwright</title>
+      <Typography variant="h1" sx={{ mb: 1 }}>
+        Approvals
+      </Typography>
+      <Typography color="text.secondary" sx={{ mb: 3 }}>
+        What waits for a supervisor: machine profile versions a fabricator submitted, and jobs a fabricator
+        prepared. Approve, or send back with a reason the author will see.
+      </Typography>
+      {pendingError ? (
+        <Alert severity="error" role="alert" sx={{ mb: 2 }}>
+          {errorMessage(pendingError)}
+        </Alert>
+      ) : null}
+
+      <WaitingSection
+        heading="Machine profile versions"
+        query={versions}
+        errorTitle="The waiting versions could not be loaded"
+        emptyText="No machine profile version is waiting."
+        spacing={3}
+      >
+        {(p) => (
+          <Card key={p.latest.id} variant="outlined" data-testid={`waiting-version-${p.name}`}>
+            <CardContent>
+              <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap', mb: 1 }}>
+                <Typography variant="h3" sx={{ fontSize: '1.1rem', fontWeight: 600 }}>
+                  <RouterLink to={paths.machineProfile.getHref(p.id)}>{p.name}</RouterLink>, version{' '}
+                  {p.latest.number}
+                </Typography>
+                <Chip size="small" variant="outlined" label={KIND_LABELS[p.kind]} />
+              </Box>
+              <Typography variant="body2" color="text.secondary" sx={{ mb: 2 }}>
+                Submitted {p.latest.submittedAt ? dateFormat.format(new Date(p.latest.submittedAt)) : ''}.{' '}
+                {p.currentApproved
+                  ? `Compared with the approved version ${p.currentApproved.number}; only changed values are listed.`
+                  : 'No version is approved yet: every value is new.'}
+              </Typography>
+              <VersionChanges approved={p.currentApproved} waiting={p.latest} />
+              {p.latest.notes ? (
+                <Typography variant="body2" sx={{ mt: 2 }}>
+                  Notes: {p.latest.notes}
+                </Typography>
+              ) : null}
+            </CardContent>
+            <DecisionActions
+              approveLabel={`Approve version ${p.latest.number}`}
+              approving={decideVersion.isPending && decideVersion.variables.versionId === p.latest.id}
+              onApprove={() => approveVersion(p)}
+              onSendBack={() => {
+                decideVersion.reset();
+                setSendingBack({ kind: 'version', profile: p });
+              }}
+            />
+          </Card>
+        )}
+      </WaitingSection>
+
+      <WaitingSection
+        heading="Jobs"
+        query={jobs}
+        errorTitle="The waiting jobs could not be loaded"
+        emptyText="No prepared job is waiting."
+      >
+        {(j) => {
+          const prep = j.preparation;
+          return (
+            <Card key={j.id} variant="outlined" data-testid="waiting-job">
+              <CardContent>
+                <Typography variant="h3" sx={{ fontSize: '1.1rem', fontWeight: 600, mb: 1 }}>
+                  <RouterLink to={paths.job.getHref(j.id)}>{j.designName}</RouterLink> × {j.quantity}
+                </Typography>
+                <Typography variant="body2">
+                  For {j.requesterName}. {j.materialName ?? 'No material'} (
+                  {j.colours.join(', ') || 'no colour'}) on {j.profileName ?? 'no machine'}
+                  {j.profileVersionNumber !== null ? `, version ${j.profileVersionNumber}` : ''}.
+                </Typography>
+                {prep ? (
+                  <Typography variant="body2" color="text.secondary">
+                    {prep.pieceCount} pieces on {prep.sheetCount} sheet(s) of {prep.sheet.widthMm} ×{' '}
+                    {prep.sheet.heightMm} mm, {(prep.utilisation * 100).toFixed(0)} % used
+                    {prep.estimate
+                      ? `; about ${prep.estimate.minutes.toFixed(0)} min, ${(prep.estimate.machineCost + prep.estimate.materialCost).toFixed(2)} ${prep.estimate.currency}`
+                      : ''}
+                    .
+                  </Typography>
+                ) : null}
+                {prep?.warnings.length ? (
+                  <Alert severity="warning" sx={{ mt: 1 }}>
+                    {prep.warnings.join(' ')}
+                  </Alert>
+                ) : null}
+              </CardContent>
+              <DecisionActions
+                approveLabel="Approve the job"
+                approving={decideJob.isPending && decideJob.variables.jobId === j.id}
+                onApprove={() => approveJob(j)}
+                onSendBack={() => {
+                  decideJob.reset();
+                  setSendingBack({ kind: 'job', job: j });
+                }}
+              />
+            </Card>
+          );
+        }}
+      </WaitingSection>
+
+      <SendBackDialog
+        open={sendingBack !== null}
+        subject={
+          sendingBack?.kind === 'version'
+            ? `version ${sendingBack.profile.latest.number} of ${sendingBack.profile.name}`
+            : sendingBack?.kind === 'job'
+              ? `the job ${sendingBack.job.designName}`
+              : ''
+        }
+        busy={dialogMutation.isPending}
+        error={dialogMutation.error}
+        onSubmit={(v) => sendBack(v.reason)}
+        onClose={() => setSendingBack(null)}
+      />
+      <NoticeSnackbar notice={notice} onClose={() => setNotice(null)} />
+    </Box>
+  );
+}

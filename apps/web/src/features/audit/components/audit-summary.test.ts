@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import { auditSummary, changedFields } from './audit-summary';
+
+describe('audit summaries', () => {
+  it('names the record and what happened to it', () => {
+    expect(
+      auditSummary({
+        action: 'material.create',
+        entityType: 'material',
+        before: null,
+        after: { name: 'Birch plywood 3 mm', version: 1 },
+      }),
+    ).toBe('Material “Birch plywood 3 mm” created');
+  });
+
+  it('gives a version sent back its state change and reason', () => {
+    expect(
+      auditSummary({
+        action: 'machine-profile-version.return',
+        entityType: 'machine-profile-version',
+        before: { number: 2, state: 'submitted', returnReason: null, lockVersion: 2 },
+        after: { number: 2, state: 'draft', returnReason: 'Measure two more coupons', lockVersion: 3 },
+      }),
+    ).toBe('Profile version “version 2” sent back (submitted → draft; reason: Measure two more coupons)');
+  });
+
+  it('lists the fields an update changed, leaving out bookkeeping fields', () => {
+    const before = { name: 'Felt', colours: ['grey'], version: 1, updatedAt: 'a' };
+    const after = { name: 'Felt', colours: ['grey', 'moss'], version: 2, updatedAt: 'b' };
+    expect(changedFields(before, after)).toEqual(['colours']);
+    expect(auditSummary({ action: 'material.update', entityType: 'material', before, after })).toBe(
+      'Material “Felt” changed (changed colours)',
+    );
+  });
+});

@@ -1,0 +1,104 @@
+import { type AuditEventView } from '@kerfwright/contracts';
+
+/** What each kind of record is called on screen. */
+export const ENTITY_LABELS: Record<string, string> = {
+  material: 'Material',
+  'machine-profile': 'Machine profile',
+  'machine-profile-version': 'Profile version',
+  'kerf-record': 'Kerf record',
+  kerf_record: 'Kerf record',
+  design: 'Design',
+  job: 'Job',
+  user: 'Person',
+  safety: 'Safety',
+};
+
+const VERBS: Record<string, string> = {
+  create: 'created',
+  register: 'registered',
+  update: 'changed',
+  delete: 'deleted',
+  duplicate: 'duplicated',
+  submit: 'submitted for approval',
+  approve: 'approved',
+  return: 'sent back',
+  retire: 'retired',
+  adopt: 'adopted into a draft',
+  request: 'requested',
+  prepare: 'prepared',
+  release: 'released',
+  cut: 'recorded as cut',
+  close: 'closed',
+  reopen: 'reopened',
+  acknowledge: 'notices acknowledged',
+  'local-rules': 'local rules changed',
+};
+
+/** Fields that change on every write and say nothing to a reader. */
+const QUIET = new Set(['version', 'lockVersion', 'updatedAt', 'createdAt', 'id']);
+
+type Fields = Record<string, unknown>;
+
+function fields(value: unknown): Fields | null {
+  return typeof value === 'object' && value !== null && !Array.isArray(value) ? (value as Fields) : null;
+}
+
+function text(value: unknown): string | null {
+  return typeof value === 'string' && value.trim() ? value.trim() : null;
+}
+
+function short(value: string, max = 120): string {
+  return value.length > max ? `${value.slice(0, max - 1)}…` : value;
+}
+
+/** The name of the record the event concerns, as far as its before/after snapshots tell. */
+function subjectOf(before: Fields | null, after: Fields | null): string | null {
+  for (const snapshot of [after, before]) {
+    if (!snapshot) continue;
+    const name =
+      text(snapshot.name) ??
+      text(snapshot.designName) ??
+      text(snapshot.displayName) ??
+      text(snapshot.materialName) ??
+      text(snapshot.email);
+    if (name) return name;
+    if (typeof snapshot.number === 'number') return `version ${snapshot.number}`;
+  }
+  return null;
+}
+
+/** The top-level fields whose value differs between the two snapshots. */
+export function changedFields(before: Fields | null, after: Fields | null): string[] {
+  if (!before || !after) return [];
+  const keys = new Set([...Object.keys(before), ...Object.keys(after)]);
+  return [...keys].filter((k) => !QUIET.has(k) && JSON.stringify(before[k]) !== JSON.stringify(after[k]));
+}
+
+/**
+ * One line saying what an audit event did, built from its action and its before/after snapshots:
+ * "Material “Birch plywood 3 mm” created", "Profile version “version 2” sent back: bed too small".
+ */
+export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | 'before' | 'after'>): string {
+  const before = fields(e.before);
+  const after = fields(e.after);
+  const step = e.action.slice(e.action.indexOf('.') + 1);
+  const verb = VERBS[step] ?? step.replace(/[-_]/g, ' ');
+  const what = ENTITY_LABELS[e.entityType] ?? e.entityType;
+  const subject = subjectOf(before, after);
+  let line = subject ? `${what} “${subject}” ${verb}` : `${what} ${verb}`;
+
+  const details: string[] = [];
+  const stateBefore = text(before?.state);
+  const stateAfter = text(after?.state);
+  if (stateAfter && stateBefore && stateBefore !== stateAfter) details.push(`${stateBefore} → ${stateAfter}`);
+  const reason = text(after?.returnReason) ?? text(after?.reason);
+  if (reason && (step === 'return' || stateAfter === 'returned')) details.push(`reason: ${short(reason)}`);
+  if (step === 'update' || step === 'adopt') {
+    const changed = changedFields(before, after);
+    if (changed.length) details.push(`changed ${changed.join(', ')}`);
+  }
+  if (typeof after?.kerfMm === 'number' && e.entityType.startsWith('kerf'))
+    details.push(`${after.kerfMm} mm`);
+  if (details.length) line += ` (${details.join('; ')})`;
+  return line;
+}

@@ -1,0 +1,63 @@
+import { type AuditEventView } from '@kerfwright/contracts';
+import Link from '@mui/material/Link';
+import Typography from '@mui/material/Typography';
+import { type DataTableColumn } from '../../../components/data-table/data-table';
+import { auditSummary, ENTITY_LABELS } from './audit-summary';
+
+const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
+
+interface AuditColumnsOptions {
+  onActor: (actorId: string, name: string) => void;
+  onEntity: (entityType: string, entityId: string) => void;
+}
+
+/** One row per recorded write: who, when, what action, on which record, and what it did. */
+export function auditColumns({
+  onActor,
+  onEntity,
+}: AuditColumnsOptions): DataTableColumn<AuditEventView, 'createdAt'>[] {
+  return [
+    {
+      id: 'when',
+      header: 'When',
+      sortField: 'createdAt',
+      cellSx: { whiteSpace: 'nowrap' },
+      render: (e) => dateFormat.format(new Date(e.createdAt)),
+    },
+    {
+      id: 'who',
+      header: 'Who',
+      render: (e) =>
+        e.actorId ? (
+          <Link
+            component="button"
+            type="button"
+            onClick={() => onActor(e.actorId!, e.actorName ?? 'this person')}
+            title="Show only this person's actions"
+          >
+            {e.actorName ?? 'Removed account'}
+          </Link>
+        ) : (
+          <Typography variant="body2" color="text.secondary">
+            System
+          </Typography>
+        ),
+    },
+    { id: 'action', header: 'Action', render: (e) => <code>{e.action}</code> },
+    {
+      id: 'record',
+      header: 'Record',
+      render: (e) => (
+        <Link
+          component="button"
+          type="button"
+          onClick={() => onEntity(e.entityType, e.entityId)}
+          title="Show only this record's history"
+        >
+          {ENTITY_LABELS[e.entityType] ?? e.entityType}
+        </Link>
+      ),
+    },
+    { id: 'what', header: 'What happened', cellSx: { overflowWrap: 'anywhere' }, render: auditSummary },
+  ];
+}

@@ -1,0 +1,74 @@
+import { type AuditEventView } from '@kerfwright/contracts';
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { renderApp } from '../../../testing/render-app';
+
+const supervisor = userFixture('supervisor');
+const fabricatorId = '00000000-0000-4000-8000-000000000001';
+
+const events: AuditEventView[] = [
+  {
+    id: '12',
+    actorId: fabricatorId,
+    actorName: 'Theo Lindqvist',
+    action: 'machine-profile-version.submit',
+    entityType: 'machine-profile-version',
+    entityId: 'v-2',
+    before: { number: 2, state: 'draft' },
+    after: { number: 2, state: 'submitted' },
+    requestId: 'r1',
+    createdAt: '2026-02-01T10:00:00.000Z',
+  },
+  {
+    id: '11',
+    actorId: fabricatorId,
+    actorName: 'Theo Lindqvist',
+    action: 'material.create',
+    entityType: 'material',
+    entityId: 'm-1',
+    before: null,
+    after: { name: 'Poplar plywood 4 mm' },
+    requestId: 'r0',
+    createdAt: '2026-02-01T09:00:00.000Z',
+  },
+];
+
+describe('Audit trail (supervisor)', () => {
+  it('lists who did what, and asks the API for the chosen order and filters', async () => {
+    const { calls } = stubFetch({
+      'GET /api/auth/me': () => json(200, supervisor),
+      'GET /api/audit': () => json(200, { items: events, total: 2, page: 1, pageSize: 25 }),
+    });
+    const { user } = renderApp('/audit', { token: 't' });
+    const rows = await screen.findAllByTestId('audit-event');
+    expect(rows[0]).toHaveTextContent('Theo Lindqvist');
+    expect(rows[0]).toHaveTextContent(
+      'Profile version “version 2” submitted for approval (draft → submitted)',
+    );
+    expect(rows[1]).toHaveTextContent('Material “Poplar plywood 4 mm” created');
+    expect(calls.at(-1)?.url.searchParams.get('sort')).toBe('-createdAt');
+
+    await user.click(screen.getByRole('button', { name: 'When' }));
+    await waitFor(() => expect(calls.at(-1)?.url.searchParams.get('sort')).toBe('createdAt'));
+
+    await user.click(screen.getByRole('combobox', { name: 'Record type' }));
+    await user.click(await screen.findByRole('option', { name: 'Material' }));
+    await waitFor(() => expect(calls.at(-1)?.url.searchParams.get('entityType')).toBe('material'));
+
+    await user.type(screen.getByRole('searchbox', { name: 'Action starts with' }), 'material.');
+    await waitFor(() => expect(calls.at(-1)?.url.searchParams.get('action')).toBe('material.'));
+
+    await user.click(within(rows[1]!).getByRole('button', { name: 'Theo Lindqvist' }));
+    await waitFor(() => expect(calls.at(-1)?.url.searchParams.get('actorId')).toBe(fabricatorId));
+    expect(screen.getByText('Person: Theo Lindqvist')).toBeInTheDocument();
+  });
+
+  it('is not part of a fabricator’s role', async () => {
+    const { calls } = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('fabricator')) });
+    renderApp('/audit', { token: 't' });
+    expect(await screen.findByText('This page is not part of your role')).toBeInTheDocument();
+    expect(calls.some((c) => c.url.pathname === '/api/audit')).toBe(false);
+  });
+});

@@ -1,0 +1,117 @@
+import { type DesignReport } from '@kerfwright/contracts';
+import MenuItem from '@mui/material/MenuItem';
+import Paper from '@mui/material/Paper';
+import Stack from '@mui/material/Stack';
+import Tab from '@mui/material/Tab';
+import Tabs from '@mui/material/Tabs';
+import TextField from '@mui/material/TextField';
+import { memo, useMemo } from 'react';
+import { CrossingTable } from './crossing-table';
+import { PieceView2d } from './piece-view-2d';
+import { ReportIssues } from './report-issues';
+
+interface StudioDetailsPanelProps {
+  report: DesignReport;
+  pieceColour: Record<string, number>;
+  tab: number;
+  onTab: (tab: number) => void;
+  selectedPiece: string | undefined;
+  onSelectPiece: (id: string) => void;
+  formatLength: (mm: number) => string;
+}
+
+/** One piece in 2D, the crossings and the validity report. Memoised like the preview panel. */
+export const StudioDetailsPanel = memo(function StudioDetailsPanel({
+  report,
+  pieceColour,
+  tab,
+  onTab,
+  selectedPiece,
+  onSelectPiece,
+  formatLength: fmt,
+}: StudioDetailsPanelProps) {
+  const piece = report.pieces.find((p) => p.id === selectedPiece) ?? report.pieces[0];
+  const flaggedPieces = useMemo(
+    () => new Set([...report.errors, ...report.warnings].flatMap((i) => i.pieces)),
+    [report],
+  );
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }}>
+      <DetailTabs
+        tab={tab}
+        onTab={onTab}
+        crossings={report.crossings.length}
+        errors={report.errors.length}
+        warnings={report.warnings.length}
+      />
+      {tab === 0 && piece ? (
+        <Stack spacing={1}>
+          <TextField
+            select
+            size="small"
+            label="Piece"
+            value={piece.id}
+            onChange={(e) => onSelectPiece(e.target.value)}
+            sx={{ maxWidth: 200 }}
+          >
+            {report.pieces.map((p) => (
+              <MenuItem key={p.id} value={p.id}>
+                {p.id}
+              </MenuItem>
+            ))}
+          </TextField>
+          <PieceView2d
+            piece={piece}
+            colourIndex={pieceColour[piece.id]}
+            flagged={flaggedPieces.has(piece.id)}
+            formatLength={fmt}
+          />
+          <ReportIssues
+            errors={report.errors.filter((i) => i.pieces.includes(piece.id))}
+            warnings={report.warnings.filter((i) => i.pieces.includes(piece.id))}
+            onSelectPiece={onSelectPiece}
+            limit={4}
+          />
+          <CrossingTable crossings={report.crossings} pieceId={piece.id} formatLength={fmt} />
+        </Stack>
+      ) : null}
+      {tab === 1 ? <CrossingTable crossings={report.crossings} formatLength={fmt} /> : null}
+      {tab === 2 ? (
+        <ReportIssues
+          errors={report.errors}
+          warnings={report.warnings}
+          onSelectPiece={(id) => {
+            onSelectPiece(id);
+            onTab(0);
+          }}
+        />
+      ) : null}
+    </Paper>
+  );
+});
+
+/**
+ * The tab bar, memoised on its counts: MUI's tabs measure themselves (a forced layout) after each render,
+ * which an edit that keeps the counts need not pay.
+ */
+const DetailTabs = memo(function DetailTabs({
+  tab,
+  onTab,
+  crossings,
+  errors,
+  warnings,
+}: {
+  tab: number;
+  onTab: (tab: number) => void;
+  crossings: number;
+  errors: number;
+  warnings: number;
+}) {
+  return (
+    <Tabs value={tab} onChange={(_, t: number) => onTab(t)} sx={{ mb: 2 }}>
+      <Tab label="Piece" />
+      <Tab label={`Crossings (${crossings})`} />
+      <Tab label={`Report (${errors} errors, ${warnings} warnings)`} />
+    </Tabs>
+  );
+});

@@ -1,0 +1,75 @@
+import { type DesignView } from '@kerfwright/contracts';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Stack from '@mui/material/Stack';
+import ToggleButton from '@mui/material/ToggleButton';
+import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
+import Typography from '@mui/material/Typography';
+import { memo } from 'react';
+import { type LengthUnit } from '../../../lib/units';
+
+interface StudioHeaderProps {
+  design: DesignView | null;
+  unit: LengthUnit;
+  onUnit: (unit: LengthUnit) => void;
+  onSave: () => void;
+  saving: boolean;
+  onDuplicate: () => void;
+  duplicating: boolean;
+  onRequest: () => void;
+  /** Why a cut job cannot be requested now (unsaved changes, errors), or null when it can. */
+  requestBlocked: 'unsaved' | 'invalid' | null;
+}
+
+/** The studio's title, unit switch and actions. Memoised: typing in the form leaves it alone. */
+export const StudioHeader = memo(function StudioHeader({
+  design,
+  unit,
+  onUnit,
+  onSave,
+  saving,
+  onDuplicate,
+  duplicating,
+  onRequest,
+  requestBlocked,
+}: StudioHeaderProps) {
+  return (
+    <Stack direction={{ xs: 'column', md: 'row' }} spacing={2} sx={{ mb: 2, alignItems: { md: 'center' } }}>
+      <Box sx={{ flex: 1 }}>
+        <Typography variant="h1">Design studio</Typography>
+        <Typography color="text.secondary">
+          {design ? `${design.name} · version ${design.version} · by ${design.ownerName}` : 'A new design'}
+        </Typography>
+      </Box>
+      <ToggleButtonGroup
+        size="small"
+        exclusive
+        value={unit}
+        onChange={(_, u: LengthUnit | null) => u && onUnit(u)}
+        aria-label="Units"
+      >
+        <ToggleButton value="mm">mm</ToggleButton>
+        <ToggleButton value="in">inch</ToggleButton>
+      </ToggleButtonGroup>
+      <Button variant="contained" onClick={onSave} disabled={saving}>
+        {design ? 'Save' : 'Save design'}
+      </Button>
+      {design ? (
+        <>
+          <Button variant="outlined" onClick={onDuplicate} disabled={duplicating}>
+            Duplicate
+          </Button>
+          <Button
+            variant="outlined"
+            color="secondary"
+            disabled={requestBlocked !== null}
+            title={requestBlocked === 'unsaved' ? 'Save the changes first' : undefined}
+            onClick={onRequest}
+          >
+            Request a cut job
+          </Button>
+        </>
+      ) : null}
+    </Stack>
+  );
+});

@@ -1,0 +1,188 @@
+import { type DesignSpecInput } from '@kerfwright/contracts';
+import { buildWithLayout, type ColourRule, layoutModel } from '@kerfwright/geometry';
+import Alert from '@mui/material/Alert';
+import Button from '@mui/material/Button';
+import LinearProgress from '@mui/material/LinearProgress';
+import Paper from '@mui/material/Paper';
+import Stack from '@mui/material/Stack';
+import TextField from '@mui/material/TextField';
+import Typography from '@mui/material/Typography';
+import { memo, useMemo, useState } from 'react';
+import { useBackgroundValue } from '../../../lib/use-background-value';
+import { type LengthUnit, formatLength } from '../../../lib/units';
+import { SheetLayoutView } from '../../layout/components/sheet-layout-view';
+import { estimateSheets } from '../../layout/lib/estimate-sheets';
+import { type SheetView, sheetViews } from '../../layout/lib/sheet-views';
+import { useMachineProfiles } from '../../jobs/api/get-machine-profiles';
+import { useMaterials } from '../../jobs/api/get-materials';
+import { type BuiltPreview } from '../hooks/use-built-model';
+
+interface StudioSheets {
+  sheets: SheetView[];
+  diameterMm: number;
+  /** fitSheets: the sheets asked for; otherwise null. */
+  sheetsAsked: number | null;
+  failure: string | null;
+}
+
+/**
+ * Lays the studio's model out on the stock sheet, in the browser, after the preview has been drawn (never
+ * on the keystroke itself). A fixed or bed-fitted size is laid out as built; "fit to sheets" runs the
+ * library's search for the largest size on N sheets (buildWithLayout), so its diameter is the one found.
+ */
+function layOut(
+  spec: DesignSpecInput,
+  preview: BuiltPreview,
+  colourCount: number,
+  colourRule: ColourRule,
+): StudioSheets {
+  const sheet = spec.stock.sheet as { widthMm: number; heightMm: number };
+  const marginMm = spec.stock.marginMm ?? 0;
+  const gapMm = spec.stock.gapMm ?? 0;
+  if (spec.scale.by === 'fitSheets') {
+    const colours = colourCount > 1 ? { colours: { count: colourCount, rule: colourRule } } : {};
+    const { model, layout } = buildWithLayout({ ...spec, ...colours });
+    const failure = model.report.errors[0]?.message ?? (layout && !layout.ok ? layout.message : null);
+    return {
+      sheets: layout?.ok ? sheetViews(model, layout, { ...sheet, marginMm }) : [],
+      diameterMm: model.report.diameterMm,
+      sheetsAsked: spec.scale.sheets,
+      failure,
+    };
+  }
+  const model = preview.model;
+  if (!model) return { sheets: [], diameterMm: NaN, sheetsAsked: null, failure: preview.failure };
+  const layout = layoutModel(model, {
+    sheet,
+    marginMm,
+    gapMm,
+    colours: { count: colourCount, rule: colourRule },
+    ...(preview.colourPlan ? { colourPlan: preview.colourPlan } : {}),
+  });
+  return {
+    sheets: layout.ok ? sheetViews(model, layout, { ...sheet, marginMm }) : [],
+    diameterMm: model.report.diameterMm,
+    sheetsAsked: null,
+    failure: layout.ok ? null : layout.message,
+  };
+}
+
+export const StudioSheetsPanel = memo(function StudioSheetsPanel({
+  preview,
+  colourCount,
+  colourRule,
+  unit,
+}: {
+  preview: BuiltPreview;
+  colourCount: number;
+  colourRule: ColourRule;
+  unit: LengthUnit;
+}) {
+  const [asked, setAsked] = useState(false);
+  const spec = preview.spec;
+  const fit = spec?.scale.by === 'fitSheets';
+  const on = (asked || fit) && spec !== null && preview.model !== null && !preview.failure;
+  // The preview's key names the spec, colours and rule the preview was built from.
+  const result = useBackgroundValue(
+    on ? preview.key : null,
+    () => layOut(spec as DesignSpecInput, preview, colourCount, colourRule),
+    150,
+  );
+  const fmt = (mm: number) => formatLength(mm, unit);
+  const value = result.value;
+  const sheet = spec?.stock.sheet;
+  // Time and cost need a machine: any approved profile version, with its settings for a material.
+  const profiles = useMachineProfiles(on);
+  const materials = useMaterials(on);
+  const [machineChoice, setMachineChoice] = useState('');
+  const choices = useMemo(
+    () =>
+      (profiles.data?.items ?? []).flatMap((p) =>
+        p.currentApproved
+          ? p.currentApproved.settings.map((st) => ({
+              key: `${p.currentApproved?.id}/${st.materialId}`,
+              label: `${p.name} v${p.currentApproved?.number} · ${st.materialName}`,
+              version: p.currentApproved,
+              setting: st,
+            }))
+          : [],
+      ),
+    [profiles.data],
+  );
+  const choice = choices.find((c) => c.key === machineChoice);
+  const estimate = useMemo(() => {
+    if (!choice?.version || !value || value.sheets.length === 0 || !sheet) return null;
+    const material = materials.data?.items.find((m) => m.id === choice.setting.materialId);
+    const stock = material?.stockSheets.find(
+      (sh) => sh.widthMm === sheet.widthMm && sh.heightMm === sheet.heightMm,
+    );
+    return estimateSheets(value.sheets, choice.version, choice.setting, stock ? stock.pricePerSheet : null);
+  }, [choice, value, sheet, materials.data]);
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }} data-testid="studio-sheets">
+      <Stack direction="row" sx={{ alignItems: 'center', mb: 1 }} spacing={2}>
+        <Typography variant="h2" sx={{ flex: 1 }}>
+          Sheets
+        </Typography>
+        {!fit ? (
+          <Button variant="outlined" onClick={() => setAsked((a) => !a)}>
+            {asked ? 'Hide the sheets' : 'Lay out on sheets'}
+          </Button>
+        ) : null}
+      </Stack>
+      {!on ? (
+        <Typography color="text.secondary">
+          {sheet
+            ? `Lay the pieces out on ${fmt(sheet.widthMm)} × ${fmt(sheet.heightMm)} sheets to see how many this size needs.`
+            : 'Give a stock sheet size to lay the pieces out.'}
+        </Typography>
+      ) : null}
+      {on && result.pending ? <LinearProgress aria-label="Laying out the sheets" sx={{ mb: 1 }} /> : null}
+      {on && result.error ? (
+        <Alert severity="error">
+          {result.error instanceof Error ? result.error.message : String(result.error)}
+        </Alert>
+      ) : null}
+      {on && value ? (
+        <>
+          <Typography sx={{ mb: 1 }} data-testid="sheets-summary">
+            {value.sheetsAsked !== null
+              ? `Largest size on ${value.sheetsAsked} ${value.sheetsAsked === 1 ? 'sheet' : 'sheets'}: diameter ${fmt(value.diameterMm)}, using ${value.sheets.length}.`
+              : `At diameter ${fmt(value.diameterMm)} the pieces need ${value.sheets.length} ${value.sheets.length === 1 ? 'sheet' : 'sheets'}.`}
+          </Typography>
+          {value.failure ? (
+            <Alert severity="error" sx={{ mb: 1 }}>
+              {value.failure}
+            </Alert>
+          ) : null}
+          {choices.length > 0 ? (
+            <TextField
+              select
+              size="small"
+              label="Estimate time and cost with"
+              value={machineChoice}
+              onChange={(e) => setMachineChoice(e.target.value)}
+              slotProps={{ select: { native: true } }}
+              sx={{ mb: 2, minWidth: 320 }}
+            >
+              <option value="">no machine (cut length and pierces only)</option>
+              {choices.map((c) => (
+                <option key={c.key} value={c.key}>
+                  {c.label}
+                </option>
+              ))}
+            </TextField>
+          ) : null}
+          {value.sheets.length > 0 ? (
+            <SheetLayoutView sheets={value.sheets} unit={unit} estimate={estimate} />
+          ) : null}
+          {estimate ? (
+            <Typography variant="body2" color="text.secondary" sx={{ mt: 1 }}>
+              Estimated without label marking, at the approved version&apos;s speeds and hourly rate.
+            </Typography>
+          ) : null}
+        </>
+      ) : null}
+    </Paper>
+  );
+});

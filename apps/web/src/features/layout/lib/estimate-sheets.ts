@@ -1,0 +1,37 @@
+import { type MachineProfileVersionView, type ProfileSetting } from '@kerfwright/contracts';
+import { estimateJob } from '@kerfwright/geometry';
+import { type LayoutEstimateView } from '../components/sheet-layout-view';
+import { type SheetView } from './sheet-views';
+
+/**
+ * The geometry library's estimate for the sheets drawn: cut length, pierces and travel at the speeds a
+ * machine profile version gives for the material, priced at its hourly rate and (when known) the stock
+ * sheet's price. Label marking is not in it (the cut pack's setup sheet has the full figure).
+ */
+export function estimateSheets(
+  sheets: readonly SheetView[],
+  version: Pick<MachineProfileVersionView, 'rapidSpeedMmS' | 'hourlyRate' | 'currency'>,
+  setting: Pick<ProfileSetting, 'cutSpeedMmS' | 'markSpeedMmS' | 'pierceTimeS' | 'passes'>,
+  pricePerSheet: number | null,
+): LayoutEstimateView {
+  const e = estimateJob(
+    sheets.map((sh) => ({ cut: sh.pieces.map((p) => p.outline), mark: [] })),
+    {
+      cutSpeedMmS: setting.cutSpeedMmS,
+      markSpeedMmS: setting.markSpeedMmS,
+      pierceTimeS: setting.pierceTimeS,
+      rapidSpeedMmS: version.rapidSpeedMmS,
+      passes: setting.passes,
+      hourlyRate: version.hourlyRate,
+    },
+    pricePerSheet ?? 0,
+  );
+  return {
+    cutLengthMm: e.cutLengthMm,
+    pierces: e.pierces,
+    minutes: e.minutes,
+    machineCost: e.machineCost,
+    materialCost: pricePerSheet === null ? null : e.materialCost,
+    currency: version.currency,
+  };
+}

@@ -1,0 +1,150 @@
+import { type KerfRecordView } from '@kerfwright/contracts';
+import Box from '@mui/material/Box';
+import Typography from '@mui/material/Typography';
+
+/** A reference line: the kerf (or tool diameter) a profile version holds for the material. */
+export interface KerfReference {
+  label: string;
+  valueMm: number;
+  colour: string;
+  dashed?: boolean;
+}
+
+interface KerfHistoryChartProps {
+  records: readonly KerfRecordView[];
+  references: readonly KerfReference[];
+  /** What the values are ("kerf" or "cut width"), for the labels. */
+  quantity: string;
+  width?: number;
+  height?: number;
+}
+
+const dateFormat = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short' });
+const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' });
+const TWO_DAYS_MS = 2 * 24 * 3600 * 1000;
+const fullDate = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+/** Round steps for an axis: 1, 2 or 5 × a power of ten, giving about `count` ticks. */
+function niceTicks(min: number, max: number, count: number): number[] {
+  const span = max - min || Math.abs(max) || 1;
+  const raw = span / count;
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 5, 10].map((m) => m * power).find((s) => s >= raw) ?? raw;
+  const ticks: number[] = [];
+  for (let t = Math.floor(min / step) * step; t <= max + step / 2; t += step) {
+    ticks.push(Number(t.toFixed(6)));
+  }
+  return ticks;
+}
+
+/**
+ * Measured kerfs of one machine and material over time (dots, oldest left) against the values the profile
+ * holds (horizontal lines). Plain SVG: scales grow to include every point and line, with a little headroom.
+ */
+export function KerfHistoryChart({
+  records,
+  references,
+  quantity,
+  width = 720,
+  height = 280,
+}: KerfHistoryChartProps) {
+  const pad = { left: 56, right: 150, top: 16, bottom: 36 };
+  const innerW = width - pad.left - pad.right;
+  const innerH = height - pad.top - pad.bottom;
+  const values = [...records.map((r) => r.kerfMm), ...references.map((r) => r.valueMm)];
+  if (values.length === 0) {
+    return <Typography color="text.secondary">No measured values yet for this material.</Typography>;
+  }
+  const lo = Math.min(...values);
+  const hi = Math.max(...values);
+  const margin = (hi - lo) * 0.15 || Math.max(hi * 0.1, 0.01);
+  const ticks = niceTicks(Math.max(0, lo - margin), hi + margin, 5);
+  const yMin = ticks[0]!;
+  const yMax = ticks[ticks.length - 1]!;
+  const times = records.map((r) => Date.parse(r.createdAt));
+  const tMin = Math.min(...times);
+  const tMax = Math.max(...times);
+  const x = (t: number) => pad.left + (tMax === tMin ? innerW / 2 : ((t - tMin) / (tMax - tMin)) * innerW);
+  const y = (v: number) => pad.top + innerH - ((v - yMin) / (yMax - yMin || 1)) * innerH;
+  const xTicks = records.length > 0 ? (tMax === tMin ? [tMin] : [tMin, (tMin + tMax) / 2, tMax]) : [];
+  const mean = records.length > 0 ? records.reduce((s, r) => s + r.kerfMm, 0) / records.length : null;
+
+  return (
+    <Box>
+      <svg
+        viewBox={`0 0 ${width} ${height}`}
+        width="100%"
+        role="img"
+        aria-label={`Measured ${quantity} over time: ${records.length} measurement(s)`}
+        data-testid="kerf-chart"
+        style={{ maxWidth: width, fontFamily: 'inherit', fontSize: 12 }}
+      >
+        {ticks.map((t) => (
+          <g key={t}>
+            <line x1={pad.left} x2={pad.left + innerW} y1={y(t)} y2={y(t)} stroke="#e0e0e0" />
+            <text x={pad.left - 8} y={y(t) + 4} textAnchor="end" fill="#555">
+              {t.toFixed(2)}
+            </text>
+          </g>
+        ))}
+        <text transform={`translate(14 ${pad.top + innerH / 2}) rotate(-90)`} textAnchor="middle" fill="#555">
+          {quantity} (mm)
+        </text>
+        <line x1={pad.left} x2={pad.left} y1={pad.top} y2={pad.top + innerH} stroke="#9e9e9e" />
+        <line
+          x1={pad.left}
+          x2={pad.left + innerW}
+          y1={pad.top + innerH}
+          y2={pad.top + innerH}
+          stroke="#9e9e9e"
+        />
+        {xTicks.map((t) => (
+          <text key={t} x={x(t)} y={height - 12} textAnchor="middle" fill="#555">
+            {(tMax - tMin < TWO_DAYS_MS ? timeFormat : dateFormat).format(new Date(t))}
+          </text>
+        ))}
+        {references.map((ref) => (
+          <g key={ref.label} data-testid="kerf-reference">
+            <line
+              x1={pad.left}
+              x2={pad.left + innerW}
+              y1={y(ref.valueMm)}
+              y2={y(ref.valueMm)}
+              stroke={ref.colour}
+              strokeWidth={2}
+              strokeDasharray={ref.dashed ? '6 4' : undefined}
+            />
+            <text x={pad.left + innerW + 6} y={y(ref.valueMm) + 4} fill={ref.colour}>
+              {ref.label}: {ref.valueMm} mm
+            </text>
+          </g>
+        ))}
+        {records.length > 1 ? (
+          <polyline
+            points={records.map((r, i) => `${x(times[i]!)},${y(r.kerfMm)}`).join(' ')}
+            fill="none"
+            stroke="#5c6bc0"
+            strokeOpacity={0.5}
+          />
+        ) : null}
+        {records.map((r, i) => (
+          <circle
+            key={r.id}
+            cx={x(times[i]!)}
+            cy={y(r.kerfMm)}
+            r={5}
+            fill={r.adoptedVersionId ? '#2e7d32' : '#3949ab'}
+            data-testid="kerf-point"
+          >
+            <title>{`${r.kerfMm} mm, ${fullDate.format(new Date(r.createdAt))}${r.notes ? ` — ${r.notes}` : ''}`}</title>
+          </circle>
+        ))}
+      </svg>
+      {mean !== null ? (
+        <Typography variant="body2" color="text.secondary">
+          {records.length} measurement(s); mean {mean.toFixed(3)} mm. Green dots were adopted into a version.
+        </Typography>
+      ) : null}
+    </Box>
+  );
+}

@@ -1,0 +1,75 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { type MachineProfileKind } from '@kerfwright/contracts';
+import Stack from '@mui/material/Stack';
+import { useEffect, useMemo } from 'react';
+import { useForm } from 'react-hook-form';
+import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
+import { FormTextField } from '../../../components/ui/form-text-field';
+import { type KerfRecordValues, kerfRecordSchema } from './kerf-record-schema';
+
+/** Records a kerf measured on a test cut (callipers across a cut slot, or a coupon's lost width). */
+export function KerfRecordDialog(
+  props: FormDialogBaseProps<KerfRecordValues> & {
+    kind: MachineProfileKind;
+    materials: readonly { id: string; name: string }[];
+    defaultMaterialId: string;
+  },
+) {
+  const schema = useMemo(() => kerfRecordSchema(props.kind), [props.kind]);
+  const {
+    register,
+    handleSubmit,
+    reset,
+    formState: { errors },
+  } = useForm<KerfRecordValues>({
+    resolver: zodResolver(schema),
+    defaultValues: { materialId: props.defaultMaterialId, kerfMm: Number.NaN, notes: '' },
+  });
+  useEffect(() => {
+    if (props.open) reset({ materialId: props.defaultMaterialId, kerfMm: Number.NaN, notes: '' });
+  }, [props.open, props.defaultMaterialId, reset]);
+  const router = props.kind === 'cnc-router';
+  const submit = handleSubmit((v) => props.onSubmit(v));
+  return (
+    <FormDialog
+      open={props.open}
+      titleId="kerf-record-title"
+      title={`Record a measured ${router ? 'cut width' : 'kerf'}`}
+      error={props.error}
+      busy={props.busy}
+      submitLabel="Record"
+      onSubmit={submit}
+      onClose={props.onClose}
+    >
+      <Stack spacing={2} sx={{ mt: 1 }}>
+        <FormTextField
+          select
+          slotProps={{ select: { native: true } }}
+          label="Material"
+          registration={register('materialId')}
+          error={errors.materialId}
+        >
+          <option value="">Choose…</option>
+          {props.materials.map((m) => (
+            <option key={m.id} value={m.id}>
+              {m.name}
+            </option>
+          ))}
+        </FormTextField>
+        <FormTextField
+          label={router ? 'Measured cut width (mm)' : 'Measured kerf (mm)'}
+          type="number"
+          registration={register('kerfMm', { valueAsNumber: true })}
+          error={errors.kerfMm}
+          slotProps={{ htmlInput: { step: 'any' } }}
+        />
+        <FormTextField
+          label="Notes (optional)"
+          registration={register('notes')}
+          error={errors.notes}
+          helperText="How it was measured: test coupon, batch, callipers"
+        />
+      </Stack>
+    </FormDialog>
+  );
+}

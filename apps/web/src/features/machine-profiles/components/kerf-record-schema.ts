@@ -1,0 +1,20 @@
+import { MACHINE_PROFILE_LIMITS as L, type MachineProfileKind } from '@kerfwright/contracts';
+import { z } from 'zod';
+
+/**
+ * A measured kerf, in the range the API accepts for the machine kind: a beam's or blade's kerf, or on a
+ * router the measured width of the cut (which becomes the tool diameter when adopted).
+ */
+export function kerfRecordSchema(kind: MachineProfileKind) {
+  const range = kind === 'cnc-router' ? L.toolDiameterMm : L.kerfMm;
+  return z.object({
+    materialId: z.string().min(1, 'Choose the material'),
+    kerfMm: z
+      .number({ error: 'Enter the measured value in mm' })
+      .min(range.min, `At least ${range.min} mm`)
+      .max(range.max, `At most ${range.max} mm`),
+    notes: z.string().trim().max(2000, 'At most 2000 characters'),
+  });
+}
+
+export type KerfRecordValues = z.infer<ReturnType<typeof kerfRecordSchema>>;

@@ -1,0 +1,174 @@
+import { type MaterialView } from '@kerfwright/contracts';
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { renderWithProviders } from '../../../testing/render-app';
+import { KerfRecordDialog } from './kerf-record-dialog';
+import { ProfileFormDialog } from './profile-form-dialog';
+import { EMPTY_PROFILE, toVersionContent } from './profile-form-schema';
+
+const material = (id: string, name: string, laserAllowed: boolean): MaterialView => ({
+  id,
+  name,
+  family: laserAllowed ? 'plywood' : 'pvc',
+  nominalThicknessMm: 3,
+  measuredThicknessMm: null,
+  flexible: false,
+  colours: [],
+  stockSheets: [],
+  laserAllowed,
+  hazardNote: laserAllowed ? '' : 'Chlorinated plastic.',
+  notes: '',
+  version: 1,
+  createdAt: '2026-01-01T00:00:00.000Z',
+  updatedAt: '2026-01-01T00:00:00.000Z',
+});
+const birch = material('m-birch', 'Birch plywood 3 mm', true);
+const pvc = material('m-pvc', 'Expanded PVC 3 mm', false);
+const noop = () => undefined;
+
+function renderForm(onSubmit = vi.fn()) {
+  const utils = renderWithProviders(
+    <ProfileFormDialog
+      open
+      mode="create"
+      initial={EMPTY_PROFILE}
+      materials={[birch, pvc]}
+      busy={false}
+      error={null}
+      onSubmit={onSubmit}
+      onClose={noop}
+    />,
+  );
+  return { ...utils, onSubmit };
+}
+
+async function fillMachine(user: ReturnType<typeof renderForm>['user']) {
+  await user.type(screen.getByLabelText('Profile name'), 'Bay 3 laser');
+  await user.type(screen.getByLabelText('Bed width (mm)'), '600');
+  await user.type(screen.getByLabelText('Bed height (mm)'), '400');
+  await user.type(screen.getByLabelText('Rapid speed (mm/s)'), '300');
+  await user.type(screen.getByLabelText('Hourly rate'), '20');
+}
+
+describe('machine profile form', () => {
+  it('names every missing value at the first try, kerf and power included for a laser', async () => {
+    const { user, onSubmit } = renderForm();
+    await user.click(await screen.findByRole('button', { name: 'Create as draft' }));
+    expect(await screen.findByText('Give the profile a name')).toBeInTheDocument();
+    expect(screen.getByText('Enter the bed width')).toBeInTheDocument();
+    expect(screen.getByText('Choose a material')).toBeInTheDocument();
+    expect(screen.getByText('Enter the kerf')).toBeInTheDocument();
+    expect(screen.getByText('Enter the power')).toBeInTheDocument();
+    expect(screen.getByText('Enter the cut speed')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it('keeps a laser kerf within what a beam removes and refuses materials kept off the laser', async () => {
+    const { user, onSubmit } = renderForm();
+    await fillMachine(user);
+    const setting = screen.getByRole('group', { name: 'Material setting 1' });
+    // The PVC option is disabled for a laser; choosing it anyway (as a stale form could) is refused too.
+    expect(
+      within(setting).getByRole('option', { name: 'Expanded PVC 3 mm (not for lasers)' }),
+    ).toBeDisabled();
+    await user.selectOptions(within(setting).getByLabelText('Material'), 'm-birch');
+    // 0.2 mm is a usual CO2-laser kerf in 3 mm plywood (common practice); 3 mm is out of the API's 0.01–2 mm.
+    await user.type(within(setting).getByLabelText('Kerf (mm)'), '3');
+    await user.type(within(setting).getByLabelText('Cut speed (mm/s)'), '15');
+    await user.type(within(setting).getByLabelText('Mark speed (mm/s)'), '250');
+    await user.type(within(setting).getByLabelText('Power (%)'), '140');
+    await user.click(screen.getByRole('button', { name: 'Create as draft' }));
+    expect(await screen.findByText('Between 0.01 and 2 mm')).toBeInTheDocument();
+    expect(screen.getByText('Between 1 and 100 %')).toBeInTheDocument();
+
+    await user.clear(within(setting).getByLabelText('Kerf (mm)'));
+    await user.type(within(setting).getByLabelText('Kerf (mm)'), '0.2');
+    await user.clear(within(setting).getByLabelText('Power (%)'));
+    await user.type(within(setting).getByLabelText('Power (%)'), '70');
+    await user.click(screen.getByRole('button', { name: 'Create as draft' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(toVersionContent(onSubmit.mock.calls[0]![0])).toEqual({
+      bedWidthMm: 600,
+      bedHeightMm: 400,
+      rapidSpeedMmS: 300,
+      hourlyRate: 20,
+      currency: 'EUR',
+      notes: '',
+      settings: [
+        {
+          materialId: 'm-birch',
+          kerfMm: 0.2,
+          cutSpeedMmS: 15,
+          markSpeedMmS: 250,
+          powerPct: 70,
+          passes: 1,
+          pierceTimeS: 0,
+        },
+      ],
+    });
+  });
+
+  it('asks a router for a tool diameter instead of a kerf, and a material only once', async () => {
+    const { user, onSubmit } = renderForm();
+    await fillMachine(user);
+    await user.selectOptions(screen.getByLabelText('Kind of machine'), 'cnc-router');
+    await user.click(screen.getByRole('button', { name: 'Add a material' }));
+    for (const name of ['Material setting 1', 'Material setting 2']) {
+      const setting = screen.getByRole('group', { name });
+      expect(within(setting).queryByLabelText('Kerf (mm)')).not.toBeInTheDocument();
+      await user.selectOptions(within(setting).getByLabelText('Material'), 'm-birch');
+      await user.type(within(setting).getByLabelText('Cut speed (mm/s)'), '20');
+      await user.type(within(setting).getByLabelText('Mark speed (mm/s)'), '20');
+    }
+    await user.click(screen.getByRole('button', { name: 'Create as draft' }));
+    expect(await screen.findAllByText('Enter the tool diameter')).toHaveLength(2);
+    expect(screen.getByText('This material already has settings')).toBeInTheDocument();
+
+    await user.click(screen.getByRole('button', { name: 'Remove material setting 2' }));
+    const setting = screen.getByRole('group', { name: 'Material setting 1' });
+    // A 3.175 mm (1/8 in) end mill is a common router bit for 3 mm sheet (common practice).
+    await user.type(within(setting).getByLabelText('Tool diameter (mm)'), '3.175');
+    await user.type(within(setting).getByLabelText('Spindle (rpm, optional)'), '18000');
+    await user.click(screen.getByRole('button', { name: 'Create as draft' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    const content = toVersionContent(onSubmit.mock.calls[0]![0]);
+    expect(content.settings[0]).toEqual({
+      materialId: 'm-birch',
+      toolDiameterMm: 3.175,
+      spindleRpm: 18000,
+      cutSpeedMmS: 20,
+      markSpeedMmS: 20,
+      passes: 1,
+      pierceTimeS: 0,
+    });
+  });
+});
+
+describe('measured kerf form', () => {
+  it('needs a value in the range of the machine kind', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <KerfRecordDialog
+        open
+        kind="co2-laser"
+        materials={[birch]}
+        defaultMaterialId="m-birch"
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    await user.click(await screen.findByRole('button', { name: 'Record' }));
+    expect(await screen.findByText('Enter the measured value in mm')).toBeInTheDocument();
+    await user.type(screen.getByLabelText('Measured kerf (mm)'), '2.5');
+    await user.click(screen.getByRole('button', { name: 'Record' }));
+    expect(await screen.findByText('At most 2 mm')).toBeInTheDocument();
+    await user.clear(screen.getByLabelText('Measured kerf (mm)'));
+    await user.type(screen.getByLabelText('Measured kerf (mm)'), '0.17');
+    await user.click(screen.getByRole('button', { name: 'Record' }));
+    await waitFor(() =>
+      expect(onSubmit).toHaveBeenCalledWith({ materialId: 'm-birch', kerfMm: 0.17, notes: '' }),
+    );
+  });
+});

@@ -1,0 +1,303 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { isLaserKind, MACHINE_PROFILE_KINDS, type MaterialView } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import FormHelperText from '@mui/material/FormHelperText';
+import IconButton from '@mui/material/IconButton';
+import Paper from '@mui/material/Paper';
+import Stack from '@mui/material/Stack';
+import Typography from '@mui/material/Typography';
+import { useEffect, useMemo } from 'react';
+import { useFieldArray, useForm, useWatch } from 'react-hook-form';
+import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
+import { FormTextField } from '../../../components/ui/form-text-field';
+import { applyServerFieldErrors } from '../../../lib/form-errors';
+import { KIND_LABELS } from './profile-labels';
+import { EMPTY_SETTING, type ProfileFormValues, profileFormSchema } from './profile-form-schema';
+
+export type ProfileFormMode = 'create' | 'new-version' | 'edit-draft';
+
+const TITLES: Record<ProfileFormMode, string> = {
+  create: 'New machine profile',
+  'new-version': 'Draft a new version',
+  'edit-draft': 'Change the draft',
+};
+
+const SUBMIT_LABELS: Record<ProfileFormMode, string> = {
+  create: 'Create as draft',
+  'new-version': 'Save the draft',
+  'edit-draft': 'Save the draft',
+};
+
+interface ProfileFormDialogProps extends FormDialogBaseProps<ProfileFormValues> {
+  mode: ProfileFormMode;
+  initial: ProfileFormValues;
+  materials: readonly MaterialView[] | undefined;
+}
+
+/** Bed, speeds, rate and the per-material cutting values of a profile version; saved as a draft. */
+export function ProfileFormDialog(props: ProfileFormDialogProps) {
+  const { materials, mode } = props;
+  const schema = useMemo(() => profileFormSchema(materials), [materials]);
+  const {
+    register,
+    control,
+    handleSubmit,
+    reset,
+    setError,
+    formState: { errors },
+  } = useForm<ProfileFormValues>({ resolver: zodResolver(schema), defaultValues: props.initial });
+  const settings = useFieldArray({ control, name: 'settings' });
+  const kind = useWatch({ control, name: 'kind' });
+  const router = kind === 'cnc-router';
+  const laser = isLaserKind(kind);
+
+  useEffect(() => {
+    if (props.open) reset(props.initial);
+  }, [props.open, props.initial, reset]);
+
+  useEffect(() => {
+    if (props.error) {
+      applyServerFieldErrors(props.error, setError, [
+        'name',
+        'bedWidthMm',
+        'bedHeightMm',
+        'rapidSpeedMmS',
+        'hourlyRate',
+        'currency',
+        'notes',
+      ]);
+    }
+  }, [props.error, setError]);
+
+  const n = { valueAsNumber: true } as const;
+  const any = { htmlInput: { step: 'any' } } as const;
+  const submit = handleSubmit((v) => props.onSubmit(v));
+
+  return (
+    <FormDialog
+      open={props.open}
+      titleId="profile-form-title"
+      title={TITLES[mode]}
+      error={props.error}
+      busy={props.busy}
+      submitLabel={SUBMIT_LABELS[mode]}
+      onSubmit={submit}
+      onClose={props.onClose}
+      maxWidth="lg"
+    >
+      <Stack spacing={2} sx={{ mt: 1 }}>
+        {mode === 'create' ? (
+          <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
+            <FormTextField label="Profile name" registration={register('name')} error={errors.name} />
+            <FormTextField
+              select
+              slotProps={{ select: { native: true } }}
+              label="Kind of machine"
+              registration={register('kind')}
+              error={errors.kind}
+            >
+              {MACHINE_PROFILE_KINDS.map((k) => (
+                <option key={k} value={k}>
+                  {KIND_LABELS[k]}
+                </option>
+              ))}
+            </FormTextField>
+          </Box>
+        ) : (
+          <Typography color="text.secondary">
+            {props.initial.name} · {KIND_LABELS[kind]}. The new draft starts from the values below; a
+            supervisor approves it before jobs use it.
+          </Typography>
+        )}
+        <Box
+          sx={{
+            display: 'grid',
+            gap: 2,
+            gridTemplateColumns: { xs: '1fr 1fr', md: 'repeat(5, 1fr)' },
+          }}
+        >
+          <FormTextField
+            label="Bed width (mm)"
+            type="number"
+            registration={register('bedWidthMm', n)}
+            error={errors.bedWidthMm}
+            slotProps={any}
+          />
+          <FormTextField
+            label="Bed height (mm)"
+            type="number"
+            registration={register('bedHeightMm', n)}
+            error={errors.bedHeightMm}
+            slotProps={any}
+          />
+          <FormTextField
+            label="Rapid speed (mm/s)"
+            type="number"
+            registration={register('rapidSpeedMmS', n)}
+            error={errors.rapidSpeedMmS}
+            slotProps={any}
+          />
+          <FormTextField
+            label="Hourly rate"
+            type="number"
+            registration={register('hourlyRate', n)}
+            error={errors.hourlyRate}
+            slotProps={any}
+          />
+          <FormTextField
+            label="Currency"
+            registration={register('currency')}
+            error={errors.currency}
+            slotProps={{ htmlInput: { maxLength: 3 } }}
+          />
+        </Box>
+
+        <Typography variant="subtitle1" component="h3">
+          Settings per material
+        </Typography>
+        {laser ? (
+          <Alert severity="warning">
+            Materials kept off the laser cannot be given laser settings. Test new values on an offcut under
+            supervision, following the machine maker’s manual and the workshop’s rules.
+          </Alert>
+        ) : null}
+        {settings.fields.map((field, i) => {
+          const e = errors.settings?.[i];
+          return (
+            <Paper
+              key={field.id}
+              variant="outlined"
+              role="group"
+              aria-label={`Material setting ${i + 1}`}
+              sx={{ p: 1.5 }}
+            >
+              <Box
+                sx={{
+                  display: 'grid',
+                  gap: 1,
+                  alignItems: 'start',
+                  gridTemplateColumns: { xs: '1fr 1fr', md: '2fr repeat(6, 1fr) auto' },
+                }}
+              >
+                <FormTextField
+                  id={`settings-${i}-material`}
+                  size="small"
+                  select
+                  slotProps={{ select: { native: true } }}
+                  label="Material"
+                  registration={register(`settings.${i}.materialId`)}
+                  error={e?.materialId}
+                >
+                  <option value="">Choose…</option>
+                  {(materials ?? []).map((m) => (
+                    <option key={m.id} value={m.id} disabled={laser && !m.laserAllowed}>
+                      {m.laserAllowed ? m.name : `${m.name} (not for lasers)`}
+                    </option>
+                  ))}
+                </FormTextField>
+                {router ? (
+                  <FormTextField
+                    id={`settings-${i}-tool`}
+                    size="small"
+                    type="number"
+                    label="Tool diameter (mm)"
+                    registration={register(`settings.${i}.toolDiameterMm`, n)}
+                    error={e?.toolDiameterMm}
+                    slotProps={any}
+                  />
+                ) : (
+                  <FormTextField
+                    id={`settings-${i}-kerf`}
+                    size="small"
+                    type="number"
+                    label="Kerf (mm)"
+                    registration={register(`settings.${i}.kerfMm`, n)}
+                    error={e?.kerfMm}
+                    slotProps={any}
+                  />
+                )}
+                <FormTextField
+                  id={`settings-${i}-cut`}
+                  size="small"
+                  type="number"
+                  label="Cut speed (mm/s)"
+                  registration={register(`settings.${i}.cutSpeedMmS`, n)}
+                  error={e?.cutSpeedMmS}
+                  slotProps={any}
+                />
+                <FormTextField
+                  id={`settings-${i}-mark`}
+                  size="small"
+                  type="number"
+                  label="Mark speed (mm/s)"
+                  registration={register(`settings.${i}.markSpeedMmS`, n)}
+                  error={e?.markSpeedMmS}
+                  slotProps={any}
+                />
+                {router ? (
+                  <FormTextField
+                    id={`settings-${i}-spindle`}
+                    size="small"
+                    type="number"
+                    label="Spindle (rpm, optional)"
+                    registration={register(`settings.${i}.spindleRpm`, n)}
+                    error={e?.spindleRpm}
+                  />
+                ) : (
+                  <FormTextField
+                    id={`settings-${i}-power`}
+                    size="small"
+                    type="number"
+                    label={laser ? 'Power (%)' : 'Power (%, optional)'}
+                    registration={register(`settings.${i}.powerPct`, n)}
+                    error={e?.powerPct}
+                    slotProps={any}
+                  />
+                )}
+                <FormTextField
+                  id={`settings-${i}-passes`}
+                  size="small"
+                  type="number"
+                  label="Passes"
+                  registration={register(`settings.${i}.passes`, n)}
+                  error={e?.passes}
+                />
+                <FormTextField
+                  id={`settings-${i}-pierce`}
+                  size="small"
+                  type="number"
+                  label="Pierce time (s)"
+                  registration={register(`settings.${i}.pierceTimeS`, n)}
+                  error={e?.pierceTimeS}
+                  slotProps={any}
+                />
+                <IconButton
+                  aria-label={`Remove material setting ${i + 1}`}
+                  onClick={() => settings.remove(i)}
+                >
+                  ×
+                </IconButton>
+              </Box>
+            </Paper>
+          );
+        })}
+        {errors.settings?.message ? <FormHelperText error>{errors.settings.message}</FormHelperText> : null}
+        <Box>
+          <Button size="small" onClick={() => settings.append({ ...EMPTY_SETTING })}>
+            Add a material
+          </Button>
+        </Box>
+        <FormTextField
+          label="Notes"
+          registration={register('notes')}
+          error={errors.notes}
+          multiline
+          minRows={2}
+          helperText="Where the values come from (test coupon, batch, maker’s table)"
+        />
+      </Stack>
+    </FormDialog>
+  );
+}

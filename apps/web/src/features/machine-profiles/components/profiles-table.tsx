@@ -1,0 +1,38 @@
+import { type MachineProfileSummaryView } from '@kerfwright/contracts';
+import Box from '@mui/material/Box';
+import { type DataTableColumn } from '../../../components/data-table/data-table';
+import { RouterLink } from '../../../components/ui/router-link';
+import { paths } from '../../../config/paths';
+import { KIND_LABELS } from './profile-labels';
+import { VersionStateChip } from './version-state-chip';
+
+/** One row per machine profile: its kind, bed, the version jobs use now and the state of the newest one. */
+export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView>[] = [
+  {
+    id: 'name',
+    header: 'Name',
+    render: (p) => <RouterLink to={paths.machineProfile.getHref(p.id)}>{p.name}</RouterLink>,
+  },
+  { id: 'kind', header: 'Kind', render: (p) => KIND_LABELS[p.kind] },
+  {
+    id: 'bed',
+    header: 'Bed',
+    cellSx: { whiteSpace: 'nowrap' },
+    render: (p) => `${p.latest.bedWidthMm} × ${p.latest.bedHeightMm} mm`,
+  },
+  {
+    id: 'current',
+    header: 'In use for jobs',
+    render: (p) => (p.currentApproved ? `Version ${p.currentApproved.number}` : 'None approved yet'),
+  },
+  {
+    id: 'latest',
+    header: 'Latest version',
+    render: (p) => (
+      <Box sx={{ display: 'flex', gap: 1, alignItems: 'center' }}>
+        <span>Version {p.latest.number}</span>
+        <VersionStateChip state={p.latest.state} />
+      </Box>
+    ),
+  },
+];

@@ -1,0 +1,101 @@
+import { type MachineProfileVersionView } from '@kerfwright/contracts';
+import Box from '@mui/material/Box';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
+import TableHead from '@mui/material/TableHead';
+import TableRow from '@mui/material/TableRow';
+import Typography from '@mui/material/Typography';
+import { Fragment } from 'react';
+import { versionRows } from '../utils/version-rows';
+import { VersionStateChip } from './version-state-chip';
+
+/** Read by screen readers, not shown. */
+const HIDDEN = {
+  position: 'absolute',
+  // Pixels, not sx's fractions: `width: 1` would mean 100 %.
+  width: '1px',
+  height: '1px',
+  overflow: 'hidden',
+  clip: 'rect(0 0 0 0)',
+  whiteSpace: 'nowrap',
+} as const;
+
+/**
+ * Versions side by side: one column per version (oldest on the left), one row per value. A cell that
+ * differs from the version to its left is highlighted, so a change shows where it was made.
+ */
+export function VersionComparison({ versions }: { versions: readonly MachineProfileVersionView[] }) {
+  const ordered = [...versions].sort((a, b) => a.number - b.number);
+  const rows = versionRows(ordered);
+  let section = '';
+  return (
+    <TableContainer sx={{ overflowX: 'auto' }}>
+      <Table size="small" aria-label="Versions side by side" data-testid="version-comparison">
+        <TableHead>
+          <TableRow>
+            <TableCell sx={{ minWidth: 160 }}>Value</TableCell>
+            {ordered.map((v) => (
+              <TableCell key={v.id} sx={{ minWidth: 150 }}>
+                <Box sx={{ display: 'flex', alignItems: 'center', gap: 1, flexWrap: 'wrap' }}>
+                  <strong>Version {v.number}</strong>
+                  <VersionStateChip state={v.state} />
+                </Box>
+              </TableCell>
+            ))}
+          </TableRow>
+        </TableHead>
+        <TableBody>
+          {rows.map((row) => {
+            const header = row.section !== section;
+            section = row.section;
+            return (
+              <Fragment key={row.key}>
+                {header ? (
+                  <TableRow>
+                    <TableCell colSpan={ordered.length + 1} sx={{ bgcolor: 'action.hover' }}>
+                      <Typography variant="subtitle2" component="span">
+                        {row.section}
+                      </Typography>
+                    </TableCell>
+                  </TableRow>
+                ) : null}
+                <TableRow>
+                  <TableCell component="th" scope="row">
+                    {row.label}
+                  </TableCell>
+                  {row.values.map((value, i) => {
+                    const changed = i > 0 && value !== row.values[i - 1];
+                    return (
+                      <TableCell
+                        key={ordered[i]!.id}
+                        data-changed={changed ? 'true' : undefined}
+                        sx={
+                          changed
+                            ? { bgcolor: 'rgba(237, 108, 2, 0.16)', fontWeight: 600 }
+                            : { color: value === null ? 'text.disabled' : undefined }
+                        }
+                      >
+                        {value === null ? '—' : value || '—'}
+                        {changed ? (
+                          <Box component="span" sx={HIDDEN}>
+                            {' '}
+                            (changed)
+                          </Box>
+                        ) : null}
+                      </TableCell>
+                    );
+                  })}
+                </TableRow>
+              </Fragment>
+            );
+          })}
+        </TableBody>
+      </Table>
+      <Typography variant="body2" color="text.secondary" sx={{ mt: 1, px: 2, pb: 1 }}>
+        Highlighted: changed from the version to its left.
+      </Typography>
+    </TableContainer>
+  );
+}

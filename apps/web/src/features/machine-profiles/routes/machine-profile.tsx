@@ -1,0 +1,208 @@
+import Alert from '@mui/material/Alert';
+import AlertTitle from '@mui/material/AlertTitle';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Chip from '@mui/material/Chip';
+import Dialog from '@mui/material/Dialog';
+import DialogActions from '@mui/material/DialogActions';
+import DialogContent from '@mui/material/DialogContent';
+import DialogContentText from '@mui/material/DialogContentText';
+import DialogTitle from '@mui/material/DialogTitle';
+import Paper from '@mui/material/Paper';
+import Typography from '@mui/material/Typography';
+import { useMemo, useState } from 'react';
+import { useParams } from 'react-router-dom';
+import { ErrorPanel } from '../../../components/errors/error-panel';
+import { FullPageProgress } from '../../../components/ui/full-page-progress';
+import { RouterLink } from '../../../components/ui/router-link';
+import { paths } from '../../../config/paths';
+import { errorMessage } from '../../../lib/api-client';
+import { useCreateProfileVersion } from '../api/create-profile-version';
+import { useMachineProfile } from '../api/get-machine-profile';
+import { useMaterialChoices } from '../api/get-material-choices';
+import { useSubmitProfileVersion } from '../api/submit-profile-version';
+import { useUpdateProfileVersion } from '../api/update-profile-version';
+import { KerfHistoryPanel } from '../components/kerf-history-panel';
+import { ProfileFormDialog, type ProfileFormMode } from '../components/profile-form-dialog';
+import {
+  type ProfileFormValues,
+  toVersionContent,
+  versionToFormValues,
+} from '../components/profile-form-schema';
+import { KIND_LABELS, STATE_LABELS } from '../components/profile-labels';
+import { VersionComparison } from '../components/version-comparison';
+import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
+
+/** One machine profile: its versions side by side, drafting and submitting, and the kerf history. */
+export function MachineProfileRoute() {
+  const { profileId = '' } = useParams();
+  const profile = useMachineProfile(profileId);
+  const [mode, setMode] = useState<ProfileFormMode | null>(null);
+  const [confirmSubmit, setConfirmSubmit] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
+  const materials = useMaterialChoices(mode !== null);
+  const createVersion = useCreateProfileVersion(profileId);
+  const updateVersion = useUpdateProfileVersion(profileId);
+  const submitVersion = useSubmitProfileVersion(profileId);
+  const data = profile.data;
+  const initial = useMemo(() => (data ? versionToFormValues(data, data.latest) : null), [data]);
+
+  if (profile.isPending) return <FullPageProgress label="Loading the machine profile…" />;
+  if (profile.isError || !data || !initial) {
+    return (
+      <ErrorPanel
+        title="The machine profile could not be loaded"
+        error={profile.error}
+        onRetry={() => void profile.refetch()}
+      />
+    );
+  }
+
+  const latest = data.latest;
+  const saving = mode === 'edit-draft' ? updateVersion : createVersion;
+
+  const openForm = (m: ProfileFormMode) => {
+    createVersion.reset();
+    updateVersion.reset();
+    setMode(m);
+  };
+
+  const save = (v: ProfileFormValues) => {
+    const content = toVersionContent(v);
+    if (mode === 'edit-draft') {
+      updateVersion.mutate(
+        { versionId: latest.id, body: { ...content, lockVersion: latest.lockVersion } },
+        {
+          onSuccess: (saved) => {
+            setNotice(`Draft version ${saved.number} is saved.`);
+            setMode(null);
+          },
+        },
+      );
+    } else {
+      createVersion.mutate(content, {
+        onSuccess: (saved) => {
+          setNotice(`Draft version ${saved.number} is saved. Submit it when it is ready.`);
+          setMode(null);
+        },
+      });
+    }
+  };
+
+  return (
+    <Box sx={{ maxWidth: 1280 }} data-testid="machine-profile-page">
+      <title>{`${data.name} · Machine profiles · Kerfwright`}</title>
+      <Typography variant="body2" sx={{ mb: 1 }}>
+        <RouterLink to={paths.machineProfiles.getHref()}>Machine profiles</RouterLink>
+      </Typography>
+      <Box sx={{ display: 'flex', alignItems: 'center', gap: 2, flexWrap: 'wrap', mb: 1 }}>
+        <Typography variant="h1">{data.name}</Typography>
+        <Chip label={KIND_LABELS[data.kind]} variant="outlined" />
+      </Box>
+      <Typography color="text.secondary" sx={{ mb: 2 }} data-testid="profile-status">
+        {data.currentApproved
+          ? `Jobs use version ${data.currentApproved.number} (approved).`
+          : 'No version is approved yet, so no job can use this machine.'}{' '}
+        Newest: version {latest.number}, {STATE_LABELS[latest.state].toLowerCase()}.
+      </Typography>
+
+      {latest.state === 'draft' && latest.returnReason ? (
+        <Alert severity="warning" sx={{ mb: 2 }} data-testid="return-reason">
+          <AlertTitle>Version {latest.number} was sent back</AlertTitle>
+          {latest.returnReason}
+        </Alert>
+      ) : null}
+
+      <Box sx={{ display: 'flex', gap: 1, flexWrap: 'wrap', mb: 3 }} data-testid="profile-actions">
+        {latest.state === 'draft' ? (
+          <>
+            <Button variant="outlined" onClick={() => openForm('edit-draft')}>
+              Change the draft
+            </Button>
+            <Button
+              variant="contained"
+              onClick={() => {
+                submitVersion.reset();
+                setConfirmSubmit(true);
+              }}
+            >
+              Submit version {latest.number} for approval
+            </Button>
+          </>
+        ) : latest.state === 'submitted' ? (
+          <Alert severity="info" sx={{ flexGrow: 1 }}>
+            Version {latest.number} waits for a supervisor’s decision. It cannot be changed meanwhile.
+          </Alert>
+        ) : (
+          <Button variant="contained" onClick={() => openForm('new-version')}>
+            Draft a new version
+          </Button>
+        )}
+      </Box>
+
+      <Paper variant="outlined" sx={{ mb: 3 }}>
+        <Typography variant="h2" sx={{ px: 2, pt: 2, fontSize: '1.25rem' }}>
+          Versions
+        </Typography>
+        <VersionComparison versions={data.versions} />
+      </Paper>
+
+      <Paper variant="outlined" sx={{ p: 2, mb: 3 }}>
+        <Typography variant="h2" sx={{ mb: 2, fontSize: '1.25rem' }}>
+          Kerf history
+        </Typography>
+        <KerfHistoryPanel profile={data} onAdopted={setNotice} />
+      </Paper>
+
+      <Alert severity="warning" sx={{ mb: 2 }}>
+        Settings are starting values. Check every new value on an offcut with the machine attended, and follow
+        the machine maker’s manual, local codes and the workshop’s own rules.
+      </Alert>
+
+      <ProfileFormDialog
+        open={mode !== null}
+        mode={mode ?? 'new-version'}
+        initial={initial}
+        materials={materials.data?.items}
+        busy={saving.isPending}
+        error={saving.error}
+        onSubmit={save}
+        onClose={() => setMode(null)}
+      />
+
+      <Dialog open={confirmSubmit} onClose={() => setConfirmSubmit(false)} aria-labelledby="submit-title">
+        <DialogTitle id="submit-title">Submit version {latest.number} for approval?</DialogTitle>
+        <DialogContent>
+          <DialogContentText>
+            Supervisors are told and decide whether jobs may use it. A submitted version cannot be changed
+            unless a supervisor sends it back.
+          </DialogContentText>
+          {submitVersion.error ? (
+            <Alert severity="error" role="alert" sx={{ mt: 2 }}>
+              {errorMessage(submitVersion.error)}
+            </Alert>
+          ) : null}
+        </DialogContent>
+        <DialogActions sx={{ px: 3, pb: 2 }}>
+          <Button onClick={() => setConfirmSubmit(false)}>Cancel</Button>
+          <Button
+            variant="contained"
+            loading={submitVersion.isPending}
+            onClick={() =>
+              submitVersion.mutate(latest, {
+                onSuccess: (v) => {
+                  setConfirmSubmit(false);
+                  setNotice(`Version ${v.number} is submitted for approval.`);
+                },
+              })
+            }
+          >
+            Submit
+          </Button>
+        </DialogActions>
+      </Dialog>
+
+      <NoticeSnackbar notice={notice} onClose={() => setNotice(null)} />
+    </Box>
+  );
+}

@@ -1,0 +1,100 @@
+import { type MachineProfileVersionView } from '@kerfwright/contracts';
+import { describe, expect, it } from 'vitest';
+import { versionChanges, versionRows } from './version-rows';
+
+function version(
+  number: number,
+  overrides: Partial<MachineProfileVersionView> = {},
+): MachineProfileVersionView {
+  return {
+    id: `v${number}`,
+    profileId: 'p',
+    number,
+    state: 'approved',
+    bedWidthMm: 600,
+    bedHeightMm: 400,
+    rapidSpeedMmS: 400,
+    hourlyRate: 24,
+    currency: 'EUR',
+    settings: [
+      {
+        materialId: 'm-acrylic',
+        materialName: 'Cast acrylic 3 mm',
+        kerfMm: 0.18,
+        cutSpeedMmS: 12,
+        markSpeedMmS: 250,
+        powerPct: 65,
+        passes: 1,
+        pierceTimeS: 0.3,
+      },
+    ],
+    notes: '',
+    returnReason: null,
+    basedOnNumber: null,
+    createdBy: null,
+    submittedBy: null,
+    submittedAt: null,
+    approvedBy: null,
+    approvedAt: null,
+    retiredAt: null,
+    lockVersion: 1,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-01T00:00:00.000Z',
+    ...overrides,
+  };
+}
+
+describe('comparing profile versions', () => {
+  it('lists only the changed values, old → new, with added materials as new', () => {
+    const approved = version(1);
+    const waiting = version(2, {
+      state: 'submitted',
+      rapidSpeedMmS: 450,
+      settings: [
+        { ...approved.settings[0]!, kerfMm: 0.16 },
+        {
+          materialId: 'm-felt',
+          materialName: 'Wool felt 2 mm',
+          kerfMm: 0.25,
+          cutSpeedMmS: 30,
+          markSpeedMmS: 300,
+          powerPct: 35,
+          passes: 1,
+          pierceTimeS: 0,
+        },
+      ],
+    });
+    const changes = versionChanges(approved, waiting);
+    expect(changes.find((c) => c.key === 'machine.rapid')).toMatchObject({
+      before: '400 mm/s',
+      after: '450 mm/s',
+    });
+    expect(changes.find((c) => c.key === 'm-acrylic.kerfMm')).toMatchObject({
+      section: 'Cast acrylic 3 mm',
+      before: '0.18 mm',
+      after: '0.16 mm',
+    });
+    expect(changes.find((c) => c.key === 'm-felt.powerPct')).toMatchObject({ before: null, after: '35 %' });
+    // Unchanged values (bed, acrylic speeds) are left out.
+    expect(changes.some((c) => c.key === 'machine.bed' || c.key === 'm-acrylic.cutSpeedMmS')).toBe(false);
+    expect(changes).toHaveLength(1 + 1 + 6);
+  });
+
+  it('marks rows whose value differs between versions, and leaves out fields no version uses', () => {
+    const rows = versionRows([version(1), version(2, { hourlyRate: 26 })]);
+    expect(rows.find((r) => r.key === 'machine.rate')).toMatchObject({
+      values: ['24.00 EUR', '26.00 EUR'],
+      changed: true,
+    });
+    expect(rows.find((r) => r.key === 'm-acrylic.kerfMm')?.changed).toBe(false);
+    expect(rows.some((r) => r.key === 'm-acrylic.toolDiameterMm')).toBe(false);
+  });
+
+  it('lists every value as new when nothing is approved yet', () => {
+    const changes = versionChanges(null, version(1, { state: 'submitted' }));
+    expect(changes.every((c) => c.before === null)).toBe(true);
+    expect(changes.map((c) => c.key)).toContain('m-acrylic.kerfMm');
+    // An empty note is not a change worth listing.
+    expect(changes.map((c) => c.key)).not.toContain('machine.notes');
+  });
+});

@@ -1,0 +1,156 @@
+import { type MaterialHazard, type MaterialView } from '@kerfwright/contracts';
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { renderApp, renderWithProviders } from '../../../testing/render-app';
+import { MaterialFormDialog } from './material-form-dialog';
+import { toMaterialRequest } from './material-form-schema';
+
+// Rows in the spirit of published laser-safety material lists: PVC gives off hydrogen chloride and never goes
+// on a laser; plywood may (common practice).
+const hazards: MaterialHazard[] = [
+  {
+    family: 'pvc',
+    examples: ['PVC'],
+    laser: 'no',
+    hazard: 'Gives off hydrogen chloride.',
+    source: 'common practice',
+  },
+  { family: 'plywood', examples: ['plywood'], laser: 'yes', hazard: 'Soot.', source: 'common practice' },
+];
+
+const noop = () => undefined;
+
+function renderDialog(onSubmit = vi.fn()) {
+  const utils = renderWithProviders(
+    <MaterialFormDialog
+      open
+      material={null}
+      hazards={hazards}
+      busy={false}
+      error={null}
+      onSubmit={onSubmit}
+      onClose={noop}
+    />,
+  );
+  return { ...utils, onSubmit };
+}
+
+describe('material form', () => {
+  it('names every missing value, with the limits the API checks (MATERIAL_LIMITS)', async () => {
+    const { user, onSubmit } = renderDialog();
+    await user.click(await screen.findByRole('button', { name: 'Add the material' }));
+    expect(await screen.findByText('Give the material a name')).toBeInTheDocument();
+    expect(screen.getByText('Enter the nominal thickness in mm')).toBeInTheDocument();
+    expect(screen.getByText('Enter the width in mm')).toBeInTheDocument();
+    expect(screen.getByText('Enter the price per sheet')).toBeInTheDocument();
+
+    await user.type(screen.getByLabelText('Nominal thickness (mm)'), '60');
+    await user.clear(screen.getByLabelText('Currency'));
+    await user.type(screen.getByLabelText('Currency'), 'eu');
+    await user.type(screen.getByLabelText('Colours offered'), 'black, Black');
+    await user.click(screen.getByRole('button', { name: 'Add the material' }));
+    expect(await screen.findByText('At most 50 mm')).toBeInTheDocument();
+    expect(screen.getByText('A three-letter currency code such as EUR')).toBeInTheDocument();
+    expect(screen.getByText('Name each colour once')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+  });
+
+  it('refuses a family the hazard table keeps off the laser, and unticks laser use', async () => {
+    const { user } = renderDialog();
+    const laser = await screen.findByLabelText('May be cut on a laser');
+    expect(laser).toBeChecked();
+    await user.selectOptions(screen.getByLabelText('Family'), 'pvc');
+    expect(await screen.findByTestId('family-refused')).toHaveTextContent('must not be cut on a laser');
+    await waitFor(() => expect(laser).not.toBeChecked());
+    expect(laser).toBeDisabled();
+  });
+
+  it('needs a reason when a permitted material is kept off the laser', async () => {
+    const { user, onSubmit } = renderDialog();
+    await user.type(await screen.findByLabelText('Name'), 'Birch plywood 6 mm');
+    await user.type(screen.getByLabelText('Nominal thickness (mm)'), '6');
+    await user.click(screen.getByRole('button', { name: 'Remove sheet size 1' }));
+    await user.click(screen.getByLabelText('May be cut on a laser'));
+    await user.click(screen.getByRole('button', { name: 'Add the material' }));
+    expect(await screen.findByText('Say why the material is kept off the laser')).toBeInTheDocument();
+    await user.type(screen.getByLabelText('Why it is kept off the laser'), 'Too thick for our tube');
+    await user.click(screen.getByRole('button', { name: 'Add the material' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(toMaterialRequest(onSubmit.mock.calls[0]![0])).toEqual({
+      name: 'Birch plywood 6 mm',
+      family: 'plywood',
+      nominalThicknessMm: 6,
+      measuredThicknessMm: null,
+      flexible: false,
+      colours: [],
+      stockSheets: [],
+      laserAllowed: false,
+      hazardNote: 'Too thick for our tube',
+      notes: '',
+    });
+  });
+});
+
+describe('Materials page (fabricator)', () => {
+  const fabricator = userFixture('fabricator');
+  const pvc: MaterialView = {
+    id: 'm-pvc',
+    name: 'Expanded PVC 3 mm',
+    family: 'pvc',
+    nominalThicknessMm: 3,
+    measuredThicknessMm: null,
+    flexible: false,
+    colours: ['white'],
+    stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 4.9, currency: 'EUR' }],
+    laserAllowed: false,
+    hazardNote: 'Chlorinated plastic: never on a laser.',
+    notes: '',
+    version: 1,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-01T00:00:00.000Z',
+  };
+
+  it('lists prohibited materials with their reason, sorts through the API and sends a new material', async () => {
+    const { calls } = stubFetch({
+      'GET /api/auth/me': () => json(200, fabricator),
+      'GET /api/safety/hazards': () => json(200, hazards),
+      'GET /api/materials': () => json(200, { items: [pvc], total: 1, page: 1, pageSize: 25 }),
+      'POST /api/materials': (call) => json(201, { ...pvc, ...(call.body as object), id: 'm-new' }),
+    });
+    const { user } = renderApp('/materials', { token: 't' });
+    const row = await screen.findByTestId('material-Expanded PVC 3 mm');
+    expect(within(row).getByText('Not for lasers')).toBeInTheDocument();
+    expect(within(row).getByTestId('laser-refusal-reason')).toHaveTextContent('never on a laser');
+
+    await user.click(screen.getByRole('button', { name: 'Thickness' }));
+    await waitFor(() => expect(calls.at(-1)?.url.searchParams.get('sort')).toBe('nominalThicknessMm'));
+
+    await user.click(screen.getByRole('button', { name: 'Add a material' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Add a material' });
+    await user.type(within(dialog).getByLabelText('Name'), 'Poplar plywood 4 mm');
+    await user.type(within(dialog).getByLabelText('Nominal thickness (mm)'), '4');
+    await user.type(within(dialog).getByLabelText('Colours offered'), 'natural, white');
+    await user.type(within(dialog).getByLabelText('Width (mm)'), '600');
+    await user.type(within(dialog).getByLabelText('Height (mm)'), '400');
+    await user.type(within(dialog).getByLabelText('Price per sheet'), '7.4');
+    await user.click(within(dialog).getByRole('button', { name: 'Add the material' }));
+    await waitFor(() => expect(calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(calls.find((c) => c.method === 'POST')?.body).toMatchObject({
+      name: 'Poplar plywood 4 mm',
+      family: 'plywood',
+      nominalThicknessMm: 4,
+      colours: ['natural', 'white'],
+      stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 7.4, currency: 'EUR' }],
+      laserAllowed: true,
+    });
+  });
+
+  it('tells an operator that Materials is not part of their role', async () => {
+    const { calls } = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('operator')) });
+    renderApp('/materials', { token: 't' });
+    expect(await screen.findByText('This page is not part of your role')).toBeInTheDocument();
+    expect(calls.some((c) => c.url.pathname === '/api/materials')).toBe(false);
+  });
+});

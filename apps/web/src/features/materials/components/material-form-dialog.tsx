@@ -1,0 +1,283 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import {
+  findMaterialHazard,
+  laserRefusal,
+  MATERIAL_FAMILIES,
+  type MaterialHazard,
+  type MaterialView,
+} from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Checkbox from '@mui/material/Checkbox';
+import FormControlLabel from '@mui/material/FormControlLabel';
+import FormHelperText from '@mui/material/FormHelperText';
+import IconButton from '@mui/material/IconButton';
+import Stack from '@mui/material/Stack';
+import Typography from '@mui/material/Typography';
+import { useEffect, useMemo } from 'react';
+import { Controller, type Path, useFieldArray, useForm, useWatch } from 'react-hook-form';
+import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
+import { FormTextField } from '../../../components/ui/form-text-field';
+import { applyServerFieldErrors } from '../../../lib/form-errors';
+import {
+  EMPTY_MATERIAL,
+  type MaterialFormValues,
+  materialFormSchema,
+  materialToFormValues,
+} from './material-form-schema';
+import { FAMILY_LABELS } from './material-labels';
+
+const SERVER_FIELDS: Path<MaterialFormValues>[] = [
+  'name',
+  'family',
+  'nominalThicknessMm',
+  'measuredThicknessMm',
+  'colours',
+  'stockSheets',
+  'laserAllowed',
+  'hazardNote',
+  'notes',
+];
+
+interface MaterialFormDialogProps extends FormDialogBaseProps<MaterialFormValues> {
+  /** The material to change, or null to add a new one. */
+  material: MaterialView | null;
+  hazards: readonly MaterialHazard[] | undefined;
+}
+
+/** Adds or changes a material of the library; the laser rules follow the workshop's hazard table. */
+export function MaterialFormDialog(props: MaterialFormDialogProps) {
+  const { material, hazards } = props;
+  const schema = useMemo(() => materialFormSchema(hazards), [hazards]);
+  const {
+    register,
+    control,
+    handleSubmit,
+    setValue,
+    setError,
+    reset,
+    formState: { errors },
+  } = useForm<MaterialFormValues>({
+    resolver: zodResolver(schema),
+    defaultValues: material ? materialToFormValues(material) : EMPTY_MATERIAL,
+  });
+  const sheets = useFieldArray({ control, name: 'stockSheets' });
+  const family = useWatch({ control, name: 'family' });
+  const laserAllowed = useWatch({ control, name: 'laserAllowed' });
+  const refusal = hazards ? laserRefusal(family, hazards) : null;
+  const condition = hazards ? findMaterialHazard(family, hazards)?.condition : undefined;
+
+  useEffect(() => {
+    if (props.open) reset(material ? materialToFormValues(material) : EMPTY_MATERIAL);
+  }, [props.open, material, reset]);
+
+  // A family the hazard table refuses is never laser-allowed: untick it as soon as it is chosen.
+  useEffect(() => {
+    if (refusal !== null) setValue('laserAllowed', false);
+  }, [refusal, setValue]);
+
+  useEffect(() => {
+    if (props.error) applyServerFieldErrors(props.error, setError, SERVER_FIELDS);
+  }, [props.error, setError]);
+
+  const n = { valueAsNumber: true } as const;
+  const submit = handleSubmit((v) => props.onSubmit(v));
+
+  return (
+    <FormDialog
+      open={props.open}
+      titleId="material-form-title"
+      title={material ? `Change ${material.name}` : 'Add a material'}
+      error={props.error}
+      busy={props.busy}
+      submitLabel={material ? 'Save changes' : 'Add the material'}
+      onSubmit={submit}
+      onClose={props.onClose}
+      maxWidth="md"
+    >
+      <Stack spacing={2} sx={{ mt: 1 }}>
+        <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
+          <FormTextField label="Name" registration={register('name')} error={errors.name} />
+          <FormTextField
+            select
+            slotProps={{ select: { native: true } }}
+            label="Family"
+            registration={register('family')}
+            error={errors.family}
+          >
+            {MATERIAL_FAMILIES.map((f) => (
+              <option key={f} value={f}>
+                {FAMILY_LABELS[f]}
+              </option>
+            ))}
+          </FormTextField>
+        </Box>
+        <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr 1fr' } }}>
+          <FormTextField
+            label="Nominal thickness (mm)"
+            type="number"
+            registration={register('nominalThicknessMm', n)}
+            error={errors.nominalThicknessMm}
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+          <FormTextField
+            label="Measured thickness (mm, optional)"
+            type="number"
+            registration={register('measuredThicknessMm', n)}
+            error={errors.measuredThicknessMm}
+            helperText="Callipers on the stock on hand; designs use it when given"
+            slotProps={{ htmlInput: { step: 'any' } }}
+          />
+          <Controller
+            control={control}
+            name="flexible"
+            render={({ field }) => (
+              <FormControlLabel
+                label="Flexible stock (card, felt)"
+                control={
+                  <Checkbox checked={field.value} onChange={(e) => field.onChange(e.target.checked)} />
+                }
+              />
+            )}
+          />
+        </Box>
+        <FormTextField
+          label="Colours offered"
+          registration={register('colours')}
+          error={errors.colours}
+          helperText="Separate colours with commas, e.g. natural, black"
+        />
+
+        <Box component="fieldset" sx={{ border: 0, p: 0, m: 0 }}>
+          <Typography component="legend" variant="subtitle2" sx={{ mb: 1 }}>
+            Stock sheets
+          </Typography>
+          <Stack spacing={1}>
+            {sheets.fields.map((field, i) => {
+              const e = errors.stockSheets?.[i];
+              return (
+                <Box
+                  key={field.id}
+                  role="group"
+                  aria-label={`Sheet size ${i + 1}`}
+                  sx={{
+                    display: 'grid',
+                    gap: 1,
+                    alignItems: 'start',
+                    gridTemplateColumns: { xs: '1fr 1fr', sm: '1fr 1fr 1fr 0.7fr auto' },
+                  }}
+                >
+                  <FormTextField
+                    id={`sheet-${i}-width`}
+                    size="small"
+                    label="Width (mm)"
+                    type="number"
+                    registration={register(`stockSheets.${i}.widthMm`, n)}
+                    error={e?.widthMm}
+                    slotProps={{ htmlInput: { step: 'any' } }}
+                  />
+                  <FormTextField
+                    id={`sheet-${i}-height`}
+                    size="small"
+                    label="Height (mm)"
+                    type="number"
+                    registration={register(`stockSheets.${i}.heightMm`, n)}
+                    error={e?.heightMm}
+                    slotProps={{ htmlInput: { step: 'any' } }}
+                  />
+                  <FormTextField
+                    id={`sheet-${i}-price`}
+                    size="small"
+                    label="Price per sheet"
+                    type="number"
+                    registration={register(`stockSheets.${i}.pricePerSheet`, n)}
+                    error={e?.pricePerSheet}
+                    slotProps={{ htmlInput: { step: 'any' } }}
+                  />
+                  <FormTextField
+                    id={`sheet-${i}-currency`}
+                    size="small"
+                    label="Currency"
+                    registration={register(`stockSheets.${i}.currency`)}
+                    error={e?.currency}
+                    slotProps={{ htmlInput: { maxLength: 3 } }}
+                  />
+                  <IconButton
+                    aria-label={`Remove sheet size ${i + 1}`}
+                    onClick={() => sheets.remove(i)}
+                    sx={{ mt: 0.5 }}
+                  >
+                    ×
+                  </IconButton>
+                </Box>
+              );
+            })}
+          </Stack>
+          {errors.stockSheets?.message ? (
+            <FormHelperText error>{errors.stockSheets.message}</FormHelperText>
+          ) : null}
+          <Button
+            size="small"
+            sx={{ mt: 1 }}
+            onClick={() =>
+              sheets.append({
+                widthMm: Number.NaN,
+                heightMm: Number.NaN,
+                pricePerSheet: Number.NaN,
+                currency: 'EUR',
+              })
+            }
+          >
+            Add a sheet size
+          </Button>
+        </Box>
+
+        <Box>
+          {refusal !== null ? (
+            <Alert severity="error" sx={{ mb: 1 }} data-testid="family-refused">
+              {refusal}
+            </Alert>
+          ) : condition ? (
+            <Alert severity="warning" sx={{ mb: 1 }}>
+              Laser only when: {condition}
+            </Alert>
+          ) : null}
+          <Controller
+            control={control}
+            name="laserAllowed"
+            render={({ field }) => (
+              <FormControlLabel
+                label="May be cut on a laser"
+                disabled={refusal !== null}
+                control={
+                  <Checkbox checked={field.value} onChange={(e) => field.onChange(e.target.checked)} />
+                }
+              />
+            )}
+          />
+          {errors.laserAllowed ? <FormHelperText error>{errors.laserAllowed.message}</FormHelperText> : null}
+        </Box>
+        <FormTextField
+          label={laserAllowed ? 'Hazard note' : 'Why it is kept off the laser'}
+          registration={register('hazardNote')}
+          error={errors.hazardNote}
+          helperText={
+            refusal !== null
+              ? 'Left empty, the hazard table’s reason is recorded'
+              : 'What the operator should watch for (fumes, flames, extraction)'
+          }
+          multiline
+          minRows={2}
+        />
+        <FormTextField
+          label="Notes"
+          registration={register('notes')}
+          error={errors.notes}
+          multiline
+          minRows={2}
+        />
+      </Stack>
+    </FormDialog>
+  );
+}

@@ -1,0 +1,93 @@
+import { type MaterialSortField, type MaterialView } from '@kerfwright/contracts';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Chip from '@mui/material/Chip';
+import Typography from '@mui/material/Typography';
+import { type DataTableColumn } from '../../../components/data-table/data-table';
+import { FAMILY_LABELS } from './material-labels';
+
+type Column = DataTableColumn<MaterialView, MaterialSortField>;
+
+function thickness(m: MaterialView): string {
+  const nominal = `${m.nominalThicknessMm} mm`;
+  return m.measuredThicknessMm === null ? nominal : `${nominal} (measured ${m.measuredThicknessMm} mm)`;
+}
+
+function sheets(m: MaterialView) {
+  if (m.stockSheets.length === 0) return '—';
+  return m.stockSheets.map((s, i) => (
+    <Box key={i} sx={{ whiteSpace: 'nowrap' }}>
+      {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
+    </Box>
+  ));
+}
+
+const COLUMNS: readonly Column[] = [
+  { id: 'family', header: 'Family', sortField: 'family', render: (m) => FAMILY_LABELS[m.family] },
+  {
+    id: 'name',
+    header: 'Name',
+    sortField: 'name',
+    render: (m) => (
+      <>
+        {m.name}
+        {m.flexible ? (
+          <Typography component="span" color="text.secondary" sx={{ fontSize: 'inherit' }}>
+            {' '}
+            (flexible)
+          </Typography>
+        ) : null}
+      </>
+    ),
+  },
+  {
+    id: 'thickness',
+    header: 'Thickness',
+    sortField: 'nominalThicknessMm',
+    cellSx: { whiteSpace: 'nowrap' },
+    render: thickness,
+  },
+  { id: 'colours', header: 'Colours', render: (m) => m.colours.join(', ') || '—' },
+  { id: 'sheets', header: 'Stock sheets', cellSx: { fontSize: '0.8125rem' }, render: sheets },
+  {
+    id: 'laser',
+    header: 'Laser',
+    cellSx: { maxWidth: 320 },
+    render: (m) =>
+      m.laserAllowed ? (
+        <Chip size="small" color="success" variant="outlined" label="Allowed" />
+      ) : (
+        <>
+          <Chip size="small" color="error" label="Not for lasers" />
+          <Typography variant="body2" color="error" sx={{ mt: 0.5 }} data-testid="laser-refusal-reason">
+            {m.hazardNote}
+          </Typography>
+        </>
+      ),
+  },
+];
+
+/**
+ * One row per material (a material kept off the laser says so in red, with its reason), with a Change
+ * button per row for those who may edit.
+ */
+export function materialColumns(onEdit?: (material: MaterialView) => void): readonly Column[] {
+  if (!onEdit) return COLUMNS;
+  return [
+    ...COLUMNS,
+    {
+      id: 'change',
+      header: 'Change',
+      align: 'right',
+      render: (m) => (
+        <Button size="small" onClick={() => onEdit(m)} aria-label={`Change ${m.name}`}>
+          Change
+        </Button>
+      ),
+    },
+  ];
+}
+
+/** A material kept off the laser: its row is tinted red. */
+export const materialRowSx = (m: MaterialView) =>
+  m.laserAllowed ? undefined : { bgcolor: 'rgba(211, 47, 47, 0.06)' };

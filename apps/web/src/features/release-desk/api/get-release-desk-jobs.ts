@@ -1,0 +1,50 @@
+import { type ExportView, type JobView } from '@kerfwright/contracts';
+import { useQueries, useQuery } from '@tanstack/react-query';
+import { getJobExports } from '../../jobs/api/get-job-exports';
+import { getJobs } from '../../jobs/api/get-jobs';
+import { jobsKeys } from '../../jobs/api/jobs-keys';
+
+/** Most jobs one desk lists per state (the workshop's queue, not an archive). */
+const DESK_PAGE_SIZE = 100;
+
+export interface DeskRow {
+  job: JobView;
+  /** The job's newest export, once loaded (null: none yet). */
+  newest: ExportView | null | undefined;
+}
+
+/**
+ * The release desk's queue: released jobs, and approved jobs whose cut pack is being prepared (a release in
+ * progress), each with its newest export. GET /api/jobs?state=released|approved, then the exports per job.
+ */
+export function useReleaseDeskJobs() {
+  const released = useQuery({
+    queryKey: jobsKeys.list({ desk: 'released' }),
+    queryFn: ({ signal }) =>
+      getJobs({ page: 1, pageSize: DESK_PAGE_SIZE, sort: '-updatedAt', state: 'released' }, signal),
+  });
+  const approved = useQuery({
+    queryKey: jobsKeys.list({ desk: 'approved' }),
+    queryFn: ({ signal }) =>
+      getJobs({ page: 1, pageSize: DESK_PAGE_SIZE, sort: '-updatedAt', state: 'approved' }, signal),
+  });
+  const jobs = [...(released.data?.items ?? []), ...(approved.data?.items ?? [])];
+  const exports = useQueries({
+    queries: jobs.map((job) => ({
+      queryKey: jobsKeys.exports(job.id),
+      queryFn: ({ signal }: { signal: AbortSignal }) => getJobExports(job.id, signal),
+    })),
+  });
+  const rows: DeskRow[] = jobs
+    .map((job, i) => ({ job, newest: exports[i]?.data ? (exports[i]?.data?.[0] ?? null) : undefined }))
+    .filter(
+      ({ job, newest }) =>
+        job.state === 'released' || (newest && (newest.state === 'queued' || newest.state === 'running')),
+    );
+  return {
+    rows,
+    isPending: released.isPending || approved.isPending,
+    error: released.error ?? approved.error,
+    refetch: () => Promise.all([released.refetch(), approved.refetch()]),
+  };
+}

@@ -1,0 +1,33 @@
+import { type ExportView } from '@kerfwright/contracts';
+import LinearProgress from '@mui/material/LinearProgress';
+import Stack from '@mui/material/Stack';
+import Typography from '@mui/material/Typography';
+import { useFollowExport } from '../../jobs/api/follow-export';
+
+/** A cut pack's state in a desk row: a live progress bar while it is prepared (followed by its events). */
+export function PackProgress({ jobId, newest }: { jobId: string; newest: ExportView | null | undefined }) {
+  const busy = newest && (newest.state === 'queued' || newest.state === 'running');
+  const live = useFollowExport(busy ? newest.id : null, jobId);
+  const view = live.view ?? newest;
+  if (view === undefined) return <Typography variant="body2">…</Typography>;
+  if (view === null) return <Typography variant="body2">No cut pack yet</Typography>;
+  if (view.state === 'done')
+    return <Typography variant="body2">{`Ready, ${view.files.length} files`}</Typography>;
+  if (view.state === 'failed') {
+    return (
+      <Typography variant="body2" color="error">
+        {view.errorMessage ?? 'Failed'}
+      </Typography>
+    );
+  }
+  return (
+    <Stack spacing={0.5} sx={{ minWidth: 160 }}>
+      <Typography variant="body2">{`Preparing (${view.state}, ${view.progress} %)`}</Typography>
+      <LinearProgress
+        variant="determinate"
+        value={view.progress}
+        aria-label={`Preparing the cut pack, ${view.progress} %`}
+      />
+    </Stack>
+  );
+}

@@ -1,0 +1,156 @@
+import { type ExportView, type JobSafetyView, type JobView } from '@kerfwright/contracts';
+import { screen, waitFor, within } from '@testing-library/react';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { renderApp } from '../../../testing/render-app';
+
+function jobFixture(id: string, state: JobView['state'], name: string): JobView {
+  return {
+    id,
+    state,
+    designId: `d-${id}`,
+    designName: name,
+    requesterId: 'u-h',
+    requesterName: 'Jun Park',
+    quantity: 1,
+    notes: '',
+    materialId: 'm-1',
+    materialName: 'Cast acrylic 3 mm',
+    colours: ['clear'],
+    profileVersionId: 'v-1',
+    profileName: 'CO2 laser',
+    profileVersionNumber: 2,
+    returnReason: null,
+    preparation: null,
+    actualMinutes: null,
+    sheetsUsed: null,
+    measuredKerfMm: null,
+    version: 7,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-02T00:00:00.000Z',
+    actions: state === 'released' ? ['cut'] : [],
+  };
+}
+
+function exportFixture(id: string, jobId: string, state: ExportView['state'], progress: number): ExportView {
+  return {
+    id,
+    jobId,
+    state,
+    progress,
+    attempts: 1,
+    errorCode: null,
+    errorMessage: null,
+    files:
+      state === 'done'
+        ? [
+            {
+              name: 'sheet-01-clear.svg',
+              role: 'sheet-svg',
+              contentType: 'image/svg+xml',
+              bytes: 4506,
+              sha256: 'a',
+            },
+            {
+              name: 'manifest.json',
+              role: 'manifest',
+              contentType: 'application/json',
+              bytes: 812,
+              sha256: 'b',
+            },
+          ]
+        : [],
+    createdAt: '2026-01-02T00:00:00.000Z',
+    finishedAt: null,
+  };
+}
+
+const released = jobFixture('j-released', 'released', 'Turned squares');
+const packing = jobFixture('j-packing', 'approved', 'Star lamp');
+const waiting = jobFixture('j-waiting', 'approved', 'Not released yet');
+
+function stubDesk(acknowledged: boolean) {
+  const safety: JobSafetyView = {
+    jobId: released.id,
+    machineKind: 'co2-laser',
+    materialFamily: 'acrylic',
+    notices: [],
+    localRules: null,
+    acknowledged,
+    acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
+  };
+  return stubFetch({
+    'GET /api/auth/me': () => json(200, userFixture('operator')),
+    'GET /api/jobs': (call) => {
+      const state = call.url.searchParams.get('state');
+      const items = state === 'released' ? [released] : state === 'approved' ? [packing, waiting] : [];
+      return json(200, { items, total: items.length, page: 1, pageSize: 100 });
+    },
+    [`GET /api/jobs/${released.id}`]: () => json(200, { ...released, transitions: [] }),
+    [`GET /api/jobs/${released.id}/exports`]: () =>
+      json(200, [exportFixture('e-r', released.id, 'done', 100)]),
+    [`GET /api/jobs/${packing.id}/exports`]: () =>
+      json(200, [exportFixture('e-p', packing.id, 'running', 40)]),
+    [`GET /api/jobs/${waiting.id}/exports`]: () => json(200, []),
+    // The pack being prepared: its event stream reports 65 % and ends; polling then finds it still running.
+    'GET /api/exports/e-p/events': () =>
+      new Response(
+        `event: progress\ndata: ${JSON.stringify(exportFixture('e-p', packing.id, 'running', 65))}\n\n`,
+        {
+          status: 200,
+        },
+      ),
+    'GET /api/exports/e-p': () => json(200, exportFixture('e-p', packing.id, 'running', 65)),
+    [`GET /api/jobs/${released.id}/safety`]: () => json(200, safety),
+    [`POST /api/jobs/${released.id}/cut`]: () => json(200, { ...released, state: 'cut', actions: [] }),
+  });
+}
+
+describe('release desk', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('lists released jobs and approved jobs whose pack is being prepared, with live progress', async () => {
+    stubDesk(false);
+    renderApp('/release-desk', { token: 't' });
+    const table = await screen.findByRole('table', { name: 'Jobs at the release desk' });
+    await within(table).findByText('Star lamp');
+    expect(within(table).getByText('Turned squares')).toBeInTheDocument();
+    expect(within(table).queryByText('Not released yet')).not.toBeInTheDocument();
+    // The stream's 65 % replaces the 40 % the list gave.
+    expect(
+      await within(table).findByRole('progressbar', { name: 'Preparing the cut pack, 65 %' }),
+    ).toBeInTheDocument();
+    expect(within(table).getByText('Ready, 2 files')).toBeInTheDocument();
+  });
+
+  it('offers no download and no cut record before the safety notices are acknowledged', async () => {
+    stubDesk(false);
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await within(job).findByTestId('desk-needs-acknowledgement');
+    expect(within(job).queryByRole('button', { name: /^Download / })).not.toBeInTheDocument();
+    expect(within(job).getByRole('button', { name: 'Record the cut' })).toBeDisabled();
+  });
+
+  it('once acknowledged, shows the files with their sizes and records the cut', async () => {
+    const stub = stubDesk(true);
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    const files = await within(job).findByRole('table', { name: 'Cut pack files' });
+    expect(files).toHaveTextContent('sheet-01-clear.svg');
+    expect(files).toHaveTextContent('4.4 KB');
+    expect(files).toHaveTextContent('812 B');
+    await user.click(within(job).getByRole('button', { name: 'Record the cut' }));
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '21');
+    await user.click(within(screen.getByRole('dialog')).getByRole('button', { name: 'Record the cut' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({
+      version: 7,
+      actualMinutes: 21,
+      sheetsUsed: 1,
+    });
+  });
+});

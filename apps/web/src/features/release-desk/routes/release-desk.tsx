@@ -1,0 +1,184 @@
+import { type JobView } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import CircularProgress from '@mui/material/CircularProgress';
+import Paper from '@mui/material/Paper';
+import Stack from '@mui/material/Stack';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableHead from '@mui/material/TableHead';
+import TableRow from '@mui/material/TableRow';
+import Typography from '@mui/material/Typography';
+import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import { ErrorPanel } from '../../../components/errors/error-panel';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { paths } from '../../../config/paths';
+import { useUser } from '../../../lib/auth';
+import { jobQueryOptions } from '../../jobs/api/get-job';
+import { useJobSafety } from '../../jobs/api/get-job-safety';
+import { useTakeJobAction } from '../../jobs/api/take-job-action';
+import { CutPackPanel } from '../../jobs/components/cut-pack-panel';
+import { JobStateChip } from '../../jobs/components/job-state-chip';
+import { RecordCutDialog } from '../../jobs/components/record-cut-dialog';
+import { SafetyDialog } from '../../jobs/components/safety-dialog';
+import { useReleaseDeskJobs } from '../api/get-release-desk-jobs';
+import { PackProgress } from '../components/pack-progress';
+
+/**
+ * The release desk (operators, supervisors): the jobs ready for the machines and those whose cut pack is
+ * being prepared. Open one to read and acknowledge its safety notices, download its files and record the cut.
+ */
+export function ReleaseDeskRoute() {
+  const desk = useReleaseDeskJobs();
+  const [selectedId, setSelectedId] = useState<string | null>(null);
+  // The opened job is read on its own, so it stays on screen after the cut (when it leaves the queue).
+  const detail = useQuery({ ...jobQueryOptions(selectedId ?? ''), enabled: selectedId !== null });
+  const selected = detail.data ?? desk.rows.find((r) => r.job.id === selectedId)?.job ?? null;
+  return (
+    <Box data-testid="release-desk">
+      <title>Release desk · Kerfwright</title>
+      <Typography variant="h1">Release desk</Typography>
+      <Typography color="text.secondary" sx={{ mb: 2 }}>
+        Jobs released to the machines, and those whose cut pack is being prepared. Read the safety notices
+        before downloading; the workshop&apos;s rules and the machine maker&apos;s manual come first.
+      </Typography>
+      {desk.error ? (
+        <ErrorPanel
+          title="The jobs could not be loaded"
+          error={desk.error}
+          onRetry={() => void desk.refetch()}
+        />
+      ) : null}
+      {desk.isPending ? <CircularProgress aria-label="Loading the jobs" /> : null}
+      {!desk.isPending && !desk.error && desk.rows.length === 0 ? (
+        <Alert severity="info">No job is waiting for the machines.</Alert>
+      ) : null}
+      {desk.rows.length > 0 ? (
+        <Paper variant="outlined" sx={{ mb: 2 }}>
+          <Table size="small" aria-label="Jobs at the release desk">
+            <TableHead>
+              <TableRow>
+                <TableCell>Design</TableCell>
+                <TableCell>State</TableCell>
+                <TableCell>Material</TableCell>
+                <TableCell>Machine</TableCell>
+                <TableCell>Sheets</TableCell>
+                <TableCell>Cut pack</TableCell>
+                <TableCell />
+              </TableRow>
+            </TableHead>
+            <TableBody>
+              {desk.rows.map(({ job, newest }) => (
+                <TableRow key={job.id} selected={job.id === selectedId}>
+                  <TableCell>{job.designName}</TableCell>
+                  <TableCell>
+                    <JobStateChip state={job.state} />
+                  </TableCell>
+                  <TableCell>{`${job.materialName ?? '—'}${job.colours.length ? ` (${job.colours.join(', ')})` : ''}`}</TableCell>
+                  <TableCell>
+                    {job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : '—'}
+                  </TableCell>
+                  <TableCell>{job.preparation?.sheetCount ?? '—'}</TableCell>
+                  <TableCell>
+                    <PackProgress jobId={job.id} newest={newest} />
+                  </TableCell>
+                  <TableCell align="right">
+                    <Button size="small" onClick={() => setSelectedId(job.id)}>
+                      {`Open ${job.designName}`}
+                    </Button>
+                  </TableCell>
+                </TableRow>
+              ))}
+            </TableBody>
+          </Table>
+        </Paper>
+      ) : null}
+      {selected ? <DeskJob key={selected.id} job={selected} /> : null}
+    </Box>
+  );
+}
+
+/** One job at the desk: the safety acknowledgement, the cut pack's files and recording the cut. */
+function DeskJob({ job }: { job: JobView }) {
+  const user = useUser();
+  const safety = useJobSafety(job.id, true);
+  const action = useTakeJobAction();
+  const [open, setOpen] = useState<'safety' | 'cut' | null>(null);
+  const acknowledged = safety.data?.acknowledged === true;
+  const canCut = job.actions.includes('cut');
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }} data-testid="desk-job">
+      <Stack direction="row" spacing={2} sx={{ alignItems: 'center', mb: 1, flexWrap: 'wrap' }} useFlexGap>
+        <Typography variant="h2" sx={{ flex: 1 }}>
+          {job.designName}
+        </Typography>
+        <JobStateChip state={job.state} />
+        <Button component={Link} to={paths.job.getHref(job.id)}>
+          Job details
+        </Button>
+        {job.state === 'released' ? (
+          <Button
+            variant={acknowledged ? 'outlined' : 'contained'}
+            color="warning"
+            onClick={() => setOpen('safety')}
+          >
+            Safety notices
+          </Button>
+        ) : null}
+        {canCut ? (
+          <Button
+            variant="contained"
+            disabled={!acknowledged}
+            title={acknowledged ? undefined : 'Acknowledge the safety notices first'}
+            onClick={() => {
+              action.reset();
+              setOpen('cut');
+            }}
+          >
+            Record the cut
+          </Button>
+        ) : null}
+      </Stack>
+      {job.state === 'released' && safety.isSuccess && !acknowledged ? (
+        <Alert severity="warning" data-testid="desk-needs-acknowledgement">
+          Read and acknowledge the safety notices for this job before its files are offered.
+        </Alert>
+      ) : null}
+      {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
+      <CutPackPanel
+        jobId={job.id}
+        canPrepare={user.role === 'supervisor'}
+        onOpenSafety={() => setOpen('safety')}
+      />
+      {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}
+      {open === 'cut' ? (
+        <RecordCutDialog
+          open
+          busy={action.isPending}
+          error={action.error}
+          defaultSheets={job.preparation?.sheetCount ?? 1}
+          onSubmit={(v) =>
+            action.mutate(
+              {
+                id: job.id,
+                action: 'cut',
+                body: {
+                  version: job.version,
+                  actualMinutes: v.actualMinutes,
+                  sheetsUsed: v.sheetsUsed,
+                  ...(Number.isNaN(v.measuredKerfMm) ? {} : { measuredKerfMm: v.measuredKerfMm }),
+                },
+              },
+              { onSuccess: () => setOpen(null) },
+            )
+          }
+          onClose={() => setOpen(null)}
+        />
+      ) : null}
+    </Paper>
+  );
+}
