@@ -109,15 +109,15 @@ async function main(svc) {
     forcePathStyle: true,
     credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
   });
+  // Listed job by job: each job's prefix holds a few files, so no listing needs a continuation token.
   const stored = [];
-  let token;
-  do {
+  for (const { id } of (await db.query(`SELECT id FROM jobs`)).rows) {
     const page = await s3.send(
-      new ListObjectsV2Command({ Bucket: env.KW_S3_BUCKET, Prefix: 'jobs/', ContinuationToken: token }),
+      new ListObjectsV2Command({ Bucket: env.KW_S3_BUCKET, Prefix: `jobs/${id}/`, MaxKeys: 1000 }),
     );
+    if (page.IsTruncated) failures.push(`more than 1000 objects stored for job ${id}`);
     stored.push(...(page.Contents ?? []).map((o) => o.Key));
-    token = page.NextContinuationToken;
-  } while (token);
+  }
   const listed = (await db.query(`SELECT storage_key FROM export_files`)).rows.map((r) => r.storage_key);
   const orphans = stored.filter((k) => !listed.includes(k));
   const missing = listed.filter((k) => !stored.includes(k));

@@ -537,6 +537,22 @@ describe('machine profiles, versions and kerf records', () => {
       .set(auth('hobbyist'))
       .expect(200);
     expect(page2.body.items.map((p: ProfileBody) => p.name)).toEqual([`List ${tag} c`]);
+    // Sorted by name descending, and by kind ("cnc-router" sorts before "co2-laser" as text).
+    const byNameDesc = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&sort=-name`)
+      .set(auth('hobbyist'))
+      .expect(200);
+    expect(byNameDesc.body.items.map((p: ProfileBody) => p.name)).toEqual([
+      `List ${tag} c`,
+      `List ${tag} b`,
+      `List ${tag} a`,
+    ]);
+    const byKind = await ctx.http
+      .get(`/api/machine-profiles?q=${tag}&sort=kind`)
+      .set(auth('hobbyist'))
+      .expect(200);
+    expect(byKind.body.items[0].id).toBe(b.id);
+    await ctx.http.get(`/api/machine-profiles?sort=hourlyRate`).set(auth('hobbyist')).expect(400);
 
     const routers = await ctx.http
       .get(`/api/machine-profiles?q=${tag}&kind=cnc-router`)

@@ -1,6 +1,3 @@
-import { RequestMethod } from '@nestjs/common';
-import { METHOD_METADATA, PATH_METADATA } from '@nestjs/common/constants';
-import { ModulesContainer } from '@nestjs/core';
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { type Role } from '@kerfwright/contracts';
@@ -12,6 +9,7 @@ import {
   type TestContext,
   type TestUser,
 } from './support/test-app';
+import { registeredRoutes } from './support/registered-routes';
 import { createWorkshop, octahedronHexagons, type WorkshopFixture } from './support/workshop-fixtures';
 
 jest.setTimeout(120000);
@@ -69,33 +67,11 @@ function owned(owner: Outcome, staff: Partial<Record<Role, Outcome>>): Expectati
 const PYRAMID_OFF =
   'OFF\n5 5 0\n-1 -1 0\n1 -1 0\n1 1 0\n-1 1 0\n0 0 1.2\n4 0 3 2 1\n3 0 1 4\n3 1 2 4\n3 2 3 4\n3 3 0 4\n';
 
-/** Every route Nest registered, as "METHOD /api/path/:param", read from the controllers' metadata. */
-function registeredRoutes(ctx: TestContext): string[] {
-  const out: string[] = [];
-  const join = (...parts: string[]) =>
-    '/' +
-    parts
-      .flatMap((p) => p.split('/'))
-      .filter(Boolean)
-      .join('/');
-  for (const mod of ctx.app.get(ModulesContainer).values()) {
-    for (const wrapper of mod.controllers.values()) {
-      const type = wrapper.metatype as (new (...args: never[]) => unknown) | null;
-      if (!type) continue;
-      const bases = [Reflect.getMetadata(PATH_METADATA, type) as string | string[]].flat();
-      for (const name of Object.getOwnPropertyNames(type.prototype)) {
-        const handler = (type.prototype as Record<string, unknown>)[name];
-        if (name === 'constructor' || typeof handler !== 'function') continue;
-        const method = Reflect.getMetadata(METHOD_METADATA, handler) as RequestMethod | undefined;
-        if (method === undefined) continue;
-        const paths = [Reflect.getMetadata(PATH_METADATA, handler) as string | string[]].flat();
-        for (const base of bases) {
-          for (const p of paths) out.push(`${RequestMethod[method]} ${join('api', base ?? '', p ?? '')}`);
-        }
-      }
-    }
-  }
-  return out.sort();
+/** Every route Nest registered, as "METHOD /api/path/:param". */
+function routeKeys(ctx: TestContext): string[] {
+  return registeredRoutes(ctx)
+    .map((r) => `${r.method.toUpperCase()} ${r.route}`)
+    .sort();
 }
 
 describe('role matrix: every route × every role', () => {
@@ -686,7 +662,7 @@ describe('role matrix: every route × every role', () => {
   ];
 
   it('has exactly one row for every route the application registers', () => {
-    const routes = registeredRoutes(ctx);
+    const routes = routeKeys(ctx);
     const rows = table.map((r) => r.route).sort();
     expect(new Set(rows).size).toBe(rows.length);
     expect(rows).toEqual(routes);

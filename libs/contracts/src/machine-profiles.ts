@@ -145,7 +145,13 @@ export interface ListMachineProfilesQuery {
   /** Profiles whose latest version is in this state. */
   state?: ProfileVersionState;
   q?: string;
+  /** A field of PROFILE_SORT_FIELDS; prefix with '-' for descending order. Default "name". */
+  sort?: ProfileSortField | `-${ProfileSortField}`;
 }
+
+/** Fields GET /api/machine-profiles can sort by; prefix with '-' for descending order. */
+export const PROFILE_SORT_FIELDS = ['name', 'kind', 'createdAt'] as const;
+export type ProfileSortField = (typeof PROFILE_SORT_FIELDS)[number];
 
 /** A kerf measured on a test cut (or a job) for a machine and a material. */
 export interface KerfRecordView {

@@ -10,7 +10,19 @@ import { PageQueryDto, pageWindow } from '../common/paging';
 import { AuditEvent } from './audit-event.entity';
 
 export class ListAuditQuery extends PageQueryDto {
-  @ApiPropertyOptional({ enum: ['user', 'material', 'machine_profile', 'design', 'job', 'safety'] })
+  @ApiPropertyOptional({
+    description: 'The kind of record the events are about',
+    enum: [
+      'user',
+      'material',
+      'machine-profile',
+      'machine-profile-version',
+      'kerf-record',
+      'design',
+      'job',
+      'safety',
+    ],
+  })
   @IsOptional()
   @IsString()
   @MaxLength(40)

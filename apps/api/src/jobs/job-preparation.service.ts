@@ -144,7 +144,7 @@ export class JobPreparationService {
       await this.audit.record(m, {
         actorId: userId,
         action: 'kerf-record.create',
-        entityType: 'kerf_record',
+        entityType: 'kerf-record',
         entityId: rows[0].id,
         after: { jobId: job.id, kerfMm },
         requestId,

@@ -16,6 +16,7 @@ import {
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { AppError, notFound } from '../common/errors';
+import { sortOrder } from '../common/paging';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { composeMail } from '../mail/mail-templates';
 import { mailConfig } from '../mail/mail.config';
@@ -52,6 +53,12 @@ const AREA = 'MACHINE_PROFILE';
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const noNames = new Map<string, string>();
 
+/** Sortable columns of the profiles table (query key → column). */
+const PROFILE_SORT_COLUMNS: Readonly<Record<string, string>> = {
+  name: 'p.name',
+  kind: 'p.kind',
+  createdAt: 'p.createdAt',
+};
 @Injectable()
 export class MachineProfilesService {
   constructor(
@@ -76,7 +83,8 @@ export class MachineProfilesService {
         { state: query.state },
       );
     }
-    qb.orderBy('p.name', 'ASC')
+    const [column, direction] = sortOrder(query.sort ?? 'name', PROFILE_SORT_COLUMNS, 'p.name');
+    qb.orderBy(column, direction)
       .addOrderBy('p.id', 'ASC')
       .skip((page - 1) * pageSize)
       .take(pageSize);

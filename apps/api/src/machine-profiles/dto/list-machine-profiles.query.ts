@@ -5,10 +5,14 @@ import {
   type ListMachineProfilesQuery,
   MACHINE_PROFILE_KINDS,
   type MachineProfileKind,
+  PROFILE_SORT_FIELDS,
   PROFILE_VERSION_STATES,
+  type ProfileSortField,
   type ProfileVersionState,
 } from '@kerfwright/contracts';
 import { MAX_PAGE, PageQueryDto } from '../../common/paging';
+
+const SORTS = [...PROFILE_SORT_FIELDS, ...PROFILE_SORT_FIELDS.map((f) => `-${f}` as const)];
 
 export class ListMachineProfilesQueryDto extends PageQueryDto implements ListMachineProfilesQuery {
   @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
@@ -26,6 +30,11 @@ export class ListMachineProfilesQueryDto extends PageQueryDto implements ListMac
   @IsString()
   @MaxLength(100)
   q?: string;
+
+  @ApiPropertyOptional({ enum: SORTS, default: 'name', description: "A field; prefix '-' for descending" })
+  @IsOptional()
+  @IsIn(SORTS)
+  sort?: ProfileSortField | `-${ProfileSortField}`;
 }
 
 export class ListKerfRecordsQueryDto {

@@ -11,13 +11,15 @@ import { profilesKeys } from './profiles-keys';
 export interface GetMachineProfilesParams {
   page: number;
   pageSize: number;
+  /** A field of PROFILE_SORT_FIELDS, '-' first for descending. */
+  sort?: string;
   kind?: MachineProfileKind;
   /** State of the latest version. */
   state?: ProfileVersionState;
   q?: string;
 }
 
-/** GET /api/machine-profiles?page&pageSize&kind&state&q → profiles (by name) with approved and latest versions. */
+/** GET /api/machine-profiles?page&pageSize&sort&kind&state&q → profiles with approved and latest versions. */
 export function getMachineProfiles(
   params: GetMachineProfilesParams,
   signal?: AbortSignal,
@@ -27,6 +29,7 @@ export function getMachineProfiles(
     {
       page: params.page,
       pageSize: params.pageSize,
+      sort: params.sort,
       kind: params.kind,
       state: params.state,
       q: params.q?.trim() || undefined,

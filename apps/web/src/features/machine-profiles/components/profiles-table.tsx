@@ -1,4 +1,4 @@
-import { type MachineProfileSummaryView } from '@kerfwright/contracts';
+import { type MachineProfileSummaryView, type ProfileSortField } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
 import { RouterLink } from '../../../components/ui/router-link';
@@ -7,13 +7,14 @@ import { KIND_LABELS } from './profile-labels';
 import { VersionStateChip } from './version-state-chip';
 
 /** One row per machine profile: its kind, bed, the version jobs use now and the state of the newest one. */
-export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView>[] = [
+export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView, ProfileSortField>[] = [
   {
     id: 'name',
     header: 'Name',
+    sortField: 'name',
     render: (p) => <RouterLink to={paths.machineProfile.getHref(p.id)}>{p.name}</RouterLink>,
   },
-  { id: 'kind', header: 'Kind', render: (p) => KIND_LABELS[p.kind] },
+  { id: 'kind', header: 'Kind', sortField: 'kind', render: (p) => KIND_LABELS[p.kind] },
   {
     id: 'bed',
     header: 'Bed',

@@ -1,4 +1,4 @@
-import { isMachineProfileKind, PROFILE_VERSION_STATES } from '@kerfwright/contracts';
+import { isMachineProfileKind, PROFILE_SORT_FIELDS, PROFILE_VERSION_STATES } from '@kerfwright/contracts';
 import { useMemo } from 'react';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
 import { type GetMachineProfilesParams } from '../api/get-machine-profiles';
@@ -10,13 +10,19 @@ const FILTERS = {
   state: (raw: string | null) => PROFILE_VERSION_STATES.find((s) => s === raw),
 };
 
-/** The profiles list's page and filters, kept in the address (the API lists profiles by name). */
+/** The profiles list's page, sort and filters, kept in the address (they survive reload and Back). */
 export function useProfilesSearchParams() {
-  const search = useTableSearchParams({ pageSizes: PAGE_SIZES, defaultPageSize: 25, filters: FILTERS });
-  const { page, pageSize, q, kind, state } = search.params;
+  const search = useTableSearchParams({
+    sortFields: PROFILE_SORT_FIELDS,
+    defaultSort: 'name',
+    pageSizes: PAGE_SIZES,
+    defaultPageSize: 25,
+    filters: FILTERS,
+  });
+  const { page, pageSize, sort, q, kind, state } = search.params;
   const query = useMemo(
-    (): GetMachineProfilesParams => ({ page, pageSize, kind, state, q }),
-    [page, pageSize, kind, state, q],
+    (): GetMachineProfilesParams => ({ page, pageSize, sort, kind, state, q }),
+    [page, pageSize, sort, kind, state, q],
   );
   return { ...search, query };
 }
