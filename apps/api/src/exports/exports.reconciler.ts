@@ -10,20 +10,12 @@ import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { DataSource } from 'typeorm';
+import { withDeadline } from '../common/with-deadline';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
 import { type ExportJobData } from './exports.processor';
 
 /** How long one Redis call of the reconciler may take before the round is given up (Redis is down). */
 const REDIS_CALL_MS = 3000;
-
-export function withDeadline<T>(p: Promise<T>, ms: number, what: string): Promise<T> {
-  return Promise.race([
-    p,
-    new Promise<T>((_, reject) =>
-      setTimeout(() => reject(new Error(`${what} took longer than ${ms} ms`)), ms).unref(),
-    ),
-  ]);
-}
 
 /**
  * PostgreSQL is the record of which exports are owed; Redis only carries the work. When Redis loses its

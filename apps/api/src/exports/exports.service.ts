@@ -11,6 +11,7 @@ import { type ExportRequested, type ExportView, transitionFor } from '@kerfwrigh
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
+import { withDeadline } from '../common/with-deadline';
 import { Job } from '../jobs/job.entity';
 import { canReadJob } from '../jobs/jobs.service';
 import { SafetyService } from '../safety/safety.service';
@@ -18,7 +19,6 @@ import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
 import { exportPrefix, isSafeFileName } from './export-keys';
 import { Export, ExportFile } from './export.entity';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
-import { withDeadline } from './exports.reconciler';
 import { type ExportJobData } from './exports.processor';
 
 /** States of a job whose cut pack may be (re)built. */

@@ -6,17 +6,11 @@ import { DataSource } from 'typeorm';
 import { type HealthView } from '@kerfwright/contracts';
 import { Public } from '../common/decorators/auth.decorators';
 import { AppError } from '../common/errors';
+import { withDeadline } from '../common/with-deadline';
 import { REDIS } from '../redis/redis.module';
 import { HealthResponse } from './dto/health.response';
 
 const CHECK_TIMEOUT_MS = 1500;
-
-function withTimeout<T>(p: Promise<T>): Promise<T> {
-  return Promise.race([
-    p,
-    new Promise<T>((_, reject) => setTimeout(() => reject(new Error('timeout')), CHECK_TIMEOUT_MS).unref()),
-  ]);
-}
 
 @ApiTags('health')
 @Controller('health')
@@ -35,11 +29,11 @@ export class HealthController {
   })
   async check(): Promise<HealthView> {
     const [database, redis] = await Promise.all([
-      withTimeout(this.dataSource.query('SELECT 1')).then(
+      withDeadline(this.dataSource.query('SELECT 1'), CHECK_TIMEOUT_MS, 'PostgreSQL').then(
         () => 'up' as const,
         () => 'down' as const,
       ),
-      withTimeout(this.redis.ping()).then(
+      withDeadline(this.redis.ping(), CHECK_TIMEOUT_MS, 'Redis').then(
         (r) => (r === 'PONG' ? ('up' as const) : ('down' as const)),
         () => 'down' as const,
       ),
