@@ -348,6 +348,56 @@ describe('jobs through their states', () => {
     expect((await act(users.supervisor, other.id, 'approve')).body.state).toBe('approved');
   });
 
+  it('lists a page of jobs with the same row the job route gives, filtered, searched and counted', async () => {
+    const other = await draftJob(users.other); // another hobbyist's draft: staff below a supervisor do not see it
+    const prepared = await draftJob();
+    await act(users.hobbyist, prepared.id, 'request');
+    await act(users.supervisor, prepared.id, 'prepare', prepareBody());
+    const list = (u: TestUser, query: Record<string, string | number> = {}) =>
+      ctx.http
+        .get('/api/jobs')
+        .query({ pageSize: 200, ...query })
+        .set(auth(u))
+        .expect(200);
+    const withoutTransitions = ({ transitions: _t, ...row }: Record<string, unknown>) => row;
+
+    // Every row equals the job route's view of it for the same caller, names and offered actions included.
+    for (const u of [users.supervisor, users.fabricator, users.hobbyist]) {
+      const page = (await list(u)).body as { items: { id: string }[]; total: number };
+      expect(page.total).toBe(page.items.length);
+      const row = page.items.find((r) => r.id === prepared.id);
+      const detail = await ctx.http.get(`/api/jobs/${prepared.id}`).set(auth(u)).expect(200);
+      expect(row).toEqual(withoutTransitions(detail.body));
+    }
+    const supervisorRow = (await list(users.supervisor)).body.items.find(
+      (r: { id: string }) => r.id === prepared.id,
+    );
+    expect(supervisorRow.materialName).toBeTruthy();
+    expect(supervisorRow.profileName).toBeTruthy();
+    expect(supervisorRow.actions).not.toContain('approve'); // four eyes: the supervisor prepared it
+
+    // Who sees what: drafts of others stay with their owner (and supervisors); hobbyists see only their own.
+    const ids = async (u: TestUser, q = {}) => (await list(u, q)).body.items.map((r: { id: string }) => r.id);
+    expect(await ids(users.fabricator)).not.toContain(other.id);
+    expect(await ids(users.supervisor)).toContain(other.id);
+    expect(await ids(users.hobbyist)).not.toContain(other.id);
+    expect(await ids(users.other)).toEqual([other.id]);
+
+    // Filters and search, and the total on a page past the end.
+    expect(await ids(users.supervisor, { state: 'prepared' })).toContain(prepared.id);
+    expect(await ids(users.supervisor, { state: 'draft' })).not.toContain(prepared.id);
+    expect(await ids(users.supervisor, { q: 'hanging OCTA' })).toEqual(
+      expect.arrayContaining([prepared.id, other.id]),
+    );
+    expect(await ids(users.supervisor, { q: 'no such design 100%' })).toEqual([]);
+    const all = (await list(users.supervisor)).body.total as number;
+    const past = await list(users.supervisor, { pageSize: 5, page: Math.ceil(all / 5) + 3 });
+    expect(past.body).toMatchObject({ items: [], total: all, pageSize: 5 });
+    const last = await list(users.supervisor, { pageSize: 1, page: all });
+    expect(last.body.items).toHaveLength(1);
+    expect(last.body.total).toBe(all);
+  });
+
   it('lets exactly one of two fabricators preparing the same job win', async () => {
     const job = await draftJob();
     await act(users.hobbyist, job.id, 'request');

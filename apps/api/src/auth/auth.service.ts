@@ -7,6 +7,7 @@ import bcrypt from 'bcryptjs';
 import { DataSource, Repository } from 'typeorm';
 import { type AuthResponse, type UserView } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
+import { preparedQuery } from '../common/db-helpers';
 import { AppError } from '../common/errors';
 import { appConfig } from '../config/app.config';
 import { toUserView, User } from '../users/user.entity';
@@ -100,21 +101,22 @@ export class AuthService {
     return this.issue(user);
   }
 
-  /** Loads the user behind a token; inactive users (and demo users in production) get no access. */
   /**
    * The signed-in user behind a verified token, read fresh on every request (so deactivation and role changes
-   * apply at once). One plain indexed query: it runs on every authenticated request.
+   * apply at once); inactive users, and demo users in production, get no access. One plain indexed query: it runs on every authenticated request.
    */
   async userForToken(
     payload: JwtPayload,
   ): Promise<Pick<User, 'id' | 'email' | 'role' | 'displayName'> | null> {
     if (!UUID.test(payload.sub)) return null;
-    const rows: Pick<User, 'id' | 'email' | 'role' | 'displayName' | 'active' | 'isDemo'>[] =
-      await this.users.query(
-        `SELECT id, email, role, display_name AS "displayName", active, is_demo AS "isDemo"
-           FROM users WHERE id = $1`,
-        [payload.sub],
-      );
+    const rows = await preparedQuery<
+      Pick<User, 'id' | 'email' | 'role' | 'displayName' | 'active' | 'isDemo'>
+    >(
+      this.users.manager,
+      `SELECT id, email, role, display_name AS "displayName", active, is_demo AS "isDemo"
+         FROM users WHERE id = $1`,
+      [payload.sub],
+    );
     const user = rows[0];
     if (!user || !user.active || (user.isDemo && this.app.mode === 'production')) return null;
     return user;

@@ -1,4 +1,5 @@
-import { type ValueTransformer } from 'typeorm';
+import { createHash } from 'node:crypto';
+import { type DataSource, type EntityManager, type ValueTransformer } from 'typeorm';
 
 /** PostgreSQL returns numeric columns as strings: read them as numbers (null stays null). */
 export const numericColumn: ValueTransformer = {
@@ -26,4 +27,25 @@ export const PG_FOREIGN_KEY_VIOLATION = '23503';
 /** Escapes LIKE wildcards so search text is matched literally. */
 export function likePattern(q: string): string {
   return `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+}
+
+const statementNames = new Map<string, string>();
+
+/**
+ * Runs a read issued on (nearly) every request as a named, server-side prepared statement: PostgreSQL parses
+ * and plans it once per connection instead of on every call (planning was a third of the jobs list's database
+ * time). The name is derived from the SQL text, which must come from code only; values go in `params`.
+ */
+export function preparedQuery<T>(
+  m: DataSource | EntityManager,
+  text: string,
+  params: unknown[],
+): Promise<T[]> {
+  let name = statementNames.get(text);
+  if (!name) {
+    name = `kw_${createHash('sha256').update(text).digest('hex').slice(0, 24)}`;
+    statementNames.set(text, name);
+  }
+  // node-postgres takes a query config object in place of the text; TypeORM passes it through unchanged.
+  return m.query({ name, text } as unknown as string, params);
 }

@@ -4,7 +4,7 @@ import { DataSource, type EntityManager, Repository } from 'typeorm';
 import { type DesignSummary, type DesignView, type Page, type SolidTextFormat } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
-import { likePattern } from '../common/db-helpers';
+import { likePattern, preparedQuery } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
 import { pageWindow, sortOrder } from '../common/paging';
 import { checkSolidText, previewDesign } from './design-engine';
@@ -16,6 +16,21 @@ const SORT_COLUMNS: Record<string, string> = {
   createdAt: 'd.created_at',
   updatedAt: 'd.updated_at',
 };
+
+/** A row of the design read (node-postgres parses jsonb and timestamptz). */
+interface DesignRow {
+  id: string;
+  owner_id: string;
+  owner_name: string;
+  name: string;
+  description: string;
+  spec: DesignView['spec'];
+  solid_file_name: string | null;
+  preview: DesignView['preview'];
+  version: number;
+  created_at: Date;
+  updated_at: Date;
+}
 
 /** Staff read every design (they prepare jobs from them); hobbyists only their own. */
 export function canReadDesign(user: AuthUser, ownerId: string): boolean {
@@ -48,8 +63,29 @@ export class DesignsService {
     return { items: rows.map(toDesignSummary), total, page, pageSize };
   }
 
+  /** One design with its owner's name: a single prepared query (the most frequent read of a design). */
   async get(user: AuthUser, id: string): Promise<DesignView> {
-    return toDesignView(await this.findReadable(this.dataSource.manager, user, id));
+    const [d] = await preparedQuery<DesignRow>(
+      this.dataSource,
+      `SELECT d.id, d.owner_id, u.display_name AS owner_name, d.name, d.description, d.spec, d.solid_file_name,
+              d.preview, d.version, d.created_at, d.updated_at
+         FROM designs d JOIN users u ON u.id = d.owner_id WHERE d.id = $1`,
+      [id],
+    );
+    if (!d || !canReadDesign(user, d.owner_id)) throw notFound('DESIGN', 'No such design');
+    return {
+      id: d.id,
+      ownerId: d.owner_id,
+      ownerName: d.owner_name,
+      name: d.name,
+      description: d.description,
+      spec: d.spec,
+      solidFileName: d.solid_file_name,
+      preview: d.preview,
+      version: d.version,
+      createdAt: d.created_at.toISOString(),
+      updatedAt: d.updated_at.toISOString(),
+    };
   }
 
   async create(user: AuthUser, dto: CreateDesignDto, requestId: string): Promise<DesignView> {
@@ -202,7 +238,13 @@ export class DesignsService {
   }
 
   private async findReadable(m: EntityManager, user: AuthUser, id: string): Promise<Design> {
-    const d = await m.findOne(Design, { where: { id }, relations: { owner: true } });
+    // One query (findOne with a relation issues two) and only the owner's name from the users table.
+    const d = await m
+      .createQueryBuilder(Design, 'd')
+      .leftJoin('d.owner', 'owner')
+      .addSelect(['owner.id', 'owner.displayName'])
+      .where('d.id = :id', { id })
+      .getOne();
     if (!d || !canReadDesign(user, d.ownerId)) throw notFound('DESIGN', 'No such design');
     return d;
   }

@@ -5,13 +5,15 @@ import {
   allowedJobActions,
   type JobAction,
   type JobDetailView,
+  type JobPreparation,
+  type JobState,
   type JobView,
   type Page,
   transitionFor,
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
-import { likePattern } from '../common/db-helpers';
+import { likePattern, preparedQuery } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
 import { pageWindow, sortOrder } from '../common/paging';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
@@ -28,26 +30,96 @@ const SORT_COLUMNS: Record<string, string> = {
   state: 'j.state',
 };
 
-/** Job columns (entity properties) a list row needs; the spec stays in the database. */
-const LIST_COLUMNS: readonly (keyof Job)[] = [
+/** Job columns a list row needs; the spec stays in the database. */
+const LIST_COLUMNS = [
   'id',
   'state',
-  'designId',
-  'requesterId',
+  'design_id',
+  'requester_id',
   'quantity',
   'notes',
-  'materialId',
+  'material_id',
   'colours',
-  'profileVersionId',
-  'returnReason',
+  'profile_version_id',
+  'return_reason',
   'preparation',
-  'actualMinutes',
-  'sheetsUsed',
-  'measuredKerfMm',
+  'actual_minutes',
+  'sheets_used',
+  'measured_kerf_mm',
   'version',
-  'createdAt',
-  'updatedAt',
-];
+  'created_at',
+  'updated_at',
+] as const;
+
+/** One row of the jobs-list query, as node-postgres returns it (numeric and bigint as strings). */
+type JobListRow = {
+  id: string;
+  state: JobState;
+  design_id: string;
+  requester_id: string;
+  quantity: number;
+  notes: string;
+  material_id: string | null;
+  colours: string[];
+  profile_version_id: string | null;
+  return_reason: string | null;
+  preparation: JobPreparation | null;
+  actual_minutes: string | null;
+  sheets_used: number | null;
+  measured_kerf_mm: string | null;
+  version: number;
+  created_at: Date;
+  updated_at: Date;
+  design_name: string;
+  requester_name: string;
+  total: string;
+  material_name: string | null;
+  profile_name: string | null;
+  profile_number: number | null;
+  preparer_id: string | null;
+};
+
+const numberOrNull = (v: string | null): number | null => (v === null ? null : Number(v));
+
+function listRowView(r: JobListRow, user: AuthUser): JobView {
+  return {
+    id: r.id,
+    state: r.state,
+    designId: r.design_id,
+    designName: r.design_name,
+    requesterId: r.requester_id,
+    requesterName: r.requester_name,
+    quantity: r.quantity,
+    notes: r.notes,
+    materialId: r.material_id,
+    materialName: r.material_name,
+    colours: r.colours,
+    profileVersionId: r.profile_version_id,
+    profileName: r.profile_name,
+    profileVersionNumber: r.profile_number === null ? null : Number(r.profile_number),
+    returnReason: r.return_reason,
+    preparation: r.preparation,
+    actualMinutes: numberOrNull(r.actual_minutes),
+    sheetsUsed: r.sheets_used,
+    measuredKerfMm: numberOrNull(r.measured_kerf_mm),
+    version: r.version,
+    createdAt: r.created_at.toISOString(),
+    updatedAt: r.updated_at.toISOString(),
+    actions: jobActionsFor(r.state, user, r.requester_id, r.preparer_id),
+  };
+}
+
+/** What the caller may do with a job now; whoever prepared it may not also approve it (four eyes). */
+function jobActionsFor(
+  state: JobState,
+  user: AuthUser,
+  requesterId: string,
+  preparerId: string | null | undefined,
+): JobAction[] {
+  return allowedJobActions(state, user.role, requesterId === user.id).filter(
+    (a) => a !== 'approve' || preparerId !== user.id,
+  );
+}
 
 /** Staff see every job that has left the draft stage; everyone sees their own. */
 export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state'>): boolean {
@@ -72,34 +144,62 @@ export class JobsService {
     private readonly mailer: JobMailer,
   ) {}
 
+  /**
+   * One page of the jobs table in one round trip: the page with its total, and for the
+   * page's rows only the names a row shows and who prepared a prepared job. Only what a row shows is read,
+   * not the job's or the design's spec (an uploaded solid can be large).
+   */
   async list(user: AuthUser, query: ListJobsQuery): Promise<Page<JobView>> {
     const { page, pageSize, skip, take } = pageWindow(query);
     const [column, direction] = sortOrder(query.sort ?? '-updatedAt', SORT_COLUMNS, 'j.updated_at');
-    // Only what a row of the list shows: not the job's or the design's spec (an uploaded solid can be large).
-    // Both joins are many-to-one, so plain LIMIT/OFFSET pages correctly without TypeORM's distinct subquery.
-    const qb = this.dataSource.manager
-      .createQueryBuilder(Job, 'j')
-      .select(LIST_COLUMNS.map((c) => `j.${c}`))
-      .leftJoin('j.design', 'design')
-      .addSelect(['design.id', 'design.name'])
-      .leftJoin('j.requester', 'requester')
-      .addSelect(['requester.id', 'requester.displayName']);
+    const params: unknown[] = [];
+    const param = (v: unknown) => `$${params.push(v)}`;
+    const where: string[] = [];
     if (user.role === 'hobbyist' || query.scope === 'mine') {
-      qb.andWhere('j.requester_id = :me', { me: user.id });
+      where.push(`j.requester_id = ${param(user.id)}`);
     } else if (user.role !== 'supervisor') {
-      qb.andWhere(`(j.state <> 'draft' OR j.requester_id = :me)`, { me: user.id });
+      where.push(`(j.state <> 'draft' OR j.requester_id = ${param(user.id)})`);
     }
-    if (query.state) qb.andWhere('j.state = :state', { state: query.state });
+    if (query.state) where.push(`j.state = ${param(query.state)}`);
     if (query.q) {
-      const like = likePattern(query.q);
-      qb.andWhere('(design.name ILIKE :like OR requester.display_name ILIKE :like OR j.notes ILIKE :like)', {
-        like,
-      });
+      const like = param(likePattern(query.q));
+      where.push(`(d.name ILIKE ${like} OR r.display_name ILIKE ${like} OR j.notes ILIKE ${like})`);
     }
-    qb.orderBy(column, direction).addOrderBy('j.id', 'ASC').offset(skip).limit(take);
-    const [rows, total] = await qb.getManyAndCount();
-    const names = await this.names(this.dataSource.manager, rows);
-    return { items: rows.map((j) => this.toView(j, user, names)), total, page, pageSize };
+    const filter = where.length ? `WHERE ${where.join(' AND ')}` : '';
+    // Joined for the search only: every job has its design and requester (NOT NULL foreign keys).
+    const searchJoins = query.q
+      ? 'JOIN designs d ON d.id = j.design_id JOIN users r ON r.id = j.requester_id'
+      : '';
+    const pageOrder = `${column.replace(/^j\./, 'page.')} ${direction}, page.id ASC`;
+    // The count and the page are separate parts of one statement, so the page keeps PostgreSQL's top-N sort
+    // (a window count would sort every matching job); the count row is there even past the last page.
+    const rows = await preparedQuery<JobListRow>(
+      this.dataSource,
+      `WITH total AS (SELECT count(*) AS n FROM jobs j ${searchJoins} ${filter}),
+       page AS (
+         SELECT ${LIST_COLUMNS.map((c) => `j.${c}`).join(', ')}
+           FROM jobs j ${searchJoins} ${filter}
+          ORDER BY ${column} ${direction}, j.id ASC
+         OFFSET ${param(skip)} LIMIT ${param(take)})
+       SELECT total.n AS total, page.*, d.name AS design_name, r.display_name AS requester_name,
+              m.name AS material_name, p.name AS profile_name, v.number AS profile_number,
+              CASE WHEN page.state = 'prepared' THEN
+                (SELECT t.actor_id FROM job_transitions t
+                  WHERE t.job_id = page.id AND t.action = 'prepare' ORDER BY t.id DESC LIMIT 1)
+              END AS preparer_id
+         FROM total
+         LEFT JOIN page ON true
+         LEFT JOIN designs d ON d.id = page.design_id
+         LEFT JOIN users r ON r.id = page.requester_id
+         LEFT JOIN materials m ON m.id = page.material_id
+         LEFT JOIN machine_profile_versions v ON v.id = page.profile_version_id
+         LEFT JOIN machine_profiles p ON p.id = v.profile_id
+        ORDER BY ${pageOrder}`,
+      params,
+    );
+    const total = Number(rows[0]?.total ?? 0);
+    const items = rows.filter((r) => r.id !== null).map((r) => listRowView(r, user));
+    return { items, total, page, pageSize };
   }
 
   async get(user: AuthUser, id: string): Promise<JobDetailView> {
@@ -408,9 +508,7 @@ export class JobsService {
       version: job.version,
       createdAt: job.createdAt.toISOString(),
       updatedAt: job.updatedAt.toISOString(),
-      actions: allowedJobActions(job.state, user.role, job.requesterId === user.id).filter(
-        (a) => a !== 'approve' || names.preparers.get(job.id) !== user.id,
-      ),
+      actions: jobActionsFor(job.state, user, job.requesterId, names.preparers.get(job.id)),
     };
   }
 }

@@ -59,6 +59,17 @@ const PROFILE_SORT_COLUMNS: Readonly<Record<string, string>> = {
   kind: 'p.kind',
   createdAt: 'p.createdAt',
 };
+
+/** The states each change of a version starts from, and how an error message names the change. */
+const VERSION_STEPS = {
+  edit: { from: ['draft'], what: 'edited' },
+  submit: { from: ['draft'], what: 'submitted' },
+  approve: { from: ['submitted'], what: 'approved' },
+  return: { from: ['submitted'], what: 'sent back' },
+  retire: { from: ['approved', 'draft', 'submitted'], what: 'retired' },
+} satisfies Record<string, { from: ProfileVersionState[]; what: string }>;
+type VersionStep = keyof typeof VERSION_STEPS;
+
 @Injectable()
 export class MachineProfilesService {
   constructor(
@@ -203,16 +214,10 @@ export class MachineProfilesService {
     versionId: string,
     dto: UpdateProfileVersionDto,
   ): Promise<MachineProfileVersionView> {
-    return this.dataSource.transaction(async (manager) => {
-      const profile = await this.lockProfile(manager, profileId);
-      const v = await this.loadVersion(manager, profileId, versionId);
-      this.expect(v, ['draft'], dto.lockVersion, 'edited');
+    return this.versionStep('edit', profileId, versionId, dto, async (manager, profile, v) => {
       const content = { ...this.contentOf(v), ...this.changesOf(dto) };
       await this.checkContent(manager, profile.kind, content);
-      return this.view(
-        manager,
-        await this.change(manager, actor, v, content, 'machine-profile-version.update'),
-      );
+      return this.change(manager, actor, v, content, 'machine-profile-version.update');
     });
   }
 
@@ -223,10 +228,7 @@ export class MachineProfilesService {
     versionId: string,
     dto: ProfileTransitionDto,
   ): Promise<MachineProfileVersionView> {
-    return this.dataSource.transaction(async (manager) => {
-      const profile = await this.lockProfile(manager, profileId);
-      const v = await this.loadVersion(manager, profileId, versionId);
-      this.expect(v, ['draft'], dto.lockVersion, 'submitted');
+    return this.versionStep('submit', profileId, versionId, dto, async (manager, profile, v) => {
       if (v.settings.length === 0) {
         throw new AppError(
           HttpStatus.CONFLICT,
@@ -256,7 +258,7 @@ export class MachineProfilesService {
         to: await this.mail.addressesOfRoles(manager, ['supervisor']),
         ...mail,
       });
-      return this.view(manager, saved);
+      return saved;
     });
   }
 
@@ -267,10 +269,7 @@ export class MachineProfilesService {
     versionId: string,
     dto: ProfileTransitionDto,
   ): Promise<MachineProfileVersionView> {
-    return this.dataSource.transaction(async (manager) => {
-      const profile = await this.lockProfile(manager, profileId);
-      const v = await this.loadVersion(manager, profileId, versionId);
-      this.expect(v, ['submitted'], dto.lockVersion, 'approved');
+    return this.versionStep('approve', profileId, versionId, dto, async (manager, profile, v) => {
       // Four eyes: whoever drafted or submitted the version cannot also approve it.
       if (v.createdBy === actor.id || v.submittedBy === actor.id) {
         throw new AppError(
@@ -310,7 +309,7 @@ export class MachineProfilesService {
         ],
         profile.id,
       );
-      return this.view(manager, saved);
+      return saved;
     });
   }
 
@@ -321,10 +320,7 @@ export class MachineProfilesService {
     versionId: string,
     dto: ReturnProfileVersionDto,
   ): Promise<MachineProfileVersionView> {
-    return this.dataSource.transaction(async (manager) => {
-      const profile = await this.lockProfile(manager, profileId);
-      const v = await this.loadVersion(manager, profileId, versionId);
-      this.expect(v, ['submitted'], dto.lockVersion, 'sent back');
+    return this.versionStep('return', profileId, versionId, dto, async (manager, profile, v) => {
       const saved = await this.change(
         manager,
         actor,
@@ -343,7 +339,7 @@ export class MachineProfilesService {
         ],
         profile.id,
       );
-      return this.view(manager, saved);
+      return saved;
     });
   }
 
@@ -354,10 +350,7 @@ export class MachineProfilesService {
     versionId: string,
     dto: ProfileTransitionDto,
   ): Promise<MachineProfileVersionView> {
-    return this.dataSource.transaction(async (manager) => {
-      await this.lockProfile(manager, profileId);
-      const v = await this.loadVersion(manager, profileId, versionId);
-      this.expect(v, ['approved', 'draft', 'submitted'], dto.lockVersion, 'retired');
+    return this.versionStep('retire', profileId, versionId, dto, async (manager, _profile, v) => {
       const saved = await this.change(
         manager,
         actor,
@@ -365,7 +358,31 @@ export class MachineProfilesService {
         { state: 'retired', retiredBy: actor.id, retiredAt: new Date() },
         'machine-profile-version.retire',
       );
-      return this.view(manager, saved);
+      return saved;
+    });
+  }
+
+  /**
+   * One change of a version: in a transaction, with the profile locked (its version writes run one at a time),
+   * the version loaded and checked to be in one of the `from` states at the lockVersion the caller read.
+   */
+  private versionStep(
+    step: VersionStep,
+    profileId: string,
+    versionId: string,
+    dto: { lockVersion?: number },
+    change: (
+      manager: EntityManager,
+      profile: MachineProfile,
+      v: MachineProfileVersion,
+    ) => Promise<MachineProfileVersion>,
+  ): Promise<MachineProfileVersionView> {
+    const { from, what }: { from: ProfileVersionState[]; what: string } = VERSION_STEPS[step];
+    return this.dataSource.transaction(async (manager) => {
+      const profile = await this.lockProfile(manager, profileId);
+      const v = await this.loadVersion(manager, profileId, versionId);
+      this.expect(v, from, dto.lockVersion, what);
+      return this.view(manager, await change(manager, profile, v));
     });
   }
 

@@ -119,3 +119,53 @@ export function labelled<V extends string>(
 ): { value: V; label: string }[] {
   return values.map((value) => ({ value, label: labels[value] }));
 }
+
+/** One select of a SearchSelectFilterBar: the narrowing choices for one key of the list's filters. */
+export interface SelectFilterSpec<V extends string> {
+  id: string;
+  label: string;
+  allLabel: string;
+  options: readonly { value: V; label: string }[];
+}
+
+/** A change to a SearchSelectFilterBar's values: the search text or one select. */
+type FilterChange<S extends Record<string, string>> = { q?: string } & { [K in keyof S]?: S[K] };
+
+/**
+ * A list's usual filters: a wide search box (`q`) then one select per key of `selects`, in that order. Every
+ * change reaches `onChange` as the one key it changes (a cleared select as undefined).
+ */
+export function SearchSelectFilterBar<S extends Record<string, string>>({
+  label,
+  search,
+  selects,
+  values,
+  onChange,
+}: {
+  /** The search region's accessible name. */
+  label: string;
+  search: { id: string; label: string };
+  selects: { [K in keyof S]: SelectFilterSpec<S[K]> };
+  values: NoInfer<{ q: string } & { [K in keyof S]?: S[K] }>;
+  onChange: (change: NoInfer<FilterChange<S>>) => void;
+}) {
+  const keys = Object.keys(selects) as (keyof S & string)[];
+  return (
+    <FilterBar label={label} columns={['2fr', ...keys.map(() => '1fr')].join(' ')}>
+      <SearchFilter
+        id={search.id}
+        label={search.label}
+        value={values.q}
+        onSearch={(text) => onChange({ q: text } as FilterChange<S>)}
+      />
+      {keys.map((key) => (
+        <SelectFilter
+          key={key}
+          {...selects[key]}
+          value={values[key]}
+          onChange={(value) => onChange({ [key]: value } as FilterChange<S>)}
+        />
+      ))}
+    </FilterBar>
+  );
+}

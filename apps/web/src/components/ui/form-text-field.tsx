@@ -1,7 +1,19 @@
 import TextField, { type TextFieldProps } from '@mui/material/TextField';
-import { type FieldError, type UseFormRegisterReturn } from 'react-hook-form';
+import {
+  type FieldError,
+  type FieldErrors,
+  type FieldValues,
+  get,
+  type Path,
+  type RegisterOptions,
+  type UseFormRegister,
+  type UseFormRegisterReturn,
+} from 'react-hook-form';
 
-type FormTextFieldProps = Omit<TextFieldProps, 'name' | 'error' | 'onChange' | 'onBlur' | 'inputRef'> & {
+export type FormTextFieldProps = Omit<
+  TextFieldProps,
+  'name' | 'error' | 'onChange' | 'onBlur' | 'inputRef'
+> & {
   registration: UseFormRegisterReturn;
   error?: FieldError;
 };
@@ -20,4 +32,29 @@ export function FormTextField({ registration, error, helperText, ...props }: For
       fullWidth
     />
   );
+}
+
+/** What a field bound by name needs of its form: `{ register, errors }` from useForm / useFormState. */
+export interface FormFields<T extends FieldValues> {
+  register: UseFormRegister<T>;
+  errors: FieldErrors<T>;
+}
+
+/** The props of a field bound by name to its form, checked against the form's fields. */
+export type BoundFieldProps<T extends FieldValues> = Omit<
+  FormTextFieldProps,
+  'registration' | 'error' | 'form'
+> & {
+  form: FormFields<T>;
+  /** The form's field; its validation message is read from the form's errors at the same path. */
+  name: Path<T>;
+};
+
+/** FormTextField's `registration` and `error` for the field `name` of `form`. */
+export function bindField<T extends FieldValues>(
+  form: FormFields<T>,
+  name: Path<T>,
+  rules?: RegisterOptions<T, Path<T>>,
+): { registration: UseFormRegisterReturn<Path<T>>; error: FieldError | undefined } {
+  return { registration: form.register(name, rules), error: get(form.errors, name) };
 }

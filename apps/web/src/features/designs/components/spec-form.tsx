@@ -8,6 +8,8 @@ import Typography from '@mui/material/Typography';
 import { memo, type ReactNode } from 'react';
 import { Controller, type UseFormReturn, useFormState, useWatch } from 'react-hook-form';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { NumberField } from '../../../components/ui/number-field';
 import { type DesignFormValues } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
 
@@ -60,8 +62,7 @@ export const SpecForm = memo(function SpecForm({
     control,
     name: ['solidSource', 'machineKind', 'scaleBy'],
   });
-  const n = { valueAsNumber: true } as const;
-  const native = { select: { native: true } } as const;
+  const fields = { register, errors };
   const setSize = (size: number) =>
     setValue('size', Number(size.toFixed(4)), { shouldValidate: true, shouldDirty: true });
 
@@ -80,32 +81,18 @@ export const SpecForm = memo(function SpecForm({
       </Section>
 
       <Section title="Base solid">
-        <FormTextField
-          select
-          slotProps={native}
-          label="Source"
-          registration={register('solidSource')}
-          error={errors.solidSource}
-          size="small"
-        >
+        <NativeSelectField label="Source" name="solidSource" form={fields} size="small">
           <option value="catalogue">From the catalogue</option>
           <option value="upload">Uploaded OBJ / OFF file</option>
-        </FormTextField>
+        </NativeSelectField>
         {solidSource === 'catalogue' ? (
-          <FormTextField
-            select
-            slotProps={native}
-            label="Solid"
-            registration={register('solidId')}
-            error={errors.solidId}
-            size="small"
-          >
+          <NativeSelectField label="Solid" name="solidId" form={fields} size="small">
             {SOLIDS.map((s) => (
               <option key={s.id} value={s.id}>
                 {s.name}
               </option>
             ))}
-          </FormTextField>
+          </NativeSelectField>
         ) : (
           <SolidDropZone upload={upload} onUpload={onUpload} />
         )}
@@ -113,40 +100,19 @@ export const SpecForm = memo(function SpecForm({
 
       <Section title="Piece shape">
         <Stack direction="row" spacing={1}>
-          <FormTextField
-            label="Sides (n)"
-            type="number"
-            registration={register('sides', n)}
-            error={errors.sides}
-            size="small"
-          />
-          <FormTextField
+          <NumberField label="Sides (n)" name="sides" form={fields} size="small" integer />
+          <NumberField
             label="Step (k)"
-            type="number"
-            registration={register('step', n)}
-            error={errors.step}
+            name="step"
+            form={fields}
             size="small"
             helperText="1 = polygon"
+            integer
           />
         </Stack>
         <Stack direction="row" spacing={1}>
-          <FormTextField
-            label="Rotation (°)"
-            type="number"
-            registration={register('rotationDeg', n)}
-            error={errors.rotationDeg}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
-          <FormTextField
-            label="Size"
-            type="number"
-            registration={register('size', n)}
-            error={errors.size}
-            size="small"
-            helperText="× plane distance"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
+          <NumberField label="Rotation (°)" name="rotationDeg" form={fields} size="small" />
+          <NumberField label="Size" name="size" form={fields} size="small" helperText="× plane distance" />
         </Stack>
         {suggestedSizes && (suggestedSizes.touch !== null || suggestedSizes.overlap !== null) ? (
           <Stack direction="row" spacing={1} sx={{ alignItems: 'center' }} data-testid="suggested-sizes">
@@ -168,109 +134,46 @@ export const SpecForm = memo(function SpecForm({
       </Section>
 
       <Section title="Scale">
-        <FormTextField
-          select
-          slotProps={native}
-          label="Scale by"
-          registration={register('scaleBy')}
-          error={errors.scaleBy}
-          size="small"
-        >
+        <NativeSelectField label="Scale by" name="scaleBy" form={fields} size="small">
           {Object.entries(SCALE_LABELS).map(([value, label]) => (
             <option key={value} value={value}>
               {label}
             </option>
           ))}
-        </FormTextField>
+        </NativeSelectField>
         {scaleBy === 'fitSheets' ? (
-          <FormTextField
+          <NumberField
             label="Sheets"
-            type="number"
-            registration={register('fitSheets', n)}
-            error={errors.fitSheets}
+            name="fitSheets"
+            form={fields}
             size="small"
             helperText="of the stock sheet size below"
+            integer
           />
         ) : scaleBy === 'fitBed' ? (
           <Stack direction="row" spacing={1}>
-            <FormTextField
-              label="Bed width (mm)"
-              type="number"
-              registration={register('bedWidthMm', n)}
-              error={errors.bedWidthMm}
-              size="small"
-              slotProps={{ htmlInput: { step: 'any' } }}
-            />
-            <FormTextField
-              label="Bed height (mm)"
-              type="number"
-              registration={register('bedHeightMm', n)}
-              error={errors.bedHeightMm}
-              size="small"
-              slotProps={{ htmlInput: { step: 'any' } }}
-            />
+            <NumberField label="Bed width (mm)" name="bedWidthMm" form={fields} size="small" />
+            <NumberField label="Bed height (mm)" name="bedHeightMm" form={fields} size="small" />
           </Stack>
         ) : (
-          <FormTextField
-            label="Scale (mm)"
-            type="number"
-            registration={register('scaleMm', n)}
-            error={errors.scaleMm}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
+          <NumberField label="Scale (mm)" name="scaleMm" form={fields} size="small" />
         )}
       </Section>
 
       <Section title="Stock sheet">
         <Stack direction="row" spacing={1}>
-          <FormTextField
-            label="Sheet width (mm)"
-            type="number"
-            registration={register('sheetWidthMm', n)}
-            error={errors.sheetWidthMm}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
-          <FormTextField
-            label="Sheet height (mm)"
-            type="number"
-            registration={register('sheetHeightMm', n)}
-            error={errors.sheetHeightMm}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
+          <NumberField label="Sheet width (mm)" name="sheetWidthMm" form={fields} size="small" />
+          <NumberField label="Sheet height (mm)" name="sheetHeightMm" form={fields} size="small" />
         </Stack>
         <Stack direction="row" spacing={1}>
-          <FormTextField
-            label="Margin (mm)"
-            type="number"
-            registration={register('marginMm', n)}
-            error={errors.marginMm}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
-          <FormTextField
-            label="Gap (mm)"
-            type="number"
-            registration={register('gapMm', n)}
-            error={errors.gapMm}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
+          <NumberField label="Margin (mm)" name="marginMm" form={fields} size="small" />
+          <NumberField label="Gap (mm)" name="gapMm" form={fields} size="small" />
         </Stack>
       </Section>
 
       <Section title="Stock and machine">
         <Stack direction="row" spacing={1} sx={{ alignItems: 'center' }}>
-          <FormTextField
-            label="Thickness (mm)"
-            type="number"
-            registration={register('thicknessMm', n)}
-            error={errors.thicknessMm}
-            size="small"
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
+          <NumberField label="Thickness (mm)" name="thicknessMm" form={fields} size="small" />
           <Controller
             control={control}
             name="flexible"
@@ -285,73 +188,43 @@ export const SpecForm = memo(function SpecForm({
             )}
           />
         </Stack>
-        <FormTextField
-          select
-          slotProps={native}
-          label="Machine kind"
-          registration={register('machineKind')}
-          error={errors.machineKind}
-          size="small"
-        >
+        <NativeSelectField label="Machine kind" name="machineKind" form={fields} size="small">
           <option value="laser">Laser (kerf)</option>
           <option value="router">Router (tool diameter)</option>
-        </FormTextField>
+        </NativeSelectField>
         <Stack direction="row" spacing={1}>
           {machineKind === 'laser' ? (
-            <FormTextField
-              label="Kerf (mm)"
-              type="number"
-              registration={register('kerfMm', n)}
-              error={errors.kerfMm}
-              size="small"
-              slotProps={{ htmlInput: { step: 'any' } }}
-            />
+            <NumberField label="Kerf (mm)" name="kerfMm" form={fields} size="small" />
           ) : (
-            <FormTextField
-              label="Tool diameter (mm)"
-              type="number"
-              registration={register('toolDiameterMm', n)}
-              error={errors.toolDiameterMm}
-              size="small"
-              slotProps={{ htmlInput: { step: 'any' } }}
-            />
+            <NumberField label="Tool diameter (mm)" name="toolDiameterMm" form={fields} size="small" />
           )}
-          <FormTextField
+          <NumberField
             label="Fit allowance (mm)"
-            type="number"
-            registration={register('fitMm', n)}
-            error={errors.fitMm}
+            name="fitMm"
+            form={fields}
             size="small"
             helperText="negative = press fit"
-            slotProps={{ htmlInput: { step: 'any' } }}
           />
         </Stack>
       </Section>
 
       <Section title="Colours">
         <Stack direction="row" spacing={1}>
-          <FormTextField
+          <NumberField
             label="Colours"
-            type="number"
-            registration={register('colourCount', n)}
-            error={errors.colourCount}
+            name="colourCount"
+            form={fields}
             size="small"
             sx={{ maxWidth: 110 }}
+            integer
           />
-          <FormTextField
-            select
-            slotProps={native}
-            label="Rule"
-            registration={register('colourRule')}
-            error={errors.colourRule}
-            size="small"
-          >
+          <NativeSelectField label="Rule" name="colourRule" form={fields} size="small">
             {COLOUR_RULES.map((rule) => (
               <option key={rule} value={rule}>
                 {RULE_LABELS[rule]}
               </option>
             ))}
-          </FormTextField>
+          </NativeSelectField>
         </Stack>
       </Section>
     </Stack>

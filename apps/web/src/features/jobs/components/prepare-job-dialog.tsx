@@ -9,6 +9,7 @@ import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
@@ -50,6 +51,7 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
       (!materialId || p.currentApproved.settings.some((s) => s.materialId === materialId)),
   );
   const native = { select: { native: true } } as const;
+  const fields = { register, errors };
 
   const submit = handleSubmit((v) => {
     const sheet = material?.stockSheets[Number(v.sheetIndex)];
@@ -98,20 +100,14 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
             </option>
           ))}
         </FormTextField>
-        <FormTextField
-          select
-          slotProps={native}
-          label="Machine profile (approved version)"
-          registration={register('profileVersionId')}
-          error={errors.profileVersionId}
-        >
+        <NativeSelectField label="Machine profile (approved version)" name="profileVersionId" form={fields}>
           <option value="">Choose…</option>
           {approved.map((p) => (
             <option key={p.id} value={p.currentApproved?.id}>
               {`${p.name} · ${p.kind} · v${p.currentApproved?.number}`}
             </option>
           ))}
-        </FormTextField>
+        </NativeSelectField>
         {material ? (
           <>
             <Controller
@@ -144,36 +140,24 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
                 </Stack>
               )}
             />
-            <FormTextField
-              select
-              slotProps={native}
-              label="Sheet"
-              registration={register('sheetIndex')}
-              error={errors.sheetIndex}
-            >
+            <NativeSelectField label="Sheet" name="sheetIndex" form={fields}>
               {material.stockSheets.map((s, i) => (
                 <option key={i} value={String(i)}>
                   {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet} ${s.currency}`}
                 </option>
               ))}
-            </FormTextField>
+            </NativeSelectField>
           </>
         ) : errors.colours ? (
           <FormHelperText error>{errors.colours.message}</FormHelperText>
         ) : null}
-        <FormTextField
-          select
-          slotProps={native}
-          label="Colour rule"
-          registration={register('colourRule')}
-          error={errors.colourRule}
-        >
+        <NativeSelectField label="Colour rule" name="colourRule" form={fields}>
           {COLOUR_RULES.map((r) => (
             <option key={r} value={r}>
               {r}
             </option>
           ))}
-        </FormTextField>
+        </NativeSelectField>
       </Stack>
     </FormDialog>
   );

@@ -12,6 +12,8 @@ import { useEffect, useMemo } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { NumberField } from '../../../components/ui/number-field';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { KIND_LABELS } from './profile-labels';
 import { EMPTY_SETTING, type ProfileFormValues, profileFormSchema } from './profile-form-schema';
@@ -71,8 +73,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
     }
   }, [props.error, setError]);
 
-  const n = { valueAsNumber: true } as const;
-  const any = { htmlInput: { step: 'any' } } as const;
+  const fields = { register, errors };
   const submit = handleSubmit((v) => props.onSubmit(v));
 
   return (
@@ -91,19 +92,13 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
         {mode === 'create' ? (
           <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
             <FormTextField label="Profile name" registration={register('name')} error={errors.name} />
-            <FormTextField
-              select
-              slotProps={{ select: { native: true } }}
-              label="Kind of machine"
-              registration={register('kind')}
-              error={errors.kind}
-            >
+            <NativeSelectField label="Kind of machine" name="kind" form={fields}>
               {MACHINE_PROFILE_KINDS.map((k) => (
                 <option key={k} value={k}>
                   {KIND_LABELS[k]}
                 </option>
               ))}
-            </FormTextField>
+            </NativeSelectField>
           </Box>
         ) : (
           <Typography color="text.secondary">
@@ -118,34 +113,10 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
             gridTemplateColumns: { xs: '1fr 1fr', md: 'repeat(5, 1fr)' },
           }}
         >
-          <FormTextField
-            label="Bed width (mm)"
-            type="number"
-            registration={register('bedWidthMm', n)}
-            error={errors.bedWidthMm}
-            slotProps={any}
-          />
-          <FormTextField
-            label="Bed height (mm)"
-            type="number"
-            registration={register('bedHeightMm', n)}
-            error={errors.bedHeightMm}
-            slotProps={any}
-          />
-          <FormTextField
-            label="Rapid speed (mm/s)"
-            type="number"
-            registration={register('rapidSpeedMmS', n)}
-            error={errors.rapidSpeedMmS}
-            slotProps={any}
-          />
-          <FormTextField
-            label="Hourly rate"
-            type="number"
-            registration={register('hourlyRate', n)}
-            error={errors.hourlyRate}
-            slotProps={any}
-          />
+          <NumberField label="Bed width (mm)" name="bedWidthMm" form={fields} />
+          <NumberField label="Bed height (mm)" name="bedHeightMm" form={fields} />
+          <NumberField label="Rapid speed (mm/s)" name="rapidSpeedMmS" form={fields} />
+          <NumberField label="Hourly rate" name="hourlyRate" form={fields} />
           <FormTextField
             label="Currency"
             registration={register('currency')}
@@ -164,7 +135,6 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
           </Alert>
         ) : null}
         {settings.fields.map((field, i) => {
-          const e = errors.settings?.[i];
           return (
             <Paper
               key={field.id}
@@ -181,14 +151,12 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                   gridTemplateColumns: { xs: '1fr 1fr', md: '2fr repeat(6, 1fr) auto' },
                 }}
               >
-                <FormTextField
+                <NativeSelectField
                   id={`settings-${i}-material`}
                   size="small"
-                  select
-                  slotProps={{ select: { native: true } }}
                   label="Material"
-                  registration={register(`settings.${i}.materialId`)}
-                  error={e?.materialId}
+                  name={`settings.${i}.materialId`}
+                  form={fields}
                 >
                   <option value="">Choose…</option>
                   {(materials ?? []).map((m) => (
@@ -196,82 +164,70 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                       {m.laserAllowed ? m.name : `${m.name} (not for lasers)`}
                     </option>
                   ))}
-                </FormTextField>
+                </NativeSelectField>
                 {router ? (
-                  <FormTextField
+                  <NumberField
                     id={`settings-${i}-tool`}
                     size="small"
-                    type="number"
                     label="Tool diameter (mm)"
-                    registration={register(`settings.${i}.toolDiameterMm`, n)}
-                    error={e?.toolDiameterMm}
-                    slotProps={any}
+                    name={`settings.${i}.toolDiameterMm`}
+                    form={fields}
                   />
                 ) : (
-                  <FormTextField
+                  <NumberField
                     id={`settings-${i}-kerf`}
                     size="small"
-                    type="number"
                     label="Kerf (mm)"
-                    registration={register(`settings.${i}.kerfMm`, n)}
-                    error={e?.kerfMm}
-                    slotProps={any}
+                    name={`settings.${i}.kerfMm`}
+                    form={fields}
                   />
                 )}
-                <FormTextField
+                <NumberField
                   id={`settings-${i}-cut`}
                   size="small"
-                  type="number"
                   label="Cut speed (mm/s)"
-                  registration={register(`settings.${i}.cutSpeedMmS`, n)}
-                  error={e?.cutSpeedMmS}
-                  slotProps={any}
+                  name={`settings.${i}.cutSpeedMmS`}
+                  form={fields}
                 />
-                <FormTextField
+                <NumberField
                   id={`settings-${i}-mark`}
                   size="small"
-                  type="number"
                   label="Mark speed (mm/s)"
-                  registration={register(`settings.${i}.markSpeedMmS`, n)}
-                  error={e?.markSpeedMmS}
-                  slotProps={any}
+                  name={`settings.${i}.markSpeedMmS`}
+                  form={fields}
                 />
                 {router ? (
-                  <FormTextField
+                  <NumberField
                     id={`settings-${i}-spindle`}
                     size="small"
-                    type="number"
                     label="Spindle (rpm, optional)"
-                    registration={register(`settings.${i}.spindleRpm`, n)}
-                    error={e?.spindleRpm}
+                    name={`settings.${i}.spindleRpm`}
+                    form={fields}
+                    integer
                   />
                 ) : (
-                  <FormTextField
+                  <NumberField
                     id={`settings-${i}-power`}
                     size="small"
-                    type="number"
                     label={laser ? 'Power (%)' : 'Power (%, optional)'}
-                    registration={register(`settings.${i}.powerPct`, n)}
-                    error={e?.powerPct}
-                    slotProps={any}
+                    name={`settings.${i}.powerPct`}
+                    form={fields}
                   />
                 )}
-                <FormTextField
+                <NumberField
                   id={`settings-${i}-passes`}
                   size="small"
-                  type="number"
                   label="Passes"
-                  registration={register(`settings.${i}.passes`, n)}
-                  error={e?.passes}
+                  name={`settings.${i}.passes`}
+                  form={fields}
+                  integer
                 />
-                <FormTextField
+                <NumberField
                   id={`settings-${i}-pierce`}
                   size="small"
-                  type="number"
                   label="Pierce time (s)"
-                  registration={register(`settings.${i}.pierceTimeS`, n)}
-                  error={e?.pierceTimeS}
-                  slotProps={any}
+                  name={`settings.${i}.pierceTimeS`}
+                  form={fields}
                 />
                 <IconButton
                   aria-label={`Remove material setting ${i + 1}`}

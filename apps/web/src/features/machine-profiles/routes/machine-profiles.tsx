@@ -3,7 +3,7 @@ import Button from '@mui/material/Button';
 import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { DataTable } from '../../../components/data-table/data-table';
-import { FilterBar, labelled, SearchFilter, SelectFilter } from '../../../components/data-table/filter-bar';
+import { labelled, SearchSelectFilterBar } from '../../../components/data-table/filter-bar';
 import { ListPage } from '../../../components/layouts/list-page';
 import { paths } from '../../../config/paths';
 import { useCreateMachineProfile } from '../api/create-machine-profile';
@@ -15,8 +15,20 @@ import { KIND_LABELS, STATE_LABELS } from '../components/profile-labels';
 import { PROFILE_COLUMNS } from '../components/profiles-table';
 import { useProfilesSearchParams } from '../hooks/use-profiles-search-params';
 
-const KIND_OPTIONS = labelled(MACHINE_PROFILE_KINDS, KIND_LABELS);
-const STATE_OPTIONS = labelled(PROFILE_VERSION_STATES, STATE_LABELS);
+const SELECTS = {
+  kind: {
+    id: 'profiles-kind',
+    label: 'Kind',
+    allLabel: 'All kinds',
+    options: labelled(MACHINE_PROFILE_KINDS, KIND_LABELS),
+  },
+  state: {
+    id: 'profiles-state',
+    label: 'Latest version',
+    allLabel: 'Any state',
+    options: labelled(PROFILE_VERSION_STATES, STATE_LABELS),
+  },
+};
 
 /** Fabricators and supervisors: every machine profile, the version jobs use, and what waits for approval. */
 export function MachineProfilesRoute() {
@@ -50,30 +62,13 @@ export function MachineProfilesRoute() {
       }
       intro="Each machine’s bed, speeds and cutting values per material, in numbered versions. Jobs use only an approved version; a new version is drafted, submitted and approved by a supervisor."
       filters={
-        <FilterBar label="Find machine profiles" columns="2fr 1fr 1fr">
-          <SearchFilter
-            id="profiles-search"
-            label="Search name"
-            value={params.q ?? ''}
-            onSearch={(q) => set({ q })}
-          />
-          <SelectFilter
-            id="profiles-kind"
-            label="Kind"
-            allLabel="All kinds"
-            value={params.kind}
-            options={KIND_OPTIONS}
-            onChange={(kind) => set({ kind })}
-          />
-          <SelectFilter
-            id="profiles-state"
-            label="Latest version"
-            allLabel="Any state"
-            value={params.state}
-            options={STATE_OPTIONS}
-            onChange={(state) => set({ state })}
-          />
-        </FilterBar>
+        <SearchSelectFilterBar
+          label="Find machine profiles"
+          search={{ id: 'profiles-search', label: 'Search name' }}
+          selects={SELECTS}
+          values={{ q: params.q ?? '', kind: params.kind, state: params.state }}
+          onChange={set}
+        />
       }
       query={profiles}
       errorTitle="The machine profiles could not be loaded"

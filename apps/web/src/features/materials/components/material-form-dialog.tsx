@@ -19,6 +19,8 @@ import { useEffect, useMemo } from 'react';
 import { Controller, type Path, useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { NumberField } from '../../../components/ui/number-field';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import {
   EMPTY_MATERIAL,
@@ -81,7 +83,7 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
     if (props.error) applyServerFieldErrors(props.error, setError, SERVER_FIELDS);
   }, [props.error, setError]);
 
-  const n = { valueAsNumber: true } as const;
+  const fields = { register, errors };
   const submit = handleSubmit((v) => props.onSubmit(v));
 
   return (
@@ -99,35 +101,21 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
       <Stack spacing={2} sx={{ mt: 1 }}>
         <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
           <FormTextField label="Name" registration={register('name')} error={errors.name} />
-          <FormTextField
-            select
-            slotProps={{ select: { native: true } }}
-            label="Family"
-            registration={register('family')}
-            error={errors.family}
-          >
+          <NativeSelectField label="Family" name="family" form={fields}>
             {MATERIAL_FAMILIES.map((f) => (
               <option key={f} value={f}>
                 {FAMILY_LABELS[f]}
               </option>
             ))}
-          </FormTextField>
+          </NativeSelectField>
         </Box>
         <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr 1fr' } }}>
-          <FormTextField
-            label="Nominal thickness (mm)"
-            type="number"
-            registration={register('nominalThicknessMm', n)}
-            error={errors.nominalThicknessMm}
-            slotProps={{ htmlInput: { step: 'any' } }}
-          />
-          <FormTextField
+          <NumberField label="Nominal thickness (mm)" name="nominalThicknessMm" form={fields} />
+          <NumberField
             label="Measured thickness (mm, optional)"
-            type="number"
-            registration={register('measuredThicknessMm', n)}
-            error={errors.measuredThicknessMm}
+            name="measuredThicknessMm"
+            form={fields}
             helperText="Callipers on the stock on hand; designs use it when given"
-            slotProps={{ htmlInput: { step: 'any' } }}
           />
           <Controller
             control={control}
@@ -168,32 +156,26 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
                     gridTemplateColumns: { xs: '1fr 1fr', sm: '1fr 1fr 1fr 0.7fr auto' },
                   }}
                 >
-                  <FormTextField
+                  <NumberField
                     id={`sheet-${i}-width`}
                     size="small"
                     label="Width (mm)"
-                    type="number"
-                    registration={register(`stockSheets.${i}.widthMm`, n)}
-                    error={e?.widthMm}
-                    slotProps={{ htmlInput: { step: 'any' } }}
+                    name={`stockSheets.${i}.widthMm`}
+                    form={fields}
                   />
-                  <FormTextField
+                  <NumberField
                     id={`sheet-${i}-height`}
                     size="small"
                     label="Height (mm)"
-                    type="number"
-                    registration={register(`stockSheets.${i}.heightMm`, n)}
-                    error={e?.heightMm}
-                    slotProps={{ htmlInput: { step: 'any' } }}
+                    name={`stockSheets.${i}.heightMm`}
+                    form={fields}
                   />
-                  <FormTextField
+                  <NumberField
                     id={`sheet-${i}-price`}
                     size="small"
                     label="Price per sheet"
-                    type="number"
-                    registration={register(`stockSheets.${i}.pricePerSheet`, n)}
-                    error={e?.pricePerSheet}
-                    slotProps={{ htmlInput: { step: 'any' } }}
+                    name={`stockSheets.${i}.pricePerSheet`}
+                    form={fields}
                   />
                   <FormTextField
                     id={`sheet-${i}-currency`}

@@ -1,0 +1,59 @@
+import Button from '@mui/material/Button';
+import Stack from '@mui/material/Stack';
+import { type FormEvent, type ReactNode, useState } from 'react';
+import { type FieldValues, type Path, type UseFormReturn } from 'react-hook-form';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { applyServerFieldErrors } from '../../../lib/form-errors';
+
+/**
+ * Submits an account form: the API's per-field messages go under `fields`, any other failure is kept as the
+ * form's error; on success the caller decides where to go.
+ */
+export function useAuthSubmit<T extends FieldValues>(
+  form: Pick<UseFormReturn<T>, 'handleSubmit' | 'setError'>,
+  fields: readonly Path<T>[],
+  send: (values: T) => Promise<unknown>,
+  onSuccess: () => void,
+) {
+  const [formError, setFormError] = useState<unknown>(null);
+  const onSubmit = form.handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await send(values);
+      onSuccess();
+    } catch (error) {
+      if (!applyServerFieldErrors(error, form.setError, fields)) setFormError(error);
+    }
+  });
+  return { formError, onSubmit };
+}
+
+/** An account form's frame: the form-wide error, the fields and the submit button. */
+export function AuthForm({
+  label,
+  formError,
+  onSubmit,
+  submitting,
+  submitLabel,
+  children,
+}: {
+  /** The form's accessible name. */
+  label: string;
+  formError: unknown;
+  onSubmit: (event: FormEvent<HTMLFormElement>) => Promise<void>;
+  submitting: boolean;
+  submitLabel: string;
+  children: ReactNode;
+}) {
+  return (
+    <form noValidate onSubmit={(event) => void onSubmit(event)} aria-label={label}>
+      <FormErrorAlert error={formError} />
+      <Stack spacing={2.5}>
+        {children}
+        <Button type="submit" variant="contained" size="large" loading={submitting}>
+          {submitLabel}
+        </Button>
+      </Stack>
+    </form>
+  );
+}
