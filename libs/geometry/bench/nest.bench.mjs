@@ -212,38 +212,38 @@ console.table(rows);
 // An abstract 60-face input (a closed band of 60 faces, each sharing an edge with the next) for the colour plan;
 // a real solid comes from the solids module.
 const faces = Array.from({ length: 60 }, (_, i) => [2 * i, 2 * i + 1, (2 * i + 2) % 120, (2 * i + 3) % 120]);
-const t60 = [];
-const c60 = [];
-let layout;
-for (let i = 0; i < RUNS; i++) {
-  const t0 = performance.now();
-  const c0 = process.cpuUsage();
-  const plan = solveColourPlan({
-    faceCount: 60,
-    faceVertices: faces,
-    rule: 'neighbour-distinct',
-    count: 3,
-    countCap: 0,
-  });
-  const byColour = [0, 1, 2].map((c) => Object.values(plan.assignment).filter((x) => x === c).length);
-  layout = nestParts({
-    sheet: SHEET,
-    marginMm: 5,
-    gapMm: GAP,
-    parts: byColour.map((q, c) => ({
-      id: `hex-slotted-${c}`,
-      outline: slottedHex,
-      quantity: q,
-      group: `colour-${c}`,
-    })),
-  });
-  t60.push(performance.now() - t0);
-  c60.push(cpuMs(c0));
+for (const [label, outline] of [
+  ['slotted hexagons', slottedHex],
+  ['slotted {5/2} stars', withSlot(withSlot(star(5, 2, 60), 4, 3, 15), 0, 3, 15)],
+]) {
+  const t60 = [];
+  const c60 = [];
+  let layout;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    const c0 = process.cpuUsage();
+    const plan = solveColourPlan({
+      faceCount: 60,
+      faceVertices: faces,
+      rule: 'neighbour-distinct',
+      count: 3,
+      countCap: 0,
+    });
+    const byColour = [0, 1, 2].map((c) => Object.values(plan.assignment).filter((x) => x === c).length);
+    layout = nestParts({
+      sheet: SHEET,
+      marginMm: 5,
+      gapMm: GAP,
+      parts: byColour.map((q, c) => ({ id: `piece-${c}`, outline, quantity: q, group: `colour-${c}` })),
+    });
+    t60.push(performance.now() - t0);
+    c60.push(cpuMs(c0));
+  }
+  console.log(
+    `60 ${label} in 3 colours: ${layout.ok ? layout.totals.sheetCount : 'failed'} sheets,` +
+      ` median ${median(t60).toFixed(0)} ms wall, ${median(c60).toFixed(0)} ms CPU over ${RUNS} runs (wall ${t60.map((t) => t.toFixed(0)).join(', ')})`,
+  );
 }
-console.log(
-  `60 slotted hexagons in 3 colours: ${layout.ok ? layout.totals.sheetCount : 'failed'} sheets,` +
-    ` median ${median(t60).toFixed(0)} ms wall, ${median(c60).toFixed(0)} ms CPU over ${RUNS} runs (wall ${t60.map((t) => t.toFixed(0)).join(', ')})`,
-);
 
 // ---------- Decagons on a larger sheet ----------
 // 15 decagons fit a 600 × 400 sheet either way (REFERENCES), so they are compared on a 1220 × 2440 sheet too.

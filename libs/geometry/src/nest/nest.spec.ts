@@ -182,6 +182,33 @@ describe('nestParts — true shape', () => {
     expect(r.totals.sheetsByGroup).toEqual({ red: 1, blue: 1 });
   });
 
+  it('gives congruent pieces of three colours the same lattice, each placement under its own part', () => {
+    // One slotted {7/2} star shape in three colour groups: the pattern is searched once and reused, so every
+    // colour's first sheet holds as many as a single colour laid out alone.
+    const s72 = withSlot(withSlot(star(7, 2, 45), 6, 3, 12), 0, 3, 12);
+    const sheet = { widthMm: 400, heightMm: 300 };
+    const alone = nestParts({
+      sheet,
+      marginMm: 0,
+      gapMm: 3,
+      parts: [{ id: 'x', outline: s72, quantity: 24 }],
+    });
+    const input: NestInput = {
+      sheet,
+      marginMm: 0,
+      gapMm: 3,
+      parts: ['red', 'green', 'blue'].map((g) => ({ id: `${g}-star`, outline: s72, quantity: 24, group: g })),
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    if (!r.ok || !alone.ok) throw new Error('layout failed');
+    for (const g of ['red', 'green', 'blue']) {
+      const first = r.sheets.find((s) => s.group === g)!;
+      expect(first.placements.every((p) => p.part === `${g}-star`)).toBe(true);
+      expect(first.placements.length).toBe(firstSheetCount(alone));
+    }
+  });
+
   it('lays out one copy each of 24 congruent notched triangles given turned and shifted, two colours', () => {
     // Equilateral triangles of side 100 with 9 mm × 25 mm notches on different edges: one NFP shape (the hull)
     // is shared by all of them; the placements are still checked against the true notched outlines.

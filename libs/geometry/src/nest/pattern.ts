@@ -10,7 +10,7 @@
  */
 import { pointInPath, unionPaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
 import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
-import { sheetLattices, type SheetLattice } from './double-lattice';
+import { sheetLattices } from './double-lattice';
 import { convexHull } from './polygon';
 import {
   clearOfItems,
@@ -323,26 +323,21 @@ function pairOffsets(cache: GeometryCache, a: Variant, b: Variant): { dx: number
   const take = (list: typeof scored, count: number) => {
     for (const s of list.slice(0, count)) pick.set(`${s.dx},${s.dy}`, { dx: s.dx, dy: s.dy });
   };
+  // Stars interlock at few of their contact positions: keep enough of the compact ones to find them.
   take(
     [...scored].sort((p, q) => p.area - q.area),
-    10,
+    30,
   );
   take(
     [...scored].sort((p, q) => p.h - q.h || p.w - q.w),
-    4,
+    10,
   );
   take(
     [...scored].sort((p, q) => p.w - q.w || p.h - q.h),
-    4,
+    10,
   );
   return [...pick.values()];
 }
-
-/**
- * Double-lattice searches of one nesting run (one GeometryCache), keyed by outline and rotations: the colour
- * groups of one model share their piece shapes, so each shape is searched once per run.
- */
-const convexRuns = new WeakMap<GeometryCache, Map<string, SheetLattice[]>>();
 
 /**
  * Sheet slots of the double-lattice search on the part's convex hull (double-lattice.ts), as placed items on
@@ -374,23 +369,11 @@ function convexLatticePatterns(
     for (let i = 0; i < 24; i++) angles.push((i * period) / 24);
     angles = [...new Set(angles.map((d) => normaliseAngle(d)))];
   }
-  let runs = convexRuns.get(cache);
-  if (!runs) convexRuns.set(cache, (runs = new Map()));
-  const runKey = JSON.stringify([
-    outline.map((q) => [Math.round(q[0] * 1e6), Math.round(q[1] * 1e6)]),
-    angles,
-    free,
-    rotationsDeg,
-  ]);
-  let found = runs.get(runKey);
-  if (!found) {
-    found = sheetLattices(
-      outline,
-      { ...frame, gapMm: cache.gapMm },
-      { anglesDeg: angles, free, partnerAllowed: (d) => usable(d + 180) },
-    );
-    runs.set(runKey, found);
-  }
+  const found = sheetLattices(
+    outline,
+    { ...frame, gapMm: cache.gapMm },
+    { anglesDeg: angles, free, partnerAllowed: (d) => usable(d + 180) },
+  );
   const out: PatternResult[] = [];
   /**
    * With fixed rotations, a rotation that is not in the list but gives the same shape as one that is (the part's
@@ -446,6 +429,44 @@ export function bestPattern(
   partIndex: number,
   rotationsDeg: readonly number[],
   free = false,
+): PatternResult | null {
+  let runs = patternRuns.get(cache);
+  if (!runs) patternRuns.set(cache, (runs = new Map()));
+  const outline = cache.parts[partIndex]!.outline;
+  const runKey = JSON.stringify([
+    outline.map((q) => [Math.round(q[0] * 1e6), Math.round(q[1] * 1e6)]),
+    rotationsDeg,
+    free,
+    frame.widthMm,
+    frame.heightMm,
+    frame.marginMm,
+  ]);
+  let found = runs.get(runKey);
+  if (found === undefined) {
+    found = searchPattern(cache, frame, partIndex, rotationsDeg, free);
+    runs.set(runKey, found);
+  }
+  // The same slots for this part: a congruent part of another colour group gets its own variants.
+  return (
+    found && {
+      ...found,
+      slots: found.slots.map((x) => ({ ...x, variant: cache.variant(partIndex, x.variant.rotationDeg) })),
+    }
+  );
+}
+
+/**
+ * Pattern searches of one nesting run (one GeometryCache), keyed by outline, rotations and sheet: the colour
+ * groups of one model share their piece shapes, so each shape is searched once per run.
+ */
+const patternRuns = new WeakMap<GeometryCache, Map<string, PatternResult | null>>();
+
+function searchPattern(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  partIndex: number,
+  rotationsDeg: readonly number[],
+  free: boolean,
 ): PatternResult | null {
   const allowed = new Set(rotationsDeg.map((d) => Math.round((((d % 360) + 360) % 360) * 1e6)));
   const results: PatternResult[] = [...convexLatticePatterns(cache, frame, partIndex, rotationsDeg, free)];
