@@ -86,6 +86,23 @@ describe('outages of the backing services', () => {
     }
   }
 
+  it('keeps answering reads prepared before a schema change that alters their result', async () => {
+    // The jobs list runs as a named prepared statement on every pooled connection. A migration that changes a
+    // column it returns (here text → varchar and back) makes PostgreSQL refuse the old statement ("cached plan
+    // must not change result type"); the API must re-prepare instead of failing (PostgreSQL docs, PREPARE).
+    const list = () => ctx.http.get('/api/jobs').query({ pageSize: 5 }).set(auth(people.supervisor));
+    const burst = async () => (await Promise.all(Array.from({ length: 6 }, list))).map((r) => r.status);
+    expect(await burst()).toEqual(Array(6).fill(200));
+    try {
+      await ctx.db.query(`ALTER TABLE jobs ALTER COLUMN notes TYPE varchar(4000)`);
+      expect(await burst()).toEqual(Array(6).fill(200));
+      expect(await burst()).toEqual(Array(6).fill(200));
+    } finally {
+      await ctx.db.query(`ALTER TABLE jobs ALTER COLUMN notes TYPE text`);
+    }
+    expect(await burst()).toEqual(Array(6).fill(200));
+  });
+
   it('answers 503 with the error body while PostgreSQL is down, and recovers without a restart', async () => {
     // A burst of job writes is in flight when the database stops.
     const design = await ctx.http

@@ -30,22 +30,51 @@ export function likePattern(q: string): string {
 }
 
 const statementNames = new Map<string, string>();
+let statementGeneration = 0;
+
+/** PostgreSQL's answer to a prepared statement whose result columns a schema change has altered. */
+export function isStalePreparedStatement(err: unknown): boolean {
+  return (
+    pgError(err)?.code === PG_FEATURE_NOT_SUPPORTED &&
+    /cached plan must not change result type/.test(String(err))
+  );
+}
+
+export const PG_FEATURE_NOT_SUPPORTED = '0A000';
 
 /**
  * Runs a read issued on (nearly) every request as a named, server-side prepared statement: PostgreSQL parses
  * and plans it once per connection instead of on every call (planning was a third of the jobs list's database
  * time). The name is derived from the SQL text, which must come from code only; values go in `params`.
+ * After a migration changes a column such a statement returns, PostgreSQL refuses the old statement on every
+ * connection that prepared it: the statement then gets a new name, so each connection prepares it afresh.
+ * Meant for reads outside transactions (inside one, the refused statement would abort the transaction).
  */
-export function preparedQuery<T>(
+export async function preparedQuery<T>(
   m: DataSource | EntityManager,
   text: string,
   params: unknown[],
 ): Promise<T[]> {
-  let name = statementNames.get(text);
-  if (!name) {
-    name = `kw_${createHash('sha256').update(text).digest('hex').slice(0, 24)}`;
-    statementNames.set(text, name);
+  const run = () => {
+    let name = statementNames.get(text);
+    if (!name) {
+      const hash = createHash('sha256').update(text).digest('hex').slice(0, 24);
+      name = `kw_${hash}_${statementGeneration}`;
+      statementNames.set(text, name);
+    }
+    // node-postgres takes a query config object in place of the text; TypeORM passes it through unchanged.
+    return { name, result: m.query({ name, text } as unknown as string, params) as Promise<T[]> };
+  };
+  const first = run();
+  try {
+    return await first.result;
+  } catch (err) {
+    if (!isStalePreparedStatement(err)) throw err;
+    // Renamed once per change, not once per connection that notices it.
+    if (statementNames.get(text) === first.name) {
+      statementGeneration++;
+      statementNames.delete(text);
+    }
+    return run().result;
   }
-  // node-postgres takes a query config object in place of the text; TypeORM passes it through unchanged.
-  return m.query({ name, text } as unknown as string, params);
 }
