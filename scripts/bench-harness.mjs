@@ -25,28 +25,14 @@ export function freePort() {
   });
 }
 
-/**
- * CPU seconds (user + system) a process and its live child processes (an API running several processes)
- * have used so far, from /proc (Linux); 0 elsewhere.
- */
+/** CPU seconds (user + system) a process has used so far, from /proc (Linux); 0 elsewhere. */
 export function cpuSeconds(pid) {
-  const stat = (p) => {
-    try {
-      return fs.readFileSync(`/proc/${p}/stat`, 'utf8').split(') ')[1].split(' ');
-    } catch {
-      return null;
-    }
-  };
-  const own = stat(pid);
-  if (!own) return 0;
-  // utime + stime in clock ticks (USER_HZ = 100); field 2 after the name is the parent's pid
-  let ticks = Number(own[11]) + Number(own[12]);
-  for (const entry of fs.readdirSync('/proc')) {
-    if (!/^\d+$/.test(entry)) continue;
-    const f = stat(entry);
-    if (f && Number(f[1]) === pid) ticks += Number(f[11]) + Number(f[12]);
+  try {
+    const fields = fs.readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1].split(' ');
+    return (Number(fields[11]) + Number(fields[12])) / 100; // utime + stime in clock ticks (USER_HZ = 100)
+  } catch {
+    return 0;
   }
-  return ticks / 100;
 }
 
 export async function stopChild(child) {
