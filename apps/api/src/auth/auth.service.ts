@@ -103,7 +103,8 @@ export class AuthService {
 
   /**
    * The signed-in user behind a verified token, read fresh on every request (so deactivation and role changes
-   * apply at once); inactive users, and demo users in production, get no access. One plain indexed query: it runs on every authenticated request.
+   * apply at once); inactive users, and demo users in production, get no access. One indexed, prepared query:
+   * it runs on every authenticated request.
    */
   async userForToken(
     payload: JwtPayload,

@@ -23,6 +23,7 @@ export function pgError(err: unknown): { code: string; constraint: string } | nu
 
 export const PG_UNIQUE_VIOLATION = '23505';
 export const PG_FOREIGN_KEY_VIOLATION = '23503';
+export const PG_FEATURE_NOT_SUPPORTED = '0A000';
 
 /** Escapes LIKE wildcards so search text is matched literally. */
 export function likePattern(q: string): string {
@@ -39,8 +40,6 @@ export function isStalePreparedStatement(err: unknown): boolean {
     /cached plan must not change result type/.test(String(err))
   );
 }
-
-export const PG_FEATURE_NOT_SUPPORTED = '0A000';
 
 /**
  * Runs a read issued on (nearly) every request as a named, server-side prepared statement: PostgreSQL parses

@@ -17,20 +17,8 @@ const SORT_COLUMNS: Record<string, string> = {
   updatedAt: 'd.updated_at',
 };
 
-/** A row of the design read (node-postgres parses jsonb and timestamptz). */
-interface DesignRow {
-  id: string;
-  owner_id: string;
-  owner_name: string;
-  name: string;
-  description: string;
-  spec: DesignView['spec'];
-  solid_file_name: string | null;
-  preview: DesignView['preview'];
-  version: number;
-  created_at: Date;
-  updated_at: Date;
-}
+/** The design read's row: the view's fields, with timestamps as node-postgres parses them. */
+type DesignRow = Omit<DesignView, 'createdAt' | 'updatedAt'> & { createdAt: Date; updatedAt: Date };
 
 /** Staff read every design (they prepare jobs from them); hobbyists only their own. */
 export function canReadDesign(user: AuthUser, ownerId: string): boolean {
@@ -67,25 +55,14 @@ export class DesignsService {
   async get(user: AuthUser, id: string): Promise<DesignView> {
     const [d] = await preparedQuery<DesignRow>(
       this.dataSource,
-      `SELECT d.id, d.owner_id, u.display_name AS owner_name, d.name, d.description, d.spec, d.solid_file_name,
-              d.preview, d.version, d.created_at, d.updated_at
+      `SELECT d.id, d.owner_id AS "ownerId", u.display_name AS "ownerName", d.name, d.description, d.spec,
+              d.solid_file_name AS "solidFileName", d.preview, d.version,
+              d.created_at AS "createdAt", d.updated_at AS "updatedAt"
          FROM designs d JOIN users u ON u.id = d.owner_id WHERE d.id = $1`,
       [id],
     );
-    if (!d || !canReadDesign(user, d.owner_id)) throw notFound('DESIGN', 'No such design');
-    return {
-      id: d.id,
-      ownerId: d.owner_id,
-      ownerName: d.owner_name,
-      name: d.name,
-      description: d.description,
-      spec: d.spec,
-      solidFileName: d.solid_file_name,
-      preview: d.preview,
-      version: d.version,
-      createdAt: d.created_at.toISOString(),
-      updatedAt: d.updated_at.toISOString(),
-    };
+    if (!d || !canReadDesign(user, d.ownerId)) throw notFound('DESIGN', 'No such design');
+    return { ...d, createdAt: d.createdAt.toISOString(), updatedAt: d.updatedAt.toISOString() };
   }
 
   async create(user: AuthUser, dto: CreateDesignDto, requestId: string): Promise<DesignView> {
@@ -238,13 +215,7 @@ export class DesignsService {
   }
 
   private async findReadable(m: EntityManager, user: AuthUser, id: string): Promise<Design> {
-    // One query (findOne with a relation issues two) and only the owner's name from the users table.
-    const d = await m
-      .createQueryBuilder(Design, 'd')
-      .leftJoin('d.owner', 'owner')
-      .addSelect(['owner.id', 'owner.displayName'])
-      .where('d.id = :id', { id })
-      .getOne();
+    const d = await m.findOneBy(Design, { id });
     if (!d || !canReadDesign(user, d.ownerId)) throw notFound('DESIGN', 'No such design');
     return d;
   }

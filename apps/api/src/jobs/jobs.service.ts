@@ -51,6 +51,23 @@ const LIST_COLUMNS = [
   'updated_at',
 ] as const;
 
+/**
+ * A job row as the list and the job route show it, read from a source named `page` holding LIST_COLUMNS of the
+ * jobs wanted: the names a row shows, and who prepared a prepared job (they may not approve it).
+ */
+const ROW_SELECT = `page.*, d.name AS design_name, r.display_name AS requester_name,
+       m.name AS material_name, p.name AS profile_name, v.number AS profile_number,
+       CASE WHEN page.state = 'prepared' THEN
+         (SELECT t.actor_id FROM job_transitions t
+           WHERE t.job_id = page.id AND t.action = 'prepare' ORDER BY t.id DESC LIMIT 1)
+       END AS preparer_id`;
+const ROW_JOINS = `LEFT JOIN designs d ON d.id = page.design_id
+       LEFT JOIN users r ON r.id = page.requester_id
+       LEFT JOIN materials m ON m.id = page.material_id
+       LEFT JOIN machine_profile_versions v ON v.id = page.profile_version_id
+       LEFT JOIN machine_profiles p ON p.id = v.profile_id`;
+const PAGE_COLUMNS = LIST_COLUMNS.map((c) => `j.${c}`).join(', ');
+
 /** One row of the jobs-list query, as node-postgres returns it (numeric and bigint as strings). */
 type JobListRow = {
   id: string;
@@ -72,7 +89,8 @@ type JobListRow = {
   updated_at: Date;
   design_name: string;
   requester_name: string;
-  total: string;
+  /** The list's total (the job route reads no total). */
+  total?: string;
   material_name: string | null;
   profile_name: string | null;
   profile_number: number | null;
@@ -81,7 +99,7 @@ type JobListRow = {
 
 const numberOrNull = (v: string | null): number | null => (v === null ? null : Number(v));
 
-function listRowView(r: JobListRow, user: AuthUser): JobView {
+function rowView(r: JobListRow, user: AuthUser): JobView {
   return {
     id: r.id,
     state: r.state,
@@ -128,13 +146,6 @@ export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state
   return job.state !== 'draft' || user.role === 'supervisor';
 }
 
-interface Names {
-  materials: Map<string, string>;
-  profiles: Map<string, { name: string; number: number }>;
-  /** Who prepared each prepared job (its latest `prepare`): they may not approve it (four eyes). */
-  preparers: Map<string, string>;
-}
-
 @Injectable()
 export class JobsService {
   constructor(
@@ -145,9 +156,8 @@ export class JobsService {
   ) {}
 
   /**
-   * One page of the jobs table in one round trip: the page with its total, and for the
-   * page's rows only the names a row shows and who prepared a prepared job. Only what a row shows is read,
-   * not the job's or the design's spec (an uploaded solid can be large).
+   * One page of the jobs table in one round trip: the page with its total and, for the page's rows only, what a
+   * row shows (ROW_SELECT). Not the job's or the design's spec: an uploaded solid can be large.
    */
   async list(user: AuthUser, query: ListJobsQuery): Promise<Page<JobView>> {
     const { page, pageSize, skip, take } = pageWindow(query);
@@ -177,28 +187,17 @@ export class JobsService {
       this.dataSource,
       `WITH total AS (SELECT count(*) AS n FROM jobs j ${searchJoins} ${filter}),
        page AS (
-         SELECT ${LIST_COLUMNS.map((c) => `j.${c}`).join(', ')}
-           FROM jobs j ${searchJoins} ${filter}
+         SELECT ${PAGE_COLUMNS} FROM jobs j ${searchJoins} ${filter}
           ORDER BY ${column} ${direction}, j.id ASC
          OFFSET ${param(skip)} LIMIT ${param(take)})
-       SELECT total.n AS total, page.*, d.name AS design_name, r.display_name AS requester_name,
-              m.name AS material_name, p.name AS profile_name, v.number AS profile_number,
-              CASE WHEN page.state = 'prepared' THEN
-                (SELECT t.actor_id FROM job_transitions t
-                  WHERE t.job_id = page.id AND t.action = 'prepare' ORDER BY t.id DESC LIMIT 1)
-              END AS preparer_id
-         FROM total
-         LEFT JOIN page ON true
-         LEFT JOIN designs d ON d.id = page.design_id
-         LEFT JOIN users r ON r.id = page.requester_id
-         LEFT JOIN materials m ON m.id = page.material_id
-         LEFT JOIN machine_profile_versions v ON v.id = page.profile_version_id
-         LEFT JOIN machine_profiles p ON p.id = v.profile_id
+       SELECT total.n AS total, ${ROW_SELECT}
+         FROM total LEFT JOIN page ON true
+       ${ROW_JOINS}
         ORDER BY ${pageOrder}`,
       params,
     );
     const total = Number(rows[0]?.total ?? 0);
-    const items = rows.filter((r) => r.id !== null).map((r) => listRowView(r, user));
+    const items = rows.filter((r) => r.id !== null).map((r) => rowView(r, user));
     return { items, total, page, pageSize };
   }
 
@@ -428,17 +427,22 @@ export class JobsService {
     await this.mailer.onTransition(m, job, action);
   }
 
+  /** The job route's view: the list's row for this job (same SQL, same mapping) and its transitions. */
   private async detail(m: EntityManager, user: AuthUser, id: string): Promise<JobDetailView> {
-    const job = await m.findOne(Job, { where: { id }, relations: { design: true, requester: true } });
-    if (!job || !canReadJob(user, job)) throw notFound('JOB', 'No such job');
+    // A plain query, not a prepared one: it also runs inside the transactions of job changes.
+    const [row]: JobListRow[] = await m.query(
+      `SELECT ${ROW_SELECT} FROM (SELECT ${PAGE_COLUMNS} FROM jobs j WHERE j.id = $1) page ${ROW_JOINS}`,
+      [id],
+    );
+    if (!row || !canReadJob(user, { requesterId: row.requester_id, state: row.state }))
+      throw notFound('JOB', 'No such job');
     const transitions = await m.find(JobTransition, {
       where: { jobId: id },
       relations: { actor: true },
       order: { id: 'ASC' },
     });
-    const view = this.toView(job, user, await this.names(m, [job]));
     return {
-      ...view,
+      ...rowView(row, user),
       transitions: transitions.map((t) => ({
         from: t.fromState,
         to: t.toState,
@@ -448,67 +452,6 @@ export class JobsService {
         reason: t.reason,
         at: t.createdAt.toISOString(),
       })),
-    };
-  }
-
-  private async names(m: EntityManager, jobs: Job[]): Promise<Names> {
-    const materialIds = [...new Set(jobs.map((j) => j.materialId).filter((x): x is string => !!x))];
-    const versionIds = [...new Set(jobs.map((j) => j.profileVersionId).filter((x): x is string => !!x))];
-    const materials = new Map<string, string>();
-    const profiles = new Map<string, { name: string; number: number }>();
-    const preparers = new Map<string, string>();
-    const preparedIds = jobs.filter((j) => j.state === 'prepared').map((j) => j.id);
-    if (preparedIds.length) {
-      const rows: { job_id: string; actor_id: string | null }[] = await m.query(
-        `SELECT DISTINCT ON (job_id) job_id, actor_id FROM job_transitions
-          WHERE job_id = ANY($1::uuid[]) AND action = 'prepare' ORDER BY job_id, id DESC`,
-        [preparedIds],
-      );
-      for (const r of rows) if (r.actor_id) preparers.set(r.job_id, r.actor_id);
-    }
-    if (materialIds.length) {
-      const rows: { id: string; name: string }[] = await m.query(
-        `SELECT id, name FROM materials WHERE id = ANY($1::uuid[])`,
-        [materialIds],
-      );
-      for (const r of rows) materials.set(r.id, r.name);
-    }
-    if (versionIds.length) {
-      const rows: { id: string; name: string; number: number }[] = await m.query(
-        `SELECT v.id, p.name, v.number FROM machine_profile_versions v JOIN machine_profiles p ON p.id = v.profile_id WHERE v.id = ANY($1::uuid[])`,
-        [versionIds],
-      );
-      for (const r of rows) profiles.set(r.id, { name: r.name, number: Number(r.number) });
-    }
-    return { materials, profiles, preparers };
-  }
-
-  private toView(job: Job, user: AuthUser, names: Names): JobView {
-    const profile = job.profileVersionId ? names.profiles.get(job.profileVersionId) : undefined;
-    return {
-      id: job.id,
-      state: job.state,
-      designId: job.designId,
-      designName: job.design?.name ?? '',
-      requesterId: job.requesterId,
-      requesterName: job.requester?.displayName ?? '',
-      quantity: job.quantity,
-      notes: job.notes,
-      materialId: job.materialId,
-      materialName: job.materialId ? (names.materials.get(job.materialId) ?? null) : null,
-      colours: job.colours,
-      profileVersionId: job.profileVersionId,
-      profileName: profile?.name ?? null,
-      profileVersionNumber: profile?.number ?? null,
-      returnReason: job.returnReason,
-      preparation: job.preparation,
-      actualMinutes: job.actualMinutes,
-      sheetsUsed: job.sheetsUsed,
-      measuredKerfMm: job.measuredKerfMm,
-      version: job.version,
-      createdAt: job.createdAt.toISOString(),
-      updatedAt: job.updatedAt.toISOString(),
-      actions: jobActionsFor(job.state, user, job.requesterId, names.preparers.get(job.id)),
     };
   }
 }

@@ -122,7 +122,7 @@ export function symmetryPeriodDeg(outline: Point[]): number {
 /**
  * Rotations for the pattern pass when rotation is free: the auto set plus an even sweep over one symmetry
  * period of the outline (sweeps primaries of them), each with its 180° partner, congruent duplicates removed.
- * Twelve steps (every 30° for a slotted piece with no symmetry): on the bench, coarser sweeps missed the
+ * Twelve steps (every 15°, with partners, for a slotted piece with no symmetry): on the bench, coarser sweeps missed the
  * interlocking arrangements of {7/2} and {8/3} stars (two more pieces per sheet), at no cost to the layouts.
  */
 export function patternRotations(outline: Point[], sweeps = 12): number[] {
