@@ -245,6 +245,59 @@ for (const [label, outline] of [
   );
 }
 
+// ---------- Finely sampled outlines ----------
+// Curves arrive as many short edges: a wavy disc of 384 vertices (192 reflex corners) and a 96-vertex rounded
+// L, 14 and 10 off. Their no-fit polygons are built on containing outlines of at most NFP_MAX_REFLEX reflex
+// corners (variants.ts); before that bound one pair of the wavy disc took minutes.
+{
+  const wavyDisc = Array.from({ length: 384 }, (_, i) => {
+    const t = (2 * Math.PI * i) / 384;
+    const r = 55 * (1 + 0.15 * Math.sin(12 * t));
+    return [r * Math.cos(t), r * Math.sin(t)];
+  });
+  const roundedL = [];
+  const arc = (cx, cy, r, a0) => {
+    for (let i = 0; i <= 23; i++) {
+      const a = ((a0 + (90 * i) / 23) * Math.PI) / 180;
+      roundedL.push([cx + r * Math.cos(a), cy + r * Math.sin(a)]);
+    }
+  };
+  arc(110, 10, 10, 270);
+  arc(110, 30, 10, 0);
+  arc(50, 70, 10, 0);
+  arc(10, 70, 10, 90);
+  roundedL.splice(0, 0, [10, 0]);
+  const input = {
+    sheet: SHEET,
+    marginMm: 5,
+    gapMm: GAP,
+    parts: [
+      { id: 'wavy', outline: wavyDisc, quantity: 14 },
+      { id: 'L', outline: roundedL, quantity: 10 },
+    ],
+  };
+  const times = [];
+  const cpuTimes = [];
+  const tsTimes = [];
+  let r;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    const c0 = process.cpuUsage();
+    r = nestParts(input);
+    times.push(performance.now() - t0);
+    cpuTimes.push(cpuMs(c0));
+    const t1 = performance.now();
+    nestParts({ ...input, method: 'true-shape' });
+    tsTimes.push(performance.now() - t1);
+  }
+  console.log(
+    `finely sampled outlines (384-vertex wavy disc ×14, 96-vertex rounded L ×10): ` +
+      `${r.ok ? `${r.totals.sheetCount} sheets, ${r.sheets[0].placements.length} on the first` : r.error.message}; ` +
+      `median ${median(times).toFixed(0)} ms wall, ${median(cpuTimes).toFixed(0)} ms CPU; bottom-left alone ` +
+      `${(median(tsTimes) / 48).toFixed(1)} ms per placement`,
+  );
+}
+
 // ---------- Decagons on a larger sheet ----------
 // 15 decagons fit a 600 × 400 sheet either way (REFERENCES), so they are compared on a 1220 × 2440 sheet too.
 // Estimate (not a bound): on an unbounded sheet the decagon lattice density 0.9137 (REFERENCES) applied to the

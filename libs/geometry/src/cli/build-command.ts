@@ -3,7 +3,7 @@ import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError } from '../spec/validate-spec';
 import { pieceToDxf } from '../writers/dxf';
 import { pieceToSvg } from '../writers/svg';
-import { type CliCommand, UsageError, parseArgs } from './command';
+import { type CliRun, UsageError, parseArgs } from './command';
 
 /**
  * `build SPEC.json --out DIR [--json]`: builds a design (with its layout when the spec gives stock.sheet,
@@ -11,62 +11,57 @@ import { type CliCommand, UsageError, parseArgs } from './command';
  * one DXF and one SVG per piece (DIR/P1.dxf, DIR/P1.svg, …). Exit codes: 0 built; 1 the design
  * has errors (report written, no cut files); 2 unreadable or invalid spec or solid (nothing written).
  */
-export const buildCommand: CliCommand = {
-  name: 'build',
-  summary: 'build a design spec into report.json and a DXF and an SVG per piece',
-  usage: 'build SPEC.json --out DIR [--json]',
-  run(args, io) {
-    const { positional, options } = parseArgs(args, ['out'], ['json']);
-    const [specPath, extra] = positional;
-    if (!specPath || extra !== undefined) throw new UsageError('usage: build SPEC.json --out DIR [--json]');
-    const outDir = options.get('out');
-    const json = options.get('json') === true;
-    if (typeof outDir !== 'string' && !json) throw new UsageError('give --out DIR, --json or both');
+export const runBuild: CliRun = (args, io, usage) => {
+  const { positional, options } = parseArgs(args, ['out'], ['json']);
+  const [specPath, extra] = positional;
+  if (!specPath || extra !== undefined) throw new UsageError(`usage: ${usage}`);
+  const outDir = options.get('out');
+  const json = options.get('json') === true;
+  if (typeof outDir !== 'string' && !json) throw new UsageError('give --out DIR, --json or both');
 
-    let text: string;
-    try {
-      text = io.readText(specPath);
-    } catch (e) {
-      io.err(`error: cannot read ${specPath}: ${(e as Error).message}`);
-      return 2;
-    }
-    let spec: unknown;
-    try {
-      spec = JSON.parse(text);
-    } catch (e) {
-      io.err(`error: ${specPath} is not valid JSON: ${(e as Error).message}`);
-      return 2;
-    }
-    let model;
-    try {
-      model = buildWithLayout(spec).model;
-    } catch (e) {
-      if (e instanceof SpecValidationError) io.err(`error: ${e.message}`);
-      else if (e instanceof SolidError) io.err(`error: bad solid (${e.code}): ${e.message}`);
-      else throw e;
-      return 2;
-    }
-    const { report } = model;
-    const reportText = JSON.stringify(report, null, 2) + '\n';
-    if (typeof outDir === 'string') {
-      io.makeDir(outDir);
-      io.writeText(io.joinPath(outDir, 'report.json'), reportText);
-      if (report.errors.length === 0) {
-        for (const p of model.pieces) {
-          io.writeText(io.joinPath(outDir, `${p.id}.dxf`), pieceToDxf(p));
-          io.writeText(io.joinPath(outDir, `${p.id}.svg`), pieceToSvg(p));
-        }
+  let text: string;
+  try {
+    text = io.readText(specPath);
+  } catch (e) {
+    io.err(`error: cannot read ${specPath}: ${(e as Error).message}`);
+    return 2;
+  }
+  let spec: unknown;
+  try {
+    spec = JSON.parse(text);
+  } catch (e) {
+    io.err(`error: ${specPath} is not valid JSON: ${(e as Error).message}`);
+    return 2;
+  }
+  let model;
+  try {
+    model = buildWithLayout(spec).model;
+  } catch (e) {
+    if (e instanceof SpecValidationError) io.err(`error: ${e.message}`);
+    else if (e instanceof SolidError) io.err(`error: bad solid (${e.code}): ${e.message}`);
+    else throw e;
+    return 2;
+  }
+  const { report } = model;
+  const reportText = JSON.stringify(report, null, 2) + '\n';
+  if (typeof outDir === 'string') {
+    io.makeDir(outDir);
+    io.writeText(io.joinPath(outDir, 'report.json'), reportText);
+    if (report.errors.length === 0) {
+      for (const p of model.pieces) {
+        io.writeText(io.joinPath(outDir, `${p.id}.dxf`), pieceToDxf(p));
+        io.writeText(io.joinPath(outDir, `${p.id}.svg`), pieceToSvg(p));
       }
     }
-    if (json) io.out(reportText);
-    if (report.errors.length > 0) {
-      const first = report.errors[0];
-      io.err(
-        `error: the design has ${report.errors.length} error(s), no cut files written; first: ` +
-          `${first?.code}: ${first?.message}`,
-      );
-      return 1;
-    }
-    return 0;
-  },
+  }
+  if (json) io.out(reportText);
+  if (report.errors.length > 0) {
+    const first = report.errors[0];
+    io.err(
+      `error: the design has ${report.errors.length} error(s), no cut files written; first: ` +
+        `${first?.code}: ${first?.message}`,
+    );
+    return 1;
+  }
+  return 0;
 };

@@ -18,6 +18,12 @@ export interface CliCommand {
   run(args: readonly string[], io: CliIo): number | Promise<number>;
 }
 
+/**
+ * The work behind one command of the table in commands.ts, exported by the command's own module; `usage` is
+ * the table's usage line, for UsageError messages.
+ */
+export type CliRun = (args: readonly string[], io: CliIo, usage: string) => number | Promise<number>;
+
 /** Thrown for bad command-line use; printed as one line with exit code 2. */
 export class UsageError extends Error {}
 

@@ -1,7 +1,7 @@
 import type { CutPackResult } from '@kerfwright/contracts';
 import { CutPackError } from '../pack/pack';
 import { type PackCommandOptions, runCouponCommand, runPackCommand } from '../pack/cli-commands';
-import { type CliCommand, type CliIo, UsageError, parseArgs } from './command';
+import { type CliIo, type CliRun, UsageError, parseArgs } from './command';
 import { readJsonArg } from './read-json';
 
 /** Exit code for a pack failure: 2 for a spec that cannot be read as a design, 1 for a design or layout that fails. */
@@ -61,24 +61,7 @@ async function runPackLike(
  * design has errors or does not lay out (nothing written); 2 unreadable JSON or invalid spec (nothing
  * written).
  */
-const PACK_USAGE = 'pack SPEC.json --out DIR [--units in] [--zip] [--json]';
-const COUPON_USAGE = 'coupon SPEC.json --out DIR [--units in] [--json]';
-
-export const packCommand: CliCommand = {
-  name: 'pack',
-  summary: 'write the cut pack of a design spec: sheets, coupon, setup sheet, assembly guide, manifest',
-  usage: PACK_USAGE,
-  run(args, io) {
-    return runPackLike(args, io, PACK_USAGE, runPackCommand, ['zip']);
-  },
-};
+export const runPack: CliRun = (args, io, usage) => runPackLike(args, io, usage, runPackCommand, ['zip']);
 
 /** `coupon SPEC.json --out DIR [--units in] [--json]`: the fit-test coupon alone (exit codes as pack). */
-export const couponCommand: CliCommand = {
-  name: 'coupon',
-  summary: 'write the fit-test coupon of a design spec (DXF, SVG, manifest)',
-  usage: COUPON_USAGE,
-  run(args, io) {
-    return runPackLike(args, io, COUPON_USAGE, runCouponCommand, []);
-  },
-};
+export const runCoupon: CliRun = (args, io, usage) => runPackLike(args, io, usage, runCouponCommand, []);

@@ -5,6 +5,7 @@
  * y up).
  */
 import * as ClipperLib from 'clipper-lib';
+import simplify from 'simplify-js';
 import { convexMinkowskiSum } from './convex-decomposition';
 
 /** Integer units per millimetre (1 unit = 1 µm). Coordinates up to ~1e9 units stay in Clipper's fast range. */
@@ -82,6 +83,37 @@ export function closePolygon(path: IntPath, radiusMm: number): IntPath {
 }
 
 /**
+ * A polygon with fewer vertices that contains the closed CCW polygon `path`: the outline simplified by
+ * Douglas–Peucker at tolerance tolMm (simplify-js), then grown by tolMm with mitred joins. Every point of the
+ * outline lies within tolMm of the simplified one, so the grown polygon contains it; that is checked with a
+ * Clipper difference all the same, and null is returned when it fails (a simplification that crossed itself).
+ */
+export function simplifyContaining(path: IntPath, tolMm: number): IntPath | null {
+  const open = [...path, path[0]!].map((p) => ({ x: p.X, y: p.Y }));
+  const kept = simplify(open, tolMm * SCALE_PER_MM, true).slice(0, -1);
+  if (kept.length < 3) return null;
+  const simplified = kept.map((p) => ({ X: p.x, Y: p.y }));
+  if (ClipperLib.Clipper.Area(simplified) <= 0) return null;
+  const outer = growPolygon(simplified, tolMm).filter((p) => ClipperLib.Clipper.Area(p) > 0);
+  if (outer.length !== 1) return null;
+  const left = differencePaths([path], outer);
+  const leftArea = left.reduce((s, p) => s + ClipperLib.Clipper.Area(p), 0);
+  return leftArea <= path.length ? outer[0]! : null;
+}
+
+/** Number of reflex (inward) corners of a CCW polygon: it bounds the convex pieces it is cut into. */
+export function reflexCorners(path: IntPath): number {
+  let n = 0;
+  for (let i = 0; i < path.length; i++) {
+    const a = path[(i + path.length - 1) % path.length]!;
+    const b = path[i]!;
+    const c = path[(i + 1) % path.length]!;
+    if ((b.X - a.X) * (c.Y - b.Y) - (b.Y - a.Y) * (c.X - b.X) < 0) n++;
+  }
+  return n;
+}
+
+/**
  * No-fit polygon of a moving path around a fixed one: the set of translations t for which moving + t meets
  * the interior of fixed, i.e. the Minkowski sum fixed ⊕ (−moving). Built as the union of the sums of convex
  * pieces (both polygons cut into convex pieces beforehand: convex-decomposition.ts), each a convex hull of
@@ -90,9 +122,14 @@ export function closePolygon(path: IntPath, radiusMm: number): IntPath {
  * placement in one would overlap. Losing true pockets (a part wholly inside another's cavity) is the safe side.
  */
 export function noFitPolygonFromPieces(fixedPieces: IntPaths, negatedMovingPieces: IntPaths): IntPaths {
-  const sums: IntPaths = [];
-  for (const a of fixedPieces) for (const b of negatedMovingPieces) sums.push(convexMinkowskiSum(a, b));
-  return unionPaths(sums).filter((p) => ClipperLib.Clipper.Area(p) > 0);
+  // One union per fixed piece first: its sums overlap one another heavily, and uniting them in one sweep
+  // with every other piece's sums made Clipper process several times more edge crossings.
+  const rows: IntPaths = [];
+  for (const a of fixedPieces) {
+    const sums = negatedMovingPieces.map((b) => convexMinkowskiSum(a, b));
+    rows.push(...(sums.length === 1 ? sums : unionPaths(sums)));
+  }
+  return unionPaths(rows).filter((p) => ClipperLib.Clipper.Area(p) > 0);
 }
 
 /** The same with Clipper's own MinkowskiSum (edge-pair parallelograms); a fallback for odd inputs. */

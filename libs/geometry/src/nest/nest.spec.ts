@@ -16,6 +16,15 @@ function star(n: number, k: number, R: number): P[] {
   });
 }
 
+/** A finely sampled wavy closed curve: radius R·(1 + a·sin(lobes·θ)), n vertices (half of them reflex). */
+function wavy(n: number, R: number, a: number, lobes: number): P[] {
+  return Array.from({ length: n }, (_, i) => {
+    const t = (2 * Math.PI * i) / n;
+    const r = R * (1 + a * Math.sin(lobes * t));
+    return [r * Math.cos(t), r * Math.sin(t)] as P;
+  });
+}
+
 /** Cuts a slot of width w and depth d from tip vertex i of a CCW star outline toward the centre. */
 function withSlot(outline: P[], tip: number, w: number, d: number): P[] {
   const n = outline.length;
@@ -275,6 +284,22 @@ describe('nestParts — true shape', () => {
     const r = nestParts(input);
     checkLayout(input, r);
     expect(r.ok && r.totals.sheetCount).toBe(1);
+  });
+
+  it('nests a finely sampled wavy outline (384 vertices, 192 reflex corners) with its copies and a square', () => {
+    const input: NestInput = {
+      sheet: { widthMm: 500, heightMm: 300 },
+      marginMm: 5,
+      gapMm: 3,
+      parts: [
+        { id: 'wavy', outline: moved(wavy(384, 60, 0.15, 12), 10, 400, -250), quantity: 6 },
+        { id: 'square', outline: regular(4, 40, 45), quantity: 2 },
+      ],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    // Area bound: 6 × 11,670 mm² + 2 × 3,200 mm² fits one 150,000 mm² sheet (not a density bound).
+    expect(r.ok && r.totals.sheetCount).toBeLessThanOrEqual(2);
   });
 
   it('names a part that cannot fit on an empty sheet at any rotation', () => {

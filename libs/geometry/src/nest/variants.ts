@@ -12,6 +12,8 @@ import {
   noFitPolygonFromPieces,
   noFitPolygon,
   pointInPath,
+  reflexCorners,
+  simplifyContaining,
   toIntPath,
   SCALE_PER_MM,
   type IntPath,
@@ -238,7 +240,34 @@ function dropNearlyCollinear(path: IntPath, tol: number): IntPath {
   return out;
 }
 
-/** The outline used for no-fit polygons: narrow notches closed, the hull for convex-ish pieces. */
+/**
+ * Most reflex corners an outline for no-fit polygons may keep. A no-fit polygon is the union of the sums of
+ * the two outlines' convex pieces, about (r + 1)² of them for r reflex corners each: 24 keeps one under about
+ * 30 ms, where a finely sampled wavy outline of 380 vertices (190 reflex) took minutes.
+ */
+export const NFP_MAX_REFLEX = 24;
+
+/**
+ * An outline within the reflex-corner budget that contains `path`: `path` itself when it is within it, else
+ * the first containing simplification (simplifyContaining) within it, the tolerance doubling from 0.05 mm up
+ * to a twentieth of the outline's size; else the convex hull. Only pockets shallower than the tolerance are
+ * given up, so finely sampled curves lose almost nothing; validity never depends on it (see NOTCH_SLACK_MM).
+ */
+function withinReflexBudget(path: IntPath, hull: IntPath): IntPath {
+  if (reflexCorners(path) <= NFP_MAX_REFLEX) return path;
+  const box = boxOfPaths([path]);
+  const sizeMm = Math.max(box.maxX - box.minX, box.maxY - box.minY) / SCALE_PER_MM;
+  for (let tolMm = 0.05; tolMm <= sizeMm / 20; tolMm *= 2) {
+    const simpler = simplifyContaining(path, tolMm);
+    if (simpler && reflexCorners(simpler) <= NFP_MAX_REFLEX) return simpler;
+  }
+  return hull;
+}
+
+/**
+ * The outline used for no-fit polygons: narrow notches closed, the hull for convex-ish pieces, and at most
+ * NFP_MAX_REFLEX reflex corners.
+ */
 export function nfpOutline(outline: Point[], gapMm: number): IntPath {
   const path = toIntPath(outline);
   const hull = dropNearlyCollinear(toIntPath(convexHull(outline)), 1);
@@ -246,7 +275,9 @@ export function nfpOutline(outline: Point[], gapMm: number): IntPath {
   // area is within it of the closed outline's too, and the (slower) closing is skipped.
   if (areaUnits(hull) <= (1 + HULL_NOTCH_FRACTION) * areaUnits(path)) return hull;
   const closed = closePolygon(path, gapMm + NOTCH_SLACK_MM);
-  return areaUnits(hull) <= (1 + HULL_NOTCH_FRACTION) * areaUnits(closed) ? hull : closed;
+  return areaUnits(hull) <= (1 + HULL_NOTCH_FRACTION) * areaUnits(closed)
+    ? hull
+    : withinReflexBudget(closed, hull);
 }
 
 function centroidOf(path: IntPath): { x: number; y: number } {

@@ -1,0 +1,75 @@
+import * as polygonClipping from 'polygon-clipping';
+import { reflexCorners, simplifyContaining, SCALE_PER_MM, type IntPath } from './clipper-adapter';
+import { NFP_MAX_REFLEX, nfpOutline } from './variants';
+import { area, mpArea, type P, regular } from '../test-support/polygons';
+
+const toMm = (p: IntPath): P[] => p.map((q) => [q.X / SCALE_PER_MM, q.Y / SCALE_PER_MM]);
+const toInt = (p: P[]): IntPath =>
+  p.map(([x, y]) => ({ X: Math.round(x * SCALE_PER_MM), Y: Math.round(y * SCALE_PER_MM) }));
+
+/** A finely sampled wavy closed curve: radius R·(1 + a·sin(lobes·θ)), n vertices. */
+function wavy(n: number, R: number, a: number, lobes: number): P[] {
+  return Array.from({ length: n }, (_, i) => {
+    const t = (2 * Math.PI * i) / n;
+    const r = R * (1 + a * Math.sin(lobes * t));
+    return [r * Math.cos(t), r * Math.sin(t)] as P;
+  });
+}
+
+/** Convex hull (monotone chain), written here so the check does not use the library's own. */
+function hull(points: P[]): P[] {
+  const pts = [...points].sort((p, q) => p[0] - q[0] || p[1] - q[1]);
+  const cross = (o: P, a: P, b: P) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const half = (list: P[]) => {
+    const h: P[] = [];
+    for (const p of list) {
+      while (h.length >= 2 && cross(h[h.length - 2]!, h[h.length - 1]!, p) <= 0) h.pop();
+      h.push(p);
+    }
+    h.pop();
+    return h;
+  };
+  return [...half(pts), ...half([...pts].reverse())];
+}
+
+/** Area of `inner` left outside `outer`, by polygon-clipping (an independent polygon library). */
+const leftOutside = (inner: P[], outer: P[]) => mpArea(polygonClipping.difference([inner], [outer]));
+
+describe('outlines for no-fit polygons', () => {
+  it('bounds the reflex corners of a finely sampled wavy outline, still containing it and tighter than its hull', () => {
+    const outline = wavy(384, 60, 0.15, 12);
+    expect(reflexCorners(toInt(outline))).toBeGreaterThan(100);
+    const nfp = toMm(nfpOutline(outline, 3));
+    expect(reflexCorners(toInt(nfp))).toBeLessThanOrEqual(NFP_MAX_REFLEX);
+    expect(leftOutside(outline, nfp)).toBeLessThan(1e-6 * area(outline));
+    expect(area(nfp)).toBeLessThan(area(hull(outline)) * 0.98);
+  });
+
+  it('leaves an outline within the budget unsimplified: a {5/2} star keeps its area to 0.05 %', () => {
+    const inner = (60 * Math.cos((2 * Math.PI) / 5)) / Math.cos(Math.PI / 5);
+    const star: P[] = Array.from({ length: 10 }, (_, i) => {
+      const r = i % 2 === 0 ? 60 : inner;
+      const t = Math.PI / 2 + (Math.PI * i) / 5;
+      return [r * Math.cos(t), r * Math.sin(t)];
+    });
+    const nfp = toMm(nfpOutline(star, 1));
+    // Closing the inner corners by the gap adds a few µm² there; a simplification grown by its tolerance
+    // (0.05 mm at least) would add about perimeter × 0.05 ≈ 20 mm² (0.5 %).
+    expect(reflexCorners(toInt(nfp))).toBeGreaterThanOrEqual(5);
+    expect(Math.abs(area(nfp) - area(star))).toBeLessThan(5e-4 * area(star));
+  });
+
+  it('simplifies a 720-gon circle to a containing polygon within a tolerance band', () => {
+    const circle = regular(720, 50, 0);
+    const tolMm = 0.2;
+    const simpler = simplifyContaining(toInt(circle), tolMm);
+    expect(simpler).not.toBeNull();
+    const s = toMm(simpler!);
+    expect(s.length).toBeLessThan(100);
+    expect(leftOutside(circle, s)).toBeLessThan(1e-6);
+    // Douglas–Peucker keeps every point within the tolerance; the mitred growth adds at most about as much again.
+    const radii = s.map(([x, y]) => Math.hypot(x, y));
+    expect(Math.max(...radii)).toBeLessThan(50 + 3 * tolMm);
+    expect(area(s)).toBeLessThan(Math.PI * (50 + 2 * tolMm) ** 2);
+  });
+});
