@@ -323,6 +323,57 @@ describe('jobs through their states', () => {
     }
   });
 
+  it('answers other requests while a fit search runs: the engine works in a worker thread', async () => {
+    // Twelve pentagons fitted to two sheets: the search lays the model out many times (about a second).
+    const d = await ctx.http
+      .post('/api/designs')
+      .set(auth(users.hobbyist))
+      .send({
+        name: 'Two-sheet pentagon lamp',
+        spec: {
+          ...octahedronHexagons(),
+          solid: 'dodecahedron',
+          piece: { sides: 5, step: 1, rotationDeg: 36, size: 1.45 },
+          scale: { by: 'fitSheets', sheets: 2 },
+          stock: { thicknessMm: 3, flexible: false, sheet: { widthMm: 600, heightMm: 400 } },
+        },
+      })
+      .expect(201);
+    const j = await ctx.http
+      .post('/api/jobs')
+      .set(auth(users.hobbyist))
+      .send({ designId: d.body.id })
+      .expect(201);
+    await act(users.hobbyist, j.body.id, 'request');
+    const current = await ctx.http.get(`/api/jobs/${j.body.id}`).set(auth(users.supervisor)).expect(200);
+    const started = performance.now();
+    let preparedAt = 0;
+    const preparing = ctx.http
+      .post(`/api/jobs/${j.body.id}/prepare`)
+      .set(auth(users.fabricator))
+      .send({ version: current.body.version, ...prepareBody() })
+      .then((res) => {
+        preparedAt = performance.now();
+        return res;
+      });
+    // Health asked one after another while the preparation runs: on a blocked event loop one of them would
+    // wait for the whole search.
+    const latencies: number[] = [];
+    while (preparedAt === 0) {
+      const t = performance.now();
+      await ctx.http.get('/api/health').expect(200);
+      if (preparedAt === 0) latencies.push(performance.now() - t);
+    }
+    const prepared = await preparing;
+    expect(prepared.status).toBe(200);
+    expect(prepared.body.preparation.sheetCount).toBeLessThanOrEqual(2);
+    const duration = preparedAt - started;
+    // The check means something only if the search is long next to a health answer.
+    expect(duration).toBeGreaterThan(250);
+    expect(latencies.length).toBeGreaterThanOrEqual(3);
+    expect(Math.max(...latencies)).toBeLessThan(duration / 2);
+  });
+
   it('keeps four eyes on a job: the supervisor who prepared it cannot approve it (403), another can', async () => {
     const job = await draftJob();
     await act(users.hobbyist, job.id, 'request');

@@ -33,6 +33,7 @@ export class EnvVars {
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_LIMIT?: number;
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_ADDRESS_LIMIT?: number;
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_WINDOW_S?: number;
+  @IsOptional() @IsInt() @Min(1) @Max(64) KW_GEOMETRY_THREADS?: number;
   @IsOptional() @IsString() KW_WEB_DIST?: string;
   /** One origin (scheme://host[:port]); never a wildcard or a path. */
   @IsOptional()

@@ -1,5 +1,11 @@
-import { createCutPack } from '@kerfwright/geometry/pack';
+import { type GeometryThreads } from '../geometry/geometry-threads';
 import { type PackBuilder } from './exports.processor';
 
-/** The geometry library builds the pack; the API only stores it. */
-export const buildPack: PackBuilder = (input, onProgress) => createCutPack(input, onProgress);
+/**
+ * The geometry library builds the pack, in a worker thread so the process keeps serving requests and renewing
+ * its queue locks meanwhile; the API only stores it.
+ */
+export const buildPack =
+  (threads: GeometryThreads): PackBuilder =>
+  (input, onProgress) =>
+    threads.cutPack(input, onProgress);

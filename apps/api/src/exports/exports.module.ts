@@ -3,6 +3,8 @@ import { Module } from '@nestjs/common';
 import { ConfigModule, type ConfigType } from '@nestjs/config';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { redisConfig } from '../config/app.config';
+import { GeometryModule } from '../geometry/geometry.module';
+import { GeometryThreads } from '../geometry/geometry-threads';
 import { JobsModule } from '../jobs/jobs.module';
 import { MachineProfilesModule } from '../machine-profiles/machine-profiles.module';
 import { SafetyModule } from '../safety/safety.module';
@@ -39,6 +41,7 @@ import { ExportsService } from './exports.service';
     JobsModule,
     MachineProfilesModule,
     SafetyModule,
+    GeometryModule,
   ],
   controllers: [ExportsController],
   providers: [
@@ -46,7 +49,7 @@ import { ExportsService } from './exports.service';
     ExportsProcessor,
     ExportsReconciler,
     CutPackInputService,
-    { provide: PACK_BUILDER, useValue: buildPack },
+    { provide: PACK_BUILDER, inject: [GeometryThreads], useFactory: buildPack },
   ],
 })
 export class ExportsModule {}

@@ -7,12 +7,14 @@ import {
   type JobPreparation,
   toMachineSpec,
 } from '@kerfwright/contracts';
-import { buildWithLayout, prepareCut, SolidError, SpecValidationError } from '@kerfwright/geometry';
+import { SolidError, SpecValidationError } from '@kerfwright/geometry';
+import { type PreparedJob } from '@kerfwright/geometry/worker';
 import { AuditService } from '../audit/audit.service';
 import { AppError } from '../common/errors';
 import { MachineProfilesService } from '../machine-profiles/machine-profiles.service';
 import { MaterialsService } from '../materials/materials.service';
 import { badSolid, invalidSpec } from '../designs/design-engine';
+import { GeometryThreads } from '../geometry/geometry-threads';
 import { type PrepareJobDto, toScaleSpec } from './dto/job.dto';
 import { type Job } from './job.entity';
 
@@ -29,6 +31,7 @@ export class JobPreparationService {
     private readonly profiles: MachineProfilesService,
     private readonly materials: MaterialsService,
     private readonly audit: AuditService,
+    private readonly threads: GeometryThreads,
   ) {}
 
   async prepare(
@@ -80,39 +83,51 @@ export class JobPreparationService {
       machine,
       bed: { widthMm: version.bedWidthMm, heightMm: version.bedHeightMm },
     };
-    let prepared;
-    let spec: DesignSpec;
+    const layoutStock = {
+      sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm },
+      marginMm,
+      gapMm,
+      colourCount: colours.length,
+      colourRule,
+    };
+    // The engine's work runs in a worker thread (see GeometryThreads): a fit search takes about a second.
+    let prepared: PreparedJob;
     try {
-      spec = resolveFitScale(input, {
-        sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm },
-        marginMm,
-        gapMm,
-        colourCount: colours.length,
-        colourRule,
-      });
-      prepared = prepareCut(spec, {
-        sheet,
-        marginMm,
-        gapMm,
-        colours: { count: colours.length, rule: colourRule },
-        quantity: job.quantity,
+      prepared = await this.threads.prepareJob({
+        input,
+        fitSearch: fitSearchSpec(input, layoutStock),
+        cut: {
+          sheet,
+          marginMm,
+          gapMm,
+          colours: { count: colours.length, rule: colourRule },
+          quantity: job.quantity,
+        },
       });
     } catch (err) {
       if (err instanceof SpecValidationError) throw invalidSpec(err.fieldErrors);
       if (err instanceof SolidError) throw badSolid(err);
       throw err;
     }
-    const { model, layout, summary } = prepared;
-    if (model.report.errors.length > 0) {
+    if (prepared.stage === 'fit') {
       throw new AppError(
         HttpStatus.CONFLICT,
         'JOB.DESIGN_INVALID',
-        `In ${material.name} at ${thicknessMm} mm the design cannot be cut: ${model.report.errors[0]!.message}`,
-        model.report.errors,
+        `The design cannot be fitted to the stock: ${prepared.errors[0]!.message}`,
+        prepared.errors,
       );
     }
-    if (!layout.ok || !summary) {
-      const failure = layout.ok ? { code: 'LAYOUT.INVALID', message: 'no layout', pieces: [] } : layout;
+    const { spec, errors, layoutFailure, summary } = prepared;
+    if (errors.length > 0) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.DESIGN_INVALID',
+        `In ${material.name} at ${thicknessMm} mm the design cannot be cut: ${errors[0]!.message}`,
+        errors,
+      );
+    }
+    if (layoutFailure || !summary) {
+      const failure = layoutFailure ?? { code: 'LAYOUT.INVALID', message: 'no layout', pieces: [] };
       throw new AppError(HttpStatus.CONFLICT, 'JOB.LAYOUT_FAILED', failure.message, {
         code: failure.code,
         pieces: failure.pieces,
@@ -154,11 +169,12 @@ export class JobPreparationService {
 }
 
 /**
- * A fit scale (`fitSheets`: the largest model on N sheets of the chosen stock, `fitBed`: the largest whose
- * pieces fit the machine's bed) searched by the geometry library and fixed as the diameter it found, so the
- * job and its cut pack are cut at exactly that size. A fixed scale is returned as it is.
+ * For a fit scale (`fitSheets`: the largest model on N sheets of the chosen stock, `fitBed`: the largest whose
+ * pieces fit the machine's bed): the design carrying that stock, for the geometry library's search. The size
+ * found is fixed as a diameter, so the job and its cut pack are cut at exactly that size. Null for a fixed
+ * scale.
  */
-export function resolveFitScale(
+export function fitSearchSpec(
   input: DesignSpecInput,
   stock: {
     sheet: { widthMm: number; heightMm: number };
@@ -167,25 +183,14 @@ export function resolveFitScale(
     colourCount: number;
     colourRule?: ColourRuleName;
   },
-): DesignSpec {
-  if (input.scale.by !== 'fitSheets' && input.scale.by !== 'fitBed') return input as DesignSpec;
+): DesignSpecInput | null {
+  if (input.scale.by !== 'fitSheets' && input.scale.by !== 'fitBed') return null;
   // The search lays the pieces out on the chosen stock; each colour is cut from its own sheets.
-  const search: DesignSpecInput = {
+  return {
     ...input,
     stock: { ...input.stock, sheet: stock.sheet, marginMm: stock.marginMm, gapMm: stock.gapMm },
     ...(stock.colourCount > 1
       ? { colours: { count: stock.colourCount, ...(stock.colourRule ? { rule: stock.colourRule } : {}) } }
       : {}),
   };
-  const { model, resolvedSpec } = buildWithLayout(search);
-  if (model.report.errors.length > 0) {
-    throw new AppError(
-      HttpStatus.CONFLICT,
-      'JOB.DESIGN_INVALID',
-      `The design cannot be fitted to the stock: ${model.report.errors[0]!.message}`,
-      model.report.errors,
-    );
-  }
-  // Cut at the size found, with the job's own stock (the layout settings travel in the preparation).
-  return { ...input, scale: resolvedSpec.scale } as DesignSpec;
 }

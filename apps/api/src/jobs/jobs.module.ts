@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { ConfigModule } from '@nestjs/config';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { GeometryModule } from '../geometry/geometry.module';
 import { MachineProfilesModule } from '../machine-profiles/machine-profiles.module';
 import { MaterialsModule } from '../materials/materials.module';
 import { mailConfig } from '../mail/mail.config';
@@ -16,6 +17,7 @@ import { JobsService } from './jobs.service';
     ConfigModule.forFeature(mailConfig),
     MachineProfilesModule,
     MaterialsModule,
+    GeometryModule,
   ],
   controllers: [JobsController],
   providers: [JobsService, JobPreparationService, JobMailer],

@@ -1,0 +1,70 @@
+import { availableParallelism } from 'node:os';
+import { MessageChannel } from 'node:worker_threads';
+import { Injectable, type OnModuleDestroy } from '@nestjs/common';
+import type { CutPackInput, CutPackResult } from '@kerfwright/contracts';
+import {
+  reviveThreadError,
+  type cutPack,
+  type PreparedJob,
+  type PrepareJobTask,
+  type prepareJob,
+  type ThreadOutcome,
+} from '@kerfwright/geometry/worker';
+import { Piscina } from 'piscina';
+
+/**
+ * Threads for the engine's heavy work: KW_GEOMETRY_THREADS, default one fewer than the cores (at least 1,
+ * at most 4), so a request never waits behind a fit search or a cut pack on the event loop.
+ */
+export function geometryThreadCount(env: NodeJS.ProcessEnv = process.env): number {
+  const raw = env.KW_GEOMETRY_THREADS;
+  if (raw === undefined || raw === '') return Math.max(1, Math.min(4, availableParallelism() - 1));
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1 || n > 64)
+    throw new Error('Invalid configuration: KW_GEOMETRY_THREADS must be an integer from 1 to 64');
+  return n;
+}
+
+/**
+ * The worker-thread pool (piscina) that runs `@kerfwright/geometry/worker` tasks. Threads start on first use
+ * and stop after five idle minutes; engine errors are rethrown here as the engine's own error classes.
+ */
+@Injectable()
+export class GeometryThreads implements OnModuleDestroy {
+  private readonly pool = new Piscina({
+    filename: require.resolve('@kerfwright/geometry/worker'),
+    minThreads: 0,
+    maxThreads: geometryThreadCount(),
+    idleTimeout: 5 * 60_000,
+  });
+
+  /** Fit (when asked) and lay out a job's design: see prepareJob in the geometry library. */
+  async prepareJob(task: PrepareJobTask): Promise<PreparedJob> {
+    const out = (await this.pool.run(task, { name: 'prepareJob' })) as Awaited<ReturnType<typeof prepareJob>>;
+    return this.unwrap(out);
+  }
+
+  /** Builds a cut pack in a thread; progress fractions arrive on the main thread as they are made. */
+  async cutPack(input: CutPackInput, onProgress?: (fraction: number) => void): Promise<CutPackResult> {
+    const { port1, port2 } = new MessageChannel();
+    port1.on('message', (f: number) => onProgress?.(f));
+    try {
+      const out = (await this.pool.run(
+        { input, progress: port2 },
+        { name: 'cutPack', transferList: [port2] },
+      )) as Awaited<ReturnType<typeof cutPack>>;
+      return this.unwrap(out);
+    } finally {
+      port1.close();
+    }
+  }
+
+  async onModuleDestroy(): Promise<void> {
+    await this.pool.destroy();
+  }
+
+  private unwrap<T>(out: ThreadOutcome<T>): T {
+    if (!out.ok) throw reviveThreadError(out.error);
+    return out.value;
+  }
+}

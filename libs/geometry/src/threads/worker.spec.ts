@@ -1,0 +1,78 @@
+import { MessageChannel } from 'node:worker_threads';
+import { octahedronHexagons } from '../test-support/designs';
+import { packInputFrom } from '../pack/cli-commands';
+import { CutPackError } from '../pack/pack';
+import { SolidError } from '../solids/polyhedron';
+import { SpecValidationError } from '../spec/validate-spec';
+import { cutPack, prepareJob, reviveThreadError } from './worker';
+
+const cut = { sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3, colours: { count: 1 } };
+
+describe('geometry worker tasks', () => {
+  it('prepares a fixed-scale design: the spec as given, no errors, a summary', async () => {
+    const out = await prepareJob({ input: octahedronHexagons(), fitSearch: null, cut });
+    expect(out.ok).toBe(true);
+    if (!out.ok || out.value.stage !== 'cut') throw new Error('expected a cut stage');
+    expect(out.value.spec.scale).toEqual(octahedronHexagons().scale);
+    expect(out.value.errors).toEqual([]);
+    expect(out.value.layoutFailure).toBeNull();
+    expect(out.value.summary?.pieceCount).toBe(8);
+  });
+
+  it('fixes the diameter a fit search finds, and the result survives a structured clone', async () => {
+    const input = { ...octahedronHexagons(), scale: { by: 'fitSheets' as const, sheets: 1 } };
+    const out = await prepareJob({
+      input,
+      fitSearch: { ...input, stock: { ...input.stock, sheet: cut.sheet, marginMm: 5, gapMm: 3 } },
+      cut,
+    });
+    const copy = structuredClone(out);
+    expect(copy).toEqual(out);
+    if (!copy.ok || copy.value.stage !== 'cut') throw new Error('expected a cut stage');
+    expect(copy.value.spec.scale).toEqual({ by: 'diameter', mm: expect.any(Number) });
+    expect(copy.value.summary?.sheetCount).toBe(1);
+  });
+
+  it('returns engine errors as data and rebuilds them as the engine’s classes', async () => {
+    const bad = await prepareJob({
+      input: { ...octahedronHexagons(), fitMm: Number.NaN },
+      fitSearch: null,
+      cut,
+    });
+    expect(bad.ok).toBe(false);
+    if (bad.ok) return;
+    const revived = reviveThreadError(structuredClone(bad.error));
+    expect(revived).toBeInstanceOf(SpecValidationError);
+    expect((revived as SpecValidationError).fieldErrors.length).toBeGreaterThan(0);
+    expect(reviveThreadError({ name: 'SolidError', code: 'SOLID.FLAT', message: 'flat' })).toBeInstanceOf(
+      SolidError,
+    );
+    const pack = reviveThreadError({
+      name: 'CutPackError',
+      code: 'PACK.BAD_MACHINE',
+      message: 'm',
+      details: ['d'],
+    });
+    expect(pack).toBeInstanceOf(CutPackError);
+    expect((pack as CutPackError).code).toBe('PACK.BAD_MACHINE');
+    expect(reviveThreadError({ name: 'TypeError', message: 'x' }).message).toBe('x');
+  });
+
+  it('builds a cut pack, posts its progress on the task port and closes the port', async () => {
+    const { port1, port2 } = new MessageChannel();
+    const seen: number[] = [];
+    port1.on('message', (f: number) => seen.push(f));
+    const closed = new Promise<void>((resolve) => port1.once('close', () => resolve()));
+    const out = await cutPack({ input: packInputFrom(octahedronHexagons()), progress: port2 });
+    await closed;
+    if (!out.ok) throw new Error(out.error.message);
+    expect(out.value.files.some((f) => f.name.endsWith('.dxf'))).toBe(true);
+    expect(seen.length).toBeGreaterThan(2);
+    expect(seen.every((f, i) => f >= 0 && f <= 1 && (i === 0 || f >= seen[i - 1]!))).toBe(true);
+    expect(seen.at(-1)).toBe(1);
+    const base = packInputFrom(octahedronHexagons());
+    const refused = await cutPack({ input: { ...base, machine: { ...base.machine, cutSpeedMmS: 0 } } });
+    expect(refused.ok).toBe(false);
+    if (!refused.ok) expect(reviveThreadError(refused.error)).toBeInstanceOf(CutPackError);
+  });
+});

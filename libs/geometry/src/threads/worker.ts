@@ -1,0 +1,123 @@
+/**
+ * `@kerfwright/geometry/worker` — the engine's heavy tasks for worker threads. A server runs them in a pool
+ * (the API uses piscina with this file) so its event loop keeps answering requests while a job is fitted to
+ * its stock, laid out or packed: a fit-to-sheets search takes 0.5–1.5 s and a cut pack about as long.
+ *
+ * Each export is one task: plain data in, plain data out (structured clone). The engine's own errors come
+ * back as values (ThreadError) and are rebuilt on the calling side by reviveThreadError, because an error
+ * thrown across threads loses its class and its fields (code, fieldErrors).
+ */
+import type { MessagePort } from 'node:worker_threads';
+import type {
+  CutPackInput,
+  CutPackResult,
+  DesignIssue,
+  DesignSpec,
+  DesignSpecInput,
+  FieldError,
+  JobPreparation,
+} from '@kerfwright/contracts';
+import { buildWithLayout } from '../layout/build-with-layout';
+import { prepareCut } from '../layout/prepare-cut';
+import { type LayoutOptions } from '../layout/plan-layout';
+import { CutPackError, createCutPack } from '../pack/pack';
+import { SolidError } from '../solids/polyhedron';
+import { SpecValidationError } from '../spec/validate-spec';
+
+/** An engine error as data. */
+export interface ThreadError {
+  name: string;
+  message: string;
+  code?: string;
+  fieldErrors?: FieldError[];
+  details?: string[];
+}
+
+export type ThreadOutcome<T> = { ok: true; value: T } | { ok: false; error: ThreadError };
+
+/** Rebuilds the engine error a task returned as data (a plain Error for anything unexpected). */
+export function reviveThreadError(e: ThreadError): Error {
+  if (e.name === 'SpecValidationError') return new SpecValidationError(e.fieldErrors ?? []);
+  if (e.name === 'SolidError') return new SolidError(e.code ?? 'SOLID.INVALID', e.message);
+  if (e.name === 'CutPackError') return new CutPackError(e.code ?? 'PACK.FAILED', e.message, e.details);
+  return new Error(e.message);
+}
+
+function asThreadError(err: unknown): ThreadError | null {
+  if (err instanceof SpecValidationError)
+    return { name: 'SpecValidationError', message: err.message, fieldErrors: err.fieldErrors };
+  if (err instanceof SolidError) return { name: 'SolidError', message: err.message, code: err.code };
+  if (err instanceof CutPackError)
+    return { name: 'CutPackError', message: err.message, code: err.code, details: err.details };
+  return null;
+}
+
+/** Runs fn; engine errors become values, anything else (a bug) is thrown as it is. */
+async function settle<T>(fn: () => T | Promise<T>): Promise<ThreadOutcome<T>> {
+  try {
+    return { ok: true, value: await fn() };
+  } catch (err) {
+    const known = asThreadError(err);
+    if (known) return { ok: false, error: known };
+    throw err;
+  }
+}
+
+export interface PrepareJobTask {
+  /** The design as it will be cut: real stock thickness and machine, the scale asked for. */
+  input: DesignSpecInput;
+  /**
+   * For a fit scale (fitSheets, fitBed): the same design carrying the chosen sheet, margin, gap and colours,
+   * for the search of the largest size. Null for a fixed scale.
+   */
+  fitSearch: DesignSpecInput | null;
+  cut: LayoutOptions;
+}
+
+export type PreparedJob =
+  /** The fit search found no size without design errors. */
+  | { stage: 'fit'; errors: DesignIssue[] }
+  /** The design at its final size: its errors, or the layout failure, or the preparation summary. */
+  | {
+      stage: 'cut';
+      spec: DesignSpec;
+      errors: DesignIssue[];
+      layoutFailure: { code: string; message: string; pieces: string[] } | null;
+      summary: JobPreparation | null;
+    };
+
+/**
+ * Fits the design to its stock when the scale asks for it (fixing the diameter found), then builds and lays it
+ * out for cutting (prepareCut): what a job keeps from its preparation.
+ */
+export function prepareJob(task: PrepareJobTask): Promise<ThreadOutcome<PreparedJob>> {
+  return settle((): PreparedJob => {
+    let spec = task.input as DesignSpec;
+    if (task.fitSearch) {
+      const { model, resolvedSpec } = buildWithLayout(task.fitSearch);
+      if (model.report.errors.length > 0) return { stage: 'fit', errors: model.report.errors };
+      spec = { ...spec, scale: resolvedSpec.scale };
+    }
+    const { model, layout, summary } = prepareCut(spec, task.cut);
+    return {
+      stage: 'cut',
+      spec,
+      errors: model.report.errors,
+      layoutFailure: layout.ok ? null : { code: layout.code, message: layout.message, pieces: layout.pieces },
+      summary,
+    };
+  });
+}
+
+export interface CutPackTask {
+  input: CutPackInput;
+  /** Receives the build's progress as fractions 0…1 (transferred with the task). */
+  progress?: MessagePort;
+}
+
+/** Builds a cut pack (createCutPack) and reports progress on the task's port. */
+export function cutPack(task: CutPackTask): Promise<ThreadOutcome<CutPackResult>> {
+  return settle(() => createCutPack(task.input, (f) => task.progress?.postMessage(f))).finally(() =>
+    task.progress?.close(),
+  );
+}
