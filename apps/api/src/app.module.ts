@@ -10,6 +10,7 @@ import { JobsModule } from './jobs/jobs.module';
 import { SafetyModule } from './safety/safety.module';
 import { MailModule } from './mail/mail.module';
 import { AllExceptionsFilter } from './common/filters/all-exceptions.filter';
+import { GuardedPgClient } from './common/guarded-pg-client';
 import { JwtAuthGuard } from './common/guards/jwt-auth.guard';
 import { MachineProfilesModule } from './machine-profiles/machine-profiles.module';
 import { MaterialsModule } from './materials/materials.module';
@@ -43,7 +44,7 @@ import { UsersModule } from './users/users.module';
         migrationsRun: false,
         retryAttempts: 10,
         retryDelay: 1000,
-        extra: { max: 20, connectionTimeoutMillis: 3000 },
+        extra: { max: 20, connectionTimeoutMillis: 3000, Client: GuardedPgClient },
       }),
     }),
     RedisModule,

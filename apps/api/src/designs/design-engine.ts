@@ -5,15 +5,9 @@ import {
   type FieldError,
   type SolidTextFormat,
 } from '@kerfwright/contracts';
-import {
-  buildModel,
-  designPreview,
-  parseSolidText,
-  SolidError,
-  SpecValidationError,
-  validateSpec,
-} from '@kerfwright/geometry';
+import { SolidError, SpecValidationError } from '@kerfwright/geometry';
 import { AppError } from '../common/errors';
+import { type GeometryThreads } from '../geometry/geometry-threads';
 
 /** Field errors of the engine's spec check, named from the request body (`spec.piece.sides`). */
 function specFieldErrors(errors: FieldError[]): FieldError[] {
@@ -42,29 +36,40 @@ export function badSolid(err: SolidError): AppError {
 }
 
 /**
- * Checks a spec with the geometry engine and returns its preview figures. A malformed spec or an unusable
- * solid is a 400; a well-formed design with geometric errors is kept, with `valid: false`.
+ * Checks a spec with the geometry engine (in a worker thread) and returns its preview figures. A malformed
+ * spec or an unusable solid is a 400; a well-formed design with geometric errors is kept, with `valid: false`.
  */
-export function previewDesign(spec: unknown): { spec: DesignSpec; preview: DesignPreview } {
-  const checked = validateSpec(spec);
-  if (!checked.ok) throw invalidSpec(checked.errors);
+export async function previewDesign(
+  threads: GeometryThreads,
+  spec: unknown,
+): Promise<{ spec: DesignSpec; preview: DesignPreview }> {
   try {
-    const { report } = buildModel(spec);
-    return { spec: spec as DesignSpec, preview: designPreview(report) };
+    return { spec: spec as DesignSpec, preview: await threads.previewDesign(spec) };
   } catch (err) {
-    if (err instanceof SpecValidationError) throw invalidSpec(err.fieldErrors);
-    if (err instanceof SolidError) throw badSolid(err);
-    throw err;
+    throw engineError(err);
   }
 }
 
-/** Validates uploaded solid text with the engine: convex hull, merged faces, limits. */
-export function checkSolidText(format: SolidTextFormat, text: string, name: string) {
+/**
+ * Validates uploaded solid text with the engine (in a worker thread: the hull of a 20,000-vertex upload takes
+ * about half a second): convex hull, merged faces, limits.
+ */
+export async function checkSolidText(
+  threads: GeometryThreads,
+  format: SolidTextFormat,
+  text: string,
+  name: string,
+): Promise<{ name: string; vertexCount: number; faceCount: number }> {
   try {
-    const solid = parseSolidText(format, text, name);
-    return { name: solid.name, vertexCount: solid.vertices.length, faceCount: solid.faces.length };
+    return await threads.checkSolid(format, text, name);
   } catch (err) {
-    if (err instanceof SolidError) throw badSolid(err);
-    throw err;
+    throw engineError(err);
   }
+}
+
+/** The engine's refusals as API errors (400); anything else is passed on as it is. */
+function engineError(err: unknown): unknown {
+  if (err instanceof SpecValidationError) return invalidSpec(err.fieldErrors);
+  if (err instanceof SolidError) return badSolid(err);
+  return err;
 }

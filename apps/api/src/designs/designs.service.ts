@@ -7,6 +7,7 @@ import { type AuthUser } from '../common/decorators/auth.decorators';
 import { likePattern, preparedQuery } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
 import { pageWindow, sortOrder } from '../common/paging';
+import { GeometryThreads } from '../geometry/geometry-threads';
 import { checkSolidText, previewDesign } from './design-engine';
 import { Design, toDesignSummary, toDesignView } from './design.entity';
 import { type CreateDesignDto, type ListDesignsQuery, type UpdateDesignDto } from './dto/design.dto';
@@ -35,6 +36,7 @@ export class DesignsService {
     @InjectRepository(Design) private readonly designs: Repository<Design>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly threads: GeometryThreads,
   ) {}
 
   async list(user: AuthUser, query: ListDesignsQuery): Promise<Page<DesignSummary>> {
@@ -66,7 +68,7 @@ export class DesignsService {
   }
 
   async create(user: AuthUser, dto: CreateDesignDto, requestId: string): Promise<DesignView> {
-    const { spec, preview } = previewDesign(dto.spec);
+    const { spec, preview } = await previewDesign(this.threads, dto.spec);
     return this.dataSource.transaction(async (m) => {
       const saved = await m.save(
         m.create(Design, {
@@ -90,7 +92,7 @@ export class DesignsService {
   }
 
   async update(user: AuthUser, id: string, dto: UpdateDesignDto, requestId: string): Promise<DesignView> {
-    const next = dto.spec !== undefined ? previewDesign(dto.spec) : null;
+    const next = dto.spec !== undefined ? await previewDesign(this.threads, dto.spec) : null;
     return this.dataSource.transaction(async (m) => {
       const d = await this.findWritable(m, user, id, true);
       if (d.version !== dto.version) {
@@ -185,10 +187,13 @@ export class DesignsService {
     requestId: string,
   ): Promise<DesignView> {
     const { format, text, name } = readSolidUpload(file);
-    checkSolidText(format, text, name);
+    await checkSolidText(this.threads, format, text, name);
     return this.dataSource.transaction(async (m) => {
       const d = await this.findWritable(m, user, id, true);
-      const { spec, preview } = previewDesign({ ...d.spec, solid: { format, text, name } });
+      const { spec, preview } = await previewDesign(this.threads, {
+        ...d.spec,
+        solid: { format, text, name },
+      });
       d.spec = spec;
       d.preview = preview;
       d.solidFileName = file.originalname.slice(0, 200);
@@ -205,9 +210,9 @@ export class DesignsService {
     });
   }
 
-  checkSolid(file: { originalname: string; buffer: Buffer }) {
+  async checkSolid(file: { originalname: string; buffer: Buffer }) {
     const { format, text, name } = readSolidUpload(file);
-    return { format, ...checkSolidText(format, text, name) };
+    return { format, ...(await checkSolidText(this.threads, format, text, name)) };
   }
 
   private async load(m: EntityManager, id: string): Promise<Design> {

@@ -1,13 +1,15 @@
 import { availableParallelism } from 'node:os';
-import { MessageChannel } from 'node:worker_threads';
+import { MessageChannel, type TransferListItem } from 'node:worker_threads';
 import { Injectable, type OnModuleDestroy } from '@nestjs/common';
-import type { CutPackInput, CutPackResult } from '@kerfwright/contracts';
+import type { CutPackInput, CutPackResult, DesignPreview, SolidTextFormat } from '@kerfwright/contracts';
 import {
   reviveThreadError,
+  type checkSolid,
   type cutPack,
   type PreparedJob,
   type PrepareJobTask,
   type prepareJob,
+  type previewDesign,
   type ThreadOutcome,
 } from '@kerfwright/geometry/worker';
 import { Piscina } from 'piscina';
@@ -39,9 +41,22 @@ export class GeometryThreads implements OnModuleDestroy {
   });
 
   /** Fit (when asked) and lay out a job's design: see prepareJob in the geometry library. */
-  async prepareJob(task: PrepareJobTask): Promise<PreparedJob> {
-    const out = (await this.pool.run(task, { name: 'prepareJob' })) as Awaited<ReturnType<typeof prepareJob>>;
-    return this.unwrap(out);
+  prepareJob(task: PrepareJobTask): Promise<PreparedJob> {
+    return this.run<typeof prepareJob>('prepareJob', task);
+  }
+
+  /** A design's preview figures (the spec checked and built). */
+  previewDesign(spec: unknown): Promise<DesignPreview> {
+    return this.run<typeof previewDesign>('previewDesign', { spec });
+  }
+
+  /** Uploaded solid text checked by the engine: hull, merged faces, limits. */
+  checkSolid(
+    format: SolidTextFormat,
+    text: string,
+    name: string,
+  ): Promise<{ name: string; vertexCount: number; faceCount: number }> {
+    return this.run<typeof checkSolid>('checkSolid', { format, text, name });
   }
 
   /** Builds a cut pack in a thread; progress fractions arrive on the main thread as they are made. */
@@ -49,11 +64,7 @@ export class GeometryThreads implements OnModuleDestroy {
     const { port1, port2 } = new MessageChannel();
     port1.on('message', (f: number) => onProgress?.(f));
     try {
-      const out = (await this.pool.run(
-        { input, progress: port2 },
-        { name: 'cutPack', transferList: [port2] },
-      )) as Awaited<ReturnType<typeof cutPack>>;
-      return this.unwrap(out);
+      return await this.run<typeof cutPack>('cutPack', { input, progress: port2 }, [port2]);
     } finally {
       port1.close();
     }
@@ -63,8 +74,14 @@ export class GeometryThreads implements OnModuleDestroy {
     await this.pool.destroy();
   }
 
-  private unwrap<T>(out: ThreadOutcome<T>): T {
+  /** Runs the named task of the worker module; an engine error comes back as its own class. */
+  private async run<F extends (task: never) => Promise<ThreadOutcome<unknown>>>(
+    name: string,
+    task: Parameters<F>[0],
+    transferList?: TransferListItem[],
+  ): Promise<Extract<Awaited<ReturnType<F>>, { ok: true }>['value']> {
+    const out = (await this.pool.run(task, { name, transferList })) as Awaited<ReturnType<F>>;
     if (!out.ok) throw reviveThreadError(out.error);
-    return out.value;
+    return out.value as Extract<Awaited<ReturnType<F>>, { ok: true }>['value'];
   }
 }

@@ -302,6 +302,68 @@ describe('nestParts — true shape', () => {
     expect(r.ok && r.totals.sheetCount).toBeLessThanOrEqual(2);
   });
 
+  it('lays out seeded random mixes of awkward outlines validly: curves, slivers, combs, collinear points, far origins', () => {
+    // A small linear congruential generator (constants of Numerical Recipes), so every run sees the same cases.
+    let seed = 20261202;
+    const rnd = () => (seed = (seed * 1664525 + 1013904223) % 4294967296) / 4294967296;
+    const kinds: ((R: number) => P[])[] = [
+      (R) => wavy(200 + Math.floor(rnd() * 200), R, 0.1 + 0.1 * rnd(), 5 + Math.floor(rnd() * 10)),
+      (R) => {
+        const n = 5 + Math.floor(rnd() * 30);
+        return Array.from({ length: n }, (_, i) => {
+          const t = (2 * Math.PI * i) / n;
+          const r = R * (0.35 + 0.65 * rnd());
+          return [r * Math.cos(t), r * Math.sin(t)] as P;
+        });
+      },
+      (R) => [
+        [0, 0],
+        [3 * R, 0],
+        [3 * R, 2 + 2 * rnd()],
+        [0, 2 + 2 * rnd()],
+      ],
+      (R) => {
+        const teeth = 2 + Math.floor(rnd() * 5);
+        const w = R / teeth;
+        const pts: P[] = [
+          [0, 0],
+          [R, 0],
+        ];
+        for (let i = teeth; i > 0; i--)
+          pts.push([i * w, R], [i * w - w / 2, R], [i * w - w / 2, 0.3 * R], [(i - 1) * w, 0.3 * R]);
+        return pts;
+      },
+      (R) => [
+        [0, 0],
+        [R / 2, 0],
+        [R, 0],
+        [R, R / 3],
+        [R, R],
+        [R, R],
+        [0, R],
+      ],
+    ];
+    for (let c = 0; c < kinds.length; c++) {
+      const parts = Array.from({ length: 2 + Math.floor(rnd() * 3) }, (_, i) => {
+        // Every kind comes up: case c starts at kind c.
+        let outline = kinds[(c + i) % kinds.length]!(15 + rnd() * 45);
+        if (rnd() < 0.5) outline = [...outline].reverse();
+        return {
+          id: `c${c}p${i}`,
+          outline: moved(outline, rnd() * 360, (rnd() - 0.5) * 600, (rnd() - 0.5) * 600),
+          quantity: 1 + Math.floor(rnd() * 14),
+        };
+      });
+      const input: NestInput = {
+        sheet: { widthMm: 300 + rnd() * 500, heightMm: 300 + rnd() * 500 },
+        marginMm: rnd() * 10,
+        gapMm: 0.5 + rnd() * 5,
+        parts,
+      };
+      checkLayout(input, nestParts(input));
+    }
+  });
+
   it('names a part that cannot fit on an empty sheet at any rotation', () => {
     const r = nestParts({
       sheet: { widthMm: 200, heightMm: 100 },

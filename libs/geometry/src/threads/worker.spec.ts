@@ -4,7 +4,7 @@ import { packInputFrom } from '../pack/cli-commands';
 import { CutPackError } from '../pack/pack';
 import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError } from '../spec/validate-spec';
-import { cutPack, prepareJob, reviveThreadError } from './worker';
+import { checkSolid, cutPack, prepareJob, previewDesign, reviveThreadError } from './worker';
 
 const cut = { sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3, colours: { count: 1 } };
 
@@ -74,5 +74,38 @@ describe('geometry worker tasks', () => {
     const refused = await cutPack({ input: { ...base, machine: { ...base.machine, cutSpeedMmS: 0 } } });
     expect(refused.ok).toBe(false);
     if (!refused.ok) expect(reviveThreadError(refused.error)).toBeInstanceOf(CutPackError);
+  });
+
+  it('previews a design, and returns a spec that does not validate as a SpecValidationError', async () => {
+    const ok = await previewDesign({ spec: octahedronHexagons() });
+    if (!ok.ok) throw new Error(ok.error.message);
+    expect(ok.value).toMatchObject({ valid: true, pieceCount: 8 });
+    const bad = await previewDesign({ spec: { ...octahedronHexagons(), piece: { sides: 2 } } });
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(reviveThreadError(bad.error)).toBeInstanceOf(SpecValidationError);
+  });
+
+  it('checks uploaded solid text: a cube as OFF (8 vertices, 6 faces), a flat one refused as a SolidError', async () => {
+    const cube = [
+      'OFF',
+      '8 6 0',
+      ...[0, 1].flatMap((x) => [0, 1].flatMap((y) => [0, 1].map((z) => `${x} ${y} ${z}`))),
+      '4 0 1 3 2',
+      '4 4 6 7 5',
+      '4 0 4 5 1',
+      '4 2 3 7 6',
+      '4 0 2 6 4',
+      '4 1 5 7 3',
+    ].join('\n');
+    const ok = await checkSolid({ format: 'off', text: cube, name: 'cube' });
+    if (!ok.ok) throw new Error(ok.error.message);
+    expect(ok.value).toEqual({ name: 'cube', vertexCount: 8, faceCount: 6 });
+    const flat = await checkSolid({
+      format: 'obj',
+      text: 'v 0 0 0\nv 1 0 0\nv 0 1 0\nv 1 1 0\n',
+      name: 'flat',
+    });
+    expect(flat.ok).toBe(false);
+    if (!flat.ok) expect(reviveThreadError(flat.error)).toBeInstanceOf(SolidError);
   });
 });

@@ -1,7 +1,8 @@
 /**
  * `@kerfwright/geometry/worker` — the engine's heavy tasks for worker threads. A server runs them in a pool
  * (the API uses piscina with this file) so its event loop keeps answering requests while a job is fitted to
- * its stock, laid out or packed: a fit-to-sheets search takes 0.5–1.5 s and a cut pack about as long.
+ * its stock, laid out or packed, or an uploaded solid is checked: a fit-to-sheets search takes 0.5–1.5 s, a
+ * cut pack about as long, and the hull of a 20,000-vertex upload about 0.5 s.
  *
  * Each export is one task: plain data in, plain data out (structured clone). The engine's own errors come
  * back as values (ThreadError) and are rebuilt on the calling side by reviveThreadError, because an error
@@ -12,17 +13,22 @@ import type {
   CutPackInput,
   CutPackResult,
   DesignIssue,
+  DesignPreview,
   DesignSpec,
   DesignSpecInput,
   FieldError,
   JobPreparation,
+  SolidTextFormat,
 } from '@kerfwright/contracts';
+import { buildModel } from '../build';
+import { designPreview } from '../layout/design-preview';
 import { buildWithLayout } from '../layout/build-with-layout';
 import { prepareCut } from '../layout/prepare-cut';
 import { type LayoutOptions } from '../layout/plan-layout';
 import { CutPackError, createCutPack } from '../pack/pack';
+import { parseSolidText } from '../solids/parse';
 import { SolidError } from '../solids/polyhedron';
-import { SpecValidationError } from '../spec/validate-spec';
+import { SpecValidationError, validateSpec } from '../spec/validate-spec';
 
 /** An engine error as data. */
 export interface ThreadError {
@@ -120,4 +126,28 @@ export function cutPack(task: CutPackTask): Promise<ThreadOutcome<CutPackResult>
   return settle(() => createCutPack(task.input, (f) => task.progress?.postMessage(f))).finally(() =>
     task.progress?.close(),
   );
+}
+
+/**
+ * Checks a design spec and builds it: the preview figures a design keeps (a spec that does not validate is a
+ * SpecValidationError, an unusable solid a SolidError; geometric errors are in the preview, valid false).
+ */
+export function previewDesign(task: { spec: unknown }): Promise<ThreadOutcome<DesignPreview>> {
+  return settle(() => {
+    const checked = validateSpec(task.spec);
+    if (!checked.ok) throw new SpecValidationError(checked.errors);
+    return designPreview(buildModel(task.spec).report);
+  });
+}
+
+/** Parses uploaded solid text (hull, merged faces, limits) and returns what was found. */
+export function checkSolid(task: {
+  format: SolidTextFormat;
+  text: string;
+  name: string;
+}): Promise<ThreadOutcome<{ name: string; vertexCount: number; faceCount: number }>> {
+  return settle(() => {
+    const solid = parseSolidText(task.format, task.text, task.name);
+    return { name: solid.name, vertexCount: solid.vertices.length, faceCount: solid.faces.length };
+  });
 }

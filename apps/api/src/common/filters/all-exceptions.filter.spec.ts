@@ -64,6 +64,21 @@ describe('the one error body', () => {
       name: 'QueryRunnerAlreadyReleasedError',
     });
     expect(run(dropped)).toMatchObject({ status: 503, body: { code: 'SERVICE.DATABASE_UNAVAILABLE' } });
+    // Seen in outages.e2e-spec.ts: a job created in a transaction whose connection died, read back through it.
+    const provider = Object.assign(
+      new Error('Database connection provided by a query runner was already released'),
+      { name: 'QueryRunnerProviderAlreadyReleasedError' },
+    );
+    expect(run(provider)).toMatchObject({ status: 503, body: { code: 'SERVICE.DATABASE_UNAVAILABLE' } });
+    expect(isDatabaseUnavailable(Object.assign(new Error('x'), { name: 'QueryRunnerBrokenError' }))).toBe(
+      false,
+    );
+    // Also seen there: node-postgres refusing a pooled client whose connection had failed (TypeORM wraps it).
+    const unqueryable = Object.assign(
+      new Error('Client has encountered a connection error and is not queryable'),
+      { name: 'QueryFailedError' },
+    );
+    expect(run(unqueryable)).toMatchObject({ status: 503, body: { code: 'SERVICE.DATABASE_UNAVAILABLE' } });
   });
 
   it('maps body-parser failures that Express hands over wrapped in an HttpException', () => {

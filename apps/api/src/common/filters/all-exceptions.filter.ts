@@ -118,10 +118,16 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   ) {
     return true;
   }
-  // A transaction whose connection the server dropped: TypeORM has already released its query runner.
-  if ((err as Error | undefined)?.name === 'QueryRunnerAlreadyReleasedError') return true;
+  // A transaction whose connection the server dropped: TypeORM has already released its query runner
+  // (QueryRunnerAlreadyReleasedError, or QueryRunnerProviderAlreadyReleasedError when the transaction's
+  // manager queries through the data source afterwards).
+  const name = (err as Error | undefined)?.name ?? '';
+  if (/^QueryRunner(Provider)?AlreadyReleasedError$/.test(name)) return true;
   const msg = typeof e?.message === 'string' ? e.message : '';
-  return /Connection terminated|connect ECONNREFUSED|terminating connection/i.test(msg);
+  // "…is not queryable": node-postgres refusing a client whose connection already failed.
+  return /Connection terminated|connect ECONNREFUSED|terminating connection|connection error and is not queryable/i.test(
+    msg,
+  );
 }
 
 /** The body parser's own errors (by their `type`), in our words rather than the parser's. */
