@@ -40,12 +40,12 @@ describe('jobs through their states', () => {
   });
   const auth = (u: TestUser) => ({ Authorization: `Bearer ${u.token}` });
 
-  async function draftJob(owner = users.hobbyist) {
-    const d = await ctx.http
-      .post('/api/designs')
-      .set(auth(owner))
-      .send({ name: 'Hanging octahedron', spec: octahedronHexagons() })
-      .expect(201);
+  async function draftJob(
+    owner = users.hobbyist,
+    name = 'Hanging octahedron',
+    spec: object = octahedronHexagons(),
+  ) {
+    const d = await ctx.http.post('/api/designs').set(auth(owner)).send({ name, spec }).expect(201);
     const j = await ctx.http
       .post('/api/jobs')
       .set(auth(owner))
@@ -272,52 +272,40 @@ describe('jobs through their states', () => {
   });
 
   it('prepares at the size a fit scale finds: the design’s fitBed, or a fitSheets override', async () => {
-    const d = await ctx.http
-      .post('/api/designs')
-      .set(auth(users.hobbyist))
-      .send({
-        name: 'Bed-sized octahedron',
-        spec: {
-          ...octahedronHexagons(),
-          scale: { by: 'fitBed' },
-          bed: { widthMm: 1000, heightMm: 600 },
-          stock: {
-            thicknessMm: 3,
-            flexible: false,
-            sheet: { widthMm: 600, heightMm: 400 },
-            marginMm: 6,
-            gapMm: 4,
-          },
-        },
-      })
-      .expect(201);
-    const j = await ctx.http
-      .post('/api/jobs')
-      .set(auth(users.hobbyist))
-      .send({ designId: d.body.id })
-      .expect(201);
-    await act(users.hobbyist, j.body.id, 'request');
+    const j = await draftJob(users.hobbyist, 'Bed-sized octahedron', {
+      ...octahedronHexagons(),
+      scale: { by: 'fitBed' },
+      bed: { widthMm: 1000, heightMm: 600 },
+      stock: {
+        thicknessMm: 3,
+        flexible: false,
+        sheet: { widthMm: 600, heightMm: 400 },
+        marginMm: 6,
+        gapMm: 4,
+      },
+    });
+    await act(users.hobbyist, j.id, 'request');
     // The test laser's bed is 1000 × 600 mm; the material's stock sheet 600 × 400 mm (workshop fixture).
-    const one = await act(users.fabricator, j.body.id, 'prepare', {
+    const one = await act(users.fabricator, j.id, 'prepare', {
       ...prepareBody(),
       scale: { by: 'fitSheets', sheets: 1 },
     });
     expect(one.body.preparation).toMatchObject({ sheetCount: 1, marginMm: 6, gapMm: 4 });
     const stored = async () =>
       (
-        (await ctx.db.query(`SELECT spec->'scale' AS scale FROM jobs WHERE id = $1`, [j.body.id])) as {
+        (await ctx.db.query(`SELECT spec->'scale' AS scale FROM jobs WHERE id = $1`, [j.id])) as {
           scale: { by: string; mm: number };
         }[]
       )[0]!.scale;
     // The job keeps the size found as a fixed diameter, so its cut pack is cut at exactly that size.
     expect(await stored()).toEqual({ by: 'diameter', mm: expect.any(Number) });
     expect((await stored()).mm).toBeCloseTo(one.body.preparation.diameterMm, 1);
-    const bed = await act(users.fabricator, j.body.id, 'prepare', prepareBody());
+    const bed = await act(users.fabricator, j.id, 'prepare', prepareBody());
     expect((await stored()).by).toBe('diameter');
     // Laid out on one 600 × 400 sheet the model is no larger than when only each piece must fit the bed.
     expect(one.body.preparation.diameterMm).toBeLessThanOrEqual(bed.body.preparation.diameterMm + 0.01);
     for (const scale of [{ by: 'fitBed', mm: 200 }, { by: 'fitSheets' }, { by: 'diameter' }]) {
-      const bad = await act(users.fabricator, j.body.id, 'prepare', { ...prepareBody(), scale }, 400);
+      const bad = await act(users.fabricator, j.id, 'prepare', { ...prepareBody(), scale }, 400);
       expectErrorBody(bad.body, 400);
       expect(bad.body.details.map((x: { field: string }) => x.field)).toContain('scale.by');
     }
@@ -325,31 +313,19 @@ describe('jobs through their states', () => {
 
   it('answers other requests while a fit search runs: the engine works in a worker thread', async () => {
     // Twelve pentagons fitted to two sheets: the search lays the model out many times (about a second).
-    const d = await ctx.http
-      .post('/api/designs')
-      .set(auth(users.hobbyist))
-      .send({
-        name: 'Two-sheet pentagon lamp',
-        spec: {
-          ...octahedronHexagons(),
-          solid: 'dodecahedron',
-          piece: { sides: 5, step: 1, rotationDeg: 36, size: 1.45 },
-          scale: { by: 'fitSheets', sheets: 2 },
-          stock: { thicknessMm: 3, flexible: false, sheet: { widthMm: 600, heightMm: 400 } },
-        },
-      })
-      .expect(201);
-    const j = await ctx.http
-      .post('/api/jobs')
-      .set(auth(users.hobbyist))
-      .send({ designId: d.body.id })
-      .expect(201);
-    await act(users.hobbyist, j.body.id, 'request');
-    const current = await ctx.http.get(`/api/jobs/${j.body.id}`).set(auth(users.supervisor)).expect(200);
+    const j = await draftJob(users.hobbyist, 'Two-sheet pentagon lamp', {
+      ...octahedronHexagons(),
+      solid: 'dodecahedron',
+      piece: { sides: 5, step: 1, rotationDeg: 36, size: 1.45 },
+      scale: { by: 'fitSheets', sheets: 2 },
+      stock: { thicknessMm: 3, flexible: false, sheet: { widthMm: 600, heightMm: 400 } },
+    });
+    await act(users.hobbyist, j.id, 'request');
+    const current = await ctx.http.get(`/api/jobs/${j.id}`).set(auth(users.supervisor)).expect(200);
     const started = performance.now();
     let preparedAt = 0;
     const preparing = ctx.http
-      .post(`/api/jobs/${j.body.id}/prepare`)
+      .post(`/api/jobs/${j.id}/prepare`)
       .set(auth(users.fabricator))
       .send({ version: current.body.version, ...prepareBody() })
       .then((res) => {

@@ -152,31 +152,25 @@ function cpuMs(c0) {
   const d = process.cpuUsage(c0);
   return (d.user + d.system) / 1000;
 }
+/** Runs fn RUNS times: the last result, the wall times and the CPU times (ms). */
+function timeRuns(fn) {
+  const wall = [];
+  const cpu = [];
+  let result;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    const c0 = process.cpuUsage();
+    result = fn();
+    wall.push(performance.now() - t0);
+    cpu.push(cpuMs(c0));
+  }
+  return { result, wall, cpu };
+}
 for (const d of designs) {
   const input = { sheet: SHEET, marginMm: 0, gapMm: GAP, parts: d.parts };
-  const times = [];
-  const cpuTimes = [];
-  let r;
-  for (let i = 0; i < RUNS; i++) {
-    const t0 = performance.now();
-    const c0 = process.cpuUsage();
-    r = nestParts(input);
-    times.push(performance.now() - t0);
-    cpuTimes.push(cpuMs(c0));
-  }
+  const { result: r, wall: times, cpu: cpuTimes } = timeRuns(() => nestParts(input));
   if (!r.ok) throw new Error(`${d.name}: ${r.error.message}`);
-  const tsTimes = [];
-  for (let i = 0; i < RUNS; i++) {
-    const t0 = performance.now();
-    nestParts({ ...input, method: 'true-shape' });
-    tsTimes.push(performance.now() - t0);
-  }
-  const tsCpu = [];
-  for (let i = 0; i < RUNS; i++) {
-    const c0 = process.cpuUsage();
-    nestParts({ ...input, method: 'true-shape' });
-    tsCpu.push(cpuMs(c0));
-  }
+  const { wall: tsTimes, cpu: tsCpu } = timeRuns(() => nestParts({ ...input, method: 'true-shape' }));
   const pieces = d.parts.reduce((s, p) => s + p.quantity, 0);
   // Bottom-left fill runs twice per call (left- and right-edge rules): per placement = time ÷ (2 × pieces).
   const msPerPart = median(tsTimes) / (2 * pieces);
@@ -216,12 +210,11 @@ for (const [label, outline] of [
   ['slotted hexagons', slottedHex],
   ['slotted {5/2} stars', withSlot(withSlot(star(5, 2, 60), 4, 3, 15), 0, 3, 15)],
 ]) {
-  const t60 = [];
-  const c60 = [];
-  let layout;
-  for (let i = 0; i < RUNS; i++) {
-    const t0 = performance.now();
-    const c0 = process.cpuUsage();
+  const {
+    result: layout,
+    wall: t60,
+    cpu: c60,
+  } = timeRuns(() => {
     const plan = solveColourPlan({
       faceCount: 60,
       faceVertices: faces,
@@ -230,15 +223,13 @@ for (const [label, outline] of [
       countCap: 0,
     });
     const byColour = [0, 1, 2].map((c) => Object.values(plan.assignment).filter((x) => x === c).length);
-    layout = nestParts({
+    return nestParts({
       sheet: SHEET,
       marginMm: 5,
       gapMm: GAP,
       parts: byColour.map((q, c) => ({ id: `piece-${c}`, outline, quantity: q, group: `colour-${c}` })),
     });
-    t60.push(performance.now() - t0);
-    c60.push(cpuMs(c0));
-  }
+  });
   console.log(
     `60 ${label} in 3 colours: ${layout.ok ? layout.totals.sheetCount : 'failed'} sheets,` +
       ` median ${median(t60).toFixed(0)} ms wall, ${median(c60).toFixed(0)} ms CPU over ${RUNS} runs (wall ${t60.map((t) => t.toFixed(0)).join(', ')})`,
@@ -276,20 +267,8 @@ for (const [label, outline] of [
       { id: 'L', outline: roundedL, quantity: 10 },
     ],
   };
-  const times = [];
-  const cpuTimes = [];
-  const tsTimes = [];
-  let r;
-  for (let i = 0; i < RUNS; i++) {
-    const t0 = performance.now();
-    const c0 = process.cpuUsage();
-    r = nestParts(input);
-    times.push(performance.now() - t0);
-    cpuTimes.push(cpuMs(c0));
-    const t1 = performance.now();
-    nestParts({ ...input, method: 'true-shape' });
-    tsTimes.push(performance.now() - t1);
-  }
+  const { result: r, wall: times, cpu: cpuTimes } = timeRuns(() => nestParts(input));
+  const { wall: tsTimes } = timeRuns(() => nestParts({ ...input, method: 'true-shape' }));
   console.log(
     `finely sampled outlines (384-vertex wavy disc ×14, 96-vertex rounded L ×10): ` +
       `${r.ok ? `${r.totals.sheetCount} sheets, ${r.sheets[0].placements.length} on the first` : r.error.message}; ` +

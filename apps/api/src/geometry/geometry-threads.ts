@@ -15,16 +15,13 @@ import {
 import { Piscina } from 'piscina';
 
 /**
- * Threads for the engine's heavy work: KW_GEOMETRY_THREADS, default one fewer than the cores (at least 1,
- * at most 4), so a request never waits behind a fit search or a cut pack on the event loop.
+ * Threads for the engine's heavy work: KW_GEOMETRY_THREADS (its range is checked at boot, env.validation.ts),
+ * default one fewer than the cores (at least 1, at most 4), so a request never waits behind a fit search or a
+ * cut pack on the event loop.
  */
-export function geometryThreadCount(env: NodeJS.ProcessEnv = process.env): number {
+function geometryThreadCount(env: NodeJS.ProcessEnv = process.env): number {
   const raw = env.KW_GEOMETRY_THREADS;
-  if (raw === undefined || raw === '') return Math.max(1, Math.min(4, availableParallelism() - 1));
-  const n = Number(raw);
-  if (!Number.isInteger(n) || n < 1 || n > 64)
-    throw new Error('Invalid configuration: KW_GEOMETRY_THREADS must be an integer from 1 to 64');
-  return n;
+  return raw ? Number(raw) : Math.max(1, Math.min(4, availableParallelism() - 1));
 }
 
 /**

@@ -1,6 +1,6 @@
 import { Module } from '@nestjs/common';
 import { GeometryThreads } from './geometry-threads';
 
-/** One worker-thread pool for the engine's heavy work, shared by job preparation and the cut-pack queue. */
+/** One worker-thread pool for the engine's work, shared by designs, job preparation and the cut-pack queue. */
 @Module({ providers: [GeometryThreads], exports: [GeometryThreads] })
 export class GeometryModule {}

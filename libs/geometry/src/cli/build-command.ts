@@ -4,6 +4,7 @@ import { SpecValidationError } from '../spec/validate-spec';
 import { pieceToDxf } from '../writers/dxf';
 import { pieceToSvg } from '../writers/svg';
 import { type CliRun, UsageError, parseArgs } from './command';
+import { readJsonArg } from './read-json';
 
 /**
  * `build SPEC.json --out DIR [--json]`: builds a design (with its layout when the spec gives stock.sheet,
@@ -19,23 +20,11 @@ export const runBuild: CliRun = (args, io, usage) => {
   const json = options.get('json') === true;
   if (typeof outDir !== 'string' && !json) throw new UsageError('give --out DIR, --json or both');
 
-  let text: string;
-  try {
-    text = io.readText(specPath);
-  } catch (e) {
-    io.err(`error: cannot read ${specPath}: ${(e as Error).message}`);
-    return 2;
-  }
-  let spec: unknown;
-  try {
-    spec = JSON.parse(text);
-  } catch (e) {
-    io.err(`error: ${specPath} is not valid JSON: ${(e as Error).message}`);
-    return 2;
-  }
+  const input = readJsonArg(io, specPath);
+  if (!input) return 2;
   let model;
   try {
-    model = buildWithLayout(spec).model;
+    model = buildWithLayout(input.value).model;
   } catch (e) {
     if (e instanceof SpecValidationError) io.err(`error: ${e.message}`);
     else if (e instanceof SolidError) io.err(`error: bad solid (${e.code}): ${e.message}`);

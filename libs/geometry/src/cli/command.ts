@@ -9,7 +9,7 @@ export interface CliIo {
   joinPath: (...parts: string[]) => string;
 }
 
-/** One subcommand of `kerfwright` (build, and later nest, pack, coupon…). Returns the exit code. */
+/** One subcommand of `kerfwright` (build, nest, pack, coupon: the table in commands.ts). Returns the exit code. */
 export interface CliCommand {
   name: string;
   /** One line for the help text. */
