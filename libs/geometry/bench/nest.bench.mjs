@@ -277,6 +277,33 @@ for (const [label, outline] of [
   );
 }
 
+// ---------- Many different parts ----------
+// 150 random convex-ish outlines (5–12 vertices, radius 12–40 mm, seeded), one of each: no two share a kept
+// feasible region, so every placement searches afresh. The free-space windows (bottom-left.ts) bound that
+// search to the parts near the fill front; 'whole sheet' is the same fill without them.
+{
+  let seed = 150;
+  const rnd = () => (seed = (seed * 1664525 + 1013904223) % 4294967296) / 4294967296;
+  const parts = Array.from({ length: 150 }, (_, k) => {
+    const n = 5 + Math.floor(rnd() * 8);
+    const R = 12 + rnd() * 28;
+    const outline = Array.from({ length: n }, (_, i) => {
+      const t = (2 * Math.PI * i) / n;
+      const r = R * (0.5 + 0.5 * rnd());
+      return [r * Math.cos(t), r * Math.sin(t)];
+    });
+    return { id: `d${k}`, outline, quantity: 1 };
+  });
+  const input = { sheet: SHEET, marginMm: 5, gapMm: 2, parts, method: 'true-shape' };
+  const { result: r, wall: times, cpu: cpuTimes } = timeRuns(() => nestParts(input));
+  const placed = r.ok ? r.sheets.reduce((a, s) => a + s.placements.length, 0) : 0;
+  console.log(
+    `150 different random parts, one of each: ${r.ok ? `${r.totals.sheetCount} sheets` : r.error.message}; ` +
+      `median ${median(times).toFixed(0)} ms wall, ${median(cpuTimes).toFixed(0)} ms CPU, ` +
+      `${(median(times) / Math.max(placed, 1)).toFixed(1)} ms per part`,
+  );
+}
+
 // ---------- Decagons on a larger sheet ----------
 // 15 decagons fit a 600 × 400 sheet either way (REFERENCES), so they are compared on a 1220 × 2440 sheet too.
 // Estimate (not a bound): on an unbounded sheet the decagon lattice density 0.9137 (REFERENCES) applied to the

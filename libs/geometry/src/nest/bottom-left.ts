@@ -5,8 +5,26 @@
  * the inner-fit rectangle of the sheet minus the union of the no-fit polygons of the parts already placed; the
  * chosen position is the feasible vertex with the smallest right edge (then the lowest bottom edge), so the
  * sheet fills as a strip from its left edge.
+ *
+ * The free space of each sheet (its usable rectangle less the placed parts grown by the gap and a little more,
+ * ε) is kept as connected components, outer contours only. A part eroded by ε is still connected (checked) and lies wholly inside
+ * one of them, so for a part not yet searched on a sheet only the translations that put the eroded part's
+ * bounding box inside a component's, with the component's area at least the eroded part's, are searched, and
+ * only the no-fit polygons of parts near those windows are built and subtracted. The ε closes the hairline
+ * channels left between neighbours, so the packed area and the closed pockets drop out: on a crowded sheet
+ * of different parts, every placement subtracted every placed part's no-fit polygon before.
  */
-import { differencePaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
+import {
+  areaUnits,
+  boxOfPaths,
+  differenceComponents,
+  differencePaths,
+  growPolygon,
+  simplifyOutline,
+  SCALE_PER_MM,
+  type Component,
+  type IntPaths,
+} from './clipper-adapter';
 import { clearOfItems, translatePaths, type GeometryCache, type Variant } from './variants';
 
 export interface PlacedItem {
@@ -25,6 +43,133 @@ export interface SheetState {
   full?: Set<number>;
   /** Feasible region per variant, with how many items have been subtracted from it so far. */
   regions?: Map<string, { paths: IntPaths; done: number }>;
+  /** Free space: usable rectangle less the items grown by the gap, with how many items are subtracted. */
+  free?: { components: Component[]; done: number };
+  /** Variants already searched in free-space windows on this sheet. */
+  windowed?: Set<string>;
+}
+
+/**
+ * A variant not yet searched on a sheet with at least this many items, mostly of different parts, is searched
+ * inside free-space windows.
+ */
+const FREE_SPACE_MIN_ITEMS = 8;
+/** Slack (integer units) on free-space windows and areas, for rounding in the offsets and the difference. */
+const FREE_SPACE_SLACK = 5;
+/** ε (mm) as a share of the gap plus a constant: closes channels up to the mitred no-fit polygons' spacing. */
+function freeSpaceEpsMm(gapMm: number): number {
+  return 0.5 * gapMm + 0.05;
+}
+
+const freeGrown = new WeakMap<Variant, IntPaths>();
+const erodedBox = new WeakMap<
+  Variant,
+  { minX: number; minY: number; maxX: number; maxY: number; area: number } | null
+>();
+
+/** Bounds and area of the variant eroded by ε, or null when erosion splits it (or leaves nothing). */
+function eroded(v: Variant, epsMm: number) {
+  let e = erodedBox.get(v);
+  if (e === undefined) {
+    const paths = growPolygon(v.poly, -epsMm, 'round');
+    e =
+      paths.length === 1 && areaUnits(paths[0]!) > 0
+        ? { ...boxOfPaths(paths), area: areaUnits(paths[0]!) }
+        : null;
+    erodedBox.set(v, e);
+  }
+  return e;
+}
+
+/** The sheet's free space, brought up to date with the items placed since the last call. */
+function freeSpace(frame: SheetFrame, sheet: SheetState, gapMm: number): Component[] {
+  if (!sheet.free) {
+    const m = frame.marginMm;
+    const x0 = Math.floor(m * SCALE_PER_MM);
+    const y0 = Math.floor(m * SCALE_PER_MM);
+    const x1 = Math.ceil((frame.widthMm - m) * SCALE_PER_MM);
+    const y1 = Math.ceil((frame.heightMm - m) * SCALE_PER_MM);
+    const paths = [rectPath({ x0, y0, x1, y1 })];
+    sheet.free = {
+      components: [{ paths, minX: x0, minY: y0, maxX: x1, maxY: y1, area: (x1 - x0) * (y1 - y0) }],
+      done: 0,
+    };
+  }
+  const free = sheet.free;
+  for (; free.done < sheet.items.length; free.done++) {
+    const it = sheet.items[free.done]!;
+    let grown = freeGrown.get(it.variant);
+    if (!grown) {
+      // The outline simplified within τ = ε/2 (Douglas–Peucker), grown by gap + ε − τ with round joins whose
+      // chords lie inside the true offset: within gap + ε of the part, with a bounded vertex count.
+      const eps = freeSpaceEpsMm(gapMm);
+      const simple = simplifyOutline(it.variant.poly, eps / 2);
+      grown = simple
+        ? growPolygon(simple, gapMm + eps / 2, 'round')
+        : growPolygon(it.variant.poly, gapMm + eps, 'round');
+      freeGrown.set(it.variant, grown);
+    }
+    const clip = translatePaths(grown, it.tx, it.ty);
+    const box = boxOfPaths(clip);
+    // Only the components the grown item reaches change; the others are kept as they are.
+    const kept: Component[] = [];
+    const touched: IntPaths = [];
+    for (const c of free.components) {
+      if (c.maxX <= box.minX || c.minX >= box.maxX || c.maxY <= box.minY || c.minY >= box.maxY) kept.push(c);
+      else touched.push(...c.paths);
+    }
+    if (touched.length === 0) continue;
+    // Holes (items standing alone in a component) are dropped, and the component's area with them: a larger
+    // free space only prunes less, and the outer contours stay short.
+    const split = differenceComponents(touched, clip).map((c) => ({
+      ...c,
+      paths: [c.paths[0]!],
+      area: areaUnits(c.paths[0]!),
+    }));
+    free.components = kept.concat(split);
+  }
+  return free.components;
+}
+
+/**
+ * True when at least half the items are of different parts. Then most searches are a variant's first on the
+ * sheet, which the free space speeds up; copies of a few parts reuse their kept regions instead, and keeping
+ * the free space up to date would cost more than it saves.
+ */
+function mostlyDifferent(items: readonly PlacedItem[]): boolean {
+  const parts = new Set<number>();
+  for (const it of items) parts.add(it.variant.partIndex);
+  return 2 * parts.size >= items.length;
+}
+
+type Window = { x0: number; y0: number; x1: number; y1: number };
+
+/**
+ * Translations of v (within the inner-fit rectangle) that put its eroded bounding box inside the bounding box
+ * of a free-space component at least as large as the eroded part; null when v is not searched this way.
+ */
+function freeWindows(components: Component[], v: Variant, fit: Window, epsMm: number): Window[] | null {
+  const e = eroded(v, epsMm);
+  if (!e) return null;
+  const out: Window[] = [];
+  for (const c of components) {
+    if (c.area * 1.001 + SCALE_PER_MM * SCALE_PER_MM < e.area) continue;
+    const x0 = Math.max(fit.x0, c.minX - e.minX - FREE_SPACE_SLACK);
+    const x1 = Math.min(fit.x1, c.maxX - e.maxX + FREE_SPACE_SLACK);
+    const y0 = Math.max(fit.y0, c.minY - e.minY - FREE_SPACE_SLACK);
+    const y1 = Math.min(fit.y1, c.maxY - e.maxY + FREE_SPACE_SLACK);
+    if (x1 >= x0 && y1 >= y0) out.push({ x0, y0, x1: Math.max(x1, x0 + 1), y1: Math.max(y1, y0 + 1) });
+  }
+  return out;
+}
+
+function rectPath(w: Window) {
+  return [
+    { X: w.x0, Y: w.y0 },
+    { X: w.x1, Y: w.y0 },
+    { X: w.x1, Y: w.y1 },
+    { X: w.x0, Y: w.y1 },
+  ];
 }
 
 export interface SheetFrame {
@@ -79,8 +224,11 @@ export function findPosition(
   sheet: SheetState,
   variants: readonly Variant[],
   rule: FillRule = 'right',
+  /** Search first-time variants inside free-space windows (false: always the whole inner-fit rectangle). */
+  windowsAllowed = true,
 ): Candidate | null {
   let best: Candidate | null = null;
+  let anyCut = false;
   const all: Candidate[] = [];
   for (const v of variants) {
     const fit = innerFit(frame, v);
@@ -93,37 +241,66 @@ export function findPosition(
       if (better(c, best)) best = c;
       continue;
     }
-    // Lower bound on this variant's right edge: no better than the best found so far → skip.
-    if (best && candidate(rule, v, fit.x0, fit.y0).primary > best.primary) continue;
     // Feasible region = inner-fit rectangle minus the no-fit polygons of the placed items, kept per sheet and
-    // variant and updated with only the items placed since the last call.
+    // variant and updated with only the items placed since the last call. A variant met for the first time on
+    // a crowded sheet starts from its free-space windows instead of the whole rectangle.
     const regions = (sheet.regions ??= new Map());
-    const cached = regions.get(v.key) ?? {
-      paths: [
-        [
-          { X: fit.x0, Y: fit.y0 },
-          { X: x1, Y: fit.y0 },
-          { X: x1, Y: y1 },
-          { X: fit.x0, Y: y1 },
-        ],
-      ],
-      done: 0,
-    };
+    const cached = regions.get(v.key);
+    let start: IntPaths;
+    let from: number;
+    let windows: Window[] | null = null;
+    if (cached) {
+      start = cached.paths;
+      from = cached.done;
+    } else {
+      const whole = { x0: fit.x0, y0: fit.y0, x1, y1 };
+      const eps = freeSpaceEpsMm(cache.gapMm);
+      if (windowsAllowed && sheet.items.length >= FREE_SPACE_MIN_ITEMS && mostlyDifferent(sheet.items))
+        windows = freeWindows(freeSpace(frame, sheet, cache.gapMm), v, whole, eps);
+      start = windows ? windows.map(rectPath) : [rectPath(whole)];
+      from = 0;
+    }
+    // The first time, windows are cut to the translations that could beat the best found so far (ties kept),
+    // and the region is not kept. A variant searched again (more copies of its part) gets its whole region,
+    // kept and updated from then on.
+    let cut = false;
+    const seen = (sheet.windowed ??= new Set<string>());
+    if (windows && best && !seen.has(v.key)) {
+      const limit = best.primary - candidate(rule, v, 0, 0).primary;
+      cut = windows.some((w) => w.x1 > limit);
+      windows = windows.filter((w) => w.x0 <= limit).map((w) => ({ ...w, x1: Math.min(w.x1, limit) }));
+      start = windows.map(rectPath);
+    }
+    anyCut ||= cut;
+    // Lower bound on this variant's right edge: no better than the best found so far → skip.
+    const lowX = windows ? Math.min(...windows.map((w) => w.x0)) : fit.x0;
+    if (best && (windows?.length === 0 || candidate(rule, v, lowX, fit.y0).primary > best.primary)) continue;
+    const spans = windows ?? [{ x0: fit.x0, y0: fit.y0, x1, y1 }];
+    const reaches = (b: { minX: number; minY: number; maxX: number; maxY: number }, dx: number, dy: number) =>
+      spans.some((w) => b.maxX + dx > w.x0 && b.minX + dx < w.x1 && b.maxY + dy > w.y0 && b.minY + dy < w.y1);
+    // Items whose no-fit polygon cannot reach a searched window are skipped before it is built: the polygon
+    // lies within the item's bounds less the part's, grown by the gap and 1 mm.
+    const reach = Math.ceil((cache.gapMm + 1) * SCALE_PER_MM);
+    const vb = v.ubounds;
     const clips: IntPaths = [];
-    for (let k = cached.done; k < sheet.items.length; k++) {
+    for (let k = from; k < sheet.items.length; k++) {
       const it = sheet.items[k]!;
+      const ib = it.variant.ubounds;
+      const rough = {
+        minX: ib.minX - vb.maxX - reach,
+        minY: ib.minY - vb.maxY - reach,
+        maxX: ib.maxX - vb.minX + reach,
+        maxY: ib.maxY - vb.minY + reach,
+      };
+      if (!reaches(rough, it.tx, it.ty)) continue;
       const nfp = cache.nfp(it.variant, v);
-      if (
-        nfp.box.maxX + it.tx <= fit.x0 ||
-        nfp.box.minX + it.tx >= x1 ||
-        nfp.box.maxY + it.ty <= fit.y0 ||
-        nfp.box.minY + it.ty >= y1
-      )
-        continue;
+      if (!reaches(nfp.box, it.tx, it.ty)) continue;
       for (const p of translatePaths(nfp.paths, it.tx, it.ty)) clips.push(p);
     }
-    const region = clips.length === 0 ? cached.paths : differencePaths(cached.paths, clips);
-    regions.set(v.key, { paths: region, done: sheet.items.length });
+    const region =
+      start.length === 0 ? [] : clips.length === 0 && !windows ? start : differencePaths(start, clips);
+    if (windows) seen.add(v.key);
+    if (!cut) regions.set(v.key, { paths: region, done: sheet.items.length });
     for (const path of region)
       for (const q of path) {
         const tx = Math.min(Math.max(q.X, fit.x0), fit.x1 < fit.x0 + 1 ? fit.x0 : fit.x1);
@@ -137,7 +314,11 @@ export function findPosition(
   if (!best || sheet.items.length === 0) return best;
   // Best first, each checked directly against its neighbours.
   all.sort((a, b) => a.primary - b.primary || a.secondary - b.secondary);
-  return all.find((c) => clearOfItems(sheet.items, c.variant, c.tx, c.ty, cache.gapMm)) ?? null;
+  const found = all.find((c) => clearOfItems(sheet.items, c.variant, c.tx, c.ty, cache.gapMm));
+  // Cut windows hold only the positions that could beat the first best; when none of them passes the direct
+  // check, the search is repeated over whole regions, as it would have run without windows.
+  if (!found && anyCut) return findPosition(cache, frame, sheet, variants, rule, false);
+  return found ?? null;
 }
 
 /**

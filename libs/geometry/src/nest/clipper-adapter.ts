@@ -83,17 +83,27 @@ export function closePolygon(path: IntPath, radiusMm: number): IntPath {
 }
 
 /**
+ * The closed polygon `path` simplified by Douglas–Peucker at tolerance tolMm (simplify-js): its vertices are
+ * some of the outline's, and the two boundaries are within tolMm of each other. Null when fewer than three
+ * vertices are left or the orientation flips.
+ */
+export function simplifyOutline(path: IntPath, tolMm: number): IntPath | null {
+  const open = [...path, path[0]!].map((p) => ({ x: p.X, y: p.Y }));
+  const kept = simplify(open, tolMm * SCALE_PER_MM, true).slice(0, -1);
+  if (kept.length < 3) return null;
+  const simplified = kept.map((p) => ({ X: p.x, Y: p.y }));
+  return ClipperLib.Clipper.Area(simplified) > 0 ? simplified : null;
+}
+
+/**
  * A polygon with fewer vertices that contains the closed CCW polygon `path`: the outline simplified by
  * Douglas–Peucker at tolerance tolMm (simplify-js), then grown by tolMm with mitred joins. Every point of the
  * outline lies within tolMm of the simplified one, so the grown polygon contains it; that is checked with a
  * Clipper difference all the same, and null is returned when it fails (a simplification that crossed itself).
  */
 export function simplifyContaining(path: IntPath, tolMm: number): IntPath | null {
-  const open = [...path, path[0]!].map((p) => ({ x: p.X, y: p.Y }));
-  const kept = simplify(open, tolMm * SCALE_PER_MM, true).slice(0, -1);
-  if (kept.length < 3) return null;
-  const simplified = kept.map((p) => ({ X: p.x, Y: p.y }));
-  if (ClipperLib.Clipper.Area(simplified) <= 0) return null;
+  const simplified = simplifyOutline(path, tolMm);
+  if (!simplified) return null;
   const outer = growPolygon(simplified, tolMm).filter((p) => ClipperLib.Clipper.Area(p) > 0);
   if (outer.length !== 1) return null;
   const left = differencePaths([path], outer);
@@ -166,6 +176,63 @@ export function differencePaths(subject: IntPaths, clips: IntPaths): IntPaths {
     ClipperLib.PolyFillType.pftNonZero,
   );
   return out;
+}
+
+/** A connected region: its outer contour and holes, the outer contour's bounds, its area (square units). */
+export interface Component {
+  paths: IntPaths;
+  minX: number;
+  minY: number;
+  maxX: number;
+  maxY: number;
+  area: number;
+}
+
+/**
+ * subject minus the union of clips as connected components, read from Clipper's PolyTree: an outer contour
+ * with its holes is one component, an island inside a hole another.
+ */
+export function differenceComponents(subject: IntPaths, clips: IntPaths): Component[] {
+  const c = new ClipperLib.Clipper();
+  c.AddPaths(subject, ClipperLib.PolyType.ptSubject, true);
+  if (clips.length > 0) c.AddPaths(clips, ClipperLib.PolyType.ptClip, true);
+  const tree = new ClipperLib.PolyTree();
+  c.Execute(
+    ClipperLib.ClipType.ctDifference,
+    tree,
+    ClipperLib.PolyFillType.pftNonZero,
+    ClipperLib.PolyFillType.pftNonZero,
+  );
+  const components: Component[] = [];
+  const visitOuter = (node: ClipperLib.PolyNode) => {
+    const outer = node.Contour();
+    const paths = [outer];
+    let area = Math.abs(ClipperLib.Clipper.Area(outer));
+    for (const hole of node.Childs()) {
+      paths.push(hole.Contour());
+      area -= Math.abs(ClipperLib.Clipper.Area(hole.Contour()));
+      for (const island of hole.Childs()) visitOuter(island);
+    }
+    components.push({ paths, ...boxOfPaths([outer]), area });
+  };
+  for (const node of tree.Childs()) visitOuter(node);
+  return components;
+}
+
+/** Bounds of a set of paths, integer units. */
+export function boxOfPaths(paths: IntPaths): { minX: number; minY: number; maxX: number; maxY: number } {
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const p of paths)
+    for (const q of p) {
+      if (q.X < minX) minX = q.X;
+      if (q.Y < minY) minY = q.Y;
+      if (q.X > maxX) maxX = q.X;
+      if (q.Y > maxY) maxY = q.Y;
+    }
+  return { minX, minY, maxX, maxY };
 }
 
 /** Intersection of two path sets (non-zero fill). */

@@ -6,6 +6,7 @@
 import { convexPieces } from './convex-decomposition';
 import {
   areaUnits,
+  boxOfPaths,
   closePolygon,
   growPolygon,
   intersectPaths,
@@ -158,21 +159,6 @@ export { normaliseAngle };
 interface NfpEntry {
   paths: IntPaths;
   box: IntBounds;
-}
-
-function boxOfPaths(paths: IntPaths): IntBounds {
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxX = -Infinity;
-  let maxY = -Infinity;
-  for (const p of paths)
-    for (const q of p) {
-      if (q.X < minX) minX = q.X;
-      if (q.Y < minY) minY = q.Y;
-      if (q.X > maxX) maxX = q.X;
-      if (q.Y > maxY) maxY = q.Y;
-    }
-  return { minX, minY, maxX, maxY };
 }
 
 /**
