@@ -3,13 +3,17 @@
 // (scripts/bench-harness.mjs) holding the demo workshop plus extra jobs. Needs `npm run build`.
 // Env: KW_BENCH_API_SECONDS (per endpoint, default 30), KW_BENCH_API_CONNECTIONS (default 100),
 //      KW_BENCH_API_WARMUP_SECONDS (unmeasured load before each endpoint, default 5),
-//      KW_BENCH_API_JOBS (extra jobs in the table, default 200). Target: zero errors, p99 of reads < 100 ms.
+//      KW_BENCH_API_JOBS (extra jobs in the table, default 200), KW_BENCH_API_USERS (fabricators the spread
+//      run's connections sign in as, default 20). Target: zero errors, p99 of reads < 100 ms.
+import crypto from 'node:crypto';
 import autocannon from 'autocannon';
+import bcrypt from 'bcryptjs';
 import { benchWorkshop, cpuSeconds, machineLine, startBenchServices } from './bench-harness.mjs';
 
 const SECONDS = Number(process.env.KW_BENCH_API_SECONDS ?? 30);
 const CONNECTIONS = Number(process.env.KW_BENCH_API_CONNECTIONS ?? 100);
 const JOBS = Number(process.env.KW_BENCH_API_JOBS ?? 200);
+const USERS = Number(process.env.KW_BENCH_API_USERS ?? 20);
 // Unmeasured load first, so the figures are of the warmed-up server (compiled code paths, prepared statements
 // on every pooled connection, a settled heap), as a long-running API is; 0 measures from the cold start.
 const WARMUP_SECONDS = Number(process.env.KW_BENCH_API_WARMUP_SECONDS ?? 5);
@@ -24,11 +28,31 @@ async function main(svc) {
     const job = await api('POST', '/jobs', tokens.hobbyist, { designId: design.id, quantity: 1 + (i % 3) });
     if (i % 2 === 0) await api('POST', `/jobs/${job.id}/request`, tokens.hobbyist, { version: job.version });
   }
+  // Identical reads arriving together are sent to the database once (preparedQuery), so the same list read by
+  // 100 connections of one user is the kindest case; the same connections spread over USERS fabricators (each
+  // with their own drafts in the filter) are measured too.
+  const password = crypto.randomUUID();
+  const hash = await bcrypt.hash(password, 4);
+  const spread = [];
+  for (let i = 0; i < USERS; i++) {
+    const email = `fabricator-${i}-${svc.tag}@bench.example`;
+    await svc.db.query(
+      `INSERT INTO users (email, display_name, password_hash, role, active) VALUES ($1, $2, $3, 'fabricator', true)`,
+      [email, `Bench fabricator ${i}`, hash],
+    );
+    spread.push((await api('POST', '/auth/login', null, { email, password })).accessToken);
+  }
   const targets = [
     {
       name: 'jobs list (GET /api/jobs, page of 25, newest first)',
       path: '/api/jobs?pageSize=25',
       token: tokens.fabricator,
+    },
+    {
+      name: `jobs list, the connections spread over ${USERS} fabricators`,
+      path: '/api/jobs?pageSize=25',
+      token: tokens.fabricator,
+      tokens: spread,
     },
     {
       name: `design with preview (GET /api/designs/:id)`,
@@ -38,10 +62,15 @@ async function main(svc) {
   ];
   const results = [];
   for (const t of targets) {
+    let next = 0;
     const load = {
       url: `${baseUrl}${t.path}`,
       connections: CONNECTIONS,
       headers: { authorization: `Bearer ${t.token}` },
+      // Each connection signs in as the next user of the list, round robin.
+      setupClient: t.tokens
+        ? (client) => client.setHeaders({ authorization: `Bearer ${t.tokens[next++ % t.tokens.length]}` })
+        : undefined,
     };
     if (WARMUP_SECONDS > 0) await autocannon({ ...load, duration: WARMUP_SECONDS });
     const cpu0 = cpuSeconds(svc.apiPid());

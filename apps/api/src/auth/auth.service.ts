@@ -4,10 +4,11 @@ import { type ConfigType } from '@nestjs/config';
 import { JwtService } from '@nestjs/jwt';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import bcrypt from 'bcryptjs';
+import DataLoader from 'dataloader';
 import { DataSource, Repository } from 'typeorm';
 import { type AuthResponse, type UserView } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
-import { preparedQuery } from '../common/db-helpers';
+import { sendPrepared } from '../common/db-helpers';
 import { AppError } from '../common/errors';
 import { appConfig } from '../config/app.config';
 import { toUserView, User } from '../users/user.entity';
@@ -43,6 +44,8 @@ export interface JwtPayload {
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
+type TokenUser = Pick<User, 'id' | 'email' | 'role' | 'displayName' | 'active' | 'isDemo'>;
+
 @Injectable()
 export class AuthService {
   constructor(
@@ -52,6 +55,25 @@ export class AuthService {
     private readonly audit: AuditService,
     @Inject(appConfig.KEY) private readonly app: ConfigType<typeof appConfig>,
   ) {}
+
+  /**
+   * The users behind the bearer tokens of the requests that arrive in one turn of the event loop, read in one
+   * query once that turn's I/O is handled (DataLoader, with no cache: every request gets a row read after it
+   * arrived, so a deactivation is seen by the next request).
+   */
+  private readonly tokenUsers = new DataLoader<string, TokenUser | null>(
+    async (ids) => {
+      const rows = await sendPrepared<TokenUser>(
+        this.users.manager,
+        `SELECT id, email, role, display_name AS "displayName", active, is_demo AS "isDemo"
+           FROM users WHERE id = ANY($1::uuid[])`,
+        [ids],
+      );
+      const byId = new Map(rows.map((r) => [r.id, r]));
+      return ids.map((id) => byId.get(id) ?? null);
+    },
+    { cache: false, batchScheduleFn: (run) => setImmediate(run) },
+  );
 
   async register(dto: RegisterDto, requestId: string): Promise<AuthResponse> {
     const email = dto.email.trim();
@@ -110,15 +132,7 @@ export class AuthService {
     payload: JwtPayload,
   ): Promise<Pick<User, 'id' | 'email' | 'role' | 'displayName'> | null> {
     if (!UUID.test(payload.sub)) return null;
-    const rows = await preparedQuery<
-      Pick<User, 'id' | 'email' | 'role' | 'displayName' | 'active' | 'isDemo'>
-    >(
-      this.users.manager,
-      `SELECT id, email, role, display_name AS "displayName", active, is_demo AS "isDemo"
-         FROM users WHERE id = $1`,
-      [payload.sub],
-    );
-    const user = rows[0];
+    const user = await this.tokenUsers.load(payload.sub.toLowerCase());
     if (!user || !user.active || (user.isDemo && this.app.mode === 'production')) return null;
     return user;
   }

@@ -48,8 +48,15 @@ export function isStalePreparedStatement(err: unknown): boolean {
  * After a migration changes a column such a statement returns, PostgreSQL refuses the old statement on every
  * connection that prepared it: the statement then gets a new name, so each connection prepares it afresh.
  * Meant for reads outside transactions (inside one, the refused statement would abort the transaction).
+ *
+ * Identical reads (same text and values, same data source) asked for during one turn of the event loop are
+ * sent once, when the turn's I/O has been handled (setImmediate), and every caller gets that result: under
+ * load many requests for the same page or the same signed-in user arrive together. Each caller still gets an
+ * answer to a query sent after it asked, so no caller sees data older than its own request; the rows are
+ * shared, so callers must not change them.
  */
-export async function preparedQuery<T>(
+/** preparedQuery without the sharing: sent at once (for callers that batch their reads themselves). */
+export async function sendPrepared<T>(
   m: DataSource | EntityManager,
   text: string,
   params: unknown[],
@@ -76,4 +83,37 @@ export async function preparedQuery<T>(
     }
     return run().result;
   }
+}
+
+type Batch = { resolve: (rows: unknown[]) => void; reject: (err: unknown) => void }[];
+const waiting = new WeakMap<object, Map<string, Batch>>();
+
+export function preparedQuery<T>(
+  m: DataSource | EntityManager,
+  text: string,
+  params: unknown[],
+): Promise<T[]> {
+  // A transaction's manager has its own connection and snapshot: its reads are never shared.
+  if ((m as EntityManager).queryRunner) return sendPrepared<T>(m, text, params);
+  const source = (m as EntityManager).dataSource ?? m;
+  let batches = waiting.get(source);
+  if (!batches) waiting.set(source, (batches = new Map()));
+  const key = `${text}\u0000${JSON.stringify(params)}`;
+  const open = batches.get(key);
+  return new Promise<T[]>((resolve, reject) => {
+    const waiter = { resolve: resolve as (rows: unknown[]) => void, reject };
+    if (open) {
+      open.push(waiter);
+      return;
+    }
+    const batch: Batch = [waiter];
+    batches.set(key, batch);
+    setImmediate(() => {
+      batches.delete(key);
+      sendPrepared<T>(m, text, params).then(
+        (rows) => batch.forEach((w) => w.resolve(rows)),
+        (err: unknown) => batch.forEach((w) => w.reject(err)),
+      );
+    });
+  });
 }
