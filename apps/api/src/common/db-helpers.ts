@@ -41,6 +41,9 @@ export function isStalePreparedStatement(err: unknown): boolean {
   );
 }
 
+type Batch = { resolve: (rows: unknown[]) => void; reject: (err: unknown) => void }[];
+const waiting = new WeakMap<object, Map<string, Batch>>();
+
 /**
  * Runs a read issued on (nearly) every request as a named, server-side prepared statement: PostgreSQL parses
  * and plans it once per connection instead of on every call (planning was a third of the jobs list's database
@@ -55,39 +58,6 @@ export function isStalePreparedStatement(err: unknown): boolean {
  * answer to a query sent after it asked, so no caller sees data older than its own request; the rows are
  * shared, so callers must not change them.
  */
-/** preparedQuery without the sharing: sent at once (for callers that batch their reads themselves). */
-export async function sendPrepared<T>(
-  m: DataSource | EntityManager,
-  text: string,
-  params: unknown[],
-): Promise<T[]> {
-  const run = () => {
-    let name = statementNames.get(text);
-    if (!name) {
-      const hash = createHash('sha256').update(text).digest('hex').slice(0, 24);
-      name = `kw_${hash}_${statementGeneration}`;
-      statementNames.set(text, name);
-    }
-    // node-postgres takes a query config object in place of the text; TypeORM passes it through unchanged.
-    return { name, result: m.query({ name, text } as unknown as string, params) as Promise<T[]> };
-  };
-  const first = run();
-  try {
-    return await first.result;
-  } catch (err) {
-    if (!isStalePreparedStatement(err)) throw err;
-    // Renamed once per change, not once per connection that notices it.
-    if (statementNames.get(text) === first.name) {
-      statementGeneration++;
-      statementNames.delete(text);
-    }
-    return run().result;
-  }
-}
-
-type Batch = { resolve: (rows: unknown[]) => void; reject: (err: unknown) => void }[];
-const waiting = new WeakMap<object, Map<string, Batch>>();
-
 export function preparedQuery<T>(
   m: DataSource | EntityManager,
   text: string,
@@ -116,4 +86,34 @@ export function preparedQuery<T>(
       );
     });
   });
+}
+
+/** preparedQuery without the sharing: sent at once (for callers that batch their reads themselves). */
+export async function sendPrepared<T>(
+  m: DataSource | EntityManager,
+  text: string,
+  params: unknown[],
+): Promise<T[]> {
+  const run = () => {
+    let name = statementNames.get(text);
+    if (!name) {
+      const hash = createHash('sha256').update(text).digest('hex').slice(0, 24);
+      name = `kw_${hash}_${statementGeneration}`;
+      statementNames.set(text, name);
+    }
+    // node-postgres takes a query config object in place of the text; TypeORM passes it through unchanged.
+    return { name, result: m.query({ name, text } as unknown as string, params) as Promise<T[]> };
+  };
+  const first = run();
+  try {
+    return await first.result;
+  } catch (err) {
+    if (!isStalePreparedStatement(err)) throw err;
+    // Renamed once per change, not once per connection that notices it.
+    if (statementNames.get(text) === first.name) {
+      statementGeneration++;
+      statementNames.delete(text);
+    }
+    return run().result;
+  }
 }

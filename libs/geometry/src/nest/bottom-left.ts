@@ -7,9 +7,10 @@
  * sheet fills as a strip from its left edge.
  *
  * The free space of each sheet (its usable rectangle less the placed parts grown by the gap and a little more,
- * ε) is kept as connected components, outer contours only. A part eroded by ε is still connected (checked) and lies wholly inside
- * one of them, so for a part not yet searched on a sheet only the translations that put the eroded part's
- * bounding box inside a component's, with the component's area at least the eroded part's, are searched, and
+ * ε) is kept as connected components, outer contours only. A part eroded by ε is still connected (checked)
+ * and lies wholly inside one of them, so for a part not yet searched on a sheet only the translations that put
+ * the eroded part's bounding box inside a component's, with the component's area at least the eroded part's,
+ * are searched, and
  * only the no-fit polygons of parts near those windows are built and subtracted. The ε closes the hairline
  * channels left between neighbours, so the packed area and the closed pockets drop out: on a crowded sheet
  * of different parts, every placement subtracted every placed part's no-fit polygon before.
@@ -249,14 +250,13 @@ export function findPosition(
     let start: IntPaths;
     let from: number;
     let windows: Window[] | null = null;
+    const whole = { x0: fit.x0, y0: fit.y0, x1, y1 };
     if (cached) {
       start = cached.paths;
       from = cached.done;
     } else {
-      const whole = { x0: fit.x0, y0: fit.y0, x1, y1 };
-      const eps = freeSpaceEpsMm(cache.gapMm);
       if (windowsAllowed && sheet.items.length >= FREE_SPACE_MIN_ITEMS && mostlyDifferent(sheet.items))
-        windows = freeWindows(freeSpace(frame, sheet, cache.gapMm), v, whole, eps);
+        windows = freeWindows(freeSpace(frame, sheet, cache.gapMm), v, whole, freeSpaceEpsMm(cache.gapMm));
       start = windows ? windows.map(rectPath) : [rectPath(whole)];
       from = 0;
     }
@@ -275,7 +275,7 @@ export function findPosition(
     // Lower bound on this variant's right edge: no better than the best found so far → skip.
     const lowX = windows ? Math.min(...windows.map((w) => w.x0)) : fit.x0;
     if (best && (windows?.length === 0 || candidate(rule, v, lowX, fit.y0).primary > best.primary)) continue;
-    const spans = windows ?? [{ x0: fit.x0, y0: fit.y0, x1, y1 }];
+    const spans = windows ?? [whole];
     const reaches = (b: { minX: number; minY: number; maxX: number; maxY: number }, dx: number, dy: number) =>
       spans.some((w) => b.maxX + dx > w.x0 && b.minX + dx < w.x1 && b.maxY + dy > w.y0 && b.minY + dy < w.y1);
     // Items whose no-fit polygon cannot reach a searched window are skipped before it is built: the polygon

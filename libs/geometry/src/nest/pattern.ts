@@ -8,7 +8,7 @@
  * the most pieces on one sheet wins. The double-lattice search on the part's convex hull (double-lattice.ts)
  * adds its arrangements to the same contest.
  */
-import { pointInPath, unionPaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
+import { boxOfPaths, pointInPath, unionPaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
 import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
 import { sheetLattices } from './double-lattice';
 import { convexHull } from './polygon';
@@ -116,21 +116,6 @@ function cellNfp(cache: GeometryCache, cell: readonly CellPiece[]): IntPaths {
   return unionPaths(all);
 }
 
-function boxOf(paths: IntPaths): { minX: number; minY: number; maxX: number; maxY: number } {
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxX = -Infinity;
-  let maxY = -Infinity;
-  for (const p of paths)
-    for (const q of p) {
-      minX = Math.min(minX, q.X);
-      minY = Math.min(minY, q.Y);
-      maxX = Math.max(maxX, q.X);
-      maxY = Math.max(maxY, q.Y);
-    }
-  return { minX, minY, maxX, maxY };
-}
-
 /** Smallest ax > 0 such that every k·(ax, 0), k ≥ 1, is clear of the cell's no-fit polygon. */
 function rowPeriod(nfp: IntPaths, width: number): number | null {
   const xs = crossingsAtY(nfp, 0);
@@ -149,7 +134,7 @@ function rowPeriod(nfp: IntPaths, width: number): number | null {
 }
 
 /** Lowest by > 0 such that (bx + k·ax, by) is clear for every k. */
-function lowestClear(nfp: VerticalIndex, box: ReturnType<typeof boxOf>, ax: number, bx: number): number {
+function lowestClear(nfp: VerticalIndex, box: ReturnType<typeof boxOfPaths>, ax: number, bx: number): number {
   const intervals: [number, number][] = [];
   const kMin = Math.floor((box.minX - bx) / ax) - 1;
   const kMax = Math.ceil((box.maxX - bx) / ax) + 1;
@@ -179,7 +164,7 @@ interface Lattice {
  * not always the densest lattice.
  */
 function candidateLattices(nfp: IntPaths, keep = 6): Lattice[] {
-  const box = boxOf(nfp);
+  const box = boxOfPaths(nfp);
   const ax = rowPeriod(nfp, box.maxX - box.minX);
   if (ax === null) return [];
   const index = new VerticalIndex(nfp);
