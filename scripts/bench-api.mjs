@@ -4,7 +4,8 @@
 // Env: KW_BENCH_API_SECONDS (per endpoint, default 30), KW_BENCH_API_CONNECTIONS (default 100),
 //      KW_BENCH_API_WARMUP_SECONDS (unmeasured load before each endpoint, default 5),
 //      KW_BENCH_API_JOBS (extra jobs in the table, default 200), KW_BENCH_API_USERS (fabricators the spread
-//      run's connections sign in as, default 20). Target: zero errors, p99 of reads < 100 ms.
+//      run's connections sign in as, default 20), KW_BENCH_API_ONLY (comma-separated keys of the runs to do:
+//      list, spread, design; default all). Target: zero errors, p99 of reads < 100 ms.
 import crypto from 'node:crypto';
 import autocannon from 'autocannon';
 import bcrypt from 'bcryptjs';
@@ -44,24 +45,28 @@ async function main(svc) {
   }
   const targets = [
     {
+      key: 'list',
       name: 'jobs list (GET /api/jobs, page of 25, newest first)',
       path: '/api/jobs?pageSize=25',
       token: tokens.fabricator,
     },
     {
+      key: 'spread',
       name: `jobs list, the connections spread over ${USERS} fabricators`,
       path: '/api/jobs?pageSize=25',
       token: tokens.fabricator,
       tokens: spread,
     },
     {
+      key: 'design',
       name: `design with preview (GET /api/designs/:id)`,
       path: `/api/designs/${design.id}`,
       token: tokens.hobbyist,
     },
   ];
+  const only = process.env.KW_BENCH_API_ONLY?.split(',').map((k) => k.trim());
   const results = [];
-  for (const t of targets) {
+  for (const t of targets.filter((x) => !only || only.includes(x.key))) {
     let next = 0;
     const load = {
       url: `${baseUrl}${t.path}`,

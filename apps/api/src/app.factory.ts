@@ -24,6 +24,9 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
   });
   const config = app.get<ConfigType<typeof appConfig>>(appConfig.KEY);
   app.set('trust proxy', 'loopback');
+  // API answers are `no-store` (apiResponseHeaders), so a client never revalidates one and hashing every body
+  // for an ETag is wasted; the web app's files get theirs from express.static as before.
+  app.set('etag', false);
   app.use(requestIdMiddleware);
   app.use(
     helmet({

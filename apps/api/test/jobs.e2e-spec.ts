@@ -402,6 +402,15 @@ describe('jobs through their states', () => {
     expect(supervisorRow.materialName).toBeTruthy();
     expect(supervisorRow.profileName).toBeTruthy();
     expect(supervisorRow.actions).not.toContain('approve'); // four eyes: the supervisor prepared it
+    // The timestamps PostgreSQL formats for a row are what JSON gives for the stored values (Date#toISOString,
+    // ECMA-262 Date Time String Format: UTC, milliseconds).
+    const [stored] = (await ctx.db.query(`SELECT created_at, updated_at FROM jobs WHERE id = $1`, [
+      prepared.id,
+    ])) as { created_at: Date; updated_at: Date }[];
+    expect([supervisorRow.createdAt, supervisorRow.updatedAt]).toEqual([
+      stored!.created_at.toISOString(),
+      stored!.updated_at.toISOString(),
+    ]);
 
     // Who sees what: drafts of others stay with their owner (and supervisors); hobbyists see only their own.
     const ids = async (u: TestUser, q = {}) => (await list(u, q)).body.items.map((r: { id: string }) => r.id);

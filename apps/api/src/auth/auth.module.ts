@@ -1,19 +1,16 @@
 import { Module } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { JwtModule } from '@nestjs/jwt';
-import { PassportModule } from '@nestjs/passport';
 import { ThrottlerModule } from '@nestjs/throttler';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { authConfig } from '../config/app.config';
 import { User } from '../users/user.entity';
 import { AuthController } from './auth.controller';
 import { AuthService } from './auth.service';
-import { JwtStrategy } from './jwt.strategy';
 
 @Module({
   imports: [
     TypeOrmModule.forFeature([User]),
-    PassportModule,
     JwtModule.registerAsync({
       inject: [authConfig.KEY],
       useFactory: (c: ConfigType<typeof authConfig>) => ({
@@ -38,6 +35,8 @@ import { JwtStrategy } from './jwt.strategy';
     }),
   ],
   controllers: [AuthController],
-  providers: [AuthService, JwtStrategy],
+  providers: [AuthService],
+  // The global JwtAuthGuard (AppModule) reads the signed-in user through AuthService.
+  exports: [AuthService],
 })
 export class AuthModule {}

@@ -1,8 +1,9 @@
 import { type ConfigType } from '@nestjs/config';
-import { type JwtService } from '@nestjs/jwt';
+import { JwtService } from '@nestjs/jwt';
+import jwt from 'jsonwebtoken';
 import { type DataSource, type Repository } from 'typeorm';
 import { type AuditService } from '../audit/audit.service';
-import { type appConfig } from '../config/app.config';
+import { type appConfig, type authConfig } from '../config/app.config';
 import { type User } from '../users/user.entity';
 import { AuthService } from './auth.service';
 
@@ -11,6 +12,8 @@ const B = '0b0b0b0b-0000-4000-8000-00000000000b';
 const C = '0c0c0c0c-0000-4000-8000-00000000000c';
 
 /** An AuthService over a users table held in memory, recording the queries sent to it. */
+const SECRET = 'unit-test-secret-of-reasonable-length';
+
 function serviceWith(users: Record<string, { active: boolean }>) {
   const sent: unknown[][] = [];
   const manager = {
@@ -33,9 +36,10 @@ function serviceWith(users: Record<string, { active: boolean }>) {
   const service = new AuthService(
     { manager } as unknown as Repository<User>,
     {} as DataSource,
-    {} as JwtService,
+    new JwtService({ secret: SECRET, signOptions: { algorithm: 'HS256', expiresIn: '1h' } }),
     {} as AuditService,
     { mode: 'test' } as ConfigType<typeof appConfig>,
+    { jwtSecret: SECRET } as ConfigType<typeof authConfig>,
   );
   return { service, sent };
 }
@@ -64,5 +68,55 @@ describe('AuthService.userForToken', () => {
     expect((await service.userForToken(token(A.toUpperCase())))?.id).toBe(A);
     expect(await service.userForToken(token("' OR 1=1 --"))).toBeNull();
     expect(sent).toHaveLength(1);
+  });
+});
+
+describe('AuthService.userForAuthorization', () => {
+  const now = () => Math.floor(Date.now() / 1000);
+  const signed = (payload: object, secret = SECRET, options: jwt.SignOptions = {}) =>
+    jwt.sign(payload, secret, { algorithm: 'HS256', ...options });
+
+  it('accepts a bearer token this server signed, whatever the case of the scheme', async () => {
+    const { service } = serviceWith({ [A]: { active: true } });
+    const t = signed({ sub: A, role: 'fabricator', exp: now() + 60 });
+    expect(await service.userForAuthorization(`Bearer ${t}`)).toEqual({
+      id: A,
+      email: `${A}@x`,
+      role: 'fabricator',
+      displayName: A,
+    });
+    expect((await service.userForAuthorization(`bearer ${t}`))?.id).toBe(A);
+  });
+
+  // RFC 7519 section 4.1.4 (exp), RFC 7515 (a changed signature or header must not verify), and the
+  // "alg: none" downgrade of the JWT security best practices (RFC 8725 section 2.1).
+  it('refuses expired, forged, unsigned, expiry-less and malformed tokens without reading a user', async () => {
+    const { service, sent } = serviceWith({ [A]: { active: true } });
+    const claims = { sub: A, role: 'fabricator' };
+    const good = signed({ ...claims, exp: now() + 60 });
+    const [h, p] = good.split('.');
+    const bad = [
+      undefined,
+      '',
+      good, // no scheme
+      `Basic ${good}`,
+      `Bearer ${good} extra`,
+      `Bearer ${signed({ ...claims, exp: now() - 10 })}`,
+      `Bearer ${signed({ ...claims, exp: now() + 60 }, 'another-secret-of-reasonable-length')}`,
+      `Bearer ${jwt.sign({ ...claims, exp: now() + 60 }, '', { algorithm: 'none' })}`,
+      `Bearer ${signed(claims)}`, // no expiry
+      `Bearer ${h}.${Buffer.from(JSON.stringify({ ...claims, role: 'supervisor', exp: now() + 60 })).toString('base64url')}.${good.split('.')[2]}`,
+      `Bearer ${h}.${p}.`,
+      'Bearer not-a-token',
+      42,
+    ];
+    for (const header of bad) expect(await service.userForAuthorization(header)).toBeNull();
+    expect(sent).toHaveLength(0);
+  });
+
+  it('refuses the token of a deactivated user', async () => {
+    const { service } = serviceWith({ [A]: { active: false } });
+    const t = signed({ sub: A, role: 'fabricator', exp: now() + 60 });
+    expect(await service.userForAuthorization(`Bearer ${t}`)).toBeNull();
   });
 });

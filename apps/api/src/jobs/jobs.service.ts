@@ -52,10 +52,21 @@ const LIST_COLUMNS = [
 ] as const;
 
 /**
+ * A timestamp as JSON shows it (what Date#toISOString gives: UTC, milliseconds truncated), formatted by
+ * PostgreSQL: a page of jobs then needs no Date objects in the API.
+ */
+const isoTimestamp = (column: string) =>
+  `to_char(${column} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
+
+/**
  * A job row as the list and the job route show it, read from a source named `page` holding LIST_COLUMNS of the
  * jobs wanted: the names a row shows, and who prepared a prepared job (they may not approve it).
  */
-const ROW_SELECT = `page.*, d.name AS design_name, r.display_name AS requester_name,
+const ROW_SELECT = `${LIST_COLUMNS.filter((c) => !c.endsWith('_at'))
+  .map((c) => `page.${c}`)
+  .join(', ')},
+       ${isoTimestamp('page.created_at')} AS created_at, ${isoTimestamp('page.updated_at')} AS updated_at,
+       d.name AS design_name, r.display_name AS requester_name,
        m.name AS material_name, p.name AS profile_name, v.number AS profile_number,
        CASE WHEN page.state = 'prepared' THEN
          (SELECT t.actor_id FROM job_transitions t
@@ -85,8 +96,9 @@ type JobListRow = {
   sheets_used: number | null;
   measured_kerf_mm: string | null;
   version: number;
-  created_at: Date;
-  updated_at: Date;
+  /** ISO 8601 in UTC (isoTimestamp). */
+  created_at: string;
+  updated_at: string;
   design_name: string;
   requester_name: string;
   /** The list's total (the job route reads no total). */
@@ -121,11 +133,14 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     sheetsUsed: r.sheets_used,
     measuredKerfMm: numberOrNull(r.measured_kerf_mm),
     version: r.version,
-    createdAt: r.created_at.toISOString(),
-    updatedAt: r.updated_at.toISOString(),
+    createdAt: r.created_at,
+    updatedAt: r.updated_at,
     actions: jobActionsFor(r.state, user, r.requester_id, r.preparer_id),
   };
 }
+
+/** allowedJobActions by state, role and ownership: a list page asks the same few questions for every row. */
+const actionsByCase = new Map<string, readonly JobAction[]>();
 
 /** What the caller may do with a job now; whoever prepared it may not also approve it (four eyes). */
 function jobActionsFor(
@@ -134,9 +149,11 @@ function jobActionsFor(
   requesterId: string,
   preparerId: string | null | undefined,
 ): JobAction[] {
-  return allowedJobActions(state, user.role, requesterId === user.id).filter(
-    (a) => a !== 'approve' || preparerId !== user.id,
-  );
+  const isOwner = requesterId === user.id;
+  const key = `${state}|${user.role}|${isOwner}`;
+  let actions = actionsByCase.get(key);
+  if (!actions) actionsByCase.set(key, (actions = allowedJobActions(state, user.role, isOwner)));
+  return preparerId === user.id ? actions.filter((a) => a !== 'approve') : actions.slice();
 }
 
 /** Staff see every job that has left the draft stage; everyone sees their own. */

@@ -10,7 +10,7 @@ export const Public = () => SetMetadata(IS_PUBLIC, true);
 /** Roles allowed on a route (a supervisor is always allowed). Without it any signed-in role may call. */
 export const Roles = (...roles: Role[]) => SetMetadata(ROLES_KEY, roles);
 
-/** The signed-in user as loaded by the JWT strategy. */
+/** The signed-in user as JwtAuthGuard loaded it for this request. */
 export interface AuthUser {
   id: string;
   email: string;

@@ -1,33 +1,36 @@
-import { type ExecutionContext, Injectable } from '@nestjs/common';
+import { type CanActivate, type ExecutionContext, Injectable } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
-import { AuthGuard } from '@nestjs/passport';
-import { IS_PUBLIC } from '../decorators/auth.decorators';
+import { AuthService } from '../../auth/auth.service';
+import { type AuthUser, IS_PUBLIC } from '../decorators/auth.decorators';
 import { AppError } from '../errors';
 
-/** Global guard: every route needs a valid bearer token unless marked @Public(). */
+/**
+ * Global guard: every route needs a valid bearer token unless marked @Public(). The user behind the token is
+ * read on every request (AuthService.userForAuthorization), so a deactivation or a role change applies at once.
+ * A database failure while reading it propagates (503 from the exception filter), it is not a 401.
+ */
 @Injectable()
-export class JwtAuthGuard extends AuthGuard('jwt') {
-  constructor(private readonly reflector: Reflector) {
-    super();
-  }
+export class JwtAuthGuard implements CanActivate {
+  constructor(
+    private readonly reflector: Reflector,
+    private readonly auth: AuthService,
+  ) {}
 
-  override canActivate(context: ExecutionContext) {
+  async canActivate(context: ExecutionContext): Promise<boolean> {
     const isPublic = this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, [
       context.getHandler(),
       context.getClass(),
     ]);
     if (isPublic) return true;
-    return super.canActivate(context);
-  }
-
-  override handleRequest<T>(err: unknown, user: T | false): T {
-    if (err) throw err;
+    const req = context.switchToHttp().getRequest<{ headers: Record<string, unknown>; user?: AuthUser }>();
+    const user = await this.auth.userForAuthorization(req.headers.authorization);
     if (!user)
       throw new AppError(
         401,
         'AUTH.UNAUTHENTICATED',
         'Sign in first: the token is missing, expired or invalid',
       );
-    return user;
+    req.user = user;
+    return true;
   }
 }
