@@ -42,7 +42,8 @@ export function isStalePreparedStatement(err: unknown): boolean {
 }
 
 type Batch = { resolve: (rows: unknown[]) => void; reject: (err: unknown) => void }[];
-const waiting = new WeakMap<object, Map<string, Batch>>();
+/** Open batches by data source, statement text and values (as JSON). */
+const waiting = new WeakMap<object, Map<string, Map<string, Batch>>>();
 
 /**
  * Runs a read issued on (nearly) every request as a named, server-side prepared statement: PostgreSQL parses
@@ -66,9 +67,12 @@ export function preparedQuery<T>(
   // A transaction's manager has its own connection and snapshot: its reads are never shared.
   if ((m as EntityManager).queryRunner) return sendPrepared<T>(m, text, params);
   const source = (m as EntityManager).dataSource ?? m;
-  let batches = waiting.get(source);
-  if (!batches) waiting.set(source, (batches = new Map()));
-  const key = `${text}\u0000${JSON.stringify(params)}`;
+  let byText = waiting.get(source);
+  if (!byText) waiting.set(source, (byText = new Map()));
+  // Keyed by the text itself, not text + values: callers pass the same string each time, whose hash is kept.
+  let batches = byText.get(text);
+  if (!batches) byText.set(text, (batches = new Map()));
+  const key = JSON.stringify(params);
   const open = batches.get(key);
   return new Promise<T[]>((resolve, reject) => {
     const waiter = { resolve: resolve as (rows: unknown[]) => void, reject };
@@ -80,6 +84,7 @@ export function preparedQuery<T>(
     batches.set(key, batch);
     setImmediate(() => {
       batches.delete(key);
+      if (batches.size === 0 && byText.get(text) === batches) byText.delete(text);
       sendPrepared<T>(m, text, params).then(
         (rows) => batch.forEach((w) => w.resolve(rows)),
         (err: unknown) => batch.forEach((w) => w.reject(err)),

@@ -163,6 +163,9 @@ export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state
   return job.state !== 'draft' || user.role === 'supervisor';
 }
 
+/** The jobs list's statement texts by shape (their values are parameters; sort columns come from SORT_COLUMNS). */
+const LIST_STATEMENTS = new Map<string, string>();
+
 @Injectable()
 export class JobsService {
   constructor(
@@ -200,19 +203,24 @@ export class JobsService {
     const pageOrder = `${column.replace(/^j\./, 'page.')} ${direction}, page.id ASC`;
     // The count and the page are separate parts of one statement, so the page keeps PostgreSQL's top-N sort
     // (a window count would sort every matching job); the count row is there even past the last page.
-    const rows = await preparedQuery<JobListRow>(
-      this.dataSource,
-      `WITH total AS (SELECT count(*) AS n FROM jobs j ${searchJoins} ${filter}),
+    const offset = param(skip);
+    const limit = param(take);
+    // A handful of statement shapes (filters × sort orders), each text built once: the same string every call.
+    const shape = `${searchJoins}|${filter}|${column}|${direction}|${offset}|${limit}`;
+    let text = LIST_STATEMENTS.get(shape);
+    if (!text) {
+      text = `WITH total AS (SELECT count(*) AS n FROM jobs j ${searchJoins} ${filter}),
        page AS (
          SELECT ${PAGE_COLUMNS} FROM jobs j ${searchJoins} ${filter}
           ORDER BY ${column} ${direction}, j.id ASC
-         OFFSET ${param(skip)} LIMIT ${param(take)})
+         OFFSET ${offset} LIMIT ${limit})
        SELECT total.n AS total, ${ROW_SELECT}
          FROM total LEFT JOIN page ON true
        ${ROW_JOINS}
-        ORDER BY ${pageOrder}`,
-      params,
-    );
+        ORDER BY ${pageOrder}`;
+      LIST_STATEMENTS.set(shape, text);
+    }
+    const rows = await preparedQuery<JobListRow>(this.dataSource, text, params);
     const total = Number(rows[0]?.total ?? 0);
     const items = rows.filter((r) => r.id !== null).map((r) => rowView(r, user));
     return { items, total, page, pageSize };
