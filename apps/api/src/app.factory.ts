@@ -25,7 +25,8 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
   const config = app.get<ConfigType<typeof appConfig>>(appConfig.KEY);
   app.set('trust proxy', 'loopback');
   // API answers are `no-store` (apiResponseHeaders), so a client never revalidates one and hashing every body
-  // for an ETag is wasted; the web app's files get theirs from express.static as before.
+  // for an ETag is wasted. The web app's files keep theirs (express.static has its own setting); the
+  // index.html fallback of client-side routes is revalidated by its Last-Modified.
   app.set('etag', false);
   app.use(requestIdMiddleware);
   app.use(
