@@ -11,9 +11,9 @@ const A = '0a0a0a0a-0000-4000-8000-00000000000a';
 const B = '0b0b0b0b-0000-4000-8000-00000000000b';
 const C = '0c0c0c0c-0000-4000-8000-00000000000c';
 
-/** An AuthService over a users table held in memory, recording the queries sent to it. */
 const SECRET = 'unit-test-secret-of-reasonable-length';
 
+/** An AuthService over a users table held in memory, recording the queries sent to it. */
 function serviceWith(users: Record<string, { active: boolean }>) {
   const sent: unknown[][] = [];
   const manager = {

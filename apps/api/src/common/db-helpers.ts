@@ -84,7 +84,8 @@ export function preparedQuery<T>(
     batches.set(key, batch);
     setImmediate(() => {
       batches.delete(key);
-      if (batches.size === 0 && byText.get(text) === batches) byText.delete(text);
+      // A map leaves byText only when its last batch is sent, so this is the one byText holds.
+      if (batches.size === 0) byText.delete(text);
       sendPrepared<T>(m, text, params).then(
         (rows) => batch.forEach((w) => w.resolve(rows)),
         (err: unknown) => batch.forEach((w) => w.reject(err)),
