@@ -8,12 +8,15 @@
  *
  * The free space of each sheet (its usable rectangle less the placed parts grown by the gap and a little more,
  * ε) is kept as connected components, outer contours only. A part eroded by ε is still connected (checked)
- * and lies wholly inside one of them, so for a part not yet searched on a sheet only the translations that put
- * the eroded part's bounding box inside a component's, with the component's area at least the eroded part's,
- * are searched, and
- * only the no-fit polygons of parts near those windows are built and subtracted. The ε closes the hairline
- * channels left between neighbours, so the packed area and the closed pockets drop out: on a crowded sheet
- * of different parts, every placement subtracted every placed part's no-fit polygon before.
+ * and lies wholly inside one of them, so for a part not yet searched on a sheet only these translations are
+ * searched ("windows"): those that put the eroded part's bounding box inside a component's, with the
+ * component's area at least the eroded part's, and the centre of a disc inside the part (its pole of
+ * inaccessibility, from polylabel) inside the component shrunk by the disc's radius. The windows are cut into
+ * strips about as wide as the part and searched in order of the best rank a position in them could have,
+ * until none can beat the best position found; only the no-fit polygons of parts near a searched strip are
+ * built and subtracted. The ε closes the hairline channels left between neighbours, so the packed area and
+ * the closed pockets drop out: on a crowded sheet of different parts, every placement subtracted every placed
+ * part's no-fit polygon before.
  */
 import {
   areaUnits,
@@ -26,6 +29,7 @@ import {
   type Component,
   type IntPaths,
 } from './clipper-adapter';
+import polylabel from 'polylabel';
 import { clearOfItems, translatePaths, type GeometryCache, type Variant } from './variants';
 
 export interface PlacedItem {
@@ -57,6 +61,8 @@ export interface SheetState {
 const FREE_SPACE_MIN_ITEMS = 8;
 /** Slack (integer units) on free-space windows and areas, for rounding in the offsets and the difference. */
 const FREE_SPACE_SLACK = 5;
+/** Least width (mm) of the strips a free-space window is searched in. */
+const STRIP_MIN_MM = 10;
 /** ε (mm) as a share of the gap plus a constant: closes channels up to the mitred no-fit polygons' spacing. */
 function freeSpaceEpsMm(gapMm: number): number {
   return 0.5 * gapMm + 0.05;
@@ -102,12 +108,13 @@ function freeSpace(frame: SheetFrame, sheet: SheetState, gapMm: number): Compone
     let grown = freeGrown.get(it.variant);
     if (!grown) {
       // The outline simplified within τ = ε/2 (Douglas–Peucker), grown by gap + ε − τ with round joins whose
-      // chords lie inside the true offset: within gap + ε of the part, with a bounded vertex count.
+      // chords lie inside the true offset: within gap + ε of the part, with a bounded vertex count. The
+      // chords may lie up to ε/4 inside: the free space only grows by that, and its outlines stay short.
       const eps = freeSpaceEpsMm(gapMm);
       const simple = simplifyOutline(it.variant.poly, eps / 2);
       grown = simple
-        ? growPolygon(simple, gapMm + eps / 2, 'round')
-        : growPolygon(it.variant.poly, gapMm + eps, 'round');
+        ? growPolygon(simple, gapMm + eps / 2, 'round', eps / 4)
+        : growPolygon(it.variant.poly, gapMm + eps, 'round', eps / 4);
       freeGrown.set(it.variant, grown);
     }
     const clip = translatePaths(grown, it.tx, it.ty);
@@ -145,23 +152,127 @@ function mostlyDifferent(items: readonly PlacedItem[]): boolean {
 
 type Window = { x0: number; y0: number; x1: number; y1: number };
 
+/** A window and, when the inscribed-disc test applies, the region the disc's centre must lie in (units). */
+interface FreeWindow extends Window {
+  centres: IntPaths | null;
+}
+
+const discs = new WeakMap<Variant, { x: number; y: number; r: number }>();
+
+/**
+ * A disc inside the variant (centre and radius, integer units): the pole of inaccessibility found by polylabel
+ * (V. Agafonkin, mapbox, 2016). Its distance is a true distance from the point to the outline, so the disc
+ * lies inside the part even when it is not quite the largest one.
+ */
+function discOf(v: Variant): { x: number; y: number; r: number } {
+  let d = discs.get(v);
+  if (!d) {
+    const span = Math.max(v.ubounds.maxX - v.ubounds.minX, v.ubounds.maxY - v.ubounds.minY);
+    const pole = polylabel([v.poly.map((q) => [q.X, q.Y])], Math.max(span / 200, 1));
+    d = { x: pole[0]!, y: pole[1]!, r: Math.max(0, pole.distance) };
+    discs.set(v, d);
+  }
+  return d;
+}
+
+const centreRegions = new WeakMap<Component, Map<number, IntPaths>>();
+
+/**
+ * Where the centre of an inscribed disc of radius r − ε can lie in a component: its outer contour shrunk by
+ * that radius (less a little slack). Clipper's round joins draw the arcs with chords inside the true arcs,
+ * so the shrunk polygon contains the exact set. Cached per component and radius.
+ */
+function centreRegion(c: Component, radius: number): IntPaths {
+  let byRadius = centreRegions.get(c);
+  if (!byRadius) centreRegions.set(c, (byRadius = new Map()));
+  let paths = byRadius.get(radius);
+  if (!paths) {
+    // Coarse arcs (chords up to 0.2 mm inside): fewer vertices, and the region only grows.
+    paths = growPolygon(c.paths[0]!, -radius / SCALE_PER_MM, 'round', 0.2).filter((p) => areaUnits(p) > 0);
+    byRadius.set(radius, paths);
+  }
+  return paths;
+}
+
 /**
  * Translations of v (within the inner-fit rectangle) that put its eroded bounding box inside the bounding box
- * of a free-space component at least as large as the eroded part; null when v is not searched this way.
+ * of a free-space component at least as large as the eroded part, and the centre of its inscribed disc, shrunk
+ * by ε, inside the component shrunk by the disc's radius; null when v is not searched this way.
  */
-function freeWindows(components: Component[], v: Variant, fit: Window, epsMm: number): Window[] | null {
+function freeWindows(
+  components: Component[],
+  v: Variant,
+  fit: Window,
+  epsMm: number,
+  discRadius: number,
+): FreeWindow[] | null {
   const e = eroded(v, epsMm);
   if (!e) return null;
-  const out: Window[] = [];
+  const disc = discOf(v);
+  // Slack for rounding in the offsets; rounded down to a quarter millimetre so that parts of about the same
+  // size share the shrunk components. Below 1 mm the test prunes too little to pay for itself.
+  const quarter = SCALE_PER_MM / 4;
+  const radius = Math.floor((discRadius - epsMm * SCALE_PER_MM - 2 * FREE_SPACE_SLACK) / quarter) * quarter;
+  const out: FreeWindow[] = [];
   for (const c of components) {
     if (c.area * 1.001 + SCALE_PER_MM * SCALE_PER_MM < e.area) continue;
     const x0 = Math.max(fit.x0, c.minX - e.minX - FREE_SPACE_SLACK);
     const x1 = Math.min(fit.x1, c.maxX - e.maxX + FREE_SPACE_SLACK);
     const y0 = Math.max(fit.y0, c.minY - e.minY - FREE_SPACE_SLACK);
     const y1 = Math.min(fit.y1, c.maxY - e.maxY + FREE_SPACE_SLACK);
-    if (x1 >= x0 && y1 >= y0) out.push({ x0, y0, x1: Math.max(x1, x0 + 1), y1: Math.max(y1, y0 + 1) });
+    if (x1 < x0 || y1 < y0) continue;
+    const w = { x0, y0, x1: Math.max(x1, x0 + 1), y1: Math.max(y1, y0 + 1) };
+    if (radius < SCALE_PER_MM) {
+      out.push({ ...w, centres: null });
+      continue;
+    }
+    // The disc needs a component at least its diameter wide and high.
+    if (c.maxX - c.minX < 2 * radius || c.maxY - c.minY < 2 * radius) continue;
+    for (const piece of centreRegion(c, radius)) {
+      const b = boxOfPaths([piece]);
+      const px0 = Math.max(w.x0, Math.floor(b.minX - disc.x));
+      const px1 = Math.min(w.x1, Math.ceil(b.maxX - disc.x));
+      const py0 = Math.max(w.y0, Math.floor(b.minY - disc.y));
+      const py1 = Math.min(w.y1, Math.ceil(b.maxY - disc.y));
+      if (px1 < px0 || py1 < py0) continue;
+      out.push({
+        x0: px0,
+        y0: py0,
+        x1: Math.max(px1, px0 + 1),
+        y1: Math.max(py1, py0 + 1),
+        centres: [piece],
+      });
+    }
   }
   return out;
+}
+
+/**
+ * The y-range of a region within the vertical slab x0 ≤ x ≤ x1, or null when they do not meet. A bounded
+ * region meets the slab only where its boundary does, so clipping its edges to the slab is enough.
+ */
+export function slabRange(paths: IntPaths, x0: number, x1: number): { y0: number; y1: number } | null {
+  let y0 = Infinity;
+  let y1 = -Infinity;
+  for (const path of paths)
+    for (let i = 0; i < path.length; i++) {
+      const a = path[i]!;
+      const b = path[(i + 1) % path.length]!;
+      const lo = Math.max(x0, Math.min(a.X, b.X));
+      const hi = Math.min(x1, Math.max(a.X, b.X));
+      if (lo > hi) continue;
+      if (a.X === b.X) {
+        y0 = Math.min(y0, a.Y, b.Y);
+        y1 = Math.max(y1, a.Y, b.Y);
+        continue;
+      }
+      for (const x of [lo, hi]) {
+        const y = a.Y + ((b.Y - a.Y) * (x - a.X)) / (b.X - a.X);
+        y0 = Math.min(y0, y);
+        y1 = Math.max(y1, y);
+      }
+    }
+  return y0 <= y1 ? { y0: Math.floor(y0), y1: Math.ceil(y1) } : null;
 }
 
 function rectPath(w: Window) {
@@ -212,13 +323,30 @@ function candidate(rule: FillRule, variant: Variant, tx: number, ty: number): Ca
   return { variant, tx, ty, primary: x, secondary: ty + variant.ubounds.minY };
 }
 
-function better(a: Candidate, b: Candidate | null): boolean {
-  if (!b) return true;
-  if (a.primary !== b.primary) return a.primary < b.primary;
-  return a.secondary < b.secondary;
+/** Candidates in ranking order: primary, then secondary, then the variant's place in the list, then tx. */
+function compareCandidates(a: Candidate & { order: number }, b: Candidate & { order: number }): number {
+  return a.primary - b.primary || a.secondary - b.secondary || a.order - b.order || a.tx - b.tx;
 }
 
-/** Best bottom-left position for any of the variants on a sheet, or null when none fits. */
+/** A strip of a free-space window, searched on its own, and the least rank any position in it can have. */
+interface Strip {
+  variant: Variant;
+  order: number;
+  fit: Window;
+  window: Window;
+  bound: number;
+}
+
+/**
+ * Best bottom-left position for any of the variants on a sheet, or null when none fits.
+ *
+ * A variant met for the first time on a crowded sheet of mostly different parts is searched in free-space
+ * windows, each cut into vertical strips about as wide as the part. The strips of all variants are searched in
+ * order of the least rank a position in them can have (branch and bound): a strip that cannot beat the best
+ * position found so far, checked directly against its neighbours, is never searched, and its no-fit polygons
+ * are never built. The lexicographic least point of a region is a vertex of the part of it in the strip that
+ * holds it, so the position found is the one a search of the whole sheet finds.
+ */
 export function findPosition(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -228,59 +356,17 @@ export function findPosition(
   /** Search first-time variants inside free-space windows (false: always the whole inner-fit rectangle). */
   windowsAllowed = true,
 ): Candidate | null {
-  let best: Candidate | null = null;
-  let anyCut = false;
-  const all: Candidate[] = [];
-  for (const v of variants) {
-    const fit = innerFit(frame, v);
-    if (!fit) continue;
-    // A degenerate inner-fit rectangle (part exactly as wide as the usable sheet) is widened by one unit.
-    const x1 = Math.max(fit.x1, fit.x0 + 1);
-    const y1 = Math.max(fit.y1, fit.y0 + 1);
-    if (sheet.items.length === 0) {
-      const c = candidate(rule, v, fit.x0, fit.y0);
-      if (better(c, best)) best = c;
-      continue;
-    }
-    // Feasible region = inner-fit rectangle minus the no-fit polygons of the placed items, kept per sheet and
-    // variant and updated with only the items placed since the last call. A variant met for the first time on
-    // a crowded sheet starts from its free-space windows instead of the whole rectangle.
-    const regions = (sheet.regions ??= new Map());
-    const cached = regions.get(v.key);
-    let start: IntPaths;
-    let from: number;
-    let windows: Window[] | null = null;
-    const whole = { x0: fit.x0, y0: fit.y0, x1, y1 };
-    if (cached) {
-      start = cached.paths;
-      from = cached.done;
-    } else {
-      if (windowsAllowed && sheet.items.length >= FREE_SPACE_MIN_ITEMS && mostlyDifferent(sheet.items))
-        windows = freeWindows(freeSpace(frame, sheet, cache.gapMm), v, whole, freeSpaceEpsMm(cache.gapMm));
-      start = windows ? windows.map(rectPath) : [rectPath(whole)];
-      from = 0;
-    }
-    // The first time, windows are cut to the translations that could beat the best found so far (ties kept),
-    // and the region is not kept. A variant searched again (more copies of its part) gets its whole region,
-    // kept and updated from then on.
-    let cut = false;
-    const seen = (sheet.windowed ??= new Set<string>());
-    if (windows && best && !seen.has(v.key)) {
-      const limit = best.primary - candidate(rule, v, 0, 0).primary;
-      cut = windows.some((w) => w.x1 > limit);
-      windows = windows.filter((w) => w.x0 <= limit).map((w) => ({ ...w, x1: Math.min(w.x1, limit) }));
-      start = windows.map(rectPath);
-    }
-    anyCut ||= cut;
-    // Lower bound on this variant's right edge: no better than the best found so far → skip.
-    const lowX = windows ? Math.min(...windows.map((w) => w.x0)) : fit.x0;
-    if (best && (windows?.length === 0 || candidate(rule, v, lowX, fit.y0).primary > best.primary)) continue;
-    const spans = windows ?? [whole];
+  type Ranked = Candidate & { order: number };
+  let best: Ranked | null = null;
+  const all: Ranked[] = [];
+  const strips: Strip[] = [];
+  const reach = Math.ceil((cache.gapMm + 1) * SCALE_PER_MM);
+  /** No-fit polygons of the items from index `from` on that can reach one of the spans, placed. */
+  const clipsNear = (v: Variant, spans: readonly Window[], from: number): IntPaths => {
     const reaches = (b: { minX: number; minY: number; maxX: number; maxY: number }, dx: number, dy: number) =>
       spans.some((w) => b.maxX + dx > w.x0 && b.minX + dx < w.x1 && b.maxY + dy > w.y0 && b.minY + dy < w.y1);
-    // Items whose no-fit polygon cannot reach a searched window are skipped before it is built: the polygon
-    // lies within the item's bounds less the part's, grown by the gap and 1 mm.
-    const reach = Math.ceil((cache.gapMm + 1) * SCALE_PER_MM);
+    // Items whose no-fit polygon cannot reach a searched span are skipped before it is built: the polygon lies
+    // within the item's bounds less the part's, grown by the gap and 1 mm.
     const vb = v.ubounds;
     const clips: IntPaths = [];
     for (let k = from; k < sheet.items.length; k++) {
@@ -297,28 +383,118 @@ export function findPosition(
       if (!reaches(nfp.box, it.tx, it.ty)) continue;
       for (const p of translatePaths(nfp.paths, it.tx, it.ty)) clips.push(p);
     }
-    const region =
-      start.length === 0 ? [] : clips.length === 0 && !windows ? start : differencePaths(start, clips);
-    if (windows) seen.add(v.key);
-    if (!cut) regions.set(v.key, { paths: region, done: sheet.items.length });
+    return clips;
+  };
+  /** Vertices of a feasible region inside the inner-fit rectangle, as ranked candidates. */
+  const vertices = (region: IntPaths, v: Variant, order: number, fit: Window, out: Ranked[]) => {
     for (const path of region)
       for (const q of path) {
         const tx = Math.min(Math.max(q.X, fit.x0), fit.x1 < fit.x0 + 1 ? fit.x0 : fit.x1);
         const ty = Math.min(Math.max(q.Y, fit.y0), fit.y1 < fit.y0 + 1 ? fit.y0 : fit.y1);
         if (tx !== q.X || ty !== q.Y) continue;
-        const c = candidate(rule, v, tx, ty);
-        all.push(c);
-        if (better(c, best)) best = c;
+        out.push({ ...candidate(rule, v, tx, ty), order });
       }
+  };
+  const seen = (sheet.windowed ??= new Set<string>());
+  // One disc radius for all the variants (turns of one part): each turn's disc lies inside it.
+  let radius: number | undefined;
+  const discRadius = () => (radius ??= Math.min(...variants.map((v) => discOf(v).r)));
+  for (let order = 0; order < variants.length; order++) {
+    const v = variants[order]!;
+    const fit = innerFit(frame, v);
+    if (!fit) continue;
+    // A degenerate inner-fit rectangle (part exactly as wide as the usable sheet) is widened by one unit.
+    const whole = {
+      x0: fit.x0,
+      y0: fit.y0,
+      x1: Math.max(fit.x1, fit.x0 + 1),
+      y1: Math.max(fit.y1, fit.y0 + 1),
+    };
+    if (sheet.items.length === 0) {
+      const c = { ...candidate(rule, v, fit.x0, fit.y0), order };
+      if (!best || compareCandidates(c, best) < 0) best = c;
+      continue;
+    }
+    // Feasible region = inner-fit rectangle minus the no-fit polygons of the placed items, kept per sheet and
+    // variant and updated with only the items placed since the last call.
+    const regions = (sheet.regions ??= new Map());
+    const cached = regions.get(v.key);
+    let windows: FreeWindow[] | null = null;
+    if (
+      !cached &&
+      windowsAllowed &&
+      sheet.items.length >= FREE_SPACE_MIN_ITEMS &&
+      mostlyDifferent(sheet.items)
+    )
+      windows = freeWindows(
+        freeSpace(frame, sheet, cache.gapMm),
+        v,
+        whole,
+        freeSpaceEpsMm(cache.gapMm),
+        discRadius(),
+      );
+    if (windows && !seen.has(v.key)) {
+      // First search of this variant here: its windows, in strips, join the branch and bound below.
+      seen.add(v.key);
+      const width = Math.max(v.ubounds.maxX - v.ubounds.minX, STRIP_MIN_MM * SCALE_PER_MM);
+      const disc = discOf(v);
+      for (const w of windows)
+        for (let x0 = w.x0; x0 < w.x1; x0 += width) {
+          const x1 = Math.min(w.x1, x0 + width);
+          // Only the rows where the disc's centre can be, in this strip, are searched.
+          let { y0, y1 } = w;
+          if (w.centres) {
+            const ys = slabRange(w.centres, x0 + disc.x - 1, x1 + disc.x + 1);
+            if (!ys) continue;
+            y0 = Math.max(y0, Math.floor(ys.y0 - disc.y) - 1);
+            y1 = Math.min(y1, Math.ceil(ys.y1 - disc.y) + 1);
+            if (y1 < y0) continue;
+          }
+          const window = { x0, x1, y0, y1: Math.max(y1, y0 + 1) };
+          strips.push({ variant: v, order, fit, window, bound: candidate(rule, v, x0, y0).primary });
+        }
+      continue;
+    }
+    // Lower bound on this variant's rank: no better than the best found so far → skip.
+    const lowX = windows ? Math.min(...windows.map((w) => w.x0)) : fit.x0;
+    if (best && (windows?.length === 0 || candidate(rule, v, lowX, fit.y0).primary > best.primary)) continue;
+    // A variant searched again (more copies of its part) gets its whole region, kept and updated from then on.
+    const start = cached ? cached.paths : windows ? windows.map(rectPath) : [rectPath(whole)];
+    const from = cached ? cached.done : 0;
+    const clips = clipsNear(v, windows ?? [whole], from);
+    const region =
+      start.length === 0 ? [] : clips.length === 0 && !windows ? start : differencePaths(start, clips);
+    regions.set(v.key, { paths: region, done: sheet.items.length });
+    const before = all.length;
+    vertices(region, v, order, fit, all);
+    for (let i = before; i < all.length; i++)
+      if (!best || compareCandidates(all[i]!, best) < 0) best = all[i]!;
   }
-  if (!best || sheet.items.length === 0) return best;
+  if (sheet.items.length === 0) return best;
   // Best first, each checked directly against its neighbours.
-  all.sort((a, b) => a.primary - b.primary || a.secondary - b.secondary);
-  const found = all.find((c) => clearOfItems(sheet.items, c.variant, c.tx, c.ty, cache.gapMm));
-  // Cut windows hold only the positions that could beat the first best; when none of them passes the direct
-  // check, the search is repeated over whole regions, as it would have run without windows.
-  if (!found && anyCut) return findPosition(cache, frame, sheet, variants, rule, false);
-  return found ?? null;
+  const clear = (c: Candidate) => clearOfItems(sheet.items, c.variant, c.tx, c.ty, cache.gapMm);
+  all.sort(compareCandidates);
+  let found: Ranked | null = all.find(clear) ?? null;
+  strips.sort((a, b) => a.bound - b.bound || a.order - b.order || a.window.x0 - b.window.x0);
+  for (const s of strips) {
+    if (found && s.bound > found.primary) break;
+    const clips = clipsNear(s.variant, [s.window], 0);
+    const region = differencePaths([rectPath(s.window)], clips);
+    const mine: Ranked[] = [];
+    vertices(region, s.variant, s.order, s.fit, mine);
+    mine.sort(compareCandidates);
+    for (const c of mine) {
+      if (found && compareCandidates(c, found) >= 0) break;
+      if (clear(c)) {
+        found = c;
+        break;
+      }
+    }
+  }
+  // Windows hold every feasible translation, but a position whose direct check fails in all of them sends the
+  // search again over whole regions, as it would have run without windows.
+  if (!found && strips.length > 0) return findPosition(cache, frame, sheet, variants, rule, false);
+  return found;
 }
 
 /**

@@ -48,12 +48,14 @@ export function areaUnits(path: IntPath): number {
  * off) or round ones. A mitred offset contains the round offset, so every point of its boundary is at least
  * deltaMm from the polygon: safe for gaps.
  */
-export function growPolygon(path: IntPath, deltaMm: number, joins: 'miter' | 'round' = 'miter'): IntPaths {
-  // Round joins: arcs drawn with chords at most 10 µm inside the true arc.
-  const offset = new ClipperLib.ClipperOffset(
-    2,
-    joins === 'round' ? 0.01 * SCALE_PER_MM : 0.25 * SCALE_PER_MM,
-  );
+export function growPolygon(
+  path: IntPath,
+  deltaMm: number,
+  joins: 'miter' | 'round' = 'miter',
+  /** Round joins: how far inside the true arc its chords may lie (mm). */
+  arcToleranceMm = 0.01,
+): IntPaths {
+  const offset = new ClipperLib.ClipperOffset(2, (joins === 'round' ? arcToleranceMm : 0.25) * SCALE_PER_MM);
   const join = joins === 'round' ? ClipperLib.JoinType.jtRound : ClipperLib.JoinType.jtMiter;
   offset.AddPath(path, join, ClipperLib.EndType.etClosedPolygon);
   const out: IntPaths = [];
