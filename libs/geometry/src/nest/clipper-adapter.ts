@@ -134,6 +134,8 @@ export function reflexCorners(path: IntPath): number {
  * placement in one would overlap. Losing true pockets (a part wholly inside another's cavity) is the safe side.
  */
 export function noFitPolygonFromPieces(fixedPieces: IntPaths, negatedMovingPieces: IntPaths): IntPaths {
+  const count = fixedPieces.length * negatedMovingPieces.length;
+  if (count > CORE_SUMS * 2) return coreFirstUnion(fixedPieces, negatedMovingPieces);
   // One union per fixed piece first: its sums overlap one another heavily, and uniting them in one sweep
   // with every other piece's sums made Clipper process several times more edge crossings.
   const rows: IntPaths[] = [];
@@ -142,6 +144,79 @@ export function noFitPolygonFromPieces(fixedPieces: IntPaths, negatedMovingPiece
     rows.push(sums.length === 1 ? sums : unionTree(sums.map((x) => [x])));
   }
   return unionTree(rows).filter((p) => ClipperLib.Clipper.Area(p) > 0);
+}
+
+/** How many of the largest sums make the core that the others are tested against. */
+const CORE_SUMS = 24;
+
+/**
+ * The same union when there are many sums (two outlines of many convex pieces each): most of them lie inside
+ * the union of the largest ones and add nothing to its outer contour, which is all that is kept. The largest
+ * sums are united first ("core"); the sums left that lie inside one of the core's outer contours are dropped,
+ * the largest of the others join the core, and so on until none is left.
+ */
+function coreFirstUnion(fixedPieces: IntPaths, negatedMovingPieces: IntPaths): IntPaths {
+  const sums: { path: IntPath; area: number }[] = [];
+  for (const a of fixedPieces)
+    for (const b of negatedMovingPieces) {
+      const path = convexMinkowskiSum(a, b);
+      sums.push({ path, area: ClipperLib.Clipper.Area(path) });
+    }
+  sums.sort((x, y) => y.area - x.area);
+  // Rounds: the core grows by the next largest sums not inside it, and the others are tested again.
+  let core: IntPaths = [];
+  let left = sums.map((x) => x.path);
+  while (left.length > 0) {
+    const take = left.slice(0, CORE_SUMS);
+    core = unionTree([core, ...take.map((p) => [p])]).filter((p) => ClipperLib.Clipper.Area(p) > 0);
+    left = left.slice(CORE_SUMS).filter((path) => !core.some((o) => convexInside(path, o)));
+  }
+  return core;
+}
+
+/**
+ * True when the convex CCW polygon lies inside the simple polygon `outer` (closed sets): no edge of `outer`
+ * meets the convex polygon's open interior, so that interior lies wholly inside or wholly outside, and a
+ * point of it (the vertices' mean) is strictly inside.
+ */
+export function convexInside(convex: IntPath, outer: IntPath): boolean {
+  const box = boxOfPaths([convex]);
+  const cx = convex.reduce((s, q) => s + q.X, 0) / convex.length;
+  const cy = convex.reduce((s, q) => s + q.Y, 0) / convex.length;
+  if (ClipperLib.Clipper.PointInPolygon({ X: cx, Y: cy }, outer) !== 1) return false;
+  for (let i = 0; i < outer.length; i++) {
+    const p = outer[i]!;
+    const q = outer[(i + 1) % outer.length]!;
+    if (Math.max(p.X, q.X) <= box.minX || Math.min(p.X, q.X) >= box.maxX) continue;
+    if (Math.max(p.Y, q.Y) <= box.minY || Math.min(p.Y, q.Y) >= box.maxY) continue;
+    if (segmentMeetsInterior(p, q, convex)) return false;
+  }
+  return true;
+}
+
+/**
+ * Whether the segment pq meets the open interior of a convex CCW polygon: the parameters t in [0, 1] where
+ * p + t(q − p) lies strictly left of every edge form an open interval (Cyrus–Beck clipping); it is non-empty.
+ */
+function segmentMeetsInterior(p: IntPoint, q: IntPoint, convex: IntPath): boolean {
+  let lo = 0;
+  let hi = 1;
+  for (let i = 0; i < convex.length; i++) {
+    const a = convex[i]!;
+    const b = convex[(i + 1) % convex.length]!;
+    const ex = b.X - a.X;
+    const ey = b.Y - a.Y;
+    const f0 = ex * (p.Y - a.Y) - ey * (p.X - a.X);
+    const f1 = ex * (q.Y - a.Y) - ey * (q.X - a.X);
+    if (f0 <= 0 && f1 <= 0) return false;
+    if (f0 > 0 && f1 > 0) continue;
+    // f(t) = f0 + t(f1 − f0) changes sign at t0: the side with f > 0 is kept.
+    const t0 = f0 / (f0 - f1);
+    if (f1 > f0) lo = Math.max(lo, t0);
+    else hi = Math.min(hi, t0);
+    if (lo >= hi) return false;
+  }
+  return lo < hi;
 }
 
 /** The same with Clipper's own MinkowskiSum (edge-pair parallelograms); a fallback for odd inputs. */

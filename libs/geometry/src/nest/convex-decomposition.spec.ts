@@ -1,6 +1,12 @@
 import * as polygonClipping from 'polygon-clipping';
-import { convexMinkowskiSum, convexPieces, type IntPath } from './convex-decomposition';
-import { noFitPolygon, noFitPolygonFromPieces, pointInPath, SCALE_PER_MM } from './clipper-adapter';
+import { convexHullInt, convexMinkowskiSum, convexPieces, type IntPath } from './convex-decomposition';
+import {
+  convexInside,
+  noFitPolygon,
+  noFitPolygonFromPieces,
+  pointInPath,
+  SCALE_PER_MM,
+} from './clipper-adapter';
 
 type P = [number, number];
 
@@ -77,6 +83,53 @@ describe('convexPieces (ear clipping + Hertel–Mehlhorn merging)', () => {
 });
 
 describe('convexMinkowskiSum', () => {
+  it('equals the convex hull of all vertex sums, for random convex polygons (the definition)', () => {
+    let seed = 99;
+    const rnd = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+    const randomConvex = (): IntPath => {
+      const k = 3 + Math.floor(rnd() * 12);
+      const cx = Math.round((rnd() - 0.5) * 1e6);
+      const cy = Math.round((rnd() - 0.5) * 1e6);
+      const pts = Array.from({ length: k }, () => ({
+        X: cx + Math.round((rnd() - 0.5) * 1e5),
+        Y: cy + Math.round((rnd() - 0.5) * (rnd() < 0.2 ? 10 : 1e5)),
+      }));
+      return convexHullInt(pts);
+    };
+    const key = (p: IntPath) => {
+      const hull = convexHullInt(p);
+      return JSON.stringify(hull.map((q) => [q.X, q.Y]).sort((u, v) => u[0]! - v[0]! || u[1]! - v[1]!));
+    };
+    for (let n = 0; n < 400; n++) {
+      const a = randomConvex();
+      const b = randomConvex();
+      if (a.length < 3 || b.length < 3) continue;
+      const sum = convexMinkowskiSum(a, b);
+      const all = convexHullInt(a.flatMap((p) => b.map((q) => ({ X: p.X + q.X, Y: p.Y + q.Y }))));
+      // Same corners, and the merged outline is itself convex and counter-clockwise (its hull is itself).
+      expect(key(sum)).toBe(key(all));
+      expect(sum.length).toBeLessThanOrEqual(a.length + b.length);
+      expect(convexHullInt(sum)).toHaveLength(sum.length);
+    }
+  });
+
+  it('falls back to the hull of the vertex sums for an outline that is not convex', () => {
+    const tri: IntPath = [
+      { X: 0, Y: 0 },
+      { X: 10, Y: 0 },
+      { X: 0, Y: 10 },
+    ];
+    const notch: IntPath = [
+      { X: 0, Y: 0 },
+      { X: 10, Y: 0 },
+      { X: 5, Y: 2 },
+      { X: 10, Y: 10 },
+      { X: 0, Y: 10 },
+    ];
+    // Derived: the hull of the notched square is the square, so the sum is the triangle plus the square.
+    const sum = convexMinkowskiSum(tri, notch);
+    expect(area(toMm(sum)) * SCALE_PER_MM * SCALE_PER_MM).toBeCloseTo(10 * 10 + 2 * 10 * 10 + 50, 6);
+  });
   it('sums two axis-aligned squares into a square of the summed sides (derived)', () => {
     const sq = (s: number): IntPath =>
       toInt([
@@ -133,5 +186,82 @@ describe('no-fit polygon from convex pieces', () => {
       }
     }
     expect(checked).toBeGreaterThan(200);
+  });
+});
+
+describe('no-fit polygon of two outlines of many convex pieces', () => {
+  // Two wavy discs: r = R(1 + a·sin(kθ)), sampled finely, so each is cut into many convex pieces and the
+  // union starts from a core of the largest sums.
+  const wavy = (R: number, a: number, k: number, n: number, phase: number): P[] =>
+    Array.from({ length: n }, (_, i) => {
+      const t = (2 * Math.PI * i) / n;
+      const r = R * (1 + a * Math.sin(k * t + phase));
+      return [r * Math.cos(t), r * Math.sin(t)] as P;
+    });
+  const fixed = wavy(40, 0.18, 7, 84, 0);
+  const moving = wavy(30, 0.22, 5, 60, 0.4);
+
+  it('has more sums than the core, and marks exactly the overlapping translations (polygon-clipping as referee)', () => {
+    const A = toInt(fixed);
+    const negB = toInt(moving).map((q) => ({ X: -q.X, Y: -q.Y }));
+    const pa = convexPieces(A);
+    const pb = convexPieces(negB);
+    expect(pa.length * pb.length).toBeGreaterThan(48);
+    const nfp = noFitPolygonFromPieces(pa, pb);
+    let seed = 11;
+    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648) * 160 - 80;
+    let inside = 0;
+    let outside = 0;
+    for (let n = 0; n < 400; n++) {
+      const tx = rand();
+      const ty = rand();
+      const overlapAt = (dx: number, dy: number) =>
+        mpArea(polygonClipping.intersection([fixed], [moving.map(([x, y]) => [x + dx, y + dy] as P)]));
+      const X = Math.round(tx * SCALE_PER_MM);
+      const Y = Math.round(ty * SCALE_PER_MM);
+      const marked = nfp.some((p) => pointInPath(X, Y, p) === 1);
+      if (overlapAt(tx, ty) > 0.5) {
+        expect(marked).toBe(true);
+        inside++;
+      } else if ([-0.05, 0.05].every((d) => [-0.05, 0.05].every((e) => overlapAt(tx + d, ty + e) === 0))) {
+        expect(marked).toBe(false);
+        outside++;
+      }
+    }
+    expect(inside).toBeGreaterThan(50);
+    expect(outside).toBeGreaterThan(50);
+  });
+});
+
+describe('a convex polygon inside a simple one', () => {
+  const sq = (x0: number, y0: number, s: number): IntPath => [
+    { X: x0, Y: y0 },
+    { X: x0 + s, Y: y0 },
+    { X: x0 + s, Y: y0 + s },
+    { X: x0, Y: y0 + s },
+  ];
+  it('is inside when well within, and not when it pokes out or lies outside', () => {
+    const outer = sq(0, 0, 100);
+    expect(convexInside(sq(10, 10, 20), outer)).toBe(true);
+    expect(convexInside(sq(0, 0, 100), outer)).toBe(true);
+    expect(convexInside(sq(90, 10, 20), outer)).toBe(false);
+    expect(convexInside(sq(200, 10, 20), outer)).toBe(false);
+  });
+  it('is not inside when a slit of the outer polygon crosses it with no vertex inside it', () => {
+    // A 100 × 100 square with a slit 2 wide from its right edge to x = 5: every corner of the square
+    // (20, 20)–(60, 60) lies inside the outline, and no vertex of the outline lies inside the square, but the
+    // slit (y from 29 to 31) runs straight through it, below its centre (40, 40) (worked by hand).
+    const slit: IntPath = [
+      { X: 0, Y: 0 },
+      { X: 100, Y: 0 },
+      { X: 100, Y: 29 },
+      { X: 5, Y: 29 },
+      { X: 5, Y: 31 },
+      { X: 100, Y: 31 },
+      { X: 100, Y: 100 },
+      { X: 0, Y: 100 },
+    ];
+    expect(convexInside(sq(20, 20, 40), slit)).toBe(false);
+    expect(convexInside(sq(20, 50, 30), slit)).toBe(true);
   });
 });

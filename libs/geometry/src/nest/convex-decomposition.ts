@@ -135,9 +135,79 @@ export function convexHullInt(points: IntPoint[]): IntPath {
   return lower.concat(upper);
 }
 
-/** Minkowski sum of two convex polygons: the hull of all vertex sums. */
+/**
+ * Minkowski sum of two convex polygons: their edges merged in order of angle, starting from the sum of their
+ * lowest vertices (de Berg, Cheong, van Kreveld & Overmars, "Computational Geometry", 3rd ed., §13.3), in
+ * O(n + m). Outlines that are not convex and counter-clockwise get the hull of all vertex sums instead.
+ */
 export function convexMinkowskiSum(a: IntPath, b: IntPath): IntPath {
+  if (isConvexCcw(a) && isConvexCcw(b)) return mergedSum(a, b);
   const pts: IntPoint[] = [];
   for (const p of a) for (const q of b) pts.push({ X: p.X + q.X, Y: p.Y + q.Y });
   return convexHullInt(pts);
+}
+
+/** Index of the lowest vertex (then the leftmost). */
+function lowest(p: IntPath): number {
+  let k = 0;
+  for (let i = 1; i < p.length; i++) {
+    const q = p[i]!;
+    const b = p[k]!;
+    if (q.Y < b.Y || (q.Y === b.Y && q.X < b.X)) k = i;
+  }
+  return k;
+}
+
+function mergedSum(a: IntPath, b: IntPath): IntPath {
+  const n = a.length;
+  const m = b.length;
+  const ia = lowest(a);
+  const ib = lowest(b);
+  const out: IntPoint[] = [];
+  let i = 0;
+  let j = 0;
+  while (i < n || j < m) {
+    const p = a[(ia + i) % n]!;
+    const q = b[(ib + j) % m]!;
+    out.push({ X: p.X + q.X, Y: p.Y + q.Y });
+    if (i === n) {
+      j++;
+      continue;
+    }
+    if (j === m) {
+      i++;
+      continue;
+    }
+    const pn = a[(ia + i + 1) % n]!;
+    const qn = b[(ib + j + 1) % m]!;
+    // Both current edges turn less than half a turn apart, so the sign of their cross product orders them.
+    const c = (pn.X - p.X) * (qn.Y - q.Y) - (pn.Y - p.Y) * (qn.X - q.X);
+    if (c >= 0) i++;
+    if (c <= 0) j++;
+  }
+  return out;
+}
+
+/**
+ * True for a polygon of at least three vertices that turns left (or runs straight on) at every vertex and
+ * turns once in all: convex, counter-clockwise, not wound twice round like a pentagram.
+ */
+function isConvexCcw(p: IntPath): boolean {
+  const n = p.length;
+  if (n < 3) return false;
+  let turning = 0;
+  for (let i = 0; i < n; i++) {
+    const a = p[(i + n - 1) % n]!;
+    const b = p[i]!;
+    const c = p[(i + 1) % n]!;
+    const ux = b.X - a.X;
+    const uy = b.Y - a.Y;
+    const vx = c.X - b.X;
+    const vy = c.Y - b.Y;
+    const cross = ux * vy - uy * vx;
+    const dot = ux * vx + uy * vy;
+    if (cross < 0 || (cross === 0 && dot <= 0)) return false;
+    turning += Math.atan2(cross, dot);
+  }
+  return Math.abs(turning - 2 * Math.PI) < 1e-6;
 }
