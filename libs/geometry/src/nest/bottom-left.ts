@@ -381,10 +381,15 @@ export function findPosition(
       if (!reaches(rough, it.tx, it.ty)) continue;
       const nfp = cache.nfp(it.variant, v);
       if (!reaches(nfp.box, it.tx, it.ty)) continue;
-      for (const p of translatePaths(nfp.paths, it.tx, it.ty)) clips.push(p);
+      // Neighbouring strips of one variant meet the same items: each placed polygon is built once per call.
+      const key = `${k}|${v.key}`;
+      let placed = placedNfps.get(key);
+      if (!placed) placedNfps.set(key, (placed = translatePaths(nfp.paths, it.tx, it.ty)));
+      for (const p of placed) clips.push(p);
     }
     return clips;
   };
+  const placedNfps = new Map<string, IntPaths>();
   /** Vertices of a feasible region inside the inner-fit rectangle, as ranked candidates. */
   const vertices = (region: IntPaths, v: Variant, order: number, fit: Window, out: Ranked[]) => {
     for (const path of region)
