@@ -68,19 +68,20 @@ describe('bottom-left fill in free-space windows', () => {
       return [r * Math.cos(t), r * Math.sin(t)] as P;
     });
   };
-  const parts: PreparedPart[] = Array.from({ length: 70 }, (_, index) => {
-    const outline = blob(12 + rnd() * 28);
-    return {
-      index,
-      id: `p${index}`,
-      group: 'a',
-      quantity: 1,
-      outline,
-      areaMm2: area(outline),
-      rotationsDeg: [0, 90, 180, 270],
-      patternRotationsDeg: [0],
-    };
+  /** One copy of an outline, free to turn by quarter turns. */
+  const prepared = (index: number, id: string, outline: P[]): PreparedPart => ({
+    index,
+    id,
+    group: 'a',
+    quantity: 1,
+    outline,
+    areaMm2: area(outline),
+    rotationsDeg: [0, 90, 180, 270],
+    patternRotationsDeg: [0],
   });
+  const parts: PreparedPart[] = Array.from({ length: 70 }, (_, index) =>
+    prepared(index, `p${index}`, blob(12 + rnd() * 28)),
+  );
   const frame = { widthMm: 600, heightMm: 400, marginMm: 5 };
 
   it('finds the same position as a search of the whole sheet, for every part of a crowded sheet of different parts', () => {
@@ -164,16 +165,7 @@ describe('bottom-left fill in free-space windows', () => {
       const ox = (rnd() - 0.5) * 400;
       const oy = (rnd() - 0.5) * 400;
       const outline = shapes[index % shapes.length]!(15 + rnd() * 35).map(([x, y]) => [x + ox, y + oy] as P);
-      return {
-        index,
-        id: `w${index}`,
-        group: 'a',
-        quantity: 1,
-        outline,
-        areaMm2: area(outline),
-        rotationsDeg: [0, 90, 180, 270],
-        patternRotationsDeg: [0],
-      };
+      return prepared(index, `w${index}`, outline);
     });
     for (const rule of ['left', 'right'] as const) {
       const gapMm = rule === 'left' ? 1.5 : 4;
