@@ -65,6 +65,15 @@ export function computePairIntervals(pieces: readonly PlacedPiece[]): PlanePairI
 }
 
 /**
+ * How close (mm) a crossing's end must be to a piece's interval end to count as lying on that piece's edge.
+ * Uploaded solids carry rounded coordinates (an OFF file with 6 decimals, facets merged within
+ * COPLANAR_TOLERANCE), so ends that coincide on the exact solid differ by micrometres; a slot opening there
+ * starts its cut-out at least 0.05 mm outside the piece (leadOut in slots.ts), so treating an end a hundredth
+ * of a millimetre inside the edge as on it never leaves a closed hole.
+ */
+export const END_ON_EDGE_MM = 0.01;
+
+/**
  * Crossings of placed pieces: for every pair of planes, the overlaps of the two pieces' intervals on
  * their common line. Overlaps shorter than `minLength` (mm) are ignored.
  */
@@ -76,7 +85,7 @@ export function computeCrossings(pieces: readonly PlacedPiece[], minLength = 1e-
     const angleDeg = toDeg(Math.acos(Math.min(1, Math.abs(dot3(na, nb)))));
     for (const [t0, t1] of intersectIntervals(p.intervalsA, p.intervalsB)) {
       if (t1 - t0 <= minLength) continue;
-      const eps = 1e-9 * Math.max(1, Math.abs(t0), Math.abs(t1));
+      const eps = Math.max(END_ON_EDGE_MM, 1e-9 * Math.max(Math.abs(t0), Math.abs(t1)));
       const onEnd = (ivs: [number, number][], t: number, k: 0 | 1) =>
         ivs.some((iv) => Math.abs(iv[k] - t) <= eps);
       out.push({
