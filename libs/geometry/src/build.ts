@@ -23,6 +23,7 @@ import { compensateKerf, dogBoneCentre, notchOutline } from './compensation/comp
 import { slotInnerCorners } from './slots/slots';
 import { type ResolvedSpec, SpecValidationError, validateSpec } from './spec/validate-spec';
 import { IssueList, fitsBed, slotGap, slotWeb } from './validity/validity';
+import { CLASH_TOLERANCE_MM, thicknessClashes } from './validity/thickness-clash';
 
 /** A slot as built into one piece (piece frame, mm). */
 export interface BuiltSlot {
@@ -508,9 +509,48 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
     };
   });
 
+  if (!spec.stock.flexible) noteThicknessClashes(pieces, crossings, spec, issues);
+
   const report = makeReport(spec, solid, mmPerUnit, pieces, crossings, plan.options, widths, removed, issues);
   report.slotEndsSearched = plan.searched;
   return { spec, solid, mmPerUnit, pieces, crossings, slotSearchUsed: plan.searched, report };
+}
+
+/**
+ * Rigid stock: warns where two pieces run into each other through the stock's thickness although their
+ * mid-planes do not cross there (validity/thickness-clash.ts), one warning per pair of pieces. A press fit
+ * (negative fit allowance) is allowed its interference.
+ */
+function noteThicknessClashes(
+  pieces: readonly BuiltPiece[],
+  crossings: readonly Crossing[],
+  spec: ResolvedSpec,
+  issues: IssueList,
+): void {
+  const t = spec.stock.thicknessMm;
+  const clashes = thicknessClashes(
+    pieces.map((p) => ({ frame: p.frame, outline: p.nominalOutline })),
+    t,
+    CLASH_TOLERANCE_MM + Math.max(0, -spec.fitMm),
+    crossings,
+  );
+  const byPair = new Map<string, { a: number; b: number; length: number }>();
+  for (const c of clashes) {
+    const key = `${c.a}-${c.b}`;
+    const e = byPair.get(key) ?? { a: c.a, b: c.b, length: 0 };
+    e.length += c.to - c.from;
+    byPair.set(key, e);
+  }
+  for (const { a, b, length } of byPair.values()) {
+    const pair = [at(pieces, a).id, at(pieces, b).id];
+    issues.warn(
+      'PIECE.THICKNESS_CLASH',
+      `${pair.join(' and ')} run into each other through the ${round(t, 2)} mm stock for about ${round(length, 1)} mm ` +
+        'along the line where their planes meet, where they do not cross and no slot makes room: change the piece ' +
+        'size or turn so they cross fully or clear each other',
+      pair,
+    );
+  }
 }
 
 function makeReport(
