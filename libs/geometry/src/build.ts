@@ -518,8 +518,8 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
 
 /**
  * Rigid stock: warns where two pieces run into each other through the stock's thickness although their
- * mid-planes do not cross there (validity/thickness-clash.ts), one warning per pair of pieces. A press fit
- * (negative fit allowance) is allowed its interference.
+ * mid-planes do not cross there (validity/thickness-clash.ts), one warning per pair of pieces, ahead of the
+ * other warnings. A press fit (negative fit allowance) is allowed its interference.
  */
 function noteThicknessClashes(
   pieces: readonly BuiltPiece[],
@@ -541,16 +541,20 @@ function noteThicknessClashes(
     e.length += c.to - c.from;
     byPair.set(key, e);
   }
+  // Collisions lead the warnings: they stop the assembly, where the others only weaken it.
+  const found: DesignIssue[] = [];
   for (const { a, b, length } of byPair.values()) {
     const pair = [at(pieces, a).id, at(pieces, b).id];
-    issues.warn(
-      'PIECE.THICKNESS_CLASH',
-      `${pair.join(' and ')} run into each other through the ${round(t, 2)} mm stock for about ${round(length, 1)} mm ` +
+    found.push({
+      code: 'PIECE.THICKNESS_CLASH',
+      message:
+        `${pair.join(' and ')} run into each other through the ${round(t, 2)} mm stock for about ${round(length, 1)} mm ` +
         'along the line where their planes meet, where they do not cross and no slot makes room: change the piece ' +
         'size or turn so they cross fully or clear each other',
-      pair,
-    );
+      pieces: pair,
+    });
   }
+  issues.warnings.unshift(...found);
 }
 
 function makeReport(

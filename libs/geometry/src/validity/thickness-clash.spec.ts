@@ -94,6 +94,11 @@ describe('pieces running into each other through the stock thickness', () => {
     expect(stars.report.errors).toEqual([]);
     const warned = clashWarnings(stars);
     expect(warned.map((w) => w.pieces.join('-'))).toContain('P1-P2');
+    // Collisions lead the report, ahead of the thin webs this design also has.
+    expect(stars.report.warnings.map((w) => w.code).slice(0, warned.length)).toEqual(
+      warned.map(() => 'PIECE.THICKNESS_CLASH'),
+    );
+    expect(stars.report.warnings.some((w) => w.code === 'SLOT.THIN_WEB')).toBe(true);
     expect(slabOverlapPoints(stars, 0, 1)).toBeGreaterThan(0);
 
     for (const spec of [

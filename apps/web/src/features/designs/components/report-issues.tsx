@@ -1,9 +1,14 @@
 import { type DesignIssue } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
+import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Stack from '@mui/material/Stack';
+import { useState } from 'react';
 
-/** The validity report: errors (block files) and warnings, each with chips for the pieces it concerns. */
+/**
+ * The validity report: errors (block files) and warnings, each with chips for the pieces it concerns. Long
+ * reports show the first `limit` findings and a button for the rest.
+ */
 export function ReportIssues({
   errors,
   warnings,
@@ -15,6 +20,7 @@ export function ReportIssues({
   onSelectPiece: (id: string) => void;
   limit?: number;
 }) {
+  const [showAll, setShowAll] = useState(false);
   if (errors.length === 0 && warnings.length === 0) {
     return (
       <Alert severity="success" data-testid="report-valid">
@@ -28,7 +34,7 @@ export function ReportIssues({
   ];
   return (
     <Stack spacing={1} data-testid="report-issues">
-      {items.slice(0, limit).map(({ issue, severity }, i) => (
+      {(showAll ? items : items.slice(0, limit)).map(({ issue, severity }, i) => (
         <Alert key={i} severity={severity} variant="outlined">
           {issue.message}
           {issue.pieces.length > 0 ? (
@@ -41,7 +47,18 @@ export function ReportIssues({
         </Alert>
       ))}
       {items.length > limit ? (
-        <Alert severity="info">{`${items.length - limit} more findings are not shown.`}</Alert>
+        <Alert
+          severity="info"
+          action={
+            <Button color="inherit" size="small" onClick={() => setShowAll((v) => !v)}>
+              {showAll ? 'Show fewer' : `Show all ${items.length}`}
+            </Button>
+          }
+        >
+          {showAll
+            ? `All ${items.length} findings are shown.`
+            : `${items.length - limit} more findings are not shown.`}
+        </Alert>
       ) : null}
     </Stack>
   );
