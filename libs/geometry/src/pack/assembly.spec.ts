@@ -1,9 +1,10 @@
 import { buildModel } from '../build';
-import { design, cubeStars83, octahedronHexagons } from '../test-support/designs';
+import { design, cubeSquares45, cubeStars83, octahedronHexagons } from '../test-support/designs';
 import { layoutModel } from '../layout/plan-layout';
 import { assemblyOrder } from './assembly';
 import { packInputFrom } from './cli-commands';
 import { createCutPack } from './pack';
+import { readPdf } from './read-back.test';
 
 describe('assemblyOrder', () => {
   it('starts from the most-crossed piece and adds each piece onto at least one placed piece', () => {
@@ -44,6 +45,71 @@ describe('assemblyOrder', () => {
       }
       placed.add(s.piece);
     }
+  });
+});
+
+describe('slide directions (rigid stock)', () => {
+  it('reports the widest angle between the directions a piece slides onto its placed partners', () => {
+    // A of our own: A–B slides along x, C–A along z, B–C along y. C joins A and B last: relative to A it
+    // moves +z (it is piece a of crossing 1), relative to B it moves −y (piece b of crossing 2): 90° apart.
+    const steps = assemblyOrder(
+      ['A', 'B', 'C'],
+      [
+        { a: 'A', b: 'B', slide: [1, 0, 0] },
+        { a: 'C', b: 'A', slide: [0, 0, 1] },
+        { a: 'B', b: 'C', slide: [0, 1, 0] },
+      ],
+    );
+    expect(steps.map((s) => s.piece)).toEqual(['A', 'B', 'C']);
+    expect(steps.map((s) => s.spreadDeg)).toEqual([0, 0, 90]);
+  });
+
+  it('between equally linked pieces, prefers the one whose slots run the same way', () => {
+    // After A, both B and C join A and D... D first (most crossings), then A; B's two slides agree, C's do not.
+    const steps = assemblyOrder(
+      ['D', 'A', 'C', 'B'],
+      [
+        { a: 'D', b: 'A', slide: [1, 0, 0] },
+        { a: 'C', b: 'A', slide: [0, 1, 0] },
+        { a: 'C', b: 'D', slide: [1, 0, 0] },
+        { a: 'B', b: 'A', slide: [0, 1, 0] },
+        { a: 'B', b: 'D', slide: [0, 1, 0] },
+      ],
+    );
+    expect(steps.map((s) => s.piece)).toEqual(['D', 'A', 'B', 'C']);
+    expect(steps[2]!.spreadDeg).toBeCloseTo(0, 9);
+    expect(steps[3]!.spreadDeg).toBeCloseTo(90, 9);
+  });
+
+  it('on a cube of squares the two slots of a crossing open from opposite ends, along the crossing line', () => {
+    const model = buildModel(cubeSquares45(1.5));
+    for (const c of model.crossings) {
+      const axis3 = (piece: number) => {
+        const p = model.pieces[piece]!;
+        const s = p.slots.find((x) => x.crossing === c.index)!;
+        return [0, 1, 2].map((k) => p.frame.x[k]! * s.axis[0] + p.frame.y[k]! * s.axis[1]);
+      };
+      const [a, b] = [axis3(c.a), axis3(c.b)];
+      // Derived: each slot runs along the crossing line, into its own piece, so the pair point opposite ways.
+      expect(Math.abs(a[0]! * c.dir[0] + a[1]! * c.dir[1] + a[2]! * c.dir[2])).toBeCloseTo(1, 9);
+      expect(a[0]! * b[0]! + a[1]! * b[1]! + a[2]! * b[2]!).toBeCloseTo(-1, 9);
+    }
+  });
+
+  it('the assembly guide (pdf-parse) tells rigid builders which steps need flex, and flexible ones nothing', async () => {
+    const guide = async (flexible: boolean) => {
+      const spec = cubeSquares45(1.5, { stock: { thicknessMm: flexible ? 0.5 : 3, flexible } });
+      const pack = await createCutPack(packInputFrom(spec, { sheet: { widthMm: 600, heightMm: 400 } }));
+      return readPdf(pack.files.find((f) => f.name === 'assembly-guide.pdf')!.data).text;
+    };
+    // Derived: cube edges meet at right angles, so a square joining two placed neighbours slides along two
+    // perpendicular edges.
+    const rigid = await guide(false);
+    expect(rigid).toMatch(/Rigid stock moves one way at a time: in \d+ of the 6 steps/);
+    expect(rigid).toContain('(these slots run up to 90° apart)');
+    const flexible = await guide(true);
+    expect(flexible).not.toContain('Rigid stock');
+    expect(flexible).not.toContain('apart)');
   });
 });
 

@@ -3,18 +3,57 @@
  * becomes the spine the rest hang on), then repeatedly add the unplaced piece that crosses the most
  * pieces already placed — so each new piece is held by at least one placed piece, and pieces that lock
  * several others go in early, keeping the model standing. Ties go to the piece with more crossings
- * overall, then to the lower piece number. A piece joining several placed pieces slides onto all of them
- * at once; the guide lists every slot it engages.
+ * overall, then to the piece whose slots run in the most nearly one direction (see below), then to the lower
+ * piece number. A piece joining several placed pieces slides onto all of them at once; the guide lists every
+ * slot it engages.
+ *
+ * A rigid piece moves in one direction at a time, so it can slide onto several placed pieces at once only
+ * when its slots for them run the same way. Given each crossing's slide direction (the way piece `a` moves
+ * relative to piece `b` to go home, a unit vector; `b` moves the opposite way), each step reports the widest
+ * angle between the directions of its joins: 0 for one join, and anything more means the pieces have to
+ * flex, or earlier joints be left loose, for that step to go in.
  */
 export interface AssemblyStep {
   piece: string;
   /** Placed pieces this piece slides onto in this step, with the crossing index. */
   joins: { piece: string; crossing: number }[];
+  /** Widest angle between the slide directions of this step's joins, degrees (0 when unknown or one join). */
+  spreadDeg: number;
+}
+
+type Dir = readonly [number, number, number];
+
+/** Widest angle between the slide directions of a piece onto the given crossings, degrees. */
+function spreadOf(
+  piece: string,
+  crossingIndices: readonly number[],
+  crossings: readonly { a: string; b: string; slide?: Dir }[],
+): number {
+  const dirs: Dir[] = [];
+  for (const i of crossingIndices) {
+    const c = crossings[i]!;
+    if (!c.slide) continue;
+    const s = c.a === piece ? 1 : -1;
+    dirs.push([s * c.slide[0], s * c.slide[1], s * c.slide[2]]);
+  }
+  let widest = 0;
+  for (let i = 0; i < dirs.length; i++)
+    for (let j = i + 1; j < dirs.length; j++) {
+      const d = dirs[i]![0] * dirs[j]![0] + dirs[i]![1] * dirs[j]![1] + dirs[i]![2] * dirs[j]![2];
+      widest = Math.max(widest, (Math.acos(Math.max(-1, Math.min(1, d))) * 180) / Math.PI);
+    }
+  return widest;
+}
+
+/** Whether a comes after b in lexicographic order of equal-length number lists. */
+function lexGreater(a: readonly number[], b: readonly number[]): boolean {
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return a[i]! > b[i]!;
+  return false;
 }
 
 export function assemblyOrder(
   pieceIds: readonly string[],
-  crossings: readonly { a: string; b: string }[],
+  crossings: readonly { a: string; b: string; slide?: Dir }[],
 ): AssemblyStep[] {
   const degree = new Map(pieceIds.map((id) => [id, 0]));
   for (const c of crossings) {
@@ -24,30 +63,39 @@ export function assemblyOrder(
   const placed = new Set<string>();
   const steps: AssemblyStep[] = [];
   const index = new Map(pieceIds.map((id, i) => [id, i]));
+  const joinsOf = (id: string) =>
+    crossings
+      .map((c, i) => ({ c, i }))
+      .filter(({ c }) => (c.a === id && placed.has(c.b)) || (c.b === id && placed.has(c.a)))
+      .map(({ c, i }) => ({ piece: c.a === id ? c.b : c.a, crossing: i }));
   while (placed.size < pieceIds.length) {
     let best: string | null = null;
-    let bestKey: [number, number, number] = [-1, -1, 0];
+    let bestKey: number[] = [];
     for (const id of pieceIds) {
       if (placed.has(id)) continue;
-      const links = crossings.filter(
-        (c) => (c.a === id && placed.has(c.b)) || (c.b === id && placed.has(c.a)),
-      ).length;
-      const key: [number, number, number] = [links, degree.get(id) ?? 0, -(index.get(id) ?? 0)];
-      if (
-        best === null ||
-        key[0] > bestKey[0] ||
-        (key[0] === bestKey[0] && (key[1] > bestKey[1] || (key[1] === bestKey[1] && key[2] > bestKey[2])))
-      ) {
+      const joins = joinsOf(id);
+      // Spread rounded to whole degrees, so numerical noise does not break ties between symmetric pieces.
+      const spread = Math.round(
+        spreadOf(
+          id,
+          joins.map((j) => j.crossing),
+          crossings,
+        ),
+      );
+      const key = [joins.length, degree.get(id) ?? 0, -spread, -(index.get(id) ?? 0)];
+      if (best === null || lexGreater(key, bestKey)) {
         best = id;
         bestKey = key;
       }
     }
     if (best === null) break;
-    const joins = crossings
-      .map((c, i) => ({ c, i }))
-      .filter(({ c }) => (c.a === best && placed.has(c.b)) || (c.b === best && placed.has(c.a)))
-      .map(({ c, i }) => ({ piece: c.a === best ? c.b : c.a, crossing: i }));
-    steps.push({ piece: best, joins });
+    const joins = joinsOf(best);
+    const spreadDeg = spreadOf(
+      best,
+      joins.map((j) => j.crossing),
+      crossings,
+    );
+    steps.push({ piece: best, joins, spreadDeg });
     placed.add(best);
   }
   return steps;

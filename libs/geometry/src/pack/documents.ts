@@ -149,6 +149,9 @@ function countsPerColour(sheets: readonly SheetDrawing[]): string {
 
 const SHADES = ['#f2d39b', '#a9cbe8', '#c8e0b4', '#e8b4b4', '#d6c3e6', '#f0e6a8', '#b8e0dc', '#e0c8a8'];
 
+/** Slots of one step whose slide directions differ by more than this (degrees) get a note for rigid stock. */
+const SLIDE_SPREAD_NOTE_DEG = 2;
+
 export function assemblyGuidePdf(args: {
   input: CutPackInput;
   model: BuiltModel;
@@ -211,13 +214,27 @@ export function assemblyGuidePdf(args: {
             'pieces already in place, so every new piece is held by at least one placed piece. Slide each slot fully home ' +
             'before the next step. The number engraved beside each slot names the piece that goes into it.',
         );
+      const rigid = !model.spec.stock.flexible;
+      const crooked = steps.filter((s) => s.spreadDeg > SLIDE_SPREAD_NOTE_DEG);
+      if (rigid && crooked.length > 0) {
+        doc.moveDown(0.3);
+        doc.text(
+          `Rigid stock moves one way at a time: in ${crooked.length} of the ${steps.length} steps below the new piece ` +
+            'slides onto slots that run in different directions (the angle is given). Push it onto them together with ' +
+            'a little flex, or leave the neighbouring joints part-way out until it is in, then seat them all.',
+        );
+      }
       doc.moveDown(0.4);
       steps.forEach((s, i) => {
         ensureRoom(doc, 14);
         const joins = s.joins.length
           ? s.joins.map((j) => `its slot for ${j.piece} onto ${j.piece}'s slot for ${s.piece}`).join('; ')
           : 'hold it upright: it is the first piece';
-        doc.text(`${i + 1}. ${s.piece} (${colourOf(s.piece)}): ${joins}.`);
+        const spread =
+          rigid && s.spreadDeg > SLIDE_SPREAD_NOTE_DEG
+            ? ` (these slots run up to ${Math.round(s.spreadDeg)}° apart)`
+            : '';
+        doc.text(`${i + 1}. ${s.piece} (${colourOf(s.piece)}): ${joins}${spread}.`);
       });
     },
   );

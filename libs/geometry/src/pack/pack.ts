@@ -309,7 +309,7 @@ export async function createCutPack(
   progress(0.82);
   const steps = assemblyOrder(
     model.pieces.map((p) => p.id),
-    model.report.crossings,
+    model.report.crossings.map((c, i) => ({ a: c.a, b: c.b, slide: slideDirection(model, i) })),
   );
   files.push({
     name: 'assembly-guide.pdf',
@@ -383,4 +383,19 @@ export async function createCoupon(
   );
   onProgress?.(1);
   return result;
+}
+
+/**
+ * The way piece a of crossing i moves relative to piece b to slide home (unit, model frame): out of its own
+ * slot, i.e. against the slot's axis, which points from the opening into the piece. Undefined when piece a
+ * has no slot for the crossing.
+ */
+function slideDirection(model: BuiltModel, i: number): [number, number, number] | undefined {
+  const c = model.crossings[i];
+  if (!c) return undefined;
+  const piece = model.pieces[c.a];
+  const slot = piece?.slots.find((s) => s.crossing === i);
+  if (!piece || !slot) return undefined;
+  const { x, y } = piece.frame;
+  return [0, 1, 2].map((k) => -(x[k]! * slot.axis[0] + y[k]! * slot.axis[1])) as [number, number, number];
 }
