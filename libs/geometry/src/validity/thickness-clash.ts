@@ -15,7 +15,7 @@
  * slabs are shrunk by a tolerance so that a press fit (negative fit allowance) does not count either.
  */
 import { type Vec2, type Vec3, cross3, dot3, scale3, add3 } from '../math/vec';
-import { type Polygon, lineIntervals } from '../math/polygon';
+import { type Polygon, convexHull2 } from '../math/polygon';
 import { type PieceFrame, dirToFrame, planeLine, toFrame } from '../pieces/place';
 
 export interface SlabPiece {
@@ -58,6 +58,11 @@ export function thicknessClashes(
   if (!(h > 0)) return [];
   const out: ThicknessClash[] = [];
   const step = Math.max(0.25, thicknessMm / 4);
+  // Each piece's distance from its frame's origin.
+  const outlines = pieces.map((p) => p.outline);
+  const radius = outlines.map((o) => o.reduce((r, q) => Math.max(r, Math.hypot(q[0], q[1])), 0));
+  // Convex hulls: a quick first look at each pair (a hull's stretch near L contains the outline's).
+  const hulls = outlines.map((o) => convexHull2(o));
   for (let i = 0; i < pieces.length; i++) {
     for (let j = i + 1; j < pieces.length; j++) {
       const A = pieces[i] as SlabPiece;
@@ -69,9 +74,16 @@ export function thicknessClashes(
       if (sin < 1e-6) continue;
       // Offset from L (along each plane) beyond which a piece's slab is clear of the other's slab.
       const reach = (h * (1 + Math.abs(cos))) / sin;
-      const sa = bandSection(A, line.point, line.dir, reach);
+      // A piece farther from L (in its plane) than its radius plus the reach cannot take part.
+      if (inPlaneDistance(A.frame, line.point, line.dir) > radius[i]! + reach) continue;
+      if (inPlaneDistance(B.frame, line.point, line.dir) > radius[j]! + reach) continue;
+      const skip = crossed.get(`${i}-${j}`) ?? [];
+      const ha = bandRange(A.frame, hulls[i]!, line.point, line.dir, reach);
+      const hb = ha && bandRange(B.frame, hulls[j]!, line.point, line.dir, reach);
+      if (!ha || !hb || !sampled(Math.max(ha.from, hb.from), Math.min(ha.to, hb.to), step, skip)) continue;
+      const sa = bandSection(A.frame, outlines[i]!, line.point, line.dir, reach);
       if (!sa) continue;
-      const sb = bandSection(B, line.point, line.dir, reach);
+      const sb = bandSection(B.frame, outlines[j]!, line.point, line.dir, reach);
       if (!sb) continue;
       const t0 = Math.max(sa.from, sb.from);
       const t1 = Math.min(sa.to, sb.to);
@@ -83,7 +95,6 @@ export function thicknessClashes(
         if (runStart !== null) out.push({ a: i, b: j, from: runStart, to: runEnd, ...line });
         runStart = null;
       };
-      const skip = crossed.get(`${i}-${j}`) ?? [];
       for (let t = t0 + step / 2; t < t1; t += step) {
         const inside = skip.find((iv) => t > iv[0] && t < iv[1]);
         if (inside) {
@@ -91,7 +102,8 @@ export function thicknessClashes(
           t = inside[1] - step / 2;
           continue;
         }
-        if (slabsMeet(sa.chords(t), sb.chords(t), quad)) {
+        const ca = sa.chords(t);
+        if (ca.length > 0 && slabsMeet(ca, sb.chords(t), quad)) {
           runStart ??= t - step / 2;
           runEnd = t + step / 2;
         } else flush();
@@ -102,34 +114,42 @@ export function thicknessClashes(
   return out;
 }
 
-interface BandSection {
-  /** The piece's in-plane direction perpendicular to L (3D, unit). */
-  e: Vec3;
-  /** Range along L where the piece's outline comes within `reach` of L. */
-  from: number;
-  to: number;
-  /** Chords of the piece across L at parameter t: offsets along e, within reach of L. */
-  chords: (t: number) => [number, number][];
+/** Whether any sample point t0 + step/2 + k·step below t1 lies outside every skipped stretch. */
+function sampled(t0: number, t1: number, step: number, skip: readonly [number, number][]): boolean {
+  for (let t = t0 + step / 2; t < t1; t += step) {
+    const inside = skip.find((iv) => t > iv[0] && t < iv[1]);
+    if (!inside) return true;
+    t = inside[1] - step / 2;
+  }
+  return false;
 }
 
-function bandSection(p: SlabPiece, point: Vec3, dir: Vec3, reach: number): BandSection | null {
-  const e = cross3(p.frame.normal, dir);
-  const o = toFrame(p.frame, point);
-  const d2 = dirToFrame(p.frame, dir);
-  const e2 = dirToFrame(p.frame, e);
-  // Parameter range of the outline's parts within the band |u| ≤ reach (the band region's extent along L
-  // is reached on its boundary, and the band lines' pieces inside the outline end on the outline).
+/**
+ * Parameter range along the line (point, dir) of the outline's parts within `reach` of it in the piece's
+ * plane (the band region's extent along the line is reached on its boundary, and the band lines' pieces
+ * inside the outline end on the outline). Null when the outline stays farther away.
+ */
+function bandRange(
+  frame: PieceFrame,
+  outline: Polygon,
+  point: Vec3,
+  dir: Vec3,
+  reach: number,
+): { from: number; to: number } | null {
+  const e = cross3(frame.normal, dir);
+  const o = toFrame(frame, point);
+  const d2 = dirToFrame(frame, dir);
+  const e2 = dirToFrame(frame, e);
   let from = Infinity;
   let to = -Infinity;
-  const n = p.outline.length;
-  const tu = (q: Vec2): [number, number] => {
-    const dx = q[0] - o[0];
-    const dy = q[1] - o[1];
-    return [dx * d2[0] + dy * d2[1], dx * e2[0] + dy * e2[1]];
-  };
+  const n = outline.length;
   for (let k = 0; k < n; k++) {
-    const [ta, ua] = tu(p.outline[k] as Vec2);
-    const [tb, ub] = tu(p.outline[(k + 1) % n] as Vec2);
+    const qa = outline[k] as Vec2;
+    const qb = outline[(k + 1) % n] as Vec2;
+    const ta = (qa[0] - o[0]) * d2[0] + (qa[1] - o[1]) * d2[1];
+    const ua = (qa[0] - o[0]) * e2[0] + (qa[1] - o[1]) * e2[1];
+    const tb = (qb[0] - o[0]) * d2[0] + (qb[1] - o[1]) * d2[1];
+    const ub = (qb[0] - o[0]) * e2[0] + (qb[1] - o[1]) * e2[1];
     // Clip the edge to |u| ≤ reach.
     let lo = 0;
     let hi = 1;
@@ -148,15 +168,97 @@ function bandSection(p: SlabPiece, point: Vec3, dir: Vec3, reach: number): BandS
     from = Math.min(from, x0, x1);
     to = Math.max(to, x0, x1);
   }
-  if (!(to > from)) return null;
+  return to > from ? { from, to } : null;
+}
+
+/** Distance from a piece's frame origin to the line (point, dir) lying in its plane. */
+function inPlaneDistance(frame: PieceFrame, point: Vec3, dir: Vec3): number {
+  const o = toFrame(frame, point);
+  const d = dirToFrame(frame, dir);
+  return Math.abs(o[0] * d[1] - o[1] * d[0]) / Math.hypot(d[0], d[1]);
+}
+
+interface BandSection {
+  /** The piece's in-plane direction perpendicular to L (3D, unit). */
+  e: Vec3;
+  /** Range along L where the piece's outline comes within `reach` of L. */
+  from: number;
+  to: number;
+  /**
+   * Chords of the piece across L at parameter t: offsets along e, within reach of L. Calls must come in
+   * increasing t (a sweep: only the edges spanning t are kept, so a chord costs the few edges it crosses).
+   */
+  chords: (t: number) => [number, number][];
+}
+
+function bandSection(
+  frame: PieceFrame,
+  outline: Polygon,
+  point: Vec3,
+  dir: Vec3,
+  reach: number,
+): BandSection | null {
+  const e = cross3(frame.normal, dir);
+  const o = toFrame(frame, point);
+  const d2 = dirToFrame(frame, dir);
+  const e2 = dirToFrame(frame, e);
+  // The outline in (t, u): t along L, u along e.
+  const n = outline.length;
+  const ts = new Float64Array(n);
+  const us = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const q = outline[k] as Vec2;
+    const dx = q[0] - o[0];
+    const dy = q[1] - o[1];
+    ts[k] = dx * d2[0] + dy * d2[1];
+    us[k] = dx * e2[0] + dy * e2[1];
+  }
+  const range = bandRange(frame, outline, point, dir, reach);
+  if (!range) return null;
+  // Edges by their lower t; a chord at t crosses the edges with tLow ≤ t < tHigh (half-open, so a vertex
+  // on the chord is counted once).
+  let order: number[] | null = null;
+  let next = 0;
+  const active: number[] = [];
   return {
     e,
-    from,
-    to,
-    chords: (t) =>
-      lineIntervals(p.outline, [o[0] + t * d2[0], o[1] + t * d2[1]], e2).filter(
-        (iv) => iv[1] > -reach && iv[0] < reach,
-      ),
+    ...range,
+    chords: (t) => {
+      // Sorted on first use: most pairs are turned away on their ranges alone.
+      if (!order) {
+        const low = new Float64Array(n);
+        for (let k = 0; k < n; k++) low[k] = Math.min(ts[k]!, ts[(k + 1) % n]!);
+        order = Array.from({ length: n }, (_, k) => k).sort((a, b) => low[a]! - low[b]!);
+      }
+      while (next < n) {
+        const k = order[next]!;
+        if (Math.min(ts[k]!, ts[(k + 1) % n]!) > t) break;
+        active.push(k);
+        next++;
+      }
+      // Drop the edges that end before t (in place), and cut the others.
+      const cuts: number[] = [];
+      let kept = 0;
+      for (let i = 0; i < active.length; i++) {
+        const k = active[i]!;
+        const k2 = (k + 1) % n;
+        const ta = ts[k]!;
+        const tb = ts[k2]!;
+        if (Math.max(ta, tb) <= t) continue;
+        active[kept++] = k;
+        if (ta === tb || t < Math.min(ta, tb)) continue;
+        cuts.push(us[k]! + ((t - ta) * (us[k2]! - us[k]!)) / (tb - ta));
+      }
+      active.length = kept;
+      cuts.sort((a, b) => a - b);
+      const out: [number, number][] = [];
+      for (let i = 0; i + 1 < cuts.length; i += 2) {
+        const lo = cuts[i]!;
+        const hi = cuts[i + 1]!;
+        if (hi > -reach && lo < reach && hi > lo) out.push([lo, hi]);
+      }
+      return out;
+    },
   };
 }
 
