@@ -373,6 +373,33 @@ describe('createCutPack failures and the command-line helper', () => {
     await expect(createCutPack(tiny)).rejects.toMatchObject({ code: 'PACK.LAYOUT_FAILED' });
   });
 
+  it("puts the design's warnings on the setup sheet (pdf-parse), one line per kind, collisions first", async () => {
+    // A tetrahedron of {7/2} stars in 3.54 mm stock (our own design): three pairs of pieces run into each
+    // other through the stock's thickness, and twelve slots leave thin webs. Four colours: every face meets
+    // every other.
+    const spec = design({
+      solid: 'tetrahedron',
+      piece: { sides: 7, step: 2, rotationDeg: 285, size: 1.785 },
+      scale: { by: 'diameter', mm: 300 },
+      stock: { thicknessMm: 3.54 },
+    });
+    const pack = await createCutPack(
+      input(spec, {
+        colours: ['birch', 'teal', 'plum', 'slate'],
+        material: { ...input(spec).material, thicknessMm: 3.54 },
+      }),
+    );
+    const { text } = await pdfText(file(pack, 'setup-sheet.pdf').data);
+    const flat = text.replace(/\s+/g, ' ');
+    const clash = flat.indexOf(
+      'design: PIECE.THICKNESS_CLASH (3 findings; the first): P1 and P2 run into each other',
+    );
+    const web = flat.indexOf('design: SLOT.THIN_WEB (');
+    expect(clash).toBeGreaterThan(-1);
+    expect(web).toBeGreaterThan(clash);
+    expect((pack.manifest.warnings ?? []).filter((w) => w.startsWith('design: '))).toHaveLength(2);
+  });
+
   it('runPackCommand reads sheet, margin, gap and colours from the spec', async () => {
     const raw = {
       ...octahedronHexagons(),

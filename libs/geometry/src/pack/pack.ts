@@ -233,7 +233,7 @@ export async function createCutPack(
   );
   const removed = model.spec.machine.kind === 'laser' ? model.spec.machine.kerfMm : 0;
   const labels = labelPieces(model, pieceColourName, removed);
-  const warnings: string[] = [...labels.values()].flatMap((l) => l.warnings);
+  const warnings: string[] = [...designWarnings(model), ...[...labels.values()].flatMap((l) => l.warnings)];
   if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
     warnings.push(
       `the material is ${input.material.thicknessMm} mm thick but the design was built for ` +
@@ -398,4 +398,21 @@ function slideDirection(model: BuiltModel, i: number): [number, number, number] 
   if (!piece || !slot) return undefined;
   const { x, y } = piece.frame;
   return [0, 1, 2].map((k) => -(x[k]! * slot.axis[0] + y[k]! * slot.axis[1])) as [number, number, number];
+}
+
+/**
+ * The design report's warnings for the operator, one line per kind: how many, the code, and the first
+ * message (the studio lists them all). Collisions through the stock's thickness come first, as in the report.
+ */
+function designWarnings(model: BuiltModel): string[] {
+  const byCode = new Map<string, { count: number; first: string }>();
+  for (const w of model.report.warnings) {
+    const e = byCode.get(w.code);
+    if (e) e.count++;
+    else byCode.set(w.code, { count: 1, first: w.message });
+  }
+  return [...byCode].map(
+    ([code, { count, first }]) =>
+      `design: ${code}${count > 1 ? ` (${count} findings; the first)` : ''}: ${first}`,
+  );
 }
