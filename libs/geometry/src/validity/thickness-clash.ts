@@ -198,6 +198,8 @@ function bandSection(
   dir: Vec3,
   reach: number,
 ): BandSection | null {
+  const range = bandRange(frame, outline, point, dir, reach);
+  if (!range) return null;
   const e = cross3(frame.normal, dir);
   const o = toFrame(frame, point);
   const d2 = dirToFrame(frame, dir);
@@ -213,8 +215,6 @@ function bandSection(
     ts[k] = dx * d2[0] + dy * d2[1];
     us[k] = dx * e2[0] + dy * e2[1];
   }
-  const range = bandRange(frame, outline, point, dir, reach);
-  if (!range) return null;
   // Edges by their lower t; a chord at t crosses the edges with tLow ≤ t < tHigh (half-open, so a vertex
   // on the chord is counted once).
   let order: number[] | null = null;
