@@ -1,7 +1,7 @@
 import { buildModel } from '../build';
 import { design, cubeSquares45, cubeStars83, octahedronHexagons } from '../test-support/designs';
 import { layoutModel } from '../layout/plan-layout';
-import { assemblyOrder } from './assembly';
+import { assemblyOrder, assemblyStepsOfReport } from './assembly';
 import { packInputFrom } from './cli-commands';
 import { createCutPack } from './pack';
 import { readPdf } from './read-back.test';
@@ -94,6 +94,16 @@ describe('slide directions (rigid stock)', () => {
       expect(Math.abs(a[0]! * c.dir[0] + a[1]! * c.dir[1] + a[2]! * c.dir[2])).toBeCloseTo(1, 9);
       expect(a[0]! * b[0]! + a[1]! * b[1]! + a[2]! * b[2]!).toBeCloseTo(-1, 9);
     }
+  });
+
+  it('works from the design report alone: a cube of squares needs steps with slots 90° and 180° apart', () => {
+    // Derived: cube edges are parallel or perpendicular, so every spread is 0, 90 or 180°.
+    const steps = assemblyStepsOfReport(buildModel(cubeSquares45(1.5)).report);
+    expect(steps).toHaveLength(6);
+    for (const s of steps) expect([0, 90, 180]).toContain(Math.round(s.spreadDeg));
+    expect(steps[0]!.spreadDeg).toBe(0);
+    expect(Math.max(...steps.map((s) => s.spreadDeg))).toBeCloseTo(180, 3);
+    expect(steps.some((s) => Math.abs(s.spreadDeg - 90) < 1e-3)).toBe(true);
   });
 
   it('the assembly guide (pdf-parse) tells rigid builders which steps need flex, and flexible ones nothing', async () => {

@@ -1,3 +1,5 @@
+import type { DesignReport } from '@kerfwright/contracts';
+
 /**
  * A suggested assembly order. Heuristic (our own): start from the piece with the most crossings (it
  * becomes the spine the rest hang on), then repeatedly add the unplaced piece that crosses the most
@@ -99,4 +101,28 @@ export function assemblyOrder(
     placed.add(best);
   }
   return steps;
+}
+
+/**
+ * The suggested order for a built design, from its report alone (so a browser can show it): each crossing's
+ * slide direction is piece a's motion out of its own slot, against the slot's direction, turned into the
+ * model frame by the piece's frame axes.
+ */
+export function assemblyStepsOfReport(report: DesignReport): AssemblyStep[] {
+  const byId = new Map(report.pieces.map((p) => [p.id, p]));
+  const crossings = report.crossings.map((c, i) => {
+    const piece = byId.get(c.a);
+    const slot = piece?.slots?.find((s) => s.crossing === i);
+    if (!piece || !slot) return { a: c.a, b: c.b };
+    const [dx, dy] = slot.direction;
+    const slide = [0, 1, 2].map((k) => -(piece.frameX[k]! * dx + piece.frameY[k]! * dy));
+    const len = Math.hypot(slide[0]!, slide[1]!, slide[2]!);
+    return len > 0
+      ? { a: c.a, b: c.b, slide: slide.map((v) => v / len) as [number, number, number] }
+      : { a: c.a, b: c.b };
+  });
+  return assemblyOrder(
+    report.pieces.map((p) => p.id),
+    crossings,
+  );
 }

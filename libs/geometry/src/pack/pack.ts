@@ -18,7 +18,7 @@ import { layoutModel } from '../layout/plan-layout';
 import { type EstimateMachine, estimateJob } from '../estimate';
 import { type PieceLabels, labelPiece } from '../labels';
 import { type Vec2 } from '../math/vec';
-import { assemblyOrder } from './assembly';
+import { assemblyStepsOfReport } from './assembly';
 import { type Coupon, buildCoupon } from './coupon';
 import { assemblyGuidePdf, setupSheetPdf } from './documents';
 import { sheetToDxf, sheetToSvg } from './sheet-files';
@@ -307,10 +307,7 @@ export async function createCutPack(
     data: await setupSheetPdf({ input, model, sheets, estimate: job, coupon, warnings }),
   });
   progress(0.82);
-  const steps = assemblyOrder(
-    model.pieces.map((p) => p.id),
-    model.report.crossings.map((c, i) => ({ a: c.a, b: c.b, slide: slideDirection(model, i) })),
-  );
+  const steps = assemblyStepsOfReport(model.report);
   files.push({
     name: 'assembly-guide.pdf',
     role: 'assembly-guide',
@@ -383,21 +380,6 @@ export async function createCoupon(
   );
   onProgress?.(1);
   return result;
-}
-
-/**
- * The way piece a of crossing i moves relative to piece b to slide home (unit, model frame): out of its own
- * slot, i.e. against the slot's axis, which points from the opening into the piece. Undefined when piece a
- * has no slot for the crossing.
- */
-function slideDirection(model: BuiltModel, i: number): [number, number, number] | undefined {
-  const c = model.crossings[i];
-  if (!c) return undefined;
-  const piece = model.pieces[c.a];
-  const slot = piece?.slots.find((s) => s.crossing === i);
-  if (!piece || !slot) return undefined;
-  const { x, y } = piece.frame;
-  return [0, 1, 2].map((k) => -(x[k]! * slot.axis[0] + y[k]! * slot.axis[1])) as [number, number, number];
 }
 
 /**

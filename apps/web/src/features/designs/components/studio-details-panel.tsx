@@ -6,6 +6,7 @@ import Tab from '@mui/material/Tab';
 import Tabs from '@mui/material/Tabs';
 import TextField from '@mui/material/TextField';
 import { memo, useMemo } from 'react';
+import { AssemblySteps } from './assembly-steps';
 import { CrossingTable } from './crossing-table';
 import { PieceView2d } from './piece-view-2d';
 import { ReportIssues } from './report-issues';
@@ -20,7 +21,7 @@ interface StudioDetailsPanelProps {
   formatLength: (mm: number) => string;
 }
 
-/** One piece in 2D, the crossings and the validity report. Memoised like the preview panel. */
+/** One piece in 2D, the crossings, the validity report and the assembly order. Memoised like the preview panel. */
 export const StudioDetailsPanel = memo(function StudioDetailsPanel({
   report,
   pieceColour,
@@ -76,6 +77,15 @@ export const StudioDetailsPanel = memo(function StudioDetailsPanel({
         </Stack>
       ) : null}
       {tab === 1 ? <CrossingTable crossings={report.crossings} formatLength={fmt} /> : null}
+      {tab === 3 ? (
+        <AssemblySteps
+          report={report}
+          onSelectPiece={(id) => {
+            onSelectPiece(id);
+            onTab(0);
+          }}
+        />
+      ) : null}
       {tab === 2 ? (
         <ReportIssues
           errors={report.errors}
@@ -112,6 +122,7 @@ const DetailTabs = memo(function DetailTabs({
       <Tab label="Piece" />
       <Tab label={`Crossings (${crossings})`} />
       <Tab label={`Report (${errors} errors, ${warnings} warnings)`} />
+      <Tab label="Assembly" />
     </Tabs>
   );
 });
