@@ -74,6 +74,14 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     expect(await sheets.getByTestId('layout-facts').textContent()).toMatch(/Machine time\d+\.\d min/);
     await sheets.screenshot({ path: path.join(SCREENSHOT_DIR, 'studio-sheet-layout.png') });
 
+    // The assembly order: every piece once (8 hexagons), the first held upright.
+    await page.getByRole('tab', { name: 'Assembly' }).click();
+    const order = page.getByRole('table', { name: 'Assembly order' });
+    await order.waitFor();
+    expect(await order.getByRole('row').count()).toBe(1 + 8);
+    expect(await order.getByRole('row').nth(1).textContent()).toContain('first piece');
+    await page.getByRole('tab', { name: /^Report/ }).click();
+
     await page.getByLabel('Name').fill(designName);
     await page.getByRole('button', { name: 'Save design' }).click();
     await page.waitForURL(/\/designs\/[0-9a-f-]{36}$/);
