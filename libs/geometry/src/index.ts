@@ -72,6 +72,6 @@ export { designPreview } from './layout/design-preview';
 
 // Labels and estimates (browser-safe); the cut pack itself is Node-only: '@kerfwright/geometry/pack'.
 export * from './labels';
-export { assemblyOrder, assemblyStepsOfReport } from './pack/assembly';
+export { assemblyOrder, assemblyStepsOfReport, STRAIGHT_DEG } from './pack/assembly';
 export type { AssemblyStep } from './pack/assembly';
 export * from './estimate';

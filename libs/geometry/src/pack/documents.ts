@@ -2,7 +2,7 @@
 import type { CutPackInput } from '@kerfwright/contracts';
 import { type BuiltModel, pieceOutline3d } from '../build';
 import { type JobEstimate } from '../estimate';
-import { type AssemblyStep } from './assembly';
+import { type AssemblyStep, STRAIGHT_DEG } from './assembly';
 import { type Coupon } from './coupon';
 import { type Pdf, PAGE, drawFlat, drawProjected, ensureRoom, heading, renderPdf, rows } from './pdf';
 import { type SheetDrawing } from './sheet-drawing';
@@ -149,9 +149,6 @@ function countsPerColour(sheets: readonly SheetDrawing[]): string {
 
 const SHADES = ['#f2d39b', '#a9cbe8', '#c8e0b4', '#e8b4b4', '#d6c3e6', '#f0e6a8', '#b8e0dc', '#e0c8a8'];
 
-/** Slots of one step whose slide directions differ by more than this (degrees) get a note for rigid stock. */
-const SLIDE_SPREAD_NOTE_DEG = 2;
-
 export function assemblyGuidePdf(args: {
   input: CutPackInput;
   model: BuiltModel;
@@ -210,12 +207,15 @@ export function assemblyGuidePdf(args: {
         .font('Helvetica')
         .fontSize(9)
         .text(
-          'Start with the piece that crosses the most others, then add at each step the piece that crosses the most ' +
+          (model.spec.stock.flexible
+            ? 'Start with the piece that crosses the most others, then add at each step the piece that crosses the most '
+            : 'Start with the piece that crosses the most others, then add at each step a piece whose slots all run one ' +
+              'way if there is one, and among those the piece that crosses the most ') +
             'pieces already in place, so every new piece is held by at least one placed piece. Slide each slot fully home ' +
             'before the next step. The number engraved beside each slot names the piece that goes into it.',
         );
       const rigid = !model.spec.stock.flexible;
-      const crooked = steps.filter((s) => s.spreadDeg > SLIDE_SPREAD_NOTE_DEG);
+      const crooked = steps.filter((s) => s.spreadDeg > STRAIGHT_DEG);
       if (rigid && crooked.length > 0) {
         doc.moveDown(0.3);
         doc.text(
@@ -231,7 +231,7 @@ export function assemblyGuidePdf(args: {
           ? s.joins.map((j) => `its slot for ${j.piece} onto ${j.piece}'s slot for ${s.piece}`).join('; ')
           : 'hold it upright: it is the first piece';
         const spread =
-          rigid && s.spreadDeg > SLIDE_SPREAD_NOTE_DEG
+          rigid && s.spreadDeg > STRAIGHT_DEG
             ? ` (these slots run up to ${Math.round(s.spreadDeg)}° apart)`
             : '';
         doc.text(`${i + 1}. ${s.piece} (${colourOf(s.piece)}): ${joins}${spread}.`);

@@ -1,5 +1,5 @@
 import { type DesignReport } from '@kerfwright/contracts';
-import { assemblyStepsOfReport } from '@kerfwright/geometry';
+import { assemblyStepsOfReport, STRAIGHT_DEG } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
 import Chip from '@mui/material/Chip';
 import Stack from '@mui/material/Stack';
@@ -10,9 +10,6 @@ import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import { useMemo } from 'react';
-
-/** Slots of one step whose slide directions differ by more than this (degrees) get a note for rigid stock. */
-const SPREAD_NOTE_DEG = 2;
 
 /**
  * The suggested assembly order (the same as the cut pack's assembly guide): each step's new piece, the placed
@@ -27,7 +24,7 @@ export function AssemblySteps({
 }) {
   const steps = useMemo(() => assemblyStepsOfReport(report), [report]);
   const rigid = !report.stock.flexible;
-  const crooked = rigid ? steps.filter((s) => s.spreadDeg > SPREAD_NOTE_DEG).length : 0;
+  const crooked = rigid ? steps.filter((s) => s.spreadDeg > STRAIGHT_DEG).length : 0;
   return (
     <Stack spacing={1}>
       <Alert severity={crooked > 0 ? 'warning' : 'info'} data-testid="assembly-summary">
@@ -58,7 +55,7 @@ export function AssemblySteps({
                   {s.joins.length ? s.joins.map((j) => j.piece).join(', ') : 'first piece: hold it upright'}
                 </TableCell>
                 <TableCell align="right">
-                  {rigid && s.spreadDeg > SPREAD_NOTE_DEG ? `${Math.round(s.spreadDeg)}°` : '—'}
+                  {rigid && s.spreadDeg > STRAIGHT_DEG ? `${Math.round(s.spreadDeg)}°` : '—'}
                 </TableCell>
               </TableRow>
             ))}
