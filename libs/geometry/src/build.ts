@@ -509,7 +509,10 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
     };
   });
 
-  if (!spec.stock.flexible) noteThicknessClashes(pieces, crossings, spec, issues);
+  // Only for designs without errors: those are fixed first, and a design full of them (pieces far too large,
+  // crossing everything) would take the longest to check for the least use.
+  if (!spec.stock.flexible && issues.errors.length === 0)
+    noteThicknessClashes(pieces, crossings, spec, issues);
 
   const report = makeReport(spec, solid, mmPerUnit, pieces, crossings, plan.options, widths, removed, issues);
   report.slotEndsSearched = plan.searched;
@@ -517,9 +520,9 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
 }
 
 /**
- * Rigid stock: warns where two pieces run into each other through the stock's thickness although their
- * mid-planes do not cross there (validity/thickness-clash.ts), one warning per pair of pieces, ahead of the
- * other warnings. A press fit (negative fit allowance) is allowed its interference.
+ * Rigid stock, designs without errors: warns where two pieces run into each other through the stock's
+ * thickness although their mid-planes do not cross there (validity/thickness-clash.ts), one warning per pair
+ * of pieces, ahead of the other warnings. A press fit (negative fit allowance) is allowed its interference.
  */
 function noteThicknessClashes(
   pieces: readonly BuiltPiece[],

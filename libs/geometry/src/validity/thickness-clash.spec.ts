@@ -1,5 +1,6 @@
 import { buildModel, type BuiltModel } from '../build';
 import { design, cubeSquares45, octahedronHexagons } from '../test-support/designs';
+import { CLASH_TOLERANCE_MM, thicknessClashes } from './thickness-clash';
 
 const clashWarnings = (m: BuiltModel) => m.report.warnings.filter((w) => w.code === 'PIECE.THICKNESS_CLASH');
 
@@ -60,24 +61,34 @@ function slabOverlapPoints(m: BuiltModel, a: number, b: number, tol = 0.15): num
 }
 
 describe('pieces running into each other through the stock thickness', () => {
-  it('cube of squares turned 45° stopping short of the edges: warned once the tips enter the neighbours', () => {
+  it('cube of squares turned 45° stopping short of the edges: found once the tips enter the neighbours', () => {
     // Derived: a square |x| + |y| ≤ s·a on the top face reaches x = s·a; the side face's slab starts at
     // x = a − t/2. With a = 80 and t = 3 the tips enter it for s > 0.98125 (plus the 0.1 mm tolerance).
-    const build = (s: number, extra = {}) =>
-      buildModel(cubeSquares45(s, { stock: { thicknessMm: 3 }, ...extra }));
-    expect(clashWarnings(build(0.975))).toEqual([]);
-    const near = clashWarnings(build(0.99));
-    expect(near).toHaveLength(12);
-    for (const w of near) expect(w.pieces).toHaveLength(2);
-    expect(near.map((w) => w.pieces.join('-')).sort()).toEqual(
-      build(1.2)
-        .report.crossings.map((c) => `${c.a}-${c.b}`)
-        .sort(),
-    );
+    // Below s = 1 the squares do not cross at all, an error the builder reports first, so the check is
+    // called directly here on the built pieces.
+    const clashes = (s: number) => {
+      const m = buildModel(cubeSquares45(s, { stock: { thicknessMm: 3 } }));
+      const pairs = thicknessClashes(
+        m.pieces.map((p) => ({ frame: p.frame, outline: p.nominalOutline })),
+        3,
+        CLASH_TOLERANCE_MM,
+        m.crossings,
+      ).map((c) => `${m.pieces[c.a]!.id}-${m.pieces[c.b]!.id}`);
+      return [...new Set(pairs)].sort();
+    };
+    expect(clashes(0.975)).toEqual([]);
+    // One pair per cube edge: the pairs that cross once the squares are larger.
+    const edges = buildModel(cubeSquares45(1.2))
+      .report.crossings.map((c) => `${c.a}-${c.b}`)
+      .sort();
+    expect(edges).toHaveLength(12);
+    expect(clashes(0.99)).toEqual(edges);
     // Crossing properly: the slots make room.
-    expect(clashWarnings(build(1.2))).toEqual([]);
-    // Flexible stock bends out of the way: never warned.
-    expect(clashWarnings(build(0.99, { stock: { thicknessMm: 3, flexible: true } }))).toEqual([]);
+    expect(clashes(1.2)).toEqual([]);
+    // The builder itself reports the missing crossings, not the clashes, for s < 1.
+    const short = buildModel(cubeSquares45(0.99, { stock: { thicknessMm: 3 } })).report;
+    expect(short.errors.map((e) => e.code)).toContain('DESIGN.NO_CROSSINGS');
+    expect(clashWarnings(buildModel(cubeSquares45(0.99)))).toEqual([]);
   });
 
   it('agrees with 3D point sampling: a warned star pair overlaps, slotted designs have no overlap anywhere', () => {
@@ -99,6 +110,17 @@ describe('pieces running into each other through the stock thickness', () => {
       warned.map(() => 'PIECE.THICKNESS_CLASH'),
     );
     expect(stars.report.warnings.some((w) => w.code === 'SLOT.THIN_WEB')).toBe(true);
+    // Flexible stock bends out of the way: never warned.
+    const flexible = buildModel(
+      design({
+        solid: 'tetrahedron',
+        piece: { sides: 7, step: 2, rotationDeg: 285, size: 1.785 },
+        scale: { by: 'diameter', mm: 300 },
+        stock: { thicknessMm: 3.54, flexible: true },
+      }),
+    );
+    expect(flexible.report.errors).toEqual([]);
+    expect(clashWarnings(flexible)).toEqual([]);
     expect(slabOverlapPoints(stars, 0, 1)).toBeGreaterThan(0);
 
     for (const spec of [
