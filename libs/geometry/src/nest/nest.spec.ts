@@ -150,6 +150,24 @@ describe('nestParts — true shape', () => {
     expect(firstSheetCount(r)).toBe(15);
   });
 
+  it.each([0, 27])(
+    'puts 16 decagons on that sheet whichever way the outline is drawn (first vertex at %p°)',
+    (startDeg) => {
+      // Rows of 4 staggered by half a period fit 4 rows when the period is stretched to the sheet (pattern.ts,
+      // stretchedLattices); before, the count depended on how the outline happened to be drawn (15 or 16).
+      const outline = regular(10, 60, startDeg);
+      const input: NestInput = {
+        sheet: { widthMm: 600, heightMm: 400 },
+        marginMm: 0,
+        gapMm: 3,
+        parts: [{ id: 'dec', outline, quantity: 30 }],
+      };
+      const r = nestParts(input);
+      checkLayout(input, r);
+      expect(firstSheetCount(r)).toBe(16);
+    },
+  );
+
   it('nests slotted {8/3} and {5/2} stars given clockwise, with a margin, without overlap', () => {
     const s83 = withSlot(withSlot(star(8, 3, 70), 4, 3, 20), 0, 3, 20);
     const s52 = withSlot(withSlot(star(5, 2, 50), 4, 3, 12), 0, 3, 12).reverse(); // clockwise
