@@ -116,19 +116,25 @@ function cellNfp(cache: GeometryCache, cell: readonly CellPiece[]): IntPaths {
   return unionPaths(all);
 }
 
+/** Whether every k·(ax, 0), k ≥ 1, is clear of the cell's no-fit polygon (up to `width`, its extent). */
+function rowClear(nfp: IntPaths, ax: number, width: number): boolean {
+  for (let k = 1; k * ax <= width + ax; k++) if (insideAt(nfp, k * ax, 0)) return false;
+  return true;
+}
+
+/** Whether the second row of the lattice, 2b + k·a for small k, is clear too. */
+function secondRowClear(nfp: IntPaths, { ax, bx, by }: Lattice): boolean {
+  for (let k = -3; k <= 3; k++) if (insideAt(nfp, 2 * bx + k * ax, 2 * by)) return false;
+  return true;
+}
+
 /** Smallest ax > 0 such that every k·(ax, 0), k ≥ 1, is clear of the cell's no-fit polygon. */
 function rowPeriod(nfp: IntPaths, width: number): number | null {
   const xs = crossingsAtY(nfp, 0);
-  const exits: number[] = [];
-  for (let i = 1; i < xs.length; i += 2) if (xs[i]! > 0) exits.push(Math.ceil(xs[i]!) + 1);
-  for (const ax of exits) {
-    let ok = true;
-    for (let k = 1; k * ax <= width + ax; k++)
-      if (insideAt(nfp, k * ax, 0)) {
-        ok = false;
-        break;
-      }
-    if (ok) return ax;
+  for (let i = 1; i < xs.length; i += 2) {
+    if (!(xs[i]! > 0)) continue;
+    const ax = Math.ceil(xs[i]!) + 1;
+    if (rowClear(nfp, ax, width)) return ax;
   }
   return null;
 }
@@ -158,16 +164,25 @@ interface Lattice {
   by: number;
 }
 
+/** A cell's no-fit polygon with its bounding box and vertical-line index, built once per cell. */
+interface CellNfp {
+  paths: IntPaths;
+  box: ReturnType<typeof boxOfPaths>;
+  index: VerticalIndex;
+}
+
+function cellNfpView(paths: IntPaths): CellNfp {
+  return { paths, box: boxOfPaths(paths), index: new VerticalIndex(paths) };
+}
+
 /**
  * Candidate lattices for the cell: the row period, then the lowest clear second vector for a sweep of
  * horizontal offsets. Returns the densest few plus the rectangular one (bx = 0), since the fullest sheet is
  * not always the densest lattice.
  */
-function candidateLattices(nfp: IntPaths, keep = 6): Lattice[] {
-  const box = boxOfPaths(nfp);
+function candidateLattices({ paths: nfp, box, index }: CellNfp, keep = 6): Lattice[] {
   const ax = rowPeriod(nfp, box.maxX - box.minX);
   if (ax === null) return [];
-  const index = new VerticalIndex(nfp);
   const samples = new Set<number>();
   const steps = 32;
   for (let i = 0; i < steps; i++) samples.add(Math.round((i * ax) / steps));
@@ -181,11 +196,8 @@ function candidateLattices(nfp: IntPaths, keep = 6): Lattice[] {
   }
   const found: Lattice[] = [];
   for (const bx of samples) {
-    const by = lowestClear(index, box, ax, bx);
-    // Second row of the lattice must be clear too (2b + k·a).
-    let ok = true;
-    for (let k = -3; k <= 3 && ok; k++) if (insideAt(nfp, 2 * bx + k * ax, 2 * by)) ok = false;
-    if (ok) found.push({ ax, bx, by });
+    const lat = { ax, bx, by: lowestClear(index, box, ax, bx) };
+    if (secondRowClear(nfp, lat)) found.push(lat);
   }
   found.sort((p, q) => p.by - q.by || p.bx - q.bx);
   const out: Lattice[] = [];
@@ -207,30 +219,23 @@ function candidateLattices(nfp: IntPaths, keep = 6): Lattice[] {
  * range the cell's reference point may take across the sheet, in integer units; fewer cells per row are tried
  * too.
  */
-function stretchedLattices(nfp: IntPaths, base: readonly Lattice[], span: number): Lattice[] {
+function stretchedLattices(
+  { paths: nfp, box, index }: CellNfp,
+  base: readonly Lattice[],
+  span: number,
+): Lattice[] {
   if (base.length === 0 || !(span > 0)) return [];
-  const box = boxOfPaths(nfp);
-  const index = new VerticalIndex(nfp);
   const ax0 = base[0]!.ax;
   const perRow = Math.floor(span / ax0) + 1;
   const out: Lattice[] = [];
   for (let n = perRow; n >= Math.max(2, perRow - 1); n--) {
     const ax = Math.floor(span / (n - 0.5));
-    if (ax <= ax0) continue;
+    if (ax <= ax0 || !rowClear(nfp, ax, box.maxX - box.minX)) continue;
     const bx = Math.round(ax / 2);
-    const by = lowestClear(index, box, ax, bx);
-    let ok = true;
-    for (let k = -3; k <= 3 && ok; k++) if (insideAt(nfp, 2 * bx + k * ax, 2 * by)) ok = false;
-    if (k0Clear(nfp, ax) && ok) out.push({ ax, bx, by });
+    const lat = { ax, bx, by: lowestClear(index, box, ax, bx) };
+    if (secondRowClear(nfp, lat)) out.push(lat);
   }
   return out;
-}
-
-/** Whether every k·(ax, 0), k ≥ 1, within the no-fit polygon's reach, is clear. */
-function k0Clear(nfp: IntPaths, ax: number): boolean {
-  const box = boxOfPaths(nfp);
-  for (let k = 1; k * ax <= box.maxX + ax; k++) if (insideAt(nfp, k * ax, 0)) return false;
-  return true;
 }
 
 /** Slots of a lattice of cells on one sheet, for a few origin shifts; the fullest wins. */
@@ -503,7 +508,7 @@ function searchPattern(
   const allowed = new Set(rotationsDeg.map((d) => Math.round((((d % 360) + 360) % 360) * 1e6)));
   const results: PatternResult[] = [...convexLatticePatterns(cache, frame, partIndex, rotationsDeg, free)];
   const consider = (cell: CellPiece[], label: string) => {
-    const nfp = cellNfp(cache, cell);
+    const nfp = cellNfpView(cellNfp(cache, cell));
     const lattices = candidateLattices(nfp);
     for (const lat of [...lattices, ...stretchedLattices(nfp, lattices, rowSpan(frame, cell))]) {
       const slots = fillSheet(frame, cell, lat);

@@ -64,19 +64,17 @@ export function assemblyOrder(
   crossings: readonly { a: string; b: string; slide?: Dir }[],
   options: { preferStraight?: boolean } = {},
 ): AssemblyStep[] {
-  const degree = new Map(pieceIds.map((id) => [id, 0]));
-  for (const c of crossings) {
-    degree.set(c.a, (degree.get(c.a) ?? 0) + 1);
-    degree.set(c.b, (degree.get(c.b) ?? 0) + 1);
-  }
+  // Each piece's crossings, in crossing order: its partner and the crossing's index.
+  const links = new Map<string, { piece: string; crossing: number }[]>(pieceIds.map((id) => [id, []]));
+  crossings.forEach((c, i) => {
+    links.get(c.a)?.push({ piece: c.b, crossing: i });
+    links.get(c.b)?.push({ piece: c.a, crossing: i });
+  });
+  const degree = (id: string) => links.get(id)?.length ?? 0;
   const placed = new Set<string>();
   const steps: AssemblyStep[] = [];
   const index = new Map(pieceIds.map((id, i) => [id, i]));
-  const joinsOf = (id: string) =>
-    crossings
-      .map((c, i) => ({ c, i }))
-      .filter(({ c }) => (c.a === id && placed.has(c.b)) || (c.b === id && placed.has(c.a)))
-      .map(({ c, i }) => ({ piece: c.a === id ? c.b : c.a, crossing: i }));
+  const joinsOf = (id: string) => (links.get(id) ?? []).filter((l) => placed.has(l.piece));
   while (placed.size < pieceIds.length) {
     let best: string | null = null;
     let bestKey: number[] = [];
@@ -91,7 +89,7 @@ export function assemblyOrder(
           crossings,
         ),
       );
-      const rest = [joins.length, degree.get(id) ?? 0, -spread, -(index.get(id) ?? 0)];
+      const rest = [joins.length, degree(id), -spread, -(index.get(id) ?? 0)];
       const key = options.preferStraight
         ? [joins.length > 0 ? 1 : 0, spread <= STRAIGHT_DEG ? 1 : 0, ...rest]
         : rest;

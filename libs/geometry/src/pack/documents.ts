@@ -202,19 +202,19 @@ export function assemblyGuidePdf(args: {
         .font('Helvetica')
         .fontSize(8)
         .text('Orthographic view of the assembled model; shading by stock colour.');
+      const rigid = !model.spec.stock.flexible;
       heading(doc, 'Suggested order');
       doc
         .font('Helvetica')
         .fontSize(9)
         .text(
-          (model.spec.stock.flexible
-            ? 'Start with the piece that crosses the most others, then add at each step the piece that crosses the most '
-            : 'Start with the piece that crosses the most others, then add at each step a piece whose slots all run one ' +
-              'way if there is one, and among those the piece that crosses the most ') +
+          'Start with the piece that crosses the most others, then add at each step ' +
+            (rigid
+              ? 'a piece whose slots all run one way if there is one, and among those the piece that crosses the most '
+              : 'the piece that crosses the most ') +
             'pieces already in place, so every new piece is held by at least one placed piece. Slide each slot fully home ' +
             'before the next step. The number engraved beside each slot names the piece that goes into it.',
         );
-      const rigid = !model.spec.stock.flexible;
       const crooked = steps.filter((s) => s.spreadDeg > STRAIGHT_DEG);
       if (rigid && crooked.length > 0) {
         doc.moveDown(0.3);

@@ -59,10 +59,9 @@ export function thicknessClashes(
   const out: ThicknessClash[] = [];
   const step = Math.max(0.25, thicknessMm / 4);
   // Each piece's distance from its frame's origin.
-  const outlines = pieces.map((p) => p.outline);
-  const radius = outlines.map((o) => o.reduce((r, q) => Math.max(r, Math.hypot(q[0], q[1])), 0));
+  const radius = pieces.map((p) => p.outline.reduce((r, q) => Math.max(r, Math.hypot(q[0], q[1])), 0));
   // Convex hulls: a quick first look at each pair (a hull's stretch near L contains the outline's).
-  const hulls = outlines.map((o) => convexHull2(o));
+  const hulls = pieces.map((p) => convexHull2(p.outline));
   for (let i = 0; i < pieces.length; i++) {
     for (let j = i + 1; j < pieces.length; j++) {
       const A = pieces[i] as SlabPiece;
@@ -80,10 +79,11 @@ export function thicknessClashes(
       const skip = crossed.get(`${i}-${j}`) ?? [];
       const ha = bandRange(A.frame, hulls[i]!, line.point, line.dir, reach);
       const hb = ha && bandRange(B.frame, hulls[j]!, line.point, line.dir, reach);
-      if (!ha || !hb || !sampled(Math.max(ha.from, hb.from), Math.min(ha.to, hb.to), step, skip)) continue;
-      const sa = bandSection(A.frame, outlines[i]!, line.point, line.dir, reach);
+      if (!ha || !hb) continue;
+      if (samplePoints(Math.max(ha.from, hb.from), Math.min(ha.to, hb.to), step, skip).next().done) continue;
+      const sa = bandSection(A.frame, A.outline, line.point, line.dir, reach);
       if (!sa) continue;
-      const sb = bandSection(B.frame, outlines[j]!, line.point, line.dir, reach);
+      const sb = bandSection(B.frame, B.outline, line.point, line.dir, reach);
       if (!sb) continue;
       const t0 = Math.max(sa.from, sb.from);
       const t1 = Math.min(sa.to, sb.to);
@@ -95,13 +95,11 @@ export function thicknessClashes(
         if (runStart !== null) out.push({ a: i, b: j, from: runStart, to: runEnd, ...line });
         runStart = null;
       };
-      for (let t = t0 + step / 2; t < t1; t += step) {
-        const inside = skip.find((iv) => t > iv[0] && t < iv[1]);
-        if (inside) {
-          flush();
-          t = inside[1] - step / 2;
-          continue;
-        }
+      let previous = -Infinity;
+      for (const t of samplePoints(t0, t1, step, skip)) {
+        // A skipped stretch ends a run.
+        if (t - previous > step * 1.5) flush();
+        previous = t;
         const ca = sa.chords(t);
         if (ca.length > 0 && slabsMeet(ca, sb.chords(t), quad)) {
           runStart ??= t - step / 2;
@@ -114,14 +112,21 @@ export function thicknessClashes(
   return out;
 }
 
-/** Whether any sample point t0 + step/2 + k·step below t1 lies outside every skipped stretch. */
-function sampled(t0: number, t1: number, step: number, skip: readonly [number, number][]): boolean {
+/**
+ * Sample points t0 + step/2 + k·step below t1, leaving out the skipped stretches; after a stretch the
+ * sampling starts again half a step past its end.
+ */
+function* samplePoints(
+  t0: number,
+  t1: number,
+  step: number,
+  skip: readonly [number, number][],
+): Generator<number> {
   for (let t = t0 + step / 2; t < t1; t += step) {
     const inside = skip.find((iv) => t > iv[0] && t < iv[1]);
-    if (!inside) return true;
-    t = inside[1] - step / 2;
+    if (inside) t = inside[1] - step / 2;
+    else yield t;
   }
-  return false;
 }
 
 /**

@@ -32,6 +32,11 @@ export const StudioDetailsPanel = memo(function StudioDetailsPanel({
   formatLength: fmt,
 }: StudioDetailsPanelProps) {
   const piece = report.pieces.find((p) => p.id === selectedPiece) ?? report.pieces[0];
+  // A piece chip in the report or the assembly order opens that piece.
+  const showPiece = (id: string) => {
+    onSelectPiece(id);
+    onTab(0);
+  };
   const flaggedPieces = useMemo(
     () => new Set([...report.errors, ...report.warnings].flatMap((i) => i.pieces)),
     [report],
@@ -77,25 +82,10 @@ export const StudioDetailsPanel = memo(function StudioDetailsPanel({
         </Stack>
       ) : null}
       {tab === 1 ? <CrossingTable crossings={report.crossings} formatLength={fmt} /> : null}
-      {tab === 3 ? (
-        <AssemblySteps
-          report={report}
-          onSelectPiece={(id) => {
-            onSelectPiece(id);
-            onTab(0);
-          }}
-        />
-      ) : null}
       {tab === 2 ? (
-        <ReportIssues
-          errors={report.errors}
-          warnings={report.warnings}
-          onSelectPiece={(id) => {
-            onSelectPiece(id);
-            onTab(0);
-          }}
-        />
+        <ReportIssues errors={report.errors} warnings={report.warnings} onSelectPiece={showPiece} />
       ) : null}
+      {tab === 3 ? <AssemblySteps report={report} onSelectPiece={showPiece} /> : null}
     </Paper>
   );
 });
