@@ -1,4 +1,4 @@
-import { type Vec2, at, cross2, sub2 } from './vec';
+import { type Vec2, at } from './vec';
 
 /** A simple polygon as a list of 2D points (mm), without repeating the first point. */
 export type Polygon = readonly Vec2[];
@@ -141,21 +141,60 @@ export function containsPoint(poly: Polygon, q: Vec2): boolean {
 export function convexHull2(points: readonly Vec2[]): Vec2[] {
   const pts = [...points].sort((p, q) => p[0] - q[0] || p[1] - q[1]);
   if (pts.length < 3) return pts;
-  const turn = (o: Vec2, a: Vec2, b: Vec2) => cross2(sub2(a, o), sub2(b, o));
-  const lower: Vec2[] = [];
-  for (const p of pts) {
-    while (lower.length >= 2 && turn(at(lower, lower.length - 2), at(lower, lower.length - 1), p) <= 0)
-      lower.pop();
-    lower.push(p);
+  // Whether o → a → b turns left (counter-clockwise), written out: this runs for every vertex of every
+  // outline the nesting and the checks look at.
+  const left = (o: Vec2, a: Vec2, b: Vec2) =>
+    (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]) > 0;
+  const chain = (from: number, to: number, by: number): Vec2[] => {
+    const out: Vec2[] = [];
+    for (let i = from; i !== to; i += by) {
+      const p = pts[i] as Vec2;
+      while (out.length >= 2 && !left(out[out.length - 2] as Vec2, out[out.length - 1] as Vec2, p)) out.pop();
+      out.push(p);
+    }
+    out.pop();
+    return out;
+  };
+  return chain(0, pts.length, 1).concat(chain(pts.length - 1, -1, -1));
+}
+
+/**
+ * Convex hull of a simple polygon (no self-crossings) in linear time: Melkman's algorithm (A. A. Melkman,
+ * "On-line construction of the convex hull of a simple polyline", Information Processing Letters 25(1),
+ * 1987), counter-clockwise, without collinear points. Falls back to convexHull2 when the first three vertices
+ * are collinear or the outline turns out not to be simple. The outlines the checks look at have hundreds of vertices (router reliefs); sorting them
+ * was most of the cost of their hulls.
+ */
+export function simplePolygonHull(poly: readonly Vec2[]): Vec2[] {
+  const n = poly.length;
+  if (n < 4) return convexHull2(poly);
+  const turn = (o: Vec2, a: Vec2, b: Vec2) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const [p0, p1, p2] = [poly[0], poly[1], poly[2]] as [Vec2, Vec2, Vec2];
+  const first = turn(p0, p1, p2);
+  if (first === 0) return convexHull2(poly);
+  // A deque in an array of 2n + 1 slots, bottom and top both holding the last point added.
+  const d: Vec2[] = new Array(2 * n + 1);
+  let bot = n - 2;
+  let top = bot + 3;
+  d[top] = d[bot] = p2;
+  if (first > 0) {
+    d[bot + 1] = p0;
+    d[bot + 2] = p1;
+  } else {
+    d[bot + 1] = p1;
+    d[bot + 2] = p0;
   }
-  const upper: Vec2[] = [];
-  for (let i = pts.length - 1; i >= 0; i--) {
-    const p = at(pts, i);
-    while (upper.length >= 2 && turn(at(upper, upper.length - 2), at(upper, upper.length - 1), p) <= 0)
-      upper.pop();
-    upper.push(p);
+  for (let i = 3; i < n; i++) {
+    const v = poly[i] as Vec2;
+    // Inside the hull so far: nothing changes.
+    if (turn(d[bot] as Vec2, d[bot + 1] as Vec2, v) > 0 && turn(d[top - 1] as Vec2, d[top] as Vec2, v) > 0)
+      continue;
+    // The walks stop at an edge v lies left of; one always exists for a simple polyline, so running off
+    // the deque means the outline was not simple (or degenerate): then the general hull is used.
+    while (turn(d[bot] as Vec2, d[bot + 1] as Vec2, v) <= 0) if (++bot >= top) return convexHull2(poly);
+    d[--bot] = v;
+    while (turn(d[top - 1] as Vec2, d[top] as Vec2, v) <= 0) if (--top <= bot) return convexHull2(poly);
+    d[++top] = v;
   }
-  lower.pop();
-  upper.pop();
-  return lower.concat(upper);
+  return d.slice(bot, top);
 }

@@ -15,12 +15,12 @@
  * slabs are shrunk by a tolerance so that a press fit (negative fit allowance) does not count either.
  */
 import { type Vec2, type Vec3, cross3, dot3, scale3, add3 } from '../math/vec';
-import { type Polygon, convexHull2 } from '../math/polygon';
+import { type Polygon, simplePolygonHull } from '../math/polygon';
 import { type PieceFrame, dirToFrame, planeLine, toFrame } from '../pieces/place';
 
 export interface SlabPiece {
   frame: PieceFrame;
-  /** Outline as cut (slots and reliefs included), in the piece's frame, mm. */
+  /** Outline as cut (slots and reliefs included), a simple polygon in the piece's frame, mm. */
   outline: Polygon;
 }
 
@@ -40,7 +40,8 @@ export const CLASH_TOLERANCE_MM = 0.1;
 /**
  * Places where two pieces of `thicknessMm` stock run into each other through their thickness (see the
  * module comment). `toleranceMm` is how deep the slabs may overlap before it counts. Sampled along the
- * common line every max(0.25, t/4) mm; a clash shorter than a step can be missed.
+ * common line at the midpoints of steps of max(0.25, t/4) mm counted from the line's point; a clash shorter
+ * than a step can be missed.
  */
 export function thicknessClashes(
   pieces: readonly SlabPiece[],
@@ -58,10 +59,14 @@ export function thicknessClashes(
   if (!(h > 0)) return [];
   const out: ThicknessClash[] = [];
   const step = Math.max(0.25, thicknessMm / 4);
+  const hulls = pieces.map((p) => flatten(simplePolygonHull(p.outline)));
+  const longest = Math.max(0, ...hulls.map((b) => b.xs.length));
+  const scratch = { e: [0, 0, 0] as Vec3, ts: new Float64Array(longest), us: new Float64Array(longest) };
   // Each piece's distance from its frame's origin.
-  const radius = pieces.map((p) => p.outline.reduce((r, q) => Math.max(r, Math.hypot(q[0], q[1])), 0));
-  // Convex hulls: a quick first look at each pair (a hull's stretch near L contains the outline's).
-  const hulls = pieces.map((p) => convexHull2(p.outline));
+  const radius = hulls.map(({ xs, ys }) => xs.reduce((r, x, k) => Math.max(r, Math.hypot(x, ys[k]!)), 0));
+  // Flattened when a pair first needs them.
+  const outlines: Flat[] = [];
+  const outline = (i: number) => (outlines[i] ??= flatten((pieces[i] as SlabPiece).outline));
   for (let i = 0; i < pieces.length; i++) {
     for (let j = i + 1; j < pieces.length; j++) {
       const A = pieces[i] as SlabPiece;
@@ -76,19 +81,25 @@ export function thicknessClashes(
       // A piece farther from L (in its plane) than its radius plus the reach cannot take part.
       if (inPlaneDistance(A.frame, line.point, line.dir) > radius[i]! + reach) continue;
       if (inPlaneDistance(B.frame, line.point, line.dir) > radius[j]! + reach) continue;
+      // Where both hulls come within reach of L: the outlines' chords can meet there only.
+      const ra = bandRange(project(A.frame, hulls[i]!, line.point, line.dir, scratch), reach);
+      const rb = ra && bandRange(project(B.frame, hulls[j]!, line.point, line.dir, scratch), reach);
+      if (!ra || !rb) continue;
       const skip = crossed.get(`${i}-${j}`) ?? [];
-      const ha = bandRange(A.frame, hulls[i]!, line.point, line.dir, reach);
-      const hb = ha && bandRange(B.frame, hulls[j]!, line.point, line.dir, reach);
-      if (!ha || !hb) continue;
-      if (samplePoints(Math.max(ha.from, hb.from), Math.min(ha.to, hb.to), step, skip).next().done) continue;
-      const sa = bandSection(A.frame, A.outline, line.point, line.dir, reach);
+      if (samplePoints(Math.max(ra.from, rb.from), Math.min(ra.to, rb.to), step, skip).next().done) continue;
+      // The same for the outlines themselves (slots take material away near L): the stretch sampled.
+      const pa = project(A.frame, outline(i), line.point, line.dir);
+      const sa = bandRange(pa, reach);
       if (!sa) continue;
-      const sb = bandSection(B.frame, B.outline, line.point, line.dir, reach);
+      const pb = project(B.frame, outline(j), line.point, line.dir);
+      const sb = bandRange(pb, reach);
       if (!sb) continue;
       const t0 = Math.max(sa.from, sb.from);
       const t1 = Math.min(sa.to, sb.to);
       if (!(t1 > t0)) continue;
-      const quad = rhombus(A, B, sa.e, sb.e, h);
+      const quad = rhombus(A, B, pa.e, pb.e, h);
+      const chordsA = sweep(pa, t0, t1, reach);
+      const chordsB = sweep(pb, t0, t1, reach);
       let runStart: number | null = null;
       let runEnd = 0;
       const flush = () => {
@@ -100,8 +111,8 @@ export function thicknessClashes(
         // A skipped stretch ends a run.
         if (t - previous > step * 1.5) flush();
         previous = t;
-        const ca = sa.chords(t);
-        if (ca.length > 0 && slabsMeet(ca, sb.chords(t), quad)) {
+        const ca = chordsA(t);
+        if (ca.length > 0 && slabsMeet(ca, chordsB(t), quad)) {
           runStart ??= t - step / 2;
           runEnd = t + step / 2;
         } else flush();
@@ -113,8 +124,8 @@ export function thicknessClashes(
 }
 
 /**
- * Sample points t0 + step/2 + k·step below t1, leaving out the skipped stretches; after a stretch the
- * sampling starts again half a step past its end.
+ * Sample points (k + ½)·step in (t0, t1), leaving out the skipped stretches; after a stretch the sampling
+ * starts again half a step past its end.
  */
 function* samplePoints(
   t0: number,
@@ -122,39 +133,71 @@ function* samplePoints(
   step: number,
   skip: readonly [number, number][],
 ): Generator<number> {
-  for (let t = t0 + step / 2; t < t1; t += step) {
+  for (let t = (Math.floor(t0 / step) + 0.5) * step; t < t1; t += step) {
     const inside = skip.find((iv) => t > iv[0] && t < iv[1]);
     if (inside) t = inside[1] - step / 2;
-    else yield t;
+    else if (t > t0) yield t;
   }
 }
 
-/**
- * Parameter range along the line (point, dir) of the outline's parts within `reach` of it in the piece's
- * plane (the band region's extent along the line is reached on its boundary, and the band lines' pieces
- * inside the outline end on the outline). Null when the outline stays farther away.
- */
-function bandRange(
-  frame: PieceFrame,
-  outline: Polygon,
-  point: Vec3,
-  dir: Vec3,
-  reach: number,
-): { from: number; to: number } | null {
+/** An outline's coordinates, flat. */
+interface Flat {
+  xs: Float64Array;
+  ys: Float64Array;
+}
+
+function flatten(outline: Polygon): Flat {
+  const n = outline.length;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const q = outline[k] as Vec2;
+    xs[k] = q[0];
+    ys[k] = q[1];
+  }
+  return { xs, ys };
+}
+
+/** An outline in (t, u): t along the line L, u across it in the piece's plane (along e). */
+interface Projected {
+  e: Vec3;
+  ts: Float64Array;
+  us: Float64Array;
+}
+
+/** The outline in (t, u) coordinates; into `reuse`'s arrays when given (they must be long enough). */
+function project(frame: PieceFrame, { xs, ys }: Flat, point: Vec3, dir: Vec3, reuse?: Projected): Projected {
   const e = cross3(frame.normal, dir);
-  const o = toFrame(frame, point);
-  const d2 = dirToFrame(frame, dir);
-  const e2 = dirToFrame(frame, e);
+  const [ox, oy] = toFrame(frame, point);
+  const [dx, dy] = dirToFrame(frame, dir);
+  const [ex, ey] = dirToFrame(frame, e);
+  const n = xs.length;
+  const ts = reuse ? reuse.ts.subarray(0, n) : new Float64Array(n);
+  const us = reuse ? reuse.us.subarray(0, n) : new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const x = xs[k]! - ox;
+    const y = ys[k]! - oy;
+    ts[k] = x * dx + y * dy;
+    us[k] = x * ex + y * ey;
+  }
+  return { e, ts, us };
+}
+
+/**
+ * Parameter range along L of the outline's parts within `reach` of it in the piece's plane (the band
+ * region's extent along the line is reached on its boundary, and the band lines' pieces inside the outline
+ * end on the outline). Null when the outline stays farther away.
+ */
+function bandRange({ ts, us }: Projected, reach: number): { from: number; to: number } | null {
   let from = Infinity;
   let to = -Infinity;
-  const n = outline.length;
+  const n = ts.length;
   for (let k = 0; k < n; k++) {
-    const qa = outline[k] as Vec2;
-    const qb = outline[(k + 1) % n] as Vec2;
-    const ta = (qa[0] - o[0]) * d2[0] + (qa[1] - o[1]) * d2[1];
-    const ua = (qa[0] - o[0]) * e2[0] + (qa[1] - o[1]) * e2[1];
-    const tb = (qb[0] - o[0]) * d2[0] + (qb[1] - o[1]) * d2[1];
-    const ub = (qb[0] - o[0]) * e2[0] + (qb[1] - o[1]) * e2[1];
+    const k2 = k + 1 === n ? 0 : k + 1;
+    const ta = ts[k]!;
+    const ua = us[k]!;
+    const tb = ts[k2]!;
+    const ub = us[k2]!;
     // Clip the edge to |u| ≤ reach.
     let lo = 0;
     let hi = 1;
@@ -163,9 +206,9 @@ function bandRange(
       if (Math.abs(ua) > reach) continue;
     } else {
       const k1 = (-reach - ua) / du;
-      const k2 = (reach - ua) / du;
-      lo = Math.max(lo, Math.min(k1, k2));
-      hi = Math.min(hi, Math.max(k1, k2));
+      const k3 = (reach - ua) / du;
+      lo = Math.max(lo, Math.min(k1, k3));
+      hi = Math.min(hi, Math.max(k1, k3));
       if (lo > hi) continue;
     }
     const x0 = ta + (tb - ta) * lo;
@@ -183,94 +226,80 @@ function inPlaneDistance(frame: PieceFrame, point: Vec3, dir: Vec3): number {
   return Math.abs(o[0] * d[1] - o[1] * d[0]) / Math.hypot(d[0], d[1]);
 }
 
-interface BandSection {
-  /** The piece's in-plane direction perpendicular to L (3D, unit). */
-  e: Vec3;
-  /** Range along L where the piece's outline comes within `reach` of L. */
-  from: number;
-  to: number;
-  /**
-   * Chords of the piece across L at parameter t: offsets along e, within reach of L. Calls must come in
-   * increasing t (a sweep: only the edges spanning t are kept, so a chord costs the few edges it crosses).
-   */
-  chords: (t: number) => [number, number][];
-}
-
-function bandSection(
-  frame: PieceFrame,
-  outline: Polygon,
-  point: Vec3,
-  dir: Vec3,
+/**
+ * A sweep over [t0, t1]: the chords of the outline across L at parameter t (offsets along e, within reach of
+ * L), for t in increasing order. Only the edges spanning t are kept, so a chord costs the few edges it
+ * crosses; the edges meeting the window are ordered by a counting sort.
+ */
+function sweep(
+  { ts, us }: Projected,
+  t0: number,
+  t1: number,
   reach: number,
-): BandSection | null {
-  const range = bandRange(frame, outline, point, dir, reach);
-  if (!range) return null;
-  const e = cross3(frame.normal, dir);
-  const o = toFrame(frame, point);
-  const d2 = dirToFrame(frame, dir);
-  const e2 = dirToFrame(frame, e);
-  // The outline in (t, u): t along L, u along e.
-  const n = outline.length;
-  const ts = new Float64Array(n);
-  const us = new Float64Array(n);
+): (t: number) => [number, number][] {
+  const n = ts.length;
+  // Edges ordered by their lower t on a grid of n buckets: an edge may join the active list a little early,
+  // which the cut test allows for. A chord at t crosses the edges with tLow ≤ t < tHigh (half-open, so a
+  // vertex on the chord is counted once).
+  const width = (t1 - t0) / n || 1;
+  const bucket = new Int32Array(n);
+  const start = new Int32Array(n + 1);
   for (let k = 0; k < n; k++) {
-    const q = outline[k] as Vec2;
-    const dx = q[0] - o[0];
-    const dy = q[1] - o[1];
-    ts[k] = dx * d2[0] + dy * d2[1];
-    us[k] = dx * e2[0] + dy * e2[1];
+    const ta = ts[k]!;
+    const tb = ts[k + 1 === n ? 0 : k + 1]!;
+    const low = Math.min(ta, tb);
+    if (low > t1 || Math.max(ta, tb) <= t0) bucket[k] = -1;
+    else {
+      const b = Math.max(0, Math.min(n - 1, Math.floor((low - t0) / width)));
+      bucket[k] = b;
+      start[b + 1]!++;
+    }
   }
-  // Edges by their lower t; a chord at t crosses the edges with tLow ≤ t < tHigh (half-open, so a vertex
-  // on the chord is counted once).
-  let order: number[] | null = null;
+  for (let b = 0; b < n; b++) start[b + 1]! += start[b]!;
+  const order = new Int32Array(start[n]!);
+  const fill = start.slice(0, n);
+  for (let k = 0; k < n; k++) if (bucket[k]! >= 0) order[fill[bucket[k]!]!++] = k;
   let next = 0;
   const active: number[] = [];
-  return {
-    e,
-    ...range,
-    chords: (t) => {
-      // Sorted on first use: most pairs are turned away on their ranges alone.
-      if (!order) {
-        const low = new Float64Array(n);
-        for (let k = 0; k < n; k++) low[k] = Math.min(ts[k]!, ts[(k + 1) % n]!);
-        order = Array.from({ length: n }, (_, k) => k).sort((a, b) => low[a]! - low[b]!);
-      }
-      while (next < n) {
-        const k = order[next]!;
-        if (Math.min(ts[k]!, ts[(k + 1) % n]!) > t) break;
-        active.push(k);
-        next++;
-      }
-      // Drop the edges that end before t (in place), and cut the others.
-      const cuts: number[] = [];
-      let kept = 0;
-      for (let i = 0; i < active.length; i++) {
-        const k = active[i]!;
-        const k2 = (k + 1) % n;
-        const ta = ts[k]!;
-        const tb = ts[k2]!;
-        if (Math.max(ta, tb) <= t) continue;
-        active[kept++] = k;
-        if (ta === tb || t < Math.min(ta, tb)) continue;
-        cuts.push(us[k]! + ((t - ta) * (us[k2]! - us[k]!)) / (tb - ta));
-      }
-      active.length = kept;
-      cuts.sort((a, b) => a - b);
-      const out: [number, number][] = [];
-      for (let i = 0; i + 1 < cuts.length; i += 2) {
-        const lo = cuts[i]!;
-        const hi = cuts[i + 1]!;
-        if (hi > -reach && lo < reach && hi > lo) out.push([lo, hi]);
-      }
-      return out;
-    },
+  const cuts: number[] = [];
+  return (t) => {
+    const upTo = start[Math.max(0, Math.min(n, Math.floor((t - t0) / width) + 1))]!;
+    for (; next < upTo; next++) active.push(order[next]!);
+    // Drop the edges that end before t (in place), and cut the others.
+    cuts.length = 0;
+    let kept = 0;
+    for (let i = 0; i < active.length; i++) {
+      const k = active[i]!;
+      const k2 = k + 1 === n ? 0 : k + 1;
+      const ta = ts[k]!;
+      const tb = ts[k2]!;
+      if (Math.max(ta, tb) <= t) continue;
+      active[kept++] = k;
+      if (ta === tb || t < Math.min(ta, tb)) continue;
+      cuts.push(us[k]! + ((t - ta) * (us[k2]! - us[k]!)) / (tb - ta));
+    }
+    active.length = kept;
+    cuts.sort((a, b) => a - b);
+    const out: [number, number][] = [];
+    for (let i = 0; i + 1 < cuts.length; i += 2) {
+      const lo = cuts[i]!;
+      const hi = cuts[i + 1]!;
+      if (hi > -reach && lo < reach && hi > lo) out.push([lo, hi]);
+    }
+    return out;
   };
 }
 
-/** The slabs' crossing (shrunk to half-thickness h) in (u, s) coordinates: 4 corners and 2 edge normals. */
+/**
+ * The slabs' crossing (shrunk to half-thickness h) in (u, s) coordinates: its bounding box, and its extent
+ * along each of its two edge normals (the separating axes).
+ */
 interface Quad {
-  corners: Vec2[];
-  normals: Vec2[];
+  uMin: number;
+  uMax: number;
+  sMin: number;
+  sMax: number;
+  axes: { nx: number; ny: number; min: number; max: number }[];
 }
 
 function rhombus(A: SlabPiece, B: SlabPiece, eA: Vec3, eB: Vec3, h: number): Quad {
@@ -291,44 +320,39 @@ function rhombus(A: SlabPiece, B: SlabPiece, eA: Vec3, eB: Vec3, h: number): Qua
     const x = add3(scale3(eA, p), scale3(nA, q));
     corners.push([dot3(x, eA), dot3(x, eB)]);
   }
-  const normals: Vec2[] = [];
+  const us = corners.map((c) => c[0]);
+  const ss = corners.map((c) => c[1]);
+  const axes: Quad['axes'] = [];
   for (let k = 0; k < 2; k++) {
     const a = corners[k] as Vec2;
     const b = corners[k + 1] as Vec2;
-    normals.push([-(b[1] - a[1]), b[0] - a[0]]);
+    const nx = -(b[1] - a[1]);
+    const ny = b[0] - a[0];
+    const along = corners.map((c) => c[0] * nx + c[1] * ny);
+    axes.push({ nx, ny, min: Math.min(...along), max: Math.max(...along) });
   }
-  return { corners, normals };
+  return {
+    uMin: Math.min(...us),
+    uMax: Math.max(...us),
+    sMin: Math.min(...ss),
+    sMax: Math.max(...ss),
+    axes,
+  };
 }
 
+/** Whether some chord of A, thickened, meets some chord of B, thickened: box against the rhombus (SAT). */
 function slabsMeet(ca: [number, number][], cb: [number, number][], quad: Quad): boolean {
   if (ca.length === 0 || cb.length === 0) return false;
-  let uMin = Infinity;
-  let uMax = -Infinity;
-  let sMin = Infinity;
-  let sMax = -Infinity;
-  for (const c of quad.corners) {
-    uMin = Math.min(uMin, c[0]);
-    uMax = Math.max(uMax, c[0]);
-    sMin = Math.min(sMin, c[1]);
-    sMax = Math.max(sMax, c[1]);
-  }
   for (const [u0, u1] of ca) {
-    if (u1 <= uMin || u0 >= uMax) continue;
+    if (u1 <= quad.uMin || u0 >= quad.uMax) continue;
     for (const [s0, s1] of cb) {
-      if (s1 <= sMin || s0 >= sMax) continue;
+      if (s1 <= quad.sMin || s0 >= quad.sMax) continue;
       let apart = false;
-      for (const [nx, ny] of quad.normals) {
-        let qMin = Infinity;
-        let qMax = -Infinity;
-        for (const c of quad.corners) {
-          const v = c[0] * nx + c[1] * ny;
-          qMin = Math.min(qMin, v);
-          qMax = Math.max(qMax, v);
-        }
+      for (const { nx, ny, min, max } of quad.axes) {
         // The box's extent along the normal: from its corners.
         const b0 = Math.min(u0 * nx, u1 * nx) + Math.min(s0 * ny, s1 * ny);
         const b1 = Math.max(u0 * nx, u1 * nx) + Math.max(s0 * ny, s1 * ny);
-        if (b1 <= qMin || b0 >= qMax) {
+        if (b1 <= min || b0 >= max) {
           apart = true;
           break;
         }
