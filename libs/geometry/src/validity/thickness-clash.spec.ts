@@ -91,6 +91,32 @@ describe('pieces running into each other through the stock thickness', () => {
     expect(clashWarnings(buildModel(cubeSquares45(0.99)))).toEqual([]);
   });
 
+  it('finds the exact stretch where the slabs meet, however short (cube of squares, derived lengths)', () => {
+    // Derived: with both slabs shrunk to half-thickness h = t/2 − 0.1 mm, the top square |x| + |y| ≤ s·a (slab
+    // a − h ≤ z) and a side square |y| + |z| ≤ s·a (slab a − h ≤ x) share the stretch |y| < s·a − a + h of the
+    // line x = z = a: length 2(s·a − a + h). With a = 80, t = 3: 0.4 mm at s = 0.985, shorter than a sampling
+    // step of t/4 would see for sure; under 0.1 mm (the tolerance along the line too) it is not reported.
+    const a = 80;
+    const h = 3 / 2 - CLASH_TOLERANCE_MM;
+    const lengths = (s: number) => {
+      const m = buildModel(cubeSquares45(s, { stock: { thicknessMm: 3 } }));
+      const found = thicknessClashes(
+        m.pieces.map((p) => ({ frame: p.frame, outline: p.nominalOutline })),
+        3,
+        CLASH_TOLERANCE_MM,
+        m.crossings,
+      );
+      return found.map((c) => c.to - c.from);
+    };
+    for (const s of [0.985, 0.99, 0.9833]) {
+      const found = lengths(s);
+      expect(found).toHaveLength(12);
+      // Within 0.0005 mm (the outlines pass through Clipper's integer grid when slotted).
+      for (const length of found) expect(length).toBeCloseTo(2 * (s * a - a + h), 3);
+    }
+    expect(lengths(0.983)).toEqual([]);
+  });
+
   it('agrees with 3D point sampling: a warned star pair overlaps, slotted designs have no overlap anywhere', () => {
     // A tetrahedron with {7/2} stars (our own design, found by a seeded search of random designs): on the
     // line where P1 and P2 meet their chords miss each other by 1.3 mm, less than the 3.54 mm stock.

@@ -5,14 +5,18 @@
  * still run into each other, and no slot makes room. This check finds those places.
  *
  * Method (our own, derived): for a pair of pieces with planes meeting along the line L, look at cross-sections
- * perpendicular to L at steps along it. In a cross-section, a piece is a set of segments along its plane's
- * trace (its outline's chords across L, slots and reliefs already cut), each thickened to the stock's
- * thickness. Two thickened segments meet exactly where both lie inside both slabs, i.e. inside the rhombus
- * where the two slabs cross; in coordinates (u, s) = offsets from L along each plane, the rhombus is a
- * parallelogram and each pair of segments is a box [u0, u1] × [s0, s1], tested by separating axes. A slot of
- * the nominal width t·(1 + cos φ)/sin φ (slots.ts) clears the rhombus exactly, so a crossing's own slots never
- * count, and stretches of the line where the pieces cross (given by the caller) are not sampled at all; the
- * slabs are shrunk by a tolerance so that a press fit (negative fit allowance) does not count either.
+ * perpendicular to L. In a cross-section at t (along L), a piece is a set of segments along its plane's trace
+ * (its outline's chords across L, slots and reliefs already cut), each thickened to the stock's thickness. Two
+ * thickened segments meet exactly where both lie inside both slabs, i.e. inside the rhombus where the two slabs
+ * cross; in coordinates (u, s) = offsets from L along each plane, the rhombus is a parallelogram and each pair
+ * of segments is a box [u0, u1] × [s0, s1], tested by separating axes. Only the outlines' parts within reach
+ * of L matter; between two consecutive events (a vertex within reach, an edge leaving the reach, the end of a
+ * stretch) every chord end moves linearly along one edge, so each separating-axis test is a linear inequality
+ * in t and the stretches where the slabs meet are found exactly, not sampled. A slot of the nominal width
+ * t·(1 + cos φ)/sin φ (slots.ts) clears the rhombus exactly, so a crossing's own slots never count, and
+ * stretches of the line where the pieces cross (given by the caller) are left out; the slabs are shrunk by a
+ * tolerance so that a press fit (negative fit allowance) does not count either, and meetings shorter than the
+ * tolerance along L are dropped.
  */
 import { type Vec2, type Vec3, cross3, dot3, scale3, add3 } from '../math/vec';
 import { type Polygon, simplePolygonHull } from '../math/polygon';
@@ -39,9 +43,8 @@ export const CLASH_TOLERANCE_MM = 0.1;
 
 /**
  * Places where two pieces of `thicknessMm` stock run into each other through their thickness (see the
- * module comment). `toleranceMm` is how deep the slabs may overlap before it counts. Sampled along the
- * common line at the midpoints of steps of max(0.25, t/4) mm counted from the line's point; a clash shorter
- * than a step can be missed.
+ * module comment). `toleranceMm` is how deep the slabs may overlap, and along how much of the common line,
+ * before it counts.
  */
 export function thicknessClashes(
   pieces: readonly SlabPiece[],
@@ -58,7 +61,6 @@ export function thicknessClashes(
   const h = thicknessMm / 2 - toleranceMm;
   if (!(h > 0)) return [];
   const out: ThicknessClash[] = [];
-  const step = Math.max(0.25, thicknessMm / 4);
   const hulls = pieces.map((p) => flatten(simplePolygonHull(p.outline)));
   const longest = Math.max(0, ...hulls.map((b) => b.xs.length));
   const scratch = { e: [0, 0, 0] as Vec3, ts: new Float64Array(longest), us: new Float64Array(longest) };
@@ -86,8 +88,8 @@ export function thicknessClashes(
       const rb = ra && bandRange(project(B.frame, hulls[j]!, line.point, line.dir, scratch), reach);
       if (!ra || !rb) continue;
       const skip = crossed.get(`${i}-${j}`) ?? [];
-      if (samplePoints(Math.max(ra.from, rb.from), Math.min(ra.to, rb.to), step, skip).next().done) continue;
-      // The same for the outlines themselves (slots take material away near L): the stretch sampled.
+      if (!openStretches(Math.max(ra.from, rb.from), Math.min(ra.to, rb.to), skip).length) continue;
+      // The same for the outlines themselves (slots take material away near L): the stretches examined.
       const pa = project(A.frame, outline(i), line.point, line.dir);
       const sa = bandRange(pa, reach);
       if (!sa) continue;
@@ -96,48 +98,97 @@ export function thicknessClashes(
       if (!sb) continue;
       const t0 = Math.max(sa.from, sb.from);
       const t1 = Math.min(sa.to, sb.to);
-      if (!(t1 > t0)) continue;
+      const stretches = openStretches(t0, t1, skip);
+      if (!stretches.length) continue;
       const quad = rhombus(A, B, pa.e, pb.e, h);
       const chordsA = sweep(pa, t0, t1, reach);
       const chordsB = sweep(pb, t0, t1, reach);
-      let runStart: number | null = null;
-      let runEnd = 0;
-      const flush = () => {
-        if (runStart !== null) out.push({ a: i, b: j, from: runStart, to: runEnd, ...line });
-        runStart = null;
-      };
-      let previous = -Infinity;
-      for (const t of samplePoints(t0, t1, step, skip)) {
-        // A skipped stretch ends a run.
-        if (t - previous > step * 1.5) flush();
-        previous = t;
-        const ca = chordsA(t);
-        if (ca.length > 0 && slabsMeet(ca, chordsB(t), quad)) {
-          runStart ??= t - step / 2;
-          runEnd = t + step / 2;
-        } else flush();
+      const events = [...eventTimes(pa, reach, t0, t1), ...eventTimes(pb, reach, t0, t1)].sort(
+        (x, y) => x - y,
+      );
+      const runs: [number, number][] = [];
+      for (const [w0, w1] of stretches) {
+        // The events inside the stretch cut it into pieces on which every chord end is linear in t.
+        let from = w0;
+        let e = lowerBound(events, w0);
+        while (from < w1) {
+          while (e < events.length && events[e]! <= from + EVENT_EPS_MM) e++;
+          const to = e < events.length && events[e]! < w1 - EVENT_EPS_MM ? events[e]! : w1;
+          const mid = (from + to) / 2;
+          const ca = chordsA(mid);
+          if (ca.length > 0) {
+            const cb = chordsB(mid);
+            for (const iv of meetings(ca, cb, quad, mid, from, to).sort((x, y) => x[0] - y[0]))
+              addRun(runs, iv);
+          }
+          from = to;
+        }
       }
-      flush();
+      for (const [from, to] of runs) {
+        if (to - from >= toleranceMm) out.push({ a: i, b: j, from, to, ...line });
+      }
     }
   }
   return out;
 }
 
-/**
- * Sample points (k + ½)·step in (t0, t1), leaving out the skipped stretches; after a stretch the sampling
- * starts again half a step past its end.
- */
-function* samplePoints(
-  t0: number,
-  t1: number,
-  step: number,
-  skip: readonly [number, number][],
-): Generator<number> {
-  for (let t = (Math.floor(t0 / step) + 0.5) * step; t < t1; t += step) {
-    const inside = skip.find((iv) => t > iv[0] && t < iv[1]);
-    if (inside) t = inside[1] - step / 2;
-    else if (t > t0) yield t;
+/** Events closer than this (mm) are merged. */
+const EVENT_EPS_MM = 1e-9;
+
+/** [t0, t1] less the skipped stretches, as open stretches in increasing order. */
+function openStretches(t0: number, t1: number, skip: readonly [number, number][]): [number, number][] {
+  let parts: [number, number][] = t1 > t0 ? [[t0, t1]] : [];
+  for (const [s0, s1] of skip) {
+    parts = parts.flatMap(([a, b]): [number, number][] => {
+      if (s1 <= a || s0 >= b) return [[a, b]];
+      const left: [number, number][] = s0 > a ? [[a, s0]] : [];
+      return s1 < b ? [...left, [s1, b]] : left;
+    });
   }
+  return parts.filter(([a, b]) => b - a > EVENT_EPS_MM).sort((x, y) => x[0] - y[0]);
+}
+
+/** The first index whose value is at least x, in a sorted array. */
+function lowerBound(sorted: readonly number[], x: number): number {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const m = (lo + hi) >> 1;
+    if (sorted[m]! < x) lo = m + 1;
+    else hi = m;
+  }
+  return lo;
+}
+
+/**
+ * Where the chords within reach of L can change along it, within [t0, t1]: at the vertices within reach, and
+ * where an edge crosses the reach's edges u = ±reach.
+ */
+function eventTimes({ ts, us }: Projected, reach: number, t0: number, t1: number): number[] {
+  const out: number[] = [];
+  const n = ts.length;
+  for (let k = 0; k < n; k++) {
+    const ta = ts[k]!;
+    const ua = us[k]!;
+    if (Math.abs(ua) <= reach && ta > t0 && ta < t1) out.push(ta);
+    const k2 = k + 1 === n ? 0 : k + 1;
+    const tb = ts[k2]!;
+    const ub = us[k2]!;
+    for (const level of [-reach, reach]) {
+      if ((ua - level) * (ub - level) < 0) {
+        const t = ta + ((level - ua) * (tb - ta)) / (ub - ua);
+        if (t > t0 && t < t1) out.push(t);
+      }
+    }
+  }
+  return out;
+}
+
+/** Adds [a, b] to runs kept in increasing order, joining it to the last run when they touch. */
+function addRun(runs: [number, number][], [a, b]: [number, number]): void {
+  const last = runs[runs.length - 1];
+  if (last && a <= last[1] + EVENT_EPS_MM) last[1] = Math.max(last[1], b);
+  else runs.push([a, b]);
 }
 
 /** An outline's coordinates, flat. */
@@ -226,21 +277,27 @@ function inPlaneDistance(frame: PieceFrame, point: Vec3, dir: Vec3): number {
   return Math.abs(o[0] * d[1] - o[1] * d[0]) / Math.hypot(d[0], d[1]);
 }
 
+/** A chord end near t = mid: its offset there and how fast it moves along L (du/dt). */
+interface End {
+  at: number;
+  slope: number;
+}
+
+/** A chord of an outline across L, kept within reach of L. */
+interface Chord {
+  lo: End;
+  hi: End;
+}
+
 /**
- * A sweep over [t0, t1]: the chords of the outline across L at parameter t (offsets along e, within reach of
- * L), for t in increasing order. Only the edges spanning t are kept, so a chord costs the few edges it
- * crosses; the edges meeting the window are ordered by a counting sort.
+ * A sweep over [t0, t1]: the chords of the outline across L at parameter t, cut to within reach of L, with
+ * how their ends move, for t in increasing order and never at an event. Only the edges spanning t are kept, so
+ * a chord costs the few edges it crosses; the edges meeting the window are ordered by a counting sort.
  */
-function sweep(
-  { ts, us }: Projected,
-  t0: number,
-  t1: number,
-  reach: number,
-): (t: number) => [number, number][] {
+function sweep({ ts, us }: Projected, t0: number, t1: number, reach: number): (t: number) => Chord[] {
   const n = ts.length;
   // Edges ordered by their lower t on a grid of n buckets: an edge may join the active list a little early,
-  // which the cut test allows for. A chord at t crosses the edges with tLow ≤ t < tHigh (half-open, so a
-  // vertex on the chord is counted once).
+  // which the cut test allows for. A chord at t crosses the edges with tLow ≤ t < tHigh.
   const width = (t1 - t0) / n || 1;
   const bucket = new Int32Array(n);
   const start = new Int32Array(n + 1);
@@ -261,7 +318,9 @@ function sweep(
   for (let k = 0; k < n; k++) if (bucket[k]! >= 0) order[fill[bucket[k]!]!++] = k;
   let next = 0;
   const active: number[] = [];
-  const cuts: number[] = [];
+  const cuts: End[] = [];
+  const below: End = { at: -reach, slope: 0 };
+  const above: End = { at: reach, slope: 0 };
   return (t) => {
     const upTo = start[Math.max(0, Math.min(n, Math.floor((t - t0) / width) + 1))]!;
     for (; next < upTo; next++) active.push(order[next]!);
@@ -276,15 +335,19 @@ function sweep(
       if (Math.max(ta, tb) <= t) continue;
       active[kept++] = k;
       if (ta === tb || t < Math.min(ta, tb)) continue;
-      cuts.push(us[k]! + ((t - ta) * (us[k2]! - us[k]!)) / (tb - ta));
+      const slope = (us[k2]! - us[k]!) / (tb - ta);
+      cuts.push({ at: us[k]! + (t - ta) * slope, slope });
     }
     active.length = kept;
-    cuts.sort((a, b) => a - b);
-    const out: [number, number][] = [];
+    cuts.sort((a, b) => a.at - b.at);
+    const out: Chord[] = [];
     for (let i = 0; i + 1 < cuts.length; i += 2) {
       const lo = cuts[i]!;
       const hi = cuts[i + 1]!;
-      if (hi > -reach && lo < reach && hi > lo) out.push([lo, hi]);
+      // No event lies between here and the next one, so an end beyond the reach stays beyond it.
+      if (hi.at > -reach && lo.at < reach && hi.at > lo.at) {
+        out.push({ lo: lo.at < -reach ? below : lo, hi: hi.at > reach ? above : hi });
+      }
     }
     return out;
   };
@@ -340,25 +403,47 @@ function rhombus(A: SlabPiece, B: SlabPiece, eA: Vec3, eB: Vec3, h: number): Qua
   };
 }
 
-/** Whether some chord of A, thickened, meets some chord of B, thickened: box against the rhombus (SAT). */
-function slabsMeet(ca: [number, number][], cb: [number, number][], quad: Quad): boolean {
-  if (ca.length === 0 || cb.length === 0) return false;
-  for (const [u0, u1] of ca) {
-    if (u1 <= quad.uMin || u0 >= quad.uMax) continue;
-    for (const [s0, s1] of cb) {
-      if (s1 <= quad.sMin || s0 >= quad.sMax) continue;
-      let apart = false;
-      for (const { nx, ny, min, max } of quad.axes) {
-        // The box's extent along the normal: from its corners.
-        const b0 = Math.min(u0 * nx, u1 * nx) + Math.min(s0 * ny, s1 * ny);
-        const b1 = Math.max(u0 * nx, u1 * nx) + Math.max(s0 * ny, s1 * ny);
-        if (b1 <= min || b0 >= max) {
-          apart = true;
-          break;
+/**
+ * Where in (from, to) some chord of A, thickened, meets some chord of B, thickened: box against the rhombus by
+ * separating axes, each a linear inequality in t since the chord ends move linearly (`mid` is where the
+ * chords were taken). Open intervals, in no particular order.
+ */
+function meetings(
+  ca: readonly Chord[],
+  cb: readonly Chord[],
+  quad: Quad,
+  mid: number,
+  from: number,
+  to: number,
+): [number, number][] {
+  const out: [number, number][] = [];
+  for (const a of ca) {
+    for (const b of cb) {
+      let lo = from;
+      let hi = to;
+      // v + slope·(t − mid) > 0
+      const keep = (v: number, slope: number) => {
+        if (slope === 0) {
+          if (!(v > 0)) hi = lo;
+          return;
         }
+        const root = mid - v / slope;
+        if (slope > 0) lo = Math.max(lo, root);
+        else hi = Math.min(hi, root);
+      };
+      keep(a.hi.at - quad.uMin, a.hi.slope);
+      keep(quad.uMax - a.lo.at, -a.lo.slope);
+      keep(b.hi.at - quad.sMin, b.hi.slope);
+      keep(quad.sMax - b.lo.at, -b.lo.slope);
+      for (const { nx, ny, min, max } of quad.axes) {
+        // The box's extent along the normal, from the corners that give it.
+        const [u0, u1] = nx >= 0 ? [a.lo, a.hi] : [a.hi, a.lo];
+        const [s0, s1] = ny >= 0 ? [b.lo, b.hi] : [b.hi, b.lo];
+        keep(u1.at * nx + s1.at * ny - min, u1.slope * nx + s1.slope * ny);
+        keep(max - u0.at * nx - s0.at * ny, -(u0.slope * nx + s0.slope * ny));
       }
-      if (!apart) return true;
+      if (hi > lo) out.push([lo, hi]);
     }
   }
-  return false;
+  return out;
 }
