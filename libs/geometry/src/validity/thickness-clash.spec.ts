@@ -60,6 +60,13 @@ function slabOverlapPoints(m: BuiltModel, a: number, b: number, tol = 0.15): num
   return count;
 }
 
+/** The check called directly on a cube of squares turned 45° of size s in 3 mm stock (built with errors below 1). */
+function cubeClashes(s: number) {
+  const m = buildModel(cubeSquares45(s, { stock: { thicknessMm: 3 } }));
+  const pieces = m.pieces.map((p) => ({ frame: p.frame, outline: p.nominalOutline }));
+  return { m, found: thicknessClashes(pieces, 3, CLASH_TOLERANCE_MM, m.crossings) };
+}
+
 describe('pieces running into each other through the stock thickness', () => {
   it('cube of squares turned 45° stopping short of the edges: found once the tips enter the neighbours', () => {
     // Derived: a square |x| + |y| ≤ s·a on the top face reaches x = s·a; the side face's slab starts at
@@ -67,14 +74,8 @@ describe('pieces running into each other through the stock thickness', () => {
     // Below s = 1 the squares do not cross at all, an error the builder reports first, so the check is
     // called directly here on the built pieces.
     const clashes = (s: number) => {
-      const m = buildModel(cubeSquares45(s, { stock: { thicknessMm: 3 } }));
-      const pairs = thicknessClashes(
-        m.pieces.map((p) => ({ frame: p.frame, outline: p.nominalOutline })),
-        3,
-        CLASH_TOLERANCE_MM,
-        m.crossings,
-      ).map((c) => `${m.pieces[c.a]!.id}-${m.pieces[c.b]!.id}`);
-      return [...new Set(pairs)].sort();
+      const { m, found } = cubeClashes(s);
+      return [...new Set(found.map((c) => `${m.pieces[c.a]!.id}-${m.pieces[c.b]!.id}`))].sort();
     };
     expect(clashes(0.975)).toEqual([]);
     // One pair per cube edge: the pairs that cross once the squares are larger.
@@ -98,16 +99,7 @@ describe('pieces running into each other through the stock thickness', () => {
     // step of t/4 would see for sure; under 0.1 mm (the tolerance along the line too) it is not reported.
     const a = 80;
     const h = 3 / 2 - CLASH_TOLERANCE_MM;
-    const lengths = (s: number) => {
-      const m = buildModel(cubeSquares45(s, { stock: { thicknessMm: 3 } }));
-      const found = thicknessClashes(
-        m.pieces.map((p) => ({ frame: p.frame, outline: p.nominalOutline })),
-        3,
-        CLASH_TOLERANCE_MM,
-        m.crossings,
-      );
-      return found.map((c) => c.to - c.from);
-    };
+    const lengths = (s: number) => cubeClashes(s).found.map((c) => c.to - c.from);
     for (const s of [0.985, 0.99, 0.9833]) {
       const found = lengths(s);
       expect(found).toHaveLength(12);
