@@ -209,6 +209,32 @@ describe('nestParts — true shape', () => {
     expect(r.totals.sheetsByGroup).toEqual({ red: 1, blue: 1 });
   });
 
+  it('pairs a star with its turned copy when the list gives that copy as a congruent rotation', () => {
+    // A {5/2} star turned 60° is the star turned 24° + 180° (its symmetry is 72°): with rotations [24, 60] the
+    // pattern pass must still try the point-symmetric pair, drawn at the allowed 60°. Before, it looked for
+    // 204° literally and left the pair out.
+    const run = (rotationsDeg: number[]) => {
+      const input: NestInput = {
+        sheet: { widthMm: 600, heightMm: 400 },
+        marginMm: 0,
+        gapMm: 3,
+        parts: [{ id: 's', outline: star(5, 2, 60), quantity: 60, rotationsDeg }],
+      };
+      const r = nestParts(input);
+      checkLayout(input, r);
+      return r;
+    };
+    const paired = run([24, 60]);
+    if (!paired.ok) throw new Error('no layout');
+    expect(paired.totals.groups[0]!.method).toMatch(/double lattice (24°\/60°|60°\/24°)/);
+    for (const sheet of paired.sheets)
+      for (const p of sheet.placements) expect([24, 60]).toContain(p.rotationDeg);
+    // More on a sheet than either rotation alone.
+    expect(firstSheetCount(paired)).toBeGreaterThan(
+      Math.max(firstSheetCount(run([24])), firstSheetCount(run([60]))),
+    );
+  });
+
   it('gives congruent pieces of three colours the same lattice, each placement under its own part', () => {
     // One slotted {7/2} star shape in three colour groups: the pattern is searched once and reused, so every
     // colour's first sheet holds as many as a single colour laid out alone.

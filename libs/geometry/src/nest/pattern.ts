@@ -11,7 +11,7 @@
 import { boxOfPaths, pointInPath, unionPaths, SCALE_PER_MM, type IntPaths } from './clipper-adapter';
 import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
 import { sheetLattices } from './double-lattice';
-import { convexHull } from './polygon';
+import { convexHull, type Point } from './polygon';
 import {
   clearOfItems,
   distinctRotations,
@@ -382,6 +382,17 @@ function pairOffsets(cache: GeometryCache, a: Variant, b: Variant): { dx: number
  * the gap apart) and dropped if any slot fails. Works for any outline: a lattice of hulls is a valid lattice of
  * the pieces; for stars and slotted pieces the no-fit polygon lattices below usually do better.
  */
+/**
+ * The allowed rotation giving the same shape as rotation d (d itself when allowed), or undefined: with a
+ * fixed list, a rotation's 180° partner often appears only as a rotation congruent to it (for a {5/2} star,
+ * 216° for 36°), and distinctRotations keeps one rotation of each shape.
+ */
+function allowedCongruent(outline: Point[], rotationsDeg: readonly number[], d: number): number | undefined {
+  const deg = normaliseAngle(d);
+  const same = rotationsDeg.find((r) => Math.abs(normaliseAngle(r) - deg) < 1e-6);
+  return same ?? rotationsDeg.find((r) => distinctRotations(outline, [r, d]).length === 1);
+}
+
 function convexLatticePatterns(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -418,7 +429,7 @@ function convexLatticePatterns(
    */
   const asAllowed = (d: number): { deg: number; dx: number; dy: number } | null => {
     if (free || allowed.has(key(d))) return { deg: d, dx: 0, dy: 0 };
-    const a = rotationsDeg.find((r) => distinctRotations(outline, [r, d]).length === 1);
+    const a = allowedCongruent(outline, rotationsDeg, d);
     if (a === undefined) return null;
     const bd = cache.variant(partIndex, d).bounds;
     const ba = cache.variant(partIndex, a).bounds;
@@ -505,7 +516,7 @@ function searchPattern(
   rotationsDeg: readonly number[],
   free: boolean,
 ): PatternResult | null {
-  const allowed = new Set(rotationsDeg.map((d) => Math.round((((d % 360) + 360) % 360) * 1e6)));
+  const outline = cache.parts[partIndex]!.outline;
   const results: PatternResult[] = [...convexLatticePatterns(cache, frame, partIndex, rotationsDeg, free)];
   const consider = (cell: CellPiece[], label: string) => {
     const nfp = cellNfpView(cellNfp(cache, cell));
@@ -521,9 +532,10 @@ function searchPattern(
   for (const deg of rotationsDeg) {
     const v = cache.variant(partIndex, deg);
     consider([{ variant: v, dx: 0, dy: 0 }], `lattice ${v.rotationDeg}°`);
-    const partner = (v.rotationDeg + 180) % 360;
-    primaries.add(Math.round(v.rotationDeg * 1e6));
-    if (!allowed.has(Math.round(partner * 1e6)) || primaries.has(Math.round(partner * 1e6))) continue;
+    primaries.add(v.rotationDeg);
+    // The turned copy, drawn at the allowed rotation that gives its shape.
+    const partner = allowedCongruent(outline, rotationsDeg, v.rotationDeg + 180);
+    if (partner === undefined || primaries.has(normaliseAngle(partner))) continue;
     const w = cache.variant(partIndex, partner);
     for (const off of pairOffsets(cache, v, w))
       consider(
