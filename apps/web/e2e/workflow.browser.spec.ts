@@ -60,6 +60,17 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
       .first()
       .waitFor();
 
+    // A colour rule the count cannot meet: four faces meet at each vertex of the octahedron, so two colours
+    // cannot keep them apart; the studio says how many it needs and sets them on request.
+    await page.getByLabel('Rule').selectOption('vertex-distinct');
+    const notice = page.getByTestId('colour-plan-notice');
+    await notice.getByText(/it needs at least 4/).waitFor();
+    await notice.getByRole('button', { name: 'Use 4 colours' }).click();
+    await notice.waitFor({ state: 'detached' });
+    expect(await page.getByLabel('Colours', { exact: true }).inputValue()).toBe('4');
+    await page.getByLabel('Colours', { exact: true }).fill('2');
+    await page.getByLabel('Rule').selectOption('neighbour-distinct');
+
     // The same model laid out on the stock sheet, in the browser: each sheet drawn with its pieces.
     const sheets = page.getByTestId('studio-sheets');
     await sheets.getByRole('button', { name: 'Lay out on sheets' }).click();

@@ -263,5 +263,7 @@ export interface ReportColourPlan {
   distinctPlans?: number;
   /** True when counting stopped at the cap. */
   distinctPlansCapped?: boolean;
+  /** When no plan exists: the fewest colours with which the rule can be met. */
+  fewestColours?: number;
   message?: string;
 }

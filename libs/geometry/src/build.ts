@@ -198,6 +198,7 @@ export function attachColourPlan(model: BuiltModel, plan?: ColourPlan): ColourPl
   };
   if (p.distinctPlans !== undefined) r.distinctPlans = p.distinctPlans;
   if (p.distinctPlansCapped !== undefined) r.distinctPlansCapped = p.distinctPlansCapped;
+  if (p.fewestColours !== undefined) r.fewestColours = p.fewestColours;
   if (p.message) r.message = p.message;
   model.report.colourPlan = r;
   if (!p.feasible) {

@@ -189,6 +189,7 @@ describe('solveColourPlan — neighbour-distinct', () => {
     const two = plan('cube', 'neighbour-distinct', 2);
     expect(two.result.feasible).toBe(false);
     expect(two.result.message).toMatch(/no plan exists/);
+    expect(two.result.fewestColours).toBe(3);
     expect(bruteCount('neighbour-distinct', SOLIDS.cube.faces, SOLIDS.cube.normals, 2)).toBe(0);
     const three = plan('cube', 'neighbour-distinct', 3);
     expect(three.result.feasible).toBe(true);
@@ -215,6 +216,11 @@ describe('solveColourPlan — neighbour-distinct', () => {
     const s = SOLIDS.tetrahedron;
     expect(plan('tetrahedron', 'neighbour-distinct', 3).result.feasible).toBe(false);
     expect(bruteCount('neighbour-distinct', s.faces, s.normals, 3)).toBe(0);
+    expect(bruteCount('neighbour-distinct', s.faces, s.normals, 2)).toBe(0);
+    // Asked for 2, it names the fewest that work.
+    const two = plan('tetrahedron', 'neighbour-distinct', 2).result;
+    expect(two.fewestColours).toBe(4);
+    expect(two.message).toMatch(/cannot be met with 2 colours; it needs at least 4$/);
     const r = plan('tetrahedron', 'neighbour-distinct', 4);
     expect(r.result.feasible).toBe(true);
     expect(new Set(r.colours).size).toBe(4);
@@ -234,7 +240,7 @@ describe('solveColourPlan — neighbour-distinct', () => {
   it('dodecahedron needs 4 colours (dual icosahedral graph has chromatic number 4 — from memory; brute-forced)', () => {
     const s = SOLIDS.dodecahedron;
     expect(bruteCount('neighbour-distinct', s.faces, s.normals, 3)).toBe(0); // 3^12 colourings checked
-    expect(plan('dodecahedron', 'neighbour-distinct', 3).result.feasible).toBe(false);
+    expect(plan('dodecahedron', 'neighbour-distinct', 3).result.fewestColours).toBe(4);
     const r = plan('dodecahedron', 'neighbour-distinct', 4);
     expect(r.result.feasible).toBe(true);
     expect(r.result.colourCounts).toEqual([3, 3, 3, 3]);
@@ -259,6 +265,7 @@ describe('solveColourPlan — vertex-distinct', () => {
     const s = SOLIDS.octahedron;
     expect(bruteCount('vertex-distinct', s.faces, s.normals, 3)).toBe(0);
     expect(plan('octahedron', 'vertex-distinct', 3).result.feasible).toBe(false);
+    expect(plan('octahedron', 'vertex-distinct', 1).result.fewestColours).toBe(4);
     const r = plan('octahedron', 'vertex-distinct', 4);
     expect(r.result.feasible).toBe(true);
     expect(r.result.colourCounts).toEqual([2, 2, 2, 2]);
@@ -278,6 +285,7 @@ describe('solveColourPlan — opposite-match', () => {
   it('cube: opposite faces from normals share a colour; 3 colours needed (derived)', () => {
     const s = SOLIDS.cube;
     expect(plan('cube', 'opposite-match', 2, { normals: true }).result.feasible).toBe(false);
+    expect(plan('cube', 'opposite-match', 1, { normals: true }).result.fewestColours).toBe(3);
     const r = plan('cube', 'opposite-match', 3, { normals: true });
     expect(r.result.feasible).toBe(true);
     expect(satisfies('opposite-match', s.faces, s.normals, r.colours)).toBe(true);

@@ -10,7 +10,8 @@
  * Balance: with n faces and k colours, every colour is used floor(n/k) or ceil(n/k) times (equal counts when
  * k divides n). Under 'opposite-match' each opposite pair counts twice, so balance is sought over faces as
  * well. If the rule can be met only with unequal counts, the plan is returned with feasible = true and
- * balanced = false; if it cannot be met at all, feasible = false and message says "no plan exists".
+ * balanced = false; if it cannot be met at all, feasible = false, message says "no plan exists" and
+ * fewestColours is the smallest count that meets it (found by trying k + 1, k + 2, … colours).
  *
  * Solved as a Boolean satisfiability problem with logic-solver (MiniSat compiled to JavaScript): one variable
  * per face and colour, exactly one colour per face, the rule as clauses, balance as cardinality constraints.
@@ -54,6 +55,8 @@ export interface ColourPlan {
   distinctPlansCapped?: boolean;
   /** Pieces per colour in the returned assignment. */
   colourCounts: number[];
+  /** When no plan exists: the fewest colours with which the rule can be met (balanced or not). */
+  fewestColours?: number;
   message?: string;
 }
 
@@ -135,9 +138,10 @@ const v = (face: number, colour: number): string => `f${face}c${colour}`;
 
 /**
  * Finds a colour plan for the rule and colour count (see the module comment for the rules, balance and
- * counting). Throws ColourPlanInputError for malformed input.
+ * counting). When no plan exists and `searchFewest` (default), also finds the fewest colours that meet the
+ * rule. Throws ColourPlanInputError for malformed input.
  */
-export function solveColourPlan(input: ColourPlanInput): ColourPlan {
+export function solveColourPlan(input: ColourPlanInput, searchFewest = true): ColourPlan {
   validate(input);
   const { faceCount: n, faceVertices, rule, count: k } = input;
   const cap = input.countCap ?? 1000;
@@ -181,8 +185,8 @@ export function solveColourPlan(input: ColourPlanInput): ColourPlan {
   let solution = solver.solveAssuming(balance);
   if (!solution) solution = solver.solve();
   const base = { rule, count: k };
-  if (!solution)
-    return {
+  if (!solution) {
+    const infeasible: ColourPlan = {
       ...base,
       feasible: false,
       assignment: {},
@@ -190,6 +194,17 @@ export function solveColourPlan(input: ColourPlanInput): ColourPlan {
       colourCounts: [],
       message: `no plan exists: rule "${rule}" cannot be met with ${k} colour${k === 1 ? '' : 's'}`,
     };
+    if (!searchFewest) return infeasible;
+    // With as many colours as faces every rule can be met (each face, or each opposite pair, its own
+    // colour), so the search for the fewest that work ends by n.
+    let fewest = k + 1;
+    while (fewest < n && !solveColourPlan({ ...input, count: fewest, countCap: 0 }, false).feasible) fewest++;
+    return {
+      ...infeasible,
+      fewestColours: fewest,
+      message: `${infeasible.message}; it needs at least ${fewest}`,
+    };
+  }
   const colours = readColours(solution, n, k);
   const assignment: Record<string, number> = {};
   colours.forEach((c, f) => (assignment[input.pieceIds?.[f] ?? String(f)] = c));

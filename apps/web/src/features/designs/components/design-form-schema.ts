@@ -20,6 +20,9 @@ import { z } from 'zod';
 
 const num = (label: string) => z.number({ error: `${label}: enter a number` });
 
+/** The most colours of stock a design may use. */
+export const MAX_COLOURS = 6;
+
 /** The design studio's form: the spec's fields flattened, plus name, colours and the solid's source. */
 export const designFormSchema = z
   .object({
@@ -58,7 +61,10 @@ export const designFormSchema = z
     kerfMm: num('Kerf').min(0, 'Kerf cannot be negative').max(2, 'At most 2 mm'),
     toolDiameterMm: num('Tool diameter').gt(0, 'Tool diameter must be more than 0').max(25, 'At most 25 mm'),
     fitMm: num('Fit allowance').min(-2, 'Between −2 and 2 mm').max(2, 'Between −2 and 2 mm'),
-    colourCount: num('Colours').int('Colours: a whole number').min(1, 'At least 1').max(6, 'At most 6'),
+    colourCount: num('Colours')
+      .int('Colours: a whole number')
+      .min(1, 'At least 1')
+      .max(MAX_COLOURS, `At most ${MAX_COLOURS}`),
     colourRule: z.enum(COLOUR_RULES),
   })
   .superRefine((v, ctx) => {

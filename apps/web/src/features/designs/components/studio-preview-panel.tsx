@@ -5,6 +5,8 @@ import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { memo } from 'react';
 import { type BuiltPreview } from '../hooks/use-built-model';
+import { ColourPlanNotice } from './colour-plan-notice';
+import { MAX_COLOURS } from './design-form-schema';
 import { ModelPreview3d } from './model-preview-3d';
 
 interface StudioPreviewPanelProps {
@@ -14,6 +16,8 @@ interface StudioPreviewPanelProps {
   selectedPiece: string | undefined;
   onSelectPiece: (id: string) => void;
   formatLength: (mm: number) => string;
+  /** Sets the form's colour count (offered when the rule needs more colours). */
+  onUseColours?: (count: number) => void;
 }
 
 /**
@@ -26,6 +30,7 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
   selectedPiece,
   onSelectPiece,
   formatLength: fmt,
+  onUseColours,
 }: StudioPreviewPanelProps) {
   const report = preview.model?.report ?? null;
   return (
@@ -47,9 +52,12 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             <Fact label="Built in" value={`${preview.buildMs.toFixed(0)} ms`} />
           </Stack>
           {preview.colourMessage ? (
-            <Alert severity="warning" sx={{ mb: 1 }}>
-              {preview.colourMessage}
-            </Alert>
+            <ColourPlanNotice
+              message={preview.colourMessage}
+              fewest={preview.colourFewest}
+              maxColours={MAX_COLOURS}
+              {...(onUseColours ? { onUseColours } : {})}
+            />
           ) : null}
           <Box sx={{ height: 420 }}>
             <ModelPreview3d

@@ -12,6 +12,8 @@ export interface BuiltPreview {
   /** The plan behind pieceColour when there are several colours (the layout reuses it). */
   colourPlan: ColourPlan | null;
   colourMessage: string | null;
+  /** When the rule has no plan with this many colours: the fewest it needs. */
+  colourFewest: number | null;
   /** Why the engine refused the spec (field errors or a failure), when it did. */
   failure: string | null;
   /** Time spent in the geometry library for this preview (model build and, when not cached, colour plan). */
@@ -43,6 +45,7 @@ function build(spec: DesignSpecInput | null, colourCount: number, colourRule: Co
     pieceColour: {},
     colourPlan: null,
     colourMessage: null,
+    colourFewest: null,
     buildMs: 0,
     key,
   };
@@ -57,6 +60,7 @@ function build(spec: DesignSpecInput | null, colourCount: number, colourRule: Co
   let pieceColour: Record<string, number> = Object.fromEntries(model.pieces.map((p) => [p.id, 0]));
   let colourPlan: ColourPlan | null = null;
   let colourMessage: string | null = null;
+  let colourFewest: number | null = null;
   if (colourCount > 1) {
     try {
       const ids = model.pieces.map((p) => p.id);
@@ -64,7 +68,10 @@ function build(spec: DesignSpecInput | null, colourCount: number, colourRule: Co
       if (plan.feasible) {
         pieceColour = plan.assignment;
         colourPlan = plan;
-      } else colourMessage = plan.message ?? `No colour plan for this rule with ${colourCount} colours.`;
+      } else {
+        colourMessage = plan.message ?? `No colour plan for this rule with ${colourCount} colours.`;
+        colourFewest = plan.fewestColours ?? null;
+      }
     } catch (error) {
       colourMessage = error instanceof Error ? error.message : String(error);
     }
@@ -75,6 +82,7 @@ function build(spec: DesignSpecInput | null, colourCount: number, colourRule: Co
     pieceColour,
     colourPlan,
     colourMessage,
+    colourFewest,
     failure: null,
     buildMs: performance.now() - started,
     key,

@@ -95,6 +95,10 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   const fmt = useCallback((mm: number) => formatLength(mm, unit), [unit]);
   const piece = report?.pieces.find((p) => p.id === selected) ?? report?.pieces[0];
   const suggestedSizes = useStableValue(report?.suggestedSizes ?? null);
+  const applyColourCount = useCallback(
+    (count: number) => form.setValue('colourCount', count, { shouldDirty: true, shouldValidate: true }),
+    [form],
+  );
 
   const save = form.handleSubmit(async (v) => {
     const body = toSavedSpec(v, upload);
@@ -175,6 +179,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
             selectedPiece={piece?.id}
             onSelectPiece={setSelected}
             formatLength={fmt}
+            onUseColours={applyColourCount}
           />
           {report ? (
             <StudioDetailsPanel
