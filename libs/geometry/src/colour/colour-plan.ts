@@ -196,8 +196,14 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
     };
     if (!searchFewest) return infeasible;
     // With as many colours as faces every rule can be met (each face, or each opposite pair, its own
-    // colour), so the search for the fewest that work ends by n.
-    let fewest = k + 1;
+    // colour), so the search for the fewest that work ends by n. Under 'vertex-distinct' it starts at the
+    // most faces around one vertex (a pyramid's apex); the faces of a convex solid form a planar map, so
+    // 'neighbour-distinct' needs at most 4 (the four colour theorem) and the search stays short.
+    const aroundVertex =
+      rule === 'vertex-distinct'
+        ? Math.max(0, ...[...facesAroundVertices(faceVertices).values()].map((f) => f.length))
+        : 0;
+    let fewest = Math.max(k + 1, aroundVertex);
     while (fewest < n && !solveColourPlan({ ...input, count: fewest, countCap: 0 }, false).feasible) fewest++;
     return {
       ...infeasible,
