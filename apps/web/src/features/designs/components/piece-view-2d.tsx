@@ -1,6 +1,7 @@
 import { type ReportPiece } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import { pieceColour } from '../../layout/components/piece-colours';
+import { countOf } from '../../../lib/plural';
 
 interface PieceView2dProps {
   piece: ReportPiece;
@@ -31,7 +32,7 @@ export function PieceView2d({ piece, colourIndex, flagged, formatLength }: Piece
       component="svg"
       data-testid="piece-2d"
       role="img"
-      aria-label={`Piece ${piece.id}, ${formatLength(w)} by ${formatLength(h)}, ${piece.slotCount} slots`}
+      aria-label={`Piece ${piece.id}, ${formatLength(w)} by ${formatLength(h)}, ${countOf(piece.slotCount, 'slot')}`}
       viewBox={`${minX - pad} ${-maxY - pad} ${w + 2 * pad} ${h + 2 * pad}`}
       sx={{ width: '100%', height: 360, bgcolor: '#fbfaf7', borderRadius: 1 }}
     >

@@ -10,6 +10,7 @@ import { AssemblySteps } from './assembly-steps';
 import { CrossingTable } from './crossing-table';
 import { PieceView2d } from './piece-view-2d';
 import { ReportIssues } from './report-issues';
+import { countOf } from '../../../lib/plural';
 
 interface StudioDetailsPanelProps {
   report: DesignReport;
@@ -111,7 +112,7 @@ const DetailTabs = memo(function DetailTabs({
     <Tabs value={tab} onChange={(_, t: number) => onTab(t)} sx={{ mb: 2 }}>
       <Tab label="Piece" />
       <Tab label={`Crossings (${crossings})`} />
-      <Tab label={`Report (${errors} errors, ${warnings} warnings)`} />
+      <Tab label={`Report (${countOf(errors, 'error')}, ${countOf(warnings, 'warning')})`} />
       <Tab label="Assembly" />
     </Tabs>
   );

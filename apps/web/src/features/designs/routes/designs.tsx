@@ -7,6 +7,7 @@ import { DataTable, type DataTableColumn } from '../../../components/data-table/
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
 import { ListPage } from '../../../components/layouts/list-page';
 import { DESIGN_SORT_FIELDS, type DesignSortField, useDesigns } from '../api/get-designs';
+import { countOf } from '../../../lib/plural';
 
 const PAGE_SIZES = [10, 25, 50] as const;
 
@@ -27,7 +28,7 @@ const COLUMNS: readonly DataTableColumn<DesignSummary, DesignSortField>[] = [
       d.preview.valid ? (
         <Chip size="small" color="success" label="valid" />
       ) : (
-        <Chip size="small" color="error" label={`${d.preview.errors.length} errors`} />
+        <Chip size="small" color="error" label={countOf(d.preview.errors.length, 'error')} />
       ),
   },
   {

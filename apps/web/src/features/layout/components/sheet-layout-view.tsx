@@ -5,6 +5,7 @@ import { memo } from 'react';
 import { formatLength, type LengthUnit } from '../../../lib/units';
 import { cutFigures, type SheetView } from '../lib/sheet-views';
 import { pieceColour } from './piece-colours';
+import { countOf } from '../../../lib/plural';
 
 /** Time and cost of a job's layout (from the geometry library's estimates). */
 export interface LayoutEstimateView {
@@ -130,7 +131,7 @@ function SheetDrawing({
       <Box
         component="svg"
         role="img"
-        aria-label={`${title}, ${colour}, ${fmt(w)} by ${fmt(h)}, ${sheet.pieces.length} pieces, ${percent(sheet.utilisation)} used`}
+        aria-label={`${title}, ${colour}, ${fmt(w)} by ${fmt(h)}, ${countOf(sheet.pieces.length, 'piece')}, ${percent(sheet.utilisation)} used`}
         viewBox={`${-stroke * 2} ${-stroke * 2} ${w + stroke * 4} ${h + stroke * 4}`}
         sx={{ width: '100%', height: 'auto', display: 'block' }}
       >
@@ -180,7 +181,7 @@ function SheetDrawing({
         })}
       </Box>
       <Typography component="figcaption" variant="body2" sx={{ mt: 0.5 }}>
-        {`${title} · ${colour} · ${sheet.pieces.length} pieces · ${percent(sheet.utilisation)} used`}
+        {`${title} · ${colour} · ${countOf(sheet.pieces.length, 'piece')} · ${percent(sheet.utilisation)} used`}
       </Typography>
     </Box>
   );
