@@ -96,6 +96,37 @@ describe('simplePolygonHull (Melkman 1987), against monotone-convex-hull-2d', ()
     }
   });
 
+  it('outlines closing on a hull edge, repeated points, and an outline touching itself', () => {
+    // (1, −45) lies on the hull edge from (−5, −88) to (19, 84), where the outline closes.
+    expectSameHull([
+      [19, 84],
+      [-20, 30],
+      [-66, 39],
+      [-50, 15],
+      [-27, -13],
+      [-5, -88],
+      [1, -45],
+    ]);
+    expectSameHull([
+      [0, 0],
+      [4, 0],
+      [4, 0],
+      [4, 4],
+      [2, 1],
+      [2, 1],
+      [0, 4],
+    ]);
+    // (−5, 22) lies on the edge from (9, −5) to (−33, 76): not simple, so the general hull is used.
+    expectSameHull([
+      [81, -41],
+      [9, -5],
+      [-33, 76],
+      [-5, 22],
+      [25, 17],
+      [25, 3],
+    ]);
+  });
+
   it('collinear starts and squares with points along their edges', () => {
     expectSameHull([
       [0, 0],
