@@ -105,6 +105,9 @@ export function pointSegmentDistance(q: Vec2, a: Vec2, b: Vec2): number {
 const orient = (ax: number, ay: number, bx: number, by: number, cx: number, cy: number): number =>
   (bx - ax) * (cy - ay) - (by - ay) * (cx - ax);
 
+/** Twice the signed area of o, a, b: positive when o → a → b turns left (counter-clockwise). */
+const turn = (o: Vec2, a: Vec2, b: Vec2): number => orient(o[0], o[1], a[0], a[1], b[0], b[1]);
+
 /** Whether the segments ab and cd cross at a single interior point. */
 export function segmentsIntersect(a: Vec2, b: Vec2, c: Vec2, d: Vec2): boolean {
   const d1 = orient(a[0], a[1], b[0], b[1], c[0], c[1]);
@@ -141,15 +144,12 @@ export function containsPoint(poly: Polygon, q: Vec2): boolean {
 export function convexHull2(points: readonly Vec2[]): Vec2[] {
   const pts = [...points].sort((p, q) => p[0] - q[0] || p[1] - q[1]);
   if (pts.length < 3) return pts;
-  // Whether o → a → b turns left (counter-clockwise), written out: this runs for every vertex of every
-  // outline the nesting and the checks look at.
-  const left = (o: Vec2, a: Vec2, b: Vec2) =>
-    (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]) > 0;
   const chain = (from: number, to: number, by: number): Vec2[] => {
     const out: Vec2[] = [];
     for (let i = from; i !== to; i += by) {
       const p = pts[i] as Vec2;
-      while (out.length >= 2 && !left(out[out.length - 2] as Vec2, out[out.length - 1] as Vec2, p)) out.pop();
+      while (out.length >= 2 && turn(out[out.length - 2] as Vec2, out[out.length - 1] as Vec2, p) <= 0)
+        out.pop();
       out.push(p);
     }
     out.pop();
@@ -169,7 +169,6 @@ export function convexHull2(points: readonly Vec2[]): Vec2[] {
 export function simplePolygonHull(poly: readonly Vec2[]): Vec2[] {
   const n = poly.length;
   if (n < 4) return convexHull2(poly);
-  const turn = (o: Vec2, a: Vec2, b: Vec2) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
   const [p0, p1, p2] = [poly[0], poly[1], poly[2]] as [Vec2, Vec2, Vec2];
   const first = turn(p0, p1, p2);
   if (first === 0) return convexHull2(poly);
@@ -206,12 +205,12 @@ export function simplePolygonHull(poly: readonly Vec2[]): Vec2[] {
   }
   // An outline that touches itself (a vertex on another edge, as a boolean's result may) can mislead the
   // walk: every vertex must lie in the result, or the general hull is used. O(n log h).
-  if (out.length < 3 || !poly.every((p) => inConvex(out, p, turn))) return convexHull2(poly);
+  if (out.length < 3 || !poly.every((p) => inConvex(out, p))) return convexHull2(poly);
   return out;
 }
 
 /** Whether p lies in the counter-clockwise convex polygon c (on its boundary counts), by a fan search. */
-function inConvex(c: readonly Vec2[], p: Vec2, turn: (o: Vec2, a: Vec2, b: Vec2) => number): boolean {
+function inConvex(c: readonly Vec2[], p: Vec2): boolean {
   const o = c[0] as Vec2;
   const n = c.length;
   // Slack for rounding: relative to the polygon's size.

@@ -402,13 +402,8 @@ function convexLatticePatterns(
 ): PatternResult[] {
   const part = cache.parts[partIndex]!;
   const outline = part.outline;
-  const key = (d: number) => Math.round(normaliseAngle(d) * 1e6);
-  const allowed = new Set(rotationsDeg.map(key));
   // A rotation is usable when it is allowed or gives the same shape as an allowed one.
-  const usable = (d: number) =>
-    free ||
-    allowed.has(key(d)) ||
-    distinctRotations(outline, [...rotationsDeg, d]).length === rotationsDeg.length;
+  const usable = (d: number) => free || allowedCongruent(outline, rotationsDeg, d) !== undefined;
   let angles: number[] = [...rotationsDeg];
   if (free) {
     // Rotation is free: sweep one symmetry period of the hull (24 steps; the lattice is one of hulls, so turning
@@ -428,9 +423,9 @@ function convexLatticePatterns(
    * own symmetry) is reported as that one, shifted so the outline lands in the same place.
    */
   const asAllowed = (d: number): { deg: number; dx: number; dy: number } | null => {
-    if (free || allowed.has(key(d))) return { deg: d, dx: 0, dy: 0 };
-    const a = allowedCongruent(outline, rotationsDeg, d);
+    const a = free ? d : allowedCongruent(outline, rotationsDeg, d);
     if (a === undefined) return null;
+    if (a === d) return { deg: d, dx: 0, dy: 0 };
     const bd = cache.variant(partIndex, d).bounds;
     const ba = cache.variant(partIndex, a).bounds;
     return { deg: a, dx: bd.minX - ba.minX, dy: bd.minY - ba.minY };

@@ -52,7 +52,7 @@ export function thicknessClashes(
   toleranceMm = CLASH_TOLERANCE_MM,
   crossings: readonly { a: number; b: number; t0: number; t1: number }[] = [],
 ): ThicknessClash[] {
-  // Along a crossing both pieces are slotted (slots.ts makes room there): those stretches are not sampled.
+  // Along a crossing both pieces are slotted (slots.ts makes room there): those stretches are left out.
   const crossed = new Map<string, [number, number][]>();
   for (const c of crossings) {
     const key = `${Math.min(c.a, c.b)}-${Math.max(c.a, c.b)}`;
@@ -63,7 +63,7 @@ export function thicknessClashes(
   const out: ThicknessClash[] = [];
   const hulls = pieces.map((p) => flatten(simplePolygonHull(p.outline)));
   const longest = Math.max(0, ...hulls.map((b) => b.xs.length));
-  const scratch = { e: [0, 0, 0] as Vec3, ts: new Float64Array(longest), us: new Float64Array(longest) };
+  const scratch = { ts: new Float64Array(longest), us: new Float64Array(longest) };
   // Each piece's distance from its frame's origin.
   const radius = hulls.map(({ xs, ys }) => xs.reduce((r, x, k) => Math.max(r, Math.hypot(x, ys[k]!)), 0));
   // Flattened when a pair first needs them.
@@ -217,7 +217,13 @@ interface Projected {
 }
 
 /** The outline in (t, u) coordinates; into `reuse`'s arrays when given (they must be long enough). */
-function project(frame: PieceFrame, { xs, ys }: Flat, point: Vec3, dir: Vec3, reuse?: Projected): Projected {
+function project(
+  frame: PieceFrame,
+  { xs, ys }: Flat,
+  point: Vec3,
+  dir: Vec3,
+  reuse?: Pick<Projected, 'ts' | 'us'>,
+): Projected {
   const e = cross3(frame.normal, dir);
   const [ox, oy] = toFrame(frame, point);
   const [dx, dy] = dirToFrame(frame, dir);

@@ -16,6 +16,7 @@ import { type SheetView, sheetViews } from '../../layout/lib/sheet-views';
 import { useMachineProfiles } from '../../jobs/api/get-machine-profiles';
 import { useMaterials } from '../../jobs/api/get-materials';
 import { type BuiltPreview } from '../hooks/use-built-model';
+import { countOf } from '../../../lib/plural';
 
 interface StudioSheets {
   sheets: SheetView[];
@@ -147,8 +148,8 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
         <>
           <Typography sx={{ mb: 1 }} data-testid="sheets-summary">
             {value.sheetsAsked !== null
-              ? `Largest size on ${value.sheetsAsked} ${value.sheetsAsked === 1 ? 'sheet' : 'sheets'}: diameter ${fmt(value.diameterMm)}, using ${value.sheets.length}.`
-              : `At diameter ${fmt(value.diameterMm)} the pieces need ${value.sheets.length} ${value.sheets.length === 1 ? 'sheet' : 'sheets'}.`}
+              ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${fmt(value.diameterMm)}, using ${value.sheets.length}.`
+              : `At diameter ${fmt(value.diameterMm)} the pieces need ${countOf(value.sheets.length, 'sheet')}.`}
           </Typography>
           {value.failure ? (
             <Alert severity="error" sx={{ mb: 1 }}>

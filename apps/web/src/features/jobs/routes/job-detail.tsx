@@ -32,6 +32,7 @@ import { PrepareJobDialog } from '../components/prepare-job-dialog';
 import { RecordCutDialog } from '../components/record-cut-dialog';
 import { ReturnJobDialog } from '../components/return-job-dialog';
 import { SafetyDialog } from '../components/safety-dialog';
+import { countOf } from '../../../lib/plural';
 
 /** Actions that need more than a confirmation open their own dialog. */
 type Open = JobAction | 'safety' | null;
@@ -95,7 +96,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         </ToggleButtonGroup>
       </Stack>
       <Typography color="text.secondary" sx={{ mb: 2 }}>
-        {`Requested by ${job.requesterName} · ${job.quantity} ${job.quantity === 1 ? 'copy' : 'copies'} · `}
+        {`Requested by ${job.requesterName} · ${countOf(job.quantity, 'copy', 'copies')} · `}
         <Link to={`/designs/${job.designId}`}>open the design</Link>
       </Typography>
       {job.returnReason && job.state === 'returned' ? (
