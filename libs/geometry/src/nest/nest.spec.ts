@@ -292,6 +292,80 @@ describe('nestParts — true shape', () => {
     expect(cache.shapeCount).toBe(1);
   });
 
+  it("nests a model's congruent pieces, one copy each, like copies of one part", () => {
+    // A built model gives each piece as its own part, turned and shifted into its face's frame. Counted
+    // together they must lay out as well as one part with that quantity (the pattern pass needs copies).
+    const hex = [4, 2, 0].reduce((o, e) => withEdgeNotch(o, e, 3.2, 40), regular(6, 60));
+    const s52 = withSlot(withSlot(star(5, 2, 50), 4, 3, 15), 0, 3, 15);
+    const tri = withEdgeNotch(regular(3, 100 / Math.sqrt(3)), 1, 9, 25);
+    for (const [outline, n] of [
+      [hex, 24],
+      [s52, 30],
+      [tri, 45],
+    ] as const) {
+      const sheet = { widthMm: 600, heightMm: 400 };
+      const together = nestParts({
+        sheet,
+        marginMm: 5,
+        gapMm: 3,
+        parts: [{ id: 'x', outline, quantity: n }],
+      });
+      const parts = Array.from({ length: n }, (_, k) => ({
+        id: `p${k}`,
+        outline: moved(outline, (k * 137) % 360, 40 * k - 300, 17 - 9 * k),
+        quantity: 1,
+      }));
+      const input: NestInput = { sheet, marginMm: 5, gapMm: 3, parts };
+      const apart = nestParts(input);
+      checkLayout(input, apart);
+      if (!apart.ok || !together.ok) throw new Error('layout failed');
+      expect(apart.totals.sheetCount).toBe(together.totals.sheetCount);
+      expect(firstSheetCount(apart)).toBe(firstSheetCount(together));
+    }
+  });
+
+  it('puts four slotted hexagons on the sheet whose 2 × 2 grid of their bounding boxes fits', () => {
+    // Hexagons of circumradius 103.92 turned to stand on a vertex are 180 × 207.85 mm: on 500 × 450 with a
+    // 8 mm margin and a 4 mm gap, 2 × 180 + 4 ≤ 484 and 2 × 207.85 + 4 ≤ 434 (arithmetic), so a bounding-box
+    // packer holds all four. Greedy bottom-left fill tucked the third into the first two and left 122 mm.
+    const hex = [4, 2, 0].reduce((o, e) => withEdgeNotch(o, e, 3.2, 60), regular(6, 103.92, 0));
+    const parts = [0, 1, 2, 3].map((k) => ({
+      id: `P${k + 1}`,
+      outline: moved(hex, 60 * k + 15, 10 * k, -20 * k),
+      quantity: 1,
+    }));
+    const input: NestInput = { sheet: { widthMm: 500, heightMm: 450 }, marginMm: 8, gapMm: 4, parts };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1);
+  });
+
+  it('keeps congruent parts apart when fixed rotation lists would turn them differently', () => {
+    // With fixed lists the angles are in each part's own frame: a copy drawn turned by 90° may not be laid
+    // at the first part's angles, so it is nested as its own part.
+    const rect: P[] = [
+      [0, 0],
+      [200, 0],
+      [200, 50],
+      [0, 50],
+    ];
+    const input: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 0,
+      gapMm: 2,
+      rotationsDeg: [0],
+      parts: [
+        { id: 'flat', outline: rect, quantity: 3 },
+        { id: 'upright', outline: moved(rect, 90, 0, 0), quantity: 3 },
+        { id: 'flat-too', outline: moved(rect, 0, 30, 40), quantity: 2 },
+      ],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    if (!r.ok) throw new Error(r.error.message);
+    for (const s of r.sheets) for (const pl of s.placements) expect(pl.rotationDeg).toBe(0);
+  });
+
   it('closes a slot narrower than twice the gap but still fits a part into a wide pocket', () => {
     // A U of 200 × 100 with a 60 × 80 pocket and a 2 mm slot in its base: two 30 mm squares fit only in the
     // pocket on a 206 × 106 sheet (derived: 60 − 2·3 = 54 ≥ 30 across, 80 − 3 = 77 ≥ 2·30 + 3 deep).

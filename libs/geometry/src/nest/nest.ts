@@ -23,6 +23,8 @@
  * twice the gap closed; the convex hull for convex-ish pieces), and pieces whose simplified outlines are
  * congruent share them up to a shift (nfpOutline and GeometryCache in variants.ts): slotted pieces of one model
  * cost one set of Minkowski sums, not one per piece.
+ * Parts of one group with congruent outlines are nested as copies of the first of them (mergeCongruent): a
+ * built model gives each of its identical pieces as a part of its own, and only copies reach the pattern pass.
  * Every placement is also checked directly against its neighbours (clearOfItems in variants.ts), and a plan
  * failing that check is never preferred, as a guard against numerical slivers in the polygon unions.
  * Rotations: 'auto' tries 0° and 180°, then the rotations laying the longest convex-hull edges flat (at the
@@ -40,6 +42,7 @@ import { cleanPolygon, isSimplePolygon, signedArea, toCounterClockwise, type Poi
 import {
   autoRotations,
   clearOfItems,
+  congruence,
   distinctRotations,
   GeometryCache,
   patternRotations,
@@ -155,13 +158,81 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
       outline,
       areaMm2: signedArea(outline),
       rotationsDeg,
-      // Only repeated parts are laid in patterns; the finer sweep is not needed for single copies.
-      patternRotationsDeg:
-        rot === 'auto' && p.quantity >= MIN_PATTERN_COPIES ? patternRotations(outline) : rotationsDeg,
+      // Set once congruent parts are counted together (withPatternRotations).
+      patternRotationsDeg: rotationsDeg,
       freeRotation: rot === 'auto',
     });
   }
   return parts;
+}
+
+/** Congruence tolerance (mm): a member's outline lies within this of the class's first outline, turned. */
+const CONGRUENT_TOL_MM = 1e-4;
+
+/** A part nested as a copy of a congruent part: its outline ≈ R(thetaDeg)·(the first part's outline) + (ox, oy). */
+interface ClassMember {
+  partIndex: number;
+  quantity: number;
+  thetaDeg: number;
+  ox: number;
+  oy: number;
+}
+
+/**
+ * Parts of one group whose outlines are congruent (turned and shifted, not mirrored, within 0.1 µm) are
+ * nested as copies of the first of them, so that the pattern pass sees a model's identical pieces (each its
+ * own part, one copy each) as many copies of one shape, and copies share feasible regions. With free rotation
+ * any turn matches; with fixed rotation lists only identical lists and outlines equal up to a shift do, since
+ * the allowed angles are measured in each part's own frame. Returns the parts to nest (the first of each
+ * class carries the class's quantity, the others none) and each class's members, the first part included.
+ */
+function mergeCongruent(parts: readonly PreparedPart[]): {
+  nesting: PreparedPart[];
+  members: Map<number, ClassMember[]>;
+} {
+  const nesting = parts.map((p) => ({ ...p }));
+  const members = new Map<number, ClassMember[]>();
+  const heads: PreparedPart[] = [];
+  const asXY = (outline: readonly Point[]) => outline.map(([x, y]) => ({ X: x, Y: y }));
+  for (const p of nesting) {
+    if (p.quantity === 0) continue;
+    const head = heads.find((h) => {
+      if (h.group !== p.group || h.outline.length !== p.outline.length) return false;
+      if (Math.abs(h.areaMm2 - p.areaMm2) > 1e-6 * h.areaMm2 + 1e-9) return false;
+      if (h.freeRotation !== p.freeRotation) return false;
+      if (!h.freeRotation && h.rotationsDeg.join() !== p.rotationsDeg.join()) return false;
+      return true;
+    });
+    const m = head && congruence(asXY(head.outline), asXY(p.outline), CONGRUENT_TOL_MM);
+    const turn = m ? ((m.thetaDeg % 360) + 360) % 360 : 0;
+    if (!head || !m || (!p.freeRotation && Math.min(turn, 360 - turn) > 1e-7)) {
+      heads.push(p);
+      members.set(p.index, [{ partIndex: p.index, quantity: p.quantity, thetaDeg: 0, ox: 0, oy: 0 }]);
+      continue;
+    }
+    members.get(head.index)!.push({ partIndex: p.index, quantity: p.quantity, ...m });
+    head.quantity += p.quantity;
+    p.quantity = 0;
+  }
+  for (const p of nesting)
+    // Only repeated parts are laid in patterns; the finer sweep is not needed for single copies.
+    if (p.freeRotation && p.quantity >= MIN_PATTERN_COPIES)
+      p.patternRotationsDeg = patternRotations(p.outline);
+  return { nesting, members };
+}
+
+/**
+ * A placement of a class's first part, given to the member it stands for: the member's outline is R(θ)·A + o,
+ * so turning it by φ − θ and shifting by T − R(φ − θ)·o covers the same ground as A turned by φ and shifted by T.
+ */
+function memberPlacement(m: ClassMember, rotationDeg: number, x: number, y: number) {
+  if (m.thetaDeg === 0 && m.ox === 0 && m.oy === 0) return { x, y, rotationDeg };
+  const deg = ((((rotationDeg - m.thetaDeg) % 360) + 360) % 360) % 360;
+  const psi = round(deg) % 360; // the reported angle, so that the shift matches it
+  const t = (psi * Math.PI) / 180;
+  const ox = m.ox * Math.cos(t) - m.oy * Math.sin(t);
+  const oy = m.ox * Math.sin(t) + m.oy * Math.cos(t);
+  return { x: round(x - ox), y: round(y - oy), rotationDeg: psi };
 }
 
 interface GroupPlan {
@@ -364,23 +435,41 @@ export function nestParts(input: NestInput): NestResult {
       tooBig,
     );
 
+  const { nesting, members } = mergeCongruent(prepared);
   const groups: string[] = [];
-  for (const p of prepared) if (p.quantity > 0 && !groups.includes(p.group)) groups.push(p.group);
+  for (const p of nesting) if (p.quantity > 0 && !groups.includes(p.group)) groups.push(p.group);
   const sheetArea = sheet.widthMm * sheet.heightMm;
   const sheets: NestSheetResult[] = [];
   const groupTotals: NestTotals['groups'] = [];
   const sheetsByGroup: Record<string, number> = {};
   for (const group of groups) {
-    const parts = prepared.filter((p) => p.group === group && p.quantity > 0);
+    const parts = nesting.filter((p) => p.group === group && p.quantity > 0);
     const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best');
+    // Copies of a congruent class go to its members in turn, in placement order.
+    const queues = new Map<number, ClassMember[]>();
+    const nextMember = (head: number): ClassMember => {
+      let queue = queues.get(head);
+      if (!queue)
+        queues.set(
+          head,
+          (queue = (members.get(head) ?? []).flatMap((m) => Array.from({ length: m.quantity }, () => m))),
+        );
+      return queue.shift() ?? members.get(head)![0]!;
+    };
     for (const s of plan.sheets) {
       const items = [...s.items].sort((a, b) => a.tx - b.tx || a.ty - b.ty);
-      const placements = items.map((it) => ({
-        part: prepared[it.variant.partIndex]!.id,
-        x: round(it.tx / SCALE_PER_MM),
-        y: round(it.ty / SCALE_PER_MM),
-        rotationDeg: it.variant.rotationDeg,
-      }));
+      const placements = items.map((it) => {
+        const m = nextMember(it.variant.partIndex);
+        return {
+          part: prepared[m.partIndex]!.id,
+          ...memberPlacement(
+            m,
+            it.variant.rotationDeg,
+            round(it.tx / SCALE_PER_MM),
+            round(it.ty / SCALE_PER_MM),
+          ),
+        };
+      });
       const area = items.reduce((a, it) => a + it.variant.areaMm2, 0);
       sheets.push({
         group,

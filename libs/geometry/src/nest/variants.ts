@@ -285,7 +285,7 @@ function centroidOf(path: IntPath): { x: number; y: number } {
  * If `b` is `a` turned by some angle θ and shifted (same vertex cycle, every vertex within tol units), returns
  * θ (degrees) and the shift (units) with b ≈ R(θ)·a + shift; otherwise null. Mirror images are not matched.
  */
-function congruence(
+export function congruence(
   a: IntPath,
   b: IntPath,
   tol: number,
