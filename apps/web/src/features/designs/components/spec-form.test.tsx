@@ -122,6 +122,32 @@ describe('design studio spec form', () => {
     expect(screen.queryByLabelText('Sheets')).not.toBeInTheDocument();
   });
 
+  it('keeps each value when a field is swapped for another and back (scale by, machine kind)', async () => {
+    let submitted: DesignFormValues | undefined;
+    const { user } = renderWithProviders(<Harness onValues={(v) => (submitted = v)} />);
+    const scaleBy = await screen.findByLabelText('Scale by');
+    await user.selectOptions(scaleBy, 'fitSheets');
+    const sheets = await screen.findByLabelText('Sheets');
+    await user.clear(sheets);
+    await user.type(sheets, '3');
+    await user.selectOptions(scaleBy, 'diameter');
+    expect(await screen.findByLabelText('Scale (mm)')).toHaveValue(DEFAULT_DESIGN_VALUES.scaleMm);
+    await user.selectOptions(screen.getByLabelText('Machine kind'), 'router');
+    const tool = await screen.findByLabelText('Tool diameter (mm)');
+    await user.clear(tool);
+    await user.type(tool, '6');
+    await user.selectOptions(screen.getByLabelText('Machine kind'), 'laser');
+    expect(await screen.findByLabelText('Kerf (mm)')).toHaveValue(DEFAULT_DESIGN_VALUES.kerfMm);
+    await user.click(screen.getByRole('button', { name: 'Check' }));
+    await waitFor(() => expect(submitted).toBeDefined());
+    expect(submitted).toMatchObject({
+      scaleMm: DEFAULT_DESIGN_VALUES.scaleMm,
+      fitSheets: 3,
+      kerfMm: DEFAULT_DESIGN_VALUES.kerfMm,
+      toolDiameterMm: 6,
+    });
+  });
+
   it('saves the colours with the design and reads a fit scale back from a saved spec', () => {
     const parsed = designFormSchema.parse({ ...DEFAULT_DESIGN_VALUES, scaleBy: 'fitBed', colourCount: 3 });
     const saved = toSavedSpec(parsed, null);
