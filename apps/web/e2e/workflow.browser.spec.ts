@@ -71,7 +71,10 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await page.getByLabel('Colours', { exact: true }).fill('2');
     await page.getByLabel('Rule').selectOption('neighbour-distinct');
 
-    // The same model laid out on the stock sheet, in the browser: each sheet drawn with its pieces.
+    // The same model laid out on the stock sheet, in the browser's layout worker (off the page's main thread):
+    // each sheet drawn with its pieces.
+    const workers: string[] = [];
+    page.on('worker', (w) => workers.push(w.url()));
     const sheets = page.getByTestId('studio-sheets');
     await sheets.getByRole('button', { name: 'Lay out on sheets' }).click();
     await sheets.getByTestId('sheets-summary').waitFor();
@@ -84,6 +87,21 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await sheets.getByLabel('Estimate time and cost with').selectOption({ index: 1 });
     expect(await sheets.getByTestId('layout-facts').textContent()).toMatch(/Machine time\d+\.\d min/);
     await sheets.screenshot({ path: path.join(SCREENSHOT_DIR, 'studio-sheet-layout.png') });
+    expect(workers.some((url) => /layout\.worker/.test(url))).toBe(true);
+
+    // Fit to sheets: the largest model on two sheets, searched in the worker; the form stays usable meanwhile.
+    await page.getByLabel('Scale by').selectOption('fitSheets');
+    await page.getByLabel('Sheets', { exact: true }).fill('2');
+    await sheets
+      .getByTestId('sheets-summary')
+      .filter({ hasText: /^Largest size on 2 sheets: diameter/ })
+      .waitFor();
+    expect(await sheets.getByTestId('layout-sheet').count()).toBeLessThanOrEqual(2);
+    await page.getByLabel('Scale by').selectOption('diameter');
+    await sheets
+      .getByTestId('sheets-summary')
+      .filter({ hasText: /^At diameter 240/ })
+      .waitFor();
 
     // The assembly order: every piece once (8 hexagons), the first held upright.
     await page.getByRole('tab', { name: 'Assembly' }).click();

@@ -1,5 +1,5 @@
 import { type DesignSpecInput } from '@kerfwright/contracts';
-import { buildWithLayout, type ColourRule, layoutModel } from '@kerfwright/geometry';
+import { type ColourRule } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
 import LinearProgress from '@mui/material/LinearProgress';
@@ -8,65 +8,14 @@ import Stack from '@mui/material/Stack';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { memo, useMemo, useState } from 'react';
-import { useBackgroundValue } from '../../../lib/use-background-value';
 import { type LengthUnit, formatLength } from '../../../lib/units';
 import { SheetLayoutView } from '../../layout/components/sheet-layout-view';
 import { estimateSheets } from '../../layout/lib/estimate-sheets';
-import { type SheetView, sheetViews } from '../../layout/lib/sheet-views';
+import { useLayoutTask } from '../../layout/hooks/use-layout-task';
 import { useMachineProfiles } from '../../jobs/api/get-machine-profiles';
 import { useMaterials } from '../../jobs/api/get-materials';
 import { type BuiltPreview } from '../hooks/use-built-model';
 import { countOf } from '../../../lib/plural';
-
-interface StudioSheets {
-  sheets: SheetView[];
-  diameterMm: number;
-  /** fitSheets: the sheets asked for; otherwise null. */
-  sheetsAsked: number | null;
-  failure: string | null;
-}
-
-/**
- * Lays the studio's model out on the stock sheet, in the browser, after the preview has been drawn (never
- * on the keystroke itself). A fixed or bed-fitted size is laid out as built; "fit to sheets" runs the
- * library's search for the largest size on N sheets (buildWithLayout), so its diameter is the one found.
- */
-function layOut(
-  spec: DesignSpecInput,
-  preview: BuiltPreview,
-  colourCount: number,
-  colourRule: ColourRule,
-): StudioSheets {
-  const sheet = spec.stock.sheet as { widthMm: number; heightMm: number };
-  const marginMm = spec.stock.marginMm ?? 0;
-  const gapMm = spec.stock.gapMm ?? 0;
-  if (spec.scale.by === 'fitSheets') {
-    const colours = colourCount > 1 ? { colours: { count: colourCount, rule: colourRule } } : {};
-    const { model, layout } = buildWithLayout({ ...spec, ...colours });
-    const failure = model.report.errors[0]?.message ?? (layout && !layout.ok ? layout.message : null);
-    return {
-      sheets: layout?.ok ? sheetViews(model, layout, { ...sheet, marginMm }) : [],
-      diameterMm: model.report.diameterMm,
-      sheetsAsked: spec.scale.sheets,
-      failure,
-    };
-  }
-  const model = preview.model;
-  if (!model) return { sheets: [], diameterMm: NaN, sheetsAsked: null, failure: preview.failure };
-  const layout = layoutModel(model, {
-    sheet,
-    marginMm,
-    gapMm,
-    colours: { count: colourCount, rule: colourRule },
-    ...(preview.colourPlan ? { colourPlan: preview.colourPlan } : {}),
-  });
-  return {
-    sheets: layout.ok ? sheetViews(model, layout, { ...sheet, marginMm }) : [],
-    diameterMm: model.report.diameterMm,
-    sheetsAsked: null,
-    failure: layout.ok ? null : layout.message,
-  };
-}
 
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   preview,
@@ -84,9 +33,10 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   const fit = spec?.scale.by === 'fitSheets';
   const on = (asked || fit) && spec !== null && preview.model !== null && !preview.failure;
   // The preview's key names the spec, colours and rule the preview was built from.
-  const result = useBackgroundValue(
+  const result = useLayoutTask(
     on ? preview.key : null,
-    () => layOut(spec as DesignSpecInput, preview, colourCount, colourRule),
+    'studio',
+    () => [spec as DesignSpecInput, colourCount, colourRule, preview.colourPlan],
     150,
   );
   const fmt = (mm: number) => formatLength(mm, unit);
