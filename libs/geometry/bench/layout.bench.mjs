@@ -4,7 +4,7 @@
 import os from 'node:os';
 import geometry from '../dist/index.js';
 
-const { buildModel, getSolid, suggestSizes, layoutModel } = geometry;
+const { buildModel, buildWithLayout, getSolid, suggestSizes, layoutModel } = geometry;
 const RUNS = Number(process.env.BENCH_RUNS ?? 3);
 const SHEET = { widthMm: 600, heightMm: 400 };
 
@@ -99,6 +99,49 @@ for (const c of CASES) {
   });
 }
 console.table(rows);
+
+// Fit to sheets: the largest model on N sheets, a search of up to 16 layouts (build-with-layout.ts).
+const FIT_CASES = [
+  {
+    name: 'octahedron lamp, 8 slotted hexagons, 2 colours, 2 sheets of 500 × 450',
+    spec: {
+      solid: 'octahedron',
+      piece: { sides: 6, size: 1.3 },
+      scale: { by: 'fitSheets', sheets: 2 },
+      stock: { thicknessMm: 3, sheet: { widthMm: 500, heightMm: 450 }, marginMm: 8, gapMm: 4 },
+      machine: laser,
+      colours: { count: 2, rule: 'neighbour-distinct' },
+    },
+  },
+  {
+    name: 'rhombic triacontahedron, 30 slotted triangles, 3 colours, 3 sheets of 600 × 400',
+    spec: {
+      ...design('rhombic-triacontahedron', 3, 1, 1.9, 100, laser),
+      scale: { by: 'fitSheets', sheets: 3 },
+      stock: { thicknessMm: 3, sheet: SHEET, marginMm: 5, gapMm: 3 },
+      colours: { count: 3, rule: 'neighbour-distinct' },
+    },
+  },
+];
+const fitRows = [];
+for (const c of FIT_CASES) {
+  const wall = [];
+  let r;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    r = buildWithLayout(c.spec);
+    wall.push(performance.now() - t0);
+  }
+  const scale = r.model.report.scale;
+  fitRows.push({
+    case: c.name,
+    diameterMm: scale?.diameterMm?.toFixed(1),
+    layouts: scale?.evaluations,
+    sheets: r.layout?.ok ? r.layout.totals.sheetCount : 'failed',
+    medianMs: median(wall).toFixed(0),
+  });
+}
+console.table(fitRows);
 const cpus = os.cpus();
 console.log(
   `machine: ${cpus[0]?.model ?? 'unknown'} × ${cpus.length}, node ${process.version}, load average ${os

@@ -1,5 +1,5 @@
 import * as polygonClipping from 'polygon-clipping';
-import { nestParts, type NestInput, type NestResult } from './nest';
+import { mergeCongruent, nestParts, type NestInput, type NestResult } from './nest';
 import { runNestCommand } from './nest-command';
 import { GeometryCache } from './variants';
 import { area, box, boundaryDistance, mpArea, type P, placed, regular } from '../test-support/polygons';
@@ -338,6 +338,44 @@ describe('nestParts — true shape', () => {
     const r = nestParts(input);
     checkLayout(input, r);
     expect(r.ok && r.totals.sheetCount).toBe(1);
+  });
+
+  it('counts turned copies of a part together, but not its mirror image, whatever the order', () => {
+    // A chiral outline (a flag: pole and pennant) and its mirror image have the same area and vertex count.
+    const flag: P[] = [
+      [0, 0],
+      [10, 0],
+      [10, 60],
+      [40, 75],
+      [10, 90],
+      [0, 90],
+    ];
+    const mirror = flag.map(([x, y]) => [-x, y] as P).reverse();
+    const prepared = [
+      mirror,
+      flag,
+      moved(flag, 130, 7, 9),
+      moved(mirror, 250, -4, 3),
+      moved(flag, 300, 1, 1),
+    ].map((outline, index) => ({
+      index,
+      id: `f${index}`,
+      group: 'g',
+      quantity: 1,
+      outline,
+      areaMm2: area(outline),
+      rotationsDeg: [0],
+      patternRotationsDeg: [0],
+      freeRotation: true,
+    }));
+    const { nesting, members } = mergeCongruent(prepared);
+    expect(nesting.map((p) => p.quantity)).toEqual([2, 3, 0, 0, 0]);
+    expect(members.get(0)!.map((m) => m.partIndex)).toEqual([0, 3]);
+    expect(members.get(1)!.map((m) => m.partIndex)).toEqual([1, 2, 4]);
+    // Each member is its class's first outline turned by θ and shifted by o (the turns given above).
+    const turn = (deg: number) => ((deg % 360) + 360) % 360;
+    expect(turn(members.get(1)![1]!.thetaDeg)).toBeCloseTo(130, 6);
+    expect(turn(members.get(0)![1]!.thetaDeg)).toBeCloseTo(250, 6);
   });
 
   it('keeps congruent parts apart when fixed rotation lists would turn them differently', () => {

@@ -186,7 +186,7 @@ interface ClassMember {
  * the allowed angles are measured in each part's own frame. Returns the parts to nest (the first of each
  * class carries the class's quantity, the others none) and each class's members, the first part included.
  */
-function mergeCongruent(parts: readonly PreparedPart[]): {
+export function mergeCongruent(parts: readonly PreparedPart[]): {
   nesting: PreparedPart[];
   members: Map<number, ClassMember[]>;
 } {
@@ -196,16 +196,22 @@ function mergeCongruent(parts: readonly PreparedPart[]): {
   const asXY = (outline: readonly Point[]) => outline.map(([x, y]) => ({ X: x, Y: y }));
   for (const p of nesting) {
     if (p.quantity === 0) continue;
-    const head = heads.find((h) => {
-      if (h.group !== p.group || h.outline.length !== p.outline.length) return false;
-      if (Math.abs(h.areaMm2 - p.areaMm2) > 1e-6 * h.areaMm2 + 1e-9) return false;
-      if (h.freeRotation !== p.freeRotation) return false;
-      if (!h.freeRotation && h.rotationsDeg.join() !== p.rotationsDeg.join()) return false;
-      return true;
-    });
-    const m = head && congruence(asXY(head.outline), asXY(p.outline), CONGRUENT_TOL_MM);
-    const turn = m ? ((m.thetaDeg % 360) + 360) % 360 : 0;
-    if (!head || !m || (!p.freeRotation && Math.min(turn, 360 - turn) > 1e-7)) {
+    // The first earlier class this part is congruent to (mirror images have equal areas but match none).
+    let head: PreparedPart | undefined;
+    let m: { thetaDeg: number; ox: number; oy: number } | null = null;
+    for (const h of heads) {
+      if (h.group !== p.group || h.outline.length !== p.outline.length) continue;
+      if (Math.abs(h.areaMm2 - p.areaMm2) > 1e-6 * h.areaMm2 + 1e-9) continue;
+      if (h.freeRotation !== p.freeRotation) continue;
+      if (!h.freeRotation && h.rotationsDeg.join() !== p.rotationsDeg.join()) continue;
+      const c = congruence(asXY(h.outline), asXY(p.outline), CONGRUENT_TOL_MM);
+      const turn = c ? ((c.thetaDeg % 360) + 360) % 360 : 0;
+      if (!c || (!p.freeRotation && Math.min(turn, 360 - turn) > 1e-7)) continue;
+      head = h;
+      m = c;
+      break;
+    }
+    if (!head || !m) {
       heads.push(p);
       members.set(p.index, [{ partIndex: p.index, quantity: p.quantity, thetaDeg: 0, ox: 0, oy: 0 }]);
       continue;
