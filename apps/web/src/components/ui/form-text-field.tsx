@@ -18,11 +18,16 @@ export type FormTextFieldProps = Omit<
   error?: FieldError;
 };
 
-/** A labelled text field wired to react-hook-form; its validation message shows under it. */
+/**
+ * A labelled text field wired to react-hook-form; its validation message shows under it. Keyed by the field's
+ * name: where a form swaps one field for another in the same place (kerf for tool diameter), React would
+ * otherwise keep the input element, and the form would read the value left in it into the field that comes.
+ */
 export function FormTextField({ registration, error, helperText, ...props }: FormTextFieldProps) {
   const { ref, ...field } = registration;
   return (
     <TextField
+      key={field.name}
       {...props}
       {...field}
       id={props.id ?? field.name}

@@ -141,11 +141,8 @@ export const SpecForm = memo(function SpecForm({
             </option>
           ))}
         </NativeSelectField>
-        {/* Keys: a field swapped for another in the same place must get its own input element, or the
-            form reads the one left on screen into the field that comes back. */}
         {scaleBy === 'fitSheets' ? (
           <NumberField
-            key="fitSheets"
             label="Sheets"
             name="fitSheets"
             form={fields}
@@ -159,7 +156,7 @@ export const SpecForm = memo(function SpecForm({
             <NumberField label="Bed height (mm)" name="bedHeightMm" form={fields} size="small" />
           </Stack>
         ) : (
-          <NumberField key="scaleMm" label="Scale (mm)" name="scaleMm" form={fields} size="small" />
+          <NumberField label="Scale (mm)" name="scaleMm" form={fields} size="small" />
         )}
       </Section>
 
@@ -197,15 +194,9 @@ export const SpecForm = memo(function SpecForm({
         </NativeSelectField>
         <Stack direction="row" spacing={1}>
           {machineKind === 'laser' ? (
-            <NumberField key="kerfMm" label="Kerf (mm)" name="kerfMm" form={fields} size="small" />
+            <NumberField label="Kerf (mm)" name="kerfMm" form={fields} size="small" />
           ) : (
-            <NumberField
-              key="toolDiameterMm"
-              label="Tool diameter (mm)"
-              name="toolDiameterMm"
-              form={fields}
-              size="small"
-            />
+            <NumberField label="Tool diameter (mm)" name="toolDiameterMm" form={fields} size="small" />
           )}
           <NumberField
             label="Fit allowance (mm)"

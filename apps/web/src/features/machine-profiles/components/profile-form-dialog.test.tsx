@@ -145,6 +145,22 @@ describe('machine profile form', () => {
 });
 
 describe('measured kerf form', () => {
+  it('keeps the laser values typed when the kind is switched to a router and back', async () => {
+    const { user } = renderForm();
+    const setting = screen.getByRole('group', { name: 'Material setting 1' });
+    await user.type(within(setting).getByLabelText('Kerf (mm)'), '0.2');
+    await user.type(within(setting).getByLabelText('Power (%)'), '80');
+    await user.selectOptions(screen.getByLabelText('Kind of machine'), 'cnc-router');
+    await user.type(within(setting).getByLabelText('Tool diameter (mm)'), '6');
+    await user.type(within(setting).getByLabelText('Spindle (rpm, optional)'), '18000');
+    await user.selectOptions(screen.getByLabelText('Kind of machine'), 'co2-laser');
+    expect(within(setting).getByLabelText('Kerf (mm)')).toHaveValue(0.2);
+    expect(within(setting).getByLabelText('Power (%)')).toHaveValue(80);
+    await user.selectOptions(screen.getByLabelText('Kind of machine'), 'cnc-router');
+    expect(within(setting).getByLabelText('Tool diameter (mm)')).toHaveValue(6);
+    expect(within(setting).getByLabelText('Spindle (rpm, optional)')).toHaveValue(18000);
+  });
+
   it('needs a value in the range of the machine kind', async () => {
     const onSubmit = vi.fn();
     const { user } = renderWithProviders(
