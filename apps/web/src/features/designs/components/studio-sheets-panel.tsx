@@ -15,7 +15,21 @@ import { useLayoutTask } from '../../layout/hooks/use-layout-task';
 import { useMachineProfiles } from '../../jobs/api/get-machine-profiles';
 import { useMaterials } from '../../jobs/api/get-materials';
 import { type BuiltPreview } from '../hooks/use-built-model';
+import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
+import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
+
+/** The line above the sheets: the size and sheet count, or what the layout could not do. */
+function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string): string {
+  const size = fmt(value.diameterMm);
+  if (value.sheetsAsked !== null)
+    return value.sheets.length > 0
+      ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${size}, using ${value.sheets.length}.`
+      : `No size found on ${countOf(value.sheetsAsked, 'sheet')}: the search stopped at diameter ${size}.`;
+  return value.sheets.length > 0
+    ? `At diameter ${size} the pieces need ${countOf(value.sheets.length, 'sheet')}.`
+    : `The pieces could not be laid out at diameter ${size}.`;
+}
 
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   preview,
@@ -97,23 +111,21 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
       {on && value ? (
         <>
           <Typography sx={{ mb: 1 }} data-testid="sheets-summary">
-            {value.sheetsAsked !== null
-              ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${fmt(value.diameterMm)}, using ${value.sheets.length}.`
-              : `At diameter ${fmt(value.diameterMm)} the pieces need ${countOf(value.sheets.length, 'sheet')}.`}
+            {sheetsSummary(value, fmt)}
           </Typography>
           {value.failure ? (
             <Alert severity="error" sx={{ mb: 1 }}>
               {value.failure}
             </Alert>
           ) : null}
-          {choices.length > 0 ? (
+          {choices.length > 0 && value.sheets.length > 0 ? (
             <TextField
               select
               size="small"
               label="Estimate time and cost with"
               value={machineChoice}
               onChange={(e) => setMachineChoice(e.target.value)}
-              slotProps={{ select: { native: true } }}
+              slotProps={NATIVE_SELECT}
               sx={{ mb: 2, minWidth: 320 }}
             >
               <option value="">no machine (cut length and pierces only)</option>

@@ -16,6 +16,7 @@ import { useCreateKerfRecord } from '../api/create-kerf-record';
 import { useKerfRecords } from '../api/get-kerf-records';
 import { KerfHistoryChart, type KerfReference } from './kerf-history-chart';
 import { KerfRecordDialog } from './kerf-record-dialog';
+import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
@@ -82,7 +83,7 @@ export function KerfHistoryPanel({
           label="Material"
           value={materialId}
           onChange={(e) => setChosen(e.target.value)}
-          slotProps={{ select: { native: true } }}
+          slotProps={NATIVE_SELECT}
           sx={{ minWidth: 260 }}
         >
           {choices.map((m) => (

@@ -6,6 +6,7 @@ import { useForm } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { type KerfRecordValues, kerfRecordSchema } from './kerf-record-schema';
+import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
 /** Records a kerf measured on a test cut (callipers across a cut slot, or a coupon's lost width). */
 export function KerfRecordDialog(
@@ -44,7 +45,7 @@ export function KerfRecordDialog(
       <Stack spacing={2} sx={{ mt: 1 }}>
         <FormTextField
           select
-          slotProps={{ select: { native: true } }}
+          slotProps={NATIVE_SELECT}
           label="Material"
           registration={register('materialId')}
           error={errors.materialId}

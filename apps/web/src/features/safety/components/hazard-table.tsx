@@ -10,6 +10,7 @@ import TableRow from '@mui/material/TableRow';
 import TableSortLabel from '@mui/material/TableSortLabel';
 import TextField from '@mui/material/TextField';
 import { useMemo, useState } from 'react';
+import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
 type SortKey = 'family' | 'laser';
 const LASER_LABEL: Record<LaserAllowance, string> = {
@@ -71,7 +72,7 @@ export function HazardTable({ rows }: { rows: readonly MaterialHazard[] }) {
             setLaser(e.target.value as LaserAllowance | 'all');
             setPage(0);
           }}
-          slotProps={{ select: { native: true } }}
+          slotProps={NATIVE_SELECT}
           sx={{ minWidth: 180 }}
         >
           <option value="all">any</option>
