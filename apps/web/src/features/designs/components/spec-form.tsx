@@ -12,6 +12,7 @@ import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
 import { type DesignFormValues } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
+import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 
 const SOLIDS = listSolids();
 
@@ -21,12 +22,6 @@ const SCALE_LABELS: Record<DesignFormValues['scaleBy'], string> = {
   pieceCircumradius: 'Piece size (circumradius)',
   fitSheets: 'Fit to sheets (largest on N sheets)',
   fitBed: 'Fit to the machine bed',
-};
-
-const RULE_LABELS: Record<(typeof COLOUR_RULES)[number], string> = {
-  'neighbour-distinct': 'Neighbours differ',
-  'vertex-distinct': 'All pieces around a vertex differ',
-  'opposite-match': 'Opposite pieces match, neighbours differ',
 };
 
 function Section({ title, children }: { title: string; children: ReactNode }) {
@@ -221,7 +216,7 @@ export const SpecForm = memo(function SpecForm({
           <NativeSelectField label="Rule" name="colourRule" form={fields} size="small">
             {COLOUR_RULES.map((rule) => (
               <option key={rule} value={rule}>
-                {RULE_LABELS[rule]}
+                {COLOUR_RULE_LABELS[rule]}
               </option>
             ))}
           </NativeSelectField>

@@ -148,4 +148,30 @@ describe('prepare job dialog', () => {
       sheet: { widthMm: 1000, heightMm: 600 },
     });
   });
+
+  it('clears the chosen profile version when a material it has no settings for is chosen', async () => {
+    const birch = { ...acrylic, id: 'm-birch', name: 'Birch plywood 3 mm', colours: ['natural'] };
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic, birch], total: 2, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={onSubmit} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: 'Birch plywood 3 mm' });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    const profile = screen.getByLabelText('Machine profile (approved version)');
+    await user.selectOptions(profile, await screen.findByRole('option', { name: /CO2 laser/ }));
+    expect(profile).toHaveValue('v-approved');
+    // The laser's approved version holds settings for acrylic only.
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-birch');
+    expect(profile).toHaveValue('');
+    await user.click(await screen.findByLabelText('natural'));
+    await user.click(screen.getByRole('button', { name: 'Prepare' }));
+    expect(await screen.findByText('Choose an approved machine profile')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+    // The rules are offered by name.
+    expect(screen.getByRole('option', { name: 'Neighbours differ' })).toBeInTheDocument();
+  });
 });

@@ -9,7 +9,8 @@ import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
-import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { NATIVE_SELECT, NativeSelectField } from '../../../components/ui/native-select-field';
+import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
@@ -31,6 +32,7 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
     control,
     handleSubmit,
     setValue,
+    getValues,
     formState: { errors },
   } = useForm<PrepareJobValues>({
     resolver: zodResolver(prepareJobSchema),
@@ -50,7 +52,6 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
       p.currentApproved &&
       (!materialId || p.currentApproved.settings.some((s) => s.materialId === materialId)),
   );
-  const native = { select: { native: true } } as const;
   const fields = { register, errors };
 
   const submit = handleSubmit((v) => {
@@ -81,13 +82,20 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
       <Stack spacing={2} sx={{ mt: 1 }}>
         <FormTextField
           select
-          slotProps={native}
+          slotProps={NATIVE_SELECT}
           label="Material"
           registration={{
             ...materialField,
             onChange: async (e) => {
               setValue('colours', []);
               setValue('sheetIndex', '0');
+              // A chosen version without settings for the new material is no longer offered: clear it.
+              const next = String(e.target.value);
+              const chosen = (profiles.data?.items ?? []).find(
+                (p) => p.currentApproved && p.currentApproved.id === getValues('profileVersionId'),
+              );
+              if (chosen && !chosen.currentApproved?.settings.some((st) => st.materialId === next))
+                setValue('profileVersionId', '');
               return materialField.onChange(e);
             },
           }}
@@ -154,7 +162,7 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
         <NativeSelectField label="Colour rule" name="colourRule" form={fields}>
           {COLOUR_RULES.map((r) => (
             <option key={r} value={r}>
-              {r}
+              {COLOUR_RULE_LABELS[r]}
             </option>
           ))}
         </NativeSelectField>
