@@ -158,7 +158,7 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
       outline,
       areaMm2: signedArea(outline),
       rotationsDeg,
-      // Set once congruent parts are counted together (withPatternRotations).
+      // Set once congruent parts are counted together (mergeCongruent).
       patternRotationsDeg: rotationsDeg,
       freeRotation: rot === 'auto',
     });

@@ -4,8 +4,6 @@ import { useLayoutTask } from '../../layout/hooks/use-layout-task';
 import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterials } from '../api/get-materials';
 
-export { type JobLayout, jobEstimate, layOutJob, preparedSpec } from '../lib/job-layout';
-
 /** The job's sheets, laid out in the browser once the design and the material are loaded. */
 export function useJobLayout(job: JobView, enabled: boolean) {
   const design = useDesign(enabled && job.preparation ? job.designId : undefined);

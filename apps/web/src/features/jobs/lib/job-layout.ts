@@ -61,6 +61,10 @@ export function jobEstimate(
   return estimateSheets(sheets, version, setting, stock ? stock.pricePerSheet : null);
 }
 
+/**
+ * A prepared job's sheets, laid out again from its design and preparation, with their estimate and a note
+ * when they differ from what the preparation counted. Plain data in and out: it runs in the layout worker.
+ */
 export function layOutJob(
   job: JobView,
   design: DesignSpecInput,
