@@ -369,13 +369,27 @@ describe('nestParts — true shape', () => {
       freeRotation: true,
     }));
     const { nesting, members } = mergeCongruent(prepared);
-    expect(nesting.map((p) => p.quantity)).toEqual([2, 3, 0, 0, 0]);
-    expect(members.get(0)!.map((m) => m.partIndex)).toEqual([0, 3]);
-    expect(members.get(1)!.map((m) => m.partIndex)).toEqual([1, 2, 4]);
+    expect(nesting.map((p) => [p.index, p.quantity])).toEqual([
+      [0, 2],
+      [1, 3],
+    ]);
+    expect(members.get('g|0')!.map((m) => m.partIndex)).toEqual([0, 3]);
+    expect(members.get('g|1')!.map((m) => m.partIndex)).toEqual([1, 2, 4]);
     // Each member is its class's first outline turned by θ and shifted by o (the turns given above).
     const turn = (deg: number) => ((deg % 360) + 360) % 360;
-    expect(turn(members.get(1)![1]!.thetaDeg)).toBeCloseTo(130, 6);
-    expect(turn(members.get(0)![1]!.thetaDeg)).toBeCloseTo(250, 6);
+    expect(turn(members.get('g|1')![1]!.thetaDeg)).toBeCloseTo(130, 6);
+    expect(turn(members.get('g|0')![1]!.thetaDeg)).toBeCloseTo(250, 6);
+    // In another colour group the same shape is nested under the first part's index and outline.
+    const other = mergeCongruent([
+      ...prepared,
+      { ...prepared[1]!, index: 5, id: 'f5', group: 'h', outline: moved(flag, 45, 0, 0) },
+    ]);
+    expect(other.nesting.map((p) => [p.group, p.index, p.quantity])).toEqual([
+      ['g', 0, 2],
+      ['g', 1, 3],
+      ['h', 1, 1],
+    ]);
+    expect(turn(other.members.get('h|1')![0]!.thetaDeg)).toBeCloseTo(45, 6);
   });
 
   it('keeps congruent parts apart when fixed rotation lists would turn them differently', () => {

@@ -180,45 +180,57 @@ interface ClassMember {
 
 /**
  * Parts of one group whose outlines are congruent (turned and shifted, not mirrored, within 0.1 µm) are
- * nested as copies of the first of them, so that the pattern pass sees a model's identical pieces (each its
- * own part, one copy each) as many copies of one shape, and copies share feasible regions. With free rotation
- * any turn matches; with fixed rotation lists only identical lists and outlines equal up to a shift do, since
- * the allowed angles are measured in each part's own frame. Returns the parts to nest (the first of each
- * class carries the class's quantity, the others none) and each class's members, the first part included.
+ * nested as copies of one shape, so that the pattern pass sees a model's identical pieces (each its own part,
+ * one copy each) as many copies, and copies share feasible regions. The shape is the outline of the first such
+ * part in any group: the colour groups of one model then nest the very same shape, and its pattern search
+ * (cached per outline) runs once. With free rotation any turn matches; with fixed rotation lists only
+ * identical lists and outlines equal up to a shift do, since the allowed angles are in each part's own frame.
+ * Returns the parts to nest (each class as one part carrying the class's quantity, with the index and outline
+ * of its shape) and each class's members by `group|shape index`.
  */
 export function mergeCongruent(parts: readonly PreparedPart[]): {
   nesting: PreparedPart[];
-  members: Map<number, ClassMember[]>;
+  members: Map<string, ClassMember[]>;
 } {
-  const nesting = parts.map((p) => ({ ...p }));
-  const members = new Map<number, ClassMember[]>();
-  const heads: PreparedPart[] = [];
+  const nesting: PreparedPart[] = [];
+  const members = new Map<string, ClassMember[]>();
+  /** The class of each group and shape: its nesting part. */
+  const classes = new Map<string, PreparedPart>();
+  /** The first part of each shape (its outline is the shape's). */
+  const shapes: PreparedPart[] = [];
   const asXY = (outline: readonly Point[]) => outline.map(([x, y]) => ({ X: x, Y: y }));
-  for (const p of nesting) {
+  for (const p of parts) {
     if (p.quantity === 0) continue;
-    // The first earlier class this part is congruent to (mirror images have equal areas but match none).
-    let head: PreparedPart | undefined;
-    let m: { thetaDeg: number; ox: number; oy: number } | null = null;
-    for (const h of heads) {
-      if (h.group !== p.group || h.outline.length !== p.outline.length) continue;
+    // The first earlier shape this part is congruent to (mirror images have equal areas but match none).
+    let shape: PreparedPart | undefined;
+    let m: { thetaDeg: number; ox: number; oy: number } = { thetaDeg: 0, ox: 0, oy: 0 };
+    for (const h of shapes) {
+      if (h.outline.length !== p.outline.length) continue;
       if (Math.abs(h.areaMm2 - p.areaMm2) > 1e-6 * h.areaMm2 + 1e-9) continue;
       if (h.freeRotation !== p.freeRotation) continue;
       if (!h.freeRotation && h.rotationsDeg.join() !== p.rotationsDeg.join()) continue;
       const c = congruence(asXY(h.outline), asXY(p.outline), CONGRUENT_TOL_MM);
       const turn = c ? ((c.thetaDeg % 360) + 360) % 360 : 0;
       if (!c || (!p.freeRotation && Math.min(turn, 360 - turn) > 1e-7)) continue;
-      head = h;
+      shape = h;
       m = c;
       break;
     }
-    if (!head || !m) {
-      heads.push(p);
-      members.set(p.index, [{ partIndex: p.index, quantity: p.quantity, thetaDeg: 0, ox: 0, oy: 0 }]);
-      continue;
+    if (!shape) {
+      shape = p;
+      shapes.push(p);
     }
-    members.get(head.index)!.push({ partIndex: p.index, quantity: p.quantity, ...m });
-    head.quantity += p.quantity;
-    p.quantity = 0;
+    const key = `${p.group}|${shape.index}`;
+    let cls = classes.get(key);
+    if (!cls) {
+      // Named after its first member (method labels), nested with the shape's index and outline.
+      cls = { ...shape, id: p.id, group: p.group, quantity: 0 };
+      classes.set(key, cls);
+      nesting.push(cls);
+      members.set(key, []);
+    }
+    cls.quantity += p.quantity;
+    members.get(key)!.push({ partIndex: p.index, quantity: p.quantity, ...m });
   }
   for (const p of nesting)
     // Only repeated parts are laid in patterns; the finer sweep is not needed for single copies.
@@ -453,14 +465,12 @@ export function nestParts(input: NestInput): NestResult {
     const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best');
     // Copies of a congruent class go to its members in turn, in placement order.
     const queues = new Map<number, ClassMember[]>();
-    const nextMember = (head: number): ClassMember => {
-      let queue = queues.get(head);
+    const nextMember = (shape: number): ClassMember => {
+      const all = members.get(`${group}|${shape}`)!;
+      let queue = queues.get(shape);
       if (!queue)
-        queues.set(
-          head,
-          (queue = (members.get(head) ?? []).flatMap((m) => Array.from({ length: m.quantity }, () => m))),
-        );
-      return queue.shift() ?? members.get(head)![0]!;
+        queues.set(shape, (queue = all.flatMap((m) => Array.from({ length: m.quantity }, () => m))));
+      return queue.shift() ?? all[0]!;
     };
     for (const s of plan.sheets) {
       const items = [...s.items].sort((a, b) => a.tx - b.tx || a.ty - b.ty);
