@@ -19,6 +19,7 @@ import { SendBackDialog } from '../components/send-back-dialog';
 import { VersionChanges } from '../components/version-changes';
 import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
+import { countOf } from '../../../lib/plural';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
@@ -167,8 +168,9 @@ export function ApprovalsRoute() {
                 </Typography>
                 {prep ? (
                   <Typography variant="body2" color="text.secondary">
-                    {prep.pieceCount} pieces on {prep.sheetCount} sheet(s) of {prep.sheet.widthMm} ×{' '}
-                    {prep.sheet.heightMm} mm, {(prep.utilisation * 100).toFixed(0)} % used
+                    {countOf(prep.pieceCount, 'piece')} on {countOf(prep.sheetCount, 'sheet')} of{' '}
+                    {prep.sheet.widthMm} × {prep.sheet.heightMm} mm, {(prep.utilisation * 100).toFixed(0)} %
+                    used
                     {prep.estimate
                       ? `; about ${prep.estimate.minutes.toFixed(0)} min, ${(prep.estimate.machineCost + prep.estimate.materialCost).toFixed(2)} ${prep.estimate.currency}`
                       : ''}
