@@ -47,11 +47,13 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
   const materialId = useWatch({ control, name: 'materialId' });
   const material = materials.data?.items.find((m) => m.id === materialId);
   // Only approved versions that hold settings for the chosen material can prepare the job.
-  const approved = (profiles.data?.items ?? []).filter(
-    (p) =>
-      p.currentApproved &&
-      (!materialId || p.currentApproved.settings.some((s) => s.materialId === materialId)),
-  );
+  const approvedFor = (forMaterial: string) =>
+    (profiles.data?.items ?? []).filter(
+      (p) =>
+        p.currentApproved &&
+        (!forMaterial || p.currentApproved.settings.some((s) => s.materialId === forMaterial)),
+    );
+  const approved = approvedFor(materialId);
   const fields = { register, errors };
 
   const submit = handleSubmit((v) => {
@@ -89,12 +91,12 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
             onChange: async (e) => {
               setValue('colours', []);
               setValue('sheetIndex', '0');
-              // A chosen version without settings for the new material is no longer offered: clear it.
-              const next = String(e.target.value);
-              const chosen = (profiles.data?.items ?? []).find(
-                (p) => p.currentApproved && p.currentApproved.id === getValues('profileVersionId'),
-              );
-              if (chosen && !chosen.currentApproved?.settings.some((st) => st.materialId === next))
+              // A chosen version no longer offered for the new material is cleared.
+              const chosen = getValues('profileVersionId');
+              if (
+                chosen &&
+                !approvedFor(String(e.target.value)).some((p) => p.currentApproved?.id === chosen)
+              )
                 setValue('profileVersionId', '');
               return materialField.onChange(e);
             },
