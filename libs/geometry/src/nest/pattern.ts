@@ -99,10 +99,34 @@ class VerticalIndex {
     }
     return ys.sort((u, v) => u - v);
   }
+
+  /**
+   * Whether (x, y) lies inside the paths (even–odd), by counting the crossings of the vertical line at x
+   * below y; undefined when a crossing is within a unit of y (on or next to the boundary), where the caller
+   * asks the exact test. Off the boundary the count is exact (the half-open rule counts each vertex once).
+   */
+  insideByCount(x: number, y: number): boolean | undefined {
+    const c = this.coords;
+    let below = 0;
+    for (const e of this.bins[this.bin(x)]!) {
+      const ax = c[e]!;
+      const bx = c[e + 2]!;
+      if (ax > x === bx > x) continue;
+      const ay = c[e + 1]!;
+      const yc = ay + ((x - ax) * (c[e + 3]! - ay)) / (bx - ax);
+      if (Math.abs(yc - y) <= 1) return undefined;
+      if (yc < y) below++;
+    }
+    return below % 2 === 1;
+  }
 }
 
-function insideAt(paths: IntPaths, x: number, y: number): boolean {
-  return strictlyInside(paths, Math.round(x), Math.round(y), pointInPath);
+/** Whether the rounded point is strictly inside the cell's no-fit polygon (the index first, Clipper near edges). */
+function insideAt({ paths, box, index }: CellNfp, x: number, y: number): boolean {
+  const rx = Math.round(x);
+  const ry = Math.round(y);
+  if (rx <= box.minX || rx >= box.maxX || ry <= box.minY || ry >= box.maxY) return false;
+  return index.insideByCount(rx, ry) ?? strictlyInside(paths, rx, ry, pointInPath);
 }
 
 /** No-fit polygon of the cell against a translated copy of itself. */
@@ -117,20 +141,20 @@ function cellNfp(cache: GeometryCache, cell: readonly CellPiece[]): IntPaths {
 }
 
 /** Whether every k·(ax, 0), k ≥ 1, is clear of the cell's no-fit polygon (up to `width`, its extent). */
-function rowClear(nfp: IntPaths, ax: number, width: number): boolean {
+function rowClear(nfp: CellNfp, ax: number, width: number): boolean {
   for (let k = 1; k * ax <= width + ax; k++) if (insideAt(nfp, k * ax, 0)) return false;
   return true;
 }
 
 /** Whether the second row of the lattice, 2b + k·a for small k, is clear too. */
-function secondRowClear(nfp: IntPaths, { ax, bx, by }: Lattice): boolean {
+function secondRowClear(nfp: CellNfp, { ax, bx, by }: Lattice): boolean {
   for (let k = -3; k <= 3; k++) if (insideAt(nfp, 2 * bx + k * ax, 2 * by)) return false;
   return true;
 }
 
 /** Smallest ax > 0 such that every k·(ax, 0), k ≥ 1, is clear of the cell's no-fit polygon. */
-function rowPeriod(nfp: IntPaths, width: number): number | null {
-  const xs = crossingsAtY(nfp, 0);
+function rowPeriod(nfp: CellNfp, width: number): number | null {
+  const xs = crossingsAtY(nfp.paths, 0);
   for (let i = 1; i < xs.length; i += 2) {
     if (!(xs[i]! > 0)) continue;
     const ax = Math.ceil(xs[i]!) + 1;
@@ -180,8 +204,9 @@ function cellNfpView(paths: IntPaths): CellNfp {
  * horizontal offsets. Returns the densest few plus the rectangular one (bx = 0), since the fullest sheet is
  * not always the densest lattice.
  */
-function candidateLattices({ paths: nfp, box, index }: CellNfp, keep = 6): Lattice[] {
-  const ax = rowPeriod(nfp, box.maxX - box.minX);
+function candidateLattices(view: CellNfp, keep = 6): Lattice[] {
+  const { paths: nfp, box, index } = view;
+  const ax = rowPeriod(view, box.maxX - box.minX);
   if (ax === null) return [];
   const samples = new Set<number>();
   const steps = 32;
@@ -197,7 +222,7 @@ function candidateLattices({ paths: nfp, box, index }: CellNfp, keep = 6): Latti
   const found: Lattice[] = [];
   for (const bx of samples) {
     const lat = { ax, bx, by: lowestClear(index, box, ax, bx) };
-    if (secondRowClear(nfp, lat)) found.push(lat);
+    if (secondRowClear(view, lat)) found.push(lat);
   }
   found.sort((p, q) => p.by - q.by || p.bx - q.bx);
   const out: Lattice[] = [];
@@ -219,21 +244,18 @@ function candidateLattices({ paths: nfp, box, index }: CellNfp, keep = 6): Latti
  * range the cell's reference point may take across the sheet, in integer units; fewer cells per row are tried
  * too.
  */
-function stretchedLattices(
-  { paths: nfp, box, index }: CellNfp,
-  base: readonly Lattice[],
-  span: number,
-): Lattice[] {
+function stretchedLattices(view: CellNfp, base: readonly Lattice[], span: number): Lattice[] {
   if (base.length === 0 || !(span > 0)) return [];
+  const { box, index } = view;
   const ax0 = base[0]!.ax;
   const perRow = Math.floor(span / ax0) + 1;
   const out: Lattice[] = [];
   for (let n = perRow; n >= Math.max(2, perRow - 1); n--) {
     const ax = Math.floor(span / (n - 0.5));
-    if (ax <= ax0 || !rowClear(nfp, ax, box.maxX - box.minX)) continue;
+    if (ax <= ax0 || !rowClear(view, ax, box.maxX - box.minX)) continue;
     const bx = Math.round(ax / 2);
     const lat = { ax, bx, by: lowestClear(index, box, ax, bx) };
-    if (secondRowClear(nfp, lat)) out.push(lat);
+    if (secondRowClear(view, lat)) out.push(lat);
   }
   return out;
 }
