@@ -73,5 +73,6 @@ export { designPreview } from './layout/design-preview';
 // Labels and estimates (browser-safe); the cut pack itself is Node-only: '@kerfwright/geometry/pack'.
 export * from './labels';
 export { assemblyOrder, assemblyStepsOfReport, STRAIGHT_DEG } from './pack/assembly';
+export { clashingColourNames } from './pack/slug';
 export type { AssemblyStep } from './pack/assembly';
 export * from './estimate';

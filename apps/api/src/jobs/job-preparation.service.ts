@@ -7,7 +7,7 @@ import {
   type JobPreparation,
   toMachineSpec,
 } from '@kerfwright/contracts';
-import { SolidError, SpecValidationError } from '@kerfwright/geometry';
+import { clashingColourNames, SolidError, SpecValidationError } from '@kerfwright/geometry';
 import { type PreparedJob } from '@kerfwright/geometry/worker';
 import { AuditService } from '../audit/audit.service';
 import { AppError } from '../common/errors';
@@ -58,6 +58,15 @@ export class JobPreparationService {
         'JOB.UNKNOWN_COLOUR',
         `${material.name} is not stocked in ${unknown.join(', ')}`,
         [{ field: 'colours', messages: [`offered: ${offered.join(', ')}`] }],
+      );
+    }
+    const clash = clashingColourNames(colours);
+    if (clash) {
+      throw new AppError(
+        HttpStatus.BAD_REQUEST,
+        'JOB.SAME_COLOURS',
+        `${clash[0]} and ${clash[1]} cannot be told apart on the sheets and pieces; pick each colour once`,
+        [{ field: 'colours', messages: ['each colour once'] }],
       );
     }
     const sheet = dto.sheet ?? material.stockSheets[0];

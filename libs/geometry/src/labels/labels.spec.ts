@@ -91,6 +91,17 @@ describe('labelPiece', () => {
     }
   });
 
+  it('labels every slot of a router-cut design, whose slots are drawn at their full width', () => {
+    const model = buildModel(octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 2 } }));
+    expect(model.report.errors).toEqual([]);
+    for (const piece of model.pieces) {
+      const r = labelPiece(piece, { clearanceMm: 1 });
+      expect(r.warnings).toEqual([]);
+      expect(r.labels.filter((l) => l.kind === 'slot')).toHaveLength(piece.slots.length);
+      for (const l of r.labels) expectInsideWithClearance(piece.outline, l, 1);
+    }
+  });
+
   it('puts each partner id beside its own slot, near the slot', () => {
     const model = buildModel(octahedronHexagons());
     const piece = model.pieces[0]!;

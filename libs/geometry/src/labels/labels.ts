@@ -145,6 +145,9 @@ export function labelPiece(piece: LabelPieceInput, options: LabelOptions = {}): 
   return { pieceId: piece.id, labels, warnings };
 }
 
+/** Extra distance (mm) of a slot label from the slot beyond the clearance. */
+const SLOT_SLACK_MM = 0.01;
+
 function labelSlot(
   s: LabelPieceInput['slots'][number],
   maxH: number,
@@ -158,7 +161,9 @@ function labelSlot(
   for (let h = maxH; h >= minH - 1e-9; h *= SHRINK) {
     const t = centredText(s.partner, h);
     // Reading along the slot: the box's x runs along the axis, its y across.
-    const across = s.widthMm / 2 + clearance + t.halfH;
+    // A hair more than the clearance from the slot's walls and bottom: a router's slot is drawn at its full
+    // width, so a box exactly at the clearance would be accepted or refused by rounding.
+    const across = s.widthMm / 2 + clearance + SLOT_SLACK_MM + t.halfH;
     const candidates: Vec2[] = [];
     for (const f of [0.5, 0.3, 0.7, 0.15, 0.9]) {
       const along = Math.max(t.halfW + clearance, s.depthMm * f);
@@ -170,7 +175,7 @@ function labelSlot(
       }
     }
     // Past the slot's bottom, on its axis.
-    const beyond = s.depthMm + clearance + t.halfW;
+    const beyond = s.depthMm + clearance + SLOT_SLACK_MM + t.halfW;
     candidates.push([s.end[0] + ax * beyond, s.end[1] + ay * beyond]);
     for (const centre of candidates) {
       const box: LabelBox = { centre, angleDeg, halfW: t.halfW, halfH: t.halfH };

@@ -24,6 +24,8 @@ export type ModelLayout =
       pieceColour: Record<string, number>;
       sheets: NestSheetResult[];
       totals: NestTotals;
+      /** The gap the pieces were laid out with: the one asked for, or the cutter's width if that is wider. */
+      gapMm: number;
     }
   | {
       ok: false;
@@ -33,8 +35,33 @@ export type ModelLayout =
     };
 
 /**
+ * The narrowest gap between pieces the cutter allows: a router's bit (the files carry the nominal outline,
+ * and the machine's tool offset puts the bit's whole width outside it) or the laser's kerf (outside the
+ * compensated outline by half of it, on each of two neighbours) must fit between two pieces, or it cuts
+ * into the neighbour.
+ */
+export function cutterClearanceMm(machine: BuiltModel['spec']['machine']): number {
+  return machine.kind === 'router' ? machine.toolDiameterMm : machine.kerfMm;
+}
+
+/** What to tell the operator when the cutter's width, not the gap asked for, set the spacing (else null). */
+export function gapRaisedNote(
+  machine: BuiltModel['spec']['machine'],
+  askedGapMm: number,
+  usedGapMm: number,
+): string | null {
+  if (!(usedGapMm > askedGapMm)) return null;
+  const cutter = machine.kind === 'router' ? `${machine.toolDiameterMm} mm bit` : `${machine.kerfMm} mm kerf`;
+  return (
+    `pieces are laid out ${usedGapMm} mm apart, not ${askedGapMm} mm: the ${cutter} needs that much room ` +
+    `between neighbours`
+  );
+}
+
+/**
  * Lays a built model's compensated piece outlines onto sheets: solves the colour plan, then nests each
  * colour on its own sheets (true shape, see nest/). Sheet groups are named by colour index ("0", "1", …).
+ * Pieces are never laid closer than the cutter's width (cutterClearanceMm), whatever gap is asked for.
  */
 export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLayout {
   const count = Math.max(1, Math.floor(options.colours.count));
@@ -65,10 +92,11 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
     pieceColour = colourPlan.assignment;
   }
   const quantity = Math.max(1, Math.floor(options.quantity ?? 1));
+  const gapMm = Math.max(options.gapMm, cutterClearanceMm(model.spec.machine));
   const result: NestResult = nestParts({
     sheet: options.sheet,
     marginMm: options.marginMm,
-    gapMm: options.gapMm,
+    gapMm,
     parts: model.pieces.map((p) => ({
       id: p.id,
       outline: p.outline,
@@ -84,5 +112,5 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
       pieces: result.error.partIds,
     };
   }
-  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals };
+  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals, gapMm };
 }

@@ -1,6 +1,6 @@
 import type { DesignSpec, JobPreparation } from '@kerfwright/contracts';
 import { buildModel, type BuiltModel } from '../build';
-import { layoutModel, type LayoutOptions, type ModelLayout } from './plan-layout';
+import { gapRaisedNote, layoutModel, type LayoutOptions, type ModelLayout } from './plan-layout';
 
 export interface CutPreparation {
   model: BuiltModel;
@@ -41,10 +41,13 @@ export function prepareCut(spec: DesignSpec, options: LayoutOptions): CutPrepara
       sheetCount: layout.totals.sheetCount,
       sheet: { widthMm: options.sheet.widthMm, heightMm: options.sheet.heightMm },
       marginMm: options.marginMm,
-      gapMm: options.gapMm,
+      gapMm: layout.gapMm,
       ...(options.colours.rule ? { colourRule: options.colours.rule } : {}),
       utilisation: round(layout.totals.utilisation, 4),
-      warnings: model.report.warnings.map((w) => w.message),
+      warnings: [
+        ...model.report.warnings.map((w) => w.message),
+        ...[gapRaisedNote(machine, options.gapMm, layout.gapMm)].filter((w): w is string => w !== null),
+      ],
     },
   };
 }

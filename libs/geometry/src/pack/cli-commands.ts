@@ -5,6 +5,7 @@
  * files. The CLI entry writes the returned files to --out.
  */
 import type { ColourRuleName, CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contracts';
+import { buildModel, solveModelColourPlan } from '../build';
 import { buildWithLayout } from '../layout/build-with-layout';
 import { validateSpec } from '../spec/validate-spec';
 import { CutPackError, createCoupon, createCutPack } from './pack';
@@ -123,6 +124,13 @@ export function resolveSpecForPack(rawSpec: unknown): unknown {
       `invalid spec: ${text}`,
       v.errors.map((e) => e.field),
     );
+  }
+  if (v.spec.colours?.count === 1 && v.spec.colours.rule) {
+    // The layout solves plans for two colours or more; one colour meets a rule only when it separates no
+    // pieces, as `build` reports (COLOUR.NO_PLAN).
+    const plan = solveModelColourPlan(buildModel(rawSpec));
+    if (!plan.feasible)
+      throw new CutPackError('PACK.LAYOUT_FAILED', plan.message ?? 'no colour plan exists for one colour');
   }
   if (v.spec.scale.by !== 'fitSheets' && v.spec.scale.by !== 'fitBed') return rawSpec;
   let built;

@@ -2,7 +2,8 @@
  * `@kerfwright/geometry/pack` — the cut pack and the fit-test coupon (Node only: uses node:crypto, pdfkit
  * and jszip). Lengths in mm; files in mm or inches as asked. See README.md beside this file.
  */
-export { createCutPack, createCoupon, CutPackError, slug, type CouponInput } from './pack';
+export { createCutPack, createCoupon, CutPackError, type CouponInput } from './pack';
+export { clashingColourNames, slug } from './slug';
 export {
   runPackCommand,
   runCouponCommand,

@@ -374,6 +374,34 @@ describe('createCutPack failures and the command-line helper', () => {
     await expect(createCutPack(tiny)).rejects.toMatchObject({ code: 'PACK.LAYOUT_FAILED' });
   });
 
+  it('refuses a colour rule that one colour cannot meet (as build does), and colour names the files could not tell apart', async () => {
+    const one = { ...octahedronHexagons(), colours: { count: 1, rule: 'neighbour-distinct' } };
+    await expect(runPackCommand(one)).rejects.toMatchObject({
+      code: 'PACK.LAYOUT_FAILED',
+      message: expect.stringMatching(/needs at least 2/),
+    });
+    for (const colours of [
+      ['Opal', 'opal'],
+      ['Amber #2', 'amber-2'],
+    ])
+      await expect(createCutPack(input(octahedronHexagons(), { colours }))).rejects.toMatchObject({
+        code: 'PACK.SAME_COLOUR_NAMES',
+        details: colours,
+      });
+  });
+
+  it('lays router pieces a bit diameter apart and says so when the gap asked for is narrower', async () => {
+    const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
+    const r = await createCutPack(
+      input(spec, { gapMm: 1, machine: { ...input(spec).machine, kind: 'router' }, archive: false }),
+    );
+    expect(r.manifest.warnings).toContainEqual(
+      expect.stringMatching(/3\.175 mm apart, not 1 mm: the 3\.175 mm bit/),
+    );
+    const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(setup.text).toMatch(/gap 3\.2 mm/);
+  });
+
   it("puts the design's warnings on the setup sheet (pdf-parse), one line per kind, collisions first", async () => {
     // A tetrahedron of {7/2} stars in 3.54 mm stock (our own design): three pairs of pieces run into each
     // other through the stock's thickness, and twelve slots leave thin webs. Four colours: every face meets

@@ -14,7 +14,8 @@ import type {
   DesignSpec,
 } from '@kerfwright/contracts';
 import { type BuiltModel, buildModel } from '../build';
-import { layoutModel } from '../layout/plan-layout';
+import { gapRaisedNote, layoutModel } from '../layout/plan-layout';
+import { clashingColourNames, slug } from './slug';
 import { type EstimateMachine, estimateJob } from '../estimate';
 import { type PieceLabels, labelPiece } from '../labels';
 import { type Vec2 } from '../math/vec';
@@ -45,17 +46,6 @@ const CONTENT_TYPES = {
 
 const enc = new TextEncoder();
 
-/** A file-name-safe form of a colour name: lower-case letters, digits and dashes. */
-export function slug(text: string, fallback: string): string {
-  const s = text
-    .toLowerCase()
-    .normalize('NFKD')
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 40);
-  return s || fallback;
-}
-
 function toEstimateMachine(m: CutPackInput['machine']): EstimateMachine {
   return {
     cutSpeedMmS: m.cutSpeedMmS,
@@ -85,6 +75,13 @@ function checkInput(input: CutPackInput): void {
     throw new CutPackError('PACK.BAD_UNITS', 'units must be "mm" or "in"');
   if (input.colours.length < 1)
     throw new CutPackError('PACK.NO_COLOURS', 'at least one colour of stock is needed');
+  const clash = clashingColourNames(input.colours);
+  if (clash)
+    throw new CutPackError(
+      'PACK.SAME_COLOUR_NAMES',
+      `the colours "${clash[0]}" and "${clash[1]}" would get the same file names and engraving; name them apart`,
+      clash,
+    );
 }
 
 function buildChecked(spec: DesignSpec): BuiltModel {
@@ -234,6 +231,8 @@ export async function createCutPack(
   const removed = model.spec.machine.kind === 'laser' ? model.spec.machine.kerfMm : 0;
   const labels = labelPieces(model, pieceColourName, removed);
   const warnings: string[] = [...designWarnings(model), ...[...labels.values()].flatMap((l) => l.warnings)];
+  const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm);
+  if (gapNote) warnings.push(gapNote);
   if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
     warnings.push(
       `the material is ${input.material.thicknessMm} mm thick but the design was built for ` +
@@ -268,7 +267,7 @@ export async function createCutPack(
       colourName: colour,
       sheet: input.sheet,
       marginMm: input.marginMm,
-      clearMm: Math.max(2, input.gapMm),
+      clearMm: Math.max(2, layout.gapMm),
       parts,
       units: input.units,
       machine,
@@ -304,7 +303,15 @@ export async function createCutPack(
     name: 'setup-sheet.pdf',
     role: 'setup-sheet',
     contentType: CONTENT_TYPES.pdf,
-    data: await setupSheetPdf({ input, model, sheets, estimate: job, coupon, warnings }),
+    // The spacing the pieces really have (the cutter's width can widen the gap asked for).
+    data: await setupSheetPdf({
+      input: { ...input, gapMm: layout.gapMm },
+      model,
+      sheets,
+      estimate: job,
+      coupon,
+      warnings,
+    }),
   });
   progress(0.82);
   const steps = assemblyStepsOfReport(model.report);
