@@ -1,5 +1,6 @@
 import type { BuiltModel } from '../build';
 import { solveColourPlan, type ColourPlan, type ColourRule } from '../colour';
+import { compensateKerf } from '../compensation/compensate';
 import { nestParts, type NestResult, type NestSheetResult, type NestTotals } from '../nest';
 
 /** How a built model is laid out on stock: sheet size, margin, gap, colours and copies. Lengths in mm. */
@@ -58,6 +59,11 @@ export function gapRaisedNote(
   );
 }
 
+function envelopeOf(model: BuiltModel, shape: BuiltModel['pieces'][number]['shape']) {
+  const machine = model.spec.machine;
+  return machine.kind === 'laser' ? compensateKerf(shape, machine.kerfMm).outline : shape;
+}
+
 /**
  * Lays a built model's compensated piece outlines onto sheets: solves the colour plan, then nests each
  * colour on its own sheets (true shape, see nest/). Sheet groups are named by colour index ("0", "1", …).
@@ -102,6 +108,9 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
       outline: p.outline,
       quantity,
       group: String(pieceColour[p.id] ?? 0),
+      // The piece before slotting, compensated like its outline: pieces that differ only in their slots
+      // can then share one lattice pattern.
+      envelope: envelopeOf(model, p.shape),
     })),
   });
   if (!result.ok) {

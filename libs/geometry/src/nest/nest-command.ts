@@ -1,7 +1,7 @@
 /**
  * The `nest` command of the geometry CLI, without file I/O: validates parsed JSON of the form
  * { "sheet": {"widthMm","heightMm"}, "marginMm", "gapMm", "parts": [{"id","outline":[[x,y]…],"quantity",
- * "group"?, "rotationsDeg"?}], "rotationsDeg"? } and returns the object to print. Invalid input and parts that
+ * "group"?, "rotationsDeg"?, "envelope"?}], "rotationsDeg"? } and returns the object to print. Invalid input and parts that
  * cannot fit come back as { "error": { "code", "message", "partIds" } } (the caller decides the exit code).
  */
 import { nestParts, type NestInput, type NestPartInput, type NestTotals } from './nest';
@@ -30,6 +30,14 @@ function rotations(v: unknown, where: string, problems: string[]): readonly numb
   if (Array.isArray(v) && v.length > 0 && v.every(finite)) return v;
   problems.push(`${where}.rotationsDeg must be "auto" or a non-empty list of numbers`);
   return undefined;
+}
+
+function pointList(v: unknown): boolean {
+  return (
+    Array.isArray(v) &&
+    v.length >= 3 &&
+    v.every((pt: unknown) => Array.isArray(pt) && pt.length === 2 && finite(pt[0]) && finite(pt[1]))
+  );
 }
 
 /** Validates the command's input and nests it. Never throws for bad input. */
@@ -72,16 +80,14 @@ export function runNestCommand(input: unknown): NestOutput {
       if (!finite(q) || !Number.isInteger(q) || q < 0)
         problems.push(`${where}.quantity must be a whole number ≥ 0`);
       const outline = p.outline;
-      const okOutline =
-        Array.isArray(outline) &&
-        outline.length >= 3 &&
-        outline.every(
-          (pt: unknown) => Array.isArray(pt) && pt.length === 2 && finite(pt[0]) && finite(pt[1]),
-        );
+      const okOutline = pointList(outline);
       if (!okOutline) problems.push(`${where}.outline must be a list of at least 3 [x, y] number pairs`);
       if (p.group !== undefined && typeof p.group !== 'string')
         problems.push(`${where}.group must be a string`);
       const rot = rotations(p.rotationsDeg, where, problems);
+      const envelope = p.envelope;
+      const okEnvelope = envelope === undefined || pointList(envelope);
+      if (!okEnvelope) problems.push(`${where}.envelope must be a list of at least 3 [x, y] number pairs`);
       if (typeof p.id === 'string' && okOutline && finite(q))
         parts.push({
           id: p.id,
@@ -89,6 +95,7 @@ export function runNestCommand(input: unknown): NestOutput {
           quantity: q,
           ...(typeof p.group === 'string' ? { group: p.group } : {}),
           ...(rot !== undefined ? { rotationsDeg: rot } : {}),
+          ...(envelope !== undefined && okEnvelope ? { envelope: envelope as [number, number][] } : {}),
         });
     });
   if (problems.length > 0) return invalid();

@@ -340,6 +340,56 @@ describe('nestParts — true shape', () => {
     expect(r.ok && r.totals.sheetCount).toBe(1);
   });
 
+  it('lays pieces that differ only in their notches on one lattice of their common envelope', () => {
+    // Equilateral triangles of side 100 (our own test shape) with 3.2 mm notches on one, two or three of their
+    // edges, as a model's pieces differ by where their slots are: 14 copies of each of the three, given
+    // turned and shifted. With the unnotched triangle as envelope the 42 share the triangle's double lattice
+    // (44 fit, see the first test) on one sheet, each placement under its own part; without, they take two.
+    const tri = regular(3, 100 / Math.sqrt(3));
+    const notched = [[0], [1, 0], [2, 1, 0]].map((edges) =>
+      edges.reduce((o, e) => withEdgeNotch(o, e, 3.2, 10), tri),
+    );
+    const parts = notched.flatMap((o, k) =>
+      Array.from({ length: 14 }, (_, c) => ({
+        id: `N${k}-${c}`,
+        outline: moved(o, 40 * c + 7 * k, 3 * c, -5 * k),
+        envelope: moved(tri, 40 * c + 7 * k, 3 * c, -5 * k),
+        quantity: 1,
+      })),
+    );
+    const input: NestInput = { sheet: { widthMm: 600, heightMm: 400 }, marginMm: 0, gapMm: 3, parts };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.sheets.map((x) => x.placements.length)).toEqual([42]);
+    expect(r.ok && r.totals.groups[0]!.method).toMatch(/^pattern \(N0-0: double lattice/);
+    const alone = nestParts({ ...input, parts: parts.map(({ envelope: _e, ...p }) => p) });
+    checkLayout(input, alone);
+    // Without envelopes (measured): 41 + 1 on two sheets.
+    expect(alone.ok && alone.totals.sheetCount).toBe(2);
+  });
+
+  it('ignores an envelope that does not contain its outline', () => {
+    const square: P[] = [
+      [0, 0],
+      [60, 0],
+      [60, 60],
+      [0, 60],
+    ];
+    const input: NestInput = {
+      sheet: { widthMm: 300, heightMm: 200 },
+      marginMm: 5,
+      gapMm: 3,
+      parts: [{ id: 'sq', outline: square, quantity: 12 }],
+    };
+    const plain = nestParts(input);
+    const smaller = nestParts({
+      ...input,
+      parts: [{ ...input.parts[0]!, envelope: square.map(([x, y]) => [x * 0.9, y * 0.9] as P) }],
+    });
+    checkLayout(input, smaller);
+    expect(smaller).toEqual(plain);
+  });
+
   it('counts turned copies of a part together, but not its mirror image, whatever the order', () => {
     // A chiral outline (a flag: pole and pennant) and its mirror image have the same area and vertex count.
     const flag: P[] = [
@@ -608,6 +658,21 @@ describe('nestParts — outside density checks', () => {
 });
 
 describe('runNestCommand', () => {
+  it("passes each part's envelope on to the nesting (and ignores none that contains its outline)", () => {
+    const tri = regular(3, 100 / Math.sqrt(3));
+    const notched = [0, 1, 2].map((i) => withEdgeNotch(tri, i, 3.2, 10));
+    const json = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      gapMm: 3,
+      parts: notched.map((o, k) => ({ id: `N${k}`, outline: o, envelope: tri, quantity: 14 })),
+    };
+    const out = runNestCommand(JSON.parse(JSON.stringify(json)));
+    expect(out.error).toBeUndefined();
+    expect(out.sheets!.map((x) => x.placements.length)).toEqual([42]);
+    const bad = runNestCommand({ ...json, parts: [{ ...json.parts[0], envelope: [[0, 0]] }] });
+    expect(bad.error?.message).toMatch(/parts\[0\]\.envelope/);
+  });
+
   it('returns sheets with placements that put each outline where it says (rotate about own origin, then translate)', () => {
     const outline: P[] = [
       [0, 0],

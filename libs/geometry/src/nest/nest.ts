@@ -25,6 +25,9 @@
  * cost one set of Minkowski sums, not one per piece.
  * Parts of one group with congruent outlines are nested as copies of the first of them (mergeCongruent): a
  * built model gives each of its identical pieces as a part of its own, and only copies reach the pattern pass.
+ * Parts may carry an envelope (an outline containing theirs, such as the piece before its slots were cut): the
+ * pattern pass then lays them out as copies of the envelope, all parts of a group with congruent envelopes on
+ * one lattice (envelopeClasses), while bottom-left fill keeps to the outlines.
  * Every placement is also checked directly against its neighbours (clearOfItems in variants.ts), and a plan
  * failing that check is never preferred, as a guard against numerical slivers in the polygon unions.
  * Rotations: 'auto' tries 0° and 180°, then the rotations laying the longest convex-hull edges flat (at the
@@ -49,7 +52,7 @@ import {
   type PreparedPart,
   type Variant,
 } from './variants';
-import { SCALE_PER_MM } from './clipper-adapter';
+import { areaUnits, differencePaths, growPolygon, SCALE_PER_MM, toIntPath } from './clipper-adapter';
 
 export interface NestSheetSize {
   widthMm: number;
@@ -65,6 +68,13 @@ export interface NestPartInput {
   group?: string;
   /** Allowed rotations for this part (degrees CCW); overrides the run's setting. */
   rotationsDeg?: readonly number[] | 'auto';
+  /**
+   * Optional: a simple outline containing this part's outline, in the same frame (for a slotted piece, the
+   * piece before its slots were cut). Parts of a group whose envelopes are congruent may be laid out together
+   * as copies of the envelope in the pattern pass; bottom-left fill always uses the outlines themselves.
+   * Ignored when it does not contain the outline.
+   */
+  envelope?: readonly (readonly [number, number])[];
 }
 
 export interface NestInput {
@@ -150,6 +160,7 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
     const rotationsDeg = rot === 'auto' ? autoRotations(outline) : distinctRotations(outline, rot);
     if (rotationsDeg.length === 0)
       return fail('INVALID_INPUT', `part "${p.id}" has no allowed rotation`, [p.id]);
+    const envelope = p.envelope ? containingEnvelope(outline, p.envelope as Point[]) : null;
     parts.push({
       index,
       id: p.id,
@@ -161,10 +172,27 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
       // Set once congruent parts are counted together (mergeCongruent).
       patternRotationsDeg: rotationsDeg,
       freeRotation: rot === 'auto',
+      ...(envelope ? { envelope } : {}),
     });
   }
   return parts;
 }
+
+/**
+ * The envelope, cleaned and counter-clockwise, when it is a simple polygon containing the outline up to 2 µm
+ * (rounding in whatever computed the two; the no-fit polygons' safety margin, GAP_SAFETY_MM, absorbs it);
+ * else null. The envelope itself is kept as given, so congruent envelopes stay congruent and symmetric.
+ */
+function containingEnvelope(outline: Point[], given: Point[]): Point[] | null {
+  const cleaned = cleanPolygon(given);
+  if (cleaned.length < 3 || !isSimplePolygon(cleaned) || Math.abs(signedArea(cleaned)) < 1e-9) return null;
+  const envelope = toCounterClockwise(cleaned);
+  const grown = growPolygon(toIntPath(envelope), ENVELOPE_SLACK_MM);
+  const outside = differencePaths([toIntPath(outline)], grown);
+  return outside.some((q) => Math.abs(areaUnits(q)) > 1) ? null : envelope;
+}
+
+const ENVELOPE_SLACK_MM = 0.002;
 
 /** Congruence tolerance (mm): a member's outline lies within this of the class's first outline, turned. */
 const CONGRUENT_TOL_MM = 1e-4;
@@ -198,28 +226,11 @@ export function mergeCongruent(parts: readonly PreparedPart[]): {
   const classes = new Map<string, PreparedPart>();
   /** The first part of each shape (its outline is the shape's). */
   const shapes: PreparedPart[] = [];
-  const asXY = (outline: readonly Point[]) => outline.map(([x, y]) => ({ X: x, Y: y }));
   for (const p of parts) {
     if (p.quantity === 0) continue;
-    // The first earlier shape this part is congruent to (mirror images have equal areas but match none).
-    let shape: PreparedPart | undefined;
-    let m: { thetaDeg: number; ox: number; oy: number } = { thetaDeg: 0, ox: 0, oy: 0 };
-    for (const h of shapes) {
-      if (h.outline.length !== p.outline.length) continue;
-      if (Math.abs(h.areaMm2 - p.areaMm2) > 1e-6 * h.areaMm2 + 1e-9) continue;
-      if (h.freeRotation !== p.freeRotation) continue;
-      if (!h.freeRotation && h.rotationsDeg.join() !== p.rotationsDeg.join()) continue;
-      const c = congruence(asXY(h.outline), asXY(p.outline), CONGRUENT_TOL_MM);
-      const turn = c ? ((c.thetaDeg % 360) + 360) % 360 : 0;
-      if (!c || (!p.freeRotation && Math.min(turn, 360 - turn) > 1e-7)) continue;
-      shape = h;
-      m = c;
-      break;
-    }
-    if (!shape) {
-      shape = p;
-      shapes.push(p);
-    }
+    const found = congruentShape(shapes, p, p.outline);
+    const shape = found?.shape ?? p;
+    if (!found) shapes.push(p);
     const key = `${p.group}|${shape.index}`;
     let cls = classes.get(key);
     if (!cls) {
@@ -230,13 +241,97 @@ export function mergeCongruent(parts: readonly PreparedPart[]): {
       members.set(key, []);
     }
     cls.quantity += p.quantity;
-    members.get(key)!.push({ partIndex: p.index, quantity: p.quantity, ...m });
+    members.get(key)!.push({ partIndex: p.index, quantity: p.quantity, ...(found?.map ?? IDENTITY) });
   }
   for (const p of nesting)
     // Only repeated parts are laid in patterns; the finer sweep is not needed for single copies.
     if (p.freeRotation && p.quantity >= MIN_PATTERN_COPIES)
       p.patternRotationsDeg = patternRotations(p.outline);
   return { nesting, members };
+}
+
+const IDENTITY = { thetaDeg: 0, ox: 0, oy: 0 };
+
+/**
+ * The first shape in `shapes` that `outline` (belonging to part p, whose rotation settings apply) is congruent
+ * to, and the map R(thetaDeg)·shape + (ox, oy) onto it; mirror images have equal areas but match none. With
+ * free rotation any turn matches; with fixed rotation lists only identical lists and a pure shift do, since
+ * the allowed angles are in each part's own frame.
+ */
+function congruentShape(
+  shapes: readonly PreparedPart[],
+  p: PreparedPart,
+  outline: readonly Point[],
+): { shape: PreparedPart; map: typeof IDENTITY } | null {
+  const area = signedArea(outline as Point[]);
+  const asXY = (o: readonly Point[]) => o.map(([x, y]) => ({ X: x, Y: y }));
+  for (const h of shapes) {
+    if (h.outline.length !== outline.length) continue;
+    if (Math.abs(h.areaMm2 - area) > 1e-6 * h.areaMm2 + 1e-9) continue;
+    if (h.freeRotation !== p.freeRotation) continue;
+    if (!h.freeRotation && h.rotationsDeg.join() !== p.rotationsDeg.join()) continue;
+    const c = congruence(asXY(h.outline), asXY(outline), CONGRUENT_TOL_MM);
+    const turn = c ? ((c.thetaDeg % 360) + 360) % 360 : 0;
+    if (!c || (!p.freeRotation && Math.min(turn, 360 - turn) > 1e-7)) continue;
+    return { shape: h, map: c };
+  }
+  return null;
+}
+
+/** A group's copies of one envelope shape: the classes it covers, each placed by a map from the envelope. */
+interface EnvelopeClass {
+  /** Nested like a part: the envelope shape's index and outline, the covered classes' total quantity. */
+  part: PreparedPart;
+  covers: { cls: PreparedPart; map: typeof IDENTITY }[];
+}
+
+/**
+ * Classes of a group whose shapes have congruent envelopes (NestPartInput.envelope) are grouped under the
+ * envelope, so that the pattern pass can lay all their copies on one lattice of the envelope (for a model
+ * whose pieces differ only in where their slots are, all its pieces instead of a few per slot pattern), and
+ * searches that lattice once. A class's envelope is its shape part's; the map of each class takes the
+ * envelope shape onto the class's own envelope, inside which the class's outline lies. Envelope shapes get
+ * part indices from `firstIndex` on; `shapes` returns them for the geometry cache.
+ */
+function envelopeClasses(
+  nesting: readonly PreparedPart[],
+  prepared: readonly PreparedPart[],
+  firstIndex: number,
+): { shapes: PreparedPart[]; byGroup: Map<string, EnvelopeClass[]> } {
+  const shapes: PreparedPart[] = [];
+  const byGroup = new Map<string, EnvelopeClass[]>();
+  for (const cls of nesting) {
+    const envelope = prepared[cls.index]?.envelope;
+    if (!envelope || cls.quantity === 0) continue;
+    const found = congruentShape(shapes, cls, envelope);
+    let shape = found?.shape;
+    if (!shape) {
+      // A fixed list is in the part's own frame, which the envelope shares.
+      const rotationsDeg = cls.freeRotation ? autoRotations(envelope) : [...cls.rotationsDeg];
+      shape = {
+        index: firstIndex + shapes.length,
+        id: `${cls.id} envelope`,
+        group: cls.group,
+        quantity: 0,
+        outline: envelope,
+        areaMm2: signedArea(envelope),
+        rotationsDeg,
+        patternRotationsDeg: cls.freeRotation ? patternRotations(envelope) : rotationsDeg,
+        ...(cls.freeRotation !== undefined ? { freeRotation: cls.freeRotation } : {}),
+      };
+      shapes.push(shape);
+    }
+    const list = byGroup.get(cls.group) ?? [];
+    byGroup.set(cls.group, list);
+    let ec = list.find((e) => e.part.index === shape.index);
+    if (!ec) {
+      ec = { part: { ...shape, id: cls.id, group: cls.group, quantity: 0 }, covers: [] };
+      list.push(ec);
+    }
+    ec.part.quantity += cls.quantity;
+    ec.covers.push({ cls, map: found?.map ?? IDENTITY });
+  }
+  return { shapes, byGroup };
 }
 
 /**
@@ -316,14 +411,17 @@ function patternPlan(
   group: string,
   parts: readonly PreparedPart[],
   patterned: readonly PreparedPart[],
+  /** The classes each patterned envelope part stands for (see envelopeClasses). */
+  covers: ReadonlyMap<PreparedPart, readonly PreparedPart[]> = new Map(),
 ): GroupPlan | null {
   const sheets: SheetState[] = [];
-  const rest: PreparedPart[] = parts.filter((p) => !patterned.includes(p));
+  const covered = new Set(patterned.flatMap((p) => covers.get(p) ?? []));
+  const rest: PreparedPart[] = parts.filter((p) => !patterned.includes(p) && !covered.has(p));
   const labels: string[] = [];
   for (const part of patterned) {
     const pat = bestPattern(cache, frame, part.index, part.patternRotationsDeg, part.freeRotation === true);
     if (!pat) {
-      rest.push(part);
+      rest.push(...(covers.get(part) ?? [part]));
       continue;
     }
     labels.push(`${part.id}: ${pat.description}`);
@@ -380,6 +478,7 @@ function nestGroup(
   group: string,
   parts: readonly PreparedPart[],
   method: NonNullable<NestInput['method']>,
+  envelopes: readonly EnvelopeClass[] = [],
 ): GroupPlan {
   let best: GroupPlan | null = null;
   if (method !== 'pattern') {
@@ -392,16 +491,28 @@ function nestGroup(
   if (method !== 'true-shape') {
     const usable =
       Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
-    const repeated = parts
-      .filter(
-        (p) => p.quantity >= MIN_PATTERN_COPIES && p.areaMm2 * p.quantity >= MIN_PATTERN_SHEET_SHARE * usable,
-      )
-      .sort((a, b) => b.areaMm2 * b.quantity - a.areaMm2 * a.quantity);
+    const enough = (p: PreparedPart) =>
+      p.quantity >= MIN_PATTERN_COPIES && p.areaMm2 * p.quantity >= MIN_PATTERN_SHEET_SHARE * usable;
+    // Classes with envelopes are patterned as copies of their envelope, all classes of one envelope together,
+    // in place of their own outlines: a lattice of envelopes is a valid one for the parts inside, the parts'
+    // slots and notches (narrower than twice the gap) admit nothing anyway, and the envelope keeps the
+    // symmetry that the notches break (a lattice search per notch pattern found fewer, at several times the cost).
+    const covers = new Map<PreparedPart, PreparedPart[]>();
+    for (const e of envelopes)
+      if (enough(e.part))
+        covers.set(
+          e.part,
+          e.covers.map((c) => c.cls),
+        );
+    const covered = new Set([...covers.values()].flat());
+    const repeated = [...covers.keys(), ...parts.filter((p) => !covered.has(p) && enough(p))].sort(
+      (a, b) => b.areaMm2 * b.quantity - a.areaMm2 * a.quantity,
+    );
     const options: PreparedPart[][] = [];
     if (repeated.length > 0) options.push([repeated[0]!]);
     if (repeated.length > 1) options.push(repeated);
     for (const opt of options) {
-      const plan = patternPlan(cache, frame, group, parts, opt);
+      const plan = patternPlan(cache, frame, group, parts, opt, covers);
       if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
     }
     if (!best) {
@@ -431,20 +542,20 @@ export function nestParts(input: NestInput): NestResult {
   const prepared = prepare(input);
   if (!Array.isArray(prepared)) return prepared;
   const frame: SheetFrame = { widthMm: sheet.widthMm, heightMm: sheet.heightMm, marginMm };
-  const cache = new GeometryCache(prepared, gapMm);
-
-  const tooBig: string[] = [];
-  for (const part of prepared) {
-    if (part.quantity === 0) continue;
-    const fits = part.rotationsDeg.some((d) => {
+  const { nesting, members } = mergeCongruent(prepared);
+  const envelopes = envelopeClasses(nesting, prepared, prepared.length);
+  const cache = new GeometryCache([...prepared, ...envelopes.shapes], gapMm);
+  const fitsEmptySheet = (part: PreparedPart) =>
+    part.rotationsDeg.some((d) => {
       const b = cache.variant(part.index, d).bounds;
       return (
         b.maxX - b.minX <= sheet.widthMm - 2 * marginMm + 1e-9 &&
         b.maxY - b.minY <= sheet.heightMm - 2 * marginMm + 1e-9
       );
     });
-    if (!fits) tooBig.push(part.id);
-  }
+
+  const tooBig: string[] = [];
+  for (const part of prepared) if (part.quantity > 0 && !fitsEmptySheet(part)) tooBig.push(part.id);
   if (tooBig.length > 0)
     return fail(
       'PART_DOES_NOT_FIT',
@@ -453,7 +564,8 @@ export function nestParts(input: NestInput): NestResult {
       tooBig,
     );
 
-  const { nesting, members } = mergeCongruent(prepared);
+  // An envelope too large for the sheet cannot be laid out; its classes are nested on their own.
+  const usableEnvelopes = new Set(envelopes.shapes.filter(fitsEmptySheet).map((e) => e.index));
   const groups: string[] = [];
   for (const p of nesting) if (p.quantity > 0 && !groups.includes(p.group)) groups.push(p.group);
   const sheetArea = sheet.widthMm * sheet.heightMm;
@@ -462,7 +574,10 @@ export function nestParts(input: NestInput): NestResult {
   const sheetsByGroup: Record<string, number> = {};
   for (const group of groups) {
     const parts = nesting.filter((p) => p.group === group && p.quantity > 0);
-    const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best');
+    const groupEnvelopes = (envelopes.byGroup.get(group) ?? []).filter((e) =>
+      usableEnvelopes.has(e.part.index),
+    );
+    const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best', groupEnvelopes);
     // Copies of a congruent class go to its members in turn, in placement order.
     const queues = new Map<number, ClassMember[]>();
     const nextMember = (shape: number): ClassMember => {
@@ -472,36 +587,62 @@ export function nestParts(input: NestInput): NestResult {
         queues.set(shape, (queue = all.flatMap((m) => Array.from({ length: m.quantity }, () => m))));
       return queue.shift() ?? all[0]!;
     };
+    // Copies of an envelope go to the classes it covers in turn, then to those classes' members.
+    const envelopeQueues = new Map<number, EnvelopeClass['covers']>();
+    const nextCovered = (index: number): EnvelopeClass['covers'][number] => {
+      let queue = envelopeQueues.get(index);
+      if (!queue) {
+        const e = groupEnvelopes.find((x) => x.part.index === index)!;
+        queue = e.covers.flatMap((c) => Array.from({ length: c.cls.quantity }, () => c));
+        envelopeQueues.set(index, queue);
+      }
+      return queue.shift()!;
+    };
+    let lastUsedUnits = 0;
     for (const s of plan.sheets) {
       const items = [...s.items].sort((a, b) => a.tx - b.tx || a.ty - b.ty);
+      let usedUnits = 0;
+      let area = 0;
       const placements = items.map((it) => {
-        const m = nextMember(it.variant.partIndex);
-        return {
-          part: prepared[m.partIndex]!.id,
-          ...memberPlacement(
-            m,
-            it.variant.rotationDeg,
-            round(it.tx / SCALE_PER_MM),
-            round(it.ty / SCALE_PER_MM),
-          ),
+        let at = {
+          rotationDeg: it.variant.rotationDeg,
+          x: round(it.tx / SCALE_PER_MM),
+          y: round(it.ty / SCALE_PER_MM),
         };
+        let shape = it.variant.partIndex;
+        if (shape >= prepared.length) {
+          // An envelope's copy: first the covered class's shape inside it, then the member.
+          const c = nextCovered(shape);
+          at = memberPlacement({ partIndex: c.cls.index, quantity: 1, ...c.map }, at.rotationDeg, at.x, at.y);
+          shape = c.cls.index;
+        }
+        const m = nextMember(shape);
+        const placement = memberPlacement(m, at.rotationDeg, at.x, at.y);
+        // Length and area of the part itself (an envelope's copy is larger than the part inside it).
+        const own = shape === it.variant.partIndex ? it : null;
+        const maxX = own
+          ? own.tx + own.variant.ubounds.maxX
+          : Math.round(placement.x * SCALE_PER_MM) +
+            cache.variant(m.partIndex, placement.rotationDeg).ubounds.maxX;
+        usedUnits = Math.max(usedUnits, maxX);
+        area += own ? own.variant.areaMm2 : prepared[m.partIndex]!.areaMm2;
+        return { part: prepared[m.partIndex]!.id, ...placement };
       });
-      const area = items.reduce((a, it) => a + it.variant.areaMm2, 0);
+      lastUsedUnits = usedUnits;
       sheets.push({
         group,
         placements,
         utilisation: round(area / sheetArea),
-        usedLengthMm: round(usedLengthUnits(s) / SCALE_PER_MM, 3),
+        usedLengthMm: round(usedUnits / SCALE_PER_MM, 3),
         partIds: placements.map((p) => p.part),
         method: s.method,
       });
     }
-    const last = plan.sheets[plan.sheets.length - 1];
     sheetsByGroup[group] = plan.sheets.length;
     groupTotals.push({
       group,
       sheets: plan.sheets.length,
-      lastOffcutLengthMm: round(sheet.widthMm - (last ? usedLengthUnits(last) / SCALE_PER_MM : 0), 3),
+      lastOffcutLengthMm: round(sheet.widthMm - lastUsedUnits / SCALE_PER_MM, 3),
       method: plan.method,
     });
   }

@@ -60,6 +60,8 @@ export interface PreparedPart {
   patternRotationsDeg: number[];
   /** Any rotation allowed ('auto'): the double-lattice search then sweeps the rotation continuously. */
   freeRotation?: boolean;
+  /** A counter-clockwise outline containing `outline` in the same frame, for the pattern pass (see nest.ts). */
+  envelope?: Point[];
 }
 
 function normaliseAngle(deg: number): number {
