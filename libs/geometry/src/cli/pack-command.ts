@@ -20,7 +20,9 @@ function summaryLine(result: CutPackResult, outDir: string): string {
   return (
     `wrote ${result.files.length} files to ${outDir}: ${m.sheetCount} sheet${m.sheetCount === 1 ? '' : 's'}, ` +
     `cut ${e.cutLengthMm} mm, ${e.pierces} pierces, about ${e.minutes} min` +
-    (m.warnings?.length ? `; ${m.warnings.length} warning(s): ${m.warnings.join('; ')}` : '')
+    (m.warnings?.length
+      ? `; ${m.warnings.length} warning${m.warnings.length === 1 ? '' : 's'}: ${m.warnings.join('; ')}`
+      : '')
   );
 }
 

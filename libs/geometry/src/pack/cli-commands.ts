@@ -84,6 +84,8 @@ export function packInputFrom(rawSpec: unknown, o: PackCommandOptions = {}): Cut
     : (s.colours?.names ?? Array.from({ length: Math.max(1, count) }, (_, i) => `colour-${i + 1}`));
   const rule = o.colourRule ?? s.colours?.rule;
   const machineKind = s.spec.machine?.kind ?? 'laser';
+  // The spec's bed, when it gives one, is the machine's.
+  const bed = s.spec.bed ? { bedWidthMm: s.spec.bed.widthMm, bedHeightMm: s.spec.bed.heightMm } : {};
   return {
     spec: s.spec,
     sheet,
@@ -92,7 +94,7 @@ export function packInputFrom(rawSpec: unknown, o: PackCommandOptions = {}): Cut
     colours,
     ...(rule ? { colourRule: rule } : {}),
     quantity: o.quantity ?? 1,
-    machine: { ...CLI_DEFAULT_MACHINE, kind: machineKind, ...o.machine },
+    machine: { ...CLI_DEFAULT_MACHINE, kind: machineKind, ...bed, ...o.machine },
     material: {
       name: 'stock',
       family: 'unspecified',

@@ -113,6 +113,31 @@ describe('fit-test coupon', () => {
     nearBottom.forEach((w, k) => expect(w).toBeGreaterThan(measured[k]! + 0.05));
   });
 
+  it('leaves out graded slots narrower than the router bit, and says which', async () => {
+    // 3 mm stock crossing at 90° with 0.05 mm clearance: w = 3 + 0.05 = 3.05 mm (cot 45° = 1); with a 3 mm
+    // bit the −0.15 and −0.10 slots (2.90, 2.95) cannot be cut.
+    const spec: DesignSpec = {
+      solid: 'cube',
+      piece: { sides: 4, rotationDeg: 45, size: 1.5 },
+      scale: { by: 'diameter', mm: 300 },
+      stock: { thicknessMm: 3 },
+      machine: { kind: 'router', toolDiameterMm: 3 },
+      fitMm: 0.05,
+    };
+    const r = await createCoupon({ ...packInputFrom(spec), archive: false });
+    const d = readDxf(r.files[0]!.data);
+    const c = [...d.cut].sort(
+      (a, b) => Math.min(...a.map((p) => p[1])) - Math.min(...b.map((p) => p[1])),
+    )[0]!;
+    const ys = c.map((p) => p[1]);
+    const top = Math.max(...ys);
+    const measured = gapsAt(c, top - (top - Math.min(...ys)) / 4);
+    expect(measured.map((w) => Math.round(w * 1000) / 1000)).toEqual([3, 3.05, 3.1, 3.15, 3.2]);
+    expect(r.manifest.warnings).toContainEqual(
+      'coupon C1: slots narrower than the 3 mm bit are left out (2.90, 2.95 mm)',
+    );
+  });
+
   it('is part of every cut pack, in the pack units', async () => {
     const spec = design({ solid: 'octahedron', piece: { sides: 6, step: 1, rotationDeg: 0, size: 1.3 } });
     const r = await createCutPack({ ...packInputFrom(spec, { units: 'in' }), archive: false });

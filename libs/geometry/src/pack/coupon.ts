@@ -81,7 +81,8 @@ export function buildCoupon(
   const wSteep = r2(widthFor(steep));
   const wShallow = r2(widthFor(shallow));
   const removed = spec.machine.kind === 'laser' ? spec.machine.kerfMm : 0;
-  const reliefR = spec.machine.kind === 'router' ? spec.machine.toolDiameterMm / 2 : 0;
+  const toolMm = spec.machine.kind === 'router' ? spec.machine.toolDiameterMm : 0;
+  const reliefR = toolMm / 2;
   const maxW = Math.max(wSteep, wShallow) + Math.max(0, ...offsets);
   const height = Math.max(30, 2 * (maxW + 10), 6 * t);
   const depth = height / 2;
@@ -90,7 +91,18 @@ export function buildCoupon(
   const warnings: string[] = [];
 
   const strip = (id: string, angleDeg: number, w: number, keyW: number): CouponStrip => {
-    const series = offsets.map((o) => r2(w + o)).filter((x) => x - removed > 0.01);
+    // A laser slot must stay wider than the kerf; a router cannot cut a slot narrower than its bit.
+    const all = offsets.map((o) => r2(w + o));
+    const series = all.filter((x) => x - removed > 0.01 && x >= toolMm - 1e-9);
+    if (toolMm > 0 && series.length < all.length)
+      warnings.push(
+        `coupon ${id}: slots narrower than the ${toolMm} mm bit are left out (` +
+          all
+            .filter((x) => !series.includes(x))
+            .map((x) => x.toFixed(2))
+            .join(', ') +
+          ' mm)',
+      );
     const length = 2 * margin + (series.length + 1) * pitch + keyW;
     const slots = series.map((sw, i) => makeSlot([margin + pitch * (i + 0.5), height], [0, -1], depth, sw));
     const key = makeSlot([length - margin - pitch / 2, 0], [0, 1], depth, keyW);

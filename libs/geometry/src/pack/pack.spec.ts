@@ -3,7 +3,7 @@ import JSZip from 'jszip';
 import type { CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contracts';
 import { buildModel } from '../build';
 import { design, octahedronHexagons } from '../test-support/designs';
-import { CutPackError, createCutPack } from './pack';
+import { CutPackError, createCutPack, sheetOverBedNote } from './pack';
 import { packInputFrom, runPackCommand } from './cli-commands';
 import { SAFETY_DEFERRAL } from './documents';
 import {
@@ -388,6 +388,38 @@ describe('createCutPack failures and the command-line helper', () => {
         code: 'PACK.SAME_COLOUR_NAMES',
         details: colours,
       });
+  });
+
+  it("takes the spec's bed for the machine and warns when the sheet fits the bed neither way round", async () => {
+    const spec = { ...octahedronHexagons(), bed: { widthMm: 300, heightMm: 300 } };
+    const inputOf = packInputFrom(spec, { sheet: { widthMm: 500, heightMm: 450 } });
+    expect([inputOf.machine.bedWidthMm, inputOf.machine.bedHeightMm]).toEqual([300, 300]);
+    expect(sheetOverBedNote(inputOf)).toBe(
+      "the 500 × 450 mm sheet does not fit the machine's 300 × 300 mm bed: cut the stock down to the bed " +
+        'first, or lay out on sheets the bed takes',
+    );
+    // A sheet that fits turned a quarter turn is fine.
+    expect(
+      sheetOverBedNote({
+        ...inputOf,
+        sheet: { widthMm: 300, heightMm: 600 },
+        machine: { ...inputOf.machine, bedWidthMm: 600 },
+      }),
+    ).toBeNull();
+    const r = await runPackCommand(spec, { sheet: { widthMm: 500, heightMm: 450 }, archive: false });
+    expect(r.manifest.warnings).toContainEqual(sheetOverBedNote(inputOf));
+    const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(setup.text).toMatch(/Bed 300\.0 x 300\.0 mm/);
+  });
+
+  it('keeps the SVG page to the sheet when the margin is under a millimetre', async () => {
+    const r = await createCutPack(input(octahedronHexagons(), { marginMm: 0, archive: false }));
+    expect(r.manifest.warnings ?? []).not.toContainEqual(expect.stringMatching(/below the sheet/));
+    for (const f of sheetsOf(r, 'svg')) {
+      const s = readSvg(f.data);
+      expect(s.viewBox).toEqual([0, 0, 600, 400]);
+      expect([s.height, s.unit]).toEqual([400, 'mm']);
+    }
   });
 
   it('lays router pieces a bit diameter apart and says so when the gap asked for is narrower', async () => {

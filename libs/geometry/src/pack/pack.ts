@@ -233,6 +233,8 @@ export async function createCutPack(
   const warnings: string[] = [...designWarnings(model), ...[...labels.values()].flatMap((l) => l.warnings)];
   const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm);
   if (gapNote) warnings.push(gapNote);
+  const bedNote = sheetOverBedNote(input);
+  if (bedNote) warnings.push(bedNote);
   if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
     warnings.push(
       `the material is ${input.material.thicknessMm} mm thick but the design was built for ` +
@@ -342,6 +344,18 @@ export async function createCutPack(
   );
   progress(1);
   return result;
+}
+
+/** A note when the stock sheet fits the machine's bed neither way round (else null). */
+export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine'>): string | null {
+  const { widthMm: w, heightMm: h } = input.sheet;
+  const { bedWidthMm: bw, bedHeightMm: bh } = input.machine;
+  const fits = (a: number, b: number) => a <= bw + 1e-9 && b <= bh + 1e-9;
+  if (!(bw > 0 && bh > 0) || fits(w, h) || fits(h, w)) return null;
+  return (
+    `the ${w} × ${h} mm sheet does not fit the machine's ${bw} × ${bh} mm bed: ` +
+    `cut the stock down to the bed first, or lay out on sheets the bed takes`
+  );
 }
 
 /** What the coupon alone needs. */

@@ -42,7 +42,11 @@ export function sheetToDxf(sheet: SheetDrawing, units: Units): string {
 /** The sheet as SVG text: the viewBox spans the sheet in the file's units, y flipped to point down. */
 export function sheetToSvg(sheet: SheetDrawing, units: Units): string {
   const k = unitScale(units);
-  const minY = Math.min(0, sheet.scale.from[1] - 1);
+  // The page is the sheet, grown downward (with 1 mm to spare) only when something is drawn below it: the
+  // scale mark when the sheet had no room for it.
+  let lowest = 0;
+  for (const s of [...sheet.mark, ...sheet.cut]) for (const p of s) lowest = Math.min(lowest, p[1]);
+  const minY = lowest < -1e-9 ? lowest - 1 : 0;
   const h = sheet.heightMm - minY;
   const w = sheet.widthMm;
   const xy = (p: Vec2) => `${fmt(p[0] * k)} ${fmt((sheet.heightMm - p[1]) * k)}`;
