@@ -75,8 +75,9 @@ describe('labelPiece', () => {
       const own = r.labels.filter((l) => l.kind === 'piece');
       expect(own.map((l) => l.text)).toEqual([`${piece.id} AMBER`]);
       const slotTexts = r.labels.filter((l) => l.kind === 'slot').map((l) => l.text);
-      // One partner label per slot, unless a warning says it found no room.
-      expect(slotTexts.length + r.warnings.length).toBe(piece.slots.length + (own.length ? 0 : 1));
+      // One partner label per slot, unless a warning says it found no room (none without the piece's own).
+      if (own.length) expect(slotTexts.length + r.warnings.length).toBe(piece.slots.length);
+      else expect([slotTexts.length, r.warnings.length]).toEqual([0, 1]);
       for (const t of slotTexts) expect(piece.slots.map((x) => x.partner)).toContain(t);
       for (const l of r.labels) expectInsideWithClearance(piece.outline, l, clearance);
       // Labels do not overlap each other (polygon-clipping).
@@ -135,5 +136,18 @@ describe('labelPiece', () => {
     const none = labelPiece({ id: 'P7', outline: tiny, slots: [] }, { clearanceMm: 1 });
     expect(none.labels).toHaveLength(0);
     expect(none.warnings).toEqual([expect.stringContaining('no room')]);
+    // With no room for its own id, a piece gets no partner ids either: "P3" alone would read as its name.
+    const slotted = labelPiece(
+      {
+        id: 'P7',
+        outline: tiny,
+        slots: [{ partner: 'P3', end: [1.5, 2], axis: [0, -1], depthMm: 1, widthMm: 0.3 }],
+      },
+      { clearanceMm: 1 },
+    );
+    expect(slotted.labels).toEqual([]);
+    expect(slotted.warnings).toEqual([
+      'no room for the label "P7" on P7; its slot labels are left off so none is read as its id',
+    ]);
   });
 });

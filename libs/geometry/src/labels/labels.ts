@@ -135,7 +135,12 @@ export function labelPiece(piece: LabelPieceInput, options: LabelOptions = {}): 
     }
   }
   if (placed) labels.push(placed);
-  else warnings.push(`no room for the label "${pieceText}" on ${piece.id}`);
+  else {
+    // A partner's id alone on the piece would be read as the piece's own: leave them off too.
+    const partners = piece.slots.length > 0 ? '; its slot labels are left off so none is read as its id' : '';
+    warnings.push(`no room for the label "${pieceText}" on ${piece.id}${partners}`);
+    return { pieceId: piece.id, labels, warnings };
+  }
 
   for (const s of piece.slots) {
     const found = labelSlot(s, maxSlotH, minH, clearance, free);
