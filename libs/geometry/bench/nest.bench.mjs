@@ -7,6 +7,10 @@ import { MaxRectsPacker } from 'maxrects-packer/dist/maxrects-packer.mjs';
 import { nestParts } from '../dist/nest/index.js';
 import { densestDoubleLattice } from '../dist/nest/double-lattice.js';
 import { solveColourPlan } from '../dist/colour/index.js';
+import geometry from '../dist/index.js';
+import { MODEL_DESIGNS } from './model-designs.mjs';
+
+const { buildModel, layoutModel } = geometry;
 
 const SHEET = { widthMm: 600, heightMm: 400 };
 const GAP = 3;
@@ -356,6 +360,59 @@ for (const [label, outline] of [
     parts.push(`${name} ${lat.density.toFixed(5)} (ref ${ref.toFixed(4)}, ${cpuMs(c0).toFixed(0)} ms CPU)`);
   }
   console.log(`densest double lattice found, plane: ${parts.join('; ')}`);
+}
+
+// ---------- Models of our own, as a job lays them out: per colour, on 600 × 400 with margin 5 and gap 3 ----------
+{
+  const modelRows = [];
+  for (const m of MODEL_DESIGNS) {
+    const { colours, stock, ...rest } = m.spec;
+    const model = buildModel({ ...rest, stock: { thicknessMm: stock.thicknessMm } });
+    const options = {
+      sheet: stock.sheet,
+      marginMm: stock.marginMm,
+      gapMm: stock.gapMm,
+      colours: { count: colours.count, rule: colours.rule },
+      quantity: m.quantity,
+    };
+    const { result: lay, wall } = timeRuns(() => layoutModel(model, options));
+    if (!lay.ok) throw new Error(`${m.name}: ${lay.message}`);
+    let lower = 0;
+    let boxes = 0;
+    for (let c = 0; c < colours.count; c++) {
+      const pieces = model.pieces.filter((p) => lay.pieceColour[p.id] === c);
+      const a = pieces.reduce((s, p) => s + area(p.outline) * m.quantity, 0);
+      lower += Math.ceil(a / (stock.sheet.widthMm * stock.sheet.heightMm));
+      const packer = new MaxRectsPacker(
+        stock.sheet.widthMm - 2 * stock.marginMm,
+        stock.sheet.heightMm - 2 * stock.marginMm,
+        lay.gapMm,
+        { smart: true, pot: false, square: false, allowRotation: true, border: 0 },
+      );
+      for (const p of pieces) {
+        const xs = p.outline.map((q) => q[0]);
+        const ys = p.outline.map((q) => q[1]);
+        for (let i = 0; i < m.quantity; i++)
+          packer.add(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys), {});
+      }
+      boxes += packer.bins.length;
+    }
+    modelRows.push({
+      model: m.name,
+      sheets: lay.totals.sheetCount,
+      lowerBound: lower,
+      atBound: lay.totals.sheetCount === lower ? 'yes' : 'no',
+      bboxSheets: boxes,
+      // Same pieces either way: the utilisation ratio is the inverse ratio of sheet counts.
+      ratio: (boxes / lay.totals.sheetCount).toFixed(2),
+      medianMs: median(wall).toFixed(0),
+    });
+  }
+  console.table(modelRows);
+  console.log(
+    `models at the area lower bound (density 1): ${modelRows.filter((r) => r.atBound === 'yes').length} of ` +
+      `${modelRows.length}; sheets against bounding boxes: ratio ${modelRows.map((r) => r.ratio).join(', ')}`,
+  );
 }
 
 const nonRect = rows.filter((r, i) => !designs[i].rect);

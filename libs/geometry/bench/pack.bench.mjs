@@ -4,55 +4,12 @@
 // stages (from the pack's own progress points). Not a timed test.
 // Run after `npm run build -w @kerfwright/geometry`:  node libs/geometry/bench/pack.bench.mjs
 import os from 'node:os';
-import geometry from '../dist/index.js';
 import { packInputFrom } from '../dist/pack/cli-commands.js';
 import { createCutPack } from '../dist/pack/index.js';
+import { MODEL_DESIGNS } from './model-designs.mjs';
 
-const { getSolid, suggestSizes } = geometry;
 const RUNS = Number(process.env.BENCH_RUNS ?? 5);
 const TARGET_MS = 2000;
-
-/** A design of our own: a catalogue solid's face planes, each carrying one regular polygon or star piece. */
-function design(solid, sides, step, rotationDeg, factor, machine, diameterMm = 400) {
-  const overlap = suggestSizes(getSolid(solid), { sides, step, rotationDeg }).overlap ?? 1;
-  return {
-    solid,
-    piece: { sides, step, rotationDeg, size: overlap * factor },
-    scale: { by: 'diameter', mm: diameterMm },
-    stock: { thicknessMm: 3, sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3 },
-    machine,
-    fitMm: -0.05,
-    colours: { count: 3, rule: 'neighbour-distinct', names: ['red', 'white', 'blue'] },
-  };
-}
-const laser = { kind: 'laser', kerfMm: 0.15 };
-const router = { kind: 'router', toolDiameterMm: 3.175 };
-
-// Each case is 60 pieces in 3 colours (neighbour-distinct): a model's pieces times the copies the job asks for.
-const CASES = [
-  {
-    name: 'rhombic triacontahedron, slotted triangles, 2 copies, laser',
-    spec: design('rhombic-triacontahedron', 3, 1, 0, 1.9, laser),
-    quantity: 2,
-  },
-  {
-    name: 'rhombic triacontahedron, slotted hexagons, 2 copies, router dog-bones',
-    spec: design('rhombic-triacontahedron', 6, 1, 30, 1.3, router),
-    quantity: 2,
-  },
-  {
-    // Its pieces differ in where their slots open (12 slot patterns), and its design report warns of thin
-    // webs: a hard case for the nesting rather than a model to cut.
-    name: 'icosahedron, slotted {5/2} stars, 3 copies, laser',
-    spec: design('icosahedron', 5, 2, 36, 1.9, laser),
-    quantity: 3,
-  },
-  {
-    name: 'cube, slotted {8/3} stars, 200 mm, 10 copies, laser',
-    spec: design('cube', 8, 3, 36, 1.9, laser, 200),
-    quantity: 10,
-  },
-];
 
 const median = (xs) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -91,7 +48,7 @@ console.log(
       .join(' ')}; ${RUNS} timed runs per case after 1 warm-up`,
 );
 const medians = [];
-for (const c of CASES) {
+for (const c of MODEL_DESIGNS) {
   const input = packInputFrom(c.spec, { quantity: c.quantity, archive: true });
   const warm = await timePack(input);
   const runs = [];
