@@ -236,11 +236,27 @@ export function sizeWithoutLayout(
 ): { model: BuiltModel; evaluations: number } {
   const sc = spec.scale;
   if (sc.by === 'fitBed') {
-    const bed = spec.bed as BedSpec;
-    return fitToRectangle(spec, solid, bed.widthMm, bed.heightMm);
+    const [w, h] = fitBedRectangle(spec.bed as BedSpec, spec.sheet);
+    return fitToRectangle(spec, solid, w, h);
   }
   if (sc.by === 'fitSheets') return fitSheetsUpperBound(spec, solid);
   return { model: buildAtScale(spec, solid, scaleFactor(solid, spec)), evaluations: 1 };
+}
+
+/**
+ * The rectangle fitBed fits the largest piece to: the bed, and when a stock sheet is given also the sheet less
+ * its margins (laid on the bed long side along long side), so that the piece can be laid out on that sheet.
+ */
+export function fitBedRectangle(bed: BedSpec, sheet: ResolvedSpec['sheet']): [number, number] {
+  const long = (a: number, b: number) => Math.max(a, b);
+  const short = (a: number, b: number) => Math.min(a, b);
+  if (!sheet) return [bed.widthMm, bed.heightMm];
+  const sw = sheet.widthMm - 2 * sheet.marginMm;
+  const sh = sheet.heightMm - 2 * sheet.marginMm;
+  return [
+    Math.min(long(bed.widthMm, bed.heightMm), long(sw, sh)),
+    Math.min(short(bed.widthMm, bed.heightMm), short(sw, sh)),
+  ];
 }
 
 /** Largest piece fit ratio (see bestFitRatio) of a built model on a width × height rectangle. */

@@ -412,6 +412,17 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(setup.text).toMatch(/Bed 300\.0 x 300\.0 mm/);
   });
 
+  it("compares a profile's machine kind with the design's by how it cuts (a CO2 laser is a laser)", async () => {
+    const spec = octahedronHexagons();
+    const base = input(spec, { archive: false });
+    const laser = await createCutPack({ ...base, machine: { ...base.machine, kind: 'co2-laser' } });
+    expect(laser.manifest.warnings ?? []).not.toContainEqual(expect.stringMatching(/compensated for/));
+    const router = await createCutPack({ ...base, machine: { ...base.machine, kind: 'cnc-router' } });
+    expect(router.manifest.warnings).toContainEqual(
+      'the machine profile is a cnc-router but the design is compensated for a laser',
+    );
+  });
+
   it('keeps the SVG page to the sheet when the margin is under a millimetre', async () => {
     const r = await createCutPack(input(octahedronHexagons(), { marginMm: 0, archive: false }));
     expect(r.manifest.warnings ?? []).not.toContainEqual(expect.stringMatching(/below the sheet/));

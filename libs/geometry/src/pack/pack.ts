@@ -13,6 +13,7 @@ import type {
   CutPackResult,
   DesignSpec,
 } from '@kerfwright/contracts';
+import { geometryMachineKind, MACHINE_PROFILE_KINDS, type MachineProfileKind } from '@kerfwright/contracts';
 import { type BuiltModel, buildModel } from '../build';
 import { gapRaisedNote, layoutModel } from '../layout/plan-layout';
 import { clashingColourNames, slug } from './slug';
@@ -241,7 +242,7 @@ export async function createCutPack(
         `${model.spec.stock.thicknessMm} mm stock: slot widths follow the design`,
     );
   }
-  if (input.machine.kind !== model.spec.machine.kind) {
+  if (cutterKind(input.machine.kind) !== model.spec.machine.kind) {
     warnings.push(
       `the machine profile is a ${input.machine.kind} but the design is compensated for a ${model.spec.machine.kind}`,
     );
@@ -356,6 +357,16 @@ export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine'>)
     `the ${w} × ${h} mm sheet does not fit the machine's ${bw} × ${bh} mm bed: ` +
     `cut the stock down to the bed first, or lay out on sheets the bed takes`
   );
+}
+
+/**
+ * The geometry's machine kind of a profile's kind ("co2-laser" compensates like a "laser"); a geometry kind
+ * (the CLI's) as it is.
+ */
+function cutterKind(kind: string): string {
+  return (MACHINE_PROFILE_KINDS as readonly string[]).includes(kind)
+    ? geometryMachineKind(kind as MachineProfileKind)
+    : kind;
 }
 
 /** What the coupon alone needs. */

@@ -1,4 +1,5 @@
 import { buildModel } from '../build';
+import { buildWithLayout } from '../layout/build-with-layout';
 import { type Vec2 } from '../math/vec';
 import { design } from '../test-support/designs';
 import { bestFitRatio } from './fit-ratio';
@@ -68,6 +69,23 @@ describe('fitBed scale', () => {
     expect(r.scale).toMatchObject({ method: 'fitBed', diameterMm: r.diameterMm });
     expect(r.errors).toEqual([]);
     for (const p of r.pieces) expect(bestFitRatio(p.outline, b, b).ratio).toBeLessThanOrEqual(1 + 1e-9);
+  });
+
+  it('fits the largest piece to the stock sheet less its margins too, so that it can be laid out', () => {
+    // The same square pieces (derived as above: side 2h + kerf): on a 300 × 300 bed with a 300 × 300 sheet
+    // and 5 mm margins the piece may be 290 mm, not 300.
+    const b = 300;
+    const kerf = 0.15;
+    const spec = cube({
+      scale: { by: 'fitBed' },
+      bed: { widthMm: b, heightMm: b },
+      stock: { thicknessMm: 3, sheet: { widthMm: b, heightMm: b }, marginMm: 5, gapMm: 3 },
+    });
+    const r = buildModel(spec).report;
+    const h = (b - 10 - kerf) / 2;
+    expect(r.planeDistanceMm).toBeCloseTo((h * Math.SQRT2) / 1.8, 3);
+    const sheets = buildWithLayout(spec);
+    expect(sheets.layout?.ok).toBe(true);
   });
 
   it('gives a model that fits, while 1 % larger does not', () => {

@@ -1,4 +1,6 @@
 import { MessageChannel } from 'node:worker_threads';
+import { buildModel } from '../build';
+import { buildWithLayout } from '../layout/build-with-layout';
 import { octahedronHexagons } from '../test-support/designs';
 import { packInputFrom } from '../pack/cli-commands';
 import { CutPackError } from '../pack/pack';
@@ -83,6 +85,21 @@ describe('geometry worker tasks', () => {
     const bad = await previewDesign({ spec: { ...octahedronHexagons(), piece: { sides: 2 } } });
     expect(bad.ok).toBe(false);
     if (!bad.ok) expect(reviveThreadError(bad.error)).toBeInstanceOf(SpecValidationError);
+  });
+
+  it('previews a fit-to-sheets design at the size the search finds, not at its upper bound', async () => {
+    const spec = {
+      ...octahedronHexagons(),
+      scale: { by: 'fitSheets', sheets: 2 },
+      stock: { thicknessMm: 3, sheet: { widthMm: 500, heightMm: 450 }, marginMm: 8, gapMm: 4 },
+      colours: { count: 2, rule: 'neighbour-distinct' },
+    };
+    const found = buildWithLayout(spec).model.report.diameterMm;
+    const upper = buildModel(spec).report.diameterMm;
+    expect(upper).toBeGreaterThan(found + 1);
+    const r = await previewDesign({ spec });
+    if (!r.ok) throw new Error(r.error.message);
+    expect(r.value.diameterMm).toBeCloseTo(found, 2);
   });
 
   it('checks uploaded solid text: a cube as OFF (8 vertices, 6 faces), a flat one refused as a SolidError', async () => {

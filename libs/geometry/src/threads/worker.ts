@@ -130,13 +130,17 @@ export function cutPack(task: CutPackTask): Promise<ThreadOutcome<CutPackResult>
 
 /**
  * Checks a design spec and builds it: the preview figures a design keeps (a spec that does not validate is a
- * SpecValidationError, an unusable solid a SolidError; geometric errors are in the preview, valid false).
+ * SpecValidationError, an unusable solid a SolidError; geometric errors are in the preview, valid false). A
+ * fit-to-sheets design is built at the size the search finds.
  */
 export function previewDesign(task: { spec: unknown }): Promise<ThreadOutcome<DesignPreview>> {
   return settle(() => {
     const checked = validateSpec(task.spec);
     if (!checked.ok) throw new SpecValidationError(checked.errors);
-    return designPreview(buildModel(task.spec).report);
+    // Fit to sheets: the figures of the size found, not of the search's upper bound (buildModel's).
+    const model =
+      checked.spec.scale.by === 'fitSheets' ? buildWithLayout(task.spec).model : buildModel(task.spec);
+    return designPreview(model.report);
   });
 }
 

@@ -26,6 +26,7 @@ import {
   type FitScaleBy,
   JOB_STATES,
   type JobState,
+  MACHINE_PROFILE_LIMITS,
   SCALE_BY,
   type ScaleBy,
 } from '@kerfwright/contracts';
@@ -172,11 +173,16 @@ export class RecordCutDto extends JobActionDto {
   @Max(10000)
   actualMinutes: number;
   @ApiProperty() @IsInt() @Min(0) @Max(1000) sheetsUsed: number;
-  @ApiPropertyOptional({ description: 'Kerf measured on the cut, mm; also kept as a kerf record' })
+  @ApiPropertyOptional({
+    description: 'Kerf measured on the cut, mm; also kept as a kerf record',
+    minimum: MACHINE_PROFILE_LIMITS.kerfMm.min,
+    maximum: MACHINE_PROFILE_LIMITS.kerfMm.max,
+  })
   @IsOptional()
   @IsNumber()
-  @IsPositive()
-  @Max(2)
+  // The kerf records' limits: the column keeps 0.001 mm, so a smaller kerf would be stored as 0.
+  @Min(MACHINE_PROFILE_LIMITS.kerfMm.min)
+  @Max(MACHINE_PROFILE_LIMITS.kerfMm.max)
   measuredKerfMm?: number;
 }
 
