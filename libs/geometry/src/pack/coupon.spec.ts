@@ -86,14 +86,15 @@ describe('fit-test coupon', () => {
     expect(svg.cut).toHaveLength(2);
   });
 
-  it('gives a router coupon plain widths (no kerf) with dog-bone reliefs below mid-depth', async () => {
+  /** A router-cut cube of squares at 45° (our own design): its coupon, the lower strip's contour, top and depth. */
+  async function routerCoupon(thicknessMm: number, toolDiameterMm: number, fitMm: number) {
     const spec: DesignSpec = {
       solid: 'cube',
       piece: { sides: 4, rotationDeg: 45, size: 1.5 },
       scale: { by: 'diameter', mm: 300 },
-      stock: { thicknessMm: 6 },
-      machine: { kind: 'router', toolDiameterMm: 3.175 },
-      fitMm: 0.1,
+      stock: { thicknessMm },
+      machine: { kind: 'router', toolDiameterMm },
+      fitMm,
     };
     const r = await createCoupon({ ...packInputFrom(spec), archive: false });
     const d = readDxf(r.files[0]!.data);
@@ -102,7 +103,11 @@ describe('fit-test coupon', () => {
     )[0]!;
     const ys = c.map((p) => p[1]);
     const top = Math.max(...ys);
-    const depth = (top - Math.min(...ys)) / 2;
+    return { r, c, top, depth: (top - Math.min(...ys)) / 2 };
+  }
+
+  it('gives a router coupon plain widths (no kerf) with dog-bone reliefs below mid-depth', async () => {
+    const { c, top, depth } = await routerCoupon(6, 3.175, 0.1);
     // Cube planes cross at 90°: w = t + fit = 6.1 mm (REFERENCES: cot 45° = 1).
     const measured = gapsAt(c, top - depth / 2);
     expect(measured.map((w) => Math.round(w * 1000) / 1000)).toEqual([5.95, 6, 6.05, 6.1, 6.15, 6.2, 6.25]);
@@ -116,22 +121,8 @@ describe('fit-test coupon', () => {
   it('leaves out graded slots narrower than the router bit, and says which', async () => {
     // 3 mm stock crossing at 90° with 0.05 mm clearance: w = 3 + 0.05 = 3.05 mm (cot 45° = 1); with a 3 mm
     // bit the −0.15 and −0.10 slots (2.90, 2.95) cannot be cut.
-    const spec: DesignSpec = {
-      solid: 'cube',
-      piece: { sides: 4, rotationDeg: 45, size: 1.5 },
-      scale: { by: 'diameter', mm: 300 },
-      stock: { thicknessMm: 3 },
-      machine: { kind: 'router', toolDiameterMm: 3 },
-      fitMm: 0.05,
-    };
-    const r = await createCoupon({ ...packInputFrom(spec), archive: false });
-    const d = readDxf(r.files[0]!.data);
-    const c = [...d.cut].sort(
-      (a, b) => Math.min(...a.map((p) => p[1])) - Math.min(...b.map((p) => p[1])),
-    )[0]!;
-    const ys = c.map((p) => p[1]);
-    const top = Math.max(...ys);
-    const measured = gapsAt(c, top - (top - Math.min(...ys)) / 4);
+    const { r, c, top, depth } = await routerCoupon(3, 3, 0.05);
+    const measured = gapsAt(c, top - depth / 2);
     expect(measured.map((w) => Math.round(w * 1000) / 1000)).toEqual([3, 3.05, 3.1, 3.15, 3.2]);
     expect(r.manifest.warnings).toContainEqual(
       'coupon C1: slots narrower than the 3 mm bit are left out (2.90, 2.95 mm)',
