@@ -16,8 +16,7 @@ export function useAuthSubmit<T extends FieldValues>(
   onSuccess: () => void,
 ) {
   const [formError, setFormError] = useState<unknown>(null);
-  const onSubmit = form.handleSubmit(async (values) => {
-    setFormError(null);
+  const submit = form.handleSubmit(async (values) => {
     try {
       await send(values);
       onSuccess();
@@ -25,6 +24,12 @@ export function useAuthSubmit<T extends FieldValues>(
       if (!applyServerFieldErrors(error, form.setError, fields)) setFormError(error);
     }
   });
+  // A new attempt drops the last answer before the fields are checked: the old message no longer applies,
+  // even when this attempt stops at an empty or malformed field.
+  const onSubmit = (event?: FormEvent<HTMLFormElement>) => {
+    setFormError(null);
+    return submit(event);
+  };
   return { formError, onSubmit };
 }
 

@@ -53,6 +53,30 @@ describe('SignInForm', () => {
     expect(getAccessToken()).toBeNull();
   });
 
+  it('drops the wrong-password message when the form is sent again, even with empty fields', async () => {
+    const { fetchMock } = stubFetch({
+      'POST /api/auth/login': () =>
+        json(401, {
+          statusCode: 401,
+          code: 'AUTH.INVALID_CREDENTIALS',
+          message: 'E-mail or password is wrong',
+          requestId: 'r1',
+        }),
+    });
+    const { user } = setup();
+    await user.type(screen.getByLabelText(/E-mail/), 'operator@workshop.example');
+    await user.type(screen.getByLabelText(/Password/), 'not-the-password');
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByRole('alert')).toHaveTextContent('E-mail or password is wrong');
+
+    await user.clear(screen.getByLabelText(/E-mail/));
+    await user.clear(screen.getByLabelText(/Password/));
+    await user.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByText('Enter your e-mail address')).toBeInTheDocument();
+    expect(screen.queryByText('E-mail or password is wrong')).not.toBeInTheDocument();
+    expect(fetchMock).toHaveBeenCalledTimes(1);
+  });
+
   it('puts the API field errors under the matching fields', async () => {
     stubFetch({
       'POST /api/auth/login': () =>
