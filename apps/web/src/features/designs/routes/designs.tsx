@@ -75,7 +75,11 @@ export function DesignsRoute() {
           columns={COLUMNS}
           rows={designs.data?.items}
           rowKey={(d) => d.id}
-          emptyText="No designs match."
+          emptyText={
+            params.q?.trim()
+              ? `No designs match “${params.q.trim()}”.`
+              : 'No designs yet. Start one with New design: pick a solid and a piece shape, then save it.'
+          }
           fetching={designs.isFetching}
           fetchingLabel="Loading designs"
           total={designs.data?.total ?? 0}
