@@ -27,4 +27,18 @@ describe('request a cut job dialog', () => {
     await waitFor(() => expect(onSubmit).toHaveBeenCalled());
     expect(onSubmit.mock.calls[0]?.[0]).toEqual({ quantity: 2, notes: 'Teal if possible' });
   });
+
+  it('puts the focus on Copies when it opens', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <RequestJobDialog open busy={false} error={null} onSubmit={onSubmit} onClose={() => undefined} />,
+    );
+    const copies = await screen.findByLabelText('Copies');
+    await waitFor(() => expect(copies).toHaveFocus());
+    // Typing goes straight into Copies (jsdom selects no text in a number input, so the 1 is erased first).
+    await user.keyboard('{Backspace}3');
+    await user.click(screen.getByRole('button', { name: 'Request the cut' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]?.[0]).toEqual({ quantity: 3, notes: '' });
+  });
 });

@@ -47,6 +47,9 @@ export function RequestJobDialog({
         <FormTextField
           label="Copies"
           type="number"
+          // The one field most requests change: focused (and selected, so typing replaces the 1) on opening.
+          autoFocus
+          onFocus={(event) => event.target.select()}
           registration={register('quantity', { valueAsNumber: true })}
           error={errors.quantity}
         />
