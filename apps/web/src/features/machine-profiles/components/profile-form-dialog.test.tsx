@@ -1,10 +1,11 @@
 import { type MaterialView } from '@kerfwright/contracts';
-import { screen, waitFor, within } from '@testing-library/react';
+import { act, screen, waitFor, within } from '@testing-library/react';
+import { useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { KerfRecordDialog } from './kerf-record-dialog';
 import { ProfileFormDialog } from './profile-form-dialog';
-import { EMPTY_PROFILE, toVersionContent } from './profile-form-schema';
+import { EMPTY_PROFILE, EMPTY_SETTING, toVersionContent } from './profile-form-schema';
 
 const material = (id: string, name: string, laserAllowed: boolean): MaterialView => ({
   id,
@@ -24,6 +25,7 @@ const material = (id: string, name: string, laserAllowed: boolean): MaterialView
 });
 const birch = material('m-birch', 'Birch plywood 3 mm', true);
 const pvc = material('m-pvc', 'Expanded PVC 3 mm', false);
+const acrylic = material('m-acrylic', 'Cast acrylic 3 mm', true);
 const noop = () => undefined;
 
 function renderForm(onSubmit = vi.fn()) {
@@ -141,6 +143,48 @@ describe('machine profile form', () => {
       passes: 1,
       pierceTimeS: 0,
     });
+  });
+});
+
+describe('changing a draft', () => {
+  /** The page's materials come from their own request, which answers after the dialog has opened. */
+  // One object for the life of the dialog, as the page keeps it (a new one would reset the form).
+  const draft = {
+    ...EMPTY_PROFILE,
+    name: 'Bay 3 laser',
+    settings: [
+      { ...EMPTY_SETTING, materialId: 'm-birch', kerfMm: 0.2, cutSpeedMmS: 15, powerPct: 70 },
+      { ...EMPTY_SETTING, materialId: 'm-acrylic', kerfMm: 0.16, cutSpeedMmS: 12, powerPct: 65 },
+    ],
+  };
+  let deliver: (materials: MaterialView[]) => void = noop;
+  function LateMaterials() {
+    const [materials, setMaterials] = useState<MaterialView[]>();
+    deliver = setMaterials;
+    return (
+      <ProfileFormDialog
+        open
+        mode="edit-draft"
+        initial={draft}
+        materials={materials}
+        busy={false}
+        error={null}
+        onSubmit={noop}
+        onClose={noop}
+      />
+    );
+  }
+
+  it('shows each row with its material when the materials arrive after the form opened', async () => {
+    renderWithProviders(<LateMaterials />);
+    expect(await screen.findByText('Loading the materials…')).toBeInTheDocument();
+    act(() => deliver([acrylic, birch, pvc]));
+    const first = await screen.findByRole('group', { name: 'Material setting 1' });
+    expect(within(first).getByLabelText('Material')).toHaveDisplayValue('Birch plywood 3 mm');
+    expect(within(first).getByLabelText('Kerf (mm)')).toHaveValue(0.2);
+    const second = screen.getByRole('group', { name: 'Material setting 2' });
+    expect(within(second).getByLabelText('Material')).toHaveDisplayValue('Cast acrylic 3 mm');
+    expect(screen.queryByText('Loading the materials…')).not.toBeInTheDocument();
   });
 });
 

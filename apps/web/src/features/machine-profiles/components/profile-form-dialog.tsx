@@ -3,6 +3,7 @@ import { isLaserKind, MACHINE_PROFILE_KINDS, type MaterialView } from '@kerfwrig
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
+import CircularProgress from '@mui/material/CircularProgress';
 import FormHelperText from '@mui/material/FormHelperText';
 import IconButton from '@mui/material/IconButton';
 import Paper from '@mui/material/Paper';
@@ -11,6 +12,7 @@ import Typography from '@mui/material/Typography';
 import { useEffect, useMemo } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
+import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
@@ -35,12 +37,15 @@ const SUBMIT_LABELS: Record<ProfileFormMode, string> = {
 interface ProfileFormDialogProps extends FormDialogBaseProps<ProfileFormValues> {
   mode: ProfileFormMode;
   initial: ProfileFormValues;
+  /** The materials a setting can name; undefined while they load. */
   materials: readonly MaterialView[] | undefined;
+  /** Why the materials could not be loaded, if they could not. */
+  materialsError?: unknown;
 }
 
 /** Bed, speeds, rate and the per-material cutting values of a profile version; saved as a draft. */
 export function ProfileFormDialog(props: ProfileFormDialogProps) {
-  const { materials, mode } = props;
+  const { materials, materialsError, mode } = props;
   const schema = useMemo(() => profileFormSchema(materials), [materials]);
   const {
     register,
@@ -134,7 +139,22 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
             supervision, following the machine maker’s manual and the workshop’s rules.
           </Alert>
         ) : null}
-        {settings.fields.map((field, i) => {
+        {/*
+          The material selects are the browser's own, bound to the form without React state: a select shown
+          before its options exist falls back to "Choose…" and stays there when the options come. So the rows
+          wait for the materials, and each select appears with its material's option already in it.
+        */}
+        {materials === undefined ? (
+          materialsError ? (
+            <FormErrorAlert error={materialsError} />
+          ) : (
+            <Stack direction="row" spacing={1} sx={{ alignItems: 'center' }}>
+              <CircularProgress size={20} aria-label="Loading the materials" />
+              <Typography color="text.secondary">Loading the materials…</Typography>
+            </Stack>
+          )
+        ) : null}
+        {(materials === undefined ? [] : settings.fields).map((field, i) => {
           return (
             <Paper
               key={field.id}
@@ -159,7 +179,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                   form={fields}
                 >
                   <option value="">Choose…</option>
-                  {(materials ?? []).map((m) => (
+                  {materials?.map((m) => (
                     <option key={m.id} value={m.id} disabled={laser && !m.laserAllowed}>
                       {m.laserAllowed ? m.name : `${m.name} (not for lasers)`}
                     </option>
@@ -241,7 +261,11 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
         })}
         {errors.settings?.message ? <FormHelperText error>{errors.settings.message}</FormHelperText> : null}
         <Box>
-          <Button size="small" onClick={() => settings.append({ ...EMPTY_SETTING })}>
+          <Button
+            size="small"
+            disabled={materials === undefined}
+            onClick={() => settings.append({ ...EMPTY_SETTING })}
+          >
             Add a material
           </Button>
         </Box>

@@ -164,6 +164,7 @@ export function MachineProfileRoute() {
         mode={mode ?? 'new-version'}
         initial={initial}
         materials={materials.data?.items}
+        materialsError={materials.error}
         busy={saving.isPending}
         error={saving.error}
         onSubmit={save}

@@ -94,6 +94,7 @@ export function MachineProfilesRoute() {
         mode="create"
         initial={EMPTY_PROFILE}
         materials={materials.data?.items}
+        materialsError={materials.error}
         busy={create.isPending}
         error={create.error}
         onSubmit={submit}
