@@ -1,4 +1,5 @@
 import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
 import CircularProgress from '@mui/material/CircularProgress';
@@ -11,6 +12,7 @@ import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { MarkdownText } from '../../../components/ui/markdown-text';
 import { useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
 import { useJobSafety } from '../api/get-job-safety';
 
@@ -47,16 +49,26 @@ export function SafetyDialog({
             </Typography>
             {view.notices.map((n) => (
               <Alert key={`${n.id}@${n.version}`} severity={SEVERITY[n.severity]} variant="outlined">
-                <Typography sx={{ fontWeight: 500 }}>{n.title}</Typography>
-                <Typography variant="body2" sx={{ whiteSpace: 'pre-line' }}>
-                  {n.body}
+                <Typography component="h3" sx={{ fontWeight: 500, mb: 0.5 }}>
+                  {n.title}
                 </Typography>
+                <MarkdownText title={n.title} topLevel={4}>
+                  {n.body}
+                </MarkdownText>
               </Alert>
             ))}
             <Typography variant="h3">Local rules</Typography>
-            <Typography variant="body2" sx={{ whiteSpace: 'pre-line' }} data-testid="local-rules">
-              {view.localRules?.body || 'The workshop has not written local rules yet; ask a supervisor.'}
-            </Typography>
+            <Box data-testid="local-rules">
+              {view.localRules?.body ? (
+                <MarkdownText title="Local rules" topLevel={4}>
+                  {view.localRules.body}
+                </MarkdownText>
+              ) : (
+                <Typography variant="body2">
+                  The workshop has not written local rules yet; ask a supervisor.
+                </Typography>
+              )}
+            </Box>
             {view.acknowledged ? (
               <Alert severity="success" data-testid="safety-acknowledged">
                 {`You acknowledged these notices${view.acknowledgedAt ? ` on ${new Date(view.acknowledgedAt).toLocaleString()}` : ''}.`}

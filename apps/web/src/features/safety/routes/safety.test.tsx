@@ -59,7 +59,68 @@ function stub(role: 'supervisor' | 'hobbyist') {
   });
 }
 
+// Shaped like the notices in safety/notices: a title heading repeated in the body, bold, a list and a table.
+const markdownNotice: SafetyNotice = {
+  id: 'laser-never-cut',
+  version: 1,
+  title: 'Materials that never go on the laser',
+  appliesTo: { machineKinds: ['co2-laser'], materialFamilies: ['*'] },
+  severity: 'danger',
+  body: [
+    '# Materials that never go on the laser',
+    '',
+    'A **Class 4** source sits inside',
+    'every workshop laser.',
+    '',
+    '| material | why it is refused |',
+    '| --- | --- |',
+    '| PVC | gives off hydrogen chloride |',
+    '',
+    '1. Know what your sheet is.',
+    '2. Ask the supervisor when in doubt.',
+    '',
+    '<script>window.hacked = true</script><img src="x" onerror="window.hacked = true">',
+  ].join('\n'),
+  sources: ['common practice'],
+};
+
 describe('safety page', () => {
+  it('shows notices and local rules as formatted text, without repeating the title or rendering HTML', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      'GET /api/safety/notices': () => json(200, [markdownNotice]),
+      'GET /api/safety/hazards': () => json(200, hazards),
+      'GET /api/safety/local-rules': () =>
+        json(200, { ...rules, body: '## Millbrook local rules\n\n1. Induction first.\n2. Book the laser.' }),
+    });
+    renderApp('/safety', { token: 't' });
+    const notices = await screen.findByTestId('notices');
+    await within(notices).findByRole('table');
+    expect(within(notices).getAllByText('Materials that never go on the laser')).toHaveLength(1);
+    expect(within(notices).getByText('Class 4').tagName).toBe('STRONG');
+    // Lines wrapped in the file join into one paragraph.
+    expect(within(notices).getByText(/every workshop laser\.$/)).toHaveTextContent(
+      'A Class 4 source sits inside every workshop laser.',
+    );
+    const table = within(notices).getByRole('table');
+    expect(within(table).getByRole('columnheader', { name: 'why it is refused' })).toBeInTheDocument();
+    expect(within(table).getByRole('cell', { name: 'gives off hydrogen chloride' })).toBeInTheDocument();
+    expect(within(notices).getAllByRole('listitem')).toHaveLength(2);
+    // ("*" alone is the notice's "every material" in its Applies to line.)
+    expect(notices).not.toHaveTextContent(/#|\||\*\*|---|<script|onerror/);
+    expect(notices.querySelector('script, img')).toBeNull();
+    expect((window as { hacked?: boolean }).hacked).toBeUndefined();
+
+    const local = screen.getByTestId('local-rules');
+    expect(within(local).getByRole('heading', { name: 'Millbrook local rules' })).toBeInTheDocument();
+    expect(
+      within(local)
+        .getAllByRole('listitem')
+        .map((li) => li.textContent),
+    ).toEqual(['Induction first.', 'Book the laser.']);
+    expect(local).not.toHaveTextContent('##');
+  });
+
   it('shows the notices, the hazard table (filterable and sortable) and the local rules to everyone', async () => {
     stub('hobbyist');
     const { user } = renderApp('/safety', { token: 't' });

@@ -8,6 +8,7 @@ import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { ErrorPanel } from '../../../components/errors/error-panel';
+import { MarkdownText } from '../../../components/ui/markdown-text';
 import { useUser } from '../../../lib/auth';
 import { useHazards } from '../api/get-hazards';
 import { useLocalRules } from '../api/get-local-rules';
@@ -65,9 +66,13 @@ export function SafetyRoute() {
         ) : null}
         {rules.isSuccess && !editing ? (
           <>
-            <Typography sx={{ whiteSpace: 'pre-line' }} data-testid="local-rules">
-              {rules.data?.body || 'The workshop has not written local rules yet.'}
-            </Typography>
+            <Box data-testid="local-rules" sx={{ mb: 1 }}>
+              {rules.data?.body ? (
+                <MarkdownText title="Local rules">{rules.data.body}</MarkdownText>
+              ) : (
+                <Typography>The workshop has not written local rules yet.</Typography>
+              )}
+            </Box>
             {rules.data ? (
               <Typography variant="caption" color="text.secondary">
                 {`Version ${rules.data.version}${rules.data.authorName ? ` by ${rules.data.authorName}` : ''}, ${new Date(rules.data.updatedAt).toLocaleString()}`}
@@ -90,13 +95,15 @@ export function SafetyRoute() {
       <Stack spacing={1.5} sx={{ mb: 3 }} data-testid="notices">
         {sorted.map((n) => (
           <Alert key={n.id} severity={SEVERITY[n.severity]} variant="outlined">
-            <Typography sx={{ fontWeight: 500 }}>{n.title}</Typography>
+            <Typography component="h3" sx={{ fontWeight: 500 }}>
+              {n.title}
+            </Typography>
             <Typography variant="caption" color="text.secondary" component="div" sx={{ mb: 1 }}>
               {`Applies to ${n.appliesTo.machineKinds.join(', ')} · ${n.appliesTo.materialFamilies.join(', ')} · version ${n.version}`}
             </Typography>
-            <Typography variant="body2" sx={{ whiteSpace: 'pre-line' }}>
+            <MarkdownText title={n.title} topLevel={4}>
               {n.body}
-            </Typography>
+            </MarkdownText>
             {n.sources.length ? (
               <Typography variant="caption" component="div" sx={{ mt: 1 }}>
                 {`Sources: ${n.sources.join('; ')}`}

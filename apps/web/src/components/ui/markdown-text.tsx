@@ -1,0 +1,157 @@
+import Box from '@mui/material/Box';
+import Link from '@mui/material/Link';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableHead from '@mui/material/TableHead';
+import TableRow from '@mui/material/TableRow';
+import Typography from '@mui/material/Typography';
+import { type ComponentProps, type JSX, type ReactNode } from 'react';
+import Markdown, { type Components, type ExtraProps } from 'react-markdown';
+import remarkGfm from 'remark-gfm';
+
+type HeadingTag = 'h2' | 'h3' | 'h4' | 'h5' | 'h6';
+const HEADING_TAGS: readonly HeadingTag[] = ['h2', 'h3', 'h4', 'h5', 'h6'];
+
+/** Text of a heading line as a reader sees it: no `#`s, emphasis marks or spacing differences. */
+function plainHeading(text: string): string {
+  return text
+    .replace(/^\s{0,3}#{1,6}\s+/, '')
+    .replace(/\s+#+\s*$/, '')
+    .replace(/[*_`]/g, '')
+    .replace(/\s+/g, ' ')
+    .trim()
+    .toLowerCase();
+}
+
+/**
+ * The text without its first line when that line is a heading saying the same as `title`, which the page
+ * already shows above it (the notices' files open with their title as a heading).
+ */
+export function withoutRepeatedTitle(text: string, title: string | undefined): string {
+  if (!title) return text;
+  const match = /^\s*(#{1,6}[ \t][^\n]*)(\n|$)/.exec(text);
+  if (!match?.[1] || plainHeading(match[1]) !== plainHeading(title)) return text;
+  return text.slice(match[0].length);
+}
+
+/** A heading of the text, placed below the page's own headings (`#` becomes `topLevel`). */
+function heading(level: number, topLevel: number) {
+  const tag = HEADING_TAGS[Math.min(Math.max(level + topLevel - 3, 0), HEADING_TAGS.length - 1)] ?? 'h6';
+  return function MarkdownHeading({ children }: { children?: ReactNode }) {
+    return (
+      <Typography
+        component={tag}
+        variant="subtitle1"
+        sx={{ fontWeight: 700, mt: 1.5, mb: 0.5, '&:first-of-type': { mt: 0 } }}
+      >
+        {children}
+      </Typography>
+    );
+  };
+}
+
+type Props<T extends keyof JSX.IntrinsicElements> = ComponentProps<T> & ExtraProps;
+
+function components(topLevel: number): Components {
+  return {
+    h1: heading(1, topLevel),
+    h2: heading(2, topLevel),
+    h3: heading(3, topLevel),
+    h4: heading(4, topLevel),
+    h5: heading(5, topLevel),
+    h6: heading(6, topLevel),
+    p: ({ children }: Props<'p'>) => (
+      <Typography variant="body2" component="p" sx={{ my: 1 }}>
+        {children}
+      </Typography>
+    ),
+    ul: ({ children }: Props<'ul'>) => (
+      <Box component="ul" sx={{ my: 1, pl: 3, typography: 'body2' }}>
+        {children}
+      </Box>
+    ),
+    ol: ({ children, start }: Props<'ol'>) => (
+      <Box component="ol" start={start} sx={{ my: 1, pl: 3, typography: 'body2' }}>
+        {children}
+      </Box>
+    ),
+    li: ({ children }: Props<'li'>) => (
+      <Box component="li" sx={{ mb: 0.5 }}>
+        {children}
+      </Box>
+    ),
+    a: ({ children, href }: Props<'a'>) => (
+      <Link href={href} target="_blank" rel="noopener noreferrer">
+        {children}
+      </Link>
+    ),
+    // No pictures from the text (they would load from anywhere): their description stands in.
+    img: ({ alt }: Props<'img'>) => (alt ? <span>{`[${alt}]`}</span> : null),
+    // A wide table scrolls inside its own box, so a phone-width page never grows past the screen.
+    table: ({ children }: Props<'table'>) => (
+      <Box
+        sx={{
+          overflowX: 'auto',
+          my: 1,
+          maxWidth: '100%',
+          border: 1,
+          borderColor: 'divider',
+          borderRadius: 1,
+        }}
+        tabIndex={0}
+        role="region"
+        aria-label="Table"
+      >
+        <Table size="small" sx={{ minWidth: 320 }}>
+          {children}
+        </Table>
+      </Box>
+    ),
+    thead: ({ children }: Props<'thead'>) => <TableHead>{children}</TableHead>,
+    tbody: ({ children }: Props<'tbody'>) => <TableBody>{children}</TableBody>,
+    tr: ({ children }: Props<'tr'>) => <TableRow>{children}</TableRow>,
+    th: ({ children }: Props<'th'>) => (
+      <TableCell component="th" scope="col" sx={{ verticalAlign: 'bottom', color: 'inherit' }}>
+        {children}
+      </TableCell>
+    ),
+    td: ({ children }: Props<'td'>) => (
+      <TableCell sx={{ verticalAlign: 'top', color: 'inherit', overflowWrap: 'anywhere' }}>
+        {children}
+      </TableCell>
+    ),
+  };
+}
+
+const CACHE = new Map<number, Components>();
+
+/**
+ * Workshop text written in Markdown (safety notices, local rules) as formatted text: headings, emphasis,
+ * lists, links and tables. HTML in the text is dropped, never rendered, and links leave the app in a new tab.
+ */
+export function MarkdownText({
+  children,
+  title,
+  topLevel = 3,
+}: {
+  /** The Markdown. */
+  children: string;
+  /** The title shown above the text; a first heading saying the same is left out. */
+  title?: string;
+  /** The HTML level a `#` heading of the text gets, below the page's own headings (default h3). */
+  topLevel?: number;
+}) {
+  let parts = CACHE.get(topLevel);
+  if (!parts) {
+    parts = components(topLevel);
+    CACHE.set(topLevel, parts);
+  }
+  return (
+    <Box sx={{ minWidth: 0, '& > :first-child': { mt: 0 }, '& > :last-child': { mb: 0 } }}>
+      <Markdown remarkPlugins={[remarkGfm]} skipHtml components={parts}>
+        {withoutRepeatedTitle(children, title)}
+      </Markdown>
+    </Box>
+  );
+}

@@ -1,0 +1,62 @@
+import { type JobSafetyView } from '@kerfwright/contracts';
+import { screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { renderWithProviders } from '../../../testing/render-app';
+import { SafetyDialog } from './safety-dialog';
+
+const jobId = '11111111-2222-3333-4444-555555555555';
+
+// In the form of safety/notices/laser-classes.md: the body opens with the title as a heading.
+const safety: JobSafetyView = {
+  jobId,
+  machineKind: 'co2-laser',
+  materialFamily: 'acrylic',
+  notices: [
+    {
+      id: 'laser-classes',
+      version: 1,
+      title: 'Laser hazard classes and what "class 1 enclosed" really means',
+      appliesTo: { machineKinds: ['co2-laser'], materialFamilies: ['*'] },
+      severity: 'danger',
+      body: [
+        '# Laser hazard classes and what "class 1 enclosed" really means',
+        '',
+        '- **Class 3B** covers continuous-wave lasers up to 0.5 W.',
+        '- **Class 4** is everything above 0.5 W.',
+        '',
+        '| class | what it means |',
+        '| --- | --- |',
+        '| 4 | the beam burns skin |',
+      ].join('\n'),
+      sources: ['IEC 60825-1 (from memory)'],
+    },
+  ],
+  localRules: {
+    version: 2,
+    body: '## Bay rules\n\n**Never** alone after 21:00.',
+    authorName: null,
+    updatedAt: '2026-01-01T00:00:00.000Z',
+  },
+  acknowledged: false,
+  acknowledgedAt: null,
+};
+
+describe('safety dialog', () => {
+  it('shows the notices and local rules as formatted text, the title once', async () => {
+    stubFetch({ [`GET /api/jobs/${jobId}/safety`]: () => json(200, safety) });
+    renderWithProviders(<SafetyDialog jobId={jobId} open onClose={() => undefined} />);
+    const notices = await screen.findByTestId('safety-notices');
+    expect(
+      within(notices).getAllByText('Laser hazard classes and what "class 1 enclosed" really means'),
+    ).toHaveLength(1);
+    expect(within(notices).getByText('Class 3B').tagName).toBe('STRONG');
+    expect(within(notices).getByRole('cell', { name: 'the beam burns skin' })).toBeInTheDocument();
+    const local = within(notices).getByTestId('local-rules');
+    expect(within(local).getByRole('heading', { name: 'Bay rules' })).toBeInTheDocument();
+    expect(within(local).getByText('Never').tagName).toBe('STRONG');
+    expect(notices).not.toHaveTextContent(/[#|*]|---/);
+    // The acknowledgement stays.
+    expect(within(notices).getByLabelText(/I have read these notices/)).toBeInTheDocument();
+  });
+});
