@@ -1,5 +1,5 @@
 import { type MachineProfileSummaryView, type MaterialView } from '@kerfwright/contracts';
-import { screen, waitFor } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { renderWithProviders } from '../../../testing/render-app';
@@ -170,8 +170,93 @@ describe('prepare job dialog', () => {
     await user.click(await screen.findByLabelText('natural'));
     await user.click(screen.getByRole('button', { name: 'Prepare' }));
     expect(await screen.findByText('Choose an approved machine profile')).toBeInTheDocument();
+    expect(screen.getByTestId('prepare-explanation')).toHaveTextContent(
+      'CO2 laser has no settings for Birch plywood 3 mm in its approved version v3',
+    );
     expect(onSubmit).not.toHaveBeenCalled();
     // The rules are offered by name.
     expect(screen.getByRole('option', { name: 'Neighbours differ' })).toBeInTheDocument();
+  });
+
+  it('says why a material kept off lasers empties the laser, with its hazard and what would work', async () => {
+    // PVC on a laser gives off hydrogen chloride (safety/material-hazards.json, from EHS never-cut lists).
+    const pvc = {
+      ...acrylic,
+      id: 'm-pvc',
+      name: 'Expanded PVC board 3 mm',
+      family: 'pvc',
+      colours: ['white'],
+      laserAllowed: false,
+      hazardNote: 'Gives off hydrogen chloride, which harms lungs and corrodes the machine.',
+    } as MaterialView;
+    const router = {
+      ...laser,
+      id: 'p-router',
+      name: 'Bay router',
+      kind: 'cnc-router',
+      currentApproved: {
+        ...laser.currentApproved!,
+        id: 'v-router',
+        number: 1,
+        settings: [{ ...laser.currentApproved!.settings[0]!, materialId: 'm-pvc' }],
+      },
+    } as MachineProfileSummaryView;
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic, pvc], total: 2, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () =>
+        json(200, { items: [laser, router], total: 2, page: 1, pageSize: 100 }),
+    });
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: /Expanded PVC/ });
+    const materialSelect = screen.getByLabelText('Material');
+    const profile = screen.getByLabelText('Machine profile (approved version)');
+    await user.selectOptions(materialSelect, 'm-acrylic');
+    await user.selectOptions(profile, 'v-approved');
+    expect(screen.queryByTestId('prepare-explanation')).not.toBeInTheDocument();
+
+    await user.selectOptions(materialSelect, 'm-pvc');
+    expect(profile).toHaveValue('');
+    const why = screen.getByTestId('prepare-explanation');
+    expect(why).toHaveTextContent(
+      'Expanded PVC board 3 mm is never cut on a laser, and CO2 laser is a laser (co2-laser): Gives off hydrogen chloride',
+    );
+    expect(why).toHaveTextContent('Profiles that can cut Expanded PVC board 3 mm: Bay router.');
+    expect(why).toHaveTextContent('Materials CO2 laser can cut: Cast acrylic 3 mm.');
+    expect(
+      within(profile)
+        .getAllByRole('option')
+        .map((o) => o.textContent),
+    ).toEqual(['Choose…', 'Bay router · cnc-router · v1']);
+
+    // Back to a material the laser cuts: the laser is chosen again, and there is nothing to explain.
+    await user.selectOptions(materialSelect, 'm-acrylic');
+    expect(profile).toHaveValue('v-approved');
+    expect(screen.queryByTestId('prepare-explanation')).not.toBeInTheDocument();
+  });
+
+  it('says when no approved profile may cut a material kept off lasers', async () => {
+    const pvc = {
+      ...acrylic,
+      id: 'm-pvc',
+      name: 'Expanded PVC board 3 mm',
+      laserAllowed: false,
+      hazardNote: '',
+    };
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic, pvc], total: 2, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: /Expanded PVC/ });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-pvc');
+    const why = screen.getByTestId('prepare-explanation');
+    expect(why).toHaveTextContent(
+      'Expanded PVC board 3 mm is never cut on a laser: The material hazard table keeps it off every laser.',
+    );
+    expect(why).toHaveTextContent('No approved machine profile that may cut it has settings for it');
   });
 });

@@ -1,10 +1,12 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { COLOUR_RULES } from '@kerfwright/contracts';
+import { COLOUR_RULES, type MachineProfileSummaryView } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
 import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import FormHelperText from '@mui/material/FormHelperText';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
+import { useEffect, useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
@@ -14,6 +16,7 @@ import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
+import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
 
 export interface PrepareJobBody {
   materialId: string;
@@ -45,15 +48,34 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
     },
   });
   const materialId = useWatch({ control, name: 'materialId' });
-  const material = materials.data?.items.find((m) => m.id === materialId);
-  // Only approved versions that hold settings for the chosen material can prepare the job.
-  const approvedFor = (forMaterial: string) =>
-    (profiles.data?.items ?? []).filter(
-      (p) =>
-        p.currentApproved &&
-        (!forMaterial || p.currentApproved.settings.some((s) => s.materialId === forMaterial)),
-    );
-  const approved = approvedFor(materialId);
+  const profileVersionId = useWatch({ control, name: 'profileVersionId' });
+  const allMaterials = materials.data?.items ?? [];
+  const allProfiles = profiles.data?.items ?? [];
+  const material = allMaterials.find((m) => m.id === materialId);
+  // Only approved versions that hold settings for the chosen material (and no laser for a material kept
+  // off lasers) can prepare the job.
+  const approved = profilesFor(allProfiles, material);
+  // The profile chosen before a material change took it off the list: kept to say why, and chosen again
+  // when a material it can cut comes back.
+  const [dropped, setDropped] = useState<MachineProfileSummaryView | null>(null);
+  const chosenProfile = allProfiles.find(
+    (p) => p.currentApproved && p.currentApproved.id === profileVersionId,
+  );
+  // After the render that offers it again (a select takes only a value it has an option for).
+  const restorable =
+    dropped?.currentApproved && approved.includes(dropped) ? dropped.currentApproved.id : null;
+  useEffect(() => {
+    if (restorable) {
+      setValue('profileVersionId', restorable);
+      setDropped(null);
+    }
+  }, [restorable, setValue]);
+  const explanation = explainMaterialAndMachine({
+    material,
+    intended: chosenProfile ?? dropped ?? undefined,
+    profiles: allProfiles,
+    materials: allMaterials,
+  });
   const fields = { register, errors };
 
   const submit = handleSubmit((v) => {
@@ -68,6 +90,7 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
   });
 
   const materialField = register('materialId');
+  const profileField = register('profileVersionId');
   return (
     <FormDialog
       open={props.open}
@@ -91,33 +114,57 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
             onChange: async (e) => {
               setValue('colours', []);
               setValue('sheetIndex', '0');
-              // A chosen version no longer offered for the new material is cleared.
+              // A chosen version not offered for the new material is taken off (the dialog says why); the
+              // one taken off earlier is chosen again when the new material suits it.
               const chosen = getValues('profileVersionId');
-              if (
-                chosen &&
-                !approvedFor(String(e.target.value)).some((p) => p.currentApproved?.id === chosen)
-              )
+              const current = allProfiles.find((p) => p.currentApproved && p.currentApproved.id === chosen);
+              const next = allMaterials.find((m) => m.id === String(e.target.value));
+              if (current && !profilesFor(allProfiles, next).includes(current)) {
                 setValue('profileVersionId', '');
+                setDropped(current);
+              }
               return materialField.onChange(e);
             },
           }}
           error={errors.materialId}
         >
           <option value="">Choose…</option>
-          {(materials.data?.items ?? []).map((m) => (
+          {allMaterials.map((m) => (
             <option key={m.id} value={m.id}>
               {`${m.name}${m.laserAllowed ? '' : ' (not for lasers)'}`}
             </option>
           ))}
         </FormTextField>
-        <NativeSelectField label="Machine profile (approved version)" name="profileVersionId" form={fields}>
+        {explanation ? (
+          <Alert severity={explanation.severity} data-testid="prepare-explanation">
+            {explanation.lines.map((line) => (
+              <Typography key={line} variant="body2" sx={{ '& + &': { mt: 0.5 } }}>
+                {line}
+              </Typography>
+            ))}
+          </Alert>
+        ) : null}
+        <FormTextField
+          select
+          slotProps={NATIVE_SELECT}
+          label="Machine profile (approved version)"
+          registration={{
+            ...profileField,
+            // Choosing a profile by hand forgets the one a material change took off.
+            onChange: async (e) => {
+              setDropped(null);
+              return profileField.onChange(e);
+            },
+          }}
+          error={errors.profileVersionId}
+        >
           <option value="">Choose…</option>
           {approved.map((p) => (
             <option key={p.id} value={p.currentApproved?.id}>
               {`${p.name} · ${p.kind} · v${p.currentApproved?.number}`}
             </option>
           ))}
-        </NativeSelectField>
+        </FormTextField>
         {material ? (
           <>
             <Controller
