@@ -1,4 +1,4 @@
-import { COLOUR_RULES } from '@kerfwright/contracts';
+import { COLOUR_RULES, MACHINE_PROFILE_LIMITS } from '@kerfwright/contracts';
 import { z } from 'zod';
 
 export const returnJobSchema = z.object({
@@ -10,7 +10,10 @@ export const returnJobSchema = z.object({
 });
 export type ReturnJobValues = z.infer<typeof returnJobSchema>;
 
+const KERF = MACHINE_PROFILE_LIMITS.kerfMm;
+
 export const recordCutSchema = z.object({
+  /** Undefined until typed in (so the empty field never holds "NaN"). */
   actualMinutes: z
     .number({ error: 'Enter the machine time in minutes' })
     .gt(0, 'More than 0 minutes')
@@ -20,8 +23,18 @@ export const recordCutSchema = z.object({
     .int('A whole number of sheets')
     .min(1, 'At least 1 sheet')
     .max(1000, 'At most 1000 sheets'),
-  /** Empty = not measured. */
-  measuredKerfMm: z.union([z.nan(), z.number().gt(0, 'More than 0 mm').max(2, 'At most 2 mm')]),
+  /**
+   * Empty = not measured (undefined until typed in, NaN once cleared). The API takes what a machine profile
+   * takes: 0.01–2 mm.
+   */
+  measuredKerfMm: z.union([
+    z.undefined(),
+    z.nan(),
+    z
+      .number()
+      .min(KERF.min, `At least ${KERF.min} mm; leave it empty if it was not measured`)
+      .max(KERF.max, `At most ${KERF.max} mm`),
+  ]),
 });
 export type RecordCutValues = z.infer<typeof recordCutSchema>;
 

@@ -62,6 +62,56 @@ describe('record the cut dialog', () => {
   });
 });
 
+describe('record the cut dialog, measured kerf', () => {
+  it('takes a kerf of 0.01–2 mm as the API does, and never writes "NaN" into an empty field', async () => {
+    // A browser warns 'The specified value "NaN" cannot be parsed' when a number input is given "NaN".
+    const written: string[] = [];
+    const value = Object.getOwnPropertyDescriptor(HTMLInputElement.prototype, 'value')!;
+    const spy = vi.spyOn(HTMLInputElement.prototype, 'value', 'set').mockImplementation(function (
+      this: HTMLInputElement,
+      v: string,
+    ) {
+      written.push(String(v));
+      value.set!.call(this, v);
+    });
+    try {
+      const onSubmit = vi.fn();
+      const { user } = renderWithProviders(
+        <RecordCutDialog
+          open
+          busy={false}
+          error={null}
+          defaultSheets={1}
+          onSubmit={onSubmit}
+          onClose={noop}
+        />,
+      );
+      const kerf = await screen.findByLabelText('Measured kerf (mm, optional)');
+      expect(kerf).toHaveValue(null);
+      expect(screen.getByLabelText('Machine time (minutes)')).toHaveValue(null);
+      await user.type(screen.getByLabelText('Machine time (minutes)'), '12');
+      await user.type(kerf, '0.0000001');
+      await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+      expect(
+        await screen.findByText('At least 0.01 mm; leave it empty if it was not measured'),
+      ).toBeInTheDocument();
+      expect(onSubmit).not.toHaveBeenCalled();
+      await user.clear(kerf);
+      await user.type(kerf, '0.165');
+      await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+      await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+      expect(onSubmit.mock.calls[0]?.[0]).toEqual({
+        actualMinutes: 12,
+        sheetsUsed: 1,
+        measuredKerfMm: 0.165,
+      });
+      expect(written).not.toContain('NaN');
+    } finally {
+      spy.mockRestore();
+    }
+  });
+});
+
 const acrylic = {
   id: 'm-acrylic',
   name: 'Cast acrylic 3 mm',

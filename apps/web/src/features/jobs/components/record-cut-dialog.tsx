@@ -25,7 +25,8 @@ export function RecordCutDialog(props: {
     formState: { errors },
   } = useForm<RecordCutValues>({
     resolver: zodResolver(recordCutSchema),
-    defaultValues: { actualMinutes: Number.NaN, sheetsUsed: props.defaultSheets, measuredKerfMm: Number.NaN },
+    // The empty fields start undefined: NaN would be written into the number inputs as the text "NaN".
+    defaultValues: { sheetsUsed: props.defaultSheets },
   });
   const n = { valueAsNumber: true } as const;
   return (

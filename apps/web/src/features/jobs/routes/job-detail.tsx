@@ -267,7 +267,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
             take('cut', {
               actualMinutes: v.actualMinutes,
               sheetsUsed: v.sheetsUsed,
-              ...(Number.isNaN(v.measuredKerfMm) ? {} : { measuredKerfMm: v.measuredKerfMm }),
+              ...(v.measuredKerfMm === undefined || Number.isNaN(v.measuredKerfMm)
+                ? {}
+                : { measuredKerfMm: v.measuredKerfMm }),
             })
           }
           onClose={() => setOpen(null)}
