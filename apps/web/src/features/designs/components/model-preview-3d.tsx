@@ -3,7 +3,9 @@ import { Canvas, useFrame, useThree } from '@react-three/fiber';
 import { memo, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
-import { pieceSlab, type SlabArrays } from './piece-slab';
+import Box from '@mui/material/Box';
+import Typography from '@mui/material/Typography';
+import { pieceHasShape, pieceSlab, type SlabArrays } from './piece-slab';
 import { isSoftwareWebGl } from './render-quality';
 import { pieceColour } from '../../layout/components/piece-colours';
 
@@ -59,10 +61,7 @@ function Pieces({
 }: ModelPreview3dProps & { software: boolean }) {
   const invalidate = useThree((s) => s.invalidate);
   const pool = useGeometryPool();
-  const slabs = useMemo(
-    () => report.pieces.map((p) => ({ id: p.id, slab: pieceSlab(p, report.stock.thicknessMm) })),
-    [report],
-  );
+  const slabs = useMemo(() => drawableSlabs(report), [report]);
   const geometryOf = (id: string) => {
     let geometry = pool.get(id);
     if (!geometry) {
@@ -130,6 +129,19 @@ function Pieces({
   );
 }
 
+/**
+ * The slab of every piece that has a shape; a piece with none (a model too small for its stock) is left out,
+ * as is one whose numbers are not finite, so three.js never meets empty or NaN bounds.
+ */
+export function drawableSlabs(report: DesignReport): { id: string; slab: SlabArrays }[] {
+  const thicknessMm = report.stock.thicknessMm;
+  if (!(Number.isFinite(thicknessMm) && thicknessMm > 0)) return [];
+  return report.pieces
+    .filter(pieceHasShape)
+    .map((p) => ({ id: p.id, slab: pieceSlab(p, thicknessMm) }))
+    .filter(({ slab }) => slab.positions.length > 0 && slab.positions.every(Number.isFinite));
+}
+
 /** Orbit with the mouse; the camera frames the model's diameter. */
 function Controls({ diameterMm }: { diameterMm: number }) {
   const camera = useThree((s) => s.camera);
@@ -138,7 +150,7 @@ function Controls({ diameterMm }: { diameterMm: number }) {
   const fitted = useRef(0);
   useEffect(() => {
     if (fitted.current !== diameterMm) {
-      const d = Math.max(diameterMm, 1);
+      const d = Number.isFinite(diameterMm) ? Math.max(diameterMm, 1) : 1;
       camera.position.set(d * 0.9, d * 0.7, d * 1.3);
       camera.near = d / 100;
       camera.far = d * 20;
@@ -165,6 +177,28 @@ function Controls({ diameterMm }: { diameterMm: number }) {
  */
 export const ModelPreview3d = memo(function ModelPreview3d(props: ModelPreview3dProps) {
   const software = useMemo(isSoftwareWebGl, []);
+  // A cheap look at the outlines; the slabs themselves are built once, in Pieces.
+  const drawable = props.report.stock.thicknessMm > 0 && props.report.pieces.some(pieceHasShape);
+  if (!drawable) {
+    return (
+      <Box
+        data-testid="preview-3d-empty"
+        sx={{
+          height: '100%',
+          display: 'grid',
+          placeItems: 'center',
+          bgcolor: '#f4f1ea',
+          borderRadius: 2,
+          p: 3,
+        }}
+      >
+        <Typography color="text.secondary" sx={{ textAlign: 'center' }}>
+          Nothing to show at this size: the slots take up every piece. Make the model larger or the stock
+          thinner.
+        </Typography>
+      </Box>
+    );
+  }
   return (
     <Canvas
       data-testid="preview-3d"

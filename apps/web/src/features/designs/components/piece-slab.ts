@@ -9,6 +9,23 @@ export interface SlabArrays {
 }
 
 /**
+ * Whether a piece has an outline to draw: at least three finite corners enclosing some area. A model too
+ * small for its stock can leave pieces with none (the slots eat the whole piece), and drawing an empty or
+ * non-finite outline gives Infinity and NaN in SVG attributes and three.js bounds.
+ */
+export function pieceHasShape(piece: Pick<ReportPiece, 'outline'>): boolean {
+  const pts = piece.outline;
+  if (pts.length < 3 || !pts.every(([x, y]) => Number.isFinite(x) && Number.isFinite(y))) return false;
+  let twiceArea = 0;
+  for (let i = 0; i < pts.length; i++) {
+    const [x0, y0] = pts[i] as [number, number];
+    const [x1, y1] = pts[(i + 1) % pts.length] as [number, number];
+    twiceArea += x0 * y1 - x1 * y0;
+  }
+  return Math.abs(twiceArea) > 0;
+}
+
+/**
  * A piece as a flat slab of the stock's thickness, placed in its plane: the outline (one closed contour in
  * the piece's frame) triangulated for the two faces (earcut, through three's ShapeUtils) and a quad per
  * outline edge for the sides, written straight into typed arrays in model space. Non-indexed, so each face

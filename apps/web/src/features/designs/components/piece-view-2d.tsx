@@ -1,7 +1,9 @@
 import { type ReportPiece } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import { pieceColour } from '../../layout/components/piece-colours';
 import { countOf } from '../../../lib/plural';
+import { pieceHasShape } from './piece-slab';
 
 interface PieceView2dProps {
   piece: ReportPiece;
@@ -16,6 +18,13 @@ interface PieceView2dProps {
  * its width, and the overall dimensions. y points up as in the piece's frame (the SVG is flipped).
  */
 export function PieceView2d({ piece, colourIndex, flagged, formatLength }: PieceView2dProps) {
+  if (!pieceHasShape(piece)) {
+    return (
+      <Alert severity="warning" data-testid="piece-2d-empty">
+        {`Piece ${piece.id} has no outline left at this size: its slots take up the whole piece. Make the model larger or the stock thinner.`}
+      </Alert>
+    );
+  }
   const xs = piece.outline.map((p) => p[0]);
   const ys = piece.outline.map((p) => p[1]);
   const minX = Math.min(...xs);
@@ -24,8 +33,10 @@ export function PieceView2d({ piece, colourIndex, flagged, formatLength }: Piece
   const maxY = Math.max(...ys);
   const w = maxX - minX;
   const h = maxY - minY;
-  const pad = Math.max(w, h) * 0.14;
-  const font = Math.max(w, h) / 34;
+  // A sliver of a piece is still drawn at a visible scale: the frame never collapses to zero.
+  const span = Math.max(w, h, 1e-3);
+  const pad = span * 0.14;
+  const font = span / 34;
   const path = `M ${piece.outline.map(([x, y]) => `${x} ${-y}`).join(' L ')} Z`;
   return (
     <Box
@@ -41,9 +52,9 @@ export function PieceView2d({ piece, colourIndex, flagged, formatLength }: Piece
         fill={pieceColour(colourIndex)}
         fillOpacity={0.55}
         stroke={flagged ? '#b3261e' : '#2d3b45'}
-        strokeWidth={Math.max(w, h) / 400}
+        strokeWidth={span / 400}
       />
-      {(piece.slots ?? []).map((slot, i) => {
+      {(piece.slots ?? []).filter(slotIsFinite).map((slot, i) => {
         const [ox, oy] = slot.openingMm;
         const [dx, dy] = slot.direction;
         const lx = ox + dx * slot.depthMm * 0.5;
@@ -57,7 +68,7 @@ export function PieceView2d({ piece, colourIndex, flagged, formatLength }: Piece
               y2={-(oy + dy * slot.depthMm)}
               stroke="#b8643a"
               strokeDasharray={`${font / 2} ${font / 3}`}
-              strokeWidth={Math.max(w, h) / 500}
+              strokeWidth={span / 500}
             />
             <text x={lx} y={-ly} fontSize={font} fill="#5a2a10" textAnchor="middle">
               {`${slot.partner} · ${formatLength(slot.widthMm)}`}
@@ -83,4 +94,11 @@ export function PieceView2d({ piece, colourIndex, flagged, formatLength }: Piece
       </text>
     </Box>
   );
+}
+
+type Slot = NonNullable<ReportPiece['slots']>[number];
+
+/** A slot whose numbers are all finite (one that is not is left out rather than drawn with NaN). */
+function slotIsFinite(slot: Slot): boolean {
+  return [...slot.openingMm, ...slot.direction, slot.depthMm].every(Number.isFinite);
 }
