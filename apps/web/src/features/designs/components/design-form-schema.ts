@@ -23,6 +23,13 @@ const num = (label: string) => z.number({ error: `${label}: enter a number` });
 /** The most colours of stock a design may use. */
 export const MAX_COLOURS = 6;
 
+/**
+ * The smallest scale the studio accepts, mm. The library takes any size above 0 (validateSpec: scale.mm
+ * greater than 0, at most MAX_SCALE_MM) and reports a model too small for its stock as errors, but below a
+ * millimetre its outlines (kept to 0.1 µm) collapse to nothing: no piece of that size can be cut or shown.
+ */
+export const MIN_SCALE_MM = 1;
+
 /** The design studio's form: the spec's fields flattened, plus name, colours and the solid's source. */
 export const designFormSchema = z
   .object({
@@ -41,7 +48,7 @@ export const designFormSchema = z
       .max(MAX_PIECE_SIZE, `Size is at most ${MAX_PIECE_SIZE}`),
     scaleBy: z.enum([...SCALE_BY, ...FIT_SCALE_BY]),
     scaleMm: num('Scale')
-      .gt(0, 'Scale must be more than 0 mm')
+      .min(MIN_SCALE_MM, `At least ${MIN_SCALE_MM} mm: a smaller model cannot be cut`)
       .max(MAX_SCALE_MM, `At most ${MAX_SCALE_MM} mm`),
     fitSheets: num('Sheets')
       .int('Sheets: a whole number')
@@ -82,6 +89,22 @@ export const designFormSchema = z
         path: ['fitSheets'],
         message: `At least one sheet per colour (${v.colourCount})`,
       });
+    }
+    // The library needs room inside the margins (validateSpec: twice the margin below the shorter side).
+    if (v.marginMm >= 0 && v.sheetWidthMm > 0 && v.sheetHeightMm > 0) {
+      const room = (side: number) => side - 2 * v.marginMm;
+      const tooNarrow = room(v.sheetWidthMm) <= 0;
+      const tooLow = room(v.sheetHeightMm) <= 0;
+      if (tooNarrow || tooLow) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['marginMm'],
+          message: `Two margins of ${v.marginMm} mm leave no room on the sheet: use a smaller margin or a larger sheet`,
+        });
+        const sideMessage = `Leaves no room inside the ${v.marginMm} mm margins: more than ${2 * v.marginMm} mm`;
+        if (tooNarrow) ctx.addIssue({ code: 'custom', path: ['sheetWidthMm'], message: sideMessage });
+        if (tooLow) ctx.addIssue({ code: 'custom', path: ['sheetHeightMm'], message: sideMessage });
+      }
     }
     if (v.solidSource === 'catalogue' && !v.solidId) {
       ctx.addIssue({ code: 'custom', path: ['solidId'], message: 'Choose a base solid' });

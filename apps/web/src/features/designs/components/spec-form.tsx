@@ -6,7 +6,13 @@ import FormControlLabel from '@mui/material/FormControlLabel';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { memo, type ReactNode } from 'react';
-import { Controller, type UseFormReturn, useFormState, useWatch } from 'react-hook-form';
+import {
+  Controller,
+  type RegisterOptions,
+  type UseFormReturn,
+  useFormState,
+  useWatch,
+} from 'react-hook-form';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
@@ -15,6 +21,19 @@ import { SolidDropZone } from './solid-drop-zone';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 
 const SOLIDS = listSolids();
+
+/**
+ * Fields checked together (the sheet must keep room inside its margins; a fit needs a sheet per colour): a
+ * change to one re-checks the others, so a message goes away with whichever field put it right.
+ */
+const SHEET_RULES: RegisterOptions<DesignFormValues> = {
+  valueAsNumber: true,
+  deps: ['sheetWidthMm', 'sheetHeightMm', 'marginMm'],
+};
+const COLOUR_SHEETS_RULES: RegisterOptions<DesignFormValues> = {
+  valueAsNumber: true,
+  deps: ['fitSheets', 'colourCount'],
+};
 
 const SCALE_LABELS: Record<DesignFormValues['scaleBy'], string> = {
   diameter: 'Overall diameter',
@@ -141,6 +160,7 @@ export const SpecForm = memo(function SpecForm({
             label="Sheets"
             name="fitSheets"
             form={fields}
+            rules={COLOUR_SHEETS_RULES}
             size="small"
             helperText="of the stock sheet size below"
             integer
@@ -157,11 +177,23 @@ export const SpecForm = memo(function SpecForm({
 
       <Section title="Stock sheet">
         <Stack direction="row" spacing={1}>
-          <NumberField label="Sheet width (mm)" name="sheetWidthMm" form={fields} size="small" />
-          <NumberField label="Sheet height (mm)" name="sheetHeightMm" form={fields} size="small" />
+          <NumberField
+            label="Sheet width (mm)"
+            name="sheetWidthMm"
+            form={fields}
+            size="small"
+            rules={SHEET_RULES}
+          />
+          <NumberField
+            label="Sheet height (mm)"
+            name="sheetHeightMm"
+            form={fields}
+            size="small"
+            rules={SHEET_RULES}
+          />
         </Stack>
         <Stack direction="row" spacing={1}>
-          <NumberField label="Margin (mm)" name="marginMm" form={fields} size="small" />
+          <NumberField label="Margin (mm)" name="marginMm" form={fields} size="small" rules={SHEET_RULES} />
           <NumberField label="Gap (mm)" name="gapMm" form={fields} size="small" />
         </Stack>
       </Section>
@@ -209,6 +241,7 @@ export const SpecForm = memo(function SpecForm({
             label="Colours"
             name="colourCount"
             form={fields}
+            rules={COLOUR_SHEETS_RULES}
             size="small"
             sx={{ maxWidth: 110 }}
             integer

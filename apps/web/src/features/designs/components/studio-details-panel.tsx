@@ -20,6 +20,8 @@ interface StudioDetailsPanelProps {
   selectedPiece: string | undefined;
   onSelectPiece: (id: string) => void;
   formatLength: (mm: number) => string;
+  /** The figures are of an earlier model while a newer one is on its way (a fit in progress): dimmed. */
+  busy?: boolean;
 }
 
 /** One piece in 2D, the crossings, the validity report and the assembly order. Memoised like the preview panel. */
@@ -31,6 +33,7 @@ export const StudioDetailsPanel = memo(function StudioDetailsPanel({
   selectedPiece,
   onSelectPiece,
   formatLength: fmt,
+  busy = false,
 }: StudioDetailsPanelProps) {
   const piece = report.pieces.find((p) => p.id === selectedPiece) ?? report.pieces[0];
   // A piece chip in the report or the assembly order opens that piece.
@@ -43,7 +46,7 @@ export const StudioDetailsPanel = memo(function StudioDetailsPanel({
     [report],
   );
   return (
-    <Paper variant="outlined" sx={{ p: 2 }}>
+    <Paper variant="outlined" sx={{ p: 2, opacity: busy ? 0.55 : 1 }} aria-busy={busy || undefined}>
       <DetailTabs
         tab={tab}
         onTab={onTab}

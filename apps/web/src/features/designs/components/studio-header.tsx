@@ -4,6 +4,7 @@ import Button from '@mui/material/Button';
 import Stack from '@mui/material/Stack';
 import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
+import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
 import { memo } from 'react';
 import { type LengthUnit } from '../../../lib/units';
@@ -17,8 +18,8 @@ interface StudioHeaderProps {
   onDuplicate: () => void;
   duplicating: boolean;
   onRequest: () => void;
-  /** Why a cut job cannot be requested now (unsaved changes, errors), or null when it can. */
-  requestBlocked: 'unsaved' | 'invalid' | null;
+  /** Why a cut job cannot be requested now (unsaved changes, errors), in words, or null when it can. */
+  requestBlocked: string | null;
 }
 
 /** The studio's title, unit switch and actions. Memoised: typing in the form leaves it alone. */
@@ -59,15 +60,20 @@ export const StudioHeader = memo(function StudioHeader({
           <Button variant="outlined" onClick={onDuplicate} disabled={duplicating}>
             Duplicate
           </Button>
-          <Button
-            variant="outlined"
-            color="secondary"
-            disabled={requestBlocked !== null}
-            title={requestBlocked === 'unsaved' ? 'Save the changes first' : undefined}
-            onClick={onRequest}
-          >
-            Request a cut job
-          </Button>
+          {/* A disabled button takes no pointer events: the reason's tooltip sits on a wrapper. */}
+          <Tooltip title={requestBlocked ?? ''} describeChild>
+            <Box component="span" sx={{ display: 'inline-flex' }} data-testid="request-job-wrapper">
+              <Button
+                variant="outlined"
+                color="secondary"
+                disabled={requestBlocked !== null}
+                onClick={onRequest}
+                sx={{ flex: 1 }}
+              >
+                Request a cut job
+              </Button>
+            </Box>
+          </Tooltip>
         </>
       ) : null}
     </Stack>

@@ -1,9 +1,11 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
+import LinearProgress from '@mui/material/LinearProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { memo } from 'react';
+import { countOf } from '../../../lib/plural';
 import { type BuiltPreview } from '../hooks/use-built-model';
 import { ColourPlanNotice } from './colour-plan-notice';
 import { MAX_COLOURS } from './design-form-schema';
@@ -18,6 +20,10 @@ interface StudioPreviewPanelProps {
   formatLength: (mm: number) => string;
   /** Sets the form's colour count (offered when the rule needs more colours). */
   onUseColours?: (count: number) => void;
+  /** While "fit to sheets" searches: the sheets asked for. The model shown meanwhile is an earlier fit. */
+  fittingSheets?: number | null;
+  /** The form has errors: the model shown is the last one the form described without errors. */
+  showingLastValid?: boolean;
 }
 
 /**
@@ -31,12 +37,31 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
   onSelectPiece,
   formatLength: fmt,
   onUseColours,
+  fittingSheets = null,
+  showingLastValid = false,
 }: StudioPreviewPanelProps) {
   const report = preview.model?.report ?? null;
+  const fitting = fittingSheets !== null;
+  const fittingText = fitting ? `Fitting the largest size on ${countOf(fittingSheets, 'sheet')}…` : '';
+  // Sizes of an earlier fit are not the size being fitted: they give way to the search's progress.
+  const size = (mm: number) => (fitting ? 'fitting…' : fmt(mm));
   return (
     <Paper variant="outlined" sx={{ p: 2 }}>
+      {showingLastValid && report ? (
+        <Alert severity="warning" sx={{ mb: 1 }} data-testid="preview-last-valid">
+          Correct the marked fields: the model below is the last one without errors.
+        </Alert>
+      ) : null}
+      {fitting ? (
+        <Box sx={{ mb: 1 }} data-testid="preview-fitting" role="status">
+          <Typography variant="body2" color="text.secondary">
+            {report ? `${fittingText} The model below is the previous fit.` : fittingText}
+          </Typography>
+          <LinearProgress aria-label={fittingText} sx={{ mt: 0.5 }} />
+        </Box>
+      ) : null}
       {report ? (
-        <>
+        <Box sx={fitting ? { opacity: 0.55 } : undefined} aria-busy={fitting || undefined}>
           <Stack
             direction="row"
             spacing={3}
@@ -47,8 +72,8 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             <Fact label="Solid" value={report.solid.name} />
             <Fact label="Pieces" value={String(report.pieces.length)} />
             <Fact label="Crossings" value={String(report.crossings.length)} />
-            <Fact label="Diameter" value={fmt(report.diameterMm)} />
-            <Fact label="Plane distance" value={fmt(report.planeDistanceMm)} />
+            <Fact label="Diameter" value={size(report.diameterMm)} />
+            <Fact label="Plane distance" value={size(report.planeDistanceMm)} />
             <Fact label="Built in" value={`${preview.buildMs.toFixed(0)} ms`} />
           </Stack>
           {preview.colourMessage ? (
@@ -68,8 +93,8 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
               onSelectPiece={onSelectPiece}
             />
           </Box>
-        </>
-      ) : (
+        </Box>
+      ) : fitting ? null : (
         <Alert severity={preview.failure ? 'error' : 'info'} data-testid="preview-unavailable">
           {preview.failure ?? idleMessage}
         </Alert>

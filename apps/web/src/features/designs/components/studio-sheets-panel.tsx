@@ -15,6 +15,7 @@ import { useLayoutTask } from '../../layout/hooks/use-layout-task';
 import { useMachineProfiles } from '../../jobs/api/get-machine-profiles';
 import { useMaterials } from '../../jobs/api/get-materials';
 import { type BuiltPreview } from '../hooks/use-built-model';
+import { type StudioFit } from '../hooks/use-studio-preview';
 import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
@@ -32,30 +33,46 @@ function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string): string
 }
 
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
+  spec,
   preview,
+  fit,
+  blocked,
   colourCount,
   colourRule,
   unit,
 }: {
+  /** The studio's spec (a "fit to sheets" spec as it is, not the preview's fitted one). */
+  spec: DesignSpecInput | null;
   preview: BuiltPreview;
+  /** "Fit to sheets": the studio's search, whose answer this panel shows; null for the other scales. */
+  fit: StudioFit | null;
+  /** Why no sheets can be laid out now (the form's first error), or null. */
+  blocked: string | null;
   colourCount: number;
   colourRule: ColourRule;
   unit: LengthUnit;
 }) {
   const [asked, setAsked] = useState(false);
-  const spec = preview.spec;
-  const fit = spec?.scale.by === 'fitSheets';
-  const on = (asked || fit) && spec !== null && preview.model !== null && !preview.failure;
-  // The preview's key names the spec, colours and rule the preview was built from.
-  const result = useLayoutTask(
-    on ? preview.key : null,
+  const fitting = fit !== null;
+  // A fixed size is laid out as the preview built it; a fit is the search for the spec as given.
+  const layoutSpec = fitting ? spec : preview.spec;
+  const on =
+    blocked === null &&
+    layoutSpec !== null &&
+    (fitting || (asked && preview.model !== null && !preview.failure));
+  // The preview's key names the spec, colours and rule the preview was built from. A fit's layout is the
+  // studio's search itself (its answer sized the preview), so this panel runs none of its own then.
+  const own = useLayoutTask(
+    on && !fitting ? preview.key : null,
     'studio',
-    () => [spec as DesignSpecInput, colourCount, colourRule, preview.colourPlan],
+    () => [layoutSpec as DesignSpecInput, colourCount, colourRule, preview.colourPlan],
     150,
   );
+  const result = fit ? { value: fit.result, pending: fit.pending, error: fit.error } : own;
   const fmt = (mm: number) => formatLength(mm, unit);
   const value = result.value;
-  const sheet = spec?.stock.sheet;
+  const sheet = (layoutSpec ?? spec)?.stock.sheet;
+  const fitLabel = fit ? `Fitting the largest size on ${countOf(fit.sheets, 'sheet')}…` : null;
   // Time and cost need a machine: any approved profile version, with its settings for a material.
   const profiles = useMachineProfiles(on);
   const materials = useMaterials(on);
@@ -89,20 +106,33 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
         <Typography variant="h2" sx={{ flex: 1 }}>
           Sheets
         </Typography>
-        {!fit ? (
+        {!fitting ? (
           <Button variant="outlined" onClick={() => setAsked((a) => !a)}>
             {asked ? 'Hide the sheets' : 'Lay out on sheets'}
           </Button>
         ) : null}
       </Stack>
       {!on ? (
-        <Typography color="text.secondary">
-          {sheet
-            ? `Lay the pieces out on ${fmt(sheet.widthMm)} × ${fmt(sheet.heightMm)} sheets to see how many this size needs.`
-            : 'Give a stock sheet size to lay the pieces out.'}
+        <Typography color="text.secondary" data-testid="sheets-idle">
+          {blocked !== null
+            ? `Correct the marked fields to lay the pieces out: ${blocked}.`
+            : asked && preview.failure
+              ? 'The pieces can be laid out once the model builds.'
+              : sheet
+                ? `Lay the pieces out on ${fmt(sheet.widthMm)} × ${fmt(sheet.heightMm)} sheets to see how many this size needs.`
+                : 'Give a stock sheet size to lay the pieces out.'}
         </Typography>
       ) : null}
-      {on && result.pending ? <LinearProgress aria-label="Laying out the sheets" sx={{ mb: 1 }} /> : null}
+      {on && result.pending ? (
+        <>
+          {fitLabel ? (
+            <Typography color="text.secondary" sx={{ mb: 1 }} data-testid="sheets-fitting">
+              {fitLabel}
+            </Typography>
+          ) : null}
+          <LinearProgress aria-label={fitLabel ?? 'Laying out the sheets'} sx={{ mb: 1 }} />
+        </>
+      ) : null}
       {on && result.error ? (
         <Alert severity="error">
           {result.error instanceof Error ? result.error.message : String(result.error)}

@@ -1,10 +1,15 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { type ColourRuleName, type DesignView, type UploadedSolid } from '@kerfwright/contracts';
+import {
+  type ColourRuleName,
+  type DesignReport,
+  type DesignView,
+  type UploadedSolid,
+} from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import CircularProgress from '@mui/material/CircularProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
-import { memo, useCallback, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useNavigate, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
@@ -29,7 +34,9 @@ import { StudioHeader } from '../components/studio-header';
 import { StudioDetailsPanel } from '../components/studio-details-panel';
 import { StudioPreviewPanel } from '../components/studio-preview-panel';
 import { StudioSheetsPanel } from '../components/studio-sheets-panel';
-import { useBuiltModel } from '../hooks/use-built-model';
+import { useStudioPreview } from '../hooks/use-studio-preview';
+import { useUnsavedChangesGuard } from '../hooks/use-unsaved-changes-guard';
+import { countOf } from '../../../lib/plural';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 
 const RequestJobDialogMemo = memo(RequestJobDialog);
@@ -69,13 +76,21 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     mode: 'onChange',
     defaultValues: initial.values,
   });
+  // A design saved under older rules may not pass today's: mark its fields at once, not on the first edit.
+  useEffect(() => {
+    if (!designFormSchema.safeParse(initial.values).success) void form.trigger();
+  }, [form, initial.values]);
   const [upload, setUpload] = useState<UploadedSolid | null>(initial.upload);
+  // The upload as last saved (or loaded): a change of it is an unsaved edit.
+  const [savedUpload, setSavedUpload] = useState<UploadedSolid | null>(initial.upload);
   const [unit, setUnit] = useState<LengthUnit>('mm');
   const [tab, setTab] = useState(0);
   const [selected, setSelected] = useState<string | undefined>(undefined);
   const [requestOpen, setRequestOpen] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
   const saveDesign = useSaveDesign();
+  const dirtyNow = form.formState.isDirty || upload !== savedUpload;
+  const { leaving, dialog: leaveDialog } = useUnsavedChangesGuard(dirtyNow);
   const duplicate = useDuplicateDesign();
   const requestJob = useRequestCutJob();
 
@@ -87,9 +102,22 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [JSON.stringify(parsed.success ? parsed.data : null), upload],
   );
-  const colourCount = parsed.success ? parsed.data.colourCount : 1;
-  const colourRule: ColourRuleName = parsed.success ? parsed.data.colourRule : 'neighbour-distinct';
-  const preview = useBuiltModel(spec, colourCount, colourRule);
+  // While the form has errors the last spec without errors stays on screen (the model does not vanish).
+  const shown = useLastValid(
+    useMemo(
+      () =>
+        parsed.success
+          ? { spec, colourCount: parsed.data.colourCount, colourRule: parsed.data.colourRule }
+          : null,
+      // spec changes with the parsed values, which hold the colours too.
+      // eslint-disable-next-line react-hooks/exhaustive-deps
+      [parsed.success, spec],
+    ),
+  );
+  const colourCount = shown?.colourCount ?? 1;
+  const colourRule: ColourRuleName = shown?.colourRule ?? 'neighbour-distinct';
+  const { preview, fit, fitting } = useStudioPreview(shown?.spec ?? null, colourCount, colourRule);
+  const formError = parsed.success ? null : (parsed.error.issues[0]?.message ?? 'a field is not valid');
   const report = preview.model?.report ?? null;
   // Stable between keystrokes, so the memoised panels skip the keystroke's render.
   const fmt = useCallback((mm: number) => formatLength(mm, unit), [unit]);
@@ -117,8 +145,14 @@ function DesignStudio({ design }: { design: DesignView | null }) {
       )
       .catch(() => null);
     if (!saved) return;
+    // What was saved is the new starting point: nothing is unsaved now (edits made while saving still are).
+    form.reset(v, { keepValues: true });
+    setSavedUpload(upload);
     setNotice(`Saved “${saved.name}”.`);
-    if (!design) void navigate(`/designs/${saved.id}`, { replace: true });
+    if (!design) {
+      leaving.current = true;
+      void navigate(`/designs/${saved.id}`, { replace: true });
+    }
   });
 
   const onDuplicate = async () => {
@@ -136,7 +170,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     if (job) void navigate(`/jobs/${job.id}`);
   };
 
-  const dirty = form.formState.isDirty || upload !== initial.upload;
+  const dirty = dirtyNow;
   const onSave = useStableCallback(() => void save());
   const onDuplicateClick = useStableCallback(() => void onDuplicate());
   const onRequestClick = useStableCallback(() => {
@@ -158,7 +192,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         onDuplicate={onDuplicateClick}
         duplicating={duplicate.isPending}
         onRequest={onRequestClick}
-        requestBlocked={dirty ? 'unsaved' : !report || report.errors.length > 0 ? 'invalid' : null}
+        requestBlocked={requestBlockedReason({ dirty, formError, fitting, report, failure: preview.failure })}
       />
       {saveDesign.error ? <FormErrorAlert error={saveDesign.error} /> : null}
       {duplicate.error ? <FormErrorAlert error={duplicate.error} /> : null}
@@ -171,6 +205,8 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         <Stack spacing={2} sx={{ minWidth: 0 }}>
           <StudioPreviewPanel
             preview={preview}
+            fittingSheets={fitting && fit ? fit.sheets : null}
+            showingLastValid={formError !== null}
             idleMessage={
               values.solidSource === 'upload' && !upload
                 ? 'Drop an OBJ or OFF file of a convex solid to see the model.'
@@ -190,10 +226,14 @@ function DesignStudio({ design }: { design: DesignView | null }) {
               selectedPiece={piece?.id}
               onSelectPiece={setSelected}
               formatLength={fmt}
+              busy={fitting}
             />
           ) : null}
           <StudioSheetsPanel
+            spec={shown?.spec ?? null}
             preview={preview}
+            fit={fit}
+            blocked={formError}
             colourCount={colourCount}
             colourRule={colourRule}
             unit={unit}
@@ -209,8 +249,39 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         onClose={onRequestClose}
       />
       <NoticeSnackbar notice={notice} autoHideMs={4000} onClose={() => setNotice(null)} />
+      {leaveDialog}
     </Box>
   );
+}
+
+/** Why a cut job cannot be requested now, in the words the button's tooltip shows; null when it can. */
+function requestBlockedReason({
+  dirty,
+  formError,
+  fitting,
+  report,
+  failure,
+}: {
+  dirty: boolean;
+  formError: string | null;
+  fitting: boolean;
+  report: DesignReport | null;
+  failure: string | null;
+}): string | null {
+  if (formError !== null) return 'Correct the marked fields first';
+  if (dirty) return 'Save the changes first';
+  if (fitting) return 'Wait until the size is fitted to the sheets';
+  if (!report) return failure ? 'The design does not build: see the preview' : 'The preview is not ready yet';
+  if (report.errors.length > 0)
+    return `The design has ${countOf(report.errors.length, 'error')}: see the Report tab`;
+  return null;
+}
+
+/** The last value that was not null (null until there has been one). */
+function useLastValid<T>(value: T | null): T | null {
+  const ref = useRef<T | null>(null);
+  if (value !== null) ref.current = value;
+  return ref.current;
 }
 
 /** The same object while its content is equal (compared as JSON), so memoised children can skip a render. */

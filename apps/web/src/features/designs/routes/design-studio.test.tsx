@@ -1,0 +1,248 @@
+import { type DesignReport, type DesignSpecInput, type DesignView } from '@kerfwright/contracts';
+import { buildModel } from '@kerfwright/geometry';
+import { fireEvent, screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { json, type RecordedCall, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { formatLength } from '../../../lib/units';
+import { renderApp } from '../../../testing/render-app';
+import { DEFAULT_DESIGN_VALUES, toSavedSpec } from '../components/design-form-schema';
+
+// jsdom has no WebGL: a stand-in for the 3D view shows what it was asked to draw.
+vi.mock('../components/model-preview-3d', () => ({
+  ModelPreview3d: ({ report }: { report: DesignReport }) => (
+    <div data-testid="preview-3d" data-diameter-mm={report.diameterMm} />
+  ),
+}));
+
+const DESIGN_ID = '9a7c1f00-0000-4000-8000-000000000001';
+
+function designFixture(overrides: Partial<DesignView> = {}): DesignView {
+  const spec = toSavedSpec(DEFAULT_DESIGN_VALUES, null) as DesignSpecInput;
+  return {
+    id: DESIGN_ID,
+    ownerId: userFixture('hobbyist').id,
+    ownerName: 'Hobbyist Person',
+    name: 'Octahedron hexagons',
+    description: '',
+    spec: spec as DesignView['spec'],
+    solidFileName: null,
+    preview: {
+      valid: true,
+      pieceCount: 8,
+      crossingCount: 12,
+      diameterMm: 240,
+      planeDistanceMm: 73.17,
+      errors: [],
+      warnings: [],
+    },
+    version: 4,
+    createdAt: '2026-01-15T09:30:00.000Z',
+    updatedAt: '2026-01-15T09:30:00.000Z',
+    ...overrides,
+  };
+}
+
+function studioApi(design: DesignView = designFixture()) {
+  let current = design;
+  return stubFetch({
+    'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+    'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+    'GET /api/materials': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+    'GET /api/designs': () => json(200, { items: [], total: 0, page: 1, pageSize: 25 }),
+    [`GET /api/designs/${DESIGN_ID}`]: () => json(200, current),
+    [`PATCH /api/designs/${DESIGN_ID}`]: (call: RecordedCall) => {
+      const body = call.body as { name: string; version: number };
+      current = { ...current, name: body.name, version: body.version + 1 };
+      return json(200, current);
+    },
+  });
+}
+
+/** The value under a fact's label in the model facts ("Diameter" → "290.6 mm"). */
+function fact(label: string): string {
+  const facts = screen.getByTestId('model-facts');
+  const caption = within(facts).getByText(label);
+  return caption.nextElementSibling?.textContent ?? '';
+}
+
+async function field(label: string, value: string) {
+  const input = await screen.findByLabelText(label);
+  fireEvent.change(input, { target: { value } });
+}
+
+describe('design studio', () => {
+  it('shows the fitted size everywhere once "fit to sheets" has searched, and says so while it searches', async () => {
+    studioApi();
+    const { user } = renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    await user.selectOptions(screen.getByLabelText('Scale by'), 'fitSheets');
+
+    // While the search runs no size is claimed: the studio says it is fitting.
+    expect(await screen.findByTestId('preview-fitting')).toHaveTextContent(
+      'Fitting the largest size on 2 sheets…',
+    );
+
+    const summary = await screen.findByTestId('sheets-summary', undefined, { timeout: 20_000 });
+    await waitFor(() => expect(screen.queryByTestId('preview-fitting')).not.toBeInTheDocument(), {
+      timeout: 20_000,
+    });
+    const found = /Largest size on 2 sheets: diameter ([\d.]+) mm/.exec(summary.textContent ?? '');
+    expect(found).not.toBeNull();
+    const foundMm = Number(found?.[1]);
+
+    // The search's upper bound (what buildModel gives a fitSheets spec) is larger than what fits:
+    // otherwise this test would not tell the two apart.
+    const fitSpec = {
+      ...(toSavedSpec(DEFAULT_DESIGN_VALUES, null) as DesignSpecInput),
+      scale: { by: 'fitSheets', sheets: 2 },
+    } satisfies DesignSpecInput;
+    const upperMm = buildModel(fitSpec).report.diameterMm;
+    expect(upperMm - foundMm).toBeGreaterThan(5);
+
+    // The facts, the 3D view, the piece in 2D and the crossing table all show the fitted model.
+    expect(fact('Diameter')).toBe(formatLength(foundMm, 'mm'));
+    const drawnMm = Number(screen.getByTestId('preview-3d').getAttribute('data-diameter-mm'));
+    expect(drawnMm).toBeCloseTo(foundMm, 0);
+    const fitted = buildModel({ ...fitSpec, scale: { by: 'diameter', mm: drawnMm } }).report;
+    expect(fact('Plane distance')).toBe(formatLength(fitted.planeDistanceMm, 'mm'));
+    const piece = fitted.pieces[0];
+    const firstCrossing = fitted.crossings.find((c) => c.a === piece?.id || c.b === piece?.id);
+    const table = screen.getByRole('table', { name: 'Crossings' });
+    expect(within(table).getAllByRole('row')[1]).toHaveTextContent(
+      formatLength(firstCrossing?.lengthMm ?? NaN, 'mm'),
+    );
+    const xs = piece?.outline.map((p) => p[0]) ?? [];
+    const widthMm = Math.max(...xs) - Math.min(...xs);
+    expect(screen.getByTestId('piece-2d')).toHaveAccessibleName(
+      new RegExp(`^Piece ${piece?.id}, ${formatLength(widthMm, 'mm')} by`),
+    );
+  });
+
+  it('enables "Request a cut job" right after the changes are saved', async () => {
+    const { calls } = studioApi();
+    const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await waitFor(() => expect(request).toBeEnabled());
+
+    await field('Name', 'Octahedron hexagons, larger');
+    await waitFor(() => expect(request).toBeDisabled());
+    await user.hover(screen.getByTestId('request-job-wrapper'));
+    expect(await screen.findByRole('tooltip')).toHaveTextContent('Save the changes first');
+
+    await user.click(screen.getByRole('button', { name: 'Save' }));
+    expect(await screen.findByText(/version 5/)).toBeInTheDocument();
+    expect(calls.find((c) => c.method === 'PATCH')?.body).toMatchObject({ version: 4 });
+    await waitFor(() => expect(request).toBeEnabled());
+
+    // A later edit is unsaved again.
+    await field('Description', 'for the window');
+    await waitFor(() => expect(request).toBeDisabled());
+  });
+
+  it('says why a design with errors cannot be requested', async () => {
+    studioApi(designFixture({ spec: { ...designFixture().spec, scale: { by: 'diameter', mm: 5 } } }));
+    const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await screen.findByTestId('model-facts');
+    await waitFor(() => expect(request).toBeDisabled());
+    await user.hover(screen.getByTestId('request-job-wrapper'));
+    expect(await screen.findByRole('tooltip')).toHaveTextContent(
+      /The design has \d+ errors: see the Report tab/,
+    );
+  });
+
+  it('marks a sheet too small for its margins in plain words and keeps the last model on screen', async () => {
+    studioApi();
+    renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    const before = fact('Diameter');
+
+    await field('Sheet width (mm)', '1');
+    expect(
+      await screen.findByText('Leaves no room inside the 5 mm margins: more than 10 mm'),
+    ).toBeInTheDocument();
+    expect(screen.getByLabelText('Sheet width (mm)')).toHaveAttribute('aria-invalid', 'true');
+    expect(screen.getByLabelText('Margin (mm)')).toHaveAttribute('aria-invalid', 'true');
+    expect(screen.queryByText(/invalid spec|stock\.marginMm/)).not.toBeInTheDocument();
+    expect(screen.getByTestId('preview-last-valid')).toBeInTheDocument();
+    expect(fact('Diameter')).toBe(before);
+    expect(screen.getByTestId('preview-3d')).toBeInTheDocument();
+
+    // A smaller margin puts it right: both messages go.
+    await field('Margin (mm)', '0');
+    await waitFor(() =>
+      expect(screen.getByLabelText('Sheet width (mm)')).toHaveAttribute('aria-invalid', 'false'),
+    );
+    expect(screen.queryByTestId('preview-last-valid')).not.toBeInTheDocument();
+  });
+
+  it('refuses a scale too small to cut', async () => {
+    studioApi();
+    renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    await field('Scale (mm)', '0.001');
+    expect(await screen.findByText('At least 1 mm: a smaller model cannot be cut')).toBeInTheDocument();
+    expect(fact('Diameter')).toBe('240.0 mm');
+  });
+
+  it('says what is wrong instead of asking for a sheet size when the fit has too few sheets', async () => {
+    studioApi();
+    const { user } = renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    await user.selectOptions(screen.getByLabelText('Scale by'), 'fitSheets');
+    await field('Sheets', '1');
+    const idle = await screen.findByTestId('sheets-idle');
+    expect(idle).toHaveTextContent('At least one sheet per colour (2)');
+    expect(idle).not.toHaveTextContent('Give a stock sheet size');
+  });
+
+  it('asks before unsaved edits are left behind, and not once they are saved', async () => {
+    studioApi();
+    // The list first, so that Back has somewhere to go.
+    const { user, router } = renderApp('/designs', { token: 't' });
+    await screen.findByText(/No designs yet/);
+    await router.navigate(`/designs/${DESIGN_ID}`);
+    await screen.findByRole('button', { name: 'Request a cut job' });
+    const nav = screen.getByRole('navigation');
+    const reload = () => {
+      const event = new Event('beforeunload', { cancelable: true });
+      window.dispatchEvent(event);
+      return event.defaultPrevented;
+    };
+    expect(reload()).toBe(false);
+
+    await field('Name', 'Octahedron hexagons, teal');
+    await waitFor(() => expect(reload()).toBe(true));
+    await user.click(within(nav).getByRole('link', { name: 'Designs' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Leave without saving?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Stay in the studio' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(router.state.location.pathname).toBe(`/designs/${DESIGN_ID}`);
+    expect(screen.getByLabelText('Name')).toHaveValue('Octahedron hexagons, teal');
+
+    // Back, too, is held.
+    await router.navigate(-1);
+    expect(await screen.findByRole('dialog', { name: 'Leave without saving?' })).toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Stay in the studio' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+
+    await user.click(screen.getByRole('button', { name: 'Save' }));
+    expect(await screen.findByText(/version 5/)).toBeInTheDocument();
+    await waitFor(() => expect(reload()).toBe(false));
+    await user.click(within(nav).getByRole('link', { name: 'Designs' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe('/designs'));
+    expect(screen.queryByRole('dialog', { name: 'Leave without saving?' })).not.toBeInTheDocument();
+  });
+
+  it('leaves at once when the member chooses to drop the edits', async () => {
+    studioApi();
+    const { user, router } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await screen.findByRole('button', { name: 'Request a cut job' });
+    await field('Description', 'draft');
+    await user.click(within(screen.getByRole('navigation')).getByRole('link', { name: 'Designs' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Leave without saving?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Leave without saving' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe('/designs'));
+  });
+});
