@@ -66,7 +66,10 @@ describe('job detail', () => {
         .getAllByRole('button')
         .map((b) => b.textContent),
     ).toEqual(['Prepare: material, machine, layout', 'Return with a reason']);
-    expect(screen.getByRole('table', { name: 'History' })).toHaveTextContent('draft → requested');
+    const history = screen.getByRole('table', { name: 'History' });
+    expect(history).toHaveTextContent('draft → requested');
+    // At phone width (375 px) the table scrolls inside its own box instead of widening the page.
+    expect(getComputedStyle(history.parentElement!).overflowX).toBe('auto');
 
     await user.click(within(actions).getByRole('button', { name: 'Return with a reason' }));
     await user.type(await screen.findByLabelText('Reason'), 'Please pick a thinner stock');

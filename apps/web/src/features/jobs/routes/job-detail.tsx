@@ -12,6 +12,7 @@ import Stack from '@mui/material/Stack';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import ToggleButton from '@mui/material/ToggleButton';
@@ -217,26 +218,29 @@ function JobDetail({ job }: { job: JobDetailView }) {
         <Typography variant="h2" sx={{ mb: 1 }}>
           History
         </Typography>
-        <Table size="small" aria-label="History">
-          <TableHead>
-            <TableRow>
-              <TableCell>When</TableCell>
-              <TableCell>Step</TableCell>
-              <TableCell>By</TableCell>
-              <TableCell>Reason</TableCell>
-            </TableRow>
-          </TableHead>
-          <TableBody>
-            {job.transitions.map((t, i) => (
-              <TableRow key={i}>
-                <TableCell>{new Date(t.at).toLocaleString()}</TableCell>
-                <TableCell>{`${t.from ?? 'new'} → ${t.to}`}</TableCell>
-                <TableCell>{t.actorName ?? '—'}</TableCell>
-                <TableCell>{t.reason ?? ''}</TableCell>
+        {/* A phone-width page keeps its width: the table scrolls inside its own box. */}
+        <TableContainer sx={{ overflowX: 'auto' }}>
+          <Table size="small" aria-label="History">
+            <TableHead>
+              <TableRow>
+                <TableCell>When</TableCell>
+                <TableCell>Step</TableCell>
+                <TableCell>By</TableCell>
+                <TableCell>Reason</TableCell>
               </TableRow>
-            ))}
-          </TableBody>
-        </Table>
+            </TableHead>
+            <TableBody>
+              {job.transitions.map((t, i) => (
+                <TableRow key={i}>
+                  <TableCell>{new Date(t.at).toLocaleString()}</TableCell>
+                  <TableCell>{`${t.from ?? 'new'} → ${t.to}`}</TableCell>
+                  <TableCell>{t.actorName ?? '—'}</TableCell>
+                  <TableCell sx={{ minWidth: 160 }}>{t.reason ?? ''}</TableCell>
+                </TableRow>
+              ))}
+            </TableBody>
+          </Table>
+        </TableContainer>
       </Paper>
 
       {open === 'prepare' ? (

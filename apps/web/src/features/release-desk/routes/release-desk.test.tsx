@@ -122,6 +122,8 @@ describe('release desk', () => {
       await within(table).findByRole('progressbar', { name: 'Preparing the cut pack, 65 %' }),
     ).toBeInTheDocument();
     expect(within(table).getByText('Ready, 2 files')).toBeInTheDocument();
+    // At phone width (375 px) the seven columns scroll inside the card instead of running out of it.
+    expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
   });
 
   it('offers no download and no cut record before the safety notices are acknowledged', async () => {

@@ -8,6 +8,7 @@ import Stack from '@mui/material/Stack';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
@@ -58,7 +59,8 @@ export function ReleaseDeskRoute() {
         <Alert severity="info">No job is waiting for the machines.</Alert>
       ) : null}
       {desk.rows.length > 0 ? (
-        <Paper variant="outlined" sx={{ mb: 2 }}>
+        // A phone-width page keeps its width: the table scrolls inside its card.
+        <TableContainer component={Paper} variant="outlined" sx={{ mb: 2, overflowX: 'auto' }}>
           <Table size="small" aria-label="Jobs at the release desk">
             <TableHead>
               <TableRow>
@@ -95,7 +97,7 @@ export function ReleaseDeskRoute() {
               ))}
             </TableBody>
           </Table>
-        </Paper>
+        </TableContainer>
       ) : null}
       {selected ? <DeskJob key={selected.id} job={selected} /> : null}
     </Box>
