@@ -37,6 +37,34 @@ function niceTicks(min: number, max: number, count: number): number[] {
   return ticks;
 }
 
+/** Decimals that tell every tick of a step apart (0.005 → 3), at least 2 as kerfs are given. */
+export function tickDecimals(ticks: readonly number[]): number {
+  const step = ticks.length > 1 ? Math.abs(ticks[1]! - ticks[0]!) : 0;
+  if (!(step > 0)) return 2;
+  return Math.min(6, Math.max(2, Math.ceil(-Math.log10(step) - 1e-9)));
+}
+
+const LABEL_GAP = 15;
+
+/**
+ * The y of each reference line's label: at its line, but pushed apart so that no two are closer than one line
+ * of text (two versions with close values would print over each other), and kept inside the plot.
+ */
+export function spreadLabels(ys: readonly number[], top: number, bottom: number, gap = LABEL_GAP): number[] {
+  const order = ys.map((y, i) => ({ y, i })).sort((a, b) => a.y - b.y);
+  const placed = order.map((o) => o.y);
+  for (let k = 1; k < placed.length; k++) placed[k] = Math.max(placed[k]!, placed[k - 1]! + gap);
+  // Too low at the bottom: shift the run up, never above the top.
+  const overflow = (placed[placed.length - 1] ?? bottom) - bottom;
+  if (overflow > 0) for (let k = 0; k < placed.length; k++) placed[k] = placed[k]! - overflow;
+  for (let k = 0; k < placed.length; k++) {
+    placed[k] = Math.max(placed[k]!, k === 0 ? top : placed[k - 1]! + gap);
+  }
+  const out = new Array<number>(ys.length);
+  order.forEach((o, k) => (out[o.i] = placed[k]!));
+  return out;
+}
+
 /**
  * Measured kerfs of one machine and material over time (dots, oldest left) against the values the profile
  * holds (horizontal lines). Plain SVG: scales grow to include every point and line, with a little headroom.
@@ -67,6 +95,12 @@ export function KerfHistoryChart({
   const x = (t: number) => pad.left + (tMax === tMin ? innerW / 2 : ((t - tMin) / (tMax - tMin)) * innerW);
   const y = (v: number) => pad.top + innerH - ((v - yMin) / (yMax - yMin || 1)) * innerH;
   const xTicks = records.length > 0 ? (tMax === tMin ? [tMin] : [tMin, (tMin + tMax) / 2, tMax]) : [];
+  const decimals = tickDecimals(ticks);
+  const labelYs = spreadLabels(
+    references.map((ref) => y(ref.valueMm)),
+    pad.top + 4,
+    height - 4,
+  );
   const mean = records.length > 0 ? records.reduce((s, r) => s + r.kerfMm, 0) / records.length : null;
 
   return (
@@ -82,8 +116,8 @@ export function KerfHistoryChart({
         {ticks.map((t) => (
           <g key={t}>
             <line x1={pad.left} x2={pad.left + innerW} y1={y(t)} y2={y(t)} stroke="#e0e0e0" />
-            <text x={pad.left - 8} y={y(t) + 4} textAnchor="end" fill="#555">
-              {t.toFixed(2)}
+            <text x={pad.left - 8} y={y(t) + 4} textAnchor="end" fill="#555" data-testid="kerf-tick">
+              {t.toFixed(decimals)}
             </text>
           </g>
         ))}
@@ -103,7 +137,7 @@ export function KerfHistoryChart({
             {(tMax - tMin < TWO_DAYS_MS ? timeFormat : dateFormat).format(new Date(t))}
           </text>
         ))}
-        {references.map((ref) => (
+        {references.map((ref, i) => (
           <g key={ref.label} data-testid="kerf-reference">
             <line
               x1={pad.left}
@@ -114,7 +148,12 @@ export function KerfHistoryChart({
               strokeWidth={2}
               strokeDasharray={ref.dashed ? '6 4' : undefined}
             />
-            <text x={pad.left + innerW + 6} y={y(ref.valueMm) + 4} fill={ref.colour}>
+            <text
+              x={pad.left + innerW + 6}
+              y={labelYs[i]! + 4}
+              fill={ref.colour}
+              data-testid="kerf-reference-label"
+            >
               {ref.label}: {ref.valueMm} mm
             </text>
           </g>

@@ -5,6 +5,7 @@ import Button from '@mui/material/Button';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import TextField from '@mui/material/TextField';
@@ -110,45 +111,47 @@ export function KerfHistoryPanel({
       ) : null}
       <KerfHistoryChart records={mine} references={references} quantity={quantity} />
       {mine.length > 0 ? (
-        <Table size="small" aria-label={`Measured ${quantity}s`} sx={{ mt: 2 }}>
-          <TableHead>
-            <TableRow>
-              <TableCell>Measured</TableCell>
-              <TableCell>Value</TableCell>
-              <TableCell>Notes</TableCell>
-              <TableCell align="right">Into a version</TableCell>
-            </TableRow>
-          </TableHead>
-          <TableBody>
-            {[...mine].reverse().map((r) => (
-              <TableRow key={r.id} data-testid="kerf-record">
-                <TableCell sx={{ whiteSpace: 'nowrap' }}>
-                  {dateFormat.format(new Date(r.createdAt))}
-                </TableCell>
-                <TableCell>{r.kerfMm} mm</TableCell>
-                <TableCell>{r.notes || '—'}</TableCell>
-                <TableCell align="right">
-                  {r.adoptedVersionId ? (
-                    `Adopted into version ${versionNumber(r.adoptedVersionId) ?? '?'}`
-                  ) : (
-                    <Button
-                      size="small"
-                      disabled={pending || adopt.isPending}
-                      title={pending ? 'Wait for the decision on the submitted version' : undefined}
-                      onClick={() =>
-                        adopt.mutate(r.id, {
-                          onSuccess: (v) => onAdopted(`${r.kerfMm} mm is in draft version ${v.number}.`),
-                        })
-                      }
-                    >
-                      Adopt {r.kerfMm} mm
-                    </Button>
-                  )}
-                </TableCell>
+        <TableContainer sx={{ mt: 2, overflowX: 'auto' }}>
+          <Table size="small" aria-label={`Measured ${quantity}s`}>
+            <TableHead>
+              <TableRow>
+                <TableCell>Measured</TableCell>
+                <TableCell>Value</TableCell>
+                <TableCell>Notes</TableCell>
+                <TableCell align="right">Into a version</TableCell>
               </TableRow>
-            ))}
-          </TableBody>
-        </Table>
+            </TableHead>
+            <TableBody>
+              {[...mine].reverse().map((r) => (
+                <TableRow key={r.id} data-testid="kerf-record">
+                  <TableCell sx={{ whiteSpace: 'nowrap' }}>
+                    {dateFormat.format(new Date(r.createdAt))}
+                  </TableCell>
+                  <TableCell>{r.kerfMm} mm</TableCell>
+                  <TableCell>{r.notes || '—'}</TableCell>
+                  <TableCell align="right">
+                    {r.adoptedVersionId ? (
+                      `Adopted into version ${versionNumber(r.adoptedVersionId) ?? '?'}`
+                    ) : (
+                      <Button
+                        size="small"
+                        disabled={pending || adopt.isPending}
+                        title={pending ? 'Wait for the decision on the submitted version' : undefined}
+                        onClick={() =>
+                          adopt.mutate(r.id, {
+                            onSuccess: (v) => onAdopted(`${r.kerfMm} mm is in draft version ${v.number}.`),
+                          })
+                        }
+                      >
+                        Adopt {r.kerfMm} mm
+                      </Button>
+                    )}
+                  </TableCell>
+                </TableRow>
+              ))}
+            </TableBody>
+          </Table>
+        </TableContainer>
       ) : null}
       <Typography variant="body2" color="text.secondary" sx={{ mt: 1 }}>
         Adopting puts the value into the open draft (or a new draft from the newest version); a supervisor

@@ -1,0 +1,101 @@
+import {
+  type KerfRecordView,
+  type MachineProfileDetailView,
+  type MachineProfileVersionView,
+} from '@kerfwright/contracts';
+import { render, screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { renderWithProviders } from '../../../testing/render-app';
+import { KerfHistoryChart, spreadLabels, tickDecimals } from './kerf-history-chart';
+import { KerfHistoryPanel } from './kerf-history-panel';
+
+const record = (id: string, kerfMm: number, day: number): KerfRecordView => ({
+  id,
+  profileId: 'p-1',
+  materialId: 'm-acrylic',
+  materialName: 'Cast acrylic 3 mm',
+  kerfMm,
+  jobId: null,
+  notes: '',
+  recordedBy: 'Amara Osei',
+  adoptedVersionId: null,
+  createdAt: `2026-01-${String(day).padStart(2, '0')}T10:00:00.000Z`,
+});
+
+// Kerfs a few thousandths apart, as a CO2 laser gives in 3 mm acrylic (about 0.08 mm, common practice).
+const records = [record('k-1', 0.078, 1), record('k-2', 0.165, 3), record('k-3', 0.084, 5)];
+
+describe('kerf history chart', () => {
+  it('labels the value axis with as many decimals as its steps need, each label once', () => {
+    render(
+      <KerfHistoryChart
+        records={[record('k-1', 0.078, 1), record('k-2', 0.081, 3), record('k-3', 0.084, 5)]}
+        references={[]}
+        quantity="kerf"
+      />,
+    );
+    const labels = screen.getAllByTestId('kerf-tick').map((t) => t.textContent);
+    expect(labels.length).toBeGreaterThan(2);
+    expect(new Set(labels).size).toBe(labels.length);
+    expect(labels).toContain('0.080');
+  });
+
+  it('keeps the labels of close reference lines apart', () => {
+    render(
+      <KerfHistoryChart
+        records={records}
+        references={[
+          { label: 'Approved v1', valueMm: 0.08, colour: '#2e7d32' },
+          { label: 'Draft v2', valueMm: 0.081, colour: '#ed6c02', dashed: true },
+        ]}
+        quantity="kerf"
+      />,
+    );
+    const [approved, draft] = screen.getAllByTestId('kerf-reference-label');
+    expect(approved).toHaveTextContent('Approved v1: 0.08 mm');
+    expect(draft).toHaveTextContent('Draft v2: 0.081 mm');
+    // One line of 12 px text needs at least 12 px.
+    const gap = Math.abs(Number(approved!.getAttribute('y')) - Number(draft!.getAttribute('y')));
+    expect(gap).toBeGreaterThanOrEqual(12);
+  });
+
+  it('moves labels only as far as needed, inside the plot', () => {
+    expect(spreadLabels([100, 200], 0, 300)).toEqual([100, 200]);
+    expect(spreadLabels([100, 101], 0, 300)).toEqual([100, 115]);
+    expect(spreadLabels([299, 298], 0, 300)).toEqual([300, 285]);
+    expect(tickDecimals([0.07, 0.075, 0.08])).toBe(3);
+    expect(tickDecimals([0, 0.5, 1])).toBe(2);
+  });
+});
+
+const version = {
+  id: 'v-1',
+  profileId: 'p-1',
+  number: 1,
+  state: 'approved',
+  settings: [{ materialId: 'm-acrylic', materialName: 'Cast acrylic 3 mm', kerfMm: 0.08 }],
+} as unknown as MachineProfileVersionView;
+
+const profile = {
+  id: 'p-1',
+  name: 'CO2 laser, 60 W',
+  kind: 'co2-laser',
+  currentApproved: version,
+  latest: version,
+  versions: [version],
+  createdAt: '2026-01-01T00:00:00.000Z',
+} as unknown as MachineProfileDetailView;
+
+describe('kerf history panel', () => {
+  it('keeps its table of measurements inside a phone-width page (it scrolls in its own box)', async () => {
+    stubFetch({
+      'GET /api/machine-profiles/p-1/kerf-records': () =>
+        json(200, { items: records, total: records.length, page: 1, pageSize: 1000 }),
+    });
+    renderWithProviders(<KerfHistoryPanel profile={profile} onAdopted={() => undefined} />);
+    const table = await screen.findByRole('table', { name: 'Measured kerfs' });
+    expect(within(table).getByText('0.165 mm')).toBeInTheDocument();
+    expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
+  });
+});
