@@ -12,6 +12,11 @@ export function jobQueryOptions(id: string) {
   return queryOptions({ queryKey: jobsKeys.detail(id), queryFn: ({ signal }) => getJob(id, signal) });
 }
 
+/** Job ids are UUIDs; anything else names no job, so it is not asked for. */
+export function isJobId(id: string): boolean {
+  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
+}
+
 export function useJob(id: string) {
-  return useQuery(jobQueryOptions(id));
+  return useQuery({ ...jobQueryOptions(id), enabled: isJobId(id) });
 }

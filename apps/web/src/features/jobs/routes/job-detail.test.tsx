@@ -87,4 +87,45 @@ describe('job detail', () => {
     renderApp(`/jobs/${job.id}`, { token: 't' });
     expect(await screen.findByText('Nothing for you to do on this job now.')).toBeInTheDocument();
   });
+
+  it('shows a measured kerf with the precision it was recorded to', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('operator')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, {
+          ...job,
+          state: 'cut',
+          actualMinutes: 12,
+          sheetsUsed: 2,
+          measuredKerfMm: 0.165,
+          actions: [],
+        }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    expect(await screen.findByText('0.165 mm')).toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'inch' }));
+    // 0.165 mm / 25.4 mm per inch = 0.0065 in.
+    expect(screen.getByText('0.0065 in')).toBeInTheDocument();
+  });
+
+  it('says plainly that there is no such job, with the way back, for an address that is no job id', async () => {
+    const stub = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('operator')) });
+    renderApp('/jobs/not-a-uuid', { token: 't' });
+    expect(await screen.findByRole('heading', { name: 'No such job' })).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Back to the jobs' })).toHaveAttribute('href', '/jobs');
+    expect(screen.queryByRole('button', { name: 'Try again' })).not.toBeInTheDocument();
+    expect(screen.queryByText(/Validation failed/)).not.toBeInTheDocument();
+    expect(stub.calls.some((c) => c.url.pathname.startsWith('/api/jobs/'))).toBe(false);
+  });
+
+  it('says the same when the API knows no job with that id', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('operator')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(404, { statusCode: 404, code: 'JOB.NOT_FOUND', message: 'No such job', requestId: 'r-1' }),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    expect(await screen.findByRole('heading', { name: 'No such job' })).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Try again' })).not.toBeInTheDocument();
+  });
 });

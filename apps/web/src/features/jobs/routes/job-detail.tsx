@@ -22,9 +22,11 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { paths } from '../../../config/paths';
+import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
-import { formatLength, type LengthUnit } from '../../../lib/units';
-import { useJob } from '../api/get-job';
+import { formatLength, type LengthUnit, MM_PER_INCH } from '../../../lib/units';
+import { isJobId, useJob } from '../api/get-job';
 import { useTakeJobAction } from '../api/take-job-action';
 import { CutPackPanel } from '../components/cut-pack-panel';
 import { JobSheetsPanel } from '../components/job-sheets-panel';
@@ -41,6 +43,7 @@ type Open = JobAction | 'safety' | null;
 export function JobDetailRoute() {
   const { jobId = '' } = useParams();
   const job = useJob(jobId);
+  if (!isJobId(jobId) || (isApiError(job.error) && job.error.status === 404)) return <NoSuchJob />;
   if (job.isPending) {
     return (
       <Box sx={{ display: 'grid', placeItems: 'center', minHeight: 240 }}>
@@ -56,12 +59,34 @@ export function JobDetailRoute() {
   return <JobDetail job={job.data} />;
 }
 
+/** An address that names no job (mistyped, or the job is not there): say so, and offer the way back. */
+function NoSuchJob() {
+  return (
+    <Box sx={{ maxWidth: 640, mx: 'auto', my: 4, px: 2 }} data-testid="no-such-job">
+      <title>No such job · Kerfwright</title>
+      <Typography variant="h1" sx={{ mb: 1 }}>
+        No such job
+      </Typography>
+      <Typography color="text.secondary" sx={{ mb: 2 }}>
+        There is no job at this address. The link may be mistyped or incomplete; the jobs board lists every
+        job you can open.
+      </Typography>
+      <Button variant="contained" component={Link} to={paths.jobs.getHref()}>
+        Back to the jobs
+      </Button>
+    </Box>
+  );
+}
+
 function JobDetail({ job }: { job: JobDetailView }) {
   const user = useUser();
   const action = useTakeJobAction();
   const [open, setOpen] = useState<Open>(null);
   const [unit, setUnit] = useState<LengthUnit>('mm');
   const fmt = (mm: number) => formatLength(mm, unit);
+  // Kerfs are recorded to the thousandth of a millimetre (0.165 mm), and shown so, as the kerf history does.
+  const fmtKerf = (mm: number) =>
+    unit === 'in' ? `${(mm / MM_PER_INCH).toFixed(4)} in` : `${mm.toFixed(3)} mm`;
   const prep = job.preparation;
 
   const take = (a: JobAction, extra: Record<string, unknown> = {}) =>
@@ -155,7 +180,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
               rows={[
                 ['Machine time', `${job.actualMinutes} min`],
                 ['Sheets used', String(job.sheetsUsed ?? '—')],
-                ['Measured kerf', job.measuredKerfMm === null ? '—' : fmt(job.measuredKerfMm)],
+                ['Measured kerf', job.measuredKerfMm === null ? '—' : fmtKerf(job.measuredKerfMm)],
               ]}
             />
           ) : null}

@@ -172,7 +172,9 @@ function DeskJob({ job }: { job: JobView }) {
                   version: job.version,
                   actualMinutes: v.actualMinutes,
                   sheetsUsed: v.sheetsUsed,
-                  ...(Number.isNaN(v.measuredKerfMm) ? {} : { measuredKerfMm: v.measuredKerfMm }),
+                  ...(v.measuredKerfMm === undefined || Number.isNaN(v.measuredKerfMm)
+                    ? {}
+                    : { measuredKerfMm: v.measuredKerfMm }),
                 },
               },
               { onSuccess: () => setOpen(null) },
