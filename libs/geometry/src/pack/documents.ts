@@ -97,7 +97,12 @@ export function setupSheetPdf(args: {
       ]);
       heading(doc, 'Safety notices');
       doc.font('Helvetica').fontSize(9.5);
-      if (input.notices.length === 0) doc.text('No notices were attached to this job.');
+      if (input.notices.length === 0)
+        doc.text(
+          'No safety notices were attached to this pack (packs made outside a Kerfwright job carry none). ' +
+            'Before cutting, read the notices that apply to this machine and material: the Safety page of ' +
+            "Kerfwright, the files in the repository's safety/notices, and your workshop's own.",
+        );
       for (const n of input.notices) {
         ensureRoom(doc, 14);
         doc.text(`${n.id} v${n.version}: ${n.title} (${n.severity})`);

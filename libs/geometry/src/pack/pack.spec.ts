@@ -390,6 +390,13 @@ describe('createCutPack failures and the command-line helper', () => {
       });
   });
 
+  it('tells the operator where the safety notices are when a pack carries none', async () => {
+    const r = await createCutPack(input(octahedronHexagons(), { notices: [], archive: false }));
+    const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(setup.text).toMatch(/No safety notices were attached to this pack/);
+    expect(setup.text).toMatch(/safety\/ ?notices/); // PDF text may break the line after the slash
+  });
+
   it("takes the spec's bed for the machine and warns when the sheet fits the bed neither way round", async () => {
     const spec = { ...octahedronHexagons(), bed: { widthMm: 300, heightMm: 300 } };
     const inputOf = packInputFrom(spec, { sheet: { widthMm: 500, heightMm: 450 } });
