@@ -45,6 +45,12 @@ export async function main(argv: readonly string[], cliIo: CliIo = io): Promise<
       cliIo.err(`error: ${e.message}`);
       return 2;
     }
+    // A file system refusal (an --out that cannot be made or written): the user's to fix, like a usage error.
+    const code = (e as NodeJS.ErrnoException).code;
+    if (typeof code === 'string' && /^E[A-Z]+$/.test(code)) {
+      cliIo.err(`error: cannot write the output: ${(e as Error).message}`);
+      return 2;
+    }
     cliIo.err(`error: internal failure: ${(e as Error).message}`);
     return 3;
   }

@@ -96,6 +96,16 @@ describe('CLI build', () => {
     expect(fs.readdirSync(out)).toEqual(['report.json']);
   });
 
+  it('refuses an --out it cannot write with one line and exit code 2', async () => {
+    const spec = path.join(dir, 'spec.json');
+    fs.writeFileSync(spec, JSON.stringify(octahedronHexagons()));
+    const blocker = path.join(dir, 'a-file');
+    fs.writeFileSync(blocker, 'not a directory');
+    const r = await run(['build', spec, '--out', path.join(blocker, 'out')]);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/^error: cannot write the output: E[A-Z]+/);
+  });
+
   it('reports unreadable JSON, unknown commands and missing arguments', async () => {
     const spec = path.join(dir, 'spec.json');
     fs.writeFileSync(spec, '{ not json');
