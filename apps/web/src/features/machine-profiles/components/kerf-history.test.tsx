@@ -9,6 +9,7 @@ import { json, stubFetch } from '../../../testing/fetch-stub';
 import { renderWithProviders } from '../../../testing/render-app';
 import { KerfHistoryChart, spreadLabels, tickDecimals } from './kerf-history-chart';
 import { KerfHistoryPanel } from './kerf-history-panel';
+import { VersionComparison } from './version-comparison';
 
 const record = (id: string, kerfMm: number, day: number): KerfRecordView => ({
   id,
@@ -74,7 +75,24 @@ const version = {
   profileId: 'p-1',
   number: 1,
   state: 'approved',
-  settings: [{ materialId: 'm-acrylic', materialName: 'Cast acrylic 3 mm', kerfMm: 0.08 }],
+  bedWidthMm: 600,
+  bedHeightMm: 400,
+  rapidSpeedMmS: 400,
+  hourlyRate: 24,
+  currency: 'EUR',
+  notes: '',
+  settings: [
+    {
+      materialId: 'm-acrylic',
+      materialName: 'Cast acrylic 3 mm',
+      kerfMm: 0.08,
+      cutSpeedMmS: 12,
+      markSpeedMmS: 250,
+      powerPct: 65,
+      passes: 1,
+      pierceTimeS: 0.3,
+    },
+  ],
 } as unknown as MachineProfileVersionView;
 
 const profile = {
@@ -97,5 +115,24 @@ describe('kerf history panel', () => {
     const table = await screen.findByRole('table', { name: 'Measured kerfs' });
     expect(within(table).getByText('0.165 mm')).toBeInTheDocument();
     expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
+  });
+});
+
+describe('versions side by side', () => {
+  it('keeps its hidden "(changed)" texts inside its scrolling box, so a phone-width page stays narrow', () => {
+    const v2 = {
+      ...version,
+      id: 'v-2',
+      number: 2,
+      state: 'draft',
+      settings: [{ ...version.settings[0]!, kerfMm: 0.082 }],
+    } as MachineProfileVersionView;
+    render(<VersionComparison versions={[v2, version]} />);
+    const table = screen.getByRole('table', { name: 'Versions side by side' });
+    expect(within(table).getByText('(changed)', { exact: false })).toBeInTheDocument();
+    // The hidden texts are placed absolutely: a box that is not positioned would not clip them.
+    const box = getComputedStyle(table.parentElement!);
+    expect(box.overflowX).toBe('auto');
+    expect(box.position).toBe('relative');
   });
 });

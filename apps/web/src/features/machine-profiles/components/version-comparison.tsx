@@ -31,7 +31,9 @@ export function VersionComparison({ versions }: { versions: readonly MachineProf
   const rows = versionRows(ordered);
   let section = '';
   return (
-    <TableContainer sx={{ overflowX: 'auto' }}>
+    // Positioned, so the hidden "(changed)" texts (absolutely placed) stay inside the scrolling box: otherwise
+    // they escape it and widen a phone-width page.
+    <TableContainer sx={{ overflowX: 'auto', position: 'relative' }}>
       <Table size="small" aria-label="Versions side by side" data-testid="version-comparison">
         <TableHead>
           <TableRow>

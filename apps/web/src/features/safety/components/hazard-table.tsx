@@ -4,6 +4,7 @@ import Stack from '@mui/material/Stack';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TablePagination from '@mui/material/TablePagination';
 import TableRow from '@mui/material/TableRow';
@@ -83,35 +84,38 @@ export function HazardTable({ rows }: { rows: readonly MaterialHazard[] }) {
           ))}
         </TextField>
       </Stack>
-      <Table size="small" aria-label="Material hazards">
-        <TableHead>
-          <TableRow>
-            <TableCell>{header('family', 'Family')}</TableCell>
-            <TableCell>Examples</TableCell>
-            <TableCell>{header('laser', 'On a laser')}</TableCell>
-            <TableCell>Hazard</TableCell>
-            <TableCell>Source</TableCell>
-          </TableRow>
-        </TableHead>
-        <TableBody>
-          {shown.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize).map((r) => (
-            <TableRow key={r.family} data-testid={`hazard-${r.family}`}>
-              <TableCell>{r.family}</TableCell>
-              <TableCell>{r.examples.join(', ')}</TableCell>
-              <TableCell>
-                <Chip size="small" color={LASER_COLOUR[r.laser]} label={LASER_LABEL[r.laser]} />
-              </TableCell>
-              <TableCell>{r.condition ? `${r.hazard} Condition: ${r.condition}` : r.hazard}</TableCell>
-              <TableCell>{r.source}</TableCell>
-            </TableRow>
-          ))}
-          {shown.length === 0 ? (
+      {/* A phone-width page keeps its width: the table scrolls inside its own box. */}
+      <TableContainer sx={{ overflowX: 'auto' }}>
+        <Table size="small" aria-label="Material hazards">
+          <TableHead>
             <TableRow>
-              <TableCell colSpan={5}>No material matches.</TableCell>
+              <TableCell>{header('family', 'Family')}</TableCell>
+              <TableCell>Examples</TableCell>
+              <TableCell>{header('laser', 'On a laser')}</TableCell>
+              <TableCell>Hazard</TableCell>
+              <TableCell>Source</TableCell>
             </TableRow>
-          ) : null}
-        </TableBody>
-      </Table>
+          </TableHead>
+          <TableBody>
+            {shown.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize).map((r) => (
+              <TableRow key={r.family} data-testid={`hazard-${r.family}`}>
+                <TableCell>{r.family}</TableCell>
+                <TableCell>{r.examples.join(', ')}</TableCell>
+                <TableCell>
+                  <Chip size="small" color={LASER_COLOUR[r.laser]} label={LASER_LABEL[r.laser]} />
+                </TableCell>
+                <TableCell>{r.condition ? `${r.hazard} Condition: ${r.condition}` : r.hazard}</TableCell>
+                <TableCell>{r.source}</TableCell>
+              </TableRow>
+            ))}
+            {shown.length === 0 ? (
+              <TableRow>
+                <TableCell colSpan={5}>No material matches.</TableCell>
+              </TableRow>
+            ) : null}
+          </TableBody>
+        </Table>
+      </TableContainer>
       <TablePagination
         component="div"
         count={shown.length}

@@ -129,6 +129,8 @@ describe('safety page', () => {
     expect(screen.queryByRole('button', { name: 'Edit the local rules' })).not.toBeInTheDocument();
 
     const table = await screen.findByRole('table', { name: 'Material hazards' });
+    // At phone width (375 px) the five columns scroll inside their own box instead of widening the page.
+    expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
     const families = () =>
       within(table)
         .getAllByRole('row')
