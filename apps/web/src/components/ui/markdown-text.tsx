@@ -88,7 +88,7 @@ function components(topLevel: number): Components {
     ),
     // No pictures from the text (they would load from anywhere): their description stands in.
     img: ({ alt }: Props<'img'>) => (alt ? <span>{`[${alt}]`}</span> : null),
-    // A wide table scrolls inside its own box, so a phone-width page never grows past the screen.
+    // Cells wrap to fit; a table still too wide scrolls inside its own box, so a phone-width page never grows.
     table: ({ children }: Props<'table'>) => (
       <Box
         sx={{
@@ -103,9 +103,7 @@ function components(topLevel: number): Components {
         role="region"
         aria-label="Table"
       >
-        <Table size="small" sx={{ minWidth: 320 }}>
-          {children}
-        </Table>
+        <Table size="small">{children}</Table>
       </Box>
     ),
     thead: ({ children }: Props<'thead'>) => <TableHead>{children}</TableHead>,
@@ -117,7 +115,7 @@ function components(topLevel: number): Components {
       </TableCell>
     ),
     td: ({ children }: Props<'td'>) => (
-      <TableCell sx={{ verticalAlign: 'top', color: 'inherit', overflowWrap: 'anywhere' }}>
+      <TableCell sx={{ verticalAlign: 'top', color: 'inherit', overflowWrap: 'break-word' }}>
         {children}
       </TableCell>
     ),

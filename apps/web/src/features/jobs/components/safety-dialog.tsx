@@ -9,7 +9,9 @@ import DialogContent from '@mui/material/DialogContent';
 import DialogTitle from '@mui/material/DialogTitle';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import Stack from '@mui/material/Stack';
+import { useTheme } from '@mui/material/styles';
 import Typography from '@mui/material/Typography';
+import useMediaQuery from '@mui/material/useMediaQuery';
 import { useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { MarkdownText } from '../../../components/ui/markdown-text';
@@ -35,8 +37,17 @@ export function SafetyDialog({
   const acknowledge = useAcknowledgeJobSafety(jobId);
   const [read, setRead] = useState(false);
   const view = safety.data;
+  // On a phone the notices (tables included) get the whole screen.
+  const phone = useMediaQuery(useTheme().breakpoints.down('sm'));
   return (
-    <Dialog open={open} onClose={onClose} fullWidth maxWidth="md" aria-labelledby="safety-title">
+    <Dialog
+      open={open}
+      onClose={onClose}
+      fullWidth
+      fullScreen={phone}
+      maxWidth="md"
+      aria-labelledby="safety-title"
+    >
       <DialogTitle id="safety-title">Safety before cutting</DialogTitle>
       <DialogContent dividers>
         {safety.isPending ? <CircularProgress aria-label="Loading the notices" /> : null}
