@@ -111,6 +111,32 @@ describe('users administration (supervisor only)', () => {
     expect(await countRows(ctx, 'audit_events')).toBe(before);
   });
 
+  it('refuses a self-change however the own id is written (upper case, mixed case), role and deactivation alike', async () => {
+    const auth = { Authorization: `Bearer ${supervisor.token}` };
+    const before = await countRows(ctx, 'audit_events');
+    const mixed = supervisor.id.replace(/[a-f]/g, (c, i: number) => (i % 2 ? c.toUpperCase() : c));
+    for (const id of [supervisor.id.toUpperCase(), mixed]) {
+      for (const change of [{ role: 'hobbyist' }, { active: false }]) {
+        const res = await ctx.http.patch(`/api/users/${id}`).set(auth).send(change).expect(409);
+        expectErrorBody(res.body, 409, 'USER.SELF_CHANGE');
+      }
+    }
+    const rows: { role: string; active: boolean }[] = await ctx.db.query(
+      `SELECT role, active FROM users WHERE id = $1`,
+      [supervisor.id],
+    );
+    expect(rows).toEqual([{ role: 'supervisor', active: true }]);
+    expect(await countRows(ctx, 'audit_events')).toBe(before);
+    // Someone else's id in upper case still names them.
+    const other = await createUser(ctx, 'hobbyist');
+    const res = await ctx.http
+      .patch(`/api/users/${other.id.toUpperCase()}`)
+      .set(auth)
+      .send({ role: 'operator' })
+      .expect(200);
+    expect(res.body).toMatchObject({ id: other.id, role: 'operator' });
+  });
+
   it('answers 404 for an unknown user and 400 for a malformed id', async () => {
     const auth = { Authorization: `Bearer ${supervisor.token}` };
     const nf = await ctx.http

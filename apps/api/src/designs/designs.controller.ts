@@ -5,7 +5,6 @@ import {
   Get,
   HttpCode,
   Param,
-  ParseUUIDPipe,
   Patch,
   Post,
   Query,
@@ -32,6 +31,7 @@ import {
 import { type AuthUser, CurrentUser } from '../common/decorators/auth.decorators';
 import { AppError } from '../common/errors';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { DesignsService } from './designs.service';
 import {
   CreateDesignDto,
@@ -89,7 +89,7 @@ export class DesignsController {
 
   @Get(':id')
   @ApiOkResponse({ type: DesignViewDto })
-  get(@CurrentUser() user: AuthUser, @Param('id', new ParseUUIDPipe()) id: string): Promise<DesignView> {
+  get(@CurrentUser() user: AuthUser, @Param('id', new ParseIdPipe()) id: string): Promise<DesignView> {
     return this.designs.get(user, id);
   }
 
@@ -97,7 +97,7 @@ export class DesignsController {
   @ApiOkResponse({ type: DesignViewDto })
   update(
     @CurrentUser() user: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Body() dto: UpdateDesignDto,
     @Req() req: unknown,
   ): Promise<DesignView> {
@@ -109,7 +109,7 @@ export class DesignsController {
   @ApiNoContentResponse()
   remove(
     @CurrentUser() user: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Req() req: unknown,
   ): Promise<void> {
     return this.designs.remove(user, id, requestIdOf(req));
@@ -119,7 +119,7 @@ export class DesignsController {
   @ApiCreatedResponse({ type: DesignViewDto })
   duplicate(
     @CurrentUser() user: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Req() req: unknown,
   ): Promise<DesignView> {
     return this.designs.duplicate(user, id, requestIdOf(req));
@@ -132,7 +132,7 @@ export class DesignsController {
   @ApiCreatedResponse({ type: DesignViewDto })
   attachSolid(
     @CurrentUser() user: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @UploadedFile() file: UploadedSolidFile,
     @Req() req: unknown,
   ): Promise<DesignView> {

@@ -4,7 +4,6 @@ import {
   Get,
   HttpCode,
   Param,
-  ParseUUIDPipe,
   Post,
   Req,
   Res,
@@ -27,11 +26,12 @@ import { type Observable } from 'rxjs';
 import { type ExportRequested, type ExportView } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { JobActionDto } from '../jobs/dto/job.dto';
 import { ExportRequestedDto, ExportViewDto } from './dto/export.dto';
 import { ExportsService } from './exports.service';
 
-const ID = new ParseUUIDPipe();
+const ID = new ParseIdPipe();
 /** Content types of cut-pack files: DXF/SVG drawings, PDF sheets and guide, the JSON manifest, the ZIP archive. */
 const FILE_CONTENT_TYPES = [
   'application/dxf',

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Query, Req } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Param, Post, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiConflictResponse,
@@ -10,6 +10,7 @@ import {
 } from '@nestjs/swagger';
 import { type JobDetailView, type JobView, type Page } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser } from '../common/decorators/auth.decorators';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import {
   CreateJobDto,
   JobActionDto,
@@ -21,7 +22,7 @@ import {
 import { JobDetailViewDto, JobPageDto } from './dto/job.response';
 import { JobsService } from './jobs.service';
 
-const ID = new ParseUUIDPipe();
+const ID = new ParseIdPipe();
 
 /**
  * Jobs and their state changes. Each action is its own route so roles and bodies stay explicit; the

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Post, Query, Req } from '@nestjs/common';
+import { Body, Controller, Get, Param, Post, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiConflictResponse,
@@ -11,6 +11,7 @@ import {
 import { type KerfRecordView, type MachineProfileVersionView, type Page } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { CreateKerfRecordDto } from './dto/create-kerf-record.dto';
 import { ListKerfRecordsQueryDto } from './dto/list-machine-profiles.query';
 import {
@@ -20,7 +21,7 @@ import {
 } from './dto/machine-profile.response';
 import { KerfRecordsService } from './kerf-records.service';
 
-const uuid = new ParseUUIDPipe();
+const uuid = new ParseIdPipe();
 
 /** Measured kerfs per machine and material: operators and fabricators record and read them. */
 @ApiTags('machine-profiles')

@@ -1,16 +1,4 @@
-import {
-  Body,
-  Controller,
-  Delete,
-  Get,
-  HttpCode,
-  Param,
-  ParseUUIDPipe,
-  Patch,
-  Post,
-  Query,
-  Req,
-} from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiConflictResponse,
@@ -25,6 +13,7 @@ import {
 import { type MaterialView, type Page } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { CreateMaterialDto } from './dto/create-material.dto';
 import { ListMaterialsQueryDto } from './dto/list-materials.query';
 import { MaterialPageResponse, MaterialResponse } from './dto/material.response';
@@ -51,7 +40,7 @@ export class MaterialsController {
   @ApiOperation({ summary: 'One material (any signed-in user)' })
   @ApiOkResponse({ type: MaterialResponse })
   @ApiNotFoundResponse({ description: 'MATERIAL.NOT_FOUND' })
-  get(@Param('id', new ParseUUIDPipe()) id: string): Promise<MaterialView> {
+  get(@Param('id', new ParseIdPipe()) id: string): Promise<MaterialView> {
     return this.materials.get(id);
   }
 
@@ -81,7 +70,7 @@ export class MaterialsController {
   })
   update(
     @CurrentUser() user: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Body() dto: UpdateMaterialDto,
     @Req() req: unknown,
   ): Promise<MaterialView> {
@@ -97,7 +86,7 @@ export class MaterialsController {
   @ApiConflictResponse({ description: 'MATERIAL.IN_USE: a job, machine profile or kerf record refers to it' })
   async remove(
     @CurrentUser() user: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Req() req: unknown,
   ): Promise<void> {
     await this.materials.remove({ id: user.id, requestId: requestIdOf(req) }, id);

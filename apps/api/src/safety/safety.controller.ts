@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Param, ParseUUIDPipe, Post, Put, Query, Req } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Param, Post, Put, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiExtraModels,
@@ -15,6 +15,7 @@ import {
 } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { AcknowledgeSafetyDto, LocalRulesDto, NoticeFilterQuery } from './dto/safety.dto';
 import {
   JobSafetyResponse,
@@ -73,7 +74,7 @@ export class SafetyController {
     type: JobSafetyResponse,
     description: 'Notices for the job’s machine and material, local rules, and the caller’s acknowledgement',
   })
-  forJob(@CurrentUser() u: AuthUser, @Param('id', new ParseUUIDPipe()) id: string): Promise<JobSafetyView> {
+  forJob(@CurrentUser() u: AuthUser, @Param('id', new ParseIdPipe()) id: string): Promise<JobSafetyView> {
     return this.safety.forJob(u, id);
   }
 
@@ -86,7 +87,7 @@ export class SafetyController {
   @ApiOkResponse({ type: JobSafetyResponse, description: 'The job’s safety view, now acknowledged' })
   acknowledge(
     @CurrentUser() u: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Body() dto: AcknowledgeSafetyDto,
     @Req() req: unknown,
   ): Promise<JobSafetyView> {

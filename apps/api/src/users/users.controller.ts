@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Query, Req } from '@nestjs/common';
+import { Body, Controller, Get, Param, Patch, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiConflictResponse,
@@ -10,6 +10,7 @@ import {
 import { type Page, type UserView } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { ListUsersQuery } from './dto/list-users.query';
 import { UpdateUserDto } from './dto/update-user.dto';
 import { UserPageResponse, UserResponse } from './dto/user.response';
@@ -37,7 +38,7 @@ export class UsersController {
   @ApiConflictResponse({ description: 'A change that would leave the caller without their own access' })
   update(
     @CurrentUser() actor: AuthUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', new ParseIdPipe()) id: string,
     @Body() dto: UpdateUserDto,
     @Req() req: unknown,
   ): Promise<UserView> {

@@ -6,6 +6,7 @@ import { AuditService } from '../audit/audit.service';
 import { likePattern } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
 import { pageWindow, sortOrder } from '../common/paging';
+import { sameId } from '../common/pipes/parse-id.pipe';
 import { type ListUsersQuery } from './dto/list-users.query';
 import { type UpdateUserDto } from './dto/update-user.dto';
 import { toUserView, User } from './user.entity';
@@ -49,16 +50,18 @@ export class UsersService {
         [{ field: 'role', messages: ['role or active is required'] }],
       );
     }
-    if (id === actorId) {
-      throw new AppError(
+    const selfChange = () =>
+      new AppError(
         HttpStatus.CONFLICT,
         'USER.SELF_CHANGE',
         'Supervisors cannot change their own role or deactivate themselves; ask another supervisor',
       );
-    }
+    // Ids are compared normalised (PostgreSQL takes an upper-case uuid for the same row), and again as stored.
+    if (sameId(id, actorId)) throw selfChange();
     return this.dataSource.transaction(async (manager) => {
       const user = await manager.findOne(User, { where: { id }, lock: { mode: 'pessimistic_write' } });
       if (!user) throw notFound('USER', 'No such user');
+      if (sameId(user.id, actorId)) throw selfChange();
       const before = toUserView(user);
       if (dto.role !== undefined) user.role = dto.role;
       if (dto.active !== undefined) user.active = dto.active;
