@@ -95,6 +95,43 @@ describe('designs', () => {
       .expect(200);
   });
 
+  it('keeps a design’s name trimmed, not empty, and on one line without control characters', async () => {
+    const before = await countRows(ctx, 'designs');
+    const blanks = ['', '   ', '\t \n'];
+    const controls = [
+      'Lamp\nshade',
+      'Lamp\u001b[31m red',
+      'Lamp\u0007',
+      'Lamp\u007f',
+      'Lamp\u0085',
+      'Lamp\u2028shade',
+    ];
+    for (const name of [...blanks, ...controls]) {
+      const res = await ctx.http
+        .post('/api/designs')
+        .set(auth(owner))
+        .send({ name, spec: octahedronHexagons() })
+        .expect(400);
+      expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+      expect(res.body.details.map((d: { field: string }) => d.field)).toEqual(['name']);
+    }
+    expect(await countRows(ctx, 'designs')).toBe(before);
+    const d = await create(owner, '  Reading-room lamp  ');
+    expect(d.name).toBe('Reading-room lamp');
+    for (const name of ['   ', 'Two\nlines']) {
+      const res = await ctx.http
+        .patch(`/api/designs/${d.id}`)
+        .set(auth(owner))
+        .send({ name, version: d.version })
+        .expect(400);
+      expect(res.body.details.map((x: { field: string }) => x.field)).toEqual(['name']);
+    }
+    const kept = await ctx.http.get(`/api/designs/${d.id}`).set(auth(owner)).expect(200);
+    expect(kept.body).toMatchObject({ name: 'Reading-room lamp', version: d.version });
+    // Letters of any script and symbols are text, not control characters.
+    expect((await create(owner, 'Lampe à étoiles ★ — 星')).name).toBe('Lampe à étoiles ★ — 星');
+  });
+
   it('refuses a stale version with 409', async () => {
     const d = await create(owner);
     await ctx.http

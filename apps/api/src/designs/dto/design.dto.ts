@@ -1,6 +1,7 @@
 import { ApiProperty, ApiPropertyOptional, OmitType } from '@nestjs/swagger';
 import { IsIn, IsInt, IsObject, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
 import { PageQueryDto } from '../../common/paging';
+import { NoControlCharacters, Trimmed } from '../../common/text';
 import {
   type CreateDesignRequest,
   type DesignIssue,
@@ -33,17 +34,25 @@ const SPEC_DOC = {
 };
 
 export class CreateDesignDto implements CreateDesignRequest {
-  @ApiProperty({ maxLength: 120 }) @IsString() @MinLength(1) @MaxLength(120) name: string;
+  @ApiProperty({ maxLength: 120, description: 'Trimmed; one line of text, not empty' })
+  @Trimmed()
+  @IsString()
+  @MinLength(1, { message: 'name must not be empty' })
+  @MaxLength(120)
+  @NoControlCharacters()
+  name: string;
   @ApiPropertyOptional({ maxLength: 2000 }) @IsOptional() @IsString() @MaxLength(2000) description?: string;
   @ApiProperty({ type: 'object', additionalProperties: true, ...SPEC_DOC }) @IsObject() spec: DesignSpecInput;
 }
 
 export class UpdateDesignDto implements UpdateDesignRequest {
-  @ApiPropertyOptional({ maxLength: 120 })
+  @ApiPropertyOptional({ maxLength: 120, description: 'Trimmed; one line of text, not empty' })
   @IsOptional()
+  @Trimmed()
   @IsString()
-  @MinLength(1)
+  @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)
+  @NoControlCharacters()
   name?: string;
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(2000) description?: string;
   @ApiPropertyOptional({ type: 'object', additionalProperties: true, ...SPEC_DOC })

@@ -32,6 +32,7 @@ import {
 } from '@kerfwright/contracts';
 import { MAX_FIT_SHEETS } from '@kerfwright/geometry';
 import { PageQueryDto } from '../../common/paging';
+import { Trimmed } from '../../common/text';
 
 export class CreateJobDto {
   @ApiProperty() @IsUUID() designId: string;
@@ -163,7 +164,12 @@ export class PrepareJobDto extends JobActionDto {
 }
 
 export class ReturnJobDto extends JobActionDto {
-  @ApiProperty({ maxLength: 2000 }) @IsString() @MinLength(3) @MaxLength(2000) reason: string;
+  @ApiProperty({ maxLength: 2000, description: 'Why the job goes back: at least 3 characters once trimmed' })
+  @Trimmed()
+  @IsString()
+  @MinLength(3, { message: 'reason must say why, in at least 3 characters (spaces alone do not count)' })
+  @MaxLength(2000)
+  reason: string;
 }
 
 export class RecordCutDto extends JobActionDto {

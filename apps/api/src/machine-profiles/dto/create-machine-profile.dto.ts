@@ -7,6 +7,7 @@ import {
   MACHINE_PROFILE_LIMITS as L,
   type MachineProfileKind,
 } from '@kerfwright/contracts';
+import { NoControlCharacters } from '../../common/text';
 import { ProfileVersionContentDto } from './profile-version-content.dto';
 
 /** A new profile; its content becomes version 1, a draft. */
@@ -16,6 +17,7 @@ export class CreateMachineProfileDto extends ProfileVersionContentDto implements
   @IsString()
   @IsNotEmpty()
   @MaxLength(L.nameLength)
+  @NoControlCharacters()
   name: string;
 
   @ApiProperty({ enum: MACHINE_PROFILE_KINDS })

@@ -22,6 +22,7 @@ import {
   type MaterialFamily,
   type StockSheet,
 } from '@kerfwright/contracts';
+import { NoControlCharacters } from '../../common/text';
 import { FINITE, OptionalNotNull, OptionalNullable } from './optional';
 
 const trim = ({ value }: { value: unknown }): unknown => (typeof value === 'string' ? value.trim() : value);
@@ -57,6 +58,7 @@ export class CreateMaterialDto implements CreateMaterialRequest {
   @IsString()
   @IsNotEmpty()
   @MaxLength(L.nameLength)
+  @NoControlCharacters()
   name: string;
 
   @ApiProperty({ enum: MATERIAL_FAMILIES, example: 'plywood' })

@@ -1,0 +1,15 @@
+import { Transform } from 'class-transformer';
+import { Matches } from 'class-validator';
+
+/** class-transformer step: a string without its leading and trailing white space (other values as they are). */
+export const Trimmed = () =>
+  Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value));
+
+/** No control characters (C0, DEL, C1: \p{Cc}) and no line or paragraph separators anywhere. */
+const ONE_LINE_TEXT = /^[^\p{Cc}\u2028\u2029]*$/u;
+
+/** A name is one line of visible text: refuses tabs, line breaks, escape sequences and other controls. */
+export const NoControlCharacters = () =>
+  Matches(ONE_LINE_TEXT, {
+    message: ({ property }) => `${property} must not contain control characters or line breaks`,
+  });
