@@ -231,8 +231,14 @@ describe('designs', () => {
       .send({ spec: bedSpec, version: created.body.version })
       .expect(200);
     expect(changed.body.spec).toEqual(bedSpec);
-    // The largest piece must fit a bed half the sheet's size each way, so the fitted model is smaller.
-    expect(changed.body.preview.diameterMm).toBeLessThan(created.body.preview.diameterMm);
+    // The largest piece must fit a bed half the sheet's size each way, so the model is smaller than one
+    // fitted to a bed the sheet's size.
+    const fullBed = await ctx.http
+      .patch(`/api/designs/${created.body.id}`)
+      .set(auth(owner))
+      .send({ spec: { ...bedSpec, bed: { widthMm: 600, heightMm: 400 } }, version: changed.body.version })
+      .expect(200);
+    expect(changed.body.preview.diameterMm).toBeLessThan(fullBed.body.preview.diameterMm);
   });
 
   it.each([
