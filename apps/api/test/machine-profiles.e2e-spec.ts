@@ -120,12 +120,15 @@ describe('machine profiles, versions and kerf records', () => {
   }
   async function submitted(overrides: Record<string, unknown> = {}) {
     const p = await createProfile(overrides);
-    const v = (await act('fabricator', p, p.latest, 'submit').expect(200)).body as VersionBody;
+    const v = (
+      await act('fabricator', p, p.latest, 'submit', { lockVersion: p.latest.lockVersion }).expect(200)
+    ).body as VersionBody;
     return { p, v };
   }
   async function approved(overrides: Record<string, unknown> = {}) {
     const { p, v } = await submitted(overrides);
-    const a = (await act('supervisor', p, v, 'approve').expect(200)).body as VersionBody;
+    const a = (await act('supervisor', p, v, 'approve', { lockVersion: v.lockVersion }).expect(200))
+      .body as VersionBody;
     return { p, v: a };
   }
   async function kerfRecord(p: { id: string }, materialId: string, kerfMm: number) {
@@ -182,10 +185,13 @@ describe('machine profiles, versions and kerf records', () => {
     expectErrorBody(frozen.body, 409, 'MACHINE_PROFILE.INVALID_STATE');
 
     // Return with a reason → draft again; the reason is required.
-    const noReason = await act('supervisor', p, s1, 'return', {}).expect(400);
+    const noReason = await act('supervisor', p, s1, 'return', { lockVersion: s1.lockVersion }).expect(400);
     expect(noReason.body.details[0].field).toBe('reason');
     const r1 = (
-      await act('supervisor', p, s1, 'return', { reason: 'Pierce time looks long for 3 mm ply' }).expect(200)
+      await act('supervisor', p, s1, 'return', {
+        lockVersion: s1.lockVersion,
+        reason: 'Pierce time looks long for 3 mm ply',
+      }).expect(200)
     ).body as VersionBody;
     expect(r1).toMatchObject({ state: 'draft', returnReason: 'Pierce time looks long for 3 mm ply' });
 
@@ -203,8 +209,10 @@ describe('machine profiles, versions and kerf records', () => {
     expectErrorBody(staleEdit.body, 409, 'MACHINE_PROFILE.STALE_VERSION');
 
     // Submit again and approve.
-    await act('fabricator', p, r1, 'submit', { lockVersion: e1.body.lockVersion }).expect(200);
-    const a1 = (await act('supervisor', p, r1, 'approve').expect(200)).body as VersionBody;
+    const s2 = (await act('fabricator', p, r1, 'submit', { lockVersion: e1.body.lockVersion }).expect(200))
+      .body as VersionBody;
+    const a1 = (await act('supervisor', p, r1, 'approve', { lockVersion: s2.lockVersion }).expect(200))
+      .body as VersionBody;
     expect(a1.state).toBe('approved');
     expect(a1.returnReason).toBeNull();
     const approvedNow = await service.currentApprovedVersion(p.id);
@@ -238,8 +246,9 @@ describe('machine profiles, versions and kerf records', () => {
     expect((await service.currentApprovedVersion(p.id)).id).toBe(r1.id);
 
     // Approving version 2 retires version 1, whose content is unchanged (jobs keep its id).
-    await act('fabricator', p, v2, 'submit').expect(200);
-    await act('supervisor', p, v2, 'approve').expect(200);
+    const s3 = (await act('fabricator', p, v2, 'submit', { lockVersion: v2.lockVersion }).expect(200))
+      .body as VersionBody;
+    await act('supervisor', p, v2, 'approve', { lockVersion: s3.lockVersion }).expect(200);
     const detail = (await ctx.http.get(`/api/machine-profiles/${p.id}`).set(auth('hobbyist')).expect(200))
       .body as ProfileBody;
     expect(detail.versions.map((v) => [v.number, v.state])).toEqual([
@@ -257,7 +266,9 @@ describe('machine profiles, versions and kerf records', () => {
     await expect(service.currentApprovedVersion(p.id)).rejects.toMatchObject({
       response: expect.objectContaining({ code: 'MACHINE_PROFILE.NOT_APPROVED' }),
     });
-    const again = await act('supervisor', p, v2now, 'approve').expect(409);
+    const again = await act('supervisor', p, v2now, 'approve', { lockVersion: v2now.lockVersion }).expect(
+      409,
+    );
     expectErrorBody(again.body, 409, 'MACHINE_PROFILE.INVALID_STATE');
 
     const audit: { action: string }[] = await ctx.db.query(
@@ -293,13 +304,43 @@ describe('machine profiles, versions and kerf records', () => {
     await ctx.db.query(`UPDATE machine_profile_versions SET notes = 'raw edit' WHERE id = $1`, [d.latest.id]);
   });
 
-  it('accepts a state change with no request body at all', async () => {
+  it('needs the lockVersion the caller read to submit, approve or send back (400 without it); retiring takes none', async () => {
     const p = await createProfile();
-    const res = await ctx.http
+    const noBody = await ctx.http
       .post(versionPath(p, p.latest, 'submit'))
       .set(auth('fabricator'))
+      .expect(400);
+    expectErrorBody(noBody.body, 400, 'VALIDATION.FAILED');
+    expect(noBody.body.details.map((d: { field: string }) => d.field)).toContain('lockVersion');
+    const sub = (
+      await act('fabricator', p, p.latest, 'submit', { lockVersion: p.latest.lockVersion }).expect(200)
+    ).body as VersionBody;
+    for (const [action, body] of [
+      ['approve', {}],
+      ['approve', { lockVersion: null }],
+      ['return', { reason: 'Check the power' }],
+    ] as const) {
+      const res = await act('supervisor', p, sub, action, body).expect(400);
+      expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+      expect(res.body.details.map((d: { field: string }) => d.field)).toContain('lockVersion');
+    }
+    // A stale one is a conflict: the content changed since the caller read it.
+    const stale = await act('supervisor', p, sub, 'approve', { lockVersion: p.latest.lockVersion }).expect(
+      409,
+    );
+    expectErrorBody(stale.body, 409, 'MACHINE_PROFILE.STALE_VERSION');
+    const rows: { state: string }[] = await ctx.db.query(
+      `SELECT state FROM machine_profile_versions WHERE id = $1`,
+      [sub.id],
+    );
+    expect(rows).toEqual([{ state: 'submitted' }]);
+    await act('supervisor', p, sub, 'approve', { lockVersion: sub.lockVersion }).expect(200);
+    // Taking a version out of use is never held up.
+    const retired = await ctx.http
+      .post(versionPath(p, sub, 'retire'))
+      .set(auth('supervisor'))
       .expect(200);
-    expect(res.body.state).toBe('submitted');
+    expect(retired.body.state).toBe('retired');
   });
 
   it('lets exactly one of two supervisors approving the same version at once win; the other gets 409', async () => {
@@ -329,7 +370,9 @@ describe('machine profiles, versions and kerf records', () => {
     const own = await ctx.http.post('/api/machine-profiles').set(auth('supervisor')).send(profileBody());
     expect(own.status).toBe(201);
     const p = own.body as ProfileBody;
-    const sub = (await act('supervisor', p, p.latest, 'submit').expect(200)).body as VersionBody;
+    const sub = (
+      await act('supervisor', p, p.latest, 'submit', { lockVersion: p.latest.lockVersion }).expect(200)
+    ).body as VersionBody;
     const refused = await act('supervisor', p, sub, 'approve', { lockVersion: sub.lockVersion }).expect(403);
     expectErrorBody(refused.body, 403, 'MACHINE_PROFILE.SELF_APPROVAL');
     expect(refused.body.message).toMatch(/another supervisor/);
@@ -342,18 +385,74 @@ describe('machine profiles, versions and kerf records', () => {
     expect(ok.body.state).toBe('approved');
     // Drafted by a fabricator, submitted by a supervisor: that supervisor may not approve it either.
     const q = await createProfile();
-    const qs = (await act(secondSupervisor, q, q.latest, 'submit').expect(200)).body as VersionBody;
+    const qs = (
+      await act(secondSupervisor, q, q.latest, 'submit', { lockVersion: q.latest.lockVersion }).expect(200)
+    ).body as VersionBody;
     expectErrorBody(
-      (await act(secondSupervisor, q, qs, 'approve').expect(403)).body,
+      (await act(secondSupervisor, q, qs, 'approve', { lockVersion: qs.lockVersion }).expect(403)).body,
       403,
       'MACHINE_PROFILE.SELF_APPROVAL',
     );
-    await act('supervisor', q, qs, 'approve').expect(200);
+    await act('supervisor', q, qs, 'approve', { lockVersion: qs.lockVersion }).expect(200);
+  });
+
+  it('keeps four eyes on edits: a supervisor who edited a draft or adopted a kerf into it cannot approve it (403)', async () => {
+    // Drafted and submitted by the fabricator, but a supervisor changed its settings in between.
+    const p = await createProfile();
+    const edited = await ctx.http
+      .patch(versionPath(p, p.latest))
+      .set(auth(secondSupervisor))
+      .send({ lockVersion: p.latest.lockVersion, settings: [laserSetting(plywood, 0.3)] })
+      .expect(200);
+    const sub = (
+      await act('fabricator', p, p.latest, 'submit', { lockVersion: edited.body.lockVersion }).expect(200)
+    ).body as VersionBody;
+    const refused = await act(secondSupervisor, p, sub, 'approve', { lockVersion: sub.lockVersion }).expect(
+      403,
+    );
+    expectErrorBody(refused.body, 403, 'MACHINE_PROFILE.SELF_APPROVAL');
+    expect(refused.body.message).toMatch(/You edited version 1/);
+    const still: { state: string }[] = await ctx.db.query(
+      `SELECT state FROM machine_profile_versions WHERE id = $1`,
+      [sub.id],
+    );
+    expect(still).toEqual([{ state: 'submitted' }]);
+    // A supervisor who only read it may approve it.
+    await act('supervisor', p, sub, 'approve', { lockVersion: sub.lockVersion }).expect(200);
+
+    // A kerf a supervisor adopted into the open draft is an edit too.
+    const q = (await approved({ settings: [laserSetting(plywood)] })).p;
+    const record = await kerfRecord(q, plywood, 0.17);
+    const fabricatorDraft = (
+      await ctx.http
+        .post(`/api/machine-profiles/${q.id}/versions`)
+        .set(auth('fabricator'))
+        .send({ notes: 'new batch' })
+        .expect(201)
+    ).body as VersionBody;
+    const adopted = (
+      await ctx.http
+        .post(`/api/machine-profiles/${q.id}/kerf-records/${record.id}/adopt`)
+        .set(auth(secondSupervisor))
+        .expect(201)
+    ).body as VersionBody;
+    expect(adopted.id).toBe(fabricatorDraft.id);
+    const qs = (
+      await act('fabricator', q, adopted, 'submit', { lockVersion: adopted.lockVersion }).expect(200)
+    ).body as VersionBody;
+    expectErrorBody(
+      (await act(secondSupervisor, q, qs, 'approve', { lockVersion: qs.lockVersion }).expect(403)).body,
+      403,
+      'MACHINE_PROFILE.SELF_APPROVAL',
+    );
+    await act('supervisor', q, qs, 'approve', { lockVersion: qs.lockVersion }).expect(200);
   });
 
   it('mails every active supervisor when a version is submitted, and the submitter when it is sent back', async () => {
     const p = await createProfile({ name: unique('Mail test laser') });
-    await act('fabricator', p, p.latest, 'submit').expect(200);
+    const sub = (
+      await act('fabricator', p, p.latest, 'submit', { lockVersion: p.latest.lockVersion }).expect(200)
+    ).body as VersionBody;
     const submittedMails = await mailsAbout(p.name);
     expect(submittedMails).toHaveLength(1);
     const mail = submittedMails[0]!;
@@ -363,7 +462,10 @@ describe('machine profiles, versions and kerf records', () => {
     expect(mail.text).toContain(`/machine-profiles/${p.id}`);
     expect(mail.html).toContain('<p>');
 
-    await act('supervisor', p, p.latest, 'return', { reason: 'Add the acrylic settings too' }).expect(200);
+    await act('supervisor', p, sub, 'return', {
+      lockVersion: sub.lockVersion,
+      reason: 'Add the acrylic settings too',
+    }).expect(200);
     const all = await mailsAbout(p.name);
     const back = all.find((m) => m.subject.startsWith('Machine profile sent back'))!;
     expect(back.to).toEqual([users.fabricator.email]);
@@ -498,7 +600,7 @@ describe('machine profiles, versions and kerf records', () => {
           hazardNote: 'This batch is extruded with an unknown coating',
         })
         .expect(200);
-      const res = await act('supervisor', p, v, 'approve').expect(409);
+      const res = await act('supervisor', p, v, 'approve', { lockVersion: v.lockVersion }).expect(409);
       expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
       const rows: { state: string }[] = await ctx.db.query(
         `SELECT state FROM machine_profile_versions WHERE id = $1`,
@@ -622,7 +724,7 @@ describe('machine profiles, versions and kerf records', () => {
       expect(approvedNow.settings.find((s) => s.materialId === plywood)!.kerfMm).toBe(0.15);
 
       // While the draft awaits approval, nothing more can be adopted.
-      await act('fabricator', p, again, 'submit').expect(200);
+      await act('fabricator', p, again, 'submit', { lockVersion: again.lockVersion }).expect(200);
       const pending = await ctx.http
         .post(`/api/machine-profiles/${p.id}/kerf-records/${r1.id}/adopt`)
         .set(auth('fabricator'))
@@ -691,6 +793,29 @@ describe('machine profiles, versions and kerf records', () => {
         .expect(404);
       expectErrorBody(res.body, 404, 'KERF_RECORD.NOT_FOUND');
     });
+
+    it('refuses a laser kerf for a material that may not be cut on a laser (409, as preparation), writing nothing', async () => {
+      // PVC gives off hydrogen chloride under a beam (safety/material-hazards.json).
+      const laser = await createProfile();
+      const router = await createProfile({ kind: 'cnc-router', settings: [routerSetting(plywood)] });
+      const before = await countRows(ctx, 'kerf_records');
+      for (const who of ['operator', 'fabricator', 'supervisor'] as const) {
+        const res = await ctx.http
+          .post(`/api/machine-profiles/${laser.id}/kerf-records`)
+          .set(auth(who))
+          .send({ materialId: pvc, kerfMm: 0.2 })
+          .expect(409);
+        expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+        expect(res.body.message).toMatch(/may not be cut on a laser/);
+      }
+      expect(await countRows(ctx, 'kerf_records')).toBe(before);
+      // A router cuts PVC: its measured cut width is kept.
+      await ctx.http
+        .post(`/api/machine-profiles/${router.id}/kerf-records`)
+        .set(auth('operator'))
+        .send({ materialId: pvc, kerfMm: 3.2 })
+        .expect(201);
+    });
   });
 
   it('refuses to delete a material a machine profile uses', async () => {
@@ -706,7 +831,7 @@ describe('machine profiles, versions and kerf records', () => {
     const other = await createProfile();
     const nf = await ctx.http.get(`/api/machine-profiles/${randomUUID()}`).set(auth('hobbyist')).expect(404);
     expectErrorBody(nf.body, 404, 'MACHINE_PROFILE.NOT_FOUND');
-    const wrong = await act('fabricator', p, other.latest, 'submit').expect(404);
+    const wrong = await act('fabricator', p, other.latest, 'submit', { lockVersion: 1 }).expect(404);
     expectErrorBody(wrong.body, 404, 'MACHINE_PROFILE.VERSION_NOT_FOUND');
   });
 

@@ -178,15 +178,24 @@ describe('role matrix: every route × every role', () => {
   }
   const versionPath = (p: Profile, action = '') =>
     `/api/machine-profiles/${p.id}/versions/${p.latest.id}${action ? `/${action}` : ''}`;
+  /** The profile with its latest version as it is now (submit and approve need the lockVersion read). */
   async function submitted(): Promise<Profile> {
     const p = await profile();
-    await ctx.http.post(versionPath(p, 'submit')).set(auth(users.fabricator)).send({}).expect(200);
-    return p;
+    const res = await ctx.http
+      .post(versionPath(p, 'submit'))
+      .set(auth(users.fabricator))
+      .send({ lockVersion: p.latest.lockVersion })
+      .expect(200);
+    return { ...p, latest: res.body as Profile['latest'] };
   }
   async function approved(): Promise<Profile> {
     const p = await submitted();
-    await ctx.http.post(versionPath(p, 'approve')).set(auth(users.supervisor)).send({}).expect(200);
-    return p;
+    const res = await ctx.http
+      .post(versionPath(p, 'approve'))
+      .set(auth(users.supervisor))
+      .send({ lockVersion: p.latest.lockVersion })
+      .expect(200);
+    return { ...p, latest: res.body as Profile['latest'] };
   }
   async function kerfRecord(p: Profile): Promise<string> {
     const res = await ctx.http
@@ -386,23 +395,40 @@ describe('role matrix: every route × every role', () => {
       route: 'POST /api/machine-profiles/:id/versions/:versionId/submit',
       expect: roles('fabricator'),
       audited: true,
-      arrange: async () => ({ method: 'post', path: versionPath(await profile(), 'submit'), body: {} }),
+      arrange: async () => {
+        const p = await profile();
+        return {
+          method: 'post',
+          path: versionPath(p, 'submit'),
+          body: { lockVersion: p.latest.lockVersion },
+        };
+      },
     },
     {
       route: 'POST /api/machine-profiles/:id/versions/:versionId/approve',
       expect: roles(),
       audited: true,
-      arrange: async () => ({ method: 'post', path: versionPath(await submitted(), 'approve'), body: {} }),
+      arrange: async () => {
+        const p = await submitted();
+        return {
+          method: 'post',
+          path: versionPath(p, 'approve'),
+          body: { lockVersion: p.latest.lockVersion },
+        };
+      },
     },
     {
       route: 'POST /api/machine-profiles/:id/versions/:versionId/return',
       expect: roles(),
       audited: true,
-      arrange: async () => ({
-        method: 'post',
-        path: versionPath(await submitted(), 'return'),
-        body: { reason: 'Power too high for acrylic' },
-      }),
+      arrange: async () => {
+        const p = await submitted();
+        return {
+          method: 'post',
+          path: versionPath(p, 'return'),
+          body: { lockVersion: p.latest.lockVersion, reason: 'Power too high for acrylic' },
+        };
+      },
     },
     {
       route: 'POST /api/machine-profiles/:id/versions/:versionId/retire',
@@ -555,7 +581,14 @@ describe('role matrix: every route × every role', () => {
       route: 'POST /api/jobs/:id/cut',
       expect: owned(403, { fabricator: 403 }),
       audited: true,
-      arrange: jobAction('released', 'cut', () => ({ actualMinutes: 18, sheetsUsed: 1 })),
+      // Whoever may record the cut has acknowledged the job's safety notices (recording needs it).
+      arrange: async (caller) => {
+        const call = await jobAction('released', 'cut', () => ({ actualMinutes: 18, sheetsUsed: 1 }))();
+        if (caller === 'operator' || caller === 'supervisor') {
+          await acknowledge(ctx, users[caller], call.path.split('/')[3]!);
+        }
+        return call;
+      },
     },
     {
       route: 'POST /api/jobs/:id/close',

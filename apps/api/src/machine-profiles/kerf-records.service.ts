@@ -4,7 +4,9 @@ import { DataSource, type EntityManager } from 'typeorm';
 import { type KerfRecordView, type MachineProfileVersionView, type Page } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { AppError, notFound } from '../common/errors';
+import { sameId } from '../common/pipes/parse-id.pipe';
 import { Material } from '../materials/material.entity';
+import { MaterialsService } from '../materials/materials.service';
 import { type CreateKerfRecordDto } from './dto/create-kerf-record.dto';
 import { type ListKerfRecordsQueryDto } from './dto/list-machine-profiles.query';
 import { KerfRecord, MachineProfile } from './machine-profile.entity';
@@ -18,6 +20,7 @@ export class KerfRecordsService {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly profiles: MachineProfilesService,
+    private readonly materials: MaterialsService,
   ) {}
 
   async record(actor: ProfileActor, profileId: string, dto: CreateKerfRecordDto): Promise<KerfRecordView> {
@@ -35,8 +38,21 @@ export class KerfRecordsService {
       const material = await manager.findOneBy(Material, { id: dto.materialId });
       if (!material) errors.push({ field: 'materialId', messages: ['no such material'] });
       if (dto.jobId !== undefined) {
-        const jobs: unknown[] = await manager.query(`SELECT 1 FROM jobs WHERE id = $1`, [dto.jobId]);
-        if (jobs.length === 0) errors.push({ field: 'jobId', messages: ['no such job'] });
+        // A measurement of a job's cut belongs to the machine and material that job was prepared with.
+        const jobs: { material_id: string | null; profile_id: string | null }[] = await manager.query(
+          `SELECT j.material_id, v.profile_id
+             FROM jobs j LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
+            WHERE j.id = $1`,
+          [dto.jobId],
+        );
+        const job = jobs[0];
+        if (!job) errors.push({ field: 'jobId', messages: ['no such job'] });
+        else if (!sameId(job.profile_id, profileId) || !sameId(job.material_id, dto.materialId)) {
+          errors.push({
+            field: 'jobId',
+            messages: ['the job was not prepared with this machine profile and this material'],
+          });
+        }
       }
       if (errors.length) {
         throw new AppError(
@@ -46,6 +62,8 @@ export class KerfRecordsService {
           errors,
         );
       }
+      // A material that may not be cut on a laser gets no laser kerf (the check and answer of preparation).
+      await this.materials.assertUsableOn(manager, dto.materialId, profile.kind);
       const saved = await manager.save(
         KerfRecord,
         manager.create(KerfRecord, {

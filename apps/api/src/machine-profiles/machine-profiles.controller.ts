@@ -1,15 +1,4 @@
-import {
-  Body,
-  Controller,
-  Get,
-  HttpCode,
-  Param,
-  ParseUUIDPipe,
-  Patch,
-  Post,
-  Query,
-  Req,
-} from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Param, Patch, Post, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiConflictResponse,
@@ -28,6 +17,7 @@ import {
 } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
+import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { CreateMachineProfileDto } from './dto/create-machine-profile.dto';
 import { ListMachineProfilesQueryDto } from './dto/list-machine-profiles.query';
 import {
@@ -37,13 +27,14 @@ import {
 } from './dto/machine-profile.response';
 import {
   CreateProfileVersionDto,
+  ProfileDecisionDto,
   ProfileTransitionDto,
   ReturnProfileVersionDto,
   UpdateProfileVersionDto,
 } from './dto/profile-version-requests.dto';
 import { MachineProfilesService, type ProfileActor } from './machine-profiles.service';
 
-const uuid = new ParseUUIDPipe();
+const uuid = new ParseIdPipe();
 const actorOf = (user: AuthUser, req: unknown): ProfileActor => ({
   id: user.id,
   displayName: user.displayName,
@@ -148,7 +139,7 @@ export class MachineProfilesController {
     @CurrentUser() user: AuthUser,
     @Param('id', uuid) id: string,
     @Param('versionId', uuid) versionId: string,
-    @Body() dto: ProfileTransitionDto,
+    @Body() dto: ProfileDecisionDto,
     @Req() req: unknown,
   ): Promise<MachineProfileVersionView> {
     return this.profiles.submit(actorOf(user, req), id, versionId, dto);
@@ -157,7 +148,7 @@ export class MachineProfilesController {
   @Post(':id/versions/:versionId/approve')
   @ApiOperation({
     summary:
-      'submitted → approved (a supervisor other than the version’s drafter and submitter); the previously approved version is retired',
+      'submitted → approved (a supervisor who neither drafted, edited nor submitted the version); the previously approved version is retired',
   })
   @Roles('supervisor')
   @HttpCode(200)
@@ -167,14 +158,14 @@ export class MachineProfilesController {
   })
   @ApiForbiddenResponse({
     description:
-      'AUTH.FORBIDDEN: supervisors only; MACHINE_PROFILE.SELF_APPROVAL: the caller drafted or submitted this version (four-eyes rule)',
+      'AUTH.FORBIDDEN: supervisors only; MACHINE_PROFILE.SELF_APPROVAL: the caller drafted, edited or submitted this version (four-eyes rule)',
   })
   @ApiConflictResponse({ description: 'MACHINE_PROFILE.INVALID_STATE or MACHINE_PROFILE.STALE_VERSION' })
   approve(
     @CurrentUser() user: AuthUser,
     @Param('id', uuid) id: string,
     @Param('versionId', uuid) versionId: string,
-    @Body() dto: ProfileTransitionDto,
+    @Body() dto: ProfileDecisionDto,
     @Req() req: unknown,
   ): Promise<MachineProfileVersionView> {
     return this.profiles.approve(actorOf(user, req), id, versionId, dto);

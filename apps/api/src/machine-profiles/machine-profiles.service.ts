@@ -27,6 +27,7 @@ import { type CreateMachineProfileDto } from './dto/create-machine-profile.dto';
 import { type ListMachineProfilesQueryDto } from './dto/list-machine-profiles.query';
 import {
   type CreateProfileVersionDto,
+  type ProfileDecisionDto,
   type ProfileTransitionDto,
   type ReturnProfileVersionDto,
   type UpdateProfileVersionDto,
@@ -226,7 +227,7 @@ export class MachineProfilesService {
     actor: ProfileActor,
     profileId: string,
     versionId: string,
-    dto: ProfileTransitionDto,
+    dto: ProfileDecisionDto,
   ): Promise<MachineProfileVersionView> {
     return this.versionStep('submit', profileId, versionId, dto, async (manager, profile, v) => {
       if (v.settings.length === 0) {
@@ -267,15 +268,18 @@ export class MachineProfilesService {
     actor: ProfileActor,
     profileId: string,
     versionId: string,
-    dto: ProfileTransitionDto,
+    dto: ProfileDecisionDto,
   ): Promise<MachineProfileVersionView> {
     return this.versionStep('approve', profileId, versionId, dto, async (manager, profile, v) => {
-      // Four eyes: whoever drafted or submitted the version cannot also approve it.
-      if (v.createdBy === actor.id || v.submittedBy === actor.id) {
+      // Four eyes: whoever wrote any of the version's content (drafted it, edited it, adopted a kerf into it)
+      // or submitted it cannot also approve it.
+      const part = await this.authorship(manager, v, actor.id);
+      if (part) {
         throw new AppError(
           HttpStatus.FORBIDDEN,
           `${AREA}.SELF_APPROVAL`,
-          `You ${v.submittedBy === actor.id ? 'submitted' : 'drafted'} version ${v.number}, so another supervisor must approve it (four-eyes rule)`,
+          `You ${part} version ${v.number}, so another supervisor must approve it (four-eyes rule)`,
+          { versionId: v.id, part },
         );
       }
       // Materials may have changed since the version was submitted (e.g. marked not laser-allowed).
@@ -384,6 +388,30 @@ export class MachineProfilesService {
       this.expect(v, from, dto.lockVersion, what);
       return this.view(manager, await change(manager, profile, v));
     });
+  }
+
+  /**
+   * What the user had to do with a version's content, from the version's columns and its audit trail (every
+   * write of a version records an audit event in its transaction): 'submitted', 'edited', 'drafted', or null.
+   */
+  private async authorship(
+    manager: EntityManager,
+    v: MachineProfileVersion,
+    userId: string,
+  ): Promise<'submitted' | 'edited' | 'drafted' | null> {
+    if (v.submittedBy === userId) return 'submitted';
+    const rows: { action: string }[] = await manager.query(
+      `SELECT DISTINCT action FROM audit_events
+        WHERE entity_type = 'machine-profile-version' AND entity_id = $1 AND actor_id = $2
+          AND action IN ('machine-profile-version.create', 'machine-profile-version.update',
+                         'machine-profile-version.submit')`,
+      [v.id, userId],
+    );
+    const actions = new Set(rows.map((r) => r.action));
+    if (actions.has('machine-profile-version.submit')) return 'submitted';
+    if (actions.has('machine-profile-version.update')) return 'edited';
+    if (v.createdBy === userId || actions.has('machine-profile-version.create')) return 'drafted';
+    return null;
   }
 
   // ---- helpers shared with kerf records ---------------------------------------------------------

@@ -27,6 +27,7 @@ export class UpdateProfileVersionDto
   lockVersion: number;
 }
 
+/** Retiring: optionally the lockVersion the client read (taking a version out of use is never held up). */
 export class ProfileTransitionDto implements ProfileTransitionRequest {
   @ApiPropertyOptional({ minimum: 1, description: 'The lockVersion the client read; a stale one gets 409' })
   @OptionalNotNull()
@@ -35,7 +36,21 @@ export class ProfileTransitionDto implements ProfileTransitionRequest {
   lockVersion?: number;
 }
 
-export class ReturnProfileVersionDto extends ProfileTransitionDto implements ReturnProfileVersionRequest {
+/**
+ * Submitting, approving or sending back a version: the lockVersion of the content the caller read is required,
+ * so nobody decides on content they never saw (400 without it, 409 when it is stale).
+ */
+export class ProfileDecisionDto implements ProfileTransitionRequest {
+  @ApiProperty({
+    minimum: 1,
+    description: 'The lockVersion of the version as the caller read it; a stale one gets 409',
+  })
+  @IsInt()
+  @Min(1)
+  lockVersion: number;
+}
+
+export class ReturnProfileVersionDto extends ProfileDecisionDto implements ReturnProfileVersionRequest {
   @ApiProperty({ maxLength: L.reasonLength, description: 'What must change before approval' })
   @Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value))
   @IsString()
