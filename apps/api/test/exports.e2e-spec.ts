@@ -2,7 +2,14 @@ import { createHash, randomUUID } from 'node:crypto';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { type ExportView } from '@kerfwright/contracts';
 import { OBJECT_STORAGE, type ObjectStorage } from '../src/storage/object-storage';
-import { acknowledge, approvedJob, auth, binary, pollExport } from './support/export-fixtures';
+import {
+  acknowledge,
+  approvedJob,
+  auth,
+  binary,
+  isolateExports,
+  pollExport,
+} from './support/export-fixtures';
 import { type S3Fake, startS3Fake } from './support/object-store';
 import { dropQueueKeys } from './support/queue-keys';
 import {
@@ -417,5 +424,134 @@ describe('cut-pack exports worked by separate worker processes', () => {
       expect(sha256((await download(ctx, p.operator, exportId, r.name)).body as Buffer)).toBe(r.sha256);
     }
     await stopWorker(second);
+  });
+});
+
+describe('cut packs whose job changes while they are built', () => {
+  let ctx: TestContext;
+  let w: WorkshopFixture;
+  let p: People;
+  let exportsEnv: { restore(): Promise<void> };
+  const saved: Record<string, string | undefined> = {};
+
+  beforeAll(async () => {
+    exportsEnv = isolateExports();
+    // A pause after each stored file, so the job can change while the pack is being stored.
+    saved.KW_EXPORT_STEP_DELAY_MS = process.env.KW_EXPORT_STEP_DELAY_MS;
+    process.env.KW_EXPORT_STEP_DELAY_MS = '400';
+    ctx = await startTestApp();
+    w = await createWorkshop(ctx);
+    p = await everyone(ctx);
+  });
+  afterAll(async () => {
+    await ctx?.app.close();
+    await exportsEnv?.restore();
+    if (saved.KW_EXPORT_STEP_DELAY_MS === undefined) delete process.env.KW_EXPORT_STEP_DELAY_MS;
+    else process.env.KW_EXPORT_STEP_DELAY_MS = saved.KW_EXPORT_STEP_DELAY_MS;
+  });
+
+  /** Releases the job (202) and waits until its files are being stored. */
+  async function releaseAndWaitForStoring(jobId: string): Promise<string> {
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    const res = await ctx.http
+      .post(`/api/jobs/${jobId}/release`)
+      .set(auth(p.fabricator))
+      .send({ version: job.body.version })
+      .expect(202);
+    const exportId = res.body.exportId as string;
+    // Past the build's share of the bar (60 %): the files are going up one at a time.
+    const storing = await pollExport(
+      ctx,
+      p.fabricator,
+      exportId,
+      (v) => v.progress > 60 || (v.state !== 'running' && v.state !== 'queued'),
+    );
+    expect(storing.state).toBe('running');
+    return exportId;
+  }
+
+  async function expectDiscarded(jobId: string, exportId: string, code: string): Promise<void> {
+    const view = await pollExport(
+      ctx,
+      p.fabricator,
+      exportId,
+      (v) => v.state === 'done' || v.state === 'failed',
+    );
+    expect(view).toMatchObject({ state: 'failed', errorCode: code, files: [] });
+    const rows: unknown[] = await ctx.db.query(`SELECT 1 FROM export_files WHERE export_id = $1`, [exportId]);
+    expect(rows).toHaveLength(0);
+    const storage = ctx.app.get<ObjectStorage>(OBJECT_STORAGE);
+    expect(await storage.list(`jobs/${jobId}/exports/${exportId}/`)).toEqual([]);
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.operator)).expect(200);
+    expect(job.body.transitions.filter((t: { action: string }) => t.action === 'release')).toHaveLength(0);
+    await acknowledge(ctx, p.operator, jobId);
+    for (const name of ['manifest.json', 'setup-sheet.pdf']) {
+      const res = await download(ctx, p.operator, exportId, name, 409);
+      expectErrorBody(JSON.parse(res.body.toString()), 409, 'EXPORT.NOT_DONE');
+    }
+  }
+
+  it('discards the pack of a job returned while it was built: failed, no files, the job not released', async () => {
+    const jobId = await approvedJob(ctx, w, p);
+    const exportId = await releaseAndWaitForStoring(jobId);
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    expect(job.body.state).toBe('approved');
+    await ctx.http
+      .post(`/api/jobs/${jobId}/return`)
+      .set(auth(p.fabricator))
+      .send({ version: job.body.version, reason: 'Wrong colours on the rack' })
+      .expect(200);
+    await expectDiscarded(jobId, exportId, 'EXPORT.JOB_CHANGED');
+    const after = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    expect(after.body.state).toBe('returned');
+  });
+
+  it('discards the pack of a job whose material was taken off the laser while it was built', async () => {
+    const jobId = await approvedJob(ctx, w, p);
+    const exportId = await releaseAndWaitForStoring(jobId);
+    // PVC releases hydrogen chloride under a beam (safety/material-hazards.json): the job's material becomes it.
+    await ctx.db.query(
+      `UPDATE materials SET family = 'pvc', laser_allowed = false, hazard_note = $2 WHERE id = $1`,
+      [w.acrylicId, 'releases hydrogen chloride when cut with a beam'],
+    );
+    try {
+      await expectDiscarded(jobId, exportId, 'MATERIAL.LASER_PROHIBITED');
+      const after = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+      expect(after.body.state).toBe('approved');
+    } finally {
+      await ctx.db.query(
+        `UPDATE materials SET family = 'acrylic', laser_allowed = true, hazard_note = '' WHERE id = $1`,
+        [w.acrylicId],
+      );
+    }
+  });
+
+  it('serves files only for a job released to the machines (or cut and closed since)', async () => {
+    const jobId = await approvedJob(ctx, w, p);
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    const res = await ctx.http
+      .post(`/api/jobs/${jobId}/release`)
+      .set(auth(p.fabricator))
+      .send({ version: job.body.version })
+      .expect(202);
+    const view = await pollExport(
+      ctx,
+      p.fabricator,
+      res.body.exportId as string,
+      (v) => v.state === 'done' || v.state === 'failed',
+      90000,
+    );
+    expect(view.state).toBe('done');
+    await acknowledge(ctx, p.operator, jobId);
+    const name = view.files.find((f) => f.role === 'manifest')!.name;
+    await download(ctx, p.operator, view.id, name, 200);
+    // Had the job been put back before release (a state no route leads to from here), its files stay shut.
+    await ctx.db.query(`UPDATE jobs SET state = 'approved' WHERE id = $1`, [jobId]);
+    try {
+      const refused = await download(ctx, p.operator, view.id, name, 409);
+      expectErrorBody(JSON.parse(refused.body.toString()), 409, 'EXPORT.JOB_NOT_RELEASED');
+    } finally {
+      await ctx.db.query(`UPDATE jobs SET state = 'released' WHERE id = $1`, [jobId]);
+    }
   });
 });

@@ -9,7 +9,7 @@ import {
   type TestContext,
   type TestUser,
 } from './support/test-app';
-import { isolateExports, releaseJob } from './support/export-fixtures';
+import { acknowledge, isolateExports, releaseJob } from './support/export-fixtures';
 import { createWorkshop, octahedronHexagons, type WorkshopFixture } from './support/workshop-fixtures';
 
 jest.setTimeout(90000);
@@ -93,6 +93,7 @@ describe('jobs through their states', () => {
     expect(prepared.body.profileVersionId).toBe(w.laserVersionId);
     await act(users.supervisor, job.id, 'approve');
     await releaseJob(ctx, users.fabricator, job.id);
+    await acknowledge(ctx, users.operator, job.id);
     const cut = await act(users.operator, job.id, 'cut', {
       actualMinutes: 22.5,
       sheetsUsed: 1,
@@ -132,6 +133,7 @@ describe('jobs through their states', () => {
       'export.request',
       'export.done',
       'job.release',
+      'safety.acknowledge',
       'job.cut',
       'job.close',
     ]);
@@ -456,8 +458,16 @@ describe('jobs through their states', () => {
     await act(users.hobbyist, job.id, 'request');
     const bad = await act(users.fabricator, job.id, 'return', { reason: '' }, 400);
     expect(bad.body.details[0].field).toBe('reason');
+    // White space is no reason: trimmed, at least 3 characters must be left.
+    for (const reason of ['     ', ' \t\n ', '  ok  ']) {
+      const blank = await act(users.fabricator, job.id, 'return', { reason }, 400);
+      expectErrorBody(blank.body, 400, 'VALIDATION.FAILED');
+      expect(blank.body.details[0].field).toBe('reason');
+    }
+    const still = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.fabricator)).expect(200);
+    expect(still.body.state).toBe('requested');
     const returned = await act(users.fabricator, job.id, 'return', {
-      reason: 'Pieces too small for 3 mm acrylic',
+      reason: '   Pieces too small for 3 mm acrylic  ',
     });
     expect(returned.body).toMatchObject({
       state: 'returned',
@@ -469,6 +479,214 @@ describe('jobs through their states', () => {
     });
     const reopened = await act(users.hobbyist, job.id, 'reopen');
     expect(reopened.body.state).toBe('draft');
+  });
+
+  /** A job of its own workshop (so a material can be changed without touching other tests) taken to `until`. */
+  async function jobInOwnWorkshop(
+    until: 'prepared' | 'approved' | 'released',
+    materialOf = (x: WorkshopFixture) => x.cardId,
+  ) {
+    const own = await createWorkshop(ctx);
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', {
+      materialId: materialOf(own),
+      profileVersionId: own.laserVersionId,
+      colours: ['clear'],
+    });
+    if (until !== 'prepared') await act(users.supervisor, job.id, 'approve');
+    if (until === 'released') await releaseJob(ctx, users.fabricator, job.id);
+    return { own, jobId: job.id };
+  }
+  /** Changes a material's family to PVC through the materials route, as a fabricator would by mistake. */
+  async function makePvc(materialId: string) {
+    const m = await ctx.http.get(`/api/materials/${materialId}`).set(auth(users.fabricator)).expect(200);
+    const res = await ctx.http
+      .patch(`/api/materials/${materialId}`)
+      .set(auth(users.fabricator))
+      .send({ version: m.body.version, family: 'pvc' })
+      .expect(200);
+    expect(res.body.laserAllowed).toBe(false);
+  }
+  /** The refusal preparing a job with this material on this laser gives now (the message to match). */
+  async function preparationRefusal(own: WorkshopFixture, materialId: string) {
+    const fresh = await draftJob();
+    await act(users.hobbyist, fresh.id, 'request');
+    const res = await act(
+      users.fabricator,
+      fresh.id,
+      'prepare',
+      { materialId, profileVersionId: own.laserVersionId, colours: [] },
+      409,
+    );
+    expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    return res.body.message as string;
+  }
+
+  it('refuses to approve a job whose material was taken off the laser after preparation, as preparation would', async () => {
+    const { own, jobId } = await jobInOwnWorkshop('prepared');
+    await makePvc(own.cardId);
+    const res = await act(users.supervisor, jobId, 'approve', {}, 409);
+    expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    // The same code and message as preparing with that material now.
+    expect(res.body.message).toBe(await preparationRefusal(own, own.cardId));
+    expect(res.body.message).toMatch(/hydrogen chloride/);
+    const after = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.fabricator)).expect(200);
+    expect(after.body.state).toBe('prepared');
+  });
+
+  it('refuses to release or re-export an approved job whose material was taken off the laser, queueing nothing', async () => {
+    const { own, jobId } = await jobInOwnWorkshop('approved');
+    await makePvc(own.cardId);
+    const exportsBefore = await countRows(ctx, 'exports');
+    const released = await act(users.fabricator, jobId, 'release', {}, 409);
+    expectErrorBody(released.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    expect(released.body.message).toBe(await preparationRefusal(own, own.cardId));
+    const exported = await ctx.http
+      .post(`/api/jobs/${jobId}/exports`)
+      .set(auth(users.fabricator))
+      .expect(409);
+    expectErrorBody(exported.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    expect(await countRows(ctx, 'exports')).toBe(exportsBefore);
+    const after = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.fabricator)).expect(200);
+    expect(after.body.state).toBe('approved');
+  });
+
+  it('stops a released job whose material was taken off the laser: no downloads, no re-export, no cut, no laser kerf', async () => {
+    const { own, jobId } = await jobInOwnWorkshop('released');
+    const [exp] = (await ctx.http.get(`/api/jobs/${jobId}/exports`).set(auth(users.operator)).expect(200))
+      .body as { id: string; files: { name: string; role: string }[] }[];
+    await acknowledge(ctx, users.operator, jobId);
+    const file = exp!.files[0]!.name;
+    await ctx.http.get(`/api/exports/${exp!.id}/files/${file}`).set(auth(users.operator)).expect(200);
+    await makePvc(own.cardId);
+    // The notices of the job change with its material: acknowledge the current ones, then still no files.
+    await acknowledge(ctx, users.operator, jobId);
+    for (const name of exp!.files.map((f) => f.name)) {
+      const res = await ctx.http
+        .get(`/api/exports/${exp!.id}/files/${name}`)
+        .set(auth(users.operator))
+        .expect(409);
+      expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    }
+    const guide = exp!.files.find((f) => f.role === 'assembly-guide')!.name;
+    await ctx.http.get(`/api/exports/${exp!.id}/files/${guide}`).set(auth(users.hobbyist)).expect(409);
+    const again = await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(users.fabricator)).expect(409);
+    expectErrorBody(again.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    const kerfBefore = await countRows(ctx, 'kerf_records');
+    const cut = await act(
+      users.operator,
+      jobId,
+      'cut',
+      { actualMinutes: 9, sheetsUsed: 1, measuredKerfMm: 0.2 },
+      409,
+    );
+    expectErrorBody(cut.body, 409, 'MATERIAL.LASER_PROHIBITED');
+    expect(await countRows(ctx, 'kerf_records')).toBe(kerfBefore);
+    const after = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.operator)).expect(200);
+    expect(after.body.state).toBe('released');
+  });
+
+  it('lets only someone who acknowledged the job’s current safety notices record its cut (409 otherwise)', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    await releaseJob(ctx, users.fabricator, job.id);
+    await acknowledge(ctx, users.operator, job.id);
+    // A second operator, who never acknowledged, and a supervisor, who did not either.
+    const second = await createUser(ctx, 'operator');
+    for (const u of [second, users.supervisor]) {
+      const res = await act(u, job.id, 'cut', { actualMinutes: 12, sheetsUsed: 1, measuredKerfMm: 0.2 }, 409);
+      expectErrorBody(res.body, 409, 'SAFETY.ACKNOWLEDGEMENT_REQUIRED');
+      expect(res.body.message).toMatch(/Acknowledge the current safety notices for this job/);
+    }
+    const kerf: unknown[] = await ctx.db.query(`SELECT 1 FROM kerf_records WHERE job_id = $1`, [job.id]);
+    expect(kerf).toHaveLength(0);
+    // New local rules make the first operator's acknowledgement stale as well.
+    await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(users.supervisor))
+      .send({ body: 'Rules for the cut test' })
+      .expect(200);
+    expectErrorBody(
+      (await act(users.operator, job.id, 'cut', { actualMinutes: 12, sheetsUsed: 1 }, 409)).body,
+      409,
+      'SAFETY.ACKNOWLEDGEMENT_REQUIRED',
+    );
+    await acknowledge(ctx, second, job.id);
+    const done = await act(second, job.id, 'cut', { actualMinutes: 12, sheetsUsed: 1 });
+    expect(done.body.state).toBe('cut');
+  });
+
+  it('keeps a job’s kerf record to the machine and material the job was prepared with', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    const other = await createWorkshop(ctx);
+    const before = await countRows(ctx, 'kerf_records');
+    for (const [profileId, materialId] of [
+      [w.laserProfileId, w.cardId], // the job's machine, another material
+      [other.laserProfileId, w.acrylicId], // the job's material, another machine
+    ] as const) {
+      const res = await ctx.http
+        .post(`/api/machine-profiles/${profileId}/kerf-records`)
+        .set(auth(users.operator))
+        .send({ materialId, kerfMm: 0.18, jobId: job.id })
+        .expect(400);
+      expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+      expect(res.body.details).toEqual([
+        {
+          field: 'jobId',
+          messages: ['the job was not prepared with this machine profile and this material'],
+        },
+      ]);
+    }
+    expect(await countRows(ctx, 'kerf_records')).toBe(before);
+    await ctx.http
+      .post(`/api/machine-profiles/${w.laserProfileId.toUpperCase()}/kerf-records`)
+      .set(auth(users.operator))
+      .send({ materialId: w.acrylicId.toUpperCase(), kerfMm: 0.18, jobId: job.id.toUpperCase() })
+      .expect(201);
+  });
+
+  it('queues no cut pack for a cut or closed job (409), only for an approved or released one', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    await releaseJob(ctx, users.fabricator, job.id);
+    await acknowledge(ctx, users.operator, job.id);
+    await act(users.operator, job.id, 'cut', { actualMinutes: 20, sheetsUsed: 1 });
+    const before = await countRows(ctx, 'exports');
+    for (const step of ['cut', 'closed']) {
+      if (step === 'closed') await act(users.operator, job.id, 'close');
+      const res = await ctx.http.post(`/api/jobs/${job.id}/exports`).set(auth(users.fabricator)).expect(409);
+      expectErrorBody(res.body, 409, 'EXPORT.JOB_NOT_READY');
+      expect(res.body.details).toMatchObject({ state: step });
+    }
+    expect(await countRows(ctx, 'exports')).toBe(before);
+  });
+
+  it('refuses a stock sheet the machine’s bed cannot hold either way round (409); a turned sheet that fits is fine', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    // The fixture's laser bed is 1000 × 600 mm.
+    for (const sheet of [
+      { widthMm: 3000, heightMm: 3000 },
+      { widthMm: 1001, heightMm: 500 },
+      { widthMm: 700, heightMm: 700 },
+    ]) {
+      const res = await act(users.fabricator, job.id, 'prepare', { ...prepareBody(), sheet }, 409);
+      expectErrorBody(res.body, 409, 'JOB.SHEET_LARGER_THAN_BED');
+      expect(res.body.details).toEqual({ sheet, bed: { widthMm: 1000, heightMm: 600 } });
+    }
+    const turned = await act(users.fabricator, job.id, 'prepare', {
+      ...prepareBody(),
+      sheet: { widthMm: 600, heightMm: 1000 },
+    });
+    expect(turned.body.state).toBe('prepared');
+    expect(turned.body.preparation.sheet).toMatchObject({ widthMm: 600, heightMm: 1000 });
   });
 
   it('sends mail to the right people on request, approval, release and return', async () => {
@@ -497,6 +715,7 @@ describe('jobs through their states', () => {
       (m) => m.subject.startsWith('Job returned') && m.text.includes('Needs a thicker stock'),
     );
     expect(ret?.to).toEqual([users.other.email]);
+    expect(ret?.text).toMatch(/Reason given: \S/);
   });
 
   it('documents the response shapes of the designs and jobs routes at /api/docs', async () => {

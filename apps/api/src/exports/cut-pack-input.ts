@@ -1,11 +1,9 @@
 import { Injectable } from '@nestjs/common';
 import { type EntityManager } from 'typeorm';
-import { type CutPackInput, type MaterialFamily, noticeApplies } from '@kerfwright/contracts';
+import { type CutPackInput, type JobState, type MaterialFamily, noticeApplies } from '@kerfwright/contracts';
 import { Design } from '../designs/design.entity';
 import { Job } from '../jobs/job.entity';
-import { DEFAULT_GAP_MM, DEFAULT_MARGIN_MM } from '../jobs/job-preparation.service';
-import { MachineProfilesService } from '../machine-profiles/machine-profiles.service';
-import { Material } from '../materials/material.entity';
+import { DEFAULT_GAP_MM, DEFAULT_MARGIN_MM, JobPreparationService } from '../jobs/job-preparation.service';
 import { SafetyService } from '../safety/safety.service';
 import { User } from '../users/user.entity';
 import { ExportFailure } from './export-failure';
@@ -18,7 +16,7 @@ import { ExportFailure } from './export-failure';
 @Injectable()
 export class CutPackInputService {
   constructor(
-    private readonly profiles: MachineProfilesService,
+    private readonly preparation: JobPreparationService,
     private readonly safety: SafetyService,
   ) {}
 
@@ -28,18 +26,14 @@ export class CutPackInputService {
     if (!job.preparation || !job.materialId || !job.profileVersionId) {
       throw new ExportFailure('EXPORT.JOB_NOT_PREPARED', 'The job has no preparation to build files from');
     }
-    const version = await this.profiles.getApprovedVersion(job.profileVersionId, m).catch((err: unknown) => {
-      throw ExportFailure.from(err, 'EXPORT.PROFILE_NOT_APPROVED');
-    });
-    const material = await m.findOne(Material, { where: { id: job.materialId } });
-    if (!material) throw new ExportFailure('EXPORT.MATERIAL_GONE', 'The job’s material no longer exists');
-    const setting = version.settings.find((s) => s.materialId === material.id);
-    if (!setting) {
-      throw new ExportFailure(
-        'EXPORT.NO_MACHINE_SETTINGS',
-        `The machine profile version has no settings for ${material.name}`,
-      );
-    }
+    assertJobExportable(job);
+    // The machine and material pass preparation's checks again, now: an approved version with settings for
+    // the material, and a material still allowed on that kind of machine (MATERIAL.LASER_PROHIBITED else).
+    const { version, material, setting } = await this.preparation
+      .assertStillCuttable(m, job)
+      .catch((err: unknown) => {
+        throw ExportFailure.from(err, 'EXPORT.PROFILE_NOT_APPROVED');
+      });
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const requester = await m.findOne(User, { where: { id: job.requesterId } });
     const sheet = job.preparation.sheet;
@@ -87,5 +81,24 @@ export class CutPackInputService {
       archive: true,
       createdAt: createdAt.toISOString(),
     };
+  }
+}
+
+/**
+ * States of a job whose cut pack may be built: approved (the build releases it) or released (a re-export). A cut
+ * or closed job is done with the machine; a returned one is not to be cut.
+ */
+export const EXPORTABLE: readonly JobState[] = ['approved', 'released'];
+
+/**
+ * A cut pack is built only for an approved job (whose release it is) or a released one (a re-export): a job
+ * returned, cut or closed meanwhile gets no files (EXPORT.JOB_CHANGED, final).
+ */
+export function assertJobExportable(job: Pick<Job, 'state'>): void {
+  if (!EXPORTABLE.includes(job.state)) {
+    throw new ExportFailure(
+      'EXPORT.JOB_CHANGED',
+      `The job is ${job.state} now; a cut pack is built only for an approved or released job`,
+    );
   }
 }

@@ -13,9 +13,11 @@ import {
   type CutPackResult,
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
+import { Job } from '../jobs/job.entity';
+import { JobPreparationService } from '../jobs/job-preparation.service';
 import { JobsService } from '../jobs/jobs.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
-import { CutPackInputService } from './cut-pack-input';
+import { assertJobExportable, CutPackInputService } from './cut-pack-input';
 import { fileKey, isSafeFileName } from './export-keys';
 import { ExportFailure } from './export-failure';
 import { Export, ExportFile } from './export.entity';
@@ -55,6 +57,7 @@ export class ExportsProcessor implements OnApplicationBootstrap {
     @Inject(PACK_BUILDER) private readonly buildPack: PackBuilder,
     private readonly inputs: CutPackInputService,
     private readonly jobs: JobsService,
+    private readonly preparation: JobPreparationService,
     private readonly audit: AuditService,
   ) {}
 
@@ -116,7 +119,10 @@ export class ExportsProcessor implements OnApplicationBootstrap {
           this.logger.warn(`export ${exportId}: could not record failure: ${String(e)}`),
         );
       this.logger.warn(`export ${exportId} attempt ${bullJob.attemptsMade + 1} failed (${code}): ${message}`);
-      if (failure) await bullJob.discard();
+      if (failure) {
+        await bullJob.discard();
+        await this.discardObjects(exp);
+      }
       throw err;
     }
   }
@@ -192,6 +198,14 @@ export class ExportsProcessor implements OnApplicationBootstrap {
     requestId: string | null,
   ): Promise<void> {
     await this.dataSource.transaction(async (m) => {
+      // The job is locked first (as its state changes lock it), then checked as the build began: a job
+      // returned meanwhile, or a material taken off the laser, gets no files and is not released.
+      const job = await m.findOne(Job, { where: { id: exp.jobId }, lock: { mode: 'pessimistic_write' } });
+      if (!job) throw new ExportFailure('EXPORT.JOB_GONE', 'The job no longer exists');
+      assertJobExportable(job);
+      await this.preparation.assertStillCuttable(m, job).catch((err: unknown) => {
+        throw ExportFailure.from(err, 'EXPORT.PROFILE_NOT_APPROVED');
+      });
       const done = await this.returning<{ id: string }>(
         m,
         `UPDATE exports SET state = 'done', progress = 100, finished_at = now(), error_code = NULL,
@@ -212,6 +226,23 @@ export class ExportsProcessor implements OnApplicationBootstrap {
       });
       await this.jobs.releaseForExport(m, exp.jobId, exp.requestedBy, requestId);
     });
+  }
+
+  /**
+   * Deletes what the attempts of a failed export stored: files of a job that must not be cut as built (returned
+   * meanwhile, a material now prohibited) are not kept where anyone could reach them. Never a done export's.
+   */
+  private async discardObjects(exp: Export): Promise<void> {
+    try {
+      const state: { state: string }[] = await this.dataSource.query(
+        `SELECT state FROM exports WHERE id = $1`,
+        [exp.id],
+      );
+      if (state[0]?.state !== 'failed') return;
+      for (const o of await this.storage.list(exp.storagePrefix)) await this.storage.delete(o.key);
+    } catch (e) {
+      this.logger.warn(`export ${exp.id}: could not delete the files of the failed export: ${String(e)}`);
+    }
   }
 
   /** Rows of an UPDATE … RETURNING (TypeORM's postgres driver answers those with [rows, count]). */

@@ -7,22 +7,24 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { distinctUntilChanged, from, type Observable, switchMap, takeWhile, timer, map } from 'rxjs';
 import { DataSource, In } from 'typeorm';
-import { type ExportRequested, type ExportView, transitionFor } from '@kerfwright/contracts';
+import { type ExportRequested, type ExportView, type JobState, transitionFor } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
 import { withDeadline } from '../common/with-deadline';
 import { Job } from '../jobs/job.entity';
-import { canReadJob } from '../jobs/jobs.service';
+import { canReadJob } from '../jobs/job-access';
+import { JobPreparationService } from '../jobs/job-preparation.service';
 import { SafetyService } from '../safety/safety.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
+import { EXPORTABLE } from './cut-pack-input';
 import { exportPrefix, isSafeFileName } from './export-keys';
 import { Export, ExportFile } from './export.entity';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
 import { type ExportJobData } from './exports.processor';
 
-/** States of a job whose cut pack may be (re)built. */
-const EXPORTABLE = ['approved', 'released', 'cut', 'closed'];
+/** States of a job whose files may be downloaded: released to the machines, or cut and closed since. */
+const DOWNLOADABLE: readonly JobState[] = ['released', 'cut', 'closed'];
 /** What a hobbyist may download: the assembly guide of their own job, nothing else. */
 const HOBBYIST_ROLES = ['assembly-guide'];
 const POLL_MS = 500;
@@ -49,6 +51,7 @@ export class ExportsService {
     @Inject(exportsConfig.KEY) private readonly config: ConfigType<typeof exportsConfig>,
     private readonly safety: SafetyService,
     private readonly audit: AuditService,
+    private readonly preparation: JobPreparationService,
   ) {}
 
   /**
@@ -96,13 +99,19 @@ export class ExportsService {
       if (!job || !canReadJob(user, job)) throw notFound('JOB', 'No such job');
       check?.(job);
       if (!EXPORTABLE.includes(job.state)) {
+        const done = job.state === 'cut' || job.state === 'closed';
         throw new AppError(
           HttpStatus.CONFLICT,
           'EXPORT.JOB_NOT_READY',
-          `A ${job.state} job has no cut pack yet; it must be approved first`,
-          { state: job.state },
+          done
+            ? `A ${job.state} job gets no new cut pack; its files stay as they were released`
+            : `A ${job.state} job has no cut pack yet; it must be approved first`,
+          { state: job.state, allowed: EXPORTABLE },
         );
       }
+      // The files are built for the machine and material as prepared: both must pass preparation's checks
+      // now (409 MATERIAL.LASER_PROHIBITED for a material taken off the laser since, for instance).
+      await this.preparation.assertStillCuttable(m, job);
       const open = await m.findOne(Export, { where: { jobId, state: In(['queued', 'running']) } });
       if (open) return open;
       const id = randomUUID();
@@ -196,6 +205,18 @@ export class ExportsService {
     }
     const file = await this.dataSource.manager.findOne(ExportFile, { where: { exportId: id, name } });
     if (!file || (user.role === 'hobbyist' && !HOBBYIST_ROLES.includes(file.role))) throw missing();
+    // Files go to the machines only for a job released to them (or cut and closed since), and never for a
+    // material that may no longer be cut on the job's machine.
+    const job = await this.dataSource.manager.findOneOrFail(Job, { where: { id: exp.jobId } });
+    if (!DOWNLOADABLE.includes(job.state)) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'EXPORT.JOB_NOT_RELEASED',
+        `The job is ${job.state}; its files can be downloaded once it is released`,
+        { state: job.state, allowed: DOWNLOADABLE },
+      );
+    }
+    await this.preparation.assertMaterialAllowed(this.dataSource.manager, job);
     let stored;
     try {
       stored = await this.storage.get(file.storageKey);

@@ -5,13 +5,19 @@ import {
   type DesignSpec,
   type DesignSpecInput,
   type JobPreparation,
+  type MachineProfileKind,
+  type MaterialView,
+  type ProfileSetting,
   toMachineSpec,
 } from '@kerfwright/contracts';
 import { clashingColourNames, SolidError, SpecValidationError } from '@kerfwright/geometry';
 import { type PreparedJob } from '@kerfwright/geometry/worker';
 import { AuditService } from '../audit/audit.service';
 import { AppError } from '../common/errors';
-import { MachineProfilesService } from '../machine-profiles/machine-profiles.service';
+import {
+  type ApprovedProfileVersion,
+  MachineProfilesService,
+} from '../machine-profiles/machine-profiles.service';
 import { MaterialsService } from '../materials/materials.service';
 import { badSolid, invalidSpec } from '../designs/design-engine';
 import { GeometryThreads } from '../geometry/geometry-threads';
@@ -39,16 +45,7 @@ export class JobPreparationService {
     job: Job,
     dto: PrepareJobDto,
   ): Promise<{ spec: DesignSpec; colours: string[]; preparation: JobPreparation }> {
-    const version = await this.profiles.getApprovedVersion(dto.profileVersionId, m);
-    const material = await this.materials.assertUsableOn(m, dto.materialId, version.kind);
-    const setting = version.settings.find((s) => s.materialId === material.id);
-    if (!setting) {
-      throw new AppError(
-        HttpStatus.CONFLICT,
-        'JOB.NO_MACHINE_SETTINGS',
-        `The machine profile has no settings for ${material.name}; add them to a new profile version first`,
-      );
-    }
+    const { version, material, setting } = await this.machineFor(m, dto.profileVersionId, dto.materialId);
     const offered = material.colours;
     const colours = dto.colours.length > 0 ? dto.colours : offered.slice(0, 1);
     const unknown = colours.filter((c) => offered.length > 0 && !offered.includes(c));
@@ -75,6 +72,17 @@ export class JobPreparationService {
         HttpStatus.CONFLICT,
         'JOB.NO_STOCK_SHEET',
         `${material.name} has no stock sheet size; give one`,
+      );
+    }
+    // The layout is made on the sheet, and the machine must reach all of it: a sheet the bed cannot hold
+    // either way round would put pieces where the head never goes.
+    const bed = { widthMm: version.bedWidthMm, heightMm: version.bedHeightMm };
+    if (!sheetFitsBed(sheet, bed)) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.SHEET_LARGER_THAN_BED',
+        `A ${sheet.widthMm} × ${sheet.heightMm} mm sheet does not fit the ${bed.widthMm} × ${bed.heightMm} mm bed of ${version.profileName} either way round; choose a sheet the bed can hold`,
+        { sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm }, bed },
       );
     }
     const thicknessMm = material.measuredThicknessMm ?? material.nominalThicknessMm;
@@ -145,9 +153,63 @@ export class JobPreparationService {
     return { spec, colours, preparation: summary };
   }
 
-  /** The version must exist and be approved right now. */
-  async assertProfileVersionUsable(m: EntityManager, versionId: string): Promise<void> {
-    await this.profiles.getApprovedVersion(versionId, m);
+  /**
+   * The machine and material a job is cut with, checked as preparation checks them: the profile version
+   * approved right now, the material usable on its kind of machine (a laser never gets a material the hazard
+   * table or the material itself now refuses, whatever the version's settings still name: 409
+   * MATERIAL.LASER_PROHIBITED), and the version's settings for that material.
+   */
+  async machineFor(
+    m: EntityManager,
+    profileVersionId: string,
+    materialId: string,
+  ): Promise<{ version: ApprovedProfileVersion; material: MaterialView; setting: ProfileSetting }> {
+    const version = await this.profiles.getApprovedVersion(profileVersionId, m);
+    const material = await this.materials.assertUsableOn(m, materialId, version.kind);
+    const setting = version.settings.find((s) => s.materialId === material.id);
+    if (!setting) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.NO_MACHINE_SETTINGS',
+        `The machine profile has no settings for ${material.name}; add them to a new profile version first`,
+      );
+    }
+    return { version, material, setting };
+  }
+
+  /**
+   * For approval, release and every cut-pack build: the prepared job's machine and material pass the checks of
+   * preparation again, now (a material may have been taken off the laser since, a version retired).
+   */
+  async assertStillCuttable(
+    m: EntityManager,
+    job: Pick<Job, 'profileVersionId' | 'materialId'>,
+  ): Promise<{ version: ApprovedProfileVersion; material: MaterialView; setting: ProfileSetting }> {
+    if (!job.profileVersionId || !job.materialId) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.NOT_PREPARED',
+        'The job has no material and machine profile yet; prepare it first',
+      );
+    }
+    return this.machineFor(m, job.profileVersionId, job.materialId);
+  }
+
+  /**
+   * For downloads and recording the cut, where the version may since have been retired: the job's material
+   * must still be allowed on its kind of machine (409 MATERIAL.LASER_PROHIBITED otherwise).
+   */
+  async assertMaterialAllowed(
+    m: EntityManager,
+    job: Pick<Job, 'profileVersionId' | 'materialId'>,
+  ): Promise<void> {
+    if (!job.profileVersionId || !job.materialId) return;
+    const rows: { kind: MachineProfileKind }[] = await m.query(
+      `SELECT p.kind FROM machine_profile_versions v JOIN machine_profiles p ON p.id = v.profile_id WHERE v.id = $1`,
+      [job.profileVersionId],
+    );
+    const kind = rows[0]?.kind;
+    if (kind) await this.materials.assertUsableOn(m, job.materialId, kind);
   }
 
   /** Keeps the kerf measured on a job's cut in the profile's kerf history (audited like any write). */
@@ -202,4 +264,15 @@ export function fitSearchSpec(
       ? { colours: { count: stock.colourCount, ...(stock.colourRule ? { rule: stock.colourRule } : {}) } }
       : {}),
   };
+}
+
+/** Whether a sheet lies on the bed one way round or the other (a sheet may be turned by a quarter). */
+export function sheetFitsBed(
+  sheet: { widthMm: number; heightMm: number },
+  bed: { widthMm: number; heightMm: number },
+): boolean {
+  return (
+    (sheet.widthMm <= bed.widthMm && sheet.heightMm <= bed.heightMm) ||
+    (sheet.widthMm <= bed.heightMm && sheet.heightMm <= bed.widthMm)
+  );
 }

@@ -5,6 +5,7 @@ import { GeometryModule } from '../geometry/geometry.module';
 import { MachineProfilesModule } from '../machine-profiles/machine-profiles.module';
 import { MaterialsModule } from '../materials/materials.module';
 import { mailConfig } from '../mail/mail.config';
+import { SafetyModule } from '../safety/safety.module';
 import { Job, JobTransition } from './job.entity';
 import { JobMailer } from './job-mailer';
 import { JobPreparationService } from './job-preparation.service';
@@ -17,10 +18,11 @@ import { JobsService } from './jobs.service';
     ConfigModule.forFeature(mailConfig),
     MachineProfilesModule,
     MaterialsModule,
+    SafetyModule,
     GeometryModule,
   ],
   controllers: [JobsController],
   providers: [JobsService, JobPreparationService, JobMailer],
-  exports: [JobsService],
+  exports: [JobsService, JobPreparationService],
 })
 export class JobsModule {}

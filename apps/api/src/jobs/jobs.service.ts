@@ -19,7 +19,9 @@ import { pageWindow, sortOrder } from '../common/paging';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { canReadDesign } from '../designs/designs.service';
 import { Design } from '../designs/design.entity';
+import { SafetyService } from '../safety/safety.service';
 import { type CreateJobDto, type ListJobsQuery, type PrepareJobDto, type RecordCutDto } from './dto/job.dto';
+import { canReadJob } from './job-access';
 import { Job, JobTransition } from './job.entity';
 import { JobMailer } from './job-mailer';
 import { JobPreparationService } from './job-preparation.service';
@@ -156,13 +158,6 @@ function jobActionsFor(
   return preparerId === user.id ? actions.filter((a) => a !== 'approve') : actions.slice();
 }
 
-/** Staff see every job that has left the draft stage; everyone sees their own. */
-export function canReadJob(user: AuthUser, job: Pick<Job, 'requesterId' | 'state'>): boolean {
-  if (job.requesterId === user.id) return true;
-  if (user.role === 'hobbyist') return false;
-  return job.state !== 'draft' || user.role === 'supervisor';
-}
-
 /** The jobs list's statement texts by shape (their values are parameters; sort columns come from SORT_COLUMNS). */
 const LIST_STATEMENTS = new Map<string, string>();
 
@@ -173,6 +168,7 @@ export class JobsService {
     private readonly audit: AuditService,
     private readonly preparation: JobPreparationService,
     private readonly mailer: JobMailer,
+    private readonly safety: SafetyService,
   ) {}
 
   /**
@@ -307,13 +303,26 @@ export class JobsService {
           { preparedBy: user.id },
         );
       }
-      // The profile version must still be approved when the job is.
-      if (job.profileVersionId) await this.preparation.assertProfileVersionUsable(m, job.profileVersionId);
+      // Machine and material must pass preparation's checks still: the profile version approved, and the
+      // material not taken off the laser since (409 MATERIAL.LASER_PROHIBITED).
+      await this.preparation.assertStillCuttable(m, job);
     });
   }
 
   recordCut(user: AuthUser, id: string, dto: RecordCutDto, req: unknown) {
     return this.transition(user, id, 'cut', dto.version, req, async (m, job) => {
+      // Whoever records the cut answers for it: they must have acknowledged the job's current safety
+      // notices, as a download needs, and the material must still be allowed on the machine.
+      const safety = await this.safety.forJob(user, job.id, m);
+      if (!safety.acknowledged) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'SAFETY.ACKNOWLEDGEMENT_REQUIRED',
+          'Acknowledge the current safety notices for this job before recording its cut',
+          { jobId: job.id },
+        );
+      }
+      await this.preparation.assertMaterialAllowed(m, job);
       job.actualMinutes = dto.actualMinutes;
       job.sheetsUsed = dto.sheetsUsed;
       job.measuredKerfMm = dto.measuredKerfMm ?? null;

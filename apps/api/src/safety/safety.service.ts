@@ -15,7 +15,7 @@ import {
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
-import { canReadJob } from '../jobs/jobs.service';
+import { canReadJob } from '../jobs/job-access';
 
 interface NoticeRow {
   notice_key: string;
