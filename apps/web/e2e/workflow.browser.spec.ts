@@ -52,7 +52,7 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
 
     // A field error blocks the preview's input, not the page: 2 sides is no polygon.
     await page.getByLabel('Sides (n)').fill('2');
-    await page.getByText('At least 3 sides').waitFor();
+    await page.getByText('At least 3 sides', { exact: true }).waitFor();
     await page.getByLabel('Sides (n)').fill('6');
     await page
       .getByTestId('report-valid')
