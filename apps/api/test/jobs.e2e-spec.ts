@@ -53,6 +53,16 @@ describe('jobs through their states', () => {
       .expect(201);
     return j.body as { id: string; version: number; state: string };
   }
+  /** A job taken through the workshop to released, whose files the operator's acknowledgement opened. */
+  async function releasedAndAcknowledged() {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    await releaseJob(ctx, users.fabricator, job.id);
+    await acknowledge(ctx, users.operator, job.id);
+    return job;
+  }
   async function act(
     u: TestUser,
     id: string,
@@ -588,12 +598,7 @@ describe('jobs through their states', () => {
   });
 
   it('lets only someone who acknowledged the job’s current safety notices record its cut (409 otherwise)', async () => {
-    const job = await draftJob();
-    await act(users.hobbyist, job.id, 'request');
-    await act(users.fabricator, job.id, 'prepare', prepareBody());
-    await act(users.supervisor, job.id, 'approve');
-    await releaseJob(ctx, users.fabricator, job.id);
-    await acknowledge(ctx, users.operator, job.id);
+    const job = await releasedAndAcknowledged();
     // A second operator, who never acknowledged, and a supervisor, who did not either.
     const second = await createUser(ctx, 'operator');
     for (const u of [second, users.supervisor]) {
@@ -651,12 +656,7 @@ describe('jobs through their states', () => {
   });
 
   it('queues no cut pack for a cut or closed job (409), only for an approved or released one', async () => {
-    const job = await draftJob();
-    await act(users.hobbyist, job.id, 'request');
-    await act(users.fabricator, job.id, 'prepare', prepareBody());
-    await act(users.supervisor, job.id, 'approve');
-    await releaseJob(ctx, users.fabricator, job.id);
-    await acknowledge(ctx, users.operator, job.id);
+    const job = await releasedAndAcknowledged();
     await act(users.operator, job.id, 'cut', { actualMinutes: 20, sheetsUsed: 1 });
     const before = await countRows(ctx, 'exports');
     for (const step of ['cut', 'closed']) {
