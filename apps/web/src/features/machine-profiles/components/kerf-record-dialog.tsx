@@ -24,10 +24,11 @@ export function KerfRecordDialog(
     formState: { errors },
   } = useForm<KerfRecordValues>({
     resolver: zodResolver(schema),
-    defaultValues: { materialId: props.defaultMaterialId, kerfMm: Number.NaN, notes: '' },
+    // The measured value starts undefined: NaN would be written into the number input as the text "NaN".
+    defaultValues: { materialId: props.defaultMaterialId, notes: '' },
   });
   useEffect(() => {
-    if (props.open) reset({ materialId: props.defaultMaterialId, kerfMm: Number.NaN, notes: '' });
+    if (props.open) reset({ materialId: props.defaultMaterialId, notes: '' });
   }, [props.open, props.defaultMaterialId, reset]);
   const router = props.kind === 'cnc-router';
   const submit = handleSubmit((v) => props.onSubmit(v));
