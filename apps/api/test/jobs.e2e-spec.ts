@@ -689,7 +689,7 @@ describe('jobs through their states', () => {
     expect(turned.body.preparation.sheet).toMatchObject({ widthMm: 600, heightMm: 1000 });
   });
 
-  it('sends mail to the right people on request, approval, release and return', async () => {
+  it('sends mail to the right people on request, preparation, approval, release and return', async () => {
     catcher.messages.length = 0;
     const job = await draftJob();
     await act(users.hobbyist, job.id, 'request');
@@ -698,6 +698,12 @@ describe('jobs through their states', () => {
     expect(requested?.to).toContain(users.fabricator.email);
     expect(requested?.to).not.toContain(users.hobbyist.email);
     await act(users.fabricator, job.id, 'prepare', prepareBody());
+    mails = await mailsSent();
+    const prepared = mails.find(
+      (m) => m.subject.startsWith('Job prepared, waiting for approval') && m.text.includes(job.id),
+    );
+    expect(prepared?.to).toContain(users.supervisor.email);
+    expect(prepared?.to).not.toContain(users.hobbyist.email);
     await act(users.supervisor, job.id, 'approve');
     await releaseJob(ctx, users.fabricator, job.id);
     mails = await mailsSent();

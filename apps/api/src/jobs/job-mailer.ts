@@ -38,6 +38,24 @@ export class JobMailer {
         });
         return;
       }
+      case 'prepare': {
+        // Four eyes: a prepared job waits for a supervisor, who should hear of it as fabricators hear of
+        // requests.
+        const mail = composeMail(
+          `Job prepared, waiting for approval: ${title}`,
+          [
+            `The cut job for "${title}" (quantity ${job.quantity}) has been prepared and is waiting for approval.`,
+            'Check the material, the machine profile, the layout and the estimates, then approve it or send it back.',
+          ],
+          link,
+        );
+        await this.outbox.enqueue(m, {
+          kind: 'job.prepared',
+          to: await this.outbox.addressesOfRoles(m, ['supervisor']),
+          ...mail,
+        });
+        return;
+      }
       case 'approve':
       case 'release': {
         const verb = action === 'approve' ? 'approved' : 'released to the machines';
