@@ -450,15 +450,20 @@ describe('cut packs whose job changes while they are built', () => {
     else process.env.KW_EXPORT_STEP_DELAY_MS = saved.KW_EXPORT_STEP_DELAY_MS;
   });
 
-  /** Releases the job (202) and waits until its files are being stored. */
-  async function releaseAndWaitForStoring(jobId: string): Promise<string> {
+  /** Releases the job at its current version (202); returns the id of the export that builds its files. */
+  async function postRelease(jobId: string): Promise<string> {
     const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
     const res = await ctx.http
       .post(`/api/jobs/${jobId}/release`)
       .set(auth(p.fabricator))
       .send({ version: job.body.version })
       .expect(202);
-    const exportId = res.body.exportId as string;
+    return res.body.exportId as string;
+  }
+
+  /** Releases the job (202) and waits until its files are being stored. */
+  async function releaseAndWaitForStoring(jobId: string): Promise<string> {
+    const exportId = await postRelease(jobId);
     // Past the build's share of the bar (60 %): the files are going up one at a time.
     const storing = await pollExport(
       ctx,
@@ -528,16 +533,10 @@ describe('cut packs whose job changes while they are built', () => {
 
   it('serves files only for a job released to the machines (or cut and closed since)', async () => {
     const jobId = await approvedJob(ctx, w, p);
-    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
-    const res = await ctx.http
-      .post(`/api/jobs/${jobId}/release`)
-      .set(auth(p.fabricator))
-      .send({ version: job.body.version })
-      .expect(202);
     const view = await pollExport(
       ctx,
       p.fabricator,
-      res.body.exportId as string,
+      await postRelease(jobId),
       (v) => v.state === 'done' || v.state === 'failed',
       90000,
     );
