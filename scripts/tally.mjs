@@ -29,7 +29,9 @@ for (const name of fs.readdirSync(dir).sort()) {
         const failedTests = (file.assertionResults ?? []).filter((t) => t.status === 'failed');
         for (const t of failedTests) failures.push(`${suite}: ${where} > ${t.fullName ?? t.title}`);
         if (!failedTests.length && file.status === 'failed')
-          failures.push(`${suite}: ${where} (${(file.message ?? 'suite failed').split('\n')[0].slice(0, 200)})`);
+          failures.push(
+            `${suite}: ${where} (${(file.message ?? 'suite failed').split('\n')[0].slice(0, 200)})`,
+          );
       }
     } catch {
       p = 0;

@@ -452,14 +452,18 @@ describe('machine profiles, versions and kerf records', () => {
     const sub = (
       await act('fabricator', p, p.latest, 'submit', { lockVersion: p.latest.lockVersion }).expect(200)
     ).body as VersionBody;
+    // One message per supervisor, each addressed to that supervisor alone (nobody sees the others' addresses).
     const submittedMails = await mailsAbout(p.name);
-    expect(submittedMails).toHaveLength(1);
-    const mail = submittedMails[0]!;
-    expect(mail.subject).toMatch(/^Machine profile to review/);
-    expect(mail.to).toEqual(expect.arrayContaining([users.supervisor.email, secondSupervisor.email]));
-    expect(mail.to).not.toContain(users.fabricator.email);
-    expect(mail.text).toContain(`/machine-profiles/${p.id}`);
-    expect(mail.html).toContain('<p>');
+    const recipients = submittedMails.flatMap((m) => m.to);
+    expect(submittedMails.every((m) => m.to.length === 1)).toBe(true);
+    expect(new Set(recipients).size).toBe(recipients.length);
+    expect(recipients).toEqual(expect.arrayContaining([users.supervisor.email, secondSupervisor.email]));
+    expect(recipients).not.toContain(users.fabricator.email);
+    for (const mail of submittedMails) {
+      expect(mail.subject).toMatch(/^Machine profile to review/);
+      expect(mail.text).toContain(`/machine-profiles/${p.id}`);
+      expect(mail.html).toContain('<p>');
+    }
 
     await act('supervisor', p, sub, 'return', {
       lockVersion: sub.lockVersion,

@@ -1,5 +1,5 @@
 import path from 'node:path';
-import { type Locator, type Page } from 'playwright-core';
+import { type ConsoleMessage, type Locator, type Page } from 'playwright-core';
 import { BASE_URL, SCREENSHOT_DIR, signInToHome, openPagePerTest } from './browser';
 import { DEMO_PASSWORD, demoUser } from './demo-users';
 
@@ -54,6 +54,18 @@ async function waitingCard(): Promise<Locator> {
   return card;
 }
 
+/**
+ * Collects what Chromium says about number inputs given text it cannot parse (a form that writes NaN into an
+ * empty field shows the text "NaN" and gets "The specified value "NaN" cannot be parsed").
+ */
+function numberInputWarnings(): string[] {
+  const seen: string[] = [];
+  page.on('console', (m: ConsoleMessage) => {
+    if (/cannot be parsed/i.test(m.text())) seen.push(m.text());
+  });
+  return seen;
+}
+
 describe(`Materials, machine profiles, approvals and the audit trail, in Chromium at ${BASE_URL}`, () => {
   it('keeps the supervisor pages from a fabricator and the workshop pages from an operator', async () => {
     await signInToHome(page, demoUser('fabricator').email, DEMO_PASSWORD);
@@ -76,8 +88,14 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     await page.getByTestId('material-Cast acrylic 3 mm').waitFor();
     await shot('materials');
 
+    const warnings = numberInputWarnings();
     await page.getByRole('button', { name: 'Add a material' }).click();
     const dialog = page.getByRole('dialog', { name: 'Add a material' });
+    // Empty number fields are empty, not "NaN", also in a sheet-size row added later.
+    expect(await dialog.getByLabel('Nominal thickness (mm)').inputValue()).toBe('');
+    await dialog.getByRole('button', { name: 'Add a sheet size' }).click();
+    expect(await dialog.getByLabel('Width (mm)').nth(1).inputValue()).toBe('');
+    await dialog.getByRole('button', { name: 'Remove sheet size 2' }).click();
     await dialog.getByRole('button', { name: 'Add the material' }).click();
     await dialog.getByText('Give the material a name').waitFor();
     await dialog.getByText('Enter the nominal thickness in mm').waitFor();
@@ -105,6 +123,7 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     await shot('material-form');
     await dialog.getByRole('button', { name: 'Add the material' }).click();
     await dialog.waitFor({ state: 'detached' });
+    expect(warnings).toEqual([]);
 
     await page.getByRole('searchbox', { name: 'Search name or notes' }).fill(stamp);
     const row = page.getByTestId(`material-${materialName}`);
@@ -128,8 +147,11 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     await page.getByTestId('profile-CO2 laser, 60 W (laser room)').waitFor();
     await shot('machine-profiles');
 
+    const warnings = numberInputWarnings();
     await page.getByRole('button', { name: 'New machine profile' }).click();
     const dialog = page.getByRole('dialog', { name: 'New machine profile' });
+    expect(await dialog.getByLabel('Bed width (mm)').inputValue()).toBe('');
+    expect(warnings).toEqual([]);
     await dialog.getByRole('button', { name: 'Create as draft' }).click();
     await dialog.getByText('Give the profile a name').waitFor();
     await dialog.getByText('Enter the kerf').waitFor();

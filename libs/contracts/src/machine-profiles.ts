@@ -127,13 +127,21 @@ export interface UpdateProfileVersionRequest extends Partial<ProfileVersionConte
   lockVersion: number;
 }
 
-/** Body of submit / approve / retire: optionally the lockVersion the client read (stale → 409). */
+/** Body of retire: optionally the lockVersion the client read (stale → 409). */
 export interface ProfileTransitionRequest {
   lockVersion?: number;
 }
 
+/**
+ * Body of submit / approve: the lockVersion of the content the caller read, required so nobody decides on
+ * content they never saw (400 without it, 409 when stale).
+ */
+export interface ProfileDecisionRequest {
+  lockVersion: number;
+}
+
 /** Body of POST …/versions/:versionId/return. */
-export interface ReturnProfileVersionRequest extends ProfileTransitionRequest {
+export interface ReturnProfileVersionRequest extends ProfileDecisionRequest {
   reason: string;
 }
 

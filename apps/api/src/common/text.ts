@@ -13,3 +13,6 @@ export const NoControlCharacters = () =>
   Matches(ONE_LINE_TEXT, {
     message: ({ property }) => `${property} must not contain control characters or line breaks`,
   });
+
+/** "A draft", "An approved": the indefinite article a word takes in a sentence's first place (by its spelling). */
+export const withArticle = (word: string): string => `${/^[aeiou]/i.test(word) ? 'An' : 'A'} ${word}`;

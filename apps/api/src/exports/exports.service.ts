@@ -22,6 +22,7 @@ import { exportPrefix, isSafeFileName } from './export-keys';
 import { Export, ExportFile } from './export.entity';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
 import { type ExportJobData } from './exports.processor';
+import { withArticle } from '../common/text';
 
 /** States of a job whose files may be downloaded: released to the machines, or cut and closed since. */
 const DOWNLOADABLE: readonly JobState[] = ['released', 'cut', 'closed'];
@@ -68,7 +69,7 @@ export class ExportsService {
         throw new AppError(
           HttpStatus.CONFLICT,
           'JOB.ILLEGAL_TRANSITION',
-          `A ${job.state} job cannot be given "release"`,
+          `${withArticle(job.state)} job cannot be given "release"`,
           { state: job.state, action: 'release', allowedFrom: rule.from },
         );
       }
@@ -104,8 +105,8 @@ export class ExportsService {
           HttpStatus.CONFLICT,
           'EXPORT.JOB_NOT_READY',
           done
-            ? `A ${job.state} job gets no new cut pack; its files stay as they were released`
-            : `A ${job.state} job has no cut pack yet; it must be approved first`,
+            ? `${withArticle(job.state)} job gets no new cut pack; its files stay as they were released`
+            : `${withArticle(job.state)} job has no cut pack yet; it must be approved first`,
           { state: job.state, allowed: EXPORTABLE },
         );
       }

@@ -25,6 +25,7 @@ import { canReadJob } from './job-access';
 import { Job, JobTransition } from './job.entity';
 import { JobMailer } from './job-mailer';
 import { JobPreparationService } from './job-preparation.service';
+import { withArticle } from '../common/text';
 
 const SORT_COLUMNS: Record<string, string> = {
   createdAt: 'j.created_at',
@@ -387,7 +388,7 @@ export class JobsService {
         throw new AppError(
           HttpStatus.CONFLICT,
           'JOB.ILLEGAL_TRANSITION',
-          `A ${job.state} job cannot be given "${action}"`,
+          `${withArticle(job.state)} job cannot be given "${action}"`,
           {
             state: job.state,
             action,

@@ -12,7 +12,9 @@ export interface OutgoingMail {
 
 /**
  * Queues mail in the same transaction as the state change that causes it (a transactional outbox):
- * the change never waits for the mail server, and a rolled-back change sends nothing.
+ * the change never waits for the mail server, and a rolled-back change sends nothing. Each recipient gets a
+ * message of their own, so nobody learns the others' addresses (a member's request mail goes to every
+ * operator, and a job's mail to its requester and the operators).
  */
 @Injectable()
 export class MailOutboxService {
@@ -20,8 +22,10 @@ export class MailOutboxService {
     const to = [...new Set(mail.to.map((a) => a.trim()).filter(Boolean))];
     if (to.length === 0) return;
     await manager.query(
-      `INSERT INTO mail_outbox (recipients, subject, text_body, html_body, kind) VALUES ($1, $2, $3, $4, $5)`,
-      [JSON.stringify(to), mail.subject.slice(0, 200), mail.text, mail.html, mail.kind],
+      `INSERT INTO mail_outbox (recipients, subject, text_body, html_body, kind)
+       SELECT jsonb_build_array(address), $2, $3, $4, $5 FROM unnest($1::text[]) WITH ORDINALITY AS t(address, n)
+       ORDER BY n`,
+      [to, mail.subject.slice(0, 200), mail.text, mail.html, mail.kind],
     );
   }
 

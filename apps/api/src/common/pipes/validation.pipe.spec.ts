@@ -1,4 +1,5 @@
-import { assertCleanInput, MAX_INPUT_DEPTH } from './validation.pipe';
+import { IsRowVersion } from '../validation/row-version';
+import { assertCleanInput, createValidationPipe, MAX_INPUT_DEPTH } from './validation.pipe';
 
 const refusal = (value: unknown) => {
   try {
@@ -39,5 +40,42 @@ describe('request values checked before validation', () => {
     let ok: unknown = 1;
     for (let i = 0; i < MAX_INPUT_DEPTH; i++) ok = [ok];
     expect(refusal(ok)).toBeNull();
+  });
+});
+
+describe('validation messages', () => {
+  class VersionBody {
+    @IsRowVersion()
+    version!: number;
+  }
+  const pipe = createValidationPipe();
+  const details = async (body: unknown) => {
+    try {
+      await pipe.transform(body, { type: 'body', metatype: VersionBody });
+    } catch (err) {
+      return (err as { getResponse(): { details: { field: string; messages: string[] }[] } }).getResponse()
+        .details;
+    }
+    return null;
+  };
+
+  it('says a missing field is required, not every rule its absence breaks', async () => {
+    expect(await details({})).toEqual([{ field: 'version', messages: ['version is required'] }]);
+  });
+
+  it('refuses a version no integer column holds (1e308 is an integer to JavaScript)', async () => {
+    expect(await details({ version: 1e308 })).toEqual([
+      { field: 'version', messages: [expect.stringMatching(/must not be greater than 2147483647/)] },
+    ]);
+    expect(await details({ version: 0 })).toEqual([
+      { field: 'version', messages: [expect.stringMatching(/must not be less than 1/)] },
+    ]);
+    expect(await details({ version: 3 })).toBeNull();
+  });
+
+  it('names an unknown field as not allowed, even though its value is given', async () => {
+    expect(await details({ version: 3, extra: 1 })).toEqual([
+      { field: 'extra', messages: [expect.stringMatching(/should not exist/)] },
+    ]);
   });
 });

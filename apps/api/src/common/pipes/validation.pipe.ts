@@ -7,12 +7,18 @@ export const MAX_INPUT_DEPTH = 32;
 /** Keys that reach an object's prototype when copied onto another object (OWASP: prototype pollution). */
 const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
-/** Flattens nested class-validator errors into `{ field: 'a.b', messages }`. */
+/**
+ * Flattens nested class-validator errors into `{ field: 'a.b', messages }`. A required field that is missing
+ * gets the one message that helps ("is required"), not every rule its absent value breaks ("must not be less
+ * than 1; must be an integer number").
+ */
 export function toFieldErrors(errors: ValidationError[], prefix = ''): FieldError[] {
   const out: FieldError[] = [];
   for (const e of errors) {
     const field = prefix ? `${prefix}.${e.property}` : e.property;
-    if (e.constraints) out.push({ field, messages: Object.values(e.constraints) });
+    const missing = e.value === undefined && e.constraints && !('whitelistValidation' in e.constraints);
+    if (missing) out.push({ field, messages: [`${e.property} is required`] });
+    else if (e.constraints) out.push({ field, messages: Object.values(e.constraints) });
     if (e.children?.length) out.push(...toFieldErrors(e.children, field));
   }
   return out;

@@ -1,5 +1,5 @@
 import { ApiProperty, ApiPropertyOptional, OmitType } from '@nestjs/swagger';
-import { IsIn, IsInt, IsObject, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
+import { IsIn, IsObject, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
 import { PageQueryDto } from '../../common/paging';
 import { NoControlCharacters, Trimmed } from '../../common/text';
 import {
@@ -13,6 +13,7 @@ import {
   type DesignSpecInput,
   type UpdateDesignRequest,
 } from '@kerfwright/contracts';
+import { IsRowVersion } from '../../common/validation/row-version';
 
 const SPEC_DOC = {
   description:
@@ -60,8 +61,7 @@ export class UpdateDesignDto implements UpdateDesignRequest {
   @IsObject()
   spec?: DesignSpecInput;
   @ApiProperty({ description: 'The version you read; a stale one is refused with 409' })
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   version: number;
 }
 

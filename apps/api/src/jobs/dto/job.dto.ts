@@ -33,6 +33,7 @@ import {
 import { MAX_FIT_SHEETS } from '@kerfwright/geometry';
 import { PageQueryDto } from '../../common/paging';
 import { Trimmed } from '../../common/text';
+import { IsRowVersion } from '../../common/validation/row-version';
 
 export class CreateJobDto {
   @ApiProperty() @IsUUID() designId: string;
@@ -48,8 +49,7 @@ export class CreateJobDto {
 /** Every action names the job version the caller read, so concurrent actions cannot both win. */
 export class JobActionDto {
   @ApiProperty({ description: 'The job version you read; a stale one gets 409' })
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   version: number;
 }
 

@@ -1,15 +1,17 @@
 import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsInt, IsNotEmpty, IsString, MaxLength, Min } from 'class-validator';
+import { IsNotEmpty, IsString, MaxLength } from 'class-validator';
 import {
   type CreateProfileVersionRequest,
   MACHINE_PROFILE_LIMITS as L,
+  type ProfileDecisionRequest,
   type ProfileTransitionRequest,
   type ReturnProfileVersionRequest,
   type UpdateProfileVersionRequest,
 } from '@kerfwright/contracts';
 import { OptionalNotNull } from '../../materials/dto/optional';
 import { ProfileVersionContentDto } from './profile-version-content.dto';
+import { IsRowVersion } from '../../common/validation/row-version';
 
 /** Changes applied to a copy of the profile's latest version, giving a new draft. */
 export class CreateProfileVersionDto
@@ -22,8 +24,7 @@ export class UpdateProfileVersionDto
   implements UpdateProfileVersionRequest
 {
   @ApiProperty({ minimum: 1, description: 'The lockVersion the client read (optimistic locking)' })
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   lockVersion: number;
 }
 
@@ -31,8 +32,7 @@ export class UpdateProfileVersionDto
 export class ProfileTransitionDto implements ProfileTransitionRequest {
   @ApiPropertyOptional({ minimum: 1, description: 'The lockVersion the client read; a stale one gets 409' })
   @OptionalNotNull()
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   lockVersion?: number;
 }
 
@@ -40,13 +40,12 @@ export class ProfileTransitionDto implements ProfileTransitionRequest {
  * Submitting, approving or sending back a version: the lockVersion of the content the caller read is required,
  * so nobody decides on content they never saw (400 without it, 409 when it is stale).
  */
-export class ProfileDecisionDto implements ProfileTransitionRequest {
+export class ProfileDecisionDto implements ProfileDecisionRequest {
   @ApiProperty({
     minimum: 1,
     description: 'The lockVersion of the version as the caller read it; a stale one gets 409',
   })
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   lockVersion: number;
 }
 

@@ -1,7 +1,7 @@
 import { ApiProperty, PartialType } from '@nestjs/swagger';
-import { IsInt, Min } from 'class-validator';
 import { type UpdateMaterialRequest } from '@kerfwright/contracts';
 import { CreateMaterialDto } from './create-material.dto';
+import { IsRowVersion } from '../../common/validation/row-version';
 
 /** Fields to change, plus the version the client read (a stale version is refused with 409). */
 export class UpdateMaterialDto
@@ -9,7 +9,6 @@ export class UpdateMaterialDto
   implements UpdateMaterialRequest
 {
   @ApiProperty({ minimum: 1, description: 'The version the client read (optimistic locking)' })
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   version: number;
 }

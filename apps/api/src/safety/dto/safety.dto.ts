@@ -4,12 +4,10 @@ import {
   ArrayMaxSize,
   IsArray,
   IsIn,
-  IsInt,
   IsOptional,
   IsString,
   Matches,
   MaxLength,
-  Min,
   MinLength,
   ValidateIf,
   ValidateNested,
@@ -20,6 +18,7 @@ import {
   type MachineProfileKind,
   type MaterialFamily,
 } from '@kerfwright/contracts';
+import { IsRowVersion } from '../../common/validation/row-version';
 
 export class NoticeFilterQuery {
   @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
@@ -42,7 +41,7 @@ export class LocalRulesDto {
 
 export class NoticeVersionRefDto {
   @ApiProperty() @IsString() @Matches(/^[a-z0-9]+(-[a-z0-9]+)*$/) @MaxLength(80) id: string;
-  @ApiProperty() @IsInt() @Min(1) version: number;
+  @ApiProperty() @IsRowVersion() version: number;
 }
 
 export class AcknowledgeSafetyDto {
@@ -54,7 +53,6 @@ export class AcknowledgeSafetyDto {
   notices: NoticeVersionRefDto[];
   @ApiProperty({ nullable: true, type: Number })
   @ValidateIf((_o, v) => v !== null)
-  @IsInt()
-  @Min(1)
+  @IsRowVersion()
   localRulesVersion: number | null;
 }

@@ -36,6 +36,7 @@ import { RecordCutDialog } from '../components/record-cut-dialog';
 import { ReturnJobDialog } from '../components/return-job-dialog';
 import { SafetyDialog } from '../components/safety-dialog';
 import { countOf } from '../../../lib/plural';
+import { isBlankNumber } from '../../../lib/form-numbers';
 
 /** Actions that need more than a confirmation open their own dialog. */
 type Open = JobAction | 'safety' | null;
@@ -296,9 +297,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
             take('cut', {
               actualMinutes: v.actualMinutes,
               sheetsUsed: v.sheetsUsed,
-              ...(v.measuredKerfMm === undefined || Number.isNaN(v.measuredKerfMm)
-                ? {}
-                : { measuredKerfMm: v.measuredKerfMm }),
+              ...(isBlankNumber(v.measuredKerfMm) ? {} : { measuredKerfMm: v.measuredKerfMm }),
             })
           }
           onClose={() => setOpen(null)}

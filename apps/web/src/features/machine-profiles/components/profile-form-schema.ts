@@ -10,6 +10,7 @@ import {
   type ProfileVersionContent,
 } from '@kerfwright/contracts';
 import { z } from 'zod';
+import { EMPTY_NUMBER, isBlankNumber, optionalNumberField } from '../../../lib/form-numbers';
 
 const ranged = (label: string, range: { min: number; max: number }, unit: string) =>
   z
@@ -17,8 +18,8 @@ const ranged = (label: string, range: { min: number; max: number }, unit: string
     .min(range.min, `At least ${range.min}${unit}`)
     .max(range.max, `At most ${range.max}${unit}`);
 
-/** NaN = left empty; the kind decides whether the field is needed (checked in superRefine). */
-const optionalNumber = z.union([z.nan(), z.number()]);
+/** May be left empty; the kind decides whether the field is needed (checked in superRefine). */
+const optionalNumber = optionalNumberField();
 
 const settingSchema = z.object({
   materialId: z.string().min(1, 'Choose a material'),
@@ -72,12 +73,12 @@ export function profileFormSchema(materials: readonly MaterialView[] | undefined
             at('materialId', `${material.name} is kept off the laser`);
           }
           if (v.kind === 'cnc-router') {
-            if (Number.isNaN(s.toolDiameterMm)) at('toolDiameterMm', 'Enter the tool diameter');
+            if (isBlankNumber(s.toolDiameterMm)) at('toolDiameterMm', 'Enter the tool diameter');
             else if (s.toolDiameterMm < L.toolDiameterMm.min || s.toolDiameterMm > L.toolDiameterMm.max) {
               at('toolDiameterMm', `Between ${L.toolDiameterMm.min} and ${L.toolDiameterMm.max} mm`);
             }
             if (
-              !Number.isNaN(s.spindleRpm) &&
+              !isBlankNumber(s.spindleRpm) &&
               (!Number.isInteger(s.spindleRpm) ||
                 s.spindleRpm < L.spindleRpm.min ||
                 s.spindleRpm > L.spindleRpm.max)
@@ -87,11 +88,11 @@ export function profileFormSchema(materials: readonly MaterialView[] | undefined
             return;
           }
           const range = kerfRangeMm(v.kind);
-          if (Number.isNaN(s.kerfMm)) at('kerfMm', 'Enter the kerf');
+          if (isBlankNumber(s.kerfMm)) at('kerfMm', 'Enter the kerf');
           else if (s.kerfMm < range.min || s.kerfMm > range.max) {
             at('kerfMm', `Between ${range.min} and ${range.max} mm`);
           }
-          if (Number.isNaN(s.powerPct)) {
+          if (isBlankNumber(s.powerPct)) {
             if (isLaserKind(v.kind)) at('powerPct', 'Enter the power');
           } else if (s.powerPct < L.powerPct.min || s.powerPct > L.powerPct.max) {
             at('powerPct', `Between ${L.powerPct.min} and ${L.powerPct.max} %`);
@@ -107,17 +108,15 @@ export type ProfileFormValues = z.infer<ReturnType<typeof profileFormSchema>>;
 
 export const EMPTY_SETTING: SettingFormValues = {
   materialId: '',
-  kerfMm: Number.NaN,
-  toolDiameterMm: Number.NaN,
-  cutSpeedMmS: Number.NaN,
-  markSpeedMmS: Number.NaN,
-  powerPct: Number.NaN,
+  kerfMm: EMPTY_NUMBER,
+  toolDiameterMm: EMPTY_NUMBER,
+  cutSpeedMmS: EMPTY_NUMBER,
+  markSpeedMmS: EMPTY_NUMBER,
+  powerPct: EMPTY_NUMBER,
   passes: 1,
   pierceTimeS: 0,
-  spindleRpm: Number.NaN,
+  spindleRpm: EMPTY_NUMBER,
 };
-
-const orNaN = (n: number | undefined) => n ?? Number.NaN;
 
 /** Form values from a version (to start a new version from it, or to change a draft). */
 export function versionToFormValues(
@@ -135,14 +134,14 @@ export function versionToFormValues(
     notes: v.notes,
     settings: v.settings.map((s) => ({
       materialId: s.materialId,
-      kerfMm: orNaN(s.kerfMm),
-      toolDiameterMm: orNaN(s.toolDiameterMm),
+      kerfMm: s.kerfMm,
+      toolDiameterMm: s.toolDiameterMm,
       cutSpeedMmS: s.cutSpeedMmS,
       markSpeedMmS: s.markSpeedMmS,
-      powerPct: orNaN(s.powerPct),
+      powerPct: s.powerPct,
       passes: s.passes,
       pierceTimeS: s.pierceTimeS,
-      spindleRpm: orNaN(s.spindleRpm),
+      spindleRpm: s.spindleRpm,
     })),
   };
 }
@@ -150,10 +149,10 @@ export function versionToFormValues(
 export const EMPTY_PROFILE: ProfileFormValues = {
   name: '',
   kind: 'co2-laser',
-  bedWidthMm: Number.NaN,
-  bedHeightMm: Number.NaN,
-  rapidSpeedMmS: Number.NaN,
-  hourlyRate: Number.NaN,
+  bedWidthMm: EMPTY_NUMBER,
+  bedHeightMm: EMPTY_NUMBER,
+  rapidSpeedMmS: EMPTY_NUMBER,
+  hourlyRate: EMPTY_NUMBER,
   currency: 'EUR',
   notes: '',
   settings: [{ ...EMPTY_SETTING }],
@@ -179,10 +178,10 @@ export function toVersionContent(v: ProfileFormValues): ProfileVersionContent {
       };
       if (router) {
         out.toolDiameterMm = s.toolDiameterMm;
-        if (!Number.isNaN(s.spindleRpm)) out.spindleRpm = s.spindleRpm;
+        if (!isBlankNumber(s.spindleRpm)) out.spindleRpm = s.spindleRpm;
       } else {
         out.kerfMm = s.kerfMm;
-        if (!Number.isNaN(s.powerPct)) out.powerPct = s.powerPct;
+        if (!isBlankNumber(s.powerPct)) out.powerPct = s.powerPct;
       }
       return out;
     }),

@@ -23,6 +23,7 @@ import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import {
+  EMPTY_STOCK_SHEET,
   EMPTY_MATERIAL,
   type MaterialFormValues,
   materialFormSchema,
@@ -199,18 +200,7 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
           {errors.stockSheets?.message ? (
             <FormHelperText error>{errors.stockSheets.message}</FormHelperText>
           ) : null}
-          <Button
-            size="small"
-            sx={{ mt: 1 }}
-            onClick={() =>
-              sheets.append({
-                widthMm: Number.NaN,
-                heightMm: Number.NaN,
-                pricePerSheet: Number.NaN,
-                currency: 'EUR',
-              })
-            }
-          >
+          <Button size="small" sx={{ mt: 1 }} onClick={() => sheets.append({ ...EMPTY_STOCK_SHEET })}>
             Add a sheet size
           </Button>
         </Box>

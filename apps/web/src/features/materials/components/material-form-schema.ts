@@ -7,6 +7,7 @@ import {
   type MaterialView,
 } from '@kerfwright/contracts';
 import { z } from 'zod';
+import { EMPTY_NUMBER, isBlankNumber } from '../../../lib/form-numbers';
 
 const sheetSide = (label: string) =>
   z
@@ -53,8 +54,9 @@ export function materialFormSchema(hazards: readonly MaterialHazard[] | undefine
         .number({ error: 'Enter the nominal thickness in mm' })
         .min(L.thicknessMm.min, `At least ${L.thicknessMm.min} mm`)
         .max(L.thicknessMm.max, `At most ${L.thicknessMm.max} mm`),
-      /** NaN = not measured. */
+      /** Empty = not measured. */
       measuredThicknessMm: z.union([
+        z.undefined(),
         z.nan(),
         z
           .number()
@@ -105,14 +107,22 @@ export function materialFormSchema(hazards: readonly MaterialHazard[] | undefine
 
 export type MaterialFormValues = z.infer<ReturnType<typeof materialFormSchema>>;
 
+/** A new sheet size's row: nothing typed in yet. */
+export const EMPTY_STOCK_SHEET = {
+  widthMm: EMPTY_NUMBER,
+  heightMm: EMPTY_NUMBER,
+  pricePerSheet: EMPTY_NUMBER,
+  currency: 'EUR',
+};
+
 export const EMPTY_MATERIAL: MaterialFormValues = {
   name: '',
   family: 'plywood',
-  nominalThicknessMm: Number.NaN,
-  measuredThicknessMm: Number.NaN,
+  nominalThicknessMm: EMPTY_NUMBER,
+  measuredThicknessMm: EMPTY_NUMBER,
   flexible: false,
   colours: '',
-  stockSheets: [{ widthMm: Number.NaN, heightMm: Number.NaN, pricePerSheet: Number.NaN, currency: 'EUR' }],
+  stockSheets: [{ ...EMPTY_STOCK_SHEET }],
   laserAllowed: true,
   hazardNote: '',
   notes: '',
@@ -123,7 +133,7 @@ export function materialToFormValues(m: MaterialView): MaterialFormValues {
     name: m.name,
     family: m.family,
     nominalThicknessMm: m.nominalThicknessMm,
-    measuredThicknessMm: m.measuredThicknessMm ?? Number.NaN,
+    measuredThicknessMm: m.measuredThicknessMm ?? EMPTY_NUMBER,
     flexible: m.flexible,
     colours: m.colours.join(', '),
     stockSheets: m.stockSheets.map((s) => ({ ...s })),
@@ -139,7 +149,7 @@ export function toMaterialRequest(v: MaterialFormValues): CreateMaterialRequest 
     name: v.name.trim(),
     family: v.family,
     nominalThicknessMm: v.nominalThicknessMm,
-    measuredThicknessMm: Number.isNaN(v.measuredThicknessMm) ? null : v.measuredThicknessMm,
+    measuredThicknessMm: isBlankNumber(v.measuredThicknessMm) ? null : v.measuredThicknessMm,
     flexible: v.flexible,
     colours: splitColours(v.colours),
     stockSheets: v.stockSheets.map((s) => ({ ...s, currency: s.currency.trim() })),
