@@ -340,6 +340,44 @@ describe('nestParts — true shape', () => {
     expect(r.ok && r.totals.sheetCount).toBe(1);
   });
 
+  it('puts seven 190 mm {8/3} stars on a 600 × 400 sheet, where grids and lattices hold six, saving a sheet of twenty', () => {
+    // Stars of circumradius 95: their 3 × 2 grid of bounding boxes fills 590 × 390 (arithmetic: a fourth
+    // column needs 4 × 190 + 3 × 3 > 590, a third row 3 × 190 + 2 × 3 > 390), and the lattice and bottom-left
+    // fill also put six on a sheet: twenty need four sheets. Interlocked near the edges, seven fit (found by
+    // the overlap search; checked here with polygon-clipping): three sheets.
+    const input: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 5,
+      gapMm: 3,
+      parts: [{ id: 's83', outline: star(8, 3, 95), quantity: 20 }],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(3);
+    expect(firstSheetCount(r)).toBe(7);
+    expect(r.ok && r.totals.groups[0]!.method).toMatch(/overlap search/);
+  });
+
+  it('lays slotted stars that differ in their slots seven to a sheet on their common envelope, in two colours', () => {
+    const base = star(8, 3, 96);
+    const parts = Array.from({ length: 28 }, (_, k) => ({
+      id: `S${k + 1}`,
+      outline: moved(withSlot(base, 2 * (k % 8), 3.2, 30), 45 * k + 10, 5 * k, -3 * k),
+      envelope: moved(base, 45 * k + 10, 5 * k, -3 * k),
+      quantity: 1,
+      group: k % 2 === 0 ? 'red' : 'blue',
+    }));
+    const input: NestInput = { sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3, parts };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    // 14 per colour: two sheets each at seven a sheet (three at six).
+    expect(r.ok && r.totals.sheetsByGroup).toEqual({ red: 2, blue: 2 });
+    expect(r.ok && r.totals.groups.map((g) => g.method)).toEqual([
+      expect.stringMatching(/overlap search, 7 per sheet/),
+      expect.stringMatching(/overlap search, 7 per sheet/),
+    ]);
+  });
+
   it('lays pieces that differ only in their notches on one lattice of their common envelope', () => {
     // Equilateral triangles of side 100 (our own test shape) with 3.2 mm notches on one, two or three of their
     // edges, as a model's pieces differ by where their slots are: 14 copies of each of the three, given

@@ -19,6 +19,10 @@
  *    are topped up with more copies by bottom-left fill; the last, partial sheet of a part is either the
  *    lattice's left-most slots or bottom-left fill of the copies left, whichever leaves the longer offcut; the
  *    other parts are added by bottom-left fill into the gaps and onto new sheets.
+ * A group of one shape (one class of copies, or one envelope covering every class) whose sheets hold at most
+ * 16 copies is then tried with an overlap search (overlap.ts): with few large pieces the sheet's edges decide,
+ * and a layout of one or more extra copies that interlock near them can save a sheet. Its plan is kept only
+ * when it uses fewer sheets; what it finds is shared by all groups of the shape.
  * No-fit polygons are built on simplified outlines that contain the true ones (notches narrower than about
  * twice the gap closed; the convex hull for convex-ish pieces), and pieces whose simplified outlines are
  * congruent share them up to a shift (nfpOutline and GeometryCache in variants.ts): slotted pieces of one model
@@ -40,6 +44,7 @@ import {
   type SheetFrame,
   type SheetState,
 } from './bottom-left';
+import { denserSheet } from './overlap';
 import { bestPattern } from './pattern';
 import { cleanPolygon, isSimplePolygon, signedArea, toCounterClockwise, type Point } from './polygon';
 import {
@@ -472,6 +477,88 @@ function patternPlan(
   return { sheets: r.sheets, method: `pattern (${labels.join('; ')})` };
 }
 
+/**
+ * A group of one shape whose sheets hold at most this many copies is tried with the overlap search
+ * (overlap.ts): with few large pieces the sheet's edges decide, and neither lattices nor bottom-left fill see
+ * the interlocking layouts that fit one more. With more per sheet the lattice is close to the best anyway.
+ */
+const DENSE_MAX_PER_SHEET = 16;
+/** Work limit of one overlap search (pair evaluations; about 0.3 s on the bench machine). */
+const DENSE_WORK = 200_000;
+
+/**
+ * What the overlap search found per shape (part index), shared by all groups: its fullest sheet, and the count
+ * it failed to reach (a search for more copies would fail there again, since it raises the count one at a time).
+ */
+export type DenseLayouts = Map<number, { layout: PlacedItem[]; failedAt: number | null }>;
+
+/**
+ * A plan for a group whose copies are all of one shape (a class, or an envelope covering every class of the
+ * group) with fewer sheets than `best`: the overlap search looks for a sheet holding enough copies to save a
+ * sheet; full sheets repeat that layout, the last takes its left-most copies or bottom-left fill of the
+ * copies left, whichever leaves the longer offcut. Null when no such layout is found.
+ */
+function denserPlan(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  group: string,
+  shape: PreparedPart,
+  best: GroupPlan,
+  dense: DenseLayouts,
+): GroupPlan | null {
+  const n = shape.quantity;
+  const sheetsNow = best.sheets.length;
+  if (sheetsNow < 2) return null;
+  const most = Math.max(...best.sheets.map((s) => s.items.length));
+  if (most > DENSE_MAX_PER_SHEET) return null;
+  const target = Math.ceil(n / (sheetsNow - 1));
+  const usable =
+    Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
+  if (target <= most || target * shape.areaMm2 > usable) return null;
+  let known = dense.get(shape.index);
+  if (!known || (known.layout.length < target && known.failedAt === null)) {
+    const rotations = [...new Set([...shape.patternRotationsDeg, ...shape.rotationsDeg])];
+    const variants = rotations.map((d) => cache.variant(shape.index, d));
+    const start = known?.layout ?? [];
+    const found = denserSheet(cache, frame, variants, start, { targetCount: target, workLimit: DENSE_WORK });
+    const layout = found ?? start;
+    known = { layout, failedAt: layout.length < target ? layout.length + 1 : null };
+    dense.set(shape.index, known);
+  }
+  const layout = known.layout;
+  if (layout.length < target) return null;
+  const m = layout.length;
+  const sheets: SheetState[] = [];
+  const sheetOf = (items: readonly PlacedItem[]): SheetState => ({
+    group,
+    items: items.map((it) => ({ ...it })),
+    usedAreaMm2: items.length * shape.areaMm2,
+    method: 'true-shape',
+  });
+  for (let left = n; left > 0; left -= m) {
+    if (left >= m) {
+      sheets.push(sheetOf(layout));
+      continue;
+    }
+    const byRightEdge = [...layout].sort(
+      (a, b) => a.tx + a.variant.ubounds.maxX - (b.tx + b.variant.ubounds.maxX),
+    );
+    const prefix = sheetOf(byRightEdge.slice(0, left));
+    const variants = shape.rotationsDeg.map((d) => cache.variant(shape.index, d));
+    const bl = bottomLeftFill(
+      cache,
+      frame,
+      group,
+      Array.from({ length: left }, () => variants),
+      [],
+      'left',
+    );
+    const alt = bl.failed === null && bl.sheets.length === 1 ? bl.sheets[0]! : null;
+    sheets.push(alt && usedLengthUnits(alt) < usedLengthUnits(prefix) ? alt : prefix);
+  }
+  return { sheets, method: `true-shape (overlap search, ${m} per sheet)` };
+}
+
 function nestGroup(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -479,6 +566,7 @@ function nestGroup(
   parts: readonly PreparedPart[],
   method: NonNullable<NestInput['method']>,
   envelopes: readonly EnvelopeClass[] = [],
+  dense: DenseLayouts = new Map(),
 ): GroupPlan {
   let best: GroupPlan | null = null;
   if (method !== 'pattern') {
@@ -519,6 +607,13 @@ function nestGroup(
       const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), []);
       best = { sheets: r.sheets, method: 'true-shape (bottom-left fill)' };
     }
+  }
+  if (method === 'best' && best) {
+    // One shape only: a class alone, or an envelope that covers every class of the group.
+    const whole = envelopes.find((e) => e.covers.length === parts.length);
+    const shape = parts.length === 1 ? parts[0]! : whole?.part;
+    const plan = shape ? denserPlan(cache, frame, group, shape, best, dense) : null;
+    if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
   }
   return best as GroupPlan;
 }
@@ -572,12 +667,13 @@ export function nestParts(input: NestInput): NestResult {
   const sheets: NestSheetResult[] = [];
   const groupTotals: NestTotals['groups'] = [];
   const sheetsByGroup: Record<string, number> = {};
+  const dense: DenseLayouts = new Map();
   for (const group of groups) {
     const parts = nesting.filter((p) => p.group === group && p.quantity > 0);
     const groupEnvelopes = (envelopes.byGroup.get(group) ?? []).filter((e) =>
       usableEnvelopes.has(e.part.index),
     );
-    const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best', groupEnvelopes);
+    const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best', groupEnvelopes, dense);
     // Copies of a congruent class go to its members in turn, in placement order.
     const queues = new Map<number, ClassMember[]>();
     const nextMember = (shape: number): ClassMember => {
