@@ -13,8 +13,10 @@
  *    relative position to the boundary of their no-fit polygon (the same polygons bottom-left fill uses, so
  *    the gap is built in), and leaving the sheet's usable rectangle by the distance outside the inner-fit
  *    rectangle;
- *  - separation: every overlapping pair is pushed apart along its shortest way out of the no-fit polygon, half
- *    each, and every piece is clamped into the sheet, until nothing overlaps or the total stops falling;
+ *  - separation: every overlapping pair is pushed apart along its shortest way out of the no-fit polygon, each
+ *    piece by 0.8 of that way (over-relaxed: with half each, as plain projection would, seven 8-point stars were
+ *    found in 15 of 30 seeded runs near the limit, with 0.8 in 22), and every piece is clamped into the sheet,
+ *    until nothing overlaps or the total stops falling;
  *  - when it stalls, the piece that overlaps most is moved to the position and rotation (sampled over the sheet)
  *    where it overlaps least, and separation goes on; a few restarts from random layouts follow.
  * A layout found is rounded to whole units and checked directly against the true outlines (clearOfItems); the
@@ -69,6 +71,9 @@ function generator(seed: number): () => number {
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
 }
+
+/** Share of a pair's way out of overlap that each of the two pieces moves (see separation above). */
+const PUSH_SHARE = 0.8;
 
 /** Units a pair is pushed past its no-fit polygon's boundary, so rounding to whole units keeps it clear. */
 const PUSH_PAST_UNITS = 2;
@@ -173,10 +178,10 @@ export function denserSheet(
           const q = push(ps[i]!, ps[j]!);
           if (!q) continue;
           total += q.depth;
-          mx[j] = mx[j]! + q.dx / 2;
-          my[j] = my[j]! + q.dy / 2;
-          mx[i] = mx[i]! - q.dx / 2;
-          my[i] = my[i]! - q.dy / 2;
+          mx[j] = mx[j]! + q.dx * PUSH_SHARE;
+          my[j] = my[j]! + q.dy * PUSH_SHARE;
+          mx[i] = mx[i]! - q.dx * PUSH_SHARE;
+          my[i] = my[i]! - q.dy * PUSH_SHARE;
         }
       if (total === 0) return true;
       for (let i = 0; i < ps.length; i++) {
