@@ -8,16 +8,7 @@ import {
   SCALE_PER_MM,
 } from './clipper-adapter';
 
-type P = [number, number];
-
-function star(n: number, k: number, R: number): P[] {
-  const inner = (R * Math.cos((Math.PI * k) / n)) / Math.cos((Math.PI * (k - 1)) / n);
-  return Array.from({ length: 2 * n }, (_, i) => {
-    const r = i % 2 === 0 ? R : inner;
-    const a = Math.PI / 2 + (Math.PI * i) / n;
-    return [r * Math.cos(a), r * Math.sin(a)] as P;
-  });
-}
+import { type P, star } from '../test-support/polygons';
 
 // A comb: non-convex with deep rectangular notches (like slots).
 const comb: P[] = [

@@ -2,19 +2,9 @@ import * as polygonClipping from 'polygon-clipping';
 import { mergeCongruent, nestParts, type NestInput, type NestResult } from './nest';
 import { runNestCommand } from './nest-command';
 import { GeometryCache } from './variants';
-import { area, box, boundaryDistance, mpArea, type P, placed, regular } from '../test-support/polygons';
+import { area, box, boundaryDistance, mpArea, type P, placed, regular, star } from '../test-support/polygons';
 
 // ---------- Shapes built here ----------
-
-/** Outline of the star {n/k}: 2n vertices alternating between the tips and the inner crossing points. */
-function star(n: number, k: number, R: number): P[] {
-  const inner = (R * Math.cos((Math.PI * k) / n)) / Math.cos((Math.PI * (k - 1)) / n);
-  return Array.from({ length: 2 * n }, (_, i) => {
-    const r = i % 2 === 0 ? R : inner;
-    const a = Math.PI / 2 + (Math.PI * i) / n;
-    return [r * Math.cos(a), r * Math.sin(a)] as P;
-  });
-}
 
 /** A finely sampled wavy closed curve: radius R·(1 + a·sin(lobes·θ)), n vertices (half of them reflex). */
 function wavy(n: number, R: number, a: number, lobes: number): P[] {

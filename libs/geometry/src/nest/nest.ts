@@ -410,6 +410,23 @@ function copiesOf(cache: GeometryCache, parts: readonly PreparedPart[]): Variant
   return list.map((l) => l.variants);
 }
 
+/**
+ * The last, partial sheet of a repeated layout: `prefix` (the layout's copies nearest the left edge), or
+ * bottom-left fill of as many copies (left edge first), whichever leaves the longer offcut at the right.
+ */
+function shorterLastSheet(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  group: string,
+  prefix: SheetState,
+  variants: readonly Variant[],
+): SheetState {
+  const copies = Array.from({ length: prefix.items.length }, () => variants);
+  const bl = bottomLeftFill(cache, frame, group, copies, [], 'left');
+  const alt = bl.failed === null && bl.sheets.length === 1 ? bl.sheets[0]! : null;
+  return alt && usedLengthUnits(alt) < usedLengthUnits(prefix) ? alt : prefix;
+}
+
 function patternPlan(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -446,16 +463,7 @@ function patternPlan(
           usedAreaMm2: take * part.areaMm2,
           method: 'pattern',
         };
-        const bl = bottomLeftFill(
-          cache,
-          frame,
-          group,
-          Array.from({ length: take }, () => variants),
-          [],
-          'left',
-        );
-        const alt = bl.failed === null && bl.sheets.length === 1 ? bl.sheets[0]! : null;
-        sheets.push(alt && usedLengthUnits(alt) < usedLengthUnits(prefix) ? alt : prefix);
+        sheets.push(shorterLastSheet(cache, frame, group, prefix, variants));
         break;
       }
       const items: PlacedItem[] = pat.slots.slice(0, take).map((x) => ({ ...x }));
@@ -545,16 +553,7 @@ function denserPlan(
     );
     const prefix = sheetOf(byRightEdge.slice(0, left));
     const variants = shape.rotationsDeg.map((d) => cache.variant(shape.index, d));
-    const bl = bottomLeftFill(
-      cache,
-      frame,
-      group,
-      Array.from({ length: left }, () => variants),
-      [],
-      'left',
-    );
-    const alt = bl.failed === null && bl.sheets.length === 1 ? bl.sheets[0]! : null;
-    sheets.push(alt && usedLengthUnits(alt) < usedLengthUnits(prefix) ? alt : prefix);
+    sheets.push(shorterLastSheet(cache, frame, group, prefix, variants));
   }
   return { sheets, method: `true-shape (overlap search, ${m} per sheet)` };
 }

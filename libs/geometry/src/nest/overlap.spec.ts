@@ -2,17 +2,8 @@ import * as polygonClipping from 'polygon-clipping';
 import { denserSheet } from './overlap';
 import { GeometryCache, patternRotations, type PreparedPart } from './variants';
 import { SCALE_PER_MM } from './clipper-adapter';
-import { boundaryDistance, mpArea, type P, placed, regular } from '../test-support/polygons';
+import { boundaryDistance, mpArea, type P, placed, regular, star } from '../test-support/polygons';
 import { signedArea, type Point } from './polygon';
-
-function star(n: number, k: number, R: number): P[] {
-  const inner = (R * Math.cos((Math.PI * k) / n)) / Math.cos((Math.PI * (k - 1)) / n);
-  return Array.from({ length: 2 * n }, (_, i) => {
-    const r = i % 2 === 0 ? R : inner;
-    const a = Math.PI / 2 + (Math.PI * i) / n;
-    return [r * Math.cos(a), r * Math.sin(a)] as P;
-  });
-}
 
 function setUp(outline: P[], gapMm: number) {
   const rotationsDeg = patternRotations(outline as Point[]);

@@ -11,6 +11,16 @@ export function regular(n: number, R: number, startDeg = 90): P[] {
   });
 }
 
+/** Outline of the star {n/k}: 2n vertices alternating between the tips and the inner crossing points. */
+export function star(n: number, k: number, R: number): P[] {
+  const inner = (R * Math.cos((Math.PI * k) / n)) / Math.cos((Math.PI * (k - 1)) / n);
+  return Array.from({ length: 2 * n }, (_, i) => {
+    const r = i % 2 === 0 ? R : inner;
+    const a = Math.PI / 2 + (Math.PI * i) / n;
+    return [r * Math.cos(a), r * Math.sin(a)] as P;
+  });
+}
+
 export function area(poly: P[]): number {
   let s = 0;
   for (let i = 0; i < poly.length; i++) {
