@@ -5,10 +5,11 @@
  * fit when they interlock near the edges.
  *
  * Method: the iterated local search over overlapping layouts of Imamichi, Yagiura & Nagamochi, "An iterated
- * local search algorithm based on nonlinear programming for the irregular strip packing problem", Discrete
- * Optimization 6 (2009) 345–361, in a simple form, with the container fixed (one sheet) and the count raised
- * one at a time as in Egeblad, Nielsen & Odgaard, "Fast neighborhood search for two- and three-dimensional
- * nesting problems", EJOR 183 (2007) 1249–1266:
+ * local search algorithm based on nonlinear programming for the irregular strip packing problem" (Kyoto
+ * University, Dept. of Applied Mathematics and Physics, technical report 2007-009; in Discrete Optimization
+ * 6, 2009, from memory), in a simple form, with the container fixed (one sheet) and the count raised one at a
+ * time as in Egeblad, Nielsen & Odgaard, "Fast neighborhood search for two- and three-dimensional nesting
+ * problems" (EJOR 183, 2007, from memory):
  *  - the layout may overlap; a pair's overlap is measured by its penetration depth, the distance from their
  *    relative position to the boundary of their no-fit polygon (the same polygons bottom-left fill uses, so
  *    the gap is built in), and leaving the sheet's usable rectangle by the distance outside the inner-fit
