@@ -368,6 +368,25 @@ describe('nestParts — true shape', () => {
     ]);
   });
 
+  it('shares a last sheet out over the others for a group of two shapes: eight triangles and a pentagon on one sheet', () => {
+    // Triangles of circumradius 150 and a pentagon of circumradius 100 on 444 × 881 with a 3 mm gap: their
+    // lattice and bottom-left fill leave the pentagon alone on a second sheet; the overlap search makes room
+    // for it among the triangles (checked here with polygon-clipping).
+    const input: NestInput = {
+      sheet: { widthMm: 444, heightMm: 881 },
+      marginMm: 0,
+      gapMm: 3,
+      parts: [
+        { id: 'tri', outline: regular(3, 150), quantity: 8 },
+        { id: 'pent', outline: regular(5, 100), quantity: 1 },
+      ],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1);
+    expect(r.ok && r.totals.groups[0]!.method).toMatch(/last sheet shared out by the overlap search/);
+  });
+
   it('lays pieces that differ only in their notches on one lattice of their common envelope', () => {
     // Equilateral triangles of side 100 (our own test shape) with 3.2 mm notches on one, two or three of their
     // edges, as a model's pieces differ by where their slots are: 14 copies of each of the three, given

@@ -22,7 +22,9 @@
  * A group of one shape (one class of copies, or one envelope covering every class) whose sheets hold at most
  * 16 copies is then tried with an overlap search (overlap.ts): with few large pieces the sheet's edges decide,
  * and a layout of one or more extra copies that interlock near them can save a sheet. Its plan is kept only
- * when it uses fewer sheets; what it finds is shared by all groups of the shape.
+ * when it uses fewer sheets; what it finds is shared by all groups of the shape. A group of several shapes
+ * with at most 16 to a sheet tries to share its last sheet's pieces out over its other sheets instead
+ * (emptiedLastSheetPlan).
  * No-fit polygons are built on simplified outlines that contain the true ones (notches narrower than about
  * twice the gap closed; the convex hull for convex-ish pieces), and pieces whose simplified outlines are
  * congruent share them up to a shift (nfpOutline and GeometryCache in variants.ts): slotted pieces of one model
@@ -44,7 +46,7 @@ import {
   type SheetFrame,
   type SheetState,
 } from './bottom-left';
-import { denserSheet } from './overlap';
+import { denserSheet, overlapLayout, type ShapedItem } from './overlap';
 import { bestPattern } from './pattern';
 import { cleanPolygon, isSimplePolygon, signedArea, toCounterClockwise, type Point } from './polygon';
 import {
@@ -558,6 +560,83 @@ function denserPlan(
   return { sheets, method: `true-shape (overlap search, ${m} per sheet)` };
 }
 
+/**
+ * A plan for a group of several shapes with one sheet fewer than `best`: the pieces of its last sheet are
+ * shared out over the other sheets (largest first, each to the sheet with the most area left) and every
+ * receiving sheet is laid out again by the overlap search, its own pieces free to move and the new ones
+ * added. Only for sheets of at most DENSE_MAX_PER_SHEET pieces; null when any receiving sheet fails.
+ */
+function emptiedLastSheetPlan(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  best: GroupPlan,
+  partsByIndex: ReadonlyMap<number, PreparedPart>,
+): GroupPlan | null {
+  const count = best.sheets.length;
+  if (count < 2 || best.sheets.some((s) => s.items.length > DENSE_MAX_PER_SHEET)) return null;
+  const usable =
+    Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
+  const kept = best.sheets.slice(0, -1);
+  const last = best.sheets[count - 1]!;
+  const left = kept.map((s) => usable - s.usedAreaMm2);
+  const given: PlacedItem[][] = kept.map(() => []);
+  for (const it of [...last.items].sort((a, b) => b.variant.areaMm2 - a.variant.areaMm2)) {
+    let to = -1;
+    for (let i = 0; i < kept.length; i++)
+      if (left[i]! >= it.variant.areaMm2 && (to < 0 || left[i]! > left[to]!)) to = i;
+    if (to < 0) return null;
+    left[to] = left[to]! - it.variant.areaMm2;
+    given[to]!.push(it);
+  }
+  // One shape per part: its allowed and pattern rotations, and any rotation an item already has.
+  const shapeIndex = new Map<number, number>();
+  const shapes: Variant[][] = [];
+  const shapeOf = (it: PlacedItem): number | null => {
+    const part = partsByIndex.get(it.variant.partIndex);
+    if (!part) return null;
+    let k = shapeIndex.get(part.index);
+    if (k === undefined) {
+      const degs = [...new Set([...part.rotationsDeg, ...part.patternRotationsDeg])];
+      shapes.push(degs.map((d) => cache.variant(part.index, d)));
+      shapeIndex.set(part.index, (k = shapes.length - 1));
+    }
+    if (!shapes[k]!.some((v) => v.key === it.variant.key)) shapes[k]!.push(it.variant);
+    return k;
+  };
+  const receiving = given.filter((g) => g.length > 0).length;
+  const sheets: SheetState[] = [];
+  for (let i = 0; i < kept.length; i++) {
+    const sheet = kept[i]!;
+    if (given[i]!.length === 0) {
+      sheets.push(sheet);
+      continue;
+    }
+    const start: ShapedItem[] = [];
+    for (const item of sheet.items) {
+      const shape = shapeOf(item);
+      if (shape === null) return null;
+      start.push({ shape, item });
+    }
+    const add: number[] = [];
+    for (const it of given[i]!) {
+      const shape = shapeOf(it);
+      if (shape === null) return null;
+      add.push(shape);
+    }
+    const items = overlapLayout(cache, frame, shapes, start, add, {
+      workLimit: Math.ceil(DENSE_WORK / receiving),
+    });
+    if (!items) return null;
+    sheets.push({
+      group: sheet.group,
+      items,
+      usedAreaMm2: items.reduce((a, it) => a + it.variant.areaMm2, 0),
+      method: 'true-shape',
+    });
+  }
+  return { sheets, method: `${best.method}, last sheet shared out by the overlap search` };
+}
+
 function nestGroup(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -613,6 +692,12 @@ function nestGroup(
     const shape = parts.length === 1 ? parts[0]! : whole?.part;
     const plan = shape ? denserPlan(cache, frame, group, shape, best, dense) : null;
     if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
+    if (!shape) {
+      // Several shapes: try to share the last sheet's pieces out over the others.
+      const partsByIndex = new Map([...parts, ...envelopes.map((e) => e.part)].map((p) => [p.index, p]));
+      const fewer = emptiedLastSheetPlan(cache, frame, best, partsByIndex);
+      if (fewer && betterPlan(fewer, best, cache.gapMm)) best = fewer;
+    }
   }
   return best as GroupPlan;
 }

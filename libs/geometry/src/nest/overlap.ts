@@ -28,6 +28,8 @@ import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
 import { clearOfItems, strictlyInside, type GeometryCache, type Variant } from './variants';
 
 interface Piece {
+  /** The piece's shape (index into the search's shapes) and its variant (index into all usable variants). */
+  t: number;
   v: number;
   x: number;
   y: number;
@@ -79,36 +81,59 @@ const PUSH_SHARE = 0.8;
 /** Units a pair is pushed past its no-fit polygon's boundary, so rounding to whole units keeps it clear. */
 const PUSH_PAST_UNITS = 2;
 
-export interface DenserSheetOptions {
-  /** Stop at this many copies (the count that saves a sheet). */
-  targetCount: number;
+export interface OverlapSearchOptions {
   /** Work limit: pair evaluations over the whole search (deterministic, unlike a clock). */
   workLimit?: number;
   seed?: number;
 }
 
+export interface DenserSheetOptions extends OverlapSearchOptions {
+  /** Stop at this many copies (the count that saves a sheet). */
+  targetCount: number;
+}
+
+/** A placed item of a given shape, as a starting layout takes it. */
+export interface ShapedItem {
+  shape: number;
+  item: PlacedItem;
+}
+
 /**
- * Tries to lay more copies of one shape on a sheet than `start` holds, raising the count by one at a time up
- * to targetCount. `variants` are the shape's allowed rotations (one part index). Returns the fullest clear
- * layout found with more copies than `start`, or null.
+ * The search over one sheet for pieces of the given shapes (each a list of allowed rotations of one part),
+ * sharing one work limit across its calls. `solve` returns a clear layout of the start items plus one piece
+ * of each shape in `add`, or null when the work runs out first.
  */
-export function denserSheet(
+function overlapSearch(
   cache: GeometryCache,
   frame: SheetFrame,
-  variants: readonly Variant[],
-  start: readonly PlacedItem[],
-  options: DenserSheetOptions,
-): PlacedItem[] | null {
-  const usable = variants
-    .map((v) => ({ v, fit: innerFit(frame, v) }))
-    .filter((u): u is { v: Variant; fit: Fit } => u.fit !== null);
-  if (usable.length === 0) return null;
-  const vs = usable.map((u) => u.v);
-  const fits = usable.map((u) => u.fit);
+  shapes: readonly (readonly Variant[])[],
+  options: OverlapSearchOptions,
+) {
+  const vs: Variant[] = [];
+  const fits: Fit[] = [];
+  const ofShape: number[][] = shapes.map((variants) => {
+    const list: number[] = [];
+    for (const v of variants) {
+      const fit = innerFit(frame, v);
+      if (!fit) continue;
+      list.push(vs.length);
+      vs.push(v);
+      fits.push(fit);
+    }
+    return list;
+  });
   const indexOf = new Map(vs.map((v, i) => [v.key, i]));
   const random = generator(options.seed ?? 0x5eed);
   let work = 0;
   const workLimit = options.workLimit ?? 400_000;
+
+  /** A piece of shape t at a random rotation and position on the sheet. */
+  const randomPiece = (t: number): Piece => {
+    const list = ofShape[t]!;
+    const v = list[Math.floor(random() * list.length)]!;
+    const f = fits[v]!;
+    return { t, v, x: f.x0 + random() * (f.x1 - f.x0), y: f.y0 + random() * (f.y1 - f.y0) };
+  };
 
   /** Penetration of b into a's no-fit polygon: the push (on b) that clears the pair, or null when clear. */
   const push = (a: Piece, b: Piece): { dx: number; dy: number; depth: number } | null => {
@@ -213,16 +238,15 @@ export function denserSheet(
       let r = random() * sum;
       for (pick = 0; pick < ps.length - 1 && r >= overlaps[pick]!; pick++) r -= overlaps[pick]!;
     }
-    ps[pick] = leastOverlap(ps, pick);
+    ps[pick] = leastOverlap(ps, pick, ps[pick]!.t);
   };
 
-  const leastOverlap = (ps: readonly Piece[], i: number, samples = 60): Piece => {
+  /** Of `samples` random positions and rotations of shape t for piece i, the one overlapping the others least. */
+  const leastOverlap = (ps: readonly Piece[], i: number, t: number, samples = 60): Piece => {
     let best: Piece | null = null;
     let bestOverlap = Infinity;
     for (let s = 0; s < samples && bestOverlap > 0; s++) {
-      const v = Math.floor(random() * vs.length);
-      const f = fits[v]!;
-      const at = { v, x: f.x0 + random() * (f.x1 - f.x0), y: f.y0 + random() * (f.y1 - f.y0) };
+      const at = randomPiece(t);
       const o = overlapOf(ps, i, at);
       if (o < bestOverlap) {
         bestOverlap = o;
@@ -246,19 +270,22 @@ export function denserSheet(
     return items;
   };
 
-  /** A clear layout of `count` copies, starting from `seedLayout` (plus pieces where they overlap least). */
-  const solve = (seedLayout: readonly Piece[], count: number): PlacedItem[] | null => {
+  /** A clear layout of the start pieces and one piece of each shape in `add` (they go where they overlap least). */
+  const solve = (start: readonly ShapedItem[], add: readonly number[]): PlacedItem[] | null => {
+    const seedLayout: Piece[] = [];
+    for (const { shape, item } of start) {
+      const v = indexOf.get(item.variant.key);
+      if (v === undefined) return null; // a start in a rotation outside the lists: nothing to build on
+      seedLayout.push({ t: shape, v, x: item.tx, y: item.ty });
+    }
+    if (add.some((t) => ofShape[t]!.length === 0)) return null;
+    const types = [...seedLayout.map((p) => p.t), ...add];
+    const count = types.length;
     let restart = 0;
     while (work < workLimit) {
       const ps: Piece[] =
-        restart === 0
-          ? seedLayout.map((p) => ({ ...p }))
-          : Array.from({ length: count }, () => {
-              const v = Math.floor(random() * vs.length);
-              const f = fits[v]!;
-              return { v, x: f.x0 + random() * (f.x1 - f.x0), y: f.y0 + random() * (f.y1 - f.y0) };
-            });
-      while (ps.length < count) ps.push(leastOverlap(ps, ps.length, 200));
+        restart === 0 ? seedLayout.map((p) => ({ ...p })) : types.map((t) => randomPiece(t));
+      while (ps.length < count) ps.push(leastOverlap(ps, ps.length, types[ps.length]!, 200));
       for (let kick = 0; kick < 12 * count && work < workLimit; kick++) {
         if (separate(ps)) {
           const items = finish(ps);
@@ -271,18 +298,44 @@ export function denserSheet(
     return null;
   };
 
-  let layout: Piece[] = [];
-  for (const it of start) {
-    const v = indexOf.get(it.variant.key);
-    if (v === undefined) return null; // a start in a rotation outside the list: nothing to build on
-    layout.push({ v, x: it.tx, y: it.ty });
-  }
+  return { solve };
+}
+
+/**
+ * Tries to lay more copies of one shape on a sheet than `start` holds, raising the count by one at a time up
+ * to targetCount. `variants` are the shape's allowed rotations (one part index). Returns the fullest clear
+ * layout found with more copies than `start`, or null.
+ */
+export function denserSheet(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  variants: readonly Variant[],
+  start: readonly PlacedItem[],
+  options: DenserSheetOptions,
+): PlacedItem[] | null {
+  const search = overlapSearch(cache, frame, [variants], options);
+  let layout: ShapedItem[] = start.map((item) => ({ shape: 0, item }));
   let found: PlacedItem[] | null = null;
   for (let count = start.length + 1; count <= options.targetCount; count++) {
-    const items = solve(layout, count);
+    const items = search.solve(layout, [0]);
     if (!items) break;
     found = items;
-    layout = items.map((it) => ({ v: indexOf.get(it.variant.key)!, x: it.tx, y: it.ty }));
+    layout = items.map((item) => ({ shape: 0, item }));
   }
   return found;
+}
+
+/**
+ * Lays the `start` items (kept, but free to move) and one more piece of each shape in `add` on one sheet
+ * without overlap, by the same search; null when no such layout is found within the work limit.
+ */
+export function overlapLayout(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  shapes: readonly (readonly Variant[])[],
+  start: readonly ShapedItem[],
+  add: readonly number[],
+  options: OverlapSearchOptions = {},
+): PlacedItem[] | null {
+  return overlapSearch(cache, frame, shapes, options).solve(start, add);
 }
