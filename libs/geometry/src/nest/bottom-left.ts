@@ -298,8 +298,12 @@ export function innerFit(
   const m = frame.marginMm;
   const x0 = Math.ceil((m - v.bounds.minX) * SCALE_PER_MM - 1e-6);
   const y0 = Math.ceil((m - v.bounds.minY) * SCALE_PER_MM - 1e-6);
-  const x1 = Math.floor((frame.widthMm - m - v.bounds.maxX) * SCALE_PER_MM + 1e-6);
-  const y1 = Math.floor((frame.heightMm - m - v.bounds.maxY) * SCALE_PER_MM + 1e-6);
+  let x1 = Math.floor((frame.widthMm - m - v.bounds.maxX) * SCALE_PER_MM + 1e-6);
+  let y1 = Math.floor((frame.heightMm - m - v.bounds.maxY) * SCALE_PER_MM + 1e-6);
+  // A part exactly as wide as the usable sheet fits (up to 1 µm of rounding past the margin), as the check
+  // that a part fits an empty sheet says.
+  if (x1 === x0 - 1) x1 = x0;
+  if (y1 === y0 - 1) y1 = y0;
   if (x1 < x0 || y1 < y0) return null;
   return { x0, y0, x1, y1 };
 }

@@ -631,6 +631,76 @@ describe('nestParts — true shape', () => {
     }
   });
 
+  it('fits squares and rectangles exactly: 24 squares of 100 mm on 600 × 400 with no gap, 12 of 50 × 30 on 219 × 106 with margin 5 and gap 3 (arithmetic)', () => {
+    const square: P[] = [
+      [0, 0],
+      [100, 0],
+      [100, 100],
+      [0, 100],
+    ];
+    const exact: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 0,
+      gapMm: 0,
+      parts: [{ id: 'sq', outline: square, quantity: 30 }],
+    };
+    const r = nestParts(exact);
+    checkLayout(exact, r);
+    expect(firstSheetCount(r)).toBe(24);
+    // 4 × 50 + 3 × 3 = 209 = 219 − 2 × 5 and 3 × 30 + 2 × 3 = 96 = 106 − 2 × 5: one sheet, no slack.
+    const rect: P[] = [
+      [0, 0],
+      [50, 0],
+      [50, 30],
+      [0, 30],
+    ];
+    const snug: NestInput = {
+      sheet: { widthMm: 219, heightMm: 106 },
+      marginMm: 5,
+      gapMm: 3,
+      parts: [{ id: 'r', outline: moved(rect, 0, 7, -2), quantity: 12 }],
+    };
+    const s = nestParts(snug);
+    checkLayout(snug, s);
+    expect(s.ok && s.totals.sheetCount).toBe(1);
+  });
+
+  it('places every copy of a part that fits the usable sheet to within a micrometre, or names it', () => {
+    // A pentagon of circumradius 100 is 190.2 mm across at 90°: usable height 190.9017 − 2 × 5 − 0.0007 mm.
+    const pent = regular(5, 100, 0);
+    const input: NestInput = {
+      sheet: { widthMm: 400, heightMm: 190.901699 },
+      marginMm: 5,
+      gapMm: 3,
+      parts: [{ id: 'P', outline: pent, quantity: 2 }],
+    };
+    const r = nestParts(input);
+    if (r.ok) checkLayout(input, r);
+    else expect(r.error.code).toBe('PART_DOES_NOT_FIT');
+    const roomier = nestParts({ ...input, sheet: { widthMm: 400, heightMm: 191 } });
+    checkLayout({ ...input, sheet: { widthMm: 400, heightMm: 191 } }, roomier);
+  });
+
+  it('turns a part that fits only at an odd angle to that angle: a 650 × 10 bar across a 600 × 400 sheet', () => {
+    // At 0° or 90° the bar is longer than the sheet; turned by about 25°–35° its box fits (arithmetic:
+    // 650·cos 30° + 10·sin 30° ≈ 568 ≤ 600 and 650·sin 30° + 10·cos 30° ≈ 334 ≤ 400).
+    const bar: P[] = [
+      [0, 0],
+      [650, 0],
+      [650, 10],
+      [0, 10],
+    ];
+    const input: NestInput = {
+      sheet: { widthMm: 600, heightMm: 400 },
+      marginMm: 0,
+      gapMm: 3,
+      parts: [{ id: 'bar', outline: bar, quantity: 2 }],
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBeLessThanOrEqual(2);
+  });
+
   it('names a part that cannot fit on an empty sheet at any rotation', () => {
     const r = nestParts({
       sheet: { widthMm: 200, heightMm: 100 },

@@ -42,19 +42,30 @@
 import {
   bottomLeftFill,
   findPosition,
+  innerFit,
   type PlacedItem,
   type SheetFrame,
   type SheetState,
 } from './bottom-left';
 import { denserSheet, overlapLayout, type ShapedItem } from './overlap';
 import { bestPattern } from './pattern';
-import { cleanPolygon, isSimplePolygon, signedArea, toCounterClockwise, type Point } from './polygon';
+import {
+  boundsOf,
+  cleanPolygon,
+  isSimplePolygon,
+  rotatePolygon,
+  signedArea,
+  toCounterClockwise,
+  type Point,
+} from './polygon';
+import { bestFitRatio } from '../scale/fit-ratio';
 import {
   autoRotations,
   clearOfItems,
   congruence,
   distinctRotations,
   GeometryCache,
+  normaliseAngle,
   patternRotations,
   type PreparedPart,
   type Variant,
@@ -637,6 +648,75 @@ function emptiedLastSheetPlan(
   return { sheets, method: `${best.method}, last sheet shared out by the overlap search` };
 }
 
+/**
+ * A part that is a rectangle at one of its allowed rotations is also laid in a plain grid, computed in whole
+ * units from its outline's extent: an exact fit (six 100 mm squares across a 600 mm sheet with no gap) then
+ * holds. Bottom-left fill and the lattices cannot see it: their no-fit polygons keep a safety margin, and
+ * positions in exact contact form feasible regions of no width. Full sheets are filled column by column, so
+ * the last sheet keeps its offcut at the right.
+ */
+function rectangleGridPlan(
+  cache: GeometryCache,
+  frame: SheetFrame,
+  group: string,
+  part: PreparedPart,
+): GroupPlan | null {
+  const S = SCALE_PER_MM;
+  let best: GroupPlan | null = null;
+  for (const deg of part.rotationsDeg) {
+    const v = cache.variant(part.index, deg);
+    const b = v.bounds;
+    let minX = Infinity;
+    let minY = Infinity;
+    let maxX = -Infinity;
+    let maxY = -Infinity;
+    for (const q of v.poly) {
+      minX = Math.min(minX, q.X);
+      minY = Math.min(minY, q.Y);
+      maxX = Math.max(maxX, q.X);
+      maxY = Math.max(maxY, q.Y);
+    }
+    // A rectangle: it fills its extent (up to the rounding of a turned outline to whole units).
+    const w = maxX - minX;
+    const h = maxY - minY;
+    if (!(Math.abs(areaUnits(v.poly)) >= w * h - 2 * (w + h))) continue;
+    // Exact positions (units, not rounded) from the exact outline's extent: each copy then lies within a unit
+    // (1 µm) of where it belongs, so neighbours keep the gap to within 1 µm. With no gap the whole-unit copies
+    // must not overlap at all, so the pitch covers their extent too.
+    const gap = cache.gapMm * S;
+    const pitchX = Math.max((b.maxX - b.minX) * S, gap > 0 ? 0 : w) + gap;
+    const pitchY = Math.max((b.maxY - b.minY) * S, gap > 0 ? 0 : h) + gap;
+    const spanX = (frame.widthMm - 2 * frame.marginMm - (b.maxX - b.minX)) * S;
+    const spanY = (frame.heightMm - 2 * frame.marginMm - (b.maxY - b.minY)) * S;
+    if (spanX < -1 || spanY < -1) continue;
+    const cols = Math.floor(Math.max(0, spanX) / pitchX + 1e-9) + 1;
+    const rows = Math.floor(Math.max(0, spanY) / pitchY + 1e-9) + 1;
+    const x0 = (frame.marginMm - b.minX) * S;
+    const y0 = (frame.marginMm - b.minY) * S;
+    // Rounded positions are kept inside the sheet less its margin, as every placement is (innerFit).
+    const fit = innerFit(frame, v);
+    if (!fit) continue;
+    const at = (exact: number, lo: number, hi: number) => Math.min(Math.max(Math.round(exact), lo), hi);
+    const sheets: SheetState[] = [];
+    for (let k = 0; k < part.quantity; k++) {
+      const slot = k % (cols * rows);
+      if (slot === 0) sheets.push({ group, items: [], usedAreaMm2: 0, method: 'pattern' });
+      const sheet = sheets[sheets.length - 1]!;
+      const c = Math.floor(slot / rows);
+      const r = slot % rows;
+      sheet.items.push({
+        variant: v,
+        tx: at(x0 + c * pitchX, fit.x0, fit.x1),
+        ty: at(y0 + r * pitchY, fit.y0, fit.y1),
+      });
+      sheet.usedAreaMm2 += part.areaMm2;
+    }
+    const plan = { sheets, method: `pattern (${part.id}: grid of ${cols} × ${rows} at ${deg}°)` };
+    if (betterPlan(plan, best, cache.gapMm)) best = plan;
+  }
+  return best;
+}
+
 function nestGroup(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -645,7 +725,7 @@ function nestGroup(
   method: NonNullable<NestInput['method']>,
   envelopes: readonly EnvelopeClass[] = [],
   dense: DenseLayouts = new Map(),
-): GroupPlan {
+): GroupPlan | null {
   let best: GroupPlan | null = null;
   if (method !== 'pattern') {
     for (const rule of ['left', 'right'] as const) {
@@ -681,6 +761,10 @@ function nestGroup(
       const plan = patternPlan(cache, frame, group, parts, opt, covers);
       if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
     }
+    if (parts.length === 1) {
+      const grid = rectangleGridPlan(cache, frame, group, parts[0]!);
+      if (grid && betterPlan(grid, best, cache.gapMm)) best = grid;
+    }
     if (!best) {
       const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), []);
       best = { sheets: r.sheets, method: 'true-shape (bottom-left fill)' };
@@ -699,12 +783,34 @@ function nestGroup(
       if (fewer && betterPlan(fewer, best, cache.gapMm)) best = fewer;
     }
   }
-  return best as GroupPlan;
+  return best;
 }
 
 function round(v: number, digits = 6): number {
   const f = 10 ** digits;
   return Math.round(v * f) / f;
+}
+
+/**
+ * A freely turning part that fits the usable sheet at none of its automatic rotations, but at some other
+ * angle (a piece sized to just fit the bed, at the angle that fit found), is also allowed that angle and its
+ * half-turn partner (bestFitRatio: the turn whose bounding box fits the usable rectangle best).
+ */
+function addFittingTurns(parts: PreparedPart[], usableW: number, usableH: number): void {
+  if (!(usableW > 0 && usableH > 0)) return;
+  for (const p of parts) {
+    if (!p.freeRotation || p.quantity === 0) continue;
+    const fits = p.rotationsDeg.some((d) => {
+      const b = boundsOf(rotatePolygon(p.outline, d));
+      return b.maxX - b.minX <= usableW + 1e-6 && b.maxY - b.minY <= usableH + 1e-6;
+    });
+    if (fits) continue;
+    const best = bestFitRatio(p.outline, usableW, usableH);
+    if (best.ratio > 1 + 1e-9) continue;
+    const turns = [best.angleDeg, best.angleDeg + 180].map((d) => normaliseAngle(d));
+    p.rotationsDeg = [...new Set([...p.rotationsDeg, ...turns])];
+    p.patternRotationsDeg = [...new Set([...p.patternRotationsDeg, ...turns])];
+  }
 }
 
 /**
@@ -720,18 +826,14 @@ export function nestParts(input: NestInput): NestResult {
       return fail('INVALID_INPUT', `part "${p.id}" quantity must be a whole number ≥ 0`, [p.id]);
   const prepared = prepare(input);
   if (!Array.isArray(prepared)) return prepared;
+  addFittingTurns(prepared, sheet.widthMm - 2 * marginMm, sheet.heightMm - 2 * marginMm);
   const frame: SheetFrame = { widthMm: sheet.widthMm, heightMm: sheet.heightMm, marginMm };
   const { nesting, members } = mergeCongruent(prepared);
   const envelopes = envelopeClasses(nesting, prepared, prepared.length);
   const cache = new GeometryCache([...prepared, ...envelopes.shapes], gapMm);
+  // The same test the placement uses (innerFit), so a part said to fit is never left out.
   const fitsEmptySheet = (part: PreparedPart) =>
-    part.rotationsDeg.some((d) => {
-      const b = cache.variant(part.index, d).bounds;
-      return (
-        b.maxX - b.minX <= sheet.widthMm - 2 * marginMm + 1e-9 &&
-        b.maxY - b.minY <= sheet.heightMm - 2 * marginMm + 1e-9
-      );
-    });
+    part.rotationsDeg.some((d) => innerFit(frame, cache.variant(part.index, d)) !== null);
 
   const tooBig: string[] = [];
   for (const part of prepared) if (part.quantity > 0 && !fitsEmptySheet(part)) tooBig.push(part.id);
@@ -758,6 +860,18 @@ export function nestParts(input: NestInput): NestResult {
       usableEnvelopes.has(e.part.index),
     );
     const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best', groupEnvelopes, dense);
+    // Every copy placed, or an error: never a layout that silently leaves parts out.
+    const placed = plan ? plan.sheets.reduce((a, s) => a + s.items.length, 0) : 0;
+    const wanted = parts.reduce((a, p) => a + p.quantity, 0);
+    if (!plan || placed !== wanted) {
+      const ids = parts.map((p) => p.id);
+      return fail(
+        'PART_DOES_NOT_FIT',
+        `not every copy in group "${group}" could be placed on a ${sheet.widthMm} × ${sheet.heightMm} mm ` +
+          `sheet with a ${marginMm} mm margin`,
+        ids,
+      );
+    }
     // Copies of a congruent class go to its members in turn, in placement order.
     const queues = new Map<number, ClassMember[]>();
     const nextMember = (shape: number): ClassMember => {

@@ -38,8 +38,6 @@ export interface Variant {
   rotationDeg: number;
   /** Rotated outline, counter-clockwise, integer units. */
   poly: IntPath;
-  /** Rotated outline grown by gap + half the safety, round joins (direct checks; built on first use). */
-  checkGrown?: IntPaths;
   /** Bounds of the exact (floating) rotated outline, mm. */
   bounds: Bounds;
   /** Bounds rounded outward, integer units. */
@@ -522,7 +520,7 @@ function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: num
 /**
  * Direct placement check on the true outlines, independent of no-fit polygons: true when moving at (tx, ty)
  * stays at least the gap (less 1 µm of rounding) away from every item and neither contains the other. With no
- * gap it tests for an overlap of positive area instead (touching is allowed). Guards against the rare sliver
+ * gap (under 1 µm) it tests for an overlap of more than 1 µm² instead (touching is allowed). Guards against the rare sliver
  * artefacts of Clipper's Minkowski unions and checks the positions found on simplified (closed or hull)
  * outlines.
  */
@@ -555,13 +553,11 @@ export function clearOfItems(
       if (pointInPath(i0.X + it.tx - tx, i0.Y + it.ty - ty, moving.poly) !== 0) return false;
       continue;
     }
+    // No gap: the outlines may touch (an exact fit, such as a grid of squares) but not overlap; an overlap of
+    // more than a square micrometre counts.
     path ??= moving.poly.map((q) => ({ X: q.X + tx, Y: q.Y + ty }));
-    const grown = (it.variant.checkGrown ??= growPolygon(
-      it.variant.poly,
-      gapMm + GAP_SAFETY_MM / 2,
-      'round',
-    ));
-    if (intersectPaths(translatePaths(grown, it.tx, it.ty), [path]).length > 0) return false;
+    const common = intersectPaths(translatePaths([it.variant.poly], it.tx, it.ty), [path]);
+    if (common.reduce((a, q) => a + Math.abs(areaUnits(q)), 0) > 1) return false;
   }
   return true;
 }
