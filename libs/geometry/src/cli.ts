@@ -8,7 +8,8 @@ import * as path from 'node:path';
 import { COMMANDS } from './cli/commands';
 import { type CliIo, UsageError } from './cli/command';
 
-const io: CliIo = {
+/** The file system as the commands see it (stdout, stderr, files and folders). */
+export const fileSystemIo: CliIo = {
   out: (t) => process.stdout.write(t.endsWith('\n') ? t : t + '\n'),
   err: (t) => process.stderr.write(t.endsWith('\n') ? t : t + '\n'),
   readText: (p) => fs.readFileSync(p, 'utf8'),
@@ -16,6 +17,15 @@ const io: CliIo = {
   writeBytes: (p, d) => fs.writeFileSync(p, d),
   makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
   joinPath: (...parts) => path.join(...parts),
+  removeStale: (dir, pattern, keep) => {
+    const removed: string[] = [];
+    for (const entry of fs.readdirSync(dir, { withFileTypes: true })) {
+      if (!entry.isFile() || !pattern.test(entry.name) || keep.has(entry.name)) continue;
+      fs.unlinkSync(path.join(dir, entry.name));
+      removed.push(entry.name);
+    }
+    return removed;
+  },
 };
 
 function help(): string {
@@ -27,7 +37,7 @@ function help(): string {
 }
 
 /** Runs one command line; returns the exit code. */
-export async function main(argv: readonly string[], cliIo: CliIo = io): Promise<number> {
+export async function main(argv: readonly string[], cliIo: CliIo = fileSystemIo): Promise<number> {
   const [name, ...rest] = argv;
   if (!name || name === '--help' || name === '-h' || name === 'help') {
     cliIo.out(help());

@@ -3,7 +3,7 @@ import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError } from '../spec/validate-spec';
 import { pieceToDxf } from '../writers/dxf';
 import { pieceToSvg } from '../writers/svg';
-import { type CliRun, UsageError, parseArgs } from './command';
+import { type CliRun, UsageError, parseArgs, removeStaleOutputs } from './command';
 import { readJsonArg } from './read-json';
 
 /**
@@ -35,6 +35,12 @@ export const runBuild: CliRun = (args, io, usage) => {
   const reportText = JSON.stringify(report, null, 2) + '\n';
   if (typeof outDir === 'string') {
     io.makeDir(outDir);
+    // Piece files of an earlier build that this one does not write (all of them when this design has errors)
+    // are removed, so no one cuts them beside a report that refuses the design.
+    const written = new Set(
+      report.errors.length === 0 ? model.pieces.flatMap((p) => [`${p.id}.dxf`, `${p.id}.svg`]) : [],
+    );
+    removeStaleOutputs(io, outDir, /^P\d+\.(dxf|svg)$/, written);
     io.writeText(io.joinPath(outDir, 'report.json'), reportText);
     if (report.errors.length === 0) {
       for (const p of model.pieces) {

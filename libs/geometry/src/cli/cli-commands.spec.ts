@@ -5,22 +5,14 @@ import * as path from 'node:path';
 import DxfParser from 'dxf-parser';
 import JSZip from 'jszip';
 import polygonClipping from 'polygon-clipping';
-import { main } from '../cli';
+import { fileSystemIo, main } from '../cli';
 import { octahedronHexagons } from '../test-support/designs';
 import { type CliIo } from './command';
 
 function run(args: string[]) {
   const out: string[] = [];
   const err: string[] = [];
-  const io: CliIo = {
-    out: (t) => out.push(t),
-    err: (t) => err.push(t),
-    readText: (p) => fs.readFileSync(p, 'utf8'),
-    writeText: (p, t) => fs.writeFileSync(p, t),
-    writeBytes: (p, d) => fs.writeFileSync(p, d),
-    makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
-    joinPath: (...parts) => path.join(...parts),
-  };
+  const io: CliIo = { ...fileSystemIo, out: (t) => out.push(t), err: (t) => err.push(t) };
   return main(args, io).then((code) => ({ code, out: out.join(''), err: err.join('') }));
 }
 
@@ -147,6 +139,20 @@ describe('CLI pack and coupon', () => {
     expect(Object.keys(zip.files).sort()).toEqual(files.filter((n) => n !== zipName));
     // PDF files start with the PDF header (ISO 32000-1, 7.5.2).
     expect(fs.readFileSync(path.join(out, 'setup-sheet.pdf')).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+
+  it('removes the sheets and ZIP of an earlier, larger pack in the same folder, and nothing else', async () => {
+    const out = path.join(dir, 'reused');
+    const eight = { ...spec, colours: { count: 8, rule: 'neighbour-distinct' } };
+    expect((await run(['pack', writeJson('eight.json', eight), '--out', out, '--zip'])).code).toBe(0);
+    fs.writeFileSync(path.join(out, 'operator-notes.txt'), 'kept');
+    const r = await run(['pack', writeJson('spec.json', spec), '--out', out, '--json']);
+    expect(r.code).toBe(0);
+    const manifest = JSON.parse(r.out);
+    expect(fs.readdirSync(out).sort()).toEqual(
+      [...manifest.files.map((f: { name: string }) => f.name), 'manifest.json', 'operator-notes.txt'].sort(),
+    );
+    expect(r.err).toMatch(/removed \d+ files an earlier run left in .*cut-pack-.*\.zip/);
   });
 
   it('writes inch files with --units in', async () => {

@@ -2,7 +2,7 @@ import * as fs from 'node:fs';
 import * as os from 'node:os';
 import * as path from 'node:path';
 import DxfParser from 'dxf-parser';
-import { main } from '../cli';
+import { fileSystemIo, main } from '../cli';
 import { type CliIo } from './command';
 import { octahedronHexagons } from '../test-support/designs';
 
@@ -11,15 +11,7 @@ const fixtures = path.join(__dirname, '..', 'test-support', 'fixtures');
 function run(args: string[]) {
   const out: string[] = [];
   const err: string[] = [];
-  const io: CliIo = {
-    out: (t) => out.push(t),
-    err: (t) => err.push(t),
-    readText: (p) => fs.readFileSync(p, 'utf8'),
-    writeText: (p, t) => fs.writeFileSync(p, t),
-    writeBytes: (p, d) => fs.writeFileSync(p, d),
-    makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
-    joinPath: (...parts) => path.join(...parts),
-  };
+  const io: CliIo = { ...fileSystemIo, out: (t) => out.push(t), err: (t) => err.push(t) };
   return main(args, io).then((code) => ({ code, out: out.join(''), err: err.join('') }));
 }
 
@@ -54,6 +46,17 @@ describe('CLI build', () => {
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/PIECE\.NO_SLOT/);
     expect(fs.readdirSync(dir)).toEqual(['report.json']);
+  });
+
+  it('removes the piece files an earlier build left in the folder when this design has errors', async () => {
+    expect((await run(['build', path.join(fixtures, 'octahedron-hexagons.json'), '--out', dir])).code).toBe(
+      0,
+    );
+    fs.writeFileSync(path.join(dir, 'notes.txt'), 'the workshop keeps its own files here');
+    const r = await run(['build', path.join(fixtures, 'uploaded-antiprism-stars.json'), '--out', dir]);
+    expect(r.code).toBe(1);
+    expect(fs.readdirSync(dir).sort()).toEqual(['notes.txt', 'report.json']);
+    expect(r.err).toMatch(/removed 16 files an earlier run left/);
   });
 
   it('prints the report with --json', async () => {

@@ -7,6 +7,22 @@ export interface CliIo {
   writeBytes: (path: string, data: Uint8Array) => void;
   makeDir: (path: string) => void;
   joinPath: (...parts: string[]) => string;
+  /**
+   * Removes the files in `dir` whose names match `pattern` and are not in `keep` (what an earlier run into the
+   * same folder wrote and this one does not replace); returns their names. Optional: without it nothing is
+   * removed.
+   */
+  removeStale?: (dir: string, pattern: RegExp, keep: ReadonlySet<string>) => string[];
+}
+
+/** Tells the user which files of an earlier run into the same folder were removed. */
+export function removeStaleOutputs(io: CliIo, dir: string, pattern: RegExp, keep: ReadonlySet<string>): void {
+  const removed = io.removeStale?.(dir, pattern, keep) ?? [];
+  if (removed.length > 0)
+    io.err(
+      `removed ${removed.length} file${removed.length === 1 ? '' : 's'} an earlier run left in ${dir}: ` +
+        removed.sort().join(', '),
+    );
 }
 
 /** One subcommand of `kerfwright` (build, nest, pack, coupon: the table in commands.ts). Returns the exit code. */

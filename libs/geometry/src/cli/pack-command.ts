@@ -1,7 +1,7 @@
 import type { CutPackResult } from '@kerfwright/contracts';
 import { CutPackError } from '../pack/pack';
 import { type PackCommandOptions, runCouponCommand, runPackCommand } from '../pack/cli-commands';
-import { type CliIo, type CliRun, UsageError, parseArgs } from './command';
+import { type CliIo, type CliRun, UsageError, parseArgs, removeStaleOutputs } from './command';
 import { readJsonArg } from './read-json';
 
 /** Exit code for a pack failure: 2 for a spec that cannot be read as a design, 1 for a design or layout that fails. */
@@ -9,8 +9,15 @@ function exitCodeOf(e: CutPackError): number {
   return e.code === 'PACK.DESIGN_INVALID' || e.code === 'PACK.LAYOUT_FAILED' ? 1 : 2;
 }
 
-function writePack(io: CliIo, outDir: string, result: CutPackResult): void {
+/** Names of the files pack and coupon write: an earlier run's that this one does not replace are removed. */
+const PACK_OUTPUTS =
+  /^(sheet-\d+(-[^/\\]*)?\.(dxf|svg)|coupon\.(dxf|svg)|setup-sheet\.pdf|assembly-guide\.pdf|manifest\.json|cut-pack-cli\.zip)$/;
+
+function writePack(io: CliIo, outDir: string, result: CutPackResult, wholePack: boolean): void {
   io.makeDir(outDir);
+  // Sheets of an earlier, larger pack left beside this one's could be cut by mistake. (A coupon written
+  // alone into a pack's folder leaves the pack as it is.)
+  if (wholePack) removeStaleOutputs(io, outDir, PACK_OUTPUTS, new Set(result.files.map((f) => f.name)));
   for (const f of result.files) io.writeBytes(io.joinPath(outDir, f.name), f.data);
 }
 
@@ -49,7 +56,7 @@ async function runPackLike(
     io.err(`error: ${e.code}: ${e.message}`.replace(/\s*\n\s*/g, ' '));
     return exitCodeOf(e);
   }
-  writePack(io, outDir, result);
+  writePack(io, outDir, result, switches.includes('zip'));
   if (options.get('json') === true) io.out(JSON.stringify(result.manifest, null, 2));
   else io.out(summaryLine(result, outDir));
   return 0;

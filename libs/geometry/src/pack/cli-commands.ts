@@ -74,9 +74,13 @@ export const CLI_DEFAULT_MACHINE: CutPackInput['machine'] = {
   currency: 'EUR',
 };
 
+/** The sheet a pack is laid out on when the spec gives none (and its margin). */
+export const PACK_DEFAULT_SHEET = { widthMm: 600, heightMm: 400 };
+export const PACK_DEFAULT_MARGIN_MM = 5;
+
 export function packInputFrom(rawSpec: unknown, o: PackCommandOptions = {}): CutPackInput {
   const s = splitSpec(rawSpec);
-  const sheet = o.sheet ?? s.sheet ?? { widthMm: 600, heightMm: 400 };
+  const sheet = o.sheet ?? s.sheet ?? PACK_DEFAULT_SHEET;
   const count =
     typeof o.colours === 'number' ? o.colours : (s.colours?.count ?? s.colours?.names?.length ?? 1);
   const colours = Array.isArray(o.colours)
@@ -89,7 +93,7 @@ export function packInputFrom(rawSpec: unknown, o: PackCommandOptions = {}): Cut
   return {
     spec: s.spec,
     sheet,
-    marginMm: o.marginMm ?? s.marginMm ?? 5,
+    marginMm: o.marginMm ?? s.marginMm ?? PACK_DEFAULT_MARGIN_MM,
     gapMm: o.gapMm ?? s.gapMm ?? 3,
     colours,
     ...(rule ? { colourRule: rule } : {}),
@@ -135,9 +139,22 @@ export function resolveSpecForPack(rawSpec: unknown): unknown {
       throw new CutPackError('PACK.LAYOUT_FAILED', plan.message ?? 'no colour plan exists for one colour');
   }
   if (v.spec.scale.by !== 'fitSheets' && v.spec.scale.by !== 'fitBed') return rawSpec;
+  // A fit is found on the sheet the pack will be laid out on: the spec's, or the pack's default one.
+  const raw = rawSpec as { stock?: Record<string, unknown> };
+  const fitSpec =
+    raw.stock && !raw.stock.sheet
+      ? {
+          ...raw,
+          stock: {
+            ...raw.stock,
+            sheet: PACK_DEFAULT_SHEET,
+            marginMm: raw.stock.marginMm ?? PACK_DEFAULT_MARGIN_MM,
+          },
+        }
+      : rawSpec;
   let built;
   try {
-    built = buildWithLayout(rawSpec);
+    built = buildWithLayout(fitSpec);
   } catch (e) {
     throw new CutPackError('PACK.SPEC_INVALID', (e as Error).message);
   }

@@ -419,6 +419,14 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(setup.text).toMatch(/Bed 300\.0 x 300\.0 mm/);
   });
 
+  it('fits a fitBed design without a stock sheet to the sheet the pack lays out on (600 × 400, margin 5)', async () => {
+    // Sized to the 600 × 400 bed alone, the largest piece would not fit the default sheet less its margins.
+    const spec = { ...octahedronHexagons(), scale: { by: 'fitBed' }, bed: { widthMm: 600, heightMm: 400 } };
+    const r = await runPackCommand(spec, { archive: false });
+    expect(r.manifest.sheetCount).toBeGreaterThan(0);
+    expect(r.files.filter((f) => /^sheet-.*\.dxf$/.test(f.name))).toHaveLength(r.manifest.sheetCount);
+  });
+
   it("compares a profile's machine kind with the design's by how it cuts (a CO2 laser is a laser)", async () => {
     const spec = octahedronHexagons();
     const base = input(spec, { archive: false });

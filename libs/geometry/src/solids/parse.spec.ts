@@ -132,6 +132,17 @@ describe('uploaded solids', () => {
     expect(code(() => parseSolidText('obj', ' '.repeat(MAX_SOLID_TEXT_LENGTH + 1)))).toBe('SOLID.TOO_LARGE');
   });
 
+  it('builds a cube drawn in any sensible unit, and refuses coordinates far beyond them with a coded error', () => {
+    const cube = (k: number) =>
+      [0, 1]
+        .flatMap((x) => [0, 1].flatMap((y) => [0, 1].map((z) => `v ${x * k} ${y * k} ${z * k}`)))
+        .join('\n');
+    for (const k of [1e-6, 1, 1e3, 1e9]) expect(parseSolidText('obj', cube(k)).faces).toHaveLength(6);
+    // 1e160 squared overflows to Infinity: these crashed the hull before they were refused.
+    for (const k of [1e13, 1e160, 1e300, 1e-100, 1e-160])
+      expect(code(() => parseSolidText('obj', cube(k)))).toBe('SOLID.OUT_OF_RANGE');
+  });
+
   it('refuses a hull with too many faces to be pieces', () => {
     // A finely sampled sphere of our own (golden-angle spiral) has hundreds of faces.
     const pts = Array.from({ length: 400 }, (_, i) => {

@@ -52,6 +52,11 @@ export class SolidError extends Error {
  * solid's rotations carry first vertices onto each other (see alignFirstVertices). The result depends
  * only on the points and their input order.
  */
+/** Largest vertex coordinate (in the drawing's own units) an uploaded solid may have. */
+export const MAX_SOLID_COORDINATE = 1e12;
+/** Smallest bounding radius (half the bounding-box diagonal, drawing units) of an uploaded solid. */
+export const MIN_SOLID_RADIUS = 1e-9;
+
 export function solidFromPoints(
   id: string,
   name: string,
@@ -64,6 +69,15 @@ export function solidFromPoints(
     }
   }
   const radius = boundingRadius(input);
+  // Far outside any real drawing unit the hull's products overflow or underflow (1e160 squared is Infinity).
+  const largest = Math.max(...input.map((p) => Math.max(Math.abs(p[0]), Math.abs(p[1]), Math.abs(p[2]))));
+  if (largest > MAX_SOLID_COORDINATE || radius < MIN_SOLID_RADIUS) {
+    throw new SolidError(
+      'SOLID.OUT_OF_RANGE',
+      `vertex coordinates must be at most ${MAX_SOLID_COORDINATE} in size and the solid at least ` +
+        `${MIN_SOLID_RADIUS} across (rescale the drawing's units)`,
+    );
+  }
   const tol = COPLANAR_TOLERANCE * radius;
   assertNotFlat(input, tol);
 
