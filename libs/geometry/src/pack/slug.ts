@@ -1,8 +1,12 @@
-/** A file-name-safe form of a colour name: lower-case letters, digits and dashes. */
+/**
+ * A file-name-safe form of a colour name: lower-case letters, digits and dashes; accents are dropped, not
+ * turned into dashes ("Grün" → "grun", "Blå" → "bla").
+ */
 export function slug(text: string, fallback: string): string {
   const s = text
     .toLowerCase()
     .normalize('NFKD')
+    .replace(/\p{M}+/gu, '')
     .replace(/[^a-z0-9]+/g, '-')
     .replace(/^-+|-+$/g, '')
     .slice(0, 40);
