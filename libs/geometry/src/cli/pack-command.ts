@@ -39,6 +39,8 @@ async function runPackLike(
   usage: string,
   make: (spec: unknown, options: PackCommandOptions) => Promise<CutPackResult>,
   switches: readonly string[],
+  /** A whole pack replaces an earlier one in the folder; a coupon alone leaves the folder's pack as it is. */
+  wholePack: boolean,
 ): Promise<number> {
   const { positional, options } = parseArgs(args, ['out', 'units'], ['json', ...switches]);
   const [specPath, extra] = positional;
@@ -56,7 +58,7 @@ async function runPackLike(
     io.err(`error: ${e.code}: ${e.message}`.replace(/\s*\n\s*/g, ' '));
     return exitCodeOf(e);
   }
-  writePack(io, outDir, result, switches.includes('zip'));
+  writePack(io, outDir, result, wholePack);
   if (options.get('json') === true) io.out(JSON.stringify(result.manifest, null, 2));
   else io.out(summaryLine(result, outDir));
   return 0;
@@ -70,7 +72,9 @@ async function runPackLike(
  * design has errors or does not lay out (nothing written); 2 unreadable JSON or invalid spec (nothing
  * written).
  */
-export const runPack: CliRun = (args, io, usage) => runPackLike(args, io, usage, runPackCommand, ['zip']);
+export const runPack: CliRun = (args, io, usage) =>
+  runPackLike(args, io, usage, runPackCommand, ['zip'], true);
 
 /** `coupon SPEC.json --out DIR [--units in] [--json]`: the fit-test coupon alone (exit codes as pack). */
-export const runCoupon: CliRun = (args, io, usage) => runPackLike(args, io, usage, runCouponCommand, []);
+export const runCoupon: CliRun = (args, io, usage) =>
+  runPackLike(args, io, usage, runCouponCommand, [], false);

@@ -70,7 +70,14 @@ import {
   type PreparedPart,
   type Variant,
 } from './variants';
-import { areaUnits, differencePaths, growPolygon, SCALE_PER_MM, toIntPath } from './clipper-adapter';
+import {
+  areaUnits,
+  boxOfPaths,
+  differencePaths,
+  growPolygon,
+  SCALE_PER_MM,
+  toIntPath,
+} from './clipper-adapter';
 
 export interface NestSheetSize {
   widthMm: number;
@@ -423,6 +430,11 @@ function copiesOf(cache: GeometryCache, parts: readonly PreparedPart[]): Variant
   return list.map((l) => l.variants);
 }
 
+/** Area of the sheet less its margins, mm². */
+function usableAreaMm2(frame: SheetFrame): number {
+  return Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
+}
+
 /**
  * The last, partial sheet of a repeated layout: `prefix` (the layout's copies nearest the left edge), or
  * bottom-left fill of as many copies (left edge first), whichever leaves the longer offcut at the right.
@@ -533,8 +545,7 @@ function denserPlan(
   const most = Math.max(...best.sheets.map((s) => s.items.length));
   if (most > DENSE_MAX_PER_SHEET) return null;
   const target = Math.ceil(n / (sheetsNow - 1));
-  const usable =
-    Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
+  const usable = usableAreaMm2(frame);
   if (target <= most || target * shape.areaMm2 > usable) return null;
   let known = dense.get(shape.index);
   if (!known || (known.layout.length < target && known.failedAt === null)) {
@@ -585,8 +596,7 @@ function emptiedLastSheetPlan(
 ): GroupPlan | null {
   const count = best.sheets.length;
   if (count < 2 || best.sheets.some((s) => s.items.length > DENSE_MAX_PER_SHEET)) return null;
-  const usable =
-    Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
+  const usable = usableAreaMm2(frame);
   const kept = best.sheets.slice(0, -1);
   const last = best.sheets[count - 1]!;
   const left = kept.map((s) => usable - s.usedAreaMm2);
@@ -666,19 +676,10 @@ function rectangleGridPlan(
   for (const deg of part.rotationsDeg) {
     const v = cache.variant(part.index, deg);
     const b = v.bounds;
-    let minX = Infinity;
-    let minY = Infinity;
-    let maxX = -Infinity;
-    let maxY = -Infinity;
-    for (const q of v.poly) {
-      minX = Math.min(minX, q.X);
-      minY = Math.min(minY, q.Y);
-      maxX = Math.max(maxX, q.X);
-      maxY = Math.max(maxY, q.Y);
-    }
     // A rectangle: it fills its extent (up to the rounding of a turned outline to whole units).
-    const w = maxX - minX;
-    const h = maxY - minY;
+    const box = boxOfPaths([v.poly]);
+    const w = box.maxX - box.minX;
+    const h = box.maxY - box.minY;
     if (!(Math.abs(areaUnits(v.poly)) >= w * h - 2 * (w + h))) continue;
     // Exact positions (units, not rounded) from the exact outline's extent: each copy then lies within a unit
     // (1 µm) of where it belongs, so neighbours keep the gap to within 1 µm. With no gap the whole-unit copies
@@ -735,8 +736,7 @@ function nestGroup(
     }
   }
   if (method !== 'true-shape') {
-    const usable =
-      Math.max(0, frame.widthMm - 2 * frame.marginMm) * Math.max(0, frame.heightMm - 2 * frame.marginMm);
+    const usable = usableAreaMm2(frame);
     const enough = (p: PreparedPart) =>
       p.quantity >= MIN_PATTERN_COPIES && p.areaMm2 * p.quantity >= MIN_PATTERN_SHEET_SHARE * usable;
     // Classes with envelopes are patterned as copies of their envelope, all classes of one envelope together,
