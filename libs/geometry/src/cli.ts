@@ -8,6 +8,22 @@ import * as path from 'node:path';
 import { COMMANDS } from './cli/commands';
 import { type CliIo, UsageError } from './cli/command';
 
+/**
+ * mkdir -p, one level at a time from the deepest folder that exists. Node's own recursive mkdirSync never
+ * returns under a file system that answers "no such file" for a folder it cannot create (for example /proc).
+ */
+export function makeDirs(dir: string): void {
+  const missing: string[] = [];
+  let at = path.resolve(dir);
+  while (!fs.existsSync(at)) {
+    missing.push(at);
+    const parent = path.dirname(at);
+    if (parent === at) break;
+    at = parent;
+  }
+  for (const d of missing.reverse()) fs.mkdirSync(d);
+}
+
 /** The file system as the commands see it (stdout, stderr, files and folders). */
 export const fileSystemIo: CliIo = {
   out: (t) => process.stdout.write(t.endsWith('\n') ? t : t + '\n'),
@@ -15,7 +31,7 @@ export const fileSystemIo: CliIo = {
   readText: (p) => fs.readFileSync(p, 'utf8'),
   writeText: (p, t) => fs.writeFileSync(p, t),
   writeBytes: (p, d) => fs.writeFileSync(p, d),
-  makeDir: (p) => fs.mkdirSync(p, { recursive: true }),
+  makeDir: (p) => makeDirs(p),
   joinPath: (...parts) => path.join(...parts),
   removeStale: (dir, pattern, keep) => {
     const removed: string[] = [];

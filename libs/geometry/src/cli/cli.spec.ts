@@ -109,6 +109,19 @@ describe('CLI build', () => {
     expect(r.err).toMatch(/^error: cannot write the output: E[A-Z]+/);
   });
 
+  it('makes nested --out folders, and refuses one under /proc instead of hanging as recursive mkdirSync does', async () => {
+    const spec = path.join(dir, 'spec.json');
+    fs.writeFileSync(spec, JSON.stringify(octahedronHexagons()));
+    const nested = path.join(dir, 'a', 'b', 'c');
+    const ok = await run(['build', spec, '--out', nested]);
+    expect(ok.code).toBe(0);
+    expect(fs.existsSync(path.join(nested, 'report.json'))).toBe(true);
+    if (!fs.existsSync('/proc/self')) return; // Linux only
+    const r = await run(['build', spec, '--out', '/proc/kerfwright-test/out']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/^error: cannot write the output: E[A-Z]+/);
+  });
+
   it('reports unreadable JSON, unknown commands and missing arguments', async () => {
     const spec = path.join(dir, 'spec.json');
     fs.writeFileSync(spec, '{ not json');

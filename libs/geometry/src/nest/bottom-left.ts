@@ -520,6 +520,8 @@ export function bottomLeftFill(
   rule: FillRule = 'right',
 ): { sheets: SheetState[]; failed: number | null } {
   const sheetArea = frame.widthMm * frame.heightMm;
+  /** The copy at which each sheet opened by this call was opened. */
+  const openedAt = new Map<SheetState, number>();
   for (let i = 0; i < copies.length; i++) {
     const variants = copies[i] as readonly Variant[];
     const area = variants[0]?.areaMm2 ?? 0;
@@ -539,12 +541,51 @@ export function bottomLeftFill(
       }
     }
     if (placed) continue;
+    // Copy i was turned away by every open sheet.
+    const repeat = repeatedSheet(sheets, openedAt, copies, i);
+    if (repeat) {
+      sheets.push(repeat);
+      openedAt.set(repeat, i);
+      i += repeat.items.length - 1;
+      continue;
+    }
     const fresh: SheetState = { group, items: [], usedAreaMm2: 0, method: 'true-shape' };
     const c = findPosition(cache, frame, fresh, variants, rule);
     if (!c) return { sheets, failed: i };
     fresh.items.push({ variant: c.variant, tx: c.tx, ty: c.ty });
     fresh.usedAreaMm2 += area;
     sheets.push(fresh);
+    openedAt.set(fresh, i);
   }
   return { sheets, failed: null };
+}
+
+/**
+ * The sheet that copy i, turned away by every open sheet, would open, when it is a replica of the last sheet:
+ * that sheet was opened by this fill at copy j, holds exactly copies j … i − 1, all of one variants list, and
+ * copies i … 2i − j − 1 are that list too. Every open sheet has turned that part away (the area check and the `full` mark only ever grow), the
+ * search on an empty sheet depends only on the copies placed there, so the fill would repeat the last sheet
+ * item for item: it is copied instead of searched again (a job of thousands of copies fills its sheets in
+ * one search).
+ */
+function repeatedSheet(
+  sheets: readonly SheetState[],
+  openedAt: ReadonlyMap<SheetState, number>,
+  copies: readonly (readonly Variant[])[],
+  i: number,
+): SheetState | null {
+  const last = sheets[sheets.length - 1];
+  const j = last ? openedAt.get(last) : undefined;
+  if (!last || j === undefined) return null;
+  const n = i - j;
+  if (n <= 0 || last.items.length !== n || i + n > copies.length) return null;
+  const list = copies[j];
+  for (let k = j + 1; k < i + n; k++) if (copies[k] !== list) return null;
+  return {
+    group: last.group,
+    items: last.items.map((it) => ({ ...it })),
+    usedAreaMm2: last.usedAreaMm2,
+    method: last.method,
+    ...(last.full ? { full: new Set(last.full) } : {}),
+  };
 }

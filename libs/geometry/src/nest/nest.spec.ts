@@ -720,6 +720,40 @@ describe('nestParts — true shape', () => {
   });
 });
 
+describe('nestParts — large quantities', () => {
+  /** Placements of a sheet as comparable text (order-independent). */
+  const key = (sheet: { placements: { part: string; x: number; y: number; rotationDeg: number }[] }) =>
+    sheet.placements
+      .map((p) => `${p.part} ${p.x.toFixed(4)} ${p.y.toFixed(4)} ${p.rotationDeg}`)
+      .sort()
+      .join('|');
+
+  it.each(['true-shape', 'pattern'] as const)(
+    '%s: 12,000 copies all placed once; the full sheets repeat the first, and a short job lays out as its first sheets',
+    (method) => {
+      const outline = regular(5, 30);
+      const input = (quantity: number): NestInput => ({
+        sheet: { widthMm: 600, heightMm: 400 },
+        marginMm: 5,
+        gapMm: 2,
+        parts: [{ id: 'pent', outline, quantity }],
+        method,
+      });
+      const big = nestParts(input(12_000));
+      if (!big.ok) throw new Error(big.error.message);
+      const perSheet = big.sheets[0]!.placements.length;
+      expect(big.sheets.reduce((s, sh) => s + sh.placements.length, 0)).toBe(12_000);
+      expect(big.totals.sheetCount).toBe(Math.ceil(12_000 / perSheet));
+      const first = key(big.sheets[0]!);
+      for (const sh of big.sheets.slice(0, -1)) expect(key(sh)).toBe(first);
+      // Three sheets' worth, searched in full, checked with polygon-clipping: the same first sheets.
+      const small = nestParts(input(3 * perSheet));
+      checkLayout(input(3 * perSheet), small);
+      expect(small.ok && small.sheets.map(key)).toEqual(big.sheets.slice(0, 3).map(key));
+    },
+  );
+});
+
 describe('nestParts — outside density checks', () => {
   // Derived: squares, equilateral triangles and regular hexagons tile the plane (density 1); with a gap g each
   // piece grown by g/2 with mitred corners still tiles, so at most W·H / A(grown) pieces fit, and at least

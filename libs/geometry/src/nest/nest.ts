@@ -477,7 +477,14 @@ function patternPlan(
       (d) => cache.variant(part.index, d),
     );
     let left = part.quantity;
+    // A full sheet topped up until no copy fitted: every later sheet with as many copies left repeats it.
+    let template: SheetState | null = null;
     while (left > 0) {
+      if (template && left >= template.items.length) {
+        sheets.push({ ...template, items: template.items.map((x) => ({ ...x })) });
+        left -= template.items.length;
+        continue;
+      }
       const take = Math.min(left, pat.slots.length);
       if (take < pat.slots.length) {
         // The last, partial sheet: the lattice's left-most slots, or bottom-left fill of the copies left over
@@ -497,7 +504,15 @@ function patternPlan(
       left -= take;
       while (left > 0) {
         const c = findPosition(cache, frame, sheet, variants, 'left');
-        if (!c) break;
+        if (!c) {
+          template = {
+            group,
+            items: sheet.items.map((x) => ({ ...x })),
+            usedAreaMm2: sheet.usedAreaMm2,
+            method: 'pattern',
+          };
+          break;
+        }
         sheet.items.push({ variant: c.variant, tx: c.tx, ty: c.ty });
         sheet.usedAreaMm2 += part.areaMm2;
         left--;
@@ -786,6 +801,21 @@ function nestGroup(
   return best;
 }
 
+/** Items handed out in order, each as many times as its count says (counts may run to many thousands). */
+class Queue<T> {
+  private at = 0;
+  private left: number;
+  constructor(private readonly runs: readonly (readonly [T, number])[]) {
+    this.left = runs[0]?.[1] ?? 0;
+  }
+  next(): T | undefined {
+    while (this.at < this.runs.length && this.left <= 0) this.left = this.runs[++this.at]?.[1] ?? 0;
+    if (this.at >= this.runs.length) return undefined;
+    this.left--;
+    return this.runs[this.at]![0];
+  }
+}
+
 function round(v: number, digits = 6): number {
   const f = 10 ** digits;
   return Math.round(v * f) / f;
@@ -873,24 +903,23 @@ export function nestParts(input: NestInput): NestResult {
       );
     }
     // Copies of a congruent class go to its members in turn, in placement order.
-    const queues = new Map<number, ClassMember[]>();
+    const queues = new Map<number, Queue<ClassMember>>();
     const nextMember = (shape: number): ClassMember => {
       const all = members.get(`${group}|${shape}`)!;
       let queue = queues.get(shape);
-      if (!queue)
-        queues.set(shape, (queue = all.flatMap((m) => Array.from({ length: m.quantity }, () => m))));
-      return queue.shift() ?? all[0]!;
+      if (!queue) queues.set(shape, (queue = new Queue(all.map((m) => [m, m.quantity]))));
+      return queue.next() ?? all[0]!;
     };
     // Copies of an envelope go to the classes it covers in turn, then to those classes' members.
-    const envelopeQueues = new Map<number, EnvelopeClass['covers']>();
+    const envelopeQueues = new Map<number, Queue<EnvelopeClass['covers'][number]>>();
     const nextCovered = (index: number): EnvelopeClass['covers'][number] => {
       let queue = envelopeQueues.get(index);
       if (!queue) {
         const e = groupEnvelopes.find((x) => x.part.index === index)!;
-        queue = e.covers.flatMap((c) => Array.from({ length: c.cls.quantity }, () => c));
+        queue = new Queue(e.covers.map((c) => [c, c.cls.quantity]));
         envelopeQueues.set(index, queue);
       }
-      return queue.shift()!;
+      return queue.next()!;
     };
     let lastUsedUnits = 0;
     for (const s of plan.sheets) {
