@@ -390,6 +390,20 @@ describe('createCutPack failures and the command-line helper', () => {
       });
   });
 
+  it('prints and engraves colour names the fonts lack under names they hold, and says so', async () => {
+    const r = await createCutPack(input(octahedronHexagons(), { colours: ['日本', 'Grün'], archive: false }));
+    const names = sheetsOf(r, 'dxf').map((f) => f.name);
+    expect(names.some((n) => /-colour-1\.dxf$/.test(n))).toBe(true);
+    expect(names.some((n) => /-grun\.dxf$/.test(n))).toBe(true);
+    expect((r.manifest.warnings ?? []).join('\n')).toMatch(
+      /"日本" .* printed as "colour 1" and engraved as "COLOUR 1"/,
+    );
+    const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(setup.text).toMatch(/colour 1/);
+    expect(setup.text).toMatch(/Grün/);
+    expect(setup.text).not.toMatch(/日本/);
+  });
+
   it('tells the operator where the safety notices are when a pack carries none', async () => {
     const r = await createCutPack(input(octahedronHexagons(), { notices: [], archive: false }));
     const setup = await pdfText(file(r, 'setup-sheet.pdf').data);

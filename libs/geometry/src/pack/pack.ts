@@ -16,7 +16,7 @@ import type {
 import { geometryMachineKind, MACHINE_PROFILE_KINDS, type MachineProfileKind } from '@kerfwright/contracts';
 import { type BuiltModel, buildModel } from '../build';
 import { gapRaisedNote, layoutModel } from '../layout/plan-layout';
-import { clashingColourNames, slug } from './slug';
+import { clashingColourNames, engravedColourName, printableColourName, slug } from './slug';
 import { type EstimateMachine, estimateJob } from '../estimate';
 import { type PieceLabels, labelPiece } from '../labels';
 import { type Vec2 } from '../math/vec';
@@ -208,6 +208,9 @@ export async function createCutPack(
 ): Promise<CutPackResult> {
   const progress = (f: number) => onProgress?.(Math.min(1, Math.max(0, f)));
   checkInput(input);
+  const nameNotes = colourNameNotes(input.colours);
+  // From here on every file shows a colour under the name the fonts can print.
+  input = { ...input, colours: input.colours.map(printableColourName) };
   progress(0.02);
   const model = buildChecked(input.spec);
   progress(0.15);
@@ -226,12 +229,18 @@ export async function createCutPack(
   const pieceColourName = Object.fromEntries(
     model.pieces.map((p) => [
       p.id,
-      multiColour ? colourName(layout.pieceColour[p.id] ?? 0).toUpperCase() : '',
+      multiColour
+        ? engravedColourName(colourName(layout.pieceColour[p.id] ?? 0), layout.pieceColour[p.id] ?? 0)
+        : '',
     ]),
   );
   const removed = model.spec.machine.kind === 'laser' ? model.spec.machine.kerfMm : 0;
   const labels = labelPieces(model, pieceColourName, removed);
-  const warnings: string[] = [...designWarnings(model), ...[...labels.values()].flatMap((l) => l.warnings)];
+  const warnings: string[] = [
+    ...nameNotes,
+    ...designWarnings(model),
+    ...[...labels.values()].flatMap((l) => l.warnings),
+  ];
   const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm);
   if (gapNote) warnings.push(gapNote);
   const bedNote = sheetOverBedNote(input);
@@ -346,6 +355,20 @@ export async function createCutPack(
   progress(1);
   return result;
 }
+
+/** A note for each colour name the PDF fonts or the engraving font cannot show as given. */
+function colourNameNotes(names: readonly string[]): string[] {
+  return names.flatMap((name, i) => {
+    const printed = printableColourName(name, i);
+    const engraved = engravedColourName(name, i);
+    if (printed === name && engraved === asciiUpper(name)) return [];
+    return [
+      `the colour name "${name}" has letters the pack's fonts lack: it is printed as "${printed}" and engraved as "${engraved}"`,
+    ];
+  });
+}
+
+const asciiUpper = (s: string) => s.toUpperCase().replace(/\s+/g, ' ').trim();
 
 /** A note when the stock sheet fits the machine's bed neither way round (else null). */
 export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine'>): string | null {

@@ -5,6 +5,7 @@
  */
 import PDFDocument from 'pdfkit';
 import { type Vec2, type Vec3 } from '../math/vec';
+import { winAnsiText } from './slug';
 
 export type Pdf = PDFKit.PDFDocument;
 
@@ -28,6 +29,17 @@ export function renderPdf(
       CreationDate: when,
       ModDate: when,
     },
+  });
+  // The standard fonts hold WinAnsi only: other characters (a name in another script) would print as
+  // gibberish, so every string is folded first (see winAnsiText).
+  const text = doc.text.bind(doc) as (...args: unknown[]) => Pdf;
+  const widthOf = doc.widthOfString.bind(doc) as (...args: unknown[]) => number;
+  const heightOf = doc.heightOfString.bind(doc) as (...args: unknown[]) => number;
+  const fold = (v: unknown) => (typeof v === 'string' ? winAnsiText(v) : v);
+  Object.assign(doc, {
+    text: (t: unknown, ...rest: unknown[]) => text(fold(t), ...rest),
+    widthOfString: (t: unknown, ...rest: unknown[]) => widthOf(fold(t), ...rest),
+    heightOfString: (t: unknown, ...rest: unknown[]) => heightOf(fold(t), ...rest),
   });
   const chunks: Buffer[] = [];
   return new Promise((resolve, reject) => {
