@@ -308,6 +308,26 @@ for (const [label, outline] of [
   );
 }
 
+// ---------- Large quantities ----------
+// A production run of one small part: 20,000 regular pentagons (R 30) on 600 × 400, margin 5, gap 2. Full
+// sheets repeat the first sheet's layout, so the time should hardly grow with the quantity.
+{
+  const pent = Array.from({ length: 5 }, (_, i) => {
+    const t = Math.PI / 2 + (2 * Math.PI * i) / 5;
+    return [30 * Math.cos(t), 30 * Math.sin(t)];
+  });
+  const line = [];
+  for (const quantity of [2_000, 20_000]) {
+    const input = { sheet: SHEET, marginMm: 5, gapMm: 2, parts: [{ id: 'pent', outline: pent, quantity }] };
+    const { result: r, wall, cpu } = timeRuns(() => nestParts(input));
+    line.push(
+      `${quantity} copies: ${r.ok ? `${r.totals.sheetCount} sheets` : r.error.message}, ` +
+        `median ${median(wall).toFixed(0)} ms wall, ${median(cpu).toFixed(0)} ms CPU`,
+    );
+  }
+  console.log(`one part in large quantities (pentagons R30): ${line.join('; ')}`);
+}
+
 // ---------- Decagons on a larger sheet ----------
 // 15 decagons fit a 600 × 400 sheet either way (REFERENCES), so they are compared on a 1220 × 2440 sheet too.
 // Estimate (not a bound): on an unbounded sheet the decagon lattice density 0.9137 (REFERENCES) applied to the

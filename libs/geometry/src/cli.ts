@@ -33,6 +33,13 @@ export const fileSystemIo: CliIo = {
   writeBytes: (p, d) => fs.writeFileSync(p, d),
   makeDir: (p) => makeDirs(p),
   joinPath: (...parts) => path.join(...parts),
+  listFiles: (dir) =>
+    fs.existsSync(dir)
+      ? fs
+          .readdirSync(dir, { withFileTypes: true })
+          .filter((e) => e.isFile())
+          .map((e) => e.name)
+      : [],
   removeStale: (dir, pattern, keep) => {
     const removed: string[] = [];
     for (const entry of fs.readdirSync(dir, { withFileTypes: true })) {

@@ -205,6 +205,18 @@ describe('CLI pack and coupon', () => {
     const r = await run(['coupon', writeJson('spec.json', spec), '--out', out]);
     expect(r.code).toBe(0);
     expect(fs.readdirSync(out).sort()).toEqual(['coupon.dxf', 'coupon.svg', 'manifest.json']);
+    // Again into the same folder: replaced.
+    expect((await run(['coupon', writeJson('spec.json', spec), '--out', out])).code).toBe(0);
+  });
+
+  it("refuses to write a coupon alone into a pack's folder, which would leave the pack's manifest wrong", async () => {
+    const out = path.join(dir, 'pack');
+    expect((await run(['pack', writeJson('spec.json', spec), '--out', out])).code).toBe(0);
+    const before = fs.readFileSync(path.join(out, 'manifest.json'), 'utf8');
+    const r = await run(['coupon', writeJson('spec.json', spec), '--out', out]);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/holds a cut pack/);
+    expect(fs.readFileSync(path.join(out, 'manifest.json'), 'utf8')).toBe(before);
   });
 
   it('cuts a fitBed spec at the fitted size', async () => {

@@ -13,6 +13,8 @@ export interface CliIo {
    * removed.
    */
   removeStale?: (dir: string, pattern: RegExp, keep: ReadonlySet<string>) => string[];
+  /** Names of the files in `dir` ([] when it does not exist). Optional: without it a folder looks empty. */
+  listFiles?: (dir: string) => string[];
 }
 
 /** Tells the user which files of an earlier run into the same folder were removed. */

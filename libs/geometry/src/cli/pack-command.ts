@@ -13,6 +13,9 @@ function exitCodeOf(e: CutPackError): number {
 const PACK_OUTPUTS =
   /^(sheet-\d+(-[^/\\]*)?\.(dxf|svg)|coupon\.(dxf|svg)|setup-sheet\.pdf|assembly-guide\.pdf|manifest\.json|cut-pack-cli\.zip)$/;
 
+/** Files only a whole pack writes: a folder holding one is a pack's. */
+const PACK_ONLY = /^(sheet-\d+(-[^/\\]*)?\.(dxf|svg)|setup-sheet\.pdf|assembly-guide\.pdf)$/;
+
 function writePack(io: CliIo, outDir: string, result: CutPackResult, wholePack: boolean): void {
   io.makeDir(outDir);
   // Sheets of an earlier, larger pack left beside this one's could be cut by mistake. (A coupon written
@@ -48,6 +51,13 @@ async function runPackLike(
   if (!specPath || extra !== undefined || typeof outDir !== 'string') throw new UsageError(`usage: ${usage}`);
   const units = options.get('units') ?? 'mm';
   if (units !== 'mm' && units !== 'in') throw new UsageError('--units must be "mm" or "in"');
+  if (!wholePack && (io.listFiles?.(outDir) ?? []).some((n) => PACK_ONLY.test(n))) {
+    // The coupon's manifest and coupon files would replace the pack's, leaving the pack's manifest wrong.
+    io.err(
+      `error: ${outDir} holds a cut pack, which already has its coupon: write the coupon alone to another folder`,
+    );
+    return 2;
+  }
   const input = readJsonArg(io, specPath);
   if (!input) return 2;
   let result: CutPackResult;
