@@ -36,13 +36,16 @@ export type ModelLayout =
     };
 
 /**
- * The narrowest gap between pieces the cutter allows: a router's bit (the files carry the nominal outline,
- * and the machine's tool offset puts the bit's whole width outside it) or the laser's kerf (outside the
- * compensated outline by half of it, on each of two neighbours) must fit between two pieces, or it cuts
- * into the neighbour.
+ * The narrowest gap between pieces at which the cuts of two neighbours do not overlap, so no path is cut twice
+ * and no sliver is left between them:
+ *  - laser: the files carry the compensated outline and the beam burns half its kerf on each side of it, so
+ *    two neighbours need one kerf between their outlines;
+ *  - router: the files carry the nominal outline and the machine's tool offset puts the bit's whole width
+ *    outside it, on each of the two neighbours, so they need two bit diameters. (At one diameter the two tool
+ *    paths coincide: the second pass cuts air along the first, and the time estimate counts it twice.)
  */
 export function cutterClearanceMm(machine: BuiltModel['spec']['machine']): number {
-  return machine.kind === 'router' ? machine.toolDiameterMm : machine.kerfMm;
+  return machine.kind === 'router' ? 2 * machine.toolDiameterMm : machine.kerfMm;
 }
 
 /** What to tell the operator when the cutter's width, not the gap asked for, set the spacing (else null). */
@@ -52,9 +55,12 @@ export function gapRaisedNote(
   usedGapMm: number,
 ): string | null {
   if (!(usedGapMm > askedGapMm)) return null;
-  const cutter = machine.kind === 'router' ? `${machine.toolDiameterMm} mm bit` : `${machine.kerfMm} mm kerf`;
+  const cutter =
+    machine.kind === 'router'
+      ? `the ${machine.toolDiameterMm} mm bit, passing outside both neighbours,`
+      : `the ${machine.kerfMm} mm kerf`;
   return (
-    `pieces are laid out ${usedGapMm} mm apart, not ${askedGapMm} mm: the ${cutter} needs that much room ` +
+    `pieces are laid out ${usedGapMm} mm apart, not ${askedGapMm} mm: ${cutter} needs that much room ` +
     `between neighbours`
   );
 }

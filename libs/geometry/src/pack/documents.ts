@@ -14,6 +14,8 @@ export const SAFETY_DEFERRAL =
 const f1 = (x: number) => (Math.round(x * 10) / 10).toFixed(1);
 const f2 = (x: number) => (Math.round(x * 100) / 100).toFixed(2);
 const money = (x: number, cur: string) => `${f2(x)} ${cur}`;
+/** A setting as given (3.175, not 3.18; a radius of 1.5875): what the operator types into the machine. */
+const exact = (x: number) => String(Math.round(x * 10000) / 10000);
 
 export function setupSheetPdf(args: {
   input: CutPackInput;
@@ -41,10 +43,10 @@ export function setupSheetPdf(args: {
       heading(doc, 'Material and stock');
       rows(doc, [
         ['Material', `${input.material.name} (${input.material.family})`],
-        ['Thickness', `${f2(input.material.thicknessMm)} mm${spec.stock.flexible ? ', flexible' : ''}`],
+        ['Thickness', `${exact(input.material.thicknessMm)} mm${spec.stock.flexible ? ', flexible' : ''}`],
         [
           'Sheet',
-          `${f1(input.sheet.widthMm)} x ${f1(input.sheet.heightMm)} mm, margin ${f1(input.marginMm)} mm, gap ${f1(input.gapMm)} mm`,
+          `${exact(input.sheet.widthMm)} x ${exact(input.sheet.heightMm)} mm, margin ${exact(input.marginMm)} mm, gap ${exact(input.gapMm)} mm`,
         ],
         ['Colours', input.colours.join(', ') + (input.colourRule ? ` (rule: ${input.colourRule})` : '')],
         ['Sheet count', `${sheets.length} (copies of the model: ${input.quantity})`],
@@ -57,8 +59,16 @@ export function setupSheetPdf(args: {
         [
           spec.machine.kind === 'laser' ? 'Kerf' : 'Tool diameter',
           spec.machine.kind === 'laser'
-            ? `${f2(spec.machine.kerfMm)} mm`
-            : `${f2(spec.machine.toolDiameterMm)} mm (dog-bone reliefs in slot corners)`,
+            ? `${exact(spec.machine.kerfMm)} mm`
+            : `${exact(spec.machine.toolDiameterMm)} mm (dog-bone reliefs in slot corners)`,
+        ],
+        [
+          'Compensation',
+          spec.machine.kind === 'laser'
+            ? `Built into the files: every cut line is already offset outward by half the kerf ` +
+              `(${exact(spec.machine.kerfMm / 2)} mm). Cut on the line; set no kerf offset in the machine software.`
+            : `Not in the files: cut lines are the nominal outlines. Set an outside tool offset of the bit's ` +
+              `radius (${exact(spec.machine.toolDiameterMm / 2)} mm) in the machine software.`,
         ],
         ['Cut speed', `${f1(m.cutSpeedMmS)} mm/s, ${m.passes} pass${m.passes === 1 ? '' : 'es'}`],
         ['Mark speed', `${f1(m.markSpeedMmS)} mm/s`],

@@ -243,8 +243,9 @@ describe('createCutPack (octahedron hexagons, two colours, mm)', () => {
     const { text, info } = await pdfText(file(pack, 'setup-sheet.pdf').data);
     for (const s of [
       'Cast acrylic 3 mm',
-      '3.00 mm',
+      'Thickness 3 mm',
       'Kerf 0.15 mm',
+      'every cut line is already offset outward by half the kerf (0.075 mm)',
       '12.0 mm/s, 1 pass',
       '150.0 mm/s',
       '65.0 %',
@@ -462,16 +463,18 @@ describe('createCutPack failures and the command-line helper', () => {
     }
   });
 
-  it('lays router pieces a bit diameter apart and says so when the gap asked for is narrower', async () => {
+  it('lays router pieces two bit diameters apart and says so when the gap asked for is narrower', async () => {
     const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
     const r = await createCutPack(
       input(spec, { gapMm: 1, machine: { ...input(spec).machine, kind: 'router' }, archive: false }),
     );
     expect(r.manifest.warnings).toContainEqual(
-      expect.stringMatching(/3\.175 mm apart, not 1 mm: the 3\.175 mm bit/),
+      expect.stringMatching(/6\.35 mm apart, not 1 mm: the 3\.175 mm bit/),
     );
     const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
-    expect(setup.text).toMatch(/gap 3\.2 mm/);
+    expect(setup.text).toMatch(/gap 6\.35 mm/);
+    expect(setup.text).toMatch(/Tool diameter\s*3\.175 mm/);
+    expect(setup.text).toMatch(/outside tool offset of the bit's\s+radius \(1\.5875 mm\)/);
   });
 
   it("puts the design's warnings on the setup sheet (pdf-parse), one line per kind, collisions first", async () => {
