@@ -1,6 +1,7 @@
 /** Public API of assembly labels (browser-safe, pure). Lengths in mm, angles in degrees counter-clockwise. */
 export {
   labelPiece,
+  uprightStrokes,
   type LabelOptions,
   type LabelPieceInput,
   type PieceLabels,

@@ -2,7 +2,7 @@ import * as polygonClipping from 'polygon-clipping';
 import { buildModel } from '../build';
 import { cubeStars83, octahedronHexagons } from '../test-support/designs';
 import { type Vec2 } from '../math/vec';
-import { boxCorners, labelPiece, strokeBounds, strokeLength, strokeText } from './index';
+import { boxCorners, labelPiece, strokeBounds, strokeLength, strokeText, uprightStrokes } from './index';
 
 type Ring = [number, number][];
 const ring = (pts: readonly Vec2[]): Ring => pts.map((p) => [p[0], p[1]]);
@@ -150,4 +150,44 @@ describe('labelPiece', () => {
       'no room for the label "P7" on P7; its slot labels are left off so none is read as its id',
     ]);
   });
+});
+
+describe('uprightStrokes', () => {
+  const turn = (p: Vec2, deg: number): Vec2 => {
+    const t = (deg * Math.PI) / 180;
+    return [p[0] * Math.cos(t) - p[1] * Math.sin(t), p[0] * Math.sin(t) + p[1] * Math.cos(t)];
+  };
+  const model = buildModel(octahedronHexagons());
+  const piece = model.pieces[0]!;
+  const labels = labelPiece({ id: piece.id, outline: piece.outline, slots: piece.slots }).labels;
+
+  it.each([0, 45, 90, 135, 180, 225, 270, 315])(
+    'keeps every label readable on a piece turned %i° on the sheet: its text runs left to right, upright',
+    (deg) => {
+      for (const l of labels) {
+        const strokes = uprightStrokes(l, deg).map((st) => st.map((p) => turn(p, deg)));
+        // Reading direction on the sheet: the direction from the text's first ink point to its last one
+        // along the baseline is the box's angle turned by deg, or its half turn when flipped.
+        const a = ((((l.box.angleDeg + deg) % 360) + 360) % 360) * (Math.PI / 180);
+        const flipped = a > Math.PI / 2 + 1e-9 && a <= (3 * Math.PI) / 2 + 1e-9;
+        const dir: Vec2 = flipped ? [-Math.cos(a), -Math.sin(a)] : [Math.cos(a), Math.sin(a)];
+        expect(dir[0]).toBeGreaterThanOrEqual(-1e-9); // never reads right to left
+        // The first stroke of the first character lies at the reading start: least along the reading direction.
+        const along = (p: Vec2) => p[0] * dir[0] + p[1] * dir[1];
+        const all = strokes.flat();
+        const lo = Math.min(...all.map(along));
+        const hi = Math.max(...all.map(along));
+        const first = strokes[0]!.map(along);
+        expect(Math.min(...first) - lo).toBeLessThan((hi - lo) / 2);
+        // The same box: the turned ink stays inside the label's box (which was checked against the cuts).
+        const t = (-l.box.angleDeg * Math.PI) / 180;
+        for (const p of uprightStrokes(l, deg).flat()) {
+          const dx = p[0] - l.box.centre[0];
+          const dy = p[1] - l.box.centre[1];
+          expect(Math.abs(dx * Math.cos(t) - dy * Math.sin(t))).toBeLessThanOrEqual(l.box.halfW + 1e-9);
+          expect(Math.abs(dx * Math.sin(t) + dy * Math.cos(t))).toBeLessThanOrEqual(l.box.halfH + 1e-9);
+        }
+      }
+    },
+  );
 });

@@ -104,6 +104,18 @@ function readable(angleDeg: number): number {
 }
 
 /**
+ * A label's strokes (piece frame) for a piece that will be turned by `turnDeg` on the sheet: as they are, or
+ * given a half turn about the box's centre when the turn would leave the text upside down. The box is
+ * symmetric about its centre, so the half-turned text stays inside it and keeps its clearances.
+ */
+export function uprightStrokes(label: PlacedLabel, turnDeg: number): Vec2[][] {
+  const a = (((label.box.angleDeg + turnDeg) % 360) + 360) % 360;
+  if (!(a > 90 && a <= 270)) return label.strokes; // the rule of readable()
+  const [cx, cy] = label.box.centre;
+  return label.strokes.map((st) => st.map((p) => [2 * cx - p[0], 2 * cy - p[1]] as Vec2));
+}
+
+/**
  * Places a piece's labels: first its own (id and colour), then one per slot with the partner's id near
  * the slot's mouth, beside the slot, reading along it. Deterministic.
  */

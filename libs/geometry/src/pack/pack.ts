@@ -18,7 +18,7 @@ import { type BuiltModel, buildModel } from '../build';
 import { gapRaisedNote, layoutModel } from '../layout/plan-layout';
 import { clashingColourNames, engravedColourName, printableColourName, slug } from './slug';
 import { type EstimateMachine, estimateJob } from '../estimate';
-import { type PieceLabels, labelPiece } from '../labels';
+import { type PieceLabels, labelPiece, uprightStrokes } from '../labels';
 import { type Vec2 } from '../math/vec';
 import { assemblyStepsOfReport } from './assembly';
 import { type Coupon, buildCoupon } from './coupon';
@@ -269,7 +269,9 @@ export async function createCutPack(
       return {
         id: pl.part,
         outline: piece.outline.map(place),
-        marks: (labels.get(pl.part)?.labels ?? []).flatMap((l) => l.strokes.map((st) => st.map(place))),
+        marks: (labels.get(pl.part)?.labels ?? []).flatMap((l) =>
+          uprightStrokes(l, pl.rotationDeg).map((st) => st.map(place)),
+        ),
       };
     });
     const num = String(i + 1).padStart(width, '0');
