@@ -72,8 +72,10 @@ export function setupSheetPdf(args: {
         ],
         ['Cut speed', `${f1(m.cutSpeedMmS)} mm/s, ${m.passes} pass${m.passes === 1 ? '' : 'es'}`],
         ['Mark speed', `${f1(m.markSpeedMmS)} mm/s`],
-        ['Power', m.powerPct === undefined ? 'as the profile sets' : `${f1(m.powerPct)} %`],
-        ['Pierce time', `${f2(m.pierceTimeS)} s`],
+        spec.machine.kind === 'laser'
+          ? ['Power', m.powerPct === undefined ? 'as the profile sets' : `${f1(m.powerPct)} %`]
+          : ['Spindle', m.powerPct === undefined ? 'as the profile sets' : `${f1(m.powerPct)} %`],
+        [spec.machine.kind === 'laser' ? 'Pierce time' : 'Plunge time', `${f2(m.pierceTimeS)} s`],
         ['Rapid speed', `${f1(m.rapidSpeedMmS)} mm/s`],
       ]);
       heading(doc, 'Files and scale');

@@ -11,6 +11,7 @@ export {
   packInputFrom,
   splitSpec,
   CLI_DEFAULT_MACHINE,
+  CLI_DEFAULT_ROUTER,
   type PackCommandOptions,
 } from './cli-commands';
 export { buildCoupon, DEFAULT_COUPON_OFFSETS, type Coupon, type CouponStrip } from './coupon';

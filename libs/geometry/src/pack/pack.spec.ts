@@ -434,6 +434,19 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(setup.text).toMatch(/Bed 300\.0 x 300\.0 mm/);
   });
 
+  it('gives a router design router defaults and, with no bed in the spec, a bed that takes the sheet', async () => {
+    const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
+    const inputOf = packInputFrom(spec, { sheet: { widthMm: 1220, heightMm: 2440 } });
+    expect(inputOf.machine).toMatchObject({ kind: 'router', bedWidthMm: 1220, bedHeightMm: 2440 });
+    expect(inputOf.machine.powerPct).toBeUndefined();
+    const r = await runPackCommand(spec, { sheet: { widthMm: 1220, heightMm: 2440 }, archive: false });
+    expect(r.manifest.warnings ?? []).not.toContainEqual(expect.stringMatching(/does not fit the machine/));
+    const { text } = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(text).toMatch(/Spindle\s*as the profile sets/);
+    expect(text).toMatch(/Plunge time\s*1\.00 s/);
+    expect(text).not.toMatch(/Pierce time|Power/);
+  });
+
   it('fits a fitBed design without a stock sheet to the sheet the pack lays out on (600 × 400, margin 5)', async () => {
     // Sized to the 600 × 400 bed alone, the largest piece would not fit the default sheet less its margins.
     const spec = { ...octahedronHexagons(), scale: { by: 'fitBed' }, bed: { widthMm: 600, heightMm: 400 } };
