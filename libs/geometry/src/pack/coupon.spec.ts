@@ -129,6 +129,23 @@ describe('fit-test coupon', () => {
     );
   });
 
+  it('leaves out graded slots no wider than the laser kerf, and says which', async () => {
+    // 0.3 mm card crossing at 90° with no clearance: w = 0.3 mm (cot 45° = 1); with a 0.25 mm kerf the
+    // −0.15 … −0.05 slots (0.15, 0.20, 0.25 mm) leave nothing to draw between their edges.
+    const spec: DesignSpec = {
+      solid: 'cube',
+      piece: { sides: 4, rotationDeg: 45, size: 1.5 },
+      scale: { by: 'diameter', mm: 300 },
+      stock: { thicknessMm: 0.3, flexible: true },
+      machine: { kind: 'laser', kerfMm: 0.25 },
+      fitMm: 0,
+    };
+    const r = await createCoupon({ ...packInputFrom(spec), archive: false });
+    expect(r.manifest.warnings).toContainEqual(
+      'coupon C1: slots no wider than the 0.25 mm kerf are left out (0.15, 0.20, 0.25 mm)',
+    );
+  });
+
   it('is part of every cut pack, in the pack units', async () => {
     const spec = design({ solid: 'octahedron', piece: { sides: 6, step: 1, rotationDeg: 0, size: 1.3 } });
     const r = await createCutPack({ ...packInputFrom(spec, { units: 'in' }), archive: false });

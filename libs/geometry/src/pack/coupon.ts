@@ -94,9 +94,9 @@ export function buildCoupon(
     // A laser slot must stay wider than the kerf; a router cannot cut a slot narrower than its bit.
     const all = offsets.map((o) => r2(w + o));
     const series = all.filter((x) => x - removed > 0.01 && x >= toolMm - 1e-9);
-    if (toolMm > 0 && series.length < all.length)
+    if (series.length < all.length)
       warnings.push(
-        `coupon ${id}: slots narrower than the ${toolMm} mm bit are left out (` +
+        `coupon ${id}: slots ${toolMm > 0 ? `narrower than the ${toolMm} mm bit` : `no wider than the ${removed} mm kerf`} are left out (` +
           all
             .filter((x) => !series.includes(x))
             .map((x) => x.toFixed(2))
@@ -119,7 +119,8 @@ export function buildCoupon(
         : notched.outline;
     const labelled = labelPiece(
       {
-        id: `${id} ${r2(angleDeg).toFixed(1)} DEG`,
+        // Widths are in mm whatever the drawing units (the fit record takes mm): the label says so.
+        id: `${id} ${r2(angleDeg).toFixed(1)} DEG, MM`,
         outline,
         slots: [
           ...series.map((sw, i) => ({
