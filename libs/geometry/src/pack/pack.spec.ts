@@ -4,6 +4,7 @@ import type { CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contra
 import { buildModel } from '../build';
 import { design, octahedronHexagons } from '../test-support/designs';
 import { CutPackError, createCutPack, sheetOverBedNote } from './pack';
+import { placeScaleMark } from './sheet-drawing';
 import { packInputFrom, runPackCommand } from './cli-commands';
 import { SAFETY_DEFERRAL } from './documents';
 import {
@@ -464,6 +465,49 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(router.manifest.warnings).toContainEqual(
       'the machine profile is a cnc-router but the design is compensated for a laser',
     );
+  });
+
+  it('engraves the scale mark on a piece, clear of its cuts and labels, when no stock is free, never off the sheet', () => {
+    // One 200 × 100 piece filling a 200 × 100 sheet with no margin, a label near its left end.
+    const outline: [number, number][] = [
+      [0, 0],
+      [200, 0],
+      [200, 100],
+      [0, 100],
+    ];
+    const label: [number, number][][] = [
+      [
+        [10, 40],
+        [40, 60],
+      ],
+    ];
+    const m = placeScaleMark(
+      { widthMm: 200, heightMm: 100 },
+      0,
+      [{ id: 'P7', outline, marks: label }],
+      'mm',
+      2,
+    );
+    expect(m.offSheet).toBe(false);
+    expect(m.onPiece).toBe('P7');
+    expect(m.lengthMm).toBe(100);
+    // The bar lies inside the piece at least 2 mm from its edges and clear of the label's box.
+    const [x0, y] = m.from;
+    const x1 = m.to[0];
+    expect(x0).toBeGreaterThanOrEqual(2);
+    expect(x1).toBeLessThanOrEqual(198);
+    expect(y).toBeGreaterThanOrEqual(2);
+    expect(x0 > 41 || x1 < 9 || y > 61 || y + 10 < 39).toBe(true);
+    // With free stock beside the piece, the mark goes there instead.
+    const free = placeScaleMark(
+      { widthMm: 400, heightMm: 100 },
+      0,
+      [{ id: 'P7', outline, marks: label }],
+      'mm',
+      2,
+    );
+    expect(free.onPiece).toBeUndefined();
+    expect(free.from[0]).toBeGreaterThan(200);
   });
 
   it('keeps the SVG page to the sheet when the margin is under a millimetre', async () => {

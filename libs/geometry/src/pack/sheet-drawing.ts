@@ -4,7 +4,7 @@
  * corner, y up.
  */
 import { type Vec2 } from '../math/vec';
-import { type LabelBox, boxClearOf, strokeBounds, strokeText } from '../labels';
+import { type LabelBox, boxClearOf, boxFitsInside, strokeBounds, strokeText } from '../labels';
 import {
   type EstimateMachine,
   type SheetEstimate,
@@ -33,6 +33,8 @@ export interface ScaleMark {
   to: Vec2;
   /** True when no free place was found on the sheet and the mark sits just below it. */
   offSheet: boolean;
+  /** The piece the mark is engraved on, when the sheet has no free place for it but a piece has. */
+  onPiece?: string;
 }
 
 export interface SheetDrawing {
@@ -94,30 +96,49 @@ const SCALE_BOX_HEIGHT_MM = SCALE_TICK_MM + 1.5 + SCALE_TEXT_MM + 0.5;
 const SCALE_LENGTHS: Record<Units, number[]> = { mm: [100, 50, 20, 10], in: [4, 2, 1, 0.5] };
 
 /**
- * Finds a free place for the scale mark: inside the sheet's margin and at least `clearMm` from every part,
- * bottom rows first. Falls back to just below the sheet.
+ * Finds a place for the scale mark, bottom rows first, longest mark first: on free stock inside the sheet's
+ * margin at least `clearMm` from every part; else (a sheet filled to its edges, as a fit to sheets can make
+ * it) inside a piece, clear of its cut lines by `clearMm` and of its labels; else just below the sheet.
  */
 export function placeScaleMark(
   sheet: { widthMm: number; heightMm: number },
   marginMm: number,
-  parts: readonly { outline: readonly Vec2[] }[],
+  parts: readonly (Pick<SheetPart, 'outline'> & Partial<Pick<SheetPart, 'id' | 'marks'>>)[],
   units: Units,
   clearMm: number,
 ): ScaleMark {
-  const boxes = parts.map((p) => {
-    const xs = p.outline.map((q) => q[0]);
-    const ys = p.outline.map((q) => q[1]);
+  const bounds = (pts: readonly Vec2[]) => {
+    const xs = pts.map((q) => q[0]);
+    const ys = pts.map((q) => q[1]);
     return [Math.min(...xs), Math.min(...ys), Math.max(...xs), Math.max(...ys)] as const;
+  };
+  const boxes = parts.map((p) => bounds(p.outline));
+  const mark = (length: number, from: Vec2, extra: Partial<ScaleMark> = {}): ScaleMark => {
+    const lengthMm = units === 'in' ? length * MM_PER_INCH : length;
+    return {
+      length,
+      lengthMm,
+      label: units === 'in' ? `${length} IN` : `${length} MM`,
+      from,
+      to: [from[0] + lengthMm, from[1]],
+      offSheet: false,
+      ...extra,
+    };
+  };
+  const h = SCALE_BOX_HEIGHT_MM;
+  /** The mark's box with its lower-left corner at (x, y). */
+  const boxAt = (x: number, y: number, w: number): LabelBox => ({
+    centre: [x + w / 2, y + h / 2],
+    angleDeg: 0,
+    halfW: w / 2,
+    halfH: h / 2,
   });
   const step = 5;
   for (const length of SCALE_LENGTHS[units]) {
-    const lengthMm = units === 'in' ? length * MM_PER_INCH : length;
-    const label = units === 'in' ? `${length} IN` : `${length} MM`;
-    const w = lengthMm + 1;
-    const h = SCALE_BOX_HEIGHT_MM;
+    const w = (units === 'in' ? length * MM_PER_INCH : length) + 1;
     for (let y = marginMm; y + h <= sheet.heightMm - marginMm + 1e-9; y += step) {
       for (let x = marginMm; x + w <= sheet.widthMm - marginMm + 1e-9; x += step) {
-        const box: LabelBox = { centre: [x + w / 2, y + h / 2], angleDeg: 0, halfW: w / 2, halfH: h / 2 };
+        const box = boxAt(x, y, w);
         const clear = parts.every((p, i) => {
           const b = boxes[i]!;
           if (b[0] > x + w + clearMm || b[2] < x - clearMm || b[1] > y + h + clearMm || b[3] < y - clearMm) {
@@ -125,29 +146,33 @@ export function placeScaleMark(
           }
           return boxClearOf(p.outline, box, clearMm);
         });
-        if (clear)
-          return {
-            length,
-            lengthMm,
-            label,
-            from: [x + 0.5, y],
-            to: [x + 0.5 + lengthMm, y],
-            offSheet: false,
-          };
+        if (clear) return mark(length, [x + 0.5, y]);
       }
     }
   }
-  const length = SCALE_LENGTHS[units][1]!;
-  const lengthMm = units === 'in' ? length * MM_PER_INCH : length;
-  const y = -SCALE_BOX_HEIGHT_MM - 2;
-  return {
-    length,
-    lengthMm,
-    label: units === 'in' ? `${length} IN` : `${length} MM`,
-    from: [marginMm, y],
-    to: [marginMm + lengthMm, y],
-    offSheet: true,
-  };
+  // Inside a piece: away from its cut lines and from every label stroke (grown by a millimetre).
+  const strokeBoxes = parts.flatMap((p) => (p.marks ?? []).map(bounds));
+  const order = parts.map((_, i) => i).sort((a, b) => area(boxes[b]!) - area(boxes[a]!));
+  const fine = 2.5;
+  for (const length of SCALE_LENGTHS[units]) {
+    const w = (units === 'in' ? length * MM_PER_INCH : length) + 1;
+    for (const i of order) {
+      const [x0, y0, x1, y1] = boxes[i]!;
+      for (let y = y0; y + h <= y1 + 1e-9; y += fine)
+        for (let x = x0; x + w <= x1 + 1e-9; x += fine) {
+          if (!boxFitsInside(parts[i]!.outline, boxAt(x, y, w), clearMm)) continue;
+          const hitsLabel = strokeBoxes.some(
+            (b) => b[0] < x + w + 1 && b[2] > x - 1 && b[1] < y + h + 1 && b[3] > y - 1,
+          );
+          if (!hitsLabel) return mark(length, [x + 0.5, y], { onPiece: parts[i]!.id ?? `#${i + 1}` });
+        }
+    }
+  }
+  return mark(SCALE_LENGTHS[units][1]!, [marginMm, -SCALE_BOX_HEIGHT_MM - 2], { offSheet: true });
+}
+
+function area(b: readonly [number, number, number, number]): number {
+  return (b[2] - b[0]) * (b[3] - b[1]);
 }
 
 /** Assembles a sheet: scale mark, working order (marks first, then cuts inner-first) and the estimate. */
@@ -166,6 +191,10 @@ export function drawSheet(args: {
   const scale = placeScaleMark(args.sheet, args.marginMm, args.parts, args.units, args.clearMm);
   if (scale.offSheet)
     warnings.push(`${args.name}: no free place on the sheet for the scale mark; it lies below the sheet`);
+  else if (scale.onPiece)
+    warnings.push(
+      `${args.name}: no free stock for the scale mark; it is engraved on piece ${scale.onPiece} instead`,
+    );
   const cutAll = args.parts.map((p) => p.outline);
   const markAll = [...scaleMarkStrokes(scale), ...args.parts.flatMap((p) => p.marks)].filter(
     (s) => s.length >= 2,
