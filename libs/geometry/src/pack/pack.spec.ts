@@ -406,6 +406,19 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(setup.text).not.toMatch(/日本/);
   });
 
+  it('packs one colour with no rule, and says which colours a rule leaves without pieces', async () => {
+    const one = await runPackCommand({ ...octahedronHexagons(), colours: { count: 1 } }, { archive: false });
+    expect(one.manifest.sheetCount).toBeGreaterThan(0);
+    // Opposite faces match: the octahedron's 8 faces make 4 pairs, so 4 of 6 colours at most.
+    const six = await runPackCommand(
+      { ...octahedronHexagons(), colours: { count: 6, rule: 'opposite-match' } },
+      { archive: false },
+    );
+    expect(six.manifest.warnings).toContainEqual(
+      '2 of the 6 colours get no pieces under the colour rule (colour-5, colour-6): no sheets of them are needed',
+    );
+  });
+
   it('tells the operator where the safety notices are when a pack carries none', async () => {
     const r = await createCutPack(input(octahedronHexagons(), { notices: [], archive: false }));
     const setup = await pdfText(file(r, 'setup-sheet.pdf').data);

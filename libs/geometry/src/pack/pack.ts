@@ -241,6 +241,13 @@ export async function createCutPack(
     ...designWarnings(model),
     ...[...labels.values()].flatMap((l) => l.warnings),
   ];
+  const used = new Set(Object.values(layout.pieceColour));
+  const unused = input.colours.filter((_, i) => !used.has(i));
+  if (unused.length > 0)
+    warnings.push(
+      `${unused.length} of the ${input.colours.length} colours get no pieces under the colour rule ` +
+        `(${unused.join(', ')}): no sheets of them are needed`,
+    );
   const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm);
   if (gapNote) warnings.push(gapNote);
   const bedNote = sheetOverBedNote(input);

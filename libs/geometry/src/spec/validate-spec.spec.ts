@@ -69,6 +69,11 @@ describe('validateSpec', () => {
       expect(v.spec.colours).toEqual({ count: 2, rule: 'neighbour-distinct' });
       expect(v.spec.scale).toEqual({ by: 'fitSheets', sheets: 3 });
     }
+    // One colour and no rule: nothing to plan. One colour with a rule asked for keeps it (and may fail it).
+    const one = validateSpec({ ...octahedronHexagons(), colours: { count: 1 } });
+    expect(one.ok && one.spec.colours).toBeNull();
+    const oneRule = validateSpec({ ...octahedronHexagons(), colours: { count: 1, rule: 'opposite-match' } });
+    expect(oneRule.ok && oneRule.spec.colours).toEqual({ count: 1, rule: 'opposite-match' });
     const bed = validateSpec({
       ...octahedronHexagons(),
       scale: { by: 'fitBed' },

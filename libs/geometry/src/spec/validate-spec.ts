@@ -298,7 +298,8 @@ export function validateSpec(input: unknown): SpecValidation {
             `colours.rule must be one of ${COLOUR_RULE_NAMES.map((r) => `"${r}"`).join(', ')}`,
           );
       }
-      colours = { count, rule, ...(names ? { names } : {}) };
+      // One colour with no rule asked for needs no plan (the default rule would only fail it).
+      colours = count === 1 && co.rule === undefined ? null : { count, rule, ...(names ? { names } : {}) };
     }
   }
   if (scale.by === 'fitSheets' && colours && scale.sheets < colours.count) {
