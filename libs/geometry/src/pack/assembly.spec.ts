@@ -4,6 +4,7 @@ import { layoutModel } from '../layout/plan-layout';
 import { assemblyOrder, assemblyStepsOfReport, STRAIGHT_DEG } from './assembly';
 import { packInputFrom } from './cli-commands';
 import { createCutPack } from './pack';
+import { joinPhrases } from './documents';
 import { readPdf } from './read-back.test';
 
 describe('assemblyOrder', () => {
@@ -45,6 +46,15 @@ describe('assemblyOrder', () => {
       }
       placed.add(s.piece);
     }
+  });
+});
+
+describe('joinPhrases', () => {
+  it('names each partner once, and says when a pair slides together on two pairs of slots', () => {
+    expect(joinPhrases('P4', ['P1', 'P2', 'P1'])).toEqual([
+      "its 2 slots for P1 onto P1's 2 slots for P4, together",
+      "its slot for P2 onto P2's slot for P4",
+    ]);
   });
 });
 

@@ -245,7 +245,10 @@ export function assemblyGuidePdf(args: {
       steps.forEach((s, i) => {
         ensureRoom(doc, 14);
         const joins = s.joins.length
-          ? s.joins.map((j) => `its slot for ${j.piece} onto ${j.piece}'s slot for ${s.piece}`).join('; ')
+          ? joinPhrases(
+              s.piece,
+              s.joins.map((j) => j.piece),
+            ).join('; ')
           : 'hold it upright: it is the first piece';
         const spread =
           rigid && s.spreadDeg > STRAIGHT_DEG
@@ -254,5 +257,19 @@ export function assemblyGuidePdf(args: {
         doc.text(`${i + 1}. ${s.piece} (${colourOf(s.piece)}): ${joins}${spread}.`);
       });
     },
+  );
+}
+
+/**
+ * The joins of one step in words, one phrase per partner: two pieces that cross twice (stars whose arms
+ * cross on both sides of the centre) slide together on both pairs of slots at once.
+ */
+export function joinPhrases(piece: string, partners: readonly string[]): string[] {
+  const counts = new Map<string, number>();
+  for (const p of partners) counts.set(p, (counts.get(p) ?? 0) + 1);
+  return [...counts].map(([p, n]) =>
+    n === 1
+      ? `its slot for ${p} onto ${p}'s slot for ${piece}`
+      : `its ${n} slots for ${p} onto ${p}'s ${n} slots for ${piece}, together`,
   );
 }

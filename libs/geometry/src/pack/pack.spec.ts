@@ -280,7 +280,7 @@ describe('createCutPack (octahedron hexagons, two colours, mm)', () => {
     const placed = new Set<string>();
     for (const [, , id, , joins] of steps) {
       if (placed.size > 0) {
-        const partners = [...joins!.matchAll(/slot for (P\d+) onto/g)].map((m) => m[1]!);
+        const partners = [...joins!.matchAll(/slots? for (P\d+) onto/g)].map((m) => m[1]!);
         expect(partners.length).toBeGreaterThan(0);
         for (const p of partners) {
           expect(placed.has(p)).toBe(true);
