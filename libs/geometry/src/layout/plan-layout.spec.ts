@@ -28,9 +28,9 @@ function spacing(
 
 describe('layoutModel: room for the cutter between pieces', () => {
   // Common practice: a router's tool offset puts the bit's whole diameter outside the nominal outline the
-  // files carry, so two pieces closer than the diameter lose material to each other's cut, and closer than
-  // two diameters their cuts overlap (at one diameter the two tool paths coincide: a path cut twice).
-  it('lays router pieces at least two bit diameters apart when the gap asked for is smaller', () => {
+  // files carry, so two pieces closer than the diameter lose material to each other's cut; at exactly one
+  // diameter the two tool paths coincide (a path cut twice), so they are kept 1 mm apart (our choice).
+  it('lays router pieces at least a bit diameter and 1 mm apart when the gap asked for is smaller', () => {
     const model = buildModel(
       cubeSquares45(1.5, {
         scale: { by: 'diameter', mm: 300 },
@@ -48,12 +48,12 @@ describe('layoutModel: room for the cutter between pieces', () => {
       quantity: 2,
     });
     if (!layout.ok) throw new Error(layout.message);
-    expect(layout.gapMm).toBe(6.35);
+    expect(layout.gapMm).toBe(4.175);
     const { min, overlaps } = spacing(model, layout);
     expect(overlaps).toBe(0);
-    expect(min).toBeGreaterThanOrEqual(6.35 - 1e-3);
+    expect(min).toBeGreaterThanOrEqual(4.175 - 1e-3);
     expect(gapRaisedNote(model.spec.machine, 1, layout.gapMm)).toMatch(
-      /6\.35 mm apart, not 1 mm: the 3\.175 mm bit, passing outside both neighbours,/,
+      /4\.175 mm apart, not 1 mm: the 3\.175 mm bit, passing outside both neighbours on separate paths,/,
     );
   });
 

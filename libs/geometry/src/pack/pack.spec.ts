@@ -533,16 +533,16 @@ describe('createCutPack failures and the command-line helper', () => {
     }
   });
 
-  it('lays router pieces two bit diameters apart and says so when the gap asked for is narrower', async () => {
+  it('lays router pieces a bit diameter and 1 mm apart and says so when the gap asked for is narrower', async () => {
     const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
     const r = await createCutPack(
       input(spec, { gapMm: 1, machine: { ...input(spec).machine, kind: 'router' }, archive: false }),
     );
     expect(r.manifest.warnings).toContainEqual(
-      expect.stringMatching(/6\.35 mm apart, not 1 mm: the 3\.175 mm bit/),
+      expect.stringMatching(/4\.175 mm apart, not 1 mm: the 3\.175 mm bit/),
     );
     const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
-    expect(setup.text).toMatch(/gap 6\.35 mm/);
+    expect(setup.text).toMatch(/gap 4\.175 mm/);
     expect(setup.text).toMatch(/Tool diameter\s*3\.175 mm/);
     expect(setup.text).toMatch(/outside tool offset of the bit's\s+radius \(1\.5875 mm\)/);
   });
