@@ -40,6 +40,20 @@ function pointList(v: unknown): boolean {
   );
 }
 
+/** Names a key not in `allowed` (a typo such as "gapMM" would otherwise be silently left at its default). */
+function unknownKeys(
+  v: Record<string, unknown>,
+  allowed: readonly string[],
+  where: string,
+  problems: string[],
+) {
+  for (const k of Object.keys(v))
+    if (!allowed.includes(k)) {
+      const near = allowed.find((a) => a.toLowerCase() === k.toLowerCase());
+      problems.push(`${where}${k} is not a known field${near ? ` (did you mean ${where}${near}?)` : ''}`);
+    }
+}
+
 /** Validates the command's input and nests it. Never throws for bad input. */
 export function runNestCommand(input: unknown): NestOutput {
   const problems: string[] = [];
@@ -50,7 +64,9 @@ export function runNestCommand(input: unknown): NestOutput {
     problems.push('input must be a JSON object');
     return invalid();
   }
+  unknownKeys(input, ['sheet', 'marginMm', 'gapMm', 'parts', 'rotationsDeg'], '', problems);
   const sheet = input.sheet;
+  if (isRecord(sheet)) unknownKeys(sheet, ['widthMm', 'heightMm'], 'sheet.', problems);
   if (
     !isRecord(sheet) ||
     !finite(sheet.widthMm) ||
@@ -59,8 +75,9 @@ export function runNestCommand(input: unknown): NestOutput {
     sheet.heightMm <= 0
   )
     problems.push('sheet must be {"widthMm": > 0, "heightMm": > 0}');
-  const marginMm = input.marginMm ?? 0;
-  const gapMm = input.gapMm ?? 0;
+  // Absent means the default; null is not a number.
+  const marginMm = input.marginMm === undefined ? 0 : input.marginMm;
+  const gapMm = input.gapMm === undefined ? 0 : input.gapMm;
   if (!finite(marginMm) || marginMm < 0) problems.push('marginMm must be a number ≥ 0');
   if (!finite(gapMm) || gapMm < 0) problems.push('gapMm must be a number ≥ 0');
   const runRotations = rotations(input.rotationsDeg, 'input', problems);
@@ -74,9 +91,15 @@ export function runNestCommand(input: unknown): NestOutput {
         problems.push(`${where} must be an object`);
         return;
       }
+      unknownKeys(
+        p,
+        ['id', 'outline', 'quantity', 'group', 'rotationsDeg', 'envelope'],
+        `${where}.`,
+        problems,
+      );
       if (typeof p.id !== 'string' || p.id.length === 0)
         problems.push(`${where}.id must be a non-empty string`);
-      const q = p.quantity ?? 1;
+      const q = p.quantity === undefined ? 1 : p.quantity;
       if (!finite(q) || !Number.isInteger(q) || q < 0)
         problems.push(`${where}.quantity must be a whole number ≥ 0`);
       const outline = p.outline;

@@ -868,6 +868,65 @@ describe('runNestCommand', () => {
     expect(runNestCommand(null).error?.code).toBe('INVALID_INPUT');
   });
 
+  it('names unknown fields (a typo would silently leave the gap at 0) and refuses null for a number', () => {
+    const sq = [
+      [0, 0],
+      [10, 0],
+      [10, 10],
+      [0, 10],
+    ];
+    const typo = runNestCommand({
+      sheet: { widthMm: 100, heightMm: 100, depthMm: 3 },
+      gapMM: 3,
+      parts: [{ id: 'a', outline: sq, qty: 2 }],
+    });
+    expect(typo.error?.message).toMatch(/gapMM is not a known field \(did you mean gapMm\?\)/);
+    expect(typo.error?.message).toMatch(/sheet\.depthMm is not a known field/);
+    expect(typo.error?.message).toMatch(/parts\[0\]\.qty is not a known field/);
+    const nulls = runNestCommand({
+      sheet: { widthMm: 100, heightMm: 100 },
+      marginMm: null,
+      parts: [{ id: 'a', outline: sq, quantity: null }],
+    });
+    expect(nulls.error?.message).toMatch(/marginMm must be a number/);
+    expect(nulls.error?.message).toMatch(/quantity must be a whole number/);
+  });
+
+  it('refuses runs past its limits in one line: copies, far-off points, huge sheets and gaps', () => {
+    const sq = (o: number) => [
+      [o, o],
+      [o + 10, o],
+      [o + 10, o + 10],
+      [o, o + 10],
+    ];
+    const sheet = { widthMm: 600, heightMm: 400 };
+    const many = runNestCommand({ sheet, parts: [{ id: 'a', outline: sq(0), quantity: 1e15 }] });
+    expect(many.error?.message).toMatch(
+      /at most 100,000 copies can be nested in one run; this asks for 1,000,000,000,000,000/,
+    );
+    expect(runNestCommand({ sheet, parts: [{ id: 'a', outline: sq(1e10) }] }).error?.message).toMatch(
+      /more than 1,000,000 mm from its origin/,
+    );
+    expect(
+      runNestCommand({ sheet, gapMm: 1e13, parts: [{ id: 'a', outline: sq(0) }] }).error?.message,
+    ).toMatch(/at most 10,000 mm/);
+    expect(
+      runNestCommand({ sheet: { widthMm: 1e13, heightMm: 400 }, parts: [{ id: 'a', outline: sq(0) }] }).error
+        ?.message,
+    ).toMatch(/at most 100,000 mm/);
+    // Within the limits, far from the origin, areas stay exact.
+    const far = runNestCommand({ sheet, parts: [{ id: 'a', outline: sq(9e5), quantity: 2 }] });
+    expect(far.totals?.partAreaMm2).toBeCloseTo(200, 9);
+  });
+
+  it('reports a group whatever its name, "__proto__" included', () => {
+    const out = runNestCommand({
+      sheet: { widthMm: 300, heightMm: 200 },
+      parts: [{ id: 'a', outline: regular(4, 10), group: '__proto__' }],
+    });
+    expect(JSON.parse(JSON.stringify(out.totals)).sheetsByGroup).toEqual(JSON.parse('{"__proto__":1}'));
+  });
+
   it('rejects a self-intersecting outline', () => {
     const bowtie: P[] = [
       [0, 0],
@@ -882,5 +941,21 @@ describe('runNestCommand', () => {
       parts: [{ id: 'bow', outline: bowtie, quantity: 1 }],
     });
     expect(out.error?.message).toMatch(/self-intersecting/);
+    // A symmetric bow tie, whose lobes cancel to no signed area, is still named as self-intersecting.
+    const even = runNestCommand({
+      sheet: { widthMm: 100, heightMm: 100 },
+      parts: [
+        {
+          id: 'even',
+          outline: [
+            [0, 0],
+            [10, 10],
+            [10, 0],
+            [0, 10],
+          ],
+        },
+      ],
+    });
+    expect(even.error?.message).toMatch(/self-intersecting/);
   });
 });

@@ -165,6 +165,13 @@ const MIN_PATTERN_COPIES = 3;
  */
 const MIN_PATTERN_SHEET_SHARE = 0.25;
 
+/**
+ * What one nesting run takes: beyond these the integer geometry (1 µm units) loses precision or the run
+ * would take minutes and gigabytes. A sheet side of 100 m, a gap or margin of 10 m, points within 1 km of
+ * their part's origin, and 100,000 copies in all.
+ */
+export const NEST_LIMITS = { sheetMm: 100_000, spacingMm: 10_000, coordinateMm: 1_000_000, copies: 100_000 };
+
 function fail(code: NestErrorCode, message: string, partIds: string[] = []): NestResult {
   return { ok: false, error: { code, message, partIds } };
 }
@@ -176,10 +183,11 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
     if (ids.has(p.id)) return fail('INVALID_INPUT', `part id "${p.id}" is used twice`, [p.id]);
     ids.add(p.id);
     const cleaned = cleanPolygon(p.outline as Point[]);
+    // Self-crossing first: a symmetric bow tie's two lobes cancel to no signed area.
+    if (cleaned.length >= 3 && !isSimplePolygon(cleaned))
+      return fail('INVALID_INPUT', `part "${p.id}" has a self-intersecting outline`, [p.id]);
     if (cleaned.length < 3 || Math.abs(signedArea(cleaned)) < 1e-9)
       return fail('INVALID_INPUT', `part "${p.id}" has no area`, [p.id]);
-    if (!isSimplePolygon(cleaned))
-      return fail('INVALID_INPUT', `part "${p.id}" has a self-intersecting outline`, [p.id]);
     const outline = toCounterClockwise(cleaned);
     const rot = p.rotationsDeg ?? input.rotationsDeg ?? 'auto';
     const rotationsDeg = rot === 'auto' ? autoRotations(outline) : distinctRotations(outline, rot);
@@ -192,7 +200,8 @@ function prepare(input: NestInput): PreparedPart[] | NestResult {
       group: p.group ?? DEFAULT_GROUP,
       quantity: p.quantity,
       outline,
-      areaMm2: signedArea(outline),
+      // Measured from the outline's first point: far from the origin the products lose digits.
+      areaMm2: signedArea(outline.map((q) => [q[0] - outline[0]![0], q[1] - outline[0]![1]] as Point)),
       rotationsDeg,
       // Set once congruent parts are counted together (mergeCongruent).
       patternRotationsDeg: rotationsDeg,
@@ -851,9 +860,38 @@ export function nestParts(input: NestInput): NestResult {
   const { sheet, marginMm, gapMm } = input;
   if (!(sheet.widthMm > 0 && sheet.heightMm > 0)) return fail('INVALID_INPUT', 'sheet size must be positive');
   if (!(marginMm >= 0) || !(gapMm >= 0)) return fail('INVALID_INPUT', 'margin and gap must be ≥ 0');
-  for (const p of input.parts)
+  if (sheet.widthMm > NEST_LIMITS.sheetMm || sheet.heightMm > NEST_LIMITS.sheetMm)
+    return fail(
+      'INVALID_INPUT',
+      `sheet sides must be at most ${NEST_LIMITS.sheetMm.toLocaleString('en')} mm`,
+    );
+  if (marginMm > NEST_LIMITS.spacingMm || gapMm > NEST_LIMITS.spacingMm)
+    return fail(
+      'INVALID_INPUT',
+      `margin and gap must be at most ${NEST_LIMITS.spacingMm.toLocaleString('en')} mm`,
+    );
+  let copies = 0;
+  for (const p of input.parts) {
     if (!Number.isInteger(p.quantity) || p.quantity < 0)
       return fail('INVALID_INPUT', `part "${p.id}" quantity must be a whole number ≥ 0`, [p.id]);
+    copies += p.quantity;
+    const far = [...p.outline, ...(p.envelope ?? [])].some(
+      (q) => Math.abs(q[0]) > NEST_LIMITS.coordinateMm || Math.abs(q[1]) > NEST_LIMITS.coordinateMm,
+    );
+    if (far)
+      return fail(
+        'INVALID_INPUT',
+        `part "${p.id}" has points more than ${NEST_LIMITS.coordinateMm.toLocaleString('en')} mm from its origin: ` +
+          'give the outline in millimetres near its own origin',
+        [p.id],
+      );
+  }
+  if (copies > NEST_LIMITS.copies)
+    return fail(
+      'INVALID_INPUT',
+      `at most ${NEST_LIMITS.copies.toLocaleString('en')} copies can be nested in one run; this asks for ` +
+        `${copies.toLocaleString('en')}: split the job`,
+    );
   const prepared = prepare(input);
   if (!Array.isArray(prepared)) return prepared;
   addFittingTurns(prepared, sheet.widthMm - 2 * marginMm, sheet.heightMm - 2 * marginMm);
@@ -882,7 +920,8 @@ export function nestParts(input: NestInput): NestResult {
   const sheetArea = sheet.widthMm * sheet.heightMm;
   const sheets: NestSheetResult[] = [];
   const groupTotals: NestTotals['groups'] = [];
-  const sheetsByGroup: Record<string, number> = {};
+  // No prototype: a group may be called anything, "__proto__" included.
+  const sheetsByGroup: Record<string, number> = Object.create(null) as Record<string, number>;
   const dense: DenseLayouts = new Map();
   for (const group of groups) {
     const parts = nesting.filter((p) => p.group === group && p.quantity > 0);
