@@ -108,6 +108,16 @@ function checkLayout(input: NestInput, result: NestResult): void {
   for (const p of input.parts) expect(counts.get(p.id) ?? 0).toBe(p.quantity);
 }
 
+/** An axis-aligned rectangle, counter-clockwise. */
+function box4(x: number, y: number, w: number, h: number): P[] {
+  return [
+    [x, y],
+    [x + w, y],
+    [x + w, y + h],
+    [x, y + h],
+  ];
+}
+
 function firstSheetCount(r: NestResult): number {
   return r.ok ? (r.sheets[0]?.placements.length ?? 0) : -1;
 }
@@ -663,6 +673,47 @@ describe('nestParts — true shape', () => {
     const s = nestParts(snug);
     checkLayout(snug, s);
     expect(s.ok && s.totals.sheetCount).toBe(1);
+  });
+
+  it('keeps grid-laid rectangles apart exactly, not to within a micrometre: a 10.0004 mm width, a turned rectangle far from its origin', () => {
+    const thin: NestInput = {
+      sheet: { widthMm: 100, heightMm: 10 },
+      marginMm: 0,
+      gapMm: 0,
+      parts: [{ id: 'r', outline: box4(0, 0, 10.0004, 10), quantity: 3 }],
+    };
+    const r1 = nestParts(thin);
+    checkLayout(thin, r1);
+    const xs = r1.ok ? r1.sheets[0]!.placements.map((p) => p.x).sort((a, b) => a - b) : [];
+    for (let i = 1; i < xs.length; i++) expect(xs[i]! - xs[i - 1]!).toBeGreaterThanOrEqual(10.0004);
+    // A 15 × 4.5 mm rectangle turned about 39° and given 460 mm from its origin, gap 1 mm.
+    const turned: NestInput = {
+      sheet: { widthMm: 1000, heightMm: 600 },
+      marginMm: 1,
+      gapMm: 1,
+      parts: [
+        {
+          id: 'rect0',
+          outline: [
+            [-435.771107673645, 190.83809852600098],
+            [-445.12374556808334, 202.32494940034047],
+            [-448.57468991953584, 199.51517731693227],
+            [-439.2220520250975, 188.02832644259277],
+          ],
+          quantity: 40,
+        },
+      ],
+    };
+    const r2 = nestParts(turned);
+    checkLayout(turned, r2);
+    if (!r2.ok) throw new Error(r2.error.message);
+    const polys = r2.sheets[0]!.placements.map((pl) =>
+      placed(turned.parts[0]!.outline as P[], pl.x, pl.y, pl.rotationDeg),
+    );
+    let min = Infinity;
+    for (let i = 0; i < polys.length; i++)
+      for (let j = i + 1; j < polys.length; j++) min = Math.min(min, boundaryDistance(polys[i]!, polys[j]!));
+    expect(min).toBeGreaterThanOrEqual(1 - 1e-6);
   });
 
   it('places every copy of a part that fits the usable sheet to within a micrometre, or names it', () => {

@@ -705,23 +705,21 @@ function rectangleGridPlan(
     const w = box.maxX - box.minX;
     const h = box.maxY - box.minY;
     if (!(Math.abs(areaUnits(v.poly)) >= w * h - 2 * (w + h))) continue;
-    // Exact positions (units, not rounded) from the exact outline's extent: each copy then lies within a unit
-    // (1 µm) of where it belongs, so neighbours keep the gap to within 1 µm. With no gap the whole-unit copies
-    // must not overlap at all, so the pitch covers their extent too.
+    // Whole-unit pitches from the exact outline's extent, rounded up: every copy is the same outline moved by
+    // whole units, so neighbours keep at least the gap (no gap: they touch at most) exactly, not to within a
+    // unit. With no gap the rounded outlines must not overlap either, so the pitch covers their extent too.
+    // (A size that is no whole number of µm loses its exact fit by a µm: 18 squares of 100/3 mm need 600.012.)
     const gap = cache.gapMm * S;
-    const pitchX = Math.max((b.maxX - b.minX) * S, gap > 0 ? 0 : w) + gap;
-    const pitchY = Math.max((b.maxY - b.minY) * S, gap > 0 ? 0 : h) + gap;
-    const spanX = (frame.widthMm - 2 * frame.marginMm - (b.maxX - b.minX)) * S;
-    const spanY = (frame.heightMm - 2 * frame.marginMm - (b.maxY - b.minY)) * S;
-    if (spanX < -1 || spanY < -1) continue;
-    const cols = Math.floor(Math.max(0, spanX) / pitchX + 1e-9) + 1;
-    const rows = Math.floor(Math.max(0, spanY) / pitchY + 1e-9) + 1;
-    const x0 = (frame.marginMm - b.minX) * S;
-    const y0 = (frame.marginMm - b.minY) * S;
+    const pitchX = Math.ceil(Math.max((b.maxX - b.minX) * S, gap > 0 ? 0 : w) + gap - 1e-6);
+    const pitchY = Math.ceil(Math.max((b.maxY - b.minY) * S, gap > 0 ? 0 : h) + gap - 1e-6);
     // Rounded positions are kept inside the sheet less its margin, as every placement is (innerFit).
     const fit = innerFit(frame, v);
     if (!fit) continue;
-    const at = (exact: number, lo: number, hi: number) => Math.min(Math.max(Math.round(exact), lo), hi);
+    const x0 = Math.max(Math.round((frame.marginMm - b.minX) * S), fit.x0);
+    const y0 = Math.max(Math.round((frame.marginMm - b.minY) * S), fit.y0);
+    if (x0 > fit.x1 || y0 > fit.y1) continue;
+    const cols = Math.floor((fit.x1 - x0) / pitchX) + 1;
+    const rows = Math.floor((fit.y1 - y0) / pitchY) + 1;
     const sheets: SheetState[] = [];
     for (let k = 0; k < part.quantity; k++) {
       const slot = k % (cols * rows);
@@ -729,11 +727,7 @@ function rectangleGridPlan(
       const sheet = sheets[sheets.length - 1]!;
       const c = Math.floor(slot / rows);
       const r = slot % rows;
-      sheet.items.push({
-        variant: v,
-        tx: at(x0 + c * pitchX, fit.x0, fit.x1),
-        ty: at(y0 + r * pitchY, fit.y0, fit.y1),
-      });
+      sheet.items.push({ variant: v, tx: x0 + c * pitchX, ty: y0 + r * pitchY });
       sheet.usedAreaMm2 += part.areaMm2;
     }
     const plan = { sheets, method: `pattern (${part.id}: grid of ${cols} × ${rows} at ${deg}°)` };
