@@ -448,6 +448,9 @@ function usableAreaMm2(frame: SheetFrame): number {
  * The last, partial sheet of a repeated layout: `prefix` (the layout's copies nearest the left edge), or
  * bottom-left fill of as many copies (left edge first), whichever leaves the longer offcut at the right.
  */
+/** Copies of one shape a sheet holds (by area) above which only the lattice and grid lay them out. */
+const CROWDED_PER_SHEET = 400;
+
 function shorterLastSheet(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -455,6 +458,8 @@ function shorterLastSheet(
   prefix: SheetState,
   variants: readonly Variant[],
 ): SheetState {
+  // Hundreds of copies: the fill would search each one for a shorter strip; the prefix is kept.
+  if (prefix.items.length > CROWDED_PER_SHEET) return prefix;
   const copies = Array.from({ length: prefix.items.length }, () => variants);
   const bl = bottomLeftFill(cache, frame, group, copies, [], 'left');
   const alt = bl.failed === null && bl.sheets.length === 1 ? bl.sheets[0]! : null;
@@ -511,6 +516,12 @@ function patternPlan(
       const sheet: SheetState = { group, items, usedAreaMm2: take * part.areaMm2, method: 'pattern' };
       sheets.push(sheet);
       left -= take;
+      // Hundreds to a sheet: topping up would search the free space left by all of them for a handful more
+      // at the edges (a minute for 8,500 stars); the lattice alone is kept.
+      if (take > CROWDED_PER_SHEET) {
+        template = { ...sheet, items: sheet.items.map((x) => ({ ...x })) };
+        continue;
+      }
       while (left > 0) {
         const c = findPosition(cache, frame, sheet, variants, 'left');
         if (!c) {
@@ -746,7 +757,14 @@ function nestGroup(
   dense: DenseLayouts = new Map(),
 ): GroupPlan | null {
   let best: GroupPlan | null = null;
-  if (method !== 'pattern') {
+  // Hundreds of copies of one shape to a sheet: the lattice is as good as a fill, and bottom-left fill,
+  // searching every copy, would take most of a minute (left to the fallback below when no lattice is found).
+  const crowded =
+    method === 'best' &&
+    parts.length === 1 &&
+    parts[0]!.quantity >= MIN_PATTERN_COPIES &&
+    usableAreaMm2(frame) / parts[0]!.areaMm2 > CROWDED_PER_SHEET;
+  if (method !== 'pattern' && !crowded) {
     for (const rule of ['left', 'right'] as const) {
       const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), [], rule);
       const plan = { sheets: r.sheets, method: `true-shape (bottom-left fill, ${rule} edge first)` };
