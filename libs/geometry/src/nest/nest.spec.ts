@@ -803,6 +803,7 @@ describe('nestParts — large quantities', () => {
       expect(small.ok && small.sheets.map(key)).toEqual(big.sheets.slice(0, 3).map(key));
     },
   );
+
   it('lays hundreds of small copies to a sheet by lattice alone, all placed and clear (polygon-clipping)', () => {
     const input: NestInput = {
       sheet: { widthMm: 300, heightMm: 200 },
