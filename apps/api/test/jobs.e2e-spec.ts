@@ -545,6 +545,32 @@ describe('jobs through their states', () => {
     expect(after.body.state).toBe('prepared');
   });
 
+  it('refuses to approve a job whose material was measured thicker since it was prepared, until it is prepared again', async () => {
+    const { own, jobId } = await jobInOwnWorkshop('prepared');
+    const card = await ctx.http.get(`/api/materials/${own.cardId}`).set(auth(users.fabricator)).expect(200);
+    const before = (card.body.measuredThicknessMm ?? card.body.nominalThicknessMm) as number;
+    const thicker = Math.round((before + 0.2) * 100) / 100;
+    await ctx.http
+      .patch(`/api/materials/${own.cardId}`)
+      .set(auth(users.fabricator))
+      .send({ version: card.body.version, measuredThicknessMm: thicker })
+      .expect(200);
+    const res = await act(users.supervisor, jobId, 'approve', {}, 409);
+    expectErrorBody(res.body, 409, 'JOB.MATERIAL_CHANGED');
+    expect(res.body.message).toContain(`is now ${thicker} mm thick; the job was prepared for ${before} mm`);
+    expect(res.body.message).toMatch(/Prepare the job again/);
+    expect(
+      (await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.fabricator)).expect(200)).body.state,
+    ).toBe('prepared');
+    // Prepared again for the new thickness, it goes through.
+    await act(users.fabricator, jobId, 'prepare', {
+      materialId: own.cardId,
+      profileVersionId: own.laserVersionId,
+      colours: ['clear'],
+    });
+    await act(users.supervisor, jobId, 'approve');
+  });
+
   it('refuses to release or re-export an approved job whose material was taken off the laser, queueing nothing', async () => {
     const { own, jobId } = await jobInOwnWorkshop('approved');
     await makePvc(own.cardId);

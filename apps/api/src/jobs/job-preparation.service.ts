@@ -183,7 +183,7 @@ export class JobPreparationService {
    */
   async assertStillCuttable(
     m: EntityManager,
-    job: Pick<Job, 'profileVersionId' | 'materialId'>,
+    job: Pick<Job, 'profileVersionId' | 'materialId'> & Partial<Pick<Job, 'spec'>>,
   ): Promise<{ version: ApprovedProfileVersion; material: MaterialView; setting: ProfileSetting }> {
     if (!job.profileVersionId || !job.materialId) {
       throw new AppError(
@@ -192,7 +192,28 @@ export class JobPreparationService {
         'The job has no material and machine profile yet; prepare it first',
       );
     }
-    return this.machineFor(m, job.profileVersionId, job.materialId);
+    const found = await this.machineFor(m, job.profileVersionId, job.materialId);
+    // Slot widths follow the stock's thickness: a new batch measured thicker since preparation would get
+    // slots cut for the old one.
+    const stock = job.spec?.stock;
+    const material = found.material;
+    const now = material.measuredThicknessMm ?? material.nominalThicknessMm;
+    if (
+      stock &&
+      (Math.abs(stock.thicknessMm - now) > 1e-6 || (stock.flexible ?? false) !== material.flexible)
+    ) {
+      const what =
+        Math.abs(stock.thicknessMm - now) > 1e-6
+          ? `is now ${now} mm thick; the job was prepared for ${stock.thicknessMm} mm`
+          : `is now ${material.flexible ? 'flexible' : 'rigid'}; the job was prepared for ${material.flexible ? 'rigid' : 'flexible'} stock`;
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'JOB.MATERIAL_CHANGED',
+        `${material.name} ${what}, and its slots would be cut for that. Prepare the job again`,
+        { materialId: material.id, preparedThicknessMm: stock.thicknessMm, thicknessMm: now },
+      );
+    }
+    return found;
   }
 
   /**
