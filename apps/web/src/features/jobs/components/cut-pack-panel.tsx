@@ -29,11 +29,14 @@ function formatBytes(bytes: number): string {
 export function CutPackPanel({
   jobId,
   canPrepare,
+  canDownload,
   onOpenSafety,
 }: {
   jobId: string;
   /** Fabricators (and supervisors) queue the pack; operators download it. */
   canPrepare: boolean;
+  /** Operators and supervisors download, after acknowledging the notices. */
+  canDownload: boolean;
   onOpenSafety: () => void;
 }) {
   const exports = useJobExports(jobId, true);
@@ -111,7 +114,9 @@ export function CutPackPanel({
               </Button>
             }
           >
-            {`The cut pack is ready (${newest.files.length} files). Acknowledge the safety notices to download it.`}
+            {canDownload
+              ? `The cut pack is ready (${newest.files.length} files). Acknowledge the safety notices to download it.`
+              : `The cut pack is ready (${newest.files.length} files). An operator or a supervisor downloads it after acknowledging the safety notices.`}
           </Alert>
         )
       ) : null}

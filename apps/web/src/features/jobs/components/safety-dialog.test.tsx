@@ -59,4 +59,15 @@ describe('safety dialog', () => {
     // The acknowledgement stays.
     expect(within(notices).getByLabelText(/I have read these notices/)).toBeInTheDocument();
   });
+
+  it('shows a fabricator the notices to read, with no acknowledgement the server would refuse', async () => {
+    stubFetch({ [`GET /api/jobs/${jobId}/safety`]: () => json(200, safety) });
+    renderWithProviders(<SafetyDialog jobId={jobId} open onClose={() => undefined} canAcknowledge={false} />);
+    const notices = await screen.findByTestId('safety-notices');
+    expect(within(notices).getByTestId('safety-read-only')).toHaveTextContent(
+      /An operator or a supervisor acknowledges these notices/,
+    );
+    expect(within(notices).queryByLabelText(/I have read these notices/)).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Acknowledge' })).toBeNull();
+  });
 });

@@ -28,10 +28,13 @@ export function SafetyDialog({
   jobId,
   open,
   onClose,
+  canAcknowledge = true,
 }: {
   jobId: string;
   open: boolean;
   onClose: () => void;
+  /** Operators and supervisors acknowledge (and then download); others read the notices only. */
+  canAcknowledge?: boolean;
 }) {
   const safety = useJobSafety(jobId, open);
   const acknowledge = useAcknowledgeJobSafety(jobId);
@@ -52,7 +55,6 @@ export function SafetyDialog({
       <DialogContent dividers>
         {safety.isPending ? <CircularProgress aria-label="Loading the notices" /> : null}
         {safety.isError ? <FormErrorAlert error={safety.error} /> : null}
-        {acknowledge.error ? <FormErrorAlert error={acknowledge.error} /> : null}
         {view ? (
           <Stack spacing={2} data-testid="safety-notices">
             <Typography variant="body2" color="text.secondary">
@@ -84,6 +86,11 @@ export function SafetyDialog({
               <Alert severity="success" data-testid="safety-acknowledged">
                 {`You acknowledged these notices${view.acknowledgedAt ? ` on ${new Date(view.acknowledgedAt).toLocaleString()}` : ''}.`}
               </Alert>
+            ) : !canAcknowledge ? (
+              <Alert severity="info" data-testid="safety-read-only">
+                An operator or a supervisor acknowledges these notices before downloading the files and
+                cutting.
+              </Alert>
             ) : (
               <FormControlLabel
                 control={<Checkbox checked={read} onChange={(e) => setRead(e.target.checked)} />}
@@ -94,8 +101,14 @@ export function SafetyDialog({
         ) : null}
       </DialogContent>
       <DialogActions>
+        {/* Also here, beside the button: at the top of a long dialog a refusal would go unseen. */}
+        {acknowledge.error ? (
+          <Box sx={{ flex: 1 }}>
+            <FormErrorAlert error={acknowledge.error} />
+          </Box>
+        ) : null}
         <Button onClick={onClose}>Close</Button>
-        {view && !view.acknowledged ? (
+        {view && !view.acknowledged && canAcknowledge ? (
           <Button
             variant="contained"
             disabled={!read || acknowledge.isPending}

@@ -236,6 +236,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         <CutPackPanel
           jobId={job.id}
           canPrepare={user.role === 'fabricator' || user.role === 'supervisor'}
+          canDownload={user.role === 'operator' || user.role === 'supervisor'}
           onOpenSafety={() => setOpen('safety')}
         />
       ) : null}
@@ -303,7 +304,14 @@ function JobDetail({ job }: { job: JobDetailView }) {
           onClose={() => setOpen(null)}
         />
       ) : null}
-      {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}
+      {open === 'safety' ? (
+        <SafetyDialog
+          jobId={job.id}
+          open
+          onClose={() => setOpen(null)}
+          canAcknowledge={user.role === 'operator' || user.role === 'supervisor'}
+        />
+      ) : null}
       {open && !['prepare', 'return', 'cut', 'safety'].includes(open) ? (
         <Dialog open onClose={() => setOpen(null)} aria-labelledby="confirm-title">
           <DialogTitle id="confirm-title">{transitionFor(open as JobAction).label}?</DialogTitle>

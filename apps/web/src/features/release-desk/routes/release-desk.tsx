@@ -154,6 +154,7 @@ function DeskJob({ job }: { job: JobView }) {
       <CutPackPanel
         jobId={job.id}
         canPrepare={user.role === 'supervisor'}
+        canDownload={user.role === 'operator' || user.role === 'supervisor'}
         onOpenSafety={() => setOpen('safety')}
       />
       {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}
