@@ -56,6 +56,25 @@ describe('sign-in and registration (real PostgreSQL)', () => {
     expect(await countRows(ctx, 'users')).toBe(before);
   });
 
+  it('refuses a password that is long only by its spaces, but takes spaces inside a passphrase', async () => {
+    for (const password of [' '.repeat(12), '   abc     ', '\tshort pw\n']) {
+      const res = await ctx.http
+        .post('/api/auth/register')
+        .send({ email: `sp-${randomUUID().slice(0, 8)}@tests.example`, displayName: 'S', password })
+        .expect(400);
+      expectErrorBody(res.body, 400, 'VALIDATION.FAILED');
+      expect(JSON.stringify(res.body.details)).toMatch(/besides leading and trailing spaces/);
+    }
+    await ctx.http
+      .post('/api/auth/register')
+      .send({
+        email: `sp-${randomUUID().slice(0, 8)}@tests.example`,
+        displayName: 'S',
+        password: 'a long pass phrase',
+      })
+      .expect(201);
+  });
+
   it('refuses to let a registration choose its own role', async () => {
     const before = await countRows(ctx, 'users');
     const res = await ctx.http

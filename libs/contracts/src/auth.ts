@@ -2,6 +2,10 @@ import type { Role } from './roles';
 
 /** Password rules shared by the register form and the API. */
 export const PASSWORD_MIN_LENGTH = 10;
+/** Whether a password is long enough counting only what lies between its first and last non-space. */
+export function passwordLongEnough(password: string): boolean {
+  return password.trim().length >= PASSWORD_MIN_LENGTH;
+}
 export const PASSWORD_MAX_LENGTH = 128;
 export const DISPLAY_NAME_MAX_LENGTH = 80;
 

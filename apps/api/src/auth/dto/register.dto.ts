@@ -1,9 +1,10 @@
 import { Transform } from 'class-transformer';
-import { IsEmail, IsString, MaxLength, MinLength } from 'class-validator';
+import { IsEmail, IsString, MaxLength, MinLength, ValidateBy } from 'class-validator';
 import {
   DISPLAY_NAME_MAX_LENGTH,
   PASSWORD_MAX_LENGTH,
   PASSWORD_MIN_LENGTH,
+  passwordLongEnough,
   type RegisterRequest,
 } from '@kerfwright/contracts';
 
@@ -19,5 +20,14 @@ export class RegisterDto implements RegisterRequest {
   @IsString()
   @MinLength(PASSWORD_MIN_LENGTH, { message: `password must be at least ${PASSWORD_MIN_LENGTH} characters` })
   @MaxLength(PASSWORD_MAX_LENGTH)
+  // Spaces inside a passphrase count; ten spaces, or a short word padded with them, do not.
+  @ValidateBy({
+    name: 'passwordLongEnough',
+    validator: {
+      validate: (v: unknown) => typeof v === 'string' && passwordLongEnough(v),
+      defaultMessage: () =>
+        `password must be at least ${PASSWORD_MIN_LENGTH} characters besides leading and trailing spaces`,
+    },
+  })
   password: string;
 }

@@ -3,6 +3,7 @@ import {
   DISPLAY_NAME_MAX_LENGTH,
   PASSWORD_MAX_LENGTH,
   PASSWORD_MIN_LENGTH,
+  passwordLongEnough,
   type RegisterRequest,
 } from '@kerfwright/contracts';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
@@ -28,7 +29,11 @@ export const registerInputSchema = z
     password: z
       .string()
       .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters`)
-      .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters`),
+      .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters`)
+      .refine(
+        passwordLongEnough,
+        `Use at least ${PASSWORD_MIN_LENGTH} characters besides spaces at the ends`,
+      ),
     confirmPassword: z.string().min(1, 'Repeat your password'),
   })
   .refine((v) => v.password === v.confirmPassword, {

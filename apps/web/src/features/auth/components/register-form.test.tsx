@@ -44,6 +44,18 @@ describe('RegisterForm', () => {
     expect(fields.password()).toHaveAttribute('aria-invalid', 'true');
   });
 
+  it('refuses a password that reaches the minimum only by spaces at its ends', async () => {
+    stubFetch({});
+    const { user, fields } = setup();
+    const padded = `  abc${' '.repeat(PASSWORD_MIN_LENGTH)}`;
+    await user.type(fields.password(), padded);
+    await user.type(fields.repeat(), padded);
+    await user.click(fields.submit());
+    expect(
+      await screen.findByText(`Use at least ${PASSWORD_MIN_LENGTH} characters besides spaces at the ends`),
+    ).toBeInTheDocument();
+  });
+
   it('accepts a password of exactly the minimum length', async () => {
     stubFetch({});
     const { user, fields } = setup();
