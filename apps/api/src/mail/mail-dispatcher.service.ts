@@ -40,7 +40,12 @@ export class MailDispatcherService implements OnApplicationBootstrap, OnApplicat
     @InjectDataSource() private readonly dataSource: DataSource,
     @Inject(mailConfig.KEY) private readonly config: ConfigType<typeof mailConfig>,
   ) {
+    // A pooled transport keeps its SMTP connection open between messages: one message per recipient means a
+    // busy hour sends hundreds, and a fresh connection (greeting, EHLO, QUIT) for each costs more than the mail.
     this.transport = nodemailer.createTransport({
+      pool: true,
+      maxConnections: 1,
+      maxMessages: 200,
       host: config.host,
       port: config.port,
       secure: false,
