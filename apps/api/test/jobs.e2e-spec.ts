@@ -269,6 +269,13 @@ describe('jobs through their states', () => {
     const after = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.fabricator)).expect(200);
     expect(after.body.profileVersionId).toBe(w.laserVersionId);
     expect(after.body.profileVersionNumber).toBe(1);
+    expect(after.body.preparedByCaller).toBe(true);
+    // The supervisor is not offered an approval the server would refuse, and is told why.
+    const seen = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.supervisor)).expect(200);
+    expect(seen.body.profileVersionRetired).toBe(true);
+    expect(seen.body.preparedByCaller).toBe(false);
+    expect(seen.body.actions).not.toContain('approve');
+    expect(seen.body.actions).toContain('return');
     // Approving the job now is refused: its version is no longer approved.
     expectErrorBody(
       (await act(users.supervisor, job.id, 'approve', {}, 409)).body,

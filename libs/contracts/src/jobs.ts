@@ -144,6 +144,10 @@ export interface JobView {
   profileVersionId: string | null;
   profileName: string | null;
   profileVersionNumber: number | null;
+  /** True when the job's profile version is no longer the approved one (retired since preparation). */
+  profileVersionRetired?: boolean;
+  /** True when the caller prepared the job (so may not approve it: four eyes). */
+  preparedByCaller?: boolean;
   returnReason: string | null;
   preparation: JobPreparation | null;
   actualMinutes: number | null;

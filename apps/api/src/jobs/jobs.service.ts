@@ -70,7 +70,7 @@ const ROW_SELECT = `${LIST_COLUMNS.filter((c) => !c.endsWith('_at'))
   .join(', ')},
        ${isoTimestamp('page.created_at')} AS created_at, ${isoTimestamp('page.updated_at')} AS updated_at,
        d.name AS design_name, r.display_name AS requester_name,
-       m.name AS material_name, p.name AS profile_name, v.number AS profile_number,
+       m.name AS material_name, p.name AS profile_name, v.number AS profile_number, v.state AS profile_state,
        CASE WHEN page.state = 'prepared' THEN
          (SELECT t.actor_id FROM job_transitions t
            WHERE t.job_id = page.id AND t.action = 'prepare' ORDER BY t.id DESC LIMIT 1)
@@ -109,6 +109,7 @@ type JobListRow = {
   material_name: string | null;
   profile_name: string | null;
   profile_number: number | null;
+  profile_state: string | null;
   preparer_id: string | null;
 };
 
@@ -130,6 +131,8 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     profileVersionId: r.profile_version_id,
     profileName: r.profile_name,
     profileVersionNumber: r.profile_number === null ? null : Number(r.profile_number),
+    profileVersionRetired: r.profile_state !== null && r.profile_state !== 'approved',
+    preparedByCaller: r.preparer_id === user.id,
     returnReason: r.return_reason,
     preparation: r.preparation,
     actualMinutes: numberOrNull(r.actual_minutes),
@@ -138,7 +141,12 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     version: r.version,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
-    actions: jobActionsFor(r.state, user, r.requester_id, r.preparer_id),
+    actions: jobActionsFor(r.state, user, r.requester_id, r.preparer_id).filter(
+      // A job prepared on a version retired (or withdrawn) since cannot be approved or released: it is
+      // prepared again on the approved version first (the server refuses either with 409 otherwise).
+      (a) =>
+        r.profile_state === null || r.profile_state === 'approved' || (a !== 'approve' && a !== 'release'),
+    ),
   };
 }
 

@@ -68,6 +68,16 @@ export class JobViewDto implements JobView {
   profileVersionId: string | null;
   @ApiProperty({ type: String, nullable: true }) profileName: string | null;
   @ApiProperty({ type: Number, nullable: true }) profileVersionNumber: number | null;
+  @ApiProperty({
+    required: false,
+    description: "True when the job's profile version is no longer the approved one: prepare the job again",
+  })
+  profileVersionRetired?: boolean;
+  @ApiProperty({
+    required: false,
+    description: 'True when the caller prepared the job (four eyes: no approval)',
+  })
+  preparedByCaller?: boolean;
   @ApiProperty({ type: String, nullable: true }) returnReason: string | null;
   @ApiProperty({ type: JobPreparationDto, nullable: true }) preparation: JobPreparationDto | null;
   @ApiProperty({ type: Number, nullable: true }) actualMinutes: number | null;

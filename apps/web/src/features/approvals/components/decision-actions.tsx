@@ -1,5 +1,6 @@
 import Button from '@mui/material/Button';
 import CardActions from '@mui/material/CardActions';
+import Typography from '@mui/material/Typography';
 
 /** A waiting card's two ways out: approve it, or open the send-back dialog. */
 export function DecisionActions({
@@ -7,17 +8,26 @@ export function DecisionActions({
   approving,
   onApprove,
   onSendBack,
+  approveBlocked,
 }: {
   approveLabel: string;
   approving: boolean;
   onApprove: () => void;
   onSendBack: () => void;
+  /** Why the caller cannot approve this (the server would refuse): said instead of offering the button. */
+  approveBlocked?: string | null;
 }) {
   return (
     <CardActions sx={{ px: 2, pb: 2 }}>
-      <Button variant="contained" color="success" loading={approving} onClick={onApprove}>
-        {approveLabel}
-      </Button>
+      {approveBlocked ? (
+        <Typography variant="body2" color="text.secondary" sx={{ flex: 1 }} data-testid="approve-blocked">
+          {approveBlocked}
+        </Typography>
+      ) : (
+        <Button variant="contained" color="success" loading={approving} onClick={onApprove}>
+          {approveLabel}
+        </Button>
+      )}
       <Button color="error" onClick={onSendBack}>
         Send back
       </Button>

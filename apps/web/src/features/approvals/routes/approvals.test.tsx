@@ -67,13 +67,14 @@ const job = {
   profileVersionNumber: 1,
   preparation: null,
   version: 4,
+  actions: ['approve', 'return'],
 } as unknown as JobView;
 
-function approvalsApi() {
+function approvalsApi(waitingJob: JobView = job) {
   return stubFetch({
     'GET /api/auth/me': () => json(200, supervisor),
     'GET /api/machine-profiles': () => json(200, { items: [profile], total: 1, page: 1, pageSize: 100 }),
-    'GET /api/jobs': () => json(200, { items: [job], total: 1, page: 1, pageSize: 100 }),
+    'GET /api/jobs': () => json(200, { items: [waitingJob], total: 1, page: 1, pageSize: 100 }),
     'POST /api/machine-profiles/p-laser/versions/v-2/return': (call) =>
       json(200, { ...waiting, state: 'draft', returnReason: (call.body as { reason: string }).reason }),
     'POST /api/jobs/j-1/approve': () => json(200, { ...job, state: 'approved' }),
@@ -125,6 +126,23 @@ describe('Approvals (supervisor)', () => {
     await user.click(within(card).getByRole('button', { name: 'Approve the job' }));
     await waitFor(() => expect(calls.some((c) => c.url.pathname === '/api/jobs/j-1/approve')).toBe(true));
     expect(calls.find((c) => c.url.pathname === '/api/jobs/j-1/approve')?.body).toEqual({ version: 4 });
+  });
+
+  it('says why a job cannot be approved instead of offering a button the server refuses', async () => {
+    for (const [blocked, reason] of [
+      [{ preparedByCaller: true }, /You prepared this job: another supervisor approves it/],
+      [{ profileVersionRetired: true }, /CO2 laser, 60 W version 1 is no longer the approved one/],
+    ] as const) {
+      const { calls } = approvalsApi({ ...job, ...blocked, actions: ['return'] });
+      const { unmount } = renderApp('/approvals', { token: 't' });
+      const card = await screen.findByTestId('waiting-job');
+      expect(within(card).getByTestId('approve-blocked')).toHaveTextContent(reason);
+      expect(within(card).queryByRole('button', { name: 'Approve the job' })).toBeNull();
+      // Sending back stays possible.
+      expect(within(card).getByRole('button', { name: 'Send back' })).toBeEnabled();
+      expect(calls.some((c) => c.method === 'POST')).toBe(false);
+      unmount();
+    }
   });
 
   it('tells a fabricator that Approvals is not part of their role', async () => {

@@ -185,6 +185,15 @@ export function ApprovalsRoute() {
               </CardContent>
               <DecisionActions
                 approveLabel="Approve the job"
+                approveBlocked={
+                  j.actions.includes('approve')
+                    ? null
+                    : j.preparedByCaller
+                      ? 'You prepared this job: another supervisor approves it (four-eyes rule).'
+                      : j.profileVersionRetired
+                        ? `${j.profileName ?? 'The machine profile'} version ${j.profileVersionNumber ?? '?'} is no longer the approved one: the job must be prepared again before it can be approved.`
+                        : 'You cannot approve this job.'
+                }
                 approving={decideJob.isPending && decideJob.variables.jobId === j.id}
                 onApprove={() => approveJob(j)}
                 onSendBack={() => {
