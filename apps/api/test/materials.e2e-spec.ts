@@ -313,6 +313,44 @@ describe('materials library', () => {
       expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
     });
 
+    it('lets only a supervisor put a material kept off the laser back on it, by its flag or a new family', async () => {
+      const pvc = await createMaterial({ family: 'pvc', name: unique('Grey sheet') });
+      const mdf = await createMaterial({
+        family: 'mdf',
+        laserAllowed: false,
+        hazardNote: 'Binder unknown',
+        name: unique('Brown board'),
+      });
+      // A fabricator reclassifying PVC as acrylic and switching the laser on is refused, changing nothing.
+      for (const [m, family, change] of [
+        [pvc, 'pvc', { family: 'acrylic', laserAllowed: true }],
+        [mdf, 'mdf', { laserAllowed: true }],
+      ] as const) {
+        const res = await ctx.http
+          .patch(`/api/materials/${m.id}`)
+          .set(auth('fabricator'))
+          .send({ version: m.version, ...change })
+          .expect(403);
+        expectErrorBody(res.body, 403, 'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR');
+        const same = await ctx.http.get(`/api/materials/${m.id}`).set(auth('operator')).expect(200);
+        expect(same.body).toMatchObject({ family, laserAllowed: false, version: m.version });
+      }
+      // Other changes stay the fabricator's, and the laser stays off.
+      const renamed = await ctx.http
+        .patch(`/api/materials/${mdf.id}`)
+        .set(auth('fabricator'))
+        .send({ version: mdf.version, notes: 'Second batch' })
+        .expect(200);
+      expect(renamed.body).toMatchObject({ notes: 'Second batch', laserAllowed: false });
+      // A supervisor may decide it (audited as any change).
+      const released = await ctx.http
+        .patch(`/api/materials/${pvc.id}`)
+        .set(auth('supervisor'))
+        .send({ version: pvc.version, family: 'acrylic', laserAllowed: true, hazardNote: '' })
+        .expect(200);
+      expect(released.body).toMatchObject({ family: 'acrylic', laserAllowed: true });
+    });
+
     it('stores the condition of a conditionally allowed family (felt) as the hazard note', async () => {
       const row = await hazardRow(ctx, 'felt');
       expect(row.laser).toBe('conditional');

@@ -57,14 +57,17 @@ export class MaterialsController {
     @Body() dto: CreateMaterialDto,
     @Req() req: unknown,
   ): Promise<MaterialView> {
-    return this.materials.create({ id: user.id, requestId: requestIdOf(req) }, dto);
+    return this.materials.create({ id: user.id, requestId: requestIdOf(req), role: user.role }, dto);
   }
 
   @Patch(':id')
   @ApiOperation({ summary: 'Change a material (fabricator, supervisor); send the version you read' })
   @Roles('fabricator')
   @ApiOkResponse({ type: MaterialResponse })
-  @ApiForbiddenResponse({ description: 'AUTH.FORBIDDEN: fabricators and supervisors only' })
+  @ApiForbiddenResponse({
+    description:
+      'AUTH.FORBIDDEN: fabricators and supervisors only; MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR: only a supervisor allows a material kept off the laser back on it',
+  })
   @ApiConflictResponse({
     description: 'MATERIAL.STALE_VERSION, MATERIAL.NAME_TAKEN or MATERIAL.LASER_PROHIBITED',
   })
@@ -74,7 +77,7 @@ export class MaterialsController {
     @Body() dto: UpdateMaterialDto,
     @Req() req: unknown,
   ): Promise<MaterialView> {
-    return this.materials.update({ id: user.id, requestId: requestIdOf(req) }, id, dto);
+    return this.materials.update({ id: user.id, requestId: requestIdOf(req), role: user.role }, id, dto);
   }
 
   @Delete(':id')
@@ -89,6 +92,6 @@ export class MaterialsController {
     @Param('id', new ParseIdPipe()) id: string,
     @Req() req: unknown,
   ): Promise<void> {
-    await this.materials.remove({ id: user.id, requestId: requestIdOf(req) }, id);
+    await this.materials.remove({ id: user.id, requestId: requestIdOf(req), role: user.role }, id);
   }
 }

@@ -9,6 +9,7 @@ import {
   type MaterialFamily,
   type MaterialView,
   type Page,
+  type Role,
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { AppError, notFound } from '../common/errors';
@@ -30,6 +31,8 @@ const SORT_COLUMNS: Record<string, string> = {
 export interface Actor {
   id: string;
   requestId: string;
+  /** The caller's role: putting a material kept off the laser back on it is a supervisor's decision. */
+  role: Role;
 }
 
 @Injectable()
@@ -124,6 +127,17 @@ export class MaterialsService {
           dto.laserAllowed ?? (refused ? undefined : m.laserAllowed),
           dto.hazardNote ?? (refused && family !== m.family ? undefined : m.hazardNote),
         );
+        // Lifting a laser restriction (a material kept off the laser, or of a family the hazard table refuses,
+        // made laser-usable by a changed flag or a changed family) is a safety decision: a supervisor's.
+        const wasLaserUsable = m.laserAllowed && laserRefusal(m.family, table) === null;
+        if (!wasLaserUsable && laser.laserAllowed && actor.role !== 'supervisor') {
+          throw new AppError(
+            HttpStatus.FORBIDDEN,
+            'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR',
+            `${m.name} is kept off the laser${m.hazardNote ? ` (${m.hazardNote})` : ''}: only a supervisor can allow it on the laser again, by its flag or by a different family`,
+            { materialId: m.id, family: m.family, requestedFamily: family },
+          );
+        }
         if (dto.name !== undefined) m.name = dto.name;
         m.family = family;
         if (dto.nominalThicknessMm !== undefined) m.nominalThicknessMm = dto.nominalThicknessMm;

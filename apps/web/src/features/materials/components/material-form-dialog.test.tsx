@@ -22,11 +22,16 @@ const hazards: MaterialHazard[] = [
 
 const noop = () => undefined;
 
-function renderDialog(onSubmit = vi.fn()) {
+function renderDialog(
+  onSubmit = vi.fn(),
+  material: MaterialView | null = null,
+  canLiftLaserRestriction = false,
+) {
   const utils = renderWithProviders(
     <MaterialFormDialog
       open
-      material={null}
+      material={material}
+      canLiftLaserRestriction={canLiftLaserRestriction}
       hazards={hazards}
       busy={false}
       error={null}
@@ -90,6 +95,36 @@ describe('material form', () => {
       hazardNote: 'Too thick for our tube',
       notes: '',
     });
+  });
+});
+
+describe('a material kept off the laser', () => {
+  const keptOff: MaterialView = {
+    id: 'm-mdf',
+    name: 'Brown board 3 mm',
+    family: 'plywood',
+    nominalThicknessMm: 3,
+    measuredThicknessMm: null,
+    flexible: false,
+    colours: [],
+    stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 3, currency: 'EUR' }],
+    laserAllowed: false,
+    hazardNote: 'Binder unknown',
+    notes: '',
+    version: 2,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-01T00:00:00.000Z',
+  };
+
+  it('stays off for a fabricator, who is told a supervisor decides; a supervisor may tick it', async () => {
+    const locked = renderDialog(vi.fn(), keptOff, false);
+    const box = await screen.findByRole('checkbox', { name: 'May be cut on a laser' });
+    expect(box).toBeDisabled();
+    expect(screen.getByTestId('laser-locked')).toHaveTextContent('only a supervisor');
+    locked.unmount();
+    renderDialog(vi.fn(), keptOff, true);
+    expect(await screen.findByRole('checkbox', { name: 'May be cut on a laser' })).toBeEnabled();
+    expect(screen.queryByTestId('laser-locked')).toBeNull();
   });
 });
 

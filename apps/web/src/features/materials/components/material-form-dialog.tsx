@@ -47,6 +47,8 @@ interface MaterialFormDialogProps extends FormDialogBaseProps<MaterialFormValues
   /** The material to change, or null to add a new one. */
   material: MaterialView | null;
   hazards: readonly MaterialHazard[] | undefined;
+  /** A supervisor may put a material kept off the laser back on it; others only keep it off (the API agrees). */
+  canLiftLaserRestriction: boolean;
 }
 
 /** Adds or changes a material of the library; the laser rules follow the workshop's hazard table. */
@@ -70,6 +72,8 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
   const laserAllowed = useWatch({ control, name: 'laserAllowed' });
   const refusal = hazards ? laserRefusal(family, hazards) : null;
   const condition = hazards ? findMaterialHazard(family, hazards)?.condition : undefined;
+  // A stored material kept off the laser stays off unless a supervisor decides otherwise.
+  const laserLocked = material !== null && !material.laserAllowed && !props.canLiftLaserRestriction;
 
   useEffect(() => {
     if (props.open) reset(material ? materialToFormValues(material) : EMPTY_MATERIAL);
@@ -221,13 +225,18 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
             render={({ field }) => (
               <FormControlLabel
                 label="May be cut on a laser"
-                disabled={refusal !== null}
+                disabled={refusal !== null || laserLocked}
                 control={
                   <Checkbox checked={field.value} onChange={(e) => field.onChange(e.target.checked)} />
                 }
               />
             )}
           />
+          {laserLocked && refusal === null ? (
+            <FormHelperText data-testid="laser-locked">
+              Kept off the laser: only a supervisor can allow it on the laser again.
+            </FormHelperText>
+          ) : null}
           {errors.laserAllowed ? <FormHelperText error>{errors.laserAllowed.message}</FormHelperText> : null}
         </Box>
         <FormTextField

@@ -13,10 +13,12 @@ import { type MaterialFormValues, toMaterialRequest } from '../components/materi
 import { MaterialsFilters } from '../components/materials-filters';
 import { materialColumns, materialRowSx } from '../components/materials-table';
 import { useMaterialsSearchParams } from '../hooks/use-materials-search-params';
+import { useUser } from '../../../lib/auth';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 
 /** Fabricators and supervisors: the workshop's materials, their stock and whether they may go on a laser. */
 export function MaterialsRoute() {
+  const user = useUser();
   const { params, query, set, tableProps } = useMaterialsSearchParams();
   const materials = useMaterials(query);
   const hazards = useHazardTable();
@@ -101,6 +103,7 @@ export function MaterialsRoute() {
         open={editing !== undefined}
         material={editing ?? null}
         hazards={hazards.data}
+        canLiftLaserRestriction={user.role === 'supervisor'}
         busy={mutation.isPending}
         error={mutation.error}
         onSubmit={submit}
