@@ -1,4 +1,11 @@
-import { differenceComponents, SCALE_PER_MM, type IntPath } from './clipper-adapter';
+import {
+  areaUnits,
+  differenceComponents,
+  differenceNear,
+  differencePaths,
+  SCALE_PER_MM,
+  type IntPath,
+} from './clipper-adapter';
 import { bottomLeftFill, findPosition, slabRange, type SheetState } from './bottom-left';
 import { GeometryCache, type PreparedPart } from './variants';
 import { area, type P } from '../test-support/polygons';
@@ -32,6 +39,37 @@ describe('free-space components', () => {
     expect(parts[0]!.paths).toHaveLength(2);
     expect(parts[1]!.area / (U * U)).toBeCloseTo(40 * 40, 6);
     expect([parts[1]!.minX, parts[1]!.maxX].map((x) => x / U)).toEqual([30, 70]);
+  });
+});
+
+describe('a kept region less new no-fit polygons', () => {
+  it('equals the full difference when only the paths near the clips go through Clipper (areas worked by hand)', () => {
+    // 100 × 100 less two squares and a square frame: two holes, and an island inside a third, as Clipper
+    // gives such a region.
+    const region = differencePaths(
+      [rect(0, 0, 100, 100)],
+      [rect(10, 10, 20, 20), rect(40, 10, 50, 20), rect(60, 60, 80, 80), rect(65, 65, 75, 75).reverse()],
+    );
+    expect(region).toHaveLength(5);
+    const regionArea = 100 * 100 - 100 - 100 - 400 + 100;
+    const total = (paths: IntPath[]) => paths.reduce((a, p) => a + areaUnits(p), 0) / (U * U);
+    // Signed areas: holes count negative, so the sum is the region's area.
+    expect(total(region)).toBeCloseTo(regionArea, 6);
+    for (const [clip, removed] of [
+      // Over the first hole's edge only: 5 × 10 of new area gone.
+      [rect(15, 5, 25, 15), 10 * 10 - 5 * 5],
+      // Through the island: the island's part is gone.
+      [rect(64, 64, 70, 70), 5 * 5],
+      // Far from every hole, inside the outer square.
+      [rect(85, 40, 95, 50), 100],
+    ] as const) {
+      const near = differenceNear(region, [clip]);
+      const full = differencePaths(region, [clip]);
+      expect(total(near)).toBeCloseTo(regionArea - removed, 6);
+      expect(total(full)).toBeCloseTo(regionArea - removed, 6);
+    }
+    // No clip: the region as it was.
+    expect(differenceNear(region, [])).toBe(region);
   });
 });
 
@@ -94,6 +132,35 @@ describe('bottom-left fill in free-space windows', () => {
     expect(sheets).toHaveLength(1);
     const base = sheets[0]!;
     for (const p of parts.slice(50)) {
+      const variants = p.rotationsDeg.map((d) => cache.variant(p.index, d));
+      const fresh = (): SheetState => ({
+        ...base,
+        items: [...base.items],
+        regions: undefined,
+        free: undefined,
+      });
+      const inWindows = fresh();
+      const windowed = findPosition(cache, frame, inWindows, variants);
+      expect(inWindows.free).toBeDefined();
+      const whole = findPosition(cache, frame, fresh(), variants, 'right', false);
+      expect(windowed && [windowed.variant.key, windowed.tx, windowed.ty]).toEqual(
+        whole && [whole.variant.key, whole.tx, whole.ty],
+      );
+    }
+  });
+
+  it('finds the same position as a search of the whole sheet on a crowded sheet of a few parts in quantity', () => {
+    // 6 parts × 10 copies: not mostly different, but crowded enough that a first search uses windows.
+    const gapMm = 3;
+    const cache = new GeometryCache(parts, gapMm);
+    const copies = parts
+      .slice(0, 6)
+      .flatMap((p) => Array.from({ length: 10 }, () => p.rotationsDeg.map((d) => cache.variant(p.index, d))));
+    const { sheets } = bottomLeftFill(cache, frame, 'a', copies, []);
+    expect(sheets).toHaveLength(1);
+    const base = sheets[0]!;
+    expect(base.items.length).toBe(60);
+    for (const p of parts.slice(6, 26)) {
       const variants = p.rotationsDeg.map((d) => cache.variant(p.index, d));
       const fresh = (): SheetState => ({
         ...base,

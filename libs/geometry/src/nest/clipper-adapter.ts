@@ -266,6 +266,32 @@ export function differencePaths(subject: IntPaths, clips: IntPaths): IntPaths {
   return out;
 }
 
+/**
+ * subject minus the union of clips, like differencePaths, but only the subject's paths whose bounds meet a clip's
+ * go through Clipper; the others are kept as they are. This is exact for a region given as Clipper gives it
+ * (outer contours and holes of opposite orientation, non-zero fill): a path whose bounds meet no clip is
+ * disjoint from every clip, so it lies inside (or outside) the same contours of the result as before, and its
+ * winding contribution is unchanged. A feasible region of a crowded sheet has hundreds of holes and pieces,
+ * while a new item's no-fit polygon meets only a few of them.
+ */
+export function differenceNear(subject: IntPaths, clips: IntPaths): IntPaths {
+  if (clips.length === 0) return subject;
+  const boxes = clips.map((p) => boxOfPaths([p]));
+  const near: IntPaths = [];
+  const kept: IntPaths = [];
+  for (const path of subject) {
+    const b = boxOfPaths([path]);
+    const meets = boxes.some(
+      (c) => c.minX <= b.maxX && b.minX <= c.maxX && c.minY <= b.maxY && b.minY <= c.maxY,
+    );
+    (meets ? near : kept).push(path);
+  }
+  if (near.length === 0) return subject;
+  const out = differencePaths(near, clips);
+  for (const p of kept) out.push(p);
+  return out;
+}
+
 /** A connected region: its outer contour and holes, the outer contour's bounds, its area (square units). */
 export interface Component {
   paths: IntPaths;

@@ -1,6 +1,7 @@
 import * as polygonClipping from 'polygon-clipping';
 import { densestDoubleLattice, sheetLattices, type LatticeSpec, type SheetLattice } from './double-lattice';
 import { nestParts, type NestInput } from './nest';
+import { circumscribedConvex, convexHull } from './polygon';
 import { area, box, boundaryDistance, mpArea, type P, placed, regular } from '../test-support/polygons';
 
 /**
@@ -227,5 +228,55 @@ describe('double lattice clipped to a sheet', () => {
       // 1 µm of slack: placements are reported in whole micrometres.
       expectSheetClear(outline, arr, 600, 400, m - 1e-3, 3 - 2e-3);
     }
+  });
+});
+
+describe('a coarse hull for finely drawn outlines', () => {
+  const circle = (n: number, r: number): P[] =>
+    Array.from({ length: n }, (_, i) => [
+      r * Math.cos((2 * Math.PI * i) / n),
+      r * Math.sin((2 * Math.PI * i) / n),
+    ]);
+
+  it('contains the hull with at most the vertices asked for, adding little area (polygon-clipping)', () => {
+    for (const [outline, max] of [
+      [circle(1000, 100), 64],
+      [circle(997, 40), 12],
+      // A rounded rectangle: four flat sides and fine corners.
+      [
+        convexHull([...circle(400, 10).map(([x, y]) => [x + (x > 0 ? 80 : 0), y + (y > 0 ? 30 : 0)] as P)]),
+        24,
+      ],
+    ] as const) {
+      const hull = convexHull(outline).map(([x, y]): P => [x, y]);
+      const coarse = circumscribedConvex(hull, max).map(([x, y]): P => [x, y]);
+      expect(coarse.length).toBeLessThanOrEqual(max);
+      // Nothing of the hull is outside the coarse polygon: their difference has no area.
+      expect(mpArea(polygonClipping.difference([hull], [coarse]))).toBeLessThan(1e-6 * area(hull));
+      // A regular circumscribed m-gon of a circle has m·tan(π/m)/π times its area (elementary geometry); the
+      // greedy polygon stays within 1 % of that (a rounded rectangle's corners are a circle cut in four).
+      const regularRatio = (max * Math.tan(Math.PI / max)) / Math.PI;
+      expect(area(coarse) / area(hull)).toBeLessThan(regularRatio * 1.01);
+    }
+  });
+
+  it('keeps a hull that is already coarse enough as it is', () => {
+    const hex = convexHull(regular(6, 50));
+    expect(circumscribedConvex(hex, 64)).toEqual(hex);
+  });
+
+  it('lays finely drawn discs in a lattice, checked on their true outlines: the search works on the coarse hull', () => {
+    // 360 points, well over the search's 64 (fewer than the 1,000 of the slow case to keep the check quick).
+    const outline = circle(360, 100);
+    const sheet = { widthMm: 600, heightMm: 400, marginMm: 5, gapMm: 3 };
+    const lattices = sheetLattices(outline, sheet, {
+      anglesDeg: [0, 90],
+      free: false,
+      partnerAllowed: () => true,
+    });
+    expect(lattices.length).toBeGreaterThan(0);
+    // 200 mm discs 3 mm apart within 590 × 390: two rows of two at most (a square grid needs 203 × 203 each).
+    expect(lattices[0]!.placements.length).toBe(4);
+    expectSheetClear(outline, lattices[0]!, 600, 400, 5 - 1e-3, 3 - 2e-3);
   });
 });
