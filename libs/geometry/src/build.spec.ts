@@ -33,6 +33,32 @@ describe('buildModel scaling', () => {
   });
 });
 
+describe('an uploaded solid that is not convex', () => {
+  it('is built on its convex hull with the warning SOLID.NOT_CONVEX; a convex one gets none', () => {
+    // A 2 × 4 × 6 box of our own with one extra point: on a face (convex) or 0.5 inside it (a dent).
+    const box = (extra: string) =>
+      `OFF\n9 0 0\n${[-1, 1]
+        .flatMap((x) => [-2, 2].flatMap((y) => [-3, 3].map((z) => `${x} ${y} ${z}`)))
+        .join('\n')}\n${extra}\n`;
+    const build = (extra: string) =>
+      buildModel(
+        design({
+          solid: { format: 'off', text: box(extra) },
+          piece: { sides: 4, rotationDeg: 45, size: 1 },
+          scale: { by: 'planeDistance', mm: 50 },
+        }),
+      ).report;
+    const convex = build('0 0 3');
+    expect(convex.warnings.map((w) => w.code)).not.toContain('SOLID.NOT_CONVEX');
+    const dented = build('0 0 2.5');
+    expect(dented.solid.faceCount).toBe(6);
+    const w = dented.warnings.find((x) => x.code === 'SOLID.NOT_CONVEX');
+    expect(w?.message).toMatch(/^1 of the uploaded solid's points lies inside its convex hull/);
+    // The same pieces either way: the hull is the same box.
+    expect(dented.pieces.map((p) => p.areaMm2)).toEqual(convex.pieces.map((p) => p.areaMm2));
+  });
+});
+
 describe('report', () => {
   it('has unit outward normals, counter-clockwise outlines with their areas, and slot counts that add up', () => {
     const r = buildModel(octahedronHexagons()).report;

@@ -355,6 +355,14 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
   const t = spec.stock.thicknessMm;
   const widths = crossings.map((c) => nominalSlotWidth(t, c.angleDeg, spec.stock.flexible) + spec.fitMm);
   const issues = new IssueList();
+  if (solid.interiorPointCount) {
+    const n = solid.interiorPointCount;
+    issues.warn(
+      'SOLID.NOT_CONVEX',
+      `${n} of the uploaded solid's points ${n === 1 ? 'lies' : 'lie'} inside its convex hull (a dent or a hollow): the pieces are ` +
+        'laid on the faces of the hull, the convex solid around it; check that this is the model intended',
+    );
+  }
   const machine: MachineSpec = spec.machine;
   const removed = machine.kind === 'laser' ? machine.kerfMm : 0;
 

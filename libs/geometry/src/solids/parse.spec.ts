@@ -49,6 +49,17 @@ const code = (f: () => unknown): string => {
 };
 
 describe('uploaded solids', () => {
+  it('counts the points a non-convex upload has inside its hull, and none on a face', () => {
+    // The redundant face point of offCube lies on the hull: the solid is convex.
+    expect(parseSolidText('off', offCube).interiorPointCount).toBeUndefined();
+    expect(parseSolidText('obj', cubeObj()).interiorPointCount).toBeUndefined();
+    // The unit cube with the middle of its top face pushed down by 0.3: a dent, one point inside the hull.
+    const dented = offCube.replace('0.5 0.5 1\n', '0.5 0.5 0.7\n');
+    const s = parseSolidText('off', dented);
+    expect(s.interiorPointCount).toBe(1);
+    expect(s.faces).toHaveLength(6);
+  });
+
   it('merges the two triangles of each OBJ cube face into one square face and centres the cube', () => {
     const s = parseSolidText('obj', cubeObj());
     expect(s.faces).toHaveLength(6);

@@ -30,6 +30,11 @@ export interface Solid {
   vertexFaces: number[][];
   /** Pairs of faces with opposite normals (parallel planes on both sides of the centre). */
   oppositeFaces: [number, number][];
+  /**
+   * Uploads only: how many of the given points lie inside the hull, clear of every face (by more than 10 ×
+   * the coplanar tolerance). More than none means the uploaded solid was not convex, and its hull is used.
+   */
+  interiorPointCount?: number;
 }
 
 /** Coplanar facets are merged when all their corners lie within this fraction of the solid's radius. */
@@ -148,7 +153,15 @@ export function solidFromPoints(
   }
   faces = faces.sort((a, b) => faceOrderKey(a) - faceOrderKey(b) || azimuth(a) - azimuth(b));
   faces = alignFirstVertices(vertices, faces, tol);
-  return assembleSolid(id, name, vertices, faces);
+  const solid = assembleSolid(id, name, vertices, faces);
+  // Points well inside the hull (dents, hollows, a second inner shell) are dropped by taking the hull: count them
+  // so the build can say the upload was not convex. Points on a face within rounding are not counted.
+  let interior = 0;
+  for (const p of input) {
+    const q = sub3(p, centroid);
+    if (faces.every((f) => dot3(f.normal, q) - f.distance < -10 * tol)) interior++;
+  }
+  return interior > 0 ? { ...solid, interiorPointCount: interior } : solid;
 }
 
 type Mat3 = readonly [Vec3, Vec3, Vec3]; // rows
