@@ -14,7 +14,8 @@ export default defineConfig({
   build: {
     outDir: 'dist',
     emptyOutDir: true,
-    sourcemap: true,
+    // Maps are written for reading error reports but not linked from the scripts (the server does not publish them).
+    sourcemap: 'hidden',
     commonjsOptions: { include: [/libs[\\/]contracts/, /libs[\\/]geometry/, /node_modules/] },
     // Libraries change less often than the app: separate chunks stay cached across releases.
     rolldownOptions: {

@@ -1,6 +1,8 @@
 import { type ChildProcess, spawn } from 'node:child_process';
 import { randomBytes, randomUUID } from 'node:crypto';
+import * as fs from 'node:fs';
 import * as net from 'node:net';
+import * as os from 'node:os';
 import * as path from 'node:path';
 import bcrypt from 'bcryptjs';
 import request from 'supertest';
@@ -285,6 +287,30 @@ describe('security baseline (OWASP ASVS 4.0.3, level 2)', () => {
         expect(lookalike.headers['access-control-allow-origin']).toBeUndefined();
       } finally {
         await other.app.close();
+      }
+    });
+
+    it('serves the web app gzip-compressed, routes to index.html, and does not publish source maps', async () => {
+      const dist = fs.mkdtempSync(path.join(os.tmpdir(), 'kw-web-'));
+      fs.mkdirSync(path.join(dist, 'assets'));
+      fs.writeFileSync(path.join(dist, 'index.html'), '<!doctype html><title>Kerfwright</title>');
+      const script = `export const rows = ${JSON.stringify(Array.from({ length: 400 }, (_, i) => `row ${i}`))};\n`;
+      fs.writeFileSync(path.join(dist, 'assets', 'app.js'), script);
+      fs.writeFileSync(path.join(dist, 'assets', 'app.js.map'), '{"version":3,"sources":["src/main.tsx"]}');
+      const web = await withEnv({ KW_WEB_DIST: dist }, startTestApp);
+      try {
+        const js = await web.http.get('/assets/app.js').set('Accept-Encoding', 'gzip').expect(200);
+        expect(js.headers['content-encoding']).toBe('gzip');
+        expect(js.text).toBe(script);
+        const plain = await web.http.get('/assets/app.js').set('Accept-Encoding', 'identity').expect(200);
+        expect(plain.headers['content-encoding']).toBeUndefined();
+        await web.http.get('/assets/app.js.map').expect(404);
+        const route = await web.http.get('/jobs/123').expect(200);
+        expect(route.text).toContain('<title>Kerfwright</title>');
+        expect(route.headers['cache-control']).toBe('no-cache');
+      } finally {
+        await web.app.close();
+        fs.rmSync(dist, { recursive: true, force: true });
       }
     });
 
