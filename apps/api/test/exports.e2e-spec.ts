@@ -201,6 +201,15 @@ describe('cut-pack exports worked inside the API process', () => {
     );
     await acknowledge(ctx, p.operator, jobId);
     await download(ctx, p.operator, exportId, sheet.name, 200);
+    // The pack's setup sheet (and the ZIP holding it) prints the old rules version: out of date, refused.
+    const stale = (await ctx.http.get(`/api/exports/${exportId}`).set(auth(p.operator)).expect(200))
+      .body as ExportView;
+    expect(stale.safetyChanged).toBe(true);
+    for (const role of ['setup-sheet', 'archive']) {
+      const name = view.files.find((f) => f.role === role)!.name;
+      const res = await download(ctx, p.operator, exportId, name, 409);
+      expectErrorBody(JSON.parse(res.body.toString()), 409, 'EXPORT.SAFETY_CHANGED');
+    }
 
     // The requester gets the assembly guide of their own job, and nothing else.
     const mine = await ctx.http.get(`/api/exports/${exportId}`).set(auth(p.owner)).expect(200);
@@ -276,6 +285,12 @@ describe('cut-pack exports worked inside the API process', () => {
     expect(events.at(-1)).toMatchObject({ type: 'done', data: { state: 'done', progress: 100 } });
     const progress = events.map((e) => e.data.progress);
     expect([...progress].sort((a, b) => a - b)).toEqual(progress);
+    // The re-export prints the current notices and rules: its setup sheet is served again.
+    const fresh = (await ctx.http.get(`/api/exports/${id}`).set(auth(p.operator)).expect(200))
+      .body as ExportView;
+    expect(fresh.safetyChanged).toBe(false);
+    await acknowledge(ctx, p.operator, jobId);
+    await download(ctx, p.operator, id, fresh.files.find((f) => f.role === 'setup-sheet')!.name, 200);
     // The re-export of a released job leaves the job as it is: one release in its history.
     const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
     expect(job.body.transitions.filter((t: { action: string }) => t.action === 'release')).toHaveLength(1);

@@ -93,6 +93,11 @@ export interface CutPackManifest {
   files: CutPackManifestEntry[];
   /** Labels that found no room, a scale mark placed off the sheet, and similar notes. */
   warnings?: string[];
+  /**
+   * The safety notices (id and version) and the workshop rules version the setup sheet prints (cut packs
+   * only): when they change, the printed sheet is out of date and the pack is built again.
+   */
+  safety?: { notices: { id: string; version: number }[]; localRulesVersion: number | null };
 }
 
 export interface CutPackResult {
@@ -116,4 +121,9 @@ export interface ExportView {
   files: { name: string; role: CutPackFileRole; contentType: string; bytes: number; sha256: string }[];
   createdAt: string;
   finishedAt: string | null;
+  /**
+   * Staff only, done exports: the safety notices or workshop rules changed since the pack was built, so its
+   * setup sheet (and ZIP) are out of date and are not served (EXPORT.SAFETY_CHANGED); build it again.
+   */
+  safetyChanged?: boolean;
 }

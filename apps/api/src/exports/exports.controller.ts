@@ -15,6 +15,7 @@ import {
   ApiAcceptedResponse,
   ApiBearerAuth,
   ApiExtraModels,
+  ApiConflictResponse,
   ApiOkResponse,
   ApiOperation,
   ApiProduces,
@@ -137,6 +138,10 @@ export class ExportsController {
     content: Object.fromEntries(
       FILE_CONTENT_TYPES.map((t) => [t, { schema: { type: 'string', format: 'binary' } }]),
     ),
+  })
+  @ApiConflictResponse({
+    description:
+      'EXPORT.NOT_DONE, EXPORT.JOB_NOT_RELEASED, or EXPORT.SAFETY_CHANGED (the setup sheet or ZIP prints safety notices changed since the build)',
   })
   async download(
     @CurrentUser() u: AuthUser,

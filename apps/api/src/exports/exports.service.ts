@@ -28,6 +28,8 @@ import { withArticle } from '../common/text';
 const DOWNLOADABLE: readonly JobState[] = ['released', 'cut', 'closed'];
 /** What a hobbyist may download: the assembly guide of their own job, nothing else. */
 const HOBBYIST_ROLES = ['assembly-guide'];
+/** Files that print the safety notices: out of date once the notices or the workshop rules change. */
+const PRINTS_SAFETY: readonly string[] = ['setup-sheet', 'archive'];
 const POLL_MS = 500;
 /** How long a request waits for Redis to take a new export before answering anyway. */
 const QUEUE_ADD_MS = 3000;
@@ -206,6 +208,17 @@ export class ExportsService {
     }
     const file = await this.dataSource.manager.findOne(ExportFile, { where: { exportId: id, name } });
     if (!file || (user.role === 'hobbyist' && !HOBBYIST_ROLES.includes(file.role))) throw missing();
+    // A setup sheet prints the safety notices and rules version of the day it was built: once they change, it
+    // (and the ZIP holding it) is out of date, and the pack is built again. The cutting files print no notices.
+    if (PRINTS_SAFETY.includes(file.role) && (await this.safetyChanged(exp))) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'EXPORT.SAFETY_CHANGED',
+        'The safety notices or workshop rules changed since this cut pack was built, so its setup sheet prints ' +
+          'old ones: a fabricator or supervisor builds the cut pack again, then download the new one',
+        { exportId: exp.id, role: file.role },
+      );
+    }
     // Files go to the machines only for a job released to them (or cut and closed since), and never for a
     // material that may no longer be cut on the job's machine.
     const job = await this.dataSource.manager.findOneOrFail(Job, { where: { id: exp.jobId } });
@@ -250,6 +263,19 @@ export class ExportsService {
     return user.role !== 'hobbyist' && job.state !== 'draft';
   }
 
+  /** Whether the notices or rules a done export's setup sheet prints are no longer the current ones. */
+  private async safetyChanged(exp: Export): Promise<boolean> {
+    const built = exp.manifest?.safety;
+    if (!built) return false;
+    const now = await this.safety.versionsForJob(exp.jobId);
+    const key = (list: { id: string; version: number }[]) =>
+      list
+        .map((n) => `${n.id}@${n.version}`)
+        .sort()
+        .join('|');
+    return built.localRulesVersion !== now.localRulesVersion || key(built.notices) !== key(now.notices);
+  }
+
   private async toView(user: AuthUser, exp: Export): Promise<ExportView> {
     const files =
       exp.state === 'done'
@@ -277,6 +303,9 @@ export class ExportsService {
         })),
       createdAt: exp.createdAt.toISOString(),
       finishedAt: exp.finishedAt ? exp.finishedAt.toISOString() : null,
+      ...(exp.state === 'done' && user.role !== 'hobbyist'
+        ? { safetyChanged: await this.safetyChanged(exp) }
+        : {}),
     };
   }
 }

@@ -116,6 +116,34 @@ export class SafetyService {
     });
   }
 
+  /**
+   * The versions of the notices that apply to a job's machine and material now, and of the workshop rules: what a
+   * setup sheet built now would print (a cut pack records the versions it printed).
+   */
+  async versionsForJob(
+    jobId: string,
+    m: EntityManager = this.dataSource.manager,
+  ): Promise<{ notices: { id: string; version: number }[]; localRulesVersion: number | null }> {
+    const rows: { kind: MachineProfileKind | null; family: MaterialFamily | null }[] = await m.query(
+      `SELECT p.kind, mat.family
+         FROM jobs j
+         LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
+         LEFT JOIN machine_profiles p ON p.id = v.profile_id
+         LEFT JOIN materials mat ON mat.id = j.material_id
+        WHERE j.id = $1`,
+      [jobId],
+    );
+    const job = rows[0];
+    const all = await this.notices({}, m);
+    const notices =
+      job?.kind && job.family ? all.filter((n) => noticeApplies(n, job.kind!, job.family!)) : all;
+    const localRules = await this.localRules(m);
+    return {
+      notices: notices.map((n) => ({ id: n.id, version: n.version })),
+      localRulesVersion: localRules?.version ?? null,
+    };
+  }
+
   /** The notices that apply to a job's machine and material, and whether the caller acknowledged them. */
   async forJob(
     user: AuthUser,

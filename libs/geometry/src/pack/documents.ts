@@ -39,7 +39,7 @@ export function setupSheetPdf(args: {
       doc
         .font('Helvetica')
         .fontSize(9)
-        .text(`Job ${input.job.id}, requested by ${input.job.requester}; prepared ${input.createdAt}`);
+        .text(`Job ${input.job.id}, requested by ${input.job.requester}; files built ${input.createdAt}`);
       heading(doc, 'Material and stock');
       rows(doc, [
         ['Material', `${input.material.name} (${input.material.family})`],

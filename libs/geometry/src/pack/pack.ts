@@ -120,7 +120,8 @@ function roundEstimate(e: CutPackEstimate): CutPackEstimate {
 }
 
 async function finish(
-  input: Pick<CutPackInput, 'job' | 'createdAt' | 'units' | 'archive'>,
+  input: Pick<CutPackInput, 'job' | 'createdAt' | 'units' | 'archive'> &
+    Partial<Pick<CutPackInput, 'notices' | 'localRulesVersion'>>,
   files: CutPackFile[],
   sheetCount: number,
   estimate: CutPackEstimate,
@@ -141,6 +142,14 @@ async function finish(
       sha256: sha256(f.data),
     })),
     warnings,
+    ...(input.notices
+      ? {
+          safety: {
+            notices: input.notices.map((n) => ({ id: n.id, version: n.version })),
+            localRulesVersion: input.localRulesVersion ?? null,
+          },
+        }
+      : {}),
   };
   const all: CutPackFile[] = [
     ...files,

@@ -33,4 +33,10 @@ export class ExportViewDto implements ExportView {
   files: ExportFileDto[];
   @ApiProperty() createdAt: string;
   @ApiProperty({ type: String, nullable: true }) finishedAt: string | null;
+  @ApiProperty({
+    required: false,
+    description:
+      'Staff, done exports: the safety notices or workshop rules changed since the build; the setup sheet and ZIP are refused (EXPORT.SAFETY_CHANGED) until it is built again',
+  })
+  safetyChanged?: boolean;
 }
