@@ -253,6 +253,14 @@ describe('parseScenario refuses a broken scenario', () => {
     expect(() => parse(s)).toThrow(/stock\.thicknessMm: must be the measured thickness of "birch-ply-3"/);
   });
 
+  it("refuses a hobbyist's job on a design of someone else's", () => {
+    const s = raw();
+    const i = s.jobs.findIndex((j: { owner: string }) => j.owner.startsWith('hobbyist@'));
+    const other = s.designs.find((d: { owner: string }) => !d.owner.startsWith('hobbyist@'));
+    s.jobs[i].design = other.key;
+    expect(() => parse(s)).toThrow(`jobs[${i}].design: a hobbyist's job uses one of their own designs`);
+  });
+
   it('refuses a spec file that cannot be read', () => {
     const s = raw();
     s.designs[0].spec = 'specs/missing.json';

@@ -518,6 +518,14 @@ function readJob(
   const profile = refOf(r, j.profile, `${at}.profile`, look.profiles, 'machine profile');
   const owner = userRef(r, j.owner, `${at}.owner`, look.users);
   const state = r.oneOf(j.state, `${at}.state`, JOB_STATES);
+  // The API lets a hobbyist open only their own designs: a demo job of theirs on another's design would link
+  // to a page they cannot see.
+  if (owner.role === 'hobbyist' && design.owner.toLowerCase() !== owner.email.toLowerCase()) {
+    r.fail(
+      `${at}.design`,
+      `a hobbyist's job uses one of their own designs ("${design.key}" is ${design.owner}'s)`,
+    );
+  }
   if (!profile.settings.some((s) => s.material === material.key)) {
     r.fail(`${at}.profile`, `profile "${profile.key}" has no setting for material "${material.key}"`);
   }

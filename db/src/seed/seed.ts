@@ -330,11 +330,12 @@ async function seedJob(
     );
     from = h.state;
   }
-  // A job that was released has a cut pack. The seed only records that it is owed (queued); the first API or
-  // worker process that works the queue builds it (its reconciler finds exports owed in PostgreSQL), so the
-  // demo's released jobs come with real files and no job is released without one.
+  // A released job has a cut pack. The seed only records that it is owed (queued); the first API or worker
+  // process that works the queue builds it (its reconciler finds exports owed in PostgreSQL), so the demo's
+  // released jobs come with real files and no job is released without one. A job already cut or closed gets
+  // none: the queue builds no pack for a job done with the machine (it would only record a failed export).
   const release = job.history.find((h) => h.state === 'released');
-  if (release) {
+  if (release && job.state === 'released') {
     const exportId = randomUUID();
     await m.query(
       `INSERT INTO exports (id, job_id, state, requested_by, storage_prefix) VALUES ($1, $2, 'queued', $3, $4)`,
