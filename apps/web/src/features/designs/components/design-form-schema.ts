@@ -17,6 +17,7 @@ import {
   MAX_SHEET_MM,
 } from '@kerfwright/geometry';
 import { z } from 'zod';
+import { countOf } from '../../../lib/plural';
 
 const num = (label: string) => z.number({ error: `${label}: enter a number` });
 
@@ -82,12 +83,18 @@ export const designFormSchema = z
         message: `Step must be less than half the sides (below ${v.sides / 2})`,
       });
     }
-    // The library cuts each colour from its own sheets, so N sheets hold at most N colours.
+    // The library cuts each colour from its own sheets, so N sheets hold at most N colours. Both fields are
+    // marked, each message naming the other, whichever of the two was changed.
     if (v.scaleBy === 'fitSheets' && Number.isInteger(v.colourCount) && v.fitSheets < v.colourCount) {
       ctx.addIssue({
         code: 'custom',
         path: ['fitSheets'],
-        message: `At least one sheet per colour (${v.colourCount})`,
+        message: `${v.colourCount} colours need at least ${v.colourCount} sheets (one per colour)`,
+      });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['colourCount'],
+        message: `Fit to ${countOf(v.fitSheets, 'sheet')} takes at most ${countOf(v.fitSheets, 'colour')} (one sheet per colour)`,
       });
     }
     // The library needs room inside the margins (validateSpec: twice the margin below the shorter side).
@@ -112,6 +119,51 @@ export const designFormSchema = z
   });
 
 export type DesignFormValues = z.infer<typeof designFormSchema>;
+
+/** The fields' labels as the spec form shows them, to name a field in a message shown away from it. */
+export const DESIGN_FIELD_LABELS: Record<keyof DesignFormValues, string> = {
+  name: 'Name',
+  description: 'Description',
+  solidSource: 'Source',
+  solidId: 'Solid',
+  sides: 'Sides (n)',
+  step: 'Step (k)',
+  rotationDeg: 'Rotation (°)',
+  size: 'Size',
+  scaleBy: 'Scale by',
+  scaleMm: 'Scale (mm)',
+  fitSheets: 'Sheets',
+  sheetWidthMm: 'Sheet width (mm)',
+  sheetHeightMm: 'Sheet height (mm)',
+  marginMm: 'Margin (mm)',
+  gapMm: 'Gap (mm)',
+  bedWidthMm: 'Bed width (mm)',
+  bedHeightMm: 'Bed height (mm)',
+  thicknessMm: 'Thickness (mm)',
+  flexible: 'Flexible',
+  machineKind: 'Machine kind',
+  kerfMm: 'Kerf (mm)',
+  toolDiameterMm: 'Tool diameter (mm)',
+  fitMm: 'Fit allowance (mm)',
+  colourCount: 'Colours',
+  colourRule: 'Rule',
+};
+
+/**
+ * A form issue as said away from its field (the preview, the sheets, a button's reason): the field's label
+ * first, unless the message names the field already ("Scale: enter a number").
+ */
+export function describeFormIssue(issue: { path: readonly PropertyKey[]; message: string }): string {
+  const field = issue.path[0];
+  const label =
+    typeof field === 'string' && field in DESIGN_FIELD_LABELS
+      ? DESIGN_FIELD_LABELS[field as keyof DesignFormValues]
+      : null;
+  if (!label) return issue.message;
+  const named = label.replace(/\s*\(.*\)$/, '').toLowerCase();
+  if (issue.message.toLowerCase().includes(named)) return issue.message;
+  return `${label}: ${issue.message.charAt(0).toLowerCase()}${issue.message.slice(1)}`;
+}
 
 export const DEFAULT_DESIGN_VALUES: DesignFormValues = {
   name: 'Untitled design',

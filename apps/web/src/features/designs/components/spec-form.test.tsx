@@ -8,6 +8,7 @@ import { renderWithProviders } from '../../../testing/render-app';
 import {
   DEFAULT_DESIGN_VALUES,
   type DesignFormValues,
+  describeFormIssue,
   designFormSchema,
   fromDesign,
   toDesignSpec,
@@ -105,7 +106,12 @@ describe('design studio spec form', () => {
     // Two colours (the default) need two sheets at least: each colour has sheets of its own.
     await user.clear(sheets);
     await user.type(sheets, '1');
-    expect(await screen.findByText('At least one sheet per colour (2)')).toBeInTheDocument();
+    expect(await screen.findByText('2 colours need at least 2 sheets (one per colour)')).toBeInTheDocument();
+    // The colours are the other half of the rule: marked too, whichever of the two was changed.
+    expect(screen.getByLabelText('Colours')).toHaveAttribute('aria-invalid', 'true');
+    expect(
+      screen.getByText('Fit to 1 sheet takes at most 1 colour (one sheet per colour)'),
+    ).toBeInTheDocument();
     await user.clear(sheets);
     await user.type(sheets, '3');
     await user.clear(screen.getByLabelText('Sheet width (mm)'));
@@ -164,5 +170,19 @@ describe('design studio spec form', () => {
     expect(back.scaleBy).toBe('fitBed');
     expect(back.colourCount).toBe(3);
     expect(back.bedWidthMm).toBe(600);
+  });
+
+  it('names the field of a message said away from it, once', () => {
+    const issue = (values: Partial<DesignFormValues>) => {
+      const parsed = designFormSchema.safeParse({ ...DEFAULT_DESIGN_VALUES, ...values });
+      if (parsed.success) throw new Error('expected a form error');
+      return describeFormIssue(parsed.error.issues[0]!);
+    };
+    expect(issue({ sheetWidthMm: 0 })).toBe('Sheet width (mm): more than 0 mm');
+    expect(issue({ scaleBy: 'fitSheets', fitSheets: 0, colourCount: 1 })).toBe('Sheets: at least 1 sheet');
+    expect(issue({ gapMm: -1 })).toBe('Gap (mm): cannot be negative');
+    // A message that names its field already is left as it is.
+    expect(issue({ scaleMm: Number.NaN })).toBe('Scale: enter a number');
+    expect(issue({ sides: 6, step: 3 })).toBe('Step must be less than half the sides (below 3)');
   });
 });

@@ -112,7 +112,15 @@ const DetailTabs = memo(function DetailTabs({
   warnings: number;
 }) {
   return (
-    <Tabs value={tab} onChange={(_, t: number) => onTab(t)} sx={{ mb: 2 }}>
+    // Four tabs outgrow a phone's width: the bar scrolls (with arrows on touch screens too) instead of clipping.
+    <Tabs
+      value={tab}
+      onChange={(_, t: number) => onTab(t)}
+      variant="scrollable"
+      scrollButtons="auto"
+      allowScrollButtonsMobile
+      sx={{ mb: 2 }}
+    >
       <Tab label="Piece" />
       <Tab label={`Crossings (${crossings})`} />
       <Tab label={`Report (${countOf(errors, 'error')}, ${countOf(warnings, 'warning')})`} />

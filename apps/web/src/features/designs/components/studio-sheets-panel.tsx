@@ -1,5 +1,5 @@
 import { type DesignSpecInput } from '@kerfwright/contracts';
-import { type ColourRule } from '@kerfwright/geometry';
+import { type ColourRule, FIT_SHEETS_TOLERANCE } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
 import LinearProgress from '@mui/material/LinearProgress';
@@ -20,12 +20,17 @@ import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
-/** The line above the sheets: the size and sheet count, or what the layout could not do. */
-function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string): string {
+/**
+ * The line above the sheets: the size and sheet count, or what the layout could not do. A fit is a search that
+ * stops within FIT_SHEETS_TOLERANCE of the size, and nesting is not strictly monotone, so the line says so:
+ * one sheet more can even come out a little smaller (325.0 mm on 3 sheets after 325.3 mm on 2).
+ */
+export function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string): string {
   const size = fmt(value.diameterMm);
   if (value.sheetsAsked !== null)
     return value.sheets.length > 0
-      ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${size}, using ${value.sheets.length}.`
+      ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${size}, using ${value.sheets.length} ` +
+          `(found by a search to within ${FIT_SHEETS_TOLERANCE * 100} %: one sheet more can even come out slightly smaller).`
       : `No size found on ${countOf(value.sheetsAsked, 'sheet')}: the search stopped at diameter ${size}.`;
   return value.sheets.length > 0
     ? `At diameter ${size} the pieces need ${countOf(value.sheets.length, 'sheet')}.`

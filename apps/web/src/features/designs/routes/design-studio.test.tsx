@@ -43,9 +43,14 @@ function designFixture(overrides: Partial<DesignView> = {}): DesignView {
   };
 }
 
+const COPY_ID = '9a7c1f00-0000-4000-8000-000000000002';
+
 function studioApi(design: DesignView = designFixture()) {
   let current = design;
   return stubFetch({
+    // The server copies the design as it is stored (designs.service duplicate), not what a page shows.
+    [`POST /api/designs/${DESIGN_ID}/duplicate`]: () =>
+      json(201, { ...current, id: COPY_ID, name: `${current.name} (copy)`, version: 1 }),
     'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
     'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
     'GET /api/materials': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
@@ -193,8 +198,18 @@ describe('design studio', () => {
     await user.selectOptions(screen.getByLabelText('Scale by'), 'fitSheets');
     await field('Sheets', '1');
     const idle = await screen.findByTestId('sheets-idle');
-    expect(idle).toHaveTextContent('At least one sheet per colour (2)');
+    expect(idle).toHaveTextContent('2 colours need at least 2 sheets (one per colour)');
     expect(idle).not.toHaveTextContent('Give a stock sheet size');
+  });
+
+  it('names the marked field when it says why nothing is laid out', async () => {
+    studioApi();
+    renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    await field('Sheet width (mm)', '0');
+    expect(await screen.findByTestId('sheets-idle')).toHaveTextContent(
+      'Correct the marked fields to lay the pieces out: Sheet width (mm): more than 0 mm.',
+    );
   });
 
   it('asks before unsaved edits are left behind, and not once they are saved', async () => {
@@ -244,5 +259,44 @@ describe('design studio', () => {
     const dialog = await screen.findByRole('dialog', { name: 'Leave without saving?' });
     await user.click(within(dialog).getByRole('button', { name: 'Leave without saving' }));
     await waitFor(() => expect(router.state.location.pathname).toBe('/designs'));
+  });
+
+  it('duplicates a design with unsaved changes only after asking, and saves them first when asked to', async () => {
+    const { calls } = studioApi();
+    const { user, router } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await screen.findByRole('button', { name: 'Request a cut job' });
+    await field('Name', 'Octahedron hexagons, wider slots');
+    await user.click(screen.getByRole('button', { name: 'Duplicate' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Duplicate with unsaved changes?' });
+    expect(dialog).toHaveTextContent('as last saved (version 4)');
+    expect(calls.some((c) => c.method === 'POST')).toBe(false);
+
+    await user.click(within(dialog).getByRole('button', { name: 'Save, then duplicate' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe(`/designs/${COPY_ID}`));
+    const writes = calls.filter((c) => c.method !== 'GET').map((c) => `${c.method} ${c.url.pathname}`);
+    expect(writes).toEqual([`PATCH /api/designs/${DESIGN_ID}`, `POST /api/designs/${DESIGN_ID}/duplicate`]);
+    expect(
+      await screen.findByText('This is a copy of “Octahedron hexagons, wider slots” as saved in version 5.'),
+    ).toBeInTheDocument();
+    expect(screen.getByLabelText('Name')).toHaveValue('Octahedron hexagons, wider slots (copy)');
+  });
+
+  it('copies the saved version without the changes when chosen, and says so on the copy', async () => {
+    const { calls } = studioApi();
+    const { user, router } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await screen.findByRole('button', { name: 'Request a cut job' });
+    await field('Name', 'Octahedron hexagons, wider slots');
+    await user.click(screen.getByRole('button', { name: 'Duplicate' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Duplicate with unsaved changes?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Copy version 4 without the changes' }));
+    // The changes are still unsaved here: leaving for the copy asks, as leaving always does.
+    const leave = await screen.findByRole('dialog', { name: 'Leave without saving?' });
+    await user.click(within(leave).getByRole('button', { name: 'Leave without saving' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe(`/designs/${COPY_ID}`));
+    expect(calls.some((c) => c.method === 'PATCH')).toBe(false);
+    expect(
+      await screen.findByText('This is a copy of “Octahedron hexagons” as saved in version 4.'),
+    ).toBeInTheDocument();
+    expect(screen.getByLabelText('Name')).toHaveValue('Octahedron hexagons (copy)');
   });
 });

@@ -11,7 +11,7 @@ import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
-import { useNavigate, useParams } from 'react-router-dom';
+import { useLocation, useNavigate, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { formatLength, type LengthUnit } from '../../../lib/units';
@@ -23,11 +23,13 @@ import { useSaveDesign } from '../api/save-design';
 import {
   DEFAULT_DESIGN_VALUES,
   type DesignFormValues,
+  describeFormIssue,
   designFormSchema,
   fromDesign,
   toDesignSpec,
   toSavedSpec,
 } from '../components/design-form-schema';
+import { DuplicateDialog } from '../components/duplicate-dialog';
 import { RequestJobDialog, type RequestJobValues } from '../components/request-job-dialog';
 import { SpecForm } from '../components/spec-form';
 import { StudioHeader } from '../components/studio-header';
@@ -38,6 +40,7 @@ import { useStudioPreview } from '../hooks/use-studio-preview';
 import { useUnsavedChangesGuard } from '../hooks/use-unsaved-changes-guard';
 import { countOf } from '../../../lib/plural';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
+import { useUser } from '../../../lib/auth';
 
 const RequestJobDialogMemo = memo(RequestJobDialog);
 
@@ -65,8 +68,15 @@ export function DesignStudioRoute() {
   return <DesignStudio key={design.data?.id ?? 'new'} design={design.data ?? null} />;
 }
 
+/** What the studio says on opening a design: set by the page that sent the member here (e.g. a new copy). */
+interface StudioLocationState {
+  notice?: string;
+}
+
 function DesignStudio({ design }: { design: DesignView | null }) {
   const navigate = useNavigate();
+  const user = useUser();
+  const location = useLocation();
   const initial = useMemo(
     () => (design ? fromDesign(design) : { values: DEFAULT_DESIGN_VALUES, upload: null }),
     [design],
@@ -87,7 +97,10 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   const [tab, setTab] = useState(0);
   const [selected, setSelected] = useState<string | undefined>(undefined);
   const [requestOpen, setRequestOpen] = useState(false);
-  const [notice, setNotice] = useState<string | null>(null);
+  const [notice, setNotice] = useState<string | null>(
+    () => (location.state as StudioLocationState | null)?.notice ?? null,
+  );
+  const [duplicateAsked, setDuplicateAsked] = useState(false);
   const saveDesign = useSaveDesign();
   const dirtyNow = form.formState.isDirty || upload !== savedUpload;
   const { leaving, dialog: leaveDialog } = useUnsavedChangesGuard(dirtyNow);
@@ -117,7 +130,13 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   const colourCount = shown?.colourCount ?? 1;
   const colourRule: ColourRuleName = shown?.colourRule ?? 'neighbour-distinct';
   const { preview, fit, fitting } = useStudioPreview(shown?.spec ?? null, colourCount, colourRule);
-  const formError = parsed.success ? null : (parsed.error.issues[0]?.message ?? 'a field is not valid');
+  // Said away from the field (preview, sheets), so it names the field.
+  const firstIssue = parsed.success ? undefined : parsed.error.issues[0];
+  const formError = parsed.success
+    ? null
+    : firstIssue
+      ? describeFormIssue(firstIssue)
+      : 'a field is not valid';
   const report = preview.model?.report ?? null;
   // Stable between keystrokes, so the memoised panels skip the keystroke's render.
   const fmt = useCallback((mm: number) => formatLength(mm, unit), [unit]);
@@ -128,11 +147,12 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     [form],
   );
 
-  const save = form.handleSubmit(async (v) => {
+  /** Saves the form's values: the saved design, or null when nothing was saved (the page says why). */
+  const saveValues = async (v: DesignFormValues): Promise<DesignView | null> => {
     const body = toSavedSpec(v, upload);
     if (!body) {
       setNotice('Upload a solid file first.');
-      return;
+      return null;
     }
     const saved = await saveDesign
       .mutateAsync(
@@ -144,7 +164,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
           : { body: { name: v.name, description: v.description, spec: body } },
       )
       .catch(() => null);
-    if (!saved) return;
+    if (!saved) return null;
     // What was saved is the new starting point: nothing is unsaved now (edits made while saving still are).
     form.reset(v, { keepValues: true });
     setSavedUpload(upload);
@@ -153,15 +173,43 @@ function DesignStudio({ design }: { design: DesignView | null }) {
       leaving.current = true;
       void navigate(`/designs/${saved.id}`, { replace: true });
     }
+    return saved;
+  };
+  const save = form.handleSubmit(async (v) => {
+    await saveValues(v);
   });
 
+  // The server copies the design as last saved; the copy opens saying which version it holds.
+  const copySaved = async (source: DesignView) => {
+    const copy = await duplicate.mutateAsync(source.id).catch(() => null);
+    if (copy) {
+      const state: StudioLocationState = {
+        notice: `This is a copy of “${source.name}” as saved in version ${source.version}.`,
+      };
+      void navigate(`/designs/${copy.id}`, { state });
+    }
+  };
   const onDuplicate = async () => {
     if (!design) return;
-    const copy = await duplicate.mutateAsync(design.id).catch(() => null);
-    if (copy) {
-      setNotice(`Made a copy: “${copy.name}”.`);
-      void navigate(`/designs/${copy.id}`);
+    // With unsaved changes the member chooses: save them first, or copy the saved version without them.
+    if (dirtyNow) {
+      duplicate.reset();
+      setDuplicateAsked(true);
+      return;
     }
+    await copySaved(design);
+  };
+  const onSaveAndDuplicate = async () => {
+    let saved: DesignView | null = null;
+    await form.handleSubmit(async (v) => {
+      saved = await saveValues(v);
+    })();
+    setDuplicateAsked(false);
+    if (saved) await copySaved(saved);
+  };
+  const onDuplicateSaved = async () => {
+    setDuplicateAsked(false);
+    if (design) await copySaved(design);
   };
 
   const onRequest = async (v: RequestJobValues) => {
@@ -179,6 +227,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   });
   const onRequestSubmit = useStableCallback((v: RequestJobValues) => void onRequest(v));
   const onRequestClose = useStableCallback(() => setRequestOpen(false));
+  const canSave = design === null || user.role === 'supervisor' || user.id === design.ownerId;
 
   return (
     <Box data-testid="design-studio">
@@ -248,6 +297,17 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         onSubmit={onRequestSubmit}
         onClose={onRequestClose}
       />
+      {design ? (
+        <DuplicateDialog
+          open={duplicateAsked}
+          savedVersion={design.version}
+          canSave={canSave}
+          busy={saveDesign.isPending || duplicate.isPending}
+          onSaveAndDuplicate={() => void onSaveAndDuplicate()}
+          onDuplicateSaved={() => void onDuplicateSaved()}
+          onClose={() => setDuplicateAsked(false)}
+        />
+      ) : null}
       <NoticeSnackbar notice={notice} autoHideMs={4000} onClose={() => setNotice(null)} />
       {leaveDialog}
     </Box>

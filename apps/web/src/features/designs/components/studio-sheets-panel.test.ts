@@ -1,0 +1,25 @@
+import { describe, expect, it } from 'vitest';
+import { formatLength } from '../../../lib/units';
+import { sheetsSummary } from './studio-sheets-panel';
+
+const fmt = (mm: number) => formatLength(mm, 'mm');
+
+describe('the sheets summary', () => {
+  it('says a fitted size is a search to within 0.5 %, so one sheet more is not always larger', () => {
+    // The figures of the audit: 325.3 mm on 2 sheets, 325.0 mm on 3 sheets (nesting is a heuristic).
+    const fitted = { sheets: [], diameterMm: 325.0, sheetsAsked: 3, failure: null };
+    const summary = sheetsSummary({ ...fitted, sheets: new Array(2).fill(null) }, fmt);
+    expect(summary).toBe(
+      'Largest size on 3 sheets: diameter 325.0 mm, using 2 (found by a search to within 0.5 %: ' +
+        'one sheet more can even come out slightly smaller).',
+    );
+  });
+
+  it('claims no search for a size given as it is', () => {
+    const summary = sheetsSummary(
+      { sheets: new Array(2).fill(null), diameterMm: 240, sheetsAsked: null, failure: null },
+      fmt,
+    );
+    expect(summary).toBe('At diameter 240.0 mm the pieces need 2 sheets.');
+  });
+});
