@@ -2,6 +2,7 @@ import { buildModel, layoutModel } from '@kerfwright/geometry';
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { placePoint, sheetViews } from '../lib/sheet-views';
+import { PIECE_COLOURS, stockColour } from './piece-colours';
 import { SheetLayoutView } from './sheet-layout-view';
 
 const SHEET = { widthMm: 300, heightMm: 200, marginMm: 5 };
@@ -87,5 +88,30 @@ describe('the sheet layout view', () => {
     // 300 mm = 11.811 in and 200 mm = 7.874 in (÷ 25.4, the international inch of 1959).
     expect(screen.getByTestId('layout-facts')).toHaveTextContent('Sheet size11.811 in × 7.874 in');
     expect(screen.getAllByRole('img')[0]).toHaveAccessibleName(/11\.811 in by 7\.874 in/);
+  });
+});
+
+describe('stock colours on the sheets', () => {
+  it('draws the pieces of a sheet in the colour its name says (CSS named colours)', () => {
+    const { model, layout } = laidOut();
+    const sheets = sheetViews(model, layout, SHEET, ['teal', 'slate grey']);
+    render(<SheetLayoutView sheets={sheets} unit="mm" />);
+    const drawings = screen.getAllByTestId('layout-sheet');
+    sheets.forEach((sheet, i) => {
+      const fills = [...drawings[i]!.querySelectorAll('path')].map((p) => p.getAttribute('fill'));
+      expect(fills.length).toBeGreaterThan(0);
+      // teal and slategrey are CSS named colours (CSS Color Module Level 4); "slate grey" is written apart.
+      expect(new Set(fills)).toEqual(new Set([sheet.colourIndex === 0 ? 'teal' : 'slategrey']));
+    });
+  });
+
+  it('reads a name by its last word, and falls back to our palette for names CSS has no colour for', () => {
+    expect(stockColour('Teal', 3)).toBe('teal');
+    expect(stockColour('cobalt blue', 0)).toBe('blue');
+    expect(stockColour('opal-white', 0)).toBe('white');
+    // "clear" acrylic and "natural" plywood have no CSS colour: the palette by colour index, distinct per sheet.
+    expect(stockColour('clear', 0)).toBe(PIECE_COLOURS[0]);
+    expect(stockColour('natural', 1)).toBe(PIECE_COLOURS[1]);
+    expect(stockColour(null, 2)).toBe(PIECE_COLOURS[2]);
   });
 });

@@ -4,7 +4,7 @@ import Typography from '@mui/material/Typography';
 import { memo } from 'react';
 import { formatLength, type LengthUnit } from '../../../lib/units';
 import { cutFigures, type SheetView } from '../lib/sheet-views';
-import { pieceColour } from './piece-colours';
+import { stockColour } from './piece-colours';
 import { countOf } from '../../../lib/plural';
 
 /** Time and cost of a job's layout (from the geometry library's estimates). */
@@ -160,7 +160,7 @@ function SheetDrawing({
             <g key={`${piece.id}-${j}`}>
               <path
                 d={path(piece.outline)}
-                fill={pieceColour(piece.colourIndex)}
+                fill={stockColour(sheet.colourName, piece.colourIndex)}
                 fillOpacity={0.7}
                 stroke="#2d3b45"
                 strokeWidth={stroke}
