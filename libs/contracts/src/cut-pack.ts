@@ -17,6 +17,9 @@ export const CUT_PACK_FILE_ROLES = [
 ] as const;
 export type CutPackFileRole = (typeof CUT_PACK_FILE_ROLES)[number];
 
+/** Files that print the safety notices (the setup sheet, and the ZIP holding it): out of date once those change. */
+export const CUT_PACK_ROLES_PRINTING_SAFETY: readonly CutPackFileRole[] = ['setup-sheet', 'archive'];
+
 export interface CutPackFile {
   /** File name inside the pack: lower-case letters, digits, dots and dashes only (e.g. `sheet-01-saffron.dxf`). */
   name: string;

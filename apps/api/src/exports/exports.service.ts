@@ -7,7 +7,13 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { distinctUntilChanged, from, type Observable, switchMap, takeWhile, timer, map } from 'rxjs';
 import { DataSource, In } from 'typeorm';
-import { type ExportRequested, type ExportView, type JobState, transitionFor } from '@kerfwright/contracts';
+import {
+  CUT_PACK_ROLES_PRINTING_SAFETY,
+  type ExportRequested,
+  type ExportView,
+  type JobState,
+  transitionFor,
+} from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
@@ -28,8 +34,6 @@ import { withArticle } from '../common/text';
 const DOWNLOADABLE: readonly JobState[] = ['released', 'cut', 'closed'];
 /** What a hobbyist may download: the assembly guide of their own job, nothing else. */
 const HOBBYIST_ROLES = ['assembly-guide'];
-/** Files that print the safety notices: out of date once the notices or the workshop rules change. */
-const PRINTS_SAFETY: readonly string[] = ['setup-sheet', 'archive'];
 const POLL_MS = 500;
 /** How long a request waits for Redis to take a new export before answering anyway. */
 const QUEUE_ADD_MS = 3000;
@@ -210,7 +214,7 @@ export class ExportsService {
     if (!file || (user.role === 'hobbyist' && !HOBBYIST_ROLES.includes(file.role))) throw missing();
     // A setup sheet prints the safety notices and rules version of the day it was built: once they change, it
     // (and the ZIP holding it) is out of date, and the pack is built again. The cutting files print no notices.
-    if (PRINTS_SAFETY.includes(file.role) && (await this.safetyChanged(exp))) {
+    if (CUT_PACK_ROLES_PRINTING_SAFETY.includes(file.role) && (await this.safetyChanged(exp))) {
       throw new AppError(
         HttpStatus.CONFLICT,
         'EXPORT.SAFETY_CHANGED',

@@ -1,6 +1,6 @@
 import { type JobAction, type JobView } from '@kerfwright/contracts';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '../../../lib/api-client';
+import { api, isApiError } from '../../../lib/api-client';
 import { followExport } from './follow-export';
 import { jobsKeys } from './jobs-keys';
 
@@ -26,10 +26,26 @@ export function takeJobAction({ id, action, body }: JobActionVariables): Promise
   return api.post<JobActionResult>(`/jobs/${encodeURIComponent(id)}/${action}`, body);
 }
 
+/** The action was refused because someone acted on the job since the caller read it (a newer version or state). */
+export function isJobChangedSince(error: unknown): boolean {
+  return isApiError(error) && (error.code === 'JOB.STALE_VERSION' || error.code === 'JOB.ILLEGAL_TRANSITION');
+}
+
 export function useTakeJobAction() {
   const queryClient = useQueryClient();
+  const readAgain = (id: string) => {
+    void queryClient.invalidateQueries({ queryKey: jobsKeys.detail(id) });
+    void queryClient.invalidateQueries({ queryKey: jobsKeys.lists() });
+    void queryClient.invalidateQueries({ queryKey: jobsKeys.safety(id) });
+    void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(id) });
+  };
   return useMutation({
     mutationFn: takeJobAction,
+    // A 409 means the job is not as this page read it (a newer version, another state, or a rule of the
+    // action): read it again, so the page shows the job as it is now beside the server's message.
+    onError: (error, v) => {
+      if (isApiError(error) && error.status === 409) readAgain(v.id);
+    },
     onSuccess: (result, v) => {
       if (isQueuedAction(result)) {
         // The job moves on when its export is done: follow it (events, else polling), then read the job again.
@@ -41,10 +57,7 @@ export function useTakeJobAction() {
             void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(v.id) });
           });
       }
-      void queryClient.invalidateQueries({ queryKey: jobsKeys.detail(v.id) });
-      void queryClient.invalidateQueries({ queryKey: jobsKeys.lists() });
-      void queryClient.invalidateQueries({ queryKey: jobsKeys.safety(v.id) });
-      void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(v.id) });
+      readAgain(v.id);
     },
   });
 }

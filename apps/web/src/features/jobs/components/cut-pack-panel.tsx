@@ -1,3 +1,4 @@
+import { CUT_PACK_ROLES_PRINTING_SAFETY } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
 import LinearProgress from '@mui/material/LinearProgress';
@@ -6,6 +7,7 @@ import Stack from '@mui/material/Stack';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
@@ -80,31 +82,48 @@ export function CutPackPanel({
       ) : null}
       {newest?.state === 'done' ? (
         safety.data?.acknowledged ? (
-          <Table size="small" aria-label="Cut pack files">
-            <TableBody>
-              {newest.files.map((f) => (
-                <TableRow key={f.name}>
-                  <TableCell>{f.name}</TableCell>
-                  <TableCell>{f.role}</TableCell>
-                  <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
-                  <TableCell align="right">
-                    <Button
-                      size="small"
-                      onClick={() => {
-                        setDownloadError(null);
-                        downloadFile(
-                          `/exports/${encodeURIComponent(newest.id)}/files/${encodeURIComponent(f.name)}`,
-                          f.name,
-                        ).catch(setDownloadError);
-                      }}
-                    >
-                      {`Download ${f.name}`}
-                    </Button>
-                  </TableCell>
-                </TableRow>
-              ))}
-            </TableBody>
-          </Table>
+          // At phone width the row keeps to the name, size and button (the name wraps); the table scrolls
+          // inside its own box rather than widening the page.
+          <>
+            {newest.safetyChanged ? (
+              <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-safety-changed">
+                {`The safety notices or workshop rules changed since this cut pack was built: its setup sheet and ZIP print the old ones and cannot be downloaded. ${
+                  canPrepare
+                    ? 'Prepare the cut pack again.'
+                    : 'A fabricator or supervisor prepares it again; the cutting files below are unchanged.'
+                }`}
+              </Alert>
+            ) : null}
+            <TableContainer sx={{ overflowX: 'auto' }}>
+              <Table size="small" aria-label="Cut pack files">
+                <TableBody>
+                  {newest.files.map((f) => (
+                    <TableRow key={f.name}>
+                      <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
+                      <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>{f.role}</TableCell>
+                      <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
+                      <TableCell align="right">
+                        <Button
+                          size="small"
+                          aria-label={`Download ${f.name}`}
+                          disabled={!!newest.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
+                          onClick={() => {
+                            setDownloadError(null);
+                            downloadFile(
+                              `/exports/${encodeURIComponent(newest.id)}/files/${encodeURIComponent(f.name)}`,
+                              f.name,
+                            ).catch(setDownloadError);
+                          }}
+                        >
+                          Download
+                        </Button>
+                      </TableCell>
+                    </TableRow>
+                  ))}
+                </TableBody>
+              </Table>
+            </TableContainer>
+          </>
         ) : (
           <Alert
             severity="warning"

@@ -12,6 +12,16 @@ export type ReturnJobValues = z.infer<typeof returnJobSchema>;
 
 const KERF = MACHINE_PROFILE_LIMITS.kerfMm;
 
+/**
+ * A sheet count far above what the preparation laid out: more than twice the prepared sheets, and at least
+ * three more (a spoilt sheet cut again or a test cut are everyday). The API takes up to 1000 sheets for
+ * any job (RecordCutDto), so the form asks for a confirmation rather than refusing such a count.
+ */
+export function isFarAboveSheets(used: number, prepared: number | null): boolean {
+  if (prepared === null || !Number.isFinite(used)) return false;
+  return used > Math.max(2 * prepared, prepared + 2);
+}
+
 export const recordCutSchema = z.object({
   /** Undefined until typed in (so the empty field never holds "NaN"). */
   actualMinutes: z

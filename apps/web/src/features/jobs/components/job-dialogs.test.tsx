@@ -33,7 +33,14 @@ describe('record the cut dialog', () => {
   it('needs the machine time and whole sheets; the measured kerf may stay empty', async () => {
     const onSubmit = vi.fn();
     const { user } = renderWithProviders(
-      <RecordCutDialog open busy={false} error={null} defaultSheets={2} onSubmit={onSubmit} onClose={noop} />,
+      <RecordCutDialog
+        open
+        busy={false}
+        error={null}
+        preparedSheets={2}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
     );
     await user.click(await screen.findByRole('button', { name: 'Record the cut' }));
     expect(await screen.findByText('Enter the machine time in minutes')).toBeInTheDocument();
@@ -62,6 +69,50 @@ describe('record the cut dialog', () => {
   });
 });
 
+describe('record the cut dialog, sheets used', () => {
+  it('asks for a confirmation of a count far above the prepared sheets, which the API would take as it is', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <RecordCutDialog
+        open
+        busy={false}
+        error={null}
+        preparedSheets={3}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '25');
+    const sheets = screen.getByLabelText('Sheets used');
+    expect(sheets).toHaveValue(3);
+    const record = screen.getByRole('button', { name: 'Record the cut' });
+    // A spoilt sheet cut again is everyday: no question.
+    await user.clear(sheets);
+    await user.type(sheets, '5');
+    expect(screen.queryByTestId('sheets-far-above')).not.toBeInTheDocument();
+    expect(record).toBeEnabled();
+
+    await user.clear(sheets);
+    await user.type(sheets, '999');
+    const warning = await screen.findByTestId('sheets-far-above');
+    expect(warning).toHaveTextContent('999 sheets is far more than the 3 sheets the preparation laid out');
+    expect(record).toBeDisabled();
+    await user.type(sheets, '{Enter}');
+    expect(onSubmit).not.toHaveBeenCalled();
+
+    await user.click(within(warning).getByLabelText('Yes, 999 sheets went into this cut'));
+    expect(record).toBeEnabled();
+    // Another count is a new question.
+    await user.clear(sheets);
+    await user.type(sheets, '99');
+    expect(record).toBeDisabled();
+    await user.click(within(screen.getByTestId('sheets-far-above')).getByRole('checkbox'));
+    await user.click(record);
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]?.[0]).toMatchObject({ actualMinutes: 25, sheetsUsed: 99 });
+  });
+});
+
 describe('record the cut dialog, measured kerf', () => {
   it('takes a kerf of 0.01–2 mm as the API does, and never writes "NaN" into an empty field', async () => {
     // A browser warns 'The specified value "NaN" cannot be parsed' when a number input is given "NaN".
@@ -81,7 +132,7 @@ describe('record the cut dialog, measured kerf', () => {
           open
           busy={false}
           error={null}
-          defaultSheets={1}
+          preparedSheets={1}
           onSubmit={onSubmit}
           onClose={noop}
         />,

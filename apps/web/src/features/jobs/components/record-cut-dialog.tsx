@@ -1,37 +1,59 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
+import Checkbox from '@mui/material/Checkbox';
 import Dialog from '@mui/material/Dialog';
 import DialogActions from '@mui/material/DialogActions';
 import DialogContent from '@mui/material/DialogContent';
 import DialogTitle from '@mui/material/DialogTitle';
+import FormControlLabel from '@mui/material/FormControlLabel';
 import Stack from '@mui/material/Stack';
-import { useForm } from 'react-hook-form';
+import { useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
-import { type RecordCutValues, recordCutSchema } from './job-action-schemas';
+import { countOf } from '../../../lib/plural';
+import { isFarAboveSheets, type RecordCutValues, recordCutSchema } from './job-action-schemas';
 
-/** The operator records what the cut took: machine time, sheets and (optionally) the kerf measured on it. */
+/**
+ * The operator records what the cut took: machine time, sheets and (optionally) the kerf measured on it. A
+ * sheet count far above the prepared one (999 for a job of 3 sheets) is recorded only once confirmed.
+ */
 export function RecordCutDialog(props: {
   open: boolean;
   busy: boolean;
   error: unknown;
-  defaultSheets: number;
+  /** The sheets the preparation laid out (the count offered), or null when unknown. */
+  preparedSheets: number | null;
   onSubmit: (v: RecordCutValues) => void;
   onClose: () => void;
 }) {
   const {
     register,
     handleSubmit,
+    control,
     formState: { errors },
   } = useForm<RecordCutValues>({
     resolver: zodResolver(recordCutSchema),
     // The empty fields start undefined: NaN would be written into the number inputs as the text "NaN".
-    defaultValues: { sheetsUsed: props.defaultSheets },
+    defaultValues: { sheetsUsed: props.preparedSheets ?? 1 },
   });
+  const sheetsUsed = useWatch({ control, name: 'sheetsUsed' });
+  const farAbove = isFarAboveSheets(sheetsUsed, props.preparedSheets);
+  // The count the operator confirmed: another count needs its own confirmation.
+  const [confirmed, setConfirmed] = useState<number | null>(null);
+  const needsConfirmation = farAbove && confirmed !== sheetsUsed;
   const n = { valueAsNumber: true } as const;
   return (
     <Dialog open={props.open} onClose={props.onClose} fullWidth maxWidth="sm" aria-labelledby="cut-title">
-      <form noValidate onSubmit={handleSubmit(props.onSubmit)}>
+      <form
+        noValidate
+        onSubmit={handleSubmit((v) => {
+          if (!isFarAboveSheets(v.sheetsUsed, props.preparedSheets) || confirmed === v.sheetsUsed) {
+            props.onSubmit(v);
+          }
+        })}
+      >
         <DialogTitle id="cut-title">Record the cut</DialogTitle>
         <DialogContent>
           {props.error ? <FormErrorAlert error={props.error} /> : null}
@@ -49,6 +71,21 @@ export function RecordCutDialog(props: {
               registration={register('sheetsUsed', n)}
               error={errors.sheetsUsed}
             />
+            {farAbove && props.preparedSheets !== null ? (
+              <Alert severity="warning" data-testid="sheets-far-above">
+                {`${countOf(sheetsUsed, 'sheet')} is far more than the ${countOf(props.preparedSheets, 'sheet')} the preparation laid out. Check the number before recording it.`}
+                <FormControlLabel
+                  sx={{ display: 'flex', mt: 1 }}
+                  label={`Yes, ${countOf(sheetsUsed, 'sheet')} went into this cut`}
+                  control={
+                    <Checkbox
+                      checked={confirmed === sheetsUsed}
+                      onChange={(e) => setConfirmed(e.target.checked ? sheetsUsed : null)}
+                    />
+                  }
+                />
+              </Alert>
+            ) : null}
             <FormTextField
               label="Measured kerf (mm, optional)"
               type="number"
@@ -60,7 +97,7 @@ export function RecordCutDialog(props: {
         </DialogContent>
         <DialogActions>
           <Button onClick={props.onClose}>Cancel</Button>
-          <Button type="submit" variant="contained" disabled={props.busy}>
+          <Button type="submit" variant="contained" disabled={props.busy || needsConfirmation}>
             Record the cut
           </Button>
         </DialogActions>

@@ -1,6 +1,6 @@
-import { type JobDetailView } from '@kerfwright/contracts';
+import { type ExportView, type JobDetailView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
@@ -51,7 +51,31 @@ const job: JobDetailView = {
   ],
 };
 
+/** A finished cut pack as the API lists it to a hobbyist: their assembly guide only (exports.service). */
+const hobbyistExport: ExportView = {
+  id: 'e-1',
+  jobId: job.id,
+  state: 'done',
+  progress: 100,
+  attempts: 1,
+  errorCode: null,
+  errorMessage: null,
+  files: [
+    {
+      name: 'assembly-guide.pdf',
+      role: 'assembly-guide',
+      contentType: 'application/pdf',
+      bytes: 20480,
+      sha256: 'c',
+    },
+  ],
+  createdAt: '2026-01-02T00:00:00.000Z',
+  finishedAt: '2026-01-02T00:01:00.000Z',
+};
+
 describe('job detail', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
   it('offers exactly the actions the API lists for the caller and returns the job with a reason and its version', async () => {
     const stub = stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('fabricator')),
@@ -127,5 +151,125 @@ describe('job detail', () => {
     renderApp(`/jobs/${job.id}`, { token: 't' });
     expect(await screen.findByRole('heading', { name: 'No such job' })).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Try again' })).not.toBeInTheDocument();
+  });
+
+  it("offers a hobbyist their released job's assembly guide, and nothing the server keeps from them", async () => {
+    const hobbyist = userFixture('hobbyist');
+    const mine = { ...job, requesterId: hobbyist.id, state: 'released' as const, actions: [] };
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, hobbyist),
+      [`GET /api/jobs/${job.id}`]: () => json(200, mine),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, [hobbyistExport]),
+      'GET /api/exports/e-1/files/assembly-guide.pdf': () =>
+        new Response('%PDF-1.7', { status: 200, headers: { 'Content-Type': 'application/pdf' } }),
+    });
+    // jsdom keeps no object URLs: the saved file is seen as the blob handed to the browser.
+    const saved = vi.fn((_blob: Blob) => 'blob:guide');
+    vi.stubGlobal(
+      'URL',
+      class extends URL {
+        static override createObjectURL = saved;
+        static override revokeObjectURL = () => undefined;
+      },
+    );
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const panel = await screen.findByTestId('assembly-guide');
+    await user.click(await within(panel).findByRole('button', { name: 'Download assembly-guide.pdf' }));
+    await waitFor(() =>
+      expect(stub.calls.some((c) => c.url.pathname === '/api/exports/e-1/files/assembly-guide.pdf')).toBe(
+        true,
+      ),
+    );
+    await waitFor(() => expect(saved).toHaveBeenCalledTimes(1));
+    expect(within(panel).queryByTestId('form-error')).not.toBeInTheDocument();
+    expect(within(panel).getAllByRole('button')).toHaveLength(1);
+    // The staff's cut pack (every file, safety acknowledgement) is not theirs, nor are the safety notices.
+    expect(screen.queryByTestId('cut-pack')).not.toBeInTheDocument();
+    expect(stub.calls.some((c) => c.url.pathname.endsWith('/safety'))).toBe(false);
+  });
+
+  it('offers no assembly guide before the job is released, as the server refuses it then', async () => {
+    const hobbyist = userFixture('hobbyist');
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, hobbyist),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, { ...job, requesterId: hobbyist.id, state: 'approved', actions: [] }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, [hobbyistExport]),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    await screen.findByText('Nothing for you to do on this job now.');
+    expect(screen.queryByTestId('assembly-guide')).not.toBeInTheDocument();
+    expect(stub.calls.some((c) => c.url.pathname.endsWith('/exports'))).toBe(false);
+  });
+
+  it("reads the job again after a conflict and shows the server's message beside the job as it is now", async () => {
+    let current: JobDetailView = { ...job, state: 'prepared', actions: ['approve', 'prepare', 'return'] };
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+      [`POST /api/jobs/${job.id}/approve`]: () => {
+        // Meanwhile a fabricator returned the job: the server has a newer version in another state.
+        current = { ...current, state: 'returned', version: 5, returnReason: 'Wrong stock', actions: [] };
+        return json(409, {
+          statusCode: 409,
+          code: 'JOB.ILLEGAL_TRANSITION',
+          message: 'A returned job cannot be given "approve"',
+          details: { state: 'returned', action: 'approve', allowedFrom: ['prepared'] },
+          requestId: 'r-2',
+        });
+      },
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
+    const dialog = await screen.findByRole('dialog');
+    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+
+    expect(await screen.findByTestId('return-reason')).toHaveTextContent('Returned: Wrong stock');
+    expect(screen.getByTestId('job-state')).toHaveTextContent('returned');
+    expect(screen.getByTestId('form-error')).toHaveTextContent('A returned job cannot be given "approve"');
+    expect(screen.getByTestId('job-read-again')).toBeInTheDocument();
+    // The confirmation for an action the job no longer offers is gone.
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(
+      stub.calls.filter((c) => c.method === 'GET' && c.url.pathname === `/api/jobs/${job.id}`),
+    ).toHaveLength(2);
+  });
+
+  it('after a stale version, sends the next try with the version read again', async () => {
+    let current: JobDetailView = { ...job, state: 'prepared', actions: ['approve', 'prepare', 'return'] };
+    let answered = false;
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+      [`POST /api/jobs/${job.id}/approve`]: () => {
+        if (answered) return json(200, { ...current, state: 'approved', actions: [] });
+        answered = true;
+        // Meanwhile the notes were edited: same state, newer version.
+        current = { ...current, version: 6, notes: 'Two colours after all' };
+        return json(409, {
+          statusCode: 409,
+          code: 'JOB.STALE_VERSION',
+          message: 'The job changed since you read it; reload it and try again',
+          details: { current: 6 },
+          requestId: 'r-3',
+        });
+      },
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
+    const dialog = await screen.findByRole('dialog');
+    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    expect(await within(dialog).findByTestId('form-error')).toHaveTextContent(
+      'The job changed since you read it',
+    );
+    expect(await screen.findByText('Two colours after all')).toBeInTheDocument();
+    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    await waitFor(() => expect(stub.calls.filter((c) => c.method === 'POST')).toHaveLength(2));
+    expect(stub.calls.filter((c) => c.method === 'POST').map((c) => c.body)).toEqual([
+      { version: 4 },
+      { version: 6 },
+    ]);
   });
 });

@@ -27,7 +27,8 @@ import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { formatLength, type LengthUnit, MM_PER_INCH } from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
-import { useTakeJobAction } from '../api/take-job-action';
+import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
+import { AssemblyGuidePanel, GUIDE_STATES } from '../components/assembly-guide-panel';
 import { CutPackPanel } from '../components/cut-pack-panel';
 import { JobSheetsPanel } from '../components/job-sheets-panel';
 import { JobStateChip } from '../components/job-state-chip';
@@ -82,7 +83,11 @@ function NoSuchJob() {
 function JobDetail({ job }: { job: JobDetailView }) {
   const user = useUser();
   const action = useTakeJobAction();
-  const [open, setOpen] = useState<Open>(null);
+  const [opened, setOpen] = useState<Open>(null);
+  // A dialog whose action the job no longer offers (someone acted on the job meanwhile) gives way to the
+  // page, which shows the job as it is now and the server's answer.
+  const open: Open = opened !== null && opened !== 'safety' && !job.actions.includes(opened) ? null : opened;
+  if (open !== opened) setOpen(open);
   const [unit, setUnit] = useState<LengthUnit>('mm');
   const fmt = (mm: number) => formatLength(mm, unit);
   // Kerfs are recorded to the thousandth of a millimetre (0.165 mm), and shown so, as the kerf history does.
@@ -103,6 +108,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
   // Staff see the cut pack once the job is approved; downloads still need the safety acknowledgement.
   const canSeePack =
     user.role !== 'hobbyist' && ['approved', 'released', 'cut', 'closed'].includes(job.state);
+  // A hobbyist downloads one file: their own job's assembly guide, once the job is released.
+  const canGetGuide =
+    user.role === 'hobbyist' && job.requesterId === user.id && GUIDE_STATES.includes(job.state);
 
   return (
     <Box sx={{ maxWidth: 1200 }} data-testid="job-detail">
@@ -132,6 +140,11 @@ function JobDetail({ job }: { job: JobDetailView }) {
         </Alert>
       ) : null}
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
+      {action.error && isJobChangedSince(action.error) ? (
+        <Alert severity="info" sx={{ mb: 2 }} data-testid="job-read-again">
+          This page has read the job again and shows it as it is now.
+        </Alert>
+      ) : null}
 
       <Stack
         direction="row"
@@ -240,6 +253,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           onOpenSafety={() => setOpen('safety')}
         />
       ) : null}
+      {canGetGuide ? <AssemblyGuidePanel jobId={job.id} /> : null}
 
       <Paper variant="outlined" sx={{ p: 2, mt: 2 }}>
         <Typography variant="h2" sx={{ mb: 1 }}>
@@ -293,7 +307,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           open
           busy={action.isPending}
           error={action.error}
-          defaultSheets={prep?.sheetCount ?? 1}
+          preparedSheets={prep?.sheetCount ?? null}
           onSubmit={(v) =>
             take('cut', {
               actualMinutes: v.actualMinutes,

@@ -66,11 +66,33 @@ function exportFixture(id: string, jobId: string, state: ExportView['state'], pr
   };
 }
 
+/** A screen of this many CSS pixels for the media queries (the theme's breakpoints: sm from 600 px). */
+function stubScreenWidth(px: number) {
+  const bound = (query: string, side: 'min' | 'max') => {
+    const found = new RegExp(`${side}-width:\\s*([\\d.]+)px`).exec(query);
+    return found ? Number(found[1]) : null;
+  };
+  vi.stubGlobal('matchMedia', (query: string) => {
+    const min = bound(query, 'min');
+    const max = bound(query, 'max');
+    return {
+      matches: (min === null || px >= min) && (max === null || px <= max),
+      media: query,
+      onchange: null,
+      addEventListener: () => undefined,
+      removeEventListener: () => undefined,
+      addListener: () => undefined,
+      removeListener: () => undefined,
+      dispatchEvent: () => false,
+    };
+  });
+}
+
 const released = jobFixture('j-released', 'released', 'Turned squares');
 const packing = jobFixture('j-packing', 'approved', 'Star lamp');
 const waiting = jobFixture('j-waiting', 'approved', 'Not released yet');
 
-function stubDesk(acknowledged: boolean) {
+function stubDesk(acknowledged: boolean, pack: Partial<ExportView> = {}) {
   const safety: JobSafetyView = {
     jobId: released.id,
     machineKind: 'co2-laser',
@@ -89,7 +111,7 @@ function stubDesk(acknowledged: boolean) {
     },
     [`GET /api/jobs/${released.id}`]: () => json(200, { ...released, transitions: [] }),
     [`GET /api/jobs/${released.id}/exports`]: () =>
-      json(200, [exportFixture('e-r', released.id, 'done', 100)]),
+      json(200, [{ ...exportFixture('e-r', released.id, 'done', 100), ...pack }]),
     [`GET /api/jobs/${packing.id}/exports`]: () =>
       json(200, [exportFixture('e-p', packing.id, 'running', 40)]),
     [`GET /api/jobs/${waiting.id}/exports`]: () => json(200, []),
@@ -154,5 +176,48 @@ describe('release desk', () => {
       actualMinutes: 21,
       sheetsUsed: 1,
     });
+  });
+
+  it('says when the safety notices changed since the pack was built, and offers no stale setup sheet', async () => {
+    const done = exportFixture('e-r', released.id, 'done', 100);
+    stubDesk(true, {
+      safetyChanged: true,
+      files: [
+        ...done.files,
+        {
+          name: 'setup-sheet.pdf',
+          role: 'setup-sheet',
+          contentType: 'application/pdf',
+          bytes: 9000,
+          sha256: 'c',
+        },
+      ],
+    });
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    expect(await within(job).findByTestId('cut-pack-safety-changed')).toHaveTextContent(
+      'A fabricator or supervisor prepares it again',
+    );
+    expect(within(job).getByRole('button', { name: 'Download setup-sheet.pdf' })).toBeDisabled();
+    expect(within(job).getByRole('button', { name: 'Download sheet-01-clear.svg' })).toBeEnabled();
+  });
+
+  it('at phone width (390 px) shows each job as a card whose Open button is in reach, not in a wide table', async () => {
+    stubScreenWidth(390);
+    stubDesk(true);
+    const { user } = renderApp('/release-desk', { token: 't' });
+    const cards = await screen.findByRole('list', { name: 'Jobs at the release desk' });
+    expect(screen.queryByRole('table', { name: 'Jobs at the release desk' })).not.toBeInTheDocument();
+    const card = (await within(cards).findByText('Turned squares')).closest('li') as HTMLElement;
+    expect(card).toHaveTextContent('Cast acrylic 3 mm (clear) · CO2 laser v2');
+    await user.click(within(card).getByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    // The files keep to the phone's width: the long names wrap, the buttons say "Download" and name the file.
+    const files = await within(job).findByRole('table', { name: 'Cut pack files' });
+    expect(within(files).getByRole('button', { name: 'Download sheet-01-clear.svg' })).toHaveTextContent(
+      /^Download$/,
+    );
+    expect(getComputedStyle(files.parentElement!).overflowX).toBe('auto');
   });
 });

@@ -12,8 +12,10 @@ import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
+import { useTheme } from '@mui/material/styles';
+import useMediaQuery from '@mui/material/useMediaQuery';
 import { useQuery } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
@@ -26,8 +28,9 @@ import { CutPackPanel } from '../../jobs/components/cut-pack-panel';
 import { JobStateChip } from '../../jobs/components/job-state-chip';
 import { RecordCutDialog } from '../../jobs/components/record-cut-dialog';
 import { SafetyDialog } from '../../jobs/components/safety-dialog';
-import { useReleaseDeskJobs } from '../api/get-release-desk-jobs';
+import { type DeskRow, useReleaseDeskJobs } from '../api/get-release-desk-jobs';
 import { PackProgress } from '../components/pack-progress';
+import { countOf } from '../../../lib/plural';
 
 /**
  * The release desk (operators, supervisors): the jobs ready for the machines and those whose cut pack is
@@ -39,6 +42,8 @@ export function ReleaseDeskRoute() {
   // The opened job is read on its own, so it stays on screen after the cut (when it leaves the queue).
   const detail = useQuery({ ...jobQueryOptions(selectedId ?? ''), enabled: selectedId !== null });
   const selected = detail.data ?? desk.rows.find((r) => r.job.id === selectedId)?.job ?? null;
+  // On a phone the seven columns do not fit: each job is a card of its own, its Open button in reach.
+  const phone = useMediaQuery(useTheme().breakpoints.down('sm'));
   return (
     <Box data-testid="release-desk">
       <title>Release desk · Kerfwright</title>
@@ -58,8 +63,11 @@ export function ReleaseDeskRoute() {
       {!desk.isPending && !desk.error && desk.rows.length === 0 ? (
         <Alert severity="info">No job is waiting for the machines.</Alert>
       ) : null}
-      {desk.rows.length > 0 ? (
-        // A phone-width page keeps its width: the table scrolls inside its card.
+      {desk.rows.length > 0 && phone ? (
+        <DeskCards rows={desk.rows} selectedId={selectedId} onOpen={setSelectedId} />
+      ) : null}
+      {desk.rows.length > 0 && !phone ? (
+        // A tablet-width page keeps its width: the table scrolls inside its card.
         <TableContainer component={Paper} variant="outlined" sx={{ mb: 2, overflowX: 'auto' }}>
           <Table size="small" aria-label="Jobs at the release desk">
             <TableHead>
@@ -104,16 +112,67 @@ export function ReleaseDeskRoute() {
   );
 }
 
+/** The desk's jobs at phone width: one card per job, its facts stacked and its Open button full width. */
+function DeskCards({
+  rows,
+  selectedId,
+  onOpen,
+}: {
+  rows: readonly DeskRow[];
+  selectedId: string | null;
+  onOpen: (id: string) => void;
+}) {
+  return (
+    <Stack
+      spacing={1}
+      sx={{ mb: 2 }}
+      component="ul"
+      aria-label="Jobs at the release desk"
+      data-testid="desk-cards"
+    >
+      {rows.map(({ job, newest }) => (
+        <Paper
+          key={job.id}
+          component="li"
+          variant="outlined"
+          sx={{ p: 1.5, listStyle: 'none', borderColor: job.id === selectedId ? 'primary.main' : undefined }}
+        >
+          <Stack direction="row" spacing={1} sx={{ alignItems: 'center', mb: 0.5 }}>
+            <Typography component="h2" sx={{ flex: 1, fontWeight: 500, overflowWrap: 'anywhere' }}>
+              {job.designName}
+            </Typography>
+            <JobStateChip state={job.state} />
+          </Stack>
+          <Typography variant="body2" color="text.secondary" sx={{ overflowWrap: 'anywhere' }}>
+            {`${job.materialName ?? '—'}${job.colours.length ? ` (${job.colours.join(', ')})` : ''} · ${
+              job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : '—'
+            } · ${job.preparation ? countOf(job.preparation.sheetCount, 'sheet') : 'not laid out yet'}`}
+          </Typography>
+          <Box sx={{ my: 1 }}>
+            <PackProgress jobId={job.id} newest={newest} />
+          </Box>
+          <Button variant="outlined" fullWidth onClick={() => onOpen(job.id)}>
+            {`Open ${job.designName}`}
+          </Button>
+        </Paper>
+      ))}
+    </Stack>
+  );
+}
+
 /** One job at the desk: the safety acknowledgement, the cut pack's files and recording the cut. */
 function DeskJob({ job }: { job: JobView }) {
   const user = useUser();
+  // Opened from a long list (a phone shows one card a screen), the job comes into view.
+  const ref = useRef<HTMLDivElement>(null);
+  useEffect(() => ref.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' }), []);
   const safety = useJobSafety(job.id, true);
   const action = useTakeJobAction();
   const [open, setOpen] = useState<'safety' | 'cut' | null>(null);
   const acknowledged = safety.data?.acknowledged === true;
   const canCut = job.actions.includes('cut');
   return (
-    <Paper variant="outlined" sx={{ p: 2 }} data-testid="desk-job">
+    <Paper variant="outlined" sx={{ p: 2 }} data-testid="desk-job" ref={ref}>
       <Stack direction="row" spacing={2} sx={{ alignItems: 'center', mb: 1, flexWrap: 'wrap' }} useFlexGap>
         <Typography variant="h2" sx={{ flex: 1 }}>
           {job.designName}
@@ -163,7 +222,7 @@ function DeskJob({ job }: { job: JobView }) {
           open
           busy={action.isPending}
           error={action.error}
-          defaultSheets={job.preparation?.sheetCount ?? 1}
+          preparedSheets={job.preparation?.sheetCount ?? null}
           onSubmit={(v) =>
             action.mutate(
               {
