@@ -21,6 +21,8 @@ export {
 } from './layout/build-with-layout';
 export type { LayoutBuild } from './layout/build-with-layout';
 export { bestFitRatio } from './scale/fit-ratio';
+export { smallestSoundSize } from './scale/sound-size';
+export type { SoundSize } from './scale/sound-size';
 export type { BuiltModel, BuiltPiece, BuiltSlot } from './build';
 export {
   validateSpec,

@@ -1,6 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { type DesignView } from '@kerfwright/contracts';
-import { validateSpec } from '@kerfwright/geometry';
+import { buildModel, validateSpec } from '@kerfwright/geometry';
 import { screen, waitFor } from '@testing-library/react';
 import { useForm } from 'react-hook-form';
 import { describe, expect, it } from 'vitest';
@@ -73,13 +73,19 @@ describe('design studio spec form', () => {
     expect(screen.queryByLabelText('Kerf (mm)')).not.toBeInTheDocument();
   });
 
-  it("puts the engine's suggested size into the size field", async () => {
+  it('finds the smallest sound size with the engine and puts it into the size field', async () => {
     let submitted: DesignFormValues | undefined;
     const { user } = renderWithProviders(<Harness onValues={(v) => (submitted = v)} />);
-    await user.click(await screen.findByRole('button', { name: 'touch 0.707' }));
-    expect(screen.getByLabelText('Size')).toHaveValue(0.7071);
+    expect(await screen.findByTestId('suggested-sizes')).toHaveTextContent('Pieces cross from size 0.800.');
+    await user.click(screen.getByRole('button', { name: 'Smallest sound size' }));
+    const said = await screen.findByTestId('sound-size');
+    const size = Number((screen.getByLabelText('Size') as HTMLInputElement).value);
+    expect(said).toHaveTextContent(`${size.toFixed(4)} is the smallest size that builds without errors`);
+    // The size found builds a sound model of the form's spec (checked with the geometry library itself).
+    const spec = toDesignSpec(designFormSchema.parse({ ...DEFAULT_DESIGN_VALUES, size }), null)!;
+    expect(buildModel(spec).report.errors).toEqual([]);
     await user.click(screen.getByRole('button', { name: 'Check' }));
-    await waitFor(() => expect(submitted?.size).toBe(0.7071));
+    await waitFor(() => expect(submitted?.size).toBe(size));
   });
 
   it('turns valid form values into a spec that the geometry library accepts', () => {

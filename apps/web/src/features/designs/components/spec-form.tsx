@@ -1,11 +1,11 @@
 import { COLOUR_RULES, type UploadedSolid } from '@kerfwright/contracts';
-import { listSolids } from '@kerfwright/geometry';
+import { listSolids, smallestSoundSize } from '@kerfwright/geometry';
 import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
-import { memo, type ReactNode } from 'react';
+import { memo, type ReactNode, useState } from 'react';
 import {
   Controller,
   type RegisterOptions,
@@ -16,7 +16,7 @@ import {
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
-import { type DesignFormValues } from './design-form-schema';
+import { type DesignFormValues, designFormSchema, toDesignSpec } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 
@@ -79,6 +79,39 @@ export const SpecForm = memo(function SpecForm({
   const fields = { register, errors };
   const setSize = (size: number) =>
     setValue('size', Number(size.toFixed(4)), { shouldValidate: true, shouldDirty: true });
+  // The sizes where pieces touch and first cross are thresholds, not designs (their crossings have no length):
+  // the engine searches upwards from there for the smallest size that builds soundly (smallestSoundSize).
+  const [soundSize, setSoundSize] = useState<string | null>(null);
+  const findSoundSize = () => {
+    setSoundSize('searching');
+    // Let the button show it is busy before the search (a few hundred builds at most) holds the page.
+    setTimeout(() => {
+      const parsed = designFormSchema.safeParse(form.getValues());
+      const spec = parsed.success ? toDesignSpec(parsed.data, upload) : null;
+      if (!spec) {
+        setSoundSize('Correct the marked fields first.');
+        return;
+      }
+      try {
+        const found = smallestSoundSize(spec);
+        if (found.size === null) {
+          setSoundSize(
+            `No size up to three times ${found.crossingsFrom?.toFixed(3) ?? 'the crossing size'} builds soundly with this stock and machine: try a thinner stock, another rotation or another shape.`,
+          );
+          return;
+        }
+        setSize(found.size);
+        setSoundSize(
+          `${found.size.toFixed(4)} is the smallest size that builds without errors, collisions or slots breaking through a tip` +
+            (found.thinWebs
+              ? ', though some slots leave thin material beside them (see the warnings).'
+              : '.'),
+        );
+      } catch (error) {
+        setSoundSize(error instanceof Error ? error.message : String(error));
+      }
+    }, 0);
+  };
 
   return (
     <Stack spacing={2.5} component="fieldset" sx={{ border: 0, p: 0, m: 0 }}>
@@ -128,20 +161,20 @@ export const SpecForm = memo(function SpecForm({
           <NumberField label="Rotation (°)" name="rotationDeg" form={fields} size="small" />
           <NumberField label="Size" name="size" form={fields} size="small" helperText="× plane distance" />
         </Stack>
-        {suggestedSizes && (suggestedSizes.touch !== null || suggestedSizes.overlap !== null) ? (
-          <Stack direction="row" spacing={1} sx={{ alignItems: 'center' }} data-testid="suggested-sizes">
-            <Typography variant="body2" color="text.secondary">
-              Engine suggests:
-            </Typography>
-            {suggestedSizes.touch !== null ? (
-              <Button size="small" onClick={() => setSize(suggestedSizes.touch ?? 0)}>
-                {`touch ${suggestedSizes.touch.toFixed(3)}`}
+        {suggestedSizes?.overlap != null ? (
+          <Stack spacing={0.5} data-testid="suggested-sizes">
+            <Stack direction="row" spacing={1} sx={{ alignItems: 'center', flexWrap: 'wrap' }}>
+              <Typography variant="body2" color="text.secondary">
+                {`Pieces cross from size ${suggestedSizes.overlap.toFixed(3)}.`}
+              </Typography>
+              <Button size="small" onClick={findSoundSize} loading={soundSize === 'searching'}>
+                Smallest sound size
               </Button>
-            ) : null}
-            {suggestedSizes.overlap !== null ? (
-              <Button size="small" onClick={() => setSize(suggestedSizes.overlap ?? 0)}>
-                {`overlap ${suggestedSizes.overlap.toFixed(3)}`}
-              </Button>
+            </Stack>
+            {soundSize && soundSize !== 'searching' ? (
+              <Typography variant="body2" color="text.secondary" data-testid="sound-size">
+                {soundSize}
+              </Typography>
             ) : null}
           </Stack>
         ) : null}
