@@ -32,4 +32,21 @@ describe('audit summaries', () => {
       'Material “Felt” changed (changed colours)',
     );
   });
+
+  it('tells a cut pack queued and built apart from the job being requested', () => {
+    expect(
+      auditSummary({ action: 'export.request', entityType: 'job', before: null, after: { exportId: 'e-1' } }),
+    ).toBe('Job cut pack queued');
+    expect(
+      auditSummary({
+        action: 'export.done',
+        entityType: 'job',
+        before: null,
+        after: { exportId: 'e-1', files: [{ name: 'setup-sheet.pdf' }, { name: 'manifest.json' }] },
+      }),
+    ).toBe('Job cut pack built (2 files)');
+    expect(auditSummary({ action: 'job.request', entityType: 'job', before: null, after: null })).toBe(
+      'Job requested',
+    );
+  });
 });

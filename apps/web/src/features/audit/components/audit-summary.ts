@@ -34,6 +34,16 @@ const VERBS: Record<string, string> = {
   'local-rules': 'local rules changed',
 };
 
+/**
+ * Whole actions whose last word alone would mislead: a job's cut pack being queued is not the job being
+ * requested, and its files being stored is not the job being done.
+ */
+const ACTIONS: Record<string, string> = {
+  'export.request': 'cut pack queued',
+  'export.done': 'cut pack built',
+  'design.solid': 'solid uploaded',
+};
+
 /** Fields that change on every write and say nothing to a reader. */
 const QUIET = new Set(['version', 'lockVersion', 'updatedAt', 'createdAt', 'id']);
 
@@ -82,7 +92,7 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
   const before = fields(e.before);
   const after = fields(e.after);
   const step = e.action.slice(e.action.indexOf('.') + 1);
-  const verb = VERBS[step] ?? step.replace(/[-_]/g, ' ');
+  const verb = ACTIONS[e.action] ?? VERBS[step] ?? step.replace(/[-_]/g, ' ');
   const what = ENTITY_LABELS[e.entityType] ?? e.entityType;
   const subject = subjectOf(before, after);
   let line = subject ? `${what} “${subject}” ${verb}` : `${what} ${verb}`;
@@ -96,6 +106,10 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
   if (step === 'update' || step === 'adopt') {
     const changed = changedFields(before, after);
     if (changed.length) details.push(`changed ${changed.join(', ')}`);
+  }
+  if (e.action === 'export.done' && Array.isArray(after?.files)) {
+    const n = after.files.length;
+    details.push(`${n} file${n === 1 ? '' : 's'}`);
   }
   if (typeof after?.kerfMm === 'number' && e.entityType.startsWith('kerf'))
     details.push(`${after.kerfMm} mm`);
