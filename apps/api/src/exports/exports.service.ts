@@ -212,17 +212,6 @@ export class ExportsService {
     }
     const file = await this.dataSource.manager.findOne(ExportFile, { where: { exportId: id, name } });
     if (!file || (user.role === 'hobbyist' && !HOBBYIST_ROLES.includes(file.role))) throw missing();
-    // A setup sheet prints the safety notices and rules version of the day it was built: once they change, it
-    // (and the ZIP holding it) is out of date, and the pack is built again. The cutting files print no notices.
-    if (CUT_PACK_ROLES_PRINTING_SAFETY.includes(file.role) && (await this.safetyChanged(exp))) {
-      throw new AppError(
-        HttpStatus.CONFLICT,
-        'EXPORT.SAFETY_CHANGED',
-        'The safety notices or workshop rules changed since this cut pack was built, so its setup sheet prints ' +
-          'old ones: a fabricator or supervisor builds the cut pack again, then download the new one',
-        { exportId: exp.id, role: file.role },
-      );
-    }
     // Files go to the machines only for a job released to them (or cut and closed since), and never for a
     // material that may no longer be cut on the job's machine.
     const job = await this.dataSource.manager.findOneOrFail(Job, { where: { id: exp.jobId } });
@@ -235,6 +224,17 @@ export class ExportsService {
       );
     }
     await this.preparation.assertMaterialAllowed(this.dataSource.manager, job);
+    // A setup sheet prints the safety notices and rules version of the day it was built: once they change, it
+    // (and the ZIP holding it) is out of date, and the pack is built again. The cutting files print no notices.
+    if (CUT_PACK_ROLES_PRINTING_SAFETY.includes(file.role) && (await this.safetyChanged(exp))) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'EXPORT.SAFETY_CHANGED',
+        'The safety notices or workshop rules changed since this cut pack was built, so its setup sheet prints ' +
+          'old ones: a fabricator or supervisor builds the cut pack again, then download the new one',
+        { exportId: exp.id, role: file.role },
+      );
+    }
     let stored;
     try {
       stored = await this.storage.get(file.storageKey);
