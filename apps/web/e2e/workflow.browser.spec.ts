@@ -60,6 +60,26 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
       .first()
       .waitFor();
 
+    // The engine finds the smallest size that builds soundly (the size where pieces first cross builds with
+    // errors: its crossings have no length); the report then has no errors. The default size is put back.
+    await page
+      .getByTestId('suggested-sizes')
+      .getByText(/^Pieces cross from size 0\.707\./)
+      .waitFor();
+    await page.getByRole('button', { name: 'Smallest sound size' }).click();
+    await page
+      .getByTestId('sound-size')
+      .getByText(/is the smallest size that builds without errors/)
+      .waitFor();
+    const sound = Number(await page.getByLabel('Size').inputValue());
+    expect(sound).toBeGreaterThan(0.7071);
+    await page
+      .getByTestId('report-valid')
+      .or(page.getByText(/^Report \(0 errors/))
+      .first()
+      .waitFor();
+    await page.getByLabel('Size').fill('1.3');
+
     // A colour rule the count cannot meet: four faces meet at each vertex of the octahedron, so two colours
     // cannot keep them apart; the studio says how many it needs and sets them on request.
     await page.getByLabel('Rule').selectOption('vertex-distinct');
@@ -309,5 +329,17 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await page.getByTestId('job-detail').getByTestId('job-state').filter({ hasText: /^cut$/ }).waitFor();
     await page.getByText('18.5 min').waitFor();
     await shot('job-cut');
+  });
+
+  it("gives the hobbyist their cut job's assembly guide, and only that", async () => {
+    await signInToHome(page, demoUser('hobbyist').email, DEMO_PASSWORD);
+    await page.goto(jobPath);
+    const guide = page.getByTestId('assembly-guide');
+    const button = guide.getByRole('button', { name: /^Download .*\.pdf$/ });
+    await button.waitFor();
+    const [download] = await Promise.all([page.waitForEvent('download'), button.click()]);
+    const saved = await download.path();
+    expect(fs.readFileSync(saved).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    expect(await page.getByTestId('cut-pack').count()).toBe(0);
   });
 });
