@@ -124,23 +124,10 @@ export class SafetyService {
     jobId: string,
     m: EntityManager = this.dataSource.manager,
   ): Promise<{ notices: { id: string; version: number }[]; localRulesVersion: number | null }> {
-    const rows: { kind: MachineProfileKind | null; family: MaterialFamily | null }[] = await m.query(
-      `SELECT p.kind, mat.family
-         FROM jobs j
-         LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
-         LEFT JOIN machine_profiles p ON p.id = v.profile_id
-         LEFT JOIN materials mat ON mat.id = j.material_id
-        WHERE j.id = $1`,
-      [jobId],
-    );
-    const job = rows[0];
-    const all = await this.notices({}, m);
-    const notices =
-      job?.kind && job.family ? all.filter((n) => noticeApplies(n, job.kind!, job.family!)) : all;
-    const localRules = await this.localRules(m);
+    const current = await this.currentForJob(jobId, m);
     return {
-      notices: notices.map((n) => ({ id: n.id, version: n.version })),
-      localRulesVersion: localRules?.version ?? null,
+      notices: current.notices.map((n) => ({ id: n.id, version: n.version })),
+      localRulesVersion: current.localRules?.version ?? null,
     };
   }
 
@@ -150,28 +137,10 @@ export class SafetyService {
     jobId: string,
     m: EntityManager = this.dataSource.manager,
   ): Promise<JobSafetyView> {
-    const rows: {
-      requester_id: string;
-      state: string;
-      kind: MachineProfileKind | null;
-      family: MaterialFamily | null;
-    }[] = await m.query(
-      `SELECT j.requester_id, j.state, p.kind, mat.family
-         FROM jobs j
-         LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
-         LEFT JOIN machine_profiles p ON p.id = v.profile_id
-         LEFT JOIN materials mat ON mat.id = j.material_id
-        WHERE j.id = $1`,
-      [jobId],
-    );
-    const job = rows[0];
+    const { job, notices, localRules } = await this.currentForJob(jobId, m);
     if (!job || !canReadJob(user, { requesterId: job.requester_id, state: job.state as JobState })) {
       throw notFound('JOB', 'No such job');
     }
-    const all = await this.notices({}, m);
-    const notices =
-      job.kind && job.family ? all.filter((n) => noticeApplies(n, job.kind!, job.family!)) : all;
-    const localRules = await this.localRules(m);
     const acks: {
       notice_versions: { id: string; version: number }[];
       local_rules_version: number | null;
@@ -195,6 +164,29 @@ export class SafetyService {
       acknowledged,
       acknowledgedAt: acknowledged && last ? new Date(last.created_at).toISOString() : null,
     };
+  }
+
+  /** The job's owner, state, machine kind and material family, the notices that apply to them, and the rules. */
+  private async currentForJob(jobId: string, m: EntityManager) {
+    const rows: {
+      requester_id: string;
+      state: string;
+      kind: MachineProfileKind | null;
+      family: MaterialFamily | null;
+    }[] = await m.query(
+      `SELECT j.requester_id, j.state, p.kind, mat.family
+         FROM jobs j
+         LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
+         LEFT JOIN machine_profiles p ON p.id = v.profile_id
+         LEFT JOIN materials mat ON mat.id = j.material_id
+        WHERE j.id = $1`,
+      [jobId],
+    );
+    const job = rows[0];
+    const all = await this.notices({}, m);
+    const notices =
+      job?.kind && job.family ? all.filter((n) => noticeApplies(n, job.kind!, job.family!)) : all;
+    return { job, notices, localRules: await this.localRules(m) };
   }
 
   /**
