@@ -122,6 +122,24 @@ describe('bottom-left fill in free-space windows', () => {
   );
   const frame = { widthMm: 600, heightMm: 400, marginMm: 5 };
 
+  /** The position found in free-space windows is the one a search of the whole sheet finds. */
+  const expectWindowsAgree = (cache: GeometryCache, base: SheetState, p: PreparedPart) => {
+    const variants = p.rotationsDeg.map((d) => cache.variant(p.index, d));
+    const fresh = (): SheetState => ({
+      ...base,
+      items: [...base.items],
+      regions: undefined,
+      free: undefined,
+    });
+    const inWindows = fresh();
+    const windowed = findPosition(cache, frame, inWindows, variants);
+    expect(inWindows.free).toBeDefined();
+    const whole = findPosition(cache, frame, fresh(), variants, 'right', false);
+    expect(windowed && [windowed.variant.key, windowed.tx, windowed.ty]).toEqual(
+      whole && [whole.variant.key, whole.tx, whole.ty],
+    );
+  };
+
   it('finds the same position as a search of the whole sheet, for every part of a crowded sheet of different parts', () => {
     // The windows hold every feasible translation (the part lies in one free-space component), so the
     // bottom-left position must not change; only the work done to find it does.
@@ -131,22 +149,7 @@ describe('bottom-left fill in free-space windows', () => {
     const { sheets } = bottomLeftFill(cache, frame, 'a', copies, []);
     expect(sheets).toHaveLength(1);
     const base = sheets[0]!;
-    for (const p of parts.slice(50)) {
-      const variants = p.rotationsDeg.map((d) => cache.variant(p.index, d));
-      const fresh = (): SheetState => ({
-        ...base,
-        items: [...base.items],
-        regions: undefined,
-        free: undefined,
-      });
-      const inWindows = fresh();
-      const windowed = findPosition(cache, frame, inWindows, variants);
-      expect(inWindows.free).toBeDefined();
-      const whole = findPosition(cache, frame, fresh(), variants, 'right', false);
-      expect(windowed && [windowed.variant.key, windowed.tx, windowed.ty]).toEqual(
-        whole && [whole.variant.key, whole.tx, whole.ty],
-      );
-    }
+    for (const p of parts.slice(50)) expectWindowsAgree(cache, base, p);
   });
 
   it('finds the same position as a search of the whole sheet on a crowded sheet of a few parts in quantity', () => {
@@ -160,22 +163,7 @@ describe('bottom-left fill in free-space windows', () => {
     expect(sheets).toHaveLength(1);
     const base = sheets[0]!;
     expect(base.items.length).toBe(60);
-    for (const p of parts.slice(6, 26)) {
-      const variants = p.rotationsDeg.map((d) => cache.variant(p.index, d));
-      const fresh = (): SheetState => ({
-        ...base,
-        items: [...base.items],
-        regions: undefined,
-        free: undefined,
-      });
-      const inWindows = fresh();
-      const windowed = findPosition(cache, frame, inWindows, variants);
-      expect(inWindows.free).toBeDefined();
-      const whole = findPosition(cache, frame, fresh(), variants, 'right', false);
-      expect(windowed && [windowed.variant.key, windowed.tx, windowed.ty]).toEqual(
-        whole && [whole.variant.key, whole.tx, whole.ty],
-      );
-    }
+    for (const p of parts.slice(6, 26)) expectWindowsAgree(cache, base, p);
   });
 
   it('finds the same position as a search of the whole sheet for awkward outlines, by either fill rule', () => {
