@@ -21,7 +21,7 @@ import { type Crossing, computeCrossings, crossingPoint } from './crossings/cros
 import { type Slot, nominalSlotWidth, planSlots } from './slots/slots';
 import { compensateKerf, dogBoneCentre, notchOutline } from './compensation/compensate';
 import { slotInnerCorners } from './slots/slots';
-import { type ResolvedSpec, SpecValidationError, validateSpec } from './spec/validate-spec';
+import { MAX_SCALE_MM, type ResolvedSpec, SpecValidationError, validateSpec } from './spec/validate-spec';
 import { IssueList, fitsBed, slotGap, slotWeb } from './validity/validity';
 import { CLASH_TOLERANCE_MM, thicknessClashes } from './validity/thickness-clash';
 
@@ -276,6 +276,29 @@ export function modelFitRatio(model: BuiltModel, widthMm: number, heightMm: numb
  * 1 − 1e-7 < r ≤ 1 or after 12 builds, and returns the largest built model with r ≤ 1.
  */
 export function fitToRectangle(
+  spec: ResolvedSpec,
+  solid: Solid,
+  widthMm: number,
+  heightMm: number,
+): { model: BuiltModel; evaluations: number } {
+  const fit = fitToRectangleUncapped(spec, solid, widthMm, heightMm);
+  // A fit may not exceed the largest scale a spec may give (MAX_SCALE_MM across): the size found is saved and
+  // rebuilt as {by: "diameter", mm: diameterMm}, which would then be refused.
+  const dMax = Math.max(...solid.faces.map((f) => f.distance));
+  const capM = (MAX_SCALE_MM * (1 - 1e-12)) / (2 * dMax * Math.sqrt(1 + spec.piece.size ** 2));
+  if (fit.model.mmPerUnit <= capM) return fit;
+  const model = buildAtScale(spec, solid, capM);
+  model.report.warnings.push({
+    code: 'SCALE.CAPPED',
+    message:
+      `the pieces would fit a ${round(widthMm, 1)} × ${round(heightMm, 1)} mm rectangle at ` +
+      `${round(fit.model.report.diameterMm, 1)} mm across; the model is held at the ${MAX_SCALE_MM} mm limit`,
+    pieces: [],
+  });
+  return { model, evaluations: fit.evaluations + 1 };
+}
+
+function fitToRectangleUncapped(
   spec: ResolvedSpec,
   solid: Solid,
   widthMm: number,

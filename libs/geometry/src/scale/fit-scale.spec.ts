@@ -3,6 +3,7 @@ import { buildWithLayout } from '../layout/build-with-layout';
 import { type Vec2 } from '../math/vec';
 import { design } from '../test-support/designs';
 import { bestFitRatio } from './fit-ratio';
+import { MAX_SCALE_MM, validateSpec } from '../spec/validate-spec';
 
 const square = (s: number, turnDeg = 0): Vec2[] => {
   const a = (turnDeg * Math.PI) / 180;
@@ -86,6 +87,23 @@ describe('fitBed scale', () => {
     expect(r.planeDistanceMm).toBeCloseTo((h * Math.SQRT2) / 1.8, 3);
     const sheets = buildWithLayout(spec);
     expect(sheets.layout?.ok).toBe(true);
+  });
+
+  it('holds a fit on a huge bed at the largest scale a spec may give, so the size found can be rebuilt', () => {
+    // On a 10 m bed the cube's pieces would fit at a diameter far over MAX_SCALE_MM (10,000 mm).
+    const r = buildModel(
+      cube({ scale: { by: 'fitBed' }, bed: { widthMm: 10_000, heightMm: 10_000 } }),
+    ).report;
+    expect(r.diameterMm).toBeLessThanOrEqual(MAX_SCALE_MM);
+    expect(r.diameterMm).toBeGreaterThan(MAX_SCALE_MM - 1e-3);
+    expect(r.warnings.map((w) => w.code)).toContain('SCALE.CAPPED');
+    // The size found, given back as a diameter, is a valid spec that builds the same model.
+    const again = cube({
+      scale: { by: 'diameter', mm: r.diameterMm },
+      bed: { widthMm: 10_000, heightMm: 10_000 },
+    });
+    expect(validateSpec(again).ok).toBe(true);
+    expect(buildModel(again).report.planeDistanceMm).toBeCloseTo(r.planeDistanceMm, 6);
   });
 
   it('gives a model that fits, while 1 % larger does not', () => {
