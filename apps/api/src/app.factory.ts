@@ -31,7 +31,8 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
   app.set('etag', false);
   app.use(requestIdMiddleware);
   // gzip for text answers over 1 kB (the web app's scripts shrink about fourfold; JSON lists too). Archives,
-  // images and fonts are left alone: `compression` only touches types listed as compressible.
+  // images and fonts are left alone: `compression` only touches types listed as compressible. Server-sent
+  // events are left alone too (Nest marks them Cache-Control: no-transform), so each arrives as it is sent.
   app.use(compression());
   app.use(
     helmet({

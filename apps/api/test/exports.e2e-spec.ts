@@ -266,6 +266,7 @@ describe('cut-pack exports worked inside the API process', () => {
     const sse = await ctx.http
       .get(`/api/exports/${id}/events`)
       .set(auth(p.fabricator))
+      .set('Accept-Encoding', 'gzip')
       .buffer(true)
       .parse((r, done) => {
         let text = '';
@@ -275,6 +276,8 @@ describe('cut-pack exports worked inside the API process', () => {
       })
       .expect(200);
     expect(sse.headers['content-type']).toContain('text/event-stream');
+    // Never gzipped: each event must reach the client when it is sent, not when the stream ends.
+    expect(sse.headers['content-encoding']).toBeUndefined();
     const events = (sse.body as string)
       .split('\n\n')
       .filter((b) => b.includes('data:'))
