@@ -33,7 +33,9 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
   // gzip for text answers over 1 kB (the web app's scripts shrink about fourfold; JSON lists too). Archives,
   // images and fonts are left alone: `compression` only touches types listed as compressible. Server-sent
   // events are left alone too (Nest marks them Cache-Control: no-transform), so each arrives as it is sent.
-  app.use(compression());
+  // Downloads (attachments: the cut pack's files) go out byte for byte as stored, as their Repr-Digest and
+  // recorded checksum describe them.
+  app.use(compression({ filter: (req, res) => !isAttachment(res) && compression.filter(req, res) }));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -117,6 +119,11 @@ function serveWebApp(app: NestExpressApplication, webDist: string): void {
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(index);
   });
+}
+
+function isAttachment(res: Response): boolean {
+  const disposition = res.getHeader('Content-Disposition');
+  return typeof disposition === 'string' && disposition.startsWith('attachment');
 }
 
 function noCacheForHtml(res: Response, filePath: string): void {

@@ -57,6 +57,7 @@ async function download(ctx: TestContext, user: TestUser, exportId: string, name
   return ctx.http
     .get(`/api/exports/${exportId}/files/${name}`)
     .set(auth(user))
+    .set('Accept-Encoding', 'gzip')
     .buffer(true)
     .parse(binary)
     .expect(status);
@@ -152,6 +153,8 @@ describe('cut-pack exports worked inside the API process', () => {
       expect(body.length).toBe(f.bytes);
       expect(got.headers['content-type']).toContain(f.contentType.split(';')[0]!);
       expect(got.headers['content-disposition']).toBe(`attachment; filename="${f.name}"`);
+      // Sent as stored, never re-encoded (gzip): the Repr-Digest and the recorded checksum are of these bytes.
+      expect(got.headers['content-encoding']).toBeUndefined();
       // RFC 9530 Repr-Digest: the algorithm, then the digest in base64 between colons.
       expect(got.headers['repr-digest']).toBe(
         `sha-256=:${createHash('sha256').update(body).digest('base64')}:`,
