@@ -324,6 +324,8 @@ describe('materials library', () => {
       // A fabricator reclassifying PVC as acrylic and switching the laser on is refused, changing nothing.
       for (const [m, family, change] of [
         [pvc, 'pvc', { family: 'acrylic', laserAllowed: true }],
+        // Reclassifying alone (the laser switched on later, by anyone allowed to) is the same decision.
+        [pvc, 'pvc', { family: 'acrylic' }],
         [mdf, 'mdf', { laserAllowed: true }],
       ] as const) {
         const res = await ctx.http

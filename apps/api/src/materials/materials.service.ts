@@ -130,11 +130,14 @@ export class MaterialsService {
         // Lifting a laser restriction (a material kept off the laser, or of a family the hazard table refuses,
         // made laser-usable by a changed flag or a changed family) is a safety decision: a supervisor's.
         const wasLaserUsable = m.laserAllowed && laserRefusal(m.family, table) === null;
-        if (!wasLaserUsable && laser.laserAllowed && actor.role !== 'supervisor') {
+        // Moving a material out of a family the hazard table refuses is the same decision taken in two steps
+        // (reclassify now, switch the laser on later): a supervisor's too.
+        const leavesRefusedFamily = family !== m.family && laserRefusal(m.family, table) !== null;
+        if (((!wasLaserUsable && laser.laserAllowed) || leavesRefusedFamily) && actor.role !== 'supervisor') {
           throw new AppError(
             HttpStatus.FORBIDDEN,
             'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR',
-            `${m.name} is kept off the laser${m.hazardNote ? ` (${m.hazardNote})` : ''}: only a supervisor can allow it on the laser again, by its flag or by a different family`,
+            `${m.name} is kept off the laser${m.hazardNote ? ` (${m.hazardNote})` : ''}: only a supervisor can allow it on the laser again or move it out of a family the hazard table refuses`,
             { materialId: m.id, family: m.family, requestedFamily: family },
           );
         }

@@ -116,6 +116,24 @@ describe('a material kept off the laser', () => {
     updatedAt: '2026-01-01T00:00:00.000Z',
   };
 
+  it('keeps a fabricator from moving PVC out of its refused family; a supervisor may', async () => {
+    const pvc: MaterialView = { ...keptOff, id: 'm-pvc', name: 'Grey board', family: 'pvc' };
+    const onSubmit = vi.fn();
+    const locked = renderDialog(onSubmit, pvc, false);
+    expect(await screen.findByLabelText('Family')).toBeDisabled();
+    expect(
+      screen.getByText('Only a supervisor moves a material out of a refused family'),
+    ).toBeInTheDocument();
+    // Other changes are still saved, with the family as it was.
+    await locked.user.type(screen.getByLabelText('Notes'), 'Second batch');
+    await locked.user.click(screen.getByRole('button', { name: 'Save changes' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]![0]).toMatchObject({ family: 'pvc', notes: 'Second batch' });
+    locked.unmount();
+    renderDialog(vi.fn(), pvc, true);
+    expect(await screen.findByLabelText('Family')).toBeEnabled();
+  });
+
   it('stays off for a fabricator, who is told a supervisor decides; a supervisor may tick it', async () => {
     const locked = renderDialog(vi.fn(), keptOff, false);
     const box = await screen.findByRole('checkbox', { name: 'May be cut on a laser' });

@@ -74,6 +74,12 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
   const condition = hazards ? findMaterialHazard(family, hazards)?.condition : undefined;
   // A stored material kept off the laser stays off unless a supervisor decides otherwise.
   const laserLocked = material !== null && !material.laserAllowed && !props.canLiftLaserRestriction;
+  // Nor does it leave a family the hazard table refuses: reclassifying is the first step of the same decision.
+  const familyLocked =
+    material !== null &&
+    hazards !== undefined &&
+    laserRefusal(material.family, hazards) !== null &&
+    !props.canLiftLaserRestriction;
 
   useEffect(() => {
     if (props.open) reset(material ? materialToFormValues(material) : EMPTY_MATERIAL);
@@ -106,7 +112,15 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
       <Stack spacing={2} sx={{ mt: 1 }}>
         <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
           <FormTextField label="Name" registration={register('name')} error={errors.name} />
-          <NativeSelectField label="Family" name="family" form={fields}>
+          <NativeSelectField
+            label="Family"
+            name="family"
+            form={fields}
+            disabled={familyLocked}
+            helperText={
+              familyLocked ? 'Only a supervisor moves a material out of a refused family' : undefined
+            }
+          >
             {MATERIAL_FAMILIES.map((f) => (
               <option key={f} value={f}>
                 {FAMILY_LABELS[f]}
