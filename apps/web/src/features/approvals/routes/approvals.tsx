@@ -9,6 +9,7 @@ import { useState } from 'react';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/api-client';
+import { approveBlockedReason } from '../../jobs/lib/approve-blocked';
 import { KIND_LABELS } from '../../machine-profiles/components/profile-labels';
 import { useDecideJob } from '../api/decide-job';
 import { useDecideProfileVersion } from '../api/decide-profile-version';
@@ -185,15 +186,7 @@ export function ApprovalsRoute() {
               </CardContent>
               <DecisionActions
                 approveLabel="Approve the job"
-                approveBlocked={
-                  j.actions.includes('approve')
-                    ? null
-                    : j.preparedByCaller
-                      ? 'You prepared this job: another supervisor approves it (four-eyes rule).'
-                      : j.profileVersionRetired
-                        ? `${j.profileName ?? 'The machine profile'} version ${j.profileVersionNumber ?? '?'} is no longer the approved one: the job must be prepared again before it can be approved.`
-                        : 'You cannot approve this job.'
-                }
+                approveBlocked={approveBlockedReason(j, 'supervisor')}
                 approving={decideJob.isPending && decideJob.variables.jobId === j.id}
                 onApprove={() => approveJob(j)}
                 onSendBack={() => {

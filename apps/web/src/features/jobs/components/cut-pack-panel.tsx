@@ -33,8 +33,11 @@ export function CutPackPanel({
   canPrepare,
   canDownload,
   onOpenSafety,
+  jobDone = false,
 }: {
   jobId: string;
+  /** The job is cut or closed: no new cut pack is built for it. */
+  jobDone?: boolean;
   /** Fabricators (and supervisors) queue the pack; operators download it. */
   canPrepare: boolean;
   /** Operators and supervisors download, after acknowledging the notices. */
@@ -69,7 +72,11 @@ export function CutPackPanel({
       {downloadError ? <FormErrorAlert error={downloadError} /> : null}
       {live.error ? <FormErrorAlert error={live.error} /> : null}
       {!newest && exports.isSuccess ? (
-        <Typography color="text.secondary">No cut pack has been prepared for this job yet.</Typography>
+        <Typography color="text.secondary">
+          {canPrepare || !jobDone
+            ? 'No cut pack has been prepared for this job yet.'
+            : 'No cut pack was kept for this job.'}
+        </Typography>
       ) : null}
       {busy ? (
         <Stack spacing={1}>
@@ -80,50 +87,49 @@ export function CutPackPanel({
       {newest?.state === 'failed' ? (
         <Alert severity="error">{newest.errorMessage ?? 'The cut pack could not be prepared.'}</Alert>
       ) : null}
+      {newest?.state === 'done' && newest.safetyChanged ? (
+        // Said to everyone who sees the pack, acknowledged or not: the fabricator is the one who rebuilds it.
+        <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-safety-changed">
+          {`The safety notices or workshop rules changed since this cut pack was built: its setup sheet and ZIP print the old ones and cannot be downloaded. ${
+            canPrepare
+              ? 'Prepare the cut pack again.'
+              : 'A fabricator or supervisor prepares it again; the cutting files are unchanged.'
+          }`}
+        </Alert>
+      ) : null}
       {newest?.state === 'done' ? (
         safety.data?.acknowledged ? (
           // At phone width the row keeps to the name, size and button (the name wraps); the table scrolls
           // inside its own box rather than widening the page.
-          <>
-            {newest.safetyChanged ? (
-              <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-safety-changed">
-                {`The safety notices or workshop rules changed since this cut pack was built: its setup sheet and ZIP print the old ones and cannot be downloaded. ${
-                  canPrepare
-                    ? 'Prepare the cut pack again.'
-                    : 'A fabricator or supervisor prepares it again; the cutting files below are unchanged.'
-                }`}
-              </Alert>
-            ) : null}
-            <TableContainer sx={{ overflowX: 'auto' }}>
-              <Table size="small" aria-label="Cut pack files">
-                <TableBody>
-                  {newest.files.map((f) => (
-                    <TableRow key={f.name}>
-                      <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
-                      <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>{f.role}</TableCell>
-                      <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
-                      <TableCell align="right">
-                        <Button
-                          size="small"
-                          aria-label={`Download ${f.name}`}
-                          disabled={!!newest.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
-                          onClick={() => {
-                            setDownloadError(null);
-                            downloadFile(
-                              `/exports/${encodeURIComponent(newest.id)}/files/${encodeURIComponent(f.name)}`,
-                              f.name,
-                            ).catch(setDownloadError);
-                          }}
-                        >
-                          Download
-                        </Button>
-                      </TableCell>
-                    </TableRow>
-                  ))}
-                </TableBody>
-              </Table>
-            </TableContainer>
-          </>
+          <TableContainer sx={{ overflowX: 'auto' }}>
+            <Table size="small" aria-label="Cut pack files">
+              <TableBody>
+                {newest.files.map((f) => (
+                  <TableRow key={f.name}>
+                    <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
+                    <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>{f.role}</TableCell>
+                    <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
+                    <TableCell align="right">
+                      <Button
+                        size="small"
+                        aria-label={`Download ${f.name}`}
+                        disabled={!!newest.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
+                        onClick={() => {
+                          setDownloadError(null);
+                          downloadFile(
+                            `/exports/${encodeURIComponent(newest.id)}/files/${encodeURIComponent(f.name)}`,
+                            f.name,
+                          ).catch(setDownloadError);
+                        }}
+                      >
+                        Download
+                      </Button>
+                    </TableCell>
+                  </TableRow>
+                ))}
+              </TableBody>
+            </Table>
+          </TableContainer>
         ) : (
           <Alert
             severity="warning"

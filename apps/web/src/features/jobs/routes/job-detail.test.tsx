@@ -202,6 +202,54 @@ describe('job detail', () => {
     expect(stub.calls.some((c) => c.url.pathname.endsWith('/exports'))).toBe(false);
   });
 
+  it('tells the supervisor who prepared a job why they are not offered its approval', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, { ...job, state: 'prepared', actions: ['prepare', 'return'], preparedByCaller: true }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    expect(await within(actions).findByTestId('approve-blocked')).toHaveTextContent(
+      'You prepared this job: another supervisor approves it (four-eyes rule).',
+    );
+    expect(within(actions).queryByRole('button', { name: /approve/i })).toBeNull();
+  });
+
+  it('waits with the cut record until the operator has acknowledged the notices, as the server does', async () => {
+    for (const acknowledged of [false, true]) {
+      stubFetch({
+        'GET /api/auth/me': () => json(200, userFixture('operator')),
+        [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'released', actions: ['cut'] }),
+        [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+        [`GET /api/jobs/${job.id}/safety`]: () =>
+          json(200, {
+            jobId: job.id,
+            machineKind: 'co2-laser',
+            materialFamily: 'acrylic',
+            notices: [],
+            localRules: null,
+            acknowledged,
+            acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
+          }),
+      });
+      const { unmount } = renderApp(`/jobs/${job.id}`, { token: 't' });
+      const actions = await screen.findByTestId('job-actions');
+      const record = within(actions).getByRole('button', { name: 'Record the cut' });
+      if (acknowledged) {
+        await waitFor(() => expect(record).toBeEnabled());
+        expect(within(actions).queryByTestId('cut-waits')).toBeNull();
+      } else {
+        expect(await within(actions).findByTestId('cut-waits')).toHaveTextContent(
+          'Acknowledge the safety notices',
+        );
+        expect(record).toBeDisabled();
+      }
+      unmount();
+    }
+  });
+
   it("reads the job again after a conflict and shows the server's message beside the job as it is now", async () => {
     let current: JobDetailView = { ...job, state: 'prepared', actions: ['approve', 'prepare', 'return'] };
     const stub = stubFetch({

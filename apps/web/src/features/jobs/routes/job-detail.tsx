@@ -27,6 +27,8 @@ import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { formatLength, type LengthUnit, MM_PER_INCH } from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
+import { useJobSafety } from '../api/get-job-safety';
+import { approveBlockedReason } from '../lib/approve-blocked';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
 import { AssemblyGuidePanel, GUIDE_STATES } from '../components/assembly-guide-panel';
 import { CutPackPanel } from '../components/cut-pack-panel';
@@ -105,6 +107,11 @@ function JobDetail({ job }: { job: JobDetailView }) {
     setOpen(a);
   };
   const canAcknowledge = job.state === 'released' && (user.role === 'operator' || user.role === 'supervisor');
+  // The cut is recorded only by someone who acknowledged the job's current notices (the server refuses it
+  // otherwise): until then the button waits, and says why.
+  const safety = useJobSafety(job.id, canAcknowledge);
+  const cutWaits = job.actions.includes('cut') && safety.data?.acknowledged !== true;
+  const approveBlocked = approveBlockedReason(job, user.role);
   // Staff see the cut pack once the job is approved; downloads still need the safety acknowledgement.
   const canSeePack =
     user.role !== 'hobbyist' && ['approved', 'released', 'cut', 'closed'].includes(job.state);
@@ -158,6 +165,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
             key={a}
             variant={a === 'return' ? 'outlined' : 'contained'}
             color={a === 'return' ? 'error' : 'primary'}
+            disabled={a === 'cut' && cutWaits}
             onClick={() => start(a)}
           >
             {transitionFor(a).label}
@@ -167,6 +175,26 @@ function JobDetail({ job }: { job: JobDetailView }) {
           <Button variant="outlined" color="warning" onClick={() => setOpen('safety')}>
             Safety notices
           </Button>
+        ) : null}
+        {approveBlocked ? (
+          <Typography
+            variant="body2"
+            color="text.secondary"
+            sx={{ alignSelf: 'center' }}
+            data-testid="approve-blocked"
+          >
+            {approveBlocked}
+          </Typography>
+        ) : null}
+        {cutWaits ? (
+          <Typography
+            variant="body2"
+            color="text.secondary"
+            sx={{ alignSelf: 'center' }}
+            data-testid="cut-waits"
+          >
+            Acknowledge the safety notices before recording the cut.
+          </Typography>
         ) : null}
         {job.actions.length === 0 && !canAcknowledge ? (
           <Typography color="text.secondary">Nothing for you to do on this job now.</Typography>
@@ -248,8 +276,12 @@ function JobDetail({ job }: { job: JobDetailView }) {
       {canSeePack ? (
         <CutPackPanel
           jobId={job.id}
-          canPrepare={user.role === 'fabricator' || user.role === 'supervisor'}
+          canPrepare={
+            (user.role === 'fabricator' || user.role === 'supervisor') &&
+            (job.state === 'approved' || job.state === 'released')
+          }
           canDownload={user.role === 'operator' || user.role === 'supervisor'}
+          jobDone={job.state === 'cut' || job.state === 'closed'}
           onOpenSafety={() => setOpen('safety')}
         />
       ) : null}
