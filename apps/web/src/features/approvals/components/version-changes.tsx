@@ -2,6 +2,7 @@ import { type MachineProfileVersionView } from '@kerfwright/contracts';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
+import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
@@ -20,36 +21,39 @@ export function VersionChanges({
     return <Typography color="text.secondary">No value differs from the approved version.</Typography>;
   }
   return (
-    <Table
-      size="small"
-      aria-label={`Changes in version ${waiting.number}`}
-      data-testid="version-changes"
-      sx={{ '& td, & th': { py: 0.5 } }}
-    >
-      <TableHead>
-        <TableRow>
-          <TableCell>Material or machine</TableCell>
-          <TableCell>Value</TableCell>
-          <TableCell>{approved ? `Approved (version ${approved.number})` : 'Approved'}</TableCell>
-          <TableCell aria-hidden="true" />
-          <TableCell>{`Version ${waiting.number}`}</TableCell>
-        </TableRow>
-      </TableHead>
-      <TableBody>
-        {changes.map((c) => (
-          <TableRow key={c.key} data-testid="version-change">
-            <TableCell>{c.section}</TableCell>
-            <TableCell>{c.label}</TableCell>
-            <TableCell
-              sx={{ color: 'text.secondary', textDecoration: c.before ? 'line-through' : undefined }}
-            >
-              {c.before ?? 'not set'}
-            </TableCell>
-            <TableCell aria-hidden="true">→</TableCell>
-            <TableCell sx={{ fontWeight: 600 }}>{c.after ?? 'removed'}</TableCell>
+    // On a phone the table scrolls inside its own box: every column stays readable.
+    <TableContainer sx={{ overflowX: 'auto' }}>
+      <Table
+        size="small"
+        aria-label={`Changes in version ${waiting.number}`}
+        data-testid="version-changes"
+        sx={{ '& td, & th': { py: 0.5 } }}
+      >
+        <TableHead>
+          <TableRow>
+            <TableCell>Material or machine</TableCell>
+            <TableCell>Value</TableCell>
+            <TableCell>{approved ? `Approved (version ${approved.number})` : 'Approved'}</TableCell>
+            <TableCell aria-hidden="true" />
+            <TableCell>{`Version ${waiting.number}`}</TableCell>
           </TableRow>
-        ))}
-      </TableBody>
-    </Table>
+        </TableHead>
+        <TableBody>
+          {changes.map((c) => (
+            <TableRow key={c.key} data-testid="version-change">
+              <TableCell>{c.section}</TableCell>
+              <TableCell>{c.label}</TableCell>
+              <TableCell
+                sx={{ color: 'text.secondary', textDecoration: c.before ? 'line-through' : undefined }}
+              >
+                {c.before ?? 'not set'}
+              </TableCell>
+              <TableCell aria-hidden="true">→</TableCell>
+              <TableCell sx={{ fontWeight: 600 }}>{c.after ?? 'removed'}</TableCell>
+            </TableRow>
+          ))}
+        </TableBody>
+      </Table>
+    </TableContainer>
   );
 }

@@ -86,6 +86,10 @@ describe('design studio spec form', () => {
     expect(buildModel(spec).report.errors).toEqual([]);
     await user.click(screen.getByRole('button', { name: 'Check' }));
     await waitFor(() => expect(submitted?.size).toBe(size));
+    // Another change makes the answer stale: it is withdrawn.
+    await user.clear(screen.getByLabelText('Thickness (mm)'));
+    await user.type(screen.getByLabelText('Thickness (mm)'), '6');
+    await waitFor(() => expect(screen.queryByTestId('sound-size')).not.toBeInTheDocument());
   });
 
   it('turns valid form values into a spec that the geometry library accepts', () => {

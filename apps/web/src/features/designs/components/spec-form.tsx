@@ -5,7 +5,7 @@ import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
-import { memo, type ReactNode, useState } from 'react';
+import { memo, type ReactNode, useEffect, useRef, useState } from 'react';
 import {
   Controller,
   type RegisterOptions,
@@ -82,6 +82,16 @@ export const SpecForm = memo(function SpecForm({
   // The sizes where pieces touch and first cross are thresholds, not designs (their crossings have no length):
   // the engine searches upwards from there for the smallest size that builds soundly (smallestSoundSize).
   const [soundSize, setSoundSize] = useState<string | null>(null);
+  // The answer holds for the spec it was found for: any other change (stock, shape, solid…) withdraws it.
+  const foundSize = useRef<number | null>(null);
+  useEffect(() => {
+    const subscription = form.watch((values, { name }) => {
+      if (name === 'size' && values.size === foundSize.current) return;
+      foundSize.current = null;
+      setSoundSize((shown) => (shown === 'searching' ? shown : null));
+    });
+    return () => subscription.unsubscribe();
+  }, [form]);
   const findSoundSize = () => {
     setSoundSize('searching');
     // Let the button show it is busy before the search (a few hundred builds at most) holds the page.
@@ -100,6 +110,7 @@ export const SpecForm = memo(function SpecForm({
           );
           return;
         }
+        foundSize.current = Number(found.size.toFixed(4));
         setSize(found.size);
         setSoundSize(
           `${found.size.toFixed(4)} is the smallest size that builds without errors, collisions or slots breaking through a tip` +

@@ -125,7 +125,7 @@ function DeskCards({
   return (
     <Stack
       spacing={1}
-      sx={{ mb: 2 }}
+      sx={{ mb: 2, pl: 0, mt: 0 }}
       component="ul"
       aria-label="Jobs at the release desk"
       data-testid="desk-cards"

@@ -36,6 +36,7 @@ export function LocalRulesForm({ rules, onDone }: { rules: LocalRulesView | null
           label="Local rules"
           registration={register('body')}
           error={errors.body}
+          helperText="Markdown: start each rule with “- ” or “1. ” on its own line; a blank line starts a new paragraph"
           multiline
           minRows={8}
         />
