@@ -32,7 +32,7 @@ export function DuplicateDialog({
       <DialogTitle id="duplicate-title">Duplicate with unsaved changes?</DialogTitle>
       <DialogContent>
         <DialogContentText>
-          {`A copy is made of the design as last saved (version ${savedVersion}): the changes you have not saved are not in it.`}
+          {`A copy is made of the design as last saved (version ${savedVersion}): the changes you have not saved are not in it, and are left behind when the copy opens.`}
           {canSave
             ? ' Save them first to copy the design as you see it.'
             : ' Only its owner or a supervisor can save them.'}

@@ -20,6 +20,8 @@ interface StudioHeaderProps {
   onRequest: () => void;
   /** Why a cut job cannot be requested now (unsaved changes, errors), in words, or null when it can. */
   requestBlocked: string | null;
+  /** The owner or a supervisor saves the design; others may try changes and duplicate it (the API agrees). */
+  canSave: boolean;
 }
 
 /** The studio's title, unit switch and actions. Memoised: typing in the form leaves it alone. */
@@ -33,6 +35,7 @@ export const StudioHeader = memo(function StudioHeader({
   duplicating,
   onRequest,
   requestBlocked,
+  canSave,
 }: StudioHeaderProps) {
   return (
     <Stack direction={{ xs: 'column', md: 'row' }} spacing={2} sx={{ mb: 2, alignItems: { md: 'center' } }}>
@@ -52,9 +55,18 @@ export const StudioHeader = memo(function StudioHeader({
         <ToggleButton value="mm">mm</ToggleButton>
         <ToggleButton value="in">inch</ToggleButton>
       </ToggleButtonGroup>
-      <Button variant="contained" onClick={onSave} disabled={saving}>
-        {design ? 'Save' : 'Save design'}
-      </Button>
+      <Tooltip
+        title={
+          canSave ? '' : 'Only its owner or a supervisor saves this design: duplicate it to keep your changes'
+        }
+        describeChild
+      >
+        <Box component="span" sx={{ display: 'inline-flex' }} data-testid="save-wrapper">
+          <Button variant="contained" onClick={onSave} disabled={saving || !canSave} sx={{ flex: 1 }}>
+            {design ? 'Save' : 'Save design'}
+          </Button>
+        </Box>
+      </Tooltip>
       {design ? (
         <>
           <Button variant="outlined" onClick={onDuplicate} disabled={duplicating}>

@@ -45,13 +45,13 @@ function designFixture(overrides: Partial<DesignView> = {}): DesignView {
 
 const COPY_ID = '9a7c1f00-0000-4000-8000-000000000002';
 
-function studioApi(design: DesignView = designFixture()) {
+function studioApi(design: DesignView = designFixture(), me = userFixture('hobbyist')) {
   let current = design;
   return stubFetch({
     // The server copies the design as it is stored (designs.service duplicate), not what a page shows.
     [`POST /api/designs/${DESIGN_ID}/duplicate`]: () =>
       json(201, { ...current, id: COPY_ID, name: `${current.name} (copy)`, version: 1 }),
-    'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+    'GET /api/auth/me': () => json(200, me),
     'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
     'GET /api/materials': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
     'GET /api/designs': () => json(200, { items: [], total: 0, page: 1, pageSize: 25 }),
@@ -281,6 +281,21 @@ describe('design studio', () => {
     expect(screen.getByLabelText('Name')).toHaveValue('Octahedron hexagons, wider slots (copy)');
   });
 
+  it("offers Save only to the design's owner or a supervisor, as the server allows", async () => {
+    for (const [role, allowed] of [
+      ['hobbyist', true],
+      ['supervisor', true],
+      ['fabricator', false],
+    ] as const) {
+      studioApi(designFixture(), userFixture(role));
+      const { unmount } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+      const save = await screen.findByRole('button', { name: 'Save' });
+      if (allowed) expect(save).toBeEnabled();
+      else expect(save).toBeDisabled();
+      unmount();
+    }
+  });
+
   it('copies the saved version without the changes when chosen, and says so on the copy', async () => {
     const { calls } = studioApi();
     const { user, router } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
@@ -289,10 +304,9 @@ describe('design studio', () => {
     await user.click(screen.getByRole('button', { name: 'Duplicate' }));
     const dialog = await screen.findByRole('dialog', { name: 'Duplicate with unsaved changes?' });
     await user.click(within(dialog).getByRole('button', { name: 'Copy version 4 without the changes' }));
-    // The changes are still unsaved here: leaving for the copy asks, as leaving always does.
-    const leave = await screen.findByRole('dialog', { name: 'Leave without saving?' });
-    await user.click(within(leave).getByRole('button', { name: 'Leave without saving' }));
+    // Chosen knowing the changes stay behind: the copy opens without a second question.
     await waitFor(() => expect(router.state.location.pathname).toBe(`/designs/${COPY_ID}`));
+    expect(screen.queryByRole('dialog', { name: 'Leave without saving?' })).not.toBeInTheDocument();
     expect(calls.some((c) => c.method === 'PATCH')).toBe(false);
     expect(
       await screen.findByText('This is a copy of “Octahedron hexagons” as saved in version 4.'),

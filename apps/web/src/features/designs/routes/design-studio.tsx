@@ -209,7 +209,11 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   };
   const onDuplicateSaved = async () => {
     setDuplicateAsked(false);
-    if (design) await copySaved(design);
+    if (!design) return;
+    // Chosen knowing the changes stay behind (the dialog says so): the copy opens without asking again.
+    leaving.current = true;
+    await copySaved(design);
+    leaving.current = false;
   };
 
   const onRequest = async (v: RequestJobValues) => {
@@ -242,6 +246,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         duplicating={duplicate.isPending}
         onRequest={onRequestClick}
         requestBlocked={requestBlockedReason({ dirty, formError, fitting, report, failure: preview.failure })}
+        canSave={canSave}
       />
       {saveDesign.error ? <FormErrorAlert error={saveDesign.error} /> : null}
       {duplicate.error ? <FormErrorAlert error={duplicate.error} /> : null}
