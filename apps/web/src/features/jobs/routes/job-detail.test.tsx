@@ -275,8 +275,12 @@ describe('job detail', () => {
 
     expect(await screen.findByTestId('return-reason')).toHaveTextContent('Returned: Wrong stock');
     expect(screen.getByTestId('job-state')).toHaveTextContent('returned');
-    expect(screen.getByTestId('form-error')).toHaveTextContent('A returned job cannot be given "approve"');
-    expect(screen.getByTestId('job-read-again')).toBeInTheDocument();
+    expect(screen.getByTestId('job-read-again')).toHaveTextContent(
+      'Someone else acted on this job while you had it open, so nothing was done',
+    );
+    expect(screen.getByTestId('job-read-again')).toHaveTextContent(
+      'A returned job cannot be given "approve"',
+    );
     // The confirmation for an action the job no longer offers is gone.
     await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
     expect(
@@ -284,7 +288,7 @@ describe('job detail', () => {
     ).toHaveLength(2);
   });
 
-  it('after a stale version, sends the next try with the version read again', async () => {
+  it('after a stale version, closes the dialog and sends the next try with the version read again', async () => {
     let current: JobDetailView = { ...job, state: 'prepared', actions: ['approve', 'prepare', 'return'] };
     let answered = false;
     const stub = stubFetch({
@@ -309,11 +313,12 @@ describe('job detail', () => {
     await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
     const dialog = await screen.findByRole('dialog');
     await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
-    expect(await within(dialog).findByTestId('form-error')).toHaveTextContent(
-      'The job changed since you read it',
-    );
+    // The dialog closes: the supervisor sees the job as it is now before approving it again.
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
     expect(await screen.findByText('Two colours after all')).toBeInTheDocument();
-    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    expect(screen.getByTestId('job-read-again')).not.toHaveTextContent('reload');
+    await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
+    await user.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Confirm' }));
     await waitFor(() => expect(stub.calls.filter((c) => c.method === 'POST')).toHaveLength(2));
     expect(stub.calls.filter((c) => c.method === 'POST').map((c) => c.body)).toEqual([
       { version: 4 },

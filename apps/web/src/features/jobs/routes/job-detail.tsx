@@ -100,7 +100,14 @@ function JobDetail({ job }: { job: JobDetailView }) {
   const take = (a: JobAction, extra: Record<string, unknown> = {}) =>
     action.mutate(
       { id: job.id, action: a, body: { version: job.version, ...extra } },
-      { onSuccess: () => setOpen(null) },
+      {
+        onSuccess: () => setOpen(null),
+        // Someone acted on the job meanwhile: the dialog closes, so that nobody confirms a job they have not
+        // seen as it is now (a new preparation, another state); the page shows it and says so.
+        onError: (error) => {
+          if (isJobChangedSince(error)) setOpen(null);
+        },
+      },
     );
   const start = (a: JobAction) => {
     action.reset();
@@ -146,10 +153,16 @@ function JobDetail({ job }: { job: JobDetailView }) {
           {`Returned: ${job.returnReason}`}
         </Alert>
       ) : null}
-      {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
+      {action.error && open === null && !isJobChangedSince(action.error) ? (
+        <FormErrorAlert error={action.error} />
+      ) : null}
       {action.error && isJobChangedSince(action.error) ? (
         <Alert severity="info" sx={{ mb: 2 }} data-testid="job-read-again">
-          This page has read the job again and shows it as it is now.
+          {`Someone else acted on this job while you had it open, so nothing was done. The page now shows it as it is${
+            isApiError(action.error) && action.error.code === 'JOB.ILLEGAL_TRANSITION'
+              ? ` (${action.error.message})`
+              : ''
+          }: check it before you act again.`}
         </Alert>
       ) : null}
 
