@@ -61,8 +61,17 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   const fitting = fit !== null;
   // A fixed size is laid out as the preview built it; a fit is the search for the spec as given.
   const layoutSpec = fitting ? spec : preview.spec;
+  // Sheets are laid out per colour: a colour rule the count cannot meet leaves nothing to lay out, and the
+  // layout's own failure would only repeat it in the words of the engine.
+  const colourProblem =
+    preview.colourMessage === null
+      ? null
+      : preview.colourFewest !== null
+        ? `the colour rule needs at least ${countOf(preview.colourFewest, 'colour')}, not ${colourCount}: change the colours (see the preview) to lay the pieces out`
+        : `${preview.colourMessage}: change the colours or the rule to lay the pieces out`;
   const on =
     blocked === null &&
+    colourProblem === null &&
     layoutSpec !== null &&
     (fitting || (asked && preview.model !== null && !preview.failure));
   // The preview's key names the spec, colours and rule the preview was built from. A fit's layout is the
@@ -121,11 +130,13 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
         <Typography color="text.secondary" data-testid="sheets-idle">
           {blocked !== null
             ? `Correct the marked fields to lay the pieces out: ${blocked}.`
-            : asked && preview.failure
-              ? 'The pieces can be laid out once the model builds.'
-              : sheet
-                ? `Lay the pieces out on ${fmt(sheet.widthMm)} × ${fmt(sheet.heightMm)} sheets to see how many this size needs.`
-                : 'Give a stock sheet size to lay the pieces out.'}
+            : colourProblem !== null
+              ? `No sheets yet: ${colourProblem}.`
+              : asked && preview.failure
+                ? 'The pieces can be laid out once the model builds.'
+                : sheet
+                  ? `Lay the pieces out on ${fmt(sheet.widthMm)} × ${fmt(sheet.heightMm)} sheets to see how many this size needs.`
+                  : 'Give a stock sheet size to lay the pieces out.'}
         </Typography>
       ) : null}
       {on && result.pending ? (

@@ -202,6 +202,19 @@ describe('design studio', () => {
     expect(idle).not.toHaveTextContent('Give a stock sheet size');
   });
 
+  it('says the colour rule is why nothing is laid out, not a failed layout', async () => {
+    studioApi();
+    renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    // Four faces meet at each vertex of the octahedron: vertex-distinct needs 4 colours (derived).
+    await field('Colours', '2');
+    await field('Rule', 'vertex-distinct');
+    expect(await screen.findByTestId('sheets-idle')).toHaveTextContent(
+      'No sheets yet: the colour rule needs at least 4 colours, not 2',
+    );
+    expect(screen.queryByRole('button', { name: 'Hide the sheets' })).not.toBeInTheDocument();
+  });
+
   it('names the marked field when it says why nothing is laid out', async () => {
     studioApi();
     renderApp('/designs/new', { token: 't' });
