@@ -232,7 +232,7 @@ describe('prepare job dialog', () => {
 
     // Only profiles with an approved version are offered.
     const profile = screen.getByLabelText('Machine profile (approved version)');
-    await screen.findByRole('option', { name: 'CO2 laser · co2-laser · v3' });
+    await screen.findByRole('option', { name: 'CO2 laser · CO2 laser · v3' });
     expect(screen.queryByRole('option', { name: /Router without approval/ })).not.toBeInTheDocument();
 
     await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
@@ -329,7 +329,7 @@ describe('prepare job dialog', () => {
       within(profile)
         .getAllByRole('option')
         .map((o) => o.textContent),
-    ).toEqual(['Choose…', 'Bay router · cnc-router · v1']);
+    ).toEqual(['Choose…', 'Bay router · CNC router · v1']);
 
     // Back to a material the laser cuts: the laser is chosen again, and there is nothing to explain.
     await user.selectOptions(materialSelect, 'm-acrylic');

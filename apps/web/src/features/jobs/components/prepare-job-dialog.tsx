@@ -17,6 +17,7 @@ import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
 import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
+import { kindLabel } from '../../../config/trade-labels';
 
 export interface PrepareJobBody {
   materialId: string;
@@ -161,7 +162,7 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
           <option value="">Choose…</option>
           {approved.map((p) => (
             <option key={p.id} value={p.currentApproved?.id}>
-              {`${p.name} · ${p.kind} · v${p.currentApproved?.number}`}
+              {`${p.name} · ${kindLabel(p.kind)} · v${p.currentApproved?.number}`}
             </option>
           ))}
         </FormTextField>

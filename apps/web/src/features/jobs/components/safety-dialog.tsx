@@ -17,6 +17,7 @@ import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { MarkdownText } from '../../../components/ui/markdown-text';
 import { useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
 import { useJobSafety } from '../api/get-job-safety';
+import { familyLabel, kindLabel } from '../../../config/trade-labels';
 
 const SEVERITY = { danger: 'error', warning: 'warning', caution: 'info' } as const;
 
@@ -58,7 +59,7 @@ export function SafetyDialog({
         {view ? (
           <Stack spacing={2} data-testid="safety-notices">
             <Typography variant="body2" color="text.secondary">
-              {`For ${view.materialFamily ?? 'this material'} on a ${view.machineKind ?? 'machine'}. These notices do not replace local codes, the machine maker's manual or the workshop's own rules.`}
+              {`For ${view.materialFamily ? familyLabel(view.materialFamily).toLowerCase() : 'this material'} on a ${view.machineKind ? kindLabel(view.machineKind) : 'machine'}. These notices do not replace local codes, the machine maker's manual or the workshop's own rules.`}
             </Typography>
             {view.notices.map((n) => (
               <Alert key={`${n.id}@${n.version}`} severity={SEVERITY[n.severity]} variant="outlined">

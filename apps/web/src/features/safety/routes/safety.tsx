@@ -15,6 +15,7 @@ import { useLocalRules } from '../api/get-local-rules';
 import { useNotices } from '../api/get-notices';
 import { HazardTable } from '../components/hazard-table';
 import { LocalRulesForm } from '../components/local-rules-form';
+import { familyLabel, kindLabel } from '../../../config/trade-labels';
 
 const SEVERITY = { danger: 'error', warning: 'warning', caution: 'info' } as const;
 
@@ -99,7 +100,7 @@ export function SafetyRoute() {
               {n.title}
             </Typography>
             <Typography variant="caption" color="text.secondary" component="div" sx={{ mb: 1 }}>
-              {`Applies to ${n.appliesTo.machineKinds.join(', ')} · ${n.appliesTo.materialFamilies.join(', ')} · version ${n.version}`}
+              {`Applies to ${n.appliesTo.machineKinds.map(kindLabel).join(', ')} · ${n.appliesTo.materialFamilies.map(familyLabel).join(', ')} · version ${n.version}`}
             </Typography>
             <MarkdownText title={n.title} topLevel={4}>
               {n.body}
