@@ -107,11 +107,13 @@ describe('stock colours on the sheets', () => {
 
   it('reads a name by its last word, and falls back to our palette for names CSS has no colour for', () => {
     expect(stockColour('Teal', 3)).toBe('teal');
-    expect(stockColour('cobalt blue', 0)).toBe('blue');
+    expect(stockColour('cobalt blue', 0)).toBe('#0047ab');
+    expect(stockColour('Charcoal', 0)).toBe('#36454f');
+    expect(stockColour('moss green', 0)).toBe('#8a9a5b');
     expect(stockColour('opal-white', 0)).toBe('white');
     // "clear" acrylic and "natural" plywood have no CSS colour: the palette by colour index, distinct per sheet.
     expect(stockColour('clear', 0)).toBe(PIECE_COLOURS[0]);
-    expect(stockColour('natural', 1)).toBe(PIECE_COLOURS[1]);
+    expect(stockColour('opal', 1)).toBe(PIECE_COLOURS[1]);
     expect(stockColour(null, 2)).toBe(PIECE_COLOURS[2]);
   });
 });
