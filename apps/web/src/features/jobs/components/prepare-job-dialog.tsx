@@ -201,7 +201,7 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
             <NativeSelectField label="Sheet" name="sheetIndex" form={fields}>
               {material.stockSheets.map((s, i) => (
                 <option key={i} value={String(i)}>
-                  {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet} ${s.currency}`}
+                  {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
                 </option>
               ))}
             </NativeSelectField>
