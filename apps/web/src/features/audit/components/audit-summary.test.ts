@@ -31,6 +31,17 @@ describe('audit summaries', () => {
     expect(auditSummary({ action: 'material.update', entityType: 'material', before, after })).toBe(
       'Material “Felt” changed (changed colours)',
     );
+    // Short values are shown before and after, and field names read as words.
+    expect(
+      auditSummary({
+        action: 'material.update',
+        entityType: 'material',
+        before: { name: 'Grey board', family: 'pvc', laserAllowed: false, nominalThicknessMm: 3 },
+        after: { name: 'Grey board', family: 'acrylic', laserAllowed: true, nominalThicknessMm: 3.2 },
+      }),
+    ).toBe(
+      'Material “Grey board” changed (changed family: “pvc” → “acrylic”, laser allowed: no → yes, nominal thickness (mm): 3 → 3.2)',
+    );
   });
 
   it('tells a cut pack queued and built apart from the job being requested', () => {

@@ -77,6 +77,33 @@ function subjectOf(before: Fields | null, after: Fields | null): string | null {
   return null;
 }
 
+/** A field's name as people read it: "laserAllowed" → "laser allowed", "nominalThicknessMm" → "nominal thickness (mm)". */
+export function fieldLabel(key: string): string {
+  const unit = /Mm$/.test(key) ? ' (mm)' : '';
+  const words = key
+    .replace(/Mm$/, '')
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/[_-]+/g, ' ')
+    .toLowerCase();
+  return `${words}${unit}`;
+}
+
+/** A short value as people read it (yes/no, numbers, short text), or null when it is too long to show. */
+function shortValue(value: unknown): string | null {
+  if (typeof value === 'boolean') return value ? 'yes' : 'no';
+  if (typeof value === 'number') return String(value);
+  if (value === null || value === undefined || value === '') return '—';
+  if (typeof value === 'string' && value.length <= 40) return `“${value}”`;
+  return null;
+}
+
+/** One changed field: its name, with the old and new values when both are short ("laser allowed: no → yes"). */
+function changeOf(key: string, before: Fields | null, after: Fields | null): string {
+  const from = shortValue(before?.[key]);
+  const to = shortValue(after?.[key]);
+  return from !== null && to !== null ? `${fieldLabel(key)}: ${from} → ${to}` : fieldLabel(key);
+}
+
 /** The top-level fields whose value differs between the two snapshots. */
 export function changedFields(before: Fields | null, after: Fields | null): string[] {
   if (!before || !after) return [];
@@ -105,7 +132,7 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
   if (reason && (step === 'return' || stateAfter === 'returned')) details.push(`reason: ${short(reason)}`);
   if (step === 'update' || step === 'adopt') {
     const changed = changedFields(before, after);
-    if (changed.length) details.push(`changed ${changed.join(', ')}`);
+    if (changed.length) details.push(`changed ${changed.map((k) => changeOf(k, before, after)).join(', ')}`);
   }
   if (e.action === 'export.done' && Array.isArray(after?.files)) {
     const n = after.files.length;
