@@ -11,6 +11,12 @@ export function PackProgress({ jobId, newest }: { jobId: string; newest: ExportV
   const view = live.view ?? newest;
   if (view === undefined) return <Typography variant="body2">…</Typography>;
   if (view === null) return <Typography variant="body2">No cut pack yet</Typography>;
+  if (view.state === 'done' && view.safetyChanged)
+    return (
+      <Typography variant="body2" color="warning.main">
+        {`Ready, ${view.files.length} files; setup sheet out of date (safety notices changed)`}
+      </Typography>
+    );
   if (view.state === 'done')
     return <Typography variant="body2">{`Ready, ${view.files.length} files`}</Typography>;
   if (view.state === 'failed') {

@@ -199,6 +199,9 @@ describe('release desk', () => {
     expect(await within(job).findByTestId('cut-pack-safety-changed')).toHaveTextContent(
       'A fabricator or supervisor prepares it again',
     );
+    expect(
+      screen.getAllByText('Ready, 3 files; setup sheet out of date (safety notices changed)').length,
+    ).toBeGreaterThan(0);
     expect(within(job).getByRole('button', { name: 'Download setup-sheet.pdf' })).toBeDisabled();
     expect(within(job).getByRole('button', { name: 'Download sheet-01-clear.svg' })).toBeEnabled();
   });
