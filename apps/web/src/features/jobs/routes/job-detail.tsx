@@ -189,26 +189,22 @@ function JobDetail({ job }: { job: JobDetailView }) {
             Safety notices
           </Button>
         ) : null}
-        {approveBlocked ? (
-          <Typography
-            variant="body2"
-            color="text.secondary"
-            sx={{ alignSelf: 'center' }}
-            data-testid="approve-blocked"
-          >
-            {approveBlocked}
-          </Typography>
-        ) : null}
-        {cutWaits ? (
-          <Typography
-            variant="body2"
-            color="text.secondary"
-            sx={{ alignSelf: 'center' }}
-            data-testid="cut-waits"
-          >
-            Acknowledge the safety notices before recording the cut.
-          </Typography>
-        ) : null}
+        {[
+          ['approve-blocked', approveBlocked],
+          ['cut-waits', cutWaits ? 'Acknowledge the safety notices before recording the cut.' : null],
+        ].map(([testId, note]) =>
+          note ? (
+            <Typography
+              key={testId}
+              variant="body2"
+              color="text.secondary"
+              sx={{ alignSelf: 'center' }}
+              data-testid={testId}
+            >
+              {note}
+            </Typography>
+          ) : null,
+        )}
         {job.actions.length === 0 && !canAcknowledge ? (
           <Typography color="text.secondary">Nothing for you to do on this job now.</Typography>
         ) : null}
