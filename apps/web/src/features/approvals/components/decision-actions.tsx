@@ -9,6 +9,7 @@ export function DecisionActions({
   onApprove,
   onSendBack,
   approveBlocked,
+  sendBackLabel = 'Send back',
 }: {
   approveLabel: string;
   approving: boolean;
@@ -16,6 +17,8 @@ export function DecisionActions({
   onSendBack: () => void;
   /** Why the caller cannot approve this (the server would refuse): said instead of offering the button. */
   approveBlocked?: string | null;
+  /** What the way back is called: "Send back" for a version, the job action's own label for a job. */
+  sendBackLabel?: string;
 }) {
   return (
     <CardActions sx={{ px: 2, pb: 2 }}>
@@ -29,7 +32,7 @@ export function DecisionActions({
         </Button>
       )}
       <Button color="error" onClick={onSendBack}>
-        Send back
+        {sendBackLabel}
       </Button>
     </CardActions>
   );

@@ -10,6 +10,8 @@ export function SendBackDialog(
   props: FormDialogBaseProps<SendBackValues> & {
     /** What goes back, e.g. "version 2 of CO2 laser". */
     subject: string;
+    /** The verb on the title and button: "Send back" (a version) or "Return" (a job, as the job page says). */
+    verb?: string;
   },
 ) {
   const {
@@ -26,11 +28,11 @@ export function SendBackDialog(
     <FormDialog
       open={props.open}
       titleId="send-back-title"
-      title={`Send back ${props.subject}`}
+      title={`${props.verb ?? 'Send back'} ${props.subject}`}
       intro="It goes back with your reason, which its author sees and answers with a changed version."
       error={props.error}
       busy={props.busy}
-      submitLabel="Send back with this reason"
+      submitLabel={`${props.verb ?? 'Send back'} with this reason`}
       submitColor="error"
       onSubmit={submit}
       onClose={props.onClose}

@@ -139,7 +139,7 @@ describe('Approvals (supervisor)', () => {
       expect(within(card).getByTestId('approve-blocked')).toHaveTextContent(reason);
       expect(within(card).queryByRole('button', { name: 'Approve the job' })).toBeNull();
       // Sending back stays possible.
-      expect(within(card).getByRole('button', { name: 'Send back' })).toBeEnabled();
+      expect(within(card).getByRole('button', { name: 'Return with a reason' })).toBeEnabled();
       expect(calls.some((c) => c.method === 'POST')).toBe(false);
       unmount();
     }

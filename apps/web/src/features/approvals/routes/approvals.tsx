@@ -1,4 +1,4 @@
-import { type JobView, type MachineProfileSummaryView } from '@kerfwright/contracts';
+import { type JobView, type MachineProfileSummaryView, transitionFor } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Card from '@mui/material/Card';
@@ -187,6 +187,7 @@ export function ApprovalsRoute() {
               <DecisionActions
                 approveLabel="Approve the job"
                 approveBlocked={approveBlockedReason(j, 'supervisor')}
+                sendBackLabel={transitionFor('return').label}
                 approving={decideJob.isPending && decideJob.variables.jobId === j.id}
                 onApprove={() => approveJob(j)}
                 onSendBack={() => {
@@ -208,6 +209,7 @@ export function ApprovalsRoute() {
               ? `the job ${sendingBack.job.designName}`
               : ''
         }
+        verb={sendingBack?.kind === 'job' ? 'Return' : 'Send back'}
         busy={dialogMutation.isPending}
         error={dialogMutation.error}
         onSubmit={(v) => sendBack(v.reason)}

@@ -59,5 +59,8 @@ describe('audit summaries', () => {
     expect(auditSummary({ action: 'job.request', entityType: 'job', before: null, after: null })).toBe(
       'Job requested',
     );
+    expect(auditSummary({ action: 'job.return', entityType: 'job', before: null, after: null })).toBe(
+      'Job returned',
+    );
   });
 });

@@ -42,6 +42,8 @@ const ACTIONS: Record<string, string> = {
   'export.request': 'cut pack queued',
   'export.done': 'cut pack built',
   'design.solid': 'solid uploaded',
+  // A job goes back to its requester as "returned" (its state); a profile version is "sent back".
+  'job.return': 'returned',
 };
 
 /** Fields that change on every write and say nothing to a reader. */
