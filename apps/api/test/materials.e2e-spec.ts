@@ -351,6 +351,13 @@ describe('materials library', () => {
         .send({ version: pvc.version, family: 'acrylic', laserAllowed: true, hazardNote: '' })
         .expect(200);
       expect(released.body).toMatchObject({ family: 'acrylic', laserAllowed: true });
+      // The MDF kept off for its binder, allowed again by a supervisor: the reason it was kept off goes.
+      const mdfAgain = await ctx.http
+        .patch(`/api/materials/${mdf.id}`)
+        .set(auth('supervisor'))
+        .send({ version: renamed.body.version, laserAllowed: true })
+        .expect(200);
+      expect(mdfAgain.body).toMatchObject({ laserAllowed: true, hazardNote: '' });
     });
 
     it('stores the condition of a conditionally allowed family (felt) as the hazard note', async () => {

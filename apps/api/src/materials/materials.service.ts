@@ -125,7 +125,11 @@ export class MaterialsService {
           table,
           family,
           dto.laserAllowed ?? (refused ? undefined : m.laserAllowed),
-          dto.hazardNote ?? (refused && family !== m.family ? undefined : m.hazardNote),
+          // The note of a material kept off the laser says why; allowed again, that reason no longer holds.
+          dto.hazardNote ??
+            ((refused && family !== m.family) || (!m.laserAllowed && dto.laserAllowed === true)
+              ? undefined
+              : m.hazardNote),
         );
         // Lifting a laser restriction (a material kept off the laser, or of a family the hazard table refuses,
         // made laser-usable by a changed flag or a changed family) is a safety decision: a supervisor's.

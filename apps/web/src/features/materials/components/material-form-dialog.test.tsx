@@ -140,9 +140,14 @@ describe('a material kept off the laser', () => {
     expect(box).toBeDisabled();
     expect(screen.getByTestId('laser-locked')).toHaveTextContent('only a supervisor');
     locked.unmount();
-    renderDialog(vi.fn(), keptOff, true);
-    expect(await screen.findByRole('checkbox', { name: 'May be cut on a laser' })).toBeEnabled();
+    const { user } = renderDialog(vi.fn(), keptOff, true);
+    const allowed = await screen.findByRole('checkbox', { name: 'May be cut on a laser' });
+    expect(allowed).toBeEnabled();
     expect(screen.queryByTestId('laser-locked')).toBeNull();
+    // Ticked: the reason it was kept off is cleared from the note.
+    expect(screen.getByLabelText('Why it is kept off the laser')).toHaveValue('Binder unknown');
+    await user.click(allowed);
+    expect(screen.getByLabelText('Hazard note')).toHaveValue('');
   });
 });
 

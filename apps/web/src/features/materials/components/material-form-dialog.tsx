@@ -60,6 +60,7 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
     control,
     handleSubmit,
     setValue,
+    getValues,
     setError,
     reset,
     formState: { errors },
@@ -84,6 +85,12 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
   useEffect(() => {
     if (props.open) reset(material ? materialToFormValues(material) : EMPTY_MATERIAL);
   }, [props.open, material, reset]);
+
+  // Allowed on the laser again: the note that said why it was kept off no longer holds (the API drops it too).
+  useEffect(() => {
+    if (material && !material.laserAllowed && laserAllowed && getValues('hazardNote') === material.hazardNote)
+      setValue('hazardNote', '');
+  }, [material, laserAllowed, getValues, setValue]);
 
   // A family the hazard table refuses is never laser-allowed: untick it as soon as it is chosen.
   useEffect(() => {
