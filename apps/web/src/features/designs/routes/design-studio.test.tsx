@@ -215,6 +215,16 @@ describe('design studio', () => {
     expect(screen.queryByRole('button', { name: 'Hide the sheets' })).not.toBeInTheDocument();
   });
 
+  it('marks the sheets as soon as a fit to sheets has fewer sheets than colours', async () => {
+    studioApi();
+    renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    await field('Colours', '3');
+    await field('Scale by', 'fitSheets');
+    // Nothing typed into Sheets (2 by default): the field is marked at once, naming the rule.
+    expect(await screen.findByText('3 colours need at least 3 sheets (one per colour)')).toBeInTheDocument();
+  });
+
   it('names the marked field when it says why nothing is laid out', async () => {
     studioApi();
     renderApp('/designs/new', { token: 't' });

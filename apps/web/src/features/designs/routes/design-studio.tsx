@@ -90,6 +90,15 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   useEffect(() => {
     if (!designFormSchema.safeParse(initial.values).success) void form.trigger();
   }, [form, initial.values]);
+  // Sheets and colours are checked together (one sheet per colour): a change of either, or of the scale, marks
+  // both fields at once, not only the one typed into.
+  useEffect(() => {
+    const subscription = form.watch((_, { name }) => {
+      if (name === 'scaleBy' || name === 'colourCount' || name === 'fitSheets')
+        void form.trigger(['fitSheets', 'colourCount']);
+    });
+    return () => subscription.unsubscribe();
+  }, [form]);
   const [upload, setUpload] = useState<UploadedSolid | null>(initial.upload);
   // The upload as last saved (or loaded): a change of it is an unsaved edit.
   const [savedUpload, setSavedUpload] = useState<UploadedSolid | null>(initial.upload);
