@@ -796,6 +796,13 @@ describe('jobs through their states', () => {
     const job = await draftJob();
     const res = await act(users.hobbyist, job.id, 'request');
     expect(res.body.state).toBe('requested');
+    // Mail queued meanwhile by earlier tests' background work (a cut pack released after its test ended) would
+    // be tried first and stop the pass: it waits an hour, so this job's first message is the one tried.
+    await ctx.db.query(
+      `UPDATE mail_outbox SET next_attempt_at = now() + interval '1 hour'
+        WHERE status = 'pending' AND text_body NOT LIKE $1`,
+      [`%${job.id}%`],
+    );
     await ctx.app.get(MailDispatcherService).dispatchDue();
     // One message per fabricator; the pass stops at the first that fails, the others wait their turn.
     const pending: { attempts: number; status: string }[] = await ctx.db.query(
