@@ -8,14 +8,20 @@ export function getJobExports(id: string, signal?: AbortSignal): Promise<ExportV
   return api.get<ExportView[]>(`/jobs/${encodeURIComponent(id)}/exports`, undefined, signal);
 }
 
+/** How often a pack whose setup sheet is out of date is looked at again (someone may be rebuilding it). */
+export const STALE_PACK_REFRESH_MS = 15_000;
+
 /**
  * The job's exports. A running one is followed by useFollowExport (its events, or polling), which keeps this
- * list current and refreshes it when the export ends.
+ * list current and refreshes it when the export ends. A done pack whose setup sheet is out of date is read again
+ * every STALE_PACK_REFRESH_MS: a fabricator elsewhere may be rebuilding it, and the operator at the machine
+ * should see the new pack without reloading.
  */
 export function useJobExports(id: string, enabled: boolean) {
   return useQuery({
     queryKey: jobsKeys.exports(id),
     queryFn: ({ signal }) => getJobExports(id, signal),
     enabled,
+    refetchInterval: (query) => (query.state.data?.[0]?.safetyChanged ? STALE_PACK_REFRESH_MS : false),
   });
 }

@@ -4,6 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
+import { STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
 
 function jobFixture(id: string, state: JobView['state'], name: string): JobView {
   return {
@@ -92,7 +93,7 @@ const released = jobFixture('j-released', 'released', 'Turned squares');
 const packing = jobFixture('j-packing', 'approved', 'Star lamp');
 const waiting = jobFixture('j-waiting', 'approved', 'Not released yet');
 
-function stubDesk(acknowledged: boolean, pack: Partial<ExportView> = {}) {
+function stubDesk(acknowledged: boolean, pack: Partial<ExportView> | (() => Partial<ExportView>) = {}) {
   const safety: JobSafetyView = {
     jobId: released.id,
     machineKind: 'co2-laser',
@@ -111,7 +112,12 @@ function stubDesk(acknowledged: boolean, pack: Partial<ExportView> = {}) {
     },
     [`GET /api/jobs/${released.id}`]: () => json(200, { ...released, transitions: [] }),
     [`GET /api/jobs/${released.id}/exports`]: () =>
-      json(200, [{ ...exportFixture('e-r', released.id, 'done', 100), ...pack }]),
+      json(200, [
+        {
+          ...exportFixture('e-r', released.id, 'done', 100),
+          ...(typeof pack === 'function' ? pack() : pack),
+        },
+      ]),
     [`GET /api/jobs/${packing.id}/exports`]: () =>
       json(200, [exportFixture('e-p', packing.id, 'running', 40)]),
     [`GET /api/jobs/${waiting.id}/exports`]: () => json(200, []),
@@ -130,7 +136,10 @@ function stubDesk(acknowledged: boolean, pack: Partial<ExportView> = {}) {
 }
 
 describe('release desk', () => {
-  afterEach(() => vi.unstubAllGlobals());
+  afterEach(() => {
+    vi.unstubAllGlobals();
+    vi.useRealTimers();
+  });
 
   it('lists released jobs and approved jobs whose pack is being prepared, with live progress', async () => {
     stubDesk(false);
@@ -204,6 +213,20 @@ describe('release desk', () => {
     ).toBeGreaterThan(0);
     expect(within(job).getByRole('button', { name: 'Download setup-sheet.pdf' })).toBeDisabled();
     expect(within(job).getByRole('button', { name: 'Download sheet-01-clear.svg' })).toBeEnabled();
+  });
+
+  it('looks at an out-of-date pack again, so a rebuild elsewhere shows without reloading', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    let rebuilt = false;
+    stubDesk(true, () => (rebuilt ? { id: 'e-new', safetyChanged: false } : { safetyChanged: true }));
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await within(job).findByTestId('cut-pack-safety-changed');
+    // A fabricator rebuilds the pack; within STALE_PACK_REFRESH_MS the desk shows the new one.
+    rebuilt = true;
+    await vi.advanceTimersByTimeAsync(STALE_PACK_REFRESH_MS + 100);
+    await waitFor(() => expect(within(job).queryByTestId('cut-pack-safety-changed')).not.toBeInTheDocument());
   });
 
   it('at phone width (390 px) shows each job as a card whose Open button is in reach, not in a wide table', async () => {
