@@ -3,7 +3,7 @@
  * (`@kerfwright/geometry/pack`, Node only) and stored by the API's export queue. Lengths in mm.
  */
 import type { DesignSpec } from './spec';
-import type { ColourRuleName } from './jobs';
+import type { ColourRuleName, JobState } from './jobs';
 
 export const CUT_PACK_FILE_ROLES = [
   'sheet-dxf',
@@ -16,6 +16,12 @@ export const CUT_PACK_FILE_ROLES = [
   'archive',
 ] as const;
 export type CutPackFileRole = (typeof CUT_PACK_FILE_ROLES)[number];
+
+/** The files of a cut pack its requester (a hobbyist) may download: the assembly guide only. */
+export const CUT_PACK_ROLES_FOR_REQUESTER: readonly CutPackFileRole[] = ['assembly-guide'];
+
+/** Job states whose cut-pack files may be downloaded: released to the machines, or cut and closed since. */
+export const CUT_PACK_DOWNLOADABLE_STATES: readonly JobState[] = ['released', 'cut', 'closed'];
 
 /** Files that print the safety notices (the setup sheet, and the ZIP holding it): out of date once those change. */
 export const CUT_PACK_ROLES_PRINTING_SAFETY: readonly CutPackFileRole[] = ['setup-sheet', 'archive'];

@@ -8,10 +8,11 @@ import { type Queue } from 'bull';
 import { distinctUntilChanged, from, type Observable, switchMap, takeWhile, timer, map } from 'rxjs';
 import { DataSource, In } from 'typeorm';
 import {
+  CUT_PACK_DOWNLOADABLE_STATES,
+  CUT_PACK_ROLES_FOR_REQUESTER,
   CUT_PACK_ROLES_PRINTING_SAFETY,
   type ExportRequested,
   type ExportView,
-  type JobState,
   transitionFor,
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
@@ -21,7 +22,7 @@ import { withDeadline } from '../common/with-deadline';
 import { Job } from '../jobs/job.entity';
 import { canReadJob } from '../jobs/job-access';
 import { JobPreparationService } from '../jobs/job-preparation.service';
-import { SafetyService } from '../safety/safety.service';
+import { noticeVersionKeys, SafetyService } from '../safety/safety.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
 import { EXPORTABLE } from './cut-pack-input';
 import { exportPrefix, isSafeFileName } from './export-keys';
@@ -30,10 +31,6 @@ import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exp
 import { type ExportJobData } from './exports.processor';
 import { withArticle } from '../common/text';
 
-/** States of a job whose files may be downloaded: released to the machines, or cut and closed since. */
-const DOWNLOADABLE: readonly JobState[] = ['released', 'cut', 'closed'];
-/** What a hobbyist may download: the assembly guide of their own job, nothing else. */
-const HOBBYIST_ROLES = ['assembly-guide'];
 const POLL_MS = 500;
 /** How long a request waits for Redis to take a new export before answering anyway. */
 const QUEUE_ADD_MS = 3000;
@@ -166,7 +163,10 @@ export class ExportsService {
       where: { jobId },
       order: { createdAt: 'DESC' },
     });
-    return Promise.all(rows.map((e) => this.toView(user, e)));
+    // The job's current notice versions are read once for the whole list, and only if a pack needs them.
+    let current: ReturnType<SafetyService['versionsForJob']> | undefined;
+    const versions = () => (current ??= this.safety.versionsForJob(jobId));
+    return Promise.all(rows.map((e) => this.toView(user, e, versions)));
   }
 
   /** Server-sent events: the export's view whenever its state or progress changes, until it ends. */
@@ -211,16 +211,17 @@ export class ExportsService {
       );
     }
     const file = await this.dataSource.manager.findOne(ExportFile, { where: { exportId: id, name } });
-    if (!file || (user.role === 'hobbyist' && !HOBBYIST_ROLES.includes(file.role))) throw missing();
+    if (!file || (user.role === 'hobbyist' && !CUT_PACK_ROLES_FOR_REQUESTER.includes(file.role)))
+      throw missing();
     // Files go to the machines only for a job released to them (or cut and closed since), and never for a
     // material that may no longer be cut on the job's machine.
     const job = await this.dataSource.manager.findOneOrFail(Job, { where: { id: exp.jobId } });
-    if (!DOWNLOADABLE.includes(job.state)) {
+    if (!CUT_PACK_DOWNLOADABLE_STATES.includes(job.state)) {
       throw new AppError(
         HttpStatus.CONFLICT,
         'EXPORT.JOB_NOT_RELEASED',
         `The job is ${job.state}; its files can be downloaded once it is released`,
-        { state: job.state, allowed: DOWNLOADABLE },
+        { state: job.state, allowed: CUT_PACK_DOWNLOADABLE_STATES },
       );
     }
     await this.preparation.assertMaterialAllowed(this.dataSource.manager, job);
@@ -268,19 +269,24 @@ export class ExportsService {
   }
 
   /** Whether the notices or rules a done export's setup sheet prints are no longer the current ones. */
-  private async safetyChanged(exp: Export): Promise<boolean> {
+  private async safetyChanged(
+    exp: Export,
+    versions = () => this.safety.versionsForJob(exp.jobId),
+  ): Promise<boolean> {
     const built = exp.manifest?.safety;
     if (!built) return false;
-    const now = await this.safety.versionsForJob(exp.jobId);
-    const key = (list: { id: string; version: number }[]) =>
-      list
-        .map((n) => `${n.id}@${n.version}`)
-        .sort()
-        .join('|');
-    return built.localRulesVersion !== now.localRulesVersion || key(built.notices) !== key(now.notices);
+    const now = await versions();
+    return (
+      built.localRulesVersion !== now.localRulesVersion ||
+      noticeVersionKeys(built.notices).join('|') !== noticeVersionKeys(now.notices).join('|')
+    );
   }
 
-  private async toView(user: AuthUser, exp: Export): Promise<ExportView> {
+  private async toView(
+    user: AuthUser,
+    exp: Export,
+    versions?: () => ReturnType<SafetyService['versionsForJob']>,
+  ): Promise<ExportView> {
     const files =
       exp.state === 'done'
         ? await this.dataSource.manager.find(ExportFile, {
@@ -297,7 +303,7 @@ export class ExportsService {
       errorCode: exp.errorCode,
       errorMessage: exp.errorMessage,
       files: files
-        .filter((f) => user.role !== 'hobbyist' || HOBBYIST_ROLES.includes(f.role))
+        .filter((f) => user.role !== 'hobbyist' || CUT_PACK_ROLES_FOR_REQUESTER.includes(f.role))
         .map((f) => ({
           name: f.name,
           role: f.role,
@@ -308,7 +314,7 @@ export class ExportsService {
       createdAt: exp.createdAt.toISOString(),
       finishedAt: exp.finishedAt ? exp.finishedAt.toISOString() : null,
       ...(exp.state === 'done' && user.role !== 'hobbyist'
-        ? { safetyChanged: await this.safetyChanged(exp) }
+        ? { safetyChanged: await this.safetyChanged(exp, versions) }
         : {}),
     };
   }

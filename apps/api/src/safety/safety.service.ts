@@ -41,6 +41,11 @@ const toNotice = (r: NoticeRow): SafetyNotice => ({
 const SEVERITY_ORDER: Record<string, number> = { danger: 0, warning: 1, caution: 2 };
 
 /** Safety notices (current versions), the hazard table, local rules and operators' acknowledgements. */
+/** Notice versions as sorted "id@version" keys: two lists name the same versions when their keys are equal. */
+export function noticeVersionKeys(list: readonly { id: string; version: number }[]): string[] {
+  return list.map((n) => `${n.id}@${n.version}`).sort();
+}
+
 @Injectable()
 export class SafetyService {
   constructor(
@@ -201,8 +206,8 @@ export class SafetyService {
   ): Promise<JobSafetyView> {
     return this.dataSource.transaction(async (m) => {
       const view = await this.forJob(user, jobId, m);
-      const want = view.notices.map((n) => `${n.id}@${n.version}`).sort();
-      const got = dto.notices.map((n) => `${n.id}@${n.version}`).sort();
+      const want = noticeVersionKeys(view.notices);
+      const got = noticeVersionKeys(dto.notices);
       const rulesMatch = (dto.localRulesVersion ?? null) === (view.localRules?.version ?? null);
       if (want.join('|') !== got.join('|') || !rulesMatch) {
         throw new AppError(

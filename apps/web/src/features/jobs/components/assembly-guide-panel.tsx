@@ -1,25 +1,20 @@
-import { type ExportView, type JobState } from '@kerfwright/contracts';
+import { CUT_PACK_ROLES_FOR_REQUESTER, type ExportView } from '@kerfwright/contracts';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
-import { downloadFile } from '../../../lib/api-client';
+import { downloadExportFile } from '../api/download-export-file';
 import { useJobExports } from '../api/get-job-exports';
-
-/**
- * What the API lets a hobbyist download (apps/api exports.service: a hobbyist gets their own job's assembly
- * guide, once the job is released to the machines or cut and closed since), and nothing else.
- */
-export const HOBBYIST_FILE_ROLE = 'assembly-guide';
-export const GUIDE_STATES: readonly JobState[] = ['released', 'cut', 'closed'];
 
 /** The newest finished export's assembly guides (an export still being prepared has no files yet). */
 export function assemblyGuides(exports: readonly ExportView[] | undefined) {
   const done = exports?.find((e) => e.state === 'done');
   if (!done) return [];
-  return done.files.filter((f) => f.role === HOBBYIST_FILE_ROLE).map((file) => ({ exportId: done.id, file }));
+  return done.files
+    .filter((f) => CUT_PACK_ROLES_FOR_REQUESTER.includes(f.role))
+    .map((file) => ({ exportId: done.id, file }));
 }
 
 /** The requester's own job: the assembly guide of its cut pack, to put the model together once cut. */
@@ -46,10 +41,7 @@ export function AssemblyGuidePanel({ jobId }: { jobId: string }) {
             variant="outlined"
             onClick={() => {
               setDownloadError(null);
-              downloadFile(
-                `/exports/${encodeURIComponent(exportId)}/files/${encodeURIComponent(file.name)}`,
-                file.name,
-              ).catch(setDownloadError);
+              downloadExportFile(exportId, file.name).catch(setDownloadError);
             }}
           >
             {`Download ${file.name}`}

@@ -12,8 +12,8 @@ import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
-import { downloadFile } from '../../../lib/api-client';
 import { useFollowExport } from '../api/follow-export';
+import { downloadExportFile } from '../api/download-export-file';
 import { useJobExports } from '../api/get-job-exports';
 import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
@@ -116,10 +116,7 @@ export function CutPackPanel({
                         disabled={!!newest.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
                         onClick={() => {
                           setDownloadError(null);
-                          downloadFile(
-                            `/exports/${encodeURIComponent(newest.id)}/files/${encodeURIComponent(f.name)}`,
-                            f.name,
-                          ).catch(setDownloadError);
+                          downloadExportFile(newest.id, f.name).catch(setDownloadError);
                         }}
                       >
                         Download

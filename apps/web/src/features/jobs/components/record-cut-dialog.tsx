@@ -49,9 +49,7 @@ export function RecordCutDialog(props: {
       <form
         noValidate
         onSubmit={handleSubmit((v) => {
-          if (!isFarAboveSheets(v.sheetsUsed, props.preparedSheets) || confirmed === v.sheetsUsed) {
-            props.onSubmit(v);
-          }
+          if (!needsConfirmation) props.onSubmit(v);
         })}
       >
         <DialogTitle id="cut-title">Record the cut</DialogTitle>

@@ -1,4 +1,9 @@
-import { type JobAction, type JobDetailView, transitionFor } from '@kerfwright/contracts';
+import {
+  CUT_PACK_DOWNLOADABLE_STATES,
+  type JobAction,
+  type JobDetailView,
+  transitionFor,
+} from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
@@ -30,7 +35,7 @@ import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
-import { AssemblyGuidePanel, GUIDE_STATES } from '../components/assembly-guide-panel';
+import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
 import { CutPackPanel } from '../components/cut-pack-panel';
 import { JobSheetsPanel } from '../components/job-sheets-panel';
 import { JobStateChip } from '../components/job-state-chip';
@@ -124,7 +129,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
     user.role !== 'hobbyist' && ['approved', 'released', 'cut', 'closed'].includes(job.state);
   // A hobbyist downloads one file: their own job's assembly guide, once the job is released.
   const canGetGuide =
-    user.role === 'hobbyist' && job.requesterId === user.id && GUIDE_STATES.includes(job.state);
+    user.role === 'hobbyist' &&
+    job.requesterId === user.id &&
+    CUT_PACK_DOWNLOADABLE_STATES.includes(job.state);
 
   return (
     <Box sx={{ maxWidth: 1200 }} data-testid="job-detail">
