@@ -120,7 +120,7 @@ export const designFormSchema = z
 
 export type DesignFormValues = z.infer<typeof designFormSchema>;
 
-/** The fields' labels as the spec form shows them, to name a field in a message shown away from it. */
+/** The fields' labels: the spec form shows them, and messages shown away from a field name it by them. */
 export const DESIGN_FIELD_LABELS: Record<keyof DesignFormValues, string> = {
   name: 'Name',
   description: 'Description',

@@ -16,7 +16,12 @@ import {
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
-import { type DesignFormValues, designFormSchema, toDesignSpec } from './design-form-schema';
+import {
+  type DesignFormValues,
+  designFormSchema,
+  toDesignSpec,
+  DESIGN_FIELD_LABELS,
+} from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 
@@ -127,9 +132,14 @@ export const SpecForm = memo(function SpecForm({
   return (
     <Stack spacing={2.5} component="fieldset" sx={{ border: 0, p: 0, m: 0 }}>
       <Section title="Design">
-        <FormTextField label="Name" registration={register('name')} error={errors.name} size="small" />
         <FormTextField
-          label="Description"
+          label={DESIGN_FIELD_LABELS.name}
+          registration={register('name')}
+          error={errors.name}
+          size="small"
+        />
+        <FormTextField
+          label={DESIGN_FIELD_LABELS.description}
           registration={register('description')}
           error={errors.description}
           size="small"
@@ -139,12 +149,17 @@ export const SpecForm = memo(function SpecForm({
       </Section>
 
       <Section title="Base solid">
-        <NativeSelectField label="Source" name="solidSource" form={fields} size="small">
+        <NativeSelectField
+          label={DESIGN_FIELD_LABELS.solidSource}
+          name="solidSource"
+          form={fields}
+          size="small"
+        >
           <option value="catalogue">From the catalogue</option>
           <option value="upload">Uploaded OBJ / OFF file</option>
         </NativeSelectField>
         {solidSource === 'catalogue' ? (
-          <NativeSelectField label="Solid" name="solidId" form={fields} size="small">
+          <NativeSelectField label={DESIGN_FIELD_LABELS.solidId} name="solidId" form={fields} size="small">
             {SOLIDS.map((s) => (
               <option key={s.id} value={s.id}>
                 {s.name}
@@ -158,9 +173,9 @@ export const SpecForm = memo(function SpecForm({
 
       <Section title="Piece shape">
         <Stack direction="row" spacing={1}>
-          <NumberField label="Sides (n)" name="sides" form={fields} size="small" integer />
+          <NumberField label={DESIGN_FIELD_LABELS.sides} name="sides" form={fields} size="small" integer />
           <NumberField
-            label="Step (k)"
+            label={DESIGN_FIELD_LABELS.step}
             name="step"
             form={fields}
             size="small"
@@ -169,8 +184,19 @@ export const SpecForm = memo(function SpecForm({
           />
         </Stack>
         <Stack direction="row" spacing={1}>
-          <NumberField label="Rotation (°)" name="rotationDeg" form={fields} size="small" />
-          <NumberField label="Size" name="size" form={fields} size="small" helperText="× plane distance" />
+          <NumberField
+            label={DESIGN_FIELD_LABELS.rotationDeg}
+            name="rotationDeg"
+            form={fields}
+            size="small"
+          />
+          <NumberField
+            label={DESIGN_FIELD_LABELS.size}
+            name="size"
+            form={fields}
+            size="small"
+            helperText="× plane distance"
+          />
         </Stack>
         {suggestedSizes?.overlap != null ? (
           <Stack spacing={0.5} data-testid="suggested-sizes">
@@ -192,7 +218,7 @@ export const SpecForm = memo(function SpecForm({
       </Section>
 
       <Section title="Scale">
-        <NativeSelectField label="Scale by" name="scaleBy" form={fields} size="small">
+        <NativeSelectField label={DESIGN_FIELD_LABELS.scaleBy} name="scaleBy" form={fields} size="small">
           {Object.entries(SCALE_LABELS).map(([value, label]) => (
             <option key={value} value={value}>
               {label}
@@ -201,7 +227,7 @@ export const SpecForm = memo(function SpecForm({
         </NativeSelectField>
         {scaleBy === 'fitSheets' ? (
           <NumberField
-            label="Sheets"
+            label={DESIGN_FIELD_LABELS.fitSheets}
             name="fitSheets"
             form={fields}
             rules={COLOUR_SHEETS_RULES}
@@ -211,25 +237,35 @@ export const SpecForm = memo(function SpecForm({
           />
         ) : scaleBy === 'fitBed' ? (
           <Stack direction="row" spacing={1}>
-            <NumberField label="Bed width (mm)" name="bedWidthMm" form={fields} size="small" />
-            <NumberField label="Bed height (mm)" name="bedHeightMm" form={fields} size="small" />
+            <NumberField
+              label={DESIGN_FIELD_LABELS.bedWidthMm}
+              name="bedWidthMm"
+              form={fields}
+              size="small"
+            />
+            <NumberField
+              label={DESIGN_FIELD_LABELS.bedHeightMm}
+              name="bedHeightMm"
+              form={fields}
+              size="small"
+            />
           </Stack>
         ) : (
-          <NumberField label="Scale (mm)" name="scaleMm" form={fields} size="small" />
+          <NumberField label={DESIGN_FIELD_LABELS.scaleMm} name="scaleMm" form={fields} size="small" />
         )}
       </Section>
 
       <Section title="Stock sheet">
         <Stack direction="row" spacing={1}>
           <NumberField
-            label="Sheet width (mm)"
+            label={DESIGN_FIELD_LABELS.sheetWidthMm}
             name="sheetWidthMm"
             form={fields}
             size="small"
             rules={SHEET_RULES}
           />
           <NumberField
-            label="Sheet height (mm)"
+            label={DESIGN_FIELD_LABELS.sheetHeightMm}
             name="sheetHeightMm"
             form={fields}
             size="small"
@@ -237,21 +273,32 @@ export const SpecForm = memo(function SpecForm({
           />
         </Stack>
         <Stack direction="row" spacing={1}>
-          <NumberField label="Margin (mm)" name="marginMm" form={fields} size="small" rules={SHEET_RULES} />
-          <NumberField label="Gap (mm)" name="gapMm" form={fields} size="small" />
+          <NumberField
+            label={DESIGN_FIELD_LABELS.marginMm}
+            name="marginMm"
+            form={fields}
+            size="small"
+            rules={SHEET_RULES}
+          />
+          <NumberField label={DESIGN_FIELD_LABELS.gapMm} name="gapMm" form={fields} size="small" />
         </Stack>
       </Section>
 
       <Section title="Stock and machine">
         <Stack direction="row" spacing={1} sx={{ alignItems: 'center' }}>
-          <NumberField label="Thickness (mm)" name="thicknessMm" form={fields} size="small" />
+          <NumberField
+            label={DESIGN_FIELD_LABELS.thicknessMm}
+            name="thicknessMm"
+            form={fields}
+            size="small"
+          />
           <Controller
             control={control}
             name="flexible"
             render={({ field }) => (
               <FormControlLabel
                 sx={{ minWidth: 110 }}
-                label="Flexible"
+                label={DESIGN_FIELD_LABELS.flexible}
                 control={
                   <Checkbox checked={field.value} onChange={(e) => field.onChange(e.target.checked)} />
                 }
@@ -259,18 +306,28 @@ export const SpecForm = memo(function SpecForm({
             )}
           />
         </Stack>
-        <NativeSelectField label="Machine kind" name="machineKind" form={fields} size="small">
+        <NativeSelectField
+          label={DESIGN_FIELD_LABELS.machineKind}
+          name="machineKind"
+          form={fields}
+          size="small"
+        >
           <option value="laser">Laser (kerf)</option>
           <option value="router">Router (tool diameter)</option>
         </NativeSelectField>
         <Stack direction="row" spacing={1}>
           {machineKind === 'laser' ? (
-            <NumberField label="Kerf (mm)" name="kerfMm" form={fields} size="small" />
+            <NumberField label={DESIGN_FIELD_LABELS.kerfMm} name="kerfMm" form={fields} size="small" />
           ) : (
-            <NumberField label="Tool diameter (mm)" name="toolDiameterMm" form={fields} size="small" />
+            <NumberField
+              label={DESIGN_FIELD_LABELS.toolDiameterMm}
+              name="toolDiameterMm"
+              form={fields}
+              size="small"
+            />
           )}
           <NumberField
-            label="Fit allowance (mm)"
+            label={DESIGN_FIELD_LABELS.fitMm}
             name="fitMm"
             form={fields}
             size="small"
@@ -282,7 +339,7 @@ export const SpecForm = memo(function SpecForm({
       <Section title="Colours">
         <Stack direction="row" spacing={1}>
           <NumberField
-            label="Colours"
+            label={DESIGN_FIELD_LABELS.colourCount}
             name="colourCount"
             form={fields}
             rules={COLOUR_SHEETS_RULES}
@@ -290,7 +347,12 @@ export const SpecForm = memo(function SpecForm({
             sx={{ maxWidth: 110 }}
             integer
           />
-          <NativeSelectField label="Rule" name="colourRule" form={fields} size="small">
+          <NativeSelectField
+            label={DESIGN_FIELD_LABELS.colourRule}
+            name="colourRule"
+            form={fields}
+            size="small"
+          >
             {COLOUR_RULES.map((rule) => (
               <option key={rule} value={rule}>
                 {COLOUR_RULE_LABELS[rule]}

@@ -8,7 +8,7 @@ import { memo } from 'react';
 import { countOf } from '../../../lib/plural';
 import { type BuiltPreview } from '../hooks/use-built-model';
 import { ColourPlanNotice } from './colour-plan-notice';
-import { MAX_COLOURS } from './design-form-schema';
+import { MAX_COLOURS, DESIGN_FIELD_LABELS } from './design-form-schema';
 import { ModelPreview3d } from './model-preview-3d';
 
 interface StudioPreviewPanelProps {
@@ -69,7 +69,7 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             useFlexGap
             data-testid="model-facts"
           >
-            <Fact label="Solid" value={report.solid.name} />
+            <Fact label={DESIGN_FIELD_LABELS.solidId} value={report.solid.name} />
             <Fact label="Pieces" value={String(report.pieces.length)} />
             <Fact label="Crossings" value={String(report.crossings.length)} />
             <Fact label="Diameter" value={size(report.diameterMm)} />
