@@ -23,6 +23,7 @@ import { compensateKerf, dogBoneCentre, notchOutline } from './compensation/comp
 import { slotInnerCorners } from './slots/slots';
 import { MAX_SCALE_MM, type ResolvedSpec, SpecValidationError, validateSpec } from './spec/validate-spec';
 import { IssueList, fitsBed, slotGap, slotWeb } from './validity/validity';
+import { cutterMarginMm } from './layout/plan-layout';
 import { CLASH_TOLERANCE_MM, thicknessClashes } from './validity/thickness-clash';
 
 /** A slot as built into one piece (piece frame, mm). */
@@ -236,7 +237,7 @@ export function sizeWithoutLayout(
 ): { model: BuiltModel; evaluations: number } {
   const sc = spec.scale;
   if (sc.by === 'fitBed') {
-    const [w, h] = fitBedRectangle(spec.bed as BedSpec, spec.sheet);
+    const [w, h] = fitBedRectangle(spec.bed as BedSpec, spec.sheet, spec.machine);
     return fitToRectangle(spec, solid, w, h);
   }
   if (sc.by === 'fitSheets') return fitSheetsUpperBound(spec, solid);
@@ -244,19 +245,34 @@ export function sizeWithoutLayout(
 }
 
 /**
- * The rectangle fitBed fits the largest piece to: the bed, and when a stock sheet is given also the sheet less
- * its margins (laid on the bed long side along long side), so that the piece can be laid out on that sheet.
+ * How much wider (mm) the path the machine follows is than a piece's outline, across any direction: a router
+ * follows the nominal outline offset by the bit's radius on each side (its tool offset), so one bit diameter;
+ * a laser follows the compensated outline itself, so 0. A bed limits where that path can go.
  */
-export function fitBedRectangle(bed: BedSpec, sheet: ResolvedSpec['sheet']): [number, number] {
+export function toolPathExtraMm(machine: ResolvedSpec['machine']): number {
+  return machine.kind === 'router' ? machine.toolDiameterMm : 0;
+}
+
+/**
+ * The rectangle fitBed fits the largest piece's outline to: the bed less the tool path's extra width, and when
+ * a stock sheet is given also the sheet less its margins (at least the cutter's, see cutterMarginMm; laid on
+ * the bed long side along long side), so that the piece can be laid out on that sheet.
+ */
+export function fitBedRectangle(
+  bed: BedSpec,
+  sheet: ResolvedSpec['sheet'],
+  machine: ResolvedSpec['machine'],
+): [number, number] {
   const long = (a: number, b: number) => Math.max(a, b);
   const short = (a: number, b: number) => Math.min(a, b);
-  if (!sheet) return [bed.widthMm, bed.heightMm];
-  const sw = sheet.widthMm - 2 * sheet.marginMm;
-  const sh = sheet.heightMm - 2 * sheet.marginMm;
-  return [
-    Math.min(long(bed.widthMm, bed.heightMm), long(sw, sh)),
-    Math.min(short(bed.widthMm, bed.heightMm), short(sw, sh)),
-  ];
+  const extra = toolPathExtraMm(machine);
+  const bw = bed.widthMm - extra;
+  const bh = bed.heightMm - extra;
+  if (!sheet) return [bw, bh];
+  const margin = Math.max(sheet.marginMm, cutterMarginMm(machine));
+  const sw = sheet.widthMm - 2 * margin;
+  const sh = sheet.heightMm - 2 * margin;
+  return [Math.min(long(bw, bh), long(sw, sh)), Math.min(short(bw, bh), short(sw, sh))];
 }
 
 /** Largest piece fit ratio (see bestFitRatio) of a built model on a width × height rectangle. */
@@ -521,10 +537,16 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
         }
       }
     }
-    if (spec.bed && comp.outline.length && !fitsBed(comp.outline, spec.bed.widthMm, spec.bed.heightMm)) {
+    const extra = toolPathExtraMm(machine);
+    if (
+      spec.bed &&
+      comp.outline.length &&
+      !fitsBed(comp.outline, spec.bed.widthMm - extra, spec.bed.heightMm - extra)
+    ) {
+      const path = extra > 0 ? ` with the ${extra} mm bit passing outside it` : '';
       issues.error(
         'PIECE.LARGER_THAN_BED',
-        `${id} does not fit the ${spec.bed.widthMm} × ${spec.bed.heightMm} mm bed in any orientation`,
+        `${id} does not fit the ${spec.bed.widthMm} × ${spec.bed.heightMm} mm bed in any orientation${path}`,
         [id],
       );
     }

@@ -2,7 +2,7 @@ import polygonClipping from 'polygon-clipping';
 import { buildModel } from '../build';
 import { cubeSquares45, octahedronHexagons } from '../test-support/designs';
 import { boundaryDistance, placed } from '../test-support/polygons';
-import { cutterClearanceMm, gapRaisedNote, layoutModel } from './plan-layout';
+import { cutterClearanceMm, gapRaisedNote, layoutModel, marginRaisedNote } from './plan-layout';
 
 type P = [number, number];
 
@@ -55,6 +55,45 @@ describe('layoutModel: room for the cutter between pieces', () => {
     expect(gapRaisedNote(model.spec.machine, 1, layout.gapMm)).toMatch(
       /4\.175 mm apart, not 1 mm: the 3\.175 mm bit, passing outside both neighbours on separate paths,/,
     );
+  });
+
+  it('keeps router pieces a bit diameter from the sheet edges when the margin asked for is smaller', () => {
+    // Common practice: the bit runs outside the nominal outline, so a piece closer to the edge than one bit
+    // diameter has its cut run off the stock (and the bit's centre off a bed no larger than the sheet).
+    const model = buildModel(
+      cubeSquares45(1.5, {
+        scale: { by: 'diameter', mm: 300 },
+        stock: { thicknessMm: 6, flexible: false },
+        machine: { kind: 'router', toolDiameterMm: 3.175 },
+        fitMm: 0.1,
+      }),
+    );
+    expect(model.report.errors).toEqual([]);
+    const sheet = { widthMm: 600, heightMm: 400 };
+    const layout = layoutModel(model, { sheet, marginMm: 0, gapMm: 8, colours: { count: 1 }, quantity: 2 });
+    if (!layout.ok) throw new Error(layout.message);
+    expect(layout.marginMm).toBe(3.175);
+    const outline = new Map(model.pieces.map((p) => [p.id, p.outline as P[]]));
+    let nearest = Infinity;
+    for (const s of layout.sheets)
+      for (const pl of s.placements)
+        for (const [x, y] of placed(outline.get(pl.part)!, pl.x, pl.y, pl.rotationDeg))
+          nearest = Math.min(nearest, x, y, sheet.widthMm - x, sheet.heightMm - y);
+    expect(nearest).toBeGreaterThanOrEqual(3.175 - 1e-3);
+    expect(marginRaisedNote(model.spec.machine, 0, layout.marginMm)).toMatch(
+      /3\.175 mm from the sheet's edges, not 0 mm: the 3\.175 mm bit/,
+    );
+    // A wider margin asked for is kept, and a laser's is never raised.
+    const wide = layoutModel(model, { sheet, marginMm: 10, gapMm: 8, colours: { count: 1 } });
+    expect(wide.ok && wide.marginMm).toBe(10);
+    expect(marginRaisedNote(model.spec.machine, 10, 10)).toBeNull();
+    const laser = layoutModel(buildModel(octahedronHexagons()), {
+      sheet,
+      marginMm: 0,
+      gapMm: 3,
+      colours: { count: 1 },
+    });
+    expect(laser.ok && laser.marginMm).toBe(0);
   });
 
   it('keeps a wider gap as asked, and lays laser pieces at least a kerf apart', () => {

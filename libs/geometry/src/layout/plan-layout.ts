@@ -27,6 +27,8 @@ export type ModelLayout =
       totals: NestTotals;
       /** The gap the pieces were laid out with: the one asked for, or the cutter's width if that is wider. */
       gapMm: number;
+      /** The margin the pieces were laid out with: the one asked for, or more to keep the cut on the stock. */
+      marginMm: number;
     }
   | {
       ok: false;
@@ -50,6 +52,29 @@ export const ROUTER_PATH_SEPARATION_MM = 1;
  */
 export function cutterClearanceMm(machine: BuiltModel['spec']['machine']): number {
   return machine.kind === 'router' ? machine.toolDiameterMm + ROUTER_PATH_SEPARATION_MM : machine.kerfMm;
+}
+
+/**
+ * The narrowest margin the cutter allows. A router's files carry the nominal outline and the tool offset puts
+ * the bit's whole width outside it: a margin under one bit diameter runs the bit off the stock's edge and its
+ * centre off a bed no larger than the sheet. A laser's files carry the beam path itself (0: the beam may run
+ * to the edge, burning half a kerf beyond it, as with any cut at a sheet's edge).
+ */
+export function cutterMarginMm(machine: BuiltModel['spec']['machine']): number {
+  return machine.kind === 'router' ? machine.toolDiameterMm : 0;
+}
+
+/** What to tell the operator when the cutter's width, not the margin asked for, set the margin (else null). */
+export function marginRaisedNote(
+  machine: BuiltModel['spec']['machine'],
+  askedMarginMm: number,
+  usedMarginMm: number,
+): string | null {
+  if (!(usedMarginMm > askedMarginMm) || machine.kind !== 'router') return null;
+  return (
+    `pieces keep ${usedMarginMm} mm from the sheet's edges, not ${askedMarginMm} mm: the ` +
+    `${machine.toolDiameterMm} mm bit passes outside each piece and must stay on the stock`
+  );
 }
 
 /** What to tell the operator when the cutter's width, not the gap asked for, set the spacing (else null). */
@@ -109,9 +134,10 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
   }
   const quantity = Math.max(1, Math.floor(options.quantity ?? 1));
   const gapMm = Math.max(options.gapMm, cutterClearanceMm(model.spec.machine));
+  const marginMm = Math.max(options.marginMm, cutterMarginMm(model.spec.machine));
   const result: NestResult = nestParts({
     sheet: options.sheet,
-    marginMm: options.marginMm,
+    marginMm,
     gapMm,
     parts: model.pieces.map((p) => ({
       id: p.id,
@@ -131,5 +157,5 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
       pieces: result.error.partIds,
     };
   }
-  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals, gapMm };
+  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals, gapMm, marginMm };
 }

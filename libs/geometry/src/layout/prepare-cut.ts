@@ -1,6 +1,12 @@
 import type { DesignSpec, JobPreparation } from '@kerfwright/contracts';
 import { buildModel, type BuiltModel } from '../build';
-import { gapRaisedNote, layoutModel, type LayoutOptions, type ModelLayout } from './plan-layout';
+import {
+  gapRaisedNote,
+  layoutModel,
+  marginRaisedNote,
+  type LayoutOptions,
+  type ModelLayout,
+} from './plan-layout';
 
 export interface CutPreparation {
   model: BuiltModel;
@@ -40,13 +46,16 @@ export function prepareCut(spec: DesignSpec, options: LayoutOptions): CutPrepara
       diameterMm: round(model.report.diameterMm),
       sheetCount: layout.totals.sheetCount,
       sheet: { widthMm: options.sheet.widthMm, heightMm: options.sheet.heightMm },
-      marginMm: options.marginMm,
+      marginMm: layout.marginMm,
       gapMm: layout.gapMm,
       ...(options.colours.rule ? { colourRule: options.colours.rule } : {}),
       utilisation: round(layout.totals.utilisation, 4),
       warnings: [
         ...model.report.warnings.map((w) => w.message),
-        ...[gapRaisedNote(machine, options.gapMm, layout.gapMm)].filter((w): w is string => w !== null),
+        ...[
+          gapRaisedNote(machine, options.gapMm, layout.gapMm),
+          marginRaisedNote(machine, options.marginMm, layout.marginMm),
+        ].filter((w): w is string => w !== null),
       ],
     },
   };

@@ -142,7 +142,8 @@ export function packInputFrom(rawSpec: unknown, o: PackCommandOptions = {}): Cut
 /**
  * Checks a parsed spec and turns a fit scale (`fitSheets`, `fitBed`) into the fixed diameter it resolves
  * to (buildWithLayout), so the pack is cut at that size. Throws CutPackError PACK.SPEC_INVALID for an
- * invalid spec and PACK.DESIGN_INVALID when the fitted design has errors.
+ * invalid spec, PACK.LAYOUT_FAILED when no colour plan meets the rule and PACK.DESIGN_INVALID when the fitted
+ * design has other errors.
  */
 export function resolveSpecForPack(rawSpec: unknown): unknown {
   const v = validateSpec(rawSpec);
@@ -182,6 +183,10 @@ export function resolveSpecForPack(rawSpec: unknown): unknown {
     throw new CutPackError('PACK.SPEC_INVALID', (e as Error).message);
   }
   const errors = built.model.report.errors;
+  // No colour plan is a layout failure, as at a fixed scale (the fit search reports it as a design error).
+  if (errors.length > 0 && errors.every((e) => e.code === 'COLOUR.NO_PLAN')) {
+    throw new CutPackError('PACK.LAYOUT_FAILED', errors.map((e) => e.message).join('; '));
+  }
   if (errors.length > 0) {
     throw new CutPackError(
       'PACK.DESIGN_INVALID',

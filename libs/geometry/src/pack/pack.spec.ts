@@ -382,6 +382,15 @@ describe('createCutPack failures and the command-line helper', () => {
       code: 'PACK.LAYOUT_FAILED',
       message: expect.stringMatching(/needs at least 2/),
     });
+    // The same failure with a fitted size: the fit search reports it among the design's errors, but it is a
+    // layout failure all the same. (Derived: four faces meet at each vertex of the octahedron, so
+    // vertex-distinct needs four colours.)
+    const rule = { count: 3, rule: 'vertex-distinct' };
+    const fixed = { ...octahedronHexagons(), colours: rule };
+    const fixedFailure = await runPackCommand(fixed).catch((e: CutPackError) => e);
+    expect(fixedFailure).toMatchObject({ code: 'PACK.LAYOUT_FAILED' });
+    const fitted = { ...fixed, scale: { by: 'fitBed' }, bed: { widthMm: 300, heightMm: 300 } };
+    await expect(runPackCommand(fitted)).rejects.toMatchObject({ code: 'PACK.LAYOUT_FAILED' });
     for (const colours of [
       ['Opal', 'opal'],
       ['Amber #2', 'amber-2'],
@@ -521,6 +530,18 @@ describe('createCutPack failures and the command-line helper', () => {
     );
     expect(free.onPiece).toBeUndefined();
     expect(free.from[0]).toBeGreaterThan(200);
+  });
+
+  it('keeps the scale mark off the stock edge on a sheet with no margin', () => {
+    // Common practice: an engraving on the edge is half off the stock. With no margin and nothing on the
+    // sheet, the bar and its box keep the same clearance from the edges as from pieces (here 3 mm).
+    const m = placeScaleMark({ widthMm: 300, heightMm: 200 }, 0, [], 'mm', 3);
+    expect(m.offSheet).toBe(false);
+    expect(m.from[0]).toBeGreaterThanOrEqual(3);
+    expect(m.from[1]).toBeGreaterThanOrEqual(3);
+    // A wider margin still rules.
+    const inside = placeScaleMark({ widthMm: 300, heightMm: 200 }, 12, [], 'mm', 3);
+    expect(inside.from[1]).toBeGreaterThanOrEqual(12);
   });
 
   it('keeps the SVG page to the sheet when the margin is under a millimetre', async () => {

@@ -15,7 +15,7 @@ import type {
 } from '@kerfwright/contracts';
 import { geometryMachineKind, MACHINE_PROFILE_KINDS, type MachineProfileKind } from '@kerfwright/contracts';
 import { type BuiltModel, buildModel } from '../build';
-import { gapRaisedNote, layoutModel } from '../layout/plan-layout';
+import { gapRaisedNote, layoutModel, marginRaisedNote } from '../layout/plan-layout';
 import { clashingColourNames, engravedColourName, printableColourName, slug } from './slug';
 import { type EstimateMachine, estimateJob } from '../estimate';
 import { type PieceLabels, labelPiece, uprightStrokes } from '../labels';
@@ -259,6 +259,8 @@ export async function createCutPack(
     );
   const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm);
   if (gapNote) warnings.push(gapNote);
+  const marginNote = marginRaisedNote(model.spec.machine, input.marginMm, layout.marginMm);
+  if (marginNote) warnings.push(marginNote);
   const bedNote = sheetOverBedNote(input);
   if (bedNote) warnings.push(bedNote);
   if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
@@ -296,7 +298,7 @@ export async function createCutPack(
       title: `Sheet ${i + 1} of ${count}: ${colour}`,
       colourName: colour,
       sheet: input.sheet,
-      marginMm: input.marginMm,
+      marginMm: layout.marginMm,
       clearMm: Math.max(2, layout.gapMm),
       parts,
       units: input.units,
@@ -333,9 +335,9 @@ export async function createCutPack(
     name: 'setup-sheet.pdf',
     role: 'setup-sheet',
     contentType: CONTENT_TYPES.pdf,
-    // The spacing the pieces really have (the cutter's width can widen the gap asked for).
+    // The spacing the pieces really have (the cutter's width can widen the gap and margin asked for).
     data: await setupSheetPdf({
-      input: { ...input, gapMm: layout.gapMm },
+      input: { ...input, gapMm: layout.gapMm, marginMm: layout.marginMm },
       model,
       sheets,
       estimate: job,

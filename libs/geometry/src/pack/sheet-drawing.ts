@@ -97,7 +97,8 @@ const SCALE_LENGTHS: Record<Units, number[]> = { mm: [100, 50, 20, 10], in: [4, 
 
 /**
  * Finds a place for the scale mark, bottom rows first, longest mark first: on free stock inside the sheet's
- * margin at least `clearMm` from every part; else (a sheet filled to its edges, as a fit to sheets can make
+ * margin, at least `clearMm` from every part and from the sheet's edges (with no margin an engraving on the
+ * edge would be half off the stock); else (a sheet filled to its edges, as a fit to sheets can make
  * it) inside a piece, clear of its cut lines by `clearMm` and of its labels; else just below the sheet.
  */
 export function placeScaleMark(
@@ -134,10 +135,11 @@ export function placeScaleMark(
     halfH: h / 2,
   });
   const step = 5;
+  const inset = Math.max(marginMm, clearMm);
   for (const length of SCALE_LENGTHS[units]) {
     const w = (units === 'in' ? length * MM_PER_INCH : length) + 1;
-    for (let y = marginMm; y + h <= sheet.heightMm - marginMm + 1e-9; y += step) {
-      for (let x = marginMm; x + w <= sheet.widthMm - marginMm + 1e-9; x += step) {
+    for (let y = inset; y + h <= sheet.heightMm - inset + 1e-9; y += step) {
+      for (let x = inset; x + w <= sheet.widthMm - inset + 1e-9; x += step) {
         const box = boxAt(x, y, w);
         const clear = parts.every((p, i) => {
           const b = boxes[i]!;

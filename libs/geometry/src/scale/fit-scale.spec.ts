@@ -1,3 +1,4 @@
+import * as ClipperLib from 'clipper-lib';
 import { buildModel } from '../build';
 import { buildWithLayout } from '../layout/build-with-layout';
 import { type Vec2 } from '../math/vec';
@@ -104,6 +105,55 @@ describe('fitBed scale', () => {
     });
     expect(validateSpec(again).ok).toBe(true);
     expect(buildModel(again).report.planeDistanceMm).toBeCloseTo(r.planeDistanceMm, 6);
+  });
+
+  it("fits a router's tool path to the bed: the nominal outline grown by the bit's radius", () => {
+    // Common practice: a router's bed limits where the bit's centre can go, and with the tool offset that
+    // centre runs the nominal outline offset by the radius r. The offset path is built here with Clipper's
+    // round-joined offset and its best box found by turning it in 0.05° steps (independent of the search).
+    const b = 300;
+    const tool = 3.175;
+    const spec = design({
+      solid: 'cube',
+      piece: { sides: 4, rotationDeg: 45, size: 1.5 },
+      ...({ scale: { by: 'fitBed' } } as object),
+      stock: { thicknessMm: 6, flexible: false },
+      machine: { kind: 'router', toolDiameterMm: tool },
+      fitMm: 0.1,
+      bed: { widthMm: b, heightMm: b },
+    });
+    const r = buildModel(spec).report;
+    expect(r.errors).toEqual([]);
+    let worst = 0;
+    for (const p of r.pieces) {
+      const co = new ClipperLib.ClipperOffset(2, 0.25);
+      const S = 1e4;
+      co.AddPath(
+        p.outline.map(([x, y]) => ({ X: Math.round(x * S), Y: Math.round(y * S) })),
+        ClipperLib.JoinType.jtRound,
+        ClipperLib.EndType.etClosedPolygon,
+      );
+      const out: { X: number; Y: number }[][] = [];
+      co.Execute(out, (tool / 2) * S);
+      const path = out[0]!.map((q) => [q.X / S, q.Y / S] as Vec2);
+      let best = Infinity;
+      for (let deg = 0; deg < 90; deg += 0.05) {
+        const t = (deg * Math.PI) / 180;
+        const xs = path.map(([x, y]) => x * Math.cos(t) - y * Math.sin(t));
+        const ys = path.map(([x, y]) => x * Math.sin(t) + y * Math.cos(t));
+        best = Math.min(best, Math.max(Math.max(...xs) - Math.min(...xs), Math.max(...ys) - Math.min(...ys)));
+      }
+      worst = Math.max(worst, best);
+    }
+    // The tool path just fits (to the offset's arc tolerance), where the nominal outline alone filled the bed.
+    expect(worst).toBeLessThanOrEqual(b + 1e-3);
+    expect(worst).toBeGreaterThan(b - 0.05);
+    // The same size given as a diameter builds cleanly; 0.5 % larger, the tool path leaves the bed.
+    const fixed = { ...spec, scale: { by: 'diameter', mm: r.diameterMm } };
+    expect(buildModel(fixed).report.errors).toEqual([]);
+    const larger = buildModel({ ...spec, scale: { by: 'diameter', mm: r.diameterMm * 1.005 } }).report;
+    const tooLarge = larger.errors.find((e) => e.code === 'PIECE.LARGER_THAN_BED');
+    expect(tooLarge?.message).toMatch(/with the 3\.175 mm bit passing outside it/);
   });
 
   it('gives a model that fits, while 1 % larger does not', () => {

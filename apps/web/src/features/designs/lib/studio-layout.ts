@@ -36,7 +36,7 @@ export function layOutStudio(
     const { model, layout } = buildWithLayout({ ...spec, ...colours });
     const failure = model.report.errors[0]?.message ?? (layout && !layout.ok ? layout.message : null);
     return {
-      sheets: layout?.ok ? sheetViews(model, layout, { ...sheet, marginMm }) : [],
+      sheets: layout?.ok ? sheetViews(model, layout, sheet) : [],
       diameterMm: model.report.diameterMm,
       sheetsAsked: spec.scale.sheets,
       failure,
@@ -51,7 +51,7 @@ export function layOutStudio(
     ...(colourPlan ? { colourPlan } : {}),
   });
   return {
-    sheets: layout.ok ? sheetViews(model, layout, { ...sheet, marginMm }) : [],
+    sheets: layout.ok ? sheetViews(model, layout, sheet) : [],
     diameterMm: model.report.diameterMm,
     sheetsAsked: null,
     failure: layout.ok ? null : layout.message,

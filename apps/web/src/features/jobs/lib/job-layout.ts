@@ -86,7 +86,7 @@ export function layOutJob(
     quantity: job.quantity,
   });
   if (!layout.ok) throw new Error(layout.message);
-  const sheets = sheetViews(model, layout, { ...prep.sheet, marginMm }, job.colours);
+  const sheets = sheetViews(model, layout, prep.sheet, job.colours);
   const mismatch =
     sheets.length !== prep.sheetCount || model.pieces.length * job.quantity !== prep.pieceCount
       ? `Laid out again here, the design gives ${sheets.length} sheets and ${model.pieces.length * job.quantity} pieces; ` +

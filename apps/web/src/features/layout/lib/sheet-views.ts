@@ -44,11 +44,14 @@ export function placePoint(
   return [x * c - y * s + dx, x * s + y * c + dy];
 }
 
-/** The sheets of a successful layout of a built model, with every piece placed. */
+/**
+ * The sheets of a successful layout of a built model, with every piece placed. The margin drawn is the one the
+ * layout kept (a router's bit can widen the one asked for).
+ */
 export function sheetViews(
   model: BuiltModel,
   layout: Extract<ModelLayout, { ok: true }>,
-  sheet: { widthMm: number; heightMm: number; marginMm: number },
+  sheet: { widthMm: number; heightMm: number },
   colourNames: readonly string[] = [],
 ): SheetView[] {
   const byId = new Map(model.pieces.map((p) => [p.id, p]));
@@ -57,7 +60,7 @@ export function sheetViews(
     return {
       widthMm: sheet.widthMm,
       heightMm: sheet.heightMm,
-      marginMm: sheet.marginMm,
+      marginMm: layout.marginMm,
       colourIndex,
       colourName: colourNames[colourIndex] ?? null,
       utilisation: s.utilisation,
