@@ -55,7 +55,9 @@ export function SearchFilter({
     search.current = onSearch;
   });
 
-  useEffect(() => setText(value), [value]);
+  useEffect(() => {
+    setText(value);
+  }, [value]);
 
   useEffect(() => {
     if (text === value) return;

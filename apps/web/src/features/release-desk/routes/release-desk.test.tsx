@@ -157,6 +157,26 @@ describe('release desk', () => {
     expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
   });
 
+  it('leaves a job opened at the desk without breaking the page, though scrollIntoView returns a promise', async () => {
+    // Chromium's scrollIntoView returns a promise; an effect that returned it had React call it as its
+    // clean-up when the job was closed ("not a function"), replacing the page with the error screen.
+    // jsdom has no scrollIntoView: define one for this test.
+    const scroll = vi.fn(() => Promise.resolve());
+    Object.defineProperty(Element.prototype, 'scrollIntoView', { value: scroll, configurable: true });
+    try {
+      stubDesk(false);
+      const { user } = renderApp('/release-desk', { token: 't' });
+      await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+      await screen.findByTestId('desk-job');
+      expect(scroll).toHaveBeenCalled();
+      await user.click(screen.getByRole('link', { name: 'Jobs' }));
+      await screen.findByRole('heading', { name: 'Jobs', level: 1 });
+      expect(screen.queryByText('Something went wrong')).not.toBeInTheDocument();
+    } finally {
+      delete (Element.prototype as { scrollIntoView?: unknown }).scrollIntoView;
+    }
+  });
+
   it('offers no download and no cut record before the safety notices are acknowledged', async () => {
     stubDesk(false);
     const { user } = renderApp('/release-desk', { token: 't' });

@@ -165,7 +165,11 @@ function DeskJob({ job }: { job: JobView }) {
   const user = useUser();
   // Opened from a long list (a phone shows one card a screen), the job comes into view.
   const ref = useRef<HTMLDivElement>(null);
-  useEffect(() => ref.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' }), []);
+  useEffect(() => {
+    // A block body: the effect must return nothing, and Chromium's scrollIntoView returns a promise, which
+    // React would otherwise call as the effect's clean-up when the job is closed.
+    void ref.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' });
+  }, []);
   const safety = useJobSafety(job.id, true);
   const action = useTakeJobAction();
   const [open, setOpen] = useState<'safety' | 'cut' | null>(null);
