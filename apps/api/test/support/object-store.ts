@@ -2,6 +2,7 @@ import * as fs from 'node:fs';
 import * as os from 'node:os';
 import * as path from 'node:path';
 import S3rver from 's3rver';
+import { installSingleDesForS3Fake } from '../../src/dev-s3/des-shim';
 
 /** The S3-compatible fake from npm (s3rver) on a loopback port of its own, with files in a fresh folder. */
 export interface S3Fake {
@@ -15,6 +16,7 @@ export interface S3Fake {
 }
 
 export async function startS3Fake(bucket: string): Promise<S3Fake> {
+  installSingleDesForS3Fake();
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'kw-s3-test-'));
   const make = (port: number) =>
     new S3rver({

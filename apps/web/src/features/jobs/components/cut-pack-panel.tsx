@@ -17,6 +17,7 @@ import { downloadExportFile } from '../api/download-export-file';
 import { useJobExports } from '../api/get-job-exports';
 import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
+import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from '../lib/pack-text';
 
 function formatBytes(bytes: number): string {
   if (bytes < 1024) return `${bytes} B`;
@@ -80,13 +81,11 @@ export function CutPackPanel({
       ) : null}
       {busy ? (
         <Stack spacing={1}>
-          <Typography variant="body2">{`Preparing the files (${newest.state}, ${newest.progress} %)`}</Typography>
+          <Typography variant="body2">{`Preparing the files (${packProgressText(newest)})`}</Typography>
           <LinearProgress variant="determinate" value={newest.progress} aria-label="Preparing the cut pack" />
         </Stack>
       ) : null}
-      {newest?.state === 'failed' ? (
-        <Alert severity="error">{newest.errorMessage ?? 'The cut pack could not be prepared.'}</Alert>
-      ) : null}
+      {newest?.state === 'failed' ? <Alert severity="error">{packFailureText(newest)}</Alert> : null}
       {newest?.state === 'done' && newest.safetyChanged ? (
         // Said to everyone who sees the pack, acknowledged or not: the fabricator is the one who rebuilds it.
         <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-safety-changed">
@@ -107,7 +106,9 @@ export function CutPackPanel({
                 {newest.files.map((f) => (
                   <TableRow key={f.name}>
                     <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
-                    <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>{f.role}</TableCell>
+                    <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>
+                      {PACK_FILE_ROLE_LABELS[f.role] ?? f.role}
+                    </TableCell>
                     <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
                     <TableCell align="right">
                       <Button

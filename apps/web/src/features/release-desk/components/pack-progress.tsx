@@ -3,6 +3,7 @@ import LinearProgress from '@mui/material/LinearProgress';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useFollowExport } from '../../jobs/api/follow-export';
+import { packFailureText, packProgressText } from '../../jobs/lib/pack-text';
 
 /** A cut pack's state in a desk row: a live progress bar while it is prepared (followed by its events). */
 export function PackProgress({ jobId, newest }: { jobId: string; newest: ExportView | null | undefined }) {
@@ -22,13 +23,13 @@ export function PackProgress({ jobId, newest }: { jobId: string; newest: ExportV
   if (view.state === 'failed') {
     return (
       <Typography variant="body2" color="error">
-        {view.errorMessage ?? 'Failed'}
+        {packFailureText(view)}
       </Typography>
     );
   }
   return (
     <Stack spacing={0.5} sx={{ minWidth: 160 }}>
-      <Typography variant="body2">{`Preparing (${view.state}, ${view.progress} %)`}</Typography>
+      <Typography variant="body2">{`Preparing (${packProgressText(view)})`}</Typography>
       <LinearProgress
         variant="determinate"
         value={view.progress}

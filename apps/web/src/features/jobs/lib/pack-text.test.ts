@@ -1,0 +1,37 @@
+import { CUT_PACK_FILE_ROLES } from '@kerfwright/contracts';
+import { describe, expect, it } from 'vitest';
+import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from './pack-text';
+
+describe('cut pack wording', () => {
+  it('names every file role in words, never by its internal name', () => {
+    for (const role of CUT_PACK_FILE_ROLES) {
+      expect(PACK_FILE_ROLE_LABELS[role]).toMatch(/^[A-Z][a-z]/);
+      expect(PACK_FILE_ROLE_LABELS[role]).not.toContain('-');
+    }
+  });
+
+  it("explains a failed attempt of the machinery, quoting the storage's words, and keeps a job's own reason", () => {
+    const storage = packFailureText({
+      errorCode: 'EXPORT.ATTEMPT_FAILED',
+      errorMessage: 'We encountered an internal error. Please try again.',
+      attempts: 4,
+    });
+    expect(storage).toBe(
+      'The files could not be built and stored after 4 attempts (last error: “We encountered an internal ' +
+        'error. Please try again.”). Prepare the cut pack again; if it fails again, whoever runs the server ' +
+        'finds the details in its log.',
+    );
+    const reason = 'The machine profile version was retired since the job was prepared.';
+    expect(packFailureText({ errorCode: 'MACHINE_PROFILE.RETIRED', errorMessage: reason, attempts: 1 })).toBe(
+      reason,
+    );
+    expect(packFailureText({ errorCode: null, errorMessage: null, attempts: 1 })).toBe(
+      'The cut pack could not be prepared.',
+    );
+  });
+
+  it('says a queued pack waits for a worker instead of showing the last attempt’s percentage', () => {
+    expect(packProgressText({ state: 'queued', progress: 99 })).toBe('waiting for a worker');
+    expect(packProgressText({ state: 'running', progress: 42 })).toBe('building, 42 %');
+  });
+});

@@ -1,0 +1,35 @@
+import { type CutPackFileRole, type ExportView } from '@kerfwright/contracts';
+
+/** What each file of a cut pack is, in the words the job page and the desk use. */
+export const PACK_FILE_ROLE_LABELS: Record<CutPackFileRole, string> = {
+  'sheet-dxf': 'Sheet drawing (DXF)',
+  'sheet-svg': 'Sheet drawing (SVG)',
+  'setup-sheet': 'Setup sheet (PDF)',
+  'assembly-guide': 'Assembly guide (PDF)',
+  'coupon-dxf': 'Test coupon (DXF)',
+  'coupon-svg': 'Test coupon (SVG)',
+  manifest: 'List of files with checksums',
+  archive: 'All files (ZIP)',
+};
+
+/** How a pack's build is going, in words: waiting for a worker, or being built. */
+export function packProgressText(view: Pick<ExportView, 'state' | 'progress'>): string {
+  return view.state === 'queued' ? 'waiting for a worker' : `building, ${view.progress} %`;
+}
+
+/**
+ * Why a pack failed. A failure the job itself explains (its design, material or profile) carries the server's
+ * own sentence; a failed attempt of the machinery (storage, a worker) gets a plain explanation, with the
+ * storage's or worker's words quoted for whoever runs the server.
+ */
+export function packFailureText(view: Pick<ExportView, 'errorCode' | 'errorMessage' | 'attempts'>): string {
+  if (view.errorCode === 'EXPORT.ATTEMPT_FAILED') {
+    const tries = view.attempts === 1 ? 'one attempt' : `${view.attempts} attempts`;
+    const said = view.errorMessage ? ` (last error: “${view.errorMessage}”)` : '';
+    return (
+      `The files could not be built and stored after ${tries}${said}. Prepare the cut pack again; if it ` +
+      'fails again, whoever runs the server finds the details in its log.'
+    );
+  }
+  return view.errorMessage ?? 'The cut pack could not be prepared.';
+}
