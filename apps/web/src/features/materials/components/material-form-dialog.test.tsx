@@ -50,6 +50,13 @@ describe('material form', () => {
     expect(screen.getByText('Enter the nominal thickness in mm')).toBeInTheDocument();
     expect(screen.getByText('Enter the width in mm')).toBeInTheDocument();
     expect(screen.getByText('Enter the price per sheet')).toBeInTheDocument();
+    // Commas and spaces alone name no colour, and a job must be cut from one of the material's colours.
+    await user.type(screen.getByLabelText('Colours offered'), ' , ,');
+    await user.click(screen.getByRole('button', { name: 'Add the material' }));
+    expect(
+      await screen.findByText('Give at least one colour (for undyed stock, say “natural”)'),
+    ).toBeInTheDocument();
+    await user.clear(screen.getByLabelText('Colours offered'));
 
     await user.type(screen.getByLabelText('Nominal thickness (mm)'), '60');
     await user.clear(screen.getByLabelText('Currency'));
@@ -76,6 +83,7 @@ describe('material form', () => {
     const { user, onSubmit } = renderDialog();
     await user.type(await screen.findByLabelText('Name'), 'Birch plywood 6 mm');
     await user.type(screen.getByLabelText('Nominal thickness (mm)'), '6');
+    await user.type(screen.getByLabelText('Colours offered'), 'natural');
     await user.click(screen.getByRole('button', { name: 'Remove sheet size 1' }));
     await user.click(screen.getByLabelText('May be cut on a laser'));
     await user.click(screen.getByRole('button', { name: 'Add the material' }));
@@ -89,7 +97,7 @@ describe('material form', () => {
       nominalThicknessMm: 6,
       measuredThicknessMm: null,
       flexible: false,
-      colours: [],
+      colours: ['natural'],
       stockSheets: [],
       laserAllowed: false,
       hazardNote: 'Too thick for our tube',
@@ -106,7 +114,7 @@ describe('a material kept off the laser', () => {
     nominalThicknessMm: 3,
     measuredThicknessMm: null,
     flexible: false,
-    colours: [],
+    colours: ['brown'],
     stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 3, currency: 'EUR' }],
     laserAllowed: false,
     hazardNote: 'Binder unknown',

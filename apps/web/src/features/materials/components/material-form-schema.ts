@@ -73,7 +73,14 @@ export function materialFormSchema(hazards: readonly MaterialHazard[] | undefine
     .superRefine(
       (v, ctx) => {
         const colours = splitColours(v.colours);
-        if (colours.length > L.maxColours) {
+        // A job is cut from one of the colours its material offers: a material offering none cannot be used.
+        if (colours.length === 0) {
+          ctx.addIssue({
+            code: 'custom',
+            path: ['colours'],
+            message: 'Give at least one colour (for undyed stock, say “natural”)',
+          });
+        } else if (colours.length > L.maxColours) {
           ctx.addIssue({ code: 'custom', path: ['colours'], message: `At most ${L.maxColours} colours` });
         } else if (colours.some((c) => c.length > L.colourLength)) {
           ctx.addIssue({
