@@ -8,3 +8,32 @@ export function formatLength(mm: number, unit: LengthUnit): string {
   if (unit === 'in') return `${(mm / MM_PER_INCH).toFixed(3)} in`;
   return `${mm.toFixed(Math.abs(mm) >= 100 ? 1 : 2)} mm`;
 }
+
+/**
+ * A total length along the cuts: as formatLength up to 10 m (or 100 ft), then in metres (feet) with one
+ * decimal and thousands grouped, so that a job's cut length reads at a glance ("1,238.8 m", not "1238848.2 mm").
+ */
+export function formatRunLength(mm: number, unit: LengthUnit): string {
+  if (!Number.isFinite(mm)) return '—';
+  const grouped = (x: number) =>
+    x.toLocaleString('en', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+  if (unit === 'in') {
+    const inches = mm / MM_PER_INCH;
+    return Math.abs(inches) >= 1200 ? `${grouped(inches / 12)} ft` : formatLength(mm, unit);
+  }
+  return Math.abs(mm) >= 10_000 ? `${grouped(mm / 1000)} m` : formatLength(mm, unit);
+}
+
+/** Machine time: minutes with one decimal under an hour, else hours and whole minutes ("28 h 44 min"). */
+export function formatMinutes(minutes: number): string {
+  if (!Number.isFinite(minutes)) return '—';
+  if (minutes < 60) return `${minutes.toFixed(1)} min`;
+  const whole = Math.round(minutes);
+  return `${Math.floor(whole / 60).toLocaleString('en')} h ${whole % 60} min`;
+}
+
+/** An amount of money with two decimals and thousands grouped, then the currency code ("9,389.52 EUR"). */
+export function formatMoney(amount: number, currency: string): string {
+  const n = amount.toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+  return `${n} ${currency}`;
+}

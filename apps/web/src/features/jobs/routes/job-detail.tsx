@@ -30,7 +30,14 @@ import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
-import { formatLength, type LengthUnit, MM_PER_INCH } from '../../../lib/units';
+import {
+  formatLength,
+  formatMinutes,
+  formatMoney,
+  formatRunLength,
+  type LengthUnit,
+  MM_PER_INCH,
+} from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
@@ -236,7 +243,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           {job.actualMinutes !== null ? (
             <Facts
               rows={[
-                ['Machine time', `${job.actualMinutes} min`],
+                ['Machine time', formatMinutes(job.actualMinutes)],
                 ['Sheets used', String(job.sheetsUsed ?? '—')],
                 ['Measured kerf', job.measuredKerfMm === null ? '—' : fmtKerf(job.measuredKerfMm)],
               ]}
@@ -254,20 +261,17 @@ function JobDetail({ job }: { job: JobDetailView }) {
                   ['Pieces', String(prep.pieceCount)],
                   ['Crossings', String(prep.crossingCount)],
                   ['Diameter', fmt(prep.diameterMm)],
-                  [
-                    'Sheets',
-                    `${prep.sheetCount} of ${fmt(prep.sheet.widthMm)} × ${fmt(prep.sheet.heightMm)}`,
-                  ],
+                  ['Sheets', `${prep.sheetCount} × ${fmt(prep.sheet.widthMm)} × ${fmt(prep.sheet.heightMm)}`],
                   ['Utilisation', `${(prep.utilisation * 100).toFixed(1)} %`],
-                  ['Stock', `${fmt(prep.thicknessMm)} on a ${prep.machineKind}`],
+                  ['Stock', `${fmt(prep.thicknessMm)} thick, cut on a ${prep.machineKind}`],
                   ...(prep.estimate
                     ? ([
-                        ['Cut length', fmt(prep.estimate.cutLengthMm)],
+                        ['Cut length', formatRunLength(prep.estimate.cutLengthMm, unit)],
                         ['Pierces', String(prep.estimate.pierces)],
-                        ['Machine time', `${prep.estimate.minutes.toFixed(1)} min`],
+                        ['Machine time', formatMinutes(prep.estimate.minutes)],
                         [
                           'Cost',
-                          `${(prep.estimate.machineCost + prep.estimate.materialCost).toFixed(2)} ${prep.estimate.currency} (machine ${prep.estimate.machineCost.toFixed(2)}, material ${prep.estimate.materialCost.toFixed(2)})`,
+                          `${formatMoney(prep.estimate.machineCost + prep.estimate.materialCost, prep.estimate.currency)} (machine ${formatMoney(prep.estimate.machineCost, prep.estimate.currency)}, material ${formatMoney(prep.estimate.materialCost, prep.estimate.currency)})`,
                         ],
                       ] as [string, string][])
                     : []),

@@ -2,7 +2,13 @@ import Box from '@mui/material/Box';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { memo } from 'react';
-import { formatLength, type LengthUnit } from '../../../lib/units';
+import {
+  formatLength,
+  formatMinutes,
+  formatMoney,
+  formatRunLength,
+  type LengthUnit,
+} from '../../../lib/units';
 import { cutFigures, type SheetView } from '../lib/sheet-views';
 import { stockColour } from './piece-colours';
 import { countOf } from '../../../lib/plural';
@@ -53,24 +59,24 @@ export const SheetLayoutView = memo(function SheetLayoutView({
           <Figure label="Sheet size" value={`${fmt(first.widthMm)} × ${fmt(first.heightMm)}`} />
         ) : null}
         <Figure label="Utilisation" value={areaAll > 0 ? percent(areaUsed / areaAll) : '—'} />
-        <Figure label="Cut length" value={fmt(figures.cutLengthMm)} />
+        <Figure label="Cut length" value={formatRunLength(figures.cutLengthMm, unit)} />
         <Figure label="Pierces" value={String(figures.pierces)} />
         {estimate ? (
           <>
-            <Figure label="Machine time" value={`${estimate.minutes.toFixed(1)} min`} />
+            <Figure label="Machine time" value={formatMinutes(estimate.minutes)} />
             {estimate.materialCost !== null ? (
               <Figure
                 label="Cost"
-                value={`${(estimate.machineCost + estimate.materialCost).toFixed(2)} ${estimate.currency}`}
+                value={formatMoney(estimate.machineCost + estimate.materialCost, estimate.currency)}
               />
             ) : null}
-            <Figure label="Machine" value={`${estimate.machineCost.toFixed(2)} ${estimate.currency}`} />
+            <Figure label="Machine" value={formatMoney(estimate.machineCost, estimate.currency)} />
             <Figure
               label="Material"
               value={
                 estimate.materialCost === null
                   ? 'no price for this sheet size'
-                  : `${estimate.materialCost.toFixed(2)} ${estimate.currency}`
+                  : formatMoney(estimate.materialCost, estimate.currency)
               }
             />
           </>

@@ -1,0 +1,24 @@
+import { describe, expect, it } from 'vitest';
+import { formatLength, formatMinutes, formatMoney, formatRunLength } from './units';
+
+describe('figures a workshop reads at a glance', () => {
+  it('gives long cut lengths in metres or feet, short ones as before (1 in = 25.4 mm exactly, 1 ft = 12 in)', () => {
+    expect(formatRunLength(4321, 'mm')).toBe(formatLength(4321, 'mm'));
+    expect(formatRunLength(1_238_848.2, 'mm')).toBe('1,238.8 m');
+    expect(formatRunLength(10_000, 'mm')).toBe('10.0 m');
+    expect(formatRunLength(254, 'in')).toBe('10.000 in');
+    // 1,238,848.2 mm = 48,773.6 in = 4,064.5 ft.
+    expect(formatRunLength(1_238_848.2, 'in')).toBe('4,064.5 ft');
+  });
+
+  it('gives machine time in hours and minutes from an hour on', () => {
+    expect(formatMinutes(12.34)).toBe('12.3 min');
+    expect(formatMinutes(1723.8)).toBe('28 h 44 min');
+    expect(formatMinutes(60)).toBe('1 h 0 min');
+  });
+
+  it('groups thousands in money', () => {
+    expect(formatMoney(9389.52, 'EUR')).toBe('9,389.52 EUR');
+    expect(formatMoney(23.5, 'GBP')).toBe('23.50 GBP');
+  });
+});
