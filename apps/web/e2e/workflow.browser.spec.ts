@@ -105,7 +105,9 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     );
     // With an approved machine profile, the layout is estimated for time and cost.
     await sheets.getByLabel('Estimate time and cost with').selectOption({ index: 1 });
-    expect(await sheets.getByTestId('layout-facts').textContent()).toMatch(/Machine time\d+\.\d min/);
+    expect(await sheets.getByTestId('layout-facts').textContent()).toMatch(
+      /Machine time(\d+\.\d min|[\d,]+ h \d+ min)/,
+    );
     await sheets.screenshot({ path: path.join(SCREENSHOT_DIR, 'studio-sheet-layout.png') });
     expect(workers.some((url) => /layout\.worker/.test(url))).toBe(true);
 
@@ -237,7 +239,7 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     expect(await layout.getByTestId('layout-sheet').count()).toBe(sheetCount);
     expect(await facts.textContent()).toMatch(/Sheet size\d+(\.\d+)? mm × \d+(\.\d+)? mm/);
     // Time and cost from the profile version's speeds and rate and the stock sheet's price.
-    expect(await facts.textContent()).toMatch(/Machine time\d+\.\d min/);
+    expect(await facts.textContent()).toMatch(/Machine time(\d+\.\d min|[\d,]+ h \d+ min)/);
     await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'inch' }).click();
     expect(await facts.textContent()).toMatch(/Sheet size\d+\.\d{3} in × \d+\.\d{3} in/);
     await layout.screenshot({ path: path.join(SCREENSHOT_DIR, 'sheet-layout.png') });
