@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { formatLength } from '../../../lib/units';
-import { sheetsSummary } from './studio-sheets-panel';
+import { materialThickness, sheetsSummary } from './studio-sheets-panel';
 
 const fmt = (mm: number) => formatLength(mm, 'mm');
 
@@ -21,5 +21,22 @@ describe('the sheets summary', () => {
       fmt,
     );
     expect(summary).toBe('At diameter 240.0 mm the pieces need 2 sheets.');
+  });
+});
+
+describe('materials offered for the estimate', () => {
+  const materials = [
+    { id: 'card', nominalThicknessMm: 0.4, measuredThicknessMm: null },
+    { id: 'acrylic', nominalThicknessMm: 3, measuredThicknessMm: 2.95 },
+  ];
+
+  it("takes a material's measured thickness, and matches the design's stock within 0.1 mm", () => {
+    expect(materialThickness(materials, 'acrylic', 3)).toEqual({ thicknessMm: 2.95, matches: true });
+    expect(materialThickness(materials, 'card', 3)).toEqual({ thicknessMm: 0.4, matches: false });
+  });
+
+  it('has nothing to warn of when the material or the design thickness is unknown', () => {
+    expect(materialThickness(materials, 'gone', 3).matches).toBe(true);
+    expect(materialThickness(materials, 'card', null).matches).toBe(true);
   });
 });

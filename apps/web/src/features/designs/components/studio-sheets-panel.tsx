@@ -1,4 +1,4 @@
-import { type DesignSpecInput } from '@kerfwright/contracts';
+import { type DesignSpecInput, type MaterialView } from '@kerfwright/contracts';
 import { type ColourRule, FIT_SHEETS_TOLERANCE } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
@@ -35,6 +35,27 @@ export function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string):
   return value.sheets.length > 0
     ? `At diameter ${size} the pieces need ${countOf(value.sheets.length, 'sheet')}.`
     : `The pieces could not be laid out at diameter ${size}.`;
+}
+
+/** A material within this of the design's stock thickness is taken as that thickness (mm). */
+const THICKNESS_MATCH_MM = 0.1;
+
+/**
+ * A material's thickness (measured, else nominal) and whether it is the design's stock thickness, within
+ * THICKNESS_MATCH_MM; an unknown material or design thickness counts as matching (nothing to warn of).
+ */
+export function materialThickness(
+  materials: readonly Pick<MaterialView, 'id' | 'nominalThicknessMm' | 'measuredThicknessMm'>[],
+  materialId: string,
+  designThicknessMm: number | null,
+): { thicknessMm: number | null; matches: boolean } {
+  const m = materials.find((x) => x.id === materialId);
+  const t = m ? (m.measuredThicknessMm ?? m.nominalThicknessMm) : null;
+  return {
+    thicknessMm: t,
+    matches:
+      t === null || designThicknessMm === null || Math.abs(t - designThicknessMm) <= THICKNESS_MATCH_MM,
+  };
 }
 
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
@@ -91,21 +112,37 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   const profiles = useMachineProfiles(on);
   const materials = useMaterials(on);
   const [machineChoice, setMachineChoice] = useState('');
+  // Materials of the design's thickness first: another thickness has other speeds, and the slots would not fit.
+  const designThicknessMm = (layoutSpec ?? spec)?.stock.thicknessMm ?? null;
+  const thickness = (materialId: string) =>
+    materialThickness(materials.data?.items ?? [], materialId, designThicknessMm);
   const choices = useMemo(
     () =>
-      (profiles.data?.items ?? []).flatMap((p) =>
-        p.currentApproved
-          ? p.currentApproved.settings.map((st) => ({
-              key: `${p.currentApproved?.id}/${st.materialId}`,
-              label: `${p.name} v${p.currentApproved?.number} · ${st.materialName}`,
-              version: p.currentApproved,
-              setting: st,
-            }))
-          : [],
-      ),
-    [profiles.data],
+      (profiles.data?.items ?? [])
+        .flatMap((p) =>
+          p.currentApproved
+            ? p.currentApproved.settings.map((st) => ({
+                key: `${p.currentApproved?.id}/${st.materialId}`,
+                label: `${p.name} v${p.currentApproved?.number} · ${st.materialName}`,
+                version: p.currentApproved,
+                setting: st,
+              }))
+            : [],
+        )
+        .sort(
+          (a, b) =>
+            Number(thickness(b.setting.materialId).matches) - Number(thickness(a.setting.materialId).matches),
+        ),
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- thickness reads the two below
+    [profiles.data, materials.data, designThicknessMm],
   );
   const choice = choices.find((c) => c.key === machineChoice);
+  const chosen = choice ? thickness(choice.setting.materialId) : null;
+  const thicknessWarning =
+    choice && chosen && !chosen.matches && chosen.thicknessMm !== null && designThicknessMm !== null
+      ? `${choice.setting.materialName} is ${fmt(chosen.thicknessMm)} thick, but this design is for ` +
+        `${fmt(designThicknessMm)} stock: its slots would not fit that material, and the estimate uses its speeds.`
+      : null;
   const estimate = useMemo(() => {
     if (!choice?.version || !value || value.sheets.length === 0 || !sheet) return null;
     const material = materials.data?.items.find((m) => m.id === choice.setting.materialId);
@@ -181,6 +218,11 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
                 </option>
               ))}
             </TextField>
+          ) : null}
+          {thicknessWarning ? (
+            <Alert severity="warning" sx={{ mb: 1 }} data-testid="estimate-thickness">
+              {thicknessWarning}
+            </Alert>
           ) : null}
           {value.sheets.length > 0 ? (
             <SheetLayoutView sheets={value.sheets} unit={unit} estimate={estimate} />
