@@ -1,3 +1,5 @@
+import * as fs from 'node:fs';
+import * as path from 'node:path';
 import { buildModel } from './build';
 import { listSolids, getSolid } from './solids/catalogue';
 import { suggestSizes } from './pieces/place';
@@ -60,6 +62,16 @@ describe('an uploaded solid that is not convex', () => {
 });
 
 describe('report', () => {
+  it('lists each dihedral angle of an upload once, though its rounded coordinates split it by a hair', () => {
+    // samples/specs/pentagonal-spindle.json: a bipyramid over a regular pentagon has two kinds of edge (to
+    // the apexes, around the equator), so two dihedral angles (derived); its 6-decimal coordinates gave
+    // 118.8158 and 118.8159 for one of them.
+    const spec = JSON.parse(
+      fs.readFileSync(path.join(__dirname, '../../../samples/specs/pentagonal-spindle.json'), 'utf8'),
+    ) as unknown;
+    expect(buildModel(spec).report.solid.dihedralAnglesDeg).toHaveLength(2);
+  });
+
   it('has unit outward normals, counter-clockwise outlines with their areas, and slot counts that add up', () => {
     const r = buildModel(octahedronHexagons()).report;
     expect(r.solid).toMatchObject({ name: 'octahedron', faceCount: 8 });

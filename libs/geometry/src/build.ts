@@ -641,7 +641,13 @@ function makeReport(
   removed: number,
   issues: IssueList,
 ): DesignReport {
-  const dihedrals = [...new Set(solid.edges.map((e) => round(e.dihedralDeg, 4)))].sort((a, b) => a - b);
+  // The distinct dihedral angles: within 0.001° of the last one kept counts as the same (an upload's rounded
+  // coordinates give 118.8158 and 118.8159 for one angle).
+  const dihedrals: number[] = [];
+  for (const a of solid.edges.map((e) => e.dihedralDeg).sort((x, y) => x - y)) {
+    const last = dihedrals[dihedrals.length - 1];
+    if (last === undefined || a - last > 1e-3) dihedrals.push(round(a, 4));
+  }
   const planeDistanceMm = Math.min(...pieces.map((p) => p.frame.distance));
   const diameterMm = 2 * Math.max(...pieces.map((p) => Math.hypot(p.frame.distance, p.circumradiusMm)));
   const pieceReports: ReportPiece[] = pieces.map((p) => ({

@@ -4,9 +4,13 @@ declare module 'obj-file-parser' {
     y: number;
     z: number;
   }
+  interface ObjFace {
+    vertices: { vertexIndex: number }[];
+  }
   interface ObjModel {
     name: string;
     vertices: ObjVertex[];
+    faces: ObjFace[];
   }
   export default class OBJFile {
     constructor(text: string, defaultModelName?: string);

@@ -117,6 +117,95 @@ describe('uploaded solids', () => {
     expect(s.faces).toHaveLength(6);
   });
 
+  it('merges a point off a face centre by the stated tolerance (1e-4 × the radius), not half of it', () => {
+    // A ±1 cube (radius √3, tolerance 1.73e-4) with a point 1e-4 and 1.5e-4 above its top face's centre.
+    for (const lift of [1e-4, 1.5e-4]) {
+      const corners = [-1, 1].flatMap((x) => [-1, 1].flatMap((y) => [-1, 1].map((z) => `${x} ${y} ${z}`)));
+      const text = ['OFF', '9 0 0', ...corners, `0 0 ${1 + lift}`].join('\n');
+      const s = parseSolidText('off', text);
+      expect(s.faces).toHaveLength(6);
+      expect(s.vertices).toHaveLength(8);
+    }
+  });
+
+  it('reads a turned cube exported with points along its edges and across its faces, rounded to a few decimals', () => {
+    // A mesh as CAD and modelling programs export it: each face a k × k grid, coordinates rounded. Points
+    // along an edge or inside a face lie a hair off it after rounding; the solid is still the cube (6 squares,
+    // 8 corners, 12 edges at 90°: derived).
+    const turn = (p: number[]): number[] => {
+      const [a, b] = [0.7, 0.4];
+      const [x0, y0, z0] = p as [number, number, number];
+      const x = x0 * Math.cos(a) - y0 * Math.sin(a);
+      const y1 = x0 * Math.sin(a) + y0 * Math.cos(a);
+      return [x, y1 * Math.cos(b) - z0 * Math.sin(b), y1 * Math.sin(b) + z0 * Math.cos(b)];
+    };
+    for (const k of [2, 3, 4])
+      for (const decimals of [4, 6, 8]) {
+        const lines = new Set<string>();
+        for (let i = 0; i <= k; i++)
+          for (let j = 0; j <= k; j++)
+            for (const axis of [0, 1, 2])
+              for (const side of [-1, 1]) {
+                const p = [0, 0, 0];
+                p[axis] = side;
+                p[(axis + 1) % 3] = -1 + (2 * i) / k;
+                p[(axis + 2) % 3] = -1 + (2 * j) / k;
+                lines.add(
+                  `v ${turn(p)
+                    .map((c) => c.toFixed(decimals))
+                    .join(' ')}`,
+                );
+              }
+        const s = parseSolidText('obj', [...lines].join('\n'));
+        expect([k, decimals, s.faces.length, s.vertices.length, s.edges.length]).toEqual([
+          k,
+          decimals,
+          6,
+          8,
+          12,
+        ]);
+        for (const e of s.edges) expect(e.dihedralDeg).toBeCloseTo(90, 2);
+        expect(s.interiorPointCount).toBeUndefined();
+      }
+  });
+
+  it('says an extruded L is not convex: its inner walls lie on no face of the hull', () => {
+    // An L-shaped prism as OFF with its faces: the corner (1, 1) of the L lies on the hull's top and bottom
+    // faces, not inside, so only the upload's own faces (two inner walls off every hull face) tell.
+    const L = `OFF
+12 8 0
+0 0 0
+2 0 0
+2 1 0
+1 1 0
+1 2 0
+0 2 0
+0 0 1
+2 0 1
+2 1 1
+1 1 1
+1 2 1
+0 2 1
+6 5 4 3 2 1 0
+6 6 7 8 9 10 11
+4 0 1 7 6
+4 1 2 8 7
+4 2 3 9 8
+4 3 4 10 9
+4 4 5 11 10
+4 5 0 6 11
+`;
+    const s = parseSolidText('off', L);
+    expect(s.faces).toHaveLength(7);
+    expect(s.interiorPointCount).toBe(2);
+    // The same box without the notch, with its faces, is convex.
+    const box = L.replace('2 1 0\n1 1 0\n1 2 0', '2 1 0\n2 2 0\n1 2 0').replace(
+      '2 1 1\n1 1 1\n1 2 1',
+      '2 1 1\n2 2 1\n1 2 1',
+    );
+    expect(parseSolidText('off', box).interiorPointCount).toBeUndefined();
+  });
+
   it('rejects bad uploads with a coded error', () => {
     expect(code(() => parseSolidText('obj', 'hello, this is not a mesh'))).toBe('SOLID.NOT_OBJ');
     expect(code(() => parseSolidText('off', 'v 0 0 0\nv 1 0 0'))).toBe('SOLID.NOT_OFF');

@@ -11,8 +11,19 @@ export const MAX_SOLID_FACES = 200;
 
 export type SolidTextFormat = 'obj' | 'off';
 
+/** A mesh as uploaded: its vertices and, where the file gives them, its faces (0-based vertex indices). */
+export interface UploadedMesh {
+  points: Vec3[];
+  faces: number[][];
+}
+
 /** Vertex coordinates from Wavefront OBJ text (obj-file-parser; all objects and groups). */
 export function parseObjVertices(text: string): Vec3[] {
+  return parseObj(text).points;
+}
+
+/** Vertices and faces from Wavefront OBJ text; face indices are 1-based across the file (OBJ's own rule). */
+export function parseObj(text: string): UploadedMesh {
   if (!/^\s*v\s/m.test(text))
     throw new SolidError('SOLID.NOT_OBJ', 'the text has no OBJ vertex lines ("v x y z")');
   const lines = text.split(/\r?\n/);
@@ -28,16 +39,29 @@ export function parseObjVertices(text: string): Vec3[] {
   } catch (e) {
     throw new SolidError('SOLID.NOT_OBJ', `the OBJ text could not be read: ${(e as Error).message}`);
   }
-  return parsed.models.flatMap((m) => m.vertices.map((v): Vec3 => [v.x, v.y, v.z]));
+  const points = parsed.models.flatMap((m) => m.vertices.map((v): Vec3 => [v.x, v.y, v.z]));
+  const faces = parsed.models.flatMap((m) =>
+    (m.faces ?? []).map((f) => f.vertices.map((v) => v.vertexIndex - 1)),
+  );
+  return {
+    points,
+    faces: faces.filter((f) => f.every((i) => Number.isInteger(i) && i >= 0 && i < points.length)),
+  };
 }
 
 /**
  * Vertex coordinates from OFF text (Object File Format): a header keyword OFF (or a variant such as
  * COFF, NOFF, STOFF whose vertex lines carry extra numbers after x y z), the counts "vertexCount
  * faceCount edgeCount" (on the header line or the next), then one vertex per line. Comments start with
- * #. Face lines are not needed (the hull is recomputed) and are not read.
+ * #. The hull is recomputed from the vertices; face lines ("k i1 … ik", 0-based) are read where well formed,
+ * only to tell whether the upload was convex.
  */
 export function parseOffVertices(text: string): Vec3[] {
+  return parseOff(text).points;
+}
+
+/** Vertices and the well-formed face lines of OFF text (see parseOffVertices). */
+export function parseOff(text: string): UploadedMesh {
   const lines = text
     .split(/\r?\n/)
     .map((l) => l.replace(/#.*/, '').trim())
@@ -57,12 +81,21 @@ export function parseOffVertices(text: string): Vec3[] {
   }
   if (nv > MAX_SOLID_VERTICES) throw tooMany(nv);
   if (lines.length < nv) throw new SolidError('SOLID.NOT_OFF', `the OFF text ends before its ${nv} vertices`);
-  return lines.slice(0, nv).map((l, i) => {
+  const points = lines.slice(0, nv).map((l, i) => {
     const t = l.split(/\s+/);
     if (t.length < 3)
       throw new SolidError('SOLID.NOT_OFF', `OFF vertex ${i + 1} has fewer than three coordinates`);
     return [Number(t[0]), Number(t[1]), Number(t[2])] as Vec3;
   });
+  const faces: number[][] = [];
+  for (const l of lines.slice(nv, nv + nf)) {
+    const t = l.split(/\s+/).map(Number);
+    const k = t[0] ?? 0;
+    const idx = t.slice(1, 1 + k);
+    if (k >= 3 && idx.length === k && idx.every((i) => Number.isInteger(i) && i >= 0 && i < nv))
+      faces.push(idx);
+  }
+  return { points, faces };
 }
 
 const tooMany = (n: number) =>
@@ -83,13 +116,20 @@ export function parseSolidText(format: SolidTextFormat, text: string, name?: str
       `the file is ${text.length} characters long; at most ${MAX_SOLID_TEXT_LENGTH} are accepted`,
     );
   }
-  let points: Vec3[];
-  if (format === 'obj') points = parseObjVertices(text);
-  else if (format === 'off') points = parseOffVertices(text);
+  let mesh: UploadedMesh;
+  if (format === 'obj') mesh = parseObj(text);
+  else if (format === 'off') mesh = parseOff(text);
   else throw new SolidError('SOLID.FORMAT', `unknown solid format "${String(format)}" (use obj or off)`);
+  const points = mesh.points;
   if (points.length > MAX_SOLID_VERTICES) throw tooMany(points.length);
   if (points.some((p) => !p.every((c) => typeof c === 'number' && Number.isFinite(c)))) {
     throw new SolidError('SOLID.NOT_FINITE', 'a vertex coordinate is missing, NaN or infinite');
   }
-  return solidFromPoints(`uploaded-${format}`, name ?? `uploaded-${format}`, points, MAX_SOLID_FACES);
+  return solidFromPoints(
+    `uploaded-${format}`,
+    name ?? `uploaded-${format}`,
+    points,
+    MAX_SOLID_FACES,
+    mesh.faces,
+  );
 }

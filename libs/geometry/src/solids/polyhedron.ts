@@ -31,8 +31,9 @@ export interface Solid {
   /** Pairs of faces with opposite normals (parallel planes on both sides of the centre). */
   oppositeFaces: [number, number][];
   /**
-   * Uploads only: how many of the given points lie inside the hull, clear of every face (by more than 10 ×
-   * the coplanar tolerance). More than none means the uploaded solid was not convex, and its hull is used.
+   * Uploads only: how many of the given points the hull leaves inside: clear of every face (by more than 10 ×
+   * the coplanar tolerance), or corners of a face of the upload that lies on no face of the hull. More than
+   * none means the uploaded solid was not convex, and its hull is used.
    */
   interiorPointCount?: number;
 }
@@ -67,6 +68,7 @@ export function solidFromPoints(
   name: string,
   input: readonly Vec3[],
   maxFaces = Infinity,
+  meshFaces: readonly (readonly number[])[] = [],
 ): Solid {
   for (const p of input) {
     if (!p.every((c) => Number.isFinite(c))) {
@@ -86,38 +88,21 @@ export function solidFromPoints(
   const tol = COPLANAR_TOLERANCE * radius;
   assertNotFlat(input, tol);
 
-  const triangles = hullTriangles(input);
-  const mean = scale3(
-    input.reduce((s, p) => add3(s, p), [0, 0, 0] as Vec3),
-    1 / input.length,
-  );
-  // Group triangles into faces by plane, largest triangles first.
-  const tris = triangles
-    .map((t) => {
-      const [a, b, c] = t.map((i) => at(input, i)) as [Vec3, Vec3, Vec3];
-      let n = cross3(sub3(b, a), sub3(c, a));
-      if (dot3(n, sub3(a, mean)) < 0) n = scale3(n, -1);
-      return { t, n: normalize3(n), area: length3(n) / 2, a };
-    })
-    .filter((x) => x.area > tol * tol)
-    .sort((x, y) => y.area - x.area);
-  const groups: { n: Vec3; d: number; pts: Set<number> }[] = [];
-  for (const tri of tris) {
-    const onPlane = (g: { n: Vec3; d: number }) =>
-      dot3(g.n, tri.n) > 0.9998 && tri.t.every((i) => Math.abs(dot3(g.n, at(input, i)) - g.d) <= tol);
-    let g = groups.find(onPlane);
-    if (!g) {
-      g = { n: tri.n, d: dot3(tri.n, tri.a), pts: new Set() };
-      groups.push(g);
-      if (groups.length > maxFaces) {
-        throw new SolidError(
-          'SOLID.TOO_MANY_FACES',
-          `the hull has more than ${maxFaces} faces after merging coplanar facets; at most ${maxFaces} are accepted`,
-        );
-      }
+  // Noise in an export (edge midpoints and face grids written to a few decimals) leaves points a hair off
+  // the true faces and edges; faces built with them disagree about shared edges. So the corners are found
+  // first (points on three or more face planes) and the hull is built again from them alone.
+  let points: readonly Vec3[] = input;
+  const first = facePlanes(input, tol, Infinity);
+  const corners = cornerPoints(input, first, tol);
+  if (corners.length >= 4 && corners.length < input.length) {
+    try {
+      assertNotFlat(corners, tol);
+      points = corners;
+    } catch {
+      points = input;
     }
-    for (const i of tri.t) g.pts.add(i);
   }
+  const groups = facePlanes(points, tol, maxFaces);
 
   // Order each face's corners and drop points inside a face or along an edge.
   const rawFaces = groups.map((g) => {
@@ -125,7 +110,7 @@ export function solidFromPoints(
     const u = normalize3(anyPerpendicular(g.n));
     const v = cross3(g.n, u);
     const proj = idx.map((i): Vec2 & { i?: number } => {
-      const p = at(input, i);
+      const p = at(points, i);
       return [dot3(p, u), dot3(p, v)];
     });
     const hull = convexHull2WithIndex(proj, idx, tol);
@@ -134,7 +119,7 @@ export function solidFromPoints(
 
   const used = [...new Set(rawFaces.flat())].sort((a, b) => a - b);
   const remap = new Map(used.map((old, i) => [old, i]));
-  const pts = used.map((i) => at(input, i));
+  const pts = used.map((i) => at(points, i));
   const centroid = volumeCentroid(
     pts,
     rawFaces.map((f) => f.map((i) => remap.get(i) ?? 0)),
@@ -156,12 +141,122 @@ export function solidFromPoints(
   const solid = assembleSolid(id, name, vertices, faces);
   // Points well inside the hull (dents, hollows, a second inner shell) are dropped by taking the hull: count them
   // so the build can say the upload was not convex. Points on a face within rounding are not counted.
-  let interior = 0;
-  for (const p of input) {
+  const interior = new Set<number>();
+  input.forEach((p, i) => {
     const q = sub3(p, centroid);
-    if (faces.every((f) => dot3(f.normal, q) - f.distance < -10 * tol)) interior++;
+    if (faces.every((f) => dot3(f.normal, q) - f.distance < -10 * tol)) interior.add(i);
+  });
+  // A face of the upload off every face plane of the hull lies inside it (an extruded L's inner walls, whose
+  // corners are all on the hull's top and bottom): its corners that are no corner of the hull were dropped too.
+  const onPlane = (i: number, f: SolidFace) =>
+    Math.abs(dot3(f.normal, sub3(at(input, i), centroid)) - f.distance) <= 2 * tol;
+  const isCorner = (i: number) => vertices.some((v) => length3(sub3(v, sub3(at(input, i), centroid))) <= tol);
+  for (const mf of meshFaces) {
+    if (faces.some((f) => mf.every((i) => onPlane(i, f)))) continue;
+    for (const i of mf) if (!isCorner(i)) interior.add(i);
   }
-  return interior > 0 ? { ...solid, interiorPointCount: interior } : solid;
+  return interior.size > 0 ? { ...solid, interiorPointCount: interior.size } : solid;
+}
+
+interface FacePlane {
+  /** Outward unit normal (the area-weighted mean of its triangles' normals). */
+  n: Vec3;
+  /** Offset of the plane: the mean of n · p over its points. */
+  d: number;
+  pts: Set<number>;
+}
+
+/**
+ * The hull's triangles merged into face planes: a triangle joins a plane when its normal is within about 1° of
+ * the plane's and its corners lie within `tol` of it. Each plane is refitted as triangles join (normal: their
+ * area-weighted mean; offset: the mean over its points), so a face whose first triangle is tilted by a point
+ * slightly off it still gathers the rest. The corners of each merged plane are checked against the refitted
+ * plane; should any lie further than tol from it, the planes are made again without refitting.
+ */
+function facePlanes(points: readonly Vec3[], tol: number, maxFaces: number): FacePlane[] {
+  const mean = scale3(
+    points.reduce((s, p) => add3(s, p), [0, 0, 0] as Vec3),
+    1 / points.length,
+  );
+  const tris = hullTriangles(points)
+    .map((t) => {
+      const [a, b, c] = t.map((i) => at(points, i)) as [Vec3, Vec3, Vec3];
+      let n = cross3(sub3(b, a), sub3(c, a));
+      if (dot3(n, sub3(a, mean)) < 0) n = scale3(n, -1);
+      const longest = Math.max(length3(sub3(b, a)), length3(sub3(c, b)), length3(sub3(a, c)));
+      // Its least height: a triangle within tol of a line (a point a hair off an edge) has no plane of its own.
+      return { t, n: normalize3(n), area: length3(n) / 2, height: length3(n) / longest };
+    })
+    .filter((x) => x.height > tol)
+    .sort((x, y) => y.area - x.area);
+  const build = (refit: boolean): FacePlane[] => {
+    const groups: (FacePlane & { sumN: Vec3; sumP: Vec3 })[] = [];
+    for (const tri of tris) {
+      const near = (g: FacePlane, slack: number) =>
+        dot3(g.n, tri.n) > 0.9998 &&
+        tri.t.every((i) => Math.abs(dot3(g.n, at(points, i)) - g.d) <= slack * tol);
+      // Within tol of the plane as it stands; or, refitting, within tol of the plane refitted with it.
+      const joinsRefitted = (g: (typeof groups)[number]) => {
+        if (!refit || !near(g, 3)) return false;
+        const n = normalize3(add3(g.sumN, scale3(tri.n, tri.area)));
+        const all = new Set([...g.pts, ...tri.t]);
+        let sum = 0;
+        for (const i of all) sum += dot3(n, at(points, i));
+        const d = sum / all.size;
+        for (const i of all) if (Math.abs(dot3(n, at(points, i)) - d) > tol) return false;
+        return true;
+      };
+      let g = groups.find((c) => near(c, 1)) ?? groups.find(joinsRefitted);
+      if (!g) {
+        const a = at(points, tri.t[0]);
+        g = { n: tri.n, d: dot3(tri.n, a), pts: new Set(), sumN: [0, 0, 0], sumP: [0, 0, 0] };
+        groups.push(g);
+        if (groups.length > maxFaces) {
+          throw new SolidError(
+            'SOLID.TOO_MANY_FACES',
+            `the hull has more than ${maxFaces} faces after merging coplanar facets; at most ${maxFaces} are accepted`,
+          );
+        }
+      }
+      for (const i of tri.t) {
+        if (g.pts.has(i)) continue;
+        g.pts.add(i);
+        g.sumP = add3(g.sumP, at(points, i));
+      }
+      if (refit) {
+        // The mean of n · p over the points is n · (their mean).
+        g.sumN = add3(g.sumN, scale3(tri.n, tri.area));
+        g.n = normalize3(g.sumN);
+        g.d = dot3(g.n, g.sumP) / g.pts.size;
+      }
+    }
+    return groups;
+  };
+  const refitted = build(true);
+  const fits = refitted.every((g) =>
+    [...g.pts].every((i) => Math.abs(dot3(g.n, at(points, i)) - g.d) <= tol),
+  );
+  return fits ? refitted : build(false);
+}
+
+/**
+ * The points that are corners of the solid: on three or more face planes (within 2 × tol), one of each
+ * cluster of points closer than tol to each other. Points on one plane lie inside a face, on two along an edge.
+ */
+function cornerPoints(points: readonly Vec3[], planes: readonly FacePlane[], tol: number): Vec3[] {
+  // A face split in two by noise gives two nearly equal planes: those count once.
+  const distinct: FacePlane[] = [];
+  for (const g of planes)
+    if (!distinct.some((h) => dot3(h.n, g.n) > 0.9998 && Math.abs(h.d - g.d) <= 2 * tol)) distinct.push(g);
+  const out: Vec3[] = [];
+  for (const p of points) {
+    let on = 0;
+    for (const g of distinct) if (Math.abs(dot3(g.n, p) - g.d) <= 2 * tol && ++on >= 3) break;
+    if (on < 3) continue;
+    if (out.some((q) => length3(sub3(p, q)) <= tol)) continue;
+    out.push(p);
+  }
+  return out;
 }
 
 type Mat3 = readonly [Vec3, Vec3, Vec3]; // rows
