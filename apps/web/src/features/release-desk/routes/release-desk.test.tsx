@@ -93,7 +93,11 @@ const released = jobFixture('j-released', 'released', 'Turned squares');
 const packing = jobFixture('j-packing', 'approved', 'Star lamp');
 const waiting = jobFixture('j-waiting', 'approved', 'Not released yet');
 
-function stubDesk(acknowledged: boolean, pack: Partial<ExportView> | (() => Partial<ExportView>) = {}) {
+function stubDesk(
+  acknowledged: boolean,
+  pack: Partial<ExportView> | (() => Partial<ExportView>) = {},
+  extra: Parameters<typeof stubFetch>[0] = {},
+) {
   const safety: JobSafetyView = {
     jobId: released.id,
     machineKind: 'co2-laser',
@@ -132,6 +136,7 @@ function stubDesk(acknowledged: boolean, pack: Partial<ExportView> | (() => Part
     'GET /api/exports/e-p': () => json(200, exportFixture('e-p', packing.id, 'running', 65)),
     [`GET /api/jobs/${released.id}/safety`]: () => json(200, safety),
     [`POST /api/jobs/${released.id}/cut`]: () => json(200, { ...released, state: 'cut', actions: [] }),
+    ...extra,
   });
 }
 
@@ -175,6 +180,26 @@ describe('release desk', () => {
     } finally {
       delete (Element.prototype as { scrollIntoView?: unknown }).scrollIntoView;
     }
+  });
+
+  it('once the cut is recorded, closes the job from the desk', async () => {
+    const cut = { ...released, state: 'cut' as const, actions: ['close' as const], version: 8 };
+    const stub = stubDesk(
+      true,
+      {},
+      {
+        [`GET /api/jobs/${released.id}`]: () => json(200, { ...cut, transitions: [] }),
+        [`POST /api/jobs/${released.id}/close`]: () => json(200, { ...cut, state: 'closed', actions: [] }),
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await user.click(await within(job).findByRole('button', { name: 'Close the job' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Close the job?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Close the job' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 8 });
   });
 
   it('offers no download and no cut record before the safety notices are acknowledged', async () => {

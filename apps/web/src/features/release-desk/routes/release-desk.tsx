@@ -3,6 +3,10 @@ import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import CircularProgress from '@mui/material/CircularProgress';
+import Dialog from '@mui/material/Dialog';
+import DialogActions from '@mui/material/DialogActions';
+import DialogContent from '@mui/material/DialogContent';
+import DialogTitle from '@mui/material/DialogTitle';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Table from '@mui/material/Table';
@@ -172,7 +176,7 @@ function DeskJob({ job }: { job: JobView }) {
   }, []);
   const safety = useJobSafety(job.id, true);
   const action = useTakeJobAction();
-  const [open, setOpen] = useState<'safety' | 'cut' | null>(null);
+  const [open, setOpen] = useState<'safety' | 'cut' | 'close' | null>(null);
   const acknowledged = safety.data?.acknowledged === true;
   const canCut = job.actions.includes('cut');
   return (
@@ -205,6 +209,18 @@ function DeskJob({ job }: { job: JobView }) {
             }}
           >
             Record the cut
+          </Button>
+        ) : null}
+        {job.actions.includes('close') ? (
+          // Once the cut is recorded, the operator finishes the job here rather than on its page.
+          <Button
+            variant="contained"
+            onClick={() => {
+              action.reset();
+              setOpen('close');
+            }}
+          >
+            Close the job
           </Button>
         ) : null}
       </Stack>
@@ -246,6 +262,32 @@ function DeskJob({ job }: { job: JobView }) {
           }
           onClose={() => setOpen(null)}
         />
+      ) : null}
+      {open === 'close' ? (
+        <Dialog open onClose={() => setOpen(null)} aria-labelledby="desk-close-title">
+          <DialogTitle id="desk-close-title">Close the job?</DialogTitle>
+          <DialogContent>
+            {action.error ? <FormErrorAlert error={action.error} /> : null}
+            <Typography>
+              {`The cut of ${job.designName} is recorded; closing it takes it off the desk. Its files stay downloadable.`}
+            </Typography>
+          </DialogContent>
+          <DialogActions>
+            <Button onClick={() => setOpen(null)}>Cancel</Button>
+            <Button
+              variant="contained"
+              disabled={action.isPending}
+              onClick={() =>
+                action.mutate(
+                  { id: job.id, action: 'close', body: { version: job.version } },
+                  { onSuccess: () => setOpen(null) },
+                )
+              }
+            >
+              Close the job
+            </Button>
+          </DialogActions>
+        </Dialog>
       ) : null}
     </Paper>
   );
