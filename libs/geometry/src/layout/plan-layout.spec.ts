@@ -26,20 +26,26 @@ function spacing(
   return { min, overlaps };
 }
 
+/** Squares on the cube's planes in 6 mm stock, cut with a 3.175 mm router bit (a design without errors). */
+function routerSquares() {
+  const model = buildModel(
+    cubeSquares45(1.5, {
+      scale: { by: 'diameter', mm: 300 },
+      stock: { thicknessMm: 6, flexible: false },
+      machine: { kind: 'router', toolDiameterMm: 3.175 },
+      fitMm: 0.1,
+    }),
+  );
+  expect(model.report.errors).toEqual([]);
+  return model;
+}
+
 describe('layoutModel: room for the cutter between pieces', () => {
   // Common practice: a router's tool offset puts the bit's whole diameter outside the nominal outline the
   // files carry, so two pieces closer than the diameter lose material to each other's cut; at exactly one
   // diameter the two tool paths coincide (a path cut twice), so they are kept 1 mm apart (our choice).
   it('lays router pieces at least a bit diameter and 1 mm apart when the gap asked for is smaller', () => {
-    const model = buildModel(
-      cubeSquares45(1.5, {
-        scale: { by: 'diameter', mm: 300 },
-        stock: { thicknessMm: 6, flexible: false },
-        machine: { kind: 'router', toolDiameterMm: 3.175 },
-        fitMm: 0.1,
-      }),
-    );
-    expect(model.report.errors).toEqual([]);
+    const model = routerSquares();
     const layout = layoutModel(model, {
       sheet: { widthMm: 600, heightMm: 400 },
       marginMm: 5,
@@ -60,15 +66,7 @@ describe('layoutModel: room for the cutter between pieces', () => {
   it('keeps router pieces a bit diameter from the sheet edges when the margin asked for is smaller', () => {
     // Common practice: the bit runs outside the nominal outline, so a piece closer to the edge than one bit
     // diameter has its cut run off the stock (and the bit's centre off a bed no larger than the sheet).
-    const model = buildModel(
-      cubeSquares45(1.5, {
-        scale: { by: 'diameter', mm: 300 },
-        stock: { thicknessMm: 6, flexible: false },
-        machine: { kind: 'router', toolDiameterMm: 3.175 },
-        fitMm: 0.1,
-      }),
-    );
-    expect(model.report.errors).toEqual([]);
+    const model = routerSquares();
     const sheet = { widthMm: 600, heightMm: 400 };
     const layout = layoutModel(model, { sheet, marginMm: 0, gapMm: 8, colours: { count: 1 }, quantity: 2 });
     if (!layout.ok) throw new Error(layout.message);
