@@ -29,7 +29,12 @@ export function SendBackDialog(
       open={props.open}
       titleId="send-back-title"
       title={`${props.verb ?? 'Send back'} ${props.subject}`}
-      intro="It goes back with your reason, which its author sees and answers with a changed version."
+      intro={
+        // "Return" is said of a job (as the job page says), "Send back" of a profile version.
+        props.verb === 'Return'
+          ? 'The job goes back to its requester with your reason; they can change the request and send it again.'
+          : 'The version goes back to its author as a draft with your reason; they can change it and submit it again.'
+      }
       error={props.error}
       busy={props.busy}
       submitLabel={`${props.verb ?? 'Send back'} with this reason`}

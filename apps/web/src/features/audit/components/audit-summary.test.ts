@@ -21,7 +21,61 @@ describe('audit summaries', () => {
         before: { number: 2, state: 'submitted', returnReason: null, lockVersion: 2 },
         after: { number: 2, state: 'draft', returnReason: 'Measure two more coupons', lockVersion: 3 },
       }),
-    ).toBe('Profile version “version 2” sent back (submitted → draft; reason: Measure two more coupons)');
+    ).toBe('Profile version 2 sent back (submitted → draft; reason: Measure two more coupons)');
+  });
+
+  it('names a version by its profile when the entry carries the profile name', () => {
+    expect(
+      auditSummary({
+        action: 'machine-profile-version.submit',
+        entityType: 'machine-profile-version',
+        before: { number: 2, state: 'draft', profileName: 'Bay 3 laser' },
+        after: { number: 2, state: 'submitted', profileName: 'Bay 3 laser' },
+      }),
+    ).toBe('Profile “Bay 3 laser” version 2 submitted for approval (draft → submitted)');
+  });
+
+  it('names the job by its design when the entry carries it', () => {
+    expect(
+      auditSummary({
+        action: 'job.approve',
+        entityType: 'job',
+        before: { state: 'prepared', designName: 'Octahedron hexagons' },
+        after: { state: 'approved', designName: 'Octahedron hexagons' },
+      }),
+    ).toBe('Job “Octahedron hexagons” approved (prepared → approved)');
+  });
+
+  it('never shows a record id: an adoption says what happened, an id field only that it changed', () => {
+    const record = {
+      id: '0b7d1c9e-5f7a-4c1e-9d3f-2a6b8c4e1f00',
+      profileId: '5e2f8a10-3c4b-4d6e-8f9a-0b1c2d3e4f50',
+      materialId: '7a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c40',
+      materialName: '',
+      kerfMm: 0.18,
+      adoptedVersionId: null,
+    };
+    const adopted = { ...record, adoptedVersionId: 'c80d26af-1234-4abc-9def-0123456789ab' };
+    const line = auditSummary({
+      action: 'kerf-record.adopt',
+      entityType: 'kerf-record',
+      before: record,
+      after: adopted,
+    });
+    expect(line).toBe('Kerf record adopted into a draft (0.18 mm)');
+    expect(line).not.toMatch(/c80d26af|adopted version id/);
+
+    const updated = auditSummary({
+      action: 'material.update',
+      entityType: 'material',
+      before: { name: 'Felt', ownerId: null, sourceRef: 'c80d26af-1234-4abc-9def-0123456789ab' },
+      after: {
+        name: 'Felt',
+        ownerId: '0b7d1c9e-5f7a-4c1e-9d3f-2a6b8c4e1f00',
+        sourceRef: '7a1b2c3d-4e5f-4a6b-8c7d-9e0f1a2b3c40',
+      },
+    });
+    expect(updated).toBe('Material “Felt” changed (changed owner set, source ref changed)');
   });
 
   it('lists the fields an update changed, leaving out bookkeeping fields', () => {

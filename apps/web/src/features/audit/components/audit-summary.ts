@@ -64,19 +64,32 @@ function short(value: string, max = 120): string {
 }
 
 /** The name of the record the event concerns, as far as its before/after snapshots tell. */
-function subjectOf(before: Fields | null, after: Fields | null): string | null {
+function subjectOf(entityType: string, before: Fields | null, after: Fields | null): string | null {
   for (const snapshot of [after, before]) {
     if (!snapshot) continue;
+    if (entityType === 'machine-profile-version' && typeof snapshot.number === 'number') {
+      // A version is named by its number, and by its profile when the snapshot carries the profile's name.
+      const profile = text(snapshot.profileName);
+      return profile ? `“${profile}” version ${snapshot.number}` : `version ${snapshot.number}`;
+    }
     const name =
       text(snapshot.name) ??
       text(snapshot.designName) ??
       text(snapshot.displayName) ??
       text(snapshot.materialName) ??
       text(snapshot.email);
-    if (name) return name;
+    if (name) return `“${name}”`;
     if (typeof snapshot.number === 'number') return `version ${snapshot.number}`;
   }
   return null;
+}
+
+/** Record ids (UUIDs): they name a record to the machine, not to a reader. */
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** A field that holds a record's id ("adoptedVersionId", "submittedBy") rather than a value a reader knows. */
+function isIdField(key: string, ...values: unknown[]): boolean {
+  return /(^id|Id|Ids|By)$/.test(key) || values.some((v) => typeof v === 'string' && UUID.test(v.trim()));
 }
 
 /** A field's name as people read it: "laserAllowed" → "laser allowed", "nominalThicknessMm" → "nominal thickness (mm)". */
@@ -84,6 +97,8 @@ export function fieldLabel(key: string): string {
   const unit = /Mm$/.test(key) ? ' (mm)' : '';
   const words = key
     .replace(/Mm$/, '')
+    // An id field reads as what it points to: "adoptedVersionId" → "adopted version".
+    .replace(/(.)Ids?$/, '$1')
     .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
     .replace(/[_-]+/g, ' ')
     .toLowerCase();
@@ -99,8 +114,17 @@ function shortValue(value: unknown): string | null {
   return null;
 }
 
-/** One changed field: its name, with the old and new values when both are short ("laser allowed: no → yes"). */
+/**
+ * One changed field: its name, with the old and new values when both are short ("laser allowed: no → yes").
+ * A field holding a record's id says only whether it was set, cleared or changed ("adopted version set").
+ */
 function changeOf(key: string, before: Fields | null, after: Fields | null): string {
+  const was = before?.[key];
+  const now = after?.[key];
+  if (isIdField(key, was, now)) {
+    const empty = (v: unknown) => v === null || v === undefined || v === '';
+    return `${fieldLabel(key)} ${empty(was) ? 'set' : empty(now) ? 'cleared' : 'changed'}`;
+  }
   const from = shortValue(before?.[key]);
   const to = shortValue(after?.[key]);
   return from !== null && to !== null ? `${fieldLabel(key)}: ${from} → ${to}` : fieldLabel(key);
@@ -115,16 +139,21 @@ export function changedFields(before: Fields | null, after: Fields | null): stri
 
 /**
  * One line saying what an audit event did, built from its action and its before/after snapshots:
- * "Material “Birch plywood 3 mm” created", "Profile version “version 2” sent back: bed too small".
+ * "Material “Birch plywood 3 mm” created", "Profile version 2 sent back (submitted → draft; reason: …)",
+ * "Job “Octahedron hexagons” approved (prepared → approved)". Record ids are never shown.
  */
 export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | 'before' | 'after'>): string {
   const before = fields(e.before);
   const after = fields(e.after);
   const step = e.action.slice(e.action.indexOf('.') + 1);
   const verb = ACTIONS[e.action] ?? VERBS[step] ?? step.replace(/[-_]/g, ' ');
-  const what = ENTITY_LABELS[e.entityType] ?? e.entityType;
-  const subject = subjectOf(before, after);
-  let line = subject ? `${what} “${subject}” ${verb}` : `${what} ${verb}`;
+  const subject = subjectOf(e.entityType, before, after);
+  // A version's name says "version": "Profile version 2", "Profile “Bay 3 laser” version 2".
+  const what =
+    e.entityType === 'machine-profile-version' && subject
+      ? 'Profile'
+      : (ENTITY_LABELS[e.entityType] ?? e.entityType);
+  let line = subject ? `${what} ${subject} ${verb}` : `${what} ${verb}`;
 
   const details: string[] = [];
   const stateBefore = text(before?.state);
@@ -133,7 +162,10 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
   const reason = text(after?.returnReason) ?? text(after?.reason);
   if (reason && (step === 'return' || stateAfter === 'returned')) details.push(`reason: ${short(reason)}`);
   if (step === 'update' || step === 'adopt') {
-    const changed = changedFields(before, after);
+    // Adopting is setting the version a record went into: the verb says so, the version's id says nothing.
+    const changed = changedFields(before, after).filter(
+      (k) => step !== 'adopt' || !isIdField(k, before?.[k], after?.[k]),
+    );
     if (changed.length) details.push(`changed ${changed.map((k) => changeOf(k, before, after)).join(', ')}`);
   }
   if (e.action === 'export.done' && Array.isArray(after?.files)) {

@@ -44,9 +44,7 @@ describe('Audit trail (supervisor)', () => {
     const { user } = renderApp('/audit', { token: 't' });
     const rows = await screen.findAllByTestId('audit-event');
     expect(rows[0]).toHaveTextContent('Theo Lindqvist');
-    expect(rows[0]).toHaveTextContent(
-      'Profile version “version 2” submitted for approval (draft → submitted)',
-    );
+    expect(rows[0]).toHaveTextContent('Profile version 2 submitted for approval (draft → submitted)');
     expect(rows[1]).toHaveTextContent('Material “Poplar plywood 4 mm” created');
     expect(calls.at(-1)?.url.searchParams.get('sort')).toBe('-createdAt');
 

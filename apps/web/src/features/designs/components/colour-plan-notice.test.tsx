@@ -29,18 +29,35 @@ describe('colour plan notice', () => {
         onUseColours={onUse}
       />,
     );
-    expect(screen.getByTestId('colour-plan-notice')).toHaveTextContent(
-      /cannot be met with 2 colours; it needs at least 4/,
+    // The rule is named as the form names it; the engine's wording and rule id stay out of sight.
+    const notice = screen.getByTestId('colour-plan-notice');
+    expect(notice).toHaveTextContent(
+      '“Neighbours differ” cannot be met with 2 colours: it needs at least 4.',
     );
+    expect(notice).not.toHaveTextContent(/no plan exists|neighbour-distinct/);
     await user.click(screen.getByRole('button', { name: 'Use 4 colours' }));
     expect(onUse).toHaveBeenCalledWith(4);
   });
 
   it('offers nothing the form would refuse', () => {
     renderWithProviders(
-      <ColourPlanNotice message="no plan exists" fewest={8} maxColours={6} onUseColours={() => undefined} />,
+      <ColourPlanNotice
+        message={'no plan exists: rule "vertex-distinct" cannot be met with 1 colour; it needs at least 8'}
+        fewest={8}
+        maxColours={6}
+        onUseColours={() => undefined}
+      />,
     );
-    expect(screen.getByTestId('colour-plan-notice')).toHaveTextContent('no plan exists');
+    expect(screen.getByTestId('colour-plan-notice')).toHaveTextContent(
+      '“All pieces around a vertex differ” cannot be met with 1 colour: it needs at least 8.',
+    );
     expect(screen.queryByRole('button')).not.toBeInTheDocument();
+  });
+
+  it('shows a reason of another shape as a plain sentence', () => {
+    renderWithProviders(<ColourPlanNotice message="no plan exists" fewest={null} maxColours={6} />);
+    expect(screen.getByTestId('colour-plan-notice')).toHaveTextContent(
+      'The colour rule cannot be met with these colours.',
+    );
   });
 });

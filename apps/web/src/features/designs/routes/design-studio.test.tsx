@@ -76,6 +76,29 @@ async function field(label: string, value: string) {
   fireEvent.change(input, { target: { value } });
 }
 
+describe('design studio, no such design', () => {
+  it('says plainly that there is no such design, with the way back and no retry, when the API knows none', async () => {
+    const unknown = '9a7c1f00-0000-4000-8000-0000000000ff';
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      [`GET /api/designs/${unknown}`]: () =>
+        json(404, { statusCode: 404, code: 'DESIGN.NOT_FOUND', message: 'No such design', requestId: 'r-1' }),
+    });
+    renderApp(`/designs/${unknown}`, { token: 't' });
+    expect(await screen.findByRole('heading', { name: 'No such design' })).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Back to the designs' })).toHaveAttribute('href', '/designs');
+    expect(screen.queryByRole('button', { name: 'Try again' })).not.toBeInTheDocument();
+    expect(screen.queryByText('The design could not be loaded')).not.toBeInTheDocument();
+  });
+
+  it('does not ask the API about an address that is no design id', async () => {
+    const stub = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('hobbyist')) });
+    renderApp('/designs/not-a-design', { token: 't' });
+    expect(await screen.findByRole('heading', { name: 'No such design' })).toBeInTheDocument();
+    expect(stub.calls.some((c) => c.url.pathname.startsWith('/api/designs/'))).toBe(false);
+  });
+});
+
 describe('design studio', () => {
   it('shows the fitted size everywhere once "fit to sheets" has searched, and says so while it searches', async () => {
     studioApi();

@@ -6,14 +6,18 @@ import {
   type UploadedSolid,
 } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
 import CircularProgress from '@mui/material/CircularProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
+import Typography from '@mui/material/Typography';
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
-import { useLocation, useNavigate, useParams } from 'react-router-dom';
+import { Link, useLocation, useNavigate, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { paths } from '../../../config/paths';
+import { isApiError } from '../../../lib/api-client';
 import { formatLength, type LengthUnit } from '../../../lib/units';
 import { useStableCallback } from '../../../lib/use-stable-callback';
 import { useDuplicateDesign } from '../api/duplicate-design';
@@ -47,7 +51,12 @@ const RequestJobDialogMemo = memo(RequestJobDialog);
 /** /designs/new and /designs/:designId: the studio, loading the saved design first when there is one. */
 export function DesignStudioRoute() {
   const { designId } = useParams();
-  const design = useDesign(designId);
+  // An address whose id is no design id names no design: it is not asked for (the API would refuse it).
+  const askable = designId === undefined || isDesignId(designId);
+  const design = useDesign(askable ? designId : undefined);
+  if (designId && (!askable || (isApiError(design.error) && design.error.status === 404))) {
+    return <NoSuchDesign />;
+  }
   if (designId && design.isPending) {
     return (
       <Box sx={{ display: 'grid', placeItems: 'center', minHeight: 240 }}>
@@ -66,6 +75,33 @@ export function DesignStudioRoute() {
   }
   // A new key per design resets the form when the address changes (e.g. after Duplicate).
   return <DesignStudio key={design.data?.id ?? 'new'} design={design.data ?? null} />;
+}
+
+/** Design ids are UUIDs; anything else names no design. */
+function isDesignId(id: string): boolean {
+  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
+}
+
+/**
+ * An address that names no design (mistyped, or another member's): say so, and offer the way back,
+ * as the job page does for a job. Trying again would only ask the same question.
+ */
+function NoSuchDesign() {
+  return (
+    <Box sx={{ maxWidth: 640, mx: 'auto', my: 4, px: 2 }} data-testid="no-such-design">
+      <title>No such design · Kerfwright</title>
+      <Typography variant="h1" sx={{ mb: 1 }}>
+        No such design
+      </Typography>
+      <Typography color="text.secondary" sx={{ mb: 2 }}>
+        There is no design at this address that you can open. The link may be mistyped or incomplete; the
+        designs page lists every design you can open.
+      </Typography>
+      <Button variant="contained" component={Link} to={paths.designs.getHref()}>
+        Back to the designs
+      </Button>
+    </Box>
+  );
 }
 
 /** What the studio says on opening a design: set by the page that sent the member here (e.g. a new copy). */

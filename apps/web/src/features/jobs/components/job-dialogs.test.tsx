@@ -360,4 +360,71 @@ describe('prepare job dialog', () => {
     );
     expect(why).toHaveTextContent('No approved machine profile that may cut it has settings for it');
   });
+
+  it('forgets the colour error of the last material when another material is chosen', async () => {
+    const birch = { ...acrylic, id: 'm-birch', name: 'Birch plywood 3 mm', colours: ['natural'] };
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic, birch], total: 2, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: 'Birch plywood 3 mm' });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    await user.click(screen.getByRole('button', { name: 'Prepare' }));
+    expect(await screen.findByText('Choose at least one colour')).toBeInTheDocument();
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-birch');
+    expect(screen.queryByText('Choose at least one colour')).not.toBeInTheDocument();
+  });
+
+  it('offers the colours of stock as one labelled group', async () => {
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: 'Cast acrylic 3 mm' });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    const group = screen.getByRole('group', { name: 'Colours of stock' });
+    expect(
+      within(group)
+        .getAllByRole('checkbox')
+        .map((c) => c.closest('label')?.textContent),
+    ).toEqual(['clear', 'amber']);
+  });
+
+  it('warns before preparing with fewer colours than the design was drawn in', async () => {
+    const lamp = { ...acrylic, colours: ['clear', 'amber', 'teal'] };
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [lamp], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/designs/d-1': () =>
+        json(200, {
+          id: 'd-1',
+          name: 'Cube lamp',
+          spec: { colours: { count: 3, rule: 'neighbour-distinct' } },
+        }),
+    });
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open designId="d-1" busy={false} error={null} onSubmit={onSubmit} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: 'Cast acrylic 3 mm' });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    await user.selectOptions(screen.getByLabelText('Machine profile (approved version)'), 'v-approved');
+    expect(screen.queryByTestId('prepare-colour-warning')).not.toBeInTheDocument();
+    await user.click(screen.getByLabelText('amber'));
+    expect(await screen.findByTestId('prepare-colour-warning')).toHaveTextContent(
+      'The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same stock.',
+    );
+    await user.click(screen.getByLabelText('clear'));
+    expect(screen.getByTestId('prepare-colour-warning')).toHaveTextContent(
+      'The design uses 3 colours (Neighbours differ); with 2 colours its pieces are shared among fewer colours, and the rule may not be met.',
+    );
+    await user.click(screen.getByLabelText('teal'));
+    expect(screen.queryByTestId('prepare-colour-warning')).not.toBeInTheDocument();
+  });
 });

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { COLOUR_RULES, type MachineProfileSummaryView } from '@kerfwright/contracts';
+import { COLOUR_RULES, type DesignView, type MachineProfileSummaryView } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
@@ -18,6 +18,8 @@ import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
 import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
 import { kindLabel } from '../../../config/trade-labels';
+import { countOf } from '../../../lib/plural';
+import { useDesign } from '../../designs/api/get-design';
 
 export interface PrepareJobBody {
   materialId: string;
@@ -27,16 +29,51 @@ export interface PrepareJobBody {
   colourRule: PrepareJobValues['colourRule'];
 }
 
+interface PrepareJobDialogProps extends FormDialogBaseProps<PrepareJobBody> {
+  /** The job's design: the colours it was drawn in are what the colours of stock chosen are held against. */
+  designId?: string;
+}
+
+/** How many colours of stock a design is drawn in, and by which rule (one colour: no rule applies). */
+export function designColours(design: DesignView | undefined): {
+  count: number;
+  rule: PrepareJobValues['colourRule'];
+} {
+  const colours = design?.spec.colours;
+  return {
+    count: colours?.count ?? colours?.names?.length ?? 1,
+    rule: colours?.rule ?? 'neighbour-distinct',
+  };
+}
+
+/**
+ * Fewer colours of stock than the design was drawn in: what that does to the cut, said before the fabricator
+ * confirms ("The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same
+ * stock."). Null when the choice gives the design all its colours.
+ */
+export function fewerColoursWarning(
+  designed: { count: number; rule: PrepareJobValues['colourRule'] },
+  chosen: number,
+): string | null {
+  if (chosen < 1 || chosen >= designed.count) return null;
+  const uses = `The design uses ${countOf(designed.count, 'colour')} (${COLOUR_RULE_LABELS[designed.rule]})`;
+  return chosen === 1
+    ? `${uses}; with 1 colour every piece is cut from the same stock.`
+    : `${uses}; with ${countOf(chosen, 'colour')} its pieces are shared among fewer colours, and the rule may not be met.`;
+}
+
 /** The fabricator's choices: material, an approved machine profile version, colours and sheet size. */
-export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
+export function PrepareJobDialog(props: PrepareJobDialogProps) {
   const materials = useMaterials(props.open);
   const profiles = useMachineProfiles(props.open);
+  const design = useDesign(props.open ? props.designId : undefined);
   const {
     register,
     control,
     handleSubmit,
     setValue,
     getValues,
+    clearErrors,
     formState: { errors },
   } = useForm<PrepareJobValues>({
     resolver: zodResolver(prepareJobSchema),
@@ -49,6 +86,8 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
     },
   });
   const materialId = useWatch({ control, name: 'materialId' });
+  const chosenColours = useWatch({ control, name: 'colours' });
+  const colourWarning = fewerColoursWarning(designColours(design.data), chosenColours.length);
   const profileVersionId = useWatch({ control, name: 'profileVersionId' });
   const allMaterials = materials.data?.items ?? [];
   const allProfiles = profiles.data?.items ?? [];
@@ -115,6 +154,8 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
             onChange: async (e) => {
               setValue('colours', []);
               setValue('sheetIndex', '0');
+              // The colours are the new material's to choose: an error about the old one's no longer applies.
+              clearErrors('colours');
               // A chosen version not offered for the new material is taken off (the dialog says why); the
               // one taken off earlier is chosen again when the new material suits it.
               const chosen = getValues('profileVersionId');
@@ -172,8 +213,8 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
               control={control}
               name="colours"
               render={({ field }) => (
-                <Stack>
-                  <Typography variant="body2" color="text.secondary">
+                <Stack role="group" aria-labelledby="prepare-colours-label">
+                  <Typography id="prepare-colours-label" variant="body2" color="text.secondary">
                     Colours of stock
                   </Typography>
                   <Stack direction="row" sx={{ flexWrap: 'wrap' }}>
@@ -198,6 +239,11 @@ export function PrepareJobDialog(props: FormDialogBaseProps<PrepareJobBody>) {
                 </Stack>
               )}
             />
+            {colourWarning ? (
+              <Alert severity="warning" data-testid="prepare-colour-warning">
+                {colourWarning}
+              </Alert>
+            ) : null}
             <NativeSelectField label="Sheet" name="sheetIndex" form={fields}>
               {material.stockSheets.map((s, i) => (
                 <option key={i} value={String(i)}>

@@ -202,6 +202,35 @@ describe('job detail', () => {
     expect(stub.calls.some((c) => c.url.pathname.endsWith('/exports'))).toBe(false);
   });
 
+  it("holds the colours of stock chosen in the Prepare dialog against the job's design", async () => {
+    const material = {
+      id: 'm-acrylic',
+      name: 'Cast acrylic 3 mm',
+      colours: ['clear', 'amber', 'teal'],
+      stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 14.5, currency: 'EUR' }],
+      laserAllowed: true,
+    };
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, job),
+      'GET /api/materials': () => json(200, { items: [material], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+      'GET /api/designs/d-1': () =>
+        json(200, { id: 'd-1', spec: { colours: { count: 3, rule: 'neighbour-distinct' } } }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    await user.click(within(actions).getByRole('button', { name: 'Prepare: material, machine, layout' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Prepare the job' });
+    await within(dialog).findByRole('option', { name: 'Cast acrylic 3 mm' });
+    await user.selectOptions(within(dialog).getByLabelText('Material'), 'm-acrylic');
+    await user.click(within(dialog).getByLabelText('teal'));
+    expect(await within(dialog).findByTestId('prepare-colour-warning')).toHaveTextContent(
+      'The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same stock.',
+    );
+    expect(stub.calls.some((c) => c.url.pathname === '/api/designs/d-1')).toBe(true);
+  });
+
   it('tells the supervisor who prepared a job why they are not offered its approval', async () => {
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('supervisor')),
@@ -250,7 +279,7 @@ describe('job detail', () => {
     }
   });
 
-  it("reads the job again after a conflict and shows the server's message beside the job as it is now", async () => {
+  it('reads the job again after a conflict and says in its own words why nothing was done', async () => {
     let current: JobDetailView = { ...job, state: 'prepared', actions: ['approve', 'prepare', 'return'] };
     const stub = stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('supervisor')),
@@ -278,9 +307,11 @@ describe('job detail', () => {
     expect(screen.getByTestId('job-read-again')).toHaveTextContent(
       'Someone else acted on this job while you had it open, so nothing was done',
     );
+    // The refusal in the page's words: the API's action names ("approve") stay out of it.
     expect(screen.getByTestId('job-read-again')).toHaveTextContent(
-      'A returned job cannot be given "approve"',
+      'The page now shows it as it is (a returned job cannot be approved): check it before you act again.',
     );
+    expect(screen.getByTestId('job-read-again')).not.toHaveTextContent(/given|"approve"/);
     // The confirmation for an action the job no longer offers is gone.
     await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
     expect(

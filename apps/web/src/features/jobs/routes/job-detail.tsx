@@ -75,6 +75,30 @@ export function JobDetailRoute() {
   return <JobDetail job={job.data} />;
 }
 
+/** What each action does to a job, as the end of "a returned job cannot be …". */
+const DONE_TO_JOB: Record<JobAction, string> = {
+  request: 'requested',
+  prepare: 'prepared',
+  approve: 'approved',
+  release: 'released',
+  cut: 'recorded as cut',
+  close: 'closed',
+  return: 'returned',
+  reopen: 'reopened',
+};
+
+/**
+ * Why the server refused an action the job's state does not allow, in the page's words ("a returned job
+ * cannot be prepared"), from the refusal's details, else from the action taken and the job as read again.
+ */
+function refusedActionSentence(details: unknown, taken: JobAction | undefined, state: string): string {
+  const d = typeof details === 'object' && details !== null ? (details as Record<string, unknown>) : {};
+  const now = typeof d.state === 'string' ? d.state : state;
+  const a = typeof d.action === 'string' && d.action in DONE_TO_JOB ? (d.action as JobAction) : taken;
+  const article = /^[aeiou]/i.test(now) ? 'an' : 'a';
+  return a ? `${article} ${now} job cannot be ${DONE_TO_JOB[a]}` : `the job is ${now} now`;
+}
+
 /** An address that names no job (mistyped, or the job is not there): say so, and offer the way back. */
 function NoSuchJob() {
   return (
@@ -174,7 +198,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         <Alert severity="info" sx={{ mb: 2 }} data-testid="job-read-again">
           {`Someone else acted on this job while you had it open, so nothing was done. The page now shows it as it is${
             isApiError(action.error) && action.error.code === 'JOB.ILLEGAL_TRANSITION'
-              ? ` (${action.error.message})`
+              ? ` (${refusedActionSentence(action.error.details, action.variables?.action, job.state)})`
               : ''
           }: check it before you act again.`}
         </Alert>
@@ -339,6 +363,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
       {open === 'prepare' ? (
         <PrepareJobDialog
           open
+          designId={job.designId}
           busy={action.isPending}
           error={action.error}
           onSubmit={(body) => take('prepare', { ...body })}

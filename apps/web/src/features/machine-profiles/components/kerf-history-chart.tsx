@@ -1,6 +1,7 @@
 import { type KerfRecordView } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
+import { countOf } from '../../../lib/plural';
 
 /** A reference line: the kerf (or tool diameter) a profile version holds for the material. */
 export interface KerfReference {
@@ -109,7 +110,7 @@ export function KerfHistoryChart({
         viewBox={`0 0 ${width} ${height}`}
         width="100%"
         role="img"
-        aria-label={`Measured ${quantity} over time: ${records.length} measurement(s)`}
+        aria-label={`Measured ${quantity} over time: ${countOf(records.length, 'measurement')}`}
         data-testid="kerf-chart"
         style={{ maxWidth: width, fontFamily: 'inherit', fontSize: 12 }}
       >
@@ -181,7 +182,8 @@ export function KerfHistoryChart({
       </svg>
       {mean !== null ? (
         <Typography variant="body2" color="text.secondary">
-          {records.length} measurement(s); mean {mean.toFixed(3)} mm. Green dots were adopted into a version.
+          {countOf(records.length, 'measurement')}; mean {mean.toFixed(3)} mm. Green dots were adopted into a
+          version.
         </Typography>
       ) : null}
     </Box>

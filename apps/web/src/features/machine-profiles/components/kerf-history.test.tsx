@@ -61,6 +61,19 @@ describe('kerf history chart', () => {
     expect(gap).toBeGreaterThanOrEqual(12);
   });
 
+  it('counts the measurements in words, one or many', () => {
+    const { unmount } = render(
+      <KerfHistoryChart records={[record('k-1', 0.078, 1)]} references={[]} quantity="kerf" />,
+    );
+    expect(screen.getByRole('img', { name: 'Measured kerf over time: 1 measurement' })).toBeInTheDocument();
+    expect(screen.getByText(/^1 measurement; mean 0\.078 mm\./)).toBeInTheDocument();
+    unmount();
+    render(<KerfHistoryChart records={records} references={[]} quantity="kerf" />);
+    expect(screen.getByRole('img', { name: 'Measured kerf over time: 3 measurements' })).toBeInTheDocument();
+    expect(screen.getByText(/^3 measurements; mean/)).toBeInTheDocument();
+    expect(screen.queryByText(/\(s\)/)).not.toBeInTheDocument();
+  });
+
   it('moves labels only as far as needed, inside the plot', () => {
     expect(spreadLabels([100, 200], 0, 300)).toEqual([100, 200]);
     expect(spreadLabels([100, 101], 0, 300)).toEqual([100, 115]);

@@ -27,6 +27,8 @@ const birch = material('m-birch', 'Birch plywood 3 mm', true);
 const pvc = material('m-pvc', 'Expanded PVC 3 mm', false);
 const acrylic = material('m-acrylic', 'Cast acrylic 3 mm', true);
 const noop = () => undefined;
+/** A material's row, whatever material it names ("Material setting 1: Birch plywood 3 mm"). */
+const row = (n: number) => new RegExp(`^Material setting ${n}:`);
 
 function renderForm(onSubmit = vi.fn()) {
   const utils = renderWithProviders(
@@ -68,7 +70,7 @@ describe('machine profile form', () => {
   it('keeps a laser kerf within what a beam removes and refuses materials kept off the laser', async () => {
     const { user, onSubmit } = renderForm();
     await fillMachine(user);
-    const setting = screen.getByRole('group', { name: 'Material setting 1' });
+    const setting = screen.getByRole('group', { name: row(1) });
     // The PVC option is disabled for a laser; choosing it anyway (as a stale form could) is refused too.
     expect(
       within(setting).getByRole('option', { name: 'Expanded PVC 3 mm (not for lasers)' }),
@@ -115,8 +117,8 @@ describe('machine profile form', () => {
     await fillMachine(user);
     await user.selectOptions(screen.getByLabelText('Kind of machine'), 'cnc-router');
     await user.click(screen.getByRole('button', { name: 'Add a material' }));
-    for (const name of ['Material setting 1', 'Material setting 2']) {
-      const setting = screen.getByRole('group', { name });
+    for (const n of [1, 2]) {
+      const setting = screen.getByRole('group', { name: row(n) });
       expect(within(setting).queryByLabelText('Kerf (mm)')).not.toBeInTheDocument();
       await user.selectOptions(within(setting).getByLabelText('Material'), 'm-birch');
       await user.type(within(setting).getByLabelText('Cut speed (mm/s)'), '20');
@@ -126,8 +128,8 @@ describe('machine profile form', () => {
     expect(await screen.findAllByText('Enter the tool diameter')).toHaveLength(2);
     expect(screen.getByText('This material already has settings')).toBeInTheDocument();
 
-    await user.click(screen.getByRole('button', { name: 'Remove material setting 2' }));
-    const setting = screen.getByRole('group', { name: 'Material setting 1' });
+    await user.click(screen.getByRole('button', { name: /^Remove material setting 2\b/ }));
+    const setting = screen.getByRole('group', { name: row(1) });
     // A 3.175 mm (1/8 in) end mill is a common router bit for 3 mm sheet (common practice).
     await user.type(within(setting).getByLabelText('Tool diameter (mm)'), '3.175');
     await user.type(within(setting).getByLabelText('Spindle (rpm, optional)'), '18000');
@@ -143,6 +145,32 @@ describe('machine profile form', () => {
       passes: 1,
       pierceTimeS: 0,
     });
+  });
+});
+
+describe('rows of settings per material', () => {
+  it('names each row by its material, so a screen reader tells the rows apart', async () => {
+    const { user } = renderForm();
+    await user.click(screen.getByRole('button', { name: 'Add a material' }));
+    const first = screen.getByRole('group', { name: 'Material setting 1: no material chosen yet' });
+    const second = screen.getByRole('group', { name: 'Material setting 2: no material chosen yet' });
+    await user.selectOptions(within(first).getByLabelText('Material'), 'm-birch');
+    expect(first).toHaveAccessibleName('Material setting 1: Birch plywood 3 mm');
+    expect(second).toHaveAccessibleName('Material setting 2: no material chosen yet');
+    expect(
+      within(first).getByRole('button', { name: 'Remove material setting 1: Birch plywood 3 mm' }),
+    ).toBeInTheDocument();
+  });
+
+  it('gives every value a column wide enough for its whole label, at most three to a row', () => {
+    renderForm();
+    const values = within(screen.getByRole('group', { name: row(1) })).getByTestId('setting-values');
+    // 12.5rem (200 px) holds "Spindle (rpm, optional)", the longest label, and the input's padding; eight
+    // columns in the dialog's width gave "Mark speed (mm/s)" some 127 px, and cut it short.
+    expect(getComputedStyle(values).gridTemplateColumns).toBe(
+      'repeat(auto-fill, minmax(min(100%, max(12.5rem, calc((100% - 16px) / 3))), 1fr))',
+    );
+    expect(within(values).getByLabelText('Mark speed (mm/s)')).toBeInTheDocument();
   });
 });
 
@@ -179,10 +207,10 @@ describe('changing a draft', () => {
     renderWithProviders(<LateMaterials />);
     expect(await screen.findByText('Loading the materials…')).toBeInTheDocument();
     act(() => deliver([acrylic, birch, pvc]));
-    const first = await screen.findByRole('group', { name: 'Material setting 1' });
+    const first = await screen.findByRole('group', { name: row(1) });
     expect(within(first).getByLabelText('Material')).toHaveDisplayValue('Birch plywood 3 mm');
     expect(within(first).getByLabelText('Kerf (mm)')).toHaveValue(0.2);
-    const second = screen.getByRole('group', { name: 'Material setting 2' });
+    const second = screen.getByRole('group', { name: row(2) });
     expect(within(second).getByLabelText('Material')).toHaveDisplayValue('Cast acrylic 3 mm');
     expect(screen.queryByText('Loading the materials…')).not.toBeInTheDocument();
   });
@@ -191,7 +219,7 @@ describe('changing a draft', () => {
 describe('measured kerf form', () => {
   it('keeps the laser values typed when the kind is switched to a router and back', async () => {
     const { user } = renderForm();
-    const setting = screen.getByRole('group', { name: 'Material setting 1' });
+    const setting = screen.getByRole('group', { name: row(1) });
     await user.type(within(setting).getByLabelText('Kerf (mm)'), '0.2');
     await user.type(within(setting).getByLabelText('Power (%)'), '80');
     await user.selectOptions(screen.getByLabelText('Kind of machine'), 'cnc-router');

@@ -43,6 +43,17 @@ interface ProfileFormDialogProps extends FormDialogBaseProps<ProfileFormValues> 
   materialsError?: unknown;
 }
 
+/**
+ * The cutting values of one material: as many columns as fit, at most three, each wide enough for its whole
+ * label ("Spindle (rpm, optional)" is the longest); on a phone, one column.
+ */
+const SETTING_VALUES_GRID = {
+  display: 'grid',
+  gap: '8px',
+  alignItems: 'start',
+  gridTemplateColumns: 'repeat(auto-fill, minmax(min(100%, max(12.5rem, calc((100% - 16px) / 3))), 1fr))',
+} as const;
+
 /** Bed, speeds, rate and the per-material cutting values of a profile version; saved as a draft. */
 export function ProfileFormDialog(props: ProfileFormDialogProps) {
   const { materials, materialsError, mode } = props;
@@ -57,6 +68,8 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
   } = useForm<ProfileFormValues>({ resolver: zodResolver(schema), defaultValues: props.initial });
   const settings = useFieldArray({ control, name: 'settings' });
   const kind = useWatch({ control, name: 'kind' });
+  // Each row is named by its material for screen readers, which otherwise hear the same labels row after row.
+  const chosenMaterials = useWatch({ control, name: 'settings' });
   const router = kind === 'cnc-router';
   const laser = isLaserKind(kind);
 
@@ -155,28 +168,19 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
           )
         ) : null}
         {(materials === undefined ? [] : settings.fields).map((field, i) => {
+          const materialId = chosenMaterials?.[i]?.materialId;
+          const materialName = materials?.find((m) => m.id === materialId)?.name;
+          const rowName = `Material setting ${i + 1}: ${materialName ?? 'no material chosen yet'}`;
           return (
-            <Paper
-              key={field.id}
-              variant="outlined"
-              role="group"
-              aria-label={`Material setting ${i + 1}`}
-              sx={{ p: 1.5 }}
-            >
-              <Box
-                sx={{
-                  display: 'grid',
-                  gap: 1,
-                  alignItems: 'start',
-                  gridTemplateColumns: { xs: '1fr 1fr', md: '2fr repeat(6, 1fr) auto' },
-                }}
-              >
+            <Paper key={field.id} variant="outlined" role="group" aria-label={rowName} sx={{ p: 1.5 }}>
+              <Box sx={{ display: 'flex', gap: 1, alignItems: 'start', mb: 1 }}>
                 <NativeSelectField
                   id={`settings-${i}-material`}
                   size="small"
                   label="Material"
                   name={`settings.${i}.materialId`}
                   form={fields}
+                  sx={{ flex: 1, maxWidth: '28rem' }}
                 >
                   <option value="">Choose…</option>
                   {materials?.map((m) => (
@@ -185,6 +189,15 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                     </option>
                   ))}
                 </NativeSelectField>
+                <IconButton
+                  aria-label={`Remove material setting ${i + 1}${materialName ? `: ${materialName}` : ''}`}
+                  onClick={() => settings.remove(i)}
+                  sx={{ ml: 'auto' }}
+                >
+                  ×
+                </IconButton>
+              </Box>
+              <Box sx={SETTING_VALUES_GRID} data-testid="setting-values">
                 {router ? (
                   <NumberField
                     id={`settings-${i}-tool`}
@@ -249,12 +262,6 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                   name={`settings.${i}.pierceTimeS`}
                   form={fields}
                 />
-                <IconButton
-                  aria-label={`Remove material setting ${i + 1}`}
-                  onClick={() => settings.remove(i)}
-                >
-                  ×
-                </IconButton>
               </Box>
             </Paper>
           );

@@ -37,7 +37,7 @@ export function VersionComparison({ versions }: { versions: readonly MachineProf
       <Table size="small" aria-label="Versions side by side" data-testid="version-comparison">
         <TableHead>
           <TableRow>
-            <TableCell sx={{ minWidth: 160 }}>Value</TableCell>
+            <TableCell sx={{ minWidth: 160 }}>Setting</TableCell>
             {ordered.map((v) => (
               <TableCell key={v.id} sx={{ minWidth: 150 }}>
                 <Box sx={{ display: 'flex', alignItems: 'center', gap: 1, flexWrap: 'wrap' }}>
@@ -95,9 +95,12 @@ export function VersionComparison({ versions }: { versions: readonly MachineProf
           })}
         </TableBody>
       </Table>
-      <Typography variant="body2" color="text.secondary" sx={{ mt: 1, px: 2, pb: 1 }}>
-        Highlighted: changed from the version to its left.
-      </Typography>
+      {/* With one version there is nothing to its left: no cell is highlighted, and no key is needed. */}
+      {ordered.length > 1 ? (
+        <Typography variant="body2" color="text.secondary" sx={{ mt: 1, px: 2, pb: 1 }}>
+          Highlighted: changed from the version to its left.
+        </Typography>
+      ) : null}
     </TableContainer>
   );
 }

@@ -1,0 +1,44 @@
+import { screen } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { renderWithProviders } from '../../../testing/render-app';
+import { SendBackDialog } from './send-back-dialog';
+
+const noop = () => undefined;
+
+describe('send back dialog', () => {
+  it('tells the supervisor returning a job that the requester can change the request and send it again', async () => {
+    renderWithProviders(
+      <SendBackDialog
+        open
+        subject="the job Hexagon star"
+        verb="Return"
+        busy={false}
+        error={null}
+        onSubmit={noop}
+        onClose={noop}
+      />,
+    );
+    const dialog = await screen.findByRole('dialog', { name: 'Return the job Hexagon star' });
+    expect(dialog).toHaveTextContent(
+      'The job goes back to its requester with your reason; they can change the request and send it again.',
+    );
+    expect(dialog).not.toHaveTextContent(/answers with a changed version/);
+  });
+
+  it('tells the supervisor sending a version back that it returns to its author as a draft', async () => {
+    renderWithProviders(
+      <SendBackDialog
+        open
+        subject="version 2 of CO2 laser"
+        busy={false}
+        error={null}
+        onSubmit={noop}
+        onClose={noop}
+      />,
+    );
+    const dialog = await screen.findByRole('dialog', { name: 'Send back version 2 of CO2 laser' });
+    expect(dialog).toHaveTextContent(
+      'The version goes back to its author as a draft with your reason; they can change it and submit it again.',
+    );
+  });
+});

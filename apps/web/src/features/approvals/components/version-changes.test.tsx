@@ -1,0 +1,96 @@
+import { type MachineProfileVersionView } from '@kerfwright/contracts';
+import { screen, within } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
+import { renderWithProviders } from '../../../testing/render-app';
+import { VersionChanges } from './version-changes';
+
+/** A screen of this many CSS pixels for the media queries (the theme's breakpoints: sm from 600 px). */
+function stubScreenWidth(px: number) {
+  const bound = (query: string, side: 'min' | 'max') => {
+    const found = new RegExp(`${side}-width:\\s*([\\d.]+)px`).exec(query);
+    return found ? Number(found[1]) : null;
+  };
+  vi.stubGlobal('matchMedia', (query: string) => {
+    const min = bound(query, 'min');
+    const max = bound(query, 'max');
+    return {
+      matches: (min === null || px >= min) && (max === null || px <= max),
+      media: query,
+      onchange: null,
+      addEventListener: () => undefined,
+      removeEventListener: () => undefined,
+      addListener: () => undefined,
+      removeListener: () => undefined,
+      dispatchEvent: () => false,
+    };
+  });
+}
+
+const approved = {
+  id: 'v-1',
+  profileId: 'p-laser',
+  number: 1,
+  state: 'approved',
+  bedWidthMm: 600,
+  bedHeightMm: 400,
+  rapidSpeedMmS: 400,
+  hourlyRate: 24,
+  currency: 'EUR',
+  settings: [
+    {
+      materialId: 'm-acrylic',
+      materialName: 'Cast acrylic 3 mm',
+      kerfMm: 0.18,
+      cutSpeedMmS: 12,
+      markSpeedMmS: 250,
+      powerPct: 65,
+      passes: 1,
+      pierceTimeS: 0.3,
+    },
+  ],
+  notes: '',
+} as unknown as MachineProfileVersionView;
+
+const NOTES =
+  'Kerf measured on three coupons cut from the new acrylic batch, at the same speed and power as before; the lens was cleaned first.';
+
+const waiting = {
+  ...approved,
+  id: 'v-2',
+  number: 2,
+  state: 'submitted',
+  settings: [{ ...approved.settings[0]!, kerfMm: 0.16 }],
+  notes: NOTES,
+} as MachineProfileVersionView;
+
+describe('changes of a waiting version', () => {
+  it('on a phone, gives each setting a block of its own with the old and the new value under its name', () => {
+    stubScreenWidth(390);
+    renderWithProviders(<VersionChanges approved={approved} waiting={waiting} />);
+    // No five-column table to run off the screen's edge.
+    expect(screen.queryByRole('table')).not.toBeInTheDocument();
+    const list = screen.getByRole('list', { name: 'Changes in version 2' });
+    const changes = within(list).getAllByTestId('version-change');
+    expect(changes).toHaveLength(2);
+    const kerf = changes.find((c) => c.textContent?.startsWith('Cast acrylic'))!;
+    expect(kerf).toHaveTextContent('Cast acrylic 3 mm · Kerf');
+    expect(within(kerf).getByText('Approved (version 1)')).toBeInTheDocument();
+    expect(within(kerf).getByText('0.18 mm')).toBeInTheDocument();
+    expect(within(kerf).getByText('Version 2')).toBeInTheDocument();
+    expect(within(kerf).getByText('0.16 mm')).toBeInTheDocument();
+    // The long notes wrap across the block's width.
+    const notes = changes.find((c) => c.textContent?.startsWith('Machine · Notes'))!;
+    expect(getComputedStyle(within(notes).getByText(NOTES)).overflowWrap).toBe('anywhere');
+  });
+
+  it('on a wide screen, heads the column of setting names "Setting"', () => {
+    stubScreenWidth(1280);
+    renderWithProviders(<VersionChanges approved={approved} waiting={waiting} />);
+    const table = screen.getByRole('table', { name: 'Changes in version 2' });
+    const headers = within(table)
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent);
+    expect(headers).toEqual(['Material or machine', 'Setting', 'Approved (version 1)', 'Version 2']);
+    expect(within(table).getAllByTestId('version-change')).toHaveLength(2);
+  });
+});

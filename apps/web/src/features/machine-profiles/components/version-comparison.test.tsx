@@ -1,0 +1,52 @@
+import { type MachineProfileVersionView } from '@kerfwright/contracts';
+import { render, screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { VersionComparison } from './version-comparison';
+
+const version = {
+  id: 'v-1',
+  profileId: 'p-1',
+  number: 1,
+  state: 'approved',
+  bedWidthMm: 600,
+  bedHeightMm: 400,
+  rapidSpeedMmS: 400,
+  hourlyRate: 24,
+  currency: 'EUR',
+  notes: '',
+  settings: [
+    {
+      materialId: 'm-acrylic',
+      materialName: 'Cast acrylic 3 mm',
+      kerfMm: 0.08,
+      cutSpeedMmS: 12,
+      markSpeedMmS: 250,
+      powerPct: 65,
+      passes: 1,
+      pierceTimeS: 0.3,
+    },
+  ],
+} as unknown as MachineProfileVersionView;
+
+const KEY = 'Highlighted: changed from the version to its left.';
+
+describe('versions side by side', () => {
+  it('heads the column of setting names "Setting", and has no key for highlights with one version', () => {
+    render(<VersionComparison versions={[version]} />);
+    const table = screen.getByRole('table', { name: 'Versions side by side' });
+    expect(within(table).getAllByRole('columnheader')[0]).toHaveTextContent(/^Setting$/);
+    expect(screen.queryByText(KEY)).not.toBeInTheDocument();
+  });
+
+  it('explains the highlights once a second version stands beside the first', () => {
+    const v2 = {
+      ...version,
+      id: 'v-2',
+      number: 2,
+      state: 'draft',
+      rapidSpeedMmS: 350,
+    } as MachineProfileVersionView;
+    render(<VersionComparison versions={[version, v2]} />);
+    expect(screen.getByText(KEY)).toBeInTheDocument();
+  });
+});
