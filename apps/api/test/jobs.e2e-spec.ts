@@ -147,6 +147,15 @@ describe('jobs through their states', () => {
       'job.cut',
       'job.close',
     ]);
+    // Each state change names the job by its design, so the audit trail can say which job moved.
+    const named: { logged: string | null; name: string }[] = await ctx.db.query(
+      `SELECT a.after->>'designName' AS logged, d.name FROM audit_events a
+         JOIN jobs j ON j.id::text = a.entity_id JOIN designs d ON d.id = j.design_id
+        WHERE a.entity_id = $1 AND a.action LIKE 'job.%'`,
+      [job.id],
+    );
+    expect(named).toHaveLength(7);
+    for (const n of named) expect(n.logged).toBe(n.name);
   });
 
   it('releases only through the cut-pack queue: 202 { exportId }, released in the transaction that stores the files', async () => {

@@ -298,6 +298,14 @@ describe('machine profiles, versions and kerf records', () => {
       'machine-profile-version.approve',
       'machine-profile-version.retire',
     ]);
+    // Version entries carry their profile's name, so the audit trail can say which machine.
+    const named: { logged: string | null }[] = await ctx.db.query(
+      `SELECT after->>'profileName' AS logged FROM audit_events
+        WHERE entity_id = ANY($1) AND action LIKE 'machine-profile-version.%'`,
+      [[r1.id, v2.id]],
+    );
+    expect(named.length).toBeGreaterThan(0);
+    for (const n of named) expect(n.logged).toBe(p.name);
   });
 
   it('keeps submitted and approved versions fixed in the database itself; drafts stay editable', async () => {

@@ -262,7 +262,7 @@ export class JobsService {
         action: 'job.create',
         entityType: 'job',
         entityId: job.id,
-        after: { designId: design.id, quantity: job.quantity },
+        after: { designId: design.id, designName: design.name, quantity: job.quantity },
         requestId: requestIdOf(req),
       });
       return this.detail(m, user, job.id);
@@ -458,13 +458,15 @@ export class JobsService {
       actorId,
       reason,
     });
+    // The design's name, so that the audit trail can say which job ("Job “Felt honeycomb ball” approved").
+    const designName = (await m.findOneBy(Design, { id: job.designId }))?.name ?? null;
     await this.audit.record(m, {
       actorId,
       action: `job.${action}`,
       entityType: 'job',
       entityId: job.id,
-      before: { state: from },
-      after: { state: rule.to, ...(reason ? { reason } : {}) },
+      before: { state: from, designName },
+      after: { state: rule.to, designName, ...(reason ? { reason } : {}) },
       requestId,
     });
     await this.mailer.onTransition(m, job, action);

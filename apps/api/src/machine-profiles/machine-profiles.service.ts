@@ -54,6 +54,15 @@ const AREA = 'MACHINE_PROFILE';
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const noNames = new Map<string, string>();
 
+/** A version as the audit trail keeps it: its view, and its profile's name so that an entry can say which. */
+async function versionSnapshot(
+  manager: EntityManager,
+  v: MachineProfileVersion,
+): Promise<MachineProfileVersionView & { profileName: string | null }> {
+  const profile = await manager.findOneBy(MachineProfile, { id: v.profileId });
+  return { ...toVersionView(v, noNames), profileName: profile?.name ?? null };
+}
+
 /** Sortable columns of the profiles table (query key → column). */
 const PROFILE_SORT_COLUMNS: Readonly<Record<string, string>> = {
   name: 'p.name',
@@ -464,7 +473,7 @@ export class MachineProfilesService {
       action: 'machine-profile-version.create',
       entityType: 'machine-profile-version',
       entityId: v.id,
-      after: toVersionView(v, noNames),
+      after: await versionSnapshot(manager, v),
       requestId: actor.requestId,
     });
     return v;
@@ -490,8 +499,8 @@ export class MachineProfilesService {
       action,
       entityType: 'machine-profile-version',
       entityId: v.id,
-      before: toVersionView(v, noNames),
-      after: toVersionView(saved, noNames),
+      before: await versionSnapshot(manager, v),
+      after: await versionSnapshot(manager, saved),
       requestId: actor.requestId,
     });
     return saved;
