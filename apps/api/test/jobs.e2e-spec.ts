@@ -507,6 +507,31 @@ describe('jobs through their states', () => {
     expect(reopened.body.state).toBe('draft');
   });
 
+  it('lets the requester withdraw a request until it is prepared, and tells the fabricators', async () => {
+    const job = await draftJob();
+    const requested = await act(users.hobbyist, job.id, 'request');
+    expect(requested.body.actions).toContain('withdraw');
+    // Only the requester (or a supervisor): a fabricator works on requests, and does not take them back.
+    await act(users.fabricator, job.id, 'withdraw', {}, 403);
+    const withdrawn = await act(users.hobbyist, job.id, 'withdraw');
+    expect(withdrawn.body.state).toBe('draft');
+    expect(withdrawn.body.transitions.at(-1)).toMatchObject({
+      action: 'withdraw',
+      from: 'requested',
+      to: 'draft',
+    });
+    const mail: { subject: string }[] = await ctx.db.query(
+      `SELECT subject FROM mail_outbox WHERE subject = $1`,
+      [`Request withdrawn: ${withdrawn.body.designName}`],
+    );
+    expect(mail.length).toBeGreaterThan(0);
+    // Once prepared, it is the fabricator's to return; the requester cannot pull it back.
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    const late = await act(users.hobbyist, job.id, 'withdraw', {}, 409);
+    expectErrorBody(late.body, 409, 'JOB.ILLEGAL_TRANSITION');
+  });
+
   /** A job of its own workshop (so a material can be changed without touching other tests) taken to `until`. */
   async function jobInOwnWorkshop(
     until: 'prepared' | 'approved' | 'released',
@@ -783,7 +808,7 @@ describe('jobs through their states', () => {
     expect(schemaOf('/api/jobs', 'get', '200')).toContain('#/components/schemas/JobPageDto');
     expect(schemaOf('/api/jobs', 'post', '201')).toContain('#/components/schemas/JobDetailViewDto');
     expect(schemaOf('/api/jobs/{id}', 'get', '200')).toContain('#/components/schemas/JobDetailViewDto');
-    for (const action of ['request', 'prepare', 'approve', 'cut', 'close', 'return', 'reopen']) {
+    for (const action of ['request', 'prepare', 'approve', 'cut', 'close', 'return', 'reopen', 'withdraw']) {
       expect(schemaOf(`/api/jobs/{id}/${action}`, 'post', '200')).toContain('JobDetailViewDto');
     }
     expect(schemaOf('/api/jobs/{id}/release', 'post', '202')).toContain('ExportRequestedDto');

@@ -608,6 +608,12 @@ describe('role matrix: every route × every role', () => {
       audited: true,
       arrange: jobAction('returned', 'reopen'),
     },
+    {
+      route: 'POST /api/jobs/:id/withdraw',
+      expect: owned('ok', { fabricator: 403, operator: 403 }),
+      audited: true,
+      arrange: jobAction('requested', 'withdraw'),
+    },
     // cut packs
     {
       route: 'POST /api/jobs/:id/exports',

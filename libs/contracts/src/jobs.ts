@@ -1,6 +1,9 @@
 import type { Role } from './roles';
 
-/** A job moves draft → requested → prepared → approved → released → cut → closed, or is returned. */
+/**
+ * A job moves draft → requested → prepared → approved → released → cut → closed, or is returned; its requester
+ * may withdraw a request not yet prepared.
+ */
 export const JOB_STATES = [
   'draft',
   'requested',
@@ -22,6 +25,7 @@ export const JOB_ACTIONS = [
   'close',
   'return',
   'reopen',
+  'withdraw',
 ] as const;
 export type JobAction = (typeof JOB_ACTIONS)[number];
 
@@ -74,6 +78,8 @@ export const JOB_TRANSITIONS: readonly JobTransitionRule[] = [
     label: 'Return with a reason',
   },
   { action: 'reopen', from: ['returned'], to: 'draft', roles: ['owner'], label: 'Reopen as a draft' },
+  // Before anyone has prepared it, the requester may take a request back (a wrong quantity, a changed mind).
+  { action: 'withdraw', from: ['requested'], to: 'draft', roles: ['owner'], label: 'Withdraw the request' },
 ];
 
 export function transitionFor(action: JobAction): JobTransitionRule {

@@ -90,6 +90,22 @@ export class JobMailer {
         await this.outbox.enqueue(m, { kind: 'job.returned', to: await requester(), ...mail });
         return;
       }
+      case 'withdraw': {
+        // The fabricators heard of the request: they hear that it is no longer waiting for them.
+        const mail = composeMail(
+          `Request withdrawn: ${title}`,
+          [
+            `The cut job for "${title}" was withdrawn by its requester before it was prepared; nothing to do.`,
+          ],
+          link,
+        );
+        await this.outbox.enqueue(m, {
+          kind: 'job.withdrawn',
+          to: await this.outbox.addressesOfRoles(m, ['fabricator']),
+          ...mail,
+        });
+        return;
+      }
       default:
         return;
     }

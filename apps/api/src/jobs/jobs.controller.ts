@@ -161,4 +161,18 @@ export class JobsController {
   ) {
     return this.jobs.reopen(u, id, dto.version, req);
   }
+
+  @Post(':id/withdraw')
+  @HttpCode(200)
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
+  @ApiOperation({ summary: 'requested → draft, before it is prepared (the requester)' })
+  withdraw(
+    @CurrentUser() u: AuthUser,
+    @Param('id', ID) id: string,
+    @Body() dto: JobActionDto,
+    @Req() req: unknown,
+  ) {
+    return this.jobs.withdraw(u, id, dto.version, req);
+  }
 }

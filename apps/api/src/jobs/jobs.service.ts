@@ -363,6 +363,10 @@ export class JobsService {
     return this.transition(user, id, 'reopen', version, req, async () => undefined);
   }
 
+  withdraw(user: AuthUser, id: string, version: number, req: unknown) {
+    return this.transition(user, id, 'withdraw', version, req, async () => undefined);
+  }
+
   /**
    * One state change: row lock, role and state checks, optimistic version check, the change itself, the
    * transition record, the audit event and the mails — all in one transaction.

@@ -30,6 +30,7 @@ const VERBS: Record<string, string> = {
   cut: 'recorded as cut',
   close: 'closed',
   reopen: 'reopened',
+  withdraw: 'withdrawn by its requester',
   acknowledge: 'notices acknowledged',
   'local-rules': 'local rules changed',
 };

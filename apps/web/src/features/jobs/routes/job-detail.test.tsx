@@ -103,6 +103,22 @@ describe('job detail', () => {
     expect(post?.body).toEqual({ version: 4, reason: 'Please pick a thinner stock' });
   });
 
+  it('lets the requester withdraw a request not yet prepared, after confirming', async () => {
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'requested', actions: ['withdraw'] }),
+      [`POST /api/jobs/${job.id}/withdraw`]: () =>
+        json(200, { ...job, state: 'draft', actions: ['request'] }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Withdraw the request' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Withdraw the request?' });
+    expect(dialog).toHaveTextContent('The job moves from requested to draft.');
+    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(stub.calls.find((c) => c.method === 'POST')?.url.pathname).toBe(`/api/jobs/${job.id}/withdraw`);
+  });
+
   it('shows nothing to do when the API lists no actions', async () => {
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('hobbyist')),

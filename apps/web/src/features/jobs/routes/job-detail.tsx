@@ -85,6 +85,7 @@ const DONE_TO_JOB: Record<JobAction, string> = {
   close: 'closed',
   return: 'returned',
   reopen: 'reopened',
+  withdraw: 'withdrawn',
 };
 
 /**
