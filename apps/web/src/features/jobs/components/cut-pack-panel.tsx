@@ -137,9 +137,14 @@ export function CutPackPanel({
               </Button>
             }
           >
-            {canDownload
-              ? `The cut pack is ready (${newest.files.length} files). Acknowledge the safety notices to download it.`
-              : `The cut pack is ready (${newest.files.length} files). An operator or a supervisor downloads it after acknowledging the safety notices.`}
+            {`${
+              // With a stale setup sheet, only the cutting files are ready to hand out (said above).
+              newest.safetyChanged ? 'The cutting files are ready' : 'The cut pack is ready'
+            } (${newest.files.length} files). ${
+              canDownload
+                ? 'Acknowledge the safety notices to download them.'
+                : 'An operator or a supervisor downloads them after acknowledging the safety notices.'
+            }`}
           </Alert>
         )
       ) : null}
