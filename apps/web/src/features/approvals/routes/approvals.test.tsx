@@ -128,6 +128,36 @@ describe('Approvals (supervisor)', () => {
     expect(calls.find((c) => c.url.pathname === '/api/jobs/j-1/approve')?.body).toEqual({ version: 4 });
   });
 
+  it('gives a large job its time in hours and its cost with thousands grouped', async () => {
+    const preparation = {
+      thicknessMm: 3,
+      machineKind: 'laser',
+      kerfMm: 0.15,
+      pieceCount: 600,
+      crossingCount: 12,
+      diameterMm: 300,
+      sheetCount: 600,
+      sheet: { widthMm: 600, heightMm: 400 },
+      utilisation: 0.41,
+      warnings: [],
+      estimate: {
+        cutLengthMm: 1_238_848,
+        markLengthMm: 0,
+        pierces: 7200,
+        minutes: 1723.8,
+        machineCost: 574.6,
+        materialCost: 8814.92,
+        currency: 'EUR',
+      },
+    };
+    approvalsApi({ ...job, preparation } as unknown as JobView);
+    renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-job');
+    expect(card).toHaveTextContent(
+      '600 pieces on 600 sheets of 600 × 400 mm, 41 % used; about 28 h 44 min, 9,389.52 EUR.',
+    );
+  });
+
   it('says why a job cannot be approved instead of offering a button the server refuses', async () => {
     for (const [blocked, reason] of [
       [{ preparedByCaller: true }, /You prepared this job: another supervisor approves it/],

@@ -21,6 +21,7 @@ import { VersionChanges } from '../components/version-changes';
 import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 import { countOf } from '../../../lib/plural';
+import { formatMinutes, formatMoney } from '../../../lib/units';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
@@ -173,7 +174,7 @@ export function ApprovalsRoute() {
                     {prep.sheet.widthMm} × {prep.sheet.heightMm} mm, {(prep.utilisation * 100).toFixed(0)} %
                     used
                     {prep.estimate
-                      ? `; about ${prep.estimate.minutes.toFixed(0)} min, ${(prep.estimate.machineCost + prep.estimate.materialCost).toFixed(2)} ${prep.estimate.currency}`
+                      ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + prep.estimate.materialCost, prep.estimate.currency)}`
                       : ''}
                     .
                   </Typography>
