@@ -327,8 +327,12 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await job.getByTestId('job-state').filter({ hasText: /^cut$/ }).waitFor();
     await cut.waitFor({ state: 'detached' });
 
-    await page.goto(jobPath);
+    // From the desk to the job's page within the app: leaving the desk's job must not break the page
+    // (Chromium's scrollIntoView returns a promise, which an effect once handed React as its clean-up).
+    await job.getByRole('link', { name: 'Job details' }).click();
+    await page.waitForURL((url) => url.pathname === jobPath);
     await page.getByTestId('job-detail').getByTestId('job-state').filter({ hasText: /^cut$/ }).waitFor();
+    expect(await page.getByText('Something went wrong').count()).toBe(0);
     await page.getByText('18.5 min').waitFor();
     await shot('job-cut');
   });
