@@ -1,30 +1,9 @@
 import { type MachineProfileVersionView } from '@kerfwright/contracts';
 import { screen, within } from '@testing-library/react';
-import { describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { VersionChanges } from './version-changes';
-
-/** A screen of this many CSS pixels for the media queries (the theme's breakpoints: sm from 600 px). */
-function stubScreenWidth(px: number) {
-  const bound = (query: string, side: 'min' | 'max') => {
-    const found = new RegExp(`${side}-width:\\s*([\\d.]+)px`).exec(query);
-    return found ? Number(found[1]) : null;
-  };
-  vi.stubGlobal('matchMedia', (query: string) => {
-    const min = bound(query, 'min');
-    const max = bound(query, 'max');
-    return {
-      matches: (min === null || px >= min) && (max === null || px <= max),
-      media: query,
-      onchange: null,
-      addEventListener: () => undefined,
-      removeEventListener: () => undefined,
-      addListener: () => undefined,
-      removeListener: () => undefined,
-      dispatchEvent: () => false,
-    };
-  });
-}
+import { stubScreenWidth } from '../../../testing/screen-width';
 
 const approved = {
   id: 'v-1',
@@ -62,6 +41,8 @@ const waiting = {
   settings: [{ ...approved.settings[0]!, kerfMm: 0.16 }],
   notes: NOTES,
 } as MachineProfileVersionView;
+
+afterEach(() => vi.unstubAllGlobals());
 
 describe('changes of a waiting version', () => {
   it('on a phone, gives each setting a block of its own with the old and the new value under its name', () => {

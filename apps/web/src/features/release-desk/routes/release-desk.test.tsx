@@ -5,6 +5,7 @@ import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 import { STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
+import { stubScreenWidth } from '../../../testing/screen-width';
 
 function jobFixture(id: string, state: JobView['state'], name: string): JobView {
   return {
@@ -65,28 +66,6 @@ function exportFixture(id: string, jobId: string, state: ExportView['state'], pr
     createdAt: '2026-01-02T00:00:00.000Z',
     finishedAt: null,
   };
-}
-
-/** A screen of this many CSS pixels for the media queries (the theme's breakpoints: sm from 600 px). */
-function stubScreenWidth(px: number) {
-  const bound = (query: string, side: 'min' | 'max') => {
-    const found = new RegExp(`${side}-width:\\s*([\\d.]+)px`).exec(query);
-    return found ? Number(found[1]) : null;
-  };
-  vi.stubGlobal('matchMedia', (query: string) => {
-    const min = bound(query, 'min');
-    const max = bound(query, 'max');
-    return {
-      matches: (min === null || px >= min) && (max === null || px <= max),
-      media: query,
-      onchange: null,
-      addEventListener: () => undefined,
-      removeEventListener: () => undefined,
-      addListener: () => undefined,
-      removeListener: () => undefined,
-      dispatchEvent: () => false,
-    };
-  });
 }
 
 const released = jobFixture('j-released', 'released', 'Turned squares');
