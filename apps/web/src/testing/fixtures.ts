@@ -1,4 +1,4 @@
-import { type Role, type UserView } from '@kerfwright/contracts';
+import { type MachineProfileVersionView, type Role, type UserView } from '@kerfwright/contracts';
 
 export function userFixture(role: Role, overrides: Partial<UserView> = {}): UserView {
   return {
@@ -10,4 +10,35 @@ export function userFixture(role: Role, overrides: Partial<UserView> = {}): User
     createdAt: '2026-01-15T09:30:00.000Z',
     ...overrides,
   };
+}
+
+/** An approved laser profile version with one material setting (cast acrylic). */
+export function versionFixture(
+  overrides: Partial<MachineProfileVersionView> = {},
+): MachineProfileVersionView {
+  return {
+    id: 'v-1',
+    profileId: 'p-1',
+    number: 1,
+    state: 'approved',
+    bedWidthMm: 600,
+    bedHeightMm: 400,
+    rapidSpeedMmS: 400,
+    hourlyRate: 24,
+    currency: 'EUR',
+    notes: '',
+    settings: [
+      {
+        materialId: 'm-acrylic',
+        materialName: 'Cast acrylic 3 mm',
+        kerfMm: 0.08,
+        cutSpeedMmS: 12,
+        markSpeedMmS: 250,
+        powerPct: 65,
+        passes: 1,
+        pierceTimeS: 0.3,
+      },
+    ],
+    ...overrides,
+  } as unknown as MachineProfileVersionView;
 }

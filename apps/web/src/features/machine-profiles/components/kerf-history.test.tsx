@@ -10,6 +10,7 @@ import { renderWithProviders } from '../../../testing/render-app';
 import { KerfHistoryChart, spreadLabels, tickDecimals } from './kerf-history-chart';
 import { KerfHistoryPanel } from './kerf-history-panel';
 import { VersionComparison } from './version-comparison';
+import { versionFixture } from '../../../testing/fixtures';
 
 const record = (id: string, kerfMm: number, day: number): KerfRecordView => ({
   id,
@@ -83,30 +84,7 @@ describe('kerf history chart', () => {
   });
 });
 
-const version = {
-  id: 'v-1',
-  profileId: 'p-1',
-  number: 1,
-  state: 'approved',
-  bedWidthMm: 600,
-  bedHeightMm: 400,
-  rapidSpeedMmS: 400,
-  hourlyRate: 24,
-  currency: 'EUR',
-  notes: '',
-  settings: [
-    {
-      materialId: 'm-acrylic',
-      materialName: 'Cast acrylic 3 mm',
-      kerfMm: 0.08,
-      cutSpeedMmS: 12,
-      markSpeedMmS: 250,
-      powerPct: 65,
-      passes: 1,
-      pierceTimeS: 0.3,
-    },
-  ],
-} as unknown as MachineProfileVersionView;
+const version = versionFixture();
 
 const profile = {
   id: 'p-1',

@@ -2,31 +2,9 @@ import { type MachineProfileVersionView } from '@kerfwright/contracts';
 import { render, screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { VersionComparison } from './version-comparison';
+import { versionFixture } from '../../../testing/fixtures';
 
-const version = {
-  id: 'v-1',
-  profileId: 'p-1',
-  number: 1,
-  state: 'approved',
-  bedWidthMm: 600,
-  bedHeightMm: 400,
-  rapidSpeedMmS: 400,
-  hourlyRate: 24,
-  currency: 'EUR',
-  notes: '',
-  settings: [
-    {
-      materialId: 'm-acrylic',
-      materialName: 'Cast acrylic 3 mm',
-      kerfMm: 0.08,
-      cutSpeedMmS: 12,
-      markSpeedMmS: 250,
-      powerPct: 65,
-      passes: 1,
-      pierceTimeS: 0.3,
-    },
-  ],
-} as unknown as MachineProfileVersionView;
+const version = versionFixture();
 
 const KEY = 'Highlighted: changed from the version to its left.';
 
