@@ -55,6 +55,9 @@ export function CutPackPanel({
   const live = useFollowExport(listedBusy ? listed.id : null, jobId);
   const newest = live.view && live.view.id === listed?.id ? live.view : listed;
   const busy = newest && (newest.state === 'queued' || newest.state === 'running');
+  // The files on offer: the newest pack's, or, while a new one is built or after it failed, the last pack
+  // that was built (its files are still stored and still downloadable).
+  const shown = newest?.state === 'done' ? newest : exports.data?.find((e) => e.state === 'done');
 
   return (
     <Paper variant="outlined" sx={{ p: 2, mt: 2 }} data-testid="cut-pack">
@@ -86,7 +89,7 @@ export function CutPackPanel({
         </Stack>
       ) : null}
       {newest?.state === 'failed' ? <Alert severity="error">{packFailureText(newest)}</Alert> : null}
-      {newest?.state === 'done' && newest.safetyChanged ? (
+      {shown?.safetyChanged ? (
         // Said to everyone who sees the pack, acknowledged or not: the fabricator is the one who rebuilds it.
         <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-safety-changed">
           {`The safety notices or workshop rules changed since this cut pack was built: its setup sheet and ZIP print the old ones and cannot be downloaded. ${
@@ -96,38 +99,50 @@ export function CutPackPanel({
           }`}
         </Alert>
       ) : null}
-      {newest?.state === 'done' ? (
+      {shown ? (
         safety.data?.acknowledged ? (
-          // At phone width the row keeps to the name, size and button (the name wraps); the table scrolls
-          // inside its own box rather than widening the page.
-          <TableContainer sx={{ overflowX: 'auto' }}>
-            <Table size="small" aria-label="Cut pack files">
-              <TableBody>
-                {newest.files.map((f) => (
-                  <TableRow key={f.name}>
-                    <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
-                    <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>
-                      {PACK_FILE_ROLE_LABELS[f.role] ?? f.role}
-                    </TableCell>
-                    <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
-                    <TableCell align="right">
-                      <Button
-                        size="small"
-                        aria-label={`Download ${f.name}`}
-                        disabled={!!newest.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
-                        onClick={() => {
-                          setDownloadError(null);
-                          downloadExportFile(newest.id, f.name).catch(setDownloadError);
-                        }}
-                      >
-                        Download
-                      </Button>
-                    </TableCell>
-                  </TableRow>
-                ))}
-              </TableBody>
-            </Table>
-          </TableContainer>
+          <>
+            {shown !== newest ? (
+              <Typography
+                variant="body2"
+                color="text.secondary"
+                sx={{ mb: 1 }}
+                data-testid="cut-pack-earlier"
+              >
+                {`The files below are from the cut pack built ${new Date(shown.finishedAt ?? shown.createdAt).toLocaleString('en-GB')}; they stay valid until a new pack is ready.`}
+              </Typography>
+            ) : null}
+            {/* At phone width the row keeps to the name, size and button (the name wraps); the table scrolls
+              inside its own box rather than widening the page. */}
+            <TableContainer sx={{ overflowX: 'auto' }}>
+              <Table size="small" aria-label="Cut pack files">
+                <TableBody>
+                  {shown.files.map((f) => (
+                    <TableRow key={f.name}>
+                      <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
+                      <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>
+                        {PACK_FILE_ROLE_LABELS[f.role] ?? f.role}
+                      </TableCell>
+                      <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
+                      <TableCell align="right">
+                        <Button
+                          size="small"
+                          aria-label={`Download ${f.name}`}
+                          disabled={!!shown.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
+                          onClick={() => {
+                            setDownloadError(null);
+                            downloadExportFile(shown.id, f.name).catch(setDownloadError);
+                          }}
+                        >
+                          Download
+                        </Button>
+                      </TableCell>
+                    </TableRow>
+                  ))}
+                </TableBody>
+              </Table>
+            </TableContainer>
+          </>
         ) : (
           <Alert
             severity="warning"
@@ -139,8 +154,8 @@ export function CutPackPanel({
           >
             {`${
               // With a stale setup sheet, only the cutting files are ready to hand out (said above).
-              newest.safetyChanged ? 'The cutting files are ready' : 'The cut pack is ready'
-            } (${newest.files.length} files). ${
+              shown.safetyChanged ? 'The cutting files are ready' : 'The cut pack is ready'
+            } (${shown.files.length} files). ${
               canDownload
                 ? 'Acknowledge the safety notices to download them.'
                 : 'An operator or a supervisor downloads them after acknowledging the safety notices.'

@@ -181,6 +181,29 @@ describe('release desk', () => {
     expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 8 });
   });
 
+  it('keeps offering the last built pack while a new one failed, and says which it is', async () => {
+    const failed = {
+      ...exportFixture('e-new', released.id, 'failed', 40),
+      errorCode: 'EXPORT.ATTEMPT_FAILED',
+      errorMessage: 'We encountered an internal error. Please try again.',
+      attempts: 4,
+    };
+    const built = {
+      ...exportFixture('e-r', released.id, 'done', 100),
+      finishedAt: '2026-01-02T10:30:00.000Z',
+    };
+    stubDesk(true, {}, { [`GET /api/jobs/${released.id}/exports`]: () => json(200, [failed, built]) });
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await within(job).findByText(/The files could not be built and stored after 4 attempts/);
+    const files = await within(job).findByRole('table', { name: 'Cut pack files' });
+    expect(files).toHaveTextContent('sheet-01-clear.svg');
+    expect(within(job).getByTestId('cut-pack-earlier')).toHaveTextContent(
+      'The files below are from the cut pack built 02/01/2026',
+    );
+  });
+
   it('offers no download and no cut record before the safety notices are acknowledged', async () => {
     stubDesk(false);
     const { user } = renderApp('/release-desk', { token: 't' });
