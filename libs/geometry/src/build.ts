@@ -120,7 +120,16 @@ const round = (x: number, digits = 6): number => {
   const k = 10 ** digits;
   return Math.round(x * k) / k;
 };
-const r3 = (v: Vec3): [number, number, number] => [round(v[0]), round(v[1]), round(v[2])];
+const r3 = (v: Vec3, digits = 6): [number, number, number] => [
+  round(v[0], digits),
+  round(v[1], digits),
+  round(v[2], digits),
+];
+/**
+ * Digits of a unit vector in the report: a plane's normal to 1e-6 moves a crossing of nearly parallel planes
+ * by up to 0.01 mm in a check that works from the report alone; to 1e-12, by far less than a micrometre.
+ */
+const UNIT_DIGITS = 12;
 
 const suggestionCache = new WeakMap<Solid, Map<string, SuggestedSizes>>();
 /** Size suggestions depend on the solid and the shape, not on the size: cache them per solid object. */
@@ -653,10 +662,10 @@ function makeReport(
   const pieceReports: ReportPiece[] = pieces.map((p) => ({
     id: p.id,
     face: p.face,
-    normal: r3(p.frame.normal),
+    normal: r3(p.frame.normal, UNIT_DIGITS),
     centreMm: r3(p.frame.centre),
-    frameX: r3(p.frame.x),
-    frameY: r3(p.frame.y),
+    frameX: r3(p.frame.x, UNIT_DIGITS),
+    frameY: r3(p.frame.y, UNIT_DIGITS),
     firstVertexMm: r3(scale3(at(solid.vertices, at(at(solid.faces, p.face).vertices, 0)), mmPerUnit)),
     areaMm2: round(signedArea(p.outline), 4),
     nominalAreaMm2: round(signedArea(p.nominalOutline), 4),
