@@ -92,7 +92,9 @@ export function solidFromPoints(
   // the true faces and edges; faces built with them disagree about shared edges. So the corners are found
   // first (points on three or more face planes) and the hull is built again from them alone.
   let points: readonly Vec3[] = input;
-  const first = facePlanes(input, tol, Infinity);
+  // The first pass may hold a few planes more than the solid has faces (noise the corners then drop), but a
+  // hull far beyond the limit (a finely sampled sphere) is refused here, before any more work.
+  const first = facePlanes(input, tol, Number.isFinite(maxFaces) ? 2 * maxFaces : Infinity, maxFaces);
   const corners = cornerPoints(input, first, tol);
   if (corners.length >= 4 && corners.length < input.length) {
     try {
@@ -173,7 +175,12 @@ interface FacePlane {
  * slightly off it still gathers the rest. The corners of each merged plane are checked against the refitted
  * plane; should any lie further than tol from it, the planes are made again without refitting.
  */
-function facePlanes(points: readonly Vec3[], tol: number, maxFaces: number): FacePlane[] {
+function facePlanes(
+  points: readonly Vec3[],
+  tol: number,
+  maxFaces: number,
+  statedLimit = maxFaces,
+): FacePlane[] {
   const mean = scale3(
     points.reduce((s, p) => add3(s, p), [0, 0, 0] as Vec3),
     1 / points.length,
@@ -214,7 +221,7 @@ function facePlanes(points: readonly Vec3[], tol: number, maxFaces: number): Fac
         if (groups.length > maxFaces) {
           throw new SolidError(
             'SOLID.TOO_MANY_FACES',
-            `the hull has more than ${maxFaces} faces after merging coplanar facets; at most ${maxFaces} are accepted`,
+            `the hull has more than ${statedLimit} faces after merging coplanar facets; at most ${statedLimit} are accepted`,
           );
         }
       }
