@@ -19,6 +19,27 @@ describe('catalogue solids', () => {
     'truncated-octahedron': [109.4712, 125.2644],
     'rhombic-dodecahedron': [120],
     'rhombic-triacontahedron': [144],
+    // Archimedean solids (from memory): one angle per kind of edge.
+    'truncated-tetrahedron': [70.5288, 109.4712],
+    'truncated-cube': [90, 125.2644],
+    rhombicuboctahedron: [135, 144.7356],
+    'truncated-cuboctahedron': [125.2644, 135, 144.7356],
+    'snub-cube': [142.983, 153.2346],
+    'truncated-icosahedron': [138.1897, 142.6226],
+    'truncated-dodecahedron': [116.5651, 142.6226],
+    rhombicosidodecahedron: [148.2825, 159.0948],
+    'truncated-icosidodecahedron': [142.6226, 148.2825, 159.0948],
+    // Catalan solids (from memory): every edge alike.
+    'triakis-tetrahedron': [129.5212],
+    'triakis-octahedron': [147.3502],
+    'tetrakis-hexahedron': [143.1301],
+    'deltoidal-icositetrahedron': [138.1176],
+    'disdyakis-dodecahedron': [155.0823],
+    'pentagonal-icositetrahedron': [136.3092],
+    'pentakis-dodecahedron': [156.7188],
+    'triakis-icosahedron': [160.6126], // arccos(−(24 + 15√5)/61)
+    'deltoidal-hexecontahedron': [154.1214],
+    'disdyakis-triacontahedron': [164.8876],
   };
   it.each(Object.entries(handbook))('%s has the handbook dihedral angles', (id, angles) => {
     const found = distinct(getSolid(id).edges.map((e) => e.dihedralDeg));
@@ -39,15 +60,62 @@ describe('catalogue solids', () => {
     'truncated-octahedron': [24, 36, 14],
     'rhombic-dodecahedron': [14, 24, 12],
     'rhombic-triacontahedron': [32, 60, 30],
+    'truncated-tetrahedron': [12, 18, 8],
+    'truncated-cube': [24, 36, 14],
+    rhombicuboctahedron: [24, 48, 26],
+    'truncated-cuboctahedron': [48, 72, 26],
+    'snub-cube': [24, 60, 38],
+    'truncated-icosahedron': [60, 90, 32],
+    'truncated-dodecahedron': [60, 90, 32],
+    rhombicosidodecahedron: [60, 120, 62],
+    'truncated-icosidodecahedron': [120, 180, 62],
+    // A Catalan solid has its Archimedean partner's counts with V and F exchanged.
+    'triakis-tetrahedron': [8, 18, 12],
+    'triakis-octahedron': [14, 36, 24],
+    'tetrakis-hexahedron': [14, 36, 24],
+    'deltoidal-icositetrahedron': [26, 48, 24],
+    'disdyakis-dodecahedron': [26, 72, 48],
+    'pentagonal-icositetrahedron': [38, 60, 24],
+    'pentakis-dodecahedron': [32, 90, 60],
+    'triakis-icosahedron': [32, 90, 60],
+    'deltoidal-hexecontahedron': [62, 120, 60],
+    'disdyakis-triacontahedron': [62, 180, 120],
   };
   it.each(Object.entries(counts))('%s has the tabulated V, E, F', (id, [v, e, f]) => {
     const s = getSolid(id);
     expect([s.vertices.length, s.edges.length, s.faces.length]).toEqual([v, e, f]);
   });
 
-  it('lists 10 named solids plus prisms and antiprisms with 3 to 12 sides', () => {
+  it('Archimedean solids have one edge length and their corners on one sphere; Catalan solids, one face distance', () => {
+    // The defining properties (derived): uniform polyhedra are vertex-transitive with equal edges; their duals
+    // are face-transitive.
+    const spread = (xs: number[]) => (Math.max(...xs) - Math.min(...xs)) / Math.max(...xs);
+    const length = (s: ReturnType<typeof getSolid>, e: { vertices: [number, number] }) =>
+      Math.hypot(...[0, 1, 2].map((k) => s.vertices[e.vertices[0]]![k]! - s.vertices[e.vertices[1]]![k]!));
+    for (const id of [
+      'truncated-tetrahedron',
+      'truncated-cube',
+      'rhombicuboctahedron',
+      'truncated-cuboctahedron',
+      'snub-cube',
+      'truncated-icosahedron',
+      'truncated-dodecahedron',
+      'rhombicosidodecahedron',
+      'truncated-icosidodecahedron',
+    ]) {
+      const s = getSolid(id);
+      expect([id, spread(s.edges.map((e) => length(s, e))) < 1e-12]).toEqual([id, true]);
+      expect([id, spread(s.vertices.map((v) => Math.hypot(...v))) < 1e-12]).toEqual([id, true]);
+    }
+    for (const id of Object.keys(counts).filter((k) => /kis|deltoidal|disdyakis|pentagonal/.test(k))) {
+      const s = getSolid(id);
+      expect([id, spread(s.faces.map((f) => f.distance)) < 1e-12]).toEqual([id, true]);
+    }
+  });
+
+  it('lists 29 named solids plus prisms and antiprisms with 3 to 12 sides', () => {
     const ids = listSolids().map((s) => s.id);
-    expect(ids).toHaveLength(10 + 2 * 10);
+    expect(ids).toHaveLength(29 + 2 * 10);
     expect(ids).toContain('prism-3');
     expect(ids).toContain('antiprism-12');
   });
