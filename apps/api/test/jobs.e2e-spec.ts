@@ -507,6 +507,24 @@ describe('jobs through their states', () => {
     expect(reopened.body.state).toBe('draft');
   });
 
+  it('says in a sentence when the colours chosen cannot meet the colour rule', async () => {
+    // Four faces meet at each corner of the octahedron, so "all faces at a corner differ" needs 4 (derived).
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    const res = await act(
+      users.fabricator,
+      job.id,
+      'prepare',
+      { ...prepareBody(), colours: ['clear', 'smoke'], colourRule: 'vertex-distinct' },
+      409,
+    );
+    expectErrorBody(res.body, 409, 'JOB.LAYOUT_FAILED');
+    expect(res.body.message).toBe(
+      'The colour rule “vertex-distinct” cannot be met with 2 colours; it needs at least 4. ' +
+        'Choose more colours of stock, or another rule.',
+    );
+  });
+
   it('lets the requester withdraw a request until it is prepared, and tells the fabricators', async () => {
     const job = await draftJob();
     const requested = await act(users.hobbyist, job.id, 'request');

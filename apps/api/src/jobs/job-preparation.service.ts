@@ -145,7 +145,14 @@ export class JobPreparationService {
     }
     if (layoutFailure || !summary) {
       const failure = layoutFailure ?? { code: 'LAYOUT.INVALID', message: 'no layout', pieces: [] };
-      throw new AppError(HttpStatus.CONFLICT, 'JOB.LAYOUT_FAILED', failure.message, {
+      // The engine's "no plan exists: rule "…" cannot be met with k colours; it needs at least m", said as a
+      // sentence for the workshop, with what to do about it.
+      const message =
+        failure.code === 'LAYOUT.NO_COLOUR_PLAN'
+          ? `The colour rule “${colourRule ?? 'neighbour-distinct'}” ${failure.message.replace(/^no plan exists: rule "[^"]*" /, '')}. ` +
+            'Choose more colours of stock, or another rule.'
+          : failure.message;
+      throw new AppError(HttpStatus.CONFLICT, 'JOB.LAYOUT_FAILED', message, {
         code: failure.code,
         pieces: failure.pieces,
       });

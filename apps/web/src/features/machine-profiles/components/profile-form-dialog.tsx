@@ -128,7 +128,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
           sx={{
             display: 'grid',
             gap: 2,
-            gridTemplateColumns: { xs: '1fr 1fr', md: 'repeat(5, 1fr)' },
+            gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr', md: 'repeat(5, 1fr)' },
           }}
         >
           <NumberField label="Bed width (mm)" name="bedWidthMm" form={fields} />
