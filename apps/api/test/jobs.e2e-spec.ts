@@ -147,14 +147,15 @@ describe('jobs through their states', () => {
       'job.cut',
       'job.close',
     ]);
-    // Each state change names the job by its design, so the audit trail can say which job moved.
+    // Every entry about the job names it by its design (state changes, its cut pack, the acknowledgement), so
+    // the audit trail can say which job it is about.
     const named: { logged: string | null; name: string }[] = await ctx.db.query(
       `SELECT a.after->>'designName' AS logged, d.name FROM audit_events a
          JOIN jobs j ON j.id::text = a.entity_id JOIN designs d ON d.id = j.design_id
-        WHERE a.entity_id = $1 AND a.action LIKE 'job.%'`,
+        WHERE a.entity_id = $1`,
       [job.id],
     );
-    expect(named).toHaveLength(7);
+    expect(named).toHaveLength(10);
     for (const n of named) expect(n.logged).toBe(n.name);
   });
 

@@ -16,13 +16,23 @@ export interface AuditEntry {
 @Injectable()
 export class AuditService {
   async record(manager: EntityManager, entry: AuditEntry): Promise<void> {
+    let after = entry.after ?? null;
+    // Every entry about a job names it by its design (its cut pack queued or built, notices acknowledged), so
+    // the audit trail can say which job, whatever the entry's own fields.
+    if (entry.entityType === 'job' && !(after && 'designName' in after)) {
+      const rows: { name: string }[] = await manager.query(
+        `SELECT d.name FROM jobs j JOIN designs d ON d.id = j.design_id WHERE j.id::text = $1`,
+        [entry.entityId],
+      );
+      if (rows[0]) after = { ...(after ?? {}), designName: rows[0].name };
+    }
     await manager.insert(AuditEvent, {
       actorId: entry.actorId,
       action: entry.action,
       entityType: entry.entityType,
       entityId: entry.entityId,
       before: entry.before ?? null,
-      after: entry.after ?? null,
+      after,
       requestId: entry.requestId ?? null,
     });
   }
