@@ -145,7 +145,9 @@ describe('cut-pack exports worked inside the API process', () => {
     const manifestFile = view.files.find((f) => f.role === 'manifest')!;
     const manifest = JSON.parse(
       (await download(ctx, p.operator, exportId, manifestFile.name)).body.toString('utf8'),
-    ) as { files: { name: string; sha256: string; bytes: number }[] };
+    ) as { files: { name: string; sha256: string; bytes: number }[]; estimate: unknown };
+    // The job was approved on the time and cost its cut pack now gives.
+    expect(job.body.preparation.estimate).toEqual(manifest.estimate);
     for (const f of view.files) {
       const got = await download(ctx, p.operator, exportId, f.name);
       const body = got.body as Buffer;

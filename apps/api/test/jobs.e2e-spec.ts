@@ -100,6 +100,11 @@ describe('jobs through their states', () => {
     expect(prep.sheetCount).toBeLessThanOrEqual(8);
     expect(prep.utilisation).toBeGreaterThan(0.2);
     expect(prep.utilisation).toBeLessThanOrEqual(1);
+    // The time and cost it is approved on (the cut pack's figures: exports.e2e-spec compares the two), at the
+    // fixture's 40 EUR an hour and 18 EUR a 600 × 400 sheet.
+    expect(prep.estimate).toMatchObject({ currency: 'EUR', materialCost: prep.sheetCount * 18, pierces: 8 });
+    expect(prep.estimate.minutes).toBeGreaterThan(0);
+    expect(prep.estimate.machineCost).toBeCloseTo((prep.estimate.minutes / 60) * 40, 1);
     expect(prepared.body.profileVersionId).toBe(w.laserVersionId);
     await act(users.supervisor, job.id, 'approve');
     await releaseJob(ctx, users.fabricator, job.id);
@@ -149,14 +154,21 @@ describe('jobs through their states', () => {
     ]);
     // Every entry about the job names it by its design (state changes, its cut pack, the acknowledgement), so
     // the audit trail can say which job it is about.
-    const named: { logged: string | null; name: string }[] = await ctx.db.query(
-      `SELECT a.after->>'designName' AS logged, d.name FROM audit_events a
+    // The name stands in both snapshots of an entry that has two, so it never reads as a changed field.
+    const named: { logged: string | null; was: string | null; fresh: boolean; name: string }[] =
+      await ctx.db.query(
+        `SELECT a.after->>'designName' AS logged, a.before->>'designName' AS was, a.before IS NULL AS fresh, d.name
+         FROM audit_events a
          JOIN jobs j ON j.id::text = a.entity_id JOIN designs d ON d.id = j.design_id
         WHERE a.entity_id = $1`,
-      [job.id],
-    );
+        [job.id],
+      );
     expect(named).toHaveLength(10);
-    for (const n of named) expect(n.logged).toBe(n.name);
+    for (const n of named) {
+      expect(n.logged).toBe(n.name);
+      if (!n.fresh) expect(n.was).toBe(n.name);
+    }
+    expect(named.filter((n) => !n.fresh).length).toBeGreaterThanOrEqual(6);
   });
 
   it('releases only through the cut-pack queue: 202 { exportId }, released in the transaction that stores the files', async () => {
@@ -773,6 +785,9 @@ describe('jobs through their states', () => {
     });
     expect(turned.body.state).toBe('prepared');
     expect(turned.body.preparation.sheet).toMatchObject({ widthMm: 600, heightMm: 1000 });
+    // The material lists no 600 × 1000 sheet, so no price: the material cost is unknown, not nought.
+    expect(turned.body.preparation.estimate).toMatchObject({ materialCost: null, currency: 'EUR' });
+    expect(turned.body.preparation.estimate.machineCost).toBeGreaterThan(0);
   });
 
   it('sends mail to the right people on request, preparation, approval, release and return', async () => {

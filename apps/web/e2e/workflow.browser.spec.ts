@@ -30,7 +30,8 @@ async function openJob(role: 'fabricator' | 'supervisor' | 'operator') {
 
 async function takeAction(label: string, expectedState: string) {
   await page.getByTestId('job-actions').getByRole('button', { name: label }).click();
-  await page.getByRole('dialog').getByRole('button', { name: 'Confirm' }).click();
+  // The dialog's confirm button says what it does, as the action's own button does.
+  await page.getByRole('dialog').getByRole('button', { name: label }).click();
   await page.getByTestId('job-detail').getByTestId('job-state').filter({ hasText: expectedState }).waitFor();
 }
 
@@ -223,6 +224,10 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await dialog.getByRole('button', { name: 'Prepare' }).click();
     await page.getByTestId('job-state').filter({ hasText: 'prepared' }).waitFor();
     await page.getByTestId('job-layout').getByText('Utilisation').waitFor();
+    // The time and cost the preparation kept (the cut pack's own figures), which the supervisor approves on.
+    const kept = (await page.getByTestId('job-layout').textContent()) ?? '';
+    expect(kept).toMatch(/Machine time(\d+\.\d min|[\d,]+ h \d+ min)/);
+    expect(kept).toMatch(/Cost\d[\d,]*\.\d\d \w+ \(machine /);
     // The sheet layout: as many sheets drawn as the preparation counted, every length in the chosen unit.
     const layout = page.getByTestId('job-sheets');
     await layout.getByTestId('sheet-layout').waitFor({ timeout: 30_000 });
@@ -256,7 +261,7 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
   it('lets the fabricator release the approved job, which prepares its cut pack', async () => {
     await openJob('fabricator');
     await page.getByTestId('job-actions').getByRole('button', { name: 'Release to the machines' }).click();
-    await page.getByRole('dialog').getByRole('button', { name: 'Confirm' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Release to the machines' }).click();
     // Releasing queues the cut pack (202 with the export); the panel follows the export (its events) and
     // the job is released once the files are stored. An API that still releases at once (200) leaves the
     // pack to be asked for here.

@@ -3,6 +3,7 @@ import bcrypt from 'bcryptjs';
 import { type DataSource, type EntityManager } from 'typeorm';
 import { type MaterialHazard, type SafetyNotice } from '@kerfwright/contracts';
 import { designPreview, buildModel, prepareCut } from '@kerfwright/geometry';
+import { preparationEstimate } from '@kerfwright/geometry/pack';
 import { jobSpec, type Scenario, type ScenarioJob } from '../content';
 
 /** bcrypt cost for seeded passwords (the API uses the same). */
@@ -273,9 +274,10 @@ async function seedJob(
   const material = s.materials.find((x) => x.key === job.material);
   const reached = job.history.map((h) => h.state);
   let preparation = null;
-  if (reached.some((st) => PREPARED_STATES.has(st)) && material?.stockSheets[0]) {
+  const stock = material?.stockSheets[0];
+  if (reached.some((st) => PREPARED_STATES.has(st)) && stock) {
     const prepared = prepareCut(spec, {
-      sheet: material.stockSheets[0],
+      sheet: stock,
       marginMm: 5,
       gapMm: 3,
       colours: { count: job.colours.length, ...(spec.colours?.rule ? { rule: spec.colours.rule } : {}) },
@@ -287,6 +289,25 @@ async function seedJob(
       throw new Error(`seed job "${job.key}" reached preparation but cannot be prepared: ${why}`);
     }
     preparation = prepared.summary;
+    // With the time and cost preparation keeps, at the profile's speeds and the stock's price.
+    const profile = s.machineProfiles.find((p) => p.key === job.profile);
+    const setting = profile?.settings.find((st) => st.material === job.material);
+    if (profile && setting && prepared.layout.ok) {
+      preparation.estimate = preparationEstimate(prepared.model, prepared.layout, {
+        colours: job.colours,
+        sheet: stock,
+        machine: {
+          cutSpeedMmS: setting.cutSpeedMmS,
+          markSpeedMmS: setting.markSpeedMmS,
+          pierceTimeS: setting.pierceTimeS,
+          rapidSpeedMmS: profile.rapidSpeedMmS,
+          passes: setting.passes,
+          hourlyRate: profile.hourlyRate,
+        },
+        pricePerSheet: stock.currency === profile.currency ? stock.pricePerSheet : null,
+        currency: profile.currency,
+      });
+    }
   }
   const hasMachine = reached.some((st) => PREPARED_STATES.has(st)) || job.state === 'returned';
   const rows: { id: string }[] = await m.query(

@@ -124,13 +124,19 @@ export interface JobPreparation {
   colourRule?: ColourRuleName;
   utilisation: number;
   warnings: string[];
+  /**
+   * Time and cost of cutting the sheets as the cut pack draws them (labels and scale marks included), at the
+   * profile version's speeds and hourly rate: the figures the setup sheet prints. `materialCost` is null when
+   * the sheet size has no price in the material's stock list. Absent on jobs prepared before it was kept.
+   */
   estimate?: {
     cutLengthMm: number;
     markLengthMm: number;
     pierces: number;
+    travelMm: number;
     minutes: number;
     machineCost: number;
-    materialCost: number;
+    materialCost: number | null;
     currency: string;
   };
 }

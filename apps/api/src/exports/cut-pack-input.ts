@@ -3,7 +3,12 @@ import { type EntityManager } from 'typeorm';
 import { type CutPackInput, type JobState, type MaterialFamily, noticeApplies } from '@kerfwright/contracts';
 import { Design } from '../designs/design.entity';
 import { Job } from '../jobs/job.entity';
-import { DEFAULT_GAP_MM, DEFAULT_MARGIN_MM, JobPreparationService } from '../jobs/job-preparation.service';
+import {
+  DEFAULT_GAP_MM,
+  DEFAULT_MARGIN_MM,
+  JobPreparationService,
+  stockSheetOf,
+} from '../jobs/job-preparation.service';
 import { SafetyService } from '../safety/safety.service';
 import { User } from '../users/user.entity';
 import { ExportFailure } from './export-failure';
@@ -37,9 +42,8 @@ export class CutPackInputService {
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const requester = await m.findOne(User, { where: { id: job.requesterId } });
     const sheet = job.preparation.sheet;
-    const stock =
-      material.stockSheets.find((s) => s.widthMm === sheet.widthMm && s.heightMm === sheet.heightMm) ??
-      material.stockSheets[0];
+    // The size the job is cut from (a size typed in at preparation is not priced).
+    const stock = stockSheetOf(material, sheet);
     const notices = (await this.safety.notices({}, m)).filter((n) =>
       noticeApplies(n, version.kind, material.family as MaterialFamily),
     );

@@ -120,6 +120,21 @@ export class JobPreparationService {
           colours: { count: colours.length, rule: colourRule },
           quantity: job.quantity,
         },
+        // Time and cost as the cut pack will give them: the version's speeds and rate for this material, and
+        // the sheet's price when the material lists that size (a size typed in has none).
+        estimate: {
+          machine: {
+            cutSpeedMmS: setting.cutSpeedMmS,
+            markSpeedMmS: setting.markSpeedMmS,
+            pierceTimeS: setting.pierceTimeS,
+            rapidSpeedMmS: version.rapidSpeedMmS,
+            passes: setting.passes,
+            hourlyRate: version.hourlyRate,
+          },
+          colours,
+          pricePerSheet: pricedSheet(material, sheet, version.currency),
+          currency: version.currency,
+        },
       });
     } catch (err) {
       if (err instanceof SpecValidationError) throw invalidSpec(err.fieldErrors);
@@ -303,4 +318,29 @@ export function sheetFitsBed(
     (sheet.widthMm <= bed.widthMm && sheet.heightMm <= bed.heightMm) ||
     (sheet.widthMm <= bed.heightMm && sheet.heightMm <= bed.widthMm)
   );
+}
+
+/** The material's stock sheet of that size (either way round), if it lists one: its price and currency. */
+export function stockSheetOf(
+  material: Pick<MaterialView, 'stockSheets'>,
+  sheet: { widthMm: number; heightMm: number },
+): MaterialView['stockSheets'][number] | undefined {
+  const { widthMm: w, heightMm: h } = sheet;
+  return (
+    material.stockSheets.find((s) => s.widthMm === w && s.heightMm === h) ??
+    material.stockSheets.find((s) => s.widthMm === h && s.heightMm === w)
+  );
+}
+
+/**
+ * The price of one sheet in the machine's currency, for the estimate; null when the material lists no such
+ * size or prices it in another currency (the two costs are not added up then).
+ */
+export function pricedSheet(
+  material: Pick<MaterialView, 'stockSheets'>,
+  sheet: { widthMm: number; heightMm: number },
+  currency: string,
+): number | null {
+  const stock = stockSheetOf(material, sheet);
+  return stock && stock.currency === currency ? stock.pricePerSheet : null;
 }

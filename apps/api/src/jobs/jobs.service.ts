@@ -462,15 +462,14 @@ export class JobsService {
       actorId,
       reason,
     });
-    // The design's name, so that the audit trail can say which job ("Job “Felt honeycomb ball” approved").
-    const designName = (await m.findOneBy(Design, { id: job.designId }))?.name ?? null;
+    // The audit service adds the design's name, so the trail can say which job ("Job “Felt honeycomb ball” approved").
     await this.audit.record(m, {
       actorId,
       action: `job.${action}`,
       entityType: 'job',
       entityId: job.id,
-      before: { state: from, designName },
-      after: { state: rule.to, designName, ...(reason ? { reason } : {}) },
+      before: { state: from },
+      after: { state: rule.to, ...(reason ? { reason } : {}) },
       requestId,
     });
     await this.mailer.onTransition(m, job, action);

@@ -12,7 +12,7 @@ export function userFixture(role: Role, overrides: Partial<UserView> = {}): User
   };
 }
 
-/** An approved laser profile version with one material setting (cast acrylic). */
+/** An approved laser profile version with one material setting (cast acrylic), every field given. */
 export function versionFixture(
   overrides: Partial<MachineProfileVersionView> = {},
 ): MachineProfileVersionView {
@@ -27,6 +27,17 @@ export function versionFixture(
     hourlyRate: 24,
     currency: 'EUR',
     notes: '',
+    returnReason: null,
+    basedOnNumber: null,
+    createdBy: null,
+    submittedBy: null,
+    submittedAt: null,
+    approvedBy: null,
+    approvedAt: null,
+    retiredAt: null,
+    lockVersion: 1,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-01T00:00:00.000Z',
     settings: [
       {
         materialId: 'm-acrylic',
@@ -40,5 +51,5 @@ export function versionFixture(
       },
     ],
     ...overrides,
-  } as unknown as MachineProfileVersionView;
+  };
 }

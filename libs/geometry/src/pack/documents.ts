@@ -1,7 +1,6 @@
 /** Content of the setup sheet and the assembly guide (see pdf.ts for drawing helpers). */
-import type { CutPackInput } from '@kerfwright/contracts';
+import type { CutPackEstimate, CutPackInput } from '@kerfwright/contracts';
 import { type BuiltModel, pieceOutline3d } from '../build';
-import { type JobEstimate } from '../estimate';
 import { type AssemblyStep, STRAIGHT_DEG } from './assembly';
 import { type Coupon } from './coupon';
 import { type Pdf, PAGE, drawFlat, drawProjected, ensureRoom, heading, renderPdf, rows } from './pdf';
@@ -21,7 +20,7 @@ export function setupSheetPdf(args: {
   input: CutPackInput;
   model: BuiltModel;
   sheets: readonly SheetDrawing[];
-  estimate: JobEstimate;
+  estimate: CutPackEstimate;
   coupon: Coupon;
   warnings: readonly string[];
 }): Promise<Uint8Array> {

@@ -17,14 +17,12 @@ import { geometryMachineKind, MACHINE_PROFILE_KINDS, type MachineProfileKind } f
 import { type BuiltModel, buildModel } from '../build';
 import { gapRaisedNote, layoutModel, marginRaisedNote } from '../layout/plan-layout';
 import { clashingColourNames, engravedColourName, printableColourName, slug } from './slug';
-import { type EstimateMachine, estimateJob } from '../estimate';
-import { type PieceLabels, labelPiece, uprightStrokes } from '../labels';
-import { type Vec2 } from '../math/vec';
+import { type EstimateMachine } from '../estimate';
 import { assemblyStepsOfReport } from './assembly';
 import { type Coupon, buildCoupon } from './coupon';
 import { assemblyGuidePdf, setupSheetPdf } from './documents';
 import { sheetToDxf, sheetToSvg } from './sheet-files';
-import { type SheetDrawing, drawSheet, placePoint } from './sheet-drawing';
+import { PackSheetsError, drawPackSheets, sheetsEstimate } from './pack-sheets';
 
 /** Thrown when a pack cannot be made; `code` reads AREA.REASON. */
 export class CutPackError extends Error {
@@ -105,20 +103,6 @@ function buildChecked(spec: DesignSpec): BuiltModel {
 
 const sha256 = (data: Uint8Array) => createHash('sha256').update(data).digest('hex');
 
-function roundEstimate(e: CutPackEstimate): CutPackEstimate {
-  const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
-  return {
-    cutLengthMm: r(e.cutLengthMm, 2),
-    markLengthMm: r(e.markLengthMm, 2),
-    pierces: e.pierces,
-    travelMm: r(e.travelMm, 2),
-    minutes: r(e.minutes, 2),
-    machineCost: r(e.machineCost, 2),
-    materialCost: r(e.materialCost, 2),
-    currency: e.currency,
-  };
-}
-
 async function finish(
   input: Pick<CutPackInput, 'job' | 'createdAt' | 'units' | 'archive'> &
     Partial<Pick<CutPackInput, 'notices' | 'localRulesVersion'>>,
@@ -188,25 +172,6 @@ function couponFiles(coupon: Coupon, units: CutPackInput['units']): CutPackFile[
   ];
 }
 
-/** Labels of every piece (in its own frame), keyed by piece id. */
-function labelPieces(
-  model: BuiltModel,
-  colourNames: Record<string, string>,
-  removedMm: number,
-): Map<string, PieceLabels> {
-  const out = new Map<string, PieceLabels>();
-  for (const p of model.pieces) {
-    out.set(
-      p.id,
-      labelPiece(
-        { id: p.id, outline: p.outline, slots: p.slots.map((s) => ({ ...s, widthMm: s.widthMm })) },
-        { colourName: colourNames[p.id], clearanceMm: 1 + removedMm / 2 },
-      ),
-    );
-  }
-  return out;
-}
-
 /**
  * Builds the cut pack of a prepared job. Throws CutPackError (PACK.DESIGN_INVALID, PACK.LAYOUT_FAILED,
  * PACK.BAD_MACHINE…) when no pack can be made. `onProgress` gets fractions 0…1.
@@ -233,23 +198,21 @@ export async function createCutPack(
   });
   if (!layout.ok) throw new CutPackError('PACK.LAYOUT_FAILED', layout.message, layout.pieces);
   progress(0.35);
-  const colourName = (i: number) => input.colours[i] ?? `colour ${i + 1}`;
-  const multiColour = input.colours.length > 1;
-  const pieceColourName = Object.fromEntries(
-    model.pieces.map((p) => [
-      p.id,
-      multiColour
-        ? engravedColourName(colourName(layout.pieceColour[p.id] ?? 0), layout.pieceColour[p.id] ?? 0)
-        : '',
-    ]),
-  );
-  const removed = model.spec.machine.kind === 'laser' ? model.spec.machine.kerfMm : 0;
-  const labels = labelPieces(model, pieceColourName, removed);
-  const warnings: string[] = [
-    ...nameNotes,
-    ...designWarnings(model),
-    ...[...labels.values()].flatMap((l) => l.warnings),
-  ];
+  const machine = toEstimateMachine(input.machine);
+  let drawn: ReturnType<typeof drawPackSheets>;
+  try {
+    drawn = drawPackSheets(model, layout, {
+      colours: input.colours,
+      sheet: input.sheet,
+      units: input.units,
+      machine,
+    });
+  } catch (e) {
+    if (e instanceof PackSheetsError) throw new CutPackError('PACK.LAYOUT_FAILED', e.message);
+    throw e;
+  }
+  const sheets = drawn.sheets;
+  const warnings: string[] = [...nameNotes, ...designWarnings(model), ...drawn.labelWarnings];
   const used = new Set(Object.values(layout.pieceColour));
   const unused = input.colours.filter((_, i) => !used.has(i));
   if (unused.length > 0)
@@ -274,46 +237,11 @@ export async function createCutPack(
       `the machine profile is a ${input.machine.kind} but the design is compensated for a ${model.spec.machine.kind}`,
     );
   }
-  const byId = new Map(model.pieces.map((p) => [p.id, p]));
-  const machine = toEstimateMachine(input.machine);
-  const count = layout.sheets.length;
-  const width = String(count).length < 2 ? 2 : String(count).length;
-  const sheets: SheetDrawing[] = layout.sheets.map((s, i) => {
-    const colour = colourName(Number(s.group));
-    const parts = s.placements.map((pl) => {
-      const piece = byId.get(pl.part);
-      if (!piece) throw new CutPackError('PACK.LAYOUT_FAILED', `layout names an unknown piece ${pl.part}`);
-      const place = (p: Vec2) => placePoint(p, pl.rotationDeg, pl.x, pl.y);
-      return {
-        id: pl.part,
-        outline: piece.outline.map(place),
-        marks: (labels.get(pl.part)?.labels ?? []).flatMap((l) =>
-          uprightStrokes(l, pl.rotationDeg).map((st) => st.map(place)),
-        ),
-      };
-    });
-    const num = String(i + 1).padStart(width, '0');
-    return drawSheet({
-      name: `sheet-${num}-${slug(colour, `colour-${Number(s.group) + 1}`)}`,
-      title: `Sheet ${i + 1} of ${count}: ${colour}`,
-      colourName: colour,
-      sheet: input.sheet,
-      marginMm: layout.marginMm,
-      clearMm: Math.max(2, layout.gapMm),
-      parts,
-      units: input.units,
-      machine,
-    });
-  });
   warnings.push(...sheets.flatMap((s) => s.warnings));
   progress(0.55);
   const coupon = buildCoupon(model, input.units, machine);
   warnings.push(...coupon.warnings);
-  const job = estimateJob(
-    sheets.map((s) => ({ cut: s.cut, mark: s.mark })),
-    machine,
-    input.material.pricePerSheet,
-  );
+  const estimate = sheetsEstimate(sheets, machine, input.material.pricePerSheet, input.machine.currency);
   const files: CutPackFile[] = [];
   for (const s of sheets) {
     files.push({
@@ -340,7 +268,7 @@ export async function createCutPack(
       input: { ...input, gapMm: layout.gapMm, marginMm: layout.marginMm },
       model,
       sheets,
-      estimate: job,
+      estimate,
       coupon,
       warnings,
     }),
@@ -354,16 +282,6 @@ export async function createCutPack(
     data: await assemblyGuidePdf({ input, model, pieceColour: layout.pieceColour, steps }),
   });
   progress(0.92);
-  const estimate = roundEstimate({
-    cutLengthMm: job.cutLengthMm,
-    markLengthMm: job.markLengthMm,
-    pierces: job.pierces,
-    travelMm: job.travelMm,
-    minutes: job.minutes,
-    machineCost: job.machineCost,
-    materialCost: job.materialCost,
-    currency: input.machine.currency,
-  });
   const result = await finish(
     input,
     files,
@@ -434,17 +352,8 @@ export async function createCoupon(
     input.offsetsMm ? { offsetsMm: input.offsetsMm } : {},
   );
   const files = couponFiles(coupon, input.units);
-  const e = coupon.drawing.estimate;
-  const estimate = roundEstimate({
-    cutLengthMm: e.cutLengthMm,
-    markLengthMm: e.markLengthMm,
-    pierces: e.pierces,
-    travelMm: e.travelMm,
-    minutes: e.seconds / 60,
-    machineCost: (e.seconds / 3600) * input.machine.hourlyRate,
-    materialCost: 0,
-    currency: input.machine.currency,
-  });
+  // The coupon is cut from offcuts: machine time only.
+  const estimate = sheetsEstimate([coupon.drawing], machine, 0, input.machine.currency);
   const result = await finish(
     { ...input, archive: input.archive ?? false },
     files,

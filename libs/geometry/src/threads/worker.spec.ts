@@ -35,6 +35,76 @@ describe('geometry worker tasks', () => {
     expect(copy.value.summary?.sheetCount).toBe(1);
   });
 
+  it('estimates the prepared job as its cut pack will: the same figures as the pack manifest, priced per sheet', async () => {
+    // Two colours, so the pieces carry engraved colour names as well as ids and slot partners.
+    const colours = ['saffron', 'teal'];
+    const base = packInputFrom(octahedronHexagons(), { colours, colourRule: 'neighbour-distinct' });
+    const m = base.machine;
+    const machine = {
+      cutSpeedMmS: m.cutSpeedMmS,
+      markSpeedMmS: m.markSpeedMmS,
+      pierceTimeS: m.pierceTimeS,
+      rapidSpeedMmS: m.rapidSpeedMmS,
+      passes: m.passes,
+      hourlyRate: 30,
+    };
+    const layoutCut = {
+      sheet: base.sheet,
+      marginMm: base.marginMm,
+      gapMm: base.gapMm,
+      colours: { count: 2, rule: 'neighbour-distinct' as const },
+    };
+    const prepared = await prepareJob({
+      input: base.spec,
+      fitSearch: null,
+      cut: layoutCut,
+      estimate: { machine, colours, pricePerSheet: 4.5, currency: 'EUR' },
+    });
+    if (!prepared.ok || prepared.value.stage !== 'cut') throw new Error('expected a cut stage');
+    const summary = prepared.value.summary!;
+    const e = summary.estimate!;
+    const pack = await cutPack({
+      input: {
+        ...base,
+        machine: { ...m, hourlyRate: 30, currency: 'EUR' },
+        material: { ...base.material, pricePerSheet: 4.5, currency: 'EUR' },
+      },
+    });
+    if (!pack.ok) throw new Error(pack.error.message);
+    expect(e).toEqual(pack.value.manifest.estimate);
+    // Independently of the pack: every piece's outline is cut once, one pierce each (no inner contours on
+    // these pieces), the labels are marked, and the sheets are priced one by one.
+    const model = buildModel(base.spec);
+    const perimeter = (o: readonly (readonly [number, number])[]) =>
+      o.reduce(
+        (s, p, i) => s + Math.hypot(o[(i + 1) % o.length]![0] - p[0], o[(i + 1) % o.length]![1] - p[1]),
+        0,
+      );
+    const cutMm = model.pieces.reduce((s, p) => s + perimeter(p.outline), 0);
+    expect(e.cutLengthMm).toBeCloseTo(cutMm, 1);
+    expect(e.pierces).toBe(model.pieces.length);
+    expect(e.markLengthMm).toBeGreaterThan(0);
+    expect(e.materialCost).toBeCloseTo(summary.sheetCount * 4.5, 6);
+    // Time model (libs/geometry/src/estimate/estimate.ts, REFERENCES "Stock and machines"): cut ÷ speed ×
+    // passes + mark ÷ mark speed + pierces × pierce time × passes + travel ÷ rapid speed.
+    const seconds =
+      (e.cutLengthMm * machine.passes) / machine.cutSpeedMmS +
+      e.markLengthMm / machine.markSpeedMmS +
+      e.pierces * machine.passes * machine.pierceTimeS +
+      e.travelMm / machine.rapidSpeedMmS;
+    expect(e.minutes).toBeCloseTo(seconds / 60, 1);
+    expect(e.machineCost).toBeCloseTo((seconds / 3600) * 30, 1);
+    // A sheet size without a price: the material cost is unknown, not zero.
+    const unpriced = await prepareJob({
+      input: base.spec,
+      fitSearch: null,
+      cut: layoutCut,
+      estimate: { machine, colours, pricePerSheet: null, currency: 'EUR' },
+    });
+    if (!unpriced.ok || unpriced.value.stage !== 'cut') throw new Error('expected a cut stage');
+    expect(unpriced.value.summary!.estimate).toEqual({ ...e, materialCost: null });
+  });
+
   it('returns engine errors as data and rebuilds them as the engine’s classes', async () => {
     const bad = await prepareJob({
       input: { ...octahedronHexagons(), fitMm: Number.NaN },

@@ -26,6 +26,7 @@ import { buildWithLayout } from '../layout/build-with-layout';
 import { prepareCut } from '../layout/prepare-cut';
 import { type LayoutOptions } from '../layout/plan-layout';
 import { CutPackError, createCutPack } from '../pack/pack';
+import { type CutEstimateOptions, preparationEstimate } from '../pack/pack-sheets';
 import { parseSolidText } from '../solids/parse';
 import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError, validateSpec } from '../spec/validate-spec';
@@ -78,6 +79,11 @@ export interface PrepareJobTask {
    */
   fitSearch: DesignSpecInput | null;
   cut: LayoutOptions;
+  /**
+   * The machine's speeds and rate, the colour names and the sheet's price, for the time and cost of cutting
+   * the sheets as the cut pack draws them. A null price: the sheet size has none (material cost unknown).
+   */
+  estimate?: Omit<CutEstimateOptions, 'sheet' | 'pricePerSheet'> & { pricePerSheet: number | null };
 }
 
 export type PreparedJob =
@@ -105,6 +111,9 @@ export function prepareJob(task: PrepareJobTask): Promise<ThreadOutcome<Prepared
       spec = { ...spec, scale: resolvedSpec.scale };
     }
     const { model, layout, summary } = prepareCut(spec, task.cut);
+    if (summary && layout.ok && task.estimate) {
+      summary.estimate = preparationEstimate(model, layout, { ...task.estimate, sheet: task.cut.sheet });
+    }
     return {
       stage: 'cut',
       spec,

@@ -19,13 +19,20 @@ export class SheetDto {
   @ApiProperty() heightMm: number;
 }
 
+/** The time and cost a preparation keeps: the cut pack's own figures (see JobPreparation.estimate). */
 export class JobEstimateDto {
   @ApiProperty() cutLengthMm: number;
   @ApiProperty() markLengthMm: number;
   @ApiProperty() pierces: number;
+  @ApiProperty({ description: 'Rapid travel between contours, mm' }) travelMm: number;
   @ApiProperty() minutes: number;
   @ApiProperty() machineCost: number;
-  @ApiProperty() materialCost: number;
+  @ApiProperty({
+    type: Number,
+    nullable: true,
+    description: 'Null when the material lists no price for the sheet in the machine’s currency',
+  })
+  materialCost: number | null;
   @ApiProperty() currency: string;
 }
 

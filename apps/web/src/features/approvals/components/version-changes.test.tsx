@@ -1,46 +1,26 @@
-import { type MachineProfileVersionView } from '@kerfwright/contracts';
 import { screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { VersionChanges } from './version-changes';
 import { stubScreenWidth } from '../../../testing/screen-width';
+import { versionFixture } from '../../../testing/fixtures';
 
-const approved = {
-  id: 'v-1',
+const approved = versionFixture({
   profileId: 'p-laser',
-  number: 1,
-  state: 'approved',
-  bedWidthMm: 600,
-  bedHeightMm: 400,
-  rapidSpeedMmS: 400,
-  hourlyRate: 24,
-  currency: 'EUR',
-  settings: [
-    {
-      materialId: 'm-acrylic',
-      materialName: 'Cast acrylic 3 mm',
-      kerfMm: 0.18,
-      cutSpeedMmS: 12,
-      markSpeedMmS: 250,
-      powerPct: 65,
-      passes: 1,
-      pierceTimeS: 0.3,
-    },
-  ],
-  notes: '',
-} as unknown as MachineProfileVersionView;
+  settings: [{ ...versionFixture().settings[0]!, kerfMm: 0.18 }],
+});
 
 const NOTES =
   'Kerf measured on three coupons cut from the new acrylic batch, at the same speed and power as before; the lens was cleaned first.';
 
-const waiting = {
+const waiting = versionFixture({
   ...approved,
   id: 'v-2',
   number: 2,
   state: 'submitted',
   settings: [{ ...approved.settings[0]!, kerfMm: 0.16 }],
   notes: NOTES,
-} as MachineProfileVersionView;
+});
 
 afterEach(() => vi.unstubAllGlobals());
 

@@ -2,49 +2,29 @@ import { type JobView, type MachineProfileSummaryView } from '@kerfwright/contra
 import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { userFixture } from '../../../testing/fixtures';
+import { userFixture, versionFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 
 const supervisor = userFixture('supervisor');
 
-const setting = {
-  materialId: 'm-acrylic',
-  materialName: 'Cast acrylic 3 mm',
-  // 3 mm cast acrylic on a CO2 laser: kerf about 0.15–0.23 mm (laser-cutting services' artwork guides, common practice).
-  kerfMm: 0.18,
-  cutSpeedMmS: 12,
-  markSpeedMmS: 250,
-  powerPct: 65,
-  passes: 1,
-  pierceTimeS: 0.3,
-};
+// 3 mm cast acrylic on a CO2 laser: kerf about 0.15–0.23 mm (laser-cutting services' artwork guides, common practice).
+const setting = { ...versionFixture().settings[0]!, kerfMm: 0.18 };
 
-const approved = {
-  id: 'v-1',
+const approved = versionFixture({
   profileId: 'p-laser',
-  number: 1,
-  state: 'approved',
-  bedWidthMm: 600,
-  bedHeightMm: 400,
-  rapidSpeedMmS: 400,
-  hourlyRate: 24,
-  currency: 'EUR',
   settings: [setting],
-  notes: '',
-  returnReason: null,
-  basedOnNumber: null,
   lockVersion: 3,
   submittedAt: '2026-01-02T10:00:00.000Z',
-} as unknown as MachineProfileSummaryView['latest'];
+});
 
-const waiting = {
+const waiting = versionFixture({
   ...approved,
   id: 'v-2',
   number: 2,
   state: 'submitted',
   lockVersion: 2,
   settings: [{ ...setting, kerfMm: 0.16 }],
-} as MachineProfileSummaryView['latest'];
+});
 
 const profile: MachineProfileSummaryView = {
   id: 'p-laser',
@@ -70,10 +50,11 @@ const job = {
   actions: ['approve', 'return'],
 } as unknown as JobView;
 
-function approvalsApi(waitingJob: JobView = job) {
+function approvalsApi(waitingJob: JobView = job, waitingProfile: MachineProfileSummaryView = profile) {
   return stubFetch({
     'GET /api/auth/me': () => json(200, supervisor),
-    'GET /api/machine-profiles': () => json(200, { items: [profile], total: 1, page: 1, pageSize: 100 }),
+    'GET /api/machine-profiles': () =>
+      json(200, { items: [waitingProfile], total: 1, page: 1, pageSize: 100 }),
     'GET /api/jobs': () => json(200, { items: [waitingJob], total: 1, page: 1, pageSize: 100 }),
     'POST /api/machine-profiles/p-laser/versions/v-2/return': (call) =>
       json(200, { ...waiting, state: 'draft', returnReason: (call.body as { reason: string }).reason }),
@@ -96,6 +77,33 @@ describe('Approvals (supervisor)', () => {
       'submitted',
     );
     expect(calls.find((c) => c.url.pathname === '/api/jobs')?.url.searchParams.get('state')).toBe('prepared');
+  });
+
+  it("shows a waiting version's notes once: among the changes when they changed, else on a line of their own", async () => {
+    const notes = 'Kerf measured on three coupons from the new acrylic batch.';
+    const times = (text: string | null, part: string) => (text ?? '').split(part).length - 1;
+    for (const approvedNotes of ['Kerf from the maker’s table.', notes]) {
+      approvalsApi(job, {
+        ...profile,
+        currentApproved: { ...approved, notes: approvedNotes },
+        latest: { ...waiting, notes },
+      });
+      const { unmount } = renderApp('/approvals', { token: 't' });
+      const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+      expect(times(card.textContent, notes)).toBe(1);
+      const listed = within(card)
+        .getAllByTestId('version-change')
+        .some((c) => c.textContent?.includes(notes));
+      if (approvedNotes === notes) {
+        // Unchanged: not a change, so said below the list, and said to be unchanged.
+        expect(listed).toBe(false);
+        expect(within(card).getByTestId('version-notes')).toHaveTextContent(`Notes (unchanged): ${notes}`);
+      } else {
+        expect(listed).toBe(true);
+        expect(within(card).queryByTestId('version-notes')).not.toBeInTheDocument();
+      }
+      unmount();
+    }
   });
 
   it('sends a version back only with a reason, and the lockVersion it read', async () => {
@@ -155,6 +163,37 @@ describe('Approvals (supervisor)', () => {
     const card = await screen.findByTestId('waiting-job');
     expect(card).toHaveTextContent(
       '600 pieces on 600 sheets of 600 × 400 mm, 41 % used; about 28 h 44 min, 9,389.52 EUR.',
+    );
+  });
+
+  it('counts machine time only when the sheet size has no price, and says so', async () => {
+    const preparation = {
+      thicknessMm: 3,
+      machineKind: 'laser',
+      kerfMm: 0.15,
+      pieceCount: 8,
+      crossingCount: 12,
+      diameterMm: 200,
+      sheetCount: 1,
+      sheet: { widthMm: 600, heightMm: 1000 },
+      utilisation: 0.3,
+      warnings: [],
+      estimate: {
+        cutLengthMm: 7000,
+        markLengthMm: 2600,
+        pierces: 8,
+        travelMm: 4300,
+        minutes: 2.4,
+        machineCost: 0.96,
+        materialCost: null,
+        currency: 'EUR',
+      },
+    };
+    approvalsApi({ ...job, preparation } as unknown as JobView);
+    renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-job');
+    expect(card).toHaveTextContent(
+      '8 pieces on 1 sheet of 600 × 1000 mm, 30 % used; about 2.4 min, 0.96 EUR of machine time (no sheet price in EUR).',
     );
   });
 

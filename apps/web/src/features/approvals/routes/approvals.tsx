@@ -11,6 +11,7 @@ import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/api-client';
 import { approveBlockedReason } from '../../jobs/lib/approve-blocked';
 import { KIND_LABELS } from '../../machine-profiles/components/profile-labels';
+import { versionChanges } from '../../machine-profiles/utils/version-rows';
 import { useDecideJob } from '../api/decide-job';
 import { useDecideProfileVersion } from '../api/decide-profile-version';
 import { useWaitingJobs } from '../api/get-waiting-jobs';
@@ -24,6 +25,13 @@ import { countOf } from '../../../lib/plural';
 import { formatMinutes, formatMoney } from '../../../lib/units';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+/**
+ * Whether the waiting version's notes are among its listed changes (new, or changed since the approved
+ * version). Listed notes are not repeated; only unchanged notes get a line of their own.
+ */
+const notesAmongChanges = (p: MachineProfileSummaryView) =>
+  versionChanges(p.currentApproved, p.latest).some((c) => c.key === 'machine.notes');
 
 type SendingBack =
   { kind: 'version'; profile: MachineProfileSummaryView } | { kind: 'job'; job: JobView } | null;
@@ -130,9 +138,9 @@ export function ApprovalsRoute() {
                   : 'No version is approved yet: every value is new.'}
               </Typography>
               <VersionChanges approved={p.currentApproved} waiting={p.latest} />
-              {p.latest.notes ? (
-                <Typography variant="body2" sx={{ mt: 2 }}>
-                  Notes: {p.latest.notes}
+              {p.latest.notes && !notesAmongChanges(p) ? (
+                <Typography variant="body2" sx={{ mt: 2 }} data-testid="version-notes">
+                  Notes (unchanged): {p.latest.notes}
                 </Typography>
               ) : null}
             </CardContent>
@@ -174,7 +182,7 @@ export function ApprovalsRoute() {
                     {prep.sheet.widthMm} × {prep.sheet.heightMm} mm, {(prep.utilisation * 100).toFixed(0)} %
                     used
                     {prep.estimate
-                      ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + prep.estimate.materialCost, prep.estimate.currency)}`
+                      ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + (prep.estimate.materialCost ?? 0), prep.estimate.currency)}${prep.estimate.materialCost === null ? ` of machine time (no sheet price in ${prep.estimate.currency})` : ''}`
                       : ''}
                     .
                   </Typography>

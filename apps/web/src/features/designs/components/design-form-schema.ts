@@ -266,7 +266,9 @@ export function fromDesign(design: DesignView): { values: DesignFormValues; uplo
       gapMm: s.stock.gapMm ?? DEFAULT_DESIGN_VALUES.gapMm,
       bedWidthMm: s.bed?.widthMm ?? DEFAULT_DESIGN_VALUES.bedWidthMm,
       bedHeightMm: s.bed?.heightMm ?? DEFAULT_DESIGN_VALUES.bedHeightMm,
-      colourCount: s.colours?.count ?? (s.colours?.names?.length || DEFAULT_DESIGN_VALUES.colourCount),
+      // A design saved without colours is cut from one colour of stock: toSavedSpec saves one colour as none,
+      // and preparing its job counts none as one. Only a new design starts from the default.
+      colourCount: s.colours?.count ?? (s.colours?.names?.length || 1),
       colourRule: s.colours?.rule ?? DEFAULT_DESIGN_VALUES.colourRule,
       thicknessMm: s.stock.thicknessMm,
       flexible: s.stock.flexible ?? false,

@@ -7,6 +7,7 @@ import { userFixture } from '../../../testing/fixtures';
 import { formatLength } from '../../../lib/units';
 import { renderApp } from '../../../testing/render-app';
 import { DEFAULT_DESIGN_VALUES, toSavedSpec } from '../components/design-form-schema';
+import { designColours } from '../../jobs/components/prepare-job-dialog';
 
 // jsdom has no WebGL: a stand-in for the 3D view shows what it was asked to draw.
 vi.mock('../components/model-preview-3d', () => ({
@@ -223,6 +224,18 @@ describe('design studio', () => {
     const idle = await screen.findByTestId('sheets-idle');
     expect(idle).toHaveTextContent('2 colours need at least 2 sheets (one per colour)');
     expect(idle).not.toHaveTextContent('Give a stock sheet size');
+  });
+
+  it('opens a design saved without colours as one colour, as preparing its job counts it', async () => {
+    // One colour is saved as no colours at all.
+    const spec = toSavedSpec({ ...DEFAULT_DESIGN_VALUES, colourCount: 1 }, null) as DesignSpecInput;
+    expect(spec.colours).toBeUndefined();
+    const design = designFixture({ spec: spec as DesignView['spec'] });
+    studioApi(design);
+    renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const colours = await screen.findByLabelText('Colours');
+    expect(colours).toHaveValue(1);
+    expect(designColours(design).count).toBe(1);
   });
 
   it('says the colour rule is why nothing is laid out, not a failed layout', async () => {

@@ -6,15 +6,14 @@ import {
   type UploadedSolid,
 } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
-import Button from '@mui/material/Button';
 import CircularProgress from '@mui/material/CircularProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
-import Typography from '@mui/material/Typography';
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
-import { Link, useLocation, useNavigate, useParams } from 'react-router-dom';
+import { useLocation, useNavigate, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
+import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
@@ -88,19 +87,15 @@ function isDesignId(id: string): boolean {
  */
 function NoSuchDesign() {
   return (
-    <Box sx={{ maxWidth: 640, mx: 'auto', my: 4, px: 2 }} data-testid="no-such-design">
-      <title>No such design · Kerfwright</title>
-      <Typography variant="h1" sx={{ mb: 1 }}>
-        No such design
-      </Typography>
-      <Typography color="text.secondary" sx={{ mb: 2 }}>
-        There is no design at this address that you can open. The link may be mistyped or incomplete; the
-        designs page lists every design you can open.
-      </Typography>
-      <Button variant="contained" component={Link} to={paths.designs.getHref()}>
-        Back to the designs
-      </Button>
-    </Box>
+    <NotFoundPage
+      title="No such design"
+      backTo={paths.designs.getHref()}
+      backLabel="Back to the designs"
+      testId="no-such-design"
+    >
+      There is no design at this address that you can open. The link may be mistyped or incomplete; the
+      designs page lists every design you can open.
+    </NotFoundPage>
   );
 }
 

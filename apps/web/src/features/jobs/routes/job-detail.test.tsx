@@ -112,11 +112,39 @@ describe('job detail', () => {
     });
     const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
     await user.click(await screen.findByRole('button', { name: 'Withdraw the request' }));
+    expect(screen.getByText(/^Requested by Jun Park · 1 copy/)).toBeInTheDocument();
     const dialog = await screen.findByRole('dialog', { name: 'Withdraw the request?' });
     expect(dialog).toHaveTextContent('The job moves from requested to draft.');
-    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    // The confirmation says what it does, as the page's own button does; no bare "Confirm".
+    expect(within(dialog).queryByRole('button', { name: 'Confirm' })).not.toBeInTheDocument();
+    await user.click(within(dialog).getByRole('button', { name: 'Withdraw the request' }));
     await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
     expect(stub.calls.find((c) => c.method === 'POST')?.url.pathname).toBe(`/api/jobs/${job.id}/withdraw`);
+  });
+
+  it('names the owner of a draft, and confirms its request with a button that says it requests the cut', async () => {
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'draft', actions: ['request'] }),
+      [`POST /api/jobs/${job.id}/request`]: () =>
+        json(200, { ...job, state: 'requested', actions: ['withdraw'] }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    // A draft (never sent, or its request withdrawn) is requested by nobody yet: it names its owner.
+    expect(screen.getByText(/^Owner: Jun Park · 1 copy/)).toBeInTheDocument();
+    expect(screen.queryByText(/Requested by/)).not.toBeInTheDocument();
+    await user.click(within(actions).getByRole('button', { name: 'Request the cut' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Request the cut?' });
+    expect(
+      within(dialog)
+        .getAllByRole('button')
+        .map((b) => b.textContent),
+    ).toEqual(['Cancel', 'Request the cut']);
+    await user.click(within(dialog).getByRole('button', { name: 'Request the cut' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(stub.calls.find((c) => c.method === 'POST')?.url.pathname).toBe(`/api/jobs/${job.id}/request`);
+    expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 4 });
   });
 
   it('shows nothing to do when the API lists no actions', async () => {
@@ -316,7 +344,7 @@ describe('job detail', () => {
     const actions = await screen.findByTestId('job-actions');
     await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
     const dialog = await screen.findByRole('dialog');
-    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    await user.click(within(dialog).getByRole('button', { name: 'Approve the job' }));
 
     expect(await screen.findByTestId('return-reason')).toHaveTextContent('Returned: Wrong stock');
     expect(screen.getByTestId('job-state')).toHaveTextContent('returned');
@@ -359,13 +387,15 @@ describe('job detail', () => {
     const actions = await screen.findByTestId('job-actions');
     await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
     const dialog = await screen.findByRole('dialog');
-    await user.click(within(dialog).getByRole('button', { name: 'Confirm' }));
+    await user.click(within(dialog).getByRole('button', { name: 'Approve the job' }));
     // The dialog closes: the supervisor sees the job as it is now before approving it again.
     await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
     expect(await screen.findByText('Two colours after all')).toBeInTheDocument();
     expect(screen.getByTestId('job-read-again')).not.toHaveTextContent('reload');
     await user.click(within(actions).getByRole('button', { name: /^Approve/ }));
-    await user.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Confirm' }));
+    await user.click(
+      within(await screen.findByRole('dialog')).getByRole('button', { name: 'Approve the job' }),
+    );
     await waitFor(() => expect(stub.calls.filter((c) => c.method === 'POST')).toHaveLength(2));
     expect(stub.calls.filter((c) => c.method === 'POST').map((c) => c.body)).toEqual([
       { version: 4 },

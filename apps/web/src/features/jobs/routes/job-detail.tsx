@@ -26,6 +26,7 @@ import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
+import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
@@ -103,19 +104,15 @@ function refusedActionSentence(details: unknown, taken: JobAction | undefined, s
 /** An address that names no job (mistyped, or the job is not there): say so, and offer the way back. */
 function NoSuchJob() {
   return (
-    <Box sx={{ maxWidth: 640, mx: 'auto', my: 4, px: 2 }} data-testid="no-such-job">
-      <title>No such job · Kerfwright</title>
-      <Typography variant="h1" sx={{ mb: 1 }}>
-        No such job
-      </Typography>
-      <Typography color="text.secondary" sx={{ mb: 2 }}>
-        There is no job at this address. The link may be mistyped or incomplete; the jobs board lists every
-        job you can open.
-      </Typography>
-      <Button variant="contained" component={Link} to={paths.jobs.getHref()}>
-        Back to the jobs
-      </Button>
-    </Box>
+    <NotFoundPage
+      title="No such job"
+      backTo={paths.jobs.getHref()}
+      backLabel="Back to the jobs"
+      testId="no-such-job"
+    >
+      There is no job at this address. The link may be mistyped or incomplete; the jobs board lists every job
+      you can open.
+    </NotFoundPage>
   );
 }
 
@@ -184,7 +181,8 @@ function JobDetail({ job }: { job: JobDetailView }) {
         </ToggleButtonGroup>
       </Stack>
       <Typography color="text.secondary" sx={{ mb: 2 }}>
-        {`Requested by ${job.requesterName} · ${countOf(job.quantity, 'copy', 'copies')} · `}
+        {/* A draft is requested by nobody (not sent yet, or the request was withdrawn): its maker owns it. */}
+        {`${job.state === 'draft' ? 'Owner:' : 'Requested by'} ${job.requesterName} · ${countOf(job.quantity, 'copy', 'copies')} · `}
         <Link to={`/designs/${job.designId}`}>open the design</Link>
       </Typography>
       {job.returnReason && job.state === 'returned' ? (
@@ -296,7 +294,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
                         ['Machine time', formatMinutes(prep.estimate.minutes)],
                         [
                           'Cost',
-                          `${formatMoney(prep.estimate.machineCost + prep.estimate.materialCost, prep.estimate.currency)} (machine ${formatMoney(prep.estimate.machineCost, prep.estimate.currency)}, material ${formatMoney(prep.estimate.materialCost, prep.estimate.currency)})`,
+                          prep.estimate.materialCost === null
+                            ? `${formatMoney(prep.estimate.machineCost, prep.estimate.currency)} machine time; material not counted (the stock list has no price for this sheet in ${prep.estimate.currency})`
+                            : `${formatMoney(prep.estimate.machineCost + prep.estimate.materialCost, prep.estimate.currency)} (machine ${formatMoney(prep.estimate.machineCost, prep.estimate.currency)}, material ${formatMoney(prep.estimate.materialCost, prep.estimate.currency)})`,
                         ],
                       ] as [string, string][])
                     : []),
@@ -413,8 +413,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
           </DialogContent>
           <DialogActions>
             <Button onClick={() => setOpen(null)}>Cancel</Button>
+            {/* The button says what it does, in the words of the action's own button on the page. */}
             <Button variant="contained" disabled={action.isPending} onClick={() => take(open as JobAction)}>
-              Confirm
+              {transitionFor(open as JobAction).label}
             </Button>
           </DialogActions>
         </Dialog>

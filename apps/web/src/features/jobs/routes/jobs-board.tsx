@@ -18,7 +18,8 @@ const FILTERS = {
 
 const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
   { id: 'design', header: 'Design', render: (job) => <Link to={`/jobs/${job.id}`}>{job.designName}</Link> },
-  { id: 'requester', header: 'Requester', render: (job) => job.requesterName },
+  // "Owner", not "Requester": a draft (not sent yet, or its request withdrawn) is requested by nobody.
+  { id: 'requester', header: 'Owner', render: (job) => job.requesterName },
   { id: 'state', header: 'State', sortField: 'state', render: (job) => <JobStateChip state={job.state} /> },
   { id: 'material', header: 'Material', render: (job) => job.materialName ?? '—' },
   {
@@ -63,7 +64,7 @@ export function JobsBoardRoute() {
         <Stack direction={{ xs: 'column', md: 'row' }} spacing={2} sx={{ mb: 2 }}>
           <TextField
             size="small"
-            label="Search design or requester"
+            label="Search design or owner"
             defaultValue={params.q ?? ''}
             onChange={(e) => set({ q: e.target.value })}
           />

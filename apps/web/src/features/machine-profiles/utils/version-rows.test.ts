@@ -1,47 +1,21 @@
 import { type MachineProfileVersionView } from '@kerfwright/contracts';
 import { describe, expect, it } from 'vitest';
+import { versionFixture } from '../../../testing/fixtures';
 import { versionChanges, versionRows } from './version-rows';
 
+/** Version `number` of one laser profile: the shared fixture, its acrylic cut with a 0.18 mm kerf. */
 function version(
   number: number,
   overrides: Partial<MachineProfileVersionView> = {},
 ): MachineProfileVersionView {
-  return {
+  const acrylic = versionFixture().settings[0]!;
+  return versionFixture({
     id: `v${number}`,
     profileId: 'p',
     number,
-    state: 'approved',
-    bedWidthMm: 600,
-    bedHeightMm: 400,
-    rapidSpeedMmS: 400,
-    hourlyRate: 24,
-    currency: 'EUR',
-    settings: [
-      {
-        materialId: 'm-acrylic',
-        materialName: 'Cast acrylic 3 mm',
-        kerfMm: 0.18,
-        cutSpeedMmS: 12,
-        markSpeedMmS: 250,
-        powerPct: 65,
-        passes: 1,
-        pierceTimeS: 0.3,
-      },
-    ],
-    notes: '',
-    returnReason: null,
-    basedOnNumber: null,
-    createdBy: null,
-    submittedBy: null,
-    submittedAt: null,
-    approvedBy: null,
-    approvedAt: null,
-    retiredAt: null,
-    lockVersion: 1,
-    createdAt: '2026-01-01T00:00:00.000Z',
-    updatedAt: '2026-01-01T00:00:00.000Z',
+    settings: [{ ...acrylic, kerfMm: 0.18 }],
     ...overrides,
-  };
+  });
 }
 
 describe('comparing profile versions', () => {

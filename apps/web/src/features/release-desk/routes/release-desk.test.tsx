@@ -181,6 +181,34 @@ describe('release desk', () => {
     expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 8 });
   });
 
+  it('offers a supervisor a new cut pack only where the API builds one: not once the job is cut or closed', async () => {
+    for (const state of ['released', 'cut', 'closed'] as const) {
+      stubDesk(
+        true,
+        {},
+        {
+          'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+          // Opened while released, the job stays on screen after its cut and its closing.
+          [`GET /api/jobs/${released.id}`]: () =>
+            json(200, { ...released, state, actions: [], transitions: [] }),
+        },
+      );
+      const { user, unmount } = renderApp('/release-desk', { token: 't' });
+      await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+      const job = await screen.findByTestId('desk-job');
+      await waitFor(() => expect(within(job).getByTestId('job-state')).toHaveTextContent(state));
+      // The pack is loaded (its files listed) before the button is looked for.
+      await within(job).findByRole('table', { name: 'Cut pack files' });
+      const rebuild = within(job).queryByRole('button', { name: /^Prepare the cut pack/ });
+      if (state === 'released') {
+        expect(rebuild).toHaveTextContent('Prepare the cut pack again');
+      } else {
+        expect(rebuild).not.toBeInTheDocument();
+      }
+      unmount();
+    }
+  });
+
   it('keeps offering the last built pack while a new one failed, and says which it is', async () => {
     const failed = {
       ...exportFixture('e-new', released.id, 'failed', 40),

@@ -1,4 +1,4 @@
-import { type JobView } from '@kerfwright/contracts';
+import { type JobState, type JobView } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
@@ -164,6 +164,12 @@ function DeskCards({
   );
 }
 
+/**
+ * The states a cut pack is built in, as the API allows (an approved job at its release, a released one
+ * again): a job stays on screen after its cut, but its pack is not rebuilt then.
+ */
+const PACK_BUILT_IN: readonly JobState[] = ['approved', 'released'];
+
 /** One job at the desk: the safety acknowledgement, the cut pack's files and recording the cut. */
 function DeskJob({ job }: { job: JobView }) {
   const user = useUser();
@@ -232,8 +238,9 @@ function DeskJob({ job }: { job: JobView }) {
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
       <CutPackPanel
         jobId={job.id}
-        canPrepare={user.role === 'supervisor'}
+        canPrepare={user.role === 'supervisor' && PACK_BUILT_IN.includes(job.state)}
         canDownload={user.role === 'operator' || user.role === 'supervisor'}
+        jobDone={job.state === 'cut' || job.state === 'closed'}
         onOpenSafety={() => setOpen('safety')}
       />
       {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}

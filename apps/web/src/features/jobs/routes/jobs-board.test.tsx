@@ -1,0 +1,62 @@
+import { type JobView } from '@kerfwright/contracts';
+import { screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture } from '../../../testing/fixtures';
+import { renderApp } from '../../../testing/render-app';
+
+function boardJob(id: string, state: JobView['state'], requesterName: string): JobView {
+  return {
+    id,
+    state,
+    designId: `d-${id}`,
+    designName: `Design ${id}`,
+    requesterId: `u-${id}`,
+    requesterName,
+    quantity: 1,
+    notes: '',
+    materialId: null,
+    materialName: null,
+    colours: [],
+    profileVersionId: null,
+    profileName: null,
+    profileVersionNumber: null,
+    returnReason: null,
+    preparation: null,
+    actualMinutes: null,
+    sheetsUsed: null,
+    measuredKerfMm: null,
+    version: 1,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-02T00:00:00.000Z',
+    actions: [],
+  };
+}
+
+describe('jobs board', () => {
+  it('heads the column of names "Owner", true of a draft too, which nobody has requested', async () => {
+    // A draft whose request was withdrawn, beside a job that is requested.
+    const withdrawn = boardJob('j-1', 'draft', 'Jun Park');
+    const requested = boardJob('j-2', 'requested', 'Ana Ruiz');
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      'GET /api/jobs': () => json(200, { items: [withdrawn, requested], total: 2, page: 1, pageSize: 25 }),
+    });
+    renderApp('/jobs', { token: 't' });
+    const table = await screen.findByRole('table', { name: 'Jobs' });
+    await within(table).findByTestId('job-row-j-1');
+    const headers = within(table)
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent);
+    expect(headers).toContain('Owner');
+    expect(headers).not.toContain('Requester');
+    const column = headers.indexOf('Owner');
+    for (const [row, name] of [
+      ['job-row-j-1', 'Jun Park'],
+      ['job-row-j-2', 'Ana Ruiz'],
+    ] as const) {
+      expect(within(within(table).getByTestId(row)).getAllByRole('cell')[column]).toHaveTextContent(name);
+    }
+    expect(screen.getByLabelText('Search design or owner')).toBeInTheDocument();
+  });
+});
