@@ -50,6 +50,21 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     expect(pixels.width).toBeGreaterThan(100);
     expect(pixels.colours).toBeGreaterThan(5);
     expect(await page.getByTestId('model-facts').textContent()).toMatch(/Pieces8/);
+    // Without a mouse (WCAG 2.1.1, 2.5.1): the focused preview turns with the arrow keys and a button, the
+    // page does not scroll, and Home brings back the starting view.
+    const view = page.getByRole('application', { name: '3D preview of the assembled model' });
+    const home = await view.getAttribute('data-turn-deg');
+    const scrollY = await page.evaluate(() => window.scrollY);
+    await view.focus();
+    await page.keyboard.press('ArrowLeft');
+    expect(await view.getAttribute('data-turn-deg')).not.toBe(home);
+    expect(await page.evaluate(() => window.scrollY)).toBe(scrollY);
+    await page.keyboard.press('Home');
+    expect(await view.getAttribute('data-turn-deg')).toBe(home);
+    await page.getByRole('button', { name: 'Turn model right' }).click();
+    expect(await view.getAttribute('data-turn-deg')).not.toBe(home);
+    await page.getByRole('button', { name: 'Reset view' }).click();
+    expect(await view.getAttribute('data-turn-deg')).toBe(home);
 
     // A field error blocks the preview's input, not the page: 2 sides is no polygon.
     await page.getByLabel('Sides (n)').fill('2');

@@ -1,11 +1,37 @@
 import { type DesignReport } from '@kerfwright/contracts';
 import { Canvas, useFrame, useThree } from '@react-three/fiber';
-import { memo, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
+import {
+  type KeyboardEvent,
+  memo,
+  useCallback,
+  useEffect,
+  useId,
+  useLayoutEffect,
+  useMemo,
+  useRef,
+  useState,
+} from 'react';
 import * as THREE from 'three';
 import { OrbitControls } from 'three/examples/jsm/controls/OrbitControls.js';
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
 import { pieceHasShape, pieceSlab, type SlabArrays } from './piece-slab';
+import {
+  applyViewCommand,
+  eyeOffset,
+  FIT_DISTANCE_PER_MM,
+  fittedDiameterMm,
+  HOME_VIEW,
+  MAX_DISTANCE_SCALE,
+  MAX_TILT_DEG,
+  MIN_DISTANCE_SCALE,
+  type PreviewView,
+  type ViewCommand,
+  viewCommandForKey,
+  viewFromEye,
+  viewsMatch,
+} from './preview-view';
+import { PreviewViewControls } from './preview-view-controls';
 import { isSoftwareWebGl } from './render-quality';
 import { pieceColour } from '../../layout/components/piece-colours';
 
@@ -51,7 +77,8 @@ function writeSlab(geometry: THREE.BufferGeometry, slab: SlabArrays): void {
   geometry.computeBoundingBox();
 }
 
-function Pieces({
+/** Memoised: turning the view re-renders the preview, and leaves the pieces alone. */
+const Pieces = memo(function Pieces({
   report,
   pieceColours,
   modelKey,
@@ -127,7 +154,7 @@ function Pieces({
       ))}
     </group>
   );
-}
+});
 
 /**
  * The slab of every piece that has a shape; a piece with none (a model too small for its stock) is left out,
@@ -142,41 +169,121 @@ export function drawableSlabs(report: DesignReport): { id: string; slab: SlabArr
     .filter(({ slab }) => slab.positions.length > 0 && slab.positions.every(Number.isFinite));
 }
 
-/** Orbit with the mouse; the camera frames the model's diameter. */
-function Controls({ diameterMm }: { diameterMm: number }) {
-  const camera = useThree((s) => s.camera);
-  const gl = useThree((s) => s.gl);
-  const invalidate = useThree((s) => s.invalidate);
-  const fitted = useRef(0);
-  useEffect(() => {
-    if (fitted.current !== diameterMm) {
-      const d = Number.isFinite(diameterMm) ? Math.max(diameterMm, 1) : 1;
-      camera.position.set(d * 0.9, d * 0.7, d * 1.3);
-      camera.near = d / 100;
-      camera.far = d * 20;
-      camera.lookAt(0, 0, 0);
-      camera.updateProjectionMatrix();
-      fitted.current = diameterMm;
-    }
-    const controls = new OrbitControls(camera, gl.domElement);
-    controls.enableDamping = false;
-    const redraw = () => invalidate();
-    controls.addEventListener('change', redraw);
-    invalidate();
-    return () => {
-      controls.removeEventListener('change', redraw);
-      controls.dispose();
-    };
-  }, [camera, gl, invalidate, diameterMm]);
-  return null;
+/** Puts the camera where `view` says, looking at its target, for a model of this (fitted) diameter. */
+function placeEye(
+  camera: THREE.Camera,
+  controls: OrbitControls,
+  view: PreviewView,
+  diameterMm: number,
+): void {
+  const [x, y, z] = eyeOffset(view, diameterMm);
+  const [tx, ty, tz] = view.target;
+  controls.target.set(tx, ty, tz);
+  camera.position.set(tx + x, ty + y, tz + z);
+  // Turns the camera to the target (and keeps it within the limits below).
+  controls.update();
 }
 
 /**
- * The assembled model in 3D (three.js through React Three Fiber). Drag to orbit, scroll to zoom. Memoised:
- * a studio re-render that does not change the model, its colours or the selection leaves the scene alone.
+ * Orbit with the mouse (drag to turn, right-drag to pan, scroll to zoom) from the eye that `view` sets; the
+ * keys and buttons change `view`, and a finished drag or scroll reports the eye it left through onViewSettled.
+ * The camera frames the model's diameter.
+ */
+function Controls({
+  diameterMm,
+  view,
+  onViewSettled,
+}: {
+  diameterMm: number;
+  view: PreviewView;
+  onViewSettled: (view: PreviewView) => void;
+}) {
+  const camera = useThree((s) => s.camera);
+  const gl = useThree((s) => s.gl);
+  const invalidate = useThree((s) => s.invalidate);
+  const controlsRef = useRef<OrbitControls | null>(null);
+  // The view to start new controls from (they are made again for a new size): the latest one placed.
+  const viewRef = useRef(view);
+  const d = fittedDiameterMm(diameterMm);
+  useEffect(() => {
+    camera.near = d / 100;
+    camera.far = d * 20;
+    camera.updateProjectionMatrix();
+    const controls = new OrbitControls(camera, gl.domElement);
+    controls.enableDamping = false;
+    // The keys' limits: a drag cannot leave the eye where the next key press would make it jump.
+    controls.minPolarAngle = THREE.MathUtils.degToRad(90 - MAX_TILT_DEG);
+    controls.maxPolarAngle = THREE.MathUtils.degToRad(90 + MAX_TILT_DEG);
+    controls.minDistance = FIT_DISTANCE_PER_MM * d * MIN_DISTANCE_SCALE;
+    controls.maxDistance = FIT_DISTANCE_PER_MM * d * MAX_DISTANCE_SCALE;
+    placeEye(camera, controls, viewRef.current, d);
+    const redraw = () => invalidate();
+    const settled = () => {
+      const offset = camera.position.clone().sub(controls.target);
+      onViewSettled(viewFromEye([offset.x, offset.y, offset.z], controls.target.toArray(), d));
+    };
+    controls.addEventListener('change', redraw);
+    controls.addEventListener('end', settled);
+    controlsRef.current = controls;
+    invalidate();
+    return () => {
+      controls.removeEventListener('change', redraw);
+      controls.removeEventListener('end', settled);
+      controls.dispose();
+      controlsRef.current = null;
+    };
+  }, [camera, gl, invalidate, d, onViewSettled]);
+  useEffect(() => {
+    viewRef.current = view;
+    const controls = controlsRef.current;
+    if (controls) {
+      placeEye(camera, controls, view, d);
+      invalidate();
+    }
+  }, [camera, invalidate, view, d]);
+  return null;
+}
+
+/** What the focused preview's keys do; also its accessible description. */
+const KEYS_HINT =
+  'Drag to turn, scroll to zoom. Or select the view with Tab or a click: the arrow keys turn it, + and − zoom, Home resets it.';
+
+/**
+ * The view of the model, kept with the diameter it was set for: a model of another size opens at the starting
+ * view, as the camera is fitted to the new size.
+ */
+function useView(diameterMm: number) {
+  const [held, setHeld] = useState({ diameterMm, view: HOME_VIEW });
+  const view = Object.is(held.diameterMm, diameterMm) ? held.view : HOME_VIEW;
+  const move = useCallback(
+    (command: ViewCommand) =>
+      setHeld((h) => ({
+        diameterMm,
+        view: applyViewCommand(Object.is(h.diameterMm, diameterMm) ? h.view : HOME_VIEW, command),
+      })),
+    [diameterMm],
+  );
+  // After a drag or a scroll: a click that moved nothing keeps the same state, so nothing re-renders.
+  const settle = useCallback(
+    (next: PreviewView) =>
+      setHeld((h) =>
+        Object.is(h.diameterMm, diameterMm) && viewsMatch(h.view, next) ? h : { diameterMm, view: next },
+      ),
+    [diameterMm],
+  );
+  return { view, move, settle };
+}
+
+/**
+ * The assembled model in 3D (three.js through React Three Fiber). Drag to orbit, scroll to zoom; with the view
+ * focused, the arrow keys turn and tilt it, + and - zoom and Home resets it, and buttons below do the same for
+ * anyone who cannot drag. Memoised: a studio re-render that does not change the model, its colours or the
+ * selection leaves the scene alone.
  */
 export const ModelPreview3d = memo(function ModelPreview3d(props: ModelPreview3dProps) {
   const software = useMemo(isSoftwareWebGl, []);
+  const { view, move, settle } = useView(props.report.diameterMm);
+  const hintId = useId();
   // A cheap look at the outlines; the slabs themselves are built once, in Pieces.
   const drawable = props.report.stock.thicknessMm > 0 && props.report.pieces.some(pieceHasShape);
   if (!drawable) {
@@ -199,21 +306,55 @@ export const ModelPreview3d = memo(function ModelPreview3d(props: ModelPreview3d
       </Box>
     );
   }
+  const onKeyDown = (event: KeyboardEvent<HTMLDivElement>) => {
+    // Only keys meant for the view itself: not those of something inside it, nor browser shortcuts.
+    if (event.target !== event.currentTarget || event.altKey || event.ctrlKey || event.metaKey) return;
+    const command = viewCommandForKey(event.key);
+    if (command === null) return;
+    // The arrows and Home would scroll the page otherwise.
+    event.preventDefault();
+    move(command);
+  };
   return (
-    <Canvas
-      data-testid="preview-3d"
-      frameloop="demand"
-      dpr={software ? 1 : [1, 2]}
-      gl={{ preserveDrawingBuffer: true, antialias: !software }}
-      camera={{ fov: 40 }}
-      style={{ background: '#f4f1ea', borderRadius: 8 }}
-      aria-label="3D preview of the assembled model"
-    >
-      <ambientLight intensity={0.9} />
-      <directionalLight position={[300, 500, 400]} intensity={1.6} />
-      <directionalLight position={[-400, -200, -300]} intensity={0.6} />
-      <Controls diameterMm={props.report.diameterMm} />
-      <Pieces {...props} software={software} />
-    </Canvas>
+    <Box sx={{ height: '100%', display: 'flex', flexDirection: 'column' }}>
+      {/* "application": a screen reader passes the arrow keys through to the view instead of reading on. */}
+      <Box
+        role="application"
+        aria-label="3D preview of the assembled model"
+        aria-describedby={hintId}
+        tabIndex={0}
+        onKeyDown={onKeyDown}
+        data-turn-deg={view.turnDeg.toFixed(1)}
+        data-tilt-deg={view.tiltDeg.toFixed(1)}
+        data-distance-scale={view.distanceScale.toFixed(3)}
+        sx={{
+          flex: 1,
+          minHeight: 0,
+          borderRadius: 2,
+          '&:focus-visible': { outline: '3px solid', outlineColor: 'primary.main', outlineOffset: 2 },
+        }}
+      >
+        <Canvas
+          data-testid="preview-3d"
+          frameloop="demand"
+          dpr={software ? 1 : [1, 2]}
+          gl={{ preserveDrawingBuffer: true, antialias: !software }}
+          camera={{ fov: 40 }}
+          style={{ background: '#f4f1ea', borderRadius: 8 }}
+        >
+          <ambientLight intensity={0.9} />
+          <directionalLight position={[300, 500, 400]} intensity={1.6} />
+          <directionalLight position={[-400, -200, -300]} intensity={0.6} />
+          <Controls diameterMm={props.report.diameterMm} view={view} onViewSettled={settle} />
+          <Pieces {...props} software={software} />
+        </Canvas>
+      </Box>
+      <Box sx={{ display: 'flex', flexWrap: 'wrap', alignItems: 'center', columnGap: 2, pt: 0.5 }}>
+        <PreviewViewControls onCommand={move} />
+        <Typography id={hintId} variant="caption" color="text.secondary" sx={{ flex: '1 1 16rem' }}>
+          {KEYS_HINT}
+        </Typography>
+      </Box>
+    </Box>
   );
 });

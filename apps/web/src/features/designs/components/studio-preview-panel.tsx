@@ -84,7 +84,8 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
               {...(onUseColours ? { onUseColours } : {})}
             />
           ) : null}
-          <Box sx={{ height: 420 }}>
+          {/* The 3D view with its buttons and key hint below it. */}
+          <Box sx={{ height: 476 }}>
             <ModelPreview3d
               report={report}
               pieceColours={preview.pieceColour}
