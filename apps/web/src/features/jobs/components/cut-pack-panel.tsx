@@ -95,7 +95,9 @@ export function CutPackPanel({
           {`The safety notices or workshop rules changed since this cut pack was built: its setup sheet and ZIP print the old ones and cannot be downloaded. ${
             canPrepare
               ? 'Prepare the cut pack again.'
-              : 'A fabricator or supervisor prepares it again; the cutting files are unchanged.'
+              : jobDone
+                ? 'The job has been cut, so no new pack is built for it; the cutting files are unchanged.'
+                : 'A fabricator or supervisor prepares it again; the cutting files are unchanged.'
           }`}
         </Alert>
       ) : null}

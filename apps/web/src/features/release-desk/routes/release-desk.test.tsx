@@ -290,6 +290,24 @@ describe('release desk', () => {
     expect(within(job).getByRole('button', { name: 'Download sheet-01-clear.svg' })).toBeEnabled();
   });
 
+  it('does not promise a rebuild of an out-of-date pack once the job is cut', async () => {
+    stubDesk(
+      true,
+      { safetyChanged: true },
+      {
+        [`GET /api/jobs/${released.id}`]: () =>
+          json(200, { ...released, state: 'cut', actions: ['close'], transitions: [] }),
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await waitFor(() => expect(within(job).getByTestId('job-state')).toHaveTextContent('cut'));
+    const alert = await within(job).findByTestId('cut-pack-safety-changed');
+    expect(alert).toHaveTextContent('The job has been cut, so no new pack is built for it');
+    expect(alert).not.toHaveTextContent('prepares it again');
+  });
+
   it('looks at an out-of-date pack again, so a rebuild elsewhere shows without reloading', async () => {
     vi.useFakeTimers({ shouldAdvanceTime: true });
     let rebuilt = false;
