@@ -675,6 +675,38 @@ describe('nestParts — true shape', () => {
     expect(s.ok && s.totals.sheetCount).toBe(1);
   });
 
+  it('keeps exact fits of sizes in inch fractions: eight 5 11/16 × 5 5/8 in on 24 × 12 in with a ¼ in margin and gap (arithmetic)', () => {
+    // 4 × 144.4625 + 3 × 6.35 = 596.9 = 609.6 − 2 × 6.35 and 2 × 142.875 + 6.35 = 292.1 = 304.8 − 2 × 6.35
+    // (1 in = 25.4 mm exactly, NIST SP 811): no slack either way. A pitch rounded up to whole micrometres
+    // (150.8125 → 150.813 mm) used to lose the fourth column and take a second sheet.
+    const inch: NestInput = {
+      sheet: { widthMm: 24 * 25.4, heightMm: 12 * 25.4 },
+      marginMm: 6.35,
+      gapMm: 6.35,
+      parts: [{ id: 'tile', outline: box4(0, 0, 144.4625, 142.875), quantity: 8 }],
+    };
+    const r = nestParts(inch);
+    checkLayout(inch, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1);
+    if (!r.ok) return;
+    // Exactly the gap apart, not a hair less, as an independent reader of the placements measures it.
+    const polys = r.sheets[0]!.placements.map((pl) =>
+      placed(inch.parts[0]!.outline as P[], pl.x, pl.y, pl.rotationDeg),
+    );
+    let closest = Infinity;
+    for (let i = 0; i < polys.length; i++)
+      for (let j = i + 1; j < polys.length; j++)
+        closest = Math.min(closest, boundaryDistance(polys[i]!, polys[j]!));
+    expect(closest).toBeGreaterThanOrEqual(6.35 - 1e-9);
+    for (const p of polys) {
+      const b = box(p);
+      expect(b.minX).toBeGreaterThanOrEqual(6.35 - 1e-9);
+      expect(b.maxX).toBeLessThanOrEqual(609.6 - 6.35 + 1e-9);
+      expect(b.minY).toBeGreaterThanOrEqual(6.35 - 1e-9);
+      expect(b.maxY).toBeLessThanOrEqual(304.8 - 6.35 + 1e-9);
+    }
+  });
+
   it('keeps grid-laid rectangles apart exactly, not to within a micrometre: a 10.0004 mm width, a turned rectangle far from its origin', () => {
     const thin: NestInput = {
       sheet: { widthMm: 100, heightMm: 10 },

@@ -719,18 +719,34 @@ function rectangleGridPlan(
     // Whole-unit pitches from the exact outline's extent, rounded up: every copy is the same outline moved by
     // whole units, so neighbours keep at least the gap (no gap: they touch at most) exactly, not to within a
     // unit. With no gap the rounded outlines must not overlap either, so the pitch covers their extent too.
-    // (A size that is no whole number of µm loses its exact fit by a µm: 18 squares of 100/3 mm need 600.012.)
+    // (With no gap, a size that is no whole number of µm loses its exact fit by a µm: 18 squares of 100/3 mm
+    // need 600.012.)
+    //
+    // With a gap, the pitch and the room for it are taken to the nanometre, the precision placements are
+    // printed with, so a size given to the half-micrometre (inch fractions: 5 11/16 in = 144.4625 mm) keeps its
+    // exact fit: the copies' outlines are then exactly the gap apart, and the direct check (clearOfItems) allows
+    // the outlines as rounded to whole units a unit's slack.
     const gap = cache.gapMm * S;
-    const pitchX = Math.ceil(Math.max((b.maxX - b.minX) * S, gap > 0 ? 0 : w) + gap - 1e-6);
-    const pitchY = Math.ceil(Math.max((b.maxY - b.minY) * S, gap > 0 ? 0 : h) + gap - 1e-6);
-    // Rounded positions are kept inside the sheet less its margin, as every placement is (innerFit).
+    /** Units down to whole nanometres, with a femtometre's tolerance for the floating point's error. */
+    const floorNm = (units: number) => Math.floor(units * 1000 + 1e-3) / 1000;
+    const pitchX =
+      gap > 0
+        ? Math.ceil(((b.maxX - b.minX) * S + gap) * 1000 - 1e-3) / 1000
+        : Math.ceil(Math.max((b.maxX - b.minX) * S, w) - 1e-6);
+    const pitchY =
+      gap > 0
+        ? Math.ceil(((b.maxY - b.minY) * S + gap) * 1000 - 1e-3) / 1000
+        : Math.ceil(Math.max((b.maxY - b.minY) * S, h) - 1e-6);
+    // Positions are kept inside the sheet less its margin, as every placement is (innerFit).
     const fit = innerFit(frame, v);
     if (!fit) continue;
     const x0 = Math.max(Math.round((frame.marginMm - b.minX) * S), fit.x0);
     const y0 = Math.max(Math.round((frame.marginMm - b.minY) * S), fit.y0);
     if (x0 > fit.x1 || y0 > fit.y1) continue;
-    const cols = Math.floor((fit.x1 - x0) / pitchX) + 1;
-    const rows = Math.floor((fit.y1 - y0) / pitchY) + 1;
+    const x1 = gap > 0 ? Math.max(fit.x1, floorNm((frame.widthMm - frame.marginMm - b.maxX) * S)) : fit.x1;
+    const y1 = gap > 0 ? Math.max(fit.y1, floorNm((frame.heightMm - frame.marginMm - b.maxY) * S)) : fit.y1;
+    const cols = Math.floor((x1 - x0) / pitchX + 1e-9) + 1;
+    const rows = Math.floor((y1 - y0) / pitchY + 1e-9) + 1;
     const sheets: SheetState[] = [];
     for (let k = 0; k < part.quantity; k++) {
       const slot = k % (cols * rows);
@@ -738,7 +754,11 @@ function rectangleGridPlan(
       const sheet = sheets[sheets.length - 1]!;
       const c = Math.floor(slot / rows);
       const r = slot % rows;
-      sheet.items.push({ variant: v, tx: x0 + c * pitchX, ty: y0 + r * pitchY });
+      sheet.items.push({
+        variant: v,
+        tx: x0 + Math.round(c * pitchX * 1000) / 1000,
+        ty: y0 + Math.round(r * pitchY * 1000) / 1000,
+      });
       sheet.usedAreaMm2 += part.areaMm2;
     }
     const plan = { sheets, method: `pattern (${part.id}: grid of ${cols} × ${rows} at ${deg}°)` };

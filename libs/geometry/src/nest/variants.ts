@@ -592,8 +592,14 @@ function rotatePaths(paths: IntPaths, angleDeg: number): IntPaths {
   );
 }
 
+/**
+ * Paths moved by (dx, dy), kept on whole units for Clipper: a grid's copies may sit at fractions of a unit
+ * (rectangleGridPlan), and half a unit is far inside the no-fit polygons' safety margin (GAP_SAFETY_MM).
+ */
 export function translatePaths(paths: IntPaths, dx: number, dy: number): IntPaths {
-  return paths.map((p) => p.map((q) => ({ X: q.X + dx, Y: q.Y + dy })));
+  const x = Math.round(dx);
+  const y = Math.round(dy);
+  return paths.map((p) => p.map((q) => ({ X: q.X + x, Y: q.Y + y })));
 }
 
 /** True when (x, y) lies strictly inside the region bounded by paths (outer and hole paths, even-odd). */
