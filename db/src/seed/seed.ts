@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { type DataSource, type EntityManager } from 'typeorm';
-import { type MaterialHazard, type SafetyNotice } from '@kerfwright/contracts';
+import { type MaterialHazard, type SafetyNotice, toEstimateMachine } from '@kerfwright/contracts';
 import { designPreview, buildModel, prepareCut } from '@kerfwright/geometry';
 import { preparationEstimate } from '@kerfwright/geometry/pack';
 import { jobSpec, type Scenario, type ScenarioJob } from '../content';
@@ -296,14 +296,7 @@ async function seedJob(
       preparation.estimate = preparationEstimate(prepared.model, prepared.layout, {
         colours: job.colours,
         sheet: stock,
-        machine: {
-          cutSpeedMmS: setting.cutSpeedMmS,
-          markSpeedMmS: setting.markSpeedMmS,
-          pierceTimeS: setting.pierceTimeS,
-          rapidSpeedMmS: profile.rapidSpeedMmS,
-          passes: setting.passes,
-          hourlyRate: profile.hourlyRate,
-        },
+        machine: toEstimateMachine(profile, setting),
         pricePerSheet: stock.currency === profile.currency ? stock.pricePerSheet : null,
         currency: profile.currency,
       });

@@ -216,3 +216,28 @@ export function toMachineSpec(
   }
   return { kind: 'laser', kerfMm: setting.kerfMm };
 }
+
+/**
+ * The speeds and rate a time-and-cost estimate needs (the geometry library's EstimateMachine): the version's
+ * rapid speed and hourly rate, with the setting's cut and mark speeds, pierce time and passes.
+ */
+export function toEstimateMachine(
+  version: { rapidSpeedMmS: number; hourlyRate: number },
+  setting: Pick<ProfileSetting, 'cutSpeedMmS' | 'markSpeedMmS' | 'pierceTimeS' | 'passes'>,
+): {
+  cutSpeedMmS: number;
+  markSpeedMmS: number;
+  pierceTimeS: number;
+  rapidSpeedMmS: number;
+  passes: number;
+  hourlyRate: number;
+} {
+  return {
+    cutSpeedMmS: setting.cutSpeedMmS,
+    markSpeedMmS: setting.markSpeedMmS,
+    pierceTimeS: setting.pierceTimeS,
+    rapidSpeedMmS: version.rapidSpeedMmS,
+    passes: setting.passes,
+    hourlyRate: version.hourlyRate,
+  };
+}

@@ -8,6 +8,7 @@ import {
   type MachineProfileKind,
   type MaterialView,
   type ProfileSetting,
+  toEstimateMachine,
   toMachineSpec,
 } from '@kerfwright/contracts';
 import { clashingColourNames, SolidError, SpecValidationError } from '@kerfwright/geometry';
@@ -123,14 +124,7 @@ export class JobPreparationService {
         // Time and cost as the cut pack will give them: the version's speeds and rate for this material, and
         // the sheet's price when the material lists that size (a size typed in has none).
         estimate: {
-          machine: {
-            cutSpeedMmS: setting.cutSpeedMmS,
-            markSpeedMmS: setting.markSpeedMmS,
-            pierceTimeS: setting.pierceTimeS,
-            rapidSpeedMmS: version.rapidSpeedMmS,
-            passes: setting.passes,
-            hourlyRate: version.hourlyRate,
-          },
+          machine: toEstimateMachine(version, setting),
           colours,
           pricePerSheet: pricedSheet(material, sheet, version.currency),
           currency: version.currency,

@@ -1,4 +1,9 @@
-import { type MachineProfileVersionView, type Role, type UserView } from '@kerfwright/contracts';
+import {
+  type JobView,
+  type MachineProfileVersionView,
+  type Role,
+  type UserView,
+} from '@kerfwright/contracts';
 
 export function userFixture(role: Role, overrides: Partial<UserView> = {}): UserView {
   return {
@@ -50,6 +55,36 @@ export function versionFixture(
         pierceTimeS: 0.3,
       },
     ],
+    ...overrides,
+  };
+}
+
+/** A job as the jobs list gives it: a requested job with nothing chosen for it yet, every field given. */
+export function jobFixture(overrides: Partial<JobView> = {}): JobView {
+  return {
+    id: '11111111-2222-3333-4444-555555555555',
+    state: 'requested',
+    designId: 'd-1',
+    designName: 'Cube planes with squares turned 45 degrees',
+    requesterId: 'u-h',
+    requesterName: 'Jun Park',
+    quantity: 1,
+    notes: '',
+    materialId: null,
+    materialName: null,
+    colours: [],
+    profileVersionId: null,
+    profileName: null,
+    profileVersionNumber: null,
+    returnReason: null,
+    preparation: null,
+    actualMinutes: null,
+    sheetsUsed: null,
+    measuredKerfMm: null,
+    version: 1,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-01T00:00:00.000Z',
+    actions: [],
     ...overrides,
   };
 }

@@ -13,11 +13,15 @@ import type {
   CutPackResult,
   DesignSpec,
 } from '@kerfwright/contracts';
-import { geometryMachineKind, MACHINE_PROFILE_KINDS, type MachineProfileKind } from '@kerfwright/contracts';
+import {
+  geometryMachineKind,
+  MACHINE_PROFILE_KINDS,
+  type MachineProfileKind,
+  toEstimateMachine,
+} from '@kerfwright/contracts';
 import { type BuiltModel, buildModel } from '../build';
 import { gapRaisedNote, layoutModel, marginRaisedNote } from '../layout/plan-layout';
 import { clashingColourNames, engravedColourName, printableColourName, slug } from './slug';
-import { type EstimateMachine } from '../estimate';
 import { assemblyStepsOfReport } from './assembly';
 import { type Coupon, buildCoupon } from './coupon';
 import { assemblyGuidePdf, setupSheetPdf } from './documents';
@@ -44,17 +48,6 @@ const CONTENT_TYPES = {
 } as const;
 
 const enc = new TextEncoder();
-
-function toEstimateMachine(m: CutPackInput['machine']): EstimateMachine {
-  return {
-    cutSpeedMmS: m.cutSpeedMmS,
-    markSpeedMmS: m.markSpeedMmS,
-    pierceTimeS: m.pierceTimeS,
-    rapidSpeedMmS: m.rapidSpeedMmS,
-    passes: m.passes,
-    hourlyRate: m.hourlyRate,
-  };
-}
 
 function checkInput(input: CutPackInput): void {
   const m = input.machine;
@@ -198,7 +191,7 @@ export async function createCutPack(
   });
   if (!layout.ok) throw new CutPackError('PACK.LAYOUT_FAILED', layout.message, layout.pieces);
   progress(0.35);
-  const machine = toEstimateMachine(input.machine);
+  const machine = toEstimateMachine(input.machine, input.machine);
   let drawn: ReturnType<typeof drawPackSheets>;
   try {
     drawn = drawPackSheets(model, layout, {
@@ -344,7 +337,7 @@ export async function createCoupon(
 ): Promise<CutPackResult> {
   const model = buildChecked(input.spec);
   onProgress?.(0.4);
-  const machine = toEstimateMachine(input.machine);
+  const machine = toEstimateMachine(input.machine, input.machine);
   const coupon = buildCoupon(
     model,
     input.units,

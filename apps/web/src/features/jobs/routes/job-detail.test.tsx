@@ -2,32 +2,11 @@ import { type ExportView, type JobDetailView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { userFixture } from '../../../testing/fixtures';
+import { jobFixture, userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 
 const job: JobDetailView = {
-  id: '11111111-2222-3333-4444-555555555555',
-  state: 'requested',
-  designId: 'd-1',
-  designName: 'Cube planes with squares turned 45 degrees',
-  requesterId: 'u-h',
-  requesterName: 'Jun Park',
-  quantity: 1,
-  notes: '',
-  materialId: null,
-  materialName: null,
-  colours: [],
-  profileVersionId: null,
-  profileName: null,
-  profileVersionNumber: null,
-  returnReason: null,
-  preparation: null,
-  actualMinutes: null,
-  sheetsUsed: null,
-  measuredKerfMm: null,
-  version: 4,
-  createdAt: '2026-01-01T00:00:00.000Z',
-  updatedAt: '2026-01-01T00:00:00.000Z',
+  ...jobFixture({ version: 4 }),
   actions: ['prepare', 'return'],
   transitions: [
     {

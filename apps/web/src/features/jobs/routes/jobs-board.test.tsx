@@ -2,35 +2,19 @@ import { type JobView } from '@kerfwright/contracts';
 import { screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { userFixture } from '../../../testing/fixtures';
+import { jobFixture, userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 
 function boardJob(id: string, state: JobView['state'], requesterName: string): JobView {
-  return {
+  return jobFixture({
     id,
     state,
     designId: `d-${id}`,
     designName: `Design ${id}`,
     requesterId: `u-${id}`,
     requesterName,
-    quantity: 1,
-    notes: '',
-    materialId: null,
-    materialName: null,
-    colours: [],
-    profileVersionId: null,
-    profileName: null,
-    profileVersionNumber: null,
-    returnReason: null,
-    preparation: null,
-    actualMinutes: null,
-    sheetsUsed: null,
-    measuredKerfMm: null,
-    version: 1,
-    createdAt: '2026-01-01T00:00:00.000Z',
     updatedAt: '2026-01-02T00:00:00.000Z',
-    actions: [],
-  };
+  });
 }
 
 describe('jobs board', () => {

@@ -1,4 +1,8 @@
-import { type MachineProfileVersionView, type ProfileSetting } from '@kerfwright/contracts';
+import {
+  type MachineProfileVersionView,
+  type ProfileSetting,
+  toEstimateMachine,
+} from '@kerfwright/contracts';
 import { estimateJob } from '@kerfwright/geometry';
 import { type LayoutEstimateView } from '../components/sheet-layout-view';
 import { type SheetView } from './sheet-views';
@@ -16,14 +20,7 @@ export function estimateSheets(
 ): LayoutEstimateView {
   const e = estimateJob(
     sheets.map((sh) => ({ cut: sh.pieces.map((p) => p.outline), mark: [] })),
-    {
-      cutSpeedMmS: setting.cutSpeedMmS,
-      markSpeedMmS: setting.markSpeedMmS,
-      pierceTimeS: setting.pierceTimeS,
-      rapidSpeedMmS: version.rapidSpeedMmS,
-      passes: setting.passes,
-      hourlyRate: version.hourlyRate,
-    },
+    toEstimateMachine(version, setting),
     pricePerSheet ?? 0,
   );
   return {
