@@ -65,6 +65,11 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     expect(await view.getAttribute('data-turn-deg')).not.toBe(home);
     await page.getByRole('button', { name: 'Reset view' }).click();
     expect(await view.getAttribute('data-turn-deg')).toBe(home);
+    // In inches the lengths are shown and typed in inches; the design keeps millimetres.
+    await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'inch' }).click();
+    expect(await page.getByLabel('Sheet width (in)').inputValue()).toBe('23.622');
+    await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'mm' }).click();
+    expect(await page.getByLabel('Sheet width (mm)').inputValue()).toBe('600');
 
     // A field error blocks the preview's input, not the page: 2 sides is no polygon.
     await page.getByLabel('Sides (n)').fill('2');

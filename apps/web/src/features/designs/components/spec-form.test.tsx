@@ -2,8 +2,10 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { type DesignView } from '@kerfwright/contracts';
 import { buildModel, validateSpec } from '@kerfwright/geometry';
 import { screen, waitFor } from '@testing-library/react';
+import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { describe, expect, it } from 'vitest';
+import { type LengthUnit } from '../../../lib/units';
 import { renderWithProviders } from '../../../testing/render-app';
 import {
   DEFAULT_DESIGN_VALUES,
@@ -16,19 +18,30 @@ import {
 } from './design-form-schema';
 import { SpecForm } from './spec-form';
 
-function Harness({ onValues }: { onValues?: (v: DesignFormValues) => void }) {
+function Harness({
+  onValues,
+  startUnit = 'mm',
+}: {
+  onValues?: (v: DesignFormValues) => void;
+  startUnit?: LengthUnit;
+}) {
   const form = useForm<DesignFormValues>({
     resolver: zodResolver(designFormSchema),
     mode: 'onChange',
     defaultValues: DEFAULT_DESIGN_VALUES,
   });
+  const [unit, setUnit] = useState<LengthUnit>(startUnit);
   return (
     <form onSubmit={form.handleSubmit((v) => onValues?.(v))} noValidate>
+      <button type="button" onClick={() => setUnit(unit === 'mm' ? 'in' : 'mm')}>
+        Switch units
+      </button>
       <SpecForm
         form={form}
         upload={null}
         onUpload={() => undefined}
         suggestedSizes={{ touch: 0.7071, overlap: 0.8 }}
+        unit={unit}
       />
       <button type="submit">Check</button>
     </form>
@@ -63,6 +76,33 @@ describe('design studio spec form', () => {
     await user.clear(thickness);
     await user.type(thickness, '0');
     expect(await screen.findByText('Thickness must be more than 0')).toBeInTheDocument();
+  });
+
+  it('shows and takes lengths in inches when the studio works in inches, and keeps millimetres in the spec', async () => {
+    let submitted: DesignFormValues | undefined;
+    const { user } = renderWithProviders(<Harness startUnit="in" onValues={(v) => (submitted = v)} />);
+    // 600 mm = 23.622 in (1 in = 25.4 mm exactly, NIST SP 811), to four decimals.
+    const width = (await screen.findByLabelText('Sheet width (in)')) as HTMLInputElement;
+    expect(width.value).toBe('23.622');
+    expect(screen.queryByLabelText('Sheet width (mm)')).not.toBeInTheDocument();
+    // A quarter inch of margin and gap, typed as inches: 6.35 mm in the spec, not 6.3500000000000005.
+    for (const label of ['Margin (in)', 'Gap (in)']) {
+      await user.clear(screen.getByLabelText(label));
+      await user.type(screen.getByLabelText(label), '0.25');
+    }
+    await user.clear(width);
+    await user.type(width, '24');
+    await user.click(screen.getByRole('button', { name: 'Check' }));
+    await waitFor(() => expect(submitted).toBeDefined());
+    expect(submitted).toMatchObject({ marginMm: 6.35, gapMm: 6.35, sheetWidthMm: 609.6 });
+    // Back in millimetres, the fields show what the form keeps.
+    await user.click(screen.getByRole('button', { name: 'Switch units' }));
+    expect((await screen.findByLabelText('Margin (mm)')) as HTMLInputElement).toHaveValue(6.35);
+    expect(screen.getByLabelText('Sheet width (mm)')).toHaveValue(609.6);
+    // An emptied inch field asks for a number, as a millimetre field does.
+    await user.click(screen.getByRole('button', { name: 'Switch units' }));
+    await user.clear(await screen.findByLabelText('Thickness (in)'));
+    expect(await screen.findByText('Thickness: enter a number')).toBeInTheDocument();
   });
 
   it('asks for a tool diameter instead of a kerf when the machine is a router', async () => {

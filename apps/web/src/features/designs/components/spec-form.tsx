@@ -15,6 +15,7 @@ import {
 } from 'react-hook-form';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { LengthField } from '../../../components/ui/length-field';
 import { NumberField } from '../../../components/ui/number-field';
 import {
   type DesignFormValues,
@@ -24,6 +25,7 @@ import {
 } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
+import { type LengthUnit } from '../../../lib/units';
 
 const SOLIDS = listSolids();
 
@@ -69,8 +71,11 @@ export const SpecForm = memo(function SpecForm({
   upload,
   onUpload,
   suggestedSizes,
+  unit = 'mm',
 }: {
   form: UseFormReturn<DesignFormValues>;
+  /** The unit the lengths are shown and typed in (the form keeps millimetres). */
+  unit?: LengthUnit;
   upload: UploadedSolid | null;
   onUpload: (solid: UploadedSolid) => void;
   suggestedSizes: { touch: number | null; overlap: number | null } | null;
@@ -237,58 +242,84 @@ export const SpecForm = memo(function SpecForm({
           />
         ) : scaleBy === 'fitBed' ? (
           <Stack direction="row" spacing={1}>
-            <NumberField
+            <LengthField
               label={DESIGN_FIELD_LABELS.bedWidthMm}
               name="bedWidthMm"
+              unit={unit}
+              control={control}
               form={fields}
               size="small"
             />
-            <NumberField
+            <LengthField
               label={DESIGN_FIELD_LABELS.bedHeightMm}
               name="bedHeightMm"
+              unit={unit}
+              control={control}
               form={fields}
               size="small"
             />
           </Stack>
         ) : (
-          <NumberField label={DESIGN_FIELD_LABELS.scaleMm} name="scaleMm" form={fields} size="small" />
+          <LengthField
+            label={DESIGN_FIELD_LABELS.scaleMm}
+            name="scaleMm"
+            unit={unit}
+            control={control}
+            form={fields}
+            size="small"
+          />
         )}
       </Section>
 
       <Section title="Stock sheet">
         <Stack direction="row" spacing={1}>
-          <NumberField
+          <LengthField
             label={DESIGN_FIELD_LABELS.sheetWidthMm}
             name="sheetWidthMm"
+            unit={unit}
+            control={control}
             form={fields}
             size="small"
             rules={SHEET_RULES}
           />
-          <NumberField
+          <LengthField
             label={DESIGN_FIELD_LABELS.sheetHeightMm}
             name="sheetHeightMm"
+            unit={unit}
+            control={control}
             form={fields}
             size="small"
             rules={SHEET_RULES}
           />
         </Stack>
         <Stack direction="row" spacing={1}>
-          <NumberField
+          <LengthField
             label={DESIGN_FIELD_LABELS.marginMm}
             name="marginMm"
+            unit={unit}
+            control={control}
             form={fields}
             size="small"
             rules={SHEET_RULES}
           />
-          <NumberField label={DESIGN_FIELD_LABELS.gapMm} name="gapMm" form={fields} size="small" />
+          <LengthField
+            label={DESIGN_FIELD_LABELS.gapMm}
+            name="gapMm"
+            unit={unit}
+            control={control}
+            form={fields}
+            size="small"
+          />
         </Stack>
       </Section>
 
       <Section title="Stock and machine">
         <Stack direction="row" spacing={1} sx={{ alignItems: 'center' }}>
-          <NumberField
+          <LengthField
             label={DESIGN_FIELD_LABELS.thicknessMm}
             name="thicknessMm"
+            unit={unit}
+            control={control}
             form={fields}
             size="small"
           />
@@ -317,18 +348,29 @@ export const SpecForm = memo(function SpecForm({
         </NativeSelectField>
         <Stack direction="row" spacing={1}>
           {machineKind === 'laser' ? (
-            <NumberField label={DESIGN_FIELD_LABELS.kerfMm} name="kerfMm" form={fields} size="small" />
+            <LengthField
+              label={DESIGN_FIELD_LABELS.kerfMm}
+              name="kerfMm"
+              unit={unit}
+              control={control}
+              form={fields}
+              size="small"
+            />
           ) : (
-            <NumberField
+            <LengthField
               label={DESIGN_FIELD_LABELS.toolDiameterMm}
               name="toolDiameterMm"
+              unit={unit}
+              control={control}
               form={fields}
               size="small"
             />
           )}
-          <NumberField
+          <LengthField
             label={DESIGN_FIELD_LABELS.fitMm}
             name="fitMm"
+            unit={unit}
+            control={control}
             form={fields}
             size="small"
             helperText="negative = press fit"

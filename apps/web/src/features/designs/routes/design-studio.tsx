@@ -293,7 +293,13 @@ function DesignStudio({ design }: { design: DesignView | null }) {
 
       <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', lg: '380px 1fr' } }}>
         <Paper variant="outlined" sx={{ p: 2, alignSelf: 'start' }}>
-          <SpecForm form={form} upload={upload} onUpload={setUpload} suggestedSizes={suggestedSizes} />
+          <SpecForm
+            form={form}
+            upload={upload}
+            onUpload={setUpload}
+            suggestedSizes={suggestedSizes}
+            unit={unit}
+          />
         </Paper>
 
         <Stack spacing={2} sx={{ minWidth: 0 }}>

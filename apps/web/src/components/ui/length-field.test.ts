@@ -1,0 +1,24 @@
+import { describe, expect, it } from 'vitest';
+import { inchesText, inchesToMm } from './length-field';
+
+// 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; NIST SP 811).
+describe('inch fields over millimetre values', () => {
+  it('shows millimetres as inches to four decimals, without trailing zeros', () => {
+    expect(inchesText(25.4)).toBe('1');
+    expect(inchesText(6.35)).toBe('0.25');
+    expect(inchesText(144.4625)).toBe('5.6875');
+    expect(inchesText(600)).toBe('23.622');
+    expect(inchesText(Number.NaN)).toBe('');
+    expect(inchesText(undefined)).toBe('');
+  });
+
+  it('takes typed inches as millimetres to the nanometre, and anything else as no number', () => {
+    expect(inchesToMm('0.25')).toBe(6.35);
+    expect(inchesToMm('24')).toBe(609.6);
+    expect(inchesToMm('5.6875')).toBe(144.4625);
+    expect(inchesToMm('0.125')).toBe(3.175);
+    expect(inchesToMm('')).toBeNaN();
+    expect(inchesToMm('  ')).toBeNaN();
+    expect(inchesToMm('1e')).toBeNaN();
+  });
+});
