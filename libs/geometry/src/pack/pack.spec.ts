@@ -3,7 +3,7 @@ import JSZip from 'jszip';
 import type { CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contracts';
 import { buildModel } from '../build';
 import { design, octahedronHexagons } from '../test-support/designs';
-import { CutPackError, createCutPack, sheetOverBedNote } from './pack';
+import { CutPackError, archiveName, createCutPack, sheetOverBedNote } from './pack';
 import { placeScaleMark } from './sheet-drawing';
 import { packInputFrom, runPackCommand } from './cli-commands';
 import { SAFETY_DEFERRAL } from './documents';
@@ -98,6 +98,20 @@ describe('createCutPack (octahedron hexagons, two colours, mm)', () => {
     expect(sheetsOf(pack, 'dxf')).toHaveLength(pack.manifest.sheetCount);
     expect(sheetsOf(pack, 'svg')).toHaveLength(pack.manifest.sheetCount);
     expect(pack.files.filter((f) => f.role === 'archive')).toHaveLength(1);
+  });
+
+  it('names the ZIP by the job’s title and the start of its id, never an id cut off partway', () => {
+    const job = { id: '0390947a-70d0-40be-9fb8-d3e97ee1c2b4', title: 'Felt honeycomb ball' };
+    expect(archiveName('cut-pack', job)).toBe('cut-pack-felt-honeycomb-ball-0390947a.zip');
+    expect(archiveName('coupon', job)).toBe('coupon-felt-honeycomb-ball-0390947a.zip');
+    expect(archiveName('cut-pack', { id: '0390947a-70d0-40be-9fb8-d3e97ee1c2b4', title: '' })).toBe(
+      'cut-pack-0390947a.zip',
+    );
+    // An id given by hand is kept as it is (the command line's).
+    expect(archiveName('cut-pack', { id: 'cli', title: 'command-line pack' })).toBe('cut-pack-cli.zip');
+    expect(archiveName('coupon', { id: '--', title: 'Ball' })).toBe('coupon.zip');
+    const zip = pack.files.find((f) => f.role === 'archive')!;
+    expect(zip.name).toBe(archiveName('cut-pack', input(spec).job));
   });
 
   it('DXF (read back with dxf-parser): mm units, closed cut contours of the real pieces, no overlaps, all on the sheet', () => {

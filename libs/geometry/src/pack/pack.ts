@@ -281,10 +281,22 @@ export async function createCutPack(
     sheets.length,
     estimate,
     warnings,
-    `${slug(`cut-pack-${input.job.id}`, 'cut-pack')}.zip`,
+    archiveName('cut-pack', input.job),
   );
   progress(1);
   return result;
+}
+
+/**
+ * The ZIP's name. A job of the workshop (its id a UUID) is named by its title and the id's first eight digits,
+ * so that it reads in a downloads folder and two jobs of one design still differ
+ * ("cut-pack-felt-honeycomb-ball-0390947a.zip"); the whole UUID used to be cut off partway by the slug's length
+ * limit. An id given by hand (the command line's "cli") names it as it is ("cut-pack-cli.zip").
+ */
+export function archiveName(kind: 'cut-pack' | 'coupon', job: { id: string; title: string }): string {
+  const uuid = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(job.id);
+  const parts = uuid ? [slug(job.title, ''), job.id.slice(0, 8).toLowerCase()] : [slug(job.id, '')];
+  return `${[kind, ...parts].filter(Boolean).join('-')}.zip`;
 }
 
 /** A note for each colour name the PDF fonts or the engraving font cannot show as given. */
@@ -353,7 +365,7 @@ export async function createCoupon(
     1,
     estimate,
     coupon.warnings,
-    `${slug(`coupon-${input.job.id}`, 'coupon')}.zip`,
+    archiveName('coupon', input.job),
   );
   onProgress?.(1);
   return result;
