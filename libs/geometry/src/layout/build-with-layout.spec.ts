@@ -105,6 +105,10 @@ describe('sheet count', () => {
     const huge = withSheet(octahedronHexagons({ scale: { by: 'planeDistance', mm: 300 } }));
     const r = buildWithLayout(huge).model.report;
     expect(r.errors.map((e) => e.code)).toEqual(['LAYOUT.PIECE_TOO_LARGE']);
+    // Said for the workshop, with what would help: all eight hexagons are too large, four named.
+    expect(r.errors[0]!.message).toMatch(
+      /^Pieces \S+, \S+, \S+, \S+ and 4 more do not fit a 600 × 400 mm sheet inside its \d+(\.\d+)? mm margins, however turned: make the model smaller, choose a larger sheet, or fit the size to the sheets$/,
+    );
     expect(sheetsNeeded(huge)).toBeNull();
   });
 });

@@ -64,6 +64,24 @@ export function cutterMarginMm(machine: BuiltModel['spec']['machine']): number {
   return machine.kind === 'router' ? machine.toolDiameterMm : 0;
 }
 
+/**
+ * Pieces that fit the sheet inside its margins at no turn, said for the workshop with what would help (the
+ * nesting's own message names parts and rotations).
+ */
+export function pieceTooLargeMessage(
+  pieceIds: readonly string[],
+  sheet: { widthMm: number; heightMm: number },
+  marginMm: number,
+): string {
+  const shown = pieceIds.slice(0, 4).join(', ');
+  const named = pieceIds.length > 4 ? `${shown} and ${pieceIds.length - 4} more` : shown;
+  const subject = pieceIds.length === 1 ? `Piece ${named} does` : `Pieces ${named} do`;
+  return (
+    `${subject} not fit a ${sheet.widthMm} × ${sheet.heightMm} mm sheet inside its ${marginMm} mm margins, ` +
+    'however turned: make the model smaller, choose a larger sheet, or fit the size to the sheets'
+  );
+}
+
 /** What to tell the operator when the cutter's width, not the margin asked for, set the margin (else null). */
 export function marginRaisedNote(
   machine: BuiltModel['spec']['machine'],
@@ -150,10 +168,13 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
     })),
   });
   if (!result.ok) {
+    const tooLarge = result.error.code === 'PART_DOES_NOT_FIT';
     return {
       ok: false,
-      code: result.error.code === 'PART_DOES_NOT_FIT' ? 'LAYOUT.PIECE_TOO_LARGE' : 'LAYOUT.INVALID',
-      message: result.error.message,
+      code: tooLarge ? 'LAYOUT.PIECE_TOO_LARGE' : 'LAYOUT.INVALID',
+      message: tooLarge
+        ? pieceTooLargeMessage(result.error.partIds, options.sheet, marginMm)
+        : result.error.message,
       pieces: result.error.partIds,
     };
   }
