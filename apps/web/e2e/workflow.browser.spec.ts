@@ -246,7 +246,7 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await page.getByTestId('job-layout').getByText('Utilisation').waitFor();
     // The time and cost the preparation kept (the cut pack's own figures), which the supervisor approves on.
     const kept = (await page.getByTestId('job-layout').textContent()) ?? '';
-    expect(kept).toMatch(/Machine time(\d+\.\d min|[\d,]+ h \d+ min)/);
+    expect(kept).toMatch(/Machine time \(estimated\)(\d+\.\d min|[\d,]+ h \d+ min)/);
     expect(kept).toMatch(/Cost\d[\d,]*\.\d\d \w+ \(machine /);
     // The sheet layout: as many sheets drawn as the preparation counted, every length in the chosen unit.
     const layout = page.getByTestId('job-sheets');

@@ -185,6 +185,8 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     const card = await waitingCard();
     await card.getByText('No version is approved yet: every value is new.').waitFor();
     await card.getByRole('button', { name: 'Approve version 1' }).click();
+    // Asked once more, as every approval is.
+    await page.getByRole('dialog').getByRole('button', { name: 'Approve version 1' }).click();
     await card.waitFor({ state: 'detached' });
   });
 
@@ -262,6 +264,7 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
   it('lets the supervisor approve version 2, which jobs then use', async () => {
     const card = await waitingCard();
     await card.getByRole('button', { name: 'Approve version 2' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Approve version 2' }).click();
     await card.waitFor({ state: 'detached' });
 
     await page.goto(profilePath);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatLength, formatMinutes, formatMoney, formatRunLength } from './units';
+import { formatHourlyRate, formatLength, formatMinutes, formatMoney, formatRunLength } from './units';
 
 describe('figures a workshop reads at a glance', () => {
   it('gives long cut lengths in metres or feet, short ones as before (1 in = 25.4 mm exactly, 1 ft = 12 in)', () => {
@@ -20,5 +20,10 @@ describe('figures a workshop reads at a glance', () => {
   it('groups thousands in money', () => {
     expect(formatMoney(9389.52, 'EUR')).toBe('9,389.52 EUR');
     expect(formatMoney(23.5, 'GBP')).toBe('23.50 GBP');
+  });
+
+  it('gives an hourly rate per hour', () => {
+    expect(formatHourlyRate(24, 'EUR')).toBe('24.00 EUR/h');
+    expect(formatHourlyRate(1250, 'GBP')).toBe('1,250.00 GBP/h');
   });
 });

@@ -37,3 +37,8 @@ export function formatMoney(amount: number, currency: string): string {
   const n = amount.toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
   return `${n} ${currency}`;
 }
+
+/** A machine's rate per hour: an amount of money per hour of machine time ("24.00 EUR/h"). */
+export function formatHourlyRate(amount: number, currency: string): string {
+  return `${formatMoney(amount, currency)}/h`;
+}

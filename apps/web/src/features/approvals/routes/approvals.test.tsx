@@ -58,6 +58,8 @@ function approvalsApi(waitingJob: JobView = job, waitingProfile: MachineProfileS
     'GET /api/jobs': () => json(200, { items: [waitingJob], total: 1, page: 1, pageSize: 100 }),
     'POST /api/machine-profiles/p-laser/versions/v-2/return': (call) =>
       json(200, { ...waiting, state: 'draft', returnReason: (call.body as { reason: string }).reason }),
+    'POST /api/machine-profiles/p-laser/versions/v-2/approve': () =>
+      json(200, { ...waiting, state: 'approved' }),
     'POST /api/jobs/j-1/approve': () => json(200, { ...job, state: 'approved' }),
   });
 }
@@ -126,14 +128,57 @@ describe('Approvals (supervisor)', () => {
     });
   });
 
-  it('approves a prepared job with the job version it read', async () => {
+  it('approves a prepared job with the job version it read, once confirmed as on the job page', async () => {
     const { calls } = approvalsApi();
     const { user } = renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-job');
     expect(card).toHaveTextContent('Hexagon star × 3');
-    await user.click(within(card).getByRole('button', { name: 'Approve the job' }));
+    const approve = within(card).getByRole('button', { name: 'Approve the job' });
+
+    // Cancelled: nothing is sent.
+    await user.click(approve);
+    let dialog = await screen.findByRole('dialog', { name: 'Approve the job?' });
+    expect(dialog).toHaveTextContent('The job moves from prepared to approved.');
+    await user.click(within(dialog).getByRole('button', { name: 'Cancel' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(calls.some((c) => c.method === 'POST')).toBe(false);
+
+    await user.click(approve);
+    dialog = await screen.findByRole('dialog', { name: 'Approve the job?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Approve the job' }));
     await waitFor(() => expect(calls.some((c) => c.url.pathname === '/api/jobs/j-1/approve')).toBe(true));
     expect(calls.find((c) => c.url.pathname === '/api/jobs/j-1/approve')?.body).toEqual({ version: 4 });
+    expect(await screen.findByText('Hexagon star is approved for release.')).toBeInTheDocument();
+  });
+
+  it('approves a version only once confirmed, with the lockVersion it read', async () => {
+    const { calls } = approvalsApi();
+    const { user } = renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+    await user.click(within(card).getByRole('button', { name: 'Approve version 2' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Approve version 2 of CO2 laser, 60 W?' });
+    expect(dialog).toHaveTextContent('Jobs use it from now on; version 1 is retired.');
+    expect(calls.some((c) => c.method === 'POST')).toBe(false);
+    await user.click(within(dialog).getByRole('button', { name: 'Approve version 2' }));
+    await waitFor(() => expect(calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(calls.find((c) => c.method === 'POST')?.url.pathname).toBe(
+      '/api/machine-profiles/p-laser/versions/v-2/approve',
+    );
+    expect(calls.find((c) => c.method === 'POST')?.body).toEqual({ lockVersion: 2 });
+    expect(
+      await screen.findByText('Version 2 of CO2 laser, 60 W is approved; jobs use it from now on.'),
+    ).toBeInTheDocument();
+  });
+
+  it('gives a changed hourly rate per hour', async () => {
+    approvalsApi(job, { ...profile, latest: { ...waiting, hourlyRate: 26 } });
+    renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+    const rate = within(card)
+      .getAllByTestId('version-change')
+      .find((c) => c.textContent?.includes('Hourly rate'));
+    expect(rate).toHaveTextContent('24.00 EUR/h');
+    expect(rate).toHaveTextContent('26.00 EUR/h');
   });
 
   it('gives a large job its time in hours and its cost with thousands grouped', async () => {

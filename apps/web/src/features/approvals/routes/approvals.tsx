@@ -6,9 +6,11 @@ import CardContent from '@mui/material/CardContent';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths } from '../../../config/paths';
 import { errorMessage } from '../../../lib/api-client';
+import { ConfirmJobActionDialog } from '../../jobs/components/confirm-job-action-dialog';
 import { approveBlockedReason } from '../../jobs/lib/approve-blocked';
 import { KIND_LABELS } from '../../machine-profiles/components/profile-labels';
 import { versionChanges } from '../../machine-profiles/utils/version-rows';
@@ -33,7 +35,8 @@ const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', tim
 const notesAmongChanges = (p: MachineProfileSummaryView) =>
   versionChanges(p.currentApproved, p.latest).some((c) => c.key === 'machine.notes');
 
-type SendingBack =
+/** What a dialog is open for: a version or a job, to approve or to send back. */
+type Deciding =
   { kind: 'version'; profile: MachineProfileSummaryView } | { kind: 'job'; job: JobView } | null;
 
 /** The waiting version a decision is about, and the lockVersion it was read at. */
@@ -49,25 +52,36 @@ export function ApprovalsRoute() {
   const jobs = useWaitingJobs();
   const decideVersion = useDecideProfileVersion();
   const decideJob = useDecideJob();
-  const [sendingBack, setSendingBack] = useState<SendingBack>(null);
+  const [sendingBack, setSendingBack] = useState<Deciding>(null);
+  // Approving asks first, as the job page does: a dialog says what follows, its button approves.
+  const [confirming, setConfirming] = useState<Deciding>(null);
   const [notice, setNotice] = useState<string | null>(null);
 
-  const approveVersion = (p: MachineProfileSummaryView) => {
+  const confirmApproval = (what: NonNullable<Deciding>) => {
+    decideVersion.reset();
     decideJob.reset();
+    setConfirming(what);
+  };
+  const approveVersion = (p: MachineProfileSummaryView) =>
     decideVersion.mutate(
       { ...decidingOn(p), decision: 'approve' },
       {
-        onSuccess: (v) => setNotice(`Version ${v.number} of ${p.name} is approved; jobs use it from now on.`),
+        onSuccess: (v) => {
+          setConfirming(null);
+          setNotice(`Version ${v.number} of ${p.name} is approved; jobs use it from now on.`);
+        },
       },
     );
-  };
-  const approveJob = (j: JobView) => {
-    decideVersion.reset();
+  const approveJob = (j: JobView) =>
     decideJob.mutate(
       { jobId: j.id, version: j.version, decision: 'approve' },
-      { onSuccess: () => setNotice(`${j.designName} is approved for release.`) },
+      {
+        onSuccess: () => {
+          setConfirming(null);
+          setNotice(`${j.designName} is approved for release.`);
+        },
+      },
     );
-  };
   const sendBack = (reason: string) => {
     if (!sendingBack) return;
     if (sendingBack.kind === 'version') {
@@ -95,7 +109,8 @@ export function ApprovalsRoute() {
     }
   };
 
-  const pendingError = sendingBack ? null : (decideVersion.error ?? decideJob.error);
+  // A refusal is said in the dialog while it is open, else above the lists.
+  const pendingError = sendingBack || confirming ? null : (decideVersion.error ?? decideJob.error);
   const dialogMutation = sendingBack?.kind === 'job' ? decideJob : decideVersion;
 
   return (
@@ -147,7 +162,7 @@ export function ApprovalsRoute() {
             <DecisionActions
               approveLabel={`Approve version ${p.latest.number}`}
               approving={decideVersion.isPending && decideVersion.variables.versionId === p.latest.id}
-              onApprove={() => approveVersion(p)}
+              onApprove={() => confirmApproval({ kind: 'version', profile: p })}
               onSendBack={() => {
                 decideVersion.reset();
                 setSendingBack({ kind: 'version', profile: p });
@@ -198,7 +213,7 @@ export function ApprovalsRoute() {
                 approveBlocked={approveBlockedReason(j, 'supervisor')}
                 sendBackLabel={transitionFor('return').label}
                 approving={decideJob.isPending && decideJob.variables.jobId === j.id}
-                onApprove={() => approveJob(j)}
+                onApprove={() => confirmApproval({ kind: 'job', job: j })}
                 onSendBack={() => {
                   decideJob.reset();
                   setSendingBack({ kind: 'job', job: j });
@@ -209,6 +224,32 @@ export function ApprovalsRoute() {
         }}
       </WaitingSection>
 
+      {confirming?.kind === 'job' ? (
+        <ConfirmJobActionDialog
+          action="approve"
+          from={confirming.job.state}
+          busy={decideJob.isPending}
+          error={decideJob.error}
+          onConfirm={() => approveJob(confirming.job)}
+          onClose={() => setConfirming(null)}
+        />
+      ) : null}
+      {confirming?.kind === 'version' ? (
+        <ConfirmDialog
+          open
+          titleId="approve-version-title"
+          title={`Approve version ${confirming.profile.latest.number} of ${confirming.profile.name}?`}
+          confirmLabel={`Approve version ${confirming.profile.latest.number}`}
+          busy={decideVersion.isPending}
+          error={decideVersion.error}
+          onConfirm={() => approveVersion(confirming.profile)}
+          onClose={() => setConfirming(null)}
+        >
+          {confirming.profile.currentApproved
+            ? `Jobs use it from now on; version ${confirming.profile.currentApproved.number} is retired.`
+            : 'Jobs may use this machine from now on.'}
+        </ConfirmDialog>
+      ) : null}
       <SendBackDialog
         open={sendingBack !== null}
         subject={

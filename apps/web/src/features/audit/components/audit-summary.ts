@@ -47,6 +47,12 @@ const ACTIONS: Record<string, string> = {
   'job.return': 'returned',
 };
 
+/** What an action did, in words: "job.close" → "closed", "export.request" → "cut pack queued". */
+export function actionVerb(action: string): string {
+  const step = action.slice(action.indexOf('.') + 1);
+  return ACTIONS[action] ?? VERBS[step] ?? step.replace(/[-_]/g, ' ');
+}
+
 /** Fields that change on every write and say nothing to a reader. */
 const QUIET = new Set(['version', 'lockVersion', 'updatedAt', 'createdAt', 'id']);
 
@@ -147,7 +153,7 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
   const before = fields(e.before);
   const after = fields(e.after);
   const step = e.action.slice(e.action.indexOf('.') + 1);
-  const verb = ACTIONS[e.action] ?? VERBS[step] ?? step.replace(/[-_]/g, ' ');
+  const verb = actionVerb(e.action);
   const subject = subjectOf(e.entityType, before, after);
   // A version's name says "version": "Profile version 2", "Profile “Bay 3 laser” version 2".
   const what =

@@ -2,7 +2,7 @@ import { type AuditEventView } from '@kerfwright/contracts';
 import Link from '@mui/material/Link';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
-import { auditSummary, ENTITY_LABELS } from './audit-summary';
+import { actionVerb, auditSummary, ENTITY_LABELS } from './audit-summary';
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
 
@@ -43,7 +43,15 @@ export function auditColumns({
           </Typography>
         ),
     },
-    { id: 'action', header: 'Action', render: (e) => <code>{e.action}</code> },
+    {
+      id: 'action',
+      header: 'Action',
+      // In words; the recorded action ("job.close") stays at hand for support, and for the action filter.
+      render: (e) => {
+        const verb = actionVerb(e.action);
+        return <span title={e.action}>{`${verb.charAt(0).toUpperCase()}${verb.slice(1)}`}</span>;
+      },
+    },
     {
       id: 'record',
       header: 'Record',

@@ -63,6 +63,59 @@ describe('Audit trail (supervisor)', () => {
     expect(screen.getByText('Person: Theo Lindqvist')).toBeInTheDocument();
   });
 
+  it('says each action in words, with the recorded action kept as its title for support', async () => {
+    const more: AuditEventView[] = [
+      {
+        id: '14',
+        actorId: fabricatorId,
+        actorName: 'Theo Lindqvist',
+        action: 'job.close',
+        entityType: 'job',
+        entityId: 'j-1',
+        before: { state: 'cut', designName: 'Hexagon star' },
+        after: { state: 'closed', designName: 'Hexagon star' },
+        requestId: 'r3',
+        createdAt: '2026-02-01T12:00:00.000Z',
+      },
+      {
+        id: '13',
+        actorId: fabricatorId,
+        actorName: 'Theo Lindqvist',
+        action: 'kerf-record.create',
+        entityType: 'kerf-record',
+        entityId: 'k-1',
+        before: null,
+        after: { kerfMm: 0.17 },
+        requestId: 'r2',
+        createdAt: '2026-02-01T11:00:00.000Z',
+      },
+      ...events,
+    ];
+    stubFetch({
+      'GET /api/auth/me': () => json(200, supervisor),
+      'GET /api/audit': () => json(200, { items: more, total: more.length, page: 1, pageSize: 25 }),
+    });
+    renderApp('/audit', { token: 't' });
+    const rows = await screen.findAllByTestId('audit-event');
+    const column = screen
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent)
+      .indexOf('Action');
+    const actions = rows.map((r) => within(r).getAllByRole('cell')[column]!);
+    expect(actions.map((a) => a.textContent)).toEqual([
+      'Closed',
+      'Created',
+      'Submitted for approval',
+      'Created',
+    ]);
+    expect(actions.map((a) => a.querySelector('[title]')?.getAttribute('title'))).toEqual([
+      'job.close',
+      'kerf-record.create',
+      'machine-profile-version.submit',
+      'material.create',
+    ]);
+  });
+
   it('is not part of a fabricator’s role', async () => {
     const { calls } = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('fabricator')) });
     renderApp('/audit', { token: 't' });

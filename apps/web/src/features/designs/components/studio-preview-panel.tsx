@@ -7,6 +7,7 @@ import Typography from '@mui/material/Typography';
 import { memo } from 'react';
 import { countOf } from '../../../lib/plural';
 import { type BuiltPreview } from '../hooks/use-built-model';
+import { solidName } from '../lib/solid-name';
 import { ColourPlanNotice } from './colour-plan-notice';
 import { MAX_COLOURS, DESIGN_FIELD_LABELS } from './design-form-schema';
 import { ModelPreview3d } from './model-preview-3d';
@@ -69,7 +70,10 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             useFlexGap
             data-testid="model-facts"
           >
-            <Fact label={DESIGN_FIELD_LABELS.solidId} value={report.solid.name} />
+            <Fact
+              label={DESIGN_FIELD_LABELS.solidId}
+              value={preview.spec ? solidName(preview.spec.solid) : report.solid.name}
+            />
             <Fact label="Pieces" value={String(report.pieces.length)} />
             <Fact label="Crossings" value={String(report.crossings.length)} />
             <Fact label="Diameter" value={size(report.diameterMm)} />

@@ -226,6 +226,36 @@ describe('design studio', () => {
     expect(idle).not.toHaveTextContent('Give a stock sheet size');
   });
 
+  it('names the solid in the model facts as the solid list does, and an uploaded solid by its own name', async () => {
+    const catalogue = toSavedSpec(
+      { ...DEFAULT_DESIGN_VALUES, solidId: 'rhombic-dodecahedron', sides: 4, rotationDeg: 45, size: 1.2 },
+      null,
+    ) as DesignSpecInput;
+    studioApi(designFixture({ spec: catalogue as DesignView['spec'] }));
+    const { unmount } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await screen.findByTestId('model-facts');
+    expect(screen.getByLabelText('Solid')).toHaveDisplayValue('Rhombic dodecahedron');
+    expect(fact('Solid')).toBe('Rhombic dodecahedron');
+    unmount();
+
+    // A unit cube as an OFF file, uploaded under its own name.
+    const cube = [
+      'OFF',
+      '8 6 0',
+      ...['-1 -1 -1', '1 -1 -1', '1 1 -1', '-1 1 -1', '-1 -1 1', '1 -1 1', '1 1 1', '-1 1 1'],
+      ...['4 0 3 2 1', '4 4 5 6 7', '4 0 1 5 4', '4 2 3 7 6', '4 1 2 6 5', '4 0 4 7 3'],
+    ].join('\n');
+    const upload = { format: 'off' as const, text: cube, name: 'Lamp cube' };
+    const uploaded = toSavedSpec(
+      { ...DEFAULT_DESIGN_VALUES, solidSource: 'upload' },
+      upload,
+    ) as DesignSpecInput;
+    studioApi(designFixture({ spec: uploaded as DesignView['spec'], solidFileName: 'Lamp cube.off' }));
+    renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await screen.findByTestId('model-facts');
+    expect(fact('Solid')).toBe('Lamp cube');
+  });
+
   it('opens a design saved without colours as one colour, as preparing its job counts it', async () => {
     // One colour is saved as no colours at all.
     const spec = toSavedSpec({ ...DEFAULT_DESIGN_VALUES, colourCount: 1 }, null) as DesignSpecInput;

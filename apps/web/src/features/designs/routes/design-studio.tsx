@@ -44,6 +44,7 @@ import { useUnsavedChangesGuard } from '../hooks/use-unsaved-changes-guard';
 import { countOf } from '../../../lib/plural';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 import { useUser } from '../../../lib/auth';
+import { isRecordId } from '../../../lib/record-id';
 
 const RequestJobDialogMemo = memo(RequestJobDialog);
 
@@ -51,7 +52,7 @@ const RequestJobDialogMemo = memo(RequestJobDialog);
 export function DesignStudioRoute() {
   const { designId } = useParams();
   // An address whose id is no design id names no design: it is not asked for (the API would refuse it).
-  const askable = designId === undefined || isDesignId(designId);
+  const askable = designId === undefined || isRecordId(designId);
   const design = useDesign(askable ? designId : undefined);
   if (designId && (!askable || (isApiError(design.error) && design.error.status === 404))) {
     return <NoSuchDesign />;
@@ -74,11 +75,6 @@ export function DesignStudioRoute() {
   }
   // A new key per design resets the form when the address changes (e.g. after Duplicate).
   return <DesignStudio key={design.data?.id ?? 'new'} design={design.data ?? null} />;
-}
-
-/** Design ids are UUIDs; anything else names no design. */
-function isDesignId(id: string): boolean {
-  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 }
 
 /**

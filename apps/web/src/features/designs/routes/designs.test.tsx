@@ -1,4 +1,5 @@
-import { screen } from '@testing-library/react';
+import { type DesignSummary } from '@kerfwright/contracts';
+import { screen, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
@@ -32,5 +33,50 @@ describe('designs list', () => {
     renderApp('/designs?q=tetra', { token: 't' });
     expect(await screen.findByText('No designs match “tetra”.')).toBeInTheDocument();
     expect(screen.queryByText(/No designs yet/)).not.toBeInTheDocument();
+  });
+
+  it('names each solid as the studio does, and an uploaded solid by its file', async () => {
+    const row = (id: string, solid: string, solidFileName: string | null): DesignSummary => ({
+      id,
+      ownerId: userFixture('hobbyist').id,
+      ownerName: 'Hobbyist Person',
+      name: `Design ${id}`,
+      description: '',
+      solid,
+      solidFileName,
+      preview: {
+        valid: true,
+        pieceCount: 12,
+        crossingCount: 24,
+        diameterMm: 240,
+        planeDistanceMm: 80,
+        errors: [],
+        warnings: [],
+      },
+      version: 1,
+      createdAt: '2026-01-15T09:30:00.000Z',
+      updatedAt: '2026-01-15T09:30:00.000Z',
+    });
+    const items = [
+      row('d-1', 'rhombic-dodecahedron', null),
+      row('d-2', 'octahedron', null),
+      row('d-3', 'Lamp cube', 'Lamp cube.off'),
+    ];
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      'GET /api/designs': () => json(200, { items, total: items.length, page: 1, pageSize: 25 }),
+    });
+    renderApp('/designs', { token: 't' });
+    const table = await screen.findByRole('table', { name: 'Designs' });
+    await within(table).findByRole('link', { name: 'Design d-1' });
+    const column = within(table)
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent)
+      .indexOf('Solid');
+    const solids = within(table)
+      .getAllByRole('row')
+      .slice(1)
+      .map((r) => within(r).getAllByRole('cell')[column]?.textContent);
+    expect(solids).toEqual(['Rhombic dodecahedron', 'Octahedron', 'Lamp cube.off']);
   });
 });

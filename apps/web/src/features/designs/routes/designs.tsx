@@ -8,6 +8,7 @@ import { useTableSearchParams } from '../../../components/data-table/use-table-s
 import { ListPage } from '../../../components/layouts/list-page';
 import { DESIGN_SORT_FIELDS, type DesignSortField, useDesigns } from '../api/get-designs';
 import { countOf } from '../../../lib/plural';
+import { solidName } from '../lib/solid-name';
 
 const PAGE_SIZES = [10, 25, 50] as const;
 
@@ -19,7 +20,7 @@ const COLUMNS: readonly DataTableColumn<DesignSummary, DesignSortField>[] = [
     render: (d) => <Link to={`/designs/${d.id}`}>{d.name}</Link>,
   },
   { id: 'owner', header: 'Owner', render: (d) => d.ownerName },
-  { id: 'solid', header: 'Solid', render: (d) => d.solidFileName ?? d.solid },
+  { id: 'solid', header: 'Solid', render: (d) => d.solidFileName ?? solidName(d.solid) },
   { id: 'pieces', header: 'Pieces', align: 'right', render: (d) => d.preview.pieceCount },
   {
     id: 'check',

@@ -1,6 +1,7 @@
 import { type JobDetailView } from '@kerfwright/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { isRecordId } from '../../../lib/record-id';
 import { jobsKeys } from './jobs-keys';
 
 /** GET /api/jobs/:id → the job with its history of transitions and the caller's actions. */
@@ -14,7 +15,7 @@ export function jobQueryOptions(id: string) {
 
 /** Job ids are UUIDs; anything else names no job, so it is not asked for. */
 export function isJobId(id: string): boolean {
-  return /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
+  return isRecordId(id);
 }
 
 export function useJob(id: string) {

@@ -378,6 +378,39 @@ describe('prepare job dialog', () => {
     expect(screen.queryByText('Choose at least one colour')).not.toBeInTheDocument();
   });
 
+  it('ticks the colours the job lists already, where the chosen material stocks them', async () => {
+    const birch = { ...acrylic, id: 'm-birch', name: 'Birch plywood 3 mm', colours: ['natural'] };
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic, birch], total: 2, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <PrepareJobDialog
+        open
+        jobColours={['Amber', 'teal']}
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    await screen.findByRole('option', { name: 'Birch plywood 3 mm' });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    expect(screen.getByLabelText('amber')).toBeChecked();
+    expect(screen.getByLabelText('clear')).not.toBeChecked();
+    // A material without them ticks none; coming back ticks them again.
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-birch');
+    expect(screen.getByLabelText('natural')).not.toBeChecked();
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    expect(screen.getByLabelText('amber')).toBeChecked();
+
+    await user.selectOptions(screen.getByLabelText('Machine profile (approved version)'), 'v-approved');
+    await user.click(screen.getByRole('button', { name: 'Prepare' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]?.[0]).toMatchObject({ materialId: 'm-acrylic', colours: ['amber'] });
+  });
+
   it('offers the colours of stock as one labelled group', async () => {
     stubFetch({
       'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),

@@ -32,6 +32,15 @@ export interface PrepareJobBody {
 interface PrepareJobDialogProps extends FormDialogBaseProps<PrepareJobBody> {
   /** The job's design: the colours it was drawn in are what the colours of stock chosen are held against. */
   designId?: string;
+  /** The colours the job lists already (asked for, or chosen when it was prepared before). */
+  jobColours?: readonly string[];
+}
+
+/** The job's colours that a material stocks, spelt as the material spells them, in the material's order. */
+function stockedColours(material: { colours: readonly string[] } | undefined, wanted: readonly string[]) {
+  const key = (c: string) => c.trim().toLowerCase();
+  const asked = new Set(wanted.map(key));
+  return (material?.colours ?? []).filter((c) => asked.has(key(c)));
 }
 
 /** How many colours of stock a design is drawn in, and by which rule (one colour: no rule applies). */
@@ -152,7 +161,9 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
           registration={{
             ...materialField,
             onChange: async (e) => {
-              setValue('colours', []);
+              const next = allMaterials.find((m) => m.id === String(e.target.value));
+              // The job's own colours come ticked where the new material stocks them.
+              setValue('colours', stockedColours(next, props.jobColours ?? []));
               setValue('sheetIndex', '0');
               // The colours are the new material's to choose: an error about the old one's no longer applies.
               clearErrors('colours');
@@ -160,7 +171,6 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
               // one taken off earlier is chosen again when the new material suits it.
               const chosen = getValues('profileVersionId');
               const current = allProfiles.find((p) => p.currentApproved && p.currentApproved.id === chosen);
-              const next = allMaterials.find((m) => m.id === String(e.target.value));
               if (current && !profilesFor(allProfiles, next).includes(current)) {
                 setValue('profileVersionId', '');
                 setDropped(current);

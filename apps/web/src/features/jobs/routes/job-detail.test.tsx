@@ -155,6 +155,43 @@ describe('job detail', () => {
     expect(screen.getByText('0.0065 in')).toBeInTheDocument();
   });
 
+  it('tells the recorded machine time from the estimated one', async () => {
+    const preparation = {
+      thicknessMm: 3,
+      machineKind: 'laser',
+      kerfMm: 0.15,
+      pieceCount: 8,
+      crossingCount: 12,
+      diameterMm: 200,
+      sheetCount: 1,
+      sheet: { widthMm: 600, heightMm: 400 },
+      utilisation: 0.3,
+      warnings: [],
+      estimate: {
+        cutLengthMm: 7000,
+        markLengthMm: 2600,
+        pierces: 8,
+        travelMm: 4300,
+        minutes: 9.5,
+        machineCost: 3.8,
+        materialCost: 14.5,
+        currency: 'EUR',
+      },
+    };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('operator')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, { ...job, state: 'cut', preparation, actualMinutes: 12, sheetsUsed: 1, actions: [] }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const value = async (label: string) =>
+      (await screen.findByText(label, { selector: 'dt' })).nextElementSibling?.textContent;
+    expect(await value('Machine time (recorded)')).toBe('12.0 min');
+    expect(await value('Machine time (estimated)')).toBe('9.5 min');
+    expect(screen.queryByText('Machine time', { selector: 'dt' })).not.toBeInTheDocument();
+  });
+
   it('says plainly that there is no such job, with the way back, for an address that is no job id', async () => {
     const stub = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('operator')) });
     renderApp('/jobs/not-a-uuid', { token: 't' });
@@ -252,6 +289,35 @@ describe('job detail', () => {
       'The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same stock.',
     );
     expect(stub.calls.some((c) => c.url.pathname === '/api/designs/d-1')).toBe(true);
+  });
+
+  it('opens the Prepare dialog with the colours the job lists ticked', async () => {
+    const material = {
+      id: 'm-acrylic',
+      name: 'Cast acrylic 3 mm',
+      colours: ['clear', 'amber', 'teal'],
+      stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 14.5, currency: 'EUR' }],
+      laserAllowed: true,
+    };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, colours: ['teal', 'amber'] }),
+      'GET /api/materials': () => json(200, { items: [material], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+      'GET /api/designs/d-1': () => json(200, { id: 'd-1', spec: {} }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    await user.click(within(actions).getByRole('button', { name: 'Prepare: material, machine, layout' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Prepare the job' });
+    await within(dialog).findByRole('option', { name: 'Cast acrylic 3 mm' });
+    await user.selectOptions(within(dialog).getByLabelText('Material'), 'm-acrylic');
+    const group = within(dialog).getByRole('group', { name: 'Colours of stock' });
+    expect(
+      within(group)
+        .getAllByRole('checkbox')
+        .map((c) => (c as HTMLInputElement).checked),
+    ).toEqual([false, true, true]);
   });
 
   it('tells the supervisor who prepared a job why they are not offered its approval', async () => {

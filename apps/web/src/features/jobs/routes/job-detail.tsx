@@ -8,10 +8,6 @@ import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import CircularProgress from '@mui/material/CircularProgress';
-import Dialog from '@mui/material/Dialog';
-import DialogActions from '@mui/material/DialogActions';
-import DialogContent from '@mui/material/DialogContent';
-import DialogTitle from '@mui/material/DialogTitle';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Table from '@mui/material/Table';
@@ -44,6 +40,7 @@ import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
 import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
+import { ConfirmJobActionDialog } from '../components/confirm-job-action-dialog';
 import { CutPackPanel } from '../components/cut-pack-panel';
 import { JobSheetsPanel } from '../components/job-sheets-panel';
 import { JobStateChip } from '../components/job-state-chip';
@@ -266,7 +263,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           {job.actualMinutes !== null ? (
             <Facts
               rows={[
-                ['Machine time', formatMinutes(job.actualMinutes)],
+                ['Machine time (recorded)', formatMinutes(job.actualMinutes)],
                 ['Sheets used', String(job.sheetsUsed ?? '—')],
                 ['Measured kerf', job.measuredKerfMm === null ? '—' : fmtKerf(job.measuredKerfMm)],
               ]}
@@ -291,7 +288,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
                     ? ([
                         ['Cut length', formatRunLength(prep.estimate.cutLengthMm, unit)],
                         ['Pierces', String(prep.estimate.pierces)],
-                        ['Machine time', formatMinutes(prep.estimate.minutes)],
+                        ['Machine time (estimated)', formatMinutes(prep.estimate.minutes)],
                         [
                           'Cost',
                           prep.estimate.materialCost === null
@@ -365,6 +362,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         <PrepareJobDialog
           open
           designId={job.designId}
+          jobColours={job.colours}
           busy={action.isPending}
           error={action.error}
           onSubmit={(body) => take('prepare', { ...body })}
@@ -405,20 +403,14 @@ function JobDetail({ job }: { job: JobDetailView }) {
         />
       ) : null}
       {open && !['prepare', 'return', 'cut', 'safety'].includes(open) ? (
-        <Dialog open onClose={() => setOpen(null)} aria-labelledby="confirm-title">
-          <DialogTitle id="confirm-title">{transitionFor(open as JobAction).label}?</DialogTitle>
-          <DialogContent>
-            {action.error ? <FormErrorAlert error={action.error} /> : null}
-            <Typography>{`The job moves from ${job.state} to ${transitionFor(open as JobAction).to}.`}</Typography>
-          </DialogContent>
-          <DialogActions>
-            <Button onClick={() => setOpen(null)}>Cancel</Button>
-            {/* The button says what it does, in the words of the action's own button on the page. */}
-            <Button variant="contained" disabled={action.isPending} onClick={() => take(open as JobAction)}>
-              {transitionFor(open as JobAction).label}
-            </Button>
-          </DialogActions>
-        </Dialog>
+        <ConfirmJobActionDialog
+          action={open as JobAction}
+          from={job.state}
+          busy={action.isPending}
+          error={action.error}
+          onConfirm={() => take(open as JobAction)}
+          onClose={() => setOpen(null)}
+        />
       ) : null}
     </Box>
   );

@@ -43,4 +43,21 @@ describe('jobs board', () => {
     }
     expect(screen.getByLabelText('Search design or owner')).toBeInTheDocument();
   });
+
+  it("says whose jobs the board lists: a hobbyist's own, the workshop's for staff", async () => {
+    for (const [role, listed] of [
+      ['hobbyist', 'Your cut jobs by state.'],
+      ['operator', 'Every cut job sent to the workshop, and your own drafts, by state.'],
+      ['supervisor', 'Every cut job in the workshop, drafts included, by state.'],
+    ] as const) {
+      stubFetch({
+        'GET /api/auth/me': () => json(200, userFixture(role)),
+        'GET /api/jobs': () => json(200, { items: [], total: 0, page: 1, pageSize: 25 }),
+      });
+      const { unmount } = renderApp('/jobs', { token: 't' });
+      expect(await screen.findByText(new RegExp(`^${listed}`))).toBeInTheDocument();
+      if (role === 'hobbyist') expect(screen.queryByText(/Every cut job/)).not.toBeInTheDocument();
+      unmount();
+    }
+  });
 });

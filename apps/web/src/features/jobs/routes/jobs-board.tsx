@@ -1,4 +1,4 @@
-import { JOB_STATES, type JobState, type JobView } from '@kerfwright/contracts';
+import { JOB_STATES, type JobState, type JobView, type Role } from '@kerfwright/contracts';
 import Stack from '@mui/material/Stack';
 import TextField from '@mui/material/TextField';
 import ToggleButton from '@mui/material/ToggleButton';
@@ -7,6 +7,7 @@ import { Link } from 'react-router-dom';
 import { DataTable, type DataTableColumn } from '../../../components/data-table/data-table';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
 import { ListPage } from '../../../components/layouts/list-page';
+import { useUser } from '../../../lib/auth';
 import { JOB_SORT_FIELDS, type JobSortField, useJobs } from '../api/get-jobs';
 import { JobStateChip } from '../components/job-state-chip';
 
@@ -14,6 +15,14 @@ const PAGE_SIZES = [10, 25, 50] as const;
 
 const FILTERS = {
   state: (raw: string | null) => JOB_STATES.find((s) => s === raw),
+};
+
+/** Which jobs the board holds for each role, as the server lists them. */
+const JOBS_LISTED: Record<Role, string> = {
+  hobbyist: 'Your cut jobs',
+  fabricator: 'Every cut job sent to the workshop, and your own drafts,',
+  operator: 'Every cut job sent to the workshop, and your own drafts,',
+  supervisor: 'Every cut job in the workshop, drafts included,',
 };
 
 const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
@@ -53,11 +62,12 @@ export function JobsBoardRoute() {
   });
   const { state } = params;
   const jobs = useJobs(params);
+  const user = useUser();
 
   return (
     <ListPage
       title="Jobs"
-      intro="Every cut job by state. Open a job to see its history and the steps you can take."
+      intro={`${JOBS_LISTED[user.role]} by state. Open a job to see its history and the steps you can take.`}
       query={jobs}
       errorTitle="The jobs could not be loaded"
       filters={

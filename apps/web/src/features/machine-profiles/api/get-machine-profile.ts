@@ -1,6 +1,7 @@
 import { type MachineProfileDetailView } from '@kerfwright/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { isRecordId } from '../../../lib/record-id';
 import { profilesKeys } from './profiles-keys';
 
 /** GET /api/machine-profiles/:id → the profile with every version, newest first. */
@@ -15,6 +16,7 @@ export function machineProfileQueryOptions(id: string) {
   });
 }
 
+/** An id that is no record id names no profile: it is not asked for (the API would refuse it). */
 export function useMachineProfile(id: string) {
-  return useQuery(machineProfileQueryOptions(id));
+  return useQuery({ ...machineProfileQueryOptions(id), enabled: isRecordId(id) });
 }

@@ -13,10 +13,12 @@ import Typography from '@mui/material/Typography';
 import { useMemo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
+import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FullPageProgress } from '../../../components/ui/full-page-progress';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths } from '../../../config/paths';
-import { errorMessage } from '../../../lib/api-client';
+import { errorMessage, isApiError } from '../../../lib/api-client';
+import { isRecordId } from '../../../lib/record-id';
 import { useCreateProfileVersion } from '../api/create-profile-version';
 import { useMachineProfile } from '../api/get-machine-profile';
 import { useMaterialChoices } from '../api/get-material-choices';
@@ -33,6 +35,24 @@ import { KIND_LABELS, STATE_LABELS } from '../components/profile-labels';
 import { VersionComparison } from '../components/version-comparison';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 
+/**
+ * An address that names no machine profile (mistyped, or the profile is not there): say so, and offer the
+ * way back, as the job page does for a job. Trying again would only ask the same question.
+ */
+function NoSuchProfile() {
+  return (
+    <NotFoundPage
+      title="No such machine profile"
+      backTo={paths.machineProfiles.getHref()}
+      backLabel="Back to the machine profiles"
+      testId="no-such-profile"
+    >
+      There is no machine profile at this address. The link may be mistyped or incomplete; the machine
+      profiles page lists every profile.
+    </NotFoundPage>
+  );
+}
+
 /** One machine profile: its versions side by side, drafting and submitting, and the kerf history. */
 export function MachineProfileRoute() {
   const { profileId = '' } = useParams();
@@ -47,6 +67,9 @@ export function MachineProfileRoute() {
   const data = profile.data;
   const initial = useMemo(() => (data ? versionToFormValues(data, data.latest) : null), [data]);
 
+  if (!isRecordId(profileId) || (isApiError(profile.error) && profile.error.status === 404)) {
+    return <NoSuchProfile />;
+  }
   if (profile.isPending) return <FullPageProgress label="Loading the machine profile…" />;
   if (profile.isError || !data || !initial) {
     return (

@@ -57,7 +57,7 @@ describe('comparing profile versions', () => {
   it('marks rows whose value differs between versions, and leaves out fields no version uses', () => {
     const rows = versionRows([version(1), version(2, { hourlyRate: 26 })]);
     expect(rows.find((r) => r.key === 'machine.rate')).toMatchObject({
-      values: ['24.00 EUR', '26.00 EUR'],
+      values: ['24.00 EUR/h', '26.00 EUR/h'],
       changed: true,
     });
     expect(rows.find((r) => r.key === 'm-acrylic.kerfMm')?.changed).toBe(false);

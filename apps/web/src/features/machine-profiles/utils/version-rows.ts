@@ -1,4 +1,5 @@
 import { type MachineProfileVersionView, type ProfileSettingView } from '@kerfwright/contracts';
+import { formatHourlyRate } from '../../../lib/units';
 
 /** One line of a side-by-side comparison: a machine value or one material's value, per version. */
 export interface VersionRow {
@@ -38,7 +39,7 @@ function machineValues(v: MachineProfileVersionView): { key: string; label: stri
   return [
     { key: 'bed', label: 'Bed', value: `${v.bedWidthMm} × ${v.bedHeightMm} mm` },
     { key: 'rapid', label: 'Rapid speed', value: withUnit(v.rapidSpeedMmS, 'mm/s') },
-    { key: 'rate', label: 'Hourly rate', value: `${v.hourlyRate.toFixed(2)} ${v.currency}` },
+    { key: 'rate', label: 'Hourly rate', value: formatHourlyRate(v.hourlyRate, v.currency) },
     { key: 'notes', label: 'Notes', value: v.notes },
   ];
 }

@@ -12,6 +12,7 @@ import TableSortLabel from '@mui/material/TableSortLabel';
 import TextField from '@mui/material/TextField';
 import { useMemo, useState } from 'react';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
+import { familyLabel } from '../../../config/trade-labels';
 
 type SortKey = 'family' | 'laser';
 const LASER_LABEL: Record<LaserAllowance, string> = {
@@ -34,10 +35,13 @@ export function HazardTable({ rows }: { rows: readonly MaterialHazard[] }) {
     const filtered = rows.filter(
       (r) =>
         (laser === 'all' || r.laser === laser) &&
-        (!needle || [r.family, r.hazard, ...r.examples].some((t) => t.toLowerCase().includes(needle))),
+        (!needle ||
+          [familyLabel(r.family), r.hazard, ...r.examples].some((t) => t.toLowerCase().includes(needle))),
     );
+    // Families sort by the name shown, as the reader sees them.
+    const key = (r: MaterialHazard) => (sort.key === 'family' ? familyLabel(r.family) : r.laser);
     const sorted = [...filtered].sort(
-      (a, b) => a[sort.key].localeCompare(b[sort.key]) || a.family.localeCompare(b.family),
+      (a, b) => key(a).localeCompare(key(b)) || familyLabel(a.family).localeCompare(familyLabel(b.family)),
     );
     return sort.asc ? sorted : sorted.reverse();
   }, [rows, q, laser, sort]);
@@ -99,7 +103,7 @@ export function HazardTable({ rows }: { rows: readonly MaterialHazard[] }) {
           <TableBody>
             {shown.slice(pageIndex * pageSize, (pageIndex + 1) * pageSize).map((r) => (
               <TableRow key={r.family} data-testid={`hazard-${r.family}`}>
-                <TableCell>{r.family}</TableCell>
+                <TableCell>{familyLabel(r.family)}</TableCell>
                 <TableCell>{r.examples.join(', ')}</TableCell>
                 <TableCell>
                   <Chip size="small" color={LASER_COLOUR[r.laser]} label={LASER_LABEL[r.laser]} />

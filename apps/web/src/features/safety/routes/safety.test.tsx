@@ -39,6 +39,20 @@ const hazards: MaterialHazard[] = [
     condition: 'small amounts',
     source: 'common practice',
   },
+  {
+    family: 'glue-backed',
+    examples: ['self-adhesive sheet'],
+    laser: 'no',
+    hazard: 'The glue is often unknown.',
+    source: 'common practice',
+  },
+  {
+    family: 'carbon-fibre',
+    examples: ['CFRP plate'],
+    laser: 'no',
+    hazard: 'Fine fibres and resin fumes.',
+    source: 'common practice',
+  },
 ];
 
 const rules: LocalRulesView = {
@@ -136,11 +150,15 @@ describe('safety page', () => {
         .getAllByRole('row')
         .slice(1)
         .map((r) => r.querySelector('td')?.textContent);
-    expect(families()).toEqual(['abs', 'acrylic', 'pvc']);
+    // Families by the names people read, never their codes.
+    expect(families()).toEqual(['ABS', 'Acrylic', 'Carbon fibre', 'Glue-backed sheet', 'PVC / vinyl']);
     await user.click(within(table).getByRole('button', { name: 'Family' }));
-    expect(families()).toEqual(['pvc', 'acrylic', 'abs']);
+    expect(families()).toEqual(['PVC / vinyl', 'Glue-backed sheet', 'Carbon fibre', 'Acrylic', 'ABS']);
     await user.selectOptions(screen.getByLabelText('On a laser'), 'no');
-    expect(families()).toEqual(['pvc']);
+    expect(families()).toEqual(['PVC / vinyl', 'Glue-backed sheet', 'Carbon fibre']);
+    // The name shown is what a search finds.
+    await user.type(screen.getByLabelText('Search materials'), 'carbon fibre');
+    expect(families()).toEqual(['Carbon fibre']);
   });
 
   it('lets a supervisor save new local rules, and refuses empty ones', async () => {

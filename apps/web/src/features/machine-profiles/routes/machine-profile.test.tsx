@@ -1,0 +1,75 @@
+import { type MachineProfileDetailView } from '@kerfwright/contracts';
+import { screen, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { json, stubFetch } from '../../../testing/fetch-stub';
+import { userFixture, versionFixture } from '../../../testing/fixtures';
+import { renderApp } from '../../../testing/render-app';
+
+const PROFILE_ID = '5e2f8a10-3c4b-4d6e-8f9a-0b1c2d3e4f50';
+
+const approved = versionFixture({ profileId: PROFILE_ID });
+const draft = versionFixture({
+  profileId: PROFILE_ID,
+  id: 'v-2',
+  number: 2,
+  state: 'draft',
+  hourlyRate: 26.5,
+});
+
+const profile: MachineProfileDetailView = {
+  id: PROFILE_ID,
+  name: 'Bay 3 laser',
+  kind: 'co2-laser',
+  currentApproved: approved,
+  latest: draft,
+  versions: [draft, approved],
+  createdAt: '2026-01-01T00:00:00.000Z',
+};
+
+describe('machine profile page', () => {
+  it('gives each version its hourly rate per hour', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/machine-profiles/${PROFILE_ID}`]: () => json(200, profile),
+      [`GET /api/machine-profiles/${PROFILE_ID}/kerf-records`]: () =>
+        json(200, { items: [], total: 0, page: 1, pageSize: 1000 }),
+    });
+    renderApp(`/machine-profiles/${PROFILE_ID}`, { token: 't' });
+    const table = await screen.findByRole('table', { name: 'Versions side by side' });
+    const rate = within(table).getByRole('rowheader', { name: 'Hourly rate' }).closest('tr')!;
+    expect(
+      within(rate)
+        .getAllByRole('cell')
+        .map((c) => c.textContent),
+    ).toEqual(['24.00 EUR/h', '26.50 EUR/h (changed)']);
+  });
+
+  it('says plainly that there is no such profile, with the way back and no retry, when the API knows none', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/machine-profiles/${PROFILE_ID}`]: () =>
+        json(404, {
+          statusCode: 404,
+          code: 'MACHINE_PROFILE.NOT_FOUND',
+          message: 'No such machine profile',
+          requestId: 'r-1',
+        }),
+    });
+    renderApp(`/machine-profiles/${PROFILE_ID}`, { token: 't' });
+    expect(await screen.findByRole('heading', { name: 'No such machine profile' })).toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Back to the machine profiles' })).toHaveAttribute(
+      'href',
+      '/machine-profiles',
+    );
+    expect(screen.queryByRole('button', { name: 'Try again' })).not.toBeInTheDocument();
+    expect(screen.queryByText('The machine profile could not be loaded')).not.toBeInTheDocument();
+    expect(screen.queryByText(/r-1/)).not.toBeInTheDocument();
+  });
+
+  it('does not ask the API about an address that is no profile id', async () => {
+    const stub = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('supervisor')) });
+    renderApp('/machine-profiles/not-a-profile', { token: 't' });
+    expect(await screen.findByRole('heading', { name: 'No such machine profile' })).toBeInTheDocument();
+    expect(stub.calls.some((c) => c.url.pathname.startsWith('/api/machine-profiles/'))).toBe(false);
+  });
+});
