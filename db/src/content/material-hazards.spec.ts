@@ -80,6 +80,10 @@ describe('the material hazard table in safety/material-hazards.json', () => {
     expect(laserRefusal('abs', rows)).toMatch(/hydrogen cyanide/);
     expect(laserRefusal('acetal', rows)).toMatch(/formaldehyde/);
     expect(laserRefusal('ptfe', rows)).toMatch(/fluorinated/);
+    // Named as people know the material, by the table's examples, not by the family's code.
+    const pvc = rows.find((r) => r.family === 'pvc')!;
+    expect(laserRefusal('pvc', rows)).toMatch(new RegExp(`^${pvc.examples[0]}`));
+    expect(laserRefusal('glue-backed', rows) ?? '').not.toMatch(/family|"glue-backed"/);
   });
 
   it('refuses a family missing from the table, as if unidentified', () => {

@@ -121,7 +121,8 @@ export function laserRefusal(family: string, table: readonly MaterialHazard[]): 
     return `Material family "${family}" is not in the hazard table; an unlisted material is treated as unidentified and is not cut on a laser.`;
   }
   if (row.laser === 'no') {
-    return `${row.examples.join(', ')} (family "${row.family}") must not be cut on a laser: ${row.hazard}`;
+    // Named by its examples, as people know it ("PVC, vinyl…"), not by the table's family code.
+    return `${row.examples.join(', ')} must not be cut on a laser: ${row.hazard}`;
   }
   return null;
 }
