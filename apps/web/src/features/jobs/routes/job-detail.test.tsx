@@ -192,6 +192,33 @@ describe('job detail', () => {
     expect(screen.queryByText('Machine time', { selector: 'dt' })).not.toBeInTheDocument();
   });
 
+  it('says which figures count every copy and which one model', async () => {
+    const preparation = {
+      thicknessMm: 3,
+      machineKind: 'laser',
+      kerfMm: 0.15,
+      pieceCount: 24,
+      crossingCount: 12,
+      diameterMm: 200,
+      sheetCount: 2,
+      sheet: { widthMm: 600, heightMm: 400 },
+      utilisation: 0.3,
+      warnings: [],
+    };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('operator')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, { ...job, state: 'prepared', quantity: 2, preparation, actions: [] }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const value = async (label: string) =>
+      (await screen.findByText(label, { selector: 'dt' })).nextElementSibling?.textContent;
+    expect(await value('Pieces')).toBe('24 (2 copies of 12)');
+    expect(await value('Crossings')).toBe('12 per copy');
+    expect(await value('Sheets')).toBe('2 sheets of 600.0 mm × 400.0 mm');
+  });
+
   it('says plainly that there is no such job, with the way back, for an address that is no job id', async () => {
     const stub = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('operator')) });
     renderApp('/jobs/not-a-uuid', { token: 't' });

@@ -278,10 +278,22 @@ function JobDetail({ job }: { job: JobDetailView }) {
             <>
               <Facts
                 rows={[
-                  ['Pieces', String(prep.pieceCount)],
-                  ['Crossings', String(prep.crossingCount)],
+                  // The pieces of every copy; the crossings and the diameter are those of one model.
+                  [
+                    'Pieces',
+                    job.quantity > 1
+                      ? `${prep.pieceCount} (${job.quantity} copies of ${prep.pieceCount / job.quantity})`
+                      : String(prep.pieceCount),
+                  ],
+                  [
+                    'Crossings',
+                    job.quantity > 1 ? `${prep.crossingCount} per copy` : String(prep.crossingCount),
+                  ],
                   ['Diameter', fmt(prep.diameterMm)],
-                  ['Sheets', `${prep.sheetCount} × ${fmt(prep.sheet.widthMm)} × ${fmt(prep.sheet.heightMm)}`],
+                  [
+                    'Sheets',
+                    `${countOf(prep.sheetCount, 'sheet')} of ${fmt(prep.sheet.widthMm)} × ${fmt(prep.sheet.heightMm)}`,
+                  ],
                   ['Utilisation', `${(prep.utilisation * 100).toFixed(1)} %`],
                   ['Stock', `${fmt(prep.thicknessMm)} thick, cut on a ${prep.machineKind}`],
                   ...(prep.estimate
