@@ -25,8 +25,7 @@ import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 import { countOf } from '../../../lib/plural';
 import { formatMinutes, formatMoney } from '../../../lib/units';
-
-const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatDateTime } from '../../../lib/dates';
 
 /**
  * Whether the waiting version's notes are among its listed changes (new, or changed since the approved
@@ -147,7 +146,7 @@ export function ApprovalsRoute() {
                 <Chip size="small" variant="outlined" label={KIND_LABELS[p.kind]} />
               </Box>
               <Typography variant="body2" color="text.secondary" sx={{ mb: 2 }}>
-                Submitted {p.latest.submittedAt ? dateFormat.format(new Date(p.latest.submittedAt)) : ''}.{' '}
+                Submitted {p.latest.submittedAt ? formatDateTime(p.latest.submittedAt) : ''}.{' '}
                 {p.currentApproved
                   ? `Compared with the approved version ${p.currentApproved.number}; only changed values are listed.`
                   : 'No version is approved yet: every value is new.'}

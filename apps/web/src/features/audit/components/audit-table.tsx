@@ -3,8 +3,7 @@ import Link from '@mui/material/Link';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
 import { actionVerb, auditSummary, ENTITY_LABELS } from './audit-summary';
-
-const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
+import { formatDateTime } from '../../../lib/dates';
 
 interface AuditColumnsOptions {
   onActor: (actorId: string, name: string) => void;
@@ -22,7 +21,7 @@ export function auditColumns({
       header: 'When',
       sortField: 'createdAt',
       cellSx: { whiteSpace: 'nowrap' },
-      render: (e) => dateFormat.format(new Date(e.createdAt)),
+      render: (e) => formatDateTime(e.createdAt, { seconds: true }),
     },
     {
       id: 'who',

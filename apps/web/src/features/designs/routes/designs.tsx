@@ -9,6 +9,7 @@ import { ListPage } from '../../../components/layouts/list-page';
 import { DESIGN_SORT_FIELDS, type DesignSortField, useDesigns } from '../api/get-designs';
 import { countOf } from '../../../lib/plural';
 import { solidName } from '../lib/solid-name';
+import { formatDateTime } from '../../../lib/dates';
 
 const PAGE_SIZES = [10, 25, 50] as const;
 
@@ -36,7 +37,7 @@ const COLUMNS: readonly DataTableColumn<DesignSummary, DesignSortField>[] = [
     id: 'updated',
     header: 'Updated',
     sortField: 'updatedAt',
-    render: (d) => new Date(d.updatedAt).toLocaleString(),
+    render: (d) => formatDateTime(d.updatedAt),
   },
 ];
 

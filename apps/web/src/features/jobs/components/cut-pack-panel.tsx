@@ -18,6 +18,7 @@ import { useJobExports } from '../api/get-job-exports';
 import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
 import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from '../lib/pack-text';
+import { formatDateTime } from '../../../lib/dates';
 
 function formatBytes(bytes: number): string {
   if (bytes < 1024) return `${bytes} B`;
@@ -111,7 +112,7 @@ export function CutPackPanel({
                 sx={{ mb: 1 }}
                 data-testid="cut-pack-earlier"
               >
-                {`The files below are from the cut pack built ${new Date(shown.finishedAt ?? shown.createdAt).toLocaleString('en-GB')}; they stay valid until a new pack is ready.`}
+                {`The files below are from the cut pack built ${formatDateTime(shown.finishedAt ?? shown.createdAt)}; they stay valid until a new pack is ready.`}
               </Typography>
             ) : null}
             {/* At phone width the row keeps to the name, size and button (the name wraps); the table scrolls

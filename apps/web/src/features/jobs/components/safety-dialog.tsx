@@ -18,6 +18,7 @@ import { MarkdownText } from '../../../components/ui/markdown-text';
 import { useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
 import { useJobSafety } from '../api/get-job-safety';
 import { familyLabel, kindLabel } from '../../../config/trade-labels';
+import { formatDateTime } from '../../../lib/dates';
 
 const SEVERITY = { danger: 'error', warning: 'warning', caution: 'info' } as const;
 
@@ -85,7 +86,7 @@ export function SafetyDialog({
             </Box>
             {view.acknowledged ? (
               <Alert severity="success" data-testid="safety-acknowledged">
-                {`You acknowledged these notices${view.acknowledgedAt ? ` on ${new Date(view.acknowledgedAt).toLocaleString()}` : ''}.`}
+                {`You acknowledged these notices${view.acknowledgedAt ? ` on ${formatDateTime(view.acknowledgedAt)}` : ''}.`}
               </Alert>
             ) : !canAcknowledge ? (
               <Alert severity="info" data-testid="safety-read-only">

@@ -50,6 +50,7 @@ import { ReturnJobDialog } from '../components/return-job-dialog';
 import { SafetyDialog } from '../components/safety-dialog';
 import { countOf } from '../../../lib/plural';
 import { isBlankNumber } from '../../../lib/form-numbers';
+import { formatDateTime } from '../../../lib/dates';
 
 /** Actions that need more than a confirmation open their own dialog. */
 type Open = JobAction | 'safety' | null;
@@ -359,7 +360,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
             <TableBody>
               {job.transitions.map((t, i) => (
                 <TableRow key={i}>
-                  <TableCell>{new Date(t.at).toLocaleString()}</TableCell>
+                  <TableCell>{formatDateTime(t.at)}</TableCell>
                   <TableCell>{`${t.from ?? 'new'} → ${t.to}`}</TableCell>
                   <TableCell>{t.actorName ?? '—'}</TableCell>
                   <TableCell sx={{ minWidth: 160 }}>{t.reason ?? ''}</TableCell>

@@ -10,6 +10,7 @@ import { ListPage } from '../../../components/layouts/list-page';
 import { useUser } from '../../../lib/auth';
 import { JOB_SORT_FIELDS, type JobSortField, useJobs } from '../api/get-jobs';
 import { JobStateChip } from '../components/job-state-chip';
+import { formatDate, formatDateTime } from '../../../lib/dates';
 
 const PAGE_SIZES = [10, 25, 50] as const;
 
@@ -41,13 +42,13 @@ const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
     id: 'created',
     header: 'Created',
     sortField: 'createdAt',
-    render: (job) => new Date(job.createdAt).toLocaleDateString(),
+    render: (job) => formatDate(job.createdAt),
   },
   {
     id: 'updated',
     header: 'Updated',
     sortField: 'updatedAt',
-    render: (job) => new Date(job.updatedAt).toLocaleString(),
+    render: (job) => formatDateTime(job.updatedAt),
   },
 ];
 

@@ -18,8 +18,7 @@ import { useKerfRecords } from '../api/get-kerf-records';
 import { KerfHistoryChart, type KerfReference } from './kerf-history-chart';
 import { KerfRecordDialog } from './kerf-record-dialog';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
-
-const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatDateTime } from '../../../lib/dates';
 
 /**
  * The kerf history of one material on this machine: measurements over time against the approved and the
@@ -124,9 +123,7 @@ export function KerfHistoryPanel({
             <TableBody>
               {[...mine].reverse().map((r) => (
                 <TableRow key={r.id} data-testid="kerf-record">
-                  <TableCell sx={{ whiteSpace: 'nowrap' }}>
-                    {dateFormat.format(new Date(r.createdAt))}
-                  </TableCell>
+                  <TableCell sx={{ whiteSpace: 'nowrap' }}>{formatDateTime(r.createdAt)}</TableCell>
                   <TableCell>{r.kerfMm} mm</TableCell>
                   <TableCell>{r.notes || '—'}</TableCell>
                   <TableCell align="right">

@@ -6,6 +6,7 @@ import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 import { STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
 import { stubScreenWidth } from '../../../testing/screen-width';
+import { formatDateTime } from '../../../lib/dates';
 
 function jobFixture(id: string, state: JobView['state'], name: string): JobView {
   return {
@@ -228,7 +229,7 @@ describe('release desk', () => {
     const files = await within(job).findByRole('table', { name: 'Cut pack files' });
     expect(files).toHaveTextContent('sheet-01-clear.svg');
     expect(within(job).getByTestId('cut-pack-earlier')).toHaveTextContent(
-      'The files below are from the cut pack built 02/01/2026',
+      `The files below are from the cut pack built ${formatDateTime('2026-01-02T10:30:00.000Z')};`,
     );
   });
 

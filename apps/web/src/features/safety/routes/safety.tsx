@@ -16,6 +16,7 @@ import { useNotices } from '../api/get-notices';
 import { HazardTable } from '../components/hazard-table';
 import { LocalRulesForm } from '../components/local-rules-form';
 import { familyLabel, kindLabel } from '../../../config/trade-labels';
+import { formatDateTime } from '../../../lib/dates';
 
 const SEVERITY = { danger: 'error', warning: 'warning', caution: 'info' } as const;
 
@@ -76,7 +77,7 @@ export function SafetyRoute() {
             </Box>
             {rules.data ? (
               <Typography variant="caption" color="text.secondary">
-                {`Version ${rules.data.version}${rules.data.authorName ? ` by ${rules.data.authorName}` : ''}, ${new Date(rules.data.updatedAt).toLocaleString()}`}
+                {`Version ${rules.data.version}${rules.data.authorName ? ` by ${rules.data.authorName}` : ''}, ${formatDateTime(rules.data.updatedAt)}`}
               </Typography>
             ) : null}
           </>

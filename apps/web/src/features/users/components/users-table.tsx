@@ -7,8 +7,7 @@ import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
 import { ROLE_LABELS } from '../../../config/roles';
 import { type UserSortField } from '../api/get-users';
-
-const dateFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+import { formatDate } from '../../../lib/dates';
 
 interface UserColumnsOptions {
   currentUserId: string;
@@ -74,7 +73,7 @@ export function userColumns({
       header: 'Member since',
       sortField: 'createdAt',
       cellSx: { whiteSpace: 'nowrap' },
-      render: (user) => dateFormat.format(new Date(user.createdAt)),
+      render: (user) => formatDate(user.createdAt),
     },
     {
       id: 'status',
