@@ -1,6 +1,7 @@
 import { screen, within } from '@testing-library/react';
-import { describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../testing/render-app';
+import { stubScreenWidth } from '../../testing/screen-width';
 import { DataTable, type DataTableColumn } from './data-table';
 
 interface Row {
@@ -12,7 +13,7 @@ interface Row {
 const columns: DataTableColumn<Row, 'name' | 'count'>[] = [
   { id: 'name', header: 'Name', sortField: 'name', render: (r) => r.name },
   { id: 'count', header: 'Count', sortField: 'count', align: 'right', render: (r) => r.count },
-  { id: 'note', header: 'Note', render: () => '—' },
+  { id: 'note', header: 'Note', hideOnPhone: true, render: () => '—' },
 ];
 
 function renderTable(props: { sort: string; rows?: Row[]; page?: number }) {
@@ -38,6 +39,8 @@ function renderTable(props: { sort: string; rows?: Row[]; page?: number }) {
 }
 
 describe('the shared data table', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
   it('sorts by a header, and a second click on the sorted header reverses the order', async () => {
     const { user, onSort } = renderTable({ sort: 'name', rows: [{ id: '1', name: 'Alpha', count: 3 }] });
     const table = await screen.findByRole('table', { name: 'Things' });
@@ -56,5 +59,27 @@ describe('the shared data table', () => {
     expect(screen.getByText('26–50 of 60')).toBeInTheDocument();
     await user.click(screen.getByRole('button', { name: 'Go to next page' }));
     expect(onPage).toHaveBeenCalledWith(3);
+  });
+
+  it('leaves the secondary columns out on a phone-wide screen, and keeps them on a wider one', async () => {
+    const rows = [{ id: '1', name: 'Alpha', count: 3 }];
+    stubScreenWidth(390);
+    const phone = renderTable({ sort: 'name', rows });
+    const narrow = await screen.findByRole('table', { name: 'Things' });
+    expect(
+      within(narrow)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['Name', 'Count']);
+    expect(within(narrow).getAllByRole('cell')).toHaveLength(2);
+    phone.unmount();
+    stubScreenWidth(1280);
+    renderTable({ sort: 'name', rows });
+    const wide = await screen.findByRole('table', { name: 'Things' });
+    expect(
+      within(wide)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['Name', 'Count', 'Note']);
   });
 });

@@ -3,6 +3,7 @@ import LinearProgress from '@mui/material/LinearProgress';
 import Paper from '@mui/material/Paper';
 import Skeleton from '@mui/material/Skeleton';
 import { type SxProps, type Theme } from '@mui/material/styles';
+import useMediaQuery from '@mui/material/useMediaQuery';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
@@ -22,6 +23,11 @@ export interface DataTableColumn<T, F extends string = string> {
   align?: 'left' | 'right';
   /** Style of the column's body cells. */
   cellSx?: SxProps<Theme>;
+  /**
+   * Left out on a phone-wide screen (below the theme's sm), so the columns that matter there (the record's name
+   * and the actions on it) stay in reach without scrolling sideways.
+   */
+  hideOnPhone?: boolean;
 }
 
 interface DataTableProps<T, F extends string> {
@@ -63,7 +69,7 @@ interface DataTableProps<T, F extends string> {
  */
 export function DataTable<T, F extends string = string>({
   label,
-  columns,
+  columns: allColumns,
   rows,
   rowKey,
   rowProps,
@@ -82,6 +88,9 @@ export function DataTable<T, F extends string = string>({
   onPage,
   onPageSize,
 }: DataTableProps<T, F>) {
+  const phone = useMediaQuery((theme: Theme) => theme.breakpoints.down('sm'));
+  // On a phone the secondary columns go, and with them the width the whole table needed.
+  const columns = phone ? allColumns.filter((c) => !c.hideOnPhone) : allColumns;
   const lastPage = Math.max(0, Math.ceil(total / pageSize) - 1);
   const sorted = (c: DataTableColumn<T, F>) =>
     c.sortField !== undefined && sort.replace(/^-/, '') === c.sortField;
@@ -89,7 +98,7 @@ export function DataTable<T, F extends string = string>({
     <Paper variant="outlined">
       <Box sx={{ height: 4 }}>{fetching ? <LinearProgress aria-label={fetchingLabel} /> : null}</Box>
       <TableContainer sx={{ overflowX: 'auto' }}>
-        <Table size="small" aria-label={label} sx={{ minWidth }}>
+        <Table size="small" aria-label={label} sx={{ minWidth: phone ? undefined : minWidth }}>
           <TableHead>
             <TableRow>
               {columns.map((c) => (

@@ -44,6 +44,7 @@ export function auditColumns({
     },
     {
       id: 'action',
+      hideOnPhone: true,
       header: 'Action',
       // In words; the recorded action ("job.close") stays at hand for support, and for the action filter.
       render: (e) => {
@@ -53,6 +54,7 @@ export function auditColumns({
     },
     {
       id: 'record',
+      hideOnPhone: true,
       header: 'Record',
       render: (e) => (
         <Link

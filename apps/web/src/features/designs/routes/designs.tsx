@@ -21,8 +21,8 @@ const COLUMNS: readonly DataTableColumn<DesignSummary, DesignSortField>[] = [
     render: (d) => <Link to={`/designs/${d.id}`}>{d.name}</Link>,
   },
   { id: 'owner', header: 'Owner', render: (d) => d.ownerName },
-  { id: 'solid', header: 'Solid', render: (d) => d.solidFileName ?? solidName(d.solid) },
-  { id: 'pieces', header: 'Pieces', align: 'right', render: (d) => d.preview.pieceCount },
+  { id: 'solid', hideOnPhone: true, header: 'Solid', render: (d) => d.solidFileName ?? solidName(d.solid) },
+  { id: 'pieces', hideOnPhone: true, header: 'Pieces', align: 'right', render: (d) => d.preview.pieceCount },
   {
     id: 'check',
     header: 'Check',

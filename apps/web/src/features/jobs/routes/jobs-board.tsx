@@ -31,15 +31,17 @@ const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
   // "Owner", not "Requester": a draft (not sent yet, or its request withdrawn) is requested by nobody.
   { id: 'requester', header: 'Owner', render: (job) => job.requesterName },
   { id: 'state', header: 'State', sortField: 'state', render: (job) => <JobStateChip state={job.state} /> },
-  { id: 'material', header: 'Material', render: (job) => job.materialName ?? '—' },
+  { id: 'material', hideOnPhone: true, header: 'Material', render: (job) => job.materialName ?? '—' },
   {
     id: 'profile',
+    hideOnPhone: true,
     header: 'Machine profile',
     render: (job) => (job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : '—'),
   },
-  { id: 'copies', header: 'Copies', align: 'right', render: (job) => job.quantity },
+  { id: 'copies', hideOnPhone: true, header: 'Copies', align: 'right', render: (job) => job.quantity },
   {
     id: 'created',
+    hideOnPhone: true,
     header: 'Created',
     sortField: 'createdAt',
     render: (job) => formatDate(job.createdAt),

@@ -17,6 +17,7 @@ export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView
   { id: 'kind', header: 'Kind', sortField: 'kind', render: (p) => KIND_LABELS[p.kind] },
   {
     id: 'bed',
+    hideOnPhone: true,
     header: 'Bed',
     cellSx: { whiteSpace: 'nowrap' },
     render: (p) => `${p.latest.bedWidthMm} × ${p.latest.bedHeightMm} mm`,
@@ -28,6 +29,7 @@ export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView
   },
   {
     id: 'latest',
+    hideOnPhone: true,
     header: 'Latest version',
     render: (p) => (
       <Box sx={{ display: 'flex', gap: 1, alignItems: 'center' }}>

@@ -23,7 +23,13 @@ function sheets(m: MaterialView) {
 }
 
 const COLUMNS: readonly Column[] = [
-  { id: 'family', header: 'Family', sortField: 'family', render: (m) => FAMILY_LABELS[m.family] },
+  {
+    id: 'family',
+    hideOnPhone: true,
+    header: 'Family',
+    sortField: 'family',
+    render: (m) => FAMILY_LABELS[m.family],
+  },
   {
     id: 'name',
     header: 'Name',
@@ -47,8 +53,14 @@ const COLUMNS: readonly Column[] = [
     cellSx: { whiteSpace: 'nowrap' },
     render: thickness,
   },
-  { id: 'colours', header: 'Colours', render: (m) => m.colours.join(', ') || '—' },
-  { id: 'sheets', header: 'Stock sheets', cellSx: { fontSize: '0.8125rem' }, render: sheets },
+  { id: 'colours', hideOnPhone: true, header: 'Colours', render: (m) => m.colours.join(', ') || '—' },
+  {
+    id: 'sheets',
+    hideOnPhone: true,
+    header: 'Stock sheets',
+    cellSx: { fontSize: '0.8125rem' },
+    render: sheets,
+  },
   {
     id: 'laser',
     header: 'Laser',

@@ -40,6 +40,7 @@ export function userColumns({
     },
     {
       id: 'email',
+      hideOnPhone: true,
       header: 'E-mail',
       sortField: 'email',
       cellSx: { overflowWrap: 'anywhere' },
@@ -70,6 +71,7 @@ export function userColumns({
     },
     {
       id: 'since',
+      hideOnPhone: true,
       header: 'Member since',
       sortField: 'createdAt',
       cellSx: { whiteSpace: 'nowrap' },
