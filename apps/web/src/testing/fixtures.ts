@@ -1,4 +1,5 @@
 import {
+  type JobPreparation,
   type JobView,
   type MachineProfileVersionView,
   type Role,
@@ -86,5 +87,41 @@ export function jobFixture(overrides: Partial<JobView> = {}): JobView {
     updatedAt: '2026-01-01T00:00:00.000Z',
     actions: [],
     ...overrides,
+  };
+}
+
+/**
+ * A preparation as the API keeps it: eight pieces of a laser-cut model on one 600 × 400 mm sheet, with its
+ * estimate. `estimate` given in the overrides is merged into this one.
+ */
+export function preparationFixture(
+  overrides: Omit<Partial<JobPreparation>, 'estimate'> & {
+    estimate?: Partial<NonNullable<JobPreparation['estimate']>>;
+  } = {},
+): JobPreparation {
+  const { estimate, ...rest } = overrides;
+  return {
+    thicknessMm: 3,
+    machineKind: 'laser',
+    kerfMm: 0.15,
+    pieceCount: 8,
+    crossingCount: 12,
+    diameterMm: 200,
+    sheetCount: 1,
+    sheet: { widthMm: 600, heightMm: 400 },
+    utilisation: 0.3,
+    warnings: [],
+    ...rest,
+    estimate: {
+      cutLengthMm: 7000,
+      markLengthMm: 2600,
+      pierces: 8,
+      travelMm: 4300,
+      minutes: 9.5,
+      machineCost: 3.8,
+      materialCost: 14.5,
+      currency: 'EUR',
+      ...estimate,
+    },
   };
 }

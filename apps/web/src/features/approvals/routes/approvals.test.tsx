@@ -2,7 +2,7 @@ import { type JobView, type MachineProfileSummaryView } from '@kerfwright/contra
 import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { userFixture, versionFixture } from '../../../testing/fixtures';
+import { preparationFixture, userFixture, versionFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 
 const supervisor = userFixture('supervisor');
@@ -182,17 +182,11 @@ describe('Approvals (supervisor)', () => {
   });
 
   it('gives a large job its time in hours and its cost with thousands grouped', async () => {
-    const preparation = {
-      thicknessMm: 3,
-      machineKind: 'laser',
-      kerfMm: 0.15,
+    const preparation = preparationFixture({
       pieceCount: 600,
-      crossingCount: 12,
       diameterMm: 300,
       sheetCount: 600,
-      sheet: { widthMm: 600, heightMm: 400 },
       utilisation: 0.41,
-      warnings: [],
       estimate: {
         cutLengthMm: 1_238_848,
         markLengthMm: 0,
@@ -200,9 +194,8 @@ describe('Approvals (supervisor)', () => {
         minutes: 1723.8,
         machineCost: 574.6,
         materialCost: 8814.92,
-        currency: 'EUR',
       },
-    };
+    });
     approvalsApi({ ...job, preparation } as unknown as JobView);
     renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-job');
@@ -212,28 +205,10 @@ describe('Approvals (supervisor)', () => {
   });
 
   it('counts machine time only when the sheet size has no price, and says so', async () => {
-    const preparation = {
-      thicknessMm: 3,
-      machineKind: 'laser',
-      kerfMm: 0.15,
-      pieceCount: 8,
-      crossingCount: 12,
-      diameterMm: 200,
-      sheetCount: 1,
+    const preparation = preparationFixture({
       sheet: { widthMm: 600, heightMm: 1000 },
-      utilisation: 0.3,
-      warnings: [],
-      estimate: {
-        cutLengthMm: 7000,
-        markLengthMm: 2600,
-        pierces: 8,
-        travelMm: 4300,
-        minutes: 2.4,
-        machineCost: 0.96,
-        materialCost: null,
-        currency: 'EUR',
-      },
-    };
+      estimate: { minutes: 2.4, machineCost: 0.96, materialCost: null },
+    });
     approvalsApi({ ...job, preparation } as unknown as JobView);
     renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-job');

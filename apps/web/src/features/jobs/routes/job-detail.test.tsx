@@ -2,7 +2,7 @@ import { type ExportView, type JobDetailView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { jobFixture, userFixture } from '../../../testing/fixtures';
+import { jobFixture, preparationFixture, userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 
 const job: JobDetailView = {
@@ -156,28 +156,7 @@ describe('job detail', () => {
   });
 
   it('tells the recorded machine time from the estimated one', async () => {
-    const preparation = {
-      thicknessMm: 3,
-      machineKind: 'laser',
-      kerfMm: 0.15,
-      pieceCount: 8,
-      crossingCount: 12,
-      diameterMm: 200,
-      sheetCount: 1,
-      sheet: { widthMm: 600, heightMm: 400 },
-      utilisation: 0.3,
-      warnings: [],
-      estimate: {
-        cutLengthMm: 7000,
-        markLengthMm: 2600,
-        pierces: 8,
-        travelMm: 4300,
-        minutes: 9.5,
-        machineCost: 3.8,
-        materialCost: 14.5,
-        currency: 'EUR',
-      },
-    };
+    const preparation = preparationFixture();
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('operator')),
       [`GET /api/jobs/${job.id}`]: () =>
@@ -193,18 +172,7 @@ describe('job detail', () => {
   });
 
   it('says which figures count every copy and which one model', async () => {
-    const preparation = {
-      thicknessMm: 3,
-      machineKind: 'laser',
-      kerfMm: 0.15,
-      pieceCount: 24,
-      crossingCount: 12,
-      diameterMm: 200,
-      sheetCount: 2,
-      sheet: { widthMm: 600, heightMm: 400 },
-      utilisation: 0.3,
-      warnings: [],
-    };
+    const preparation = preparationFixture({ pieceCount: 24, sheetCount: 2 });
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('operator')),
       [`GET /api/jobs/${job.id}`]: () =>
