@@ -124,11 +124,16 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     expect(await sheets.getByTestId('sheets-summary').textContent()).toMatch(
       new RegExp(`need ${drawn} sheets?\\.`),
     );
-    // With an approved machine profile, the layout is estimated for time and cost.
-    await sheets.getByLabel('Estimate time and cost with').selectOption({ index: 1 });
-    expect(await sheets.getByTestId('layout-facts').textContent()).toMatch(
-      /Machine time(\d+\.\d min|[\d,]+ h \d+ min)/,
-    );
+    // With an approved machine profile for stock of the design's thickness, the layout is estimated for time
+    // and cost at once; "no machine" leaves cut length and pierces only.
+    const machineTime = /Machine time(\d+\.\d min|[\d,]+ h \d+ min)/;
+    await sheets.getByTestId('layout-facts').filter({ hasText: machineTime }).waitFor();
+    const estimateWith = sheets.getByLabel('Estimate time and cost with');
+    expect(await estimateWith.inputValue()).not.toBe('');
+    await estimateWith.selectOption({ index: 0 });
+    expect(await sheets.getByTestId('layout-facts').textContent()).not.toMatch(machineTime);
+    await estimateWith.selectOption({ index: 1 });
+    expect(await sheets.getByTestId('layout-facts').textContent()).toMatch(machineTime);
     await sheets.screenshot({ path: path.join(SCREENSHOT_DIR, 'studio-sheet-layout.png') });
     expect(workers.some((url) => /layout\.worker/.test(url))).toBe(true);
 

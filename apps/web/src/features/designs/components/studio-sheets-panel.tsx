@@ -111,7 +111,9 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   // Time and cost need a machine: any approved profile version, with its settings for a material.
   const profiles = useMachineProfiles(on);
   const materials = useMaterials(on);
-  const [machineChoice, setMachineChoice] = useState('');
+  // Null until the reader picks: then the first machine with a material of the design's thickness is taken,
+  // so that a layout shows its time and cost at once ("no machine" stays one pick away).
+  const [machineChoice, setMachineChoice] = useState<string | null>(null);
   // Materials of the design's thickness first: another thickness has other speeds, and the slots would not fit.
   const designThicknessMm = (layoutSpec ?? spec)?.stock.thicknessMm ?? null;
   const thickness = (materialId: string) =>
@@ -136,7 +138,19 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
     // eslint-disable-next-line react-hooks/exhaustive-deps -- thickness reads the two below
     [profiles.data, materials.data, designThicknessMm],
   );
-  const choice = choices.find((c) => c.key === machineChoice);
+  // Stock sold as the design's thickness counts, though it measures a little under (3 mm acrylic at 2.85).
+  const soldAs = (materialId: string) => {
+    const m = materials.data?.items.find((x) => x.id === materialId);
+    return (
+      m !== undefined &&
+      designThicknessMm !== null &&
+      [m.nominalThicknessMm, m.measuredThicknessMm].some(
+        (t) => t != null && Math.abs(t - designThicknessMm) <= THICKNESS_MATCH_MM,
+      )
+    );
+  };
+  const choiceKey = machineChoice ?? choices.find((c) => soldAs(c.setting.materialId))?.key ?? '';
+  const choice = choices.find((c) => c.key === choiceKey);
   const chosen = choice ? thickness(choice.setting.materialId) : null;
   const thicknessWarning =
     choice && chosen && !chosen.matches && chosen.thicknessMm !== null && designThicknessMm !== null
@@ -206,7 +220,7 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
               select
               size="small"
               label="Estimate time and cost with"
-              value={machineChoice}
+              value={choiceKey}
               onChange={(e) => setMachineChoice(e.target.value)}
               slotProps={NATIVE_SELECT}
               sx={{ mb: 2, minWidth: 320 }}
