@@ -4,7 +4,7 @@
  */
 export { createCutPack, createCoupon, CutPackError, type CouponInput } from './pack';
 export { clashingColourNames, slug } from './slug';
-export { cutEstimate, preparationEstimate, type CutEstimateOptions } from './pack-sheets';
+export { preparationEstimate, type PreparationEstimateOptions } from './pack-sheets';
 export {
   runPackCommand,
   runCouponCommand,

@@ -123,42 +123,31 @@ export function sheetsEstimate(
   };
 }
 
-export interface CutEstimateOptions {
+export interface PreparationEstimateOptions {
   /** Colour names in order, as the job has them. */
   colours: readonly string[];
   sheet: { widthMm: number; heightMm: number };
   machine: EstimateMachine;
-  pricePerSheet: number;
+  /** Null when the sheet has no price: the material cost is then unknown, not nought. */
+  pricePerSheet: number | null;
   currency: string;
 }
 
 /**
- * The estimate a cut pack of this laid-out model would carry (in millimetres): what preparation keeps, so
- * the job is approved on the setup sheet's figures.
+ * The estimate a job keeps from preparation: what a cut pack of this laid-out model would carry (sheets drawn
+ * in millimetres, labels and scale marks included), so the job is approved on the setup sheet's figures.
  */
-export function cutEstimate(
+export function preparationEstimate(
   model: BuiltModel,
   layout: LaidOutModel,
-  opts: CutEstimateOptions,
-): CutPackEstimate {
+  opts: PreparationEstimateOptions,
+): NonNullable<JobPreparation['estimate']> {
   const { sheets } = drawPackSheets(model, layout, {
     colours: opts.colours.map(printableColourName),
     sheet: opts.sheet,
     units: 'mm',
     machine: opts.machine,
   });
-  return sheetsEstimate(sheets, opts.machine, opts.pricePerSheet, opts.currency);
-}
-
-/**
- * The estimate a job keeps from preparation: cutEstimate's figures, with the material cost null (unknown, not
- * nought) when the sheet has no price.
- */
-export function preparationEstimate(
-  model: BuiltModel,
-  layout: LaidOutModel,
-  opts: Omit<CutEstimateOptions, 'pricePerSheet'> & { pricePerSheet: number | null },
-): NonNullable<JobPreparation['estimate']> {
-  const e = cutEstimate(model, layout, { ...opts, pricePerSheet: opts.pricePerSheet ?? 0 });
+  const e = sheetsEstimate(sheets, opts.machine, opts.pricePerSheet ?? 0, opts.currency);
   return { ...e, materialCost: opts.pricePerSheet === null ? null : e.materialCost };
 }

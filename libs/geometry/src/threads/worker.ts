@@ -26,7 +26,7 @@ import { buildWithLayout } from '../layout/build-with-layout';
 import { prepareCut } from '../layout/prepare-cut';
 import { type LayoutOptions } from '../layout/plan-layout';
 import { CutPackError, createCutPack } from '../pack/pack';
-import { type CutEstimateOptions, preparationEstimate } from '../pack/pack-sheets';
+import { type PreparationEstimateOptions, preparationEstimate } from '../pack/pack-sheets';
 import { parseSolidText } from '../solids/parse';
 import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError, validateSpec } from '../spec/validate-spec';
@@ -83,7 +83,7 @@ export interface PrepareJobTask {
    * The machine's speeds and rate, the colour names and the sheet's price, for the time and cost of cutting
    * the sheets as the cut pack draws them. A null price: the sheet size has none (material cost unknown).
    */
-  estimate?: Omit<CutEstimateOptions, 'sheet' | 'pricePerSheet'> & { pricePerSheet: number | null };
+  estimate?: Omit<PreparationEstimateOptions, 'sheet'>;
 }
 
 export type PreparedJob =
