@@ -1,4 +1,5 @@
 import { type AuditEventView } from '@kerfwright/contracts';
+import { isRecordId } from '../../../lib/record-id';
 
 /** What each kind of record is called on screen. */
 export const ENTITY_LABELS: Record<string, string> = {
@@ -91,12 +92,9 @@ function subjectOf(entityType: string, before: Fields | null, after: Fields | nu
   return null;
 }
 
-/** Record ids (UUIDs): they name a record to the machine, not to a reader. */
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-
 /** A field that holds a record's id ("adoptedVersionId", "submittedBy") rather than a value a reader knows. */
 function isIdField(key: string, ...values: unknown[]): boolean {
-  return /(^id|Id|Ids|By)$/.test(key) || values.some((v) => typeof v === 'string' && UUID.test(v.trim()));
+  return /(^id|Id|Ids|By)$/.test(key) || values.some((v) => typeof v === 'string' && isRecordId(v.trim()));
 }
 
 /** A field's name as people read it: "laserAllowed" → "laser allowed", "nominalThicknessMm" → "nominal thickness (mm)". */

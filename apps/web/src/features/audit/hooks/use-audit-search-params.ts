@@ -1,15 +1,15 @@
 import { useMemo } from 'react';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
 import { type GetAuditParams } from '../api/get-audit-events';
+import { isRecordId } from '../../../lib/record-id';
 
 export const PAGE_SIZES = [25, 50, 100] as const;
 const SORT_FIELDS = ['createdAt'] as const;
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 const FILTERS = {
   entityType: (raw: string | null) => raw?.slice(0, 40) || undefined,
   entityId: (raw: string | null) => raw?.slice(0, 64) || undefined,
-  actor: (raw: string | null) => (raw && UUID.test(raw) ? raw : undefined),
+  actor: (raw: string | null) => (raw && isRecordId(raw) ? raw : undefined),
   action: (raw: string | null) => raw?.slice(0, 80) || undefined,
 };
 
