@@ -245,6 +245,69 @@ describe('bottom-left fill in free-space windows', () => {
     }
   });
 
+  it('turns a part away from a full sheet in its windows, without searching the whole sheet again', () => {
+    // Parts that went on to a second sheet do not fit on the first: the windows, which hold every feasible
+    // translation, come out empty, and that is the answer (the same as the whole search's, for less work).
+    // Stars: their inscribed discs are small against their areas, so a window often opens where they cannot go.
+    let starSeed = 2027;
+    const rnd = () => (starSeed = (starSeed * 1664525 + 1013904223) % 4294967296) / 4294967296;
+    const stars: PreparedPart[] = Array.from({ length: 45 }, (_, index) => {
+      const k = 5 + Math.floor(rnd() * 5);
+      const R = 15 + rnd() * 30;
+      const inner = 0.35 + rnd() * 0.4;
+      const outline = Array.from({ length: 2 * k }, (_, i) => {
+        const t = (Math.PI * i) / k;
+        const r = i % 2 ? inner * R : R;
+        return [r * Math.cos(t), r * Math.sin(t)] as P;
+      });
+      return prepared(index, `s${index}`, outline);
+    });
+    const gapMm = 2;
+    const small = { widthMm: 300, heightMm: 200, marginMm: 5 };
+    const fill = new GeometryCache(stars, gapMm);
+    const copies = stars.map((p) => p.rotationsDeg.map((d) => fill.variant(p.index, d)));
+    const { sheets } = bottomLeftFill(fill, small, 'a', copies, []);
+    expect(sheets.length).toBeGreaterThan(1);
+    const first = sheets[0]!;
+    const later = sheets.slice(1).flatMap((s) => s.items.map((it) => stars[it.variant.partIndex]!));
+    let turnedAway = 0;
+    for (const p of later) {
+      // Fresh caches: each count is this part's own no-fit polygons.
+      const windowed = new GeometryCache(stars, gapMm);
+      const whole = new GeometryCache(stars, gapMm);
+      const fresh = (): SheetState => ({
+        ...first,
+        items: [...first.items],
+        regions: undefined,
+        free: undefined,
+        // As on the part's first try here.
+        windowed: undefined,
+      });
+      const inWindows = findPosition(
+        windowed,
+        small,
+        fresh(),
+        p.rotationsDeg.map((d) => windowed.variant(p.index, d)),
+      );
+      const inWhole = findPosition(
+        whole,
+        small,
+        fresh(),
+        p.rotationsDeg.map((d) => whole.variant(p.index, d)),
+        'right',
+        false,
+      );
+      expect(inWindows && [inWindows.variant.key, inWindows.tx, inWindows.ty]).toEqual(
+        inWhole && [inWhole.variant.key, inWhole.tx, inWhole.ty],
+      );
+      if (inWhole) continue;
+      turnedAway++;
+      // Derived: only the no-fit polygons near the windows' strips are built, never the whole sheet's.
+      expect(windowed.nfpCount).toBeLessThan(whole.nfpCount);
+    }
+    expect(turnedAway).toBeGreaterThan(10);
+  });
+
   it('subtracts fewer no-fit polygons than there are placed parts', () => {
     const gapMm = 3;
     const counting = new GeometryCache(parts, gapMm);

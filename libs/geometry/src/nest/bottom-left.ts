@@ -408,7 +408,15 @@ export function findPosition(
         const tx = Math.min(Math.max(q.X, fit.x0), fit.x1 < fit.x0 + 1 ? fit.x0 : fit.x1);
         const ty = Math.min(Math.max(q.Y, fit.y0), fit.y1 < fit.y0 + 1 ? fit.y0 : fit.y1);
         if (tx !== q.X || ty !== q.Y) continue;
-        out.push({ ...candidate(rule, v, tx, ty), order });
+        // As candidate() gives, built in one object: crowded regions have many thousands of vertices.
+        out.push({
+          variant: v,
+          tx,
+          ty,
+          primary: rule === 'left' ? tx + v.ubounds.minX : tx + v.ubounds.maxX,
+          secondary: ty + v.ubounds.minY,
+          order,
+        });
       }
   };
   const seen = (sheet.windowed ??= new Set<string>());
@@ -496,9 +504,17 @@ export function findPosition(
   if (sheet.items.length === 0) return best;
   // Best first, each checked directly against its neighbours.
   const clear = (c: Candidate) => clearOfItems(sheet.items, c.variant, c.tx, c.ty, cache.gapMm);
-  all.sort(compareCandidates);
-  let found: Ranked | null = all.find(clear) ?? null;
+  // The best vertex (best, unless it came from no region) nearly always passes: the others are sorted only
+  // when it does not.
+  let found: Ranked | null;
+  if (best && all.length > 0 && clear(best)) found = best;
+  else {
+    all.sort(compareCandidates);
+    found = all.find(clear) ?? null;
+  }
   strips.sort((a, b) => a.bound - b.bound || a.order - b.order || a.window.x0 - b.window.x0);
+  /** Whether a vertex of a strip's region failed the direct check. */
+  let rejected = false;
   for (const s of strips) {
     if (found && s.bound > found.primary) break;
     const clips = clipsNear(s.variant, [s.window], 0);
@@ -512,11 +528,13 @@ export function findPosition(
         found = c;
         break;
       }
+      rejected = true;
     }
   }
-  // Windows hold every feasible translation, but a position whose direct check fails in all of them sends the
-  // search again over whole regions, as it would have run without windows.
-  if (!found && strips.length > 0) return findPosition(cache, frame, sheet, variants, rule, false);
+  // Windows hold every feasible translation: strips whose regions are empty prove there is none. Only when a
+  // vertex of them failed the direct check (a sliver of a Minkowski union) is the search run again over whole
+  // regions, as it would have run without windows.
+  if (!found && rejected) return findPosition(cache, frame, sheet, variants, rule, false);
   return found;
 }
 

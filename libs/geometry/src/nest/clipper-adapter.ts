@@ -64,6 +64,15 @@ export function growPolygon(
 }
 
 /**
+ * The path with vertices within `distanceUnits` of a neighbour, and nearly collinear ones, removed (Clipper's
+ * CleanPolygon); the closed outline it bounds moves by at most that distance. Rotating and rounding a sharp tip
+ * can leave two vertices a unit apart whose edges cross: a twist no triangulation can cut into convex pieces.
+ */
+export function cleanPath(path: IntPath, distanceUnits: number): IntPath {
+  return ClipperLib.Clipper.CleanPolygon(path, distanceUnits);
+}
+
+/**
  * Morphological closing of a closed CCW polygon by radiusMm (grow, then shrink by the same amount), united
  * with the polygon itself so the result always contains it: notches and slots narrower than 2 × radiusMm are
  * filled, convex corners stay where they were. Returns the outer outline (largest positive area).

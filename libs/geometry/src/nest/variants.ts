@@ -7,6 +7,7 @@ import { convexPieces } from './convex-decomposition';
 import {
   areaUnits,
   boxOfPaths,
+  cleanPath,
   closePolygon,
   growPolygon,
   intersectPaths,
@@ -562,11 +563,25 @@ export function clearOfItems(
   return true;
 }
 
-function piecesOrNull(path: IntPath): IntPaths | null {
+/** How far (integer units) a vertex may move when an outline is cleaned for its convex pieces. */
+const CLEAN_UNITS = 2;
+
+export function piecesOrNull(path: IntPath): IntPaths | null {
+  const adds = (pieces: IntPaths, of: IntPath) =>
+    Math.abs(pieces.reduce((s, p) => s + areaUnits(p), 0) - areaUnits(of)) <=
+    1e-9 * Math.abs(areaUnits(of)) + 1;
   const pieces = convexPieces(path);
-  const total = pieces.reduce((s, p) => s + areaUnits(p), 0);
-  // A decomposition that does not add up (numerical trouble) is not used: fall back to Clipper's sums.
-  return Math.abs(total - areaUnits(path)) <= 1e-9 * Math.abs(areaUnits(path)) + 1 ? pieces : null;
+  if (adds(pieces, path)) return pieces;
+  // A decomposition that does not add up (numerical trouble, mostly a rounded tip twisted over a unit or two)
+  // is tried again on the outline cleaned of such vertices: it moves by at most CLEAN_UNITS, well inside the
+  // no-fit polygons' safety margin (GAP_SAFETY_MM), and every position is checked on the true outlines anyway.
+  const clean = cleanPath(path, CLEAN_UNITS);
+  if (clean.length >= 3 && areaUnits(clean) > 0) {
+    const again = convexPieces(clean);
+    if (adds(again, clean)) return again;
+  }
+  // Still no good: fall back to Clipper's sums.
+  return null;
 }
 
 function grownPiecesOf(v: ShapeVariant): IntPaths | null {
