@@ -95,6 +95,11 @@ describe('cut-pack exports worked inside the API process', () => {
   });
 
   it('builds the pack off the request path and releases the approved job with checksummed files', async () => {
+    // The price list changes after approval: the pack still prices its sheets as the approved job did (18 EUR).
+    await ctx.db.query(`UPDATE materials SET stock_sheets = $2 WHERE id = $1`, [
+      w.acrylicId,
+      JSON.stringify([{ widthMm: 600, heightMm: 400, pricePerSheet: 36, currency: 'EUR' }]),
+    ]);
     const res = await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.fabricator)).expect(202);
     exportId = res.body.exportId as string;
     expect(exportId).toMatch(/^[0-9a-f-]{36}$/);
@@ -145,9 +150,15 @@ describe('cut-pack exports worked inside the API process', () => {
     const manifestFile = view.files.find((f) => f.role === 'manifest')!;
     const manifest = JSON.parse(
       (await download(ctx, p.operator, exportId, manifestFile.name)).body.toString('utf8'),
-    ) as { files: { name: string; sha256: string; bytes: number }[]; estimate: unknown };
+    ) as {
+      files: { name: string; sha256: string; bytes: number }[];
+      sheetCount: number;
+      estimate: { materialCost: number | null };
+    };
     // The job was approved on the time and cost its cut pack now gives.
     expect(job.body.preparation.estimate).toEqual(manifest.estimate);
+    expect(job.body.preparation.pricePerSheet).toBe(18);
+    expect(manifest.estimate.materialCost).toBeCloseTo(18 * manifest.sheetCount, 6);
     for (const f of view.files) {
       const got = await download(ctx, p.operator, exportId, f.name);
       const body = got.body as Buffer;

@@ -62,7 +62,14 @@ export interface CutPackInput {
   colourRule?: ColourRuleName;
   quantity: number;
   machine: CutPackMachine;
-  material: { name: string; family: string; thicknessMm: number; pricePerSheet: number; currency: string };
+  material: {
+    name: string;
+    family: string;
+    thicknessMm: number;
+    /** Price of one sheet in `currency`; null when the sheet has no price (the material cost is then unknown). */
+    pricePerSheet: number | null;
+    currency: string;
+  };
   job: { id: string; title: string; requester: string };
   /** Notices that apply, for the setup sheet. */
   notices: { id: string; version: number; title: string; severity: string }[];
@@ -81,7 +88,8 @@ export interface CutPackEstimate {
   travelMm: number;
   minutes: number;
   machineCost: number;
-  materialCost: number;
+  /** Null when the sheet has no price. */
+  materialCost: number | null;
   currency: string;
 }
 

@@ -125,6 +125,12 @@ export interface JobPreparation {
   utilisation: number;
   warnings: string[];
   /**
+   * The price of one sheet in the machine's currency when the job was prepared (null: the material lists no
+   * such size in that currency). The cut pack prices its sheets with it, so its material cost is the one
+   * approved even if the price list changes later. Absent on jobs prepared before it was kept.
+   */
+  pricePerSheet?: number | null;
+  /**
    * Time and cost of cutting the sheets as the cut pack draws them (labels and scale marks included), at the
    * profile version's speeds and hourly rate: the figures the setup sheet prints. `materialCost` is null when
    * the sheet size has no price in the material's stock list. Absent on jobs prepared before it was kept.

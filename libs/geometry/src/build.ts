@@ -25,6 +25,7 @@ import { MAX_SCALE_MM, type ResolvedSpec, SpecValidationError, validateSpec } fr
 import { IssueList, fitsBed, slotGap, slotWeb } from './validity/validity';
 import { cutterMarginMm } from './layout/plan-layout';
 import { CLASH_TOLERANCE_MM, thicknessClashes } from './validity/thickness-clash';
+import { lengthText } from './math/length-text';
 
 /** A slot as built into one piece (piece frame, mm). */
 export interface BuiltSlot {
@@ -487,13 +488,13 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
     } else if (machine.kind === 'laser' && w < machine.kerfMm) {
       issues.error(
         'SLOT.NARROWER_THAN_KERF',
-        `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is narrower than the ${machine.kerfMm} mm kerf`,
+        `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is narrower than the ${lengthText(machine.kerfMm)} mm kerf`,
         pair,
       );
     } else if (machine.kind === 'router' && w < machine.toolDiameterMm) {
       issues.error(
         'SLOT.NARROWER_THAN_TOOL',
-        `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is narrower than the ${machine.toolDiameterMm} mm tool`,
+        `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is narrower than the ${lengthText(machine.toolDiameterMm)} mm tool`,
         pair,
       );
     }
@@ -552,10 +553,10 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
       comp.outline.length &&
       !fitsBed(comp.outline, spec.bed.widthMm - extra, spec.bed.heightMm - extra)
     ) {
-      const path = extra > 0 ? ` with the ${extra} mm bit passing outside it` : '';
+      const path = extra > 0 ? ` with the ${lengthText(extra)} mm bit passing outside it` : '';
       issues.error(
         'PIECE.LARGER_THAN_BED',
-        `${id} does not fit the ${spec.bed.widthMm} × ${spec.bed.heightMm} mm bed in any orientation${path}`,
+        `${id} does not fit the ${lengthText(spec.bed.widthMm)} × ${lengthText(spec.bed.heightMm)} mm bed in any orientation${path}`,
         [id],
       );
     }

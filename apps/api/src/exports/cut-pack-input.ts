@@ -7,7 +7,7 @@ import {
   DEFAULT_GAP_MM,
   DEFAULT_MARGIN_MM,
   JobPreparationService,
-  stockSheetOf,
+  pricedSheet,
 } from '../jobs/job-preparation.service';
 import { SafetyService } from '../safety/safety.service';
 import { User } from '../users/user.entity';
@@ -42,8 +42,12 @@ export class CutPackInputService {
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const requester = await m.findOne(User, { where: { id: job.requesterId } });
     const sheet = job.preparation.sheet;
-    // The size the job is cut from (a size typed in at preparation is not priced).
-    const stock = stockSheetOf(material, sheet);
+    // The sheet's price as it was when the job was prepared and approved (its estimate's), in the machine's
+    // currency; a job prepared before the price was kept is priced from today's list, as preparation prices.
+    const pricePerSheet =
+      job.preparation.pricePerSheet !== undefined
+        ? job.preparation.pricePerSheet
+        : pricedSheet(material, sheet, version.currency);
     const notices = (await this.safety.notices({}, m)).filter((n) =>
       noticeApplies(n, version.kind, material.family as MaterialFamily),
     );
@@ -75,8 +79,8 @@ export class CutPackInputService {
         name: material.name,
         family: material.family,
         thicknessMm: job.preparation.thicknessMm,
-        pricePerSheet: stock?.pricePerSheet ?? 0,
-        currency: stock?.currency ?? version.currency,
+        pricePerSheet,
+        currency: version.currency,
       },
       job: { id: job.id, title: design?.name ?? 'Untitled design', requester: requester?.displayName ?? '' },
       notices: notices.map((n) => ({ id: n.id, version: n.version, title: n.title, severity: n.severity })),

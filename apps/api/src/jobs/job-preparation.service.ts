@@ -108,6 +108,8 @@ export class JobPreparationService {
       colourCount: colours.length,
       colourRule,
     };
+    // The sheet's price now, kept with the preparation: the cut pack prices its sheets with it.
+    const pricePerSheet = pricedSheet(material, sheet, version.currency);
     // The engine's work runs in a worker thread (see GeometryThreads): a fit search takes about a second.
     let prepared: PreparedJob;
     try {
@@ -126,7 +128,7 @@ export class JobPreparationService {
         estimate: {
           machine: toEstimateMachine(version, setting),
           colours,
-          pricePerSheet: pricedSheet(material, sheet, version.currency),
+          pricePerSheet,
           currency: version.currency,
         },
       });
@@ -166,7 +168,7 @@ export class JobPreparationService {
         pieces: failure.pieces,
       });
     }
-    return { spec, colours, preparation: summary };
+    return { spec, colours, preparation: { ...summary, pricePerSheet } };
   }
 
   /**

@@ -2,6 +2,7 @@ import type { BuiltModel } from '../build';
 import { solveColourPlan, type ColourPlan, type ColourRule } from '../colour';
 import { compensateKerf } from '../compensation/compensate';
 import { nestParts, type NestResult, type NestSheetResult, type NestTotals } from '../nest';
+import { lengthText } from '../math/length-text';
 
 /** How a built model is laid out on stock: sheet size, margin, gap, colours and copies. Lengths in mm. */
 export interface LayoutOptions {
@@ -77,7 +78,7 @@ export function pieceTooLargeMessage(
   const named = pieceIds.length > 4 ? `${shown} and ${pieceIds.length - 4} more` : shown;
   const subject = pieceIds.length === 1 ? `Piece ${named} does` : `Pieces ${named} do`;
   return (
-    `${subject} not fit a ${sheet.widthMm} × ${sheet.heightMm} mm sheet inside its ${marginMm} mm margins, ` +
+    `${subject} not fit a ${lengthText(sheet.widthMm)} × ${lengthText(sheet.heightMm)} mm sheet inside its ${lengthText(marginMm)} mm margins, ` +
     'however turned: make the model smaller, choose a larger sheet, or fit the size to the sheets'
   );
 }
@@ -90,8 +91,8 @@ export function marginRaisedNote(
 ): string | null {
   if (!(usedMarginMm > askedMarginMm) || machine.kind !== 'router') return null;
   return (
-    `pieces keep ${usedMarginMm} mm from the sheet's edges, not ${askedMarginMm} mm: the ` +
-    `${machine.toolDiameterMm} mm bit passes outside each piece and must stay on the stock`
+    `pieces keep ${lengthText(usedMarginMm)} mm from the sheet's edges, not ${lengthText(askedMarginMm)} mm: the ` +
+    `${lengthText(machine.toolDiameterMm ?? 0)} mm bit passes outside each piece and must stay on the stock`
   );
 }
 
@@ -104,10 +105,10 @@ export function gapRaisedNote(
   if (!(usedGapMm > askedGapMm)) return null;
   const cutter =
     machine.kind === 'router'
-      ? `the ${machine.toolDiameterMm} mm bit, passing outside both neighbours on separate paths,`
-      : `the ${machine.kerfMm} mm kerf`;
+      ? `the ${lengthText(machine.toolDiameterMm ?? 0)} mm bit, passing outside both neighbours on separate paths,`
+      : `the ${lengthText(machine.kerfMm ?? 0)} mm kerf`;
   return (
-    `pieces are laid out ${usedGapMm} mm apart, not ${askedGapMm} mm: ${cutter} needs that much room ` +
+    `pieces are laid out ${lengthText(usedGapMm)} mm apart, not ${lengthText(askedGapMm)} mm: ${cutter} needs that much room ` +
     `between neighbours`
   );
 }

@@ -78,6 +78,7 @@ import {
   SCALE_PER_MM,
   toIntPath,
 } from './clipper-adapter';
+import { lengthText } from '../math/length-text';
 
 export interface NestSheetSize {
   widthMm: number;
@@ -941,7 +942,7 @@ export function nestParts(input: NestInput): NestResult {
     return fail(
       'PART_DOES_NOT_FIT',
       `part${tooBig.length > 1 ? 's' : ''} ${tooBig.map((id) => `"${id}"`).join(', ')} cannot fit on an empty ` +
-        `${sheet.widthMm} × ${sheet.heightMm} mm sheet with a ${marginMm} mm margin at any allowed rotation`,
+        `${lengthText(sheet.widthMm)} × ${lengthText(sheet.heightMm)} mm sheet with a ${lengthText(marginMm)} mm margin at any allowed rotation`,
       tooBig,
     );
 
@@ -968,8 +969,8 @@ export function nestParts(input: NestInput): NestResult {
       const ids = parts.map((p) => p.id);
       return fail(
         'PART_DOES_NOT_FIT',
-        `not every copy in group "${group}" could be placed on a ${sheet.widthMm} × ${sheet.heightMm} mm ` +
-          `sheet with a ${marginMm} mm margin`,
+        `not every copy in group "${group}" could be placed on a ${lengthText(sheet.widthMm)} × ${lengthText(sheet.heightMm)} mm ` +
+          `sheet with a ${lengthText(marginMm)} mm margin`,
         ids,
       );
     }

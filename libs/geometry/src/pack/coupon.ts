@@ -15,6 +15,7 @@ import { compensateKerf, notchOutline } from '../compensation/compensate';
 import { labelPiece } from '../labels';
 import { type EstimateMachine } from '../estimate';
 import { type SheetDrawing, type SheetPart, type Units, drawSheet, placePoint } from './sheet-drawing';
+import { lengthText } from '../math/length-text';
 
 export interface CouponOptions {
   /** Offsets from the computed width, mm. Default −0.15 … +0.15 in 0.05 steps. */
@@ -96,7 +97,7 @@ export function buildCoupon(
     const series = all.filter((x) => x - removed > 0.01 && x >= toolMm - 1e-9);
     if (series.length < all.length)
       warnings.push(
-        `coupon ${id}: slots ${toolMm > 0 ? `narrower than the ${toolMm} mm bit` : `no wider than the ${removed} mm kerf`} are left out (` +
+        `coupon ${id}: slots ${toolMm > 0 ? `narrower than the ${lengthText(toolMm)} mm bit` : `no wider than the ${lengthText(removed)} mm kerf`} are left out (` +
           all
             .filter((x) => !series.includes(x))
             .map((x) => x.toFixed(2))

@@ -5,6 +5,7 @@ import { type AssemblyStep, STRAIGHT_DEG } from './assembly';
 import { type Coupon } from './coupon';
 import { type Pdf, PAGE, drawFlat, drawProjected, ensureRoom, heading, renderPdf, rows } from './pdf';
 import { type SheetDrawing } from './sheet-drawing';
+import { lengthText } from '../math/length-text';
 
 /** The sentence every safety section ends with. */
 export const SAFETY_DEFERRAL =
@@ -13,8 +14,6 @@ export const SAFETY_DEFERRAL =
 const f1 = (x: number) => (Math.round(x * 10) / 10).toFixed(1);
 const f2 = (x: number) => (Math.round(x * 100) / 100).toFixed(2);
 const money = (x: number, cur: string) => `${f2(x)} ${cur}`;
-/** A setting as given (3.175, not 3.18; a radius of 1.5875): what the operator types into the machine. */
-const exact = (x: number) => String(Math.round(x * 10000) / 10000);
 
 export function setupSheetPdf(args: {
   input: CutPackInput;
@@ -42,10 +41,13 @@ export function setupSheetPdf(args: {
       heading(doc, 'Material and stock');
       rows(doc, [
         ['Material', `${input.material.name} (${input.material.family})`],
-        ['Thickness', `${exact(input.material.thicknessMm)} mm${spec.stock.flexible ? ', flexible' : ''}`],
+        [
+          'Thickness',
+          `${lengthText(input.material.thicknessMm)} mm${spec.stock.flexible ? ', flexible' : ''}`,
+        ],
         [
           'Sheet',
-          `${exact(input.sheet.widthMm)} x ${exact(input.sheet.heightMm)} mm, margin ${exact(input.marginMm)} mm, gap ${exact(input.gapMm)} mm`,
+          `${lengthText(input.sheet.widthMm)} x ${lengthText(input.sheet.heightMm)} mm, margin ${lengthText(input.marginMm)} mm, gap ${lengthText(input.gapMm)} mm`,
         ],
         ['Colours', input.colours.join(', ') + (input.colourRule ? ` (rule: ${input.colourRule})` : '')],
         ['Sheet count', `${sheets.length} (copies of the model: ${input.quantity})`],
@@ -58,16 +60,16 @@ export function setupSheetPdf(args: {
         [
           spec.machine.kind === 'laser' ? 'Kerf' : 'Tool diameter',
           spec.machine.kind === 'laser'
-            ? `${exact(spec.machine.kerfMm)} mm`
-            : `${exact(spec.machine.toolDiameterMm)} mm (dog-bone reliefs in slot corners)`,
+            ? `${lengthText(spec.machine.kerfMm)} mm`
+            : `${lengthText(spec.machine.toolDiameterMm)} mm (dog-bone reliefs in slot corners)`,
         ],
         [
           'Compensation',
           spec.machine.kind === 'laser'
             ? `Built into the files: every cut line is already offset outward by half the kerf ` +
-              `(${exact(spec.machine.kerfMm / 2)} mm). Cut on the line; set no kerf offset in the machine software.`
+              `(${lengthText(spec.machine.kerfMm / 2)} mm). Cut on the line; set no kerf offset in the machine software.`
             : `Not in the files: cut lines are the nominal outlines. Set an outside tool offset of the bit's ` +
-              `radius (${exact(spec.machine.toolDiameterMm / 2)} mm) in the machine software.`,
+              `radius (${lengthText(spec.machine.toolDiameterMm / 2)} mm) in the machine software.`,
         ],
         ['Cut speed', `${f1(m.cutSpeedMmS)} mm/s, ${m.passes} pass${m.passes === 1 ? '' : 'es'}`],
         ['Mark speed', `${f1(m.markSpeedMmS)} mm/s`],
@@ -104,7 +106,12 @@ export function setupSheetPdf(args: {
         ['Rapid travel', `${f1(estimate.travelMm)} mm`],
         ['Machine time', `${f1(estimate.minutes)} min (uncalibrated; compare with recorded cuts)`],
         ['Machine cost', money(estimate.machineCost, m.currency)],
-        ['Material cost', money(estimate.materialCost, input.material.currency)],
+        [
+          'Material cost',
+          estimate.materialCost === null
+            ? `not priced (no price for this sheet size in ${input.material.currency})`
+            : money(estimate.materialCost, input.material.currency),
+        ],
       ]);
       heading(doc, 'Safety notices');
       doc.font('Helvetica').fontSize(9.5);

@@ -102,13 +102,14 @@ export function drawPackSheets(
 export function sheetsEstimate(
   sheets: readonly SheetDrawing[],
   machine: EstimateMachine,
-  pricePerSheet: number,
+  /** Null when the sheet has no price: the material cost is then unknown, not nought. */
+  pricePerSheet: number | null,
   currency: string,
 ): CutPackEstimate {
   const job = estimateJob(
     sheets.map((s) => ({ cut: s.cut, mark: s.mark })),
     machine,
-    pricePerSheet,
+    pricePerSheet ?? 0,
   );
   const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
   return {
@@ -118,7 +119,7 @@ export function sheetsEstimate(
     travelMm: r(job.travelMm, 2),
     minutes: r(job.minutes, 2),
     machineCost: r(job.machineCost, 2),
-    materialCost: r(job.materialCost, 2),
+    materialCost: pricePerSheet === null ? null : r(job.materialCost, 2),
     currency,
   };
 }
@@ -148,6 +149,5 @@ export function preparationEstimate(
     units: 'mm',
     machine: opts.machine,
   });
-  const e = sheetsEstimate(sheets, opts.machine, opts.pricePerSheet ?? 0, opts.currency);
-  return { ...e, materialCost: opts.pricePerSheet === null ? null : e.materialCost };
+  return sheetsEstimate(sheets, opts.machine, opts.pricePerSheet, opts.currency);
 }

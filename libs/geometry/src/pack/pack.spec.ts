@@ -273,7 +273,7 @@ describe('createCutPack (octahedron hexagons, two colours, mm)', () => {
       'Workshop rules version 7',
       SAFETY_DEFERRAL,
       `Pierces ${pack.manifest.estimate.pierces}`,
-      `${pack.manifest.estimate.materialCost.toFixed(2)} EUR`,
+      `${pack.manifest.estimate.materialCost!.toFixed(2)} EUR`,
       'sheet-01-saffron 100 MM',
       'Sheet 1 of 2: saffron',
       'Sheet 2 of 2: teal',
@@ -449,6 +449,16 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(setup.text).toMatch(/safety\/ ?notices/); // PDF text may break the line after the slash
   });
 
+  it('leaves the material cost unknown, not nought, when the sheet has no price, and the setup sheet says so', async () => {
+    const base = input(octahedronHexagons(), { archive: false });
+    const r = await createCutPack({ ...base, material: { ...base.material, pricePerSheet: null } });
+    expect(r.manifest.estimate.materialCost).toBeNull();
+    expect(r.manifest.estimate.machineCost).toBeGreaterThan(0);
+    const setup = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(setup.text).toMatch(/not priced \(no price for this sheet size in EUR\)/);
+    expect(setup.text).not.toMatch(/Material cost\s*0\.00/);
+  });
+
   it("takes the spec's bed for the machine and warns when the sheet fits the bed neither way round", async () => {
     const spec = { ...octahedronHexagons(), bed: { widthMm: 300, heightMm: 300 } };
     const inputOf = packInputFrom(spec, { sheet: { widthMm: 500, heightMm: 450 } });
@@ -456,6 +466,11 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(sheetOverBedNote(inputOf)).toBe(
       "the 500 × 450 mm sheet does not fit the machine's 300 × 300 mm bed: cut the stock down to the bed " +
         'first, or lay out on sheets the bed takes',
+    );
+    // A sheet bought in inches (24 × 18 in, exactly 25.4 mm to the inch: NIST SP 811) reads as a person writes
+    // it, not as binary floating point leaves 24 × 25.4 (609.5999999999999).
+    expect(sheetOverBedNote({ ...inputOf, sheet: { widthMm: 24 * 25.4, heightMm: 18 * 25.4 } })).toMatch(
+      /^the 609\.6 × 457\.2 mm sheet does not fit the machine's 300 × 300 mm bed/,
     );
     // A sheet that fits turned a quarter turn is fine.
     expect(

@@ -27,6 +27,7 @@ import { type Coupon, buildCoupon } from './coupon';
 import { assemblyGuidePdf, setupSheetPdf } from './documents';
 import { sheetToDxf, sheetToSvg } from './sheet-files';
 import { PackSheetsError, drawPackSheets, sheetsEstimate } from './pack-sheets';
+import { lengthText } from '../math/length-text';
 
 /** Thrown when a pack cannot be made; `code` reads AREA.REASON. */
 export class CutPackError extends Error {
@@ -221,8 +222,8 @@ export async function createCutPack(
   if (bedNote) warnings.push(bedNote);
   if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
     warnings.push(
-      `the material is ${input.material.thicknessMm} mm thick but the design was built for ` +
-        `${model.spec.stock.thicknessMm} mm stock: slot widths follow the design`,
+      `the material is ${lengthText(input.material.thicknessMm)} mm thick but the design was built for ` +
+        `${lengthText(model.spec.stock.thicknessMm)} mm stock: slot widths follow the design`,
     );
   }
   if (cutterKind(input.machine.kind) !== model.spec.machine.kind) {
@@ -320,7 +321,7 @@ export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine'>)
   const fits = (a: number, b: number) => a <= bw + 1e-9 && b <= bh + 1e-9;
   if (!(bw > 0 && bh > 0) || fits(w, h) || fits(h, w)) return null;
   return (
-    `the ${w} × ${h} mm sheet does not fit the machine's ${bw} × ${bh} mm bed: ` +
+    `the ${lengthText(w)} × ${lengthText(h)} mm sheet does not fit the machine's ${lengthText(bw)} × ${lengthText(bh)} mm bed: ` +
     `cut the stock down to the bed first, or lay out on sheets the bed takes`
   );
 }

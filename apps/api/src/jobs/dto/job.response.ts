@@ -51,6 +51,13 @@ export class JobPreparationDto implements JobPreparation {
   @ApiPropertyOptional({ enum: COLOUR_RULES }) colourRule?: ColourRuleName;
   @ApiProperty({ description: 'Pieces’ area over the sheets’ area, 0–1' }) utilisation: number;
   @ApiProperty({ type: [String] }) warnings: string[];
+  @ApiPropertyOptional({
+    type: Number,
+    nullable: true,
+    description:
+      'One sheet’s price in the machine’s currency at preparation (null: not priced); the cut pack uses it',
+  })
+  pricePerSheet?: number | null;
   @ApiPropertyOptional({ type: JobEstimateDto }) estimate?: JobEstimateDto;
 }
 
