@@ -24,7 +24,9 @@ export async function createApp(options: { logger?: LogLevel[] | false } = {}): 
     logger: options.logger ?? ['error', 'warn', 'log'],
   });
   const config = app.get<ConfigType<typeof appConfig>>(appConfig.KEY);
-  app.set('trust proxy', 'loopback');
+  // The client address (req.ip, which the sign-in throttle counts by) is the connection's unless KW_TRUST_PROXY
+  // names the reverse proxies whose X-Forwarded-For may be believed.
+  app.set('trust proxy', config.trustProxy);
   // API answers are `no-store` (apiResponseHeaders), so a client never revalidates one and hashing every body
   // for an ETag is wasted. The web app's files keep theirs (express.static has its own setting); the
   // index.html fallback of client-side routes is revalidated by its Last-Modified.

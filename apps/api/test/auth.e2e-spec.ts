@@ -154,4 +154,24 @@ describe('sign-in and registration (real PostgreSQL)', () => {
     const other = await createUser(ctx, 'hobbyist');
     expect(other.token).toBeTruthy();
   });
+
+  it('counts a client’s sign-ins together whatever X-Forwarded-For it sends, and says when to try again', async () => {
+    // No proxy is trusted unless KW_TRUST_PROXY names it: the address is the connection's (loopback here).
+    const email = `rotating-${randomUUID().slice(0, 8)}@tests.example`;
+    const limit = Number(process.env.KW_LOGIN_LIMIT ?? 10);
+    const attempt = (i: number) =>
+      ctx.http
+        .post('/api/auth/login')
+        .set('X-Forwarded-For', `203.0.113.${i + 1}`)
+        .send({ email, password: 'guess-guess' });
+    for (let i = 0; i < limit; i++) await attempt(i).expect(401);
+    const res = await attempt(limit).expect(429);
+    expectErrorBody(res.body, 429, 'RATE_LIMIT.EXCEEDED');
+    // RFC 9110 §10.2.3: Retry-After is a date or a delay in whole seconds; here at most the window.
+    expect(res.headers['retry-after']).toMatch(/^\d+$/);
+    const seconds = Number(res.headers['retry-after']);
+    expect(seconds).toBeGreaterThan(0);
+    expect(seconds).toBeLessThanOrEqual(Number(process.env.KW_LOGIN_WINDOW_S ?? 60));
+    expect(res.headers['retry-after-login']).toBeUndefined();
+  });
 });

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { type JobAction, JOB_TRANSITIONS } from '@kerfwright/contracts';
 import { type MailCatcher, startMailCatcher } from '../src/dev-mail/mail-catcher';
 import { MailDispatcherService } from '../src/mail/mail-dispatcher.service';
@@ -751,6 +752,63 @@ describe('jobs through their states', () => {
       .set(auth(users.operator))
       .send({ materialId: w.acrylicId.toUpperCase(), kerfMm: 0.18, jobId: job.id.toUpperCase() })
       .expect(201);
+  });
+
+  it('checks a kerf measured at the cut against the job’s machine kind, as the kerf-records route does', async () => {
+    // An approved router profile for the fixture's acrylic: a 2 mm end mill (common practice for 3 mm slots).
+    const tag = randomUUID().slice(0, 8);
+    const [router] = (await ctx.db.query(
+      `INSERT INTO machine_profiles (name, kind) VALUES ($1, 'cnc-router') RETURNING id`,
+      [`Test router ${tag}`],
+    )) as { id: string }[];
+    const setting = {
+      materialId: w.acrylicId,
+      toolDiameterMm: 2,
+      cutSpeedMmS: 20,
+      markSpeedMmS: 40,
+      passes: 2,
+      pierceTimeS: 0,
+      spindleRpm: 18000,
+    };
+    const [version] = (await ctx.db.query(
+      `INSERT INTO machine_profile_versions (profile_id, number, state, bed_width_mm, bed_height_mm, rapid_speed_mm_s, hourly_rate, settings)
+       VALUES ($1, 1, 'approved', 1000, 600, 100, 40, $2) RETURNING id`,
+      [router!.id, JSON.stringify([setting])],
+    )) as { id: string }[];
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', { ...prepareBody(), profileVersionId: version!.id });
+    await act(users.supervisor, job.id, 'approve');
+    await releaseJob(ctx, users.fabricator, job.id);
+    await acknowledge(ctx, users.operator, job.id);
+    const cut = (measuredKerfMm: number) => ({ actualMinutes: 30, sheetsUsed: 2, measuredKerfMm });
+    const kerfBefore = await countRows(ctx, 'kerf_records');
+    // The ranges are MACHINE_PROFILE_LIMITS (libs/contracts): a router's cut is as wide as a tool may be,
+    // 0.1–25 mm; a laser's beam kerf 0.01–2 mm.
+    const thin = await act(users.operator, job.id, 'cut', cut(0.05), 400);
+    expectErrorBody(thin.body, 400, 'VALIDATION.FAILED');
+    expect(thin.body.details).toEqual([
+      { field: 'measuredKerfMm', messages: ['measuredKerfMm must be between 0.1 and 25 mm on a cnc-router'] },
+    ]);
+    expect(await countRows(ctx, 'kerf_records')).toBe(kerfBefore);
+    const done = await act(users.operator, job.id, 'cut', cut(2.05));
+    expect(done.body).toMatchObject({ state: 'cut', measuredKerfMm: 2.05 });
+    const kept: { profile_id: string; kerf_mm: string }[] = await ctx.db.query(
+      `SELECT profile_id, kerf_mm FROM kerf_records WHERE job_id = $1`,
+      [job.id],
+    );
+    expect(kept.map((k) => [k.profile_id, Number(k.kerf_mm)])).toEqual([[router!.id, 2.05]]);
+    // On a laser the same 2.05 mm is refused, and the job stays released.
+    const laser = await releasedAndAcknowledged();
+    const wide = await act(users.operator, laser.id, 'cut', cut(2.05), 400);
+    expectErrorBody(wide.body, 400, 'VALIDATION.FAILED');
+    expect(wide.body.details).toEqual([
+      { field: 'measuredKerfMm', messages: ['measuredKerfMm must be between 0.01 and 2 mm on a co2-laser'] },
+    ]);
+    const after = await ctx.http.get(`/api/jobs/${laser.id}`).set(auth(users.operator)).expect(200);
+    expect(after.body.state).toBe('released');
+    const none: unknown[] = await ctx.db.query(`SELECT 1 FROM kerf_records WHERE job_id = $1`, [laser.id]);
+    expect(none).toHaveLength(0);
   });
 
   it('queues no cut pack for a cut or closed job (409), only for an approved or released one', async () => {

@@ -765,6 +765,67 @@ describe('machine profiles, versions and kerf records', () => {
       expect(res.body.settings[0].kerfMm).toBeUndefined();
     });
 
+    it('lets no route put a value into a version that editing refuses: adopt, submit and approve answer as PATCH does', async () => {
+      // A router's tool diameter is 0.1–25 mm (MACHINE_PROFILE_LIMITS, the edit route's DTO limits).
+      const { p } = await approved({ kind: 'cnc-router', settings: [routerSetting(plywood)] });
+      const draft = (
+        await ctx.http
+          .post(`/api/machine-profiles/${p.id}/versions`)
+          .set(auth('fabricator'))
+          .send({})
+          .expect(201)
+      ).body as VersionBody;
+      const edit = await ctx.http
+        .patch(versionPath(p, draft))
+        .set(auth('fabricator'))
+        .send({ lockVersion: draft.lockVersion, settings: [routerSetting(plywood, 0.05)] })
+        .expect(400);
+      expectErrorBody(edit.body, 400, 'VALIDATION.FAILED');
+      expect(edit.body.details).toEqual([
+        { field: 'settings.0.toolDiameterMm', messages: ['toolDiameterMm must not be less than 0.1'] },
+      ]);
+      // A kerf record below a router's range, as the cut route used to keep one (written straight to the table).
+      const [record] = (await ctx.db.query(
+        `INSERT INTO kerf_records (profile_id, material_id, kerf_mm, recorded_by) VALUES ($1, $2, 0.05, $3) RETURNING id`,
+        [p.id, plywood, users.operator.id],
+      )) as { id: string }[];
+      const adopt = await ctx.http
+        .post(`/api/machine-profiles/${p.id}/kerf-records/${record!.id}/adopt`)
+        .set(auth('fabricator'))
+        .expect(400);
+      expectErrorBody(adopt.body, 400, 'VALIDATION.FAILED');
+      expect(adopt.body.details).toEqual(edit.body.details);
+      // The same value in the draft (written straight to the table): it can be neither submitted nor approved.
+      await ctx.db.query(`UPDATE machine_profile_versions SET settings = $2 WHERE id = $1`, [
+        draft.id,
+        JSON.stringify([routerSetting(plywood, 0.05)]),
+      ]);
+      const submit = await act('fabricator', p, draft, 'submit', { lockVersion: draft.lockVersion }).expect(
+        400,
+      );
+      expectErrorBody(submit.body, 400, 'VALIDATION.FAILED');
+      expect(submit.body.details).toEqual(edit.body.details);
+      await ctx.db.query(`UPDATE machine_profile_versions SET state = 'submitted' WHERE id = $1`, [draft.id]);
+      const approve = await act('supervisor', p, draft, 'approve', { lockVersion: draft.lockVersion }).expect(
+        400,
+      );
+      expectErrorBody(approve.body, 400, 'VALIDATION.FAILED');
+      expect(approve.body.details).toEqual(edit.body.details);
+      const after = (await ctx.http.get(`/api/machine-profiles/${p.id}`).set(auth('fabricator')).expect(200))
+        .body as ProfileBody;
+      expect(after.currentApproved!.settings[0]!.toolDiameterMm).toBe(3.175);
+      expect(after.latest).toMatchObject({
+        id: draft.id,
+        state: 'submitted',
+        lockVersion: draft.lockVersion,
+      });
+      const adopted: { adopted_version_id: string | null }[] = await ctx.db.query(
+        `SELECT adopted_version_id FROM kerf_records WHERE id = $1`,
+        [record!.id],
+      );
+      expect(adopted).toEqual([{ adopted_version_id: null }]);
+    });
+
     it('refuses to adopt a value for a material the profile has no settings for', async () => {
       const { p } = await approved();
       const r = await kerfRecord(p, felt, 0.3);

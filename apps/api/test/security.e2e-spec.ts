@@ -332,6 +332,32 @@ describe('security baseline (OWASP ASVS 4.0.3, level 2)', () => {
         await limited.app.close();
       }
     });
+
+    it('behind reverse proxies named in KW_TRUST_PROXY, counts each forwarded client on its own', async () => {
+      // Two proxies: one on loopback, one in 198.51.100.0/24 (RFC 5737 documentation addresses). Express takes
+      // the client to be the nearest address in X-Forwarded-For that is not a trusted proxy (its trust-proxy docs).
+      const proxied = await withEnv(
+        { KW_TRUST_PROXY: 'loopback, 198.51.100.0/24', KW_LOGIN_ADDRESS_LIMIT: '2' },
+        startTestApp,
+      );
+      try {
+        const from = (forwardedFor: string) =>
+          proxied.http
+            .post('/api/auth/login')
+            .set('X-Forwarded-For', forwardedFor)
+            .send({ email: `proxied-${randomUUID().slice(0, 6)}@tests.example`, password: 'guess' });
+        await from('203.0.113.1, 198.51.100.7').expect(401);
+        await from('203.0.113.1, 198.51.100.7').expect(401);
+        const res = await from('203.0.113.1, 198.51.100.7').expect(429);
+        expect(res.headers['retry-after']).toMatch(/^\d+$/);
+        // Another client behind the same proxies has a count of its own.
+        await from('203.0.113.2, 198.51.100.7').expect(401);
+        // An address put in front by the client itself is not believed.
+        await from('203.0.113.9, 203.0.113.1, 198.51.100.7').expect(429);
+      } finally {
+        await proxied.app.close();
+      }
+    });
   });
 });
 

@@ -201,6 +201,20 @@ export function kerfRangeMm(kind: MachineProfileKind): { min: number; max: numbe
     : MACHINE_PROFILE_LIMITS.kerfMm;
 }
 
+/**
+ * The range a kerf measured on a cut may take (a kerf record, a recorded cut): on a router it is the width of
+ * the cut, a bit's diameter or a little more; on beam and blade machines the kerf. Takes a profile's kind or
+ * the geometry's ('router' | 'laser', as a job's preparation keeps it).
+ */
+export function measuredKerfRangeMm(kind: MachineProfileKind | 'laser' | 'router'): {
+  min: number;
+  max: number;
+} {
+  return kind === 'cnc-router' || kind === 'router'
+    ? MACHINE_PROFILE_LIMITS.toolDiameterMm
+    : MACHINE_PROFILE_LIMITS.kerfMm;
+}
+
 /** The machine part of a design spec for one setting of a profile of the given kind. */
 export function toMachineSpec(
   kind: MachineProfileKind,

@@ -31,6 +31,9 @@ import { AuthService } from './auth.service';
           },
         ],
         errorMessage: 'Too many sign-in attempts; wait a minute and try again',
+        // No `Retry-After-login` and `X-RateLimit-*-login` headers (nothing reads them); LoginThrottlerGuard
+        // sends the standard Retry-After with a 429.
+        setHeaders: false,
       }),
     }),
   ],

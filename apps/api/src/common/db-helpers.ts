@@ -24,6 +24,8 @@ export function pgError(err: unknown): { code: string; constraint: string } | nu
 export const PG_UNIQUE_VIOLATION = '23505';
 export const PG_FOREIGN_KEY_VIOLATION = '23503';
 export const PG_FEATURE_NOT_SUPPORTED = '0A000';
+export const PG_SERIALIZATION_FAILURE = '40001';
+export const PG_DEADLOCK_DETECTED = '40P01';
 
 /** Escapes LIKE wildcards so search text is matched literally. */
 export function likePattern(q: string): string {

@@ -1,6 +1,6 @@
 import * as path from 'node:path';
 import { registerAs } from '@nestjs/config';
-import { DEV_JWT_SECRET, type Mode } from './env.validation';
+import { DEV_JWT_SECRET, type Mode, trustProxySetting } from './env.validation';
 
 export const appConfig = registerAs('app', () => ({
   mode: (process.env.KW_MODE ?? 'development') as Mode,
@@ -8,6 +8,8 @@ export const appConfig = registerAs('app', () => ({
   host: process.env.KW_HOST ?? '127.0.0.1',
   webDist: process.env.KW_WEB_DIST ?? path.resolve(__dirname, '..', '..', '..', 'web', 'dist'),
   corsOrigin: process.env.KW_CORS_ORIGIN ?? null,
+  /** Express's "trust proxy": no proxy unless KW_TRUST_PROXY names them (validated at boot). */
+  trustProxy: trustProxySetting(process.env.KW_TRUST_PROXY) ?? false,
 }));
 
 export const authConfig = registerAs('auth', () => ({

@@ -1,4 +1,4 @@
-import { DEV_JWT_SECRET, validateEnv } from './env.validation';
+import { DEV_JWT_SECRET, trustProxySetting, validateEnv } from './env.validation';
 
 describe('configuration validated at boot', () => {
   it('accepts an empty environment in development', () => {
@@ -25,5 +25,28 @@ describe('configuration validated at boot', () => {
     expect(() => validateEnv({ KW_CORS_ORIGIN: '*' })).toThrow(/KW_CORS_ORIGIN/);
     expect(() => validateEnv({ KW_CORS_ORIGIN: 'https://shop.example.org/app' })).toThrow(/KW_CORS_ORIGIN/);
     expect(() => validateEnv({ KW_LOGIN_ADDRESS_LIMIT: '0' })).toThrow(/KW_LOGIN_ADDRESS_LIMIT/);
+  });
+
+  it('trusts no proxy unless KW_TRUST_PROXY names them as Express takes them (hop count, addresses, subnets)', () => {
+    expect(trustProxySetting(undefined)).toBe(false);
+    expect(trustProxySetting('')).toBe(false);
+    expect(trustProxySetting('0')).toBe(false);
+    expect(trustProxySetting('1')).toBe(1);
+    expect(trustProxySetting('loopback')).toEqual(['loopback']);
+    expect(trustProxySetting(' 10.0.0.0/8, loopback ,::1 ')).toEqual(['10.0.0.0/8', 'loopback', '::1']);
+    for (const good of [
+      '2',
+      'loopback',
+      'linklocal, uniquelocal',
+      '192.0.2.10',
+      '192.0.2.0/24',
+      'fd00::/8',
+    ]) {
+      expect(() => validateEnv({ KW_TRUST_PROXY: good })).not.toThrow();
+    }
+    // "true" would believe any X-Forwarded-For a client sends; the rest are not addresses.
+    for (const bad of ['true', '-1', 'proxy.example.org', '192.0.2.0/33', '300.1.1.1', 'loopback,']) {
+      expect(() => validateEnv({ KW_TRUST_PROXY: bad })).toThrow(/KW_TRUST_PROXY/);
+    }
   });
 });

@@ -1,4 +1,5 @@
 import 'reflect-metadata';
+import { isIP } from 'node:net';
 import { plainToInstance } from 'class-transformer';
 import {
   IsIn,
@@ -9,6 +10,7 @@ import {
   Max,
   Min,
   MinLength,
+  ValidateBy,
   validateSync,
 } from 'class-validator';
 
@@ -41,6 +43,43 @@ export class EnvVars {
     message: 'KW_CORS_ORIGIN must be one origin such as https://shop.example.org (no wildcard, no path)',
   })
   KW_CORS_ORIGIN?: string;
+  /** The reverse proxies in front of the API, for Express's "trust proxy": see trustProxySetting. */
+  @IsOptional()
+  @ValidateBy({
+    name: 'trustProxy',
+    validator: {
+      validate: (v: unknown) => typeof v === 'string' && trustProxySetting(v) !== null,
+      defaultMessage: () =>
+        'KW_TRUST_PROXY must be a hop count, or addresses and subnets (CIDR) of the proxies, or loopback, linklocal, uniquelocal, separated by commas',
+    },
+  })
+  KW_TRUST_PROXY?: string;
+}
+
+/** Names Express (proxy-addr) takes for address ranges in "trust proxy". */
+const PROXY_RANGE_NAMES = new Set(['loopback', 'linklocal', 'uniquelocal']);
+
+/** An IPv4 or IPv6 address, optionally with a prefix length within its size. */
+function isAddressOrSubnet(entry: string): boolean {
+  const [address = '', prefix, ...rest] = entry.split('/');
+  const family = isIP(address);
+  if (family === 0 || rest.length > 0) return false;
+  if (prefix === undefined) return true;
+  return /^\d{1,3}$/.test(prefix) && Number(prefix) <= (family === 4 ? 32 : 128);
+}
+
+/**
+ * Express's "trust proxy" setting from KW_TRUST_PROXY: unset, empty or 0 trusts no proxy (the client address is
+ * the connection's, so a client cannot choose it with X-Forwarded-For); a hop count trusts that many proxies;
+ * otherwise the proxies' addresses, subnets (CIDR) or range names, separated by commas. Null when the value is
+ * none of these (`true`, trusting every address a client claims, is refused).
+ */
+export function trustProxySetting(raw: string | undefined): false | number | string[] | null {
+  const value = (raw ?? '').trim();
+  if (value === '') return false;
+  if (/^\d+$/.test(value)) return Number(value) === 0 ? false : Number(value);
+  const entries = value.split(',').map((e) => e.trim());
+  return entries.every((e) => PROXY_RANGE_NAMES.has(e) || isAddressOrSubnet(e)) ? entries : null;
 }
 
 /**

@@ -8,6 +8,7 @@ import {
   type JobPreparation,
   type JobState,
   type JobView,
+  type MachineProfileKind,
   type Page,
   transitionFor,
 } from '@kerfwright/contracts';
@@ -19,6 +20,7 @@ import { pageWindow, sortOrder } from '../common/paging';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { canReadDesign } from '../designs/designs.service';
 import { Design } from '../designs/design.entity';
+import { measuredKerfError } from '../machine-profiles/profile-rules';
 import { SafetyService } from '../safety/safety.service';
 import { type CreateJobDto, type ListJobsQuery, type PrepareJobDto, type RecordCutDto } from './dto/job.dto';
 import { canReadJob } from './job-access';
@@ -320,6 +322,8 @@ export class JobsService {
 
   recordCut(user: AuthUser, id: string, dto: RecordCutDto, req: unknown) {
     return this.transition(user, id, 'cut', dto.version, req, async (m, job) => {
+      // The measured kerf in the range of the job's machine kind, as the kerf-records route has it.
+      if (dto.measuredKerfMm !== undefined) await this.assertMeasuredKerf(m, job, dto.measuredKerfMm);
       // Whoever records the cut answers for it: they must have acknowledged the job's current safety
       // notices, as a download needs, and the material must still be allowed on the machine.
       const safety = await this.safety.forJob(user, job.id, m);
@@ -339,6 +343,25 @@ export class JobsService {
         await this.preparation.recordMeasuredKerf(m, job, dto.measuredKerfMm, user.id, requestIdOf(req));
       }
     });
+  }
+
+  /** 400 VALIDATION.FAILED when the kerf is outside the range of the machine kind the job was prepared on. */
+  private async assertMeasuredKerf(m: EntityManager, job: Job, kerfMm: number): Promise<void> {
+    if (!job.profileVersionId) return;
+    const rows: { kind: MachineProfileKind }[] = await m.query(
+      `SELECT p.kind FROM machine_profile_versions v JOIN machine_profiles p ON p.id = v.profile_id WHERE v.id = $1`,
+      [job.profileVersionId],
+    );
+    const kind = rows[0]?.kind;
+    const error = kind ? measuredKerfError(kind, kerfMm, 'measuredKerfMm') : null;
+    if (error) {
+      throw new AppError(
+        HttpStatus.BAD_REQUEST,
+        'VALIDATION.FAILED',
+        `Invalid request: ${error.field} (${error.messages.join('; ')})`,
+        [error],
+      );
+    }
   }
 
   close(user: AuthUser, id: string, version: number, req: unknown) {

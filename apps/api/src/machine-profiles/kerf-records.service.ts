@@ -11,7 +11,7 @@ import { type CreateKerfRecordDto } from './dto/create-kerf-record.dto';
 import { type ListKerfRecordsQueryDto } from './dto/list-machine-profiles.query';
 import { KerfRecord, MachineProfile } from './machine-profile.entity';
 import { MachineProfilesService, type ProfileActor } from './machine-profiles.service';
-import { measuredKerfRangeMm } from './profile-rules';
+import { measuredKerfError } from './profile-rules';
 
 /** Kerfs measured on test cuts (or jobs) per machine and material, and adopting one into a draft. */
 @Injectable()
@@ -28,13 +28,8 @@ export class KerfRecordsService {
       const profile = await manager.findOneBy(MachineProfile, { id: profileId });
       if (!profile) throw notFound('MACHINE_PROFILE', 'No such machine profile');
       const errors: { field: string; messages: string[] }[] = [];
-      const range = measuredKerfRangeMm(profile.kind);
-      if (dto.kerfMm < range.min || dto.kerfMm > range.max) {
-        errors.push({
-          field: 'kerfMm',
-          messages: [`kerfMm must be between ${range.min} and ${range.max} mm on a ${profile.kind}`],
-        });
-      }
+      const kerf = measuredKerfError(profile.kind, dto.kerfMm, 'kerfMm');
+      if (kerf) errors.push(kerf);
       const material = await manager.findOneBy(Material, { id: dto.materialId });
       if (!material) errors.push({ field: 'materialId', messages: ['no such material'] });
       if (dto.jobId !== undefined) {

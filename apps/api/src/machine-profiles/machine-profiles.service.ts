@@ -3,6 +3,7 @@ import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, In } from 'typeorm';
 import {
+  type FieldError,
   isLaserKind,
   laserRefusal,
   type MachineProfileDetailView,
@@ -33,7 +34,7 @@ import {
   type UpdateProfileVersionDto,
 } from './dto/profile-version-requests.dto';
 import { MachineProfile, MachineProfileVersion, toVersionView } from './machine-profile.entity';
-import { settingErrors } from './profile-rules';
+import { contentLimitErrors, settingErrors } from './profile-rules';
 
 /** Who is acting, for the audit trail and mails. */
 export interface ProfileActor {
@@ -507,14 +508,17 @@ export class MachineProfilesService {
   }
 
   /**
-   * Checks a version's settings for the machine kind: the right fields for the kind, each material
-   * existing and named once, and on a laser only materials that may be cut on one.
+   * Checks a version's content: the edit route's limits (content may come from elsewhere: an adopted kerf, a
+   * stored version being submitted or approved), the right fields for the kind, each material existing and
+   * named once, and on a laser only materials that may be cut on one.
    */
   async checkContent(
     manager: EntityManager,
     kind: MachineProfileKind,
     content: ProfileVersionContent,
   ): Promise<void> {
+    const limits = contentLimitErrors(content);
+    if (limits.length) throw invalid(limits);
     const errors = settingErrors(kind, content.settings);
     const ids = [...new Set(content.settings.map((s) => s.materialId))];
     const materials = ids.length ? await manager.findBy(Material, { id: In(ids) }) : [];
@@ -523,14 +527,7 @@ export class MachineProfilesService {
       if (!byId.has(s.materialId))
         errors.push({ field: `settings[${i}].materialId`, messages: ['no such material'] });
     });
-    if (errors.length) {
-      throw new AppError(
-        HttpStatus.BAD_REQUEST,
-        'VALIDATION.FAILED',
-        `Invalid request: ${errors.map((e) => `${e.field} (${e.messages.join('; ')})`).join(', ')}`,
-        errors,
-      );
-    }
+    if (errors.length) throw invalid(errors);
     if (!isLaserKind(kind)) return;
     const table = await this.hazards.rows(manager);
     for (const [i, s] of content.settings.entries()) {
@@ -726,6 +723,16 @@ function settingOf(s: ProfileSetting): ProfileSetting {
   if (s.powerPct !== undefined) out.powerPct = s.powerPct;
   if (s.spindleRpm !== undefined) out.spindleRpm = s.spindleRpm;
   return out;
+}
+
+/** 400 VALIDATION.FAILED with the field errors, worded as the global validation pipe words them. */
+function invalid(errors: FieldError[]): AppError {
+  return new AppError(
+    HttpStatus.BAD_REQUEST,
+    'VALIDATION.FAILED',
+    `Invalid request: ${errors.map((e) => `${e.field} (${e.messages.join('; ')})`).join(', ')}`,
+    errors,
+  );
 }
 
 function stale(current: number, sent?: number): AppError {

@@ -1,11 +1,16 @@
+import { plainToInstance } from 'class-transformer';
+import { validateSync } from 'class-validator';
 import {
   type FieldError,
   isLaserKind,
   kerfRangeMm,
-  MACHINE_PROFILE_LIMITS as L,
+  measuredKerfRangeMm,
   type MachineProfileKind,
   type ProfileSetting,
+  type ProfileVersionContent,
 } from '@kerfwright/contracts';
+import { toFieldErrors } from '../common/pipes/validation.pipe';
+import { ProfileVersionContentDto } from './dto/profile-version-content.dto';
 
 /**
  * Which setting fields a machine kind needs and which it must not carry. Lasers: kerf and power;
@@ -45,7 +50,22 @@ export function settingErrors(kind: MachineProfileKind, settings: readonly Profi
   return errors;
 }
 
-/** The range a measured kerf record may take on a machine kind (a router's is the width of its cut). */
-export function measuredKerfRangeMm(kind: MachineProfileKind): { min: number; max: number } {
-  return kind === 'cnc-router' ? L.toolDiameterMm : L.kerfMm;
+/** A measured kerf outside its machine kind's range, as the field error the kerf-records and cut routes give. */
+export function measuredKerfError(
+  kind: MachineProfileKind,
+  kerfMm: number,
+  field: string,
+): FieldError | null {
+  const range = measuredKerfRangeMm(kind);
+  if (kerfMm >= range.min && kerfMm <= range.max) return null;
+  return { field, messages: [`${field} must be between ${range.min} and ${range.max} mm on a ${kind}`] };
+}
+
+/**
+ * A version's content checked against the limits of the edit route's DTO, with the answers that route gives:
+ * content that did not come through it (an adopted kerf record, a stored version) is held to the same limits.
+ */
+export function contentLimitErrors(content: ProfileVersionContent): FieldError[] {
+  const dto = plainToInstance(ProfileVersionContentDto, content);
+  return toFieldErrors(validateSync(dto, { whitelist: true, forbidNonWhitelisted: true }));
 }

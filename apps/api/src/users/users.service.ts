@@ -59,9 +59,27 @@ export class UsersService {
     // Ids are compared normalised (PostgreSQL takes an upper-case uuid for the same row), and again as stored.
     if (sameId(id, actorId)) throw selfChange();
     return this.dataSource.transaction(async (manager) => {
-      const user = await manager.findOne(User, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      // Both rows are locked, in the order of their ids: the audit row's foreign key locks the actor's row
+      // anyway, and two supervisors changing each other at once would otherwise lock the two in opposite
+      // orders (a deadlock). Whoever waited then sees the other's change to their own account.
+      const rows = new Map<string, User | null>();
+      for (const key of [id, actorId].map((k) => k.toLowerCase()).sort()) {
+        rows.set(
+          key,
+          await manager.findOne(User, { where: { id: key }, lock: { mode: 'pessimistic_write' } }),
+        );
+      }
+      const user = rows.get(id.toLowerCase());
       if (!user) throw notFound('USER', 'No such user');
       if (sameId(user.id, actorId)) throw selfChange();
+      const actor = rows.get(actorId.toLowerCase());
+      if (actor?.role !== 'supervisor' || !actor.active) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'USER.ACTOR_CHANGED',
+          'Your own account was changed while this request ran (you are no longer an active supervisor); nothing was changed',
+        );
+      }
       const before = toUserView(user);
       if (dto.role !== undefined) user.role = dto.role;
       if (dto.active !== undefined) user.active = dto.active;

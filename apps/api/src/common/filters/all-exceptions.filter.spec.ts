@@ -107,4 +107,28 @@ describe('the one error body', () => {
     expect(run(pg('23505'))).toMatchObject({ status: 409, body: { code: 'STATE.CONFLICT' } });
     expect(run(pg('42P01'))).toMatchObject({ status: 500, body: { code: 'SERVER.INTERNAL' } });
   });
+
+  it('answers a transaction PostgreSQL gave up on (deadlock, serialization failure) with 409 and “try again”', () => {
+    // SQLSTATE 40P01 deadlock_detected, 40001 serialization_failure (PostgreSQL manual, appendix A): the
+    // transaction was rolled back and may succeed when sent again.
+    for (const code of ['40P01', '40001']) {
+      const err = Object.assign(new Error('deadlock detected'), {
+        name: 'QueryFailedError',
+        driverError: { code },
+      });
+      const { status, body } = run(err);
+      expect(status).toBe(409);
+      expect(body).toMatchObject({ code: 'STATE.CONFLICT', message: expect.stringMatching(/try again/) });
+      expect(JSON.stringify(body)).not.toContain('deadlock');
+    }
+    // node-postgres' own error, not wrapped by TypeORM, carries the code itself.
+    expect(run(Object.assign(new Error('could not serialize access'), { code: '40001' }))).toMatchObject({
+      status: 409,
+      body: { code: 'STATE.CONFLICT' },
+    });
+    // Other class 40 codes (40002 integrity_constraint_violation, 40003 statement_completion_unknown) stay 500.
+    expect(
+      run(Object.assign(new Error('x'), { name: 'QueryFailedError', driverError: { code: '40003' } })),
+    ).toMatchObject({ status: 500 });
+  });
 });

@@ -8,6 +8,7 @@ import {
 } from '@nestjs/common';
 import { type ErrorBody } from '@kerfwright/contracts';
 import { type Request, type Response } from 'express';
+import { PG_DEADLOCK_DETECTED, PG_SERIALIZATION_FAILURE, pgError } from '../db-helpers';
 import { requestIdOf } from '../middleware/request-id.middleware';
 
 const DEFAULT_CODES: Record<number, string> = {
@@ -79,7 +80,7 @@ export class AllExceptionsFilter implements ExceptionFilter {
       const message = typeof e.message === 'string' ? e.message : 'Bad request';
       return { statusCode: status, code: DEFAULT_CODES[status] ?? `HTTP.${status}`, message, requestId };
     }
-    const data = databaseInputError(exception);
+    const data = databaseInputError(exception) ?? abortedTransaction(exception);
     if (data) return { ...data, requestId };
     if (isDatabaseUnavailable(exception)) {
       return {
@@ -175,4 +176,20 @@ export function databaseInputError(err: unknown): Omit<ErrorBody, 'requestId'> |
     };
   }
   return null;
+}
+
+/**
+ * A transaction PostgreSQL rolled back to settle a race between concurrent ones, which a service did not settle
+ * itself: 40P01 deadlock_detected and 40001 serialization_failure (PostgreSQL manual, appendix A "Error
+ * Codes"; the manual's "Serialization Failure Handling" says to retry the transaction). A 409, sent again it
+ * may well succeed.
+ */
+export function abortedTransaction(err: unknown): Omit<ErrorBody, 'requestId'> | null {
+  const code = pgError(err)?.code;
+  if (code !== PG_DEADLOCK_DETECTED && code !== PG_SERIALIZATION_FAILURE) return null;
+  return {
+    statusCode: HttpStatus.CONFLICT,
+    code: 'STATE.CONFLICT',
+    message: 'The change met another one made at the same moment and was not made; reload and try again',
+  };
 }

@@ -180,15 +180,16 @@ export class RecordCutDto extends JobActionDto {
   actualMinutes: number;
   @ApiProperty() @IsInt() @Min(0) @Max(1000) sheetsUsed: number;
   @ApiPropertyOptional({
-    description: 'Kerf measured on the cut, mm; also kept as a kerf record',
+    description: `Kerf measured on the cut, mm; also kept as a kerf record. ${MACHINE_PROFILE_LIMITS.kerfMm.min}–${MACHINE_PROFILE_LIMITS.kerfMm.max} mm on lasers and blade cutters; on a router the measured cut width (${MACHINE_PROFILE_LIMITS.toolDiameterMm.min}–${MACHINE_PROFILE_LIMITS.toolDiameterMm.max} mm)`,
     minimum: MACHINE_PROFILE_LIMITS.kerfMm.min,
-    maximum: MACHINE_PROFILE_LIMITS.kerfMm.max,
+    maximum: MACHINE_PROFILE_LIMITS.toolDiameterMm.max,
   })
   @IsOptional()
   @IsNumber()
-  // The kerf records' limits: the column keeps 0.001 mm, so a smaller kerf would be stored as 0.
+  // The widest range of any machine kind (the kerf records' DTO); the job's own kind is checked by the service.
+  // The column keeps 0.001 mm, so a smaller kerf would be stored as 0.
   @Min(MACHINE_PROFILE_LIMITS.kerfMm.min)
-  @Max(MACHINE_PROFILE_LIMITS.kerfMm.max)
+  @Max(MACHINE_PROFILE_LIMITS.toolDiameterMm.max)
   measuredKerfMm?: number;
 }
 

@@ -1,4 +1,4 @@
-import { COLOUR_RULES, MACHINE_PROFILE_LIMITS } from '@kerfwright/contracts';
+import { COLOUR_RULES, measuredKerfRangeMm } from '@kerfwright/contracts';
 import { z } from 'zod';
 
 export const returnJobSchema = z.object({
@@ -10,8 +10,6 @@ export const returnJobSchema = z.object({
 });
 export type ReturnJobValues = z.infer<typeof returnJobSchema>;
 
-const KERF = MACHINE_PROFILE_LIMITS.kerfMm;
-
 /**
  * A sheet count far above what the preparation laid out: more than twice the prepared sheets, and at least
  * three more (a spoilt sheet cut again or a test cut are everyday). The API takes up to 1000 sheets for
@@ -22,31 +20,35 @@ export function isFarAboveSheets(used: number, prepared: number | null): boolean
   return used > Math.max(2 * prepared, prepared + 2);
 }
 
-export const recordCutSchema = z.object({
-  /** Undefined until typed in (so the empty field never holds "NaN"). */
-  actualMinutes: z
-    .number({ error: 'Enter the machine time in minutes' })
-    .gt(0, 'More than 0 minutes')
-    .max(10000, 'At most 10000 minutes'),
-  sheetsUsed: z
-    .number({ error: 'Enter the sheets used' })
-    .int('A whole number of sheets')
-    .min(1, 'At least 1 sheet')
-    .max(1000, 'At most 1000 sheets'),
-  /**
-   * Empty = not measured (undefined until typed in, NaN once cleared). The API takes what a machine profile
-   * takes: 0.01–2 mm.
-   */
-  measuredKerfMm: z.union([
-    z.undefined(),
-    z.nan(),
-    z
-      .number()
-      .min(KERF.min, `At least ${KERF.min} mm; leave it empty if it was not measured`)
-      .max(KERF.max, `At most ${KERF.max} mm`),
-  ]),
-});
-export type RecordCutValues = z.infer<typeof recordCutSchema>;
+/**
+ * The record-cut form for a job cut on a laser (or blade) or a router: the measured kerf takes the range the
+ * API takes for that kind of machine (a router's is the width of its cut, a bit's diameter or more).
+ */
+export function recordCutSchemaFor(machineKind: 'laser' | 'router') {
+  const kerf = measuredKerfRangeMm(machineKind);
+  return z.object({
+    /** Undefined until typed in (so the empty field never holds "NaN"). */
+    actualMinutes: z
+      .number({ error: 'Enter the machine time in minutes' })
+      .gt(0, 'More than 0 minutes')
+      .max(10000, 'At most 10000 minutes'),
+    sheetsUsed: z
+      .number({ error: 'Enter the sheets used' })
+      .int('A whole number of sheets')
+      .min(1, 'At least 1 sheet')
+      .max(1000, 'At most 1000 sheets'),
+    /** Empty = not measured (undefined until typed in, NaN once cleared). */
+    measuredKerfMm: z.union([
+      z.undefined(),
+      z.nan(),
+      z
+        .number()
+        .min(kerf.min, `At least ${kerf.min} mm; leave it empty if it was not measured`)
+        .max(kerf.max, `At most ${kerf.max} mm`),
+    ]),
+  });
+}
+export type RecordCutValues = z.infer<ReturnType<typeof recordCutSchemaFor>>;
 
 export const prepareJobSchema = z.object({
   materialId: z.string().min(1, 'Choose a material'),

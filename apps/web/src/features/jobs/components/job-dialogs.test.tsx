@@ -38,6 +38,7 @@ describe('record the cut dialog', () => {
         busy={false}
         error={null}
         preparedSheets={2}
+        machineKind="laser"
         onSubmit={onSubmit}
         onClose={noop}
       />,
@@ -78,6 +79,7 @@ describe('record the cut dialog, sheets used', () => {
         busy={false}
         error={null}
         preparedSheets={3}
+        machineKind="laser"
         onSubmit={onSubmit}
         onClose={noop}
       />,
@@ -113,6 +115,37 @@ describe('record the cut dialog, sheets used', () => {
   });
 });
 
+describe('record the cut dialog, on a router', () => {
+  it('asks for the width of the cut and takes what a router bit cuts (0.1–25 mm), as the API does', async () => {
+    // The API's range for a router's measured kerf (MACHINE_PROFILE_LIMITS.toolDiameterMm): a 3.175 mm (1/8 in)
+    // bit cuts a slot a little over 3.175 mm wide, far past a laser's 2 mm.
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <RecordCutDialog
+        open
+        busy={false}
+        error={null}
+        preparedSheets={2}
+        machineKind="router"
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '40');
+    const width = screen.getByLabelText('Measured cut width (mm, optional)');
+    await user.type(width, '0.05');
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    expect(
+      await screen.findByText('At least 0.1 mm; leave it empty if it was not measured'),
+    ).toBeInTheDocument();
+    await user.clear(width);
+    await user.type(width, '3.2');
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]?.[0]).toMatchObject({ actualMinutes: 40, measuredKerfMm: 3.2 });
+  });
+});
+
 describe('record the cut dialog, measured kerf', () => {
   it('takes a kerf of 0.01–2 mm as the API does, and never writes "NaN" into an empty field', async () => {
     // A browser warns 'The specified value "NaN" cannot be parsed' when a number input is given "NaN".
@@ -133,6 +166,7 @@ describe('record the cut dialog, measured kerf', () => {
           busy={false}
           error={null}
           preparedSheets={1}
+          machineKind="laser"
           onSubmit={onSubmit}
           onClose={noop}
         />,

@@ -13,7 +13,7 @@ import { useForm, useWatch } from 'react-hook-form';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { countOf } from '../../../lib/plural';
-import { isFarAboveSheets, type RecordCutValues, recordCutSchema } from './job-action-schemas';
+import { isFarAboveSheets, type RecordCutValues, recordCutSchemaFor } from './job-action-schemas';
 
 /**
  * The operator records what the cut took: machine time, sheets and (optionally) the kerf measured on it. A
@@ -25,6 +25,8 @@ export function RecordCutDialog(props: {
   error: unknown;
   /** The sheets the preparation laid out (the count offered), or null when unknown. */
   preparedSheets: number | null;
+  /** How the job was prepared to be cut: a router's measured kerf is the width of its cut. */
+  machineKind: 'laser' | 'router';
   onSubmit: (v: RecordCutValues) => void;
   onClose: () => void;
 }) {
@@ -34,7 +36,7 @@ export function RecordCutDialog(props: {
     control,
     formState: { errors },
   } = useForm<RecordCutValues>({
-    resolver: zodResolver(recordCutSchema),
+    resolver: zodResolver(recordCutSchemaFor(props.machineKind)),
     // The empty fields start undefined: NaN would be written into the number inputs as the text "NaN".
     defaultValues: { sheetsUsed: props.preparedSheets ?? 1 },
   });
@@ -85,7 +87,11 @@ export function RecordCutDialog(props: {
               </Alert>
             ) : null}
             <FormTextField
-              label="Measured kerf (mm, optional)"
+              label={
+                props.machineKind === 'router'
+                  ? 'Measured cut width (mm, optional)'
+                  : 'Measured kerf (mm, optional)'
+              }
               type="number"
               registration={register('measuredKerfMm', n)}
               error={errors.measuredKerfMm}

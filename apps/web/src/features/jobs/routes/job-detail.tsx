@@ -397,6 +397,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           busy={action.isPending}
           error={action.error}
           preparedSheets={prep?.sheetCount ?? null}
+          machineKind={prep?.machineKind ?? 'laser'}
           onSubmit={(v) =>
             take('cut', {
               actualMinutes: v.actualMinutes,

@@ -1,4 +1,4 @@
-import { MACHINE_PROFILE_LIMITS as L, type MachineProfileKind } from '@kerfwright/contracts';
+import { type MachineProfileKind, measuredKerfRangeMm } from '@kerfwright/contracts';
 import { z } from 'zod';
 
 /**
@@ -6,7 +6,7 @@ import { z } from 'zod';
  * router the measured width of the cut (which becomes the tool diameter when adopted).
  */
 export function kerfRecordSchema(kind: MachineProfileKind) {
-  const range = kind === 'cnc-router' ? L.toolDiameterMm : L.kerfMm;
+  const range = measuredKerfRangeMm(kind);
   return z.object({
     materialId: z.string().min(1, 'Choose the material'),
     kerfMm: z

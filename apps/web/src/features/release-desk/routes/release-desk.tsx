@@ -250,6 +250,7 @@ function DeskJob({ job }: { job: JobView }) {
           busy={action.isPending}
           error={action.error}
           preparedSheets={job.preparation?.sheetCount ?? null}
+          machineKind={job.preparation?.machineKind ?? 'laser'}
           onSubmit={(v) =>
             action.mutate(
               {
