@@ -259,6 +259,21 @@ describe('cut-pack exports worked inside the API process', () => {
     expect(d.body).toHaveLength(1);
     await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.operator)).expect(403);
     await ctx.http.post(`/api/jobs/${jobId}/exports`).set(auth(p.owner)).expect(403);
+    // The version read, when sent, is compared (docs/security.md 11.1.2): a stale one queues nothing.
+    const read = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    const stale = await ctx.http
+      .post(`/api/jobs/${jobId}/exports`)
+      .set(auth(p.fabricator))
+      .send({ version: (read.body.version as number) - 1 })
+      .expect(409);
+    expectErrorBody(stale.body, 409, 'JOB.STALE_VERSION');
+    await ctx.http
+      .post(`/api/jobs/${jobId}/exports`)
+      .set(auth(p.fabricator))
+      .send({ version: 'latest' })
+      .expect(400);
+    const still = await ctx.http.get(`/api/jobs/${jobId}/exports`).set(auth(p.operator)).expect(200);
+    expect(still.body).toHaveLength(1);
     const j = await ctx.http
       .post('/api/jobs')
       .set(auth(p.owner))

@@ -28,9 +28,9 @@ import { type ExportRequested, type ExportView } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Roles } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
-import { JobActionDto } from '../jobs/dto/job.dto';
+import { JobActionDto, RequestExportDto } from '../jobs/dto/job.dto';
 import { ExportRequestedDto, ExportViewDto } from './dto/export.dto';
-import { ExportsService } from './exports.service';
+import { assertVersion, ExportsService } from './exports.service';
 
 const ID = new ParseIdPipe();
 /** Content types of cut-pack files: DXF/SVG drawings, PDF sheets and guide, the JSON manifest, the ZIP archive. */
@@ -60,9 +60,16 @@ export class ExportsController {
   request(
     @CurrentUser() u: AuthUser,
     @Param('id', ID) id: string,
+    @Body() dto: RequestExportDto,
     @Req() req: unknown,
   ): Promise<ExportRequested> {
-    return this.exports.request(u, id, requestIdOf(req));
+    const version = dto.version;
+    return this.exports.request(
+      u,
+      id,
+      requestIdOf(req),
+      version === undefined ? undefined : (job) => assertVersion(job, version),
+    );
   }
 
   @Post('jobs/:id/release')

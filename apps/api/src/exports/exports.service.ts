@@ -76,14 +76,7 @@ export class ExportsService {
           { state: job.state, action: 'release', allowedFrom: rule.from },
         );
       }
-      if (job.version !== version) {
-        throw new AppError(
-          HttpStatus.CONFLICT,
-          'JOB.STALE_VERSION',
-          'The job changed since you read it; reload it and try again',
-          { current: job.version },
-        );
-      }
+      assertVersion(job, version);
     });
   }
 
@@ -317,5 +310,17 @@ export class ExportsService {
         ? { safetyChanged: await this.safetyChanged(exp, versions) }
         : {}),
     };
+  }
+}
+
+/** 409 JOB.STALE_VERSION when the job is no longer at the version the caller read. */
+export function assertVersion(job: Pick<Job, 'version'>, version: number): void {
+  if (job.version !== version) {
+    throw new AppError(
+      HttpStatus.CONFLICT,
+      'JOB.STALE_VERSION',
+      'The job changed since you read it; reload it and try again',
+      { current: job.version },
+    );
   }
 }

@@ -53,6 +53,16 @@ export class JobActionDto {
   version: number;
 }
 
+/** Queueing a cut pack: the job version read, optional (a job action that leaves it out is not compared). */
+export class RequestExportDto {
+  @ApiPropertyOptional({
+    description: 'The job version you read; a stale one gets 409 (left out: not compared)',
+  })
+  @IsOptional()
+  @IsRowVersion()
+  version?: number;
+}
+
 export class SheetSizeDto {
   @ApiProperty() @IsNumber() @IsPositive() @Max(5000) widthMm: number;
   @ApiProperty() @IsNumber() @IsPositive() @Max(5000) heightMm: number;

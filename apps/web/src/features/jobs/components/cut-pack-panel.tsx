@@ -32,12 +32,15 @@ function formatBytes(bytes: number): string {
  */
 export function CutPackPanel({
   jobId,
+  jobVersion,
   canPrepare,
   canDownload,
   onOpenSafety,
   jobDone = false,
 }: {
   jobId: string;
+  /** The job's version as shown: the pack is queued for the job as read (a stale one gets 409). */
+  jobVersion: number;
   /** The job is cut or closed: no new cut pack is built for it. */
   jobDone?: boolean;
   /** Fabricators (and supervisors) queue the pack; operators download it. */
@@ -48,7 +51,7 @@ export function CutPackPanel({
 }) {
   const exports = useJobExports(jobId, true);
   const safety = useJobSafety(jobId, true);
-  const request = useRequestCutPack(jobId);
+  const request = useRequestCutPack(jobId, jobVersion);
   const [downloadError, setDownloadError] = useState<unknown>(null);
   const listed = exports.data?.[0];
   const listedBusy = listed && (listed.state === 'queued' || listed.state === 'running');

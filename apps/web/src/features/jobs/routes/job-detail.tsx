@@ -331,6 +331,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
       {canSeePack ? (
         <CutPackPanel
           jobId={job.id}
+          jobVersion={job.version}
           canPrepare={
             (user.role === 'fabricator' || user.role === 'supervisor') &&
             (job.state === 'approved' || job.state === 'released')

@@ -210,6 +210,28 @@ describe('release desk', () => {
     }
   });
 
+  it('queues a new cut pack for the job as read: the request carries its version', async () => {
+    const stub = stubDesk(
+      true,
+      {},
+      {
+        'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+        [`GET /api/jobs/${released.id}`]: () => json(200, { ...released, actions: [], transitions: [] }),
+        [`POST /api/jobs/${released.id}/exports`]: () => json(202, { exportId: 'e-again' }),
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await within(job).findByRole('table', { name: 'Cut pack files' });
+    await user.click(within(job).getByRole('button', { name: 'Prepare the cut pack again' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    const post = stub.calls.find((c) => c.method === 'POST')!;
+    expect(post.url.pathname).toBe(`/api/jobs/${released.id}/exports`);
+    expect(released.version).toBe(7);
+    expect(post.body).toStrictEqual({ version: 7 });
+  });
+
   it('keeps offering the last built pack while a new one failed, and says which it is', async () => {
     const failed = {
       ...exportFixture('e-new', released.id, 'failed', 40),

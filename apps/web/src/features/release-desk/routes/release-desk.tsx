@@ -238,6 +238,7 @@ function DeskJob({ job }: { job: JobView }) {
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
       <CutPackPanel
         jobId={job.id}
+        jobVersion={job.version}
         canPrepare={user.role === 'supervisor' && PACK_BUILT_IN.includes(job.state)}
         canDownload={user.role === 'operator' || user.role === 'supervisor'}
         jobDone={job.state === 'cut' || job.state === 'closed'}
