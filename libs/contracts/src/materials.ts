@@ -58,6 +58,32 @@ export interface MaterialView {
   updatedAt: string;
 }
 
+/** The material's stock sheet of that size (either way round), if it lists one: its price and currency. */
+export function stockSheetOf(
+  material: Pick<MaterialView, 'stockSheets'>,
+  sheet: { widthMm: number; heightMm: number },
+): StockSheet | undefined {
+  const { widthMm: w, heightMm: h } = sheet;
+  return (
+    material.stockSheets.find((s) => s.widthMm === w && s.heightMm === h) ??
+    material.stockSheets.find((s) => s.widthMm === h && s.heightMm === w)
+  );
+}
+
+/**
+ * The price of one sheet in the machine's currency, for an estimate; null when the material lists no such
+ * size or prices it in another currency (the two costs are not added up then). Preparation keeps it with the
+ * job, and the studio and job pages price their sheets the same way.
+ */
+export function pricedSheet(
+  material: Pick<MaterialView, 'stockSheets'>,
+  sheet: { widthMm: number; heightMm: number },
+  currency: string,
+): number | null {
+  const stock = stockSheetOf(material, sheet);
+  return stock && stock.currency === currency ? stock.pricePerSheet : null;
+}
+
 /** Body of POST /api/materials. */
 export interface CreateMaterialRequest {
   name: string;

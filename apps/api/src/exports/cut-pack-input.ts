@@ -1,14 +1,15 @@
 import { Injectable } from '@nestjs/common';
 import { type EntityManager } from 'typeorm';
-import { type CutPackInput, type JobState, type MaterialFamily, noticeApplies } from '@kerfwright/contracts';
+import {
+  type CutPackInput,
+  type JobState,
+  type MaterialFamily,
+  noticeApplies,
+  pricedSheet,
+} from '@kerfwright/contracts';
 import { Design } from '../designs/design.entity';
 import { Job } from '../jobs/job.entity';
-import {
-  DEFAULT_GAP_MM,
-  DEFAULT_MARGIN_MM,
-  JobPreparationService,
-  pricedSheet,
-} from '../jobs/job-preparation.service';
+import { DEFAULT_GAP_MM, DEFAULT_MARGIN_MM, JobPreparationService } from '../jobs/job-preparation.service';
 import { SafetyService } from '../safety/safety.service';
 import { User } from '../users/user.entity';
 import { ExportFailure } from './export-failure';

@@ -1,4 +1,5 @@
-import { pricedSheet, sheetFitsBed, stockSheetOf } from './job-preparation.service';
+import { pricedSheet, stockSheetOf } from '@kerfwright/contracts';
+import { sheetFitsBed } from './job-preparation.service';
 
 const material = {
   stockSheets: [

@@ -1,4 +1,4 @@
-import { type DesignSpecInput, type MaterialView } from '@kerfwright/contracts';
+import { type DesignSpecInput, type MaterialView, pricedSheet } from '@kerfwright/contracts';
 import { type ColourRule, FIT_SHEETS_TOLERANCE } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
@@ -160,10 +160,9 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   const estimate = useMemo(() => {
     if (!choice?.version || !value || value.sheets.length === 0 || !sheet) return null;
     const material = materials.data?.items.find((m) => m.id === choice.setting.materialId);
-    const stock = material?.stockSheets.find(
-      (sh) => sh.widthMm === sheet.widthMm && sh.heightMm === sheet.heightMm,
-    );
-    return estimateSheets(value.sheets, choice.version, choice.setting, stock ? stock.pricePerSheet : null);
+    // Priced as preparation prices it: the listed size either way round, in the machine's currency.
+    const price = material ? pricedSheet(material, sheet, choice.version.currency) : null;
+    return estimateSheets(value.sheets, choice.version, choice.setting, price);
   }, [choice, value, sheet, materials.data]);
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="studio-sheets">

@@ -5,6 +5,7 @@ import {
   type JobView,
   type MachineProfileSummaryView,
   type MaterialView,
+  pricedSheet,
 } from '@kerfwright/contracts';
 import { buildModel, layoutModel } from '@kerfwright/geometry';
 import { type LayoutEstimateView } from '../../layout/components/sheet-layout-view';
@@ -55,10 +56,15 @@ export function jobEstimate(
     .find((v) => v && v.id === job.profileVersionId);
   const setting = version?.settings.find((st) => st.materialId === job.materialId);
   if (!version || !setting || !prep) return null;
-  const stock = material?.stockSheets.find(
-    (sh) => sh.widthMm === prep.sheet.widthMm && sh.heightMm === prep.sheet.heightMm,
-  );
-  return estimateSheets(sheets, version, setting, stock ? stock.pricePerSheet : null);
+  // The price kept at preparation (the cut pack's); for a job prepared before it was kept, today's list, priced
+  // as preparation prices (either way round, in the machine's currency).
+  const price =
+    prep.pricePerSheet !== undefined
+      ? prep.pricePerSheet
+      : material
+        ? pricedSheet(material, prep.sheet, version.currency)
+        : null;
+  return estimateSheets(sheets, version, setting, price);
 }
 
 /**
