@@ -412,13 +412,24 @@ function planScore(plan: GroupPlan): number[] {
  * incomplete on rare inputs; a plan that fails this check is never returned when another passes.
  */
 function planIsClear(plan: GroupPlan, gapMm: number): boolean {
-  for (const sheet of plan.sheets)
+  // The best plan so far is compared with every new one: its verdict is kept while its sheets stay as they were.
+  const signature = `${gapMm}|${plan.sheets.map((s) => s.items.length).join(',')}`;
+  const known = clearVerdicts.get(plan);
+  if (known && known.signature === signature) return known.clear;
+  let clear = true;
+  check: for (const sheet of plan.sheets)
     for (let i = 1; i < sheet.items.length; i++) {
       const it = sheet.items[i]!;
-      if (!clearOfItems(sheet.items.slice(0, i), it.variant, it.tx, it.ty, gapMm)) return false;
+      if (!clearOfItems(sheet.items.slice(0, i), it.variant, it.tx, it.ty, gapMm)) {
+        clear = false;
+        break check;
+      }
     }
-  return true;
+  clearVerdicts.set(plan, { signature, clear });
+  return clear;
 }
+
+const clearVerdicts = new WeakMap<GroupPlan, { signature: string; clear: boolean }>();
 
 function betterPlan(a: GroupPlan, b: GroupPlan | null, gapMm: number): boolean {
   if (b && !planIsClear(a, gapMm)) return false;

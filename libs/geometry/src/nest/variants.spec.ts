@@ -1,7 +1,7 @@
 import * as polygonClipping from 'polygon-clipping';
 import { reflexCorners, simplifyContaining, SCALE_PER_MM, type IntPath } from './clipper-adapter';
 import { convexPieces } from './convex-decomposition';
-import { NFP_MAX_REFLEX, nfpOutline, piecesOrNull } from './variants';
+import { clearOfItems, GeometryCache, NFP_MAX_REFLEX, nfpOutline, piecesOrNull } from './variants';
 import { area, mpArea, type P, regular } from '../test-support/polygons';
 
 const toMm = (p: IntPath): P[] => p.map((q) => [q.X / SCALE_PER_MM, q.Y / SCALE_PER_MM]);
@@ -113,5 +113,74 @@ describe('convex pieces of a rounded outline', () => {
       return s + Math.hypot(u - x, v - y);
     }, 0);
     expect(mpArea(diff)).toBeLessThanOrEqual(perimeter * 0.002);
+  });
+});
+
+describe('the direct check of a position on the true outlines', () => {
+  /** Distance from p to segment ab (mm), written here so the check does not use the library's own. */
+  const pointSegment = (p: P, a: P, b: P) => {
+    const [dx, dy] = [b[0] - a[0], b[1] - a[1]];
+    const t = Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / (dx * dx + dy * dy || 1)));
+    return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
+  };
+  /** Least distance between two closed outlines' boundaries, every vertex against every edge (brute force). */
+  const boundaryDistance = (a: P[], b: P[]) => {
+    let best = Infinity;
+    for (const [u, v] of [
+      [a, b],
+      [b, a],
+    ] as const)
+      for (const p of u)
+        for (let j = 0; j < v.length; j++)
+          best = Math.min(best, pointSegment(p, v[j]!, v[(j + 1) % v.length]!));
+    return best;
+  };
+
+  it('agrees with a brute-force distance for wavy outlines of 200 vertices, near and far', () => {
+    // Two 200-vertex wavy parts; the moving one is put at positions from overlapping to well apart, and the
+    // verdict must be the brute force's: clear when the boundaries are at least the gap apart and neither part
+    // lies inside the other (these never nest: checked by a vertex inside the other's outline).
+    const a = wavy(200, 40, 0.12, 7);
+    const b = wavy(200, 30, 0.2, 5);
+    const gapMm = 3;
+    const cache = new GeometryCache(
+      [a, b].map((outline, index) => ({
+        index,
+        id: `w${index}`,
+        group: 'g',
+        quantity: 1,
+        outline,
+        areaMm2: area(outline),
+        rotationsDeg: [0],
+        patternRotationsDeg: [0],
+      })),
+      gapMm,
+    );
+    const fixed = { variant: cache.variant(0, 0), tx: 0, ty: 0 };
+    const moving = cache.variant(1, 0);
+    let clear = 0;
+    let blocked = 0;
+    for (let k = 0; k < 40; k++) {
+      const t = (2 * Math.PI * k) / 40;
+      const r = 62 + (k % 9) * 4; // 62–94 mm between centres: from overlapping to apart
+      const [x, y] = [r * Math.cos(t), r * Math.sin(t)];
+      const placed = b.map(([u, v]) => [u + x, v + y] as P);
+      const d = boundaryDistance(a, placed);
+      // Clear of the 1 µm either side of the gap that rounding to whole micrometres may take.
+      if (Math.abs(d - gapMm) < 0.002) continue;
+      const expected = d >= gapMm;
+      const got = clearOfItems(
+        [fixed],
+        moving,
+        Math.round(x * SCALE_PER_MM),
+        Math.round(y * SCALE_PER_MM),
+        gapMm,
+      );
+      expect(got).toBe(expected);
+      if (got) clear++;
+      else blocked++;
+    }
+    expect(clear).toBeGreaterThan(5);
+    expect(blocked).toBeGreaterThan(5);
   });
 });

@@ -486,7 +486,20 @@ function pointSegmentDist2(px: number, py: number, ax: number, ay: number, bx: n
  */
 function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: number, by: number, d: number) {
   const d2 = d * d;
-  for (let i = 0; i < a.length; i++) {
+  // Two points closer than d lie in both outlines' bounds grown by d: only the edges that reach that region
+  // are compared (outlines of hundreds of vertices meet their neighbours along a few of them).
+  const ab = placedBounds(a, ax, ay);
+  const bb = placedBounds(b, bx, by);
+  const region = {
+    minX: Math.max(ab.minX, bb.minX) - d,
+    minY: Math.max(ab.minY, bb.minY) - d,
+    maxX: Math.min(ab.maxX, bb.maxX) + d,
+    maxY: Math.min(ab.maxY, bb.maxY) + d,
+  };
+  if (region.minX > region.maxX || region.minY > region.maxY) return true;
+  const near = edgesReaching(b, bx, by, region);
+  if (near.length === 0) return true;
+  for (const i of edgesReaching(a, ax, ay, region)) {
     const p = a[i]!;
     const q = a[(i + 1) % a.length]!;
     const p0x = p.X + ax;
@@ -497,7 +510,7 @@ function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: num
     const maxX = Math.max(p0x, p1x) + d;
     const minY = Math.min(p0y, p1y) - d;
     const maxY = Math.max(p0y, p1y) + d;
-    for (let j = 0; j < b.length; j++) {
+    for (const j of near) {
       const r = b[j]!;
       const s = b[(j + 1) % b.length]!;
       const r0x = r.X + bx;
@@ -516,6 +529,42 @@ function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: num
     }
   }
   return true;
+}
+
+function placedBounds(path: IntPath, dx: number, dy: number) {
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (const q of path) {
+    if (q.X < minX) minX = q.X;
+    if (q.X > maxX) maxX = q.X;
+    if (q.Y < minY) minY = q.Y;
+    if (q.Y > maxY) maxY = q.Y;
+  }
+  return { minX: minX + dx, minY: minY + dy, maxX: maxX + dx, maxY: maxY + dy };
+}
+
+/** Indices of the edges (from vertex i to i + 1) of the placed path whose bounds meet the region. */
+function edgesReaching(
+  path: IntPath,
+  dx: number,
+  dy: number,
+  region: { minX: number; minY: number; maxX: number; maxY: number },
+): number[] {
+  const out: number[] = [];
+  for (let i = 0; i < path.length; i++) {
+    const p = path[i]!;
+    const q = path[(i + 1) % path.length]!;
+    const x0 = p.X + dx;
+    const x1 = q.X + dx;
+    const y0 = p.Y + dy;
+    const y1 = q.Y + dy;
+    if ((x0 < region.minX && x1 < region.minX) || (x0 > region.maxX && x1 > region.maxX)) continue;
+    if ((y0 < region.minY && y1 < region.minY) || (y0 > region.maxY && y1 > region.maxY)) continue;
+    out.push(i);
+  }
+  return out;
 }
 
 /**
