@@ -155,6 +155,32 @@ describe('job detail', () => {
     expect(screen.getByText('0.0065 in')).toBeInTheDocument();
   });
 
+  it('shows a kerf as recorded (0.09 mm, not 0.090), and a router job’s as the width of its cut', async () => {
+    for (const [machineKind, label, kerf, shown] of [
+      ['laser', 'Measured kerf', 0.09, '0.09 mm'],
+      ['router', 'Measured cut width', 3.2, '3.2 mm'],
+    ] as const) {
+      stubFetch({
+        'GET /api/auth/me': () => json(200, userFixture('operator')),
+        [`GET /api/jobs/${job.id}`]: () =>
+          json(200, {
+            ...job,
+            state: 'cut',
+            preparation: preparationFixture({ machineKind }),
+            actualMinutes: 12,
+            sheetsUsed: 1,
+            measuredKerfMm: kerf,
+            actions: [],
+          }),
+        [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+      });
+      const { unmount } = renderApp(`/jobs/${job.id}`, { token: 't' });
+      const term = await screen.findByText(label, { selector: 'dt' });
+      expect(term.nextElementSibling?.textContent).toBe(shown);
+      unmount();
+    }
+  });
+
   it('tells the recorded machine time from the estimated one', async () => {
     const preparation = preparationFixture();
     stubFetch({

@@ -124,9 +124,10 @@ function JobDetail({ job }: { job: JobDetailView }) {
   if (open !== opened) setOpen(open);
   const [unit, setUnit] = useState<LengthUnit>('mm');
   const fmt = (mm: number) => formatLength(mm, unit);
-  // Kerfs are recorded to the thousandth of a millimetre (0.165 mm), and shown so, as the kerf history does.
+  // Kerfs are recorded to the thousandth of a millimetre and shown as recorded (0.165 mm, 0.09 mm), as the
+  // kerf history and the record-cut form have them.
   const fmtKerf = (mm: number) =>
-    unit === 'in' ? `${(mm / MM_PER_INCH).toFixed(4)} in` : `${mm.toFixed(3)} mm`;
+    unit === 'in' ? `${(mm / MM_PER_INCH).toFixed(4)} in` : `${Math.round(mm * 1000) / 1000} mm`;
   const prep = job.preparation;
 
   const take = (a: JobAction, extra: Record<string, unknown> = {}) =>
@@ -266,7 +267,10 @@ function JobDetail({ job }: { job: JobDetailView }) {
               rows={[
                 ['Machine time (recorded)', formatMinutes(job.actualMinutes)],
                 ['Sheets used', String(job.sheetsUsed ?? '—')],
-                ['Measured kerf', job.measuredKerfMm === null ? '—' : fmtKerf(job.measuredKerfMm)],
+                [
+                  prep?.machineKind === 'router' ? 'Measured cut width' : 'Measured kerf',
+                  job.measuredKerfMm === null ? '—' : fmtKerf(job.measuredKerfMm),
+                ],
               ]}
             />
           ) : null}
