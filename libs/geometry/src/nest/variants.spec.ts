@@ -136,6 +136,34 @@ describe('the direct check of a position on the true outlines', () => {
     return best;
   };
 
+  it('refuses two bars crossing in an X, whose corners are all far from the other bar (derived)', () => {
+    // Two 100 × 2 mm bars crossed at their centres: every corner lies 49 mm from the other bar's edges, so only
+    // the crossing of their long edges tells that they overlap (by 4 mm², worked by hand).
+    const bar: P[] = [
+      [-50, -1],
+      [50, -1],
+      [50, 1],
+      [-50, 1],
+    ];
+    const cache = new GeometryCache(
+      [0, 1].map((index) => ({
+        index,
+        id: `bar${index}`,
+        group: 'g',
+        quantity: 1,
+        outline: bar,
+        areaMm2: area(bar),
+        rotationsDeg: [0, 90],
+        patternRotationsDeg: [0],
+      })),
+      1,
+    );
+    const across = { variant: cache.variant(0, 0), tx: 0, ty: 0 };
+    expect(clearOfItems([across], cache.variant(1, 90), 0, 0, 1)).toBe(false);
+    // Moved 60 mm up, the upright bar clears the other by 9 mm: clear.
+    expect(clearOfItems([across], cache.variant(1, 90), 0, 60 * SCALE_PER_MM, 1)).toBe(true);
+  });
+
   it('agrees with a brute-force distance for wavy outlines of 200 vertices, near and far', () => {
     // Two 200-vertex wavy parts; the moving one is put at positions from overlapping to well apart, and the
     // verdict must be the brute force's: clear when the boundaries are at least the gap apart and neither part

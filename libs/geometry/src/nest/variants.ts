@@ -11,6 +11,7 @@ import {
   closePolygon,
   growPolygon,
   intersectPaths,
+  noFitPolygonByConvolution,
   noFitPolygonFromPieces,
   noFitPolygon,
   pointInPath,
@@ -411,9 +412,22 @@ export class GeometryCache {
     } else if (fixedDeg === 0) {
       const fixed = this.shapeVariant(fs, 0);
       const moving = this.shapeVariant(ms, relative);
-      const fp = grownPiecesOf(fixed);
-      const mp = negatedPiecesOf(moving);
-      paths = fp && mp ? noFitPolygonFromPieces(fp, mp) : noFitPolygon(fixed.grown, moving.poly);
+      // The convolution first (one union, about three times faster for stars); the convex pieces' sums, then
+      // Clipper's own, when it cannot be used.
+      const outer = fixed.grown.filter((p) => areaUnits(p) > 0);
+      const byConvolution =
+        outer.length === 1
+          ? noFitPolygonByConvolution(
+              outer[0]!,
+              moving.poly.map((q) => ({ X: -q.X, Y: -q.Y })),
+            )
+          : null;
+      if (byConvolution) paths = byConvolution;
+      else {
+        const fp = grownPiecesOf(fixed);
+        const mp = negatedPiecesOf(moving);
+        paths = fp && mp ? noFitPolygonFromPieces(fp, mp) : noFitPolygon(fixed.grown, moving.poly);
+      }
       this.nfpCount++;
     } else {
       const base = this.shapeNfp(fs, 0, ms, relative);
@@ -481,8 +495,9 @@ function pointSegmentDist2(px: number, py: number, ax: number, ay: number, bx: n
 
 /**
  * True when the boundaries of a (shifted by (ax, ay)) and b (shifted by (bx, by)) are at least d apart
- * (d > 0, integer units). Two segments at least d apart do not cross, so their distance is the least of the
- * four endpoint-to-segment distances.
+ * (d > 0, integer units). The distance of two segments that do not cross is the least of the four
+ * endpoint-to-segment distances; two that cross are 0 apart, though each endpoint may be far from the other
+ * segment (two long star tips crossing in an X), so crossings are tested first.
  */
 function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: number, by: number, d: number) {
   const d2 = d * d;
@@ -520,6 +535,7 @@ function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: num
       if ((r0x < minX && r1x < minX) || (r0x > maxX && r1x > maxX)) continue;
       if ((r0y < minY && r1y < minY) || (r0y > maxY && r1y > maxY)) continue;
       if (
+        segmentsCross(p0x, p0y, p1x, p1y, r0x, r0y, r1x, r1y) ||
         pointSegmentDist2(p0x, p0y, r0x, r0y, r1x, r1y) < d2 ||
         pointSegmentDist2(p1x, p1y, r0x, r0y, r1x, r1y) < d2 ||
         pointSegmentDist2(r0x, r0y, p0x, p0y, p1x, p1y) < d2 ||
@@ -529,6 +545,29 @@ function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: num
     }
   }
   return true;
+}
+
+/**
+ * Whether segments pq and rs cross at a point inside both (each one's ends strictly on either side of the
+ * other's line). Touching and collinear cases are left to the endpoint distances, which are 0 for them.
+ * Integer units: the products stay exact below 2^53.
+ */
+function segmentsCross(
+  px: number,
+  py: number,
+  qx: number,
+  qy: number,
+  rx: number,
+  ry: number,
+  sx: number,
+  sy: number,
+): boolean {
+  const side = (ax: number, ay: number, bx: number, by: number, cx: number, cy: number) =>
+    Math.sign((bx - ax) * (cy - ay) - (by - ay) * (cx - ax));
+  return (
+    side(px, py, qx, qy, rx, ry) * side(px, py, qx, qy, sx, sy) < 0 &&
+    side(rx, ry, sx, sy, px, py) * side(rx, ry, sx, sy, qx, qy) < 0
+  );
 }
 
 function placedBounds(path: IntPath, dx: number, dy: number) {
