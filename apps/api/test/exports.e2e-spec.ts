@@ -602,4 +602,45 @@ describe('cut packs whose job changes while they are built', () => {
       await ctx.db.query(`UPDATE jobs SET state = 'released' WHERE id = $1`, [jobId]);
     }
   });
+
+  it("rebuilds a released job's pack on the version it was released on after a newer one retired it; an approved job's not", async () => {
+    const released = await approvedJob(ctx, w, p);
+    const first = await pollExport(
+      ctx,
+      p.fabricator,
+      await postRelease(released),
+      (v) => v.state === 'done' || v.state === 'failed',
+      90000,
+    );
+    expect(first.state).toBe('done');
+    const approved = await approvedJob(ctx, w, p);
+    // A newer version is approved (a kerf adopted, say): the one both jobs name retires.
+    await ctx.db.query(`UPDATE machine_profile_versions SET state = 'retired' WHERE id = $1`, [
+      w.laserVersionId,
+    ]);
+    try {
+      // The released job's pack is built again (new safety notices, say) with the settings it was cut with.
+      const res = await ctx.http.post(`/api/jobs/${released}/exports`).set(auth(p.fabricator)).expect(202);
+      const again = await pollExport(
+        ctx,
+        p.fabricator,
+        res.body.exportId as string,
+        (v) => v.state === 'done' || v.state === 'failed',
+        90000,
+      );
+      expect(again).toMatchObject({ state: 'done', errorCode: null });
+      // The approved one must be prepared again on the current version: no pack, not released.
+      const refused = await ctx.http
+        .post(`/api/jobs/${approved}/exports`)
+        .set(auth(p.fabricator))
+        .expect(409);
+      expectErrorBody(refused.body, 409, 'MACHINE_PROFILE.NOT_APPROVED');
+      const job = await ctx.http.get(`/api/jobs/${approved}`).set(auth(p.fabricator)).expect(200);
+      expect(job.body.state).toBe('approved');
+    } finally {
+      await ctx.db.query(`UPDATE machine_profile_versions SET state = 'approved' WHERE id = $1`, [
+        w.laserVersionId,
+      ]);
+    }
+  });
 });

@@ -46,7 +46,10 @@ export interface CutPackMachine {
   pierceTimeS: number;
   rapidSpeedMmS: number;
   passes: number;
+  /** Beam power, % (lasers). */
   powerPct?: number;
+  /** Spindle speed, revolutions per minute (routers). */
+  spindleRpm?: number;
   hourlyRate: number;
   currency: string;
 }

@@ -73,6 +73,7 @@ export class CutPackInputService {
         rapidSpeedMmS: version.rapidSpeedMmS,
         passes: setting.passes,
         ...(setting.powerPct !== undefined ? { powerPct: setting.powerPct } : {}),
+        ...(setting.spindleRpm !== undefined ? { spindleRpm: setting.spindleRpm } : {}),
         hourlyRate: version.hourlyRate,
         currency: version.currency,
       },

@@ -182,8 +182,9 @@ export class JobPreparationService {
     m: EntityManager,
     profileVersionId: string,
     materialId: string,
+    retiredAllowed = false,
   ): Promise<{ version: ApprovedProfileVersion; material: MaterialView; setting: ProfileSetting }> {
-    const version = await this.profiles.getApprovedVersion(profileVersionId, m);
+    const version = await this.profiles.getApprovedVersion(profileVersionId, m, retiredAllowed);
     const material = await this.materials.assertUsableOn(m, materialId, version.kind);
     const setting = version.settings.find((s) => s.materialId === material.id);
     if (!setting) {
@@ -198,11 +199,12 @@ export class JobPreparationService {
 
   /**
    * For approval, release and every cut-pack build: the prepared job's machine and material pass the checks of
-   * preparation again, now (a material may have been taken off the laser since, a version retired).
+   * preparation again, now (a material may have been taken off the laser since, a version retired). A released
+   * job's pack built again may use the version it was released on though a newer one has retired it.
    */
   async assertStillCuttable(
     m: EntityManager,
-    job: Pick<Job, 'profileVersionId' | 'materialId'> & Partial<Pick<Job, 'spec'>>,
+    job: Pick<Job, 'profileVersionId' | 'materialId'> & Partial<Pick<Job, 'spec' | 'state'>>,
   ): Promise<{ version: ApprovedProfileVersion; material: MaterialView; setting: ProfileSetting }> {
     if (!job.profileVersionId || !job.materialId) {
       throw new AppError(
@@ -211,7 +213,9 @@ export class JobPreparationService {
         'The job has no material and machine profile yet; prepare it first',
       );
     }
-    const found = await this.machineFor(m, job.profileVersionId, job.materialId);
+    // A released job was cut on the version it was approved on: its pack may be built again with that version
+    // (new safety notices, a lost file) after a newer one retired it. Any other job needs the approved one.
+    const found = await this.machineFor(m, job.profileVersionId, job.materialId, job.state === 'released');
     // Slot widths follow the stock's thickness: a new batch measured thicker since preparation would get
     // slots cut for the old one.
     const stock = job.spec?.stock;

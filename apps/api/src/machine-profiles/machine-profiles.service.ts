@@ -137,7 +137,12 @@ export class MachineProfilesService {
    * For the jobs module: the version, which must be approved (409 MACHINE_PROFILE.NOT_APPROVED
    * otherwise). Pass the job's transaction manager to read inside it.
    */
-  async getApprovedVersion(versionId: string, manager?: EntityManager): Promise<ApprovedProfileVersion> {
+  async getApprovedVersion(
+    versionId: string,
+    manager?: EntityManager,
+    /** Also take a version retired since it was approved (a released job's pack built again). */
+    retiredAllowed = false,
+  ): Promise<ApprovedProfileVersion> {
     const m = manager ?? this.dataSource.manager;
     const v = UUID.test(versionId) ? await m.findOneBy(MachineProfileVersion, { id: versionId }) : null;
     if (!v)
@@ -147,7 +152,7 @@ export class MachineProfilesService {
         'No such machine profile version',
       );
     const profile = await m.findOneByOrFail(MachineProfile, { id: v.profileId });
-    if (v.state !== 'approved') {
+    if (v.state !== 'approved' && !(retiredAllowed && v.state === 'retired')) {
       throw new AppError(
         HttpStatus.CONFLICT,
         `${AREA}.NOT_APPROVED`,

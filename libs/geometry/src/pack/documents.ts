@@ -75,7 +75,10 @@ export function setupSheetPdf(args: {
         ['Mark speed', `${f1(m.markSpeedMmS)} mm/s`],
         spec.machine.kind === 'laser'
           ? ['Power', m.powerPct === undefined ? 'as the profile sets' : `${f1(m.powerPct)} %`]
-          : ['Spindle', m.powerPct === undefined ? 'as the profile sets' : `${f1(m.powerPct)} %`],
+          : [
+              'Spindle',
+              m.spindleRpm === undefined ? 'as the profile sets' : `${Math.round(m.spindleRpm)} rpm`,
+            ],
         [spec.machine.kind === 'laser' ? 'Pierce time' : 'Plunge time', `${f2(m.pierceTimeS)} s`],
         ['Rapid speed', `${f1(m.rapidSpeedMmS)} mm/s`],
       ]);

@@ -499,6 +499,20 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(text).not.toMatch(/Pierce time|Power/);
   });
 
+  it("prints a router profile's spindle speed on the setup sheet, for the operator to set", async () => {
+    const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
+    const base = packInputFrom(spec, { sheet: { widthMm: 1220, heightMm: 2440 } });
+    const r = await createCutPack({
+      ...base,
+      archive: false,
+      machine: { ...base.machine, spindleRpm: 18000, powerPct: 65 },
+    });
+    const { text } = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(text).toMatch(/Spindle\s*18000 rpm/);
+    // A power setting means nothing to a spindle: never printed as one.
+    expect(text).not.toMatch(/65(\.0)? %/);
+  });
+
   it('fits a fitBed design without a stock sheet to the sheet the pack lays out on (600 × 400, margin 5)', async () => {
     // Sized to the 600 × 400 bed alone, the largest piece would not fit the default sheet less its margins.
     const spec = { ...octahedronHexagons(), scale: { by: 'fitBed' }, bed: { widthMm: 600, heightMm: 400 } };
