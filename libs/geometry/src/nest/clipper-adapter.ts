@@ -6,7 +6,7 @@
  */
 import * as ClipperLib from 'clipper-lib';
 import simplify from 'simplify-js';
-import { convexMinkowskiSum } from './convex-decomposition';
+import { convexMinkowskiSum, turningOf, turnsOnce } from './convex-decomposition';
 
 /** Integer units per millimetre (1 unit = 1 µm). Coordinates up to ~1e9 units stay in Clipper's fast range. */
 export const SCALE_PER_MM = 1000;
@@ -251,24 +251,9 @@ function inTurn(ux: number, uy: number, vx: number, vy: number, wx: number, wy: 
  */
 function tracingOutline(path: IntPath): IntPath | null {
   const clean = cleanPath(path, 2);
-  const n = clean.length;
-  if (n < 3) return null;
-  let turning = 0;
-  for (let i = 0; i < n; i++) {
-    const a = clean[(i - 1 + n) % n]!;
-    const b = clean[i]!;
-    const c = clean[(i + 1) % n]!;
-    const ux = b.X - a.X;
-    const uy = b.Y - a.Y;
-    const vx = c.X - b.X;
-    const vy = c.Y - b.Y;
-    const cross = ux * vy - uy * vx;
-    const dot = ux * vx + uy * vy;
-    // A reversal (a zero-width spike) has no turning direction.
-    if (cross === 0 && dot <= 0) return null;
-    turning += Math.atan2(cross, dot);
-  }
-  return Math.abs(turning - 2 * Math.PI) < 1e-6 ? clean : null;
+  if (clean.length < 3) return null;
+  const turning = turningOf(clean);
+  return turning && turnsOnce(turning.total) ? clean : null;
 }
 
 /**

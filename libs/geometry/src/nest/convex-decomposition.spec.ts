@@ -47,6 +47,34 @@ function mpArea(mp: polygonClipping.MultiPolygon): number {
   return s;
 }
 
+/**
+ * Referee for a no-fit polygon of `moving` around `fixed` (mm outlines): at random translations, one where
+ * the two overlap by more than 0.5 mm² (polygon-clipping) must lie inside it, and one where they stay apart
+ * even shifted 0.05 mm every way must lie outside. Returns how many of each were checked.
+ */
+function refereeNfp(nfp: IntPath[], fixed: P[], moving: P[], seed: number, tries: number) {
+  const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648) * 160 - 80;
+  let inside = 0;
+  let outside = 0;
+  for (let n = 0; n < tries; n++) {
+    const tx = rand();
+    const ty = rand();
+    const overlapAt = (dx: number, dy: number) =>
+      mpArea(polygonClipping.intersection([fixed], [moving.map(([x, y]) => [x + dx, y + dy] as P)]));
+    const X = Math.round(tx * SCALE_PER_MM);
+    const Y = Math.round(ty * SCALE_PER_MM);
+    const marked = nfp.some((p) => pointInPath(X, Y, p) === 1);
+    if (overlapAt(tx, ty) > 0.5) {
+      expect(marked).toBe(true);
+      inside++;
+    } else if ([-0.05, 0.05].every((d) => [-0.05, 0.05].every((e) => overlapAt(tx + d, ty + e) === 0))) {
+      expect(marked).toBe(false);
+      outside++;
+    }
+  }
+  return { inside, outside };
+}
+
 describe('convexPieces (ear clipping + Hertel–Mehlhorn merging)', () => {
   it.each([
     ['{8/3} star', star(8, 3, 70)],
@@ -200,26 +228,7 @@ describe('no-fit polygon of two outlines of many convex pieces', () => {
     const pb = convexPieces(negB);
     expect(pa.length * pb.length).toBeGreaterThan(48);
     const nfp = noFitPolygonFromPieces(pa, pb);
-    let seed = 11;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648) * 160 - 80;
-    let inside = 0;
-    let outside = 0;
-    for (let n = 0; n < 400; n++) {
-      const tx = rand();
-      const ty = rand();
-      const overlapAt = (dx: number, dy: number) =>
-        mpArea(polygonClipping.intersection([fixed], [moving.map(([x, y]) => [x + dx, y + dy] as P)]));
-      const X = Math.round(tx * SCALE_PER_MM);
-      const Y = Math.round(ty * SCALE_PER_MM);
-      const marked = nfp.some((p) => pointInPath(X, Y, p) === 1);
-      if (overlapAt(tx, ty) > 0.5) {
-        expect(marked).toBe(true);
-        inside++;
-      } else if ([-0.05, 0.05].every((d) => [-0.05, 0.05].every((e) => overlapAt(tx + d, ty + e) === 0))) {
-        expect(marked).toBe(false);
-        outside++;
-      }
-    }
+    const { inside, outside } = refereeNfp(nfp, fixed, moving, 11, 400);
     expect(inside).toBeGreaterThan(50);
     expect(outside).toBeGreaterThan(50);
   });
@@ -286,26 +295,7 @@ describe('no-fit polygon by the convolution method', () => {
     (_name, fixed, moving) => {
       const nfp = noFitPolygonByConvolution(toInt([...fixed]), negated(toInt([...moving])));
       expect(nfp).not.toBeNull();
-      let seed = 5;
-      const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648) * 160 - 80;
-      let inside = 0;
-      let outside = 0;
-      for (let n = 0; n < 300; n++) {
-        const tx = rand();
-        const ty = rand();
-        const overlapAt = (dx: number, dy: number) =>
-          mpArea(polygonClipping.intersection([[...fixed]], [moving.map(([x, y]) => [x + dx, y + dy] as P)]));
-        const X = Math.round(tx * SCALE_PER_MM);
-        const Y = Math.round(ty * SCALE_PER_MM);
-        const marked = nfp!.some((p) => pointInPath(X, Y, p) === 1);
-        if (overlapAt(tx, ty) > 0.5) {
-          expect(marked).toBe(true);
-          inside++;
-        } else if ([-0.05, 0.05].every((d) => [-0.05, 0.05].every((e) => overlapAt(tx + d, ty + e) === 0))) {
-          expect(marked).toBe(false);
-          outside++;
-        }
-      }
+      const { inside, outside } = refereeNfp(nfp!, [...fixed], [...moving], 5, 300);
       expect(inside).toBeGreaterThan(30);
       expect(outside).toBeGreaterThan(30);
     },

@@ -189,13 +189,14 @@ function mergedSum(a: IntPath, b: IntPath): IntPath {
 }
 
 /**
- * True for a polygon of at least three vertices that turns left (or runs straight on) at every vertex and
- * turns once in all: convex, counter-clockwise, not wound twice round like a pentagram.
+ * How far a closed path turns in all (radians, counter-clockwise positive), and whether it ever turns right;
+ * null when it reverses on itself somewhere (a zero-width spike has no turning direction). A simple
+ * counter-clockwise outline turns 2π.
  */
-function isConvexCcw(p: IntPath): boolean {
+export function turningOf(p: IntPath): { total: number; turnsRight: boolean } | null {
   const n = p.length;
-  if (n < 3) return false;
-  let turning = 0;
+  let total = 0;
+  let turnsRight = false;
   for (let i = 0; i < n; i++) {
     const a = p[(i + n - 1) % n]!;
     const b = p[i]!;
@@ -206,8 +207,22 @@ function isConvexCcw(p: IntPath): boolean {
     const vy = c.Y - b.Y;
     const cross = ux * vy - uy * vx;
     const dot = ux * vx + uy * vy;
-    if (cross < 0 || (cross === 0 && dot <= 0)) return false;
-    turning += Math.atan2(cross, dot);
+    if (cross === 0 && dot <= 0) return null;
+    if (cross < 0) turnsRight = true;
+    total += Math.atan2(cross, dot);
   }
-  return Math.abs(turning - 2 * Math.PI) < 1e-6;
+  return { total, turnsRight };
+}
+
+/** Whether a total turning is one counter-clockwise turn. */
+export const turnsOnce = (total: number) => Math.abs(total - 2 * Math.PI) < 1e-6;
+
+/**
+ * True for a polygon of at least three vertices that turns left (or runs straight on) at every vertex and
+ * turns once in all: convex, counter-clockwise, not wound twice round like a pentagram.
+ */
+function isConvexCcw(p: IntPath): boolean {
+  if (p.length < 3) return false;
+  const t = turningOf(p);
+  return t !== null && !t.turnsRight && turnsOnce(t.total);
 }
