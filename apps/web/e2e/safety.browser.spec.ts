@@ -14,7 +14,9 @@ describe(`Safety page in Chromium at ${BASE_URL}`, () => {
     await signInToHome(page, demoUser('hobbyist').email, DEMO_PASSWORD);
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Safety' }).click();
     await page.getByTestId('safety-page').waitFor();
-    await page.getByTestId('notices').getByRole('alert').first().waitFor();
+    // Notices are standing content, notes rather than alerts (WAI-ARIA 1.2: alert is for urgent messages).
+    await page.getByTestId('notices').getByRole('note').first().waitFor();
+    expect(await page.getByTestId('notices').getByRole('alert').count()).toBe(0);
     // Chlorinated plastics must never go on a laser (DESIGN.md safety rules; common practice).
     await page.getByLabel('On a laser').selectOption('no');
     await page.getByTestId('hazard-pvc').waitFor();

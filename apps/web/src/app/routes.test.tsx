@@ -161,14 +161,33 @@ describe('protected routes', () => {
     expect(calls.some((c) => c.url.pathname === '/api/users')).toBe(false);
   });
 
-  it('signs out from the app bar: token and cache gone, back at sign-in', async () => {
-    signedInAs('operator');
-    const { user, router } = renderApp('/', { token: 't' });
-    await screen.findByTestId('home-operator');
+  it('signs out from the app bar: token and cache gone, back at sign-in with no page to return to', async () => {
+    // On a shared workshop PC the next person to sign in must not land on this user's page.
+    const { me } = signedInAs('supervisor');
+    const { user, router, queryClient } = renderApp('/people', { token: 't' });
+    await screen.findByText(me.email);
     await user.click(screen.getByRole('button', { name: 'Sign out' }));
     expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    await waitFor(() => expect(getAccessToken()).toBeNull());
     expect(router.state.location.pathname).toBe('/sign-in');
-    expect(getAccessToken()).toBeNull();
+    expect(router.state.location.search).toBe('');
+    expect(router.state.location.state).toBeNull();
+    expect(queryClient.getQueryCache().getAll()).toEqual([]);
+  });
+
+  it('remembers the page when the session ends by itself', async () => {
+    stubFetch({
+      'GET /api/auth/me': () =>
+        json(401, {
+          statusCode: 401,
+          code: 'AUTH.UNAUTHENTICATED',
+          message: 'Sign in first',
+          requestId: 'r',
+        }),
+    });
+    const { router } = renderApp('/people', { token: 'expired' });
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(router.state.location.search).toBe('?redirectTo=%2Fpeople');
   });
 
   it('opens the page asked for after signing in', async () => {

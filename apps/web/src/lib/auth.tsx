@@ -5,7 +5,7 @@
 import { type UserView } from '@kerfwright/contracts';
 import Button from '@mui/material/Button';
 import { queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
-import { createContext, type ReactNode, useCallback, useContext } from 'react';
+import { createContext, type ReactNode, useCallback, useContext, useEffect } from 'react';
 import { Navigate, useLocation, useNavigate } from 'react-router-dom';
 import { paths } from '../config/paths';
 import { FullPageProgress } from '../components/ui/full-page-progress';
@@ -43,15 +43,43 @@ export function useUser(): UserView {
   return user;
 }
 
-/** Signs out: forgets the token and everything cached for this user, then opens the sign-in page. */
+/** Navigation state that asks the sign-in page to end the session: see `useSignOut`. */
+const SIGN_OUT_STATE = { signOut: true } as const;
+
+function isSignOut(state: unknown): boolean {
+  return typeof state === 'object' && state !== null && (state as { signOut?: unknown }).signOut === true;
+}
+
+/**
+ * Signs out: opens the sign-in page, without a page to come back to (on a shared workshop PC the next person
+ * to sign in would land on this user's page), and the session ends there (`useEndSessionOnArrival`). Being a
+ * navigation first, it is held like any other by a page that guards unsaved edits; once it goes through, the
+ * page it leaves is gone, so the token's going cannot send it back to sign-in with a `redirectTo` of its own.
+ */
 export function useSignOut(): () => void {
-  const queryClient = useQueryClient();
   const navigate = useNavigate();
   return useCallback(() => {
+    void navigate(paths.signIn.getHref(), { replace: true, state: SIGN_OUT_STATE });
+  }, [navigate]);
+}
+
+/**
+ * On the sign-in page: ends the session a sign-out navigated here for, forgetting the token and everything
+ * cached for this user, then drops the request from the history entry (Back or a reload must not repeat it).
+ * True until then, while the token is still there.
+ */
+export function useEndSessionOnArrival(): boolean {
+  const location = useLocation();
+  const navigate = useNavigate();
+  const queryClient = useQueryClient();
+  const signingOut = isSignOut(location.state);
+  useEffect(() => {
+    if (!signingOut) return;
     clearAccessToken();
     queryClient.clear();
     void navigate(paths.signIn.getHref(), { replace: true });
-  }, [queryClient, navigate]);
+  }, [signingOut, queryClient, navigate]);
+  return signingOut;
 }
 
 /** Renders its children for a signed-in user whose token the API still accepts; otherwise opens sign-in. */

@@ -6,7 +6,7 @@ import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
-import { type ComponentProps, type JSX, type ReactNode } from 'react';
+import { type ComponentProps, createContext, type JSX, type ReactNode, useContext } from 'react';
 import Markdown, { type Components, type ExtraProps } from 'react-markdown';
 import remarkGfm from 'remark-gfm';
 
@@ -53,6 +53,56 @@ function heading(level: number, topLevel: number) {
 
 type Props<T extends keyof JSX.IntrinsicElements> = ComponentProps<T> & ExtraProps;
 
+/** The title of the text being rendered, for the names of its tables (the components are shared). */
+const TitleContext = createContext<string | undefined>(undefined);
+
+type HastElement = NonNullable<ExtraProps['node']>;
+
+/** The text of a node of the rendered Markdown, as it reads. */
+function nodeText(node: HastElement['children'][number]): string {
+  if (node.type === 'text') return node.value;
+  return node.type === 'element' ? node.children.map(nodeText).join('') : '';
+}
+
+/**
+ * A table's accessible name, saying what it lists: the text's title and the table's column headings
+ * ("Laser eye protection: machine, wavelength, where it harms the eye"). Its scrolling box is a region, which
+ * needs a name (WAI-ARIA 1.2, region role), and several regions named just "Table" cannot be told apart.
+ */
+export function tableName(node: HastElement | undefined, title: string | undefined): string {
+  const headings: string[] = [];
+  const walk = (n: HastElement) => {
+    if (n.tagName === 'th') headings.push(nodeText(n).trim());
+    else for (const c of n.children) if (c.type === 'element') walk(c);
+  };
+  if (node) walk(node);
+  const columns = headings.filter(Boolean).join(', ');
+  if (!columns) return title ? `${title}: table` : 'Table';
+  return title ? `${title}: ${columns}` : `Table of ${columns}`;
+}
+
+/** Cells wrap to fit; a table still too wide scrolls inside its own box, so a phone-width page never grows. */
+function MarkdownTable({ children, node }: Props<'table'>) {
+  const title = useContext(TitleContext);
+  return (
+    <Box
+      sx={{
+        overflowX: 'auto',
+        my: 1,
+        maxWidth: '100%',
+        border: 1,
+        borderColor: 'divider',
+        borderRadius: 1,
+      }}
+      tabIndex={0}
+      role="region"
+      aria-label={tableName(node, title)}
+    >
+      <Table size="small">{children}</Table>
+    </Box>
+  );
+}
+
 function components(topLevel: number): Components {
   return {
     h1: heading(1, topLevel),
@@ -88,24 +138,7 @@ function components(topLevel: number): Components {
     ),
     // No pictures from the text (they would load from anywhere): their description stands in.
     img: ({ alt }: Props<'img'>) => (alt ? <span>{`[${alt}]`}</span> : null),
-    // Cells wrap to fit; a table still too wide scrolls inside its own box, so a phone-width page never grows.
-    table: ({ children }: Props<'table'>) => (
-      <Box
-        sx={{
-          overflowX: 'auto',
-          my: 1,
-          maxWidth: '100%',
-          border: 1,
-          borderColor: 'divider',
-          borderRadius: 1,
-        }}
-        tabIndex={0}
-        role="region"
-        aria-label="Table"
-      >
-        <Table size="small">{children}</Table>
-      </Box>
-    ),
+    table: MarkdownTable,
     thead: ({ children }: Props<'thead'>) => <TableHead>{children}</TableHead>,
     tbody: ({ children }: Props<'tbody'>) => <TableBody>{children}</TableBody>,
     tr: ({ children }: Props<'tr'>) => <TableRow>{children}</TableRow>,
@@ -147,9 +180,11 @@ export function MarkdownText({
   }
   return (
     <Box sx={{ minWidth: 0, '& > :first-child': { mt: 0 }, '& > :last-child': { mb: 0 } }}>
-      <Markdown remarkPlugins={[remarkGfm]} skipHtml components={parts}>
-        {withoutRepeatedTitle(children, title)}
-      </Markdown>
+      <TitleContext.Provider value={title}>
+        <Markdown remarkPlugins={[remarkGfm]} skipHtml components={parts}>
+          {withoutRepeatedTitle(children, title)}
+        </Markdown>
+      </TitleContext.Provider>
     </Box>
   );
 }

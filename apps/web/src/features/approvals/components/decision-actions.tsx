@@ -10,6 +10,7 @@ export function DecisionActions({
   onSendBack,
   approveBlocked,
   sendBackLabel = 'Send back',
+  subject,
 }: {
   approveLabel: string;
   approving: boolean;
@@ -19,7 +20,14 @@ export function DecisionActions({
   approveBlocked?: string | null;
   /** What the way back is called: "Send back" for a version, the job action's own label for a job. */
   sendBackLabel?: string;
+  /**
+   * What is decided on (a job's design name), added to the buttons' accessible names after their visible
+   * text: a list of cards with the same "Approve the job" buttons cannot be told apart by ear (WCAG 2.4.6,
+   * 2.5.3 label in name).
+   */
+  subject?: string;
 }) {
+  const named = (label: string) => (subject ? `${label}: ${subject}` : undefined);
   return (
     <CardActions sx={{ px: 2, pb: 2 }}>
       {approveBlocked ? (
@@ -27,11 +35,17 @@ export function DecisionActions({
           {approveBlocked}
         </Typography>
       ) : (
-        <Button variant="contained" color="success" loading={approving} onClick={onApprove}>
+        <Button
+          variant="contained"
+          color="success"
+          loading={approving}
+          onClick={onApprove}
+          aria-label={named(approveLabel)}
+        >
           {approveLabel}
         </Button>
       )}
-      <Button color="error" onClick={onSendBack}>
+      <Button color="error" onClick={onSendBack} aria-label={named(sendBackLabel)}>
         {sendBackLabel}
       </Button>
     </CardActions>

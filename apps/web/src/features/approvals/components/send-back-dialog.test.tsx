@@ -6,7 +6,7 @@ import { SendBackDialog } from './send-back-dialog';
 const noop = () => undefined;
 
 describe('send back dialog', () => {
-  it('tells the supervisor returning a job that the requester can change the request and send it again', async () => {
+  it('tells the supervisor returning a job what its requester can do with it: change the design, not the request', async () => {
     renderWithProviders(
       <SendBackDialog
         open
@@ -19,9 +19,13 @@ describe('send back dialog', () => {
       />,
     );
     const dialog = await screen.findByRole('dialog', { name: 'Return the job Hexagon star' });
+    // As the API has it: reopening keeps the job as it is, requesting again copies the design's saved spec.
     expect(dialog).toHaveTextContent(
-      'The job goes back to its requester with your reason; they can change the request and send it again.',
+      'The job goes back to its requester with your reason. They can reopen it and request the cut again, ' +
+        'which takes their design as saved by then (so they can change the design first); the number of ' +
+        'copies and the notes stay as they are.',
     );
+    expect(dialog).not.toHaveTextContent(/change the request/);
     expect(dialog).not.toHaveTextContent(/answers with a changed version/);
   });
 

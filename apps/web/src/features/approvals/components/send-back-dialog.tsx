@@ -30,9 +30,13 @@ export function SendBackDialog(
       titleId="send-back-title"
       title={`${props.verb ?? 'Send back'} ${props.subject}`}
       intro={
-        // "Return" is said of a job (as the job page says), "Send back" of a profile version.
+        // "Return" is said of a job (as the job page says), "Send back" of a profile version. A returned job is
+        // reopened as a draft as it was (copies and notes cannot be changed); requesting it again takes the
+        // design as saved then (the API's request copies the design's spec).
         props.verb === 'Return'
-          ? 'The job goes back to its requester with your reason; they can change the request and send it again.'
+          ? 'The job goes back to its requester with your reason. They can reopen it and request the cut again, ' +
+            'which takes their design as saved by then (so they can change the design first); the number of ' +
+            'copies and the notes stay as they are.'
           : 'The version goes back to its author as a draft with your reason; they can change it and submit it again.'
       }
       error={props.error}

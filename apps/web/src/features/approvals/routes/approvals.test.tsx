@@ -133,7 +133,12 @@ describe('Approvals (supervisor)', () => {
     const { user } = renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-job');
     expect(card).toHaveTextContent('Hexagon star × 3');
-    const approve = within(card).getByRole('button', { name: 'Approve the job' });
+    // Named with the job's design, as every card has these buttons (WCAG 2.4.6); the visible text is kept.
+    const approve = within(card).getByRole('button', { name: 'Approve the job: Hexagon star' });
+    expect(approve).toHaveTextContent(/^Approve the job$/);
+    expect(
+      within(card).getByRole('button', { name: 'Return with a reason: Hexagon star' }),
+    ).toHaveTextContent(/^Return with a reason$/);
 
     // Cancelled: nothing is sent.
     await user.click(approve);
@@ -226,9 +231,9 @@ describe('Approvals (supervisor)', () => {
       const { unmount } = renderApp('/approvals', { token: 't' });
       const card = await screen.findByTestId('waiting-job');
       expect(within(card).getByTestId('approve-blocked')).toHaveTextContent(reason);
-      expect(within(card).queryByRole('button', { name: 'Approve the job' })).toBeNull();
+      expect(within(card).queryByRole('button', { name: /^Approve the job/ })).toBeNull();
       // Sending back stays possible.
-      expect(within(card).getByRole('button', { name: 'Return with a reason' })).toBeEnabled();
+      expect(within(card).getByRole('button', { name: 'Return with a reason: Hexagon star' })).toBeEnabled();
       expect(calls.some((c) => c.method === 'POST')).toBe(false);
       unmount();
     }

@@ -209,6 +209,7 @@ export function ApprovalsRoute() {
               </CardContent>
               <DecisionActions
                 approveLabel="Approve the job"
+                subject={j.designName}
                 approveBlocked={approveBlockedReason(j, 'supervisor')}
                 sendBackLabel={transitionFor('return').label}
                 approving={decideJob.isPending && decideJob.variables.jobId === j.id}

@@ -3,6 +3,7 @@ import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { AuthLayout } from '../../../components/layouts/auth-layout';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths, redirectTarget } from '../../../config/paths';
+import { useEndSessionOnArrival } from '../../../lib/auth';
 import { useAccessToken } from '../../../lib/token-store';
 import { SignInForm } from '../components/sign-in-form';
 
@@ -11,7 +12,10 @@ export function SignInRoute() {
   const navigate = useNavigate();
   const [search] = useSearchParams();
   const target = redirectTarget(search);
+  const signingOut = useEndSessionOnArrival();
 
+  // Signing out: the token goes in a moment (not to be taken for a signed-in visitor meanwhile).
+  if (token && signingOut) return null;
   if (token) return <Navigate to={target} replace />;
   return (
     <AuthLayout title="Sign in">

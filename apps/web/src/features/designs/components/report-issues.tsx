@@ -4,23 +4,36 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Stack from '@mui/material/Stack';
 import { useState } from 'react';
+import { countOf } from '../../../lib/plural';
 
 /**
  * The validity report: errors (block files) and warnings, each with chips for the pieces it concerns. Long
- * reports show the first `limit` findings and a button for the rest.
+ * reports show the first `limit` findings and a button for the rest. When the findings are one piece's only,
+ * `reportErrors` counts the errors of the whole report: the design is said to be free of problems only when
+ * that is none.
  */
 export function ReportIssues({
   errors,
   warnings,
   onSelectPiece,
   limit = 12,
+  reportErrors = errors.length,
 }: {
   errors: readonly DesignIssue[];
   warnings: readonly DesignIssue[];
   onSelectPiece: (id: string) => void;
   limit?: number;
+  reportErrors?: number;
 }) {
   const [showAll, setShowAll] = useState(false);
+  if (errors.length === 0 && warnings.length === 0 && reportErrors > 0) {
+    return (
+      <Alert severity="info" data-testid="report-piece-clear">
+        No finding concerns this piece, but the design has {countOf(reportErrors, 'error')}: see the Report
+        tab.
+      </Alert>
+    );
+  }
   if (errors.length === 0 && warnings.length === 0) {
     return (
       <Alert severity="success" data-testid="report-valid">

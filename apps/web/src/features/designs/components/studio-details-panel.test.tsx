@@ -29,4 +29,30 @@ describe('studio details panel', () => {
     // The tab row's box scrolls along its width (a fixed row hides what does not fit).
     expect(getComputedStyle(tabs.parentElement!).overflowX).toBe('auto');
   });
+
+  it('claims no problems on the Piece tab only when the report has no errors', () => {
+    const valid = buildModel(toDesignSpec(DEFAULT_DESIGN_VALUES, null)).report;
+    // An error of the whole design (as the audit's Size 0.5 gave) names no piece.
+    const error = { code: 'SCALE.TOO_SMALL', message: 'The model is too small to cut.', pieces: [] };
+    const panel = (report: typeof valid) => (
+      <StudioDetailsPanel
+        report={report}
+        pieceColour={{}}
+        tab={0}
+        onTab={() => undefined}
+        selectedPiece={undefined}
+        onSelectPiece={() => undefined}
+        formatLength={(mm) => `${mm.toFixed(1)} mm`}
+      />
+    );
+    const { unmount } = renderWithProviders(panel({ ...valid, errors: [error] }));
+    expect(screen.queryByTestId('report-valid')).not.toBeInTheDocument();
+    expect(screen.getByTestId('report-piece-clear')).toHaveTextContent(
+      'No finding concerns this piece, but the design has 1 error: see the Report tab.',
+    );
+    unmount();
+
+    renderWithProviders(panel({ ...valid, errors: [] }));
+    expect(screen.getByTestId('report-valid')).toBeInTheDocument();
+  });
 });

@@ -81,6 +81,7 @@ export const StudioDetailsPanel = memo(function StudioDetailsPanel({
             warnings={report.warnings.filter((i) => i.pieces.includes(piece.id))}
             onSelectPiece={onSelectPiece}
             limit={4}
+            reportErrors={report.errors.length}
           />
           <CrossingTable crossings={report.crossings} pieceId={piece.id} formatLength={fmt} />
         </Stack>

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { formatLength } from '../../../lib/units';
-import { materialThickness, sheetsSummary } from './studio-sheets-panel';
+import { defaultEstimateChoice, materialThickness, sheetsSummary } from './studio-sheets-panel';
 
 const fmt = (mm: number) => formatLength(mm, 'mm');
 
@@ -38,5 +38,34 @@ describe('materials offered for the estimate', () => {
   it('has nothing to warn of when the material or the design thickness is unknown', () => {
     expect(materialThickness(materials, 'gone', 3).matches).toBe(true);
     expect(materialThickness(materials, 'card', null).matches).toBe(true);
+  });
+});
+
+describe('the machine the estimate takes at first', () => {
+  // The audit's case: a router profile listed before the laser, both with stock of the design's thickness.
+  const choices = [
+    { key: 'router/pvc', profileKind: 'cnc-router', materialId: 'pvc' },
+    { key: 'co2/card', profileKind: 'co2-laser', materialId: 'card' },
+    { key: 'co2/acrylic', profileKind: 'co2-laser', materialId: 'acrylic' },
+    { key: 'fibre/acrylic', profileKind: 'fibre-laser', materialId: 'acrylic' },
+  ] as const;
+  const threeMm = (materialId: string) => materialId !== 'card';
+
+  it("prefers a machine of the design's own kind with stock of its thickness", () => {
+    expect(defaultEstimateChoice(choices, 'laser', threeMm)?.key).toBe('co2/acrylic');
+    expect(defaultEstimateChoice(choices, 'router', threeMm)?.key).toBe('router/pvc');
+  });
+
+  it('takes a blade cutter for a laser design, as the geometry engine does', () => {
+    const blade = [
+      choices[0],
+      { key: 'blade/acrylic', profileKind: 'blade-cutter', materialId: 'acrylic' },
+    ] as const;
+    expect(defaultEstimateChoice(blade, 'laser', threeMm)?.key).toBe('blade/acrylic');
+  });
+
+  it('falls back to the thickness match alone, and to no machine without one', () => {
+    expect(defaultEstimateChoice(choices.slice(0, 2), 'laser', threeMm)?.key).toBe('router/pvc');
+    expect(defaultEstimateChoice(choices, 'laser', () => false)).toBeUndefined();
   });
 });

@@ -1,4 +1,11 @@
-import { type DesignSpecInput, type MaterialView, pricedSheet } from '@kerfwright/contracts';
+import {
+  type DesignSpecInput,
+  type MachineKind,
+  type MachineProfileKind,
+  type MaterialView,
+  geometryMachineKind,
+  pricedSheet,
+} from '@kerfwright/contracts';
 import { type ColourRule, FIT_SHEETS_TOLERANCE } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
 import Button from '@mui/material/Button';
@@ -58,6 +65,23 @@ export function materialThickness(
   };
 }
 
+/**
+ * The machine the estimate takes until the reader picks one: a profile of the design's own machine kind (a
+ * laser design is cut by a beam or blade, a router design by a bit) with stock sold as the design's thickness,
+ * else, as before, any machine with such stock; none when no stock matches.
+ */
+export function defaultEstimateChoice<C extends { profileKind: MachineProfileKind; materialId: string }>(
+  choices: readonly C[],
+  designKind: MachineKind | null,
+  soldAs: (materialId: string) => boolean,
+): C | undefined {
+  const matching = choices.filter((c) => soldAs(c.materialId));
+  return (
+    matching.find((c) => designKind !== null && geometryMachineKind(c.profileKind) === designKind) ??
+    matching[0]
+  );
+}
+
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   spec,
   preview,
@@ -111,8 +135,9 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   // Time and cost need a machine: any approved profile version, with its settings for a material.
   const profiles = useMachineProfiles(on);
   const materials = useMaterials(on);
-  // Null until the reader picks: then the first machine with a material of the design's thickness is taken,
-  // so that a layout shows its time and cost at once ("no machine" stays one pick away).
+  // Null until the reader picks: then a machine of the design's kind with a material of its thickness is taken
+  // (see defaultEstimateChoice), so that a layout shows its time and cost at once ("no machine" stays one pick
+  // away).
   const [machineChoice, setMachineChoice] = useState<string | null>(null);
   // Materials of the design's thickness first: another thickness has other speeds, and the slots would not fit.
   const designThicknessMm = (layoutSpec ?? spec)?.stock.thicknessMm ?? null;
@@ -126,6 +151,8 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
             ? p.currentApproved.settings.map((st) => ({
                 key: `${p.currentApproved?.id}/${st.materialId}`,
                 label: `${p.name} v${p.currentApproved?.number} · ${st.materialName}`,
+                profileKind: p.kind,
+                materialId: st.materialId,
                 version: p.currentApproved,
                 setting: st,
               }))
@@ -149,7 +176,8 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
       )
     );
   };
-  const choiceKey = machineChoice ?? choices.find((c) => soldAs(c.setting.materialId))?.key ?? '';
+  const designKind = (layoutSpec ?? spec)?.machine.kind ?? null;
+  const choiceKey = machineChoice ?? defaultEstimateChoice(choices, designKind, soldAs)?.key ?? '';
   const choice = choices.find((c) => c.key === choiceKey);
   const chosen = choice ? thickness(choice.setting.materialId) : null;
   const thicknessWarning =

@@ -5,6 +5,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { json, type RecordedCall, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { formatLength } from '../../../lib/units';
+import { getAccessToken } from '../../../lib/token-store';
 import { renderApp } from '../../../testing/render-app';
 import { DEFAULT_DESIGN_VALUES, toSavedSpec } from '../components/design-form-schema';
 import { designColours } from '../../jobs/components/prepare-job-dialog';
@@ -348,6 +349,27 @@ describe('design studio', () => {
     const dialog = await screen.findByRole('dialog', { name: 'Leave without saving?' });
     await user.click(within(dialog).getByRole('button', { name: 'Leave without saving' }));
     await waitFor(() => expect(router.state.location.pathname).toBe('/designs'));
+  });
+
+  it('asks before signing out drops unsaved edits, and signs out once the member leaves', async () => {
+    studioApi();
+    const { user, router } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await screen.findByRole('button', { name: 'Request a cut job' });
+    await field('Description', 'draft');
+    await user.click(screen.getByRole('button', { name: 'Sign out' }));
+    let dialog = await screen.findByRole('dialog', { name: 'Leave without saving?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Stay in the studio' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(router.state.location.pathname).toBe(`/designs/${DESIGN_ID}`);
+    expect(getAccessToken()).toBe('t');
+    expect(screen.getByLabelText('Description')).toHaveValue('draft');
+
+    await user.click(screen.getByRole('button', { name: 'Sign out' }));
+    dialog = await screen.findByRole('dialog', { name: 'Leave without saving?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Leave without saving' }));
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    await waitFor(() => expect(getAccessToken()).toBeNull());
+    expect(router.state.location.search).toBe('');
   });
 
   it('duplicates a design with unsaved changes only after asking, and saves them first when asked to', async () => {

@@ -37,6 +37,7 @@ export function CutPackPanel({
   canDownload,
   onOpenSafety,
   jobDone = false,
+  prepareBlocked = null,
 }: {
   jobId: string;
   /** The job's version as shown: the pack is queued for the job as read (a stale one gets 409). */
@@ -48,6 +49,8 @@ export function CutPackPanel({
   /** Operators and supervisors download, after acknowledging the notices. */
   canDownload: boolean;
   onOpenSafety: () => void;
+  /** Why a pack cannot be prepared now though the caller may prepare packs (packPrepareBlockedReason). */
+  prepareBlocked?: string | null;
 }) {
   const exports = useJobExports(jobId, true);
   const safety = useJobSafety(jobId, true);
@@ -69,12 +72,17 @@ export function CutPackPanel({
         <Typography variant="h2" sx={{ flex: 1 }}>
           Cut pack
         </Typography>
-        {canPrepare && !busy ? (
+        {canPrepare && !prepareBlocked && !busy ? (
           <Button variant="outlined" onClick={() => request.mutate()} disabled={request.isPending}>
             {newest ? 'Prepare the cut pack again' : 'Prepare the cut pack'}
           </Button>
         ) : null}
       </Stack>
+      {canPrepare && prepareBlocked ? (
+        <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-blocked">
+          {prepareBlocked}
+        </Alert>
+      ) : null}
       {exports.error ? <FormErrorAlert error={exports.error} /> : null}
       {request.error ? <FormErrorAlert error={request.error} /> : null}
       {downloadError ? <FormErrorAlert error={downloadError} /> : null}

@@ -52,6 +52,15 @@ describe('safety dialog', () => {
     ).toHaveLength(1);
     expect(within(notices).getByText('Class 3B').tagName).toBe('STRONG');
     expect(within(notices).getByRole('cell', { name: 'the beam burns skin' })).toBeInTheDocument();
+    // Named for what it lists (WAI-ARIA 1.2: a region needs a name), not "Table" like every other one.
+    expect(
+      within(notices).getByRole('region', {
+        name: 'Laser hazard classes and what "class 1 enclosed" really means: class, what it means',
+      }),
+    ).toBeInTheDocument();
+    // The notices are the dialog's content: notes, not alerts announced all at once as it opens.
+    expect(screen.queryAllByRole('alert')).toEqual([]);
+    expect(within(notices).getAllByRole('note')).toHaveLength(1);
     const local = within(notices).getByTestId('local-rules');
     expect(within(local).getByRole('heading', { name: 'Bay rules' })).toBeInTheDocument();
     expect(within(local).getByText('Never').tagName).toBe('STRONG');
@@ -67,6 +76,7 @@ describe('safety dialog', () => {
     expect(within(notices).getByTestId('safety-read-only')).toHaveTextContent(
       /An operator or a supervisor acknowledges these notices/,
     );
+    expect(screen.queryAllByRole('alert')).toEqual([]);
     expect(within(notices).queryByLabelText(/I have read these notices/)).toBeNull();
     expect(screen.queryByRole('button', { name: 'Acknowledge' })).toBeNull();
   });

@@ -62,8 +62,15 @@ export function SafetyDialog({
             <Typography variant="body2" color="text.secondary">
               {`For ${view.materialFamily ? familyLabel(view.materialFamily).toLowerCase() : 'this material'} on a ${view.machineKind ? kindLabel(view.machineKind) : 'machine'}. These notices do not replace local codes, the machine maker's manual or the workshop's own rules.`}
             </Typography>
+            {/* Notices are the dialog's content, not news: a note each, not an alert (WAI-ARIA 1.2: alert is for
+                important, time-sensitive messages, and screen readers announce every one at once). */}
             {view.notices.map((n) => (
-              <Alert key={`${n.id}@${n.version}`} severity={SEVERITY[n.severity]} variant="outlined">
+              <Alert
+                key={`${n.id}@${n.version}`}
+                severity={SEVERITY[n.severity]}
+                variant="outlined"
+                role="note"
+              >
                 <Typography component="h3" sx={{ fontWeight: 500, mb: 0.5 }}>
                   {n.title}
                 </Typography>
@@ -85,11 +92,11 @@ export function SafetyDialog({
               )}
             </Box>
             {view.acknowledged ? (
-              <Alert severity="success" data-testid="safety-acknowledged">
+              <Alert severity="success" role="status" data-testid="safety-acknowledged">
                 {`You acknowledged these notices${view.acknowledgedAt ? ` on ${formatDateTime(view.acknowledgedAt)}` : ''}.`}
               </Alert>
             ) : !canAcknowledge ? (
-              <Alert severity="info" data-testid="safety-read-only">
+              <Alert severity="info" role="note" data-testid="safety-read-only">
                 An operator or a supervisor acknowledges these notices before downloading the files and
                 cutting.
               </Alert>

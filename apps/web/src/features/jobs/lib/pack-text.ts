@@ -1,4 +1,4 @@
-import { type CutPackFileRole, type ExportView } from '@kerfwright/contracts';
+import { type CutPackFileRole, type ExportView, type JobView } from '@kerfwright/contracts';
 
 /** What each file of a cut pack is, in the words the job page and the desk use. */
 export const PACK_FILE_ROLE_LABELS: Record<CutPackFileRole, string> = {
@@ -32,4 +32,20 @@ export function packFailureText(view: Pick<ExportView, 'errorCode' | 'errorMessa
     );
   }
   return view.errorMessage ?? 'The cut pack could not be prepared.';
+}
+
+/**
+ * Why no cut pack is offered to prepare for this job, or null: an approved job whose machine profile version
+ * has been retired since. The API refuses its pack (409), and the job cannot go back to preparation but by
+ * being returned. (A released job's pack is rebuilt on the version it was released on, so it stays offered.)
+ */
+export function packPrepareBlockedReason(
+  job: Pick<JobView, 'state' | 'profileVersionRetired' | 'profileName' | 'profileVersionNumber'>,
+): string | null {
+  if (job.state !== 'approved' || !job.profileVersionRetired) return null;
+  return (
+    `${job.profileName ?? 'The machine profile'} version ${job.profileVersionNumber ?? '?'}, which this job was ` +
+    'prepared on, has been retired since, so no cut pack can be prepared for it. Return the job with a reason: ' +
+    'once it is requested again, it is prepared on the current version.'
+  );
 }

@@ -181,6 +181,32 @@ describe('job detail', () => {
     }
   });
 
+  it('does not offer the cut pack of an approved job whose machine version was retired, but the way back', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, {
+          ...job,
+          state: 'approved',
+          preparation: preparationFixture(),
+          profileName: 'CO2 laser, 60 W',
+          profileVersionNumber: 1,
+          profileVersionRetired: true,
+          actions: ['release', 'return'],
+        }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const pack = await screen.findByTestId('cut-pack');
+    expect(within(pack).getByTestId('cut-pack-blocked')).toHaveTextContent(
+      /^CO2 laser, 60 W version 1, which this job was prepared on, has been retired since/,
+    );
+    expect(within(pack).queryByRole('button', { name: /^Prepare the cut pack/ })).not.toBeInTheDocument();
+    expect(
+      within(screen.getByTestId('job-actions')).getByRole('button', { name: 'Return with a reason' }),
+    ).toBeInTheDocument();
+  });
+
   it('tells the recorded machine time from the estimated one', async () => {
     const preparation = preparationFixture();
     stubFetch({

@@ -38,6 +38,7 @@ import {
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
+import { packPrepareBlockedReason } from '../lib/pack-text';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
 import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
 import { ConfirmJobActionDialog } from '../components/confirm-job-action-dialog';
@@ -342,6 +343,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           }
           canDownload={user.role === 'operator' || user.role === 'supervisor'}
           jobDone={job.state === 'cut' || job.state === 'closed'}
+          prepareBlocked={packPrepareBlockedReason(job)}
           onOpenSafety={() => setOpen('safety')}
         />
       ) : null}

@@ -210,6 +210,42 @@ describe('release desk', () => {
     }
   });
 
+  it('offers no cut pack for an approved job on a retired machine version, and says it must be returned', async () => {
+    for (const state of ['approved', 'released'] as const) {
+      const stub = stubDesk(
+        true,
+        {},
+        {
+          'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+          // The profile's version 2 retired after the job was approved (or released).
+          [`GET /api/jobs/${released.id}`]: () =>
+            json(200, { ...released, state, profileVersionRetired: true, actions: [], transitions: [] }),
+        },
+      );
+      const { user, unmount } = renderApp('/release-desk', { token: 't' });
+      await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+      const job = await screen.findByTestId('desk-job');
+      await waitFor(() => expect(within(job).getByTestId('job-state')).toHaveTextContent(state));
+      await within(job).findByRole('table', { name: 'Cut pack files' });
+      const rebuild = within(job).queryByRole('button', { name: /^Prepare the cut pack/ });
+      if (state === 'approved') {
+        // The API refuses it (409, the version is retired): not offered, and the way on is said instead.
+        expect(rebuild).not.toBeInTheDocument();
+        expect(within(job).getByTestId('cut-pack-blocked')).toHaveTextContent(
+          'CO2 laser version 2, which this job was prepared on, has been retired since, so no cut pack can be ' +
+            'prepared for it. Return the job with a reason: once it is requested again, it is prepared on the ' +
+            'current version.',
+        );
+      } else {
+        // A released job's pack is rebuilt on the version it was released on.
+        expect(rebuild).toHaveTextContent('Prepare the cut pack again');
+        expect(within(job).queryByTestId('cut-pack-blocked')).not.toBeInTheDocument();
+      }
+      expect(stub.calls.some((c) => c.method === 'POST')).toBe(false);
+      unmount();
+    }
+  });
+
   it('queues a new cut pack for the job as read: the request carries its version', async () => {
     const stub = stubDesk(
       true,

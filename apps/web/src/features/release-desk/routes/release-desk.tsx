@@ -29,6 +29,7 @@ import { jobQueryOptions } from '../../jobs/api/get-job';
 import { useJobSafety } from '../../jobs/api/get-job-safety';
 import { useTakeJobAction } from '../../jobs/api/take-job-action';
 import { CutPackPanel } from '../../jobs/components/cut-pack-panel';
+import { packPrepareBlockedReason } from '../../jobs/lib/pack-text';
 import { JobStateChip } from '../../jobs/components/job-state-chip';
 import { RecordCutDialog } from '../../jobs/components/record-cut-dialog';
 import { SafetyDialog } from '../../jobs/components/safety-dialog';
@@ -242,6 +243,7 @@ function DeskJob({ job }: { job: JobView }) {
         canPrepare={user.role === 'supervisor' && PACK_BUILT_IN.includes(job.state)}
         canDownload={user.role === 'operator' || user.role === 'supervisor'}
         jobDone={job.state === 'cut' || job.state === 'closed'}
+        prepareBlocked={packPrepareBlockedReason(job)}
         onOpenSafety={() => setOpen('safety')}
       />
       {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}

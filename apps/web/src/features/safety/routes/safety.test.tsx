@@ -119,6 +119,15 @@ describe('safety page', () => {
     const table = within(notices).getByRole('table');
     expect(within(table).getByRole('columnheader', { name: 'why it is refused' })).toBeInTheDocument();
     expect(within(table).getByRole('cell', { name: 'gives off hydrogen chloride' })).toBeInTheDocument();
+    // Its scrolling box is named for what the table lists, not just "Table".
+    expect(
+      within(notices).getByRole('region', {
+        name: 'Materials that never go on the laser: material, why it is refused',
+      }),
+    ).toContainElement(table);
+    // Static notices are notes, not live alerts announced all at once on load (WAI-ARIA 1.2, alert role).
+    expect(screen.queryAllByRole('alert')).toEqual([]);
+    expect(within(notices).getAllByRole('note')).toHaveLength(1);
     expect(within(notices).getAllByRole('listitem')).toHaveLength(2);
     // ("*" alone is the notice's "every material" in its Applies to line.)
     expect(notices).not.toHaveTextContent(/#|\||\*\*|---|<script|onerror/);

@@ -39,7 +39,9 @@ export function SafetyRoute() {
       <Typography variant="h1" sx={{ mb: 1 }}>
         Safety
       </Typography>
-      <Alert severity="info" sx={{ mb: 3 }}>
+      {/* The page's notices are its content, not news: notes, not alerts (WAI-ARIA 1.2: alert is for important,
+          time-sensitive messages, and screen readers announce every one at once). */}
+      <Alert severity="info" role="note" sx={{ mb: 3 }}>
         These notices and tables are a starting point. Local codes, the machine maker&apos;s manual and the
         workshop&apos;s own rules come first wherever they say more or differ.
       </Alert>
@@ -96,7 +98,7 @@ export function SafetyRoute() {
       ) : null}
       <Stack spacing={1.5} sx={{ mb: 3 }} data-testid="notices">
         {sorted.map((n) => (
-          <Alert key={n.id} severity={SEVERITY[n.severity]} variant="outlined">
+          <Alert key={n.id} severity={SEVERITY[n.severity]} variant="outlined" role="note">
             <Typography component="h3" sx={{ fontWeight: 500 }}>
               {n.title}
             </Typography>
