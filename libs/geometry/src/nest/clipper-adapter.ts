@@ -336,16 +336,7 @@ export function noFitPolygonByConvolution(fixed: IntPath, negatedMoving: IntPath
     }
     cycles.push(cycle);
   }
-  const c = new ClipperLib.Clipper();
-  c.AddPaths(cycles, ClipperLib.PolyType.ptSubject, true);
-  const out: IntPaths = [];
-  c.Execute(
-    ClipperLib.ClipType.ctUnion,
-    out,
-    ClipperLib.PolyFillType.pftNonZero,
-    ClipperLib.PolyFillType.pftNonZero,
-  );
-  const outer = out.filter((p) => ClipperLib.Clipper.Area(p) > 0);
+  const outer = unionPaths(cycles).filter((p) => ClipperLib.Clipper.Area(p) > 0);
   const area = outer.reduce((s, p) => s + ClipperLib.Clipper.Area(p), 0);
   const least = Math.abs(ClipperLib.Clipper.Area(a)) + Math.abs(ClipperLib.Clipper.Area(b));
   return area >= least * (1 - 1e-9) ? outer : null;
