@@ -499,17 +499,26 @@ function pointSegmentDist2(px: number, py: number, ax: number, ay: number, bx: n
  * endpoint-to-segment distances; two that cross are 0 apart, though each endpoint may be far from the other
  * segment (two long star tips crossing in an X), so crossings are tested first.
  */
-function boundariesApart(a: IntPath, ax: number, ay: number, b: IntPath, bx: number, by: number, d: number) {
+function boundariesApart(
+  va: Pick<Variant, 'poly' | 'ubounds'>,
+  ax: number,
+  ay: number,
+  vb: Pick<Variant, 'poly' | 'ubounds'>,
+  bx: number,
+  by: number,
+  d: number,
+) {
   const d2 = d * d;
-  // Two points closer than d lie in both outlines' bounds grown by d: only the edges that reach that region
-  // are compared (outlines of hundreds of vertices meet their neighbours along a few of them).
-  const ab = placedBounds(a, ax, ay);
-  const bb = placedBounds(b, bx, by);
+  const a = va.poly;
+  const b = vb.poly;
+  // Two points closer than d lie in both outlines' bounds (the variants' own, placed) grown by d: only the
+  // edges that reach that region are compared (outlines of hundreds of vertices meet their neighbours along a
+  // few of them).
   const region = {
-    minX: Math.max(ab.minX, bb.minX) - d,
-    minY: Math.max(ab.minY, bb.minY) - d,
-    maxX: Math.min(ab.maxX, bb.maxX) + d,
-    maxY: Math.min(ab.maxY, bb.maxY) + d,
+    minX: Math.max(va.ubounds.minX + ax, vb.ubounds.minX + bx) - d,
+    minY: Math.max(va.ubounds.minY + ay, vb.ubounds.minY + by) - d,
+    maxX: Math.min(va.ubounds.maxX + ax, vb.ubounds.maxX + bx) + d,
+    maxY: Math.min(va.ubounds.maxY + ay, vb.ubounds.maxY + by) + d,
   };
   if (region.minX > region.maxX || region.minY > region.maxY) return true;
   const near = edgesReaching(b, bx, by, region);
@@ -570,20 +579,6 @@ function segmentsCross(
   );
 }
 
-function placedBounds(path: IntPath, dx: number, dy: number) {
-  let minX = Infinity;
-  let minY = Infinity;
-  let maxX = -Infinity;
-  let maxY = -Infinity;
-  for (const q of path) {
-    if (q.X < minX) minX = q.X;
-    if (q.X > maxX) maxX = q.X;
-    if (q.Y < minY) minY = q.Y;
-    if (q.Y > maxY) maxY = q.Y;
-  }
-  return { minX: minX + dx, minY: minY + dy, maxX: maxX + dx, maxY: maxY + dy };
-}
-
 /** Indices of the edges (from vertex i to i + 1) of the placed path whose bounds meet the region. */
 function edgesReaching(
   path: IntPath,
@@ -634,7 +629,7 @@ export function clearOfItems(
     )
       continue;
     if (d > 0) {
-      if (!boundariesApart(it.variant.poly, it.tx, it.ty, moving.poly, tx, ty, d)) return false;
+      if (!boundariesApart(it.variant, it.tx, it.ty, moving, tx, ty, d)) return false;
       // Boundaries apart: the outlines are disjoint unless one lies inside the other.
       const m0 = moving.poly[0]!;
       const i0 = it.variant.poly[0]!;
