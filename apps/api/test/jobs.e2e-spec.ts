@@ -564,6 +564,65 @@ describe('jobs through their states', () => {
     expectErrorBody(late.body, 409, 'JOB.ILLEGAL_TRANSITION');
   });
 
+  it("lets the requester change a draft's copies and notes; a new count drops the old layout", async () => {
+    const job = await draftJob();
+    const patch = (u: TestUser, body: Record<string, unknown>, status = 200) =>
+      ctx.http.patch(`/api/jobs/${job.id}`).set(auth(u)).send(body).expect(status);
+    const read = async () =>
+      (await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.supervisor)).expect(200)).body as {
+        version: number;
+        quantity: number;
+        notes: string;
+        preparation: { pieceCount: number } | null;
+      };
+    // Requested, then prepared, then returned and reopened: a draft carrying the old layout for one copy.
+    await act(users.hobbyist, job.id, 'request');
+    const requested = await read();
+    expectErrorBody(
+      (await patch(users.hobbyist, { version: requested.version, quantity: 2 }, 409)).body,
+      409,
+      'JOB.NOT_EDITABLE',
+    );
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.fabricator, job.id, 'return', { reason: 'Two copies fit on the same sheets' });
+    await act(users.hobbyist, job.id, 'reopen');
+    const draft = await read();
+    expect(draft.preparation).not.toBeNull();
+    // Staff do not see drafts; another hobbyist does not either.
+    await patch(users.fabricator, { version: draft.version, quantity: 2 }, 404);
+    await patch(users.other, { version: draft.version, quantity: 2 }, 404);
+    expectErrorBody(
+      (await patch(users.hobbyist, { version: draft.version, quantity: 0 }, 400)).body,
+      400,
+      'VALIDATION.FAILED',
+    );
+    // Notes alone keep the layout.
+    const noted = await patch(users.hobbyist, { version: draft.version, notes: 'Two copies, please' });
+    expect(noted.body).toMatchObject({ state: 'draft', quantity: 1, notes: 'Two copies, please' });
+    expect(noted.body.version).toBeGreaterThan(draft.version);
+    expect((await read()).preparation).not.toBeNull();
+    // A stale version is refused, the current one takes the new count and drops the layout.
+    expectErrorBody(
+      (await patch(users.hobbyist, { version: draft.version, quantity: 2 }, 409)).body,
+      409,
+      'JOB.STALE_VERSION',
+    );
+    const twice = await patch(users.hobbyist, { version: noted.body.version, quantity: 2 });
+    expect(twice.body).toMatchObject({ state: 'draft', quantity: 2, preparation: null });
+    const audit: { before: unknown; after: unknown }[] = await ctx.db.query(
+      `SELECT before, after FROM audit_events WHERE entity_id = $1 AND action = 'job.update' ORDER BY id`,
+      [job.id],
+    );
+    expect(audit.map((a) => a.after)).toEqual([
+      expect.objectContaining({ quantity: 1, notes: 'Two copies, please' }),
+      expect.objectContaining({ quantity: 2, notes: 'Two copies, please' }),
+    ]);
+    // Requested again and prepared, the layout is for two copies.
+    await act(users.hobbyist, job.id, 'request');
+    const prepared = await act(users.fabricator, job.id, 'prepare', prepareBody());
+    expect(prepared.body.preparation.pieceCount).toBe(2 * draft.preparation!.pieceCount);
+  });
+
   /** A job of its own workshop (so a material can be changed without touching other tests) taken to `until`. */
   async function jobInOwnWorkshop(
     until: 'prepared' | 'approved' | 'released',

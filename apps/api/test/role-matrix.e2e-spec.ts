@@ -550,6 +550,15 @@ describe('role matrix: every route × every role', () => {
       arrange: async () => ({ method: 'get', path: `/api/jobs/${(await job('requested')).id}` }),
     },
     {
+      route: 'PATCH /api/jobs/:id',
+      expect: owned('ok', { fabricator: 404, operator: 404 }), // a draft's copies and notes; staff do not see drafts
+      audited: true,
+      arrange: async () => {
+        const j = await job('draft');
+        return { method: 'patch', path: `/api/jobs/${j.id}`, body: { version: j.version, notes: 'Matrix' } };
+      },
+    },
+    {
       route: 'POST /api/jobs/:id/request',
       expect: owned('ok', { fabricator: 404, operator: 404 }), // staff do not see drafts
       audited: true,

@@ -175,6 +175,30 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
     jobPath = new URL(page.url()).pathname;
     await page.getByTestId('job-state').filter({ hasText: 'requested' }).waitFor();
+    // Second thoughts before anyone prepared it: withdraw the request, change the notes, request it again.
+    const actions = page.getByTestId('job-actions');
+    await actions.getByRole('button', { name: 'Withdraw the request' }).click();
+    await page
+      .getByRole('dialog', { name: 'Withdraw the request?' })
+      .getByRole('button', { name: 'Withdraw the request' })
+      .click();
+    await page.getByTestId('job-state').filter({ hasText: 'draft' }).waitFor();
+    await actions.getByRole('button', { name: 'Change copies and notes' }).click();
+    const change = page.getByRole('dialog', { name: 'Change copies and notes' });
+    expect(await change.getByLabel('Copies').inputValue()).toBe('1');
+    expect(await change.getByLabel('Notes for the workshop').inputValue()).toBe(
+      'Two colours if there are any.',
+    );
+    await change.getByLabel('Notes for the workshop').fill('Two colours if there are any; clear will do.');
+    await change.getByRole('button', { name: 'Save the changes' }).click();
+    await change.waitFor({ state: 'detached' });
+    await page.getByText('Two colours if there are any; clear will do.').waitFor();
+    await actions.getByRole('button', { name: 'Request the cut' }).click();
+    await page
+      .getByRole('dialog', { name: 'Request the cut?' })
+      .getByRole('button', { name: 'Request the cut' })
+      .click();
+    await page.getByTestId('job-state').filter({ hasText: 'requested' }).waitFor();
     await shot('job-requested');
   });
 

@@ -97,6 +97,22 @@ export function allowedJobActions(state: JobState, role: Role, isOwner: boolean)
   ).map((t) => t.action);
 }
 
+/**
+ * States in which a job's copies and notes can still be changed: a draft, which is its requester's own (a
+ * request is withdrawn, and a returned job reopened, to change them). Not an action: the state stays.
+ */
+export const JOB_EDITABLE_STATES: readonly JobState[] = ['draft'];
+
+/** Who may change a job's copies and notes (while JOB_EDITABLE_STATES has its state): its requester or a supervisor. */
+export function mayChangeJobRequest(role: Role, isOwner: boolean): boolean {
+  return isOwner || role === 'supervisor';
+}
+
+/** Whether a user may change a job's copies and notes now. */
+export function mayEditJobRequest(state: JobState, role: Role, isOwner: boolean): boolean {
+  return JOB_EDITABLE_STATES.includes(state) && mayChangeJobRequest(role, isOwner);
+}
+
 export interface JobTransitionView {
   from: JobState | null;
   to: JobState;

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Param, Post, Query, Req } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Param, Patch, Post, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
   ApiConflictResponse,
@@ -18,6 +18,7 @@ import {
   PrepareJobDto,
   RecordCutDto,
   ReturnJobDto,
+  UpdateJobDto,
 } from './dto/job.dto';
 import { JobDetailViewDto, JobPageDto } from './dto/job.response';
 import { JobsService } from './jobs.service';
@@ -55,6 +56,23 @@ export class JobsController {
   @ApiOkResponse({ type: JobDetailViewDto, description: 'The job with its history of transitions' })
   get(@CurrentUser() user: AuthUser, @Param('id', ID) id: string): Promise<JobDetailView> {
     return this.jobs.get(user, id);
+  }
+
+  @Patch(':id')
+  @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
+  @ApiConflictResponse({ description: 'JOB.NOT_EDITABLE (not a draft) or JOB.STALE_VERSION' })
+  @ApiForbiddenResponse({ description: 'JOB.ACTION_NOT_ALLOWED: only its requester or a supervisor' })
+  @ApiOperation({
+    summary:
+      "A draft's copies and notes (its requester or a supervisor); a new number of copies drops the old layout",
+  })
+  update(
+    @CurrentUser() u: AuthUser,
+    @Param('id', ID) id: string,
+    @Body() dto: UpdateJobDto,
+    @Req() req: unknown,
+  ): Promise<JobDetailView> {
+    return this.jobs.update(u, id, dto, req);
   }
 
   @Post(':id/request')

@@ -8,7 +8,9 @@ import {
   type JobPreparation,
   type JobState,
   type JobView,
+  JOB_EDITABLE_STATES,
   type MachineProfileKind,
+  mayChangeJobRequest,
   type Page,
   transitionFor,
 } from '@kerfwright/contracts';
@@ -22,7 +24,13 @@ import { canReadDesign } from '../designs/designs.service';
 import { Design } from '../designs/design.entity';
 import { measuredKerfError } from '../machine-profiles/profile-rules';
 import { SafetyService } from '../safety/safety.service';
-import { type CreateJobDto, type ListJobsQuery, type PrepareJobDto, type RecordCutDto } from './dto/job.dto';
+import {
+  type CreateJobDto,
+  type ListJobsQuery,
+  type PrepareJobDto,
+  type RecordCutDto,
+  type UpdateJobDto,
+} from './dto/job.dto';
 import { canReadJob } from './job-access';
 import { Job, JobTransition } from './job.entity';
 import { JobMailer } from './job-mailer';
@@ -268,6 +276,60 @@ export class JobsService {
         requestId: requestIdOf(req),
       });
       return this.detail(m, user, job.id);
+    });
+  }
+
+  /**
+   * A draft's copies and notes, changed by its requester (or a supervisor). The state stays; a new number of
+   * copies drops the layout of an earlier preparation (its pieces and sheets were for the old number), so a
+   * reopened job never shows figures for copies it no longer asks for.
+   */
+  async update(user: AuthUser, id: string, dto: UpdateJobDto, req: unknown): Promise<JobDetailView> {
+    return this.dataSource.transaction(async (m) => {
+      const job = await m.findOne(Job, { where: { id }, lock: { mode: 'pessimistic_write' } });
+      if (!job || !canReadJob(user, job)) throw notFound('JOB', 'No such job');
+      if (!mayChangeJobRequest(user.role, job.requesterId === user.id)) {
+        throw new AppError(
+          HttpStatus.FORBIDDEN,
+          'JOB.ACTION_NOT_ALLOWED',
+          "Only the job's requester or a supervisor can change its copies and notes",
+        );
+      }
+      if (!JOB_EDITABLE_STATES.includes(job.state)) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'JOB.NOT_EDITABLE',
+          `${withArticle(job.state)} job's copies and notes cannot be changed; withdraw the request or reopen the job first`,
+          { state: job.state, editableIn: JOB_EDITABLE_STATES },
+        );
+      }
+      if (job.version !== dto.version) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'JOB.STALE_VERSION',
+          'The job changed since you read it; reload it and try again',
+          { current: job.version },
+        );
+      }
+      const before = { quantity: job.quantity, notes: job.notes };
+      if (dto.quantity !== undefined && dto.quantity !== job.quantity) {
+        job.quantity = dto.quantity;
+        job.preparation = null;
+      }
+      if (dto.notes !== undefined) job.notes = dto.notes;
+      if (job.quantity !== before.quantity || job.notes !== before.notes) {
+        await m.save(job);
+        await this.audit.record(m, {
+          actorId: user.id,
+          action: 'job.update',
+          entityType: 'job',
+          entityId: job.id,
+          before,
+          after: { quantity: job.quantity, notes: job.notes },
+          requestId: requestIdOf(req),
+        });
+      }
+      return this.detail(m, user, id);
     });
   }
 

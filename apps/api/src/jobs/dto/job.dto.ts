@@ -53,6 +53,20 @@ export class JobActionDto {
   version: number;
 }
 
+/** Changing a draft's request: how many copies, and the requester's notes (each optional). */
+export class UpdateJobDto {
+  @ApiProperty({ description: 'The job version you read; a stale one gets 409' })
+  @IsRowVersion()
+  version: number;
+  @ApiPropertyOptional({ minimum: 1, maximum: 100 })
+  @IsOptional()
+  @IsInt()
+  @Min(1)
+  @Max(100)
+  quantity?: number;
+  @ApiPropertyOptional({ maxLength: 2000 }) @IsOptional() @IsString() @MaxLength(2000) notes?: string;
+}
+
 /** Queueing a cut pack: the job version read, optional (a job action that leaves it out is not compared). */
 export class RequestExportDto {
   @ApiPropertyOptional({

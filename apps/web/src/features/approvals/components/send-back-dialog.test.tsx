@@ -19,11 +19,12 @@ describe('send back dialog', () => {
       />,
     );
     const dialog = await screen.findByRole('dialog', { name: 'Return the job Hexagon star' });
-    // As the API has it: reopening keeps the job as it is, requesting again copies the design's saved spec.
+    // As the API has it: a reopened job is a draft whose copies and notes can change, and requesting it again
+    // copies the design's saved spec.
     expect(dialog).toHaveTextContent(
-      'The job goes back to its requester with your reason. They can reopen it and request the cut again, ' +
-        'which takes their design as saved by then (so they can change the design first); the number of ' +
-        'copies and the notes stay as they are.',
+      'The job goes back to its requester with your reason. They can reopen it, change the number of ' +
+        'copies and the notes, and request the cut again, which takes their design as saved by then (so ' +
+        'they can change the design first).',
     );
     expect(dialog).not.toHaveTextContent(/change the request/);
     expect(dialog).not.toHaveTextContent(/answers with a changed version/);

@@ -31,12 +31,12 @@ export function SendBackDialog(
       title={`${props.verb ?? 'Send back'} ${props.subject}`}
       intro={
         // "Return" is said of a job (as the job page says), "Send back" of a profile version. A returned job is
-        // reopened as a draft as it was (copies and notes cannot be changed); requesting it again takes the
-        // design as saved then (the API's request copies the design's spec).
+        // reopened as a draft, whose copies and notes its requester can change (PATCH /api/jobs/:id);
+        // requesting it again takes the design as saved then (the API's request copies the design's spec).
         props.verb === 'Return'
-          ? 'The job goes back to its requester with your reason. They can reopen it and request the cut again, ' +
-            'which takes their design as saved by then (so they can change the design first); the number of ' +
-            'copies and the notes stay as they are.'
+          ? 'The job goes back to its requester with your reason. They can reopen it, change the number of ' +
+            'copies and the notes, and request the cut again, which takes their design as saved by then (so ' +
+            'they can change the design first).'
           : 'The version goes back to its author as a draft with your reason; they can change it and submit it again.'
       }
       error={props.error}

@@ -33,7 +33,7 @@ import {
   toSavedSpec,
 } from '../components/design-form-schema';
 import { DuplicateDialog } from '../components/duplicate-dialog';
-import { RequestJobDialog, type RequestJobValues } from '../components/request-job-dialog';
+import { RequestJobDialog, type RequestJobValues } from '../../jobs/components/request-job-dialog';
 import { SpecForm } from '../components/spec-form';
 import { StudioHeader } from '../components/studio-header';
 import { StudioDetailsPanel } from '../components/studio-details-panel';

@@ -126,6 +126,105 @@ describe('job detail', () => {
     expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 4 });
   });
 
+  it("lets a draft's requester change its copies and notes, starting from the job's own", async () => {
+    const me = userFixture('hobbyist');
+    let current: JobDetailView = {
+      ...job,
+      state: 'draft',
+      requesterId: me.id,
+      quantity: 2,
+      notes: 'Teal if possible',
+      actions: ['request'],
+    };
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, me),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+      [`PATCH /api/jobs/${job.id}`]: (req) => {
+        const body = req.body as { quantity: number; notes: string };
+        current = { ...current, ...body, version: current.version + 1 };
+        return json(200, current);
+      },
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    await user.click(within(actions).getByRole('button', { name: 'Change copies and notes' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Change copies and notes' });
+    expect(within(dialog).getByLabelText('Copies')).toHaveValue(2);
+    expect(within(dialog).getByLabelText('Notes for the workshop')).toHaveValue('Teal if possible');
+    // A wrong count is refused in the form, and not kept for the next opening.
+    await user.clear(within(dialog).getByLabelText('Copies'));
+    await user.type(within(dialog).getByLabelText('Copies'), '0');
+    await user.click(within(dialog).getByRole('button', { name: 'Save the changes' }));
+    expect(await within(dialog).findByText('At least 1 copy')).toBeInTheDocument();
+    await user.click(within(dialog).getByRole('button', { name: 'Cancel' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    await user.click(within(actions).getByRole('button', { name: 'Change copies and notes' }));
+    const again = await screen.findByRole('dialog', { name: 'Change copies and notes' });
+    expect(within(again).getByLabelText('Copies')).toHaveValue(2);
+    await user.clear(within(again).getByLabelText('Copies'));
+    await user.type(within(again).getByLabelText('Copies'), '3');
+    await user.click(within(again).getByRole('button', { name: 'Save the changes' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(stub.calls.find((c) => c.method === 'PATCH')?.body).toEqual({
+      version: 4,
+      quantity: 3,
+      notes: 'Teal if possible',
+    });
+    expect(await screen.findByText(/^Owner: Jun Park · 3 copies/)).toBeInTheDocument();
+  });
+
+  it('offers no change of copies once the job is requested, nor to anyone but its requester', async () => {
+    const me = userFixture('hobbyist');
+    let current: JobDetailView = { ...job, state: 'requested', requesterId: me.id, actions: ['withdraw'] };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, me),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+    });
+    const first = renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    expect(within(actions).queryByRole('button', { name: 'Change copies and notes' })).toBeNull();
+    first.unmount();
+    // A draft of someone else's (a supervisor may change it; a fabricator never sees it).
+    current = { ...current, state: 'draft', requesterId: 'u-h', actions: [] };
+    vi.unstubAllGlobals();
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    expect(await screen.findByText('Nothing for you to do on this job now.')).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Change copies and notes' })).toBeNull();
+  });
+
+  it('closes the change of copies when someone changed the job meanwhile, and says nothing was saved', async () => {
+    const me = userFixture('hobbyist');
+    let current: JobDetailView = { ...job, state: 'draft', requesterId: me.id, actions: ['request'] };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, me),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+      [`PATCH /api/jobs/${job.id}`]: () => {
+        current = { ...current, version: 5, notes: 'Changed in another tab' };
+        return json(409, {
+          statusCode: 409,
+          code: 'JOB.STALE_VERSION',
+          message: 'The job changed since you read it; reload it and try again',
+          details: { current: 5 },
+          requestId: 'r-9',
+        });
+      },
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Change copies and notes' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Change copies and notes' });
+    await user.type(within(dialog).getByLabelText('Notes for the workshop'), 'Birch');
+    await user.click(within(dialog).getByRole('button', { name: 'Save the changes' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(await screen.findByText('Changed in another tab')).toBeInTheDocument();
+    expect(screen.getByTestId('job-read-again')).toHaveTextContent(
+      'Someone else changed this job while you had it open, so your changes were not saved.',
+    );
+  });
+
   it('shows nothing to do when the API lists no actions', async () => {
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('hobbyist')),

@@ -2,6 +2,7 @@ import {
   CUT_PACK_DOWNLOADABLE_STATES,
   type JobAction,
   type JobDetailView,
+  mayEditJobRequest,
   transitionFor,
 } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
@@ -47,14 +48,16 @@ import { JobSheetsPanel } from '../components/job-sheets-panel';
 import { JobStateChip } from '../components/job-state-chip';
 import { PrepareJobDialog } from '../components/prepare-job-dialog';
 import { RecordCutDialog } from '../components/record-cut-dialog';
+import { RequestJobDialog } from '../components/request-job-dialog';
 import { ReturnJobDialog } from '../components/return-job-dialog';
+import { useChangeJobRequest } from '../api/change-job-request';
 import { SafetyDialog } from '../components/safety-dialog';
 import { countOf } from '../../../lib/plural';
 import { isBlankNumber } from '../../../lib/form-numbers';
 import { formatDateTime } from '../../../lib/dates';
 
-/** Actions that need more than a confirmation open their own dialog. */
-type Open = JobAction | 'safety' | null;
+/** Actions that need more than a confirmation open their own dialog; so do the notices and a draft's request. */
+type Open = JobAction | 'safety' | 'change' | null;
 
 export function JobDetailRoute() {
   const { jobId = '' } = useParams();
@@ -100,6 +103,11 @@ function refusedActionSentence(details: unknown, taken: JobAction | undefined, s
   return a ? `${article} ${now} job cannot be ${DONE_TO_JOB[a]}` : `the job is ${now} now`;
 }
 
+/** A change of copies and notes refused because the job is not as read: a newer version, or not a draft now. */
+function isChangeOvertaken(error: unknown): boolean {
+  return isJobChangedSince(error) || (isApiError(error) && error.code === 'JOB.NOT_EDITABLE');
+}
+
 /** An address that names no job (mistyped, or the job is not there): say so, and offer the way back. */
 function NoSuchJob() {
   return (
@@ -118,10 +126,14 @@ function NoSuchJob() {
 function JobDetail({ job }: { job: JobDetailView }) {
   const user = useUser();
   const action = useTakeJobAction();
+  const change = useChangeJobRequest();
+  const canChange = mayEditJobRequest(job.state, user.role, job.requesterId === user.id);
   const [opened, setOpen] = useState<Open>(null);
   // A dialog whose action the job no longer offers (someone acted on the job meanwhile) gives way to the
   // page, which shows the job as it is now and the server's answer.
-  const open: Open = opened !== null && opened !== 'safety' && !job.actions.includes(opened) ? null : opened;
+  const offered = (o: Exclude<Open, null>) =>
+    o === 'safety' || (o === 'change' ? canChange : job.actions.includes(o));
+  const open: Open = opened !== null && !offered(opened) ? null : opened;
   if (open !== opened) setOpen(open);
   const [unit, setUnit] = useState<LengthUnit>('mm');
   const fmt = (mm: number) => formatLength(mm, unit);
@@ -193,6 +205,12 @@ function JobDetail({ job }: { job: JobDetailView }) {
       {action.error && open === null && !isJobChangedSince(action.error) ? (
         <FormErrorAlert error={action.error} />
       ) : null}
+      {change.error && isChangeOvertaken(change.error) ? (
+        <Alert severity="info" sx={{ mb: 2 }} data-testid="job-read-again">
+          Someone else changed this job while you had it open, so your changes were not saved. The page now
+          shows it as it is: check it before you change it again.
+        </Alert>
+      ) : null}
       {action.error && isJobChangedSince(action.error) ? (
         <Alert severity="info" sx={{ mb: 2 }} data-testid="job-read-again">
           {`Someone else acted on this job while you had it open, so nothing was done. The page now shows it as it is${
@@ -221,6 +239,17 @@ function JobDetail({ job }: { job: JobDetailView }) {
             {transitionFor(a).label}
           </Button>
         ))}
+        {canChange ? (
+          <Button
+            variant="outlined"
+            onClick={() => {
+              change.reset();
+              setOpen('change');
+            }}
+          >
+            Change copies and notes
+          </Button>
+        ) : null}
         {canAcknowledge ? (
           <Button variant="outlined" color="warning" onClick={() => setOpen('safety')}>
             Safety notices
@@ -242,7 +271,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
             </Typography>
           ) : null,
         )}
-        {job.actions.length === 0 && !canAcknowledge ? (
+        {job.actions.length === 0 && !canAcknowledge && !canChange ? (
           <Typography color="text.secondary">Nothing for you to do on this job now.</Typography>
         ) : null}
       </Stack>
@@ -389,6 +418,26 @@ function JobDetail({ job }: { job: JobDetailView }) {
           onClose={() => setOpen(null)}
         />
       ) : null}
+      {open === 'change' ? (
+        <RequestJobDialog
+          open
+          current={{ quantity: job.quantity, notes: job.notes }}
+          busy={change.isPending}
+          error={change.error}
+          onSubmit={(v) =>
+            change.mutate(
+              { id: job.id, version: job.version, ...v },
+              {
+                onSuccess: () => setOpen(null),
+                onError: (error) => {
+                  if (isChangeOvertaken(error)) setOpen(null);
+                },
+              },
+            )
+          }
+          onClose={() => setOpen(null)}
+        />
+      ) : null}
       {open === 'return' ? (
         <ReturnJobDialog
           open
@@ -423,7 +472,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           canAcknowledge={user.role === 'operator' || user.role === 'supervisor'}
         />
       ) : null}
-      {open && !['prepare', 'return', 'cut', 'safety'].includes(open) ? (
+      {open && !['prepare', 'return', 'cut', 'safety', 'change'].includes(open) ? (
         <ConfirmJobActionDialog
           action={open as JobAction}
           from={job.state}

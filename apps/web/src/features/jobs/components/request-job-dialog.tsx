@@ -1,5 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import Stack from '@mui/material/Stack';
+import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { FormTextField } from '../../../components/ui/form-text-field';
@@ -15,31 +16,47 @@ export const requestJobSchema = z.object({
 });
 export type RequestJobValues = z.infer<typeof requestJobSchema>;
 
-/** Asks for copies and a note for the workshop, then requests the cut. */
+const NEW_REQUEST: RequestJobValues = { quantity: 1, notes: '' };
+
+/**
+ * Copies and a note for the workshop: for a new job, which it then requests, or (given `current`) for a
+ * draft whose request its requester changes. Each opening starts from `current` or a fresh request, never
+ * from what was typed and abandoned last time.
+ */
 export function RequestJobDialog({
   open,
   busy,
   error,
   onSubmit,
   onClose,
-}: FormDialogBaseProps<RequestJobValues>) {
+  current,
+}: FormDialogBaseProps<RequestJobValues> & { current?: RequestJobValues }) {
+  const start = current ?? NEW_REQUEST;
   const {
     register,
     handleSubmit,
+    reset,
     formState: { errors },
-  } = useForm<RequestJobValues>({
-    resolver: zodResolver(requestJobSchema),
-    defaultValues: { quantity: 1, notes: '' },
-  });
+  } = useForm<RequestJobValues>({ resolver: zodResolver(requestJobSchema), defaultValues: start });
+  useEffect(() => {
+    if (open) reset(start);
+    // Only on opening: a job read again while the dialog is open does not wipe what is being typed.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [open, reset]);
+  const changing = current !== undefined;
   return (
     <FormDialog
       open={open}
       titleId="request-job-title"
-      title="Request a cut job"
-      intro="A fabricator picks the material and machine settings and lays the pieces out; a supervisor approves the job before it is cut."
+      title={changing ? 'Change copies and notes' : 'Request a cut job'}
+      intro={
+        changing
+          ? 'The job stays a draft until you request the cut again. A new number of copies is laid out anew when a fabricator prepares the job.'
+          : 'A fabricator picks the material and machine settings and lays the pieces out; a supervisor approves the job before it is cut.'
+      }
       error={error}
       busy={busy}
-      submitLabel="Request the cut"
+      submitLabel={changing ? 'Save the changes' : 'Request the cut'}
       onSubmit={handleSubmit(onSubmit)}
       onClose={onClose}
     >

@@ -1,4 +1,5 @@
 import { screen, waitFor } from '@testing-library/react';
+import { useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { RequestJobDialog } from './request-job-dialog';
@@ -40,5 +41,36 @@ describe('request a cut job dialog', () => {
     await user.click(screen.getByRole('button', { name: 'Request the cut' }));
     await waitFor(() => expect(onSubmit).toHaveBeenCalled());
     expect(onSubmit.mock.calls[0]?.[0]).toEqual({ quantity: 3, notes: '' });
+  });
+
+  it('opens again as a fresh request, not with what was typed and abandoned', async () => {
+    function Harness() {
+      const [open, setOpen] = useState(true);
+      return (
+        <>
+          <button onClick={() => setOpen(true)}>Open it</button>
+          <RequestJobDialog
+            open={open}
+            busy={false}
+            error={null}
+            onSubmit={() => undefined}
+            onClose={() => setOpen(false)}
+          />
+        </>
+      );
+    }
+    const { user } = renderWithProviders(<Harness />);
+    const copies = await screen.findByLabelText('Copies');
+    await user.clear(copies);
+    await user.type(copies, '500');
+    await user.type(screen.getByLabelText('Notes for the workshop'), 'Forget this');
+    await user.click(screen.getByRole('button', { name: 'Request the cut' }));
+    expect(await screen.findByText('At most 100 copies')).toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Cancel' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    await user.click(screen.getByRole('button', { name: 'Open it' }));
+    expect(await screen.findByLabelText('Copies')).toHaveValue(1);
+    expect(screen.getByLabelText('Notes for the workshop')).toHaveValue('');
+    expect(screen.queryByText('At most 100 copies')).not.toBeInTheDocument();
   });
 });
