@@ -284,6 +284,70 @@ describe('prepare job dialog', () => {
     });
   });
 
+  it("opens with the job's last preparation: material, colours, sheet either way round, rule and profile", async () => {
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () =>
+        json(200, { items: [laser, draftOnly], total: 2, page: 1, pageSize: 100 }),
+    });
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <PrepareJobDialog
+        open
+        jobColours={['Amber']}
+        // Prepared on version 2 of the laser, retired since: its approved version (3) is chosen now.
+        prepared={{
+          materialId: 'm-acrylic',
+          profileVersionId: 'v-retired',
+          profileName: 'CO2 laser',
+          sheet: { widthMm: 600, heightMm: 1000 },
+          colourRule: 'opposite-match',
+        }}
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    await waitFor(() =>
+      expect(screen.getByLabelText('Machine profile (approved version)')).toHaveValue('v-approved'),
+    );
+    expect(screen.getByLabelText('Material')).toHaveValue('m-acrylic');
+    expect(screen.getByLabelText('amber')).toBeChecked();
+    expect(screen.getByLabelText('clear')).not.toBeChecked();
+    expect(screen.getByLabelText('Sheet')).toHaveValue('1');
+    expect(screen.getByLabelText('Colour rule')).toHaveValue('opposite-match');
+    await user.click(screen.getByRole('button', { name: 'Prepare' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(onSubmit.mock.calls[0]?.[0]).toEqual({
+      materialId: 'm-acrylic',
+      profileVersionId: 'v-approved',
+      colours: ['amber'],
+      colourRule: 'opposite-match',
+      sheet: { widthMm: 1000, heightMm: 600 },
+    });
+  });
+
+  it('opens with nothing chosen when the material prepared with is no longer listed', async () => {
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    renderWithProviders(
+      <PrepareJobDialog
+        open
+        prepared={{ materialId: 'm-gone', profileVersionId: 'v-approved', profileName: 'CO2 laser' }}
+        busy={false}
+        error={null}
+        onSubmit={vi.fn()}
+        onClose={noop}
+      />,
+    );
+    await screen.findByRole('option', { name: 'Cast acrylic 3 mm' });
+    expect(screen.getByLabelText('Material')).toHaveValue('');
+    expect(screen.getByLabelText('Machine profile (approved version)')).toHaveValue('');
+  });
+
   it('clears the chosen profile version when a material it has no settings for is chosen', async () => {
     const birch = { ...acrylic, id: 'm-birch', name: 'Birch plywood 3 mm', colours: ['natural'] };
     stubFetch({

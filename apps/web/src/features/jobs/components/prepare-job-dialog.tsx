@@ -29,11 +29,35 @@ export interface PrepareJobBody {
   colourRule: PrepareJobValues['colourRule'];
 }
 
+/** What a job was prepared with before, as the job lists it: the dialog starts from it. */
+export interface PreparedChoices {
+  materialId: string | null;
+  profileVersionId: string | null;
+  /** The profile's name, to find its approved version when the one used then has been retired. */
+  profileName: string | null;
+  sheet?: { widthMm: number; heightMm: number };
+  colourRule?: PrepareJobValues['colourRule'];
+}
+
 interface PrepareJobDialogProps extends FormDialogBaseProps<PrepareJobBody> {
   /** The job's design: the colours it was drawn in are what the colours of stock chosen are held against. */
   designId?: string;
   /** The colours the job lists already (asked for, or chosen when it was prepared before). */
   jobColours?: readonly string[];
+  /** The choices of the job's last preparation (prepared again, or requested again after a return). */
+  prepared?: PreparedChoices;
+}
+
+/** Where a sheet size stands in a material's stock list, either way round (-1: not listed any more). */
+function stockSheetIndex(
+  sheets: readonly { widthMm: number; heightMm: number }[],
+  size: { widthMm: number; heightMm: number },
+): number {
+  return sheets.findIndex(
+    (s) =>
+      (s.widthMm === size.widthMm && s.heightMm === size.heightMm) ||
+      (s.widthMm === size.heightMm && s.heightMm === size.widthMm),
+  );
 }
 
 /** The job's colours that a material stocks, spelt as the material spells them, in the material's order. */
@@ -126,6 +150,38 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     materials: allMaterials,
   });
   const fields = { register, errors };
+
+  // A job prepared before opens with its choices, as far as they are still offered: the material, its
+  // colours and sheet, the rule, and the profile (its approved version now, if the one used was retired).
+  // Once the lists have loaded, and once; the profile is chosen in the render after the material, which
+  // offers it (a select takes only a value it has an option for).
+  const [prefilled, setPrefilled] = useState(false);
+  const [pendingProfile, setPendingProfile] = useState<string | null>(null);
+  const before = props.prepared;
+  useEffect(() => {
+    if (prefilled || !before || !materials.data || !profiles.data) return;
+    setPrefilled(true);
+    const m = materials.data.items.find((x) => x.id === before.materialId);
+    if (before.colourRule) setValue('colourRule', before.colourRule);
+    if (!m) return;
+    setValue('materialId', m.id);
+    setValue('colours', stockedColours(m, props.jobColours ?? []));
+    const sheet = before.sheet ? stockSheetIndex(m.stockSheets, before.sheet) : -1;
+    setValue('sheetIndex', String(Math.max(0, sheet)));
+    const offered = profilesFor(profiles.data.items, m);
+    const same =
+      offered.find((p) => p.currentApproved?.id === before.profileVersionId) ??
+      offered.find((p) => p.name === before.profileName);
+    if (same?.currentApproved) setPendingProfile(same.currentApproved.id);
+  }, [prefilled, before, materials.data, profiles.data, props.jobColours, setValue]);
+  const offeredNow =
+    pendingProfile && approved.some((p) => p.currentApproved?.id === pendingProfile) ? pendingProfile : null;
+  useEffect(() => {
+    if (offeredNow) {
+      setValue('profileVersionId', offeredNow);
+      setPendingProfile(null);
+    }
+  }, [offeredNow, setValue]);
 
   const submit = handleSubmit((v) => {
     const sheet = material?.stockSheets[Number(v.sheetIndex)];

@@ -412,6 +412,17 @@ function JobDetail({ job }: { job: JobDetailView }) {
           open
           designId={job.designId}
           jobColours={job.colours}
+          prepared={
+            job.materialId
+              ? {
+                  materialId: job.materialId,
+                  profileVersionId: job.profileVersionId,
+                  profileName: job.profileName,
+                  sheet: prep?.sheet,
+                  colourRule: prep?.colourRule,
+                }
+              : undefined
+          }
           busy={action.isPending}
           error={action.error}
           onSubmit={(body) => take('prepare', { ...body })}
