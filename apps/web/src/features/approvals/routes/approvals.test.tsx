@@ -112,7 +112,7 @@ describe('Approvals (supervisor)', () => {
     const { calls } = approvalsApi();
     const { user } = renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
-    await user.click(within(card).getByRole('button', { name: 'Send back' }));
+    await user.click(within(card).getByRole('button', { name: 'Send back: CO2 laser, 60 W' }));
     const dialog = await screen.findByRole('dialog', { name: /Send back version 2/ });
     await user.click(within(dialog).getByRole('button', { name: 'Send back with this reason' }));
     expect(
@@ -160,7 +160,10 @@ describe('Approvals (supervisor)', () => {
     const { calls } = approvalsApi();
     const { user } = renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
-    await user.click(within(card).getByRole('button', { name: 'Approve version 2' }));
+    // Named with the profile, as every waiting version has these buttons (WCAG 2.4.6); the visible text is kept.
+    const approve = within(card).getByRole('button', { name: 'Approve version 2: CO2 laser, 60 W' });
+    expect(approve).toHaveTextContent(/^Approve version 2$/);
+    await user.click(approve);
     const dialog = await screen.findByRole('dialog', { name: 'Approve version 2 of CO2 laser, 60 W?' });
     expect(dialog).toHaveTextContent('Jobs use it from now on; version 1 is retired.');
     expect(calls.some((c) => c.method === 'POST')).toBe(false);

@@ -160,6 +160,7 @@ export function ApprovalsRoute() {
             </CardContent>
             <DecisionActions
               approveLabel={`Approve version ${p.latest.number}`}
+              subject={p.name}
               approving={decideVersion.isPending && decideVersion.variables.versionId === p.latest.id}
               onApprove={() => confirmApproval({ kind: 'version', profile: p })}
               onSendBack={() => {
