@@ -384,6 +384,8 @@ describe('release desk', () => {
   it('at phone width (390 px) shows each job as a card whose Open button is in reach, not in a wide table', async () => {
     stubScreenWidth(390);
     stubDesk(true);
+    // jsdom does not scroll: the page's move to its top is recorded instead.
+    const scrollTo = vi.spyOn(window, 'scrollTo').mockImplementation(() => undefined);
     const { user } = renderApp('/release-desk', { token: 't' });
     const cards = await screen.findByRole('list', { name: 'Jobs at the release desk' });
     expect(screen.queryByRole('table', { name: 'Jobs at the release desk' })).not.toBeInTheDocument();
@@ -397,5 +399,12 @@ describe('release desk', () => {
       /^Download$/,
     );
     expect(getComputedStyle(files.parentElement!).overflowX).toBe('auto');
+    // The opened job takes the list's place, from the top of the page; a button leads back to the list.
+    expect(scrollTo).toHaveBeenCalledWith({ top: 0 });
+    scrollTo.mockRestore();
+    expect(screen.queryByRole('list', { name: 'Jobs at the release desk' })).not.toBeInTheDocument();
+    await user.click(screen.getByRole('button', { name: 'Back to the jobs at the desk (2)' }));
+    expect(await screen.findByRole('list', { name: 'Jobs at the release desk' })).toBeInTheDocument();
+    expect(screen.queryByTestId('desk-job')).not.toBeInTheDocument();
   });
 });

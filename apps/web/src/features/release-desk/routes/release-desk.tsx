@@ -68,8 +68,15 @@ export function ReleaseDeskRoute() {
       {!desk.isPending && !desk.error && desk.rows.length === 0 ? (
         <Alert severity="info">No job is waiting for the machines.</Alert>
       ) : null}
-      {desk.rows.length > 0 && phone ? (
+      {/* On a phone an opened job takes the list's place (a job opened under a long list of cards would start
+          off screen, and grows as its notices and files load); a button leads back to the list. */}
+      {desk.rows.length > 0 && phone && !selected ? (
         <DeskCards rows={desk.rows} selectedId={selectedId} onOpen={setSelectedId} />
+      ) : null}
+      {phone && selected ? (
+        <Button variant="outlined" fullWidth onClick={() => setSelectedId(null)} sx={{ mb: 1 }}>
+          {`Back to the jobs at the desk (${desk.rows.length})`}
+        </Button>
       ) : null}
       {desk.rows.length > 0 && !phone ? (
         // A tablet-width page keeps its width: the table scrolls inside its card.
@@ -112,7 +119,7 @@ export function ReleaseDeskRoute() {
           </Table>
         </TableContainer>
       ) : null}
-      {selected ? <DeskJob key={selected.id} job={selected} /> : null}
+      {selected ? <DeskJob key={selected.id} job={selected} phone={phone} /> : null}
     </Box>
   );
 }
@@ -172,14 +179,18 @@ function DeskCards({
 const PACK_BUILT_IN: readonly JobState[] = ['approved', 'released'];
 
 /** One job at the desk: the safety acknowledgement, the cut pack's files and recording the cut. */
-function DeskJob({ job }: { job: JobView }) {
+function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   const user = useUser();
-  // Opened from a long list (a phone shows one card a screen), the job comes into view.
+  // Opened from the table, the job below it comes into view; on a phone it replaced the list, so the page
+  // starts at its top.
   const ref = useRef<HTMLDivElement>(null);
   useEffect(() => {
     // A block body: the effect must return nothing, and Chromium's scrollIntoView returns a promise, which
     // React would otherwise call as the effect's clean-up when the job is closed.
-    void ref.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' });
+    if (phone) window.scrollTo?.({ top: 0 });
+    else void ref.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' });
+    // On opening only: turning the phone does not scroll the page again.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
   const safety = useJobSafety(job.id, true);
   const action = useTakeJobAction();
