@@ -17,7 +17,7 @@ import {
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { likePattern, preparedQuery } from '../common/db-helpers';
-import { AppError, notFound } from '../common/errors';
+import { AppError, notFound, validationFailed } from '../common/errors';
 import { pageWindow, sortOrder } from '../common/paging';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { canReadDesign } from '../designs/designs.service';
@@ -417,12 +417,7 @@ export class JobsService {
     const kind = rows[0]?.kind;
     const error = kind ? measuredKerfError(kind, kerfMm, 'measuredKerfMm') : null;
     if (error) {
-      throw new AppError(
-        HttpStatus.BAD_REQUEST,
-        'VALIDATION.FAILED',
-        `Invalid request: ${error.field} (${error.messages.join('; ')})`,
-        [error],
-      );
+      throw validationFailed([error]);
     }
   }
 

@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager } from 'typeorm';
 import { type KerfRecordView, type MachineProfileVersionView, type Page } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
-import { AppError, notFound } from '../common/errors';
+import { AppError, notFound, validationFailed } from '../common/errors';
 import { sameId } from '../common/pipes/parse-id.pipe';
 import { Material } from '../materials/material.entity';
 import { MaterialsService } from '../materials/materials.service';
@@ -50,12 +50,7 @@ export class KerfRecordsService {
         }
       }
       if (errors.length) {
-        throw new AppError(
-          HttpStatus.BAD_REQUEST,
-          'VALIDATION.FAILED',
-          `Invalid request: ${errors.map((e) => `${e.field} (${e.messages.join('; ')})`).join(', ')}`,
-          errors,
-        );
+        throw validationFailed(errors);
       }
       // A material that may not be cut on a laser gets no laser kerf (the check and answer of preparation).
       await this.materials.assertUsableOn(manager, dto.materialId, profile.kind);

@@ -3,7 +3,6 @@ import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, In } from 'typeorm';
 import {
-  type FieldError,
   isLaserKind,
   laserRefusal,
   type MachineProfileDetailView,
@@ -16,7 +15,7 @@ import {
   type ProfileVersionState,
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
-import { AppError, notFound } from '../common/errors';
+import { AppError, notFound, validationFailed } from '../common/errors';
 import { sortOrder } from '../common/paging';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { composeMail } from '../mail/mail-templates';
@@ -523,7 +522,7 @@ export class MachineProfilesService {
     content: ProfileVersionContent,
   ): Promise<void> {
     const limits = contentLimitErrors(content);
-    if (limits.length) throw invalid(limits);
+    if (limits.length) throw validationFailed(limits);
     const errors = settingErrors(kind, content.settings);
     const ids = [...new Set(content.settings.map((s) => s.materialId))];
     const materials = ids.length ? await manager.findBy(Material, { id: In(ids) }) : [];
@@ -532,7 +531,7 @@ export class MachineProfilesService {
       if (!byId.has(s.materialId))
         errors.push({ field: `settings[${i}].materialId`, messages: ['no such material'] });
     });
-    if (errors.length) throw invalid(errors);
+    if (errors.length) throw validationFailed(errors);
     if (!isLaserKind(kind)) return;
     const table = await this.hazards.rows(manager);
     for (const [i, s] of content.settings.entries()) {
@@ -728,16 +727,6 @@ function settingOf(s: ProfileSetting): ProfileSetting {
   if (s.powerPct !== undefined) out.powerPct = s.powerPct;
   if (s.spindleRpm !== undefined) out.spindleRpm = s.spindleRpm;
   return out;
-}
-
-/** 400 VALIDATION.FAILED with the field errors, worded as the global validation pipe words them. */
-function invalid(errors: FieldError[]): AppError {
-  return new AppError(
-    HttpStatus.BAD_REQUEST,
-    'VALIDATION.FAILED',
-    `Invalid request: ${errors.map((e) => `${e.field} (${e.messages.join('; ')})`).join(', ')}`,
-    errors,
-  );
 }
 
 function stale(current: number, sent?: number): AppError {

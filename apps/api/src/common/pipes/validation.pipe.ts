@@ -1,6 +1,6 @@
 import { type ArgumentMetadata, HttpStatus, ValidationPipe, type ValidationError } from '@nestjs/common';
 import { type FieldError } from '@kerfwright/contracts';
-import { AppError } from '../errors';
+import { AppError, validationFailed } from '../errors';
 
 /** Deepest nesting of objects and arrays accepted in a body, query or path (designs need about 5). */
 export const MAX_INPUT_DEPTH = 32;
@@ -73,13 +73,7 @@ export function createValidationPipe(): ValidationPipe {
     forbidNonWhitelisted: true,
     transform: true,
     exceptionFactory: (errors) => {
-      const details = toFieldErrors(errors);
-      return new AppError(
-        HttpStatus.BAD_REQUEST,
-        'VALIDATION.FAILED',
-        `Invalid request: ${details.map((d) => `${d.field} (${d.messages.join('; ')})`).join(', ')}`,
-        details,
-      );
+      return validationFailed(toFieldErrors(errors));
     },
   });
 }
