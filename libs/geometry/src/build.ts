@@ -248,7 +248,21 @@ export function sizeWithoutLayout(
   const sc = spec.scale;
   if (sc.by === 'fitBed') {
     const [w, h] = fitBedRectangle(spec.bed as BedSpec, spec.sheet, spec.machine);
-    return fitToRectangle(spec, solid, w, h);
+    const fit = fitToRectangle(spec, solid, w, h);
+    const { errors, diameterMm } = fit.model.report;
+    // A smaller model would only make the fixed stock thickness take more of its pieces: no size fits. Said
+    // in one sentence beside the errors of the largest, which alone would blame the design.
+    if (errors.length > 0) {
+      errors.push({
+        code: 'SCALE.NO_FIT',
+        message:
+          `no size fits the bed${spec.sheet ? ' and the sheet' : ''}: even the largest model whose pieces fit ` +
+          `(${round(diameterMm, 1)} mm across) has design errors at ${spec.stock.thicknessMm} mm stock; ` +
+          'choose a larger bed or sheet, or thinner stock, or change the design',
+        pieces: [],
+      });
+    }
+    return fit;
   }
   if (sc.by === 'fitSheets') return fitSheetsUpperBound(spec, solid);
   return { model: buildAtScale(spec, solid, scaleFactor(solid, spec)), evaluations: 1 };

@@ -51,7 +51,8 @@ export const runBuild: CliRun = (args, io, usage) => {
   }
   if (json) io.out(reportText);
   if (report.errors.length > 0) {
-    const first = report.errors[0];
+    // A fit scale that found no size says why in one sentence: that leads, before the errors of the last size tried.
+    const first = report.errors.find((e) => e.code === 'SCALE.NO_FIT') ?? report.errors[0];
     io.err(
       `error: the design has ${report.errors.length} error(s), no cut files written; first: ` +
         `${first?.code}: ${first?.message}`,

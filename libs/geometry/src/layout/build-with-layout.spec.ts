@@ -143,6 +143,46 @@ describe('fitSheets scale', () => {
     expect(area).toBeLessThanOrEqual(2 * 590 * 390 * (1 + 1e-6));
   });
 
+  it('finds the sizes that fit between too small for the stock and too large for the sheet', () => {
+    // A tetrahedron of {5/2} stars in 3 mm stock on one 600 × 400 sheet: at the area bound and a step of 15 %
+    // below it the stars need two sheets, two steps below the slots cut the thin points off. The sizes
+    // that fit lie in the narrow window between, which the search must bisect rather than step over.
+    const star: DesignSpec = {
+      solid: 'tetrahedron',
+      piece: { sides: 5, step: 2, size: 1.85 },
+      scale: { by: 'fitSheets', sheets: 1 },
+      stock: { thicknessMm: 3, sheet, marginMm: 5, gapMm: 3 },
+      machine: { kind: 'laser', kerfMm: 0.15 },
+    } as unknown as DesignSpec;
+    const { model, resolvedSpec } = buildWithLayout(star);
+    const r = model.report;
+    expect(r.errors).toEqual([]);
+    expect(r.scale).toMatchObject({ method: 'fitSheets', resolved: true });
+    expect(r.sheetCount).toBe(1);
+    const at = (mm: number) => sheetsNeeded({ ...resolvedSpec, scale: { by: 'diameter', mm } });
+    expect(at(r.diameterMm)).toBe(1);
+    // 1 % larger needs a second sheet; 15 % smaller is no longer a sound design (null: errors).
+    expect(at(r.diameterMm * 1.01)).not.toBe(1);
+    expect(at(r.diameterMm * 0.85)).toBeNull();
+  });
+
+  it('says why no size fits when even the largest model for the sheets has design errors', () => {
+    const star = {
+      solid: 'tetrahedron',
+      piece: { sides: 5, step: 2, size: 1.85 },
+      scale: { by: 'fitSheets', sheets: 1 },
+      stock: { thicknessMm: 10, sheet, marginMm: 5, gapMm: 3 },
+      machine: { kind: 'laser', kerfMm: 0.15 },
+    } as unknown as DesignSpec;
+    const r = buildWithLayout(star).model.report;
+    // The model reported is the largest (the upper bound), not one stepped down into worse errors.
+    expect(r.diameterMm).toBeCloseTo(buildModel(star).report.diameterMm, 6);
+    expect(r.scale).toMatchObject({ resolved: false });
+    expect(r.errors.find((e) => e.code === 'SCALE.NO_FIT')?.message).toMatch(
+      /^no size fits 1 sheet of 600 × 400 mm: even the largest model that fits it \(\d+(\.\d)? mm across\) has design errors at 10 mm stock/,
+    );
+  });
+
   it('does not search when the colour rule has no plan', () => {
     const r = buildWithLayout({ ...spec(3), colours: { count: 2, rule: 'neighbour-distinct' } }).model.report;
     expect(r.errors.map((e) => e.code)).toEqual(['COLOUR.NO_PLAN']);

@@ -12,6 +12,7 @@ import {
 import { type ColourPlan } from '../colour';
 import { SpecValidationError, validateSpec, type ResolvedSpec } from '../spec/validate-spec';
 import { layoutModel, type ModelLayout } from './plan-layout';
+import { lengthText } from '../math/length-text';
 
 /** fitSheets stops when the largest fitting size and the smallest failing size differ by this fraction. */
 export const FIT_SHEETS_TOLERANCE = 0.005;
@@ -83,17 +84,25 @@ function resolvedSpecOf(input: DesignSpec, model: BuiltModel): DesignSpec {
   return { ...input, scale: { by: 'diameter', mm: model.report.diameterMm } };
 }
 
+/** Most models one fitSheets search builds (a model with design errors is built but not laid out). */
+export const FIT_SHEETS_MAX_BUILDS = 32;
+
 /**
- * The largest model whose layout uses at most `scale.sheets` sheets, with no design errors. Nesting is a
- * heuristic, so "fits in N sheets" is not strictly monotone in the size; the search treats it as monotone
- * and keeps the largest size it saw fit:
+ * The largest model whose layout uses at most `scale.sheets` sheets, with no design errors. A size can fail
+ * two ways: too large (its layout needs more sheets, or a piece does not fit the sheet), or too small for
+ * the stock (design errors: at a fixed thickness the slots take more of a smaller piece, until they cut it
+ * apart or run into each other). Nesting is a heuristic, so "fits in N sheets" is not strictly monotone in
+ * the size; the search treats both failures as monotone and keeps the largest size it saw fit:
  * 1. the upper bound (fitSheetsUpperBound: the largest piece fits the sheet, total area ≤ N sheets);
  *    if it fits, done;
- * 2. otherwise step down by factors of 0.85 until a size fits (at most 8 steps);
+ * 2. otherwise step down by factors of 0.85 while sizes are too large (at most 8 steps); a size too small
+ *    for the stock ends the steps, and the window between it and the smallest size too large is bisected
+ *    (the sizes that fit may lie only there: a 0.85 step can jump over them);
  * 3. bisect (geometric mean) between the largest fitting and the smallest failing size until they differ
- *    by FIT_SHEETS_TOLERANCE (0.5 %), or FIT_SHEETS_MAX_LAYOUTS layouts have run.
- * When no size fits, the report has error SCALE.NO_FIT (with the last model tried). The colour plan is
- * solved once (it does not depend on the size); without one (COLOUR.NO_PLAN) no search runs.
+ *    by FIT_SHEETS_TOLERANCE (0.5 %), or FIT_SHEETS_MAX_LAYOUTS layouts (FIT_SHEETS_MAX_BUILDS models) ran.
+ * When no size fits, the report has error SCALE.NO_FIT (with the last model tried), saying which way the
+ * sizes failed. The colour plan is solved once (it does not depend on the size); without one
+ * (COLOUR.NO_PLAN) no search runs.
  */
 export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBuild {
   const sheets = spec.scale.by === 'fitSheets' ? spec.scale.sheets : 1;
@@ -114,37 +123,59 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
     return { model: upper.model, layout: null, resolvedSpec: resolvedSpecOf(input, upper.model) };
   }
   let layouts = 0;
+  let builds = 0;
   const evaluate = (model: BuiltModel) => {
-    if (model.report.errors.length > 0) return { model, layout: null, fits: false };
+    builds++;
+    if (model.report.errors.length > 0) return { model, layout: null, fits: false, tooSmall: true };
     layouts++;
     const layout = layOut(model, spec, plan);
-    return { model, layout, fits: layout.ok && layout.totals.sheetCount <= sheets };
+    return { model, layout, fits: layout.ok && layout.totals.sheetCount <= sheets, tooSmall: false };
   };
   type Trial = ReturnType<typeof evaluate>;
+  const at = (mmPerUnit: number) => evaluate(buildAtScale(spec, solid, mmPerUnit));
+  const budgetLeft = () => layouts < FIT_SHEETS_MAX_LAYOUTS && builds < FIT_SHEETS_MAX_BUILDS;
+  const apart = (a: Trial, b: Trial) => a.model.mmPerUnit / b.model.mmPerUnit - 1 > FIT_SHEETS_TOLERANCE;
   let hi: Trial = evaluate(upper.model);
   let lo: Trial | null = hi.fits ? hi : null;
-  for (let step = 0; !lo && step < 8; step++) {
-    const t = evaluate(buildAtScale(spec, solid, hi.model.mmPerUnit * 0.85));
+  /** The largest size found too small for the stock, below every size found too large. */
+  let small: Trial | null = null;
+  // Down from the upper bound while sizes are too large. Design errors at the upper bound are not searched
+  // below: a smaller model only makes the fixed stock thickness take more of its pieces.
+  for (let step = 0; !lo && !small && !hi.tooSmall && step < 8 && budgetLeft(); step++) {
+    const t = at(hi.model.mmPerUnit * 0.85);
     if (t.fits) lo = t;
+    else if (t.tooSmall) small = t;
+    else hi = t;
+  }
+  // Between too small and too large: the sizes that fit, if any, lie here.
+  while (!lo && small && apart(hi, small) && budgetLeft()) {
+    const t = at(Math.sqrt(small.model.mmPerUnit * hi.model.mmPerUnit));
+    if (t.fits) lo = t;
+    else if (t.tooSmall) small = t;
     else hi = t;
   }
   if (!lo) {
     const model = hi.model;
     summary(model, layouts, false);
+    const sheetText = `${sheets} sheet${sheets === 1 ? '' : 's'} of ${spec.sheet?.widthMm} × ${spec.sheet?.heightMm} mm`;
+    const stock = `${spec.stock.thicknessMm} mm stock`;
     model.report.errors.push({
       code: 'SCALE.NO_FIT',
-      message:
-        `no size tried fits ${sheets} sheet${sheets === 1 ? '' : 's'} of ` +
-        `${spec.sheet?.widthMm} × ${spec.sheet?.heightMm} mm without errors`,
+      message: hi.tooSmall
+        ? `no size fits ${sheetText}: even the largest model that fits ${sheets === 1 ? 'it' : 'them'} ` +
+          `(${lengthText(Math.round(model.report.diameterMm * 10) / 10)} mm across) has design errors at ${stock}; ` +
+          'choose larger sheets or thinner stock, or change the design'
+        : small
+          ? `no size fits ${sheetText}: the sizes small enough to fit have design errors at ${stock} (the ` +
+            'slots take too much of the pieces); allow more sheets, choose larger sheets or thinner stock'
+          : `no size tried fits ${sheetText} without errors`,
       pieces: [],
     });
     if (hi.layout) noteLayout(model, hi.layout);
     return { model, layout: hi.layout, resolvedSpec: resolvedSpecOf(input, model) };
   }
-  while (lo !== hi && hi.model.mmPerUnit / lo.model.mmPerUnit - 1 > FIT_SHEETS_TOLERANCE) {
-    if (layouts >= FIT_SHEETS_MAX_LAYOUTS) break;
-    const m = Math.sqrt(lo.model.mmPerUnit * hi.model.mmPerUnit);
-    const t = evaluate(buildAtScale(spec, solid, m));
+  while (lo !== hi && apart(hi, lo) && budgetLeft()) {
+    const t = at(Math.sqrt(lo.model.mmPerUnit * hi.model.mmPerUnit));
     if (t.fits) lo = t;
     else hi = t;
   }

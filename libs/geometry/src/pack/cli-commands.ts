@@ -188,9 +188,12 @@ export function resolveSpecForPack(rawSpec: unknown): unknown {
     throw new CutPackError('PACK.LAYOUT_FAILED', errors.map((e) => e.message).join('; '));
   }
   if (errors.length > 0) {
+    // A fit scale that found no size says why in one sentence: that leads, before the last size's errors.
+    const noFit = errors.filter((e) => e.code === 'SCALE.NO_FIT');
+    const ordered = [...noFit, ...errors.filter((e) => e.code !== 'SCALE.NO_FIT')];
     throw new CutPackError(
       'PACK.DESIGN_INVALID',
-      `the design has errors: ${errors.map((e) => `${e.code}: ${e.message}`).join('; ')}`,
+      `the design has errors: ${ordered.map((e) => `${e.code}: ${e.message}`).join('; ')}`,
       errors.map((e) => e.code),
     );
   }

@@ -90,6 +90,21 @@ describe('fitBed scale', () => {
     expect(sheets.layout?.ok).toBe(true);
   });
 
+  it('says in one sentence that no size fits when even the largest model for the bed has design errors', () => {
+    // A 2 mm bed holds pieces 2 mm across, narrower than the 3 mm stock they slot into: the design errors
+    // of that largest model stand, and a smaller model cannot help.
+    const r = buildModel(cube({ scale: { by: 'fitBed' }, bed: { widthMm: 2, heightMm: 2 } })).report;
+    const codes = r.errors.map((e) => e.code);
+    expect(codes.length).toBeGreaterThan(1);
+    expect(codes.filter((c) => c === 'SCALE.NO_FIT')).toHaveLength(1);
+    expect(r.errors.find((e) => e.code === 'SCALE.NO_FIT')?.message).toMatch(
+      /^no size fits the bed: even the largest model whose pieces fit \(\d+(\.\d)? mm across\) has design errors at 3 mm stock/,
+    );
+    // A bed that holds a sound model gets no such sentence.
+    const fine = buildModel(cube({ scale: { by: 'fitBed' }, bed: { widthMm: 300, heightMm: 300 } })).report;
+    expect(fine.errors).toEqual([]);
+  });
+
   it('holds a fit on a huge bed at the largest scale a spec may give, so the size found can be rebuilt', () => {
     // On a 10 m bed the cube's pieces would fit at a diameter far over MAX_SCALE_MM (10,000 mm).
     const r = buildModel(
