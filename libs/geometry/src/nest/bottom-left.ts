@@ -554,16 +554,31 @@ export function bottomLeftFill(
   const sheetArea = frame.widthMm * frame.heightMm;
   /** The copy at which each sheet opened by this call was opened. */
   const openedAt = new Map<SheetState, number>();
+  // A sheet keeps each variant's feasible region for the part's next copy. Once a part's last copy is
+  // placed, or a sheet turns the part away, its regions there are dropped: hundreds of different parts
+  // would otherwise keep a region each per turn and sheet (gigabytes for a thousand parts).
+  const copiesLeft = new Map<number, number>();
+  for (const c of copies) {
+    const k = c[0]?.partIndex ?? -1;
+    copiesLeft.set(k, (copiesLeft.get(k) ?? 0) + 1);
+  }
+  const dropRegions = (sheet: SheetState, variants: readonly Variant[]) => {
+    for (const v of variants) sheet.regions?.delete(v.key);
+  };
   for (let i = 0; i < copies.length; i++) {
     const variants = copies[i] as readonly Variant[];
     const area = variants[0]?.areaMm2 ?? 0;
+    const partIndex = variants[0]?.partIndex ?? -1;
+    const left = (copiesLeft.get(partIndex) ?? 1) - 1;
+    copiesLeft.set(partIndex, left);
+    if (left === 0) for (const sheet of sheets) dropRegions(sheet, variants);
     let placed = false;
     for (const sheet of sheets) {
       if (sheet.group !== group) continue;
       if (sheet.usedAreaMm2 + area > sheetArea) continue;
-      const partIndex = variants[0]?.partIndex ?? -1;
       if (sheet.full?.has(partIndex)) continue;
       const c = findPosition(cache, frame, sheet, variants, rule);
+      if (!c || left === 0) dropRegions(sheet, variants);
       if (!c) (sheet.full ??= new Set<number>()).add(partIndex);
       if (c) {
         sheet.items.push({ variant: c.variant, tx: c.tx, ty: c.ty });
@@ -578,6 +593,8 @@ export function bottomLeftFill(
     if (repeat) {
       sheets.push(repeat);
       openedAt.set(repeat, i);
+      // The replica holds copies i … i + n − 1, all of this part.
+      copiesLeft.set(partIndex, left - (repeat.items.length - 1));
       i += repeat.items.length - 1;
       continue;
     }

@@ -1,7 +1,7 @@
 import * as polygonClipping from 'polygon-clipping';
 import { reflexCorners, simplifyContaining, SCALE_PER_MM, type IntPath } from './clipper-adapter';
 import { convexPieces } from './convex-decomposition';
-import { clearOfItems, GeometryCache, NFP_MAX_REFLEX, nfpOutline, piecesOrNull } from './variants';
+import { clearOfItems, GeometryCache, NFP_MAX_REFLEX, NfpLru, nfpOutline, piecesOrNull } from './variants';
 import { area, mpArea, type P, regular } from '../test-support/polygons';
 
 const toMm = (p: IntPath): P[] => p.map((q) => [q.X / SCALE_PER_MM, q.Y / SCALE_PER_MM]);
@@ -210,5 +210,35 @@ describe('the direct check of a position on the true outlines', () => {
     }
     expect(clear).toBeGreaterThan(5);
     expect(blocked).toBeGreaterThan(5);
+  });
+});
+
+describe('the bounded cache of no-fit polygons', () => {
+  const entry = (vertices: number) => {
+    const path: IntPath = Array.from({ length: vertices }, (_, i) => ({ X: i, Y: i * i }));
+    return { paths: [path], box: { minX: 0, minY: 0, maxX: vertices, maxY: vertices * vertices } };
+  };
+
+  it('keeps at most its budget of vertices, dropping the least recently used first', () => {
+    const lru = new NfpLru(100);
+    const a = entry(40);
+    lru.set('a', a);
+    lru.set('b', entry(40));
+    // 'a' used again: 'b' is now the least recently used.
+    expect(lru.get('a')?.paths).toBe(a.paths);
+    lru.set('c', entry(40));
+    // 120 > 100: dropped down to 75 at most, least recently used first, never the one just set.
+    expect(lru.get('b')).toBeUndefined();
+    expect(lru.get('a')).toBeUndefined();
+    expect(lru.get('c')?.paths[0]).toHaveLength(40);
+  });
+
+  it('keeps an entry larger than the budget until the next one comes', () => {
+    const lru = new NfpLru(10);
+    lru.set('big', entry(50));
+    expect(lru.get('big')).toBeDefined();
+    lru.set('next', entry(5));
+    expect(lru.get('big')).toBeUndefined();
+    expect(lru.get('next')).toBeDefined();
   });
 });
