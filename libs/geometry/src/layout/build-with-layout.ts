@@ -157,7 +157,7 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
   if (!lo) {
     const model = hi.model;
     summary(model, layouts, false);
-    const sheetText = `${sheets} sheet${sheets === 1 ? '' : 's'} of ${spec.sheet?.widthMm} × ${spec.sheet?.heightMm} mm`;
+    const sheetText = `${sheets} sheet${sheets === 1 ? '' : 's'} of ${lengthText(spec.sheet?.widthMm ?? 0)} × ${lengthText(spec.sheet?.heightMm ?? 0)} mm`;
     const stock = `${spec.stock.thicknessMm} mm stock`;
     model.report.errors.push({
       code: 'SCALE.NO_FIT',
