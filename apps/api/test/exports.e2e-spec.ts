@@ -534,8 +534,13 @@ describe('cut packs whose job changes while they are built', () => {
     expect(view).toMatchObject({ state: 'failed', errorCode: code, files: [] });
     const rows: unknown[] = await ctx.db.query(`SELECT 1 FROM export_files WHERE export_id = $1`, [exportId]);
     expect(rows).toHaveLength(0);
+    // The worker deletes what the attempts stored right after recording the failure (never before: a done
+    // export's files are never touched): give it a moment.
     const storage = ctx.app.get<ObjectStorage>(OBJECT_STORAGE);
-    expect(await storage.list(`jobs/${jobId}/exports/${exportId}/`)).toEqual([]);
+    const prefix = `jobs/${jobId}/exports/${exportId}/`;
+    const until = Date.now() + 10_000;
+    while ((await storage.list(prefix)).length > 0 && Date.now() < until) await sleep(100);
+    expect(await storage.list(prefix)).toEqual([]);
     const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.operator)).expect(200);
     expect(job.body.transitions.filter((t: { action: string }) => t.action === 'release')).toHaveLength(0);
     await acknowledge(ctx, p.operator, jobId);
