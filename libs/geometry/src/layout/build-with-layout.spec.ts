@@ -114,6 +114,15 @@ describe('sheet count', () => {
 });
 
 describe('fitSheets scale', () => {
+  /** A tetrahedron of {5/2} stars fitted to one 600 × 400 sheet (5 mm margin, 3 mm gap), in stock this thick. */
+  const tetrahedronStars = (thicknessMm: number) =>
+    ({
+      solid: 'tetrahedron',
+      piece: { sides: 5, step: 2, size: 1.85 },
+      scale: { by: 'fitSheets', sheets: 1 },
+      stock: { thicknessMm, sheet, marginMm: 5, gapMm: 3 },
+      machine: { kind: 'laser', kerfMm: 0.15 },
+    }) as unknown as DesignSpec;
   const spec = (sheets: number) =>
     withSheet(cubeSquares45(1.5), { scale: { by: 'fitSheets', sheets } }) as unknown as DesignSpec;
 
@@ -147,14 +156,7 @@ describe('fitSheets scale', () => {
     // A tetrahedron of {5/2} stars in 3 mm stock on one 600 × 400 sheet: at the area bound and a step of 15 %
     // below it the stars need two sheets, two steps below the slots cut the thin points off. The sizes
     // that fit lie in the narrow window between, which the search must bisect rather than step over.
-    const star: DesignSpec = {
-      solid: 'tetrahedron',
-      piece: { sides: 5, step: 2, size: 1.85 },
-      scale: { by: 'fitSheets', sheets: 1 },
-      stock: { thicknessMm: 3, sheet, marginMm: 5, gapMm: 3 },
-      machine: { kind: 'laser', kerfMm: 0.15 },
-    } as unknown as DesignSpec;
-    const { model, resolvedSpec } = buildWithLayout(star);
+    const { model, resolvedSpec } = buildWithLayout(tetrahedronStars(3));
     const r = model.report;
     expect(r.errors).toEqual([]);
     expect(r.scale).toMatchObject({ method: 'fitSheets', resolved: true });
@@ -167,13 +169,7 @@ describe('fitSheets scale', () => {
   });
 
   it('says why no size fits when even the largest model for the sheets has design errors', () => {
-    const star = {
-      solid: 'tetrahedron',
-      piece: { sides: 5, step: 2, size: 1.85 },
-      scale: { by: 'fitSheets', sheets: 1 },
-      stock: { thicknessMm: 10, sheet, marginMm: 5, gapMm: 3 },
-      machine: { kind: 'laser', kerfMm: 0.15 },
-    } as unknown as DesignSpec;
+    const star = tetrahedronStars(10);
     const r = buildWithLayout(star).model.report;
     // The model reported is the largest (the upper bound), not one stepped down into worse errors.
     expect(r.diameterMm).toBeCloseTo(buildModel(star).report.diameterMm, 6);

@@ -1,4 +1,4 @@
-import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { ApiProperty, ApiPropertyOptional, PickType } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
 import {
   ArrayMaxSize,
@@ -53,18 +53,11 @@ export class JobActionDto {
   version: number;
 }
 
-/** Changing a draft's request: how many copies, and the requester's notes (each optional). */
-export class UpdateJobDto {
+/** Changing a draft's request: how many copies, and the requester's notes (each optional, as at creation). */
+export class UpdateJobDto extends PickType(CreateJobDto, ['quantity', 'notes'] as const) {
   @ApiProperty({ description: 'The job version you read; a stale one gets 409' })
   @IsRowVersion()
   version: number;
-  @ApiPropertyOptional({ minimum: 1, maximum: 100 })
-  @IsOptional()
-  @IsInt()
-  @Min(1)
-  @Max(100)
-  quantity?: number;
-  @ApiPropertyOptional({ maxLength: 2000 }) @IsOptional() @IsString() @MaxLength(2000) notes?: string;
 }
 
 /** Queueing a cut pack: the job version read, optional (a job action that leaves it out is not compared). */

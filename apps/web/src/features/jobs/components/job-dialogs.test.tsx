@@ -248,6 +248,16 @@ const draftOnly = {
   createdAt: '2026-01-01T00:00:00.000Z',
 } as unknown as MachineProfileSummaryView;
 
+/** The material and profile lists the Prepare dialog reads. */
+function stubLists(materials: readonly MaterialView[], profiles: readonly MachineProfileSummaryView[]) {
+  return stubFetch({
+    'GET /api/materials': () =>
+      json(200, { items: materials, total: materials.length, page: 1, pageSize: 100 }),
+    'GET /api/machine-profiles': () =>
+      json(200, { items: profiles, total: profiles.length, page: 1, pageSize: 100 }),
+  });
+}
+
 describe('prepare job dialog', () => {
   it('needs a material, an approved profile version and a colour, and sends the chosen sheet', async () => {
     stubFetch({
@@ -285,11 +295,7 @@ describe('prepare job dialog', () => {
   });
 
   it("opens with the job's last preparation: material, colours, sheet either way round, rule and profile", async () => {
-    stubFetch({
-      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
-      'GET /api/machine-profiles': () =>
-        json(200, { items: [laser, draftOnly], total: 2, page: 1, pageSize: 100 }),
-    });
+    stubLists([acrylic], [laser, draftOnly]);
     const onSubmit = vi.fn();
     const { user } = renderWithProviders(
       <PrepareJobDialog
@@ -329,10 +335,7 @@ describe('prepare job dialog', () => {
   });
 
   it('opens with nothing chosen when the material prepared with is no longer listed', async () => {
-    stubFetch({
-      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
-      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
-    });
+    stubLists([acrylic], [laser]);
     renderWithProviders(
       <PrepareJobDialog
         open
