@@ -10,9 +10,17 @@ describe('the sheets summary', () => {
     const fitted = { sheets: [], diameterMm: 325.0, sheetsAsked: 3, failure: null };
     const summary = sheetsSummary({ ...fitted, sheets: new Array(2).fill(null) }, fmt);
     expect(summary).toBe(
-      'Largest size on 3 sheets: diameter 325.0 mm, using 2 (found by a search to within 0.5 %: ' +
+      'Largest size on 3 sheets: diameter 325.0 mm, using 2 sheets (found by a search to within 0.5 %: ' +
         'one sheet more can even come out slightly smaller).',
     );
+  });
+
+  it('says plainly that no size fits, and that the model shown is only the last size tried', () => {
+    const summary = sheetsSummary(
+      { sheets: [], diameterMm: 489.6, sheetsAsked: 1, failure: 'no size fits 1 sheet …' },
+      fmt,
+    );
+    expect(summary).toBe('No size fits 1 sheet; the model shown is the last size tried, 489.6 mm across.');
   });
 
   it('claims no search for a size given as it is', () => {

@@ -36,9 +36,10 @@ export function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string):
   const size = fmt(value.diameterMm);
   if (value.sheetsAsked !== null)
     return value.sheets.length > 0
-      ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${size}, using ${value.sheets.length} ` +
+      ? `Largest size on ${countOf(value.sheetsAsked, 'sheet')}: diameter ${size}, using ${countOf(value.sheets.length, 'sheet')} ` +
           `(found by a search to within ${FIT_SHEETS_TOLERANCE * 100} %: one sheet more can even come out slightly smaller).`
-      : `No size found on ${countOf(value.sheetsAsked, 'sheet')}: the search stopped at diameter ${size}.`;
+      : // The search's own sentence (why no size fits) follows as the failure; the model shown is the last tried.
+        `No size fits ${countOf(value.sheetsAsked, 'sheet')}; the model shown is the last size tried, ${size} across.`;
   return value.sheets.length > 0
     ? `At diameter ${size} the pieces need ${countOf(value.sheets.length, 'sheet')}.`
     : `The pieces could not be laid out at diameter ${size}.`;

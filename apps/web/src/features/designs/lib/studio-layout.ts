@@ -34,7 +34,11 @@ export function layOutStudio(
   if (spec.scale.by === 'fitSheets') {
     const colours = colourCount > 1 ? { colours: { count: colourCount, rule: colourRule } } : {};
     const { model, layout } = buildWithLayout({ ...spec, ...colours });
-    const failure = model.report.errors[0]?.message ?? (layout && !layout.ok ? layout.message : null);
+    // When no size fits, the search says why in one sentence (SCALE.NO_FIT): that, before any single error.
+    const errors = model.report.errors;
+    const failure =
+      (errors.find((e) => e.code === 'SCALE.NO_FIT') ?? errors[0])?.message ??
+      (layout && !layout.ok ? layout.message : null);
     return {
       sheets: layout?.ok ? sheetViews(model, layout, sheet) : [],
       diameterMm: model.report.diameterMm,
