@@ -534,7 +534,7 @@ describe('jobs through their states', () => {
     );
     expectErrorBody(res.body, 409, 'JOB.LAYOUT_FAILED');
     expect(res.body.message).toBe(
-      'The colour rule “vertex-distinct” cannot be met with 2 colours; it needs at least 4. ' +
+      'The colour rule “All pieces around a vertex differ” cannot be met with 2 colours; it needs at least 4. ' +
         'Choose more colours of stock, or another rule.',
     );
   });

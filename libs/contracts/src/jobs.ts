@@ -201,3 +201,10 @@ export interface JobDetailView extends JobView {
 /** Rules that share a model's pieces among stock colours (see the geometry library's colour plans). */
 export const COLOUR_RULES = ['neighbour-distinct', 'vertex-distinct', 'opposite-match'] as const;
 export type ColourRuleName = (typeof COLOUR_RULES)[number];
+
+/** How each colour rule is named to people (forms, messages); the rule's id stays in the saved spec. */
+export const COLOUR_RULE_LABELS: Record<ColourRuleName, string> = {
+  'neighbour-distinct': 'Neighbours differ',
+  'vertex-distinct': 'All pieces around a vertex differ',
+  'opposite-match': 'Opposite pieces match, neighbours differ',
+};

@@ -1,6 +1,7 @@
 import { HttpStatus, Injectable } from '@nestjs/common';
 import { type EntityManager } from 'typeorm';
 import {
+  COLOUR_RULE_LABELS,
   type ColourRuleName,
   type DesignSpec,
   type DesignSpecInput,
@@ -161,7 +162,7 @@ export class JobPreparationService {
       // sentence for the workshop, with what to do about it.
       const message =
         failure.code === 'LAYOUT.NO_COLOUR_PLAN'
-          ? `The colour rule “${colourRule ?? 'neighbour-distinct'}” ${failure.message.replace(/^no plan exists: rule "[^"]*" /, '')}. ` +
+          ? `The colour rule “${COLOUR_RULE_LABELS[colourRule ?? 'neighbour-distinct']}” ${failure.message.replace(/^no plan exists: rule "[^"]*" /, '')}. ` +
             'Choose more colours of stock, or another rule.'
           : failure.message;
       throw new AppError(HttpStatus.CONFLICT, 'JOB.LAYOUT_FAILED', message, {

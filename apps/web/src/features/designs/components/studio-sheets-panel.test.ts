@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { formatLength } from '../../../lib/units';
-import { defaultEstimateChoice, materialThickness, sheetsSummary } from './studio-sheets-panel';
+import {
+  defaultEstimateChoice,
+  failureSentence,
+  materialThickness,
+  sheetsSummary,
+} from './studio-sheets-panel';
 
 const fmt = (mm: number) => formatLength(mm, 'mm');
 
@@ -21,6 +26,17 @@ describe('the sheets summary', () => {
       fmt,
     );
     expect(summary).toBe('No size fits 1 sheet; the model shown is the last size tried, 489.6 mm across.');
+  });
+
+  it('names a colour rule the engine cannot meet as the form names it, and makes other reasons sentences', () => {
+    expect(
+      failureSentence(
+        'no plan exists: rule "neighbour-distinct" cannot be met with 2 colours; it needs at least 4',
+      ),
+    ).toBe('“Neighbours differ” cannot be met with 2 colours: it needs at least 4.');
+    expect(failureSentence('no size fits 1 sheet of 600 × 400 mm')).toBe(
+      'No size fits 1 sheet of 600 × 400 mm.',
+    );
   });
 
   it('claims no search for a size given as it is', () => {

@@ -25,6 +25,7 @@ import { type BuiltPreview } from '../hooks/use-built-model';
 import { type StudioFit } from '../hooks/use-studio-preview';
 import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
+import { colourPlanSentence } from './colour-plan-notice';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
 /**
@@ -43,6 +44,20 @@ export function sheetsSummary(value: StudioSheets, fmt: (mm: number) => string):
   return value.sheets.length > 0
     ? `At diameter ${size} the pieces need ${countOf(value.sheets.length, 'sheet')}.`
     : `The pieces could not be laid out at diameter ${size}.`;
+}
+
+/**
+ * What the layout or the fit could not do, for the page: the engine's "no plan exists: rule "…" cannot be met
+ * with k colours; it needs at least m" names the rule as the form does; other reasons become sentences.
+ */
+export function failureSentence(failure: string): string {
+  if (!/^no plan exists/i.test(failure)) {
+    // The engine writes its reasons as clauses ("no size fits 1 sheet …"): a sentence here.
+    const sentence = failure.charAt(0).toUpperCase() + failure.slice(1);
+    return /[.!?]$/.test(sentence) ? sentence : `${sentence}.`;
+  }
+  const fewest = Number(/needs at least (\d+)/.exec(failure)?.[1]);
+  return colourPlanSentence(failure, Number.isInteger(fewest) && fewest > 0 ? fewest : null);
 }
 
 /** A material within this of the design's stock thickness is taken as that thickness (mm). */
@@ -240,7 +255,7 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
           </Typography>
           {value.failure ? (
             <Alert severity="error" sx={{ mb: 1 }}>
-              {value.failure}
+              {failureSentence(value.failure)}
             </Alert>
           ) : null}
           {choices.length > 0 && value.sheets.length > 0 ? (
