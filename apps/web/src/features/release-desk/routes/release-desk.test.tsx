@@ -403,8 +403,12 @@ describe('release desk', () => {
     expect(scrollTo).toHaveBeenCalledWith({ top: 0 });
     scrollTo.mockRestore();
     expect(screen.queryByRole('list', { name: 'Jobs at the release desk' })).not.toBeInTheDocument();
+    // The keyboard follows: the job's name has the focus, not the page (the button used is gone).
+    expect(within(job).getByRole('heading', { name: 'Turned squares' })).toHaveFocus();
     await user.click(screen.getByRole('button', { name: 'Back to the jobs at the desk (2)' }));
     expect(await screen.findByRole('list', { name: 'Jobs at the release desk' })).toBeInTheDocument();
     expect(screen.queryByTestId('desk-job')).not.toBeInTheDocument();
+    // Back on the list, on the button of the job just left.
+    await waitFor(() => expect(screen.getByRole('button', { name: 'Open Turned squares' })).toHaveFocus());
   });
 });

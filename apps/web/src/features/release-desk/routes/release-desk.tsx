@@ -49,6 +49,14 @@ export function ReleaseDeskRoute() {
   const selected = detail.data ?? desk.rows.find((r) => r.job.id === selectedId)?.job ?? null;
   // On a phone the seven columns do not fit: each job is a card of its own, its Open button in reach.
   const phone = useMediaQuery(useTheme().breakpoints.down('sm'));
+  // Back from a job on a phone, the card it was opened from comes back into view with the focus on its button.
+  const backTo = useRef<string | null>(null);
+  useEffect(() => {
+    if (selectedId !== null || backTo.current === null) return;
+    const button = document.querySelector<HTMLElement>(`[data-open-job="${backTo.current}"]`);
+    backTo.current = null;
+    button?.focus();
+  }, [selectedId]);
   return (
     <Box data-testid="release-desk">
       <title>Release desk · Kerfwright</title>
@@ -74,7 +82,15 @@ export function ReleaseDeskRoute() {
         <DeskCards rows={desk.rows} selectedId={selectedId} onOpen={setSelectedId} />
       ) : null}
       {phone && selected ? (
-        <Button variant="outlined" fullWidth onClick={() => setSelectedId(null)} sx={{ mb: 1 }}>
+        <Button
+          variant="outlined"
+          fullWidth
+          onClick={() => {
+            backTo.current = selectedId;
+            setSelectedId(null);
+          }}
+          sx={{ mb: 1 }}
+        >
           {`Back to the jobs at the desk (${desk.rows.length})`}
         </Button>
       ) : null}
@@ -163,7 +179,7 @@ function DeskCards({
           <Box sx={{ my: 1 }}>
             <PackProgress jobId={job.id} newest={newest} />
           </Box>
-          <Button variant="outlined" fullWidth onClick={() => onOpen(job.id)}>
+          <Button variant="outlined" fullWidth onClick={() => onOpen(job.id)} data-open-job={job.id}>
             {`Open ${job.designName}`}
           </Button>
         </Paper>
@@ -184,11 +200,14 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   // Opened from the table, the job below it comes into view; on a phone it replaced the list, so the page
   // starts at its top.
   const ref = useRef<HTMLDivElement>(null);
+  const heading = useRef<HTMLHeadingElement>(null);
   useEffect(() => {
     // A block body: the effect must return nothing, and Chromium's scrollIntoView returns a promise, which
     // React would otherwise call as the effect's clean-up when the job is closed.
     if (phone) window.scrollTo?.({ top: 0 });
     else void ref.current?.scrollIntoView?.({ block: 'start', behavior: 'smooth' });
+    // The keyboard follows: the job's name takes the focus (on a phone the button used is gone).
+    heading.current?.focus({ preventScroll: true });
     // On opening only: turning the phone does not scroll the page again.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
@@ -200,7 +219,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="desk-job" ref={ref}>
       <Stack direction="row" spacing={2} sx={{ alignItems: 'center', mb: 1, flexWrap: 'wrap' }} useFlexGap>
-        <Typography variant="h2" sx={{ flex: 1 }}>
+        <Typography variant="h2" sx={{ flex: 1, '&:focus': { outline: 'none' } }} tabIndex={-1} ref={heading}>
           {job.designName}
         </Typography>
         <JobStateChip state={job.state} />
