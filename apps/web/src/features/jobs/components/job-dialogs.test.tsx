@@ -323,6 +323,8 @@ describe('prepare job dialog', () => {
     expect(screen.getByLabelText('clear')).not.toBeChecked();
     expect(screen.getByLabelText('Sheet')).toHaveValue('1');
     expect(screen.getByLabelText('Colour rule')).toHaveValue('opposite-match');
+    // Everything is still offered (the retired version's profile has an approved one): nothing to say.
+    expect(screen.queryByTestId('prepare-not-offered')).not.toBeInTheDocument();
     await user.click(screen.getByRole('button', { name: 'Prepare' }));
     await waitFor(() => expect(onSubmit).toHaveBeenCalled());
     expect(onSubmit.mock.calls[0]?.[0]).toEqual({
@@ -349,6 +351,36 @@ describe('prepare job dialog', () => {
     await screen.findByRole('option', { name: 'Cast acrylic 3 mm' });
     expect(screen.getByLabelText('Material')).toHaveValue('');
     expect(screen.getByLabelText('Machine profile (approved version)')).toHaveValue('');
+    expect(await screen.findByTestId('prepare-not-offered')).toHaveTextContent(
+      'Since the job was last prepared: The material the job was prepared with is no longer listed: choose one.',
+    );
+  });
+
+  it('says what of the last preparation the material no longer stocks: a colour, the sheet size', async () => {
+    stubLists([acrylic], [laser]);
+    renderWithProviders(
+      <PrepareJobDialog
+        open
+        jobColours={['amber', 'coral']}
+        prepared={{
+          materialId: 'm-acrylic',
+          profileVersionId: 'v-approved',
+          profileName: 'CO2 laser',
+          sheet: { widthMm: 500, heightMm: 300 },
+        }}
+        busy={false}
+        error={null}
+        onSubmit={vi.fn()}
+        onClose={noop}
+      />,
+    );
+    const note = await screen.findByTestId('prepare-not-offered');
+    expect(note).toHaveTextContent('Cast acrylic 3 mm no longer stocks coral.');
+    expect(note).toHaveTextContent(
+      'Cast acrylic 3 mm no longer lists 500 × 300 mm sheets, the size the job was laid out on: check the sheet below.',
+    );
+    expect(screen.getByLabelText('amber')).toBeChecked();
+    expect(screen.getByLabelText('Sheet')).toHaveValue('0');
   });
 
   it('clears the chosen profile version when a material it has no settings for is chosen', async () => {

@@ -157,22 +157,43 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
   // offers it (a select takes only a value it has an option for).
   const [prefilled, setPrefilled] = useState(false);
   const [pendingProfile, setPendingProfile] = useState<string | null>(null);
+  /** What of the last preparation is not offered any more, said above the fields. */
+  const [notOffered, setNotOffered] = useState<string[]>([]);
   const before = props.prepared;
   useEffect(() => {
     if (prefilled || !before || !materials.data || !profiles.data) return;
     setPrefilled(true);
     const m = materials.data.items.find((x) => x.id === before.materialId);
     if (before.colourRule) setValue('colourRule', before.colourRule);
-    if (!m) return;
+    if (!m) {
+      setNotOffered(['The material the job was prepared with is no longer listed: choose one.']);
+      return;
+    }
+    const notes: string[] = [];
     setValue('materialId', m.id);
-    setValue('colours', stockedColours(m, props.jobColours ?? []));
+    const colours = stockedColours(m, props.jobColours ?? []);
+    setValue('colours', colours);
+    const gone = (props.jobColours ?? []).filter(
+      (c) => !colours.some((k) => k.trim().toLowerCase() === c.trim().toLowerCase()),
+    );
+    if (gone.length > 0) notes.push(`${m.name} no longer stocks ${gone.join(', ')}.`);
     const sheet = before.sheet ? stockSheetIndex(m.stockSheets, before.sheet) : -1;
     setValue('sheetIndex', String(Math.max(0, sheet)));
+    if (before.sheet && sheet < 0 && m.stockSheets.length > 0) {
+      notes.push(
+        `${m.name} no longer lists ${before.sheet.widthMm} × ${before.sheet.heightMm} mm sheets, the size ` +
+          'the job was laid out on: check the sheet below.',
+      );
+    }
     const offered = profilesFor(profiles.data.items, m);
     const same =
       offered.find((p) => p.currentApproved?.id === before.profileVersionId) ??
       offered.find((p) => p.name === before.profileName);
     if (same?.currentApproved) setPendingProfile(same.currentApproved.id);
+    else if (before.profileName) {
+      notes.push(`${before.profileName} is not offered for ${m.name} any more: choose a machine profile.`);
+    }
+    setNotOffered(notes);
   }, [prefilled, before, materials.data, profiles.data, props.jobColours, setValue]);
   const offeredNow =
     pendingProfile && approved.some((p) => p.currentApproved?.id === pendingProfile) ? pendingProfile : null;
@@ -208,6 +229,11 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
       onClose={props.onClose}
     >
       {materials.isError ? <FormErrorAlert error={materials.error} /> : null}
+      {notOffered.length > 0 ? (
+        <Alert severity="info" sx={{ mb: 1 }} data-testid="prepare-not-offered">
+          {['Since the job was last prepared:', ...notOffered].join(' ')}
+        </Alert>
+      ) : null}
       {profiles.isError ? <FormErrorAlert error={profiles.error} /> : null}
       <Stack spacing={2} sx={{ mt: 1 }}>
         <FormTextField
