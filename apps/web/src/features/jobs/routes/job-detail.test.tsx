@@ -221,7 +221,7 @@ describe('job detail', () => {
     await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
     expect(await screen.findByText('Changed in another tab')).toBeInTheDocument();
     expect(screen.getByTestId('job-read-again')).toHaveTextContent(
-      'Someone else changed this job while you had it open, so your changes were not saved.',
+      'The job was changed elsewhere (by someone else, or in another tab) while you had it open, so your changes were not saved.',
     );
   });
 

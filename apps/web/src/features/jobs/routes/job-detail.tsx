@@ -207,8 +207,8 @@ function JobDetail({ job }: { job: JobDetailView }) {
       ) : null}
       {change.error && isChangeOvertaken(change.error) ? (
         <Alert severity="info" sx={{ mb: 2 }} data-testid="job-read-again">
-          Someone else changed this job while you had it open, so your changes were not saved. The page now
-          shows it as it is: check it before you change it again.
+          The job was changed elsewhere (by someone else, or in another tab) while you had it open, so your
+          changes were not saved. The page now shows it as it is: check it before you change it again.
         </Alert>
       ) : null}
       {action.error && isJobChangedSince(action.error) ? (
