@@ -30,7 +30,8 @@ import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { ParseIdPipe } from '../common/pipes/parse-id.pipe';
 import { JobActionDto, RequestExportDto } from '../jobs/dto/job.dto';
 import { ExportRequestedDto, ExportViewDto } from './dto/export.dto';
-import { assertVersion, ExportsService } from './exports.service';
+import { ExportsService } from './exports.service';
+import { assertVersion } from '../jobs/job-access';
 
 const ID = new ParseIdPipe();
 /** Content types of cut-pack files: DXF/SVG drawings, PDF sheets and guide, the JSON manifest, the ZIP archive. */

@@ -20,7 +20,7 @@ import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
 import { withDeadline } from '../common/with-deadline';
 import { Job } from '../jobs/job.entity';
-import { canReadJob } from '../jobs/job-access';
+import { assertVersion, canReadJob } from '../jobs/job-access';
 import { JobPreparationService } from '../jobs/job-preparation.service';
 import { noticeVersionKeys, SafetyService } from '../safety/safety.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
@@ -310,17 +310,5 @@ export class ExportsService {
         ? { safetyChanged: await this.safetyChanged(exp, versions) }
         : {}),
     };
-  }
-}
-
-/** 409 JOB.STALE_VERSION when the job is no longer at the version the caller read. */
-export function assertVersion(job: Pick<Job, 'version'>, version: number): void {
-  if (job.version !== version) {
-    throw new AppError(
-      HttpStatus.CONFLICT,
-      'JOB.STALE_VERSION',
-      'The job changed since you read it; reload it and try again',
-      { current: job.version },
-    );
   }
 }

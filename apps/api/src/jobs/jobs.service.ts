@@ -31,7 +31,7 @@ import {
   type RecordCutDto,
   type UpdateJobDto,
 } from './dto/job.dto';
-import { canReadJob } from './job-access';
+import { assertVersion, canReadJob } from './job-access';
 import { Job, JobTransition } from './job.entity';
 import { JobMailer } from './job-mailer';
 import { JobPreparationService } from './job-preparation.service';
@@ -303,14 +303,7 @@ export class JobsService {
           { state: job.state, editableIn: JOB_EDITABLE_STATES },
         );
       }
-      if (job.version !== dto.version) {
-        throw new AppError(
-          HttpStatus.CONFLICT,
-          'JOB.STALE_VERSION',
-          'The job changed since you read it; reload it and try again',
-          { current: job.version },
-        );
-      }
+      assertVersion(job, dto.version);
       const before = { quantity: job.quantity, notes: job.notes };
       if (dto.quantity !== undefined && dto.quantity !== job.quantity) {
         job.quantity = dto.quantity;
@@ -488,16 +481,7 @@ export class JobsService {
           },
         );
       }
-      if (job.version !== version) {
-        throw new AppError(
-          HttpStatus.CONFLICT,
-          'JOB.STALE_VERSION',
-          'The job changed since you read it; reload it and try again',
-          {
-            current: job.version,
-          },
-        );
-      }
+      assertVersion(job, version);
       await apply(m, job);
       await this.applyTransition(m, job, action, user.id, requestIdOf(req), reason);
       return this.detail(m, user, id);

@@ -319,7 +319,6 @@ export function congruence(
   return null;
 }
 
-/** Builds and caches variants and no-fit polygons for one nesting run. */
 /**
  * Vertices of no-fit polygons a cache keeps (per map), least recently used first out. Different parts rarely
  * meet again once placed, so their polygons are seldom used twice: unbounded, 800 different parts kept
@@ -347,8 +346,9 @@ export class NfpLru {
   set(key: string, entry: NfpEntry): void {
     let vertices = 0;
     for (const p of entry.paths) vertices += p.length;
+    this.vertices += vertices - (this.map.get(key)?.vertices ?? 0);
+    this.map.delete(key);
     this.map.set(key, { ...entry, vertices });
-    this.vertices += vertices;
     if (this.vertices <= this.budget) return;
     // Down to three quarters of the budget at once, so that eviction runs now and then, not every time.
     for (const [k, e] of this.map) {
@@ -359,6 +359,7 @@ export class NfpLru {
   }
 }
 
+/** Builds and caches variants and no-fit polygons for one nesting run. */
 export class GeometryCache {
   private readonly variants = new Map<string, Variant>();
   private readonly nfps = new NfpLru(NFP_CACHE_VERTICES);

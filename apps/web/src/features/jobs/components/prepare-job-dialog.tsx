@@ -62,10 +62,12 @@ function stockSheetIndex(
 
 /** The job's colours that a material stocks, spelt as the material spells them, in the material's order. */
 function stockedColours(material: { colours: readonly string[] } | undefined, wanted: readonly string[]) {
-  const key = (c: string) => c.trim().toLowerCase();
-  const asked = new Set(wanted.map(key));
-  return (material?.colours ?? []).filter((c) => asked.has(key(c)));
+  const asked = new Set(wanted.map(colourKey));
+  return (material?.colours ?? []).filter((c) => asked.has(colourKey(c)));
 }
+
+/** A colour as stock lists compare it: "Amber " and "amber" are one colour. */
+const colourKey = (c: string) => c.trim().toLowerCase();
 
 /** How many colours of stock a design is drawn in, and by which rule (one colour: no rule applies). */
 export function designColours(design: DesignView | undefined): {
@@ -173,9 +175,8 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     setValue('materialId', m.id);
     const colours = stockedColours(m, props.jobColours ?? []);
     setValue('colours', colours);
-    const gone = (props.jobColours ?? []).filter(
-      (c) => !colours.some((k) => k.trim().toLowerCase() === c.trim().toLowerCase()),
-    );
+    const stocked = new Set(colours.map(colourKey));
+    const gone = (props.jobColours ?? []).filter((c) => !stocked.has(colourKey(c)));
     if (gone.length > 0) notes.push(`${m.name} no longer stocks ${gone.join(', ')}.`);
     const sheet = before.sheet ? stockSheetIndex(m.stockSheets, before.sheet) : -1;
     setValue('sheetIndex', String(Math.max(0, sheet)));
