@@ -573,7 +573,13 @@ describe('jobs through their states', () => {
         version: number;
         quantity: number;
         notes: string;
-        preparation: { pieceCount: number } | null;
+        preparation: {
+          pieceCount: number;
+          sheet: { widthMm: number; heightMm: number };
+          marginMm: number;
+          gapMm: number;
+        } | null;
+        layoutChoice: unknown;
       };
     // Requested, then prepared, then returned and reopened: a draft carrying the old layout for one copy.
     await act(users.hobbyist, job.id, 'request');
@@ -609,6 +615,10 @@ describe('jobs through their states', () => {
     );
     const twice = await patch(users.hobbyist, { version: noted.body.version, quantity: 2 });
     expect(twice.body).toMatchObject({ state: 'draft', quantity: 2, preparation: null });
+    // The layout's figures go, its choices stay: the next Prepare starts from the same sheet and spacing.
+    const { sheet, marginMm, gapMm } = draft.preparation!;
+    expect(draft.layoutChoice).toEqual({ sheet, marginMm, gapMm });
+    expect(twice.body.layoutChoice).toEqual(draft.layoutChoice);
     const audit: { before: unknown; after: unknown }[] = await ctx.db.query(
       `SELECT before, after FROM audit_events WHERE entity_id = $1 AND action = 'job.update' ORDER BY id`,
       [job.id],
@@ -616,6 +626,23 @@ describe('jobs through their states', () => {
     expect(audit.map((a) => a.after)).toEqual([
       expect.objectContaining({ quantity: 1, notes: 'Two copies, please' }),
       expect.objectContaining({ quantity: 2, notes: 'Two copies, please' }),
+    ]);
+    // The job's history says what changed and who changed it, beside its steps.
+    const history = (await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.hobbyist)).expect(200)).body
+      .transitions as { from: string; to: string; action: string; reason: string; actorId: string }[];
+    expect(history.filter((t) => t.action === 'change')).toEqual([
+      expect.objectContaining({
+        from: 'draft',
+        to: 'draft',
+        reason: 'notes changed',
+        actorId: users.hobbyist.id,
+      }),
+      expect.objectContaining({
+        from: 'draft',
+        to: 'draft',
+        reason: 'copies 1 → 2; the earlier layout was dropped',
+        actorId: users.hobbyist.id,
+      }),
     ]);
     // Requested again and prepared, the layout is for two copies.
     await act(users.hobbyist, job.id, 'request');

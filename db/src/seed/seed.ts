@@ -1,7 +1,12 @@
 import { randomUUID } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { type DataSource, type EntityManager } from 'typeorm';
-import { type MaterialHazard, type SafetyNotice, toEstimateMachine } from '@kerfwright/contracts';
+import {
+  layoutChoiceOf,
+  type MaterialHazard,
+  type SafetyNotice,
+  toEstimateMachine,
+} from '@kerfwright/contracts';
 import { designPreview, buildModel, prepareCut } from '@kerfwright/geometry';
 import { preparationEstimate } from '@kerfwright/geometry/pack';
 import { jobSpec, type Scenario, type ScenarioJob } from '../content';
@@ -305,8 +310,8 @@ async function seedJob(
   const hasMachine = reached.some((st) => PREPARED_STATES.has(st)) || job.state === 'returned';
   const rows: { id: string }[] = await m.query(
     `INSERT INTO jobs (seed_key, design_id, requester_id, state, spec, material_id, colours, profile_version_id, quantity, notes,
-       return_reason, preparation, actual_minutes, sheets_used, measured_kerf_mm)
-     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15) RETURNING id`,
+       return_reason, preparation, layout_choice, actual_minutes, sheets_used, measured_kerf_mm)
+     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16) RETURNING id`,
     [
       job.key,
       idOf(ids.designs, job.design, 'design'),
@@ -320,6 +325,7 @@ async function seedJob(
       job.title,
       job.returnReason ?? null,
       preparation ? JSON.stringify(preparation) : null,
+      preparation ? JSON.stringify(layoutChoiceOf(preparation)) : null,
       job.cutRecord?.actualMinutes ?? null,
       job.cutRecord ? (preparation?.sheetCount ?? null) : null,
       job.cutRecord?.measuredKerfMm ?? null,

@@ -163,6 +163,27 @@ export interface JobPreparation {
   };
 }
 
+/**
+ * The layout choices of a job's last preparation: kept when a change of copies drops the preparation's
+ * figures, so preparing again starts from the same sheet and colour rule.
+ */
+export interface JobLayoutChoice {
+  sheet: { widthMm: number; heightMm: number };
+  colourRule?: ColourRuleName;
+  marginMm?: number;
+  gapMm?: number;
+}
+
+/** The layout choices a preparation was made with (what `JobView.layoutChoice` keeps). */
+export function layoutChoiceOf(p: JobPreparation): JobLayoutChoice {
+  return {
+    sheet: { widthMm: p.sheet.widthMm, heightMm: p.sheet.heightMm },
+    ...(p.colourRule ? { colourRule: p.colourRule } : {}),
+    ...(p.marginMm !== undefined ? { marginMm: p.marginMm } : {}),
+    ...(p.gapMm !== undefined ? { gapMm: p.gapMm } : {}),
+  };
+}
+
 export interface JobView {
   id: string;
   state: JobState;
@@ -184,6 +205,8 @@ export interface JobView {
   preparedByCaller?: boolean;
   returnReason: string | null;
   preparation: JobPreparation | null;
+  /** The sheet and colour rule the job was last prepared with (null: never prepared). */
+  layoutChoice?: JobLayoutChoice | null;
   actualMinutes: number | null;
   sheetsUsed: number | null;
   measuredKerfMm: number | null;

@@ -8,7 +8,13 @@ import {
   UpdateDateColumn,
   VersionColumn,
 } from 'typeorm';
-import { type DesignSpec, JOB_STATES, type JobPreparation, type JobState } from '@kerfwright/contracts';
+import {
+  type DesignSpec,
+  JOB_STATES,
+  type JobLayoutChoice,
+  type JobPreparation,
+  type JobState,
+} from '@kerfwright/contracts';
 import { numericColumn } from '../common/db-helpers';
 import { Design } from '../designs/design.entity';
 import { User } from '../users/user.entity';
@@ -32,6 +38,8 @@ export class Job {
   @Column({ type: 'text', default: '' }) notes: string;
   @Column({ name: 'return_reason', type: 'text', nullable: true }) returnReason: string | null;
   @Column({ type: 'jsonb', nullable: true }) preparation: JobPreparation | null;
+  /** The last preparation's sheet, colour rule, margin and gap; outlives its figures (a change of copies). */
+  @Column({ name: 'layout_choice', type: 'jsonb', nullable: true }) layoutChoice: JobLayoutChoice | null;
   @Column({ name: 'actual_minutes', type: 'numeric', nullable: true, transformer: numericColumn })
   actualMinutes: number | null;
   @Column({ name: 'sheets_used', type: 'integer', nullable: true }) sheetsUsed: number | null;

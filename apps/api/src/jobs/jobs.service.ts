@@ -5,10 +5,12 @@ import {
   allowedJobActions,
   type JobAction,
   type JobDetailView,
+  type JobLayoutChoice,
   type JobPreparation,
   type JobState,
   type JobView,
   JOB_EDITABLE_STATES,
+  layoutChoiceOf,
   type MachineProfileKind,
   mayChangeJobRequest,
   type Page,
@@ -56,6 +58,7 @@ const LIST_COLUMNS = [
   'profile_version_id',
   'return_reason',
   'preparation',
+  'layout_choice',
   'actual_minutes',
   'sheets_used',
   'measured_kerf_mm',
@@ -105,6 +108,7 @@ type JobListRow = {
   profile_version_id: string | null;
   return_reason: string | null;
   preparation: JobPreparation | null;
+  layout_choice: JobLayoutChoice | null;
   actual_minutes: string | null;
   sheets_used: number | null;
   measured_kerf_mm: string | null;
@@ -145,6 +149,7 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     preparedByCaller: r.preparer_id === user.id,
     returnReason: r.return_reason,
     preparation: r.preparation,
+    layoutChoice: r.layout_choice,
     actualMinutes: numberOrNull(r.actual_minutes),
     sheetsUsed: r.sheets_used,
     measuredKerfMm: numberOrNull(r.measured_kerf_mm),
@@ -282,7 +287,8 @@ export class JobsService {
   /**
    * A draft's copies and notes, changed by its requester (or a supervisor). The state stays; a new number of
    * copies drops the layout of an earlier preparation (its pieces and sheets were for the old number), so a
-   * reopened job never shows figures for copies it no longer asks for.
+   * reopened job never shows figures for copies it no longer asks for. Its layout choice (sheet, colour rule)
+   * stays for the next preparation.
    */
   async update(user: AuthUser, id: string, dto: UpdateJobDto, req: unknown): Promise<JobDetailView> {
     return this.dataSource.transaction(async (m) => {
@@ -305,6 +311,7 @@ export class JobsService {
       }
       assertVersion(job, dto.version);
       const before = { quantity: job.quantity, notes: job.notes };
+      const hadLayout = job.preparation !== null;
       if (dto.quantity !== undefined && dto.quantity !== job.quantity) {
         job.quantity = dto.quantity;
         job.preparation = null;
@@ -312,6 +319,20 @@ export class JobsService {
       if (dto.notes !== undefined) job.notes = dto.notes;
       if (job.quantity !== before.quantity || job.notes !== before.notes) {
         await m.save(job);
+        // The job's history says what changed, as it says every step (the audit trail keeps the values).
+        const changes = [
+          ...(job.quantity !== before.quantity ? [`copies ${before.quantity} → ${job.quantity}`] : []),
+          ...(job.notes !== before.notes ? ['notes changed'] : []),
+          ...(job.quantity !== before.quantity && hadLayout ? ['the earlier layout was dropped'] : []),
+        ];
+        await m.insert(JobTransition, {
+          jobId: job.id,
+          fromState: job.state,
+          toState: job.state,
+          action: 'change',
+          actorId: user.id,
+          reason: changes.join('; '),
+        });
         await this.audit.record(m, {
           actorId: user.id,
           action: 'job.update',
@@ -351,6 +372,7 @@ export class JobsService {
       job.colours = prepared.colours;
       job.spec = prepared.spec;
       job.preparation = prepared.preparation;
+      job.layoutChoice = layoutChoiceOf(prepared.preparation);
     });
   }
 

@@ -6,6 +6,7 @@ import {
   JOB_STATES,
   type JobAction,
   type JobDetailView,
+  type JobLayoutChoice,
   type JobPreparation,
   type JobState,
   type JobTransitionView,
@@ -61,6 +62,13 @@ export class JobPreparationDto implements JobPreparation {
   @ApiPropertyOptional({ type: JobEstimateDto }) estimate?: JobEstimateDto;
 }
 
+export class JobLayoutChoiceDto implements JobLayoutChoice {
+  @ApiProperty({ type: SheetDto }) sheet: SheetDto;
+  @ApiPropertyOptional({ enum: COLOUR_RULES }) colourRule?: ColourRuleName;
+  @ApiPropertyOptional() marginMm?: number;
+  @ApiPropertyOptional() gapMm?: number;
+}
+
 export class JobViewDto implements JobView {
   @ApiProperty({ format: 'uuid' }) id: string;
   @ApiProperty({ enum: JOB_STATES }) state: JobState;
@@ -94,6 +102,12 @@ export class JobViewDto implements JobView {
   preparedByCaller?: boolean;
   @ApiProperty({ type: String, nullable: true }) returnReason: string | null;
   @ApiProperty({ type: JobPreparationDto, nullable: true }) preparation: JobPreparationDto | null;
+  @ApiPropertyOptional({
+    type: JobLayoutChoiceDto,
+    nullable: true,
+    description: 'The sheet and colour rule of the last preparation; kept when a change of copies drops it',
+  })
+  layoutChoice?: JobLayoutChoiceDto | null;
   @ApiProperty({ type: Number, nullable: true }) actualMinutes: number | null;
   @ApiProperty({ type: Number, nullable: true }) sheetsUsed: number | null;
   @ApiProperty({ type: Number, nullable: true }) measuredKerfMm: number | null;
@@ -115,7 +129,10 @@ export class JobTransitionViewDto implements JobTransitionView {
 }
 
 export class JobDetailViewDto extends JobViewDto implements JobDetailView {
-  @ApiProperty({ type: [JobTransitionViewDto], description: 'Every state change, oldest first' })
+  @ApiProperty({
+    type: [JobTransitionViewDto],
+    description: 'Every state change, and every change of copies or notes (action "change"), oldest first',
+  })
   transitions: JobTransitionViewDto[];
 }
 

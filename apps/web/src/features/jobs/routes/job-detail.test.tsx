@@ -20,6 +20,15 @@ const job: JobDetailView = {
     },
     {
       from: 'draft',
+      to: 'draft',
+      action: 'change',
+      actorId: 'u-h',
+      actorName: 'Jun Park',
+      reason: 'copies 1 → 2',
+      at: '2026-01-01T00:00:30.000Z',
+    },
+    {
+      from: 'draft',
       to: 'requested',
       action: 'request',
       actorId: 'u-h',
@@ -71,6 +80,11 @@ describe('job detail', () => {
     ).toEqual(['Prepare: material, machine, layout', 'Return with a reason']);
     const history = screen.getByRole('table', { name: 'History' });
     expect(history).toHaveTextContent('draft → requested');
+    // A change of copies or notes is a row of its own, saying what changed, not a step "draft → draft".
+    expect(within(history).getAllByRole('row')[2]).toHaveTextContent(
+      /draft: changed.*Jun Park.*copies 1 → 2/,
+    );
+    expect(history).not.toHaveTextContent('draft → draft');
     // At phone width (375 px) the table scrolls inside its own box instead of widening the page.
     expect(getComputedStyle(history.parentElement!).overflowX).toBe('auto');
 

@@ -397,7 +397,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
               {job.transitions.map((t, i) => (
                 <TableRow key={i}>
                   <TableCell>{formatDateTime(t.at)}</TableCell>
-                  <TableCell>{`${t.from ?? 'new'} → ${t.to}`}</TableCell>
+                  <TableCell>
+                    {t.action === 'change' ? `${t.to}: changed` : `${t.from ?? 'new'} → ${t.to}`}
+                  </TableCell>
                   <TableCell>{t.actorName ?? '—'}</TableCell>
                   <TableCell sx={{ minWidth: 160 }}>{t.reason ?? ''}</TableCell>
                 </TableRow>
@@ -418,8 +420,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
                   materialId: job.materialId,
                   profileVersionId: job.profileVersionId,
                   profileName: job.profileName,
-                  sheet: prep?.sheet,
-                  colourRule: prep?.colourRule,
+                  // The last preparation's choices outlive its figures (a change of copies drops those).
+                  sheet: job.layoutChoice?.sheet ?? prep?.sheet,
+                  colourRule: job.layoutChoice?.colourRule ?? prep?.colourRule,
                 }
               : undefined
           }
