@@ -1,7 +1,7 @@
 import Skeleton from '@mui/material/Skeleton';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
-import { type ReactNode } from 'react';
+import { type ReactNode, type Ref } from 'react';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 
 interface WaitingSectionProps<T> {
@@ -16,6 +16,8 @@ interface WaitingSectionProps<T> {
   emptyText: string;
   /** Space below the section (none for the last one). */
   spacing?: number;
+  /** The heading takes the focus from here when a decided card leaves the list (tabIndex −1). */
+  headingRef?: Ref<HTMLHeadingElement>;
   children: (item: T) => ReactNode;
 }
 
@@ -26,12 +28,13 @@ export function WaitingSection<T>({
   errorTitle,
   emptyText,
   spacing,
+  headingRef,
   children,
 }: WaitingSectionProps<T>) {
   const gap = spacing === undefined ? undefined : { mb: spacing };
   return (
     <>
-      <Typography variant="h2" sx={{ fontSize: '1.35rem', mb: 2 }}>
+      <Typography ref={headingRef} tabIndex={-1} variant="h2" sx={{ fontSize: '1.35rem', mb: 2 }}>
         {heading} {query.data ? `(${query.data.total})` : ''}
       </Typography>
       {query.isError ? (

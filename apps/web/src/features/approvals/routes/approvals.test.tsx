@@ -178,6 +178,42 @@ describe('Approvals (supervisor)', () => {
     ).toBeInTheDocument();
   });
 
+  it('gives the keyboard focus to the section heading when a decided card leaves its list', async () => {
+    // The lists answer as the server does: a decided version or job is no longer waiting.
+    let versionWaits = true;
+    let jobWaits = true;
+    const page = <T,>(items: T[]) => json(200, { items, total: items.length, page: 1, pageSize: 100 });
+    stubFetch({
+      'GET /api/auth/me': () => json(200, supervisor),
+      'GET /api/machine-profiles': () => page(versionWaits ? [profile] : []),
+      'GET /api/jobs': () => page(jobWaits ? [job] : []),
+      'POST /api/machine-profiles/p-laser/versions/v-2/approve': () => {
+        versionWaits = false;
+        return json(200, { ...waiting, state: 'approved' });
+      },
+      'POST /api/jobs/j-1/return': () => {
+        jobWaits = false;
+        return json(200, { ...job, state: 'returned' });
+      },
+    });
+    const { user } = renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+    await user.click(within(card).getByRole('button', { name: 'Approve version 2: CO2 laser, 60 W' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Approve version 2 of CO2 laser, 60 W?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Approve version 2' }));
+    await waitFor(() =>
+      expect(screen.getByRole('heading', { name: /^Machine profile versions/ })).toHaveFocus(),
+    );
+    expect(screen.getByText('No machine profile version is waiting.')).toBeInTheDocument();
+
+    const jobCard = await screen.findByTestId('waiting-job');
+    await user.click(within(jobCard).getByRole('button', { name: 'Return with a reason: Hexagon star' }));
+    const back = await screen.findByRole('dialog', { name: /Return the job Hexagon star/ });
+    await user.type(within(back).getByLabelText('Reason'), 'Use the thinner card');
+    await user.click(within(back).getByRole('button', { name: /^Return with this reason/ }));
+    await waitFor(() => expect(screen.getByRole('heading', { name: /^Jobs/ })).toHaveFocus());
+  });
+
   it('gives a changed hourly rate per hour', async () => {
     approvalsApi(job, { ...profile, latest: { ...waiting, hourlyRate: 26 } });
     renderApp('/approvals', { token: 't' });

@@ -5,7 +5,7 @@ import Card from '@mui/material/Card';
 import CardContent from '@mui/material/CardContent';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths } from '../../../config/paths';
@@ -55,6 +55,21 @@ export function ApprovalsRoute() {
   // Approving asks first, as the job page does: a dialog says what follows, its button approves.
   const [confirming, setConfirming] = useState<Deciding>(null);
   const [notice, setNotice] = useState<string | null>(null);
+  // A decided card leaves its list (and the button that opened the dialog with it): the keyboard focus goes
+  // to its section's heading then, instead of falling to the page.
+  const versionsHeading = useRef<HTMLHeadingElement>(null);
+  const jobsHeading = useRef<HTMLHeadingElement>(null);
+  const [decided, setDecided] = useState<{ section: 'versions' | 'jobs'; id: string } | null>(null);
+  useEffect(() => {
+    if (!decided) return;
+    const ids =
+      decided.section === 'versions'
+        ? versions.data?.items.map((p) => p.latest.id)
+        : jobs.data?.items.map((j) => j.id);
+    if (!ids || ids.includes(decided.id)) return;
+    (decided.section === 'versions' ? versionsHeading : jobsHeading).current?.focus();
+    setDecided(null);
+  }, [decided, versions.data, jobs.data]);
 
   const confirmApproval = (what: NonNullable<Deciding>) => {
     decideVersion.reset();
@@ -67,6 +82,7 @@ export function ApprovalsRoute() {
       {
         onSuccess: (v) => {
           setConfirming(null);
+          setDecided({ section: 'versions', id: p.latest.id });
           setNotice(`Version ${v.number} of ${p.name} is approved; jobs use it from now on.`);
         },
       },
@@ -77,6 +93,7 @@ export function ApprovalsRoute() {
       {
         onSuccess: () => {
           setConfirming(null);
+          setDecided({ section: 'jobs', id: j.id });
           setNotice(`${j.designName} is approved for release.`);
         },
       },
@@ -90,6 +107,7 @@ export function ApprovalsRoute() {
         {
           onSuccess: () => {
             setSendingBack(null);
+            setDecided({ section: 'versions', id: p.latest.id });
             setNotice(`Version ${p.latest.number} of ${p.name} is back with its author.`);
           },
         },
@@ -101,6 +119,7 @@ export function ApprovalsRoute() {
         {
           onSuccess: () => {
             setSendingBack(null);
+            setDecided({ section: 'jobs', id: j.id });
             setNotice(`${j.designName} is sent back.`);
           },
         },
@@ -130,6 +149,7 @@ export function ApprovalsRoute() {
 
       <WaitingSection
         heading="Machine profile versions"
+        headingRef={versionsHeading}
         query={versions}
         errorTitle="The waiting versions could not be loaded"
         emptyText="No machine profile version is waiting."
@@ -174,6 +194,7 @@ export function ApprovalsRoute() {
 
       <WaitingSection
         heading="Jobs"
+        headingRef={jobsHeading}
         query={jobs}
         errorTitle="The waiting jobs could not be loaded"
         emptyText="No prepared job is waiting."
