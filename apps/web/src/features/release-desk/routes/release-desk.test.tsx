@@ -1,5 +1,5 @@
 import { type ExportView, type JobSafetyView, type JobView } from '@kerfwright/contracts';
-import { screen, waitFor, within } from '@testing-library/react';
+import { act, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
@@ -160,6 +160,22 @@ describe('release desk', () => {
     } finally {
       delete (Element.prototype as { scrollIntoView?: unknown }).scrollIntoView;
     }
+  });
+
+  it("keeps the opened job in the address: the browser's Back closes it, and a link to it opens it", async () => {
+    stubDesk(false);
+    const { user, router } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    await screen.findByTestId('desk-job');
+    expect(router.state.location.search).toBe('?job=j-released');
+    await act(() => router.navigate(-1));
+    await waitFor(() => expect(screen.queryByTestId('desk-job')).not.toBeInTheDocument());
+    expect(router.state.location.pathname).toBe('/release-desk');
+    // The focus goes back to the button that opened the job, not to the page.
+    await waitFor(() => expect(screen.getByRole('button', { name: 'Open Turned squares' })).toHaveFocus());
+    // Forward (or a link someone sent) opens it again.
+    await act(() => router.navigate(1));
+    expect(await screen.findByTestId('desk-job')).toHaveTextContent('Turned squares');
   });
 
   it('once the cut is recorded, closes the job from the desk', async () => {

@@ -20,7 +20,7 @@ import { useTheme } from '@mui/material/styles';
 import useMediaQuery from '@mui/material/useMediaQuery';
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
@@ -43,19 +43,23 @@ import { countOf } from '../../../lib/plural';
  */
 export function ReleaseDeskRoute() {
   const desk = useReleaseDeskJobs();
-  const [selectedId, setSelectedId] = useState<string | null>(null);
+  // The opened job is in the address (?job=…): the browser's Back closes it, and a link to it opens it.
+  const [params, setParams] = useSearchParams();
+  const selectedId = params.get('job');
+  const setSelectedId = (id: string | null) => setParams(id === null ? {} : { job: id });
   // The opened job is read on its own, so it stays on screen after the cut (when it leaves the queue).
   const detail = useQuery({ ...jobQueryOptions(selectedId ?? ''), enabled: selectedId !== null });
   const selected = detail.data ?? desk.rows.find((r) => r.job.id === selectedId)?.job ?? null;
   // On a phone the seven columns do not fit: each job is a card of its own, its Open button in reach.
   const phone = useMediaQuery(useTheme().breakpoints.down('sm'));
-  // Back from a job on a phone, the card it was opened from comes back into view with the focus on its button.
-  const backTo = useRef<string | null>(null);
+  // Back from a job (the page's button on a phone, or the browser's), the focus goes to the button that
+  // opened it, its card back in view on a phone.
+  const previousId = useRef<string | null>(selectedId);
   useEffect(() => {
-    if (selectedId !== null || backTo.current === null) return;
-    const button = document.querySelector<HTMLElement>(`[data-open-job="${backTo.current}"]`);
-    backTo.current = null;
-    button?.focus();
+    const left = previousId.current;
+    previousId.current = selectedId;
+    if (selectedId !== null || left === null) return;
+    document.querySelector<HTMLElement>(`[data-open-job="${left}"]`)?.focus();
   }, [selectedId]);
   return (
     <Box data-testid="release-desk">
@@ -82,15 +86,7 @@ export function ReleaseDeskRoute() {
         <DeskCards rows={desk.rows} selectedId={selectedId} onOpen={setSelectedId} />
       ) : null}
       {phone && selected ? (
-        <Button
-          variant="outlined"
-          fullWidth
-          onClick={() => {
-            backTo.current = selectedId;
-            setSelectedId(null);
-          }}
-          sx={{ mb: 1 }}
-        >
+        <Button variant="outlined" fullWidth onClick={() => setSelectedId(null)} sx={{ mb: 1 }}>
           {`Back to the jobs at the desk (${desk.rows.length})`}
         </Button>
       ) : null}
@@ -125,7 +121,7 @@ export function ReleaseDeskRoute() {
                     <PackProgress jobId={job.id} newest={newest} />
                   </TableCell>
                   <TableCell align="right">
-                    <Button size="small" onClick={() => setSelectedId(job.id)}>
+                    <Button size="small" onClick={() => setSelectedId(job.id)} data-open-job={job.id}>
                       {`Open ${job.designName}`}
                     </Button>
                   </TableCell>
