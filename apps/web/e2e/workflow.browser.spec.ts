@@ -291,11 +291,11 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     );
     expect(sheetCount).toBeGreaterThan(0);
     expect(await layout.getByTestId('layout-sheet').count()).toBe(sheetCount);
-    expect(await facts.textContent()).toMatch(/Sheet size\d+(\.\d+)? mm × \d+(\.\d+)? mm/);
+    expect(await facts.textContent()).toMatch(/Sheet size\d+(\.\d+)? × \d+(\.\d+)? mm/);
     // Time and cost from the profile version's speeds and rate and the stock sheet's price.
     expect(await facts.textContent()).toMatch(/Machine time(\d+\.\d min|[\d,]+ h \d+ min)/);
     await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'inch' }).click();
-    expect(await facts.textContent()).toMatch(/Sheet size\d+\.\d{3} in × \d+\.\d{3} in/);
+    expect(await facts.textContent()).toMatch(/Sheet size\d+\.\d{3} × \d+\.\d{3} in/);
     await layout.screenshot({ path: path.join(SCREENSHOT_DIR, 'sheet-layout.png') });
     await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'mm' }).click();
     await shot('job-prepared');

@@ -1,7 +1,22 @@
 import { describe, expect, it } from 'vitest';
-import { formatHourlyRate, formatLength, formatMinutes, formatMoney, formatRunLength } from './units';
+import {
+  formatHourlyRate,
+  formatLength,
+  formatMinutes,
+  formatMoney,
+  formatRunLength,
+  formatSheetSize,
+} from './units';
 
 describe('figures a workshop reads at a glance', () => {
+  it('gives a sheet size with its unit once, as stock is listed (1 in = 25.4 mm exactly)', () => {
+    expect(formatSheetSize({ widthMm: 600, heightMm: 400 }, 'mm')).toBe('600 × 400 mm');
+    expect(formatSheetSize({ widthMm: 1220, heightMm: 2440.25 }, 'mm')).toBe('1220 × 2440.3 mm');
+    // A 24 × 16 in sheet is 609.6 × 406.4 mm.
+    expect(formatSheetSize({ widthMm: 609.6, heightMm: 406.4 }, 'in')).toBe('24.000 × 16.000 in');
+    expect(formatSheetSize({ widthMm: 609.6, heightMm: 406.4 }, 'mm')).toBe('609.6 × 406.4 mm');
+  });
+
   it('gives long cut lengths in metres or feet, short ones as before (1 in = 25.4 mm exactly, 1 ft = 12 in)', () => {
     expect(formatRunLength(4321, 'mm')).toBe(formatLength(4321, 'mm'));
     expect(formatRunLength(1_238_848.2, 'mm')).toBe('1,238.8 m');

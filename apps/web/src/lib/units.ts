@@ -10,6 +10,19 @@ export function formatLength(mm: number, unit: LengthUnit): string {
 }
 
 /**
+ * A sheet's size, the unit said once: "600 × 400 mm", "23.622 × 15.748 in" (millimetres to a tenth without a
+ * trailing zero, as stock is listed; inches to three places, as formatLength gives them).
+ */
+export function formatSheetSize(sheet: { widthMm: number; heightMm: number }, unit: LengthUnit): string {
+  const { widthMm, heightMm } = sheet;
+  if (!Number.isFinite(widthMm) || !Number.isFinite(heightMm)) return '—';
+  if (unit === 'in')
+    return `${(widthMm / MM_PER_INCH).toFixed(3)} × ${(heightMm / MM_PER_INCH).toFixed(3)} in`;
+  const mm = (x: number) => String(Math.round(x * 10) / 10);
+  return `${mm(widthMm)} × ${mm(heightMm)} mm`;
+}
+
+/**
  * A total length along the cuts: as formatLength up to 10 m (or 100 ft), then in metres (feet) with one
  * decimal and thousands grouped, so that a job's cut length reads at a glance ("1,238.8 m", not "1238848.2 mm").
  */

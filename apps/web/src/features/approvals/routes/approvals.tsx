@@ -24,7 +24,7 @@ import { VersionChanges } from '../components/version-changes';
 import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 import { countOf } from '../../../lib/plural';
-import { formatMinutes, formatMoney } from '../../../lib/units';
+import { formatMinutes, formatMoney, formatSheetSize } from '../../../lib/units';
 import { formatDateTime } from '../../../lib/dates';
 
 /**
@@ -215,8 +215,7 @@ export function ApprovalsRoute() {
                 {prep ? (
                   <Typography variant="body2" color="text.secondary">
                     {countOf(prep.pieceCount, 'piece')} on {countOf(prep.sheetCount, 'sheet')} of{' '}
-                    {prep.sheet.widthMm} × {prep.sheet.heightMm} mm, {(prep.utilisation * 100).toFixed(0)} %
-                    used
+                    {formatSheetSize(prep.sheet, 'mm')}, {(prep.utilisation * 100).toFixed(0)} % used
                     {prep.estimate
                       ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + (prep.estimate.materialCost ?? 0), prep.estimate.currency)}${prep.estimate.materialCost === null ? ` of machine time (no sheet price in ${prep.estimate.currency})` : ''}`
                       : ''}

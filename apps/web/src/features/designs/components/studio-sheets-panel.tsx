@@ -15,7 +15,7 @@ import Stack from '@mui/material/Stack';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { memo, useMemo, useState } from 'react';
-import { type LengthUnit, formatLength } from '../../../lib/units';
+import { type LengthUnit, formatLength, formatSheetSize } from '../../../lib/units';
 import { SheetLayoutView } from '../../layout/components/sheet-layout-view';
 import { estimateSheets } from '../../layout/lib/estimate-sheets';
 import { useLayoutTask } from '../../layout/hooks/use-layout-task';
@@ -229,7 +229,7 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
               : asked && preview.failure
                 ? 'The pieces can be laid out once the model builds.'
                 : sheet
-                  ? `Lay the pieces out on ${fmt(sheet.widthMm)} × ${fmt(sheet.heightMm)} sheets to see how many this size needs.`
+                  ? `Lay the pieces out on ${formatSheetSize(sheet, unit)} sheets to see how many this size needs.`
                   : 'Give a stock sheet size to lay the pieces out.'}
         </Typography>
       ) : null}

@@ -19,6 +19,7 @@ import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
 import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
 import { kindLabel } from '../../../config/trade-labels';
 import { countOf } from '../../../lib/plural';
+import { formatSheetSize } from '../../../lib/units';
 import { useDesign } from '../../designs/api/get-design';
 
 export interface PrepareJobBody {
@@ -182,7 +183,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     setValue('sheetIndex', String(Math.max(0, sheet)));
     if (before.sheet && sheet < 0 && m.stockSheets.length > 0) {
       notes.push(
-        `${m.name} no longer lists ${before.sheet.widthMm} × ${before.sheet.heightMm} mm sheets, the size ` +
+        `${m.name} no longer lists ${formatSheetSize(before.sheet, 'mm')} sheets, the size ` +
           'the job was laid out on: check the sheet below.',
       );
     }
@@ -340,7 +341,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
             <NativeSelectField label="Sheet" name="sheetIndex" form={fields}>
               {material.stockSheets.map((s, i) => (
                 <option key={i} value={String(i)}>
-                  {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
+                  {`${formatSheetSize(s, 'mm')} · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
                 </option>
               ))}
             </NativeSelectField>

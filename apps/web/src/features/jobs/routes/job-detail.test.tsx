@@ -349,7 +349,7 @@ describe('job detail', () => {
       (await screen.findByText(label, { selector: 'dt' })).nextElementSibling?.textContent;
     expect(await value('Pieces')).toBe('24 (2 copies of 12)');
     expect(await value('Crossings')).toBe('12 per copy');
-    expect(await value('Sheets')).toBe('2 sheets of 600.0 mm × 400.0 mm');
+    expect(await value('Sheets')).toBe('2 sheets of 600 × 400 mm');
   });
 
   it('says plainly that there is no such job, with the way back, for an address that is no job id', async () => {

@@ -33,6 +33,7 @@ import {
   formatMinutes,
   formatMoney,
   formatRunLength,
+  formatSheetSize,
   type LengthUnit,
   MM_PER_INCH,
 } from '../../../lib/units';
@@ -325,10 +326,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
                     job.quantity > 1 ? `${prep.crossingCount} per copy` : String(prep.crossingCount),
                   ],
                   ['Diameter', fmt(prep.diameterMm)],
-                  [
-                    'Sheets',
-                    `${countOf(prep.sheetCount, 'sheet')} of ${fmt(prep.sheet.widthMm)} × ${fmt(prep.sheet.heightMm)}`,
-                  ],
+                  ['Sheets', `${countOf(prep.sheetCount, 'sheet')} of ${formatSheetSize(prep.sheet, unit)}`],
                   ['Utilisation', `${(prep.utilisation * 100).toFixed(1)} %`],
                   ['Stock', `${fmt(prep.thicknessMm)} thick, cut on a ${prep.machineKind}`],
                   ...(prep.estimate

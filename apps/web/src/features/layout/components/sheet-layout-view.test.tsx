@@ -76,7 +76,7 @@ describe('the sheet layout view', () => {
       expect(screen.getByText(id, { selector: 'text' })).toBeInTheDocument();
     }
     const facts = screen.getByTestId('layout-facts');
-    expect(facts).toHaveTextContent('Sheet size300.0 mm × 200.0 mm');
+    expect(facts).toHaveTextContent('Sheet size300 × 200 mm');
     expect(facts).toHaveTextContent('Machine time12.3 min');
     expect(facts).toHaveTextContent('Cost23.50 EUR');
     expect(facts).toHaveTextContent('Cut length4321.0 mm');
@@ -86,7 +86,7 @@ describe('the sheet layout view', () => {
     const { sheets } = laidOut();
     render(<SheetLayoutView sheets={sheets} unit="in" />);
     // 300 mm = 11.811 in and 200 mm = 7.874 in (÷ 25.4, the international inch of 1959).
-    expect(screen.getByTestId('layout-facts')).toHaveTextContent('Sheet size11.811 in × 7.874 in');
+    expect(screen.getByTestId('layout-facts')).toHaveTextContent('Sheet size11.811 × 7.874 in');
     expect(screen.getAllByRole('img')[0]).toHaveAccessibleName(/11\.811 in by 7\.874 in/);
   });
 });

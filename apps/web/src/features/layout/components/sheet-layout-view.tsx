@@ -7,6 +7,7 @@ import {
   formatMinutes,
   formatMoney,
   formatRunLength,
+  formatSheetSize,
   type LengthUnit,
 } from '../../../lib/units';
 import { cutFigures, type SheetView } from '../lib/sheet-views';
@@ -55,9 +56,7 @@ export const SheetLayoutView = memo(function SheetLayoutView({
         data-testid="layout-facts"
       >
         <Figure label="Sheets" value={String(sheets.length)} />
-        {first ? (
-          <Figure label="Sheet size" value={`${fmt(first.widthMm)} × ${fmt(first.heightMm)}`} />
-        ) : null}
+        {first ? <Figure label="Sheet size" value={formatSheetSize(first, unit)} /> : null}
         <Figure label="Utilisation" value={areaAll > 0 ? percent(areaUsed / areaAll) : '—'} />
         <Figure label="Cut length" value={formatRunLength(figures.cutLengthMm, unit)} />
         <Figure label="Pierces" value={String(figures.pierces)} />

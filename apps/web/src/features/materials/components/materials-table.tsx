@@ -4,6 +4,7 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
+import { formatSheetSize } from '../../../lib/units';
 import { FAMILY_LABELS } from './material-labels';
 
 type Column = DataTableColumn<MaterialView, MaterialSortField>;
@@ -17,7 +18,7 @@ function sheets(m: MaterialView) {
   if (m.stockSheets.length === 0) return '—';
   return m.stockSheets.map((s, i) => (
     <Box key={i} sx={{ whiteSpace: 'nowrap' }}>
-      {`${s.widthMm} × ${s.heightMm} mm · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
+      {`${formatSheetSize(s, 'mm')} · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
     </Box>
   ));
 }
