@@ -7,6 +7,7 @@ import {
   passwordLongEnough,
   type RegisterRequest,
 } from '@kerfwright/contracts';
+import { NoControlCharacters } from '../../common/text';
 
 export class RegisterDto implements RegisterRequest {
   @IsEmail({}, { message: 'email must be an e-mail address' }) @MaxLength(254) email: string;
@@ -15,6 +16,7 @@ export class RegisterDto implements RegisterRequest {
   @IsString()
   @MinLength(1, { message: 'displayName must not be empty' })
   @MaxLength(DISPLAY_NAME_MAX_LENGTH)
+  @NoControlCharacters()
   displayName: string;
 
   @IsString()

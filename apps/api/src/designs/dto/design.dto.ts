@@ -13,6 +13,7 @@ import {
   type DesignSpecInput,
   type UpdateDesignRequest,
 } from '@kerfwright/contracts';
+import { OptionalNotNull } from '../../common/validation/optional';
 import { IsRowVersion } from '../../common/validation/row-version';
 
 const SPEC_DOC = {
@@ -42,22 +43,26 @@ export class CreateDesignDto implements CreateDesignRequest {
   @MaxLength(120)
   @NoControlCharacters()
   name: string;
-  @ApiPropertyOptional({ maxLength: 2000 }) @IsOptional() @IsString() @MaxLength(2000) description?: string;
+  @ApiPropertyOptional({ maxLength: 2000 })
+  @OptionalNotNull()
+  @IsString()
+  @MaxLength(2000)
+  description?: string;
   @ApiProperty({ type: 'object', additionalProperties: true, ...SPEC_DOC }) @IsObject() spec: DesignSpecInput;
 }
 
 export class UpdateDesignDto implements UpdateDesignRequest {
   @ApiPropertyOptional({ maxLength: 120, description: 'Trimmed; one line of text, not empty' })
-  @IsOptional()
+  @OptionalNotNull()
   @Trimmed()
   @IsString()
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)
   @NoControlCharacters()
   name?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(2000) description?: string;
+  @ApiPropertyOptional() @OptionalNotNull() @IsString() @MaxLength(2000) description?: string;
   @ApiPropertyOptional({ type: 'object', additionalProperties: true, ...SPEC_DOC })
-  @IsOptional()
+  @OptionalNotNull()
   @IsObject()
   spec?: DesignSpecInput;
   @ApiProperty({ description: 'The version you read; a stale one is refused with 409' })

@@ -33,17 +33,18 @@ import {
 import { MAX_FIT_SHEETS } from '@kerfwright/geometry';
 import { PageQueryDto } from '../../common/paging';
 import { Trimmed } from '../../common/text';
+import { OptionalNotNull } from '../../common/validation/optional';
 import { IsRowVersion } from '../../common/validation/row-version';
 
 export class CreateJobDto {
   @ApiProperty() @IsUUID() designId: string;
   @ApiPropertyOptional({ minimum: 1, maximum: 100, default: 1 })
-  @IsOptional()
+  @OptionalNotNull()
   @IsInt()
   @Min(1)
   @Max(100)
   quantity?: number;
-  @ApiPropertyOptional({ maxLength: 2000 }) @IsOptional() @IsString() @MaxLength(2000) notes?: string;
+  @ApiPropertyOptional({ maxLength: 2000 }) @OptionalNotNull() @IsString() @MaxLength(2000) notes?: string;
 }
 
 /** Every action names the job version the caller read, so concurrent actions cannot both win. */
@@ -65,7 +66,7 @@ export class RequestExportDto {
   @ApiPropertyOptional({
     description: 'The job version you read; a stale one gets 409 (left out: not compared)',
   })
-  @IsOptional()
+  @OptionalNotNull()
   @IsRowVersion()
   version?: number;
 }
@@ -113,13 +114,13 @@ export class ScaleDto {
   @MatchingScaleFields()
   by: ScaleBy | FitScaleBy;
   @ApiPropertyOptional({ description: 'Fixed scales only: the size in mm' })
-  @IsOptional()
+  @OptionalNotNull()
   @IsNumber()
   @IsPositive()
   @Max(10000)
   mm?: number;
   @ApiPropertyOptional({ minimum: 1, maximum: MAX_FIT_SHEETS, description: 'fitSheets only: most sheets' })
-  @IsOptional()
+  @OptionalNotNull()
   @IsInt()
   @Min(1)
   @Max(MAX_FIT_SHEETS)
@@ -150,12 +151,12 @@ export class PrepareJobDto extends JobActionDto {
     type: SheetSizeDto,
     description: 'Stock sheet; defaults to the material’s first sheet size',
   })
-  @IsOptional()
+  @OptionalNotNull()
   @ValidateNested()
   @Type(() => SheetSizeDto)
   sheet?: SheetSizeDto;
   @ApiPropertyOptional({ type: ScaleDto, description: 'Overrides the design’s scale' })
-  @IsOptional()
+  @OptionalNotNull()
   @ValidateNested()
   @Type(() => ScaleDto)
   scale?: ScaleDto;
@@ -163,17 +164,17 @@ export class PrepareJobDto extends JobActionDto {
     enum: COLOUR_RULES,
     description: 'How pieces are shared among the colours (default neighbour-distinct)',
   })
-  @IsOptional()
+  @OptionalNotNull()
   @IsIn(COLOUR_RULES)
   colourRule?: ColourRuleName;
   @ApiPropertyOptional({ minimum: 0, maximum: 100 })
-  @IsOptional()
+  @OptionalNotNull()
   @IsNumber()
   @Min(0)
   @Max(100)
   marginMm?: number;
   @ApiPropertyOptional({ minimum: 0, maximum: 100 })
-  @IsOptional()
+  @OptionalNotNull()
   @IsNumber()
   @Min(0)
   @Max(100)
@@ -201,7 +202,7 @@ export class RecordCutDto extends JobActionDto {
     minimum: MACHINE_PROFILE_LIMITS.kerfMm.min,
     maximum: MACHINE_PROFILE_LIMITS.toolDiameterMm.max,
   })
-  @IsOptional()
+  @OptionalNotNull()
   @IsNumber()
   // The widest range of any machine kind (the kerf records' DTO); the job's own kind is checked by the service.
   // The column keeps 0.001 mm, so a smaller kerf would be stored as 0.

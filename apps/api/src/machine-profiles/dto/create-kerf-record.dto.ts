@@ -1,7 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { IsNumber, IsString, IsUUID, Max, MaxLength, Min } from 'class-validator';
 import { type CreateKerfRecordRequest, MACHINE_PROFILE_LIMITS as L } from '@kerfwright/contracts';
-import { FINITE, OptionalNotNull } from '../../materials/dto/optional';
+import { FINITE, OptionalNotNull } from '../../common/validation/optional';
 
 export class CreateKerfRecordDto implements CreateKerfRecordRequest {
   @ApiProperty({ format: 'uuid' })

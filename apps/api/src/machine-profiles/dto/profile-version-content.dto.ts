@@ -18,7 +18,7 @@ import {
   type ProfileSetting,
   type ProfileVersionContent,
 } from '@kerfwright/contracts';
-import { FINITE, OptionalNotNull } from '../../materials/dto/optional';
+import { FINITE, OptionalNotNull } from '../../common/validation/optional';
 
 export class ProfileSettingDto implements ProfileSetting {
   @ApiProperty({ format: 'uuid' })

@@ -9,7 +9,7 @@ import {
   type ReturnProfileVersionRequest,
   type UpdateProfileVersionRequest,
 } from '@kerfwright/contracts';
-import { OptionalNotNull } from '../../materials/dto/optional';
+import { OptionalNotNull } from '../../common/validation/optional';
 import { ProfileVersionContentDto } from './profile-version-content.dto';
 import { IsRowVersion } from '../../common/validation/row-version';
 

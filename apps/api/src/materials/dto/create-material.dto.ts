@@ -23,7 +23,7 @@ import {
   type StockSheet,
 } from '@kerfwright/contracts';
 import { NoControlCharacters } from '../../common/text';
-import { FINITE, OptionalNotNull, OptionalNullable } from './optional';
+import { FINITE, OptionalNotNull, OptionalNullable } from '../../common/validation/optional';
 
 const trim = ({ value }: { value: unknown }): unknown => (typeof value === 'string' ? value.trim() : value);
 
