@@ -18,7 +18,7 @@ import { parseSolidText } from './solids/parse';
 import { type PieceFrame, fromFrame, pieceFrames, suggestSizes, type SuggestedSizes } from './pieces/place';
 import { starOutline } from './pieces/shape';
 import { type Crossing, computeCrossings, crossingPoint } from './crossings/crossings';
-import { type Slot, nominalSlotWidth, planSlots } from './slots/slots';
+import { MIN_DRAWN_SLOT_MM, type Slot, nominalSlotWidth, planSlots, slotCuttable } from './slots/slots';
 import { compensateKerf, dogBoneCentre, notchOutline } from './compensation/compensate';
 import { slotInnerCorners } from './slots/slots';
 import { MAX_SCALE_MM, type ResolvedSpec, SpecValidationError, validateSpec } from './spec/validate-spec';
@@ -493,19 +493,21 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
   crossings.forEach((c, i) => {
     const w = at(widths, i);
     const pair = [at(ids, c.a), at(ids, c.b)];
-    if (!(w > 0)) {
+    // 1e-9 mm absorbs rounding: t·cot 45° − t is 4e-16, not 0.
+    if (!(w > 1e-9)) {
       issues.error(
         'SLOT.WIDTH_NOT_POSITIVE',
         `the fit allowance leaves the slot between ${pair.join(' and ')} no width`,
         pair,
       );
-    } else if (machine.kind === 'laser' && w < machine.kerfMm) {
+    } else if (machine.kind === 'laser' && !slotCuttable(w, machine)) {
       issues.error(
         'SLOT.NARROWER_THAN_KERF',
-        `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is narrower than the ${lengthText(machine.kerfMm)} mm kerf`,
+        `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is not wider than the ${lengthText(machine.kerfMm)} mm kerf ` +
+          `by ${MIN_DRAWN_SLOT_MM} mm at least: the cuts of its two walls would merge and leave no slot`,
         pair,
       );
-    } else if (machine.kind === 'router' && w < machine.toolDiameterMm) {
+    } else if (machine.kind === 'router' && !slotCuttable(w, machine)) {
       issues.error(
         'SLOT.NARROWER_THAN_TOOL',
         `the ${round(w, 3)} mm slot between ${pair.join(' and ')} is narrower than the ${lengthText(machine.toolDiameterMm)} mm tool`,

@@ -154,10 +154,22 @@ export function labelPiece(piece: LabelPieceInput, options: LabelOptions = {}): 
     return { pieceId: piece.id, labels, warnings };
   }
 
+  // A star crossing a star can hold several slots for one partner: one note per partner, with a count.
+  const unlabelled = new Map<string, number>();
   for (const s of piece.slots) {
     const found = labelSlot(s, maxSlotH, minH, clearance, free);
     if (found) labels.push(found);
-    else warnings.push(`no room for the label "${s.partner}" beside ${piece.id}'s slot for ${s.partner}`);
+    else unlabelled.set(s.partner, (unlabelled.get(s.partner) ?? 0) + 1);
+  }
+  for (const [partner, n] of unlabelled) {
+    const of = piece.slots.filter((s) => s.partner === partner).length;
+    const which =
+      of === 1
+        ? `${piece.id}'s slot`
+        : n === of
+          ? `${piece.id}'s ${n} slots`
+          : `${n} of ${piece.id}'s ${of} slots`;
+    warnings.push(`no room for the label "${partner}" beside ${which} for ${partner}`);
   }
   return { pieceId: piece.id, labels, warnings };
 }

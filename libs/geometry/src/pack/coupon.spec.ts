@@ -142,7 +142,7 @@ describe('fit-test coupon', () => {
     };
     const r = await createCoupon({ ...packInputFrom(spec), archive: false });
     expect(r.manifest.warnings).toContainEqual(
-      'coupon C1: slots no wider than the 0.25 mm kerf are left out (0.15, 0.20, 0.25 mm)',
+      'coupon C1: slots not wider than the 0.25 mm kerf by 0.01 mm are left out (0.15, 0.20, 0.25 mm)',
     );
   });
 

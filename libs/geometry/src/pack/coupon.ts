@@ -10,7 +10,7 @@
  */
 import { type Vec2 } from '../math/vec';
 import { type BuiltModel } from '../build';
-import { type Slot, nominalSlotWidth, slotRectangle } from '../slots/slots';
+import { MIN_DRAWN_SLOT_MM, type Slot, nominalSlotWidth, slotCuttable, slotRectangle } from '../slots/slots';
 import { compensateKerf, notchOutline } from '../compensation/compensate';
 import { labelPiece } from '../labels';
 import { type EstimateMachine } from '../estimate';
@@ -94,10 +94,10 @@ export function buildCoupon(
   const strip = (id: string, angleDeg: number, w: number, keyW: number): CouponStrip => {
     // A laser slot must stay wider than the kerf; a router cannot cut a slot narrower than its bit.
     const all = offsets.map((o) => r2(w + o));
-    const series = all.filter((x) => x - removed > 0.01 && x >= toolMm - 1e-9);
+    const series = all.filter((x) => slotCuttable(x, spec.machine));
     if (series.length < all.length)
       warnings.push(
-        `coupon ${id}: slots ${toolMm > 0 ? `narrower than the ${lengthText(toolMm)} mm bit` : `no wider than the ${lengthText(removed)} mm kerf`} are left out (` +
+        `coupon ${id}: slots ${toolMm > 0 ? `narrower than the ${lengthText(toolMm)} mm bit` : `not wider than the ${lengthText(removed)} mm kerf by ${MIN_DRAWN_SLOT_MM} mm`} are left out (` +
           all
             .filter((x) => !series.includes(x))
             .map((x) => x.toFixed(2))

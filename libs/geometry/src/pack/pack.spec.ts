@@ -597,6 +597,41 @@ describe('createCutPack failures and the command-line helper', () => {
     }
   });
 
+  it('grows the SVG page to hold a scale mark that lies below a sheet narrower than the mark', async () => {
+    // An 11.2 mm square sheet filled by one piece: the 50 mm bar can only go below it, and reaches well past
+    // its right edge. W3C SVG: whatever lies outside the viewBox is clipped, so the page must hold all of it.
+    const spec = design({
+      solid: 'cube',
+      piece: { sides: 4, rotationDeg: 45, size: 1.7 },
+      scale: { by: 'diameter', mm: 15 },
+      stock: { thicknessMm: 0.3, flexible: false },
+      machine: { kind: 'laser', kerfMm: 0.05 },
+    });
+    const r = await createCutPack(
+      input(spec, {
+        sheet: { widthMm: 11.202, heightMm: 11.202 },
+        marginMm: 1,
+        gapMm: 0.5,
+        colours: ['saffron'],
+        archive: false,
+      }),
+    );
+    expect(r.manifest.warnings ?? []).toContainEqual(expect.stringMatching(/it lies below the sheet/));
+    for (const f of sheetsOf(r, 'svg')) {
+      const s = readSvg(f.data);
+      const [x0, y0, w, h] = s.viewBox as [number, number, number, number];
+      // One user unit is still one millimetre, and the sheet's corner still at (0, sheet height) as in the DXF.
+      expect([s.width, s.height]).toEqual([w, h]);
+      expect(x0).toBe(0);
+      expect(y0).toBe(0);
+      const drawn = [...s.cut, ...s.mark].flat();
+      expect(Math.max(...drawn.map((p) => p[0]))).toBeLessThanOrEqual(x0 + w);
+      expect(Math.max(...drawn.map((p) => p[1]))).toBeLessThanOrEqual(y0 + h);
+      expect(w).toBeGreaterThan(50);
+      expect(Math.min(...drawn.map((p) => p[0]))).toBeGreaterThanOrEqual(x0);
+    }
+  });
+
   it('lays router pieces a bit diameter and 1 mm apart and says so when the gap asked for is narrower', async () => {
     const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
     const r = await createCutPack(

@@ -39,16 +39,29 @@ export function sheetToDxf(sheet: SheetDrawing, units: Units): string {
   return d.toDxfString();
 }
 
-/** The sheet as SVG text: the viewBox spans the sheet in the file's units, y flipped to point down. */
+/**
+ * The sheet as SVG text: the viewBox spans the sheet in the file's units, y flipped to point down, with the
+ * sheet's lower-left corner at (0, height) as in the DXF. The page is the sheet, grown (with 1 mm to spare) only
+ * where something is drawn past its edges: the scale mark when the sheet had no room for it, which lies below
+ * the sheet and may be longer than the sheet is wide.
+ */
 export function sheetToSvg(sheet: SheetDrawing, units: Units): string {
   const k = unitScale(units);
-  // The page is the sheet, grown downward (with 1 mm to spare) only when something is drawn below it: the
-  // scale mark when the sheet had no room for it.
-  let lowest = 0;
-  for (const s of [...sheet.mark, ...sheet.cut]) for (const p of s) lowest = Math.min(lowest, p[1]);
-  const minY = lowest < -1e-9 ? lowest - 1 : 0;
-  const h = sheet.heightMm - minY;
-  const w = sheet.widthMm;
+  let [minX, minY, maxX, maxY] = [0, 0, sheet.widthMm, sheet.heightMm];
+  for (const s of [...sheet.mark, ...sheet.cut])
+    for (const p of s) {
+      minX = Math.min(minX, p[0]);
+      minY = Math.min(minY, p[1]);
+      maxX = Math.max(maxX, p[0]);
+      maxY = Math.max(maxY, p[1]);
+    }
+  const grow = (past: number, edge: number, dir: 1 | -1) => (dir * (past - edge) > 1e-9 ? past + dir : edge);
+  const left = grow(minX, 0, -1);
+  const right = grow(maxX, sheet.widthMm, 1);
+  const bottom = grow(minY, 0, -1);
+  const top = grow(maxY, sheet.heightMm, 1);
+  const w = right - left;
+  const h = top - bottom;
   const xy = (p: Vec2) => `${fmt(p[0] * k)} ${fmt((sheet.heightMm - p[1]) * k)}`;
   const path = (s: readonly Vec2[], closed: boolean) =>
     `<path d="M ${s.map(xy).join(' L ')}${closed ? ' Z' : ''}"/>`;
@@ -56,7 +69,7 @@ export function sheetToSvg(sheet: SheetDrawing, units: Units): string {
   return [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(w * k)}${units}" height="${fmt(h * k)}${units}" ` +
-      `viewBox="0 0 ${fmt(w * k)} ${fmt(h * k)}">`,
+      `viewBox="${fmt(left * k)} ${fmt((sheet.heightMm - top) * k)} ${fmt(w * k)} ${fmt(h * k)}">`,
     `<title>${escapeXml(sheet.title)}</title>`,
     `<g id="${DXF_LAYERS.mark.name}" fill="none" stroke="${SVG_LAYER_COLOURS.mark}" stroke-width="${hairline}">`,
     ...sheet.mark.map((s) => path(s, false)),

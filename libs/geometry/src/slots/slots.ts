@@ -1,3 +1,4 @@
+import type { MachineSpec } from '@kerfwright/contracts';
 import { type Vec2, add2, at, scale2, sub2, toRad } from '../math/vec';
 import { type Polygon, lineIntervals } from '../math/polygon';
 import { type Crossing, crossingDirIn, defaultSlotOption } from '../crossings/crossings';
@@ -24,6 +25,22 @@ export interface Slot {
 }
 
 /** Nominal slot width: t·cot(θ/2) for rigid stock cut square to its faces, t for flexible stock. */
+/**
+ * The narrowest slot a laser may be asked to draw after its kerf is taken off (mm): below it the two cut lines
+ * of the slot's walls merge into one and no slot is left (the cut pack's coupon keeps the same limit).
+ */
+export const MIN_DRAWN_SLOT_MM = 0.01;
+
+/**
+ * Whether a slot of this width can be cut by the machine: wider than a laser's kerf by MIN_DRAWN_SLOT_MM, or at
+ * least as wide as a router's bit (1e-9 mm absorbs rounding, e.g. tan 45° = 0.9999999999999999).
+ */
+export function slotCuttable(widthMm: number, machine: MachineSpec): boolean {
+  return machine.kind === 'laser'
+    ? widthMm - machine.kerfMm >= MIN_DRAWN_SLOT_MM - 1e-9
+    : widthMm >= machine.toolDiameterMm - 1e-9;
+}
+
 export function nominalSlotWidth(thicknessMm: number, angleDeg: number, flexible: boolean): number {
   if (flexible) return thicknessMm;
   return thicknessMm / Math.tan(toRad(angleDeg) / 2);

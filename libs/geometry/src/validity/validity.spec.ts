@@ -63,6 +63,32 @@ describe('validity report', () => {
     expect(codes(tooTight.errors)).toEqual(['SLOT.WIDTH_NOT_POSITIVE']);
   });
 
+  it('refuses a slot exactly as wide as the kerf, and a width that is zero but for rounding', () => {
+    // A cube's faces cross at 90°: w = t·cot 45° + fit = 3 − 2.9 = 0.1 mm, the kerf itself; the cuts of the two
+    // walls coincide and no slot is left to draw (derived).
+    const atKerf = buildModel(
+      cubeSquares45(1.5, { stock: { thicknessMm: 3 }, fitMm: -2.9, machine: { kind: 'laser', kerfMm: 0.1 } }),
+    ).report;
+    expect(codes(atKerf.errors)).toEqual(['SLOT.NARROWER_THAN_KERF']);
+    expect(atKerf.errors[0]!.message).toMatch(/is not wider than the 0\.1 mm kerf by 0\.01 mm at least/);
+    // 3·cot 45° − 3 is 4.4e-16 in floating point (tan 45° = 0.9999999999999999): no width, with or without a kerf.
+    for (const kerfMm of [0, 0.15]) {
+      const zero = buildModel(
+        cubeSquares45(1.5, { stock: { thicknessMm: 3 }, fitMm: -3, machine: { kind: 'laser', kerfMm } }),
+      ).report;
+      expect(codes(zero.errors)).toEqual(['SLOT.WIDTH_NOT_POSITIVE']);
+    }
+    // 0.01 mm left between the walls is still a slot.
+    const justWider = buildModel(
+      cubeSquares45(1.5, {
+        stock: { thicknessMm: 3 },
+        fitMm: -2.89,
+        machine: { kind: 'laser', kerfMm: 0.1 },
+      }),
+    ).report;
+    expect(codes(justWider.errors)).toEqual([]);
+  });
+
   it('reports a design whose pieces do not touch', () => {
     const r = buildModel(design({ solid: 'cube', piece: { sides: 4, size: 0.9 } })).report;
     expect(r.crossings).toEqual([]);
