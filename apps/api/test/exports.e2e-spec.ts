@@ -404,6 +404,58 @@ describe('cut-pack exports worked by separate worker processes', () => {
     await stopWorker(worker);
   });
 
+  it('cancels a queued pack when its job is returned: approved again, the job waits for a new release', async () => {
+    // No worker yet: the release is owed in the queue (a backlog, or Redis down), then the job is returned.
+    const jobId = await approvedJob(ctx, w, p);
+    const act = async (u: TestUser, action: string, body: Record<string, unknown> = {}, status = 200) => {
+      const current = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.supervisor)).expect(200);
+      return ctx.http
+        .post(`/api/jobs/${jobId}/${action}`)
+        .set(auth(u))
+        .send({ version: current.body.version, ...body })
+        .expect(status);
+    };
+    const owed = (await act(p.fabricator, 'release', {}, 202)).body.exportId as string;
+    await act(p.fabricator, 'return', { reason: 'Wrong colours on the rack' });
+    const cancelled = await ctx.http.get(`/api/exports/${owed}`).set(auth(p.fabricator)).expect(200);
+    expect(cancelled.body).toMatchObject({ state: 'failed', errorCode: 'EXPORT.JOB_CHANGED', files: [] });
+    // Corrected and approved again: nobody has asked for its release yet.
+    await act(p.owner, 'reopen');
+    await act(p.owner, 'request');
+    await act(p.fabricator, 'prepare', {
+      materialId: w.acrylicId,
+      profileVersionId: w.laserVersionId,
+      colours: ['clear'],
+    });
+    await act(p.supervisor, 'approve');
+    const worker = startWorker(env);
+    workers.push(worker);
+    await worker.ready;
+    // A new release is a new pack (the cancelled one is not reused); the worker takes the old queue entry
+    // first and builds nothing for it.
+    const fresh = (await act(p.fabricator, 'release', {}, 202)).body.exportId as string;
+    expect(fresh).not.toBe(owed);
+    const done = await pollExport(
+      ctx,
+      p.fabricator,
+      fresh,
+      (v) => v.state === 'done' || v.state === 'failed',
+    );
+    expect(done.state).toBe('done');
+    expect(
+      (await ctx.http.get(`/api/exports/${owed}`).set(auth(p.fabricator)).expect(200)).body,
+    ).toMatchObject({
+      state: 'failed',
+      errorCode: 'EXPORT.JOB_CHANGED',
+      attempts: 0,
+      files: [],
+    });
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    expect(job.body.state).toBe('released');
+    expect(job.body.transitions.filter((t: { action: string }) => t.action === 'release')).toHaveLength(1);
+    await stopWorker(worker);
+  });
+
   it('finishes exactly once after the worker building it is killed (SIGKILL) half-way', async () => {
     const jobId = await approvedJob(ctx, w, p);
     const slow = { ...env, KW_EXPORT_STEP_DELAY_MS: '700' };

@@ -103,6 +103,13 @@ export function allowedJobActions(state: JobState, role: Role, isOwner: boolean)
  */
 export const JOB_EDITABLE_STATES: readonly JobState[] = ['draft'];
 
+/**
+ * States of a job whose cut pack may be built: approved (the build releases it) or released (a re-export). A cut
+ * or closed job is done with the machine; a returned one is not to be cut. A job that leaves these states
+ * cancels a pack still queued or being built.
+ */
+export const JOB_PACK_STATES: readonly JobState[] = ['approved', 'released'];
+
 /** Who may change a job's copies and notes (while JOB_EDITABLE_STATES has its state): its requester or a supervisor. */
 export function mayChangeJobRequest(role: Role, isOwner: boolean): boolean {
   return isOwner || role === 'supervisor';

@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { type EntityManager } from 'typeorm';
 import {
   type CutPackInput,
-  type JobState,
+  JOB_PACK_STATES,
   type MaterialFamily,
   noticeApplies,
   pricedSheet,
@@ -95,17 +95,11 @@ export class CutPackInputService {
 }
 
 /**
- * States of a job whose cut pack may be built: approved (the build releases it) or released (a re-export). A cut
- * or closed job is done with the machine; a returned one is not to be cut.
- */
-export const EXPORTABLE: readonly JobState[] = ['approved', 'released'];
-
-/**
  * A cut pack is built only for an approved job (whose release it is) or a released one (a re-export): a job
  * returned, cut or closed meanwhile gets no files (EXPORT.JOB_CHANGED, final).
  */
 export function assertJobExportable(job: Pick<Job, 'state'>): void {
-  if (!EXPORTABLE.includes(job.state)) {
+  if (!JOB_PACK_STATES.includes(job.state)) {
     throw new ExportFailure(
       'EXPORT.JOB_CHANGED',
       `The job is ${job.state} now; a cut pack is built only for an approved or released job`,

@@ -86,14 +86,14 @@ export class ExportsProcessor implements OnApplicationBootstrap {
       this.dataSource.manager,
       `UPDATE exports SET state = 'running', progress = 0, attempts = attempts + 1, started_at = now(),
               finished_at = NULL
-        WHERE id = $1 AND state <> 'done'
+        WHERE id = $1 AND state IN ('queued', 'running')
         RETURNING id, job_id AS "jobId", requested_by AS "requestedBy", created_at AS "createdAt",
                   storage_prefix AS "storagePrefix"`,
       [exportId],
     );
     const exp = started[0];
     if (!exp) {
-      // Done already: nothing to do, exactly once. A missing row means the job was deleted, or this worker
+      // Done already, or failed (a job returned meanwhile cancels its pack): nothing to do, exactly once. A missing row means the job was deleted, or this worker
       // reads another database than the API that queued it (check KW_DB_* and KW_QUEUE_PREFIX).
       const known: unknown[] = await this.dataSource.query(`SELECT 1 FROM exports WHERE id = $1`, [exportId]);
       if (known.length === 0) this.logger.warn(`export ${exportId} is not in this database; skipped`);
@@ -112,7 +112,7 @@ export class ExportsProcessor implements OnApplicationBootstrap {
         .query(
           `UPDATE exports SET state = $2::export_state, error_code = $3, error_message = $4,
                   finished_at = CASE WHEN $5::boolean THEN now() ELSE NULL END
-            WHERE id = $1 AND state <> 'done'`,
+            WHERE id = $1 AND state = 'running'`,
           [exportId, final ? 'failed' : 'queued', code, message, final],
         )
         .catch((e: unknown) =>
@@ -210,10 +210,20 @@ export class ExportsProcessor implements OnApplicationBootstrap {
         m,
         `UPDATE exports SET state = 'done', progress = 100, finished_at = now(), error_code = NULL,
                 error_message = NULL, manifest = $2
-          WHERE id = $1 AND state <> 'done' RETURNING id`,
+          WHERE id = $1 AND state = 'running' RETURNING id`,
         [exp.id, JSON.stringify(manifest)],
       );
-      if (done.length === 0) return; // another worker finished it first
+      if (done.length === 0) {
+        const [row] = await m.query<{ state: string; error_message: string | null }[]>(
+          `SELECT state, error_message FROM exports WHERE id = $1`,
+          [exp.id],
+        );
+        // Cancelled while it was built (the job returned and, maybe, approved again since): its files go.
+        if (row?.state === 'failed') {
+          throw new ExportFailure('EXPORT.JOB_CHANGED', row.error_message ?? 'The cut pack was cancelled');
+        }
+        return; // another worker finished it first
+      }
       await m.delete(ExportFile, { exportId: exp.id });
       await m.insert(ExportFile, files);
       await this.audit.record(m, {

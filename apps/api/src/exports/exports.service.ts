@@ -13,6 +13,7 @@ import {
   CUT_PACK_ROLES_PRINTING_SAFETY,
   type ExportRequested,
   type ExportView,
+  JOB_PACK_STATES,
   transitionFor,
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
@@ -24,7 +25,6 @@ import { assertVersion, canReadJob } from '../jobs/job-access';
 import { JobPreparationService } from '../jobs/job-preparation.service';
 import { noticeVersionKeys, SafetyService } from '../safety/safety.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
-import { EXPORTABLE } from './cut-pack-input';
 import { exportPrefix, isSafeFileName } from './export-keys';
 import { Export, ExportFile } from './export.entity';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
@@ -95,7 +95,7 @@ export class ExportsService {
       const job = await m.findOne(Job, { where: { id: jobId }, lock: { mode: 'pessimistic_write' } });
       if (!job || !canReadJob(user, job)) throw notFound('JOB', 'No such job');
       check?.(job);
-      if (!EXPORTABLE.includes(job.state)) {
+      if (!JOB_PACK_STATES.includes(job.state)) {
         const done = job.state === 'cut' || job.state === 'closed';
         throw new AppError(
           HttpStatus.CONFLICT,
@@ -103,7 +103,7 @@ export class ExportsService {
           done
             ? `${withArticle(job.state)} job gets no new cut pack; its files stay as they were released`
             : `${withArticle(job.state)} job has no cut pack yet; it must be approved first`,
-          { state: job.state, allowed: EXPORTABLE },
+          { state: job.state, allowed: JOB_PACK_STATES },
         );
       }
       // The files are built for the machine and material as prepared: both must pass preparation's checks

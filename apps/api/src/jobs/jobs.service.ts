@@ -10,6 +10,7 @@ import {
   type JobState,
   type JobView,
   JOB_EDITABLE_STATES,
+  JOB_PACK_STATES,
   layoutChoiceOf,
   type MachineProfileKind,
   mayChangeJobRequest,
@@ -548,6 +549,16 @@ export class JobsService {
       actorId,
       reason,
     });
+    // A job that leaves the states a cut pack is built in takes its pending pack with it: a pack queued before
+    // a return would otherwise be built, and release the job, once it is approved again, with nobody asking.
+    if (JOB_PACK_STATES.includes(from) && !JOB_PACK_STATES.includes(rule.to)) {
+      await m.query(
+        `UPDATE exports SET state = 'failed', error_code = 'EXPORT.JOB_CHANGED', error_message = $2,
+                finished_at = now()
+          WHERE job_id = $1 AND state IN ('queued', 'running')`,
+        [job.id, `The job was ${rule.to} before its cut pack was built; the pack is not built`],
+      );
+    }
     // The audit service adds the design's name, so the trail can say which job ("Job “Felt honeycomb ball” approved").
     await this.audit.record(m, {
       actorId,

@@ -1,4 +1,4 @@
-import { type JobState, type JobView } from '@kerfwright/contracts';
+import { JOB_PACK_STATES, type JobView } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
@@ -184,12 +184,6 @@ function DeskCards({
   );
 }
 
-/**
- * The states a cut pack is built in, as the API allows (an approved job at its release, a released one
- * again): a job stays on screen after its cut, but its pack is not rebuilt then.
- */
-const PACK_BUILT_IN: readonly JobState[] = ['approved', 'released'];
-
 /** One job at the desk: the safety acknowledgement, the cut pack's files and recording the cut. */
 function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   const user = useUser();
@@ -266,7 +260,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
       <CutPackPanel
         jobId={job.id}
         jobVersion={job.version}
-        canPrepare={user.role === 'supervisor' && PACK_BUILT_IN.includes(job.state)}
+        canPrepare={user.role === 'supervisor' && JOB_PACK_STATES.includes(job.state)}
         canDownload={user.role === 'operator' || user.role === 'supervisor'}
         jobDone={job.state === 'cut' || job.state === 'closed'}
         prepareBlocked={packPrepareBlockedReason(job)}
