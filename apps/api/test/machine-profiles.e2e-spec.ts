@@ -36,7 +36,13 @@ interface VersionBody {
   number: number;
   state: string;
   lockVersion: number;
-  settings: { materialId: string; kerfMm?: number; toolDiameterMm?: number; materialName: string }[];
+  settings: {
+    materialId: string;
+    kerfMm?: number;
+    toolDiameterMm?: number;
+    materialName: string;
+    laserCondition?: string;
+  }[];
   basedOnNumber: number | null;
   returnReason: string | null;
 }
@@ -134,10 +140,14 @@ describe('machine profiles, versions and kerf records', () => {
     ).body as VersionBody;
     return { p, v };
   }
-  async function approved(overrides: Record<string, unknown> = {}) {
+  async function approved(
+    overrides: Record<string, unknown> = {},
+    checked: { conditionsChecked?: boolean } = {},
+  ) {
     const { p, v } = await submitted(overrides);
-    const a = (await act('supervisor', p, v, 'approve', { lockVersion: v.lockVersion }).expect(200))
-      .body as VersionBody;
+    const a = (
+      await act('supervisor', p, v, 'approve', { lockVersion: v.lockVersion, ...checked }).expect(200)
+    ).body as VersionBody;
     return { p, v: a };
   }
   async function kerfRecord(p: { id: string }, materialId: string, kerfMm: number) {
@@ -599,6 +609,40 @@ describe('machine profiles, versions and kerf records', () => {
       await createProfile({ kind: 'cnc-router', settings: [routerSetting(pvc)] });
     });
 
+    it('approves a laser version with materials cut only on a condition once the approver says each was checked', async () => {
+      // The hazard table (safety/material-hazards.json): felt, and a material it does not list ("other"), go
+      // on a laser only on a condition; plywood outright.
+      const unlisted = await material('other');
+      const { p, v } = await submitted({
+        settings: [laserSetting(plywood), laserSetting(felt, 0.2), laserSetting(unlisted)],
+      });
+      const conditions = v.settings
+        .filter((s: { laserCondition?: string }) => s.laserCondition)
+        .map((s: { materialId: string }) => s.materialId);
+      expect(conditions).toEqual([felt, unlisted]);
+      const refused = await act('supervisor', p, v, 'approve', { lockVersion: v.lockVersion }).expect(409);
+      expectErrorBody(refused.body, 409, 'MACHINE_PROFILE.CONDITIONS_UNCHECKED');
+      expect(refused.body.details.conditions.map((c: { materialId: string }) => c.materialId)).toEqual([
+        felt,
+        unlisted,
+      ]);
+      expect(refused.body.details.conditions[1].condition).toMatch(/safety data sheet/);
+      await act('supervisor', p, v, 'approve', {
+        lockVersion: v.lockVersion,
+        conditionsChecked: null,
+      }).expect(400);
+      const ok = await act('supervisor', p, v, 'approve', {
+        lockVersion: v.lockVersion,
+        conditionsChecked: true,
+      });
+      expect(ok.status).toBe(200);
+      // A router's bit has no such conditions: its versions need no confirmation.
+      const router = await submitted({ kind: 'cnc-router', settings: [routerSetting(felt)] });
+      await act('supervisor', router.p, router.v, 'approve', { lockVersion: router.v.lockVersion }).expect(
+        200,
+      );
+    });
+
     it('refuses to approve a version whose material was taken off the laser after it was submitted', async () => {
       const { p, v } = await submitted({ settings: [laserSetting(acrylic)] });
       const m = (await ctx.http.get(`/api/materials/${acrylic}`).set(auth('fabricator')).expect(200)).body;
@@ -688,7 +732,10 @@ describe('machine profiles, versions and kerf records', () => {
 
   describe('kerf records', () => {
     it('records measured kerfs, lists the history by material, and adopts one into a new draft', async () => {
-      const { p, v } = await approved({ settings: [laserSetting(plywood), laserSetting(felt, 0.2)] });
+      const { p, v } = await approved(
+        { settings: [laserSetting(plywood), laserSetting(felt, 0.2)] },
+        { conditionsChecked: true },
+      );
       const r1 = await kerfRecord(p, plywood, 0.17);
       await kerfRecord(p, felt, 0.25);
       const r3 = await kerfRecord(p, plywood, 0.16);

@@ -53,6 +53,11 @@ export interface ProfileSetting {
 export interface ProfileSettingView extends ProfileSetting {
   /** Name of the material, for display (empty when the material was removed). */
   materialName: string;
+  /**
+   * The hazard table's condition on the material's family when a laser may cut it only on a condition (felt,
+   * an unlisted material): a supervisor approving a laser profile version confirms it was checked.
+   */
+  laserCondition?: string;
 }
 
 export interface MachineProfileVersionView {
@@ -138,6 +143,15 @@ export interface ProfileTransitionRequest {
  */
 export interface ProfileDecisionRequest {
   lockVersion: number;
+}
+
+/** Body of POST …/versions/:versionId/approve. */
+export interface ApproveProfileVersionRequest extends ProfileDecisionRequest {
+  /**
+   * A laser version holding settings for materials with a laser condition (ProfileSettingView.laserCondition)
+   * is approved only with this set: the supervisor has checked every condition (409 otherwise).
+   */
+  conditionsChecked?: boolean;
 }
 
 /** Body of POST …/versions/:versionId/return. */

@@ -127,6 +127,18 @@ export function laserRefusal(family: string, table: readonly MaterialHazard[]): 
   return null;
 }
 
+/**
+ * The condition a laser may cut a material family on, when the table allows it only on one (felt, a material
+ * not listed): `{ laserCondition }`, else `{}` (allowed outright, or refused: see laserRefusal).
+ */
+export function laserConditionOf(
+  family: string,
+  table: readonly MaterialHazard[],
+): { laserCondition?: string } {
+  const row = findMaterialHazard(family, table);
+  return row?.laser === 'conditional' && row.condition ? { laserCondition: row.condition } : {};
+}
+
 /** True when a notice concerns the given machine kind and material family. */
 export function noticeApplies(
   notice: Pick<SafetyNotice, 'appliesTo'>,

@@ -64,10 +64,16 @@ export class KerfRecord {
 
 const iso = (d: Date | null): string | null => (d ? d.toISOString() : null);
 
-/** The version as the API shows it; material names come from the caller (id → name). */
+/** What a version's view tells of a material: its name, and the laser condition on its family if any. */
+export interface SettingMaterial {
+  name: string;
+  laserCondition?: string;
+}
+
+/** The version as the API shows it; what it tells of the materials comes from the caller (by id). */
 export function toVersionView(
   v: MachineProfileVersion,
-  names: ReadonlyMap<string, string>,
+  materials: ReadonlyMap<string, SettingMaterial>,
 ): MachineProfileVersionView {
   return {
     id: v.id,
@@ -79,7 +85,14 @@ export function toVersionView(
     rapidSpeedMmS: v.rapidSpeedMmS,
     hourlyRate: v.hourlyRate,
     currency: v.currency,
-    settings: v.settings.map((s) => ({ ...s, materialName: names.get(s.materialId) ?? '' })),
+    settings: v.settings.map((s) => {
+      const m = materials.get(s.materialId);
+      return {
+        ...s,
+        materialName: m?.name ?? '',
+        ...(m?.laserCondition ? { laserCondition: m.laserCondition } : {}),
+      };
+    }),
     notes: v.notes,
     returnReason: v.returnReason,
     basedOnNumber: v.basedOnNumber,

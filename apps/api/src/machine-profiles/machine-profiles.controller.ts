@@ -26,6 +26,7 @@ import {
   MachineProfileVersionResponse,
 } from './dto/machine-profile.response';
 import {
+  ApproveProfileVersionDto,
   CreateProfileVersionDto,
   ProfileDecisionDto,
   ProfileTransitionDto,
@@ -160,12 +161,15 @@ export class MachineProfilesController {
     description:
       'AUTH.FORBIDDEN: supervisors only; MACHINE_PROFILE.SELF_APPROVAL: the caller drafted, edited or submitted this version (four-eyes rule)',
   })
-  @ApiConflictResponse({ description: 'MACHINE_PROFILE.INVALID_STATE or MACHINE_PROFILE.STALE_VERSION' })
+  @ApiConflictResponse({
+    description:
+      'MACHINE_PROFILE.INVALID_STATE, MACHINE_PROFILE.STALE_VERSION, or MACHINE_PROFILE.CONDITIONS_UNCHECKED (a laser version with materials cut only on a condition, approved without conditionsChecked)',
+  })
   approve(
     @CurrentUser() user: AuthUser,
     @Param('id', uuid) id: string,
     @Param('versionId', uuid) versionId: string,
-    @Body() dto: ProfileDecisionDto,
+    @Body() dto: ApproveProfileVersionDto,
     @Req() req: unknown,
   ): Promise<MachineProfileVersionView> {
     return this.profiles.approve(actorOf(user, req), id, versionId, dto);

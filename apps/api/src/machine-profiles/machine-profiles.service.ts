@@ -4,6 +4,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager, In } from 'typeorm';
 import {
   isLaserKind,
+  laserConditionOf,
   laserRefusal,
   type MachineProfileDetailView,
   type MachineProfileKind,
@@ -26,13 +27,19 @@ import { Material } from '../materials/material.entity';
 import { type CreateMachineProfileDto } from './dto/create-machine-profile.dto';
 import { type ListMachineProfilesQueryDto } from './dto/list-machine-profiles.query';
 import {
+  type ApproveProfileVersionDto,
   type CreateProfileVersionDto,
   type ProfileDecisionDto,
   type ProfileTransitionDto,
   type ReturnProfileVersionDto,
   type UpdateProfileVersionDto,
 } from './dto/profile-version-requests.dto';
-import { MachineProfile, MachineProfileVersion, toVersionView } from './machine-profile.entity';
+import {
+  MachineProfile,
+  MachineProfileVersion,
+  type SettingMaterial,
+  toVersionView,
+} from './machine-profile.entity';
 import { contentLimitErrors, settingErrors } from './profile-rules';
 
 /** Who is acting, for the audit trail and mails. */
@@ -52,7 +59,7 @@ type VersionChanges = Partial<Omit<MachineProfileVersion, 'id' | 'profileId' | '
 
 const AREA = 'MACHINE_PROFILE';
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-const noNames = new Map<string, string>();
+const noNames = new Map<string, SettingMaterial>();
 
 /** A version as the audit trail keeps it: its view, and its profile's name so that an entry can say which. */
 async function versionSnapshot(
@@ -117,12 +124,12 @@ export class MachineProfilesService {
           order: { number: 'DESC' },
         })
       : [];
-    const names = await this.materialNames(manager, versions);
+    const materials = await this.settingMaterials(manager, versions);
     const items = profiles.map((p) =>
       this.summary(
         p,
         versions.filter((v) => v.profileId === p.id),
-        names,
+        materials,
       ),
     );
     return { items, total, page, pageSize };
@@ -282,7 +289,7 @@ export class MachineProfilesService {
     actor: ProfileActor,
     profileId: string,
     versionId: string,
-    dto: ProfileDecisionDto,
+    dto: ApproveProfileVersionDto,
   ): Promise<MachineProfileVersionView> {
     return this.versionStep('approve', profileId, versionId, dto, async (manager, profile, v) => {
       // Four eyes: whoever wrote any of the version's content (drafted it, edited it, adopted a kerf into it)
@@ -298,6 +305,26 @@ export class MachineProfilesService {
       }
       // Materials may have changed since the version was submitted (e.g. marked not laser-allowed).
       await this.checkContent(manager, profile.kind, this.contentOf(v));
+      // A laser cuts some materials only on a condition (the hazard table's): approving is confirming that
+      // each was checked, so the approver must say so.
+      if (isLaserKind(profile.kind) && !dto.conditionsChecked) {
+        const conditional = (await this.view(manager, v)).settings.filter((s) => s.laserCondition);
+        if (conditional.length > 0) {
+          throw new AppError(
+            HttpStatus.CONFLICT,
+            `${AREA}.CONDITIONS_UNCHECKED`,
+            `Version ${v.number} holds settings for ${conditional.map((s) => s.materialName).join(', ')}, which a laser ` +
+              'may cut only on a condition; check each and approve with conditionsChecked: true',
+            {
+              conditions: conditional.map((s) => ({
+                materialId: s.materialId,
+                materialName: s.materialName,
+                condition: s.laserCondition,
+              })),
+            },
+          );
+        }
+      }
       const previous = await manager.findOneBy(MachineProfileVersion, { profileId, state: 'approved' });
       if (previous) {
         await this.change(
@@ -551,7 +578,7 @@ export class MachineProfilesService {
   }
 
   async view(manager: EntityManager, v: MachineProfileVersion): Promise<MachineProfileVersionView> {
-    return toVersionView(v, await this.materialNames(manager, [v]));
+    return toVersionView(v, await this.settingMaterials(manager, [v]));
   }
 
   contentOf(v: ProfileVersionContent): Required<ProfileVersionContent> {
@@ -654,23 +681,26 @@ export class MachineProfilesService {
       where: { profileId: id },
       order: { number: 'DESC' },
     });
-    const names = await this.materialNames(manager, versions);
-    return { ...this.summary(p, versions, names), versions: versions.map((v) => toVersionView(v, names)) };
+    const materials = await this.settingMaterials(manager, versions);
+    return {
+      ...this.summary(p, versions, materials),
+      versions: versions.map((v) => toVersionView(v, materials)),
+    };
   }
 
   /** Versions newest first. */
   private summary(
     p: MachineProfile,
     versions: MachineProfileVersion[],
-    names: ReadonlyMap<string, string>,
+    materials: ReadonlyMap<string, SettingMaterial>,
   ): MachineProfileSummaryView {
     const approved = versions.find((v) => v.state === 'approved');
     return {
       id: p.id,
       name: p.name,
       kind: p.kind,
-      currentApproved: approved ? toVersionView(approved, names) : null,
-      latest: toVersionView(versions[0]!, names),
+      currentApproved: approved ? toVersionView(approved, materials) : null,
+      latest: toVersionView(versions[0]!, materials),
       createdAt: p.createdAt.toISOString(),
     };
   }
@@ -683,14 +713,19 @@ export class MachineProfilesService {
     return { ...(await this.view(manager, v)), profileName: profile.name, kind: profile.kind };
   }
 
-  private async materialNames(
+  /** The versions' materials: names, and the hazard table's laser condition on a conditional family. */
+  private async settingMaterials(
     manager: EntityManager,
     versions: readonly MachineProfileVersion[],
-  ): Promise<Map<string, string>> {
+  ): Promise<Map<string, SettingMaterial>> {
     const ids = [...new Set(versions.flatMap((v) => v.settings.map((s) => s.materialId)))];
     if (ids.length === 0) return new Map();
-    const rows = await manager.find(Material, { where: { id: In(ids) }, select: { id: true, name: true } });
-    return new Map(rows.map((m) => [m.id, m.name]));
+    const rows = await manager.find(Material, {
+      where: { id: In(ids) },
+      select: { id: true, name: true, family: true },
+    });
+    const table = await this.hazards.rows(manager);
+    return new Map(rows.map((m) => [m.id, { name: m.name, ...laserConditionOf(m.family, table) }]));
   }
 
   private async mapDbErrors<T>(work: Promise<T>): Promise<T> {

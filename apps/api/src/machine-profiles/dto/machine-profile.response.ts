@@ -15,6 +15,11 @@ import {
 export class ProfileSettingResponse implements ProfileSettingView {
   @ApiProperty({ format: 'uuid' }) materialId: string;
   @ApiProperty() materialName: string;
+  @ApiPropertyOptional({
+    description:
+      'The hazard table’s condition on the material’s family when a laser may cut it only on one (felt, an unlisted material)',
+  })
+  laserCondition?: string;
   @ApiPropertyOptional() kerfMm?: number;
   @ApiPropertyOptional() toolDiameterMm?: number;
   @ApiProperty() cutSpeedMmS: number;

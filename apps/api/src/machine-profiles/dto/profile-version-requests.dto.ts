@@ -1,7 +1,8 @@
 import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsNotEmpty, IsString, MaxLength } from 'class-validator';
+import { IsBoolean, IsNotEmpty, IsString, MaxLength } from 'class-validator';
 import {
+  type ApproveProfileVersionRequest,
   type CreateProfileVersionRequest,
   MACHINE_PROFILE_LIMITS as L,
   type ProfileDecisionRequest,
@@ -47,6 +48,16 @@ export class ProfileDecisionDto implements ProfileDecisionRequest {
   })
   @IsRowVersion()
   lockVersion: number;
+}
+
+export class ApproveProfileVersionDto extends ProfileDecisionDto implements ApproveProfileVersionRequest {
+  @ApiPropertyOptional({
+    description:
+      'True when the approver has checked the laser condition of every material that carries one (laserCondition in the version’s settings); required for such a laser version',
+  })
+  @OptionalNotNull()
+  @IsBoolean()
+  conditionsChecked?: boolean;
 }
 
 export class ReturnProfileVersionDto extends ProfileDecisionDto implements ReturnProfileVersionRequest {

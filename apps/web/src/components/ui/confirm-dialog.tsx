@@ -18,6 +18,10 @@ interface ConfirmDialogProps {
   /** Says what the button does, in the words of the button that opened the dialog ("Approve the job"). */
   confirmLabel: ReactNode;
   confirmColor?: ButtonProps['color'];
+  /** More than a sentence below it (a list, a box to tick), outside the sentence's paragraph. */
+  extra?: ReactNode;
+  /** Confirming waits for something the dialog asks (a box ticked). */
+  confirmDisabled?: boolean;
   /** The request is under way: the button spins and the dialog cannot be closed. */
   busy: boolean;
   /** The API's refusal, if there is one. */
@@ -34,6 +38,8 @@ export function ConfirmDialog({
   children,
   confirmLabel,
   confirmColor,
+  extra,
+  confirmDisabled = false,
   busy,
   error,
   onConfirm,
@@ -45,12 +51,19 @@ export function ConfirmDialog({
       <DialogContent>
         <FormErrorAlert error={error} />
         <Typography>{children}</Typography>
+        {extra}
       </DialogContent>
       <DialogActions>
         <Button onClick={onClose} disabled={busy}>
           Cancel
         </Button>
-        <Button variant="contained" color={confirmColor} loading={busy} onClick={onConfirm}>
+        <Button
+          variant="contained"
+          color={confirmColor}
+          loading={busy}
+          disabled={confirmDisabled}
+          onClick={onConfirm}
+        >
           {confirmLabel}
         </Button>
       </DialogActions>

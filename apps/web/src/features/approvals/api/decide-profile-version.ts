@@ -10,16 +10,21 @@ export interface ProfileDecision {
   /** Approve, or send back to draft with the reason. */
   decision: 'approve' | 'return';
   reason?: string;
+  /** Approving: the laser conditions of the version's materials were checked (the API asks when there are any). */
+  conditionsChecked?: boolean;
 }
 
 /**
- * POST /api/machine-profiles/:id/versions/:versionId/approve { lockVersion } (the approved one before is
- * retired), or …/return { lockVersion, reason } (back to draft). Supervisors only.
+ * POST /api/machine-profiles/:id/versions/:versionId/approve { lockVersion, conditionsChecked? } (the approved
+ * one before is retired), or …/return { lockVersion, reason } (back to draft). Supervisors only.
  */
 export function decideProfileVersion(d: ProfileDecision): Promise<MachineProfileVersionView> {
   const base = `/machine-profiles/${encodeURIComponent(d.profileId)}/versions/${encodeURIComponent(d.versionId)}`;
   return d.decision === 'approve'
-    ? api.post<MachineProfileVersionView>(`${base}/approve`, { lockVersion: d.lockVersion })
+    ? api.post<MachineProfileVersionView>(`${base}/approve`, {
+        lockVersion: d.lockVersion,
+        ...(d.conditionsChecked ? { conditionsChecked: true } : {}),
+      })
     : api.post<MachineProfileVersionView>(`${base}/return`, { lockVersion: d.lockVersion, reason: d.reason });
 }
 

@@ -214,6 +214,35 @@ describe('Approvals (supervisor)', () => {
     await waitFor(() => expect(screen.getByRole('heading', { name: /^Jobs/ })).toHaveFocus());
   });
 
+  it('asks the approver to confirm the laser conditions of felt and unlisted materials, and says so to the API', async () => {
+    // The hazard table's conditions (safety/material-hazards.json), as the API puts them on the settings.
+    const felt = {
+      ...setting,
+      materialId: 'm-felt',
+      materialName: 'Wool felt 3 mm',
+      laserCondition:
+        "The fibre content is known from the supplier's data sheet and the felt has no adhesive backing.",
+    };
+    const withFelt = { ...profile, latest: { ...waiting, settings: [setting, felt] } };
+    const { calls } = approvalsApi(job, withFelt);
+    const { user } = renderApp('/approvals', { token: 't' });
+    const card = await screen.findByTestId('waiting-version-CO2 laser, 60 W');
+    expect(within(card).getByTestId('laser-conditions')).toHaveTextContent(
+      "Wool felt 3 mm: The fibre content is known from the supplier's data sheet",
+    );
+    await user.click(within(card).getByRole('button', { name: 'Approve version 2: CO2 laser, 60 W' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Approve version 2 of CO2 laser, 60 W?' });
+    const approve = within(dialog).getByRole('button', { name: 'Approve version 2' });
+    expect(approve).toBeDisabled();
+    await user.click(
+      within(dialog).getByRole('checkbox', { name: /I have checked the laser condition of Wool felt 3 mm/ }),
+    );
+    expect(approve).toBeEnabled();
+    await user.click(approve);
+    await waitFor(() => expect(calls.some((c) => c.method === 'POST')).toBe(true));
+    expect(calls.find((c) => c.method === 'POST')?.body).toEqual({ lockVersion: 2, conditionsChecked: true });
+  });
+
   it('gives a changed hourly rate per hour', async () => {
     approvalsApi(job, { ...profile, latest: { ...waiting, hourlyRate: 26 } });
     renderApp('/approvals', { token: 't' });

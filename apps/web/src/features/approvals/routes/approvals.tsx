@@ -3,7 +3,9 @@ import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Card from '@mui/material/Card';
 import CardContent from '@mui/material/CardContent';
+import Checkbox from '@mui/material/Checkbox';
 import Chip from '@mui/material/Chip';
+import FormControlLabel from '@mui/material/FormControlLabel';
 import Typography from '@mui/material/Typography';
 import { useEffect, useRef, useState } from 'react';
 import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
@@ -20,6 +22,7 @@ import { useWaitingJobs } from '../api/get-waiting-jobs';
 import { useWaitingVersions } from '../api/get-waiting-versions';
 import { DecisionActions } from '../components/decision-actions';
 import { SendBackDialog } from '../components/send-back-dialog';
+import { LaserConditions, laserConditionsOf } from '../components/laser-conditions';
 import { VersionChanges } from '../components/version-changes';
 import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
@@ -55,6 +58,8 @@ export function ApprovalsRoute() {
   // Approving asks first, as the job page does: a dialog says what follows, its button approves.
   const [confirming, setConfirming] = useState<Deciding>(null);
   const [notice, setNotice] = useState<string | null>(null);
+  // A version with materials a laser cuts only on a condition is approved with the box ticked.
+  const [conditionsChecked, setConditionsChecked] = useState(false);
   // A decided card leaves its list (and the button that opened the dialog with it): the keyboard focus goes
   // to its section's heading then, instead of falling to the page.
   const versionsHeading = useRef<HTMLHeadingElement>(null);
@@ -74,11 +79,12 @@ export function ApprovalsRoute() {
   const confirmApproval = (what: NonNullable<Deciding>) => {
     decideVersion.reset();
     decideJob.reset();
+    setConditionsChecked(false);
     setConfirming(what);
   };
   const approveVersion = (p: MachineProfileSummaryView) =>
     decideVersion.mutate(
-      { ...decidingOn(p), decision: 'approve' },
+      { ...decidingOn(p), decision: 'approve', conditionsChecked },
       {
         onSuccess: (v) => {
           setConfirming(null);
@@ -172,6 +178,7 @@ export function ApprovalsRoute() {
                   : 'No version is approved yet: every value is new.'}
               </Typography>
               <VersionChanges approved={p.currentApproved} waiting={p.latest} />
+              <LaserConditions conditions={laserConditionsOf(p)} />
               {p.latest.notes && !notesAmongChanges(p) ? (
                 <Typography variant="body2" sx={{ mt: 2 }} data-testid="version-notes">
                   Notes (unchanged): {p.latest.notes}
@@ -263,6 +270,23 @@ export function ApprovalsRoute() {
           confirmLabel={`Approve version ${confirming.profile.latest.number}`}
           busy={decideVersion.isPending}
           error={decideVersion.error}
+          extra={
+            laserConditionsOf(confirming.profile).length > 0 ? (
+              <FormControlLabel
+                sx={{ mt: 1 }}
+                control={
+                  <Checkbox
+                    checked={conditionsChecked}
+                    onChange={(e) => setConditionsChecked(e.target.checked)}
+                  />
+                }
+                label={`I have checked the laser condition of ${laserConditionsOf(confirming.profile)
+                  .map((c) => c.material)
+                  .join(', ')}`}
+              />
+            ) : null
+          }
+          confirmDisabled={laserConditionsOf(confirming.profile).length > 0 && !conditionsChecked}
           onConfirm={() => approveVersion(confirming.profile)}
           onClose={() => setConfirming(null)}
         >
