@@ -189,11 +189,18 @@ describe('cut-pack exports worked inside the API process', () => {
       .body as ExportView;
     const guide = view.files.find((f) => f.role === 'assembly-guide')!;
     const sheet = view.files.find((f) => f.role === 'sheet-dxf')!;
-    // Staff who have not acknowledged the current notices: 403, whoever they are.
-    for (const u of [p.supervisor, p.fabricator]) {
-      const res = await download(ctx, u, exportId, sheet.name, 403);
-      expectErrorBody(JSON.parse(res.body.toString()), 403, 'SAFETY.ACKNOWLEDGEMENT_REQUIRED');
-    }
+    // Staff who have not acknowledged the current notices: 403. A fabricator, who cannot acknowledge them,
+    // is told that downloads are the operators' and supervisors'.
+    expectErrorBody(
+      JSON.parse((await download(ctx, p.supervisor, exportId, sheet.name, 403)).body.toString()),
+      403,
+      'SAFETY.ACKNOWLEDGEMENT_REQUIRED',
+    );
+    expectErrorBody(
+      JSON.parse((await download(ctx, p.fabricator, exportId, sheet.name, 403)).body.toString()),
+      403,
+      'EXPORT.DOWNLOAD_NOT_ALLOWED',
+    );
     await acknowledge(ctx, p.supervisor, jobId);
     await download(ctx, p.supervisor, exportId, sheet.name, 200);
     const acks: { notice_versions: { id: string; version: number }[]; created_at: Date }[] =
@@ -402,6 +409,52 @@ describe('cut-pack exports worked by separate worker processes', () => {
     );
     expect(done.state).toBe('done');
     await stopWorker(worker);
+  });
+
+  it('ends the progress stream of a user deactivated while watching it', async () => {
+    // No worker runs here: the pack stays queued and the stream would stay open.
+    const jobId = await approvedJob(ctx, w, p);
+    const exportId = await (async () => {
+      const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+      const res = await ctx.http
+        .post(`/api/jobs/${jobId}/release`)
+        .set(auth(p.fabricator))
+        .send({ version: job.body.version })
+        .expect(202);
+      return res.body.exportId as string;
+    })();
+    const watcher = await createUser(ctx, 'operator');
+    const started = Date.now();
+    const stream = ctx.http
+      .get(`/api/exports/${exportId}/events`)
+      .set(auth(watcher))
+      .buffer(true)
+      .parse((r, done) => {
+        let text = '';
+        r.setEncoding('utf8');
+        r.on('data', (c: string) => (text += c));
+        r.on('end', () => done(null, text));
+      })
+      .timeout(15_000)
+      // Sent now (a supertest request goes out when it is first awaited).
+      .then((r) => r);
+    await sleep(800);
+    await ctx.http
+      .patch(`/api/users/${watcher.id}`)
+      .set(auth(p.supervisor))
+      .send({ active: false })
+      .expect(200);
+    const sse = await stream;
+    expect(Date.now() - started).toBeLessThan(10_000);
+    expect(sse.body as string).toContain('"state":"queued"');
+    await ctx.http.get(`/api/exports/${exportId}/events`).set(auth(watcher)).expect(401);
+    // Returned, the job takes its queued pack with it (no later worker builds it).
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    await ctx.http
+      .post(`/api/jobs/${jobId}/return`)
+      .set(auth(p.fabricator))
+      .send({ version: job.body.version, reason: 'Test over' })
+      .expect(200);
   });
 
   it('cancels a queued pack when its job is returned: approved again, the job waits for a new release', async () => {
@@ -658,6 +711,20 @@ describe('cut packs whose job changes while they are built', () => {
     } finally {
       await ctx.db.query(`UPDATE jobs SET state = 'released' WHERE id = $1`, [jobId]);
     }
+    // Cut since, then the rules change: its setup sheet prints old ones and no new pack is built for a cut job,
+    // which the refusal says (instead of asking for a rebuild nobody can make); the cutting files stay.
+    await ctx.db.query(`UPDATE jobs SET state = 'cut' WHERE id = $1`, [jobId]);
+    await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(p.supervisor))
+      .send({ body: `Rules after the cut ${jobId}` })
+      .expect(200);
+    await acknowledge(ctx, p.operator, jobId);
+    const setup = view.files.find((f) => f.role === 'setup-sheet')!.name;
+    const old = JSON.parse((await download(ctx, p.operator, view.id, setup, 409)).body.toString());
+    expectErrorBody(old, 409, 'EXPORT.SAFETY_CHANGED');
+    expect(old.message).toMatch(/the job is cut, so no new pack is built/);
+    await download(ctx, p.operator, view.id, view.files.find((f) => f.role === 'sheet-dxf')!.name, 200);
   });
 
   it("rebuilds a released job's pack on the version it was released on after a newer one retired it; an approved job's not", async () => {

@@ -186,6 +186,8 @@ export class DesignsService {
     file: { originalname: string; buffer: Buffer },
     requestId: string,
   ): Promise<DesignView> {
+    // Whose design it is comes before the engine's work: nobody else's upload is parsed at all.
+    await this.findWritable(this.dataSource.manager, user, id);
     const { format, text, name } = readSolidUpload(file);
     await checkSolidText(this.threads, format, text, name);
     return this.dataSource.transaction(async (m) => {

@@ -16,6 +16,7 @@ import {
   ApiBearerAuth,
   ApiExtraModels,
   ApiConflictResponse,
+  ApiForbiddenResponse,
   ApiOkResponse,
   ApiOperation,
   ApiProduces,
@@ -137,7 +138,7 @@ export class ExportsController {
   @Get('exports/:id/files/:name')
   @ApiOperation({
     summary:
-      'Download one file (staff: after acknowledging the job’s current safety notices; hobbyists: their own assembly guide)',
+      'Download one file (operators and supervisors: after acknowledging the job’s current safety notices; hobbyists: their own assembly guide; not fabricators)',
   })
   @ApiProduces(...FILE_CONTENT_TYPES)
   @ApiOkResponse({
@@ -146,6 +147,10 @@ export class ExportsController {
     content: Object.fromEntries(
       FILE_CONTENT_TYPES.map((t) => [t, { schema: { type: 'string', format: 'binary' } }]),
     ),
+  })
+  @ApiForbiddenResponse({
+    description:
+      'SAFETY.ACKNOWLEDGEMENT_REQUIRED (operators and supervisors: the job’s current notices not yet acknowledged) or EXPORT.DOWNLOAD_NOT_ALLOWED (fabricators)',
   })
   @ApiConflictResponse({
     description:

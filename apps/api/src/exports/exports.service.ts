@@ -166,7 +166,10 @@ export class ExportsService {
   async events(user: AuthUser, id: string): Promise<Observable<MessageEvent>> {
     await this.visible(user, id);
     return timer(0, POLL_MS).pipe(
-      switchMap(() => from(this.get(user, id))),
+      // The account is read again at every look, as every request reads it: a user deactivated (or given
+      // another role) while the stream is open gets nothing more; the stream ends and a reconnect gets 401.
+      switchMap(() => from(this.stillSignedIn(user).then((ok) => (ok ? this.get(user, id) : null)))),
+      takeWhile((v): v is ExportView => v !== null),
       distinctUntilChanged(
         (a, b) => a.state === b.state && a.progress === b.progress && a.attempts === b.attempts,
       ),
@@ -175,16 +178,37 @@ export class ExportsService {
     );
   }
 
+  /** Whether the stream's user is still active in the role they signed in with. */
+  private async stillSignedIn(user: AuthUser): Promise<boolean> {
+    const rows: { active: boolean; role: string }[] = await this.dataSource.query(
+      `SELECT active, role FROM users WHERE id = $1`,
+      [user.id],
+    );
+    return rows[0]?.active === true && rows[0].role === user.role;
+  }
+
   /**
    * Opens one file of a done export. The name is checked against the strict pattern and looked up in
-   * PostgreSQL; only the stored key of that row ever reaches the storage driver. Staff need a current
-   * acknowledgement of the job's safety notices; a hobbyist may fetch their own job's assembly guide only.
+   * PostgreSQL; only the stored key of that row ever reaches the storage driver. Operators and supervisors need
+   * a current acknowledgement of the job's safety notices; a hobbyist may fetch their own job's assembly guide
+   * only; fabricators download nothing (they cannot acknowledge notices).
    */
   async open(user: AuthUser, id: string, name: string): Promise<OpenedFile> {
     const exp = await this.visible(user, id);
     const missing = () =>
       new AppError(HttpStatus.NOT_FOUND, 'EXPORT.FILE_NOT_FOUND', 'No such file in this export');
     if (!isSafeFileName(name)) throw missing();
+    // Fabricators prepare jobs; the files go to the machines through operators (and supervisors), who
+    // acknowledge the notices first (which a fabricator cannot: a refusal asking them to would mislead).
+    if (user.role === 'fabricator') {
+      throw new AppError(
+        HttpStatus.FORBIDDEN,
+        'EXPORT.DOWNLOAD_NOT_ALLOWED',
+        "Operators and supervisors download a job's files, after acknowledging its safety notices; " +
+          'the job page lists what the cut pack holds',
+        { jobId: exp.jobId },
+      );
+    }
     if (user.role !== 'hobbyist') {
       const safety = await this.safety.forJob(user, exp.jobId);
       if (!safety.acknowledged) {
@@ -224,8 +248,12 @@ export class ExportsService {
       throw new AppError(
         HttpStatus.CONFLICT,
         'EXPORT.SAFETY_CHANGED',
-        'The safety notices or workshop rules changed since this cut pack was built, so its setup sheet prints ' +
-          'old ones: a fabricator or supervisor builds the cut pack again, then download the new one',
+        JOB_PACK_STATES.includes(job.state)
+          ? 'The safety notices or workshop rules changed since this cut pack was built, so its setup sheet prints ' +
+              'old ones: a fabricator or supervisor builds the cut pack again, then download the new one'
+          : `The safety notices or workshop rules changed since this job's cut pack was built, so its setup sheet ` +
+              `prints old ones; the job is ${job.state}, so no new pack is built. Its cutting files and assembly ` +
+              'guide can still be downloaded',
         { exportId: exp.id, role: file.role },
       );
     }
