@@ -260,6 +260,75 @@ describe('solveColourPlan — neighbour-distinct', () => {
   });
 });
 
+describe('solveColourPlan — the most even plan when no balanced one exists', () => {
+  /** How far a plan's counts stray outside floor(n/k)…ceil(n/k). */
+  const stray = (counts: number[], n: number, k: number) =>
+    Math.max(0, ...counts.map((x) => Math.max(Math.floor(n / k) - x, x - Math.ceil(n / k))));
+
+  it('gives an icosahedron under opposite-match counts as even as pairs allow (derived)', () => {
+    // Opposite faces share a colour, so every count is even: 20 faces are 10 pairs; in 4 colours at best
+    // 3/3/2/2 pairs (6/6/4/4 faces), in 7 colours 2/2/2/1/1/1/1 pairs (4/4/4/2/2/2/2).
+    for (const [k, even] of [
+      [4, [4, 4, 6, 6]],
+      [7, [2, 2, 2, 2, 4, 4, 4]],
+    ] as const) {
+      const r = plan('icosahedron', 'opposite-match', k, { normals: true });
+      expect(r.result.feasible).toBe(true);
+      expect(r.result.balanced).toBe(false);
+      expect([...r.result.colourCounts].sort((a, b) => a - b)).toEqual(even);
+      expect(satisfies('opposite-match', r.solid.faces, r.solid.normals, r.colours)).toBe(true);
+    }
+  });
+
+  it('strays from n/k no further than the most even plan an exhaustive search finds', () => {
+    const cases: [keyof typeof SOLIDS, ColourRule, number][] = [
+      ['hexPyramid', 'neighbour-distinct', 3],
+      ['hexPyramid', 'neighbour-distinct', 4],
+      ['hexPyramid', 'vertex-distinct', 7],
+      ['octahedron', 'opposite-match', 3],
+      ['cube', 'opposite-match', 4],
+      ['cube', 'opposite-match', 5],
+    ];
+    for (const [name, rule, k] of cases) {
+      const s = SOLIDS[name];
+      const n = s.faces.length;
+      // Exhaustive: every colouring of the faces, the least stray among those meeting the rule.
+      let best = Infinity;
+      const colours = new Array<number>(n).fill(0);
+      const go = (f: number): void => {
+        if (f === n) {
+          if (satisfies(rule, s.faces, s.normals, colours)) {
+            const counts = Array.from({ length: k }, (_, c) => colours.filter((x) => x === c).length);
+            best = Math.min(best, stray(counts, n, k));
+          }
+          return;
+        }
+        for (let c = 0; c < k; c++) {
+          colours[f] = c;
+          go(f + 1);
+        }
+      };
+      go(0);
+      const r = plan(name, rule, k, { normals: true });
+      expect({ name, rule, k, feasible: r.result.feasible }).toEqual({
+        name,
+        rule,
+        k,
+        feasible: best < Infinity,
+      });
+      if (best < Infinity) {
+        expect({ name, rule, k, stray: stray(r.result.colourCounts, n, k) }).toEqual({
+          name,
+          rule,
+          k,
+          stray: best,
+        });
+        expect(satisfies(rule, s.faces, s.normals, r.colours)).toBe(true);
+      }
+    }
+  });
+});
+
 describe('solveColourPlan — vertex-distinct', () => {
   it('octahedron needs 4 colours (4 faces meet at each vertex — from the brief; brute-forced here)', () => {
     const s = SOLIDS.octahedron;

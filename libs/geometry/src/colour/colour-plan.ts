@@ -9,8 +9,8 @@
  *
  * Balance: with n faces and k colours, every colour is used floor(n/k) or ceil(n/k) times (equal counts when
  * k divides n). Under 'opposite-match' each opposite pair counts twice, so balance is sought over faces as
- * well. If the rule can be met only with unequal counts, the plan is returned with feasible = true and
- * balanced = false; if it cannot be met at all, feasible = false, message says "no plan exists" and
+ * well. If the rule can be met only with unequal counts, the most even plan (the counts nearest n/k) is
+ * returned with feasible = true and balanced = false; if it cannot be met at all, feasible = false, message says "no plan exists" and
  * fewestColours is the smallest count that meets it (found by trying k + 1, k + 2, … colours).
  *
  * Solved as a Boolean satisfiability problem with logic-solver (MiniSat compiled to JavaScript): one variable
@@ -175,15 +175,34 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
     }
   const lo = Math.floor(n / k);
   const hi = Math.ceil(n / k);
-  const balanceTerms: Logic.Formula[] = [];
-  for (let c = 0; c < k; c++) {
-    const s = Logic.sum(Array.from({ length: n }, (_, f) => v(f, c)));
-    balanceTerms.push(Logic.lessThanOrEqual(s, Logic.constantBits(hi)));
-    balanceTerms.push(Logic.greaterThanOrEqual(s, Logic.constantBits(lo)));
-  }
-  const balance = Logic.and(balanceTerms);
+  const sums = Array.from({ length: k }, (_, c) => Logic.sum(Array.from({ length: n }, (_, f) => v(f, c))));
+  /** Every colour used between `min` and `max` times. */
+  const band = (min: number, max: number) =>
+    Logic.and(
+      sums.flatMap((s) => [
+        Logic.lessThanOrEqual(s, Logic.constantBits(max)),
+        Logic.greaterThanOrEqual(s, Logic.constantBits(min)),
+      ]),
+    );
+  const balance = band(lo, hi);
   let solution = solver.solveAssuming(balance);
-  if (!solution) solution = solver.solve();
+  if (!solution) {
+    // No balanced plan: any plan at all? Then the most even one, the band around n/k widened one count at a
+    // time up to the spread of the plan found (so an answer that exists is never missed, and none is
+    // needlessly uneven: an icosahedron under 'opposite-match' in 4 colours gets 6/6/4/4, not 8/4/4/4).
+    solution = solver.solve();
+    if (solution) {
+      const counts = readCounts(solution, n, k);
+      const spread = Math.max(...counts.map((x) => Math.max(lo - x, x - hi)));
+      for (let d = 1; d < spread; d++) {
+        const even = solver.solveAssuming(band(Math.max(0, lo - d), Math.min(n, hi + d)));
+        if (even) {
+          solution = even;
+          break;
+        }
+      }
+    }
+  }
   const base = { rule, count: k };
   if (!solution) {
     const infeasible: ColourPlan = {
@@ -234,6 +253,11 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
   }
   if (notes.length > 0) plan.message = notes.join('; ');
   return plan;
+}
+
+function readCounts(solution: Logic.Solution, n: number, k: number): number[] {
+  const colours = readColours(solution, n, k);
+  return Array.from({ length: k }, (_, c) => colours.filter((x) => x === c).length);
 }
 
 function readColours(solution: Logic.Solution, n: number, k: number): number[] {
