@@ -178,6 +178,29 @@ describe('release desk', () => {
     expect(await screen.findByTestId('desk-job')).toHaveTextContent('Turned squares');
   });
 
+  it('opens one job after another as one step of history, and says so when a link names no job there', async () => {
+    stubDesk(
+      false,
+      {},
+      {
+        'GET /api/jobs/j-gone': () =>
+          json(404, { statusCode: 404, code: 'JOB.NOT_FOUND', message: 'No such job' }),
+      },
+    );
+    const { user, router } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    await screen.findByTestId('desk-job');
+    await user.click(screen.getByRole('button', { name: 'Open Star lamp' }));
+    await waitFor(() => expect(router.state.location.search).toBe('?job=j-packing'));
+    // Back closes the job instead of reopening the first one.
+    await act(() => router.navigate(-1));
+    await waitFor(() => expect(screen.queryByTestId('desk-job')).not.toBeInTheDocument());
+    expect(router.state.location.search).toBe('');
+    // A link to a job that is not at the desk is said, not silently dropped.
+    await act(() => router.navigate('/release-desk?job=j-gone'));
+    expect(await screen.findByTestId('desk-job-missing')).toHaveTextContent('could not be found at the desk');
+  });
+
   it('once the cut is recorded, closes the job from the desk', async () => {
     const cut = { ...released, state: 'cut' as const, actions: ['close' as const], version: 8 };
     const stub = stubDesk(
@@ -337,6 +360,34 @@ describe('release desk', () => {
     });
   });
 
+  it('gives the keyboard back to the job once its cut is recorded and its button gone', async () => {
+    let cutDone = false;
+    stubDesk(
+      true,
+      {},
+      {
+        [`GET /api/jobs/${released.id}`]: () =>
+          json(200, {
+            ...released,
+            ...(cutDone ? { state: 'cut', actions: ['close'], version: 8 } : {}),
+            transitions: [],
+          }),
+        [`POST /api/jobs/${released.id}/cut`]: () => {
+          cutDone = true;
+          return json(200, { ...released, state: 'cut', actions: ['close'], version: 8 });
+        },
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await user.click(await within(job).findByRole('button', { name: 'Record the cut' }));
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '21');
+    await user.click(within(screen.getByRole('dialog')).getByRole('button', { name: 'Record the cut' }));
+    await within(job).findByRole('button', { name: 'Close the job' });
+    await waitFor(() => expect(within(job).getByRole('heading', { name: 'Turned squares' })).toHaveFocus());
+  });
+
   it('says when the safety notices changed since the pack was built, and offers no stale setup sheet', async () => {
     const done = exportFixture('e-r', released.id, 'done', 100);
     stubDesk(true, {
@@ -402,7 +453,7 @@ describe('release desk', () => {
     stubDesk(true);
     // jsdom does not scroll: the page's move to its top is recorded instead.
     const scrollTo = vi.spyOn(window, 'scrollTo').mockImplementation(() => undefined);
-    const { user } = renderApp('/release-desk', { token: 't' });
+    const { user, router } = renderApp('/release-desk', { token: 't' });
     const cards = await screen.findByRole('list', { name: 'Jobs at the release desk' });
     expect(screen.queryByRole('table', { name: 'Jobs at the release desk' })).not.toBeInTheDocument();
     const card = (await within(cards).findByText('Turned squares')).closest('li') as HTMLElement;
@@ -426,5 +477,8 @@ describe('release desk', () => {
     expect(screen.queryByTestId('desk-job')).not.toBeInTheDocument();
     // Back on the list, on the button of the job just left.
     await waitFor(() => expect(screen.getByRole('button', { name: 'Open Turned squares' })).toHaveFocus());
+    // The page's button went back a step: the job is not in the history ahead of the desk's list.
+    expect(router.state.location.search).toBe('');
+    expect(router.state.historyAction).toBe('POP');
   });
 });

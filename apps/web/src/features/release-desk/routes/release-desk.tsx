@@ -20,7 +20,7 @@ import { useTheme } from '@mui/material/styles';
 import useMediaQuery from '@mui/material/useMediaQuery';
 import { useQuery } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
@@ -46,7 +46,18 @@ export function ReleaseDeskRoute() {
   // The opened job is in the address (?job=…): the browser's Back closes it, and a link to it opens it.
   const [params, setParams] = useSearchParams();
   const selectedId = params.get('job');
-  const setSelectedId = (id: string | null) => setParams(id === null ? {} : { job: id });
+  const navigate = useNavigate();
+  const openedHere = (useLocation().state as { openedAtDesk?: boolean } | null)?.openedAtDesk === true;
+  // Opening a job adds one step to the history (another job opened instead replaces it); closing one goes
+  // back that step, so the browser's Back then leaves the desk instead of reopening the job.
+  const setSelectedId = (id: string | null) => {
+    if (id === null) {
+      if (openedHere) void navigate(-1);
+      else setParams({}, { replace: true });
+    } else {
+      setParams({ job: id }, { replace: selectedId !== null && openedHere, state: { openedAtDesk: true } });
+    }
+  };
   // The opened job is read on its own, so it stays on screen after the cut (when it leaves the queue).
   const detail = useQuery({ ...jobQueryOptions(selectedId ?? ''), enabled: selectedId !== null });
   const selected = detail.data ?? desk.rows.find((r) => r.job.id === selectedId)?.job ?? null;
@@ -77,6 +88,13 @@ export function ReleaseDeskRoute() {
         />
       ) : null}
       {desk.isPending ? <CircularProgress aria-label="Loading the jobs" /> : null}
+      {selectedId !== null && detail.isError && !selected ? (
+        // A link to a job that is not there (or not for this role): said, not silently dropped.
+        <Alert severity="warning" sx={{ mb: 2 }} data-testid="desk-job-missing">
+          The job this link opens could not be found at the desk; it may have been closed, or the link is
+          incomplete. Choose a job from the list.
+        </Alert>
+      ) : null}
       {!desk.isPending && !desk.error && desk.rows.length === 0 ? (
         <Alert severity="info">No job is waiting for the machines.</Alert>
       ) : null}
@@ -201,6 +219,13 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
     // On opening only: turning the phone does not scroll the page again.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
+  // A cut recorded or a job closed takes away the button used: the keyboard goes back to the job's name.
+  const shownState = useRef(job.state);
+  useEffect(() => {
+    if (shownState.current === job.state) return;
+    shownState.current = job.state;
+    heading.current?.focus({ preventScroll: true });
+  }, [job.state]);
   const safety = useJobSafety(job.id, true);
   const action = useTakeJobAction();
   const [open, setOpen] = useState<'safety' | 'cut' | 'close' | null>(null);
