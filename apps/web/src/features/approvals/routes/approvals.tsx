@@ -126,7 +126,7 @@ export function ApprovalsRoute() {
           onSuccess: () => {
             setSendingBack(null);
             setDecided({ section: 'jobs', id: j.id });
-            setNotice(`${j.designName} is sent back.`);
+            setNotice(`${j.designName} is returned, with your reason.`);
           },
         },
       );

@@ -39,13 +39,25 @@ export function packFailureText(view: Pick<ExportView, 'errorCode' | 'errorMessa
  * has been retired since. The API refuses its pack (409), and the job cannot go back to preparation but by
  * being returned. (A released job's pack is rebuilt on the version it was released on, so it stays offered.)
  */
-export function packPrepareBlockedReason(
-  job: Pick<JobView, 'state' | 'profileVersionRetired' | 'profileName' | 'profileVersionNumber'>,
-): string | null {
+export function packPrepareBlockedReason(job: RetiredVersionJob): string | null {
+  return retiredVersionSentence(job, 'no cut pack can be prepared for it');
+}
+
+/** Why an approved job is not offered for release: the same retired version (the release builds the pack). */
+export function releaseBlockedReason(job: RetiredVersionJob): string | null {
+  return retiredVersionSentence(job, 'it cannot be released to the machines');
+}
+
+type RetiredVersionJob = Pick<
+  JobView,
+  'state' | 'profileVersionRetired' | 'profileName' | 'profileVersionNumber'
+>;
+
+function retiredVersionSentence(job: RetiredVersionJob, consequence: string): string | null {
   if (job.state !== 'approved' || !job.profileVersionRetired) return null;
   return (
     `${job.profileName ?? 'The machine profile'} version ${job.profileVersionNumber ?? '?'}, which this job was ` +
-    'prepared on, has been retired since, so no cut pack can be prepared for it. Return the job with a reason: ' +
+    `prepared on, has been retired since, so ${consequence}. Return the job with a reason: ` +
     'once it is requested again, it is prepared on the current version.'
   );
 }

@@ -315,9 +315,12 @@ describe('job detail', () => {
       /^CO2 laser, 60 W version 1, which this job was prepared on, has been retired since/,
     );
     expect(within(pack).queryByRole('button', { name: /^Prepare the cut pack/ })).not.toBeInTheDocument();
-    expect(
-      within(screen.getByTestId('job-actions')).getByRole('button', { name: 'Return with a reason' }),
-    ).toBeInTheDocument();
+    const actions = screen.getByTestId('job-actions');
+    expect(within(actions).getByRole('button', { name: 'Return with a reason' })).toBeInTheDocument();
+    // Beside the actions, why there is no release.
+    expect(within(actions).getByTestId('release-blocked')).toHaveTextContent(
+      /version 1, which this job was prepared on, has been retired since, so it cannot be released to the machines/,
+    );
   });
 
   it('tells the recorded machine time from the estimated one', async () => {

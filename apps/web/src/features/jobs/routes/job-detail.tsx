@@ -40,7 +40,7 @@ import {
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
-import { packPrepareBlockedReason } from '../lib/pack-text';
+import { packPrepareBlockedReason, releaseBlockedReason } from '../lib/pack-text';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
 import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
 import { ConfirmJobActionDialog } from '../components/confirm-job-action-dialog';
@@ -259,6 +259,11 @@ function JobDetail({ job }: { job: JobDetailView }) {
         {[
           ['approve-blocked', approveBlocked],
           ['cut-waits', cutWaits ? 'Acknowledge the safety notices before recording the cut.' : null],
+          // Release is not offered for a job prepared on a version retired since: said here, by the actions.
+          [
+            'release-blocked',
+            user.role === 'fabricator' || user.role === 'supervisor' ? releaseBlockedReason(job) : null,
+          ],
         ].map(([testId, note]) =>
           note ? (
             <Typography
@@ -388,7 +393,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
                 <TableCell>When</TableCell>
                 <TableCell>Step</TableCell>
                 <TableCell>By</TableCell>
-                <TableCell>Reason</TableCell>
+                <TableCell>Reason or change</TableCell>
               </TableRow>
             </TableHead>
             <TableBody>

@@ -178,6 +178,31 @@ describe('Materials page (fabricator)', () => {
     updatedAt: '2026-01-01T00:00:00.000Z',
   };
 
+  it('shows the condition a laser cuts a material on beside "Allowed"', async () => {
+    // The hazard table's condition on felt (safety/material-hazards.json), kept as the material's note.
+    const felt: MaterialView = {
+      ...pvc,
+      id: 'm-felt',
+      name: 'Wool felt 2 mm',
+      family: 'felt',
+      flexible: true,
+      laserAllowed: true,
+      hazardNote:
+        "Laser only when: The fibre content is known from the supplier's data sheet and the felt has no adhesive backing.",
+    };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, fabricator),
+      'GET /api/safety/hazards': () => json(200, hazards),
+      'GET /api/materials': () => json(200, { items: [felt], total: 1, page: 1, pageSize: 25 }),
+    });
+    renderApp('/materials', { token: 't' });
+    const row = await screen.findByTestId('material-Wool felt 2 mm');
+    expect(within(row).getByText('Allowed')).toBeInTheDocument();
+    expect(within(row).getByTestId('laser-note')).toHaveTextContent(
+      /^Laser only when: The fibre content is known/,
+    );
+  });
+
   it('lists prohibited materials with their reason, sorts through the API and sends a new material', async () => {
     const { calls } = stubFetch({
       'GET /api/auth/me': () => json(200, fabricator),

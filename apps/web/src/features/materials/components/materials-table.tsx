@@ -68,7 +68,15 @@ const COLUMNS: readonly Column[] = [
     cellSx: { maxWidth: 320 },
     render: (m) =>
       m.laserAllowed ? (
-        <Chip size="small" color="success" variant="outlined" label="Allowed" />
+        <>
+          <Chip size="small" color="success" variant="outlined" label="Allowed" />
+          {/* A family a laser cuts only on a condition (felt, an unlisted material) carries it in its note. */}
+          {m.hazardNote ? (
+            <Typography variant="body2" color="text.secondary" sx={{ mt: 0.5 }} data-testid="laser-note">
+              {m.hazardNote}
+            </Typography>
+          ) : null}
+        </>
       ) : (
         <>
           <Chip size="small" color="error" label="Not for lasers" />
