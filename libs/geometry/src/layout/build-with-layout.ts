@@ -87,6 +87,9 @@ function resolvedSpecOf(input: DesignSpec, model: BuiltModel): DesignSpec {
 /** Most models one fitSheets search builds (a model with design errors is built but not laid out). */
 export const FIT_SHEETS_MAX_BUILDS = 32;
 
+/** Sizes tried above a fitSheets result, as factors of it (see fitSheetsSearch, step 4). */
+const FIT_SHEETS_PROBES = [1.01, 1.02] as const;
+
 /**
  * The largest model whose layout uses at most `scale.sheets` sheets, with no design errors. A size can fail
  * two ways: too large (its layout needs more sheets, or a piece does not fit the sheet), or too small for
@@ -99,7 +102,9 @@ export const FIT_SHEETS_MAX_BUILDS = 32;
  *    for the stock ends the steps, and the window between it and the smallest size too large is bisected
  *    (the sizes that fit may lie only there: a 0.85 step can jump over them);
  * 3. bisect (geometric mean) between the largest fitting and the smallest failing size until they differ
- *    by FIT_SHEETS_TOLERANCE (0.5 %), or FIT_SHEETS_MAX_LAYOUTS layouts (FIT_SHEETS_MAX_BUILDS models) ran.
+ *    by FIT_SHEETS_TOLERANCE (0.5 %), or FIT_SHEETS_MAX_LAYOUTS layouts (FIT_SHEETS_MAX_BUILDS models) ran;
+ * 4. probe 1 % and 2 % above the result (nesting is not monotone, so a slightly larger size may fit again);
+ *    the largest probe that fits is taken, and the window up to the next size that failed is bisected.
  * When no size fits, the report has error SCALE.NO_FIT (with the last model tried), saying which way the
  * sizes failed. The colour plan is solved once (it does not depend on the size); without one
  * (COLOUR.NO_PLAN) no search runs.
@@ -135,7 +140,8 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
   const at = (mmPerUnit: number) => evaluate(buildAtScale(spec, solid, mmPerUnit));
   const budgetLeft = () => layouts < FIT_SHEETS_MAX_LAYOUTS && builds < FIT_SHEETS_MAX_BUILDS;
   const apart = (a: Trial, b: Trial) => a.model.mmPerUnit / b.model.mmPerUnit - 1 > FIT_SHEETS_TOLERANCE;
-  let hi: Trial = evaluate(upper.model);
+  const top: Trial = evaluate(upper.model);
+  let hi: Trial = top;
   let lo: Trial | null = hi.fits ? hi : null;
   /** The largest size found too small for the stock, below every size found too large. */
   let small: Trial | null = null;
@@ -174,10 +180,34 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
     if (hi.layout) noteLayout(model, hi.layout);
     return { model, layout: hi.layout, resolvedSpec: resolvedSpecOf(input, model) };
   }
-  while (lo !== hi && apart(hi, lo) && budgetLeft()) {
-    const t = at(Math.sqrt(lo.model.mmPerUnit * hi.model.mmPerUnit));
-    if (t.fits) lo = t;
-    else hi = t;
+  const bisect = () => {
+    while (lo && lo !== hi && apart(hi, lo) && budgetLeft()) {
+      const t = at(Math.sqrt(lo.model.mmPerUnit * hi.model.mmPerUnit));
+      if (t.fits) lo = t;
+      else hi = t;
+    }
+  };
+  bisect();
+  // Nesting is not monotone in the size: a size just above the smallest one found failing may fit again
+  // (a layout's luck changes with the pieces' size). Probes 1 % and 2 % above the result, below the upper
+  // bound, catch the common case; the largest that fits becomes the result, and the window up to the next
+  // size that failed (a probe, or the upper bound) is bisected.
+  if (lo !== hi) {
+    const base = lo.model.mmPerUnit;
+    const failed: Trial[] = [top];
+    for (const f of FIT_SHEETS_PROBES) {
+      if (base * f >= upper.model.mmPerUnit || !budgetLeft()) break;
+      const t = at(base * f);
+      if (t.fits) lo = t;
+      else failed.push(t);
+    }
+    const size = (t: Trial) => t.model.mmPerUnit;
+    const above = failed.filter((t) => size(t) > size(lo!)).sort((a, b) => size(a) - size(b))[0];
+    // Bisected again between the result and the next failure above it, past the failure found before.
+    if (above) {
+      hi = above;
+      bisect();
+    }
   }
   const model = lo.model;
   summary(model, layouts, true);

@@ -1,4 +1,5 @@
 import { type Vec2, at } from './vec';
+import { M } from './hot-globals';
 
 /** A simple polygon as a list of 2D points (mm), without repeating the first point. */
 export type Polygon = readonly Vec2[];
@@ -19,7 +20,7 @@ export function perimeter(poly: Polygon): number {
   for (let i = 0, n = poly.length; i < n; i++) {
     const a = at(poly, i);
     const b = at(poly, (i + 1) % n);
-    s += Math.hypot(b[0] - a[0], b[1] - a[1]);
+    s += M.hypot(b[0] - a[0], b[1] - a[1]);
   }
   return s;
 }
@@ -76,8 +77,8 @@ export function intersectIntervals(
   while (i < a.length && j < b.length) {
     const x = at(a, i);
     const y = at(b, j);
-    const lo = Math.max(x[0], y[0]);
-    const hi = Math.min(x[1], y[1]);
+    const lo = M.max(x[0], y[0]);
+    const hi = M.min(x[1], y[1]);
     if (hi > lo) out.push([lo, hi]);
     if (x[1] < y[1]) i++;
     else j++;
@@ -94,7 +95,7 @@ function pointSegDist(qx: number, qy: number, ax: number, ay: number, bx: number
   t = t < 0 ? 0 : t > 1 ? 1 : t;
   const ex = qx - (ax + abx * t);
   const ey = qy - (ay + aby * t);
-  return Math.sqrt(ex * ex + ey * ey);
+  return M.sqrt(ex * ex + ey * ey);
 }
 
 /** Distance from point q to segment ab. */
@@ -119,7 +120,7 @@ export function segmentsIntersect(a: Vec2, b: Vec2, c: Vec2, d: Vec2): boolean {
 
 export function segmentSegmentDistance(a: Vec2, b: Vec2, c: Vec2, d: Vec2): number {
   if (segmentsIntersect(a, b, c, d)) return 0;
-  return Math.min(
+  return M.min(
     pointSegDist(a[0], a[1], c[0], c[1], d[0], d[1]),
     pointSegDist(b[0], b[1], c[0], c[1], d[0], d[1]),
     pointSegDist(c[0], c[1], a[0], a[1], b[0], b[1]),
@@ -214,7 +215,7 @@ function inConvex(c: readonly Vec2[], p: Vec2): boolean {
   const o = c[0] as Vec2;
   const n = c.length;
   // Slack for rounding: relative to the polygon's size.
-  const eps = 1e-9 * (Math.abs(o[0]) + Math.abs(o[1]) + Math.abs(p[0]) + Math.abs(p[1]) + 1) ** 2;
+  const eps = 1e-9 * (M.abs(o[0]) + M.abs(o[1]) + M.abs(p[0]) + M.abs(p[1]) + 1) ** 2;
   if (turn(o, c[1] as Vec2, p) < -eps || turn(o, c[n - 1] as Vec2, p) > eps) return false;
   // The fan triangle o, c[k], c[k + 1] that holds p's direction.
   let lo = 1;

@@ -32,6 +32,7 @@
  * true outlines in integer units.
  */
 import { circumscribedConvex, convexHull, rotatePolygon, signedArea, type Point } from './polygon';
+import { M, INF } from '../math/hot-globals';
 
 /** A convex polygon, counter-clockwise, with its bounding box. */
 interface Convex {
@@ -47,10 +48,10 @@ function convex(points: readonly Point[]): Convex {
   const n = points.length;
   const xs = new Float64Array(n);
   const ys = new Float64Array(n);
-  let minX = Infinity;
-  let maxX = -Infinity;
-  let minY = Infinity;
-  let maxY = -Infinity;
+  let minX = INF;
+  let maxX = -INF;
+  let minY = INF;
+  let maxY = -INF;
   for (let i = 0; i < n; i++) {
     const [x, y] = points[i]!;
     xs[i] = x;
@@ -75,17 +76,17 @@ export function roundGrow(hull: readonly Point[], r: number): Point[] {
     const prev = hull[(i - 1 + n) % n]!;
     const v = hull[i]!;
     const next = hull[(i + 1) % n]!;
-    const a1 = Math.atan2(-(v[0] - prev[0]), v[1] - prev[1]); // outward normal of the incoming edge
-    const a2 = Math.atan2(-(next[0] - v[0]), next[1] - v[1]);
+    const a1 = M.atan2(-(v[0] - prev[0]), v[1] - prev[1]); // outward normal of the incoming edge
+    const a2 = M.atan2(-(next[0] - v[0]), next[1] - v[1]);
     let turn = a2 - a1;
-    while (turn < 0) turn += 2 * Math.PI;
-    while (turn >= 2 * Math.PI) turn -= 2 * Math.PI;
-    const m = Math.max(1, Math.ceil(turn / (Math.PI / 12)));
+    while (turn < 0) turn += 2 * M.PI;
+    while (turn >= 2 * M.PI) turn -= 2 * M.PI;
+    const m = M.max(1, M.ceil(turn / (M.PI / 12)));
     const step = turn / m;
-    const R = r / Math.cos(step / 2);
+    const R = r / M.cos(step / 2);
     for (let k = 0; k < m; k++) {
       const ang = a1 + (k + 0.5) * step;
-      out.push([v[0] + R * Math.cos(ang), v[1] + R * Math.sin(ang)]);
+      out.push([v[0] + R * M.cos(ang), v[1] + R * M.sin(ang)]);
     }
   }
   return convexHull(out);
@@ -99,8 +100,8 @@ let spanHi = 0;
 function verticalSpan(c: Convex, x: number, ox: number, oy: number): boolean {
   const u = x - ox;
   if (u <= c.minX || u >= c.maxX) return false;
-  let lo = Infinity;
-  let hi = -Infinity;
+  let lo = INF;
+  let hi = -INF;
   const xs = c.xs;
   const ys = c.ys;
   const n = xs.length;
@@ -124,8 +125,8 @@ function verticalSpan(c: Convex, x: number, ox: number, oy: number): boolean {
 function horizontalSpan(c: Convex, y: number, ox: number, oy: number): [number, number] | null {
   const v = y - oy;
   if (v <= c.minY || v >= c.maxY) return null;
-  let lo = Infinity;
-  let hi = -Infinity;
+  let lo = INF;
+  let hi = -INF;
   const n = c.xs.length;
   for (let i = 0; i < n; i++) {
     const ay = c.ys[i]!;
@@ -186,8 +187,8 @@ const ivHi = new Float64Array(256);
 function rowHeight(comps: readonly Component[], ax: number, bx: number, topY: number): number | null {
   let count = 0;
   for (const k of comps) {
-    const k0 = Math.ceil((k.c.minX + k.ox - bx) / ax);
-    const k1 = Math.floor((k.c.maxX + k.ox - bx) / ax);
+    const k0 = M.ceil((k.c.minX + k.ox - bx) / ax);
+    const k1 = M.floor((k.c.maxX + k.ox - bx) / ax);
     for (let q = k0; q <= k1 && count < ivLo.length; q++)
       if (verticalSpan(k.c, bx + q * ax, k.ox, k.oy) && spanHi > 0) {
         ivLo[count] = spanLo;
@@ -207,7 +208,7 @@ function rowHeight(comps: readonly Component[], ax: number, bx: number, topY: nu
   }
   for (let m = 2; m * y < topY; m++) {
     const x0 = m * bx;
-    for (let q = Math.floor((-topY - x0) / ax) - 1; q * ax + x0 <= topY + ax; q++)
+    for (let q = M.floor((-topY - x0) / ax) - 1; q * ax + x0 <= topY + ax; q++)
       if (inU(comps, x0 + q * ax, m * y)) return null;
   }
   return y;
@@ -255,13 +256,13 @@ function prepare(outline: readonly Point[], clearanceMm: number): Prepared {
   for (let i = 0; i < s0.length; i++) {
     const a = s0[i]!;
     const b = s0[(i + 1) % s0.length]!;
-    const l = Math.hypot(b[0] - a[0], b[1] - a[1]);
+    const l = M.hypot(b[0] - a[0], b[1] - a[1]);
     lens.push(total);
     total += l;
   }
   return {
     outline: own,
-    area: Math.abs(signedArea(own)),
+    area: M.abs(signedArea(own)),
     q0,
     d0,
     s0,
@@ -274,7 +275,7 @@ function boundaryPoint(poly: readonly Point[], f: number): [number, number] {
   let total = 0;
   const lens = poly.map((a, i) => {
     const b = poly[(i + 1) % poly.length]!;
-    const l = Math.hypot(b[0] - a[0], b[1] - a[1]);
+    const l = M.hypot(b[0] - a[0], b[1] - a[1]);
     total += l;
     return l;
   });
@@ -284,7 +285,7 @@ function boundaryPoint(poly: readonly Point[], f: number): [number, number] {
     if (s <= l || i === poly.length - 1) {
       const a = poly[i]!;
       const b = poly[(i + 1) % poly.length]!;
-      const u = l === 0 ? 0 : Math.min(1, s / l);
+      const u = l === 0 ? 0 : M.min(1, s / l);
       return [a[0] + u * (b[0] - a[0]), a[1] + u * (b[1] - a[1])];
     }
     s -= l;
@@ -307,7 +308,7 @@ function rotated(p: Prepared, thetaDeg: number): Rotated {
   const sPts = rotatePolygon(p.s0, thetaDeg);
   const s = convex(sPts);
   const negS = convex(sPts.map((q) => [-q[0], -q[1]] as Point));
-  const topY = Math.max(d.maxY, s.maxY - s.minY) + 1;
+  const topY = M.max(d.maxY, s.maxY - s.minY) + 1;
   return { thetaDeg, d, s, negS, sPts, topY };
 }
 
@@ -342,7 +343,7 @@ function latticeAt(p: Prepared, r: Rotated, t: [number, number] | null, f: numbe
 
 function normDeg(d: number): number {
   const r = ((d % 360) + 360) % 360;
-  return Math.round(r * 1e6) / 1e6 >= 360 ? 0 : Math.round(r * 1e6) / 1e6;
+  return M.round(r * 1e6) / 1e6 >= 360 ? 0 : M.round(r * 1e6) / 1e6;
 }
 
 /** Search space of one run. */
@@ -476,7 +477,7 @@ export function densestDoubleLattice(
 ): LatticeSpec | null {
   const p = prepare(outline, clearanceMm);
   const opts: SearchOptions = {
-    anglesDeg: symmetricAngles(Math.min(symmetryPeriodDeg, 360), 24),
+    anglesDeg: symmetricAngles(M.min(symmetryPeriodDeg, 360), 24),
     free: true,
     partnerAllowed: () => true,
     tSamples: 48,
@@ -536,10 +537,10 @@ function memberFor(
   m: number,
 ): Member {
   const rot = rotatePolygon(p.outline, deg);
-  let minX = Infinity;
-  let maxX = -Infinity;
-  let minY = Infinity;
-  let maxY = -Infinity;
+  let minX = INF;
+  let maxX = -INF;
+  let minY = INF;
+  let maxY = -INF;
   for (const [x, y] of rot) {
     if (x < minX) minX = x;
     if (x > maxX) maxX = x;
@@ -562,12 +563,12 @@ function countAt(
   const { ax, bx, by } = lat;
   for (const mb of members) {
     if (mb.x1 < mb.x0 || mb.y1 < mb.y0) continue;
-    const j0 = Math.ceil((mb.y0 - oy - mb.dy) / by - 1e-9);
-    const j1 = Math.floor((mb.y1 - oy - mb.dy) / by + 1e-9);
+    const j0 = M.ceil((mb.y0 - oy - mb.dy) / by - 1e-9);
+    const j1 = M.floor((mb.y1 - oy - mb.dy) / by + 1e-9);
     for (let j = j0; j <= j1; j++) {
       const xs = ox + j * bx + mb.dx;
-      const i0 = Math.ceil((mb.x0 - xs) / ax - 1e-9);
-      const i1 = Math.floor((mb.x1 - xs) / ax + 1e-9);
+      const i0 = M.ceil((mb.x0 - xs) / ax - 1e-9);
+      const i1 = M.floor((mb.x1 - xs) / ax + 1e-9);
       if (i1 < i0) continue;
       n += i1 - i0 + 1;
       if (out)
@@ -586,7 +587,7 @@ function bestOrigin(members: readonly Member[], lat: LatticeSpec): { count: numb
     const oxs: number[] = [];
     for (const mb of members)
       for (let j = -3; j <= 3; j++) {
-        const row = Math.round(((mb.y0 - oy - mb.dy) / lat.by) as number) + j;
+        const row = M.round(((mb.y0 - oy - mb.dy) / lat.by) as number) + j;
         oxs.push(mb.x0 - mb.dx - row * lat.bx, mb.x1 - mb.dx - row * lat.bx);
       }
     for (const ox of oxs) {
@@ -608,8 +609,7 @@ function countBound(members: readonly Member[], lat: LatticeSpec): number {
   let n = 0;
   for (const mb of members) {
     if (mb.x1 < mb.x0 || mb.y1 < mb.y0) continue;
-    n +=
-      (Math.floor((mb.y1 - mb.y0) / lat.by + 1e-9) + 1) * (Math.floor((mb.x1 - mb.x0) / lat.ax + 1e-9) + 1);
+    n += (M.floor((mb.y1 - mb.y0) / lat.by + 1e-9) + 1) * (M.floor((mb.x1 - mb.x0) / lat.ax + 1e-9) + 1);
   }
   return n;
 }
@@ -646,7 +646,7 @@ export function sheetLattices(
   }
   for (const s of top) samples.push(refineDensity(p, s, opts));
   let maxDensity = 0;
-  for (const s of samples) maxDensity = Math.max(maxDensity, s.lat.density);
+  for (const s of samples) maxDensity = M.max(maxDensity, s.lat.density);
   // Sheets favour lattices whose rows fit the edges; those within 12 % of the densest are clipped and counted.
   const near = samples.filter((s) => s.lat.density >= NEAR_DENSEST * maxDensity);
   near.sort((a, b) => b.lat.density - a.lat.density);
@@ -675,7 +675,7 @@ export function sheetLattices(
       if (countBound(members, lat) < bestCount) continue;
       const o = bestOrigin(members, lat);
       if (o.count > 0) scored.push({ s, columns, count: o.count, ox: o.ox, oy: o.oy });
-      bestCount = Math.max(bestCount, o.count);
+      bestCount = M.max(bestCount, o.count);
     }
   }
   scored.sort((a, b) => b.count - a.count || b.s.lat.density - a.s.lat.density);

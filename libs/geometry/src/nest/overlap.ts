@@ -26,6 +26,7 @@
  */
 import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
 import { clearOfItems, strictlyInside, type GeometryCache, type Variant } from './variants';
+import { M, INF } from '../math/hot-globals';
 
 interface Piece {
   /** The piece's shape (index into the search's shapes) and its variant (index into all usable variants). */
@@ -52,10 +53,10 @@ function pointIn(x: number, y: number, path: readonly { X: number; Y: number }[]
     const cross = (b.X - a.X) * (y - a.Y) - (b.Y - a.Y) * (x - a.X);
     if (
       cross === 0 &&
-      x >= Math.min(a.X, b.X) &&
-      x <= Math.max(a.X, b.X) &&
-      y >= Math.min(a.Y, b.Y) &&
-      y <= Math.max(a.Y, b.Y)
+      x >= M.min(a.X, b.X) &&
+      x <= M.max(a.X, b.X) &&
+      y >= M.min(a.Y, b.Y) &&
+      y <= M.max(a.Y, b.Y)
     )
       return -1;
     if (a.Y > y !== b.Y > y && x < ((b.X - a.X) * (y - a.Y)) / (b.Y - a.Y) + a.X) inside = !inside;
@@ -69,8 +70,8 @@ function generator(seed: number): () => number {
   return () => {
     s = (s + 0x6d2b79f5) >>> 0;
     let t = s;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    t = M.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + M.imul(t ^ (t >>> 7), t | 61);
     return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
   };
 }
@@ -130,7 +131,7 @@ function overlapSearch(
   /** A piece of shape t at a random rotation and position on the sheet. */
   const randomPiece = (t: number): Piece => {
     const list = ofShape[t]!;
-    const v = list[Math.floor(random() * list.length)]!;
+    const v = list[M.floor(random() * list.length)]!;
     const f = fits[v]!;
     return { t, v, x: f.x0 + random() * (f.x1 - f.x0), y: f.y0 + random() * (f.y1 - f.y0) };
   };
@@ -143,7 +144,7 @@ function overlapSearch(
     const ry = b.y - a.y;
     if (rx <= e.box.minX || rx >= e.box.maxX || ry <= e.box.minY || ry >= e.box.maxY) return null;
     if (!strictlyInside(e.paths, rx, ry, pointIn)) return null;
-    let best = Infinity;
+    let best = INF;
     let qx = 0;
     let qy = 0;
     for (const p of e.paths)
@@ -164,7 +165,7 @@ function overlapSearch(
           qy = cy;
         }
       }
-    const depth = Math.sqrt(best);
+    const depth = M.sqrt(best);
     const k = depth > 0 ? (depth + PUSH_PAST_UNITS) / depth : 0;
     // A point exactly on the boundary of a hole or a degenerate edge: push straight up, any way out will do.
     return depth > 0
@@ -174,8 +175,8 @@ function overlapSearch(
 
   const clamp = (p: Piece) => {
     const f = fits[p.v]!;
-    p.x = Math.min(Math.max(p.x, f.x0), f.x1);
-    p.y = Math.min(Math.max(p.y, f.y0), f.y1);
+    p.x = M.min(M.max(p.x, f.x0), f.x1);
+    p.y = M.min(M.max(p.y, f.y0), f.y1);
   };
 
   /** Sum of penetration depths of piece i against the others. */
@@ -191,7 +192,7 @@ function overlapSearch(
 
   /** Pushes overlapping pairs apart until none overlap (true) or the total stops falling (false). */
   const separate = (ps: Piece[]): boolean => {
-    let bestTotal = Infinity;
+    let bestTotal = INF;
     let stale = 0;
     const mx = new Float64Array(ps.length);
     const my = new Float64Array(ps.length);
@@ -244,7 +245,7 @@ function overlapSearch(
   /** Of `samples` random positions and rotations of shape t for piece i, the one overlapping the others least. */
   const leastOverlap = (ps: readonly Piece[], i: number, t: number, samples = 60): Piece => {
     let best: Piece | null = null;
-    let bestOverlap = Infinity;
+    let bestOverlap = INF;
     for (let s = 0; s < samples && bestOverlap > 0; s++) {
       const at = randomPiece(t);
       const o = overlapOf(ps, i, at);
@@ -261,8 +262,8 @@ function overlapSearch(
     const items: PlacedItem[] = [];
     for (const p of ps) {
       const f = fits[p.v]!;
-      const tx = Math.min(Math.max(Math.round(p.x), f.x0), f.x1);
-      const ty = Math.min(Math.max(Math.round(p.y), f.y0), f.y1);
+      const tx = M.min(M.max(M.round(p.x), f.x0), f.x1);
+      const ty = M.min(M.max(M.round(p.y), f.y0), f.y1);
       const variant = vs[p.v]!;
       if (!clearOfItems(items, variant, tx, ty, cache.gapMm)) return null;
       items.push({ variant, tx, ty });

@@ -22,6 +22,7 @@ import {
   type GeometryCache,
   type Variant,
 } from './variants';
+import { M, INF } from '../math/hot-globals';
 
 interface CellPiece {
   variant: Variant;
@@ -59,15 +60,15 @@ class VerticalIndex {
   private readonly count = 64;
 
   constructor(paths: IntPaths) {
-    let minX = Infinity;
-    let maxX = -Infinity;
+    let minX = INF;
+    let maxX = -INF;
     for (const p of paths)
       for (const q of p) {
-        minX = Math.min(minX, q.X);
-        maxX = Math.max(maxX, q.X);
+        minX = M.min(minX, q.X);
+        maxX = M.max(maxX, q.X);
       }
     this.minX = minX;
-    this.width = Math.max(1, maxX - minX) / this.count;
+    this.width = M.max(1, maxX - minX) / this.count;
     for (let i = 0; i < this.count; i++) this.bins.push([]);
     for (const p of paths)
       for (let i = 0; i < p.length; i++) {
@@ -76,14 +77,14 @@ class VerticalIndex {
         if (a.X === b.X) continue;
         const e = this.coords.length;
         this.coords.push(a.X, a.Y, b.X, b.Y);
-        const lo = this.bin(Math.min(a.X, b.X));
-        const hi = this.bin(Math.max(a.X, b.X));
+        const lo = this.bin(M.min(a.X, b.X));
+        const hi = this.bin(M.max(a.X, b.X));
         for (let k = lo; k <= hi; k++) this.bins[k]!.push(e);
       }
   }
 
   private bin(x: number): number {
-    return Math.min(this.count - 1, Math.max(0, Math.floor((x - this.minX) / this.width)));
+    return M.min(this.count - 1, M.max(0, M.floor((x - this.minX) / this.width)));
   }
 
   /** Sorted y values where the vertical line at x crosses the paths (half-open rule at vertices). */
@@ -114,7 +115,7 @@ class VerticalIndex {
       if (ax > x === bx > x) continue;
       const ay = c[e + 1]!;
       const yc = ay + ((x - ax) * (c[e + 3]! - ay)) / (bx - ax);
-      if (Math.abs(yc - y) <= 1) return undefined;
+      if (M.abs(yc - y) <= 1) return undefined;
       if (yc < y) below++;
     }
     return below % 2 === 1;
@@ -123,8 +124,8 @@ class VerticalIndex {
 
 /** Whether the rounded point is strictly inside the cell's no-fit polygon (the index first, Clipper near edges). */
 function insideAt({ paths, box, index }: CellNfp, x: number, y: number): boolean {
-  const rx = Math.round(x);
-  const ry = Math.round(y);
+  const rx = M.round(x);
+  const ry = M.round(y);
   if (rx <= box.minX || rx >= box.maxX || ry <= box.minY || ry >= box.maxY) return false;
   return index.insideByCount(rx, ry) ?? strictlyInside(paths, rx, ry, pointInPath);
 }
@@ -157,7 +158,7 @@ function rowPeriod(nfp: CellNfp, width: number): number | null {
   const xs = crossingsAtY(nfp.paths, 0);
   for (let i = 1; i < xs.length; i += 2) {
     if (!(xs[i]! > 0)) continue;
-    const ax = Math.ceil(xs[i]!) + 1;
+    const ax = M.ceil(xs[i]!) + 1;
     if (rowClear(nfp, ax, width)) return ax;
   }
   return null;
@@ -166,8 +167,8 @@ function rowPeriod(nfp: CellNfp, width: number): number | null {
 /** Lowest by > 0 such that (bx + k·ax, by) is clear for every k. */
 function lowestClear(nfp: VerticalIndex, box: ReturnType<typeof boxOfPaths>, ax: number, bx: number): number {
   const intervals: [number, number][] = [];
-  const kMin = Math.floor((box.minX - bx) / ax) - 1;
-  const kMax = Math.ceil((box.maxX - bx) / ax) + 1;
+  const kMin = M.floor((box.minX - bx) / ax) - 1;
+  const kMax = M.ceil((box.maxX - bx) / ax) + 1;
   for (let k = kMin; k <= kMax; k++) {
     const ys = nfp.crossingsAt(bx + k * ax);
     for (let i = 0; i + 1 < ys.length; i += 2) intervals.push([ys[i]!, ys[i + 1]!]);
@@ -179,7 +180,7 @@ function lowestClear(nfp: VerticalIndex, box: ReturnType<typeof boxOfPaths>, ax:
     if (lo >= y) break;
     if (hi > y) y = hi;
   }
-  return Math.ceil(y) + 1;
+  return M.ceil(y) + 1;
 }
 
 interface Lattice {
@@ -210,14 +211,14 @@ function candidateLattices(view: CellNfp, keep = 6): Lattice[] {
   if (ax === null) return [];
   const samples = new Set<number>();
   const steps = 32;
-  for (let i = 0; i < steps; i++) samples.add(Math.round((i * ax) / steps));
+  for (let i = 0; i < steps; i++) samples.add(M.round((i * ax) / steps));
   // Offsets where a vertex of the no-fit polygon lines up (at most 64 of them, evenly picked).
   const vertexXs: number[] = [];
   for (const p of nfp) for (const q of p) vertexXs.push(((q.X % ax) + ax) % ax);
-  const stride = Math.max(1, Math.ceil(vertexXs.length / 64));
+  const stride = M.max(1, M.ceil(vertexXs.length / 64));
   for (let i = 0; i < vertexXs.length; i += stride) {
-    samples.add(Math.round(vertexXs[i]!));
-    samples.add(Math.round(vertexXs[i]! + 1) % ax);
+    samples.add(M.round(vertexXs[i]!));
+    samples.add(M.round(vertexXs[i]! + 1) % ax);
   }
   const found: Lattice[] = [];
   for (const bx of samples) {
@@ -228,7 +229,7 @@ function candidateLattices(view: CellNfp, keep = 6): Lattice[] {
   const out: Lattice[] = [];
   for (const l of found) {
     if (out.length >= keep) break;
-    if (out.some((o) => Math.abs(o.by - l.by) < 1000)) continue;
+    if (out.some((o) => M.abs(o.by - l.by) < 1000)) continue;
     out.push(l);
   }
   const rect = found.find((l) => l.bx === 0);
@@ -248,12 +249,12 @@ function stretchedLattices(view: CellNfp, base: readonly Lattice[], span: number
   if (base.length === 0 || !(span > 0)) return [];
   const { box, index } = view;
   const ax0 = base[0]!.ax;
-  const perRow = Math.floor(span / ax0) + 1;
+  const perRow = M.floor(span / ax0) + 1;
   const out: Lattice[] = [];
-  for (let n = perRow; n >= Math.max(2, perRow - 1); n--) {
-    const ax = Math.floor(span / (n - 0.5));
+  for (let n = perRow; n >= M.max(2, perRow - 1); n--) {
+    const ax = M.floor(span / (n - 0.5));
     if (ax <= ax0 || !rowClear(view, ax, box.maxX - box.minX)) continue;
-    const bx = Math.round(ax / 2);
+    const bx = M.round(ax / 2);
     const lat = { ax, bx, by: lowestClear(index, box, ax, bx) };
     if (secondRowClear(view, lat)) out.push(lat);
   }
@@ -264,12 +265,12 @@ function stretchedLattices(view: CellNfp, base: readonly Lattice[], span: number
 function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice): PlacedItem[] {
   const fits = cell.map((c) => innerFit(frame, c.variant));
   if (fits.some((f) => f === null)) return [];
-  let cellMinY = Infinity;
-  let cellMinX = Infinity;
+  let cellMinY = INF;
+  let cellMinX = INF;
   for (let i = 0; i < cell.length; i++) {
     const f = fits[i]!;
-    cellMinY = Math.min(cellMinY, cell[i]!.dy - f.y0);
-    cellMinX = Math.min(cellMinX, cell[i]!.dx - f.x0);
+    cellMinY = M.min(cellMinY, cell[i]!.dy - f.y0);
+    cellMinX = M.min(cellMinX, cell[i]!.dx - f.x0);
   }
   // Origin o such that the lowest piece of row 0 sits on the margin; try shifts so some row starts flush left.
   // (Lowering the lattice by fractions of a row or shifting it by fractions of the period was tried: no more
@@ -280,12 +281,12 @@ function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice):
   const oxs = [0, 1, 2].map((shiftRow) => -cellMinX - shiftRow * lat.bx);
   // Counts first (no allocation), then the slots of the fullest origin.
   const visit = (ox0: number, oy: number, out: PlacedItem[] | null): number => {
-    const ox = ox0 - Math.floor(ox0 / lat.ax) * lat.ax - lat.ax;
+    const ox = ox0 - M.floor(ox0 / lat.ax) * lat.ax - lat.ax;
     let count = 0;
     for (let j = 0; ; j++) {
       const rowY = oy + j * lat.by;
       if (rowY + cellMinY > H) break;
-      const rowX = ox + j * lat.bx - Math.ceil((ox + j * lat.bx) / lat.ax + 2) * lat.ax;
+      const rowX = ox + j * lat.bx - M.ceil((ox + j * lat.bx) / lat.ax + 2) * lat.ax;
       for (let i = 0; ; i++) {
         const x = rowX + i * lat.ax;
         if (x + cellMinX > W) break;
@@ -325,13 +326,13 @@ function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice):
 
 /** The range (integer units) the cell's reference point may take across the sheet with every piece inside. */
 function rowSpan(frame: SheetFrame, cell: readonly CellPiece[]): number {
-  let lo = -Infinity;
-  let hi = Infinity;
+  let lo = -INF;
+  let hi = INF;
   for (const c of cell) {
     const f = innerFit(frame, c.variant);
     if (!f) return 0;
-    lo = Math.max(lo, f.x0 - c.dx);
-    hi = Math.min(hi, f.x1 - c.dx);
+    lo = M.max(lo, f.x0 - c.dx);
+    hi = M.min(hi, f.x1 - c.dx);
   }
   return hi - lo;
 }
@@ -363,17 +364,17 @@ function pairOffsets(cache: GeometryCache, a: Variant, b: Variant): { dx: number
       const r = p[(i + 1) % p.length]!;
       // Vertices (point contacts) and points along each edge (sliding edge contacts).
       for (const t of [0, 0.25, 0.5, 0.75])
-        points.push({ X: Math.round(q.X + t * (r.X - q.X)), Y: Math.round(q.Y + t * (r.Y - q.Y)) });
+        points.push({ X: M.round(q.X + t * (r.X - q.X)), Y: M.round(q.Y + t * (r.Y - q.Y)) });
     }
   for (const q of points) {
     const k = `${q.X},${q.Y}`;
     if (seen.has(k)) continue;
     seen.add(k);
     if (strictlyInside(n.paths, q.X, q.Y, pointInPath)) continue;
-    const minX = Math.min(a.ubounds.minX, b.ubounds.minX + q.X);
-    const maxX = Math.max(a.ubounds.maxX, b.ubounds.maxX + q.X);
-    const minY = Math.min(a.ubounds.minY, b.ubounds.minY + q.Y);
-    const maxY = Math.max(a.ubounds.maxY, b.ubounds.maxY + q.Y);
+    const minX = M.min(a.ubounds.minX, b.ubounds.minX + q.X);
+    const maxX = M.max(a.ubounds.maxX, b.ubounds.maxX + q.X);
+    const minY = M.min(a.ubounds.minY, b.ubounds.minY + q.Y);
+    const maxY = M.max(a.ubounds.maxY, b.ubounds.maxY + q.Y);
     const w = maxX - minX;
     const h = maxY - minY;
     scored.push({ dx: q.X, dy: q.Y, area: w * h, w, h });
@@ -411,7 +412,7 @@ function pairOffsets(cache: GeometryCache, a: Variant, b: Variant): { dx: number
  */
 function allowedCongruent(outline: Point[], rotationsDeg: readonly number[], d: number): number | undefined {
   const deg = normaliseAngle(d);
-  const same = rotationsDeg.find((r) => Math.abs(normaliseAngle(r) - deg) < 1e-6);
+  const same = rotationsDeg.find((r) => M.abs(normaliseAngle(r) - deg) < 1e-6);
   return same ?? rotationsDeg.find((r) => distinctRotations(outline, [r, d]).length === 1);
 }
 
@@ -460,8 +461,8 @@ function convexLatticePatterns(
       if (!as) continue;
       const variant = cache.variant(partIndex, as.deg);
       const fit = innerFit(frame, variant);
-      const tx = Math.round((pl.x + as.dx) * SCALE_PER_MM);
-      const ty = Math.round((pl.y + as.dy) * SCALE_PER_MM);
+      const tx = M.round((pl.x + as.dx) * SCALE_PER_MM);
+      const ty = M.round((pl.y + as.dy) * SCALE_PER_MM);
       if (!fit || tx < fit.x0 || tx > fit.x1 || ty < fit.y0 || ty > fit.y1) continue;
       if (!clearOfItems(slots, variant, tx, ty, cache.gapMm)) continue;
       slots.push({ variant, tx, ty });
@@ -499,7 +500,7 @@ export function bestPattern(
   if (!runs) patternRuns.set(cache, (runs = new Map()));
   const outline = cache.parts[partIndex]!.outline;
   const runKey = JSON.stringify([
-    outline.map((q) => [Math.round(q[0] * 1e6), Math.round(q[1] * 1e6)]),
+    outline.map((q) => [M.round(q[0] * 1e6), M.round(q[1] * 1e6)]),
     rotationsDeg,
     free,
     frame.widthMm,

@@ -23,6 +23,7 @@ import {
   type IntPaths,
 } from './clipper-adapter';
 import { boundsOf, convexHull, rotatePolygon, signedArea, type Bounds, type Point } from './polygon';
+import { M } from '../math/hot-globals';
 
 /** Extra clearance added to the gap so rounding to integer units never brings parts closer than the gap. */
 export const GAP_SAFETY_MM = 0.01;
@@ -66,7 +67,7 @@ export interface PreparedPart {
 
 function normaliseAngle(deg: number): number {
   const r = ((deg % 360) + 360) % 360;
-  const rounded = Math.round(r * 1e6) / 1e6;
+  const rounded = M.round(r * 1e6) / 1e6;
   return rounded >= 360 ? 0 : rounded;
 }
 
@@ -75,7 +76,7 @@ function shapeKey(outline: Point[], deg: number): string {
   const rot = rotatePolygon(outline, deg);
   const b = boundsOf(rot);
   return rot
-    .map(([x, y]) => `${Math.round((x - b.minX) * 100)},${Math.round((y - b.minY) * 100)}`)
+    .map(([x, y]) => `${M.round((x - b.minX) * 100)},${M.round((y - b.minY) * 100)}`)
     .sort()
     .join(';');
 }
@@ -93,8 +94,8 @@ export function autoRotations(outline: Point[], maxCount = 4): number[] {
   for (let i = 0; i < hull.length; i++) {
     const a = hull[i] as Point;
     const b = hull[(i + 1) % hull.length] as Point;
-    const dir = (Math.atan2(b[1] - a[1], b[0] - a[0]) * 180) / Math.PI;
-    edges.push({ len: Math.hypot(b[0] - a[0], b[1] - a[1]), deg: normaliseAngle(-dir) });
+    const dir = (M.atan2(b[1] - a[1], b[0] - a[0]) * 180) / M.PI;
+    edges.push({ len: M.hypot(b[0] - a[0], b[1] - a[1]), deg: normaliseAngle(-dir) });
   }
   edges.sort((p, q) => q.len - p.len);
   const wanted: number[] = [0, 180];
@@ -134,7 +135,7 @@ export function patternRotations(outline: Point[], sweeps = 12): number[] {
   const list: number[] = [];
   for (const d of autoRotations(outline)) list.push(d, d + 180);
   const period = symmetryPeriodDeg(outline);
-  const span = Math.min(period, 180);
+  const span = M.min(period, 180);
   for (let i = 0; i < sweeps; i++) {
     const d = (i * span) / sweeps;
     list.push(d, d + 180);
@@ -220,8 +221,8 @@ function dropNearlyCollinear(path: IntPath, tol: number): IntPath {
     const a = out[(i - 1 + out.length) % out.length]!;
     const b = out[i]!;
     const c = out[(i + 1) % out.length]!;
-    const len = Math.hypot(c.X - a.X, c.Y - a.Y);
-    const dist = len === 0 ? 0 : Math.abs((b.X - a.X) * (c.Y - a.Y) - (b.Y - a.Y) * (c.X - a.X)) / len;
+    const len = M.hypot(c.X - a.X, c.Y - a.Y);
+    const dist = len === 0 ? 0 : M.abs((b.X - a.X) * (c.Y - a.Y) - (b.Y - a.Y) * (c.X - a.X)) / len;
     if (dist <= tol) out.splice(i, 1);
     else i++;
   }
@@ -244,7 +245,7 @@ export const NFP_MAX_REFLEX = 24;
 function withinReflexBudget(path: IntPath, hull: IntPath): IntPath {
   if (reflexCorners(path) <= NFP_MAX_REFLEX) return path;
   const box = boxOfPaths([path]);
-  const sizeMm = Math.max(box.maxX - box.minX, box.maxY - box.minY) / SCALE_PER_MM;
+  const sizeMm = M.max(box.maxX - box.minX, box.maxY - box.minY) / SCALE_PER_MM;
   for (let tolMm = 0.05; tolMm <= sizeMm / 20; tolMm *= 2) {
     const simpler = simplifyContaining(path, tolMm);
     if (simpler && reflexCorners(simpler) <= NFP_MAX_REFLEX) return simpler;
@@ -297,23 +298,23 @@ export function congruence(
   const ca = centroidOf(a);
   const cb = centroidOf(b);
   const a0 = a[0]!;
-  const ra = Math.hypot(a0.X - ca.x, a0.Y - ca.y);
+  const ra = M.hypot(a0.X - ca.x, a0.Y - ca.y);
   for (let i = 0; i < n; i++) {
     const bi = b[i]!;
-    if (Math.abs(Math.hypot(bi.X - cb.x, bi.Y - cb.y) - ra) > tol) continue;
-    const t = Math.atan2(bi.Y - cb.y, bi.X - cb.x) - Math.atan2(a0.Y - ca.y, a0.X - ca.x);
-    const c = Math.cos(t);
-    const s = Math.sin(t);
+    if (M.abs(M.hypot(bi.X - cb.x, bi.Y - cb.y) - ra) > tol) continue;
+    const t = M.atan2(bi.Y - cb.y, bi.X - cb.x) - M.atan2(a0.Y - ca.y, a0.X - ca.x);
+    const c = M.cos(t);
+    const s = M.sin(t);
     let ok = true;
     for (let j = 0; j < n && ok; j++) {
       const p = a[j]!;
       const q = b[(i + j) % n]!;
       const x = (p.X - ca.x) * c - (p.Y - ca.y) * s + cb.x;
       const y = (p.X - ca.x) * s + (p.Y - ca.y) * c + cb.y;
-      if (Math.abs(x - q.X) > tol || Math.abs(y - q.Y) > tol) ok = false;
+      if (M.abs(x - q.X) > tol || M.abs(y - q.Y) > tol) ok = false;
     }
     if (!ok) continue;
-    const thetaDeg = (t * 180) / Math.PI;
+    const thetaDeg = (t * 180) / M.PI;
     return { thetaDeg, ox: cb.x - (ca.x * c - ca.y * s), oy: cb.y - (ca.x * s + ca.y * c) };
   }
   return null;
@@ -402,10 +403,10 @@ export class GeometryCache {
     if (signedArea(rot) < 0) poly = poly.reverse();
     const bounds = boundsOf(rot);
     const ubounds: IntBounds = {
-      minX: Math.floor(bounds.minX * SCALE_PER_MM),
-      minY: Math.floor(bounds.minY * SCALE_PER_MM),
-      maxX: Math.ceil(bounds.maxX * SCALE_PER_MM),
-      maxY: Math.ceil(bounds.maxY * SCALE_PER_MM),
+      minX: M.floor(bounds.minX * SCALE_PER_MM),
+      minY: M.floor(bounds.minY * SCALE_PER_MM),
+      maxX: M.ceil(bounds.maxX * SCALE_PER_MM),
+      maxY: M.ceil(bounds.maxY * SCALE_PER_MM),
     };
     const v: Variant = {
       key,
@@ -425,10 +426,10 @@ export class GeometryCache {
     const hit = this.shapeVariants.get(key);
     if (hit) return hit;
     const base = this.shapes[shape]!;
-    const t = (deg * Math.PI) / 180;
-    const c = Math.cos(t);
-    const s = Math.sin(t);
-    const poly = base.map((q) => ({ X: Math.round(q.X * c - q.Y * s), Y: Math.round(q.X * s + q.Y * c) }));
+    const t = (deg * M.PI) / 180;
+    const c = M.cos(t);
+    const s = M.sin(t);
+    const poly = base.map((q) => ({ X: M.round(q.X * c - q.Y * s), Y: M.round(q.X * s + q.Y * c) }));
     const sv: ShapeVariant = { poly, grown: growPolygon(poly, this.gapMm + GAP_SAFETY_MM + SHARE_EXTRA_MM) };
     this.shapeVariants.set(key, sv);
     return sv;
@@ -496,14 +497,10 @@ export class GeometryCache {
       normaliseAngle(moving.rotationDeg + b.thetaDeg),
     );
     // closed(part at r) = R(r + θ)·shape + R(r)·offset: the shift of the pair is R(ra)·oa − R(rb)·ob.
-    const ta = (fixed.rotationDeg * Math.PI) / 180;
-    const tb = (moving.rotationDeg * Math.PI) / 180;
-    const dx = Math.round(
-      a.ox * Math.cos(ta) - a.oy * Math.sin(ta) - (b.ox * Math.cos(tb) - b.oy * Math.sin(tb)),
-    );
-    const dy = Math.round(
-      a.ox * Math.sin(ta) + a.oy * Math.cos(ta) - (b.ox * Math.sin(tb) + b.oy * Math.cos(tb)),
-    );
+    const ta = (fixed.rotationDeg * M.PI) / 180;
+    const tb = (moving.rotationDeg * M.PI) / 180;
+    const dx = M.round(a.ox * M.cos(ta) - a.oy * M.sin(ta) - (b.ox * M.cos(tb) - b.oy * M.sin(tb)));
+    const dy = M.round(a.ox * M.sin(ta) + a.oy * M.cos(ta) - (b.ox * M.sin(tb) + b.oy * M.cos(tb)));
     const entry =
       dx === 0 && dy === 0
         ? base
@@ -555,10 +552,10 @@ function boundariesApart(
   // edges that reach that region are compared (outlines of hundreds of vertices meet their neighbours along a
   // few of them).
   const region = {
-    minX: Math.max(va.ubounds.minX + ax, vb.ubounds.minX + bx) - d,
-    minY: Math.max(va.ubounds.minY + ay, vb.ubounds.minY + by) - d,
-    maxX: Math.min(va.ubounds.maxX + ax, vb.ubounds.maxX + bx) + d,
-    maxY: Math.min(va.ubounds.maxY + ay, vb.ubounds.maxY + by) + d,
+    minX: M.max(va.ubounds.minX + ax, vb.ubounds.minX + bx) - d,
+    minY: M.max(va.ubounds.minY + ay, vb.ubounds.minY + by) - d,
+    maxX: M.min(va.ubounds.maxX + ax, vb.ubounds.maxX + bx) + d,
+    maxY: M.min(va.ubounds.maxY + ay, vb.ubounds.maxY + by) + d,
   };
   if (region.minX > region.maxX || region.minY > region.maxY) return true;
   const near = edgesReaching(b, bx, by, region);
@@ -570,10 +567,10 @@ function boundariesApart(
     const p0y = p.Y + ay;
     const p1x = q.X + ax;
     const p1y = q.Y + ay;
-    const minX = Math.min(p0x, p1x) - d;
-    const maxX = Math.max(p0x, p1x) + d;
-    const minY = Math.min(p0y, p1y) - d;
-    const maxY = Math.max(p0y, p1y) + d;
+    const minX = M.min(p0x, p1x) - d;
+    const maxX = M.max(p0x, p1x) + d;
+    const minY = M.min(p0y, p1y) - d;
+    const maxY = M.max(p0y, p1y) + d;
     for (const j of near) {
       const r = b[j]!;
       const s = b[(j + 1) % b.length]!;
@@ -612,7 +609,7 @@ function segmentsCross(
   sy: number,
 ): boolean {
   const side = (ax: number, ay: number, bx: number, by: number, cx: number, cy: number) =>
-    Math.sign((bx - ax) * (cy - ay) - (by - ay) * (cx - ax));
+    M.sign((bx - ax) * (cy - ay) - (by - ay) * (cx - ax));
   return (
     side(px, py, qx, qy, rx, ry) * side(px, py, qx, qy, sx, sy) < 0 &&
     side(rx, ry, sx, sy, px, py) * side(rx, ry, sx, sy, qx, qy) < 0
@@ -655,7 +652,7 @@ export function clearOfItems(
   ty: number,
   gapMm: number,
 ): boolean {
-  const reach = Math.ceil((gapMm + 1) * SCALE_PER_MM);
+  const reach = M.ceil((gapMm + 1) * SCALE_PER_MM);
   const d = gapMm * SCALE_PER_MM - 1;
   const mb = moving.ubounds;
   let path: IntPath | null = null;
@@ -681,7 +678,7 @@ export function clearOfItems(
     // more than a square micrometre counts.
     path ??= moving.poly.map((q) => ({ X: q.X + tx, Y: q.Y + ty }));
     const common = intersectPaths(translatePaths([it.variant.poly], it.tx, it.ty), [path]);
-    if (common.reduce((a, q) => a + Math.abs(areaUnits(q)), 0) > 1) return false;
+    if (common.reduce((a, q) => a + M.abs(areaUnits(q)), 0) > 1) return false;
   }
   return true;
 }
@@ -691,8 +688,7 @@ const CLEAN_UNITS = 2;
 
 export function piecesOrNull(path: IntPath): IntPaths | null {
   const adds = (pieces: IntPaths, of: IntPath) =>
-    Math.abs(pieces.reduce((s, p) => s + areaUnits(p), 0) - areaUnits(of)) <=
-    1e-9 * Math.abs(areaUnits(of)) + 1;
+    M.abs(pieces.reduce((s, p) => s + areaUnits(p), 0) - areaUnits(of)) <= 1e-9 * M.abs(areaUnits(of)) + 1;
   const pieces = convexPieces(path);
   if (adds(pieces, path)) return pieces;
   // A decomposition that does not add up (numerical trouble, mostly a rounded tip twisted over a unit or two)
@@ -722,12 +718,10 @@ function negatedPiecesOf(v: ShapeVariant): IntPaths | null {
 }
 
 function rotatePaths(paths: IntPaths, angleDeg: number): IntPaths {
-  const t = (angleDeg * Math.PI) / 180;
-  const c = Math.cos(t);
-  const sn = Math.sin(t);
-  return paths.map((p) =>
-    p.map((q) => ({ X: Math.round(q.X * c - q.Y * sn), Y: Math.round(q.X * sn + q.Y * c) })),
-  );
+  const t = (angleDeg * M.PI) / 180;
+  const c = M.cos(t);
+  const sn = M.sin(t);
+  return paths.map((p) => p.map((q) => ({ X: M.round(q.X * c - q.Y * sn), Y: M.round(q.X * sn + q.Y * c) })));
 }
 
 /**
@@ -735,8 +729,8 @@ function rotatePaths(paths: IntPaths, angleDeg: number): IntPaths {
  * (rectangleGridPlan), and half a unit is far inside the no-fit polygons' safety margin (GAP_SAFETY_MM).
  */
 export function translatePaths(paths: IntPaths, dx: number, dy: number): IntPaths {
-  const x = Math.round(dx);
-  const y = Math.round(dy);
+  const x = M.round(dx);
+  const y = M.round(dy);
   return paths.map((p) => p.map((q) => ({ X: q.X + x, Y: q.Y + y })));
 }
 
