@@ -1,6 +1,7 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { type ExportView } from '@kerfwright/contracts';
+import { type Response } from 'superagent';
 import { OBJECT_STORAGE, type ObjectStorage } from '../src/storage/object-storage';
 import {
   acknowledge,
@@ -8,6 +9,7 @@ import {
   auth,
   binary,
   isolateExports,
+  jobActor,
   pollExport,
 } from './support/export-fixtures';
 import { type S3Fake, startS3Fake } from './support/object-store';
@@ -61,6 +63,26 @@ async function download(ctx: TestContext, user: TestUser, exportId: string, name
     .buffer(true)
     .parse(binary)
     .expect(status);
+}
+
+/** Releases the job at its current version (202); returns the id of the export that builds its files. */
+async function postRelease(ctx: TestContext, fabricator: TestUser, jobId: string): Promise<string> {
+  const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(fabricator)).expect(200);
+  const res = await ctx.http
+    .post(`/api/jobs/${jobId}/release`)
+    .set(auth(fabricator))
+    .send({ version: job.body.version })
+    .expect(202);
+  return res.body.exportId as string;
+}
+
+/** A superagent parser that collects a server-sent event stream as text until it ends. */
+function streamText(res: Response, done: (err: Error | null, body: string) => void): void {
+  let text = '';
+  const stream = res as unknown as NodeJS.ReadableStream;
+  stream.setEncoding('utf8');
+  stream.on('data', (c: string) => (text += c));
+  stream.on('end', () => done(null, text));
 }
 
 describe('cut-pack exports worked inside the API process', () => {
@@ -306,12 +328,7 @@ describe('cut-pack exports worked inside the API process', () => {
       .set(auth(p.fabricator))
       .set('Accept-Encoding', 'gzip')
       .buffer(true)
-      .parse((r, done) => {
-        let text = '';
-        r.setEncoding('utf8');
-        r.on('data', (c: string) => (text += c));
-        r.on('end', () => done(null, text));
-      })
+      .parse(streamText)
       .expect(200);
     expect(sse.headers['content-type']).toContain('text/event-stream');
     // Never gzipped: each event must reach the client when it is sent, not when the stream ends.
@@ -414,27 +431,14 @@ describe('cut-pack exports worked by separate worker processes', () => {
   it('ends the progress stream of a user deactivated while watching it', async () => {
     // No worker runs here: the pack stays queued and the stream would stay open.
     const jobId = await approvedJob(ctx, w, p);
-    const exportId = await (async () => {
-      const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
-      const res = await ctx.http
-        .post(`/api/jobs/${jobId}/release`)
-        .set(auth(p.fabricator))
-        .send({ version: job.body.version })
-        .expect(202);
-      return res.body.exportId as string;
-    })();
+    const exportId = await postRelease(ctx, p.fabricator, jobId);
     const watcher = await createUser(ctx, 'operator');
     const started = Date.now();
     const stream = ctx.http
       .get(`/api/exports/${exportId}/events`)
       .set(auth(watcher))
       .buffer(true)
-      .parse((r, done) => {
-        let text = '';
-        r.setEncoding('utf8');
-        r.on('data', (c: string) => (text += c));
-        r.on('end', () => done(null, text));
-      })
+      .parse(streamText)
       .timeout(15_000)
       // Sent now (a supertest request goes out when it is first awaited).
       .then((r) => r);
@@ -460,14 +464,7 @@ describe('cut-pack exports worked by separate worker processes', () => {
   it('cancels a queued pack when its job is returned: approved again, the job waits for a new release', async () => {
     // No worker yet: the release is owed in the queue (a backlog, or Redis down), then the job is returned.
     const jobId = await approvedJob(ctx, w, p);
-    const act = async (u: TestUser, action: string, body: Record<string, unknown> = {}, status = 200) => {
-      const current = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.supervisor)).expect(200);
-      return ctx.http
-        .post(`/api/jobs/${jobId}/${action}`)
-        .set(auth(u))
-        .send({ version: current.body.version, ...body })
-        .expect(status);
-    };
+    const act = jobActor(ctx, p.supervisor, jobId);
     const owed = (await act(p.fabricator, 'release', {}, 202)).body.exportId as string;
     await act(p.fabricator, 'return', { reason: 'Wrong colours on the rack' });
     const cancelled = await ctx.http.get(`/api/exports/${owed}`).set(auth(p.fabricator)).expect(200);
@@ -604,20 +601,9 @@ describe('cut packs whose job changes while they are built', () => {
     else process.env.KW_EXPORT_STEP_DELAY_MS = saved.KW_EXPORT_STEP_DELAY_MS;
   });
 
-  /** Releases the job at its current version (202); returns the id of the export that builds its files. */
-  async function postRelease(jobId: string): Promise<string> {
-    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
-    const res = await ctx.http
-      .post(`/api/jobs/${jobId}/release`)
-      .set(auth(p.fabricator))
-      .send({ version: job.body.version })
-      .expect(202);
-    return res.body.exportId as string;
-  }
-
   /** Releases the job (202) and waits until its files are being stored. */
   async function releaseAndWaitForStoring(jobId: string): Promise<string> {
-    const exportId = await postRelease(jobId);
+    const exportId = await postRelease(ctx, p.fabricator, jobId);
     // Past the build's share of the bar (60 %): the files are going up one at a time.
     const storing = await pollExport(
       ctx,
@@ -695,7 +681,7 @@ describe('cut packs whose job changes while they are built', () => {
     const view = await pollExport(
       ctx,
       p.fabricator,
-      await postRelease(jobId),
+      await postRelease(ctx, p.fabricator, jobId),
       (v) => v.state === 'done' || v.state === 'failed',
       90000,
     );
@@ -732,7 +718,7 @@ describe('cut packs whose job changes while they are built', () => {
     const first = await pollExport(
       ctx,
       p.fabricator,
-      await postRelease(released),
+      await postRelease(ctx, p.fabricator, released),
       (v) => v.state === 'done' || v.state === 'failed',
       90000,
     );

@@ -29,14 +29,7 @@ export async function approvedJob(
     .send({ designId: d.body.id, quantity: 1 })
     .expect(201);
   const id = j.body.id as string;
-  const act = async (u: TestUser, action: string, body: Record<string, unknown> = {}) => {
-    const current = await ctx.http.get(`/api/jobs/${id}`).set(auth(people.supervisor)).expect(200);
-    await ctx.http
-      .post(`/api/jobs/${id}/${action}`)
-      .set(auth(u))
-      .send({ version: current.body.version, ...body })
-      .expect(200);
-  };
+  const act = jobActor(ctx, people.supervisor, id);
   await act(people.owner, 'request');
   await act(people.fabricator, 'prepare', {
     materialId: w.acrylicId,
@@ -45,6 +38,21 @@ export async function approvedJob(
   });
   await act(people.supervisor, 'approve');
   return id;
+}
+
+/**
+ * Takes job actions by their routes, each with the job's current version (read as `reader`, who sees it):
+ * `act(user, action, body?, status = 200)` answers the response.
+ */
+export function jobActor(ctx: TestContext, reader: TestUser, jobId: string) {
+  return async (u: TestUser, action: string, body: Record<string, unknown> = {}, status = 200) => {
+    const current = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(reader)).expect(200);
+    return ctx.http
+      .post(`/api/jobs/${jobId}/${action}`)
+      .set(auth(u))
+      .send({ version: current.body.version, ...body })
+      .expect(status);
+  };
 }
 
 /** Polls GET /api/exports/:id until `until` holds (or fails after `timeoutMs`). */
