@@ -93,8 +93,9 @@ export class ExportsProcessor implements OnApplicationBootstrap {
     );
     const exp = started[0];
     if (!exp) {
-      // Done already, or failed (a job returned meanwhile cancels its pack): nothing to do, exactly once. A missing row means the job was deleted, or this worker
-      // reads another database than the API that queued it (check KW_DB_* and KW_QUEUE_PREFIX).
+      // Done already, or failed (a job returned meanwhile cancels its pack): nothing to do, exactly once. A
+      // missing row means the job was deleted, or this worker reads another database than the API that queued
+      // it (check KW_DB_* and KW_QUEUE_PREFIX).
       const known: unknown[] = await this.dataSource.query(`SELECT 1 FROM exports WHERE id = $1`, [exportId]);
       if (known.length === 0) this.logger.warn(`export ${exportId} is not in this database; skipped`);
       return;
