@@ -294,6 +294,17 @@ describe('prepare job dialog', () => {
     });
   });
 
+  it('lists the stock sheets in the unit the job page shows (the prices stay per sheet)', async () => {
+    stubLists([acrylic], [laser, draftOnly]);
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open unit="in" busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: new RegExp(acrylic.name) });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    // 600 × 400 mm is 23.622 × 15.748 in (1 in = 25.4 mm exactly).
+    expect(await screen.findByRole('option', { name: '23.622 × 15.748 in · 14.50 EUR' })).toBeInTheDocument();
+  });
+
   it("opens with the job's last preparation: material, colours, sheet either way round, rule and profile", async () => {
     stubLists([acrylic], [laser, draftOnly]);
     const onSubmit = vi.fn();

@@ -19,7 +19,7 @@ import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
 import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
 import { kindLabel } from '../../../config/trade-labels';
 import { countOf } from '../../../lib/plural';
-import { formatSheetSize } from '../../../lib/units';
+import { formatSheetSize, type LengthUnit } from '../../../lib/units';
 import { useDesign } from '../../designs/api/get-design';
 
 export interface PrepareJobBody {
@@ -47,6 +47,8 @@ interface PrepareJobDialogProps extends FormDialogBaseProps<PrepareJobBody> {
   jobColours?: readonly string[];
   /** The choices of the job's last preparation (prepared again, or requested again after a return). */
   prepared?: PreparedChoices;
+  /** Lengths as the page shows them (sheet sizes; the stock list keeps millimetres). Default mm. */
+  unit?: LengthUnit;
 }
 
 /** Where a sheet size stands in a material's stock list, either way round (-1: not listed any more). */
@@ -183,7 +185,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     setValue('sheetIndex', String(Math.max(0, sheet)));
     if (before.sheet && sheet < 0 && m.stockSheets.length > 0) {
       notes.push(
-        `${m.name} no longer lists ${formatSheetSize(before.sheet, 'mm')} sheets, the size ` +
+        `${m.name} no longer lists ${formatSheetSize(before.sheet, props.unit ?? 'mm')} sheets, the size ` +
           'the job was laid out on: check the sheet below.',
       );
     }
@@ -196,7 +198,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
       notes.push(`${before.profileName} is not offered for ${m.name} any more: choose a machine profile.`);
     }
     setNotOffered(notes);
-  }, [prefilled, before, materials.data, profiles.data, props.jobColours, setValue]);
+  }, [prefilled, before, materials.data, profiles.data, props.jobColours, props.unit, setValue]);
   const offeredNow =
     pendingProfile && approved.some((p) => p.currentApproved?.id === pendingProfile) ? pendingProfile : null;
   useEffect(() => {
@@ -341,7 +343,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
             <NativeSelectField label="Sheet" name="sheetIndex" form={fields}>
               {material.stockSheets.map((s, i) => (
                 <option key={i} value={String(i)}>
-                  {`${formatSheetSize(s, 'mm')} · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
+                  {`${formatSheetSize(s, props.unit ?? 'mm')} · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
                 </option>
               ))}
             </NativeSelectField>

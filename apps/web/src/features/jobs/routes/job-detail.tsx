@@ -415,6 +415,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
       {open === 'prepare' ? (
         <PrepareJobDialog
           open
+          unit={unit}
           designId={job.designId}
           jobColours={job.colours}
           prepared={
