@@ -331,6 +331,28 @@ describe('machine profiles, versions and kerf records', () => {
     await ctx.db.query(`UPDATE machine_profile_versions SET notes = 'raw edit' WHERE id = $1`, [d.latest.id]);
   });
 
+  it('refuses to submit a version that changes nothing against the approved one', async () => {
+    const { p, v } = await approved({ settings: [laserSetting(plywood), laserSetting(acrylic)] });
+    // The same settings in another order: the same version.
+    const same = (
+      await ctx.http
+        .post(`/api/machine-profiles/${p.id}/versions`)
+        .set(auth('fabricator'))
+        .send({ settings: [laserSetting(acrylic), laserSetting(plywood)] })
+        .expect(201)
+    ).body as VersionBody;
+    const refused = await act('fabricator', p, same, 'submit', { lockVersion: same.lockVersion }).expect(409);
+    expectErrorBody(refused.body, 409, 'MACHINE_PROFILE.NO_CHANGES');
+    expect(refused.body.message).toContain(`approved version ${v.number}`);
+    // One value changed, and it goes to review.
+    const changed = await ctx.http
+      .patch(versionPath(p, same))
+      .set(auth('fabricator'))
+      .send({ lockVersion: same.lockVersion, settings: [laserSetting(acrylic), laserSetting(plywood, 0.16)] })
+      .expect(200);
+    await act('fabricator', p, same, 'submit', { lockVersion: changed.body.lockVersion }).expect(200);
+  });
+
   it('needs the lockVersion the caller read to submit, approve or send back (400 without it); retiring takes none', async () => {
     const p = await createProfile();
     const noBody = await ctx.http

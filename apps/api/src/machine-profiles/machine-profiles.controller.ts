@@ -135,7 +135,10 @@ export class MachineProfilesController {
   @Roles('fabricator')
   @HttpCode(200)
   @ApiOkResponse({ type: MachineProfileVersionResponse, description: 'Submitted; supervisors are mailed' })
-  @ApiConflictResponse({ description: 'MACHINE_PROFILE.INVALID_STATE, STALE_VERSION or INCOMPLETE' })
+  @ApiConflictResponse({
+    description:
+      'MACHINE_PROFILE.INVALID_STATE, STALE_VERSION, INCOMPLETE, or NO_CHANGES (the same values as the approved version)',
+  })
   submit(
     @CurrentUser() user: AuthUser,
     @Param('id', uuid) id: string,

@@ -70,6 +70,18 @@ async function versionSnapshot(
   return { ...toVersionView(v, noNames), profileName: profile?.name ?? null };
 }
 
+/** Whether two versions' contents are equal, whatever the order of their settings. */
+function sameContent(a: Required<ProfileVersionContent>, b: Required<ProfileVersionContent>): boolean {
+  const canonical = (c: Required<ProfileVersionContent>) =>
+    JSON.stringify({
+      ...c,
+      settings: [...c.settings]
+        .sort((x, y) => x.materialId.localeCompare(y.materialId))
+        .map((s) => Object.fromEntries(Object.entries(s).sort(([k1], [k2]) => k1.localeCompare(k2)))),
+    });
+  return canonical(a) === canonical(b);
+}
+
 /** Sortable columns of the profiles table (query key → column). */
 const PROFILE_SORT_COLUMNS: Readonly<Record<string, string>> = {
   name: 'p.name',
@@ -259,6 +271,17 @@ export class MachineProfilesService {
         );
       }
       await this.checkContent(manager, profile.kind, this.contentOf(v));
+      // A version that changes nothing would only cost a supervisor a review, and retire an equal version.
+      const approved = await manager.findOneBy(MachineProfileVersion, { profileId, state: 'approved' });
+      if (approved && sameContent(this.contentOf(approved), this.contentOf(v))) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          `${AREA}.NO_CHANGES`,
+          `Version ${v.number} holds the same values as the approved version ${approved.number}: change something ` +
+            'before submitting it, or retire the draft',
+          { approvedVersionId: approved.id },
+        );
+      }
       const saved = await this.change(
         manager,
         actor,
