@@ -132,6 +132,8 @@ describe('release desk', () => {
     const table = await screen.findByRole('table', { name: 'Jobs at the release desk' });
     await within(table).findByText('Star lamp');
     expect(within(table).getByText('Turned squares')).toBeInTheDocument();
+    // Whose job each row is: two jobs of one design are told apart.
+    expect(within(table).getAllByText('for Jun Park').length).toBeGreaterThanOrEqual(2);
     expect(within(table).queryByText('Not released yet')).not.toBeInTheDocument();
     // The stream's 65 % replaces the 40 % the list gave.
     expect(

@@ -126,7 +126,10 @@ export function ReleaseDeskRoute() {
             <TableBody>
               {desk.rows.map(({ job, newest }) => (
                 <TableRow key={job.id} selected={job.id === selectedId}>
-                  <TableCell>{job.designName}</TableCell>
+                  <TableCell>
+                    {job.designName}
+                    <JobWhose job={job} />
+                  </TableCell>
                   <TableCell>
                     <JobStateChip state={job.state} />
                   </TableCell>
@@ -151,6 +154,15 @@ export function ReleaseDeskRoute() {
       ) : null}
       {selected ? <DeskJob key={selected.id} job={selected} phone={phone} /> : null}
     </Box>
+  );
+}
+
+/** Whose job it is and how many copies: two jobs of one design (a popular one) are told apart by it. */
+function JobWhose({ job }: { job: JobView }) {
+  return (
+    <Typography component="span" variant="body2" color="text.secondary" sx={{ display: 'block' }}>
+      {`for ${job.requesterName}${job.quantity > 1 ? ` · ${countOf(job.quantity, 'copy', 'copies')}` : ''}`}
+    </Typography>
   );
 }
 
@@ -182,6 +194,7 @@ function DeskCards({
           <Stack direction="row" spacing={1} sx={{ alignItems: 'center', mb: 0.5 }}>
             <Typography component="h2" sx={{ flex: 1, fontWeight: 500, overflowWrap: 'anywhere' }}>
               {job.designName}
+              <JobWhose job={job} />
             </Typography>
             <JobStateChip state={job.state} />
           </Stack>
