@@ -133,6 +133,9 @@ export function ApprovalsRoute() {
     }
   };
 
+  // The laser conditions the approver of the version being confirmed must have checked.
+  const confirmingConditions = confirming?.kind === 'version' ? laserConditionsOf(confirming.profile) : [];
+
   // A refusal is said in the dialog while it is open, else above the lists.
   const pendingError = sendingBack || confirming ? null : (decideVersion.error ?? decideJob.error);
   const dialogMutation = sendingBack?.kind === 'job' ? decideJob : decideVersion;
@@ -271,7 +274,7 @@ export function ApprovalsRoute() {
           busy={decideVersion.isPending}
           error={decideVersion.error}
           extra={
-            laserConditionsOf(confirming.profile).length > 0 ? (
+            confirmingConditions.length > 0 ? (
               <FormControlLabel
                 sx={{ mt: 1 }}
                 control={
@@ -280,13 +283,11 @@ export function ApprovalsRoute() {
                     onChange={(e) => setConditionsChecked(e.target.checked)}
                   />
                 }
-                label={`I have checked the laser condition of ${laserConditionsOf(confirming.profile)
-                  .map((c) => c.material)
-                  .join(', ')}`}
+                label={`I have checked the laser condition of ${confirmingConditions.map((c) => c.material).join(', ')}`}
               />
             ) : null
           }
-          confirmDisabled={laserConditionsOf(confirming.profile).length > 0 && !conditionsChecked}
+          confirmDisabled={confirmingConditions.length > 0 && !conditionsChecked}
           onConfirm={() => approveVersion(confirming.profile)}
           onClose={() => setConfirming(null)}
         >
