@@ -68,6 +68,20 @@ const SOLIDS = {
       (_, i) => [Math.cos((i * Math.PI) / 3), Math.sin((i * Math.PI) / 3), 0] as V3,
     ),
   ]),
+  // A pentagonal prism: the two ends are parallel, the five sides have no parallel partner.
+  pentPrism: hullFaces(
+    Array.from({ length: 10 }, (_, i) => {
+      const t = ((i % 5) * 2 * Math.PI) / 5;
+      return [Math.cos(t), Math.sin(t), i < 5 ? 0.6 : -0.6] as V3;
+    }),
+  ),
+  // A square antiprism: two parallel squares turned 45° to each other, eight triangles between.
+  squareAntiprism: hullFaces(
+    Array.from({ length: 8 }, (_, i) => {
+      const t = ((i % 4) * Math.PI) / 2 + (i < 4 ? 0 : Math.PI / 4);
+      return [Math.cos(t), Math.sin(t), i < 4 ? 0.5 : -0.5] as V3;
+    }),
+  ),
 };
 
 // ---- Independent checker ----
@@ -280,8 +294,18 @@ describe('solveColourPlan — the most even plan when no balanced one exists', (
     }
   });
 
+  it('leaves as few colours empty as the rule allows (square antiprism, derived)', () => {
+    // Opposite-match: the two squares are parallel and share a colour; no two of the eight triangles are
+    // parallel, so 10 colours give the squares one and each triangle its own, leaving one colour unused.
+    const r = plan('squareAntiprism', 'opposite-match', 10, { normals: true });
+    expect(r.solid.faces).toHaveLength(10);
+    expect([...r.result.colourCounts].sort((a, b) => a - b)).toEqual([0, 1, 1, 1, 1, 1, 1, 1, 1, 2]);
+    expect(satisfies('opposite-match', r.solid.faces, r.solid.normals, r.colours)).toBe(true);
+  });
+
   it('strays from n/k no further than the most even plan an exhaustive search finds', () => {
     const cases: [keyof typeof SOLIDS, ColourRule, number][] = [
+      ['pentPrism', 'opposite-match', 7],
       ['hexPyramid', 'neighbour-distinct', 3],
       ['hexPyramid', 'neighbour-distinct', 4],
       ['hexPyramid', 'vertex-distinct', 7],
@@ -292,14 +316,20 @@ describe('solveColourPlan — the most even plan when no balanced one exists', (
     for (const [name, rule, k] of cases) {
       const s = SOLIDS[name];
       const n = s.faces.length;
-      // Exhaustive: every colouring of the faces, the least stray among those meeting the rule.
+      // Exhaustive: every colouring of the faces; among those meeting the rule the least stray, then the
+      // fewest colours used other than floor(n/k) or ceil(n/k) times.
       let best = Infinity;
+      let fewestOff = Infinity;
+      const off = (counts: number[]) =>
+        counts.filter((x) => x < Math.floor(n / k) || x > Math.ceil(n / k)).length;
       const colours = new Array<number>(n).fill(0);
       const go = (f: number): void => {
         if (f === n) {
           if (satisfies(rule, s.faces, s.normals, colours)) {
             const counts = Array.from({ length: k }, (_, c) => colours.filter((x) => x === c).length);
-            best = Math.min(best, stray(counts, n, k));
+            const st = stray(counts, n, k);
+            if (st < best) [best, fewestOff] = [st, off(counts)];
+            else if (st === best) fewestOff = Math.min(fewestOff, off(counts));
           }
           return;
         }
@@ -317,12 +347,8 @@ describe('solveColourPlan — the most even plan when no balanced one exists', (
         feasible: best < Infinity,
       });
       if (best < Infinity) {
-        expect({ name, rule, k, stray: stray(r.result.colourCounts, n, k) }).toEqual({
-          name,
-          rule,
-          k,
-          stray: best,
-        });
+        const got = { stray: stray(r.result.colourCounts, n, k), off: off(r.result.colourCounts) };
+        expect({ name, rule, k, ...got }).toEqual({ name, rule, k, stray: best, off: fewestOff });
         expect(satisfies(rule, s.faces, s.normals, r.colours)).toBe(true);
       }
     }

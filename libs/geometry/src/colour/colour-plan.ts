@@ -187,19 +187,38 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
   const balance = band(lo, hi);
   let solution = solver.solveAssuming(balance);
   if (!solution) {
-    // No balanced plan: any plan at all? Then the most even one, the band around n/k widened one count at a
-    // time up to the spread of the plan found (so an answer that exists is never missed, and none is
-    // needlessly uneven: an icosahedron under 'opposite-match' in 4 colours gets 6/6/4/4, not 8/4/4/4).
+    // No balanced plan: any plan at all? Then the most even one: first the band around n/k widened one count
+    // at a time up to the spread of the plan found (so an answer that exists is never missed: an icosahedron
+    // under 'opposite-match' in 4 colours gets 6/6/4/4, not 8/4/4/4), then within that band the fewest
+    // colours used other than floor(n/k) or ceil(n/k) times (a pentagonal prism in 7 colours gets
+    // 2/1/1/1/1/1/0, not 2/2/1/1/1/0/0). Assumptions only: the plans counted below are all plans.
     solution = solver.solve();
     if (solution) {
-      const counts = readCounts(solution, n, k);
-      const spread = Math.max(...counts.map((x) => Math.max(lo - x, x - hi)));
+      const stray = (x: number) => Math.max(lo - x, x - hi);
+      const spread = Math.max(...readCounts(solution, n, k).map(stray));
+      let within = band(Math.max(0, lo - spread), Math.min(n, hi + spread));
       for (let d = 1; d < spread; d++) {
-        const even = solver.solveAssuming(band(Math.max(0, lo - d), Math.min(n, hi + d)));
+        const tighter = band(Math.max(0, lo - d), Math.min(n, hi + d));
+        const even = solver.solveAssuming(tighter);
         if (even) {
           solution = even;
+          within = tighter;
           break;
         }
+      }
+      const outside = Logic.sum(
+        sums.map((s) =>
+          Logic.or(Logic.lessThan(s, Logic.constantBits(lo)), Logic.greaterThan(s, Logic.constantBits(hi))),
+        ),
+      );
+      let off = readCounts(solution, n, k).filter((x) => stray(x) > 0).length;
+      for (;;) {
+        const better = solver.solveAssuming(
+          Logic.and(within, Logic.lessThan(outside, Logic.constantBits(off))),
+        );
+        if (!better) break;
+        solution = better;
+        off = readCounts(better, n, k).filter((x) => stray(x) > 0).length;
       }
     }
   }

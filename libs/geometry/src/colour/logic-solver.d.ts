@@ -30,6 +30,8 @@ declare module 'logic-solver' {
     function constantBits(n: number): Bits;
     function lessThanOrEqual(a: Bits, b: Bits): Formula;
     function greaterThanOrEqual(a: Bits, b: Bits): Formula;
+    function lessThan(a: Bits, b: Bits): Formula;
+    function greaterThan(a: Bits, b: Bits): Formula;
   }
   export = Logic;
 }
