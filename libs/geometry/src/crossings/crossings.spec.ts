@@ -114,6 +114,39 @@ describe('crossings', () => {
     expect(c!.endOnB).toEqual([true, true]);
   });
 
+  it('counts an overlap as a crossing only past 1 µm: pieces that barely touch hold nothing', () => {
+    // A 40 mm square in the plane z = 0, centred on the origin, and one in the plane x = 0 centred at
+    // y = 40 − overlap: their chords on the common line (the y axis) overlap by `overlap`, from 20 − overlap
+    // to 20. 0.5 µm is no crossing, 2 µm is one.
+    const square: [number, number][] = [
+      [-20, -20],
+      [20, -20],
+      [20, 20],
+      [-20, 20],
+    ];
+    const crossingsAt = (overlapMm: number) =>
+      computeCrossings([
+        {
+          frame: { face: 0, normal: [0, 0, 1], distance: 0, centre: [0, 0, 0], x: [1, 0, 0], y: [0, 1, 0] },
+          outline: square,
+        },
+        {
+          frame: {
+            face: 1,
+            normal: [1, 0, 0],
+            distance: 0,
+            centre: [0, 40 - overlapMm, 0],
+            x: [0, 1, 0],
+            y: [0, 0, 1],
+          },
+          outline: square,
+        },
+      ]);
+    expect(crossingsAt(0.0005)).toEqual([]);
+    const [c] = crossingsAt(0.002);
+    expect(c!.length).toBeCloseTo(0.002, 9);
+  });
+
   it.each([
     // Designs where crossing ends of the exact solid coincide; before the edge tolerance, rounding the
     // solid to 6 decimals turned some of them into "cannot be slid together" errors (found by a seeded

@@ -75,9 +75,10 @@ export const END_ON_EDGE_MM = 0.01;
 
 /**
  * Crossings of placed pieces: for every pair of planes, the overlaps of the two pieces' intervals on
- * their common line. Overlaps shorter than `minLength` (mm) are ignored.
+ * their common line. Overlaps no longer than `minLength` (mm; default 1 µm, as the README says) are ignored:
+ * pieces that barely touch hold nothing.
  */
-export function computeCrossings(pieces: readonly PlacedPiece[], minLength = 1e-6): Crossing[] {
+export function computeCrossings(pieces: readonly PlacedPiece[], minLength = 1e-3): Crossing[] {
   const out: Crossing[] = [];
   for (const p of computePairIntervals(pieces)) {
     const na = at(pieces, p.a).frame.normal;
