@@ -62,6 +62,7 @@ import { bestFitRatio } from '../scale/fit-ratio';
 import {
   autoRotations,
   clearOfItems,
+  PlacedIndex,
   congruence,
   distinctRotations,
   GeometryCache,
@@ -417,14 +418,16 @@ function planIsClear(plan: GroupPlan, gapMm: number): boolean {
   const known = clearVerdicts.get(plan);
   if (known && known.signature === signature) return known.clear;
   let clear = true;
-  check: for (const sheet of plan.sheets)
-    for (let i = 1; i < sheet.items.length; i++) {
-      const it = sheet.items[i]!;
-      if (!clearOfItems(sheet.items.slice(0, i), it.variant, it.tx, it.ty, gapMm)) {
+  check: for (const sheet of plan.sheets) {
+    const placed = new PlacedIndex(PlacedIndex.cellFor(sheet.items.map((it) => it.variant)));
+    for (const it of sheet.items) {
+      if (!clearOfItems(placed, it.variant, it.tx, it.ty, gapMm)) {
         clear = false;
         break check;
       }
+      placed.add(it);
     }
+  }
   clearVerdicts.set(plan, { signature, clear });
   return clear;
 }

@@ -14,6 +14,7 @@ import { sheetLattices } from './double-lattice';
 import { convexHull, type Point } from './polygon';
 import {
   clearOfItems,
+  PlacedIndex,
   distinctRotations,
   normaliseAngle,
   strictlyInside,
@@ -456,6 +457,9 @@ function convexLatticePatterns(
   for (const arr of found) {
     if (arr.placements.some((pl) => !usable(pl.rotationDeg))) continue;
     const slots: PlacedItem[] = [];
+    const placed = new PlacedIndex(
+      PlacedIndex.cellFor([cache.variant(partIndex, arr.placements[0]?.rotationDeg ?? 0)]),
+    );
     for (const pl of arr.placements) {
       const as = asAllowed(pl.rotationDeg);
       if (!as) continue;
@@ -464,8 +468,9 @@ function convexLatticePatterns(
       const tx = M.round((pl.x + as.dx) * SCALE_PER_MM);
       const ty = M.round((pl.y + as.dy) * SCALE_PER_MM);
       if (!fit || tx < fit.x0 || tx > fit.x1 || ty < fit.y0 || ty > fit.y1) continue;
-      if (!clearOfItems(slots, variant, tx, ty, cache.gapMm)) continue;
+      if (!clearOfItems(placed, variant, tx, ty, cache.gapMm)) continue;
       slots.push({ variant, tx, ty });
+      placed.add({ variant, tx, ty });
     }
     if (slots.length === 0) continue;
     slots.sort(

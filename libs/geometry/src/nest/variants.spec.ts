@@ -1,7 +1,15 @@
 import * as polygonClipping from 'polygon-clipping';
 import { reflexCorners, simplifyContaining, SCALE_PER_MM, type IntPath } from './clipper-adapter';
 import { convexPieces } from './convex-decomposition';
-import { clearOfItems, GeometryCache, NFP_MAX_REFLEX, NfpLru, nfpOutline, piecesOrNull } from './variants';
+import {
+  clearOfItems,
+  GeometryCache,
+  NFP_MAX_REFLEX,
+  NfpLru,
+  nfpOutline,
+  PlacedIndex,
+  piecesOrNull,
+} from './variants';
 import { area, mpArea, type P, regular } from '../test-support/polygons';
 
 const toMm = (p: IntPath): P[] => p.map((q) => [q.X / SCALE_PER_MM, q.Y / SCALE_PER_MM]);
@@ -210,6 +218,47 @@ describe('the direct check of a position on the true outlines', () => {
     }
     expect(clear).toBeGreaterThan(5);
     expect(blocked).toBeGreaterThan(5);
+  });
+});
+
+describe('the index of placed parts', () => {
+  it('answers clearOfItems as a scan of every part does, for parts of two sizes scattered on a sheet', () => {
+    // Squares of 10 and 37 mm at 300 pseudo-random places (a fixed linear congruential sequence), then 400
+    // probes: the index must find every neighbour the full scan finds (the verdicts must agree).
+    const gapMm = 2;
+    const cache = new GeometryCache(
+      [regular(4, 10 / Math.SQRT2, 45), regular(4, 37 / Math.SQRT2, 45)].map((outline, index) => ({
+        index,
+        id: `s${index}`,
+        group: 'g',
+        quantity: 1,
+        outline,
+        areaMm2: area(outline),
+        rotationsDeg: [0],
+        patternRotationsDeg: [0],
+      })),
+      gapMm,
+    );
+    let seed = 12345;
+    const next = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+    const items = Array.from({ length: 300 }, (_, i) => ({
+      variant: cache.variant(i % 7 === 0 ? 1 : 0, 0),
+      tx: Math.round(next() * 800 * SCALE_PER_MM),
+      ty: Math.round(next() * 500 * SCALE_PER_MM),
+    }));
+    const index = new PlacedIndex(PlacedIndex.cellFor(items.map((it) => it.variant)));
+    for (const it of items) index.add(it);
+    let blocked = 0;
+    for (let k = 0; k < 400; k++) {
+      const moving = cache.variant(k % 5 === 0 ? 1 : 0, 0);
+      const tx = Math.round(next() * 800 * SCALE_PER_MM);
+      const ty = Math.round(next() * 500 * SCALE_PER_MM);
+      const scan = clearOfItems(items, moving, tx, ty, gapMm);
+      expect(clearOfItems(index, moving, tx, ty, gapMm)).toBe(scan);
+      if (!scan) blocked++;
+    }
+    expect(blocked).toBeGreaterThan(50);
+    expect(blocked).toBeLessThan(400);
   });
 });
 

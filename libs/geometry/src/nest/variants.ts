@@ -646,7 +646,7 @@ function edgesReaching(
  * outlines.
  */
 export function clearOfItems(
-  items: readonly { variant: Variant; tx: number; ty: number }[],
+  items: readonly PlacedAt[] | PlacedIndex,
   moving: Variant,
   tx: number,
   ty: number,
@@ -656,7 +656,11 @@ export function clearOfItems(
   const d = gapMm * SCALE_PER_MM - 1;
   const mb = moving.ubounds;
   let path: IntPath | null = null;
-  for (const it of items) {
+  const near =
+    items instanceof PlacedIndex
+      ? items.near(tx + mb.minX - reach, ty + mb.minY - reach, tx + mb.maxX + reach, ty + mb.maxY + reach)
+      : items;
+  for (const it of near) {
     const b = it.variant.ubounds;
     if (
       it.tx + b.maxX + reach < tx + mb.minX ||
@@ -681,6 +685,58 @@ export function clearOfItems(
     if (common.reduce((a, q) => a + M.abs(areaUnits(q)), 0) > 1) return false;
   }
   return true;
+}
+
+/** A part placed on a sheet: its variant, translated by (tx, ty) integer units. */
+export interface PlacedAt {
+  variant: Variant;
+  tx: number;
+  ty: number;
+}
+
+/**
+ * Placed parts bucketed by a uniform grid over their bounds, so that clearOfItems looks only at the parts near
+ * the one it checks: with thousands of copies on one sheet, scanning every part made the checks quadratic
+ * (40,000 small squares took minutes). Cells are `cellUnits` wide; a part is listed in every cell it covers.
+ */
+export class PlacedIndex {
+  private readonly cells = new Map<number, PlacedAt[]>();
+
+  constructor(private readonly cellUnits: number) {}
+
+  /** A cell size for parts like these: the largest side of their bounds (at least one unit). */
+  static cellFor(variants: readonly Variant[]): number {
+    let size = 1;
+    for (const v of variants)
+      size = M.max(size, v.ubounds.maxX - v.ubounds.minX, v.ubounds.maxY - v.ubounds.minY);
+    return size;
+  }
+
+  add(it: PlacedAt): void {
+    const b = it.variant.ubounds;
+    this.visit(it.tx + b.minX, it.ty + b.minY, it.tx + b.maxX, it.ty + b.maxY, (key) => {
+      const list = this.cells.get(key);
+      if (list) list.push(it);
+      else this.cells.set(key, [it]);
+    });
+  }
+
+  /** The parts listed in the cells that a box (integer units) covers, each once. */
+  near(x0: number, y0: number, x1: number, y1: number): PlacedAt[] {
+    const out = new Set<PlacedAt>();
+    this.visit(x0, y0, x1, y1, (key) => {
+      for (const it of this.cells.get(key) ?? []) out.add(it);
+    });
+    return [...out];
+  }
+
+  private visit(x0: number, y0: number, x1: number, y1: number, each: (key: number) => void): void {
+    const c = this.cellUnits;
+    // Cell coordinates offset into [0, 2^21): keys stay exact doubles for sheets up to kilometres.
+    const [i0, i1] = [M.floor(x0 / c) + 1048576, M.floor(x1 / c) + 1048576];
+    const [j0, j1] = [M.floor(y0 / c) + 1048576, M.floor(y1 / c) + 1048576];
+    for (let i = i0; i <= i1; i++) for (let j = j0; j <= j1; j++) each(i * 2097152 + j);
+  }
 }
 
 /** How far (integer units) a vertex may move when an outline is cleaned for its convex pieces. */
