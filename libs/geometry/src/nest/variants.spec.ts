@@ -41,6 +41,22 @@ function hull(points: P[]): P[] {
   return [...half(pts), ...half([...pts].reverse())];
 }
 
+/** A geometry cache of one copy of each outline, never turned, in one group. */
+const unturnedCache = (outlines: P[][], gapMm: number) =>
+  new GeometryCache(
+    outlines.map((outline, index) => ({
+      index,
+      id: `p${index}`,
+      group: 'g',
+      quantity: 1,
+      outline,
+      areaMm2: area(outline),
+      rotationsDeg: [0],
+      patternRotationsDeg: [0],
+    })),
+    gapMm,
+  );
+
 /** Area of `inner` left outside `outer`, by polygon-clipping (an independent polygon library). */
 const leftOutside = (inner: P[], outer: P[]) => mpArea(polygonClipping.difference([inner], [outer]));
 
@@ -179,19 +195,7 @@ describe('the direct check of a position on the true outlines', () => {
     const a = wavy(200, 40, 0.12, 7);
     const b = wavy(200, 30, 0.2, 5);
     const gapMm = 3;
-    const cache = new GeometryCache(
-      [a, b].map((outline, index) => ({
-        index,
-        id: `w${index}`,
-        group: 'g',
-        quantity: 1,
-        outline,
-        areaMm2: area(outline),
-        rotationsDeg: [0],
-        patternRotationsDeg: [0],
-      })),
-      gapMm,
-    );
+    const cache = unturnedCache([a, b], gapMm);
     const fixed = { variant: cache.variant(0, 0), tx: 0, ty: 0 };
     const moving = cache.variant(1, 0);
     let clear = 0;
@@ -226,19 +230,7 @@ describe('the index of placed parts', () => {
     // Squares of 10 and 37 mm at 300 pseudo-random places (a fixed linear congruential sequence), then 400
     // probes: the index must find every neighbour the full scan finds (the verdicts must agree).
     const gapMm = 2;
-    const cache = new GeometryCache(
-      [regular(4, 10 / Math.SQRT2, 45), regular(4, 37 / Math.SQRT2, 45)].map((outline, index) => ({
-        index,
-        id: `s${index}`,
-        group: 'g',
-        quantity: 1,
-        outline,
-        areaMm2: area(outline),
-        rotationsDeg: [0],
-        patternRotationsDeg: [0],
-      })),
-      gapMm,
-    );
+    const cache = unturnedCache([regular(4, 10 / Math.SQRT2, 45), regular(4, 37 / Math.SQRT2, 45)], gapMm);
     let seed = 12345;
     const next = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
     const items = Array.from({ length: 300 }, (_, i) => ({
