@@ -326,27 +326,17 @@ export class MachineProfilesService {
           { versionId: v.id, part },
         );
       }
-      // Materials may have changed since the version was submitted (e.g. marked not laser-allowed).
-      await this.checkContent(manager, profile.kind, this.contentOf(v));
-      // A laser cuts some materials only on a condition (the hazard table's): approving is confirming that
-      // each was checked, so the approver must say so.
-      if (isLaserKind(profile.kind) && !dto.conditionsChecked) {
-        const conditional = (await this.view(manager, v)).settings.filter((s) => s.laserCondition);
-        if (conditional.length > 0) {
-          throw new AppError(
-            HttpStatus.CONFLICT,
-            `${AREA}.CONDITIONS_UNCHECKED`,
-            `Version ${v.number} holds settings for ${conditional.map((s) => s.materialName).join(', ')}, which a laser ` +
-              'may cut only on a condition; check each and approve with conditionsChecked: true',
-            {
-              conditions: conditional.map((s) => ({
-                materialId: s.materialId,
-                materialName: s.materialName,
-                condition: s.laserCondition,
-              })),
-            },
-          );
-        }
+      // Materials may have changed since the version was submitted (e.g. marked not laser-allowed). A laser
+      // cuts some only on a condition (the hazard table's): approving is confirming that each was checked.
+      const conditional = await this.checkContent(manager, profile.kind, this.contentOf(v));
+      if (conditional.length > 0 && !dto.conditionsChecked) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          `${AREA}.CONDITIONS_UNCHECKED`,
+          `Version ${v.number} holds settings for ${conditional.map((c) => c.materialName).join(', ')}, which a laser ` +
+            'may cut only on a condition; check each and approve with conditionsChecked: true',
+          { conditions: conditional },
+        );
       }
       const previous = await manager.findOneBy(MachineProfileVersion, { profileId, state: 'approved' });
       if (previous) {
@@ -564,13 +554,14 @@ export class MachineProfilesService {
   /**
    * Checks a version's content: the edit route's limits (content may come from elsewhere: an adopted kerf, a
    * stored version being submitted or approved), the right fields for the kind, each material existing and
-   * named once, and on a laser only materials that may be cut on one.
+   * named once, and on a laser only materials that may be cut on one. Answers, on a laser, the materials it
+   * may cut only on the hazard table's condition (felt, an unlisted material), for approval to confirm.
    */
   async checkContent(
     manager: EntityManager,
     kind: MachineProfileKind,
     content: ProfileVersionContent,
-  ): Promise<void> {
+  ): Promise<{ materialId: string; materialName: string; condition: string }[]> {
     const limits = contentLimitErrors(content);
     if (limits.length) throw validationFailed(limits);
     const errors = settingErrors(kind, content.settings);
@@ -582,8 +573,9 @@ export class MachineProfilesService {
         errors.push({ field: `settings[${i}].materialId`, messages: ['no such material'] });
     });
     if (errors.length) throw validationFailed(errors);
-    if (!isLaserKind(kind)) return;
+    if (!isLaserKind(kind)) return [];
     const table = await this.hazards.rows(manager);
+    const conditional: { materialId: string; materialName: string; condition: string }[] = [];
     for (const [i, s] of content.settings.entries()) {
       const m = byId.get(s.materialId)!;
       const refusal = m.laserAllowed
@@ -597,7 +589,11 @@ export class MachineProfilesService {
           { field: `settings[${i}].materialId`, materialId: m.id, family: m.family },
         );
       }
+      const { laserCondition } = laserConditionOf(m.family, table);
+      if (laserCondition)
+        conditional.push({ materialId: m.id, materialName: m.name, condition: laserCondition });
     }
+    return conditional;
   }
 
   async view(manager: EntityManager, v: MachineProfileVersion): Promise<MachineProfileVersionView> {

@@ -10,8 +10,9 @@
  * Balance: with n faces and k colours, every colour is used floor(n/k) or ceil(n/k) times (equal counts when
  * k divides n). Under 'opposite-match' each opposite pair counts twice, so balance is sought over faces as
  * well. If the rule can be met only with unequal counts, the most even plan (the counts nearest n/k) is
- * returned with feasible = true and balanced = false; if it cannot be met at all, feasible = false, message says "no plan exists" and
- * fewestColours is the smallest count that meets it (found by trying k + 1, k + 2, … colours).
+ * returned with feasible = true and balanced = false; if it cannot be met at all, feasible = false, message
+ * says "no plan exists" and fewestColours is the smallest count that meets it (found by trying k + 1, k + 2,
+ * … colours).
  *
  * Solved as a Boolean satisfiability problem with logic-solver (MiniSat compiled to JavaScript): one variable
  * per face and colour, exactly one colour per face, the rule as clauses, balance as cardinality constraints.
@@ -211,14 +212,15 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
           Logic.or(Logic.lessThan(s, Logic.constantBits(lo)), Logic.greaterThan(s, Logic.constantBits(hi))),
         ),
       );
-      let off = readCounts(solution, n, k).filter((x) => stray(x) > 0).length;
+      const offCount = (s: Logic.Solution) => readCounts(s, n, k).filter((x) => stray(x) > 0).length;
+      let off = offCount(solution);
       for (;;) {
         const better = solver.solveAssuming(
           Logic.and(within, Logic.lessThan(outside, Logic.constantBits(off))),
         );
         if (!better) break;
         solution = better;
-        off = readCounts(better, n, k).filter((x) => stray(x) > 0).length;
+        off = offCount(better);
       }
     }
   }
