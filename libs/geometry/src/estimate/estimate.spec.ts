@@ -1,6 +1,6 @@
 import * as polygonClipping from 'polygon-clipping';
 import { type Vec2 } from '../math/vec';
-import { estimateJob, estimateSheet, sequenceSheet } from './estimate';
+import { estimateJob, estimateSheet, sequenceSheet, toolPathLength } from './estimate';
 import { nestingDepths, orderContours } from './cut-order';
 
 const square = (x: number, y: number, side: number, ccw = true): Vec2[] => {
@@ -58,6 +58,48 @@ describe('estimateSheet', () => {
     expect(e.markLengthMm).toBeCloseTo(50, 9);
     expect(e.travelMm).toBeCloseTo(50, 9);
     expect(e.seconds).toBeCloseTo(80 + 1 + 1 + 0.5, 9);
+  });
+});
+
+describe('toolPathLength (router bit centre)', () => {
+  it("adds 2πr round a convex outline (Steiner's formula for the parallel body of a convex set)", () => {
+    // Steiner's formula: the boundary of a convex set grown by r is P + 2πr long. Bit 6 mm, r 3 mm. The arcs
+    // are drawn as chords within 0.002 mm, a little shorter: within 0.05 mm here and below.
+    expect(toolPathLength(square(0, 0, 100), 6)).toBeCloseTo(400 + 2 * Math.PI * 3, 1);
+    // A beam's files already carry its path: the outline itself.
+    expect(toolPathLength(square(0, 0, 100))).toBeCloseTo(400, 9);
+  });
+
+  it('runs inside a clockwise hole, and a hole narrower than the bit leaves no path', () => {
+    // Hand-worked: a 100 mm square hole, bit centre 3 mm inside each wall: 4 × 94 mm.
+    expect(toolPathLength(square(0, 0, 100, false), 6)).toBeCloseTo(376, 6);
+    expect(toolPathLength(square(0, 0, 5, false), 6)).toBe(0);
+  });
+
+  it('follows a slot notch: round at its mouth, short of the square corners at its bottom', () => {
+    // Hand-worked (tool radius compensation, common practice): a 100 mm square with a notch 10 mm wide and
+    // 30 mm deep from the top edge, bit r = 3 mm. The six convex corners (four outer, two at the notch's
+    // mouth) each add a quarter circle, 6 × 3π/2 = 9π; straight runs keep their length except where they meet
+    // the notch's two reflex bottom corners, each of which shortens both its edges by r: walls 30 − 3, bottom
+    // 10 − 6. Total 400 + 60 − 12 + 9π mm; the drawn outline is 460 mm.
+    const notched: Vec2[] = [
+      [0, 0],
+      [100, 0],
+      [100, 100],
+      [50, 100],
+      [50, 70],
+      [40, 70],
+      [40, 100],
+      [0, 100],
+    ];
+    expect(toolPathLength(notched, 6)).toBeCloseTo(448 + 9 * Math.PI, 1);
+  });
+
+  it('makes a router sheet take longer than the drawn outline says', () => {
+    const laser = estimateSheet({ cut: [square(50, 50, 100)], mark: [] }, machine);
+    const router = estimateSheet({ cut: [square(50, 50, 100)], mark: [] }, { ...machine, toolDiameterMm: 6 });
+    expect(router.cutLengthMm - laser.cutLengthMm).toBeCloseTo(6 * Math.PI, 1);
+    expect(router.seconds - laser.seconds).toBeCloseTo((6 * Math.PI) / machine.cutSpeedMmS, 2);
   });
 });
 

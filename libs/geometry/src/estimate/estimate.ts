@@ -5,7 +5,8 @@
  * the machine's hourly rate, and sheets × the stock's price per sheet. Lengths mm, speeds mm/s.
  */
 import { type Vec2 } from '../math/vec';
-import { perimeter } from '../math/polygon';
+import { perimeter, signedArea } from '../math/polygon';
+import { offsetPolygons } from '../compensation/clipper-adapter';
 import { type OrderedContours, orderContours } from './cut-order';
 
 export interface EstimateMachine {
@@ -16,6 +17,11 @@ export interface EstimateMachine {
   /** Passes over every cut contour (default 1). */
   passes?: number;
   hourlyRate: number;
+  /**
+   * Routers: the bit's diameter. Their files carry the nominal outline and the machine's tool offset runs the
+   * bit's centre half a diameter outside each outline (inside each hole), so that longer path is what is cut.
+   */
+  toolDiameterMm?: number;
 }
 
 /** One sheet's work: closed cut contours and open mark strokes, sheet coordinates (mm). */
@@ -44,6 +50,20 @@ const polylineLength = (s: readonly Vec2[]): number => {
   for (let i = 1; i < s.length; i++) len += Math.hypot(s[i]![0] - s[i - 1]![0], s[i]![1] - s[i - 1]![1]);
   return len;
 };
+
+/**
+ * Length (mm) of the path the cutter's centre follows round one closed contour: the contour itself for a beam
+ * (its files already carry the compensated outline), and for a router bit of radius r the contour offset by r
+ * with round corners, outward for a counter-clockwise outline and inward for a clockwise hole. A convex
+ * outline gains 2πr (Steiner's formula); a hole smaller than the bit leaves no path.
+ */
+export function toolPathLength(contour: readonly Vec2[], toolDiameterMm = 0): number {
+  if (!(toolDiameterMm > 0) || contour.length < 3) return perimeter(contour);
+  const r = toolDiameterMm / 2;
+  const hole = signedArea(contour) < 0;
+  const ring = hole ? [...contour].reverse() : contour;
+  return offsetPolygons([ring], hole ? -r : r, 'round').reduce((s, c) => s + perimeter(c), 0);
+}
 
 /** The order a sheet is worked in: mark strokes (each possibly reversed), then cut contours. */
 export interface SheetSequence {
@@ -96,7 +116,7 @@ export function estimateSheet(
   origin: Vec2 = [0, 0],
 ): SheetEstimate {
   const passes = Math.max(1, Math.floor(machine.passes ?? 1));
-  const cutLengthMm = work.cut.reduce((s, c) => s + perimeter(c), 0);
+  const cutLengthMm = work.cut.reduce((s, c) => s + toolPathLength(c, machine.toolDiameterMm), 0);
   const markLengthMm = work.mark.reduce((s, c) => s + polylineLength(c), 0);
   const pierces = work.cut.filter((c) => c.length >= 2).length;
   const travelMm = sheetTravel(work, origin);

@@ -5,6 +5,7 @@ export {
   estimateSheet,
   sequenceSheet,
   sheetTravel,
+  toolPathLength,
   type SheetSequence,
   type EstimateMachine,
   type JobEstimate,

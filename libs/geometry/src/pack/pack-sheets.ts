@@ -25,6 +25,16 @@ export interface PackSheetsOptions {
   machine: EstimateMachine;
 }
 
+/**
+ * A machine's estimate speeds with the cutter of the spec the model was built for: a router's bit diameter,
+ * so the cut length is that of the bit centre's path (see toolPathLength), not of the drawn outline.
+ */
+export function withModelCutter(machine: EstimateMachine, model: Pick<BuiltModel, 'spec'>): EstimateMachine {
+  const { toolDiameterMm: _ignored, ...rest } = machine;
+  const cutter = model.spec.machine;
+  return cutter.kind === 'router' ? { ...rest, toolDiameterMm: cutter.toolDiameterMm } : rest;
+}
+
 /** Labels of every piece (in its own frame), keyed by piece id. */
 function labelPieces(
   model: BuiltModel,
@@ -143,11 +153,12 @@ export function preparationEstimate(
   layout: LaidOutModel,
   opts: PreparationEstimateOptions,
 ): NonNullable<JobPreparation['estimate']> {
+  const machine = withModelCutter(opts.machine, model);
   const { sheets } = drawPackSheets(model, layout, {
     colours: opts.colours.map(printableColourName),
     sheet: opts.sheet,
     units: 'mm',
-    machine: opts.machine,
+    machine,
   });
-  return sheetsEstimate(sheets, opts.machine, opts.pricePerSheet, opts.currency);
+  return sheetsEstimate(sheets, machine, opts.pricePerSheet, opts.currency);
 }

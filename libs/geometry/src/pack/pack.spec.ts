@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import JSZip from 'jszip';
 import type { CutPackInput, CutPackResult, DesignSpec } from '@kerfwright/contracts';
 import { buildModel } from '../build';
+import { toolPathLength } from '../estimate';
 import { design, octahedronHexagons } from '../test-support/designs';
 import { CutPackError, archiveName, createCutPack, sheetOverBedNote } from './pack';
 import { placeScaleMark } from './sheet-drawing';
@@ -644,6 +645,24 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(setup.text).toMatch(/gap 4\.175 mm/);
     expect(setup.text).toMatch(/Tool diameter\s*3\.175 mm/);
     expect(setup.text).toMatch(/outside tool offset of the bit's\s+radius \(1\.5875 mm\)/);
+  });
+
+  it("estimates a router's cut along the bit centre's path, longer than the drawn outlines (parsed DXF)", async () => {
+    // The files carry the nominal outline and the machine's tool offset runs the bit's centre half a diameter
+    // outside it (common practice: tool radius compensation), so that path is what the time is worked on.
+    const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
+    const r = await createCutPack(
+      input(spec, { machine: { ...input(spec).machine, kind: 'router' }, archive: false }),
+    );
+    let drawn = 0;
+    let path = 0;
+    for (const f of sheetsOf(r, 'dxf'))
+      for (const c of readDxf(f.data).cut) {
+        drawn += perimeterOf(c);
+        path += toolPathLength(c, 3.175);
+      }
+    expect(r.manifest.estimate.cutLengthMm).toBeCloseTo(path, 1);
+    expect(path).toBeGreaterThan(drawn);
   });
 
   it("puts the design's warnings on the setup sheet (pdf-parse), one line per kind, collisions first", async () => {

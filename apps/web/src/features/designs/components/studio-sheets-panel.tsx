@@ -202,12 +202,13 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
         `${fmt(designThicknessMm)} stock: its slots would not fit that material, and the estimate uses its speeds.`
       : null;
   const estimate = useMemo(() => {
-    if (!choice?.version || !value || value.sheets.length === 0 || !sheet) return null;
+    const drawnFor = (layoutSpec ?? spec)?.machine;
+    if (!choice?.version || !value || value.sheets.length === 0 || !sheet || !drawnFor) return null;
     const material = materials.data?.items.find((m) => m.id === choice.setting.materialId);
     // Priced as preparation prices it: the listed size either way round, in the machine's currency.
     const price = material ? pricedSheet(material, sheet, choice.version.currency) : null;
-    return estimateSheets(value.sheets, choice.version, choice.setting, price);
-  }, [choice, value, sheet, materials.data]);
+    return estimateSheets(value.sheets, choice.version, choice.setting, price, drawnFor);
+  }, [choice, value, sheet, materials.data, layoutSpec, spec]);
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="studio-sheets">
       <Stack direction="row" sx={{ alignItems: 'center', mb: 1 }} spacing={2}>

@@ -58,4 +58,17 @@ describe("a job's estimate on its page", () => {
     expect(jobEstimate(sheets, job(18), dearer, profiles)?.materialCost).toBe(18);
     expect(jobEstimate(sheets, job(null), dearer, profiles)?.materialCost).toBeNull();
   });
+
+  it("works a router job's cut along the bit centre's path: 2πr longer round the square", () => {
+    // Steiner's formula: the boundary of a convex set grown by r is P + 2πr long (the bit's centre runs half
+    // a diameter outside the outline). Arcs are drawn as chords within 0.002 mm.
+    const laser = jobEstimate(sheets, job(), undefined, profiles);
+    const routerJob = jobFixture({
+      ...job(),
+      preparation: preparationFixture({ machineKind: 'router', toolDiameterMm: 6, kerfMm: undefined }),
+    });
+    const router = jobEstimate(sheets, routerJob, undefined, profiles);
+    expect(laser?.cutLengthMm).toBeCloseTo(400, 6);
+    expect(router?.cutLengthMm).toBeCloseTo(400 + 6 * Math.PI, 1);
+  });
 });

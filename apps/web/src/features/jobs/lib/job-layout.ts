@@ -3,6 +3,7 @@ import {
   type DesignSpecInput,
   type JobPreparation,
   type JobView,
+  type MachineSpec,
   type MachineProfileSummaryView,
   type MaterialView,
   pricedSheet,
@@ -36,11 +37,15 @@ export function preparedSpec(design: DesignSpecInput, prep: JobPreparation, flex
     ...rest,
     scale: { by: 'diameter', mm: prep.diameterMm },
     stock: { thicknessMm: prep.thicknessMm, flexible },
-    machine:
-      prep.machineKind === 'laser'
-        ? { kind: 'laser', kerfMm: prep.kerfMm ?? 0 }
-        : { kind: 'router', toolDiameterMm: prep.toolDiameterMm ?? 0 },
+    machine: preparedMachine(prep),
   };
+}
+
+/** The machine compensation a job's preparation used. */
+function preparedMachine(prep: JobPreparation): MachineSpec {
+  return prep.machineKind === 'laser'
+    ? { kind: 'laser', kerfMm: prep.kerfMm ?? 0 }
+    : { kind: 'router', toolDiameterMm: prep.toolDiameterMm ?? 0 };
 }
 
 /** The estimate with the job's own profile version and the price of its stock sheet, when both are known. */
@@ -64,7 +69,7 @@ export function jobEstimate(
       : material
         ? pricedSheet(material, prep.sheet, version.currency)
         : null;
-  return estimateSheets(sheets, version, setting, price);
+  return estimateSheets(sheets, version, setting, price, preparedMachine(prep));
 }
 
 /**

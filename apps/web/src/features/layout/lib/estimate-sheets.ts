@@ -1,5 +1,6 @@
 import {
   type MachineProfileVersionView,
+  type MachineSpec,
   type ProfileSetting,
   toEstimateMachine,
 } from '@kerfwright/contracts';
@@ -10,17 +11,22 @@ import { type SheetView } from './sheet-views';
 /**
  * The geometry library's estimate for the sheets drawn: cut length, pierces and travel at the speeds a
  * machine profile version gives for the material, priced at its hourly rate and (when known) the stock
- * sheet's price. Label marking is not in it (the cut pack's setup sheet has the full figure).
+ * sheet's price. Label marking is not in it (the cut pack's setup sheet has the full figure). `drawnFor` is the
+ * machine the pieces' outlines were drawn for: for a router, the cut length is that of the bit centre's path.
  */
 export function estimateSheets(
   sheets: readonly SheetView[],
   version: Pick<MachineProfileVersionView, 'rapidSpeedMmS' | 'hourlyRate' | 'currency'>,
   setting: Pick<ProfileSetting, 'cutSpeedMmS' | 'markSpeedMmS' | 'pierceTimeS' | 'passes'>,
   pricePerSheet: number | null,
+  drawnFor: MachineSpec,
 ): LayoutEstimateView {
   const e = estimateJob(
     sheets.map((sh) => ({ cut: sh.pieces.map((p) => p.outline), mark: [] })),
-    toEstimateMachine(version, setting),
+    {
+      ...toEstimateMachine(version, setting),
+      ...(drawnFor.kind === 'router' ? { toolDiameterMm: drawnFor.toolDiameterMm } : {}),
+    },
     pricePerSheet ?? 0,
   );
   return {
