@@ -2,6 +2,7 @@ import {
   type JobPreparation,
   type JobView,
   type MachineProfileVersionView,
+  type MaterialView,
   type Role,
   type UserView,
 } from '@kerfwright/contracts';
@@ -123,5 +124,26 @@ export function preparationFixture(
       currency: 'EUR',
       ...estimate,
     },
+  };
+}
+
+/** A material as GET /api/materials gives it: 3 mm cast acrylic in 600 × 400 mm sheets, fit for a laser. */
+export function materialFixture(overrides: Partial<MaterialView> = {}): MaterialView {
+  return {
+    id: 'm-acrylic',
+    name: 'Cast acrylic 3 mm',
+    family: 'acrylic',
+    nominalThicknessMm: 3,
+    measuredThicknessMm: null,
+    flexible: false,
+    colours: ['clear'],
+    stockSheets: [{ widthMm: 600, heightMm: 400, pricePerSheet: 14.5, currency: 'EUR' }],
+    laserAllowed: true,
+    hazardNote: '',
+    notes: '',
+    version: 1,
+    createdAt: '2026-01-01T00:00:00.000Z',
+    updatedAt: '2026-01-01T00:00:00.000Z',
+    ...overrides,
   };
 }

@@ -24,6 +24,8 @@ import {
   DESIGN_FIELD_LABELS,
 } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
+import { StockSheetPicker } from './stock-sheet-picker';
+import { useMaterials } from '../../jobs/api/get-materials';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 import { type LengthUnit } from '../../../lib/units';
 
@@ -72,8 +74,11 @@ export const SpecForm = memo(function SpecForm({
   onUpload,
   suggestedSizes,
   unit = 'mm',
+  newDesign = false,
 }: {
   form: UseFormReturn<DesignFormValues>;
+  /** A design not saved yet: it starts from the workshop's stock when its starting sheet is not stock. */
+  newDesign?: boolean;
   /** The unit the lengths are shown and typed in (the form keeps millimetres). */
   unit?: LengthUnit;
   upload: UploadedSolid | null;
@@ -87,6 +92,7 @@ export const SpecForm = memo(function SpecForm({
     name: ['solidSource', 'machineKind', 'scaleBy'],
   });
   const fields = { register, errors };
+  const materials = useMaterials(true);
   const setSize = (size: number) =>
     setValue('size', Number(size.toFixed(4)), { shouldValidate: true, shouldDirty: true });
   // The sizes where pieces touch and first cross are thresholds, not designs (their crossings have no length):
@@ -272,6 +278,7 @@ export const SpecForm = memo(function SpecForm({
       </Section>
 
       <Section title="Stock sheet">
+        <StockSheetPicker form={form} materials={materials.data?.items} unit={unit} adoptFirst={newDesign} />
         <Stack direction="row" spacing={1}>
           <LengthField
             label={DESIGN_FIELD_LABELS.sheetWidthMm}

@@ -1,9 +1,14 @@
-import { type DesignReport, type DesignSpecInput, type DesignView } from '@kerfwright/contracts';
+import {
+  type DesignReport,
+  type DesignSpecInput,
+  type DesignView,
+  type MaterialView,
+} from '@kerfwright/contracts';
 import { buildModel } from '@kerfwright/geometry';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { json, type RecordedCall, stubFetch } from '../../../testing/fetch-stub';
-import { userFixture } from '../../../testing/fixtures';
+import { materialFixture, userFixture } from '../../../testing/fixtures';
 import { formatLength } from '../../../lib/units';
 import { getAccessToken } from '../../../lib/token-store';
 import { renderApp } from '../../../testing/render-app';
@@ -47,7 +52,11 @@ function designFixture(overrides: Partial<DesignView> = {}): DesignView {
 
 const COPY_ID = '9a7c1f00-0000-4000-8000-000000000002';
 
-function studioApi(design: DesignView = designFixture(), me = userFixture('hobbyist')) {
+function studioApi(
+  design: DesignView = designFixture(),
+  me = userFixture('hobbyist'),
+  materials: MaterialView[] = [],
+) {
   let current = design;
   return stubFetch({
     // The server copies the design as it is stored (designs.service duplicate), not what a page shows.
@@ -55,7 +64,8 @@ function studioApi(design: DesignView = designFixture(), me = userFixture('hobby
       json(201, { ...current, id: COPY_ID, name: `${current.name} (copy)`, version: 1 }),
     'GET /api/auth/me': () => json(200, me),
     'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
-    'GET /api/materials': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+    'GET /api/materials': () =>
+      json(200, { items: materials, total: materials.length, page: 1, pageSize: 100 }),
     'GET /api/designs': () => json(200, { items: [], total: 0, page: 1, pageSize: 25 }),
     [`GET /api/designs/${DESIGN_ID}`]: () => json(200, current),
     [`PATCH /api/designs/${DESIGN_ID}`]: (call: RecordedCall) => {
@@ -205,6 +215,59 @@ describe('design studio', () => {
       expect(screen.getByLabelText('Sheet width (mm)')).toHaveAttribute('aria-invalid', 'false'),
     );
     expect(screen.queryByTestId('preview-last-valid')).not.toBeInTheDocument();
+  });
+
+  // Our own demo workshop's stock (invented): card in A3 sheets, a PVC board kept on file, no 600 × 400 sheet.
+  const card = materialFixture({
+    id: 'm-card',
+    name: 'Card stock 300 g/m²',
+    family: 'card',
+    nominalThicknessMm: 0.4,
+    measuredThicknessMm: 0.42,
+    flexible: true,
+    stockSheets: [{ widthMm: 420, heightMm: 297, pricePerSheet: 0.6, currency: 'EUR' }],
+  });
+  const pvc = materialFixture({
+    id: 'm-pvc',
+    name: 'Expanded PVC board 3 mm',
+    family: 'pvc',
+    laserAllowed: false,
+    stockSheets: [{ widthMm: 500, heightMm: 500, pricePerSheet: 4.9, currency: 'EUR' }],
+  });
+
+  it("starts a new design on the workshop's stock when its usual sheet is not stock, and offers the rest", async () => {
+    studioApi(designFixture(), userFixture('hobbyist'), [pvc, card]);
+    const { user } = renderApp('/designs/new', { token: 't' });
+    const picker = await screen.findByLabelText('Workshop stock');
+    await waitFor(() => expect(screen.getByLabelText('Sheet width (mm)')).toHaveValue(420));
+    expect(screen.getByLabelText('Sheet height (mm)')).toHaveValue(297);
+    // The thickness measured on the stock on hand, and card bends: flexible.
+    expect(screen.getByLabelText('Thickness (mm)')).toHaveValue(0.42);
+    expect(screen.getByLabelText('Flexible')).toBeChecked();
+    expect(picker).toHaveDisplayValue('Card stock 300 g/m², 420 × 297 mm, 0.42 mm thick');
+    // A laser design is not offered the board no laser may cut; a router design is.
+    expect(within(picker).queryByText(/PVC/)).not.toBeInTheDocument();
+    await user.selectOptions(screen.getByLabelText('Machine kind'), 'router');
+    expect(await within(picker).findByText(/Expanded PVC board 3 mm, 500 × 500 mm/)).toBeInTheDocument();
+    // A size typed in is no listed sheet.
+    await field('Sheet width (mm)', '410');
+    await waitFor(() => expect(picker).toHaveDisplayValue('Typed in (not a listed sheet)'));
+  });
+
+  it('keeps a saved design as it is and marks a stock picked as an unsaved change', async () => {
+    studioApi(designFixture(), userFixture('hobbyist'), [card]);
+    const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const picker = await screen.findByLabelText('Workshop stock');
+    expect(screen.getByLabelText('Sheet width (mm)')).toHaveValue(600);
+    expect(picker).toHaveDisplayValue('Typed in (not a listed sheet)');
+    await user.selectOptions(picker, 'm-card:0');
+    expect(screen.getByLabelText('Sheet width (mm)')).toHaveValue(420);
+    expect(screen.getByLabelText('Thickness (mm)')).toHaveValue(0.42);
+    const event = new Event('beforeunload', { cancelable: true });
+    await waitFor(() => {
+      window.dispatchEvent(event);
+      expect(event.defaultPrevented).toBe(true);
+    });
   });
 
   it('refuses a scale too small to cut', async () => {

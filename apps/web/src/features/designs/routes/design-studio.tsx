@@ -295,6 +295,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
             onUpload={setUpload}
             suggestedSizes={suggestedSizes}
             unit={unit}
+            newDesign={design === null}
           />
         </Paper>
 

@@ -1,0 +1,139 @@
+import { type MaterialView } from '@kerfwright/contracts';
+import TextField from '@mui/material/TextField';
+import { useEffect, useRef, useState } from 'react';
+import { type UseFormReturn, useWatch } from 'react-hook-form';
+import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
+import { formatLength, formatSheetSize, type LengthUnit } from '../../../lib/units';
+import { type DesignFormValues } from './design-form-schema';
+
+/** A material within this of the design's stock thickness is taken as that thickness (mm). */
+export const THICKNESS_MATCH_MM = 0.1;
+
+/** One sheet size of one material the workshop keeps, as the studio offers it. */
+export interface StockOption {
+  key: string;
+  materialName: string;
+  widthMm: number;
+  heightMm: number;
+  /** The thickness slots are worked for: measured on the stock on hand, else nominal. */
+  thicknessMm: number;
+  flexible: boolean;
+  /** Nominal and measured thickness, either of which counts as this stock's. */
+  thicknessesMm: number[];
+}
+
+/**
+ * Every stock sheet the workshop lists, material by material; for a laser design, only materials a laser may
+ * cut (the others are refused at preparation anyway).
+ */
+export function stockOptions(
+  materials: readonly Pick<
+    MaterialView,
+    'id' | 'name' | 'stockSheets' | 'nominalThicknessMm' | 'measuredThicknessMm' | 'flexible' | 'laserAllowed'
+  >[],
+  machineKind: DesignFormValues['machineKind'],
+): StockOption[] {
+  return materials
+    .filter((m) => machineKind !== 'laser' || m.laserAllowed)
+    .flatMap((m) =>
+      m.stockSheets.map((s, i) => ({
+        key: `${m.id}:${i}`,
+        materialName: m.name,
+        widthMm: s.widthMm,
+        heightMm: s.heightMm,
+        thicknessMm: m.measuredThicknessMm ?? m.nominalThicknessMm,
+        flexible: m.flexible,
+        thicknessesMm: [
+          m.nominalThicknessMm,
+          ...(m.measuredThicknessMm != null ? [m.measuredThicknessMm] : []),
+        ],
+      })),
+    );
+}
+
+/** Whether the form's sheet (either way round) and thickness are those of a stock option. */
+export function isStockOf(
+  o: StockOption,
+  v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
+): boolean {
+  const sameSize =
+    (o.widthMm === v.sheetWidthMm && o.heightMm === v.sheetHeightMm) ||
+    (o.widthMm === v.sheetHeightMm && o.heightMm === v.sheetWidthMm);
+  return sameSize && o.thicknessesMm.some((t) => Math.abs(t - v.thicknessMm) <= THICKNESS_MATCH_MM);
+}
+
+const SHEET_FIELDS = ['sheetWidthMm', 'sheetHeightMm', 'thicknessMm'] as const;
+
+/**
+ * Picks the stock sheet and thickness from the workshop's materials in one step. It shows the stock the
+ * form's numbers are (the one picked, while they still are), or "typed in". A new design whose starting
+ * sheet is not stock the workshop keeps starts from the first stock sheet offered instead (`adoptFirst`).
+ */
+export function StockSheetPicker({
+  form,
+  materials,
+  unit,
+  adoptFirst,
+}: {
+  form: UseFormReturn<DesignFormValues>;
+  materials: readonly MaterialView[] | undefined;
+  unit: LengthUnit;
+  adoptFirst: boolean;
+}) {
+  const [machineKind, sheetWidthMm, sheetHeightMm, thicknessMm] = useWatch({
+    control: form.control,
+    name: ['machineKind', ...SHEET_FIELDS],
+  });
+  const values = { sheetWidthMm, sheetHeightMm, thicknessMm };
+  const options = materials ? stockOptions(materials, machineKind) : [];
+  const [picked, setPicked] = useState<string | null>(null);
+  const current =
+    options.find((o) => o.key === picked && isStockOf(o, values)) ??
+    options.find((o) => isStockOf(o, values));
+
+  const use = (o: StockOption, asEdit: boolean) => {
+    setPicked(o.key);
+    const opts = { shouldValidate: true, shouldDirty: asEdit };
+    form.setValue('sheetWidthMm', o.widthMm, opts);
+    form.setValue('sheetHeightMm', o.heightMm, opts);
+    form.setValue('thicknessMm', o.thicknessMm, opts);
+    form.setValue('flexible', o.flexible, opts);
+    void form.trigger(['sheetWidthMm', 'sheetHeightMm', 'marginMm']);
+  };
+
+  const adopted = useRef(false);
+  useEffect(() => {
+    if (!adoptFirst || adopted.current || !materials) return;
+    adopted.current = true;
+    const first = options[0];
+    const untouched = SHEET_FIELDS.every((f) => !form.getFieldState(f).isDirty);
+    if (first && untouched && !options.some((o) => isStockOf(o, form.getValues()))) use(first, false);
+    // Once, when the materials first arrive.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [adoptFirst, materials]);
+
+  if (!materials || options.length === 0) return null;
+  return (
+    <TextField
+      select
+      size="small"
+      label="Workshop stock"
+      value={current?.key ?? ''}
+      onChange={(e) => {
+        const o = options.find((x) => x.key === e.target.value);
+        if (o) use(o, true);
+      }}
+      slotProps={NATIVE_SELECT}
+      helperText="Sets the sheet size, thickness and flexibility; the fabricator confirms the stock when preparing."
+    >
+      <option value="" disabled>
+        Typed in (not a listed sheet)
+      </option>
+      {options.map((o) => (
+        <option key={o.key} value={o.key}>
+          {`${o.materialName}, ${formatSheetSize(o, unit)}, ${formatLength(o.thicknessMm, unit)} thick`}
+        </option>
+      ))}
+    </TextField>
+  );
+}
