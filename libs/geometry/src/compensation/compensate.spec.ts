@@ -3,7 +3,7 @@ import { buildModel } from '../build';
 import { cubeSquares45, octahedronHexagons } from '../test-support/designs';
 import { measureSlotWidth, segmentsOf } from '../test-support/measure';
 import { type Vec2 } from '../math/vec';
-import { containsPoint, perimeter, signedArea } from '../math/polygon';
+import { containsPoint, perimeter, pointSegmentDistance, signedArea } from '../math/polygon';
 import { starOutline } from '../pieces/shape';
 import { CLIPPER_SCALE, offsetPolygons } from './clipper-adapter';
 import { compensateKerf, dogBoneCentre, mitreTerm } from './compensate';
@@ -100,6 +100,47 @@ describe('router dog-bone reliefs', () => {
     expect(Math.SQRT2 - 1).toBeCloseTo(0.414, 3);
   });
 
+  // The tool-fit condition itself (common practice: a round bit of radius r clears a square inside corner
+  // only if a circle of radius r about the relief centre lies wholly in the cut-out). Chords drawn on the
+  // circle would leave slivers up to CIRCLE_TOLERANCE_MM deep inside it. 12.7 mm in 18 mm stock: the reliefs
+  // of a slot nearly meet and are cut by the clipping library (on its 0.1 µm grid); 6.35 mm: drawn as arcs.
+  it.each([12.7, 6.35])(
+    'leaves room for the whole %s mm bit at every relief (exact circle, 720 points)',
+    (tool) => {
+      const r = tool / 2;
+      const m = buildModel(
+        cubeSquares45(1.5, { machine: { kind: 'router', toolDiameterMm: tool }, stock: { thicknessMm: 18 } }),
+      );
+      expect(m.report.errors).toEqual([]);
+      let checked = 0;
+      for (const p of m.pieces) {
+        for (const s of p.slots) {
+          const n: Vec2 = [-s.axis[1], s.axis[0]];
+          for (const side of [-1, 1]) {
+            const corner: Vec2 = [
+              s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
+              s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
+            ];
+            // Walls leaving the corner: back toward the opening, and across the bottom.
+            const walls: [Vec2, Vec2] = [
+              [-s.axis[0], -s.axis[1]],
+              [-n[0] * side, -n[1] * side],
+            ];
+            const c = dogBoneCentre(corner, walls, r);
+            const inside = r - 1 / CLIPPER_SCALE;
+            for (let k = 0; k < 720; k++) {
+              const a = (2 * Math.PI * k) / 720;
+              const q: Vec2 = [c[0] + inside * Math.cos(a), c[1] + inside * Math.sin(a)];
+              expect(containsPoint(p.outline, q)).toBe(false);
+            }
+            checked++;
+          }
+        }
+      }
+      expect(checked).toBeGreaterThan(0);
+    },
+  );
+
   it('draws each relief arc through its slot corner', () => {
     const tool = 3.175;
     const m = buildModel(
@@ -113,7 +154,12 @@ describe('router dog-bone reliefs', () => {
             s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
             s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
           ];
-          const nearest = Math.min(...p.outline.map((q) => Math.hypot(q[0] - corner[0], q[1] - corner[1])));
+          // The corner is a point of the relief's arc: on the outline, between two of its tangent edges.
+          const nearest = Math.min(
+            ...p.outline.map((q, i) =>
+              pointSegmentDistance(corner, q, p.outline[(i + 1) % p.outline.length]!),
+            ),
+          );
           expect(nearest).toBeLessThan(1e-9);
         }
       }

@@ -40,8 +40,8 @@ export function dogBoneCentre(corner: Vec2, walls: readonly [Vec2, Vec2], r: num
 /**
  * The part of a dog-bone relief that reaches past the cut-out's walls: the sector of the relief circle
  * from where it crosses one wall, through the corner, to where it crosses the other (the rest of the
- * circle lies inside the cut-out). The sector's centre comes first, then the arc; chords within
- * CIRCLE_TOLERANCE_MM. `overshootRad` runs the arc that much further at both ends.
+ * circle lies inside the cut-out). The sector's centre comes first, then the arc, drawn just outside the circle
+ * (within CIRCLE_TOLERANCE_MM). `overshootRad` runs the arc that much further at both ends.
  */
 export function dogBonePolygon(
   corner: Vec2,
@@ -57,8 +57,24 @@ export function dogBonePolygon(
   const ux = (corner[0] - c[0]) / r;
   const uy = (corner[1] - c[1]) / r;
   const fan = arcFan(half, r);
-  const pts: Vec2[] = [c];
-  for (const [cs, sn] of fan) pts.push([c[0] + r * (ux * cs - uy * sn), c[1] + r * (ux * sn + uy * cs)]);
+  // The arc is drawn from outside: its edges lie along the circle's tangents at the sample angles, meeting
+  // halfway between them, so the cut-out holds the whole relief circle and a bit of radius r reaches the
+  // corner (chords would leave slivers inside the circle). The two ends and the corner (an even count puts
+  // a sample on it) are points of the circle; the edges bulge at most CIRCLE_TOLERANCE_MM beyond it.
+  const on = ([cs, sn]: [number, number]): Vec2 => [ux * cs - uy * sn, ux * sn + uy * cs];
+  const first = on(fan[0]!);
+  const pts: Vec2[] = [c, [c[0] + r * first[0], c[1] + r * first[1]]];
+  for (let k = 1; k < fan.length; k++) {
+    const a = on(fan[k - 1]!);
+    const b = on(fan[k]!);
+    // Where the tangents at a and b meet: along a + b, at r / cos(half the angle) = 2r / |a + b|².
+    const sx = a[0] + b[0];
+    const sy = a[1] + b[1];
+    const f = (2 * r) / (sx * sx + sy * sy);
+    pts.push([c[0] + f * sx, c[1] + f * sy]);
+  }
+  const last = on(fan[fan.length - 1]!);
+  pts.push([c[0] + r * last[0], c[1] + r * last[1]]);
   return pts;
 }
 
@@ -114,7 +130,9 @@ export function slotCutout(s: Slot, reliefRadius: number): Vec2[][] {
   const reach = r * Math.SQRT2; // 2r·cos(φ/2) at φ = 90°: where the relief circle meets each wall
   const corners = slotInnerCorners(s);
   const [k1, k2] = corners as [Corner, Corner];
-  if (2 * reach >= s.width || reach >= s.depth + s.lead) {
+  // The arcs bulge up to CIRCLE_TOLERANCE_MM outside the circle (dogBonePolygon): keep them apart by that too.
+  const drawnReach = reach + 2 * CIRCLE_TOLERANCE_MM;
+  if (2 * drawnReach >= s.width || drawnReach >= s.depth + s.lead) {
     return [rect, ...corners.map((k) => dogBonePolygon(k.corner, k.walls, r))];
   }
   const n: Vec2 = [-s.axis[1], s.axis[0]];
@@ -158,7 +176,8 @@ function insertDogBones(
   shape: Polygon,
   skip: ReadonlySet<CornerKey> = new Set(),
 ): { outline: Vec2[]; rest: CornerKey[] } {
-  const reach = r * Math.SQRT2;
+  // The arcs bulge up to CIRCLE_TOLERANCE_MM outside the relief circle (dogBonePolygon).
+  const reach = r * Math.SQRT2 + 2 * CIRCLE_TOLERANCE_MM;
   const m = outline.length;
   const replace = new Map<number, Vec2[]>();
   const rest: CornerKey[] = [];
@@ -186,7 +205,7 @@ function insertDogBones(
       const far = (q: Vec2) => Math.hypot(q[0] - k.corner[0], q[1] - k.corner[1]) > reach + tol;
       let safe = idx >= 0 && !replace.has(idx) && far(prev) && far(next);
       const centre = dogBoneCentre(k.corner, k.walls, r);
-      const lim = r + tol;
+      const lim = r + CIRCLE_TOLERANCE_MM + tol;
       for (let i = 0; safe && i < m; i++) {
         if (i === idx || (i + 1) % m === idx) continue;
         const a = outline[i] as Vec2;
