@@ -166,6 +166,11 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
 
     await page.getByRole('button', { name: 'Request a cut job' }).click();
     const dialog = page.getByRole('dialog', { name: 'Request a cut job' });
+    // The keyboard is in Copies with its 1 selected: a digit typed replaces it (it once made "12" of a "2").
+    const copies = dialog.getByLabel('Copies');
+    await page.waitForFunction(() => document.activeElement?.getAttribute('type') === 'number');
+    await page.keyboard.type('2');
+    expect(await copies.inputValue()).toBe('2');
     await dialog.getByLabel('Copies').fill('0');
     await dialog.getByRole('button', { name: 'Request the cut' }).click();
     await dialog.getByText('At least 1 copy').waitFor();

@@ -6,6 +6,7 @@ import DialogContentText from '@mui/material/DialogContentText';
 import DialogTitle from '@mui/material/DialogTitle';
 import { type FormEvent, type ReactNode } from 'react';
 import { FormErrorAlert } from './form-error-alert';
+import { focusFirstField } from './focus-first-field';
 
 interface FormDialogProps {
   open: boolean;
@@ -28,7 +29,10 @@ interface FormDialogProps {
   children: ReactNode;
 }
 
-/** A form in a dialog: title, an optional intro, the form's error, the fields, then Cancel and submit. */
+/**
+ * A form in a dialog: title, an optional intro, the form's error, the fields, then Cancel and submit. Once
+ * open, the keyboard is in the first field (focusFirstField).
+ */
 export function FormDialog({
   open,
   titleId,
@@ -50,6 +54,7 @@ export function FormDialog({
       fullWidth
       maxWidth={maxWidth}
       aria-labelledby={titleId}
+      slotProps={{ transition: { onEntered: focusFirstField } }}
     >
       <form noValidate onSubmit={(event) => void onSubmit(event)}>
         <DialogTitle id={titleId}>{title}</DialogTitle>

@@ -1,11 +1,30 @@
-import { screen } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { screen, waitFor } from '@testing-library/react';
+import { describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { SendBackDialog } from './send-back-dialog';
 
 const noop = () => undefined;
 
 describe('send back dialog', () => {
+  it('opens with the keyboard in the reason, so what is typed is the reason', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <SendBackDialog
+        open
+        subject="the job Hexagon star"
+        verb="Return"
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    const reason = await screen.findByRole('textbox', { name: /Reason/ });
+    await waitFor(() => expect(reason).toHaveFocus());
+    await user.keyboard('Slots too tight');
+    expect(reason).toHaveValue('Slots too tight');
+  });
+
   it('tells the supervisor returning a job what its requester can do with it: change the design, not the request', async () => {
     renderWithProviders(
       <SendBackDialog

@@ -30,6 +30,24 @@ describe('return job dialog', () => {
 });
 
 describe('record the cut dialog', () => {
+  it('opens with the keyboard in the machine time', async () => {
+    const { user } = renderWithProviders(
+      <RecordCutDialog
+        open
+        busy={false}
+        error={null}
+        preparedSheets={2}
+        machineKind="laser"
+        onSubmit={noop}
+        onClose={noop}
+      />,
+    );
+    const minutes = await screen.findByLabelText('Machine time (minutes)');
+    await waitFor(() => expect(minutes).toHaveFocus());
+    await user.keyboard('12');
+    expect(minutes).toHaveValue(12);
+  });
+
   it('needs the machine time and whole sheets; the measured kerf may stay empty', async () => {
     const onSubmit = vi.fn();
     const { user } = renderWithProviders(

@@ -12,6 +12,7 @@ import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { focusFirstField } from '../../../components/ui/focus-first-field';
 import { countOf } from '../../../lib/plural';
 import { isFarAboveSheets, type RecordCutValues, recordCutSchemaFor } from './job-action-schemas';
 
@@ -47,7 +48,14 @@ export function RecordCutDialog(props: {
   const needsConfirmation = farAbove && confirmed !== sheetsUsed;
   const n = { valueAsNumber: true } as const;
   return (
-    <Dialog open={props.open} onClose={props.onClose} fullWidth maxWidth="sm" aria-labelledby="cut-title">
+    <Dialog
+      open={props.open}
+      onClose={props.onClose}
+      fullWidth
+      maxWidth="sm"
+      aria-labelledby="cut-title"
+      slotProps={{ transition: { onEntered: focusFirstField } }}
+    >
       <form
         noValidate
         onSubmit={handleSubmit((v) => {

@@ -64,9 +64,7 @@ export function RequestJobDialog({
         <FormTextField
           label="Copies"
           type="number"
-          // The one field most requests change: focused (and selected, so typing replaces the 1) on opening.
-          autoFocus
-          onFocus={(event) => event.target.select()}
+          // The first field: focused and selected once the dialog is open, so typing replaces the 1 (FormDialog).
           registration={register('quantity', { valueAsNumber: true })}
           error={errors.quantity}
         />
