@@ -162,6 +162,9 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await page.getByLabel('Name').fill(designName);
     await page.getByRole('button', { name: 'Save design' }).click();
     await page.waitForURL(/\/designs\/[0-9a-f-]{36}$/);
+    // Saving disabled the button for a moment: the keyboard is back on it, and the page says it saved.
+    await page.getByText(`Saved “${designName}”.`).waitFor();
+    await page.waitForFunction(() => document.activeElement?.textContent === 'Save');
     await shot('design-studio');
 
     await page.getByRole('button', { name: 'Request a cut job' }).click();

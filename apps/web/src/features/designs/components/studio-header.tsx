@@ -6,7 +6,7 @@ import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
-import { memo } from 'react';
+import { memo, type Ref } from 'react';
 import { type LengthUnit } from '../../../lib/units';
 
 interface StudioHeaderProps {
@@ -15,6 +15,8 @@ interface StudioHeaderProps {
   onUnit: (unit: LengthUnit) => void;
   onSave: () => void;
   saving: boolean;
+  /** The Save button, for the studio to put the keyboard back on it once a save is done. */
+  saveRef?: Ref<HTMLButtonElement>;
   onDuplicate: () => void;
   duplicating: boolean;
   onRequest: () => void;
@@ -31,6 +33,7 @@ export const StudioHeader = memo(function StudioHeader({
   onUnit,
   onSave,
   saving,
+  saveRef,
   onDuplicate,
   duplicating,
   onRequest,
@@ -62,7 +65,13 @@ export const StudioHeader = memo(function StudioHeader({
         describeChild
       >
         <Box component="span" sx={{ display: 'inline-flex' }} data-testid="save-wrapper">
-          <Button variant="contained" onClick={onSave} disabled={saving || !canSave} sx={{ flex: 1 }}>
+          <Button
+            ref={saveRef}
+            variant="contained"
+            onClick={onSave}
+            disabled={saving || !canSave}
+            sx={{ flex: 1 }}
+          >
             {design ? 'Save' : 'Save design'}
           </Button>
         </Box>

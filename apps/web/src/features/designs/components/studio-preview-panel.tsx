@@ -56,7 +56,7 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
       {fitting ? (
         <Box sx={{ mb: 1 }} data-testid="preview-fitting" role="status">
           <Typography variant="body2" color="text.secondary">
-            {report ? `${fittingText} The model below is the previous fit.` : fittingText}
+            {report ? `${fittingText} The model below is at the size shown before.` : fittingText}
           </Typography>
           <LinearProgress aria-label={fittingText} sx={{ mt: 0.5 }} />
         </Box>

@@ -59,11 +59,12 @@ export function useStudioPreview(
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [fitKey, foundMm],
   );
-  // The last fitted spec, shown while the next search runs.
-  const lastFitted = useRef<DesignSpecInput | null>(null);
-  if (fitted) lastFitted.current = fitted;
+  // The model last shown (a fitted one, or at the size typed before the fit was chosen) stays on screen,
+  // dimmed, while the next search runs: the page keeps its layout instead of folding up for seconds.
+  const lastShown = useRef<DesignSpecInput | null>(null);
   const searching = fitSheets !== null && task.pending;
-  const previewSpec = fitSheets === null ? spec : (fitted ?? (searching ? lastFitted.current : null));
+  const previewSpec = fitSheets === null ? spec : (fitted ?? (searching ? lastShown.current : null));
+  if (previewSpec) lastShown.current = previewSpec;
   const preview = useBuiltModel(previewSpec, colourCount, colourRule);
   if (fitSheets === null) return { preview, fit: null, fitting: false };
   const fit: StudioFit = { sheets: fitSheets, pending: task.pending, result: task.value, error: task.error };

@@ -118,10 +118,14 @@ describe('design studio', () => {
     await screen.findByTestId('model-facts');
     await user.selectOptions(screen.getByLabelText('Scale by'), 'fitSheets');
 
-    // While the search runs no size is claimed: the studio says it is fitting.
+    // While the search runs no size is claimed: the studio says it is fitting, and the model typed before
+    // stays on screen (dimmed), so the page keeps its shape.
     expect(await screen.findByTestId('preview-fitting')).toHaveTextContent(
-      'Fitting the largest size on 2 sheets…',
+      'Fitting the largest size on 2 sheets… The model below is at the size shown before.',
     );
+    expect(screen.getByTestId('preview-3d')).toBeInTheDocument();
+    expect(fact('Diameter')).toBe('fitting…');
+    expect(screen.getByRole('table', { name: 'Crossings' })).toBeInTheDocument();
 
     const summary = await screen.findByTestId('sheets-summary', undefined, { timeout: 20_000 });
     await waitFor(() => expect(screen.queryByTestId('preview-fitting')).not.toBeInTheDocument(), {

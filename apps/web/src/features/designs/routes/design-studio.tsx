@@ -98,6 +98,8 @@ function NoSuchDesign() {
 /** What the studio says on opening a design: set by the page that sent the member here (e.g. a new copy). */
 interface StudioLocationState {
   notice?: string;
+  /** The member saved a new design with the keyboard on Save: it is put back there on its own page. */
+  focusSave?: boolean;
 }
 
 function DesignStudio({ design }: { design: DesignView | null }) {
@@ -138,6 +140,16 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   );
   const [duplicateAsked, setDuplicateAsked] = useState(false);
   const saveDesign = useSaveDesign();
+  // Save is disabled while it saves, which takes the keyboard focus off it: once done, it goes back there
+  // (if it was there and nothing else took it meanwhile), not to the start of the page.
+  const saveButton = useRef<HTMLButtonElement>(null);
+  const refocusSave = useRef(Boolean((location.state as StudioLocationState | null)?.focusSave));
+  useEffect(() => {
+    if (saveDesign.isPending || !refocusSave.current) return;
+    refocusSave.current = false;
+    const active = document.activeElement;
+    if (!active || active === document.body) saveButton.current?.focus();
+  }, [saveDesign.isPending]);
   const dirtyNow = form.formState.isDirty || upload !== savedUpload;
   const { leaving, dialog: leaveDialog } = useUnsavedChangesGuard(dirtyNow);
   const duplicate = useDuplicateDesign();
@@ -207,7 +219,8 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     setNotice(`Saved “${saved.name}”.`);
     if (!design) {
       leaving.current = true;
-      void navigate(`/designs/${saved.id}`, { replace: true });
+      const state: StudioLocationState = { notice: `Saved “${saved.name}”.`, focusSave: refocusSave.current };
+      void navigate(`/designs/${saved.id}`, { replace: true, state });
     }
     return saved;
   };
@@ -259,7 +272,10 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   };
 
   const dirty = dirtyNow;
-  const onSave = useStableCallback(() => void save());
+  const onSave = useStableCallback(() => {
+    refocusSave.current = document.activeElement === saveButton.current;
+    void save();
+  });
   const onDuplicateClick = useStableCallback(() => void onDuplicate());
   const onRequestClick = useStableCallback(() => {
     requestJob.reset();
@@ -278,6 +294,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         onUnit={setUnit}
         onSave={onSave}
         saving={saveDesign.isPending}
+        saveRef={saveButton}
         onDuplicate={onDuplicateClick}
         duplicating={duplicate.isPending}
         onRequest={onRequestClick}

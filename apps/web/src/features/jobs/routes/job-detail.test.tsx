@@ -113,6 +113,8 @@ describe('job detail', () => {
     await user.click(within(dialog).getByRole('button', { name: 'Withdraw the request' }));
     await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
     expect(stub.calls.find((c) => c.method === 'POST')?.url.pathname).toBe(`/api/jobs/${job.id}/withdraw`);
+    // The button is gone with the step: the keyboard focus goes to the job's name, not to the page.
+    await waitFor(() => expect(screen.getByRole('heading', { level: 1 })).toHaveFocus());
   });
 
   it('names the owner of a draft, and confirms its request with a button that says it requests the cut', async () => {

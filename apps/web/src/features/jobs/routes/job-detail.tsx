@@ -20,7 +20,7 @@ import TableRow from '@mui/material/TableRow';
 import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { NotFoundPage } from '../../../components/errors/not-found-page';
@@ -144,11 +144,23 @@ function JobDetail({ job }: { job: JobDetailView }) {
     unit === 'in' ? `${(mm / MM_PER_INCH).toFixed(4)} in` : `${Math.round(mm * 1000) / 1000} mm`;
   const prep = job.preparation;
 
+  // A step taken moves the job on and the button that opened its dialog goes: once the dialog has closed,
+  // the keyboard focus goes to the job's name (the state beside it), instead of falling to the page.
+  const heading = useRef<HTMLHeadingElement>(null);
+  const [stepTaken, setStepTaken] = useState(false);
+  useEffect(() => {
+    if (!stepTaken || open !== null) return;
+    heading.current?.focus();
+    setStepTaken(false);
+  }, [stepTaken, open]);
   const take = (a: JobAction, extra: Record<string, unknown> = {}) =>
     action.mutate(
       { id: job.id, action: a, body: { version: job.version, ...extra } },
       {
-        onSuccess: () => setOpen(null),
+        onSuccess: () => {
+          setStepTaken(true);
+          setOpen(null);
+        },
         // Someone acted on the job meanwhile: the dialog closes, so that nobody confirms a job they have not
         // seen as it is now (a new preparation, another state); the page shows it and says so.
         onError: (error) => {
@@ -179,7 +191,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
     <Box sx={{ maxWidth: 1200 }} data-testid="job-detail">
       <title>{`${job.designName} · Job · Kerfwright`}</title>
       <Stack direction="row" spacing={2} sx={{ alignItems: 'center', mb: 1 }}>
-        <Typography variant="h1">{job.designName}</Typography>
+        <Typography variant="h1" ref={heading} tabIndex={-1} sx={{ '&:focus': { outline: 'none' } }}>
+          {job.designName}
+        </Typography>
         <JobStateChip state={job.state} />
         <Box sx={{ flex: 1 }} />
         <ToggleButtonGroup

@@ -35,6 +35,7 @@ export function KerfHistoryPanel({
   const adopt = useAdoptKerfRecord(profile.id);
   const record = useCreateKerfRecord(profile.id);
   const [recording, setRecording] = useState(false);
+  const [justAdopted, setJustAdopted] = useState<string | null>(null);
   const router = profile.kind === 'cnc-router';
   const quantity = router ? 'cut width' : 'kerf';
 
@@ -128,7 +129,20 @@ export function KerfHistoryPanel({
                   <TableCell>{r.notes || '—'}</TableCell>
                   <TableCell align="right">
                     {r.adoptedVersionId ? (
-                      `Adopted into version ${versionNumber(r.adoptedVersionId) ?? '?'}`
+                      <Box
+                        component="span"
+                        tabIndex={-1}
+                        sx={{ '&:focus': { outline: 'none' } }}
+                        ref={(el: HTMLElement | null) => {
+                          // The button just used is gone: the keyboard stays on its row, with what it did.
+                          if (el && r.id === justAdopted) {
+                            el.focus();
+                            setJustAdopted(null);
+                          }
+                        }}
+                      >
+                        {`Adopted into version ${versionNumber(r.adoptedVersionId) ?? '?'}`}
+                      </Box>
                     ) : (
                       <Button
                         size="small"
@@ -136,7 +150,10 @@ export function KerfHistoryPanel({
                         title={pending ? 'Wait for the decision on the submitted version' : undefined}
                         onClick={() =>
                           adopt.mutate(r.id, {
-                            onSuccess: (v) => onAdopted(`${r.kerfMm} mm is in draft version ${v.number}.`),
+                            onSuccess: (v) => {
+                              setJustAdopted(r.id);
+                              onAdopted(`${r.kerfMm} mm is in draft version ${v.number}.`);
+                            },
                           })
                         }
                       >

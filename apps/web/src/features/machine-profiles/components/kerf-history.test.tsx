@@ -3,7 +3,7 @@ import {
   type MachineProfileDetailView,
   type MachineProfileVersionView,
 } from '@kerfwright/contracts';
-import { render, screen, within } from '@testing-library/react';
+import { render, screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { renderWithProviders } from '../../../testing/render-app';
@@ -106,6 +106,29 @@ describe('kerf history panel', () => {
     const table = await screen.findByRole('table', { name: 'Measured kerfs' });
     expect(within(table).getByText('0.165 mm')).toBeInTheDocument();
     expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
+  });
+});
+
+describe('kerf history panel, adopting', () => {
+  it('keeps the keyboard on the row adopted, where its button was', async () => {
+    let adopted = false;
+    stubFetch({
+      'GET /api/machine-profiles/p-1/kerf-records': () =>
+        json(200, {
+          items: records.map((r) => (adopted && r.id === 'k-2' ? { ...r, adoptedVersionId: version.id } : r)),
+          total: records.length,
+          page: 1,
+          pageSize: 1000,
+        }),
+      'POST /api/machine-profiles/p-1/kerf-records/k-2/adopt': () => {
+        adopted = true;
+        return json(201, version);
+      },
+    });
+    const { user } = renderWithProviders(<KerfHistoryPanel profile={profile} onAdopted={() => undefined} />);
+    await user.click(await screen.findByRole('button', { name: 'Adopt 0.165 mm' }));
+    const done = await screen.findByText(`Adopted into version ${version.number}`);
+    await waitFor(() => expect(done).toHaveFocus());
   });
 });
 

@@ -2,20 +2,25 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { type LocalRulesView } from '@kerfwright/contracts';
 import Button from '@mui/material/Button';
 import Stack from '@mui/material/Stack';
+import { useEffect, useRef } from 'react';
 import { useForm } from 'react-hook-form';
+import { focusFirstField } from '../../../components/ui/focus-first-field';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { type LocalRulesInput, localRulesSchema, useUpdateLocalRules } from '../api/update-local-rules';
 
-/** A supervisor rewrites the workshop's local rules; saving makes a new version that operators acknowledge. */
+/**
+ * A supervisor rewrites the workshop's local rules; saving makes a new version that operators acknowledge.
+ * It opens with the keyboard at the end of the rules; Escape leaves it while nothing has been changed.
+ */
 export function LocalRulesForm({ rules, onDone }: { rules: LocalRulesView | null; onDone: () => void }) {
   const update = useUpdateLocalRules();
   const {
     register,
     handleSubmit,
     setError,
-    formState: { errors },
+    formState: { errors, isDirty },
   } = useForm<LocalRulesInput>({
     resolver: zodResolver(localRulesSchema),
     defaultValues: { body: rules?.body ?? '' },
@@ -28,8 +33,19 @@ export function LocalRulesForm({ rules, onDone }: { rules: LocalRulesView | null
       applyServerFieldErrors(error, setError, ['body']);
     }
   });
+  const form = useRef<HTMLFormElement>(null);
+  useEffect(() => {
+    if (form.current) focusFirstField(form.current);
+  }, []);
   return (
-    <form noValidate onSubmit={(e) => void submit(e)}>
+    <form
+      ref={form}
+      noValidate
+      onSubmit={(e) => void submit(e)}
+      onKeyDown={(e) => {
+        if (e.key === 'Escape' && !isDirty && !update.isPending) onDone();
+      }}
+    >
       <Stack spacing={2}>
         {update.error && errors.body?.type !== 'server' ? <FormErrorAlert error={update.error} /> : null}
         <FormTextField

@@ -187,5 +187,17 @@ describe('safety page', () => {
     );
     expect(await screen.findByText('Extraction on before the beam.')).toBeInTheDocument();
     expect(screen.getByText(/^Version 4/)).toBeInTheDocument();
+    // Saved: the keyboard is back on the button that opened the editor.
+    const edit = screen.getByRole('button', { name: 'Edit the local rules' });
+    await waitFor(() => expect(edit).toHaveFocus());
+
+    // The editor opens with the keyboard in the rules, at their end; Escape leaves it while unchanged.
+    await user.keyboard('{Enter}');
+    const again = await screen.findByLabelText('Local rules');
+    expect(again).toHaveFocus();
+    expect((again as HTMLTextAreaElement).selectionStart).toBe((again as HTMLTextAreaElement).value.length);
+    await user.keyboard('{Escape}');
+    await waitFor(() => expect(screen.queryByLabelText('Local rules')).not.toBeInTheDocument());
+    expect(screen.getByRole('button', { name: 'Edit the local rules' })).toHaveFocus();
   });
 });

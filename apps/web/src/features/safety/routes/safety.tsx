@@ -6,7 +6,7 @@ import CircularProgress from '@mui/material/CircularProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { MarkdownText } from '../../../components/ui/markdown-text';
 import { useUser } from '../../../lib/auth';
@@ -27,6 +27,13 @@ export function SafetyRoute() {
   const hazards = useHazards();
   const rules = useLocalRules();
   const [editing, setEditing] = useState(false);
+  // Leaving the editor (saved or not) puts the keyboard back on the button that opened it.
+  const editButton = useRef<HTMLButtonElement>(null);
+  const wasEditing = useRef(false);
+  useEffect(() => {
+    if (wasEditing.current && !editing) editButton.current?.focus();
+    wasEditing.current = editing;
+  }, [editing]);
   const sorted = [...(notices.data ?? [])].sort(
     (a, b) =>
       NOTICE_SEVERITIES.indexOf(a.severity) - NOTICE_SEVERITIES.indexOf(b.severity) ||
@@ -52,7 +59,7 @@ export function SafetyRoute() {
             Local rules
           </Typography>
           {user.role === 'supervisor' && !editing && rules.isSuccess ? (
-            <Button variant="outlined" onClick={() => setEditing(true)}>
+            <Button variant="outlined" ref={editButton} onClick={() => setEditing(true)}>
               Edit the local rules
             </Button>
           ) : null}

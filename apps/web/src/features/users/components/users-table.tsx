@@ -35,6 +35,16 @@ export function userColumns({
               (you)
             </Typography>
           ) : null}
+          {/* On a phone the Status column goes: a deactivated account says so under its name. */}
+          {user.active ? null : (
+            <Typography
+              component="span"
+              color="text.secondary"
+              sx={{ display: { xs: 'block', sm: 'none' }, fontSize: '0.8125rem' }}
+            >
+              Deactivated
+            </Typography>
+          )}
         </>
       ),
     },
@@ -50,7 +60,7 @@ export function userColumns({
       id: 'role',
       header: 'Role',
       sortField: 'role',
-      cellSx: { minWidth: 150 },
+      cellSx: { minWidth: { xs: 112, sm: 150 } },
       render: (user) => (
         <TextField
           select
@@ -59,7 +69,7 @@ export function userColumns({
           disabled={user.id === currentUserId}
           onChange={(event) => onRoleChange(user, event.target.value as Role)}
           slotProps={{ htmlInput: { 'aria-label': `Role of ${user.displayName}` } }}
-          sx={{ minWidth: 140 }}
+          sx={{ minWidth: { xs: 104, sm: 140 } }}
         >
           {ROLES.map((r) => (
             <MenuItem key={r} value={r}>
@@ -79,6 +89,7 @@ export function userColumns({
     },
     {
       id: 'status',
+      hideOnPhone: true,
       header: 'Status',
       render: (user) => (
         <Chip

@@ -1,9 +1,10 @@
 import { type UserView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, type RecordedCall, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
+import { stubScreenWidth } from '../../../testing/screen-width';
 
 const supervisor = userFixture('supervisor', { displayName: 'Sam Supervisor' });
 
@@ -44,6 +45,8 @@ const hobbyist = userFixture('hobbyist', { displayName: 'Alex Birch', email: 'al
 const operator = userFixture('operator', { displayName: 'Robin Slate', email: 'robin@workshop.example' });
 
 describe('People (supervisor)', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
   it('lists people with their role and status, and locks your own row', async () => {
     peopleApi([supervisor, hobbyist, operator]);
     renderApp('/people', { token: 't' });
@@ -55,6 +58,17 @@ describe('People (supervisor)', () => {
     const own = screen.getByTestId(`person-${supervisor.email}`);
     expect(own).toHaveTextContent('(you)');
     expect(within(own).getByRole('button', { name: /Deactivate Sam Supervisor/ })).toBeDisabled();
+  });
+
+  it('keeps name, role and access on a phone (390 px): the status is said under a deactivated name', async () => {
+    stubScreenWidth(390);
+    peopleApi([supervisor, { ...hobbyist, active: false }, operator]);
+    renderApp('/people', { token: 't' });
+    const row = await screen.findByTestId('person-alex@workshop.example');
+    expect(screen.queryByRole('columnheader', { name: 'Status' })).not.toBeInTheDocument();
+    expect(screen.queryByRole('columnheader', { name: 'E-mail' })).not.toBeInTheDocument();
+    expect(within(row).getByText('Deactivated')).toBeInTheDocument();
+    expect(within(row).getByRole('button', { name: 'Reactivate Alex Birch' })).toBeInTheDocument();
   });
 
   it('asks the API for the chosen sort, role filter and search', async () => {
