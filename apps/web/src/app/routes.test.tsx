@@ -139,6 +139,15 @@ describe('protected routes', () => {
     expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe('/sign-in');
     expect(getAccessToken()).toBeNull();
+    // It says why: nobody asked to sign out. Once: a later visit to sign-in does not say it again.
+    expect(screen.getByTestId('session-ended')).toHaveTextContent(
+      'You were signed out: your session has ended.',
+    );
+    await router.navigate('/register');
+    await waitFor(() => expect(screen.queryByTestId('session-ended')).not.toBeInTheDocument());
+    await router.navigate('/sign-in');
+    expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
+    expect(screen.queryByTestId('session-ended')).not.toBeInTheDocument();
   });
 
   it('explains a failed account check and still offers a way out', async () => {
@@ -173,6 +182,8 @@ describe('protected routes', () => {
     expect(router.state.location.search).toBe('');
     expect(router.state.location.state).toBeNull();
     expect(queryClient.getQueryCache().getAll()).toEqual([]);
+    // Signed out on purpose: no word of a session that ended.
+    expect(screen.queryByTestId('session-ended')).not.toBeInTheDocument();
   });
 
   it('remembers the page when the session ends by itself', async () => {

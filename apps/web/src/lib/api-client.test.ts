@@ -121,6 +121,21 @@ describe('apiRequest', () => {
     expect(getAccessToken()).toBeNull();
   });
 
+  it('keeps a session begun while a request of the last one was on its way, whatever it is answered', async () => {
+    setAccessToken('old-token');
+    const body = { statusCode: 401, code: 'AUTH.UNAUTHENTICATED', message: 'Sign in first', requestId: 'r' };
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => {
+        // Signed in again before the old token's answer came back.
+        setAccessToken('new-token');
+        return jsonResponse(401, body);
+      }),
+    );
+    await expect(apiRequest('/auth/me')).rejects.toMatchObject({ status: 401 });
+    expect(getAccessToken()).toBe('new-token');
+  });
+
   it('keeps the token on a 403: the user is signed in, just not allowed', async () => {
     setAccessToken('valid-token');
     const body = { statusCode: 403, code: 'AUTH.FORBIDDEN', message: 'Needs supervisor', requestId: 'r' };

@@ -6,7 +6,7 @@
  */
 import { type FieldError, isErrorBody } from '@kerfwright/contracts';
 import { env } from '../config/env';
-import { clearAccessToken, getAccessToken } from './token-store';
+import { endRefusedSession, getAccessToken } from './token-store';
 
 export class ApiError extends Error {
   override readonly name = 'ApiError';
@@ -118,7 +118,7 @@ export async function apiRequest<T>(path: string, options: RequestOptions = {}):
 
   if (!response.ok) {
     const error = await parseErrorResponse(response);
-    if (response.status === 401 && token) clearAccessToken();
+    if (response.status === 401 && token) endRefusedSession(token);
     throw error;
   }
   if (response.status === 204) return undefined as T;
@@ -142,7 +142,7 @@ export async function downloadFile(path: string, fileName: string): Promise<void
   });
   if (!response.ok) {
     const error = await parseErrorResponse(response);
-    if (response.status === 401 && token) clearAccessToken();
+    if (response.status === 401 && token) endRefusedSession(token);
     throw error;
   }
   const url = URL.createObjectURL(await response.blob());

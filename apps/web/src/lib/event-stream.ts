@@ -4,7 +4,7 @@
  * `data:` (several are joined with "\n"), `id:`, comments starting with ":", a blank line ends an event.
  */
 import { ApiError, buildUrl, parseErrorResponse } from './api-client';
-import { clearAccessToken, getAccessToken } from './token-store';
+import { endRefusedSession, getAccessToken } from './token-store';
 
 export interface StreamEvent {
   /** The event's type; "message" when the server names none. */
@@ -55,7 +55,7 @@ export async function readEventStream(
   const response = await fetch(buildUrl(path), { headers, signal, cache: 'no-store' });
   if (!response.ok) {
     const error = await parseErrorResponse(response);
-    if (response.status === 401 && token) clearAccessToken();
+    if (response.status === 401 && token) endRefusedSession(token);
     throw error;
   }
   if (!response.body) throw new ApiError(0, 'STREAM.UNSUPPORTED', 'This browser cannot read event streams.');

@@ -41,6 +41,41 @@ export function clearAccessToken(): void {
   }
 }
 
+const ENDED_KEY = 'kerfwright.sessionEnded';
+
+/**
+ * The API refused the token of a session in use (it expired, or the account was changed or deactivated): the
+ * session ends here too, and the sign-in page says why the member is there (sessionEndedNotice) once. Only
+ * when the refused token is still the one kept.
+ */
+export function endRefusedSession(refused: string): void {
+  // An answer to a request of an earlier session (signed out, or signed in again since) ends nothing.
+  if (read() !== refused) return;
+  try {
+    window.sessionStorage.setItem(ENDED_KEY, '1');
+  } catch {
+    // storage blocked: signed out all the same, without the sentence
+  }
+  clearAccessToken();
+}
+
+/** Whether the last session ended by the API's refusal (not by signing out); forgetSessionEnded clears it. */
+export function sessionEndedNotice(): boolean {
+  try {
+    return window.sessionStorage.getItem(ENDED_KEY) === '1';
+  } catch {
+    return false;
+  }
+}
+
+export function forgetSessionEnded(): void {
+  try {
+    window.sessionStorage.removeItem(ENDED_KEY);
+  } catch {
+    // nothing kept
+  }
+}
+
 export function subscribeAccessToken(listener: Listener): () => void {
   listeners.add(listener);
   const onStorage = (event: StorageEvent) => {

@@ -273,7 +273,7 @@ describe('Approvals (supervisor)', () => {
     renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-job');
     expect(card).toHaveTextContent(
-      '600 pieces on 600 sheets of 600 × 400 mm, 41 % used; about 28 h 44 min, 9,389.52 EUR.',
+      '600 pieces on 600 sheets of 600 × 400 mm, 41.0 % used; about 28 h 44 min, 9,389.52 EUR.',
     );
   });
 
@@ -286,7 +286,7 @@ describe('Approvals (supervisor)', () => {
     renderApp('/approvals', { token: 't' });
     const card = await screen.findByTestId('waiting-job');
     expect(card).toHaveTextContent(
-      '8 pieces on 1 sheet of 600 × 1000 mm, 30 % used; about 2.4 min, 0.96 EUR of machine time (no sheet price in EUR).',
+      '8 pieces on 1 sheet of 600 × 1000 mm, 30.0 % used; about 2.4 min, 0.96 EUR of machine time (no sheet price in EUR).',
     );
   });
 

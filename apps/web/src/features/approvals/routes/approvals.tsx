@@ -225,7 +225,7 @@ export function ApprovalsRoute() {
                 {prep ? (
                   <Typography variant="body2" color="text.secondary">
                     {countOf(prep.pieceCount, 'piece')} on {countOf(prep.sheetCount, 'sheet')} of{' '}
-                    {formatSheetSize(prep.sheet, 'mm')}, {(prep.utilisation * 100).toFixed(0)} % used
+                    {formatSheetSize(prep.sheet, 'mm')}, {(prep.utilisation * 100).toFixed(1)} % used
                     {prep.estimate
                       ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + (prep.estimate.materialCost ?? 0), prep.estimate.currency)}${prep.estimate.materialCost === null ? ` of machine time (no sheet price in ${prep.estimate.currency})` : ''}`
                       : ''}

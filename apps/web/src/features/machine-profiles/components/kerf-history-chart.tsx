@@ -25,6 +25,18 @@ const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute:
 const TWO_DAYS_MS = 2 * 24 * 3600 * 1000;
 const fullDate = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
+/**
+ * A time axis label: the day over a long span; over a short one the time of day, with the day at the first
+ * tick and wherever the day changes, so the axis always says when.
+ */
+export function timeTickLabel(t: number, previous: number | undefined, spanMs: number): string {
+  if (spanMs >= TWO_DAYS_MS) return dateFormat.format(new Date(t));
+  const sameDay = previous !== undefined && new Date(previous).toDateString() === new Date(t).toDateString();
+  return sameDay
+    ? timeFormat.format(new Date(t))
+    : `${dateFormat.format(new Date(t))}, ${timeFormat.format(new Date(t))}`;
+}
+
 /** Round steps for an axis: 1, 2 or 5 × a power of ten, giving about `count` ticks. */
 function niceTicks(min: number, max: number, count: number): number[] {
   const span = max - min || Math.abs(max) || 1;
@@ -133,9 +145,9 @@ export function KerfHistoryChart({
           y2={pad.top + innerH}
           stroke="#9e9e9e"
         />
-        {xTicks.map((t) => (
-          <text key={t} x={x(t)} y={height - 12} textAnchor="middle" fill="#555">
-            {(tMax - tMin < TWO_DAYS_MS ? timeFormat : dateFormat).format(new Date(t))}
+        {xTicks.map((t, i) => (
+          <text key={t} x={x(t)} y={height - 12} textAnchor="middle" fill="#555" data-testid="kerf-time-tick">
+            {timeTickLabel(t, xTicks[i - 1], tMax - tMin)}
           </text>
         ))}
         {references.map((ref, i) => (

@@ -7,7 +7,7 @@ import { render, screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { renderWithProviders } from '../../../testing/render-app';
-import { KerfHistoryChart, spreadLabels, tickDecimals } from './kerf-history-chart';
+import { KerfHistoryChart, spreadLabels, tickDecimals, timeTickLabel } from './kerf-history-chart';
 import { KerfHistoryPanel } from './kerf-history-panel';
 import { VersionComparison } from './version-comparison';
 import { versionFixture } from '../../../testing/fixtures';
@@ -73,6 +73,18 @@ describe('kerf history chart', () => {
     expect(screen.getByRole('img', { name: 'Measured kerf over time: 3 measurements' })).toBeInTheDocument();
     expect(screen.getByText(/^3 measurements; mean/)).toBeInTheDocument();
     expect(screen.queryByText(/\(s\)/)).not.toBeInTheDocument();
+  });
+
+  it('says the day on a time axis of a few hours: at its first tick and where the day changes', () => {
+    const at = (h: number) => new Date(2026, 11, 5, h, 0).getTime();
+    const day = (h: number) =>
+      new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short' }).format(at(h));
+    const hours = 3 * 3600 * 1000;
+    expect(timeTickLabel(at(1), undefined, hours)).toMatch(new RegExp(`^${day(1)}, `));
+    expect(timeTickLabel(at(2), at(1), hours)).not.toContain(day(2));
+    expect(timeTickLabel(at(24), at(23), hours)).toMatch(new RegExp(`^${day(24)}, `));
+    // Over weeks, the day alone.
+    expect(timeTickLabel(at(1), undefined, 20 * 24 * hours)).toBe(day(1));
   });
 
   it('moves labels only as far as needed, inside the plot', () => {

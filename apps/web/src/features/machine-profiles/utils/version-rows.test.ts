@@ -54,6 +54,19 @@ describe('comparing profile versions', () => {
     expect(changes).toHaveLength(1 + 1 + 6);
   });
 
+  it('writes kerfs and tool diameters to two decimals at least, so a column lines up', () => {
+    const rows = versionRows([
+      version(1, { settings: [{ ...version(1).settings[0]!, kerfMm: 0.2 }] }),
+      version(2, { settings: [{ ...version(1).settings[0]!, kerfMm: 0.165 }] }),
+      version(3),
+    ]);
+    expect(rows.find((r) => r.key === 'm-acrylic.kerfMm')?.values).toEqual([
+      '0.20 mm',
+      '0.165 mm',
+      '0.18 mm',
+    ]);
+  });
+
   it('marks rows whose value differs between versions, and leaves out fields no version uses', () => {
     const rows = versionRows([version(1), version(2, { hourlyRate: 26 })]);
     expect(rows.find((r) => r.key === 'machine.rate')).toMatchObject({

@@ -33,7 +33,17 @@ const SETTING_FIELDS: { field: keyof ProfileSettingView; label: string; unit: st
   { field: 'spindleRpm', label: 'Spindle speed', unit: 'rpm' },
 ];
 
-const withUnit = (n: number, unit: string) => (unit ? `${n} ${unit}` : String(n));
+/**
+ * A value with its unit. Kerfs and tool diameters (mm) keep at least two decimals, so a column reads
+ * 0.20, 0.18, 0.25 mm, not 0.2 beside 0.18; a value recorded to the thousandth keeps its third.
+ */
+const withUnit = (n: number, unit: string) => {
+  if (unit === 'mm') {
+    const decimals = Math.min(3, Math.max(2, (String(n).split('.')[1] ?? '').length));
+    return `${n.toFixed(decimals)} mm`;
+  }
+  return unit ? `${n} ${unit}` : String(n);
+};
 
 function machineValues(v: MachineProfileVersionView): { key: string; label: string; value: string }[] {
   return [
