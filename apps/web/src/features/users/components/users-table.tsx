@@ -104,6 +104,8 @@ export function userColumns({
       id: 'access',
       header: 'Access',
       align: 'right',
+      // Narrower padding on a phone keeps the button inside the card.
+      cellSx: { px: { xs: 1, sm: 2 } },
       render: (user) => (
         <Button
           size="small"
