@@ -2,6 +2,7 @@ import { createHash, randomUUID } from 'node:crypto';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { type ExportView } from '@kerfwright/contracts';
 import { type Response } from 'superagent';
+import { ExportsService } from '../src/exports/exports.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../src/storage/object-storage';
 import {
   acknowledge,
@@ -752,5 +753,53 @@ describe('cut packs whose job changes while they are built', () => {
         w.laserVersionId,
       ]);
     }
+  });
+
+  it('builds a released pack again by itself once the notices or rules its setup sheet prints change, once', async () => {
+    const released = await approvedJob(ctx, w, p);
+    const first = await pollExport(
+      ctx,
+      p.fabricator,
+      await postRelease(ctx, p.fabricator, released),
+      (v) => v.state === 'done' || v.state === 'failed',
+      90000,
+    );
+    expect(first.state).toBe('done');
+    const packs = async () =>
+      (await ctx.http.get(`/api/jobs/${released}/exports`).set(auth(p.fabricator)).expect(200))
+        .body as ExportView[];
+    // What the reconciler runs every few seconds (turned off in these suites, so called here).
+    const service = ctx.app.get(ExportsService);
+    await service.rebuildOutdated();
+    expect(await packs()).toHaveLength(1);
+
+    await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(p.supervisor))
+      .send({ body: `Rules of ${released}` })
+      .expect(200);
+    await service.rebuildOutdated();
+    const [newest] = await packs();
+    expect(newest?.id).not.toBe(first.id);
+    const again = await pollExport(
+      ctx,
+      p.fabricator,
+      newest!.id,
+      (v) => v.state === 'done' || v.state === 'failed',
+      90000,
+    );
+    expect(again).toMatchObject({ state: 'done', safetyChanged: false });
+    // Current again: nothing more is queued, and the audit trail says why this one was.
+    await service.rebuildOutdated();
+    expect(await packs()).toHaveLength(2);
+    const audit: { actor_id: string | null; after: { reason?: string } }[] = await ctx.db.query(
+      `SELECT actor_id, after FROM audit_events WHERE entity_id = $1 AND action = 'export.request'
+        ORDER BY id`,
+      [released],
+    );
+    expect(audit.at(-1)).toMatchObject({
+      actor_id: null,
+      after: { reason: 'safety notices or workshop rules changed' },
+    });
   });
 });

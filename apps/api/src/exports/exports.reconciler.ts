@@ -13,6 +13,7 @@ import { DataSource } from 'typeorm';
 import { withDeadline } from '../common/with-deadline';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
 import { type ExportJobData } from './exports.processor';
+import { ExportsService } from './exports.service';
 
 /** How long one Redis call of the reconciler may take before the round is given up (Redis is down). */
 const REDIS_CALL_MS = 3000;
@@ -22,7 +23,8 @@ const REDIS_CALL_MS = 3000;
  * queue (restarted without its append-only file, flushed, or an add that never reached it during an
  * outage), this puts every queued or running export that has no Bull job back on the queue. Adding uses
  * the export id as the Bull job id, so an export that is still on the queue is never added twice, and the
- * processor's "done" guard makes a repeated run a no-op. Runs in every process that works the queue.
+ * processor's "done" guard makes a repeated run a no-op. Runs in every process that works the queue, and
+ * there also builds again the packs whose safety notices or rules changed.
  */
 @Injectable()
 export class ExportsReconciler implements OnApplicationBootstrap, OnApplicationShutdown {
@@ -34,6 +36,7 @@ export class ExportsReconciler implements OnApplicationBootstrap, OnApplicationS
     @InjectQueue(EXPORT_QUEUE) private readonly queue: Queue<ExportJobData>,
     @InjectDataSource() private readonly dataSource: DataSource,
     @Inject(exportsConfig.KEY) private readonly config: ConfigType<typeof exportsConfig>,
+    private readonly exports: ExportsService,
   ) {}
 
   onApplicationBootstrap(): void {
@@ -56,13 +59,23 @@ export class ExportsReconciler implements OnApplicationBootstrap, OnApplicationS
     await this.round?.catch(() => undefined);
   }
 
-  /** One round (never two at once). Resolves with the number of exports put back on the queue. */
+  /**
+   * One round (never two at once): owed exports back on the queue, then the cut packs of released jobs built
+   * again where their safety notices or rules changed (ExportsService.rebuildOutdated). Resolves with the
+   * number of exports put back on the queue.
+   */
   reconcile(): Promise<number> {
     if (!this.round) {
       this.round = this.requeueMissing()
         .catch((err: unknown) => {
           this.logger.warn(`could not check the queue against the exports table: ${String(err)}`);
           return 0;
+        })
+        .then(async (added) => {
+          await this.exports.rebuildOutdated().catch((err: unknown) => {
+            this.logger.warn(`could not check the cut packs against the safety notices: ${String(err)}`);
+          });
+          return added;
         })
         .finally(() => {
           this.round = null;

@@ -6,7 +6,7 @@ import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { distinctUntilChanged, from, type Observable, switchMap, takeWhile, timer, map } from 'rxjs';
-import { DataSource, In } from 'typeorm';
+import { DataSource, type EntityManager, In } from 'typeorm';
 import {
   CUT_PACK_DOWNLOADABLE_STATES,
   CUT_PACK_ROLES_FOR_REQUESTER,
@@ -111,37 +111,108 @@ export class ExportsService {
       await this.preparation.assertStillCuttable(m, job);
       const open = await m.findOne(Export, { where: { jobId, state: In(['queued', 'running']) } });
       if (open) return open;
-      const id = randomUUID();
-      const created = m.create(Export, {
-        id,
-        jobId,
-        state: 'queued',
-        requestedBy: user.id,
-        storagePrefix: exportPrefix(jobId, id),
-      });
-      await m.insert(Export, created);
-      await this.audit.record(m, {
-        actorId: user.id,
-        action: 'export.request',
-        entityType: 'job',
-        entityId: jobId,
-        after: { exportId: id },
-        requestId,
-      });
-      return created;
+      return this.owe(m, jobId, user.id, requestId);
     });
+    await this.enqueue(exp.id, requestId);
+    return { exportId: exp.id };
+  }
+
+  /** A new queued export of a job, recorded in the audit trail (the caller holds the job's row lock). */
+  private async owe(
+    m: EntityManager,
+    jobId: string,
+    actorId: string | null,
+    requestId: string | null,
+    after: object = {},
+  ): Promise<Export> {
+    const id = randomUUID();
+    const created = m.create(Export, {
+      id,
+      jobId,
+      state: 'queued',
+      requestedBy: actorId,
+      storagePrefix: exportPrefix(jobId, id),
+    });
+    await m.insert(Export, created);
+    await this.audit.record(m, {
+      actorId,
+      action: 'export.request',
+      entityType: 'job',
+      entityId: jobId,
+      after: { exportId: id, ...after },
+      requestId,
+    });
+    return created;
+  }
+
+  private async enqueue(exportId: string, requestId: string | null): Promise<void> {
     try {
       await withDeadline(
-        this.queue.add(EXPORT_JOB, { exportId: exp.id, requestId }, exportJobOptions(this.config, exp.id)),
+        this.queue.add(EXPORT_JOB, { exportId, requestId }, exportJobOptions(this.config, exportId)),
         QUEUE_ADD_MS,
         'adding to the queue',
       );
     } catch (err) {
       // Redis is down or slow. The export stays queued in PostgreSQL, which is the record of what is owed;
       // the add completes when Redis answers again, or a worker's reconciler puts it on the queue.
-      this.logger.warn(`export ${exp.id} is owed but not yet on the queue: ${String(err)}`);
+      this.logger.warn(`export ${exportId} is owed but not yet on the queue: ${String(err)}`);
     }
-    return { exportId: exp.id };
+  }
+
+  /**
+   * Builds again, by itself, every released job's cut pack whose setup sheet prints safety notices or workshop
+   * rules changed since it was built, so the operator gets current ones without waiting for a fabricator.
+   * Only a job whose newest export is that done pack (a rebuild that failed is left to the fabricator, not
+   * tried again and again) and which is still cuttable as prepared. Safe to run in several processes at once:
+   * each job is decided under its row lock. Resolves with the number of packs queued; the reconciler runs it.
+   */
+  /** Done packs found current, by export id, with the safety stamp they were checked under. */
+  private readonly currentPacks = new Map<string, string>();
+
+  async rebuildOutdated(limit = 200): Promise<number> {
+    // What every setup sheet built now would print, in one stamp: a pack found current under a stamp is not
+    // looked at again until the notices or rules change (the reconciler runs this every few seconds).
+    const [notices, rules] = await Promise.all([this.safety.notices({}), this.safety.localRules()]);
+    const stamp = `${rules?.version ?? 0}|${noticeVersionKeys(notices).join('|')}`;
+    if (![...this.currentPacks.values()].every((s) => s === stamp)) this.currentPacks.clear();
+    const newest: { id: string; job_id: string }[] = await this.dataSource.query(
+      `SELECT DISTINCT ON (e.job_id) e.id, e.job_id
+         FROM exports e JOIN jobs j ON j.id = e.job_id
+        WHERE j.state = 'released'
+        ORDER BY e.job_id, e.created_at DESC, e.id DESC`,
+    );
+    let queued = 0;
+    for (const row of newest) {
+      if (queued >= limit) break;
+      if (this.currentPacks.get(row.id) === stamp) continue;
+      const exp = await this.dataSource.manager.findOne(Export, { where: { id: row.id } });
+      if (!exp || exp.state !== 'done') continue;
+      if (!(await this.safetyChanged(exp))) {
+        this.currentPacks.set(row.id, stamp);
+        continue;
+      }
+      const owed = await this.dataSource.transaction(async (m) => {
+        const job = await m.findOne(Job, { where: { id: row.job_id }, lock: { mode: 'pessimistic_write' } });
+        if (!job || job.state !== 'released') return null;
+        const latest = await m.findOne(Export, {
+          where: { jobId: job.id },
+          order: { createdAt: 'DESC', id: 'DESC' },
+        });
+        if (latest?.id !== exp.id) return null; // another process queued one meanwhile
+        try {
+          await this.preparation.assertStillCuttable(m, job);
+        } catch {
+          return null; // the fabricator sees why when they ask for the pack
+        }
+        return this.owe(m, job.id, null, null, { reason: 'safety notices or workshop rules changed' });
+      });
+      if (!owed) continue;
+      await this.enqueue(owed.id, null);
+      queued++;
+    }
+    if (queued > 0)
+      this.logger.log(`queued ${queued} cut pack(s) again: their safety notices or rules changed`);
+    return queued;
   }
 
   async get(user: AuthUser, id: string): Promise<ExportView> {
@@ -250,7 +321,7 @@ export class ExportsService {
         'EXPORT.SAFETY_CHANGED',
         JOB_PACK_STATES.includes(job.state)
           ? 'The safety notices or workshop rules changed since this cut pack was built, so its setup sheet prints ' +
-              'old ones: a fabricator or supervisor builds the cut pack again, then download the new one'
+              'old ones: a new pack is built by itself shortly (or a fabricator builds it now); download the new one'
           : `The safety notices or workshop rules changed since this job's cut pack was built, so its setup sheet ` +
               `prints old ones; the job is ${job.state}, so no new pack is built. Its cutting files and assembly ` +
               'guide can still be downloaded',

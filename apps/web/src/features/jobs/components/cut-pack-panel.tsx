@@ -102,14 +102,15 @@ export function CutPackPanel({
       ) : null}
       {newest?.state === 'failed' ? <Alert severity="error">{packFailureText(newest)}</Alert> : null}
       {shown?.safetyChanged ? (
-        // Said to everyone who sees the pack, acknowledged or not: the fabricator is the one who rebuilds it.
+        // Said to everyone who sees the pack, acknowledged or not: the server builds a released job's pack again by
+        // itself (ExportsService.rebuildOutdated), and a fabricator may do it at once.
         <Alert severity="warning" sx={{ mb: 1 }} data-testid="cut-pack-safety-changed">
           {`The safety notices or workshop rules changed since this cut pack was built: its setup sheet and ZIP print the old ones and cannot be downloaded. ${
-            canPrepare
-              ? 'Prepare the cut pack again.'
-              : jobDone
-                ? 'The job has been cut, so no new pack is built for it; the cutting files are unchanged.'
-                : 'A fabricator or supervisor prepares it again; the cutting files are unchanged.'
+            jobDone
+              ? 'The job has been cut, so no new pack is built for it; the cutting files are unchanged.'
+              : canPrepare
+                ? 'A new pack is prepared by itself shortly, or prepare it again now.'
+                : 'A new pack is prepared by itself shortly (a fabricator or supervisor can also prepare it now); the cutting files are unchanged.'
           }`}
         </Alert>
       ) : null}
