@@ -4,6 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { jobFixture, preparationFixture, userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
+import { stubScreenWidth } from '../../../testing/screen-width';
 
 const job: JobDetailView = {
   ...jobFixture({ version: 4 }),
@@ -85,7 +86,7 @@ describe('job detail', () => {
       /draft: changed.*Jun Park.*copies 1 → 2/,
     );
     expect(history).not.toHaveTextContent('draft → draft');
-    // At phone width (375 px) the table scrolls inside its own box instead of widening the page.
+    // Should it be wider than the page, the table scrolls inside its own box instead of widening the page.
     expect(getComputedStyle(history.parentElement!).overflowX).toBe('auto');
 
     await user.click(within(actions).getByRole('button', { name: 'Return with a reason' }));
@@ -94,6 +95,22 @@ describe('job detail', () => {
     await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
     const post = stub.calls.find((c) => c.method === 'POST');
     expect(post?.body).toEqual({ version: 4, reason: 'Please pick a thinner stock' });
+  });
+
+  it('lists the history on a phone (390 px), each step on its own lines, with no table to scroll', async () => {
+    stubScreenWidth(390);
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, job),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const history = await screen.findByRole('list', { name: 'History' });
+    expect(screen.queryByRole('table', { name: 'History' })).not.toBeInTheDocument();
+    const steps = within(history).getAllByRole('listitem');
+    expect(steps).toHaveLength(job.transitions.length);
+    expect(steps[0]).toHaveTextContent('new → draft');
+    expect(steps[1]).toHaveTextContent(/draft: changed.*Jun Park.*copies 1 → 2/);
+    expect(steps[2]).toHaveTextContent('draft → requested');
   });
 
   it('lets the requester withdraw a request not yet prepared, after confirming', async () => {

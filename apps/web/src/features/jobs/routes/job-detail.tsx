@@ -11,12 +11,6 @@ import Button from '@mui/material/Button';
 import CircularProgress from '@mui/material/CircularProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
-import Table from '@mui/material/Table';
-import TableBody from '@mui/material/TableBody';
-import TableCell from '@mui/material/TableCell';
-import TableContainer from '@mui/material/TableContainer';
-import TableHead from '@mui/material/TableHead';
-import TableRow from '@mui/material/TableRow';
 import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
@@ -46,6 +40,7 @@ import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
 import { ConfirmJobActionDialog } from '../components/confirm-job-action-dialog';
 import { CutPackPanel } from '../components/cut-pack-panel';
 import { JobSheetsPanel } from '../components/job-sheets-panel';
+import { JobHistory } from '../components/job-history';
 import { JobStateChip } from '../components/job-state-chip';
 import { PrepareJobDialog } from '../components/prepare-job-dialog';
 import { RecordCutDialog } from '../components/record-cut-dialog';
@@ -55,7 +50,6 @@ import { useChangeJobRequest } from '../api/change-job-request';
 import { SafetyDialog } from '../components/safety-dialog';
 import { countOf } from '../../../lib/plural';
 import { isBlankNumber } from '../../../lib/form-numbers';
-import { formatDateTime } from '../../../lib/dates';
 
 /** Actions that need more than a confirmation open their own dialog; so do the notices and a draft's request. */
 type Open = JobAction | 'safety' | 'change' | null;
@@ -399,31 +393,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         <Typography variant="h2" sx={{ mb: 1 }}>
           History
         </Typography>
-        {/* A phone-width page keeps its width: the table scrolls inside its own box. */}
-        <TableContainer sx={{ overflowX: 'auto' }}>
-          <Table size="small" aria-label="History">
-            <TableHead>
-              <TableRow>
-                <TableCell>When</TableCell>
-                <TableCell>Step</TableCell>
-                <TableCell>By</TableCell>
-                <TableCell>Reason or change</TableCell>
-              </TableRow>
-            </TableHead>
-            <TableBody>
-              {job.transitions.map((t, i) => (
-                <TableRow key={i}>
-                  <TableCell>{formatDateTime(t.at)}</TableCell>
-                  <TableCell>
-                    {t.action === 'change' ? `${t.to}: changed` : `${t.from ?? 'new'} → ${t.to}`}
-                  </TableCell>
-                  <TableCell>{t.actorName ?? '—'}</TableCell>
-                  <TableCell sx={{ minWidth: 160 }}>{t.reason ?? ''}</TableCell>
-                </TableRow>
-              ))}
-            </TableBody>
-          </Table>
-        </TableContainer>
+        <JobHistory transitions={job.transitions} />
       </Paper>
 
       {open === 'prepare' ? (

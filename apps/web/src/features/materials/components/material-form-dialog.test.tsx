@@ -4,6 +4,7 @@ import { describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp, renderWithProviders } from '../../../testing/render-app';
+import { stubScreenWidth } from '../../../testing/screen-width';
 import { MaterialFormDialog } from './material-form-dialog';
 import { toMaterialRequest } from './material-form-schema';
 
@@ -201,6 +202,25 @@ describe('Materials page (fabricator)', () => {
     expect(within(row).getByTestId('laser-note')).toHaveTextContent(
       /^Laser only when: The fibre content is known/,
     );
+  });
+
+  it('keeps the list inside a phone (390 px): thickness under the name, no Family, Colours or Thickness column', async () => {
+    stubScreenWidth(390);
+    try {
+      stubFetch({
+        'GET /api/auth/me': () => json(200, fabricator),
+        'GET /api/safety/hazards': () => json(200, hazards),
+        'GET /api/materials': () => json(200, { items: [pvc], total: 1, page: 1, pageSize: 25 }),
+      });
+      renderApp('/materials', { token: 't' });
+      const row = await screen.findByTestId('material-Expanded PVC 3 mm');
+      for (const name of ['Family', 'Colours', 'Thickness', 'Stock sheets'])
+        expect(screen.queryByRole('columnheader', { name })).not.toBeInTheDocument();
+      expect(within(row).getAllByRole('cell')[0]).toHaveTextContent(`${pvc.nominalThicknessMm} mm`);
+      expect(within(row).getByTestId('laser-refusal-reason')).toHaveTextContent('never on a laser');
+    } finally {
+      vi.unstubAllGlobals();
+    }
   });
 
   it('lists prohibited materials with their reason, sorts through the API and sends a new material', async () => {

@@ -44,11 +44,20 @@ const COLUMNS: readonly Column[] = [
             (flexible)
           </Typography>
         ) : null}
+        {/* On a phone the Thickness column goes: the thickness is said under the name. */}
+        <Typography
+          component="span"
+          color="text.secondary"
+          sx={{ display: { xs: 'block', sm: 'none' }, fontSize: '0.8125rem' }}
+        >
+          {thickness(m)}
+        </Typography>
       </>
     ),
   },
   {
     id: 'thickness',
+    hideOnPhone: true,
     header: 'Thickness',
     sortField: 'nominalThicknessMm',
     cellSx: { whiteSpace: 'nowrap' },
@@ -65,7 +74,7 @@ const COLUMNS: readonly Column[] = [
   {
     id: 'laser',
     header: 'Laser',
-    cellSx: { maxWidth: 320 },
+    cellSx: { maxWidth: 320, minWidth: { xs: 120, sm: 0 }, overflowWrap: 'anywhere' },
     render: (m) =>
       m.laserAllowed ? (
         <>
@@ -100,6 +109,7 @@ export function materialColumns(onEdit?: (material: MaterialView) => void): read
       id: 'change',
       header: 'Change',
       align: 'right',
+      cellSx: { px: { xs: 1, sm: 2 } },
       render: (m) => (
         <Button size="small" onClick={() => onEdit(m)} aria-label={`Change ${m.name}`}>
           Change
