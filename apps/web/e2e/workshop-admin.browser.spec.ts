@@ -238,7 +238,7 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     expect(await changes.count()).toBe(3);
     await changes
       .filter({ hasText: 'Kerf' })
-      .filter({ hasText: '0.2 mm' })
+      .filter({ hasText: '0.20 mm' })
       .filter({ hasText: '0.17 mm' })
       .waitFor();
     await changes.filter({ hasText: 'Cut speed' }).filter({ hasText: '12 mm/s' }).waitFor();

@@ -4,6 +4,7 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
+import { PhoneOnly } from '../../../components/ui/phone-only';
 import { formatSheetSize } from '../../../lib/units';
 import { FAMILY_LABELS } from './material-labels';
 
@@ -45,13 +46,7 @@ const COLUMNS: readonly Column[] = [
           </Typography>
         ) : null}
         {/* On a phone the Thickness column goes: the thickness is said under the name. */}
-        <Typography
-          component="span"
-          color="text.secondary"
-          sx={{ display: { xs: 'block', sm: 'none' }, fontSize: '0.8125rem' }}
-        >
-          {thickness(m)}
-        </Typography>
+        <PhoneOnly>{thickness(m)}</PhoneOnly>
       </>
     ),
   },

@@ -5,6 +5,7 @@ import MenuItem from '@mui/material/MenuItem';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
+import { PhoneOnly } from '../../../components/ui/phone-only';
 import { ROLE_LABELS } from '../../../config/roles';
 import { type UserSortField } from '../api/get-users';
 import { formatDate } from '../../../lib/dates';
@@ -36,15 +37,7 @@ export function userColumns({
             </Typography>
           ) : null}
           {/* On a phone the Status column goes: a deactivated account says so under its name. */}
-          {user.active ? null : (
-            <Typography
-              component="span"
-              color="text.secondary"
-              sx={{ display: { xs: 'block', sm: 'none' }, fontSize: '0.8125rem' }}
-            >
-              Deactivated
-            </Typography>
-          )}
+          {user.active ? null : <PhoneOnly>Deactivated</PhoneOnly>}
         </>
       ),
     },
