@@ -79,6 +79,22 @@ describe('laser kerf compensation', () => {
   });
 });
 
+/**
+ * The two inner corners of a slot (piece frame): `n` is the slot's sideways unit vector and `side` ±1 the
+ * wall the corner is on.
+ */
+function slotCorners(s: { end: Vec2; axis: Vec2; depthMm: number; widthMm: number }) {
+  const n: Vec2 = [-s.axis[1], s.axis[0]];
+  return [-1, 1].map((side) => ({
+    n,
+    side,
+    corner: [
+      s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
+      s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
+    ] as Vec2,
+  }));
+}
+
 describe('router dog-bone reliefs', () => {
   it('puts the relief circle through the corner, r(1/sin(φ/2) − 1) from the tool’s corner position', () => {
     // Derived (REFERENCES.md): at 90° the move is r(√2 − 1) ≈ 0.414 r.
@@ -115,12 +131,7 @@ describe('router dog-bone reliefs', () => {
       let checked = 0;
       for (const p of m.pieces) {
         for (const s of p.slots) {
-          const n: Vec2 = [-s.axis[1], s.axis[0]];
-          for (const side of [-1, 1]) {
-            const corner: Vec2 = [
-              s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
-              s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
-            ];
+          for (const { n, side, corner } of slotCorners(s)) {
             // Walls leaving the corner: back toward the opening, and across the bottom.
             const walls: [Vec2, Vec2] = [
               [-s.axis[0], -s.axis[1]],
@@ -148,12 +159,7 @@ describe('router dog-bone reliefs', () => {
     );
     for (const p of m.pieces) {
       for (const s of p.slots) {
-        const n: Vec2 = [-s.axis[1], s.axis[0]];
-        for (const side of [-1, 1]) {
-          const corner: Vec2 = [
-            s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
-            s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
-          ];
+        for (const { corner } of slotCorners(s)) {
           // The corner is a point of the relief's arc: on the outline, between two of its tangent edges.
           const nearest = Math.min(
             ...p.outline.map((q, i) =>
@@ -182,12 +188,7 @@ describe('router dog-bone reliefs', () => {
       for (const s of p.slots) {
         expect(measureSlotWidth(segmentsOf(p.outline), s)).toBeCloseTo(s.widthMm, 3);
         // A point just past the bottom corner, beside the wall: material in the plain notch, gone here.
-        const n: Vec2 = [-s.axis[1], s.axis[0]];
-        for (const side of [-1, 1]) {
-          const corner: Vec2 = [
-            s.end[0] + s.axis[0] * s.depthMm + (n[0] * side * s.widthMm) / 2,
-            s.end[1] + s.axis[1] * s.depthMm + (n[1] * side * s.widthMm) / 2,
-          ];
+        for (const { n, side, corner } of slotCorners(s)) {
           const q: Vec2 = [
             corner[0] + s.axis[0] * 0.2 * r - n[0] * side * 0.7 * r,
             corner[1] + s.axis[1] * 0.2 * r - n[1] * side * 0.7 * r,

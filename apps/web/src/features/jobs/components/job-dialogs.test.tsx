@@ -2,6 +2,7 @@ import { type MachineProfileSummaryView, type MaterialView } from '@kerfwright/c
 import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
+import { materialFixture } from '../../../testing/fixtures';
 import { renderWithProviders } from '../../../testing/render-app';
 import { PrepareJobDialog } from './prepare-job-dialog';
 import { RecordCutDialog } from './record-cut-dialog';
@@ -215,25 +216,13 @@ describe('record the cut dialog, measured kerf', () => {
   });
 });
 
-const acrylic = {
-  id: 'm-acrylic',
-  name: 'Cast acrylic 3 mm',
-  family: 'acrylic',
-  nominalThicknessMm: 3,
-  measuredThicknessMm: null,
-  flexible: false,
+const acrylic = materialFixture({
   colours: ['clear', 'amber'],
   stockSheets: [
     { widthMm: 600, heightMm: 400, pricePerSheet: 14.5, currency: 'EUR' },
     { widthMm: 1000, heightMm: 600, pricePerSheet: 30, currency: 'EUR' },
   ],
-  laserAllowed: true,
-  hazardNote: '',
-  notes: '',
-  version: 1,
-  createdAt: '2026-01-01T00:00:00.000Z',
-  updatedAt: '2026-01-01T00:00:00.000Z',
-} as MaterialView;
+});
 
 const laser = {
   id: 'p-laser',
