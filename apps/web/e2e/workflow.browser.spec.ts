@@ -169,9 +169,9 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
 
     await page.getByRole('button', { name: 'Request a cut job' }).click();
     const dialog = page.getByRole('dialog', { name: 'Request a cut job' });
-    // The keyboard is in Copies with its 1 selected: a digit typed replaces it (it once made "12" of a "2").
+    // The keyboard is in Copies at once, its 1 selected: a digit typed straight away replaces it (it once
+    // made "12" of a "2", and later went to the dialog box until its opening had run).
     const copies = dialog.getByLabel('Copies');
-    await page.waitForFunction(() => document.activeElement?.getAttribute('type') === 'number');
     await page.keyboard.type('2');
     expect(await copies.inputValue()).toBe('2');
     await dialog.getByLabel('Copies').fill('0');

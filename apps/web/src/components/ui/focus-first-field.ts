@@ -4,22 +4,52 @@ const FIELD =
   'textarea:not([disabled]):not([aria-hidden="true"]):not([readonly]),' +
   'select:not([disabled])';
 
-/**
- * Puts the keyboard in a dialog's first field once the dialog has opened (its transition's onEntered, after
- * the form has been reset for this opening), so what is typed goes where it is meant to. A number is
- * selected, so typing replaces it ("2", not "12" after the "1" it starts with); in text the caret goes to
- * the end, so nothing already written is lost by a keystroke. Focus already in a field is left alone.
- */
-export function focusFirstField(node: HTMLElement): void {
-  const field = node.querySelector<HTMLInputElement | HTMLTextAreaElement | HTMLSelectElement>(FIELD);
-  if (!field) return;
-  // Someone quicker is in a field already (typing, perhaps): leave them there, their text as it is.
-  const active = node.ownerDocument.activeElement;
-  if (active && node.contains(active) && active.matches(FIELD)) return;
-  field.focus();
+function firstField(node: HTMLElement) {
+  return node.querySelector<HTMLInputElement | HTMLTextAreaElement | HTMLSelectElement>(FIELD);
+}
+
+/** A number selected, so typing replaces it; in text the caret at the end, so nothing written is lost. */
+function prepare(field: HTMLInputElement | HTMLTextAreaElement | HTMLSelectElement): void {
   if (field instanceof HTMLInputElement && field.type === 'number') field.select();
   else if (field instanceof HTMLInputElement || field instanceof HTMLTextAreaElement) {
     const end = field.value.length;
     field.setSelectionRange(end, end);
   }
 }
+
+/**
+ * Puts the keyboard in a container's first field: a number selected ("2" typed over the "1" a field starts
+ * with gives 2, not 12), the caret at the end of text. Focus already in one of its fields is left alone.
+ */
+export function focusFirstField(node: HTMLElement): void {
+  const field = firstField(node);
+  if (!field) return;
+  const active = node.ownerDocument.activeElement;
+  if (active && node.contains(active) && active.matches(FIELD)) return;
+  field.focus();
+  prepare(field);
+}
+
+/** Dialogs whose first field someone typed into since it opened (their text is theirs from then on). */
+const typedIn = new WeakSet<HTMLElement>();
+
+/**
+ * A dialog's transition handlers that put the keyboard in its first field: as soon as it opens (onEnter, so
+ * nothing typed at once is lost to the dialog box), and again once the opening is over (onEntered), when
+ * the form's start may have rewritten the field, unless a key was pressed meanwhile.
+ */
+export const FOCUS_FIRST_FIELD_ON_OPEN = {
+  onEnter: (node: HTMLElement) => {
+    typedIn.delete(node);
+    node.addEventListener('keydown', () => typedIn.add(node), { once: true });
+    focusFirstField(node);
+  },
+  onEntered: (node: HTMLElement) => {
+    if (typedIn.has(node)) return;
+    const field = firstField(node);
+    const active = node.ownerDocument.activeElement;
+    if (!field || (active && active !== field && node.contains(active) && active.matches(FIELD))) return;
+    field.focus();
+    prepare(field);
+  },
+};

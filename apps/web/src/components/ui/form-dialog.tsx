@@ -6,7 +6,7 @@ import DialogContentText from '@mui/material/DialogContentText';
 import DialogTitle from '@mui/material/DialogTitle';
 import { type FormEvent, type ReactNode } from 'react';
 import { FormErrorAlert } from './form-error-alert';
-import { focusFirstField } from './focus-first-field';
+import { FOCUS_FIRST_FIELD_ON_OPEN } from './focus-first-field';
 
 interface FormDialogProps {
   open: boolean;
@@ -54,7 +54,7 @@ export function FormDialog({
       fullWidth
       maxWidth={maxWidth}
       aria-labelledby={titleId}
-      slotProps={{ transition: { onEntered: focusFirstField } }}
+      slotProps={{ transition: FOCUS_FIRST_FIELD_ON_OPEN }}
     >
       <form noValidate onSubmit={(event) => void onSubmit(event)}>
         <DialogTitle id={titleId}>{title}</DialogTitle>

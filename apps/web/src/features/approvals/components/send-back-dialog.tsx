@@ -1,5 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect } from 'react';
+import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { useForm } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
@@ -18,11 +19,12 @@ export function SendBackDialog(
     register,
     handleSubmit,
     reset,
+    getValues,
     formState: { errors },
   } = useForm<SendBackValues>({ resolver: zodResolver(sendBackSchema), defaultValues: { reason: '' } });
   useEffect(() => {
-    if (props.open) reset({ reason: '' });
-  }, [props.open, reset]);
+    if (props.open) resetUnlessSame({ getValues, reset }, { reason: '' });
+  }, [props.open, reset, getValues]);
   const submit = handleSubmit((v) => props.onSubmit(v));
   return (
     <FormDialog

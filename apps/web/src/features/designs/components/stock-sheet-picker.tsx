@@ -6,9 +6,6 @@ import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 import { formatLength, formatSheetSize, type LengthUnit } from '../../../lib/units';
 import { type DesignFormValues } from './design-form-schema';
 
-/** A material within this of the design's stock thickness is taken as that thickness (mm). */
-export const THICKNESS_MATCH_MM = 0.1;
-
 /** One sheet size of one material the workshop keeps, as the studio offers it. */
 export interface StockOption {
   key: string;
@@ -51,7 +48,11 @@ export function stockOptions(
     );
 }
 
-/** Whether the form's sheet (either way round) and thickness are those of a stock option. */
+/**
+ * Whether the form's sheet (either way round) and thickness are those of a stock option: the thickness its
+ * slots are worked for, or the nominal one (as typed), not merely a near one, so the list never names stock
+ * whose thickness the fields do not hold.
+ */
 export function isStockOf(
   o: StockOption,
   v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
@@ -59,7 +60,7 @@ export function isStockOf(
   const sameSize =
     (o.widthMm === v.sheetWidthMm && o.heightMm === v.sheetHeightMm) ||
     (o.widthMm === v.sheetHeightMm && o.heightMm === v.sheetWidthMm);
-  return sameSize && o.thicknessesMm.some((t) => Math.abs(t - v.thicknessMm) <= THICKNESS_MATCH_MM);
+  return sameSize && o.thicknessesMm.some((t) => Math.abs(t - v.thicknessMm) < 0.0005);
 }
 
 const SHEET_FIELDS = ['sheetWidthMm', 'sheetHeightMm', 'thicknessMm'] as const;
@@ -124,14 +125,18 @@ export function StockSheetPicker({
         if (o) use(o, true);
       }}
       slotProps={NATIVE_SELECT}
-      helperText="Sets the sheet size, thickness and flexibility; the fabricator confirms the stock when preparing."
+      helperText={
+        current
+          ? `Sheet ${formatSheetSize(current, unit)}, ${formatLength(current.thicknessMm, unit)} thick${current.thicknessesMm.length > 1 ? ' as measured' : ''}${current.flexible ? ', flexible' : ''}. The fabricator confirms the stock when preparing.`
+          : 'Picking one sets the sheet size, thickness and flexibility; the fabricator confirms the stock when preparing.'
+      }
     >
       <option value="" disabled>
         Typed in (not a listed sheet)
       </option>
       {options.map((o) => (
         <option key={o.key} value={o.key}>
-          {`${o.materialName}, ${formatSheetSize(o, unit)}, ${formatLength(o.thicknessMm, unit)} thick`}
+          {`${o.materialName}, ${formatSheetSize(o, unit)}`}
         </option>
       ))}
     </TextField>

@@ -27,7 +27,6 @@ import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
 import { colourPlanSentence } from './colour-plan-notice';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
-import { THICKNESS_MATCH_MM } from './stock-sheet-picker';
 
 /**
  * The line above the sheets: the size and sheet count, or what the layout could not do. A fit is a search that
@@ -60,6 +59,9 @@ export function failureSentence(failure: string): string {
   const fewest = Number(/needs at least (\d+)/.exec(failure)?.[1]);
   return colourPlanSentence(failure, Number.isInteger(fewest) && fewest > 0 ? fewest : null);
 }
+
+/** A material within this of the design's stock thickness is taken as that thickness (mm). */
+const THICKNESS_MATCH_MM = 0.1;
 
 /**
  * A material's thickness (measured, else nominal) and whether it is the design's stock thickness, within

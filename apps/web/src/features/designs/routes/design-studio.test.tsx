@@ -248,7 +248,10 @@ describe('design studio', () => {
     // The thickness measured on the stock on hand, and card bends: flexible.
     expect(screen.getByLabelText('Thickness (mm)')).toHaveValue(0.42);
     expect(screen.getByLabelText('Flexible')).toBeChecked();
-    expect(picker).toHaveDisplayValue('Card stock 300 g/m², 420 × 297 mm, 0.42 mm thick');
+    expect(picker).toHaveDisplayValue('Card stock 300 g/m², 420 × 297 mm');
+    expect(
+      screen.getByText(/^Sheet 420 × 297 mm, 0\.42 mm thick as measured, flexible\./),
+    ).toBeInTheDocument();
     // A laser design is not offered the board no laser may cut; a router design is.
     expect(within(picker).queryByText(/PVC/)).not.toBeInTheDocument();
     await user.selectOptions(screen.getByLabelText('Machine kind'), 'router');
@@ -490,5 +493,8 @@ describe('design studio', () => {
       await screen.findByText('This is a copy of “Octahedron hexagons” as saved in version 4.'),
     ).toBeInTheDocument();
     expect(screen.getByLabelText('Name')).toHaveValue('Octahedron hexagons (copy)');
+    // Said once: the history entry forgets it, so reloading the page does not say it again.
+    await waitFor(() => expect(router.state.location.state).toBeNull());
+    expect(router.state.location.pathname).toBe(`/designs/${COPY_ID}`);
   });
 });

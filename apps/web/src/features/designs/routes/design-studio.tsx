@@ -150,6 +150,13 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     const active = document.activeElement;
     if (!active || active === document.body) saveButton.current?.focus();
   }, [saveDesign.isPending]);
+  // What the sending page said is said once: the history entry forgets it, so a reload does not repeat it.
+  useEffect(() => {
+    if (location.state)
+      void navigate(`${location.pathname}${location.search}`, { replace: true, state: null });
+    // Once, on opening.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
   const dirtyNow = form.formState.isDirty || upload !== savedUpload;
   const { leaving, dialog: leaveDialog } = useUnsavedChangesGuard(dirtyNow);
   const duplicate = useDuplicateDesign();

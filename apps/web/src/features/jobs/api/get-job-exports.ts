@@ -12,16 +12,27 @@ export function getJobExports(id: string, signal?: AbortSignal): Promise<ExportV
 export const STALE_PACK_REFRESH_MS = 15_000;
 
 /**
+ * How often a current pack is looked at again: the notices or rules may change elsewhere, and the server then
+ * builds the pack again by itself.
+ */
+export const DONE_PACK_REFRESH_MS = 60_000;
+
+/**
  * The job's exports. A running one is followed by useFollowExport (its events, or polling), which keeps this
  * list current and refreshes it when the export ends. A done pack whose setup sheet is out of date is read again
  * every STALE_PACK_REFRESH_MS: a fabricator elsewhere may be rebuilding it, and the operator at the machine
- * should see the new pack without reloading.
+ * should see the new pack without reloading; a current one every DONE_PACK_REFRESH_MS, in case the notices
+ * change meanwhile.
  */
 export function useJobExports(id: string, enabled: boolean) {
   return useQuery({
     queryKey: jobsKeys.exports(id),
     queryFn: ({ signal }) => getJobExports(id, signal),
     enabled,
-    refetchInterval: (query) => (query.state.data?.[0]?.safetyChanged ? STALE_PACK_REFRESH_MS : false),
+    refetchInterval: (query) => {
+      const newest = query.state.data?.[0];
+      if (newest?.safetyChanged) return STALE_PACK_REFRESH_MS;
+      return newest?.state === 'done' ? DONE_PACK_REFRESH_MS : false;
+    },
   });
 }

@@ -10,11 +10,14 @@ import TableCell from '@mui/material/TableCell';
 import TableContainer from '@mui/material/TableContainer';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
+import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { useFollowExport } from '../api/follow-export';
 import { downloadExportFile } from '../api/download-export-file';
 import { useJobExports } from '../api/get-job-exports';
+import { jobsKeys } from '../api/jobs-keys';
+import { isApiError } from '../../../lib/api-client';
 import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
 import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from '../lib/pack-text';
@@ -56,6 +59,7 @@ export function CutPackPanel({
   const safety = useJobSafety(jobId, true);
   const request = useRequestCutPack(jobId, jobVersion);
   const [downloadError, setDownloadError] = useState<unknown>(null);
+  const queryClient = useQueryClient();
   const listed = exports.data?.[0];
   const listedBusy = listed && (listed.state === 'queued' || listed.state === 'running');
   // A queued or running pack (asked for here, or by a release) is followed live until it ends.
@@ -146,7 +150,15 @@ export function CutPackPanel({
                           disabled={!!shown.safetyChanged && CUT_PACK_ROLES_PRINTING_SAFETY.includes(f.role)}
                           onClick={() => {
                             setDownloadError(null);
-                            downloadExportFile(shown.id, f.name).catch(setDownloadError);
+                            downloadExportFile(shown.id, f.name).catch((error: unknown) => {
+                              setDownloadError(error);
+                              // Refused because the notices, the rules or the pack changed since this page
+                              // read them: read them again, so the page shows what to do now.
+                              if (isApiError(error) && (error.status === 403 || error.status === 409)) {
+                                void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(jobId) });
+                                void queryClient.invalidateQueries({ queryKey: jobsKeys.safety(jobId) });
+                              }
+                            });
                           }}
                         >
                           Download

@@ -12,7 +12,7 @@ import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
-import { focusFirstField } from '../../../components/ui/focus-first-field';
+import { FOCUS_FIRST_FIELD_ON_OPEN } from '../../../components/ui/focus-first-field';
 import { countOf } from '../../../lib/plural';
 import { isFarAboveSheets, type RecordCutValues, recordCutSchemaFor } from './job-action-schemas';
 
@@ -54,7 +54,7 @@ export function RecordCutDialog(props: {
       fullWidth
       maxWidth="sm"
       aria-labelledby="cut-title"
-      slotProps={{ transition: { onEntered: focusFirstField } }}
+      slotProps={{ transition: FOCUS_FIRST_FIELD_ON_OPEN }}
     >
       <form
         noValidate

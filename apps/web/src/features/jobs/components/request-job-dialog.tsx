@@ -1,6 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import Stack from '@mui/material/Stack';
 import { useEffect } from 'react';
+import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { FormTextField } from '../../../components/ui/form-text-field';
@@ -36,10 +37,11 @@ export function RequestJobDialog({
     register,
     handleSubmit,
     reset,
+    getValues,
     formState: { errors },
   } = useForm<RequestJobValues>({ resolver: zodResolver(requestJobSchema), defaultValues: start });
   useEffect(() => {
-    if (open) reset(start);
+    if (open) resetUnlessSame({ getValues, reset }, start);
     // Only on opening: a job read again while the dialog is open does not wipe what is being typed.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [open, reset]);

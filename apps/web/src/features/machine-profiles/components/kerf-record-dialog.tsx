@@ -2,6 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { type MachineProfileKind } from '@kerfwright/contracts';
 import Stack from '@mui/material/Stack';
 import { useEffect, useMemo } from 'react';
+import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { useForm } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
@@ -21,6 +22,7 @@ export function KerfRecordDialog(
     register,
     handleSubmit,
     reset,
+    getValues,
     formState: { errors },
   } = useForm<KerfRecordValues>({
     resolver: zodResolver(schema),
@@ -28,8 +30,8 @@ export function KerfRecordDialog(
     defaultValues: { materialId: props.defaultMaterialId, notes: '' },
   });
   useEffect(() => {
-    if (props.open) reset({ materialId: props.defaultMaterialId, notes: '' });
-  }, [props.open, props.defaultMaterialId, reset]);
+    if (props.open) resetUnlessSame({ getValues, reset }, { materialId: props.defaultMaterialId, notes: '' });
+  }, [props.open, props.defaultMaterialId, reset, getValues]);
   const router = props.kind === 'cnc-router';
   const submit = handleSubmit((v) => props.onSubmit(v));
   return (

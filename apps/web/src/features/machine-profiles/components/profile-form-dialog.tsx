@@ -10,6 +10,7 @@ import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useEffect, useMemo } from 'react';
+import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
@@ -63,6 +64,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
     control,
     handleSubmit,
     reset,
+    getValues,
     setError,
     formState: { errors },
   } = useForm<ProfileFormValues>({ resolver: zodResolver(schema), defaultValues: props.initial });
@@ -74,8 +76,8 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
   const laser = isLaserKind(kind);
 
   useEffect(() => {
-    if (props.open) reset(props.initial);
-  }, [props.open, props.initial, reset]);
+    if (props.open) resetUnlessSame({ getValues, reset }, props.initial);
+  }, [props.open, props.initial, reset, getValues]);
 
   useEffect(() => {
     if (props.error) {

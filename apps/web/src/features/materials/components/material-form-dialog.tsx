@@ -16,6 +16,7 @@ import IconButton from '@mui/material/IconButton';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useEffect, useMemo } from 'react';
+import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { Controller, type Path, useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
@@ -83,8 +84,9 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
     !props.canLiftLaserRestriction;
 
   useEffect(() => {
-    if (props.open) reset(material ? materialToFormValues(material) : EMPTY_MATERIAL);
-  }, [props.open, material, reset]);
+    if (props.open)
+      resetUnlessSame({ getValues, reset }, material ? materialToFormValues(material) : EMPTY_MATERIAL);
+  }, [props.open, material, reset, getValues]);
 
   // Allowed on the laser again: the note that said why it was kept off no longer holds (the API drops it too).
   useEffect(() => {

@@ -4,7 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
-import { STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
+import { DONE_PACK_REFRESH_MS, STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
 import { stubScreenWidth } from '../../../testing/screen-width';
 import { formatDateTime } from '../../../lib/dates';
 
@@ -448,6 +448,58 @@ describe('release desk', () => {
     rebuilt = true;
     await vi.advanceTimersByTimeAsync(STALE_PACK_REFRESH_MS + 100);
     await waitFor(() => expect(within(job).queryByTestId('cut-pack-safety-changed')).not.toBeInTheDocument());
+  });
+
+  // A done pack with its setup sheet, the file that prints the notices.
+  const withSetupSheet = {
+    files: [
+      ...exportFixture('e-r', released.id, 'done', 100).files,
+      {
+        name: 'setup-sheet.pdf',
+        role: 'setup-sheet',
+        contentType: 'application/pdf',
+        bytes: 9000,
+        sha256: 'c',
+      },
+    ],
+  } satisfies Partial<ExportView>;
+
+  it('looks at a current pack again too, so notices changed elsewhere show without reloading', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    let changed = false;
+    stubDesk(true, () => ({ ...withSetupSheet, safetyChanged: changed }));
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await within(job).findByRole('button', { name: 'Download setup-sheet.pdf' });
+    // The supervisor changes the rules elsewhere: within DONE_PACK_REFRESH_MS the desk says the pack is out of date.
+    changed = true;
+    await vi.advanceTimersByTimeAsync(DONE_PACK_REFRESH_MS + 100);
+    expect(await within(job).findByTestId('cut-pack-safety-changed')).toBeInTheDocument();
+    expect(within(job).getByRole('button', { name: 'Download setup-sheet.pdf' })).toBeDisabled();
+  });
+
+  it('reads the pack again when a download is refused, so the page shows why', async () => {
+    let changed = false;
+    const { calls } = stubDesk(true, () => ({ ...withSetupSheet, safetyChanged: changed }), {
+      'GET /api/exports/e-r/files/setup-sheet.pdf': () => {
+        changed = true;
+        return json(409, {
+          statusCode: 409,
+          code: 'EXPORT.SAFETY_CHANGED',
+          message: 'The safety notices or workshop rules changed since this cut pack was built',
+          requestId: 'r',
+        });
+      },
+    });
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    const reads = () => calls.filter((c) => c.url.pathname === `/api/jobs/${released.id}/exports`).length;
+    const before = reads();
+    await user.click(await within(job).findByRole('button', { name: 'Download setup-sheet.pdf' }));
+    expect(await within(job).findByTestId('cut-pack-safety-changed')).toBeInTheDocument();
+    expect(reads()).toBeGreaterThan(before);
   });
 
   it('at phone width (390 px) shows each job as a card whose Open button is in reach, not in a wide table', async () => {
