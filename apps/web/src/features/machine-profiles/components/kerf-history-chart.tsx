@@ -22,7 +22,13 @@ interface KerfHistoryChartProps {
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short' });
 const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' });
+const secondsFormat = new Intl.DateTimeFormat(undefined, {
+  hour: '2-digit',
+  minute: '2-digit',
+  second: '2-digit',
+});
 const TWO_DAYS_MS = 2 * 24 * 3600 * 1000;
+const TEN_MINUTES_MS = 10 * 60 * 1000;
 const fullDate = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 /**
@@ -31,10 +37,10 @@ const fullDate = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeS
  */
 export function timeTickLabel(t: number, previous: number | undefined, spanMs: number): string {
   if (spanMs >= TWO_DAYS_MS) return dateFormat.format(new Date(t));
+  // Measurements minutes apart: ticks closer than a minute would all read the same minute without seconds.
+  const time = (spanMs < TEN_MINUTES_MS ? secondsFormat : timeFormat).format(new Date(t));
   const sameDay = previous !== undefined && new Date(previous).toDateString() === new Date(t).toDateString();
-  return sameDay
-    ? timeFormat.format(new Date(t))
-    : `${dateFormat.format(new Date(t))}, ${timeFormat.format(new Date(t))}`;
+  return sameDay ? time : `${dateFormat.format(new Date(t))}, ${time}`;
 }
 
 /** Round steps for an axis: 1, 2 or 5 × a power of ten, giving about `count` ticks. */

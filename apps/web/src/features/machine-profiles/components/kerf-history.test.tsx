@@ -85,6 +85,11 @@ describe('kerf history chart', () => {
     expect(timeTickLabel(at(24), at(23), hours)).toMatch(new RegExp(`^${day(24)}, `));
     // Over weeks, the day alone.
     expect(timeTickLabel(at(1), undefined, 20 * 24 * hours)).toBe(day(1));
+    // Over a few minutes, ticks half a minute apart differ by their seconds.
+    const t0 = at(2);
+    const a = timeTickLabel(t0, t0 - 30_000, 3 * 60_000);
+    const b = timeTickLabel(t0 + 30_000, t0, 3 * 60_000);
+    expect(a).not.toBe(b);
   });
 
   it('moves labels only as far as needed, inside the plot', () => {
