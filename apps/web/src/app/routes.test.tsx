@@ -1,10 +1,11 @@
 import { type Role } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../testing/fetch-stub';
 import { userFixture } from '../testing/fixtures';
 import { renderApp } from '../testing/render-app';
 import { getAccessToken } from '../lib/token-store';
+import { ME_REFRESH_MS } from '../lib/auth';
 
 const healthy = { status: 'ok', database: 'up', redis: 'up', version: '0.1.0' };
 
@@ -116,6 +117,8 @@ describe('home page', () => {
 });
 
 describe('protected routes', () => {
+  afterEach(() => vi.useRealTimers());
+
   it('sends a visitor without a token to sign-in, remembering the page', async () => {
     const { fetchMock } = stubFetch({});
     const { router } = renderApp('/people');
@@ -184,6 +187,49 @@ describe('protected routes', () => {
     expect(queryClient.getQueryCache().getAll()).toEqual([]);
     // Signed out on purpose: no word of a session that ended.
     expect(screen.queryByTestId('session-ended')).not.toBeInTheDocument();
+  });
+
+  it('notices within a minute that the account was deactivated, on a page nobody touches', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    const me = userFixture('operator');
+    let active = true;
+    stubFetch({
+      'GET /api/auth/me': () =>
+        active
+          ? json(200, me)
+          : json(401, {
+              statusCode: 401,
+              code: 'AUTH.UNAUTHENTICATED',
+              message: 'Sign in first',
+              requestId: 'r',
+            }),
+      'GET /api/health': () => json(200, healthy),
+    });
+    const { router } = renderApp('/', { token: 't' });
+    await screen.findByText(me.email);
+    active = false;
+    await vi.advanceTimersByTimeAsync(ME_REFRESH_MS + 100);
+    expect(await screen.findByTestId('session-ended')).toBeInTheDocument();
+    expect(router.state.location.pathname).toBe('/sign-in');
+  });
+
+  it('keeps the page when a later check of the account fails for a moment (the API briefly down)', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    const me = userFixture('operator');
+    let up = true;
+    stubFetch({
+      'GET /api/auth/me': () =>
+        up
+          ? json(200, me)
+          : json(503, { statusCode: 503, code: 'UNAVAILABLE', message: 'Down', requestId: 'r' }),
+      'GET /api/health': () => json(200, healthy),
+    });
+    renderApp('/', { token: 't' });
+    await screen.findByText(me.email);
+    up = false;
+    await vi.advanceTimersByTimeAsync(ME_REFRESH_MS * 4);
+    expect(screen.queryByText('We could not load your account')).not.toBeInTheDocument();
+    expect(screen.getByText(me.email)).toBeInTheDocument();
   });
 
   it('remembers the page when the session ends by itself', async () => {

@@ -30,6 +30,9 @@ export function meQueryOptions() {
   });
 }
 
+/** How often a signed-in page asks the API again who is signed in. */
+export const ME_REFRESH_MS = 60_000;
+
 /** Set by `RequireAuth` once the API has confirmed who is signed in. */
 const CurrentUserContext = createContext<UserView | null>(null);
 
@@ -86,14 +89,17 @@ export function useEndSessionOnArrival(): boolean {
 export function RequireAuth({ children }: { children: ReactNode }) {
   const token = useAccessToken();
   const location = useLocation();
-  const me = useQuery({ ...meQueryOptions(), enabled: token !== null });
+  // Asked again every minute: an account deactivated or given another role elsewhere changes this page too,
+  // idle as it may be (the API already refuses its requests).
+  const me = useQuery({ ...meQueryOptions(), enabled: token !== null, refetchInterval: ME_REFRESH_MS });
   const signOut = useSignOut();
 
   if (!token) {
     return <Navigate to={paths.signIn.getHref(location.pathname + location.search)} replace />;
   }
   if (me.isPending) return <FullPageProgress label="Checking your sign-in…" />;
-  if (me.isError) {
+  // A check that failed once the account was known (the API down for a moment) keeps the page.
+  if (me.isError && me.data === undefined) {
     return (
       <ErrorPanel title="We could not load your account" error={me.error} onRetry={() => void me.refetch()}>
         <Button variant="outlined" onClick={signOut}>
