@@ -10,6 +10,15 @@ import { ReturnJobDialog } from './return-job-dialog';
 
 const noop = () => undefined;
 
+/** The record-the-cut dialog, open, with the prepared sheets, machine kind and submit handler given. */
+function renderRecordCut(props: {
+  preparedSheets: number;
+  machineKind: 'laser' | 'router';
+  onSubmit: Parameters<typeof RecordCutDialog>[0]['onSubmit'];
+}) {
+  return renderWithProviders(<RecordCutDialog open busy={false} error={null} onClose={noop} {...props} />);
+}
+
 describe('return job dialog', () => {
   it('needs a reason before sending a job back', async () => {
     const onSubmit = vi.fn();
@@ -32,17 +41,7 @@ describe('return job dialog', () => {
 
 describe('record the cut dialog', () => {
   it('opens with the keyboard in the machine time', async () => {
-    const { user } = renderWithProviders(
-      <RecordCutDialog
-        open
-        busy={false}
-        error={null}
-        preparedSheets={2}
-        machineKind="laser"
-        onSubmit={noop}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderRecordCut({ preparedSheets: 2, machineKind: 'laser', onSubmit: noop });
     const minutes = await screen.findByLabelText('Machine time (minutes)');
     await waitFor(() => expect(minutes).toHaveFocus());
     await user.keyboard('12');
@@ -51,17 +50,7 @@ describe('record the cut dialog', () => {
 
   it('needs the machine time and whole sheets; the measured kerf may stay empty', async () => {
     const onSubmit = vi.fn();
-    const { user } = renderWithProviders(
-      <RecordCutDialog
-        open
-        busy={false}
-        error={null}
-        preparedSheets={2}
-        machineKind="laser"
-        onSubmit={onSubmit}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderRecordCut({ preparedSheets: 2, machineKind: 'laser', onSubmit: onSubmit });
     await user.click(await screen.findByRole('button', { name: 'Record the cut' }));
     expect(await screen.findByText('Enter the machine time in minutes')).toBeInTheDocument();
     await user.type(screen.getByLabelText('Machine time (minutes)'), '12');
@@ -92,17 +81,7 @@ describe('record the cut dialog', () => {
 describe('record the cut dialog, sheets used', () => {
   it('asks for a confirmation of a count far above the prepared sheets, which the API would take as it is', async () => {
     const onSubmit = vi.fn();
-    const { user } = renderWithProviders(
-      <RecordCutDialog
-        open
-        busy={false}
-        error={null}
-        preparedSheets={3}
-        machineKind="laser"
-        onSubmit={onSubmit}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderRecordCut({ preparedSheets: 3, machineKind: 'laser', onSubmit: onSubmit });
     await user.type(await screen.findByLabelText('Machine time (minutes)'), '25');
     const sheets = screen.getByLabelText('Sheets used');
     expect(sheets).toHaveValue(3);
@@ -139,17 +118,7 @@ describe('record the cut dialog, on a router', () => {
     // The API's range for a router's measured kerf (MACHINE_PROFILE_LIMITS.toolDiameterMm): a 3.175 mm (1/8 in)
     // bit cuts a slot a little over 3.175 mm wide, far past a laser's 2 mm.
     const onSubmit = vi.fn();
-    const { user } = renderWithProviders(
-      <RecordCutDialog
-        open
-        busy={false}
-        error={null}
-        preparedSheets={2}
-        machineKind="router"
-        onSubmit={onSubmit}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderRecordCut({ preparedSheets: 2, machineKind: 'router', onSubmit: onSubmit });
     await user.type(await screen.findByLabelText('Machine time (minutes)'), '40');
     const width = screen.getByLabelText('Measured cut width (mm, optional)');
     await user.type(width, '0.05');
@@ -179,17 +148,7 @@ describe('record the cut dialog, measured kerf', () => {
     });
     try {
       const onSubmit = vi.fn();
-      const { user } = renderWithProviders(
-        <RecordCutDialog
-          open
-          busy={false}
-          error={null}
-          preparedSheets={1}
-          machineKind="laser"
-          onSubmit={onSubmit}
-          onClose={noop}
-        />,
-      );
+      const { user } = renderRecordCut({ preparedSheets: 1, machineKind: 'laser', onSubmit: onSubmit });
       const kerf = await screen.findByLabelText('Measured kerf (mm, optional)');
       expect(kerf).toHaveValue(null);
       expect(screen.getByLabelText('Machine time (minutes)')).toHaveValue(null);
