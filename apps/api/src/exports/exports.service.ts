@@ -159,6 +159,9 @@ export class ExportsService {
     }
   }
 
+  /** Done packs found current, by export id, with the safety stamp they were checked under. */
+  private readonly currentPacks = new Map<string, string>();
+
   /**
    * Builds again, by itself, every released job's cut pack whose setup sheet prints safety notices or workshop
    * rules changed since it was built, so the operator gets current ones without waiting for a fabricator.
@@ -166,9 +169,6 @@ export class ExportsService {
    * tried again and again) and which is still cuttable as prepared. Safe to run in several processes at once:
    * each job is decided under its row lock. Resolves with the number of packs queued; the reconciler runs it.
    */
-  /** Done packs found current, by export id, with the safety stamp they were checked under. */
-  private readonly currentPacks = new Map<string, string>();
-
   async rebuildOutdated(limit = 200): Promise<number> {
     // What every setup sheet built now would print, in one stamp: a pack found current under a stamp is not
     // looked at again until the notices or rules change (the reconciler runs this every few seconds).
