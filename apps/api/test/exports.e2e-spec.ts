@@ -77,6 +77,17 @@ async function postRelease(ctx: TestContext, fabricator: TestUser, jobId: string
   return res.body.exportId as string;
 }
 
+/** Releases the job and waits until the export building its files is done or has failed. */
+async function releaseAndWait(ctx: TestContext, fabricator: TestUser, jobId: string): Promise<ExportView> {
+  return pollExport(
+    ctx,
+    fabricator,
+    await postRelease(ctx, fabricator, jobId),
+    (v) => v.state === 'done' || v.state === 'failed',
+    90000,
+  );
+}
+
 /** A superagent parser that collects a server-sent event stream as text until it ends. */
 function streamText(res: Response, done: (err: Error | null, body: string) => void): void {
   let text = '';
@@ -679,13 +690,7 @@ describe('cut packs whose job changes while they are built', () => {
 
   it('serves files only for a job released to the machines (or cut and closed since)', async () => {
     const jobId = await approvedJob(ctx, w, p);
-    const view = await pollExport(
-      ctx,
-      p.fabricator,
-      await postRelease(ctx, p.fabricator, jobId),
-      (v) => v.state === 'done' || v.state === 'failed',
-      90000,
-    );
+    const view = await releaseAndWait(ctx, p.fabricator, jobId);
     expect(view.state).toBe('done');
     await acknowledge(ctx, p.operator, jobId);
     const name = view.files.find((f) => f.role === 'manifest')!.name;
@@ -716,13 +721,7 @@ describe('cut packs whose job changes while they are built', () => {
 
   it("rebuilds a released job's pack on the version it was released on after a newer one retired it; an approved job's not", async () => {
     const released = await approvedJob(ctx, w, p);
-    const first = await pollExport(
-      ctx,
-      p.fabricator,
-      await postRelease(ctx, p.fabricator, released),
-      (v) => v.state === 'done' || v.state === 'failed',
-      90000,
-    );
+    const first = await releaseAndWait(ctx, p.fabricator, released);
     expect(first.state).toBe('done');
     const approved = await approvedJob(ctx, w, p);
     // A newer version is approved (a kerf adopted, say): the one both jobs name retires.
@@ -757,13 +756,7 @@ describe('cut packs whose job changes while they are built', () => {
 
   it('builds a released pack again by itself once the notices or rules its setup sheet prints change, once', async () => {
     const released = await approvedJob(ctx, w, p);
-    const first = await pollExport(
-      ctx,
-      p.fabricator,
-      await postRelease(ctx, p.fabricator, released),
-      (v) => v.state === 'done' || v.state === 'failed',
-      90000,
-    );
+    const first = await releaseAndWait(ctx, p.fabricator, released);
     expect(first.state).toBe('done');
     const packs = async () =>
       (await ctx.http.get(`/api/jobs/${released}/exports`).set(auth(p.fabricator)).expect(200))

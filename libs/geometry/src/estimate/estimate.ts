@@ -24,6 +24,18 @@ export interface EstimateMachine {
   toolDiameterMm?: number;
 }
 
+/**
+ * A machine's estimate speeds with the cutter the sheets were drawn for: a router's bit diameter (so the cut
+ * length is that of the bit centre's path, see toolPathLength), nothing for a beam or blade.
+ */
+export function withCutter(
+  machine: EstimateMachine,
+  cutter: { kind: 'laser' } | { kind: 'router'; toolDiameterMm: number },
+): EstimateMachine {
+  const { toolDiameterMm: _ignored, ...rest } = machine;
+  return cutter.kind === 'router' ? { ...rest, toolDiameterMm: cutter.toolDiameterMm } : rest;
+}
+
 /** One sheet's work: closed cut contours and open mark strokes, sheet coordinates (mm). */
 export interface SheetWork {
   cut: readonly (readonly Vec2[])[];

@@ -6,6 +6,7 @@ export {
   sequenceSheet,
   sheetTravel,
   toolPathLength,
+  withCutter,
   type SheetSequence,
   type EstimateMachine,
   type JobEstimate,

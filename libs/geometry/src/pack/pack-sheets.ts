@@ -5,7 +5,7 @@
  */
 import type { CutPackEstimate, CutPackInput, JobPreparation } from '@kerfwright/contracts';
 import { type BuiltModel } from '../build';
-import { type EstimateMachine, estimateJob } from '../estimate';
+import { type EstimateMachine, estimateJob, withCutter } from '../estimate';
 import { type PieceLabels, labelPiece, uprightStrokes } from '../labels';
 import { type ModelLayout } from '../layout/plan-layout';
 import { type Vec2 } from '../math/vec';
@@ -23,16 +23,6 @@ export interface PackSheetsOptions {
   sheet: { widthMm: number; heightMm: number };
   units: CutPackInput['units'];
   machine: EstimateMachine;
-}
-
-/**
- * A machine's estimate speeds with the cutter of the spec the model was built for: a router's bit diameter,
- * so the cut length is that of the bit centre's path (see toolPathLength), not of the drawn outline.
- */
-export function withModelCutter(machine: EstimateMachine, model: Pick<BuiltModel, 'spec'>): EstimateMachine {
-  const { toolDiameterMm: _ignored, ...rest } = machine;
-  const cutter = model.spec.machine;
-  return cutter.kind === 'router' ? { ...rest, toolDiameterMm: cutter.toolDiameterMm } : rest;
 }
 
 /** Labels of every piece (in its own frame), keyed by piece id. */
@@ -153,7 +143,7 @@ export function preparationEstimate(
   layout: LaidOutModel,
   opts: PreparationEstimateOptions,
 ): NonNullable<JobPreparation['estimate']> {
-  const machine = withModelCutter(opts.machine, model);
+  const machine = withCutter(opts.machine, model.spec.machine);
   const { sheets } = drawPackSheets(model, layout, {
     colours: opts.colours.map(printableColourName),
     sheet: opts.sheet,

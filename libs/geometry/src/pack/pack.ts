@@ -26,7 +26,8 @@ import { assemblyStepsOfReport } from './assembly';
 import { type Coupon, buildCoupon } from './coupon';
 import { assemblyGuidePdf, setupSheetPdf } from './documents';
 import { sheetToDxf, sheetToSvg } from './sheet-files';
-import { PackSheetsError, drawPackSheets, sheetsEstimate, withModelCutter } from './pack-sheets';
+import { PackSheetsError, drawPackSheets, sheetsEstimate } from './pack-sheets';
+import { withCutter } from '../estimate';
 import { lengthText } from '../math/length-text';
 
 /** Thrown when a pack cannot be made; `code` reads AREA.REASON. */
@@ -192,7 +193,7 @@ export async function createCutPack(
   });
   if (!layout.ok) throw new CutPackError('PACK.LAYOUT_FAILED', layout.message, layout.pieces);
   progress(0.35);
-  const machine = withModelCutter(toEstimateMachine(input.machine, input.machine), model);
+  const machine = withCutter(toEstimateMachine(input.machine, input.machine), model.spec.machine);
   let drawn: ReturnType<typeof drawPackSheets>;
   try {
     drawn = drawPackSheets(model, layout, {
@@ -350,7 +351,7 @@ export async function createCoupon(
 ): Promise<CutPackResult> {
   const model = buildChecked(input.spec);
   onProgress?.(0.4);
-  const machine = withModelCutter(toEstimateMachine(input.machine, input.machine), model);
+  const machine = withCutter(toEstimateMachine(input.machine, input.machine), model.spec.machine);
   const coupon = buildCoupon(
     model,
     input.units,

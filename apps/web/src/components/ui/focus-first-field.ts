@@ -19,13 +19,13 @@ function prepare(field: HTMLInputElement | HTMLTextAreaElement | HTMLSelectEleme
 
 /**
  * Puts the keyboard in a container's first field: a number selected ("2" typed over the "1" a field starts
- * with gives 2, not 12), the caret at the end of text. Focus already in one of its fields is left alone.
+ * with gives 2, not 12), the caret at the end of text. Focus already in another of its fields is left alone.
  */
 export function focusFirstField(node: HTMLElement): void {
   const field = firstField(node);
   if (!field) return;
   const active = node.ownerDocument.activeElement;
-  if (active && node.contains(active) && active.matches(FIELD)) return;
+  if (active && active !== field && node.contains(active) && active.matches(FIELD)) return;
   field.focus();
   prepare(field);
 }
@@ -45,11 +45,6 @@ export const FOCUS_FIRST_FIELD_ON_OPEN = {
     focusFirstField(node);
   },
   onEntered: (node: HTMLElement) => {
-    if (typedIn.has(node)) return;
-    const field = firstField(node);
-    const active = node.ownerDocument.activeElement;
-    if (!field || (active && active !== field && node.contains(active) && active.matches(FIELD))) return;
-    field.focus();
-    prepare(field);
+    if (!typedIn.has(node)) focusFirstField(node);
   },
 };

@@ -4,7 +4,7 @@ import {
   type ProfileSetting,
   toEstimateMachine,
 } from '@kerfwright/contracts';
-import { estimateJob } from '@kerfwright/geometry';
+import { estimateJob, withCutter } from '@kerfwright/geometry';
 import { type LayoutEstimateView } from '../components/sheet-layout-view';
 import { type SheetView } from './sheet-views';
 
@@ -23,10 +23,7 @@ export function estimateSheets(
 ): LayoutEstimateView {
   const e = estimateJob(
     sheets.map((sh) => ({ cut: sh.pieces.map((p) => p.outline), mark: [] })),
-    {
-      ...toEstimateMachine(version, setting),
-      ...(drawnFor.kind === 'router' ? { toolDiameterMm: drawnFor.toolDiameterMm } : {}),
-    },
+    withCutter(toEstimateMachine(version, setting), drawnFor),
     pricePerSheet ?? 0,
   );
   return {
