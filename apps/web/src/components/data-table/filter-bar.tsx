@@ -55,13 +55,21 @@ export function SearchFilter({
     search.current = onSearch;
   });
 
+  // The text last asked for. The address reports it back later (a navigation may be deferred), and that
+  // echo must not overwrite what was typed in the meantime.
+  const asked = useRef<string | null>(null);
   useEffect(() => {
-    setText(value);
+    const echo = value === asked.current;
+    asked.current = null;
+    if (!echo) setText(value);
   }, [value]);
 
   useEffect(() => {
     if (text === value) return;
-    const timer = window.setTimeout(() => search.current(text), SEARCH_DELAY_MS);
+    const timer = window.setTimeout(() => {
+      asked.current = text;
+      search.current(text);
+    }, SEARCH_DELAY_MS);
     return () => window.clearTimeout(timer);
   }, [text, value]);
 
