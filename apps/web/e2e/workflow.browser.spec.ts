@@ -305,6 +305,12 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'inch' }).click();
     expect(await facts.textContent()).toMatch(/Sheet size\d+\.\d{3} × \d+\.\d{3} in/);
     await layout.screenshot({ path: path.join(SCREENSHOT_DIR, 'sheet-layout.png') });
+    // The choice of inches stays with the browser: a reload (or the studio) shows inches until mm is chosen.
+    await page.reload();
+    await page
+      .getByTestId('layout-facts')
+      .filter({ hasText: /Sheet size\d+\.\d{3} × \d+\.\d{3} in/ })
+      .waitFor();
     await page.getByRole('group', { name: 'Units' }).getByRole('button', { name: 'mm' }).click();
     await shot('job-prepared');
   });

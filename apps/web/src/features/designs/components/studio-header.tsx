@@ -2,11 +2,10 @@ import { type DesignView } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Stack from '@mui/material/Stack';
-import ToggleButton from '@mui/material/ToggleButton';
-import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
 import { memo, type Ref } from 'react';
+import { UnitToggle } from '../../../components/ui/unit-toggle';
 import { type LengthUnit } from '../../../lib/units';
 
 interface StudioHeaderProps {
@@ -48,16 +47,7 @@ export const StudioHeader = memo(function StudioHeader({
           {design ? `${design.name} · version ${design.version} · by ${design.ownerName}` : 'A new design'}
         </Typography>
       </Box>
-      <ToggleButtonGroup
-        size="small"
-        exclusive
-        value={unit}
-        onChange={(_, u: LengthUnit | null) => u && onUnit(u)}
-        aria-label="Units"
-      >
-        <ToggleButton value="mm">mm</ToggleButton>
-        <ToggleButton value="in">inch</ToggleButton>
-      </ToggleButtonGroup>
+      <UnitToggle unit={unit} onUnit={onUnit} />
       <Tooltip
         title={
           canSave ? '' : 'Only its owner or a supervisor saves this design: duplicate it to keep your changes'

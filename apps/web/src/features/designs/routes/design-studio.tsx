@@ -17,7 +17,8 @@ import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
-import { formatLength, type LengthUnit } from '../../../lib/units';
+import { formatLength } from '../../../lib/units';
+import { useLengthUnit } from '../../../lib/use-length-unit';
 import { useStableCallback } from '../../../lib/use-stable-callback';
 import { useDuplicateDesign } from '../api/duplicate-design';
 import { useDesign } from '../api/get-design';
@@ -131,7 +132,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   const [upload, setUpload] = useState<UploadedSolid | null>(initial.upload);
   // The upload as last saved (or loaded): a change of it is an unsaved edit.
   const [savedUpload, setSavedUpload] = useState<UploadedSolid | null>(initial.upload);
-  const [unit, setUnit] = useState<LengthUnit>('mm');
+  const [unit, setUnit] = useLengthUnit();
   const [tab, setTab] = useState(0);
   const [selected, setSelected] = useState<string | undefined>(undefined);
   const [requestOpen, setRequestOpen] = useState(false);

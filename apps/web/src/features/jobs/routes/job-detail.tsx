@@ -11,24 +11,23 @@ import Button from '@mui/material/Button';
 import CircularProgress from '@mui/material/CircularProgress';
 import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
-import ToggleButton from '@mui/material/ToggleButton';
-import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
 import { useEffect, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { UnitToggle } from '../../../components/ui/unit-toggle';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
+import { useLengthUnit } from '../../../lib/use-length-unit';
 import {
   formatLength,
   formatMinutes,
   formatMoney,
   formatRunLength,
   formatSheetSize,
-  type LengthUnit,
   MM_PER_INCH,
 } from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
@@ -130,7 +129,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
     o === 'safety' || (o === 'change' ? canChange : job.actions.includes(o));
   const open: Open = opened !== null && !offered(opened) ? null : opened;
   if (open !== opened) setOpen(open);
-  const [unit, setUnit] = useState<LengthUnit>('mm');
+  const [unit, setUnit] = useLengthUnit();
   const fmt = (mm: number) => formatLength(mm, unit);
   // Kerfs are recorded to the thousandth of a millimetre and shown as recorded (0.165 mm, 0.09 mm), as the
   // kerf history and the record-cut form have them.
@@ -190,16 +189,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         </Typography>
         <JobStateChip state={job.state} />
         <Box sx={{ flex: 1 }} />
-        <ToggleButtonGroup
-          size="small"
-          exclusive
-          value={unit}
-          onChange={(_, u: LengthUnit | null) => u && setUnit(u)}
-          aria-label="Units"
-        >
-          <ToggleButton value="mm">mm</ToggleButton>
-          <ToggleButton value="in">inch</ToggleButton>
-        </ToggleButtonGroup>
+        <UnitToggle unit={unit} onUnit={setUnit} />
       </Stack>
       <Typography color="text.secondary" sx={{ mb: 2 }}>
         {/* A draft is requested by nobody (not sent yet, or the request was withdrawn): its maker owns it. */}
