@@ -6,7 +6,7 @@ import { type BoundFieldProps } from './form-text-field';
 import { NumberField } from './number-field';
 
 type LengthFieldProps<T extends FieldValues> = Omit<BoundFieldProps<T>, 'type' | 'slotProps' | 'label'> & {
-  /** The label with its unit in brackets as the form keeps it: "Margin (mm)". */
+  /** The label with its unit in brackets as the form keeps it: "Margin (mm)", "Kerf (mm, optional)". */
   label: string;
   /** The unit the reader works in; the form always keeps millimetres. */
   unit: LengthUnit;
@@ -64,7 +64,7 @@ export function LengthField<T extends FieldValues>({
         <InchInput
           {...props}
           name={name}
-          label={label.replace(/\(mm\)$/, '(in)')}
+          label={label.replace(/\(mm(, [^)]*)?\)$/, '(in$1)')}
           mm={field.value}
           onMm={field.onChange}
           onBlur={field.onBlur}

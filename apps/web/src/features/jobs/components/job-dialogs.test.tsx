@@ -7,6 +7,7 @@ import { renderWithProviders } from '../../../testing/render-app';
 import { PrepareJobDialog } from './prepare-job-dialog';
 import { RecordCutDialog } from './record-cut-dialog';
 import { ReturnJobDialog } from './return-job-dialog';
+import { isBlankNumber } from '../../../lib/form-numbers';
 
 const noop = () => undefined;
 
@@ -15,8 +16,11 @@ function renderRecordCut(props: {
   preparedSheets: number;
   machineKind: 'laser' | 'router';
   onSubmit: Parameters<typeof RecordCutDialog>[0]['onSubmit'];
+  unit?: 'mm' | 'in';
 }) {
-  return renderWithProviders(<RecordCutDialog open busy={false} error={null} onClose={noop} {...props} />);
+  return renderWithProviders(
+    <RecordCutDialog open busy={false} error={null} onClose={noop} unit="mm" {...props} />,
+  );
 }
 
 describe('return job dialog', () => {
@@ -172,6 +176,36 @@ describe('record the cut dialog, measured kerf', () => {
     } finally {
       spy.mockRestore();
     }
+  });
+});
+
+describe('record the cut dialog, in inches', () => {
+  it('takes the measured kerf in inches where the page shows inches, and records millimetres', async () => {
+    // 0.0065 in × 25.4 mm/in = 0.1651 mm (the inch is 25.4 mm exactly, NIST SP 811 B.8).
+    const onSubmit = vi.fn();
+    const { user } = renderRecordCut({ preparedSheets: 1, machineKind: 'laser', onSubmit, unit: 'in' });
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '12');
+    expect(screen.queryByLabelText('Measured kerf (mm, optional)')).not.toBeInTheDocument();
+    const kerf = screen.getByLabelText('Measured kerf (in, optional)');
+    await user.type(kerf, '0.1');
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    // 0.1 in is 2.54 mm, past a laser's 2 mm: the limit is said in the form's own unit.
+    expect(await screen.findByText('At most 2 mm')).toBeInTheDocument();
+    await user.clear(kerf);
+    await user.type(kerf, '0.0065');
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(onSubmit.mock.calls[0]?.[0]).toMatchObject({ actualMinutes: 12, measuredKerfMm: 0.1651 });
+  });
+
+  it('may stay empty in inches too', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderRecordCut({ preparedSheets: 1, machineKind: 'router', onSubmit, unit: 'in' });
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '30');
+    expect(screen.getByLabelText('Measured cut width (in, optional)')).toHaveValue(null);
+    await user.click(screen.getByRole('button', { name: 'Record the cut' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    expect(isBlankNumber(onSubmit.mock.calls[0]?.[0].measuredKerfMm)).toBe(true);
   });
 });
 

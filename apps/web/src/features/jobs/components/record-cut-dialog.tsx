@@ -12,8 +12,10 @@ import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { LengthField } from '../../../components/ui/length-field';
 import { FOCUS_FIRST_FIELD_ON_OPEN } from '../../../components/ui/focus-first-field';
 import { countOf } from '../../../lib/plural';
+import { type LengthUnit } from '../../../lib/units';
 import { isFarAboveSheets, type RecordCutValues, recordCutSchemaFor } from './job-action-schemas';
 
 /**
@@ -28,6 +30,8 @@ export function RecordCutDialog(props: {
   preparedSheets: number | null;
   /** How the job was prepared to be cut: a router's measured kerf is the width of its cut. */
   machineKind: 'laser' | 'router';
+  /** The unit the page shows lengths in: the measured kerf is typed in it (the form keeps millimetres). */
+  unit: LengthUnit;
   onSubmit: (v: RecordCutValues) => void;
   onClose: () => void;
 }) {
@@ -94,16 +98,16 @@ export function RecordCutDialog(props: {
                 />
               </Alert>
             ) : null}
-            <FormTextField
+            <LengthField
               label={
                 props.machineKind === 'router'
                   ? 'Measured cut width (mm, optional)'
                   : 'Measured kerf (mm, optional)'
               }
-              type="number"
-              registration={register('measuredKerfMm', n)}
-              error={errors.measuredKerfMm}
-              slotProps={{ htmlInput: { step: 'any' } }}
+              name="measuredKerfMm"
+              unit={props.unit}
+              control={control}
+              form={{ register, errors }}
             />
           </Stack>
         </DialogContent>

@@ -446,6 +446,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           error={action.error}
           preparedSheets={prep?.sheetCount ?? null}
           machineKind={prep?.machineKind ?? 'laser'}
+          unit={unit}
           onSubmit={(v) =>
             take('cut', {
               actualMinutes: v.actualMinutes,

@@ -25,6 +25,7 @@ import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { paths } from '../../../config/paths';
 import { useUser } from '../../../lib/auth';
+import { useLengthUnit } from '../../../lib/use-length-unit';
 import { jobQueryOptions } from '../../jobs/api/get-job';
 import { useJobSafety } from '../../jobs/api/get-job-safety';
 import { useTakeJobAction } from '../../jobs/api/take-job-action';
@@ -242,6 +243,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   const safety = useJobSafety(job.id, true);
   const action = useTakeJobAction();
   const [open, setOpen] = useState<'safety' | 'cut' | 'close' | null>(null);
+  const [unit] = useLengthUnit();
   const acknowledged = safety.data?.acknowledged === true;
   const canCut = job.actions.includes('cut');
   return (
@@ -312,6 +314,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
           error={action.error}
           preparedSheets={job.preparation?.sheetCount ?? null}
           machineKind={job.preparation?.machineKind ?? 'laser'}
+          unit={unit}
           onSubmit={(v) =>
             action.mutate(
               {
