@@ -237,6 +237,42 @@ export function solveModelColourPlan(model: BuiltModel, countCap = 0): ColourPla
   });
 }
 
+/** Design errors no size removes: slot widths follow the stock and the fit alone, crossings the shape alone. */
+const SIZE_FREE_ERRORS: ReadonlyMap<string, 'cutter' | 'fit' | 'design'> = new Map([
+  ['SLOT.NARROWER_THAN_KERF', 'cutter'],
+  ['SLOT.NARROWER_THAN_TOOL', 'cutter'],
+  ['SLOT.WIDTH_NOT_POSITIVE', 'fit'],
+  ['DESIGN.NO_CROSSINGS', 'design'],
+]);
+
+/**
+ * The end of a "no size fits" sentence, after "even the largest model … (D mm across)": why the largest size
+ * that fits still fails, and what would help. Errors no size removes are named with their own message and
+ * the remedy that works (a larger sheet or thinner stock would not, and thinner stock narrows a slot further);
+ * the others come from the stock taking too much of pieces that small.
+ */
+export function noFitReason(
+  errors: readonly { code: string; message: string }[],
+  spec: ResolvedSpec,
+  larger: string,
+): string {
+  const fixed = errors.find((e) => SIZE_FREE_ERRORS.has(e.code));
+  const cutter = spec.machine.kind === 'laser' ? 'a laser with a narrower kerf' : 'a smaller bit';
+  switch (fixed ? SIZE_FREE_ERRORS.get(fixed.code) : undefined) {
+    case 'cutter':
+      return `has errors at every size (${fixed!.message}); choose thicker stock, a larger fit allowance or ${cutter}`;
+    case 'fit':
+      return `has errors at every size (${fixed!.message}); choose a larger fit allowance`;
+    case 'design':
+      return `has errors at every size (${fixed!.message}); change the design`;
+    default:
+      return (
+        `has design errors at ${spec.stock.thicknessMm} mm stock (the slots take too much of pieces that small); ` +
+        `choose ${larger}, or thinner stock, or change the design`
+      );
+  }
+}
+
 /**
  * The model at the spec's size, without layout: fixed scales directly; fitBed by searching the scale at
  * which the largest piece just fits the bed; fitSheets at its upper bound (see fitSheetsUpperBound).
@@ -257,8 +293,7 @@ export function sizeWithoutLayout(
         code: 'SCALE.NO_FIT',
         message:
           `no size fits the bed${spec.sheet ? ' and the sheet' : ''}: even the largest model whose pieces fit ` +
-          `(${round(diameterMm, 1)} mm across) has design errors at ${spec.stock.thicknessMm} mm stock; ` +
-          'choose a larger bed or sheet, or thinner stock, or change the design',
+          `(${round(diameterMm, 1)} mm across) ${noFitReason(errors, spec, 'a larger bed or sheet')}`,
         pieces: [],
       });
     }

@@ -131,4 +131,16 @@ describe('CLI build', () => {
     expect((await run(['build', spec])).code).toBe(2);
     expect((await run(['--help'])).out).toMatch(/build SPEC\.json/);
   });
+
+  it('reads a spec saved with a byte-order mark, as some editors on Windows save UTF-8', async () => {
+    const spec = path.join(dir, 'spec.json');
+    fs.writeFileSync(
+      spec,
+      '\uFEFF' + fs.readFileSync(path.join(fixtures, 'octahedron-hexagons.json'), 'utf8'),
+    );
+    const r = await run(['build', spec, '--json']);
+    expect(r.err).toBe('');
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.out).pieces).toHaveLength(8);
+  });
 });

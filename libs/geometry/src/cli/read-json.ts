@@ -10,7 +10,8 @@ export function readJsonArg(io: CliIo, file: string): { value: unknown } | null 
     return null;
   }
   try {
-    return { value: JSON.parse(text) as unknown };
+    // A byte-order mark, as some editors on Windows save a file, is no part of the JSON.
+    return { value: JSON.parse(text.replace(/^\uFEFF/, '')) as unknown };
   } catch (e) {
     io.err(`error: ${file} is not valid JSON: ${(e as Error).message}`);
     return null;

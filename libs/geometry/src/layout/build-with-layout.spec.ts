@@ -209,6 +209,33 @@ describe('fitSheets scale', () => {
     );
   });
 
+  it('names the error no size removes, and a remedy that works, when the slots cannot be cut at any size', () => {
+    // Cube planes cross at 90°: the slot is t·cot 45° = t = 1 mm wide at every size (REFERENCES.md), not
+    // wider than a 1.2 mm kerf. Thinner stock or larger sheets cannot help; thicker stock or a narrower kerf can.
+    const fitTwo = (extra: object) =>
+      ({ ...cubeSquares45(1.5), scale: { by: 'fitSheets', sheets: 2 }, ...extra }) as unknown as DesignSpec;
+    const laser = fitTwo({
+      stock: { thicknessMm: 1, flexible: false, sheet: { widthMm: 600, heightMm: 400 } },
+      machine: { kind: 'laser', kerfMm: 1.2 },
+    });
+    const r = buildWithLayout(laser).model.report;
+    expect(r.errors.map((e) => e.code)).toContain('SLOT.NARROWER_THAN_KERF');
+    const said = r.errors.find((e) => e.code === 'SCALE.NO_FIT')?.message ?? '';
+    expect(said).toMatch(/has errors at every size \(the 1 mm slot between .* 1\.2 mm kerf/);
+    expect(said).toMatch(/choose thicker stock, a larger fit allowance or a laser with a narrower kerf$/);
+    expect(said).not.toMatch(/thinner|larger sheets/);
+    // A 6 mm slot for a 6.35 mm (1/4 in) bit: the remedy is a smaller bit.
+    const router = fitTwo({
+      stock: { thicknessMm: 6, flexible: false, sheet: { widthMm: 1220, heightMm: 610 } },
+      machine: { kind: 'router', toolDiameterMm: 6.35 },
+    });
+    expect(
+      buildWithLayout(router).model.report.errors.find((e) => e.code === 'SCALE.NO_FIT')?.message,
+    ).toMatch(
+      /has errors at every size \(.*6\.35 mm tool\); choose thicker stock, a larger fit allowance or a smaller bit$/,
+    );
+  });
+
   it('does not search when the colour rule has no plan', () => {
     const r = buildWithLayout({ ...spec(3), colours: { count: 2, rule: 'neighbour-distinct' } }).model.report;
     expect(r.errors.map((e) => e.code)).toEqual(['COLOUR.NO_PLAN']);

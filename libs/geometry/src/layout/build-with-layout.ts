@@ -8,6 +8,7 @@ import {
   scaleSummary,
   solveModelColourPlan,
   buildModel,
+  noFitReason,
 } from '../build';
 import { type ColourPlan } from '../colour';
 import { SpecValidationError, validateSpec, type ResolvedSpec } from '../spec/validate-spec';
@@ -169,8 +170,8 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
       code: 'SCALE.NO_FIT',
       message: hi.tooSmall
         ? `no size fits ${sheetText}: even the largest model that fits ${sheets === 1 ? 'it' : 'them'} ` +
-          `(${lengthText(Math.round(model.report.diameterMm * 10) / 10)} mm across) has design errors at ${stock}; ` +
-          'choose larger sheets or thinner stock, or change the design'
+          `(${lengthText(Math.round(model.report.diameterMm * 10) / 10)} mm across) ` +
+          noFitReason(model.report.errors, spec, 'larger sheets')
         : small
           ? `no size fits ${sheetText}: the sizes small enough to fit have design errors at ${stock} (the ` +
             'slots take too much of the pieces); allow more sheets, choose larger sheets or thinner stock'

@@ -105,6 +105,21 @@ describe('fitBed scale', () => {
     expect(fine.errors).toEqual([]);
   });
 
+  it('says to change the design, not the bed, when its pieces cross nowhere at any size', () => {
+    // A tetrahedron's face has a circumradius of 2√2 ≈ 2.83 × the plane distance (from memory): triangles of
+    // 2.2 lie inside their faces and reach no line where two planes meet, at any size.
+    const fitBed: object = {
+      scale: { by: 'fitBed' },
+      bed: { widthMm: 600, heightMm: 400 },
+      machine: { kind: 'router', toolDiameterMm: 3.175 },
+    };
+    const r = buildModel(design({ solid: 'tetrahedron', piece: { sides: 3, size: 2.2 }, ...fitBed })).report;
+    expect(r.errors.map((e) => e.code)).toContain('DESIGN.NO_CROSSINGS');
+    const said = r.errors.find((e) => e.code === 'SCALE.NO_FIT')?.message ?? '';
+    expect(said).toMatch(/has errors at every size \(no two pieces touch.*\); change the design$/);
+    expect(said).not.toMatch(/larger bed/);
+  });
+
   it('holds a fit on a huge bed at the largest scale a spec may give, so the size found can be rebuilt', () => {
     // On a 10 m bed the cube's pieces would fit at a diameter far over MAX_SCALE_MM (10,000 mm).
     const r = buildModel(
