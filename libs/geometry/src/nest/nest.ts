@@ -80,6 +80,7 @@ import {
   toIntPath,
 } from './clipper-adapter';
 import { lengthText } from '../math/length-text';
+import { MAX_SHEET_MM } from '../spec/validate-spec';
 
 export interface NestSheetSize {
   widthMm: number;
@@ -169,10 +170,17 @@ const MIN_PATTERN_SHEET_SHARE = 0.25;
 
 /**
  * What one nesting run takes: beyond these the integer geometry (1 µm units) loses precision or the run
- * would take minutes and gigabytes. A sheet side of 100 m, a gap or margin of 10 m, points within 1 km of
- * their part's origin, and 100,000 copies in all.
+ * would take minutes and gigabytes. A sheet side of 10 m (as a design's stock sheet, MAX_SHEET_MM), a gap or
+ * margin of 10 m, points within 1 km of their part's origin, and 100,000 copies in all. Sheets larger than
+ * any stock or bed put Clipper past its fast integer range (±47 m in our units) and give bottom-left fill
+ * columns of thousands of copies: 2,000 small triangles took 96 s on a 100 m sheet, 2.5 s on 2440 × 2440.
  */
-export const NEST_LIMITS = { sheetMm: 100_000, spacingMm: 10_000, coordinateMm: 1_000_000, copies: 100_000 };
+export const NEST_LIMITS = {
+  sheetMm: MAX_SHEET_MM,
+  spacingMm: 10_000,
+  coordinateMm: 1_000_000,
+  copies: 100_000,
+};
 
 function fail(code: NestErrorCode, message: string, partIds: string[] = []): NestResult {
   return { ok: false, error: { code, message, partIds } };
