@@ -22,8 +22,11 @@ export function pieceToDxf(piece: PieceDrawing, options: WriterOptions = {}): st
   const text = piece.label ?? piece.id;
   if (options.marks !== false && text) {
     const { point, clearance } = labelPoint(piece.outline);
-    d.setActiveLayer(DXF_LAYERS.mark.name);
-    d.drawText(point[0], point[1], labelHeight(clearance, text), 0, text, 'center', 'middle');
+    const h = labelHeight(clearance, text);
+    if (h !== null) {
+      d.setActiveLayer(DXF_LAYERS.mark.name);
+      d.drawText(point[0], point[1], h, 0, text, 'center', 'middle');
+    }
   }
   return d.toDxfString();
 }

@@ -62,7 +62,15 @@ function searchLabelPoint(poly: Polygon): { point: Vec2; clearance: number } {
   return { point: best, clearance: Math.max(0, bestD) };
 }
 
-/** Text height for a piece label, mm: fits the clearance, between 1.5 and 6 mm. */
-export function labelHeight(clearance: number, text: string): number {
-  return Math.max(1.5, Math.min(6, (clearance * 1.6) / Math.max(2, text.length)));
+/** The smallest label worth engraving or reading on a drawing, mm. */
+export const MIN_LABEL_HEIGHT_MM = 1.5;
+
+/**
+ * Text height for a piece label, mm: fits the clearance (the text's box, about 0.6 × height per character
+ * wide, stays inside the circle of that radius), at most 6 mm; null when the piece leaves no room for
+ * MIN_LABEL_HEIGHT_MM, so that the label is left off instead of running over the cut line.
+ */
+export function labelHeight(clearance: number, text: string): number | null {
+  const h = Math.min(6, (clearance * 1.6) / Math.max(2, text.length));
+  return h >= MIN_LABEL_HEIGHT_MM ? h : null;
 }

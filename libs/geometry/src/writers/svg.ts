@@ -1,6 +1,6 @@
 import makerjs from 'makerjs';
 import { type Vec2 } from '../math/vec';
-import { labelHeight, labelPoint } from './label';
+import { MIN_LABEL_HEIGHT_MM, labelHeight, labelPoint } from './label';
 
 /** What the writers need of a piece: its id and its outline (mm, piece frame, counter-clockwise). */
 export interface PieceDrawing {
@@ -30,6 +30,7 @@ export function pieceToModel(piece: PieceDrawing, options: WriterOptions = {}): 
   if (options.marks !== false && text) {
     const { point, clearance } = labelPoint(piece.outline);
     const h = labelHeight(clearance, text);
+    if (h === null) return model;
     const mark: makerjs.IModel = {
       layer: 'mark',
       caption: { text, anchor: new makerjs.paths.Line([point[0] - h, point[1]], [point[0] + h, point[1]]) },
@@ -39,8 +40,8 @@ export function pieceToModel(piece: PieceDrawing, options: WriterOptions = {}): 
   return model;
 }
 
-/** Label height used in a drawing, mm (the SVG font size). */
-export function markHeight(piece: PieceDrawing): number {
+/** Label height used in a drawing, mm (the SVG font size); null when the piece has no room for a label. */
+export function markHeight(piece: PieceDrawing): number | null {
   const text = piece.label ?? piece.id;
   return labelHeight(labelPoint(piece.outline).clearance, text);
 }
@@ -54,7 +55,7 @@ export function pieceToSvg(piece: PieceDrawing, options: WriterOptions = {}): st
   return makerjs.exporter.toSVG(model, {
     units: makerjs.unitType.Millimeter,
     strokeWidth: '0.01mm',
-    fontSize: `${markHeight(piece).toFixed(2)}`,
+    fontSize: `${(markHeight(piece) ?? MIN_LABEL_HEIGHT_MM).toFixed(2)}`,
     useSvgPathOnly: true,
     accuracy: 0.0001,
     layerOptions: { cut: { stroke: '#000000' }, mark: { stroke: 'none', fill: '#0000ff' } },

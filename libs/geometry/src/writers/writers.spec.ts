@@ -31,6 +31,27 @@ describe('DXF writer', () => {
     expect(Object.keys(doc?.tables.layer.layers ?? {})).toEqual(expect.arrayContaining(['cut', 'mark']));
   });
 
+  it('sizes the label to the room inside the piece, and leaves it off a piece too small to hold it', () => {
+    const square = (side: number): Vec2[] => [
+      [0, 0],
+      [side, 0],
+      [side, side],
+      [0, side],
+    ];
+    const texts = (side: number) =>
+      (new DxfParser().parseSync(pieceToDxf({ id: 'P12', outline: square(side) }))?.entities ?? []).filter(
+        (e) => e.type === 'TEXT',
+      ) as unknown as { textHeight: number; startPoint: { x: number; y: number } }[];
+    // A 40 mm square: room for the 6 mm cap. Its text box (about 0.6 × height per character wide, a common
+    // proportion of engraving fonts, from memory) stays inside the inscribed circle of radius 20 mm.
+    const [big] = texts(40);
+    expect(big?.textHeight).toBe(6);
+    expect(Math.hypot((0.6 * 6 * 3) / 2, 6 / 2)).toBeLessThan(20);
+    // A 5 mm square has 2.5 mm of room: "P12" at the 1.5 mm least height would be 2.7 mm wide, so no label.
+    expect(texts(5)).toEqual([]);
+    expect(pieceToSvg({ id: 'P12', outline: square(5) })).not.toMatch(/<text/);
+  });
+
   it('keeps the slot widths: measured from the parsed DXF they equal the drawn widths', () => {
     const m = buildModel(cubeStars83({ machine: { kind: 'laser', kerfMm: 0.1 } }));
     for (const piece of m.pieces.slice(0, 2)) {
