@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { inchesText, inchesToMm } from './length-field';
+import { inchesText, inchesToMm, messageInInches } from './length-field';
 
 // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; NIST SP 811).
 describe('inch fields over millimetre values', () => {
@@ -20,5 +20,17 @@ describe('inch fields over millimetre values', () => {
     expect(inchesToMm('')).toBeNaN();
     expect(inchesToMm('  ')).toBeNaN();
     expect(inchesToMm('1e')).toBeNaN();
+  });
+
+  it("says a check's limits in inches to a reader typing inches", () => {
+    expect(messageInInches('At most 100 mm')).toBe('At most 3.937 in');
+    expect(messageInInches('At least 1 mm: a smaller model cannot be cut')).toBe(
+      'At least 0.0394 in: a smaller model cannot be cut',
+    );
+    expect(messageInInches('Between −2 and 2 mm')).toBe('Between −0.0787 and 0.0787 in');
+    expect(messageInInches('Leaves no room inside the 5 mm margins: more than 10 mm')).toBe(
+      'Leaves no room inside the 0.1969 in margins: more than 0.3937 in',
+    );
+    expect(messageInInches('Enter the sheet width')).toBe('Enter the sheet width');
   });
 });

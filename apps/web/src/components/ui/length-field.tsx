@@ -28,10 +28,31 @@ export function inchesToMm(text: string): number {
   return Number.isFinite(inches) ? Math.round(inches * MM_PER_INCH * 1e6) / 1e6 : Number.NaN;
 }
 
+const NUMBER = String.raw`[−-]?\d+(?:\.\d+)?`;
+const MM_RANGE = new RegExp(String.raw`(${NUMBER})( and | to |–)(${NUMBER}) mm\b`, 'g');
+const MM_LENGTH = new RegExp(String.raw`(${NUMBER}) mm\b`, 'g');
+
+/** A number as a message writes it ("−2" with a minus sign) in inches, as typed back ("0.0787"). */
+function inchesOf(text: string): string {
+  const mm = Number(text.replace('−', '-'));
+  const inches = inchesText(Math.abs(mm));
+  return mm < 0 ? `−${inches}` : inches;
+}
+
+/**
+ * A form's message for a length, its millimetres said in inches for a reader who types inches: "At most
+ * 100 mm" becomes "At most 3.937 in", "Between −2 and 2 mm" becomes "Between −0.0787 and 0.0787 in".
+ */
+export function messageInInches(message: string): string {
+  return message
+    .replace(MM_RANGE, (_, a: string, join: string, b: string) => `${inchesOf(a)}${join}${inchesOf(b)} in`)
+    .replace(MM_LENGTH, (_, a: string) => `${inchesOf(a)} in`);
+}
+
 /**
  * A length in a form that keeps millimetres. In millimetres it is a NumberField; in inches the reader sees and
  * types inches (the label says "(in)") and the form still receives millimetres, so the spec, its checks and
- * everything saved stay in millimetres. Messages from the form's checks still give their limits in mm.
+ * everything saved stay in millimetres. Messages from the form's checks give their limits in inches too.
  */
 export function LengthField<T extends FieldValues>({
   unit,
@@ -69,7 +90,7 @@ export function LengthField<T extends FieldValues>({
           onMm={field.onChange}
           onBlur={field.onBlur}
           inputRef={field.ref}
-          error={fieldState.error?.message}
+          error={fieldState.error?.message && messageInInches(fieldState.error.message)}
           helperText={helperText}
         />
       )}

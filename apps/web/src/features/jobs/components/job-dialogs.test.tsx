@@ -189,8 +189,8 @@ describe('record the cut dialog, in inches', () => {
     const kerf = screen.getByLabelText('Measured kerf (in, optional)');
     await user.type(kerf, '0.1');
     await user.click(screen.getByRole('button', { name: 'Record the cut' }));
-    // 0.1 in is 2.54 mm, past a laser's 2 mm: the limit is said in the form's own unit.
-    expect(await screen.findByText('At most 2 mm')).toBeInTheDocument();
+    // 0.1 in is 2.54 mm, past a laser's 2 mm: the limit is said in inches too (2 mm ≈ 0.0787 in).
+    expect(await screen.findByText('At most 0.0787 in')).toBeInTheDocument();
     await user.clear(kerf);
     await user.type(kerf, '0.0065');
     await user.click(screen.getByRole('button', { name: 'Record the cut' }));
