@@ -68,6 +68,22 @@ describe('design studio spec form', () => {
     expect(await screen.findByText('Give the design a name')).toBeInTheDocument();
   });
 
+  it('clears the message of the step when the sides put it right, as of the sides when the step does', async () => {
+    const { user } = renderWithProviders(<Harness />);
+    const sides = await screen.findByLabelText('Sides (n)');
+    const step = screen.getByLabelText('Step (k)');
+    await user.clear(step);
+    await user.type(step, '2');
+    await user.clear(sides);
+    await user.type(sides, '4');
+    expect(await screen.findByText('Step must be less than half the sides (below 2)')).toBeInTheDocument();
+    expect(step).toHaveAttribute('aria-invalid', 'true');
+    await user.clear(sides);
+    await user.type(sides, '5');
+    await waitFor(() => expect(step).toHaveAttribute('aria-invalid', 'false'));
+    expect(screen.queryByText(/Step must be less than half the sides/)).not.toBeInTheDocument();
+  });
+
   it('asks for a number when a length is emptied, and for a positive thickness', async () => {
     const { user } = renderWithProviders(<Harness />);
     await user.clear(await screen.findByLabelText('Scale (mm)'));

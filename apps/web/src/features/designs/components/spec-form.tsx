@@ -32,13 +32,15 @@ import { type LengthUnit } from '../../../lib/units';
 const SOLIDS = listSolids();
 
 /**
- * Fields checked together (the sheet must keep room inside its margins; a fit needs a sheet per colour): a
- * change to one re-checks the others, so a message goes away with whichever field put it right.
+ * Fields checked together (the sheet must keep room inside its margins; a fit needs a sheet per colour; a
+ * star's step stays under half its sides): a change to one re-checks the others, so a message goes away with
+ * whichever field put it right.
  */
 const SHEET_RULES: RegisterOptions<DesignFormValues> = {
   valueAsNumber: true,
   deps: ['sheetWidthMm', 'sheetHeightMm', 'marginMm'],
 };
+const SHAPE_RULES: RegisterOptions<DesignFormValues> = { valueAsNumber: true, deps: ['sides', 'step'] };
 const COLOUR_SHEETS_RULES: RegisterOptions<DesignFormValues> = {
   valueAsNumber: true,
   deps: ['fitSheets', 'colourCount'],
@@ -184,11 +186,19 @@ export const SpecForm = memo(function SpecForm({
 
       <Section title="Piece shape">
         <Stack direction="row" spacing={1}>
-          <NumberField label={DESIGN_FIELD_LABELS.sides} name="sides" form={fields} size="small" integer />
+          <NumberField
+            label={DESIGN_FIELD_LABELS.sides}
+            name="sides"
+            form={fields}
+            rules={SHAPE_RULES}
+            size="small"
+            integer
+          />
           <NumberField
             label={DESIGN_FIELD_LABELS.step}
             name="step"
             form={fields}
+            rules={SHAPE_RULES}
             size="small"
             helperText="1 = polygon"
             integer

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { materialFixture } from '../../../testing/fixtures';
-import { isStockOf, stockOptions } from './stock-sheet-picker';
+import { isStockOf, keepsStock, stockOptions, stockThicknessText, stockToAdopt } from './stock-sheet-picker';
 
 describe('workshop stock in the studio', () => {
   const birch = materialFixture({
@@ -31,5 +31,31 @@ describe('workshop stock in the studio', () => {
     // Another board's 3.05 mm is not this plywood, near as it is.
     expect(at(600, 400, 3.05)).toBe(false);
     expect(at(600, 410, 3)).toBe(false);
+  });
+
+  it('starts a new design from the stock its fields name, worked for the thickness the stock measures', () => {
+    const options = stockOptions([birch], 'laser');
+    const fields = (t: number, w = 600) => ({ sheetWidthMm: w, sheetHeightMm: 400, thicknessMm: t });
+    // 600 × 400 at the nominal 3 mm is the birch: its slots are worked for the 2.9 mm it measures.
+    expect(stockToAdopt(options, fields(3), true)?.thicknessMm).toBe(2.9);
+    // Already at 2.9 mm, nothing to change; a sheet the workshop does not keep takes the first stock.
+    expect(stockToAdopt(options, fields(2.9), true)).toBeNull();
+    expect(stockToAdopt(options, fields(3, 610), true)?.key).toBe('m-birch:0');
+    // Fields the reader changed are left alone.
+    expect(stockToAdopt(options, fields(3), false)).toBeNull();
+    expect(stockToAdopt([], fields(3, 610), true)).toBeNull();
+  });
+
+  it('says which thickness the slots follow when the fields hold the nominal one of stock measured otherwise', () => {
+    const [b] = stockOptions([birch], 'laser');
+    expect(stockThicknessText(b!, 2.9, 'mm')).toBe('2.90 mm thick as measured');
+    expect(stockThicknessText(b!, 3, 'mm')).toBe(
+      'sold as 3.00 mm and measured at 2.90 mm: the slots are worked for the 3.00 mm in the fields',
+    );
+  });
+
+  it('tells whether a material keeps the sheet and thickness of the fields', () => {
+    const at = (t: number) => keepsStock(birch, { sheetWidthMm: 400, sheetHeightMm: 600, thicknessMm: t });
+    expect([at(3), at(2.9), at(2.85)]).toEqual([true, true, false]);
   });
 });

@@ -57,10 +57,60 @@ export function isStockOf(
   o: StockOption,
   v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
 ): boolean {
-  const sameSize =
-    (o.widthMm === v.sheetWidthMm && o.heightMm === v.sheetHeightMm) ||
-    (o.widthMm === v.sheetHeightMm && o.heightMm === v.sheetWidthMm);
-  return sameSize && o.thicknessesMm.some((t) => Math.abs(t - v.thicknessMm) < 0.0005);
+  return isSheetOf(o, v) && o.thicknessesMm.some((t) => Math.abs(t - v.thicknessMm) < 0.0005);
+}
+
+function isSheetOf(
+  s: { widthMm: number; heightMm: number },
+  v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm'>,
+): boolean {
+  return (
+    (s.widthMm === v.sheetWidthMm && s.heightMm === v.sheetHeightMm) ||
+    (s.widthMm === v.sheetHeightMm && s.heightMm === v.sheetWidthMm)
+  );
+}
+
+/**
+ * The thickness said beside stock: the one its slots are worked for; or, when the form holds the stock's
+ * nominal thickness while it measures otherwise, both, so the reader sees which one the slots follow.
+ */
+export function stockThicknessText(o: StockOption, formThicknessMm: number, unit: LengthUnit): string {
+  const measured = o.thicknessesMm.length > 1;
+  if (Math.abs(o.thicknessMm - formThicknessMm) < 0.0005)
+    return `${formatLength(o.thicknessMm, unit)} thick${measured ? ' as measured' : ''}`;
+  return (
+    `sold as ${formatLength(formThicknessMm, unit)} and measured at ${formatLength(o.thicknessMm, unit)}: ` +
+    `the slots are worked for the ${formatLength(formThicknessMm, unit)} in the fields`
+  );
+}
+
+/** Whether a material keeps the form's sheet (either way round) at the form's thickness (see isStockOf). */
+export function keepsStock(
+  m: Pick<MaterialView, 'stockSheets' | 'nominalThicknessMm' | 'measuredThicknessMm'>,
+  v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
+): boolean {
+  const thicknesses = [m.nominalThicknessMm, m.measuredThicknessMm].filter((t): t is number => t != null);
+  return (
+    m.stockSheets.some((sheet) => isSheetOf(sheet, v)) &&
+    thicknesses.some((t) => Math.abs(t - v.thicknessMm) < 0.0005)
+  );
+}
+
+/**
+ * The stock a new design starts from, once the materials are known, or null to leave the form as it is: none
+ * when the reader has changed the sheet or thickness; the stock the form's numbers already are, when its
+ * thickness is only the nominal one (the slots are then worked for the measured thickness, as a pick would
+ * set, and the estimate takes that stock); else the first stock offered when the form's sheet is none kept.
+ */
+export function stockToAdopt(
+  options: readonly StockOption[],
+  v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
+  untouched: boolean,
+): StockOption | null {
+  if (!untouched) return null;
+  const match = options.find((o) => isStockOf(o, v));
+  if (match) return Math.abs(match.thicknessMm - v.thicknessMm) < 0.0005 ? null : match;
+  return options[0] ?? null;
 }
 
 const SHEET_FIELDS = ['sheetWidthMm', 'sheetHeightMm', 'thicknessMm'] as const;
@@ -106,9 +156,9 @@ export function StockSheetPicker({
   useEffect(() => {
     if (!adoptFirst || adopted.current || !materials) return;
     adopted.current = true;
-    const first = options[0];
     const untouched = SHEET_FIELDS.every((f) => !form.getFieldState(f).isDirty);
-    if (first && untouched && !options.some((o) => isStockOf(o, form.getValues()))) use(first, false);
+    const start = stockToAdopt(options, form.getValues(), untouched);
+    if (start) use(start, false);
     // Once, when the materials first arrive.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [adoptFirst, materials]);
@@ -127,7 +177,7 @@ export function StockSheetPicker({
       slotProps={NATIVE_SELECT}
       helperText={
         current
-          ? `Sheet ${formatSheetSize(current, unit)}, ${formatLength(current.thicknessMm, unit)} thick${current.thicknessesMm.length > 1 ? ' as measured' : ''}${current.flexible ? ', flexible' : ''}. The fabricator confirms the stock when preparing.`
+          ? `Sheet ${formatSheetSize(current, unit)}, ${stockThicknessText(current, thicknessMm, unit)}${current.flexible ? ', flexible' : ''}. The fabricator confirms the stock when preparing.`
           : 'Picking one sets the sheet size, thickness and flexibility; the fabricator confirms the stock when preparing.'
       }
     >

@@ -25,6 +25,8 @@ interface StudioHeaderProps {
   canSave: boolean;
 }
 
+const SAVE_NOT_YOURS = 'Only its owner or a supervisor saves this design: duplicate it to keep your changes.';
+
 /** The studio's title, unit switch and actions. Memoised: typing in the form leaves it alone. */
 export const StudioHeader = memo(function StudioHeader({
   design,
@@ -46,14 +48,16 @@ export const StudioHeader = memo(function StudioHeader({
         <Typography color="text.secondary">
           {design ? `${design.name} · version ${design.version} · by ${design.ownerName}` : 'A new design'}
         </Typography>
+        {/* Said on the page, not only in the tooltip: a disabled button takes no focus, so a keyboard or
+            screen reader never meets the tooltip. */}
+        {canSave ? null : (
+          <Typography variant="body2" color="text.secondary" data-testid="save-not-yours">
+            {SAVE_NOT_YOURS}
+          </Typography>
+        )}
       </Box>
       <UnitToggle unit={unit} onUnit={onUnit} />
-      <Tooltip
-        title={
-          canSave ? '' : 'Only its owner or a supervisor saves this design: duplicate it to keep your changes'
-        }
-        describeChild
-      >
+      <Tooltip title={canSave ? '' : SAVE_NOT_YOURS} describeChild>
         <Box component="span" sx={{ display: 'inline-flex' }} data-testid="save-wrapper">
           <Button
             ref={saveRef}

@@ -75,6 +75,19 @@ describe('the machine the estimate takes at first', () => {
   ] as const;
   const threeMm = (materialId: string) => materialId !== 'card';
 
+  it('takes the stock the design names (sheet and thickness) before other stock sold as its thickness', () => {
+    // The audit's case: the fields name birch plywood; acrylic, listed first, is sold as 3 mm too.
+    const listed = [
+      { key: 'co2/acrylic', profileKind: 'co2-laser', materialId: 'acrylic' },
+      { key: 'co2/birch', profileKind: 'co2-laser', materialId: 'birch' },
+      { key: 'router/birch', profileKind: 'cnc-router', materialId: 'birch' },
+    ] as const;
+    const named = (materialId: string) => materialId === 'birch';
+    expect(defaultEstimateChoice(listed, 'laser', () => true, named)?.key).toBe('co2/birch');
+    expect(defaultEstimateChoice(listed, 'router', () => true, named)?.key).toBe('router/birch');
+    expect(defaultEstimateChoice(listed, 'laser', () => true)?.key).toBe('co2/acrylic');
+  });
+
   it("prefers a machine of the design's own kind with stock of its thickness", () => {
     expect(defaultEstimateChoice(choices, 'laser', threeMm)?.key).toBe('co2/acrylic');
     expect(defaultEstimateChoice(choices, 'router', threeMm)?.key).toBe('router/pvc');

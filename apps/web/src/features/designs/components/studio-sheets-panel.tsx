@@ -26,6 +26,7 @@ import { type StudioFit } from '../hooks/use-studio-preview';
 import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
 import { colourPlanSentence } from './colour-plan-notice';
+import { keepsStock } from './stock-sheet-picker';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
 /**
@@ -82,20 +83,24 @@ export function materialThickness(
 }
 
 /**
- * The machine the estimate takes until the reader picks one: a profile of the design's own machine kind (a
- * laser design is cut by a beam or blade, a router design by a bit) with stock sold as the design's thickness,
- * else, as before, any machine with such stock; none when no stock matches.
+ * The machine the estimate takes until the reader picks one. First the stock the design's fields name (its
+ * sheet size at its thickness, as the studio's stock picker shows it), then any stock sold as the design's
+ * thickness; within each, a profile of the design's own machine kind (a laser design is cut by a beam or
+ * blade, a router design by a bit) before another. None when no stock matches.
  */
 export function defaultEstimateChoice<C extends { profileKind: MachineProfileKind; materialId: string }>(
   choices: readonly C[],
   designKind: MachineKind | null,
   soldAs: (materialId: string) => boolean,
+  namedStock: (materialId: string) => boolean = () => false,
 ): C | undefined {
-  const matching = choices.filter((c) => soldAs(c.materialId));
-  return (
-    matching.find((c) => designKind !== null && geometryMachineKind(c.profileKind) === designKind) ??
-    matching[0]
-  );
+  const ownKind = (c: C) => designKind !== null && geometryMachineKind(c.profileKind) === designKind;
+  for (const matches of [namedStock, soldAs]) {
+    const matching = choices.filter((c) => matches(c.materialId));
+    const found = matching.find(ownKind) ?? matching[0];
+    if (found) return found;
+  }
+  return undefined;
 }
 
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
@@ -192,8 +197,23 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
       )
     );
   };
+  // The stock the fields name: the sheet laid out, at the design's thickness.
+  const namedStock = (materialId: string) => {
+    const m = materials.data?.items.find((x) => x.id === materialId);
+    return (
+      m !== undefined &&
+      sheet !== undefined &&
+      designThicknessMm !== null &&
+      keepsStock(m, {
+        sheetWidthMm: sheet.widthMm,
+        sheetHeightMm: sheet.heightMm,
+        thicknessMm: designThicknessMm,
+      })
+    );
+  };
   const designKind = (layoutSpec ?? spec)?.machine.kind ?? null;
-  const choiceKey = machineChoice ?? defaultEstimateChoice(choices, designKind, soldAs)?.key ?? '';
+  const choiceKey =
+    machineChoice ?? defaultEstimateChoice(choices, designKind, soldAs, namedStock)?.key ?? '';
   const choice = choices.find((c) => c.key === choiceKey);
   const chosen = choice ? thickness(choice.setting.materialId) : null;
   const thicknessWarning =

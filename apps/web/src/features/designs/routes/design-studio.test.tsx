@@ -261,6 +261,23 @@ describe('design studio', () => {
     await waitFor(() => expect(picker).toHaveDisplayValue('Typed in (not a listed sheet)'));
   });
 
+  it('starts a new design on the stock its usual sheet is, worked for the thickness it measures', async () => {
+    // The audit's case: 600 × 400 at 3 mm is birch plywood that measures 2.9 mm.
+    const birch = materialFixture({
+      id: 'm-birch',
+      name: 'Birch plywood 3 mm',
+      nominalThicknessMm: 3,
+      measuredThicknessMm: 2.9,
+    });
+    studioApi(designFixture(), userFixture('hobbyist'), [card, birch]);
+    renderApp('/designs/new', { token: 't' });
+    const picker = await screen.findByLabelText('Workshop stock');
+    await waitFor(() => expect(screen.getByLabelText('Thickness (mm)')).toHaveValue(2.9));
+    expect(screen.getByLabelText('Sheet width (mm)')).toHaveValue(600);
+    expect(picker).toHaveDisplayValue('Birch plywood 3 mm, 600 × 400 mm');
+    expect(screen.getByText(/^Sheet 600 × 400 mm, 2\.90 mm thick as measured\./)).toBeInTheDocument();
+  });
+
   it('keeps a saved design as it is and marks a stock picked as an unsaved change', async () => {
     studioApi(designFixture(), userFixture('hobbyist'), [card]);
     const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
@@ -473,6 +490,10 @@ describe('design studio', () => {
       const save = await screen.findByRole('button', { name: 'Save' });
       if (allowed) expect(save).toBeEnabled();
       else expect(save).toBeDisabled();
+      // The reason is on the page, where a keyboard or screen reader meets it, not only in a tooltip.
+      const said = screen.queryByText(/^Only its owner or a supervisor saves this design/);
+      if (allowed) expect(said).not.toBeInTheDocument();
+      else expect(said).toBeVisible();
       unmount();
     }
   });
