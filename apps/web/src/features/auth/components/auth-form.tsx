@@ -1,6 +1,7 @@
+import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Stack from '@mui/material/Stack';
-import { type FormEvent, type ReactNode, useState } from 'react';
+import { type FormEvent, type ReactNode, useEffect, useRef, useState } from 'react';
 import { type FieldValues, type Path, type UseFormReturn } from 'react-hook-form';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
@@ -50,9 +51,21 @@ export function AuthForm({
   submitLabel: string;
   children: ReactNode;
 }) {
+  // The button is disabled while the form is sent, so the keyboard falls to the page when it was there: a
+  // failed attempt puts it on the message instead (Tab then goes on to the first field).
+  const message = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    if (!formError) return;
+    // Enter pressed in a field leaves the keyboard there, next to what to correct.
+    const at = document.activeElement;
+    const inField = at instanceof HTMLInputElement && message.current?.closest('form')?.contains(at) === true;
+    if (!inField) message.current?.focus();
+  }, [formError]);
   return (
     <form noValidate onSubmit={(event) => void onSubmit(event)} aria-label={label}>
-      <FormErrorAlert error={formError} />
+      <Box ref={message} tabIndex={-1} sx={{ '&:focus': { outline: 'none' } }} data-testid="form-message">
+        <FormErrorAlert error={formError} />
+      </Box>
       <Stack spacing={2.5}>
         {children}
         <Button type="submit" variant="contained" size="large" loading={submitting}>

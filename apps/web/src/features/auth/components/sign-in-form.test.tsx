@@ -51,6 +51,25 @@ describe('SignInForm', () => {
     expect(await screen.findByRole('alert')).toHaveTextContent('E-mail or password is wrong');
     expect(onSuccess).not.toHaveBeenCalled();
     expect(getAccessToken()).toBeNull();
+    // Sent with the button (disabled while sending), the keyboard goes to the message, not to the page.
+    await waitFor(() => expect(screen.getByTestId('form-message')).toHaveFocus());
+  });
+
+  it('leaves the keyboard in the password field when Enter was pressed there and the answer is no', async () => {
+    stubFetch({
+      'POST /api/auth/login': () =>
+        json(401, {
+          statusCode: 401,
+          code: 'AUTH.INVALID_CREDENTIALS',
+          message: 'E-mail or password is wrong',
+          requestId: 'r2',
+        }),
+    });
+    const { user } = setup();
+    await user.type(screen.getByLabelText(/E-mail/), 'operator@workshop.example');
+    await user.type(screen.getByLabelText(/Password/), 'not-the-password{Enter}');
+    expect(await screen.findByRole('alert')).toHaveTextContent('E-mail or password is wrong');
+    expect(screen.getByLabelText(/Password/)).toHaveFocus();
   });
 
   it('drops the wrong-password message when the form is sent again, even with empty fields', async () => {

@@ -69,6 +69,28 @@ describe('safety dialog', () => {
     expect(within(notices).getByLabelText(/I have read these notices/)).toBeInTheDocument();
   });
 
+  it('puts the keyboard on Close once the notices are acknowledged and the button has gone', async () => {
+    let acknowledged = false;
+    stubFetch({
+      [`GET /api/jobs/${jobId}/safety`]: () =>
+        json(200, {
+          ...safety,
+          acknowledged,
+          acknowledgedAt: acknowledged ? '2026-01-02T08:00:00.000Z' : null,
+        }),
+      [`POST /api/jobs/${jobId}/safety/acknowledge`]: () => {
+        acknowledged = true;
+        return json(201, { ...safety, acknowledged, acknowledgedAt: '2026-01-02T08:00:00.000Z' });
+      },
+    });
+    const { user } = renderWithProviders(<SafetyDialog jobId={jobId} open onClose={() => undefined} />);
+    await user.click(await screen.findByLabelText(/I have read these notices/));
+    await user.click(screen.getByRole('button', { name: 'Acknowledge' }));
+    await screen.findByTestId('safety-acknowledged');
+    expect(screen.queryByRole('button', { name: 'Acknowledge' })).toBeNull();
+    expect(screen.getByRole('button', { name: 'Close' })).toHaveFocus();
+  });
+
   it('shows a fabricator the notices to read, with no acknowledgement the server would refuse', async () => {
     stubFetch({ [`GET /api/jobs/${jobId}/safety`]: () => json(200, safety) });
     renderWithProviders(<SafetyDialog jobId={jobId} open onClose={() => undefined} canAcknowledge={false} />);

@@ -12,7 +12,7 @@ import Stack from '@mui/material/Stack';
 import { useTheme } from '@mui/material/styles';
 import Typography from '@mui/material/Typography';
 import useMediaQuery from '@mui/material/useMediaQuery';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { MarkdownText } from '../../../components/ui/markdown-text';
 import { useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
@@ -41,6 +41,8 @@ export function SafetyDialog({
   const safety = useJobSafety(jobId, open);
   const acknowledge = useAcknowledgeJobSafety(jobId);
   const [read, setRead] = useState(false);
+  // Acknowledged, the button goes: the keyboard moves on to Close instead of falling to the dialog.
+  const closeRef = useRef<HTMLButtonElement>(null);
   const view = safety.data;
   // On a phone the notices (tables included) get the whole screen.
   const phone = useMediaQuery(useTheme().breakpoints.down('sm'));
@@ -116,16 +118,21 @@ export function SafetyDialog({
             <FormErrorAlert error={acknowledge.error} />
           </Box>
         ) : null}
-        <Button onClick={onClose}>Close</Button>
+        <Button ref={closeRef} onClick={onClose}>
+          Close
+        </Button>
         {view && !view.acknowledged && canAcknowledge ? (
           <Button
             variant="contained"
             disabled={!read || acknowledge.isPending}
             onClick={() =>
-              acknowledge.mutate({
-                notices: view.notices.map((n) => ({ id: n.id, version: n.version })),
-                localRulesVersion: view.localRules?.version ?? null,
-              })
+              acknowledge.mutate(
+                {
+                  notices: view.notices.map((n) => ({ id: n.id, version: n.version })),
+                  localRulesVersion: view.localRules?.version ?? null,
+                },
+                { onSuccess: () => closeRef.current?.focus() },
+              )
             }
           >
             Acknowledge
