@@ -13,6 +13,8 @@ export interface PendingChange {
   confirmLabel: string;
   /** Deactivation locks a person out: its button is coloured as a warning. */
   destructive: boolean;
+  /** Cancel has the keyboard at first, so that Enter twice does not make the change (as for destructive). */
+  cancelFirst?: boolean;
 }
 
 interface ConfirmChangeDialogProps {
@@ -25,6 +27,7 @@ interface ConfirmChangeDialogProps {
 
 /** Asks before a change to someone's account takes effect; shows the API's refusal if there is one. */
 export function ConfirmChangeDialog({ change, busy, error, onConfirm, onCancel }: ConfirmChangeDialogProps) {
+  const cancelFirst = Boolean(change?.destructive || change?.cancelFirst);
   return (
     <Dialog
       open={change !== null}
@@ -44,8 +47,9 @@ export function ConfirmChangeDialog({ change, busy, error, onConfirm, onCancel }
         ) : null}
       </DialogContent>
       <DialogActions sx={{ px: 3, pb: 2 }}>
-        {/* For a destructive change the safe choice has the focus, so Enter does not lock someone out. */}
-        <Button onClick={onCancel} disabled={busy} autoFocus={Boolean(change?.destructive)}>
+        {/* For a destructive or far-reaching change the safe choice has the focus, so Enter does not lock
+            someone out or hand them every right. */}
+        <Button onClick={onCancel} disabled={busy} autoFocus={cancelFirst}>
           Cancel
         </Button>
         <Button
@@ -53,7 +57,7 @@ export function ConfirmChangeDialog({ change, busy, error, onConfirm, onCancel }
           color={change?.destructive ? 'error' : 'primary'}
           onClick={onConfirm}
           loading={busy}
-          autoFocus={!change?.destructive}
+          autoFocus={!cancelFirst}
         >
           {change?.confirmLabel}
         </Button>

@@ -120,6 +120,7 @@ describe('People (supervisor)', () => {
     await user.click(within(row).getByRole('combobox', { name: 'Role of Alex Birch' }));
     await user.click(await screen.findByRole('option', { name: 'Fabricator' }));
     const dialog = await screen.findByRole('dialog', { name: 'Make Alex Birch a fabricator?' });
+    await waitFor(() => expect(within(dialog).getByRole('button', { name: 'Change role' })).toHaveFocus());
     await user.click(within(dialog).getByRole('button', { name: 'Change role' }));
 
     await waitFor(() =>
@@ -130,5 +131,18 @@ describe('People (supervisor)', () => {
       ).toHaveTextContent('Fabricator'),
     );
     expect(calls.find((c) => c.method === 'PATCH')?.body).toEqual({ role: 'fabricator' });
+  });
+
+  it("starts on Cancel when a change hands someone a supervisor's rights, so Enter twice does not", async () => {
+    const { calls } = peopleApi([supervisor, hobbyist]);
+    const { user } = renderApp('/people', { token: 't' });
+    const row = await screen.findByTestId('person-alex@workshop.example');
+    await user.click(within(row).getByRole('combobox', { name: 'Role of Alex Birch' }));
+    await user.click(await screen.findByRole('option', { name: 'Supervisor' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Make Alex Birch a supervisor?' });
+    await waitFor(() => expect(within(dialog).getByRole('button', { name: 'Cancel' })).toHaveFocus());
+    await user.keyboard('{Enter}');
+    await waitFor(() => expect(screen.queryByRole('dialog')).not.toBeInTheDocument());
+    expect(calls.some((c) => c.method === 'PATCH')).toBe(false);
   });
 });

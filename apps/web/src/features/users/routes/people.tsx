@@ -37,6 +37,8 @@ export function PeopleRoute() {
           : `${user.displayName} changes from ${ROLE_LABELS[user.role]} to ${ROLE_LABELS[role]} and will see the pages of that role from their next page load.`,
       confirmLabel: 'Change role',
       destructive: false,
+      // Giving or taking a supervisor's rights (people, approvals, everything) is never one Enter too many.
+      cancelFirst: role === 'supervisor' || user.role === 'supervisor',
       variables: { id: user.id, changes: { role } },
       done: `${user.displayName} is now a ${ROLE_LABELS[role].toLowerCase()}.`,
     });
