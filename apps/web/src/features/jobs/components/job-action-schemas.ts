@@ -10,13 +10,17 @@ export const returnJobSchema = z.object({
 });
 export type ReturnJobValues = z.infer<typeof returnJobSchema>;
 
+/** Most sheets one cut may record (the API's RecordCutDto takes up to 1000). */
+const MAX_SHEETS_USED = 1000;
+
 /**
  * A sheet count far above what the preparation laid out: more than twice the prepared sheets, and at least
  * three more (a spoilt sheet cut again or a test cut are everyday). The API takes up to 1000 sheets for
  * any job (RecordCutDto), so the form asks for a confirmation rather than refusing such a count.
  */
 export function isFarAboveSheets(used: number, prepared: number | null): boolean {
-  if (prepared === null || !Number.isFinite(used)) return false;
+  // A count past the form's own limit is refused by the form: nothing to confirm.
+  if (prepared === null || !Number.isFinite(used) || used > MAX_SHEETS_USED) return false;
   return used > Math.max(2 * prepared, prepared + 2);
 }
 
@@ -36,7 +40,7 @@ export function recordCutSchemaFor(machineKind: 'laser' | 'router') {
       .number({ error: 'Enter the sheets used' })
       .int('A whole number of sheets')
       .min(1, 'At least 1 sheet')
-      .max(1000, 'At most 1000 sheets'),
+      .max(MAX_SHEETS_USED, `At most ${MAX_SHEETS_USED} sheets`),
     /** Empty = not measured (undefined until typed in, NaN once cleared). */
     measuredKerfMm: z.union([
       z.undefined(),

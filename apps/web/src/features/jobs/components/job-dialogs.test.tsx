@@ -104,7 +104,20 @@ describe('record the cut dialog, sheets used', () => {
     await user.type(sheets, '{Enter}');
     expect(onSubmit).not.toHaveBeenCalled();
 
-    await user.click(within(warning).getByLabelText('Yes, 999 sheets went into this cut'));
+    // Past the form's own limit there is nothing to confirm: the form refuses it.
+    await user.clear(sheets);
+    await user.type(sheets, '99999');
+    expect(screen.queryByTestId('sheets-far-above')).not.toBeInTheDocument();
+    await user.click(record);
+    expect(await screen.findByText('At most 1000 sheets')).toBeInTheDocument();
+    expect(onSubmit).not.toHaveBeenCalled();
+    await user.clear(sheets);
+    await user.type(sheets, '999');
+    await user.click(
+      within(await screen.findByTestId('sheets-far-above')).getByLabelText(
+        'Yes, 999 sheets went into this cut',
+      ),
+    );
     expect(record).toBeEnabled();
     // Another count is a new question.
     await user.clear(sheets);
