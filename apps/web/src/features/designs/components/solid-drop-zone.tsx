@@ -18,22 +18,28 @@ export function SolidDropZone({
   const [error, setError] = useState<string | null>(null);
   const [over, setOver] = useState(false);
 
+  // A refused file changes nothing: the solid in use, if any, stays, and the message says so (its own
+  // errors, shown with the design's, are then not this file's).
+  const refuse = (message: string) =>
+    setError(
+      upload ? `${message} The design still uses ${upload.name ?? 'the solid uploaded before'}.` : message,
+    );
   const read = (file: File) => {
     setError(null);
     const ext = file.name.split('.').pop()?.toLowerCase();
     if (ext !== 'obj' && ext !== 'off') {
-      setError('Only .obj and .off files of a convex solid can be used.');
+      refuse('Only .obj and .off files of a convex solid can be used.');
       return;
     }
     if (file.size > SOLID_UPLOAD_MAX_BYTES) {
-      setError(`The file is larger than ${SOLID_UPLOAD_MAX_BYTES / 1024 / 1024} MB.`);
+      refuse(`The file is larger than ${SOLID_UPLOAD_MAX_BYTES / 1024 / 1024} MB.`);
       return;
     }
     const reader = new FileReader();
     reader.onprogress = (e) => setProgress(e.lengthComputable ? (100 * e.loaded) / e.total : 50);
     reader.onerror = () => {
       setProgress(null);
-      setError('The file could not be read.');
+      refuse('The file could not be read.');
     };
     reader.onload = () => {
       setProgress(null);

@@ -19,7 +19,8 @@ describe('studio details panel', () => {
         formatLength={(mm) => `${mm.toFixed(1)} mm`}
       />,
     );
-    const tabs = await screen.findByRole('tablist');
+    // Named (WAI-ARIA 1.2: a tablist should have an accessible name).
+    const tabs = await screen.findByRole('tablist', { name: 'Details of the design' });
     expect(screen.getAllByRole('tab').map((t) => t.textContent)).toEqual([
       'Piece',
       `Crossings (${report.crossings.length})`,

@@ -120,6 +120,7 @@ const DetailTabs = memo(function DetailTabs({
       variant="scrollable"
       scrollButtons="auto"
       allowScrollButtonsMobile
+      aria-label="Details of the design"
       sx={{ mb: 2 }}
     >
       <Tab label="Piece" />

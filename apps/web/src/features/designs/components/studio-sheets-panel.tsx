@@ -307,7 +307,9 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
           ) : null}
           {estimate ? (
             <Typography variant="body2" color="text.secondary" sx={{ mt: 1 }}>
-              Estimated without label marking, at the approved version&apos;s speeds and hourly rate.
+              Estimated without label marking, at the approved version&apos;s speeds and hourly rate. A
+              job&apos;s figures follow what its preparation chooses (stock, sheet, colours, copies, labels),
+              so they can differ from these.
             </Typography>
           ) : null}
         </>
