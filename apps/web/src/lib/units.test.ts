@@ -1,12 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  formatHourlyRate,
-  formatLength,
-  formatMinutes,
-  formatMoney,
-  formatRunLength,
-  formatSheetSize,
-} from './units';
+import { formatHourlyRate, formatMinutes, formatMoney, formatRunLength, formatSheetSize } from './units';
 
 describe('figures a workshop reads at a glance', () => {
   it('gives a sheet size with its unit once, as stock is listed (1 in = 25.4 mm exactly)', () => {
@@ -18,10 +11,13 @@ describe('figures a workshop reads at a glance', () => {
   });
 
   it('gives long cut lengths in metres or feet, short ones as before (1 in = 25.4 mm exactly, 1 ft = 12 in)', () => {
-    expect(formatRunLength(4321, 'mm')).toBe(formatLength(4321, 'mm'));
+    expect(formatRunLength(4321, 'mm')).toBe('4,321.0 mm');
+    expect(formatRunLength(7029.43, 'mm')).toBe('7,029.4 mm');
     expect(formatRunLength(1_238_848.2, 'mm')).toBe('1,238.8 m');
     expect(formatRunLength(10_000, 'mm')).toBe('10.0 m');
-    expect(formatRunLength(254, 'in')).toBe('10.000 in');
+    expect(formatRunLength(254, 'in')).toBe('10.0 in');
+    // 16,177.4 mm = 636.9 in, to a tenth as every run length is.
+    expect(formatRunLength(16_177.4, 'in')).toBe('636.9 in');
     // 1,238,848.2 mm = 48,773.6 in = 4,064.5 ft.
     expect(formatRunLength(1_238_848.2, 'in')).toBe('4,064.5 ft');
   });

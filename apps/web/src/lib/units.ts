@@ -23,8 +23,9 @@ export function formatSheetSize(sheet: { widthMm: number; heightMm: number }, un
 }
 
 /**
- * A total length along the cuts: as formatLength up to 10 m (or 100 ft), then in metres (feet) with one
- * decimal and thousands grouped, so that a job's cut length reads at a glance ("1,238.8 m", not "1238848.2 mm").
+ * A total length along the cuts, to a tenth with thousands grouped, so that a job's cut length reads at a
+ * glance and alike on every page: millimetres (inches) up to 10 m (100 ft), then metres (feet)
+ * ("7,029.4 mm", "1,238.8 m"; "636.9 in", "4,064.5 ft"), not "1238848.2 mm" or "636.906 in".
  */
 export function formatRunLength(mm: number, unit: LengthUnit): string {
   if (!Number.isFinite(mm)) return '—';
@@ -32,9 +33,9 @@ export function formatRunLength(mm: number, unit: LengthUnit): string {
     x.toLocaleString('en', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
   if (unit === 'in') {
     const inches = mm / MM_PER_INCH;
-    return Math.abs(inches) >= 1200 ? `${grouped(inches / 12)} ft` : formatLength(mm, unit);
+    return Math.abs(inches) >= 1200 ? `${grouped(inches / 12)} ft` : `${grouped(inches)} in`;
   }
-  return Math.abs(mm) >= 10_000 ? `${grouped(mm / 1000)} m` : formatLength(mm, unit);
+  return Math.abs(mm) >= 10_000 ? `${grouped(mm / 1000)} m` : `${grouped(mm)} mm`;
 }
 
 /** Machine time: minutes with one decimal under an hour, else hours and whole minutes ("28 h 44 min"). */

@@ -79,7 +79,7 @@ describe('the sheet layout view', () => {
     expect(facts).toHaveTextContent('Sheet size300 × 200 mm');
     expect(facts).toHaveTextContent('Machine time12.3 min');
     expect(facts).toHaveTextContent('Cost23.50 EUR');
-    expect(facts).toHaveTextContent('Cut length4321.0 mm');
+    expect(facts).toHaveTextContent('Cut length4,321.0 mm');
   });
 
   it('shows every length in inches when asked (25.4 mm to the inch, exact by definition)', () => {
