@@ -157,6 +157,18 @@ function components(topLevel: number): Components {
 
 const CACHE = new Map<number, Components>();
 
+/** The fewest `#`s of any ATX heading in the text, outside fenced code (1 when it has no heading). */
+export function highestHeading(text: string): number {
+  let fewest = Infinity;
+  let fenced = false;
+  for (const line of text.split('\n')) {
+    if (/^ {0,3}(```|~~~)/.test(line)) fenced = !fenced;
+    const m = fenced ? null : /^ {0,3}(#{1,6})[ \t]/.exec(line);
+    if (m?.[1]) fewest = Math.min(fewest, m[1].length);
+  }
+  return Number.isFinite(fewest) ? fewest : 1;
+}
+
 /**
  * Workshop text written in Markdown (safety notices, local rules) as formatted text: headings, emphasis,
  * lists, links and tables. HTML in the text is dropped, never rendered, and links leave the app in a new tab.
@@ -173,16 +185,20 @@ export function MarkdownText({
   /** The HTML level a `#` heading of the text gets, below the page's own headings (default h3). */
   topLevel?: number;
 }) {
-  let parts = CACHE.get(topLevel);
+  const text = withoutRepeatedTitle(children, title);
+  // The text's highest heading takes `topLevel`, whatever its number of `#`s: a text whose headings start
+  // at `##` would otherwise skip a level below the page's heading (WCAG 2.2, 1.3.1; common practice).
+  const level = topLevel - (highestHeading(text) - 1);
+  let parts = CACHE.get(level);
   if (!parts) {
-    parts = components(topLevel);
-    CACHE.set(topLevel, parts);
+    parts = components(level);
+    CACHE.set(level, parts);
   }
   return (
     <Box sx={{ minWidth: 0, '& > :first-child': { mt: 0 }, '& > :last-child': { mb: 0 } }}>
       <TitleContext.Provider value={title}>
         <Markdown remarkPlugins={[remarkGfm]} skipHtml components={parts}>
-          {withoutRepeatedTitle(children, title)}
+          {text}
         </Markdown>
       </TitleContext.Provider>
     </Box>
