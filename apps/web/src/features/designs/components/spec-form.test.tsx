@@ -68,6 +68,13 @@ describe('design studio spec form', () => {
     expect(await screen.findByText('Give the design a name')).toBeInTheDocument();
   });
 
+  it('heads each group of fields, so a screen reader can move through the form by its headings', async () => {
+    renderWithProviders(<Harness />);
+    const headings = await screen.findAllByRole('heading', { level: 2 });
+    expect(headings.map((h) => h.textContent)).toEqual(expect.arrayContaining(['Piece shape']));
+    expect(headings.length).toBeGreaterThanOrEqual(4);
+  });
+
   it('clears the message of the step when the sides put it right, as of the sides when the step does', async () => {
     const { user } = renderWithProviders(<Harness />);
     const sides = await screen.findByLabelText('Sides (n)');

@@ -54,10 +54,11 @@ const SCALE_LABELS: Record<DesignFormValues['scaleBy'], string> = {
   fitBed: 'Fit to the machine bed',
 };
 
+/** A group of the form's fields under its own heading, so that headings lead through the form too. */
 function Section({ title, children }: { title: string; children: ReactNode }) {
   return (
     <Stack spacing={1.5}>
-      <Typography variant="overline" color="text.secondary">
+      <Typography component="h2" variant="overline" color="text.secondary">
         {title}
       </Typography>
       {children}
