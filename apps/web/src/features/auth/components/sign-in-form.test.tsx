@@ -6,6 +6,17 @@ import { renderWithProviders } from '../../../testing/render-app';
 import { getAccessToken } from '../../../lib/token-store';
 import { SignInForm } from './sign-in-form';
 
+/** The API's answer to a wrong password. */
+const WRONG_PASSWORD = {
+  'POST /api/auth/login': () =>
+    json(401, {
+      statusCode: 401,
+      code: 'AUTH.INVALID_CREDENTIALS',
+      message: 'E-mail or password is wrong',
+      requestId: 'r1',
+    }),
+};
+
 function setup() {
   const onSuccess = vi.fn();
   const utils = renderWithProviders(<SignInForm onSuccess={onSuccess} />);
@@ -34,15 +45,7 @@ describe('SignInForm', () => {
   });
 
   it('shows the API message when the password is wrong', async () => {
-    stubFetch({
-      'POST /api/auth/login': () =>
-        json(401, {
-          statusCode: 401,
-          code: 'AUTH.INVALID_CREDENTIALS',
-          message: 'E-mail or password is wrong',
-          requestId: 'r1',
-        }),
-    });
+    stubFetch(WRONG_PASSWORD);
     const { user, onSuccess } = setup();
     await user.type(screen.getByLabelText(/E-mail/), 'operator@workshop.example');
     await user.type(screen.getByLabelText(/Password/), 'not-the-password');
@@ -56,15 +59,7 @@ describe('SignInForm', () => {
   });
 
   it('leaves the keyboard in the password field when Enter was pressed there and the answer is no', async () => {
-    stubFetch({
-      'POST /api/auth/login': () =>
-        json(401, {
-          statusCode: 401,
-          code: 'AUTH.INVALID_CREDENTIALS',
-          message: 'E-mail or password is wrong',
-          requestId: 'r2',
-        }),
-    });
+    stubFetch(WRONG_PASSWORD);
     const { user } = setup();
     await user.type(screen.getByLabelText(/E-mail/), 'operator@workshop.example');
     await user.type(screen.getByLabelText(/Password/), 'not-the-password{Enter}');
@@ -73,15 +68,7 @@ describe('SignInForm', () => {
   });
 
   it('drops the wrong-password message when the form is sent again, even with empty fields', async () => {
-    const { fetchMock } = stubFetch({
-      'POST /api/auth/login': () =>
-        json(401, {
-          statusCode: 401,
-          code: 'AUTH.INVALID_CREDENTIALS',
-          message: 'E-mail or password is wrong',
-          requestId: 'r1',
-        }),
-    });
+    const { fetchMock } = stubFetch(WRONG_PASSWORD);
     const { user } = setup();
     await user.type(screen.getByLabelText(/E-mail/), 'operator@workshop.example');
     await user.type(screen.getByLabelText(/Password/), 'not-the-password');
