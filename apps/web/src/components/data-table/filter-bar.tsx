@@ -2,6 +2,7 @@ import Box from '@mui/material/Box';
 import MenuItem from '@mui/material/MenuItem';
 import TextField from '@mui/material/TextField';
 import { type ReactNode, useEffect, useRef, useState } from 'react';
+import { SEARCH_MAX_LENGTH } from './use-table-search-params';
 
 const SEARCH_DELAY_MS = 300;
 /** The value of a select filter's first entry, which narrows nothing. */
@@ -38,7 +39,7 @@ export function SearchFilter({
   label,
   value,
   onSearch,
-  maxLength = 100,
+  maxLength = SEARCH_MAX_LENGTH,
   placeholder,
 }: {
   id: string;

@@ -1,7 +1,7 @@
 import { screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { renderWithProviders } from '../../testing/render-app';
-import { useTableSearchParams } from './use-table-search-params';
+import { SEARCH_MAX_LENGTH, useTableSearchParams } from './use-table-search-params';
 
 const SORT_FIELDS = ['name', 'updatedAt'] as const;
 const PAGE_SIZES = [10, 25] as const;
@@ -40,6 +40,15 @@ describe('a list’s search parameters in the address', () => {
     renderWithProviders(<Probe />, { path: '/?page=3&pageSize=10&sort=name&colour=red' });
     await screen.findByRole('status');
     expect(shown()).toMatchObject({ page: 3, pageSize: 10, sort: 'name', colour: 'red' });
+  });
+
+  it('searches for no more text than the API takes, however long the address’s', async () => {
+    // The API refuses a q over 100 characters (@MaxLength(100) on its list queries, e.g. apps/api/src/jobs/dto).
+    const long = 'birch '.repeat(30);
+    renderWithProviders(<Probe />, { path: `/?q=${encodeURIComponent(long)}` });
+    await screen.findByRole('status');
+    expect(SEARCH_MAX_LENGTH).toBe(100);
+    expect(shown().q).toBe(long.slice(0, 100));
   });
 
   it('starts again from page 1 on a filter change and keeps default values out of the address', async () => {

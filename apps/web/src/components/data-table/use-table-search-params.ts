@@ -35,10 +35,16 @@ interface TableSearchOptions<F extends string, P extends FilterParsers> {
 const NO_FILTERS: FilterParsers = {};
 
 /**
+ * The longest search text the API takes: its list queries refuse a longer `q` (`@MaxLength(100)` in the
+ * apps/api list DTOs) and the whole list would give way to that error.
+ */
+export const SEARCH_MAX_LENGTH = 100;
+
+/**
  * Page, page size, sort, search and the list's own filters, kept in the address (so a list can be
  * bookmarked and the back button works). Unknown or malformed values fall back to the defaults, and default
- * values stay out of the address. `set` changes some values; any change other than the page itself goes
- * back to page 1.
+ * values stay out of the address; the search text is cut to SEARCH_MAX_LENGTH. `set` changes some values;
+ * any change other than the page itself goes back to page 1.
  */
 export function useTableSearchParams<
   F extends string = never,
@@ -62,7 +68,8 @@ export function useTableSearchParams<
       sort: (sortFields && (sortFields as readonly string[]).includes(sort.replace(/^-/, ''))
         ? sort
         : defaultSort) as S,
-      q: search.get('q') ?? undefined,
+      // An address typed or kept from elsewhere may hold more; the list searches for what the API takes.
+      q: search.get('q')?.slice(0, SEARCH_MAX_LENGTH) ?? undefined,
     };
   }, [search, sortFields, defaultSort, pageSizes, defaultPageSize, filters]);
   const set = useCallback(

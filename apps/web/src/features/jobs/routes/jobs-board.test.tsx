@@ -1,5 +1,5 @@
 import { type JobView } from '@kerfwright/contracts';
-import { screen, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { jobFixture, userFixture } from '../../../testing/fixtures';
@@ -58,6 +58,23 @@ describe('jobs board', () => {
       expect(await screen.findByText(new RegExp(`^${listed}`))).toBeInTheDocument();
       if (role === 'hobbyist') expect(screen.queryByText(/Every cut job/)).not.toBeInTheDocument();
       unmount();
+    }
+  });
+
+  it('takes no more search text than the API accepts', async () => {
+    const { calls } = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      'GET /api/jobs': () => json(200, { items: [], total: 0, page: 1, pageSize: 25 }),
+    });
+    const { user } = renderApp('/jobs', { token: 't' });
+    const box = await screen.findByLabelText<HTMLInputElement>('Search design or owner');
+    // The API answers 400 to a q over 100 characters (@MaxLength(100) in apps/api/src/jobs/dto/job.dto.ts).
+    await user.click(box);
+    await user.paste('plywood '.repeat(20));
+    expect(box.value).toBe('plywood '.repeat(20).slice(0, 100));
+    await waitFor(() => expect(calls.some((c) => c.url.searchParams.has('q'))).toBe(true));
+    for (const call of calls.filter((c) => c.url.pathname === '/api/jobs')) {
+      expect(call.url.searchParams.get('q')?.length ?? 0).toBeLessThanOrEqual(100);
     }
   });
 });

@@ -1,10 +1,10 @@
 import { JOB_STATES, type JobState, type JobView, type Role } from '@kerfwright/contracts';
 import Stack from '@mui/material/Stack';
-import TextField from '@mui/material/TextField';
 import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import { Link } from 'react-router-dom';
 import { DataTable, type DataTableColumn } from '../../../components/data-table/data-table';
+import { SearchFilter } from '../../../components/data-table/filter-bar';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
 import { ListPage } from '../../../components/layouts/list-page';
 import { useUser } from '../../../lib/auth';
@@ -75,11 +75,11 @@ export function JobsBoardRoute() {
       errorTitle="The jobs could not be loaded"
       filters={
         <Stack direction={{ xs: 'column', md: 'row' }} spacing={2} sx={{ mb: 2 }}>
-          <TextField
-            size="small"
+          <SearchFilter
+            id="jobs-search"
             label="Search design or owner"
-            defaultValue={params.q ?? ''}
-            onChange={(e) => set({ q: e.target.value })}
+            value={params.q ?? ''}
+            onSearch={(q) => set({ q })}
           />
           <ToggleButtonGroup
             size="small"
