@@ -14,9 +14,10 @@ const columns: DataTableColumn<Row, 'name' | 'count'>[] = [
   { id: 'name', header: 'Name', sortField: 'name', render: (r) => r.name },
   { id: 'count', header: 'Count', sortField: 'count', align: 'right', render: (r) => r.count },
   { id: 'note', header: 'Note', hideOnPhone: true, render: () => '—' },
+  { id: 'extra', header: 'Extra', hideOnTablet: true, render: () => '…' },
 ];
 
-function renderTable(props: { sort: string; rows?: Row[]; page?: number }) {
+function renderTable(props: { sort: string; rows?: Row[]; page?: number; minWidth?: number }) {
   const handlers = { onSort: vi.fn(), onPage: vi.fn(), onPageSize: vi.fn() };
   const utils = renderWithProviders(
     <DataTable
@@ -32,6 +33,7 @@ function renderTable(props: { sort: string; rows?: Row[]; page?: number }) {
       pageSize={25}
       pageSizes={[10, 25, 50]}
       sort={props.sort}
+      minWidth={props.minWidth}
       {...handlers}
     />,
   );
@@ -80,6 +82,26 @@ describe('the shared data table', () => {
       within(wide)
         .getAllByRole('columnheader')
         .map((h) => h.textContent),
-    ).toEqual(['Name', 'Count', 'Note']);
+    ).toEqual(['Name', 'Count', 'Note', 'Extra']);
+  });
+
+  it('fits a tablet-wide screen: its secondary columns go and it has no minimum width there', async () => {
+    const rows = [{ id: '1', name: 'Alpha', count: 3 }];
+    const headers = (table: HTMLElement) =>
+      within(table)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent);
+    // 768 px: a tablet held upright, below the theme's md (900 px).
+    stubScreenWidth(768);
+    const tablet = renderTable({ sort: 'name', rows, minWidth: 900 });
+    const middle = await screen.findByRole('table', { name: 'Things' });
+    expect(headers(middle)).toEqual(['Name', 'Count', 'Note']);
+    expect(getComputedStyle(middle).minWidth).not.toBe('900px');
+    tablet.unmount();
+    stubScreenWidth(1280);
+    renderTable({ sort: 'name', rows, minWidth: 900 });
+    const wide = await screen.findByRole('table', { name: 'Things' });
+    expect(headers(wide)).toEqual(['Name', 'Count', 'Note', 'Extra']);
+    expect(getComputedStyle(wide).minWidth).toBe('900px');
   });
 });

@@ -28,6 +28,11 @@ export interface DataTableColumn<T, F extends string = string> {
    * and the actions on it) stay in reach without scrolling sideways.
    */
   hideOnPhone?: boolean;
+  /**
+   * Left out below the theme's md too (a tablet, and a phone), so that the table fits a tablet-wide screen
+   * without scrolling sideways.
+   */
+  hideOnTablet?: boolean;
 }
 
 interface DataTableProps<T, F extends string> {
@@ -42,7 +47,10 @@ interface DataTableProps<T, F extends string> {
   rowSx?: (row: T) => SxProps<Theme> | undefined;
   /** Placeholder rows while the first page loads (none unless given). */
   loadingRows?: number;
-  /** Below this width the table scrolls sideways instead of squeezing its columns. */
+  /**
+   * From the theme's md up, below this width the table scrolls sideways instead of squeezing its columns. A
+   * narrower screen has no such floor: its columns (fewer, see hideOnTablet) share the screen's width.
+   */
   minWidth?: number;
   /** Shown in one row when a loaded page has no rows. */
   emptyText: string;
@@ -89,8 +97,9 @@ export function DataTable<T, F extends string = string>({
   onPageSize,
 }: DataTableProps<T, F>) {
   const phone = useMediaQuery((theme: Theme) => theme.breakpoints.down('sm'));
-  // On a phone the secondary columns go, and with them the width the whole table needed.
-  const columns = phone ? allColumns.filter((c) => !c.hideOnPhone) : allColumns;
+  const tablet = useMediaQuery((theme: Theme) => theme.breakpoints.down('md'));
+  // On a phone or a tablet the secondary columns go, and with them the width the whole table needed.
+  const columns = allColumns.filter((c) => !(tablet && c.hideOnTablet) && !(phone && c.hideOnPhone));
   const lastPage = Math.max(0, Math.ceil(total / pageSize) - 1);
   const sorted = (c: DataTableColumn<T, F>) =>
     c.sortField !== undefined && sort.replace(/^-/, '') === c.sortField;
@@ -98,7 +107,7 @@ export function DataTable<T, F extends string = string>({
     <Paper variant="outlined">
       <Box sx={{ height: 4 }}>{fetching ? <LinearProgress aria-label={fetchingLabel} /> : null}</Box>
       <TableContainer sx={{ overflowX: 'auto' }}>
-        <Table size="small" aria-label={label} sx={{ minWidth: phone ? undefined : minWidth }}>
+        <Table size="small" aria-label={label} sx={{ minWidth: tablet ? undefined : minWidth }}>
           <TableHead>
             <TableRow>
               {columns.map((c) => (

@@ -54,7 +54,7 @@ export function auditColumns({
     },
     {
       id: 'record',
-      hideOnPhone: true,
+      hideOnTablet: true,
       header: 'Record',
       render: (e) => (
         <Link

@@ -1,9 +1,10 @@
 import { type AuditEventView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
+import { stubScreenWidth } from '../../../testing/screen-width';
 
 const supervisor = userFixture('supervisor');
 const fabricatorId = '00000000-0000-4000-8000-000000000001';
@@ -36,6 +37,8 @@ const events: AuditEventView[] = [
 ];
 
 describe('Audit trail (supervisor)', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
   it('lists who did what, and asks the API for the chosen order and filters', async () => {
     const { calls } = stubFetch({
       'GET /api/auth/me': () => json(200, supervisor),
@@ -114,6 +117,23 @@ describe('Audit trail (supervisor)', () => {
       'machine-profile-version.submit',
       'material.create',
     ]);
+  });
+
+  it('fits a tablet (768 px) without scrolling sideways: the Record column goes, "What happened" stays', async () => {
+    stubScreenWidth(768);
+    stubFetch({
+      'GET /api/auth/me': () => json(200, supervisor),
+      'GET /api/audit': () => json(200, { items: events, total: 2, page: 1, pageSize: 25 }),
+    });
+    renderApp('/audit', { token: 't' });
+    await screen.findAllByTestId('audit-event');
+    const table = screen.getByRole('table', { name: 'Audit trail' });
+    expect(
+      within(table)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['When', 'Who', 'Action', 'What happened']);
+    expect(getComputedStyle(table).minWidth).not.toBe('900px');
   });
 
   it('is not part of a fabricator’s role', async () => {

@@ -17,7 +17,7 @@ export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView
   { id: 'kind', header: 'Kind', sortField: 'kind', render: (p) => KIND_LABELS[p.kind] },
   {
     id: 'bed',
-    hideOnPhone: true,
+    hideOnTablet: true,
     header: 'Bed',
     cellSx: { whiteSpace: 'nowrap' },
     render: (p) => `${p.latest.bedWidthMm} × ${p.latest.bedHeightMm} mm`,
@@ -32,7 +32,7 @@ export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView
     hideOnPhone: true,
     header: 'Latest version',
     render: (p) => (
-      <Box sx={{ display: 'flex', gap: 1, alignItems: 'center' }}>
+      <Box sx={{ display: 'flex', flexWrap: 'wrap', gap: 1, alignItems: 'center' }}>
         <span>Version {p.latest.number}</span>
         <VersionStateChip state={p.latest.state} />
       </Box>

@@ -27,7 +27,7 @@ function sheets(m: MaterialView) {
 const COLUMNS: readonly Column[] = [
   {
     id: 'family',
-    hideOnPhone: true,
+    hideOnTablet: true,
     header: 'Family',
     sortField: 'family',
     render: (m) => FAMILY_LABELS[m.family],
@@ -58,10 +58,10 @@ const COLUMNS: readonly Column[] = [
     cellSx: { whiteSpace: 'nowrap' },
     render: thickness,
   },
-  { id: 'colours', hideOnPhone: true, header: 'Colours', render: (m) => m.colours.join(', ') || '—' },
+  { id: 'colours', hideOnTablet: true, header: 'Colours', render: (m) => m.colours.join(', ') || '—' },
   {
     id: 'sheets',
-    hideOnPhone: true,
+    hideOnTablet: true,
     header: 'Stock sheets',
     cellSx: { fontSize: '0.8125rem' },
     render: sheets,

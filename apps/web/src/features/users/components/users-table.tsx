@@ -74,7 +74,7 @@ export function userColumns({
     },
     {
       id: 'since',
-      hideOnPhone: true,
+      hideOnTablet: true,
       header: 'Member since',
       sortField: 'createdAt',
       cellSx: { whiteSpace: 'nowrap' },

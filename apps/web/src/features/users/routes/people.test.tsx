@@ -71,6 +71,21 @@ describe('People (supervisor)', () => {
     expect(within(row).getByRole('button', { name: 'Reactivate Alex Birch' })).toBeInTheDocument();
   });
 
+  it('fits a tablet (768 px) without scrolling sideways: only "Member since" goes', async () => {
+    stubScreenWidth(768);
+    peopleApi([supervisor, hobbyist, operator]);
+    renderApp('/people', { token: 't' });
+    const row = await screen.findByTestId('person-alex@workshop.example');
+    const table = screen.getByRole('table', { name: 'People' });
+    expect(
+      within(table)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['Name', 'E-mail', 'Role', 'Status', 'Access']);
+    expect(getComputedStyle(table).minWidth).not.toBe('760px');
+    expect(within(row).getByRole('button', { name: 'Deactivate Alex Birch' })).toBeInTheDocument();
+  });
+
   it('asks the API for the chosen sort, role filter and search', async () => {
     const { calls } = peopleApi([supervisor, hobbyist, operator]);
     const { user } = renderApp('/people', { token: 't' });

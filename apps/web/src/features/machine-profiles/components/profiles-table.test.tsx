@@ -1,0 +1,59 @@
+import { type MachineProfileSummaryView } from '@kerfwright/contracts';
+import { screen, within } from '@testing-library/react';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { DataTable } from '../../../components/data-table/data-table';
+import { versionFixture } from '../../../testing/fixtures';
+import { renderWithProviders } from '../../../testing/render-app';
+import { stubScreenWidth } from '../../../testing/screen-width';
+import { PROFILE_COLUMNS } from './profiles-table';
+
+const profile: MachineProfileSummaryView = {
+  id: 'p-1',
+  name: 'Workshop CO2',
+  kind: 'co2-laser',
+  currentApproved: versionFixture(),
+  latest: versionFixture({ id: 'v-2', number: 2, state: 'submitted' }),
+  createdAt: '2026-01-01T00:00:00.000Z',
+};
+
+async function headersAt(px: number) {
+  stubScreenWidth(px);
+  renderWithProviders(
+    <DataTable
+      label="Machine profiles"
+      columns={PROFILE_COLUMNS}
+      rows={[profile]}
+      rowKey={(p) => p.id}
+      minWidth={760}
+      emptyText="None."
+      fetching={false}
+      fetchingLabel="Loading machine profiles"
+      total={1}
+      page={1}
+      pageSize={25}
+      pageSizes={[25]}
+      onPage={vi.fn()}
+      onPageSize={vi.fn()}
+    />,
+  );
+  return within(await screen.findByRole('table', { name: 'Machine profiles' }))
+    .getAllByRole('columnheader')
+    .map((h) => h.textContent);
+}
+
+describe('the machine profiles table', () => {
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('keeps the latest version and its state on a tablet (768 px); only the bed goes', async () => {
+    expect(await headersAt(768)).toEqual(['Name', 'Kind', 'In use for jobs', 'Latest version']);
+    expect(screen.getByTestId('version-state')).toHaveTextContent('Waiting for approval');
+  });
+
+  it('shows every column on a desktop (1280 px)', async () => {
+    expect(await headersAt(1280)).toEqual(['Name', 'Kind', 'Bed', 'In use for jobs', 'Latest version']);
+  });
+
+  it('keeps name, kind and the version in use on a phone (390 px)', async () => {
+    expect(await headersAt(390)).toEqual(['Name', 'Kind', 'In use for jobs']);
+  });
+});
