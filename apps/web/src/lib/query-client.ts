@@ -7,6 +7,12 @@ function shouldRetry(failureCount: number, error: unknown): boolean {
   return failureCount < 2;
 }
 
+/**
+ * How often a list of work that others change (the jobs board, the release desk, approvals) is read again while
+ * its page is open, so that a screen left open shows jobs released, approved or sent meanwhile.
+ */
+export const QUEUE_REFRESH_MS = 30_000;
+
 export function createQueryClient(): QueryClient {
   return new QueryClient({
     defaultOptions: {

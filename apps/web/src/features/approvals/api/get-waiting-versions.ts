@@ -1,6 +1,7 @@
 import { type MachineProfileSummaryView, type Page } from '@kerfwright/contracts';
 import { useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { approvalsKeys } from './approvals-keys';
 
 /**
@@ -15,9 +16,11 @@ export function getWaitingVersions(signal?: AbortSignal): Promise<Page<MachinePr
   );
 }
 
+/** The versions waiting for approval, read again every QUEUE_REFRESH_MS while the page is open. */
 export function useWaitingVersions() {
   return useQuery({
     queryKey: approvalsKeys.versions(),
     queryFn: ({ signal }) => getWaitingVersions(signal),
+    refetchInterval: QUEUE_REFRESH_MS,
   });
 }

@@ -1,8 +1,9 @@
 import { type JobView, type MachineProfileSummaryView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { preparationFixture, userFixture, versionFixture } from '../../../testing/fixtures';
+import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
 
 const supervisor = userFixture('supervisor');
@@ -65,6 +66,27 @@ function approvalsApi(waitingJob: JobView = job, waitingProfile: MachineProfileS
 }
 
 describe('Approvals (supervisor)', () => {
+  afterEach(() => vi.useRealTimers());
+
+  it('shows what was submitted meanwhile without reloading the page', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    let submitted = false;
+    const page = (items: unknown[]) => json(200, { items, total: items.length, page: 1, pageSize: 100 });
+    stubFetch({
+      'GET /api/auth/me': () => json(200, supervisor),
+      'GET /api/machine-profiles': () => page(submitted ? [profile] : []),
+      'GET /api/jobs': () => page(submitted ? [job] : []),
+    });
+    renderApp('/approvals', { token: 't' });
+    expect(await screen.findByText('No prepared job is waiting.')).toBeInTheDocument();
+    expect(screen.getByText('No machine profile version is waiting.')).toBeInTheDocument();
+    // A fabricator submits a version and prepares a job elsewhere; within QUEUE_REFRESH_MS both are here.
+    submitted = true;
+    await vi.advanceTimersByTimeAsync(QUEUE_REFRESH_MS + 100);
+    expect(await screen.findByTestId('waiting-version-CO2 laser, 60 W')).toBeInTheDocument();
+    expect(await screen.findByTestId('waiting-job')).toHaveTextContent('Hexagon star × 3');
+  });
+
   it('shows only what the waiting version changes against the approved one', async () => {
     const { calls } = approvalsApi();
     renderApp('/approvals', { token: 't' });

@@ -1,6 +1,7 @@
 import { type JobState, type JobView, type Page } from '@kerfwright/contracts';
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { jobsKeys } from './jobs-keys';
 
 export const JOB_SORT_FIELDS = ['createdAt', 'updatedAt', 'state'] as const;
@@ -30,11 +31,13 @@ export function getJobs(params: GetJobsParams, signal?: AbortSignal): Promise<Pa
   );
 }
 
+/** One page of jobs, read again every QUEUE_REFRESH_MS while it is on screen (others move jobs meanwhile). */
 export function jobsQueryOptions(params: GetJobsParams) {
   return queryOptions({
     queryKey: jobsKeys.list(params),
     queryFn: ({ signal }) => getJobs(params, signal),
     placeholderData: keepPreviousData,
+    refetchInterval: QUEUE_REFRESH_MS,
   });
 }
 

@@ -1,8 +1,9 @@
 import { type JobView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { jobFixture, userFixture } from '../../../testing/fixtures';
+import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
 
 function boardJob(id: string, state: JobView['state'], requesterName: string): JobView {
@@ -18,6 +19,29 @@ function boardJob(id: string, state: JobView['state'], requesterName: string): J
 }
 
 describe('jobs board', () => {
+  afterEach(() => vi.useRealTimers());
+
+  it('shows jobs sent meanwhile without reloading the page', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    const first = boardJob('j-1', 'requested', 'Jun Park');
+    const later = boardJob('j-2', 'requested', 'Ana Ruiz');
+    let sent = false;
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      'GET /api/jobs': () => {
+        const items = sent ? [later, first] : [first];
+        return json(200, { items, total: items.length, page: 1, pageSize: 25 });
+      },
+    });
+    renderApp('/jobs', { token: 't' });
+    await screen.findByTestId('job-row-j-1');
+    expect(screen.queryByTestId('job-row-j-2')).not.toBeInTheDocument();
+    // A hobbyist sends a job elsewhere; within QUEUE_REFRESH_MS the board lists it.
+    sent = true;
+    await vi.advanceTimersByTimeAsync(QUEUE_REFRESH_MS + 100);
+    expect(await screen.findByTestId('job-row-j-2')).toHaveTextContent('Ana Ruiz');
+  });
+
   it('heads the column of names "Owner", true of a draft too, which nobody has requested', async () => {
     // A draft whose request was withdrawn, beside a job that is requested.
     const withdrawn = boardJob('j-1', 'draft', 'Jun Park');

@@ -3,6 +3,7 @@ import { act, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
+import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
 import { DONE_PACK_REFRESH_MS, STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
 import { stubScreenWidth } from '../../../testing/screen-width';
@@ -434,6 +435,41 @@ describe('release desk', () => {
     const alert = await within(job).findByTestId('cut-pack-safety-changed');
     expect(alert).toHaveTextContent('The job has been cut, so no new pack is built for it');
     expect(alert).not.toHaveTextContent(/prepared by itself|prepare it/);
+  });
+
+  it('shows jobs released, and packs started, elsewhere without reloading', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    const later = jobFixture('j-later', 'released', 'Woven basket');
+    let meanwhile = false;
+    stubDesk(
+      false,
+      {},
+      {
+        'GET /api/jobs': (call) => {
+          const state = call.url.searchParams.get('state');
+          const items =
+            state === 'released'
+              ? [released, ...(meanwhile ? [later] : [])]
+              : state === 'approved'
+                ? [waiting]
+                : [];
+          return json(200, { items, total: items.length, page: 1, pageSize: 100 });
+        },
+        [`GET /api/jobs/${later.id}/exports`]: () => json(200, [exportFixture('e-l', later.id, 'done', 100)]),
+        // A fabricator starts the pack of an approved job: it comes to the desk as being prepared.
+        [`GET /api/jobs/${waiting.id}/exports`]: () =>
+          json(200, meanwhile ? [exportFixture('e-w', waiting.id, 'queued', 0)] : []),
+      },
+    );
+    renderApp('/release-desk', { token: 't' });
+    const table = await screen.findByRole('table', { name: 'Jobs at the release desk' });
+    await within(table).findByText('Turned squares');
+    expect(within(table).queryByText('Woven basket')).not.toBeInTheDocument();
+    expect(within(table).queryByText('Not released yet')).not.toBeInTheDocument();
+    meanwhile = true;
+    await vi.advanceTimersByTimeAsync(QUEUE_REFRESH_MS + 100);
+    expect(await within(table).findByText('Woven basket')).toBeInTheDocument();
+    expect(await within(table).findByText('Not released yet')).toBeInTheDocument();
   });
 
   it('looks at an out-of-date pack again, so a rebuild elsewhere shows without reloading', async () => {
