@@ -1,10 +1,25 @@
 import { QueryClient } from '@tanstack/react-query';
 import { isApiError } from './api-client';
 
+/** A client error (4xx) will not change on a retry; network trouble and a 5xx may. */
+const isClientError = (error: unknown) => isApiError(error) && error.status >= 400 && error.status < 500;
+
 /** Client errors (4xx) will not change on a retry; network trouble and 5xx get two more tries. */
 function shouldRetry(failureCount: number, error: unknown): boolean {
-  if (isApiError(error) && error.status >= 400 && error.status < 500) return false;
+  if (isClientError(error)) return false;
   return failureCount < 2;
+}
+
+/** How long a list that could not be loaded (the service unreachable, or failing) waits to be asked again. */
+export const FAILED_LIST_REFETCH_MS = 15_000;
+
+/**
+ * A refetchInterval for a list a form needs: after its retries have failed on network trouble or a 5xx, it is
+ * asked again every FAILED_LIST_REFETCH_MS until it loads, so the form recovers once the service is back. A
+ * loaded list, or a refusal (4xx), is not asked again.
+ */
+export function refetchWhileFailing(query: { state: { status: string; error: unknown } }): number | false {
+  return query.state.status === 'error' && !isClientError(query.state.error) ? FAILED_LIST_REFETCH_MS : false;
 }
 
 /**

@@ -1,6 +1,6 @@
 import { type MachineProfileSummaryView, type MaterialView } from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
-import { describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { materialFixture } from '../../../testing/fixtures';
 import { renderWithProviders } from '../../../testing/render-app';
@@ -8,6 +8,7 @@ import { PrepareJobDialog } from './prepare-job-dialog';
 import { RecordCutDialog } from './record-cut-dialog';
 import { ReturnJobDialog } from './return-job-dialog';
 import { isBlankNumber } from '../../../lib/form-numbers';
+import { FAILED_LIST_REFETCH_MS } from '../../../lib/query-client';
 
 const noop = () => undefined;
 
@@ -270,6 +271,57 @@ function stubLists(materials: readonly MaterialView[], profiles: readonly Machin
       json(200, { items: profiles, total: profiles.length, page: 1, pageSize: 100 }),
   });
 }
+
+/**
+ * The lists the Prepare dialog reads, unreachable (fetch rejects, as a browser's does when the service is down)
+ * until `back()` is called.
+ */
+function stubListsUnreachable() {
+  let up = false;
+  const down = () => Promise.reject(new TypeError('Failed to fetch'));
+  const stub = stubFetch({
+    'GET /api/materials': () =>
+      up ? json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }) : down(),
+    'GET /api/machine-profiles': () =>
+      up ? json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }) : down(),
+  });
+  return { ...stub, back: () => (up = true) };
+}
+
+describe('prepare job dialog, service unreachable', () => {
+  afterEach(() => vi.useRealTimers());
+
+  it('says so once, and Try again loads the lists once the service is back', async () => {
+    const service = stubListsUnreachable();
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    const alert = await screen.findByTestId('prepare-lists-error');
+    await waitFor(() =>
+      expect(alert).toHaveTextContent('The materials and machine profiles could not be loaded.'),
+    );
+    expect(screen.getAllByRole('alert')).toHaveLength(1);
+    expect(screen.getAllByText(/cannot be reached/)).toHaveLength(1);
+    service.back();
+    await user.click(within(alert).getByRole('button', { name: 'Try again' }));
+    expect(await screen.findByRole('option', { name: 'CO2 laser · CO2 laser · v3' })).toBeInTheDocument();
+    expect(screen.getByRole('option', { name: /Cast acrylic/ })).toBeInTheDocument();
+    expect(screen.queryByTestId('prepare-lists-error')).not.toBeInTheDocument();
+  });
+
+  it('asks again by itself while the lists cannot be loaded', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    const service = stubListsUnreachable();
+    renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByTestId('prepare-lists-error');
+    service.back();
+    await vi.advanceTimersByTimeAsync(FAILED_LIST_REFETCH_MS + 100);
+    expect(await screen.findByRole('option', { name: 'CO2 laser · CO2 laser · v3' })).toBeInTheDocument();
+    expect(screen.queryByTestId('prepare-lists-error')).not.toBeInTheDocument();
+  });
+});
 
 describe('prepare job dialog', () => {
   it('needs a material, an approved profile version and a colour, and sends the chosen sheet', async () => {

@@ -1,6 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { COLOUR_RULES, type DesignView, type MachineProfileSummaryView } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
+import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import FormHelperText from '@mui/material/FormHelperText';
@@ -9,7 +10,6 @@ import Typography from '@mui/material/Typography';
 import { useEffect, useState } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
-import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { NATIVE_SELECT, NativeSelectField } from '../../../components/ui/native-select-field';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
@@ -18,6 +18,7 @@ import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
 import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
 import { kindLabel } from '../../../config/trade-labels';
+import { errorMessage } from '../../../lib/api-client';
 import { countOf } from '../../../lib/plural';
 import { formatSheetSize, type LengthUnit } from '../../../lib/units';
 import { useDesign } from '../../designs/api/get-design';
@@ -155,6 +156,13 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     materials: allMaterials,
   });
   const fields = { register, errors };
+  // The lists that could not be loaded, said in one alert (the service unreachable fails both alike); they are
+  // asked again by themselves meanwhile (see refetchWhileFailing).
+  const failed = [
+    { name: 'materials', query: materials },
+    { name: 'machine profiles', query: profiles },
+  ].filter((l) => l.query.isError);
+  const failedMessages = [...new Set(failed.map((l) => errorMessage(l.query.error)))];
 
   // A job prepared before opens with its choices, as far as they are still offered: the material, its
   // colours and sheet, the rule, and the profile (its approved version now, if the one used was retired).
@@ -232,13 +240,31 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
       onSubmit={submit}
       onClose={props.onClose}
     >
-      {materials.isError ? <FormErrorAlert error={materials.error} /> : null}
+      {failed.length > 0 ? (
+        <Alert
+          severity="error"
+          role="alert"
+          sx={{ mb: 2 }}
+          data-testid="prepare-lists-error"
+          action={
+            <Button
+              color="inherit"
+              size="small"
+              disabled={failed.some((l) => l.query.isFetching)}
+              onClick={() => failed.forEach((l) => void l.query.refetch())}
+            >
+              Try again
+            </Button>
+          }
+        >
+          {`The ${failed.map((l) => l.name).join(' and ')} could not be loaded. ${failedMessages.join(' ')}`}
+        </Alert>
+      ) : null}
       {notOffered.length > 0 ? (
         <Alert severity="info" sx={{ mb: 1 }} data-testid="prepare-not-offered">
           {['Since the job was last prepared:', ...notOffered].join(' ')}
         </Alert>
       ) : null}
-      {profiles.isError ? <FormErrorAlert error={profiles.error} /> : null}
       <Stack spacing={2} sx={{ mt: 1 }}>
         <FormTextField
           select
