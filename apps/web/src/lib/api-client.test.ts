@@ -35,6 +35,19 @@ describe('parseErrorResponse', () => {
     expect(error.fieldErrors).toEqual([{ field: 'email', messages: ['email must be an e-mail address'] }]);
   });
 
+  it('reads a conflict that names its field as one object as that field’s error, in its own words', async () => {
+    // The API's duplicate-name answer (apps/api/src/materials/materials.service.ts, mapDbErrors).
+    const body = {
+      statusCode: 409,
+      code: 'MATERIAL.NAME_TAKEN',
+      message: 'A material with this name already exists',
+      details: { field: 'name' },
+      requestId: 'req-409',
+    };
+    const error = await parseErrorResponse(jsonResponse(409, body));
+    expect(error.fieldErrors).toEqual([{ field: 'name', messages: [body.message] }]);
+  });
+
   it('keeps details that are not field errors out of fieldErrors', async () => {
     const body = {
       statusCode: 503,

@@ -23,14 +23,28 @@ export class ApiError extends Error {
     super(message);
   }
 
-  /** The per-field messages of a validation error (400) or a conflict naming a field (409), else []. */
+  /**
+   * The per-field messages of a validation error (400) or a conflict naming a field (409), else []. A conflict
+   * names its field either in a list like a validation error's or as one object, `{ field: 'name' }`, whose
+   * message is the error's own ("A material with this name already exists"); see the services' AppErrors in
+   * apps/api/src.
+   */
   get fieldErrors(): FieldError[] {
-    return isFieldErrorList(this.details) ? this.details : [];
+    if (isFieldErrorList(this.details)) return this.details;
+    const field = namedField(this.details);
+    return field === null ? [] : [{ field, messages: [this.message] }];
   }
 }
 
 export function isApiError(value: unknown): value is ApiError {
   return value instanceof ApiError;
+}
+
+/** The field an error's details name as one object (`{ field: 'name', … }`), else null. */
+function namedField(details: unknown): string | null {
+  if (typeof details !== 'object' || details === null || Array.isArray(details)) return null;
+  const field = (details as { field?: unknown }).field;
+  return typeof field === 'string' && field !== '' ? field : null;
 }
 
 export function isFieldErrorList(value: unknown): value is FieldError[] {

@@ -258,6 +258,36 @@ describe('Materials page (fabricator)', () => {
     });
   });
 
+  it('says a name already taken at the Name field', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, fabricator),
+      'GET /api/safety/hazards': () => json(200, hazards),
+      'GET /api/materials': () => json(200, { items: [pvc], total: 1, page: 1, pageSize: 25 }),
+      // The API's answer to a duplicate name (apps/api/src/materials/materials.service.ts, mapDbErrors).
+      'POST /api/materials': () =>
+        json(409, {
+          statusCode: 409,
+          code: 'MATERIAL.NAME_TAKEN',
+          message: 'A material with this name already exists',
+          details: { field: 'name' },
+          requestId: 'req-409',
+        }),
+    });
+    const { user } = renderApp('/materials', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Add a material' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Add a material' });
+    await user.type(within(dialog).getByLabelText('Name'), pvc.name);
+    await user.type(within(dialog).getByLabelText('Nominal thickness (mm)'), '3');
+    await user.type(within(dialog).getByLabelText('Colours offered'), 'white');
+    await user.type(within(dialog).getByLabelText('Width (mm)'), '600');
+    await user.type(within(dialog).getByLabelText('Height (mm)'), '400');
+    await user.type(within(dialog).getByLabelText('Price per sheet'), '4.9');
+    await user.click(within(dialog).getByRole('button', { name: 'Add the material' }));
+    const name = within(dialog).getByLabelText('Name');
+    await waitFor(() => expect(name).toHaveAttribute('aria-invalid', 'true'));
+    expect(name).toHaveAccessibleDescription('A material with this name already exists');
+  });
+
   it('tells an operator that Materials is not part of their role', async () => {
     const { calls } = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('operator')) });
     renderApp('/materials', { token: 't' });
