@@ -39,6 +39,27 @@ export function FormTextField({ registration, error, helperText, ...props }: For
   );
 }
 
+/**
+ * A registration whose text is upper-cased as it is typed or pasted (a currency code: "usd" becomes "USD"), the
+ * caret left where it was.
+ */
+export function upperCased<N extends string>(
+  registration: UseFormRegisterReturn<N>,
+): UseFormRegisterReturn<N> {
+  return {
+    ...registration,
+    onChange: (event: { target: unknown; type?: unknown }) => {
+      const input = event.target;
+      if (input instanceof HTMLInputElement && input.value !== input.value.toUpperCase()) {
+        const { selectionStart, selectionEnd } = input;
+        input.value = input.value.toUpperCase();
+        input.setSelectionRange(selectionStart, selectionEnd);
+      }
+      return registration.onChange(event);
+    },
+  };
+}
+
 /** What a field bound by name needs of its form: `{ register, errors }` from useForm / useFormState. */
 export interface FormFields<T extends FieldValues> {
   register: UseFormRegister<T>;

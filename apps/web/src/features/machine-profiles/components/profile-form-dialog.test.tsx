@@ -112,6 +112,24 @@ describe('machine profile form', () => {
     });
   });
 
+  it('takes a currency code typed in lower case, in capitals', async () => {
+    const { user, onSubmit } = renderForm();
+    await fillMachine(user);
+    const currency = screen.getByLabelText<HTMLInputElement>('Currency');
+    await user.clear(currency);
+    await user.type(currency, 'usd');
+    expect(currency.value).toBe('USD');
+    const setting = screen.getByRole('group', { name: row(1) });
+    await user.selectOptions(within(setting).getByLabelText('Material'), 'm-birch');
+    await user.type(within(setting).getByLabelText('Kerf (mm)'), '0.2');
+    await user.type(within(setting).getByLabelText('Cut speed (mm/s)'), '15');
+    await user.type(within(setting).getByLabelText('Mark speed (mm/s)'), '250');
+    await user.type(within(setting).getByLabelText('Power (%)'), '70');
+    await user.click(screen.getByRole('button', { name: 'Create as draft' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(toVersionContent(onSubmit.mock.calls[0]![0]).currency).toBe('USD');
+  });
+
   it('asks a router for a tool diameter instead of a kerf, and a material only once', async () => {
     const { user, onSubmit } = renderForm();
     await fillMachine(user);

@@ -14,7 +14,7 @@ import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
-import { FormTextField } from '../../../components/ui/form-text-field';
+import { FormTextField, upperCased } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
@@ -139,7 +139,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
           <NumberField label="Hourly rate" name="hourlyRate" form={fields} />
           <FormTextField
             label="Currency"
-            registration={register('currency')}
+            registration={upperCased(register('currency'))}
             error={errors.currency}
             slotProps={{ htmlInput: { maxLength: 3 } }}
           />

@@ -56,6 +56,8 @@ export function profileFormSchema(materials: readonly MaterialView[] | undefined
       currency: z
         .string()
         .trim()
+        // A code typed in lower case ("usd") is the same code; the API takes it in capitals (ISO 4217).
+        .toUpperCase()
         .regex(/^[A-Z]{3}$/, 'A three-letter currency code such as EUR'),
       settings: z.array(settingSchema).max(L.maxSettings, `At most ${L.maxSettings} materials`),
       notes: z.string().max(L.notesLength, `At most ${L.notesLength} characters`),

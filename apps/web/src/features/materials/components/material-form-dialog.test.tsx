@@ -107,6 +107,28 @@ describe('material form', () => {
   });
 });
 
+describe('material form, currency', () => {
+  it('takes a currency code typed in lower case, in capitals', async () => {
+    const { user, onSubmit } = renderDialog();
+    await user.type(await screen.findByLabelText('Name'), 'Birch plywood 6 mm');
+    await user.type(screen.getByLabelText('Nominal thickness (mm)'), '6');
+    await user.type(screen.getByLabelText('Colours offered'), 'natural');
+    await user.type(screen.getByLabelText('Width (mm)'), '600');
+    await user.type(screen.getByLabelText('Height (mm)'), '400');
+    await user.type(screen.getByLabelText('Price per sheet'), '9.5');
+    const currency = screen.getByLabelText<HTMLInputElement>('Currency');
+    await user.clear(currency);
+    await user.type(currency, 'usd');
+    expect(currency.value).toBe('USD');
+    await user.click(screen.getByRole('button', { name: 'Add the material' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    expect(screen.queryByText('A three-letter currency code such as EUR')).not.toBeInTheDocument();
+    expect(toMaterialRequest(onSubmit.mock.calls[0]![0]).stockSheets).toEqual([
+      { widthMm: 600, heightMm: 400, pricePerSheet: 9.5, currency: 'USD' },
+    ]);
+  });
+});
+
 describe('a material kept off the laser', () => {
   const keptOff: MaterialView = {
     id: 'm-mdf',

@@ -19,7 +19,7 @@ import { useEffect, useMemo } from 'react';
 import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { Controller, type Path, useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
-import { FormTextField } from '../../../components/ui/form-text-field';
+import { FormTextField, upperCased } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { NumberField } from '../../../components/ui/number-field';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
@@ -209,7 +209,7 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
                     id={`sheet-${i}-currency`}
                     size="small"
                     label="Currency"
-                    registration={register(`stockSheets.${i}.currency`)}
+                    registration={upperCased(register(`stockSheets.${i}.currency`))}
                     error={e?.currency}
                     slotProps={{ htmlInput: { maxLength: 3 } }}
                   />

@@ -25,6 +25,8 @@ const stockSheetSchema = z.object({
   currency: z
     .string()
     .trim()
+    // A code typed in lower case ("usd") is the same code; the API takes it in capitals (ISO 4217).
+    .toUpperCase()
     .regex(/^[A-Z]{3}$/, 'A three-letter currency code such as EUR'),
 });
 
