@@ -33,6 +33,10 @@ describe('designs list', () => {
     renderApp('/designs?q=tetra', { token: 't' });
     expect(await screen.findByText('No designs match “tetra”.')).toBeInTheDocument();
     expect(screen.queryByText(/No designs yet/)).not.toBeInTheDocument();
+    // The search box shows the address's search and, as every list's, takes no more than the API does.
+    const box = screen.getByRole('searchbox', { name: 'Search name or description' });
+    expect(box).toHaveValue('tetra');
+    expect(box).toHaveAttribute('maxlength', '100');
   });
 
   it('names each solid as the studio does, and an uploaded solid by its file', async () => {

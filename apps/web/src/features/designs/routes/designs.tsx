@@ -1,9 +1,10 @@
 import { type DesignSummary } from '@kerfwright/contracts';
 import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
-import TextField from '@mui/material/TextField';
+import Box from '@mui/material/Box';
 import { Link } from 'react-router-dom';
 import { DataTable, type DataTableColumn } from '../../../components/data-table/data-table';
+import { SearchFilter } from '../../../components/data-table/filter-bar';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
 import { ListPage } from '../../../components/layouts/list-page';
 import { DESIGN_SORT_FIELDS, type DesignSortField, useDesigns } from '../api/get-designs';
@@ -63,13 +64,14 @@ export function DesignsRoute() {
       query={designs}
       errorTitle="The designs could not be loaded"
       filters={
-        <TextField
-          size="small"
-          label="Search name or description"
-          defaultValue={params.q ?? ''}
-          onChange={(e) => set({ q: e.target.value })}
-          sx={{ mb: 2 }}
-        />
+        <Box sx={{ mb: 2 }}>
+          <SearchFilter
+            id="designs-search"
+            label="Search name or description"
+            value={params.q ?? ''}
+            onSearch={(q) => set({ q })}
+          />
+        </Box>
       }
       table={
         <DataTable
