@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ApiError } from './api-client';
-import { FAILED_LIST_REFETCH_MS, refetchWhileFailing } from './query-client';
+import { FAILED_LIST_REFETCH_MS, createQueryClient, refetchWhileFailing } from './query-client';
 
 const failedWith = (error: unknown) => ({ state: { status: 'error', error } });
 
@@ -18,5 +18,9 @@ describe('refetchWhileFailing', () => {
     expect(refetchWhileFailing(failedWith(new ApiError(403, 'AUTH.FORBIDDEN', 'Not for your role')))).toBe(
       false,
     );
+  });
+
+  it('is what every query of the app does, so every page recovers once the service is back', () => {
+    expect(createQueryClient().getDefaultOptions().queries?.refetchInterval).toBe(refetchWhileFailing);
   });
 });

@@ -14,9 +14,9 @@ function shouldRetry(failureCount: number, error: unknown): boolean {
 export const FAILED_LIST_REFETCH_MS = 15_000;
 
 /**
- * A refetchInterval for a list a form needs: after its retries have failed on network trouble or a 5xx, it is
- * asked again every FAILED_LIST_REFETCH_MS until it loads, so the form recovers once the service is back. A
- * loaded list, or a refusal (4xx), is not asked again.
+ * The queries' refetchInterval: after its retries have failed on network trouble or a 5xx, a query is asked
+ * again every FAILED_LIST_REFETCH_MS until it loads, so a page (or a form's list) recovers once the service
+ * is back. A loaded query, or a refusal (4xx), is not asked again.
  */
 export function refetchWhileFailing(query: { state: { status: string; error: unknown } }): number | false {
   return query.state.status === 'error' && !isClientError(query.state.error) ? FAILED_LIST_REFETCH_MS : false;
@@ -31,7 +31,14 @@ export const QUEUE_REFRESH_MS = 30_000;
 export function createQueryClient(): QueryClient {
   return new QueryClient({
     defaultOptions: {
-      queries: { staleTime: 30_000, retry: shouldRetry, refetchOnWindowFocus: true },
+      // Every page recovers by itself once the service is back (refetchWhileFailing): a list or a record
+      // that could not be loaded is asked again while it is on screen; queries that poll set their own.
+      queries: {
+        staleTime: 30_000,
+        retry: shouldRetry,
+        refetchOnWindowFocus: true,
+        refetchInterval: refetchWhileFailing,
+      },
       mutations: { retry: false },
     },
   });

@@ -5,11 +5,16 @@ import { type ReactNode } from 'react';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { AppProvider } from '../app/provider';
 import { routes } from '../app/routes';
+import { refetchWhileFailing } from '../lib/query-client';
 import { TOKEN_STORAGE_KEY } from '../lib/token-store';
 
+/** As the app's client (createQueryClient), less the retries and refetches on staleness that slow tests. */
 function testQueryClient(): QueryClient {
   return new QueryClient({
-    defaultOptions: { queries: { retry: false, staleTime: Infinity }, mutations: { retry: false } },
+    defaultOptions: {
+      queries: { retry: false, staleTime: Infinity, refetchInterval: refetchWhileFailing },
+      mutations: { retry: false },
+    },
   });
 }
 

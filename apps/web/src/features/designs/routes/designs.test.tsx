@@ -1,6 +1,7 @@
 import { type DesignSummary } from '@kerfwright/contracts';
 import { screen, within } from '@testing-library/react';
-import { describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { FAILED_LIST_REFETCH_MS } from '../../../lib/query-client';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
@@ -19,6 +20,8 @@ function emptyDesigns() {
 }
 
 describe('designs list', () => {
+  afterEach(() => vi.useRealTimers());
+
   it('tells a new member there are no designs yet and how to start one', async () => {
     emptyDesigns();
     renderApp('/designs', { token: 't' });
@@ -26,6 +29,25 @@ describe('designs list', () => {
     expect(await screen.findByText(/No designs yet\. Start one with New design/)).toBeInTheDocument();
     expect(table).not.toHaveTextContent('No designs match');
     expect(screen.getByRole('link', { name: 'New design' })).toHaveAttribute('href', '/designs/new');
+  });
+
+  it('comes back by itself once the service is reachable again, without a reload or Try again', async () => {
+    vi.useFakeTimers({ shouldAdvanceTime: true });
+    let up = false;
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      // As a browser's fetch fails while the service is down.
+      'GET /api/designs': () =>
+        up
+          ? json(200, { items: [], total: 0, page: 1, pageSize: 25 })
+          : Promise.reject(new TypeError('Failed to fetch')),
+    });
+    renderApp('/designs', { token: 't' });
+    expect(await screen.findByText('The designs could not be loaded')).toBeInTheDocument();
+    up = true;
+    await vi.advanceTimersByTimeAsync(FAILED_LIST_REFETCH_MS + 100);
+    expect(await screen.findByText(/No designs yet/)).toBeInTheDocument();
+    expect(screen.queryByText('The designs could not be loaded')).not.toBeInTheDocument();
   });
 
   it('says that nothing matches only when a search is set', async () => {

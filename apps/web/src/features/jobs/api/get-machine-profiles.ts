@@ -1,7 +1,6 @@
 import { type MachineProfileSummaryView, type Page } from '@kerfwright/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { refetchWhileFailing } from '../../../lib/query-client';
 import { jobsKeys } from './jobs-keys';
 
 /** GET /api/machine-profiles (first 100), each with its current approved version if any. */
@@ -9,11 +8,9 @@ export function getMachineProfiles(signal?: AbortSignal): Promise<Page<MachinePr
   return api.get<Page<MachineProfileSummaryView>>('/machine-profiles', { page: 1, pageSize: 100 }, signal);
 }
 
-/** The machine profiles list; asked again by itself while it cannot be loaded (see refetchWhileFailing). */
 export function useMachineProfiles(enabled: boolean) {
   return useQuery({
     ...queryOptions({ queryKey: jobsKeys.profiles(), queryFn: ({ signal }) => getMachineProfiles(signal) }),
     enabled,
-    refetchInterval: refetchWhileFailing,
   });
 }

@@ -1,7 +1,6 @@
 import { type MaterialView, type Page } from '@kerfwright/contracts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { refetchWhileFailing } from '../../../lib/query-client';
 import { jobsKeys } from './jobs-keys';
 
 /** GET /api/materials (first 100): the materials a fabricator can prepare a job with. */
@@ -9,11 +8,9 @@ export function getMaterials(signal?: AbortSignal): Promise<Page<MaterialView>> 
   return api.get<Page<MaterialView>>('/materials', { page: 1, pageSize: 100 }, signal);
 }
 
-/** The materials list; asked again by itself while it cannot be loaded (see refetchWhileFailing). */
 export function useMaterials(enabled: boolean) {
   return useQuery({
     ...queryOptions({ queryKey: jobsKeys.materials(), queryFn: ({ signal }) => getMaterials(signal) }),
     enabled,
-    refetchInterval: refetchWhileFailing,
   });
 }
