@@ -10,17 +10,7 @@ import Typography from '@mui/material/Typography';
 import { Fragment } from 'react';
 import { versionRows } from '../utils/version-rows';
 import { VersionStateChip } from './version-state-chip';
-
-/** Read by screen readers, not shown. */
-const HIDDEN = {
-  position: 'absolute',
-  // Pixels, not sx's fractions: `width: 1` would mean 100 %.
-  width: '1px',
-  height: '1px',
-  overflow: 'hidden',
-  clip: 'rect(0 0 0 0)',
-  whiteSpace: 'nowrap',
-} as const;
+import { SCREEN_READER_ONLY } from '../../../components/ui/screen-reader-only';
 
 /**
  * Versions side by side: one column per version (oldest on the left), one row per value. A cell that
@@ -81,7 +71,7 @@ export function VersionComparison({ versions }: { versions: readonly MachineProf
                       >
                         {value === null ? '—' : value || '—'}
                         {changed ? (
-                          <Box component="span" sx={HIDDEN}>
+                          <Box component="span" sx={SCREEN_READER_ONLY}>
                             {' '}
                             (changed)
                           </Box>

@@ -141,6 +141,12 @@ describe('release desk', () => {
       await within(table).findByRole('progressbar', { name: 'Preparing the cut pack, 65 %' }),
     ).toBeInTheDocument();
     expect(within(table).getByText('Ready, 2 files')).toBeInTheDocument();
+    // Every column has a name, the buttons' too (a screen reader reads it with each cell).
+    expect(
+      within(table)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['Design', 'State', 'Material', 'Machine', 'Sheets', 'Cut pack', 'Open']);
     // At phone width (375 px) the seven columns scroll inside the card instead of running out of it.
     expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
   });

@@ -23,6 +23,7 @@ import { useEffect, useRef, useState } from 'react';
 import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { SCREEN_READER_ONLY } from '../../../components/ui/screen-reader-only';
 import { paths } from '../../../config/paths';
 import { useUser } from '../../../lib/auth';
 import { useLengthUnit } from '../../../lib/use-length-unit';
@@ -121,7 +122,12 @@ export function ReleaseDeskRoute() {
                 <TableCell>Machine</TableCell>
                 <TableCell>Sheets</TableCell>
                 <TableCell>Cut pack</TableCell>
-                <TableCell />
+                {/* Named for screen readers, which read a column's header with each of its cells. */}
+                <TableCell align="right">
+                  <Box component="span" sx={SCREEN_READER_ONLY}>
+                    Open
+                  </Box>
+                </TableCell>
               </TableRow>
             </TableHead>
             <TableBody>
