@@ -262,10 +262,19 @@ function stretchedLattices(view: CellNfp, base: readonly Lattice[], span: number
   return out;
 }
 
-/** Slots of a lattice of cells on one sheet, for a few origin shifts; the fullest wins. */
-function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice): PlacedItem[] {
+/**
+ * Slots of a lattice of cells on one sheet, for a few origin shifts; the fullest wins. The count comes at
+ * once and the slots when asked for: a search weighs dozens of lattices, and thousands of small pieces to a
+ * sheet would otherwise keep every lattice's slots in memory (a gigabyte for 8,000 small triangles).
+ */
+function fillSheet(
+  frame: SheetFrame,
+  cell: readonly CellPiece[],
+  lat: Lattice,
+): { count: number; slots: () => PlacedItem[] } {
+  const none = { count: 0, slots: () => [] };
   const fits = cell.map((c) => innerFit(frame, c.variant));
-  if (fits.some((f) => f === null)) return [];
+  if (fits.some((f) => f === null)) return none;
   let cellMinY = INF;
   let cellMinX = INF;
   for (let i = 0; i < cell.length; i++) {
@@ -315,14 +324,18 @@ function fillSheet(frame: SheetFrame, cell: readonly CellPiece[], lat: Lattice):
         bestOrigin = [ox0, oy];
       }
     }
-  const best: PlacedItem[] = [];
-  if (bestOrigin) visit(bestOrigin[0], bestOrigin[1], best);
-  best.sort(
-    (p, q) =>
-      p.tx + p.variant.ubounds.maxX - (q.tx + q.variant.ubounds.maxX) ||
-      p.ty + p.variant.ubounds.minY - (q.ty + q.variant.ubounds.minY),
-  );
-  return best;
+  const origin = bestOrigin;
+  if (!origin) return none;
+  const slots = () => {
+    const best: PlacedItem[] = [];
+    visit(origin[0], origin[1], best);
+    return best.sort(
+      (p, q) =>
+        p.tx + p.variant.ubounds.maxX - (q.tx + q.variant.ubounds.maxX) ||
+        p.ty + p.variant.ubounds.minY - (q.ty + q.variant.ubounds.minY),
+    );
+  };
+  return { count: bestCount, slots };
 }
 
 /** The range (integer units) the cell's reference point may take across the sheet with every piece inside. */
@@ -551,15 +564,23 @@ function searchPattern(
   free: boolean,
 ): PatternResult | null {
   const outline = cache.parts[partIndex]!.outline;
-  const results: PatternResult[] = [...convexLatticePatterns(cache, frame, partIndex, rotationsDeg, free)];
+  // Candidates keep their count; their slots are laid out only for the ones checked (see fillSheet).
+  type Candidate = Omit<PatternResult, 'slots'> & { count: number; slots: () => PlacedItem[] };
+  const results: Candidate[] = convexLatticePatterns(cache, frame, partIndex, rotationsDeg, free).map(
+    (r) => ({
+      ...r,
+      count: r.slots.length,
+      slots: () => r.slots,
+    }),
+  );
   const consider = (cell: CellPiece[], label: string) => {
     const nfp = cellNfpView(cellNfp(cache, cell));
     const lattices = candidateLattices(nfp);
     for (const lat of [...lattices, ...stretchedLattices(nfp, lattices, rowSpan(frame, cell))]) {
-      const slots = fillSheet(frame, cell, lat);
-      if (slots.length === 0) continue;
+      const filled = fillSheet(frame, cell, lat);
+      if (filled.count === 0) continue;
       const density = (cell.length * SCALE_PER_MM * SCALE_PER_MM) / (lat.ax * lat.by);
-      results.push({ slots, densityPerMm2: density, description: label });
+      results.push({ count: filled.count, slots: filled.slots, densityPerMm2: density, description: label });
     }
   };
   const primaries = new Set<number>();
@@ -580,7 +601,12 @@ function searchPattern(
         `double lattice ${v.rotationDeg}°/${w.rotationDeg}°`,
       );
   }
-  results.sort((p, q) => q.slots.length - p.slots.length || q.densityPerMm2 - p.densityPerMm2);
+  results.sort((p, q) => q.count - p.count || q.densityPerMm2 - p.densityPerMm2);
   // The construction should always be clear; check the chosen one and fall back to the next if not.
-  return results.find((r) => r.verified === true || slotsAreClear(cache, r.slots)) ?? null;
+  for (const r of results) {
+    const slots = r.slots();
+    if (r.verified === true || slotsAreClear(cache, slots))
+      return { slots, densityPerMm2: r.densityPerMm2, description: r.description, verified: r.verified };
+  }
+  return null;
 }
