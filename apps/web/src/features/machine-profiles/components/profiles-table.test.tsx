@@ -1,10 +1,8 @@
 import { type MachineProfileSummaryView } from '@kerfwright/contracts';
-import { screen, within } from '@testing-library/react';
+import { screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { DataTable } from '../../../components/data-table/data-table';
 import { versionFixture } from '../../../testing/fixtures';
-import { renderWithProviders } from '../../../testing/render-app';
-import { stubScreenWidth } from '../../../testing/screen-width';
+import { tableHeadersAt } from '../../../testing/table-headers';
 import { PROFILE_COLUMNS } from './profiles-table';
 
 const profile: MachineProfileSummaryView = {
@@ -16,30 +14,14 @@ const profile: MachineProfileSummaryView = {
   createdAt: '2026-01-01T00:00:00.000Z',
 };
 
-async function headersAt(px: number) {
-  stubScreenWidth(px);
-  renderWithProviders(
-    <DataTable
-      label="Machine profiles"
-      columns={PROFILE_COLUMNS}
-      rows={[profile]}
-      rowKey={(p) => p.id}
-      minWidth={760}
-      emptyText="None."
-      fetching={false}
-      fetchingLabel="Loading machine profiles"
-      total={1}
-      page={1}
-      pageSize={25}
-      pageSizes={[25]}
-      onPage={vi.fn()}
-      onPageSize={vi.fn()}
-    />,
-  );
-  return within(await screen.findByRole('table', { name: 'Machine profiles' }))
-    .getAllByRole('columnheader')
-    .map((h) => h.textContent);
-}
+const headersAt = (px: number) =>
+  tableHeadersAt(px, {
+    label: 'Machine profiles',
+    columns: PROFILE_COLUMNS,
+    rows: [profile],
+    rowKey: (p) => p.id,
+    minWidth: 760,
+  });
 
 describe('the machine profiles table', () => {
   afterEach(() => vi.unstubAllGlobals());
