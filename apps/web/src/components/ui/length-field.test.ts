@@ -29,8 +29,21 @@ describe('inch fields over millimetre values', () => {
     );
     expect(messageInInches('Between −2 and 2 mm')).toBe('Between −0.0787 and 0.0787 in');
     expect(messageInInches('Leaves no room inside the 5 mm margins: more than 10 mm')).toBe(
-      'Leaves no room inside the 0.1969 in margins: more than 0.3937 in',
+      'Leaves no room inside the 0.1969 in margins: more than 0.3938 in',
     );
     expect(messageInInches('Enter the sheet width')).toBe('Enter the sheet width');
+  });
+
+  it('rounds a limit inward, so that the value it says is taken: a maximum down, a minimum up', () => {
+    // 10,000 mm = 393.70079 in: "393.7008" would be 10,000.0003 mm, over the limit.
+    expect(messageInInches('At most 10000 mm')).toBe('At most 393.7007 in');
+    expect(inchesToMm('393.7007')).toBeLessThanOrEqual(10_000);
+    expect(messageInInches('At most 25 mm')).toBe('At most 0.9842 in');
+    // 0.1 mm = 0.003937 in: "0.0039" would be 0.09906 mm, under it.
+    expect(messageInInches('At least 0.1 mm; leave it empty if it was not measured')).toBe(
+      'At least 0.004 in; leave it empty if it was not measured',
+    );
+    expect(inchesToMm('0.004')).toBeGreaterThanOrEqual(0.1);
+    expect(messageInInches('More than 0 mm')).toBe('More than 0 in');
   });
 });

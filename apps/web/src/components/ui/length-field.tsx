@@ -33,20 +33,40 @@ const MM_RANGE = new RegExp(String.raw`(${NUMBER})( and | to |–)(${NUMBER}) mm
 const MM_LENGTH = new RegExp(String.raw`(${NUMBER}) mm\b`, 'g');
 
 /** A number as a message writes it ("−2" with a minus sign) in inches, as typed back ("0.0787"). */
-function inchesOf(text: string): string {
-  const mm = Number(text.replace('−', '-'));
-  const inches = inchesText(Math.abs(mm));
-  return mm < 0 ? `−${inches}` : inches;
+/** Which way a limit is rounded to the inch's four decimals: inward, so the value said is one the check takes. */
+type Inward = 'up' | 'down' | 'nearest';
+
+/** A number as a message writes it ("−2" with a minus sign) in inches to four decimals, rounded `way`. */
+function inchesOf(text: string, way: Inward): string {
+  const inches = Number(text.replace('−', '-')) / MM_PER_INCH;
+  const round = way === 'up' ? Math.ceil : way === 'down' ? Math.floor : Math.round;
+  // A hair off whole ten-thousandths (floating point) is not rounded a whole step away.
+  const r = round(Number((inches * 1e4).toFixed(6))) / 1e4;
+  const abs = String(Number(Math.abs(r).toFixed(4)));
+  return r < 0 ? `−${abs}` : abs;
+}
+
+/** The way a lone limit rounds, from the words before it: "At most" down, "At least" and "more than" up. */
+function wayBefore(text: string): Inward {
+  if (/\bat most\s*$/i.test(text)) return 'down';
+  if (/\b(at least|more than)\s*$/i.test(text)) return 'up';
+  return 'nearest';
 }
 
 /**
  * A form's message for a length, its millimetres said in inches for a reader who types inches: "At most
- * 100 mm" becomes "At most 3.937 in", "Between −2 and 2 mm" becomes "Between −0.0787 and 0.0787 in".
+ * 100 mm" becomes "At most 3.937 in", "Between −2 and 2 mm" becomes "Between −0.0787 and 0.0787 in". Limits
+ * are rounded inward (a maximum down, a minimum up), so that typing the value said is accepted.
  */
 export function messageInInches(message: string): string {
   return message
-    .replace(MM_RANGE, (_, a: string, join: string, b: string) => `${inchesOf(a)}${join}${inchesOf(b)} in`)
-    .replace(MM_LENGTH, (_, a: string) => `${inchesOf(a)} in`);
+    .replace(
+      MM_RANGE,
+      (_, a: string, join: string, b: string) => `${inchesOf(a, 'up')}${join}${inchesOf(b, 'down')} in`,
+    )
+    .replace(MM_LENGTH, (_, a: string, offset: number, whole: string) => {
+      return `${inchesOf(a, wayBefore(whole.slice(0, offset)))} in`;
+    });
 }
 
 /**
