@@ -78,8 +78,11 @@ export const SpecForm = memo(function SpecForm({
   suggestedSizes,
   unit = 'mm',
   newDesign = false,
+  onStockShown,
 }: {
   form: UseFormReturn<DesignFormValues>;
+  /** Told the material of the workshop stock the form's sheet and thickness are (see StockSheetPicker). */
+  onStockShown?: (materialId: string | null) => void;
   /** A design not saved yet: it starts from the workshop's stock when its starting sheet is not stock. */
   newDesign?: boolean;
   /** The unit the lengths are shown and typed in (the form keeps millimetres). */
@@ -289,7 +292,13 @@ export const SpecForm = memo(function SpecForm({
       </Section>
 
       <Section title="Stock sheet">
-        <StockSheetPicker form={form} materials={materials.data?.items} unit={unit} adoptFirst={newDesign} />
+        <StockSheetPicker
+          form={form}
+          materials={materials.data?.items}
+          unit={unit}
+          adoptFirst={newDesign}
+          onShown={onStockShown}
+        />
         <Stack direction="row" spacing={1}>
           <LengthField
             label={DESIGN_FIELD_LABELS.sheetWidthMm}

@@ -31,6 +31,9 @@ describe('workshop stock in the studio', () => {
     // Another board's 3.05 mm is not this plywood, near as it is.
     expect(at(600, 400, 3.05)).toBe(false);
     expect(at(600, 410, 3)).toBe(false);
+    // Typed back in inches as shown (four decimals): 23.622 × 15.748 in at 0.1142 in is this stock
+    // (599.9988 × 399.9992 mm at 2.90068 mm; 1 in = 25.4 mm exactly).
+    expect(at(599.9988, 399.9992, 2.90068)).toBe(true);
   });
 
   it('starts a new design from the stock its fields name, worked for the thickness the stock measures', () => {

@@ -9,6 +9,7 @@ import { type DesignFormValues } from './design-form-schema';
 /** One sheet size of one material the workshop keeps, as the studio offers it. */
 export interface StockOption {
   key: string;
+  materialId: string;
   materialName: string;
   widthMm: number;
   heightMm: number;
@@ -35,6 +36,7 @@ export function stockOptions(
     .flatMap((m) =>
       m.stockSheets.map((s, i) => ({
         key: `${m.id}:${i}`,
+        materialId: m.id,
         materialName: m.name,
         widthMm: s.widthMm,
         heightMm: s.heightMm,
@@ -57,16 +59,23 @@ export function isStockOf(
   o: StockOption,
   v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
 ): boolean {
-  return isSheetOf(o, v) && o.thicknessesMm.some((t) => Math.abs(t - v.thicknessMm) < 0.0005);
+  return isSheetOf(o, v) && o.thicknessesMm.some((t) => sameLength(t, v.thicknessMm));
 }
+
+/**
+ * Lengths the same as typed: within 0.003 mm, a little over the 0.00254 mm of the inch fields' fourth decimal,
+ * so that the sizes shown in inches and typed back are still the stock's (23.622 in is 599.9988 mm); listed
+ * sheets and thicknesses differ by far more.
+ */
+const sameLength = (a: number, b: number) => Math.abs(a - b) < 0.003;
 
 function isSheetOf(
   s: { widthMm: number; heightMm: number },
   v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm'>,
 ): boolean {
   return (
-    (s.widthMm === v.sheetWidthMm && s.heightMm === v.sheetHeightMm) ||
-    (s.widthMm === v.sheetHeightMm && s.heightMm === v.sheetWidthMm)
+    (sameLength(s.widthMm, v.sheetWidthMm) && sameLength(s.heightMm, v.sheetHeightMm)) ||
+    (sameLength(s.widthMm, v.sheetHeightMm) && sameLength(s.heightMm, v.sheetWidthMm))
   );
 }
 
@@ -76,7 +85,7 @@ function isSheetOf(
  */
 export function stockThicknessText(o: StockOption, formThicknessMm: number, unit: LengthUnit): string {
   const measured = o.thicknessesMm.length > 1;
-  if (Math.abs(o.thicknessMm - formThicknessMm) < 0.0005)
+  if (sameLength(o.thicknessMm, formThicknessMm))
     return `${formatLength(o.thicknessMm, unit)} thick${measured ? ' as measured' : ''}`;
   return (
     `sold as ${formatLength(formThicknessMm, unit)} and measured at ${formatLength(o.thicknessMm, unit)}: ` +
@@ -92,7 +101,7 @@ export function keepsStock(
   const thicknesses = [m.nominalThicknessMm, m.measuredThicknessMm].filter((t): t is number => t != null);
   return (
     m.stockSheets.some((sheet) => isSheetOf(sheet, v)) &&
-    thicknesses.some((t) => Math.abs(t - v.thicknessMm) < 0.0005)
+    thicknesses.some((t) => sameLength(t, v.thicknessMm))
   );
 }
 
@@ -109,7 +118,7 @@ export function stockToAdopt(
 ): StockOption | null {
   if (!untouched) return null;
   const match = options.find((o) => isStockOf(o, v));
-  if (match) return Math.abs(match.thicknessMm - v.thicknessMm) < 0.0005 ? null : match;
+  if (match) return sameLength(match.thicknessMm, v.thicknessMm) ? null : match;
   return options[0] ?? null;
 }
 
@@ -125,11 +134,14 @@ export function StockSheetPicker({
   materials,
   unit,
   adoptFirst,
+  onShown,
 }: {
   form: UseFormReturn<DesignFormValues>;
   materials: readonly MaterialView[] | undefined;
   unit: LengthUnit;
   adoptFirst: boolean;
+  /** The material of the stock shown (null for "typed in"), for the estimate to take the same stock. */
+  onShown?: (materialId: string | null) => void;
 }) {
   const [machineKind, sheetWidthMm, sheetHeightMm, thicknessMm] = useWatch({
     control: form.control,
@@ -141,6 +153,9 @@ export function StockSheetPicker({
   const current =
     options.find((o) => o.key === picked && isStockOf(o, values)) ??
     options.find((o) => isStockOf(o, values));
+
+  const shownId = current?.materialId ?? null;
+  useEffect(() => onShown?.(shownId), [onShown, shownId]);
 
   const use = (o: StockOption, asEdit: boolean) => {
     setPicked(o.key);

@@ -4,8 +4,10 @@ import {
   defaultEstimateChoice,
   failureSentence,
   materialThickness,
+  namedStockOf,
   sheetsSummary,
 } from './studio-sheets-panel';
+import { materialFixture } from '../../../testing/fixtures';
 
 const fmt = (mm: number) => formatLength(mm, 'mm');
 
@@ -86,6 +88,19 @@ describe('the machine the estimate takes at first', () => {
     expect(defaultEstimateChoice(listed, 'laser', () => true, named)?.key).toBe('co2/birch');
     expect(defaultEstimateChoice(listed, 'router', () => true, named)?.key).toBe('router/birch');
     expect(defaultEstimateChoice(listed, 'laser', () => true)?.key).toBe('co2/acrylic');
+  });
+
+  it('names the stock the picker shows, where several keep the same sheet at the thickness typed', () => {
+    // The audit's case: acrylic and plywood are both sold as 3 mm in 600 × 400 sheets; the picker shows plywood.
+    const acrylic = materialFixture({ id: 'acrylic', nominalThicknessMm: 3, measuredThicknessMm: 2.85 });
+    const birch = materialFixture({ id: 'birch', nominalThicknessMm: 3, measuredThicknessMm: 2.9 });
+    const fields = { sheetWidthMm: 600, sheetHeightMm: 400, thicknessMm: 3 };
+    const shown = namedStockOf('birch', [acrylic, birch], fields);
+    expect([shown('acrylic'), shown('birch')]).toEqual([false, true]);
+    // With no stock shown, any that keeps the sheet at the thickness.
+    const any = namedStockOf(null, [acrylic, birch], fields);
+    expect([any('acrylic'), any('birch')]).toEqual([true, true]);
+    expect(namedStockOf(null, [acrylic], { ...fields, sheetWidthMm: 610 })('acrylic')).toBe(false);
   });
 
   it("prefers a machine of the design's own kind with stock of its thickness", () => {

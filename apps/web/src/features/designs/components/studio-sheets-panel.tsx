@@ -103,6 +103,25 @@ export function defaultEstimateChoice<C extends { profileKind: MachineProfileKin
   return undefined;
 }
 
+/**
+ * Whether a material is the stock the design's fields name: the one its stock picker shows (`shown`), or,
+ * with none shown, any that keeps the fields' sheet at their thickness.
+ */
+export function namedStockOf(
+  shown: string | null,
+  materials: readonly Pick<
+    MaterialView,
+    'id' | 'stockSheets' | 'nominalThicknessMm' | 'measuredThicknessMm'
+  >[],
+  fields: { sheetWidthMm: number; sheetHeightMm: number; thicknessMm: number } | null,
+): (materialId: string) => boolean {
+  return (materialId) => {
+    if (shown !== null) return materialId === shown;
+    const m = materials.find((x) => x.id === materialId);
+    return m !== undefined && fields !== null && keepsStock(m, fields);
+  };
+}
+
 export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   spec,
   preview,
@@ -111,7 +130,10 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   colourCount,
   colourRule,
   unit,
+  stockMaterialId = null,
 }: {
+  /** The material of the workshop stock the form shows (its stock picker), if any: the estimate takes it. */
+  stockMaterialId?: string | null;
   /** The studio's spec (a "fit to sheets" spec as it is, not the preview's fitted one). */
   spec: DesignSpecInput | null;
   preview: BuiltPreview;
@@ -197,20 +219,13 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
       )
     );
   };
-  // The stock the fields name: the sheet laid out, at the design's thickness.
-  const namedStock = (materialId: string) => {
-    const m = materials.data?.items.find((x) => x.id === materialId);
-    return (
-      m !== undefined &&
-      sheet !== undefined &&
-      designThicknessMm !== null &&
-      keepsStock(m, {
-        sheetWidthMm: sheet.widthMm,
-        sheetHeightMm: sheet.heightMm,
-        thicknessMm: designThicknessMm,
-      })
-    );
-  };
+  const namedStock = namedStockOf(
+    stockMaterialId,
+    materials.data?.items ?? [],
+    sheet && designThicknessMm !== null
+      ? { sheetWidthMm: sheet.widthMm, sheetHeightMm: sheet.heightMm, thicknessMm: designThicknessMm }
+      : null,
+  );
   const designKind = (layoutSpec ?? spec)?.machine.kind ?? null;
   const choiceKey =
     machineChoice ?? defaultEstimateChoice(choices, designKind, soldAs, namedStock)?.key ?? '';

@@ -133,6 +133,8 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   // The upload as last saved (or loaded): a change of it is an unsaved edit.
   const [savedUpload, setSavedUpload] = useState<UploadedSolid | null>(initial.upload);
   const [unit, setUnit] = useLengthUnit();
+  // The material of the workshop stock the form shows: the estimate takes the same stock.
+  const [stockMaterialId, setStockMaterialId] = useState<string | null>(null);
   const [tab, setTab] = useState(0);
   const [selected, setSelected] = useState<string | undefined>(undefined);
   const [requestOpen, setRequestOpen] = useState(false);
@@ -321,6 +323,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
             suggestedSizes={suggestedSizes}
             unit={unit}
             newDesign={design === null}
+            onStockShown={setStockMaterialId}
           />
         </Paper>
 
@@ -359,6 +362,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
             colourCount={colourCount}
             colourRule={colourRule}
             unit={unit}
+            stockMaterialId={stockMaterialId}
           />
         </Stack>
       </Box>
