@@ -36,6 +36,7 @@ const COLUMNS: readonly DataTableColumn<DesignSummary, DesignSortField>[] = [
   },
   {
     id: 'updated',
+    hideOnPhone: true,
     header: 'Updated',
     sortField: 'updatedAt',
     render: (d) => formatDateTime(d.updatedAt),

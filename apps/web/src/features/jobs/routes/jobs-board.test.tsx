@@ -5,6 +5,7 @@ import { json, stubFetch } from '../../../testing/fetch-stub';
 import { jobFixture, userFixture } from '../../../testing/fixtures';
 import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
+import { stubScreenWidth } from '../../../testing/screen-width';
 
 function boardJob(id: string, state: JobView['state'], requesterName: string): JobView {
   return jobFixture({
@@ -19,7 +20,10 @@ function boardJob(id: string, state: JobView['state'], requesterName: string): J
 }
 
 describe('jobs board', () => {
-  afterEach(() => vi.useRealTimers());
+  afterEach(() => {
+    vi.useRealTimers();
+    vi.unstubAllGlobals();
+  });
 
   it('shows jobs sent meanwhile without reloading the page', async () => {
     vi.useFakeTimers({ shouldAdvanceTime: true });
@@ -66,6 +70,29 @@ describe('jobs board', () => {
       expect(within(within(table).getByTestId(row)).getAllByRole('cell')[column]).toHaveTextContent(name);
     }
     expect(screen.getByLabelText('Search design or owner')).toBeInTheDocument();
+  });
+
+  it('keeps what a job is and where it stands on a tablet (768 px) and a phone (390 px)', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      'GET /api/jobs': () =>
+        json(200, { items: [boardJob('j-1', 'requested', 'Ana Ruiz')], total: 1, page: 1, pageSize: 25 }),
+    });
+    for (const [px, expected] of [
+      [768, ['Design', 'Owner', 'State', 'Material', 'Machine profile', 'Updated']],
+      [390, ['Design', 'Owner', 'State']],
+    ] as const) {
+      stubScreenWidth(px);
+      const { unmount } = renderApp('/jobs', { token: 't' });
+      const table = await screen.findByRole('table', { name: 'Jobs' });
+      await within(table).findByTestId('job-row-j-1');
+      expect(
+        within(table)
+          .getAllByRole('columnheader')
+          .map((h) => h.textContent),
+      ).toEqual(expected);
+      unmount();
+    }
   });
 
   it("says whose jobs the board lists: a hobbyist's own, the workshop's for staff", async () => {

@@ -38,16 +38,18 @@ const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
     header: 'Machine profile',
     render: (job) => (job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : '—'),
   },
-  { id: 'copies', hideOnPhone: true, header: 'Copies', align: 'right', render: (job) => job.quantity },
+  // A tablet keeps what a job is and where it stands; a phone (below) its design, owner and state.
+  { id: 'copies', hideOnTablet: true, header: 'Copies', align: 'right', render: (job) => job.quantity },
   {
     id: 'created',
-    hideOnPhone: true,
+    hideOnTablet: true,
     header: 'Created',
     sortField: 'createdAt',
     render: (job) => formatDate(job.createdAt),
   },
   {
     id: 'updated',
+    hideOnPhone: true,
     header: 'Updated',
     sortField: 'updatedAt',
     render: (job) => formatDateTime(job.updatedAt),
