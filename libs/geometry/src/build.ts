@@ -237,12 +237,15 @@ export function solveModelColourPlan(model: BuiltModel, countCap = 0): ColourPla
   });
 }
 
-/** Design errors no size removes: slot widths follow the stock and the fit alone, crossings the shape alone. */
-const SIZE_FREE_ERRORS: ReadonlyMap<string, 'cutter' | 'fit' | 'design'> = new Map([
-  ['SLOT.NARROWER_THAN_KERF', 'cutter'],
-  ['SLOT.NARROWER_THAN_TOOL', 'cutter'],
-  ['SLOT.WIDTH_NOT_POSITIVE', 'fit'],
-  ['DESIGN.NO_CROSSINGS', 'design'],
+/**
+ * Design errors no size removes (slot widths follow the stock and the fit alone, crossings the shape alone),
+ * and the remedy that works for each.
+ */
+const SIZE_FREE_REMEDIES: ReadonlyMap<string, string> = new Map([
+  ['SLOT.NARROWER_THAN_KERF', 'choose thicker stock, a larger fit allowance or a laser with a narrower kerf'],
+  ['SLOT.NARROWER_THAN_TOOL', 'choose thicker stock, a larger fit allowance or a smaller bit'],
+  ['SLOT.WIDTH_NOT_POSITIVE', 'choose a larger fit allowance'],
+  ['DESIGN.NO_CROSSINGS', 'change the design'],
 ]);
 
 /**
@@ -256,21 +259,14 @@ export function noFitReason(
   spec: ResolvedSpec,
   larger: string,
 ): string {
-  const fixed = errors.find((e) => SIZE_FREE_ERRORS.has(e.code));
-  const cutter = spec.machine.kind === 'laser' ? 'a laser with a narrower kerf' : 'a smaller bit';
-  switch (fixed ? SIZE_FREE_ERRORS.get(fixed.code) : undefined) {
-    case 'cutter':
-      return `has errors at every size (${fixed!.message}); choose thicker stock, a larger fit allowance or ${cutter}`;
-    case 'fit':
-      return `has errors at every size (${fixed!.message}); choose a larger fit allowance`;
-    case 'design':
-      return `has errors at every size (${fixed!.message}); change the design`;
-    default:
-      return (
-        `has design errors at ${spec.stock.thicknessMm} mm stock (the slots take too much of pieces that small); ` +
-        `choose ${larger}, or thinner stock, or change the design`
-      );
+  for (const e of errors) {
+    const remedy = SIZE_FREE_REMEDIES.get(e.code);
+    if (remedy) return `has errors at every size (${e.message}); ${remedy}`;
   }
+  return (
+    `has design errors at ${spec.stock.thicknessMm} mm stock (the slots take too much of pieces that small); ` +
+    `choose ${larger}, or thinner stock, or change the design`
+  );
 }
 
 /**

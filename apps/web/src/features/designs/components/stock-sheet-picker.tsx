@@ -20,6 +20,11 @@ export interface StockOption {
   thicknessesMm: number[];
 }
 
+/** A material's nominal thickness and, when measured, its measured one: either counts as this stock's. */
+function thicknessesOf(m: Pick<MaterialView, 'nominalThicknessMm' | 'measuredThicknessMm'>): number[] {
+  return [m.nominalThicknessMm, ...(m.measuredThicknessMm != null ? [m.measuredThicknessMm] : [])];
+}
+
 /**
  * Every stock sheet the workshop lists, material by material; for a laser design, only materials a laser may
  * cut (the others are refused at preparation anyway).
@@ -42,10 +47,7 @@ export function stockOptions(
         heightMm: s.heightMm,
         thicknessMm: m.measuredThicknessMm ?? m.nominalThicknessMm,
         flexible: m.flexible,
-        thicknessesMm: [
-          m.nominalThicknessMm,
-          ...(m.measuredThicknessMm != null ? [m.measuredThicknessMm] : []),
-        ],
+        thicknessesMm: thicknessesOf(m),
       })),
     );
 }
@@ -98,10 +100,9 @@ export function keepsStock(
   m: Pick<MaterialView, 'stockSheets' | 'nominalThicknessMm' | 'measuredThicknessMm'>,
   v: Pick<DesignFormValues, 'sheetWidthMm' | 'sheetHeightMm' | 'thicknessMm'>,
 ): boolean {
-  const thicknesses = [m.nominalThicknessMm, m.measuredThicknessMm].filter((t): t is number => t != null);
   return (
     m.stockSheets.some((sheet) => isSheetOf(sheet, v)) &&
-    thicknesses.some((t) => sameLength(t, v.thicknessMm))
+    thicknessesOf(m).some((t) => sameLength(t, v.thicknessMm))
   );
 }
 
