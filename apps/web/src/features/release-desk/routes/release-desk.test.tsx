@@ -369,6 +369,23 @@ describe('release desk', () => {
     });
   });
 
+  it('records the measured kerf in inches once the desk is switched to inches, and keeps millimetres in the request', async () => {
+    const stub = stubDesk(true);
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'inch' }));
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    await user.click(await within(job).findByRole('button', { name: 'Record the cut' }));
+    await user.type(await screen.findByLabelText('Machine time (minutes)'), '21');
+    await user.type(screen.getByLabelText('Measured kerf (in, optional)'), '0.007');
+    await user.click(within(screen.getByRole('dialog')).getByRole('button', { name: 'Record the cut' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    // 0.007 in × 25.4 mm per inch (the inch's definition, NIST SP 811) = 0.1778 mm.
+    const body = stub.calls.find((c) => c.method === 'POST')?.body as { measuredKerfMm: number };
+    expect(body.measuredKerfMm).toBeCloseTo(0.1778, 6);
+    expect(window.localStorage.getItem('kerfwright.lengthUnit')).toBe('in');
+  });
+
   it('gives the keyboard back to the job once its cut is recorded and its button gone', async () => {
     let cutDone = false;
     stubDesk(

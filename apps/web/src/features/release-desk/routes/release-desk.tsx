@@ -24,6 +24,7 @@ import { Link, useLocation, useNavigate, useSearchParams } from 'react-router-do
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { SCREEN_READER_ONLY } from '../../../components/ui/screen-reader-only';
+import { UnitToggle } from '../../../components/ui/unit-toggle';
 import { paths } from '../../../config/paths';
 import { useUser } from '../../../lib/auth';
 import { useLengthUnit } from '../../../lib/use-length-unit';
@@ -45,6 +46,7 @@ import { countOf } from '../../../lib/plural';
  */
 export function ReleaseDeskRoute() {
   const desk = useReleaseDeskJobs();
+  const [unit, setUnit] = useLengthUnit();
   // The opened job is in the address (?job=…): the browser's Back closes it, and a link to it opens it.
   const [params, setParams] = useSearchParams();
   const selectedId = params.get('job');
@@ -77,7 +79,13 @@ export function ReleaseDeskRoute() {
   return (
     <Box data-testid="release-desk">
       <title>Release desk · Kerfwright</title>
-      <Typography variant="h1">Release desk</Typography>
+      <Stack direction="row" spacing={2} sx={{ alignItems: 'center' }}>
+        <Typography variant="h1" sx={{ flex: 1 }}>
+          Release desk
+        </Typography>
+        {/* The measured kerf is recorded here: in the unit the workshop's gauges read. */}
+        <UnitToggle unit={unit} onUnit={setUnit} />
+      </Stack>
       <Typography color="text.secondary" sx={{ mb: 2 }}>
         Jobs released to the machines, and those whose cut pack is being prepared. Read the safety notices
         before downloading; the workshop&apos;s rules and the machine maker&apos;s manual come first.
