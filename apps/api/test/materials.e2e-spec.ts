@@ -360,6 +360,60 @@ describe('materials library', () => {
       expect(mdfAgain.body).toMatchObject({ laserAllowed: true, hazardNote: '' });
     });
 
+    it('lets only a supervisor move a laser-usable material into a family cut only on a condition', async () => {
+      const felt = await hazardRow(ctx, 'felt');
+      const other = await hazardRow(ctx, 'other');
+      expect([felt.laser, other.laser]).toEqual(['conditional', 'conditional']);
+      const m = await createMaterial({ family: 'acrylic', name: unique('Clear sheet') });
+      // Machine versions approved for it were checked as acrylic: the felt condition was never accepted.
+      for (const family of ['felt', 'other']) {
+        const res = await ctx.http
+          .patch(`/api/materials/${m.id}`)
+          .set(auth('fabricator'))
+          .send({ version: m.version, family })
+          .expect(403);
+        expectErrorBody(res.body, 403, 'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR');
+        expect(res.body.message).toContain(family === 'felt' ? felt.condition : other.condition);
+      }
+      const same = await ctx.http.get(`/api/materials/${m.id}`).set(auth('operator')).expect(200);
+      expect(same.body).toMatchObject({ family: 'acrylic', laserAllowed: true, version: m.version });
+      // A supervisor accepts it; the note is the new family's condition, and follows a later move.
+      const toOther = await ctx.http
+        .patch(`/api/materials/${m.id}`)
+        .set(auth('supervisor'))
+        .send({ version: m.version, family: 'other' })
+        .expect(200);
+      expect(toOther.body).toMatchObject({
+        laserAllowed: true,
+        hazardNote: `Laser only when: ${other.condition}`,
+      });
+      const toFelt = await ctx.http
+        .patch(`/api/materials/${m.id}`)
+        .set(auth('supervisor'))
+        .send({ version: toOther.body.version, family: 'felt' })
+        .expect(200);
+      expect(toFelt.body.hazardNote).toBe(`Laser only when: ${felt.condition}`);
+      // Back into a family cut outright is no new risk: the fabricator's, and the condition note goes.
+      const back = await ctx.http
+        .patch(`/api/materials/${m.id}`)
+        .set(auth('fabricator'))
+        .send({ version: toFelt.body.version, family: 'acrylic' })
+        .expect(200);
+      expect(back.body).toMatchObject({ family: 'acrylic', laserAllowed: true, hazardNote: '' });
+      // A material kept off the laser may be reclassified by a fabricator: it stays off.
+      const off = await createMaterial({ family: 'mdf', laserAllowed: false, hazardNote: 'Binder unknown' });
+      const offMoved = await ctx.http
+        .patch(`/api/materials/${off.id}`)
+        .set(auth('fabricator'))
+        .send({ version: off.version, family: 'felt' })
+        .expect(200);
+      expect(offMoved.body).toMatchObject({
+        family: 'felt',
+        laserAllowed: false,
+        hazardNote: 'Binder unknown',
+      });
+    });
+
     it('stores the condition of a conditionally allowed family (felt) as the hazard note', async () => {
       const row = await hazardRow(ctx, 'felt');
       expect(row.laser).toBe('conditional');

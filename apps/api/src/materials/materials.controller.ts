@@ -66,7 +66,7 @@ export class MaterialsController {
   @ApiOkResponse({ type: MaterialResponse })
   @ApiForbiddenResponse({
     description:
-      'AUTH.FORBIDDEN: fabricators and supervisors only; MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR: only a supervisor allows a material kept off the laser back on it',
+      'AUTH.FORBIDDEN: fabricators and supervisors only; MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR: only a supervisor allows a material kept off the laser back on it, or moves a laser-usable one into a family the laser cuts only on a condition',
   })
   @ApiConflictResponse({
     description: 'MATERIAL.STALE_VERSION, MATERIAL.NAME_TAKEN or MATERIAL.LASER_PROHIBITED',

@@ -119,6 +119,10 @@ export class MaterialsService {
         const family = dto.family ?? m.family;
         const table = await this.hazards.rows(manager);
         const refused = laserRefusal(family, table) !== null;
+        const moved = family !== m.family;
+        // The note the table wrote for the old family's condition does not hold in another family.
+        const oldCondition = findMaterialHazard(m.family, table)?.condition;
+        const tableNote = oldCondition !== undefined && m.hazardNote === conditionNote(oldCondition);
         // A prohibited family turns laser use off by itself (with the table's reason unless one is given);
         // otherwise the stored choice and note stand unless the request changes them.
         const laser = this.laserFields(
@@ -127,7 +131,7 @@ export class MaterialsService {
           dto.laserAllowed ?? (refused ? undefined : m.laserAllowed),
           // The note of a material kept off the laser says why; allowed again, that reason no longer holds.
           dto.hazardNote ??
-            ((refused && family !== m.family) || (!m.laserAllowed && dto.laserAllowed === true)
+            ((refused && moved) || (!m.laserAllowed && dto.laserAllowed === true) || (moved && tableNote)
               ? undefined
               : m.hazardNote),
         );
@@ -136,12 +140,26 @@ export class MaterialsService {
         const wasLaserUsable = m.laserAllowed && laserRefusal(m.family, table) === null;
         // Moving a material out of a family the hazard table refuses is the same decision taken in two steps
         // (reclassify now, switch the laser on later): a supervisor's too.
-        const leavesRefusedFamily = family !== m.family && laserRefusal(m.family, table) !== null;
+        const leavesRefusedFamily = moved && laserRefusal(m.family, table) !== null;
         if (((!wasLaserUsable && laser.laserAllowed) || leavesRefusedFamily) && actor.role !== 'supervisor') {
           throw new AppError(
             HttpStatus.FORBIDDEN,
             'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR',
             `${m.name} is kept off the laser${m.hazardNote ? ` (${m.hazardNote})` : ''}: only a supervisor can allow it on the laser again or move it out of a family the hazard table refuses`,
+            { materialId: m.id, family: m.family, requestedFamily: family },
+          );
+        }
+        // Moving a laser-usable material into a family the laser cuts only on a condition: machine versions
+        // approved for it were checked against its old family, so the condition is a supervisor's to accept.
+        const newCondition = findMaterialHazard(family, table)?.condition;
+        const entersCondition =
+          moved && laser.laserAllowed && findMaterialHazard(family, table)?.laser === 'conditional';
+        if (entersCondition && actor.role !== 'supervisor') {
+          throw new AppError(
+            HttpStatus.FORBIDDEN,
+            'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR',
+            `In family "${family}" a laser may cut ${m.name} only when: ${newCondition ?? 'the hazard table says'}; ` +
+              'only a supervisor can move a laser-usable material into it (or keep it off the laser, saying why)',
             { materialId: m.id, family: m.family, requestedFamily: family },
           );
         }
@@ -239,8 +257,7 @@ export class MaterialsService {
     }
     const allowed = laserAllowed ?? true;
     const condition = findMaterialHazard(family, table)?.condition;
-    if (allowed && !note && condition)
-      return { laserAllowed: true, hazardNote: `Laser only when: ${condition}` };
+    if (allowed && !note && condition) return { laserAllowed: true, hazardNote: conditionNote(condition) };
     if (!allowed && !note) {
       throw new AppError(
         HttpStatus.BAD_REQUEST,
@@ -303,4 +320,9 @@ function inUse(uses: { jobs: number; profileVersions: number; kerfRecords: numbe
     `The material cannot be deleted: it is used by ${what}`,
     uses ?? undefined,
   );
+}
+
+/** The hazard note a material of a conditionally allowed family gets when none is given. */
+function conditionNote(condition: string): string {
+  return `Laser only when: ${condition}`;
 }
