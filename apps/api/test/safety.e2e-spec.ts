@@ -96,6 +96,27 @@ describe('safety notices, local rules and acknowledgements', () => {
       .set(auth(u.hobbyist))
       .send({ designId: d.body.id })
       .expect(201);
+    // Requested, not prepared yet: every notice is listed, and none can be acknowledged for the job.
+    await ctx.http
+      .post(`/api/jobs/${j.body.id}/request`)
+      .set(auth(u.hobbyist))
+      .send({ version: j.body.version })
+      .expect(200);
+    const early = (await ctx.http.get(`/api/jobs/${j.body.id}/safety`).set(auth(u.operator)).expect(200))
+      .body;
+    expect(early).toMatchObject({ machineKind: null, materialFamily: null, acknowledged: false });
+    const blanket = await ctx.http
+      .post(`/api/jobs/${j.body.id}/safety/acknowledge`)
+      .set(auth(u.operator))
+      .send({
+        notices: early.notices.map((n: { id: string; version: number }) => ({
+          id: n.id,
+          version: n.version,
+        })),
+        localRulesVersion: early.localRules?.version ?? null,
+      })
+      .expect(409);
+    expectErrorBody(blanket.body, 409, 'SAFETY.JOB_NOT_PREPARED');
     await ctx.db.query(
       `UPDATE jobs SET state = 'released', material_id = $2, profile_version_id = $3 WHERE id = $1`,
       [j.body.id, w.acrylicId, w.laserVersionId],

@@ -1,6 +1,7 @@
 import { Body, Controller, Get, HttpCode, Param, Post, Put, Query, Req } from '@nestjs/common';
 import {
   ApiBearerAuth,
+  ApiConflictResponse,
   ApiExtraModels,
   ApiOkResponse,
   ApiOperation,
@@ -85,6 +86,10 @@ export class SafetyController {
     summary: 'Acknowledge the current notices and local rules for a job (operator or supervisor)',
   })
   @ApiOkResponse({ type: JobSafetyResponse, description: 'The job’s safety view, now acknowledged' })
+  @ApiConflictResponse({
+    description:
+      'SAFETY.STALE_ACKNOWLEDGEMENT (the notices or local rules changed since they were read) or SAFETY.JOB_NOT_PREPARED (the job has no machine and material yet, so no notices of its own)',
+  })
   acknowledge(
     @CurrentUser() u: AuthUser,
     @Param('id', new ParseIdPipe()) id: string,

@@ -196,7 +196,8 @@ export class SafetyService {
 
   /**
    * Records that the caller read and accepts exactly the current notice versions for the job. A stale list
-   * (a notice changed since the page was opened) is refused so nobody acknowledges text they did not see.
+   * (a notice changed since the page was opened) is refused so nobody acknowledges text they did not see, and
+   * so is a job not yet prepared (its machine and material, and so its notices, are not known).
    */
   async acknowledge(
     user: AuthUser,
@@ -206,6 +207,15 @@ export class SafetyService {
   ): Promise<JobSafetyView> {
     return this.dataSource.transaction(async (m) => {
       const view = await this.forJob(user, jobId, m);
+      if (!view.machineKind || !view.materialFamily) {
+        // Before a job has a machine and a material, its notices are every notice: acknowledging that list
+        // would read nothing about this job, and would count once it is prepared.
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'SAFETY.JOB_NOT_PREPARED',
+          'This job has no machine and material yet; its safety notices can be acknowledged once it is prepared',
+        );
+      }
       const want = noticeVersionKeys(view.notices);
       const got = noticeVersionKeys(dto.notices);
       const rulesMatch = (dto.localRulesVersion ?? null) === (view.localRules?.version ?? null);
