@@ -782,6 +782,54 @@ describe('jobs through their states', () => {
     expect(after.body.state).toBe('released');
   });
 
+  it('stops a released job by returning it: its files are no longer offered and it cannot be cut', async () => {
+    const job = await releasedAndAcknowledged();
+    const [exp] = (await ctx.http.get(`/api/jobs/${job.id}/exports`).set(auth(users.operator)).expect(200))
+      .body as { id: string; files: { name: string }[] }[];
+    const file = exp!.files[0]!.name;
+    await ctx.http.get(`/api/exports/${exp!.id}/files/${file}`).set(auth(users.operator)).expect(200);
+    // The machine version it was released on is withdrawn: the job says so, and the supervisor stops it.
+    const released = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.supervisor)).expect(200);
+    await ctx.db.query(`UPDATE machine_profile_versions SET state = 'retired' WHERE id = $1`, [
+      released.body.profileVersionId,
+    ]);
+    try {
+      const seen = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.operator)).expect(200);
+      expect(seen.body).toMatchObject({ state: 'released', profileVersionRetired: true, actions: ['cut'] });
+      // The operator cannot return it; the fabricator who released it and a supervisor can.
+      await act(users.operator, job.id, 'return', { reason: 'Not on this laser version' }, 403);
+      expect(
+        (await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.fabricator)).expect(200)).body.actions,
+      ).toContain('return');
+      const back = await act(users.supervisor, job.id, 'return', {
+        reason: 'Laser version withdrawn after release: prepare it again on the current one',
+      });
+      expect(back.body).toMatchObject({
+        state: 'returned',
+        returnReason: expect.stringContaining('withdrawn'),
+      });
+      expect(back.body.transitions.at(-1)).toMatchObject({
+        from: 'released',
+        to: 'returned',
+        action: 'return',
+      });
+      const refused = await ctx.http
+        .get(`/api/exports/${exp!.id}/files/${file}`)
+        .set(auth(users.operator))
+        .expect(409);
+      expectErrorBody(refused.body, 409, 'EXPORT.JOB_NOT_RELEASED');
+      expect(refused.body.message).toContain('returned');
+      const cut = await act(users.operator, job.id, 'cut', { actualMinutes: 5, sheetsUsed: 1 }, 409);
+      expectErrorBody(cut.body, 409, 'JOB.ILLEGAL_TRANSITION');
+      // Its requester reopens it as a draft, to request it again.
+      expect((await act(users.hobbyist, job.id, 'reopen')).body.state).toBe('draft');
+    } finally {
+      await ctx.db.query(`UPDATE machine_profile_versions SET state = 'approved' WHERE id = $1`, [
+        released.body.profileVersionId,
+      ]);
+    }
+  });
+
   it('lets only someone who acknowledged the job’s current safety notices record its cut (409 otherwise)', async () => {
     const job = await releasedAndAcknowledged();
     // A second operator, who never acknowledged, and a supervisor, who did not either.

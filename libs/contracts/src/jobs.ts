@@ -1,8 +1,8 @@
 import type { Role } from './roles';
 
 /**
- * A job moves draft → requested → prepared → approved → released → cut → closed, or is returned; its requester
- * may withdraw a request not yet prepared.
+ * A job moves draft → requested → prepared → approved → released → cut → closed, or is returned before its
+ * cut; its requester may withdraw a request not yet prepared.
  */
 export const JOB_STATES = [
   'draft',
@@ -70,9 +70,11 @@ export const JOB_TRANSITIONS: readonly JobTransitionRule[] = [
   },
   { action: 'cut', from: ['released'], to: 'cut', roles: ['operator'], label: 'Record the cut' },
   { action: 'close', from: ['cut'], to: 'closed', roles: ['operator', 'fabricator'], label: 'Close the job' },
+  // A released job is returned too: a wrong stock found at the machine, or a machine version withdrawn after
+  // release, stops it before the cut (its files are no longer offered).
   {
     action: 'return',
-    from: ['requested', 'prepared', 'approved'],
+    from: ['requested', 'prepared', 'approved', 'released'],
     to: 'returned',
     roles: ['fabricator'],
     label: 'Return with a reason',

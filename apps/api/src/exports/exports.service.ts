@@ -308,7 +308,9 @@ export class ExportsService {
       throw new AppError(
         HttpStatus.CONFLICT,
         'EXPORT.JOB_NOT_RELEASED',
-        `The job is ${job.state}; its files can be downloaded once it is released`,
+        job.state === 'returned'
+          ? 'The job was returned before its cut; its files are not to be cut'
+          : `The job is ${job.state}; its files can be downloaded once it is released`,
         { state: job.state, allowed: CUT_PACK_DOWNLOADABLE_STATES },
       );
     }

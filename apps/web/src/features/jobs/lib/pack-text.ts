@@ -48,6 +48,19 @@ export function releaseBlockedReason(job: RetiredVersionJob): string | null {
   return retiredVersionSentence(job, 'it cannot be released to the machines');
 }
 
+/**
+ * Why a released job should wait for a supervisor, or null: the machine profile version it was released on has
+ * been retired since (a setting found wrong, say). Its files stay offered; returning it stops it.
+ */
+export function retiredSinceReleaseText(job: RetiredVersionJob): string | null {
+  if (job.state !== 'released' || !job.profileVersionRetired) return null;
+  return (
+    `${job.profileName ?? 'The machine profile'} version ${job.profileVersionNumber ?? '?'}, which this job was ` +
+    'released on, has been retired since. Check with a supervisor before cutting it: a job that must not be cut ' +
+    'on that version is returned with a reason, and prepared again on the current one.'
+  );
+}
+
 type RetiredVersionJob = Pick<
   JobView,
   'state' | 'profileVersionRetired' | 'profileName' | 'profileVersionNumber'

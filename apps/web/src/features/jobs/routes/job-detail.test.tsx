@@ -342,6 +342,39 @@ describe('job detail', () => {
     );
   });
 
+  it('says a released job’s machine version was retired since, and offers a supervisor its return', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/jobs/${job.id}`]: () =>
+        json(200, {
+          ...job,
+          state: 'released',
+          preparation: preparationFixture(),
+          profileName: 'CO2 laser, 60 W',
+          profileVersionNumber: 1,
+          profileVersionRetired: true,
+          actions: ['cut', 'return'],
+        }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+      [`GET /api/jobs/${job.id}/safety`]: () =>
+        json(200, {
+          jobId: job.id,
+          machineKind: 'co2-laser',
+          materialFamily: 'acrylic',
+          notices: [],
+          localRules: null,
+          acknowledged: false,
+          acknowledgedAt: null,
+        }),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const actions = await screen.findByTestId('job-actions');
+    expect(await within(actions).findByTestId('retired-since-release')).toHaveTextContent(
+      /^CO2 laser, 60 W version 1, which this job was released on, has been retired since\. Check with a supervisor/,
+    );
+    expect(within(actions).getByRole('button', { name: 'Return with a reason' })).toBeInTheDocument();
+  });
+
   it('tells the recorded machine time from the estimated one', async () => {
     const preparation = preparationFixture();
     stubFetch({

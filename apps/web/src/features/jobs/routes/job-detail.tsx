@@ -33,7 +33,7 @@ import {
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
-import { packPrepareBlockedReason, releaseBlockedReason } from '../lib/pack-text';
+import { packPrepareBlockedReason, releaseBlockedReason, retiredSinceReleaseText } from '../lib/pack-text';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
 import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
 import { ConfirmJobActionDialog } from '../components/confirm-job-action-dialog';
@@ -257,6 +257,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         {[
           ['approve-blocked', approveBlocked],
           ['cut-waits', cutWaits ? 'Acknowledge the safety notices before recording the cut.' : null],
+          ['retired-since-release', retiredSinceReleaseText(job)],
           // Release is not offered for a job prepared on a version retired since: said here, by the actions.
           [
             'release-blocked',

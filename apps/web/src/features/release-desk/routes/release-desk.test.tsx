@@ -285,10 +285,14 @@ describe('release desk', () => {
             'current version.',
         );
       } else {
-        // A released job's pack is rebuilt on the version it was released on.
+        // A released job's pack is rebuilt on the version it was released on; the desk says to check first.
         expect(rebuild).toHaveTextContent('Prepare the cut pack again');
         expect(within(job).queryByTestId('cut-pack-blocked')).not.toBeInTheDocument();
+        expect(within(job).getByTestId('desk-retired-since-release')).toHaveTextContent(
+          'CO2 laser version 2, which this job was released on, has been retired since. Check with a supervisor',
+        );
       }
+      if (state === 'approved') expect(within(job).queryByTestId('desk-retired-since-release')).toBeNull();
       expect(stub.calls.some((c) => c.method === 'POST')).toBe(false);
       unmount();
     }

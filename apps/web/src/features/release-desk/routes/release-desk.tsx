@@ -32,7 +32,7 @@ import { jobQueryOptions } from '../../jobs/api/get-job';
 import { useJobSafety } from '../../jobs/api/get-job-safety';
 import { useTakeJobAction } from '../../jobs/api/take-job-action';
 import { CutPackPanel } from '../../jobs/components/cut-pack-panel';
-import { packPrepareBlockedReason } from '../../jobs/lib/pack-text';
+import { packPrepareBlockedReason, retiredSinceReleaseText } from '../../jobs/lib/pack-text';
 import { JobStateChip } from '../../jobs/components/job-state-chip';
 import { RecordCutDialog } from '../../jobs/components/record-cut-dialog';
 import { SafetyDialog } from '../../jobs/components/safety-dialog';
@@ -308,6 +308,11 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
       {job.state === 'released' && safety.isSuccess && !acknowledged ? (
         <Alert severity="warning" data-testid="desk-needs-acknowledgement">
           Read and acknowledge the safety notices for this job before its files are offered.
+        </Alert>
+      ) : null}
+      {retiredSinceReleaseText(job) ? (
+        <Alert severity="warning" data-testid="desk-retired-since-release">
+          {retiredSinceReleaseText(job)}
         </Alert>
       ) : null}
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
