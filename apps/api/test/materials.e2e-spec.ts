@@ -31,11 +31,12 @@ async function ensureHazardTable(ctx: TestContext): Promise<void> {
 async function hazardRow(
   ctx: TestContext,
   family: string,
-): Promise<{ laser: string; hazard: string; condition: string | null }> {
-  const rows: { laser: string; hazard: string; condition: string | null }[] = await ctx.db.query(
-    `SELECT laser, hazard, condition FROM material_hazards WHERE family = $1`,
-    [family],
-  );
+): Promise<{ laser: string; hazard: string; condition: string | null; nameWords: string[] }> {
+  const rows: { laser: string; hazard: string; condition: string | null; nameWords: string[] }[] =
+    await ctx.db.query(
+      `SELECT laser, hazard, condition, name_words AS "nameWords" FROM material_hazards WHERE family = $1`,
+      [family],
+    );
   return rows[0]!;
 }
 
@@ -412,6 +413,47 @@ describe('materials library', () => {
         laserAllowed: false,
         hazardNote: 'Binder unknown',
       });
+    });
+
+    it('keeps a material named as a refused plastic off the laser, whatever family it is filed under', async () => {
+      expect((await hazardRow(ctx, 'pvc')).nameWords).toEqual(expect.arrayContaining(['PVC', 'vinyl']));
+      // Filed as acrylic, named as PVC: refused with the name marked, and nothing stored.
+      const before = await countRows(ctx, 'materials');
+      for (const name of [
+        unique('Grey PVC sheet'),
+        unique('Expanded pvc board'),
+        unique('Vinyl sheet 1 mm'),
+      ]) {
+        const res = await ctx.http
+          .post('/api/materials')
+          .set(auth('fabricator'))
+          .send(materialBody({ family: 'acrylic', name }))
+          .expect(409);
+        expectErrorBody(res.body, 409, 'MATERIAL.NAME_NAMES_REFUSED_FAMILY');
+        expect(res.body.details).toMatchObject({ field: 'name', family: 'pvc' });
+      }
+      expect(await countRows(ctx, 'materials')).toBe(before);
+      // Filed as what it is, or kept off the laser with a reason (for the router): stored.
+      const pvc = await createMaterial({ family: 'pvc', name: unique('Grey PVC sheet') });
+      const router = await createMaterial({
+        family: 'acrylic',
+        name: unique('PVC-backed acrylic'),
+        laserAllowed: false,
+        hazardNote: 'PVC backing: router only',
+      });
+      for (const m of [pvc, router]) {
+        const got = await ctx.http.get(`/api/materials/${m.id}`).set(auth('operator')).expect(200);
+        expect(got.body.laserAllowed).toBe(false);
+      }
+      // A word inside another word is not the word; a rename that names a refused plastic is refused.
+      const clear = await createMaterial({ family: 'acrylic', name: unique('Clear sheet (absorbent-free)') });
+      const renamed = await ctx.http
+        .patch(`/api/materials/${clear.id}`)
+        .set(auth('supervisor'))
+        .send({ version: clear.version, name: unique('Lexan clear') })
+        .expect(409);
+      expectErrorBody(renamed.body, 409, 'MATERIAL.NAME_NAMES_REFUSED_FAMILY');
+      expect(renamed.body.details).toMatchObject({ field: 'name', family: 'polycarbonate' });
     });
 
     it('stores the condition of a conditionally allowed family (felt) as the hazard note', async () => {

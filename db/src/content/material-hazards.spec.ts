@@ -1,5 +1,6 @@
 import * as path from 'node:path';
 import {
+  familyNamedIn,
   findMaterialHazard,
   laserRefusal,
   MATERIAL_FAMILIES,
@@ -51,6 +52,30 @@ describe('the material hazard table in safety/material-hazards.json', () => {
 
   it('marks every family on the never-cut lists as not allowed on a laser', () => {
     for (const family of NEVER_ON_LASER) expect(findMaterialHazard(family, rows)?.laser).toBe('no');
+  });
+
+  it('names the never-cut plastics by the words their sheets are sold under, and no allowed sample material', () => {
+    // Trade names and abbreviations of the never-cut plastics (common practice); the shipped sample materials
+    // are named as their own families.
+    for (const [name, family] of [
+      ['Grey PVC sheet 3 mm', 'pvc'],
+      ['Self-adhesive vinyl', 'pvc'],
+      ['Lexan offcut', 'polycarbonate'],
+      ['Black ABS 2 mm', 'abs'],
+      ['Delrin plate', 'acetal'],
+      ['PTFE sheet', 'ptfe'],
+      ['FR-4 board', 'fibreglass'],
+      ['Carbon fibre laminate', 'carbon-fibre'],
+    ] as const)
+      expect(familyNamedIn(name, 'acrylic', rows)?.row.family).toBe(family);
+    for (const name of [
+      'Card stock 300 g/m²',
+      'Cast acrylic 3 mm',
+      'Birch plywood 3 mm',
+      'Wool felt 2 mm',
+      'MDF',
+    ])
+      expect(familyNamedIn(name, 'other', rows)).toBeUndefined();
   });
 
   it('allows the families that are fine with care', () => {
@@ -145,6 +170,11 @@ describe('parseMaterialHazards', () => {
       'no examples',
       (t) => ({ ...t, rows: t.rows.map((r, i) => (i === 3 ? { ...r, examples: [] } : r)) }),
       'rows[3].examples',
+    ],
+    [
+      'name words on a row the laser may cut',
+      (t) => ({ ...t, rows: t.rows.map((r, i) => (i === 4 ? { ...r, nameWords: ['ply'] } : r)) }),
+      'rows[4].nameWords',
     ],
     ['a version that is not a whole number', (t) => ({ ...t, version: 1.2 }), 'version'],
   ])('rejects %s, naming the field', (_what, edit, field) => {

@@ -15,7 +15,8 @@ export interface MaterialHazardTable {
 
 /**
  * Checks a parsed hazard table: one row per material family (every family in MATERIAL_FAMILIES),
- * examples, hazard and source on every row, and a condition exactly on the conditional rows.
+ * examples, hazard and source on every row, a condition exactly on the conditional rows, and name words
+ * only on refused rows.
  */
 export function parseMaterialHazards(value: unknown, file: string): MaterialHazardTable {
   const r = new FieldReader(file);
@@ -36,9 +37,15 @@ export function parseMaterialHazards(value: unknown, file: string): MaterialHaza
     if (laser !== 'conditional' && condition !== undefined) {
       r.fail(`${at}.condition`, `only conditional rows carry a condition (laser is "${laser}")`);
     }
+    const nameWords = row.nameWords === undefined ? undefined : r.texts(row.nameWords, `${at}.nameWords`);
+    if (nameWords !== undefined && laser !== 'no') {
+      // Name words flag a material filed under another family as one refused on the laser.
+      r.fail(`${at}.nameWords`, `only refused rows carry name words (laser is "${laser}")`);
+    }
     return {
       family,
       examples: r.texts(row.examples, `${at}.examples`),
+      ...(nameWords === undefined ? {} : { nameWords }),
       laser,
       hazard: r.text(row.hazard, `${at}.hazard`),
       ...(condition === undefined ? {} : { condition }),

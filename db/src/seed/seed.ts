@@ -109,10 +109,20 @@ async function seedSafety(
   );
   for (const h of hazards) {
     await m.query(
-      `INSERT INTO material_hazards (family, examples, laser, hazard, condition, source) VALUES ($1, $2, $3, $4, $5, $6)
-       ON CONFLICT (family) DO UPDATE SET examples = EXCLUDED.examples, laser = EXCLUDED.laser, hazard = EXCLUDED.hazard,
-         condition = EXCLUDED.condition, source = EXCLUDED.source, updated_at = now()`,
-      [h.family, JSON.stringify(h.examples), h.laser, h.hazard, h.condition ?? null, h.source],
+      `INSERT INTO material_hazards (family, examples, name_words, laser, hazard, condition, source)
+       VALUES ($1, $2, $3, $4, $5, $6, $7)
+       ON CONFLICT (family) DO UPDATE SET examples = EXCLUDED.examples, name_words = EXCLUDED.name_words,
+         laser = EXCLUDED.laser, hazard = EXCLUDED.hazard, condition = EXCLUDED.condition, source = EXCLUDED.source,
+         updated_at = now()`,
+      [
+        h.family,
+        JSON.stringify(h.examples),
+        JSON.stringify(h.nameWords ?? []),
+        h.laser,
+        h.hazard,
+        h.condition ?? null,
+        h.source,
+      ],
     );
   }
   return added;

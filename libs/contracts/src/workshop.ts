@@ -94,6 +94,11 @@ export interface MaterialHazard {
   family: MaterialFamily;
   /** Everyday names of materials in this family. */
   examples: string[];
+  /**
+   * Words that, found whole in a material's name (any case; a space and a hyphen alike), say the material is of
+   * this family: a sheet named "PVC foam" filed as acrylic is caught by them (see familyNamedIn).
+   */
+  nameWords?: string[];
   laser: LaserAllowance;
   /** What goes wrong, in a sentence or two. */
   hazard: string;
@@ -125,6 +130,30 @@ export function laserRefusal(family: string, table: readonly MaterialHazard[]): 
     return `${row.examples.join(', ')} must not be cut on a laser: ${row.hazard}`;
   }
   return null;
+}
+
+/**
+ * The first row of a family refused on the laser, other than `ownFamily`, whose name words `name` contains
+ * whole (case-insensitive, a space and a hyphen alike), with the word found; undefined when there is none.
+ */
+export function familyNamedIn(
+  name: string,
+  ownFamily: string,
+  table: readonly MaterialHazard[],
+): { row: MaterialHazard; word: string } | undefined {
+  for (const row of table) {
+    if (row.laser !== 'no' || row.family === ownFamily) continue;
+    for (const word of row.nameWords ?? []) {
+      if (!word.trim()) continue;
+      const parts = word
+        .trim()
+        .split(/[\s-]+/u)
+        .map((p) => p.replace(/[.*+?^${}()|[\]\\]/gu, '\\$&'));
+      const whole = new RegExp(`(?<![\\p{L}\\p{N}])${parts.join('[\\s-]+')}(?![\\p{L}\\p{N}])`, 'iu');
+      if (whole.test(name)) return { row, word };
+    }
+  }
+  return undefined;
 }
 
 /**

@@ -5,6 +5,7 @@ import { type LaserAllowance, type MaterialFamily, type MaterialHazard } from '@
 interface HazardRow {
   family: MaterialFamily;
   examples: string[];
+  name_words: string[];
   laser: LaserAllowance;
   hazard: string;
   condition: string | null;
@@ -20,11 +21,12 @@ interface HazardRow {
 export class HazardTableService {
   async rows(manager: EntityManager): Promise<MaterialHazard[]> {
     const rows: HazardRow[] = await manager.query(
-      `SELECT family, examples, laser, hazard, condition, source FROM material_hazards ORDER BY family`,
+      `SELECT family, examples, name_words, laser, hazard, condition, source FROM material_hazards ORDER BY family`,
     );
     return rows.map((r) => ({
       family: r.family,
       examples: r.examples,
+      ...(r.name_words.length > 0 ? { nameWords: r.name_words } : {}),
       laser: r.laser,
       hazard: r.hazard,
       ...(r.condition ? { condition: r.condition } : {}),

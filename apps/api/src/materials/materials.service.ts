@@ -2,6 +2,7 @@ import { HttpStatus, Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager } from 'typeorm';
 import {
+  familyNamedIn,
   findMaterialHazard,
   isLaserKind,
   laserRefusal,
@@ -75,6 +76,7 @@ export class MaterialsService {
           dto.family,
           dto.laserAllowed,
           dto.hazardNote,
+          dto.name,
         );
         const material = manager.create(Material, {
           name: dto.name,
@@ -134,6 +136,7 @@ export class MaterialsService {
             ((refused && moved) || (!m.laserAllowed && dto.laserAllowed === true) || (moved && tableNote)
               ? undefined
               : m.hazardNote),
+          dto.name ?? m.name,
         );
         // Lifting a laser restriction (a material kept off the laser, or of a family the hazard table refuses,
         // made laser-usable by a changed flag or a changed family) is a safety decision: a supervisor's.
@@ -222,9 +225,13 @@ export class MaterialsService {
     const m = await manager.findOneBy(Material, { id: materialId });
     if (!m) throw notFound('MATERIAL', 'No such material');
     if (isLaserKind(kind)) {
-      const refusal = m.laserAllowed
-        ? laserRefusal(m.family, await this.hazards.rows(manager))
-        : m.hazardNote;
+      const table = await this.hazards.rows(manager);
+      const named = familyNamedIn(m.name, m.family, table);
+      const refusal = !m.laserAllowed
+        ? m.hazardNote
+        : named
+          ? `its name says "${named.word}": ${laserRefusal(named.row.family, table)}`
+          : laserRefusal(m.family, table);
       if (refusal !== null) {
         throw new AppError(
           HttpStatus.CONFLICT,
@@ -237,12 +244,17 @@ export class MaterialsService {
     return toMaterialView(m);
   }
 
-  /** Laser-allowed and hazard note, made consistent with the hazard table. */
+  /**
+   * Laser-allowed and hazard note, made consistent with the hazard table: a refused family is kept off the
+   * laser, and a material whose name says it is of a refused family (its name words: "PVC", "vinyl") may not
+   * go on the laser filed under another family.
+   */
   private laserFields(
     table: Parameters<typeof laserRefusal>[1],
     family: MaterialFamily,
     laserAllowed: boolean | undefined,
     hazardNote: string | undefined,
+    name: string,
   ): { laserAllowed: boolean; hazardNote: string } {
     const refusal = laserRefusal(family, table);
     const note = (hazardNote ?? '').trim();
@@ -256,6 +268,8 @@ export class MaterialsService {
       return { laserAllowed: false, hazardNote: note || refusal };
     }
     const allowed = laserAllowed ?? true;
+    const named = allowed ? familyNamedIn(name, family, table) : undefined;
+    if (named) throw namedRefusedFamily(name, named);
     const condition = findMaterialHazard(family, table)?.condition;
     if (allowed && !note && condition) return { laserAllowed: true, hazardNote: conditionNote(condition) };
     if (!allowed && !note) {
@@ -325,4 +339,15 @@ function inUse(uses: { jobs: number; profileVersions: number; kerfRecords: numbe
 /** The hazard note a material of a conditionally allowed family gets when none is given. */
 function conditionNote(condition: string): string {
   return `Laser only when: ${condition}`;
+}
+
+/** 409: a material named as one of a refused family ("Grey PVC sheet") but filed under another, on the laser. */
+function namedRefusedFamily(name: string, named: NonNullable<ReturnType<typeof familyNamedIn>>): AppError {
+  return new AppError(
+    HttpStatus.CONFLICT,
+    'MATERIAL.NAME_NAMES_REFUSED_FAMILY',
+    `"${name}" says "${named.word}": ${named.row.examples.join(', ')} must not be cut on a laser. File it under ` +
+      `"${named.row.family}", keep it off the laser saying why, or correct the name if it is wrong`,
+    { field: 'name', family: named.row.family, word: named.word },
+  );
 }

@@ -75,10 +75,16 @@ export class SafetyService {
   }
 
   async hazards(): Promise<MaterialHazard[]> {
-    const rows: (MaterialHazard & { condition: string | null })[] = await this.dataSource.query(
-      `SELECT family, examples, laser, hazard, condition, source FROM material_hazards ORDER BY laser DESC, family`,
-    );
-    return rows.map(({ condition, ...r }) => (condition ? { ...r, condition } : r));
+    const rows: (MaterialHazard & { condition: string | null; nameWords: string[] })[] =
+      await this.dataSource.query(
+        `SELECT family, examples, name_words AS "nameWords", laser, hazard, condition, source
+           FROM material_hazards ORDER BY laser DESC, family`,
+      );
+    return rows.map(({ condition, nameWords, ...r }) => ({
+      ...r,
+      ...(nameWords.length > 0 ? { nameWords } : {}),
+      ...(condition ? { condition } : {}),
+    }));
   }
 
   async localRules(m: EntityManager = this.dataSource.manager): Promise<LocalRulesView | null> {

@@ -48,6 +48,12 @@ export class MaterialHazardResponse implements MaterialHazard {
   @ApiProperty({ enum: MATERIAL_FAMILIES }) family: MaterialFamily;
   @ApiProperty({ type: [String], description: 'Everyday names of materials in this family' })
   examples: string[];
+  @ApiPropertyOptional({
+    type: [String],
+    description:
+      'On refused rows: words that, whole in a material’s name, say it is of this family (a material so named is kept off the laser whatever family it is filed under)',
+  })
+  nameWords?: string[];
   @ApiProperty({ enum: LASER_ALLOWANCES }) laser: LaserAllowance;
   @ApiProperty({ description: 'What goes wrong, in a sentence or two' }) hazard: string;
   @ApiPropertyOptional({ description: 'For laser "conditional": what must be true before cutting' })
