@@ -134,6 +134,32 @@ describe('sign-in and registration (real PostgreSQL)', () => {
     await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${expired}`).expect(401);
   });
 
+  it('ends the session signed out: its token is refused, other sessions of the account go on', async () => {
+    const user = await createUser(ctx, 'operator');
+    const second = await ctx.http
+      .post('/api/auth/login')
+      .send({ email: user.email, password: user.password })
+      .expect(200);
+    const kept = { Authorization: `Bearer ${user.token}` };
+    const ended = { Authorization: `Bearer ${second.body.accessToken as string}` };
+    await ctx.http.get('/api/auth/me').set(ended).expect(200);
+    await ctx.http.post('/api/auth/sign-out').set(ended).expect(204);
+    // A copy of the token kept after signing out (a shared PC, a leaked header) opens nothing.
+    expectErrorBody((await ctx.http.get('/api/auth/me').set(ended).expect(401)).body, 401);
+    await ctx.http.get('/api/jobs').set(ended).expect(401);
+    await ctx.http.get('/api/auth/me').set(kept).expect(200);
+    const rows: { user_id: string; expires_at: Date }[] = await ctx.db.query(
+      `SELECT user_id, expires_at FROM revoked_tokens WHERE user_id = $1`,
+      [user.id],
+    );
+    expect(rows).toHaveLength(1);
+    // Kept no longer than the token would have lived (8 h by default).
+    expect(rows[0]!.expires_at.getTime()).toBeLessThanOrEqual(Date.now() + 8 * 3600e3 + 5e3);
+    // Signed in again, the account works as before; no token is needed to sign out twice.
+    await ctx.http.post('/api/auth/sign-out').set(ended).expect(401);
+    await ctx.http.post('/api/auth/login').send({ email: user.email, password: user.password }).expect(200);
+  });
+
   it('stops a deactivated user’s token at once', async () => {
     const user = await createUser(ctx, 'hobbyist');
     await ctx.http.get('/api/auth/me').set('Authorization', `Bearer ${user.token}`).expect(200);

@@ -28,6 +28,8 @@ type Expectations = Record<Role | 'anonymous', Outcome> & { owner?: Outcome };
 interface Call {
   method: 'get' | 'post' | 'patch' | 'put' | 'delete';
   path: string;
+  /** A token of the caller's own for this call (one the call ends, say), instead of the caller's usual one. */
+  token?: string;
   body?: object;
   file?: { name: string; text: string };
 }
@@ -278,6 +280,20 @@ describe('role matrix: every route × every role', () => {
       arrange: async (caller) => {
         const u = caller === 'anonymous' ? users.owner : users[caller];
         return { method: 'post', path: '/api/auth/login', body: { email: u.email, password: u.password } };
+      },
+    },
+    {
+      // On a second sign-in of the caller's: signing out ends the token it is sent with.
+      route: 'POST /api/auth/sign-out',
+      expect: EVERY_ROLE,
+      audited: true,
+      arrange: async (caller) => {
+        const u = caller === 'anonymous' ? users.owner : users[caller];
+        const signIn = await ctx.http
+          .post('/api/auth/login')
+          .send({ email: u.email, password: u.password })
+          .expect(200);
+        return { method: 'post', path: '/api/auth/sign-out', token: signIn.body.accessToken as string };
       },
     },
     {
@@ -754,7 +770,8 @@ describe('role matrix: every route × every role', () => {
   it.each(cases)('$route as $caller → $outcome', async ({ caller, outcome, row }) => {
     const call = await row.arrange(caller);
     let req = ctx.http[call.method](call.path);
-    if (caller !== 'anonymous') req = req.set(auth(users[caller]));
+    if (caller !== 'anonymous')
+      req = req.set(auth(call.token ? { ...users[caller], token: call.token } : users[caller]));
     if (call.file) req = req.attach('file', Buffer.from(call.file.text), call.file.name);
     else if (call.body) req = req.send(call.body);
     const res = await req;

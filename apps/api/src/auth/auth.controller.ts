@@ -1,5 +1,11 @@
 import { Body, Controller, Get, HttpCode, Post, Req, UseGuards } from '@nestjs/common';
-import { ApiBearerAuth, ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBearerAuth,
+  ApiCreatedResponse,
+  ApiNoContentResponse,
+  ApiOkResponse,
+  ApiTags,
+} from '@nestjs/swagger';
 import { type AuthResponse, type UserView } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser, Public } from '../common/decorators/auth.decorators';
 import { requestIdOf } from '../common/middleware/request-id.middleware';
@@ -30,6 +36,17 @@ export class AuthController {
   @ApiOkResponse({ type: AuthTokenResponse, description: 'A bearer token and the signed-in user' })
   login(@Body() dto: LoginDto): Promise<AuthResponse> {
     return this.auth.login(dto);
+  }
+
+  @Post('sign-out')
+  @HttpCode(204)
+  @ApiBearerAuth()
+  @ApiNoContentResponse({
+    description:
+      'The bearer token is ended: refused from now on (the account’s other sessions stay signed in)',
+  })
+  signOut(@CurrentUser() user: AuthUser, @Req() req: unknown): Promise<void> {
+    return this.auth.signOut(user, requestIdOf(req));
   }
 
   @Get('me')

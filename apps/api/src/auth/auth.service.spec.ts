@@ -14,22 +14,26 @@ const C = '0c0c0c0c-0000-4000-8000-00000000000c';
 const SECRET = 'unit-test-secret-of-reasonable-length';
 
 /** An AuthService over a users table held in memory, recording the queries sent to it. */
-function serviceWith(users: Record<string, { active: boolean }>) {
+function serviceWith(users: Record<string, { active: boolean }>, revoked: ReadonlySet<string> = new Set()) {
   const sent: unknown[][] = [];
   const manager = {
     query: async (_config: unknown, params: unknown[]) => {
       sent.push(params);
       await new Promise((r) => setTimeout(r, 2));
       const ids = params[0] as string[];
+      const jtis = params[1] as (string | null)[];
       return ids
-        .filter((id) => users[id])
-        .map((id) => ({
+        .map((id, i) => ({ id, jti: jtis[i] ?? null }))
+        .filter(({ id }) => users[id])
+        .map(({ id, jti }) => ({
           id,
+          jti,
           email: `${id}@x`,
           role: 'fabricator',
           displayName: id,
           active: users[id]!.active,
           isDemo: false,
+          revoked: jti !== null && revoked.has(jti),
         }));
     },
   };
@@ -61,6 +65,27 @@ describe('AuthService.userForToken', () => {
     users[A]!.active = false;
     expect(await service.userForToken(token(A))).toBeNull();
     expect(sent).toHaveLength(2);
+  });
+
+  it('refuses a signed-out token, and only that one, in the same query as the others', async () => {
+    const signedOut = '5e5e5e5e-0000-4000-8000-00000000005e';
+    const other = '6f6f6f6f-0000-4000-8000-00000000006f';
+    const { service, sent } = serviceWith({ [A]: { active: true } }, new Set([signedOut]));
+    const found = await Promise.all([
+      service.userForToken({ ...token(A), jti: signedOut }),
+      service.userForToken({ ...token(A), jti: other.toUpperCase() }),
+      service.userForToken(token(A)),
+    ]);
+    expect(found.map((u) => u?.id ?? null)).toEqual([null, A, A]);
+    expect(sent).toEqual([
+      [
+        [A, A, A],
+        [signedOut, other, null],
+      ],
+    ]);
+    // A token id that is not a UUID is not this server's: refused without a query.
+    expect(await service.userForToken({ ...token(A), jti: "x' OR 1=1" })).toBeNull();
+    expect(sent).toHaveLength(1);
   });
 
   it('matches an upper-case subject to its user and refuses one that is not a UUID without a query', async () => {

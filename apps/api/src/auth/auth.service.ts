@@ -1,4 +1,4 @@
-import { createHash, createSecretKey, type KeyObject } from 'node:crypto';
+import { createHash, createSecretKey, type KeyObject, randomUUID } from 'node:crypto';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { JwtService } from '@nestjs/jwt';
@@ -38,6 +38,8 @@ const DUMMY_HASH = bcrypt.hashSync('kerfwright-timing-equaliser', PASSWORD_HASH_
 export interface JwtPayload {
   sub: string;
   role: string;
+  /** The token's own id (a UUID), by which signing out ends it. */
+  jti?: string;
   /** Added by the signer (seconds since the epoch). */
   iat?: number;
   exp?: number;
@@ -48,7 +50,10 @@ const BEARER = /^\s*bearer\s+(\S+)\s*$/i;
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-type TokenUser = Pick<User, 'id' | 'email' | 'role' | 'displayName' | 'active' | 'isDemo'>;
+type TokenUser = Pick<User, 'id' | 'email' | 'role' | 'displayName' | 'active' | 'isDemo'> & {
+  /** The token asked about was signed out. */
+  revoked: boolean;
+};
 
 @Injectable()
 export class AuthService {
@@ -72,18 +77,25 @@ export class AuthService {
    * query once that turn's I/O is handled (DataLoader, with no cache: every request gets a row read after it
    * arrived, so a deactivation is seen by the next request).
    */
-  private readonly tokenUsers = new DataLoader<string, TokenUser | null>(
-    async (ids) => {
-      const rows = await sendPrepared<TokenUser>(
+  private readonly tokenUsers = new DataLoader<{ sub: string; jti: string | null }, TokenUser | null, string>(
+    async (keys) => {
+      const rows = await sendPrepared<TokenUser & { jti: string | null }>(
         this.users.manager,
-        `SELECT id, email, role, display_name AS "displayName", active, is_demo AS "isDemo"
-           FROM users WHERE id = ANY($1::uuid[])`,
-        [ids],
+        `SELECT u.id, k.jti, u.email, u.role, u.display_name AS "displayName", u.active, u.is_demo AS "isDemo",
+                (r.jti IS NOT NULL) AS revoked
+           FROM unnest($1::uuid[], $2::uuid[]) AS k(id, jti)
+           JOIN users u ON u.id = k.id
+           LEFT JOIN revoked_tokens r ON r.jti = k.jti`,
+        [keys.map((k) => k.sub), keys.map((k) => k.jti)],
       );
-      const byId = new Map(rows.map((r) => [r.id, r]));
-      return ids.map((id) => byId.get(id) ?? null);
+      const byKey = new Map(rows.map((r) => [`${r.id}|${r.jti ?? ''}`, r]));
+      return keys.map((k) => byKey.get(`${k.sub}|${k.jti ?? ''}`) ?? null);
     },
-    { cache: false, batchScheduleFn: (run) => setImmediate(run) },
+    {
+      cache: false,
+      batchScheduleFn: (run) => setImmediate(run),
+      cacheKeyFn: (k) => `${k.sub}|${k.jti ?? ''}`,
+    },
   );
 
   async register(dto: RegisterDto, requestId: string): Promise<AuthResponse> {
@@ -154,7 +166,38 @@ export class AuthService {
     if (typeof payload?.sub !== 'string' || typeof payload.exp !== 'number') return null;
     const user = await this.userForToken(payload);
     if (!user) return null;
-    return { id: user.id, email: user.email, role: user.role, displayName: user.displayName };
+    return {
+      id: user.id,
+      email: user.email,
+      role: user.role,
+      displayName: user.displayName,
+      ...(payload.jti ? { token: { jti: payload.jti.toLowerCase(), exp: payload.exp } } : {}),
+    };
+  }
+
+  /**
+   * Ends the session of the caller's token: it is refused from now on (other sessions of the account stay).
+   * Rows of tokens past their expiry go at the same time. A token without an id (issued before tokens had one)
+   * ends only at its expiry.
+   */
+  async signOut(user: AuthUser, requestId: string): Promise<void> {
+    const token = user.token;
+    if (!token) return;
+    await this.dataSource.transaction(async (m) => {
+      await m.query(`DELETE FROM revoked_tokens WHERE expires_at < now()`);
+      await m.query(
+        `INSERT INTO revoked_tokens (jti, user_id, expires_at) VALUES ($1, $2, to_timestamp($3))
+         ON CONFLICT (jti) DO NOTHING`,
+        [token.jti, user.id, token.exp],
+      );
+      await this.audit.record(m, {
+        actorId: user.id,
+        action: 'user.sign-out',
+        entityType: 'user',
+        entityId: user.id,
+        requestId,
+      });
+    });
   }
 
   /**
@@ -166,8 +209,13 @@ export class AuthService {
     payload: JwtPayload,
   ): Promise<Pick<User, 'id' | 'email' | 'role' | 'displayName'> | null> {
     if (!UUID.test(payload.sub)) return null;
-    const user = await this.tokenUsers.load(payload.sub.toLowerCase());
-    if (!user || !user.active || (user.isDemo && this.app.mode === 'production')) return null;
+    if (payload.jti !== undefined && (typeof payload.jti !== 'string' || !UUID.test(payload.jti)))
+      return null;
+    const user = await this.tokenUsers.load({
+      sub: payload.sub.toLowerCase(),
+      jti: payload.jti?.toLowerCase() ?? null,
+    });
+    if (!user || user.revoked || !user.active || (user.isDemo && this.app.mode === 'production')) return null;
     return user;
   }
 
@@ -177,7 +225,7 @@ export class AuthService {
   }
 
   private async issue(user: User): Promise<AuthResponse> {
-    const payload: JwtPayload = { sub: user.id, role: user.role };
+    const payload: JwtPayload = { sub: user.id, role: user.role, jti: randomUUID() };
     return { accessToken: await this.jwt.signAsync(payload), user: toUserView(user) };
   }
 }

@@ -175,12 +175,16 @@ describe('protected routes', () => {
 
   it('signs out from the app bar: token and cache gone, back at sign-in with no page to return to', async () => {
     // On a shared workshop PC the next person to sign in must not land on this user's page.
-    const { me } = signedInAs('supervisor');
+    const { me, calls } = signedInAs('supervisor');
     const { user, router, queryClient } = renderApp('/people', { token: 't' });
     await screen.findByText(me.email);
     await user.click(screen.getByRole('button', { name: 'Sign out' }));
     expect(await screen.findByRole('heading', { name: 'Sign in' })).toBeInTheDocument();
     await waitFor(() => expect(getAccessToken()).toBeNull());
+    // The API is told to end the token, sent with it once (a copy kept on the PC then opens nothing).
+    const signOuts = calls.filter((c) => c.method === 'POST' && c.url.pathname === '/api/auth/sign-out');
+    expect(signOuts).toHaveLength(1);
+    expect(signOuts[0]!.headers.get('Authorization')).toBe('Bearer t');
     expect(router.state.location.pathname).toBe('/sign-in');
     expect(router.state.location.search).toBe('');
     expect(router.state.location.state).toBeNull();

@@ -11,7 +11,7 @@ import { paths } from '../config/paths';
 import { FullPageProgress } from '../components/ui/full-page-progress';
 import { ErrorPanel } from '../components/errors/error-panel';
 import { api } from './api-client';
-import { clearAccessToken, useAccessToken } from './token-store';
+import { clearAccessToken, getAccessToken, useAccessToken } from './token-store';
 
 export const authKeys = {
   all: ['auth'] as const,
@@ -78,6 +78,9 @@ export function useEndSessionOnArrival(): boolean {
   const signingOut = isSignOut(location.state);
   useEffect(() => {
     if (!signingOut) return;
+    // The API ends the token too (a copy kept on a shared PC opens nothing); it is sent with the token before
+    // the token is forgotten here, and signing out goes on whether or not the API answers.
+    if (getAccessToken()) api.post<void>('/auth/sign-out', {}).catch(() => undefined);
     clearAccessToken();
     queryClient.clear();
     void navigate(paths.signIn.getHref(), { replace: true });

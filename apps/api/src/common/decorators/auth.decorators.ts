@@ -16,6 +16,8 @@ export interface AuthUser {
   email: string;
   role: Role;
   displayName: string;
+  /** The bearer token's id and expiry (seconds since the epoch), for signing it out; absent on older tokens. */
+  token?: { jti: string; exp: number };
 }
 
 export const CurrentUser = createParamDecorator((_data: unknown, ctx: ExecutionContext): AuthUser => {

@@ -46,6 +46,7 @@ const ACTIONS: Record<string, string> = {
   'design.solid': 'solid uploaded',
   // A job goes back to its requester as "returned" (its state); a profile version is "sent back".
   'job.return': 'returned',
+  'user.sign-out': 'signed out',
 };
 
 /** What an action did, in words: "job.close" → "closed", "export.request" → "cut pack queued". */
