@@ -482,6 +482,18 @@ export function buildAtScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number
       );
     }
   }
+  // A pair crossing several times along its line whose slots must face opposite ways: the two pieces would
+  // have to slide both ways at once. Rigid stock cannot do that (an error); card can be bent past (a warning).
+  for (const group of plan.opposed) {
+    const c = at(crossings, at(group, 0));
+    const [a, b] = [at(ids, c.a), at(ids, c.b)];
+    const says =
+      `${a} and ${b} cross ${group.length} times along one line, and their slots there cannot all open the same ` +
+      'way (each must open on its own edge): the pieces would have to slide both ways at once';
+    if (spec.stock.flexible) {
+      issues.warn('CROSSING.OPPOSED_SLOTS', `${says}; bend one of them to pass`, [a, b]);
+    } else issues.error('CROSSING.OPPOSED_SLOTS', `${says}, which rigid stock cannot do`, [a, b]);
+  }
   for (const k of plan.collisions) {
     const [ci, cj] = k.crossings.map((i) => at(crossings, i));
     const other = (c: Crossing) => at(ids, c.a === k.piece ? c.b : c.a);

@@ -213,3 +213,64 @@ describe('2-SAT', () => {
     }
   });
 });
+
+describe('several crossings of one pair along one line', () => {
+  // Half-lap (egg-crate) joints go together by sliding the two pieces along their common line (common
+  // practice), one way only: where a pair crosses several times along that line, every slot of one piece must
+  // face the same way, or the partner would have to move both ways at once.
+  /** Piece a's slot directions (3D, unit) per pair with more than one crossing. */
+  function slideDirections(spec: ReturnType<typeof design>): number[][][] {
+    const model = buildModel(spec);
+    const byPair = new Map<string, number[][]>();
+    for (const piece of model.pieces) {
+      for (const s of piece.slots) {
+        const c = model.crossings[s.crossing];
+        if (!c || model.pieces[c.a] !== piece) continue;
+        const f = piece.frame;
+        const d = [0, 1, 2].map((k) => s.axis[0] * (f.x[k] ?? 0) + s.axis[1] * (f.y[k] ?? 0));
+        const key = `${c.a}-${c.b}`;
+        byPair.set(key, [...(byPair.get(key) ?? []), d]);
+      }
+    }
+    return [...byPair.values()].filter((l) => l.length > 1);
+  }
+  const cubeStars125 = (rotationDeg: number, size: number) =>
+    design({
+      solid: 'cube',
+      piece: { sides: 12, step: 5, rotationDeg, size },
+      scale: { by: 'planeDistance', mm: 60 },
+      stock: { thicknessMm: 3, flexible: false },
+      machine: { kind: 'laser', kerfMm: 0 },
+    });
+
+  it('refuses a pair whose crossings force slots facing opposite ways', () => {
+    // {12/5} stars turned 6° on a cube: along each edge line a piece's chord meets two chords of its
+    // neighbour, one at each of its ends, so one slot must open at each end of the chord.
+    const { report } = buildModel(cubeStars125(6, 1.720166));
+    const opposed = report.errors.filter((e) => e.code === 'CROSSING.OPPOSED_SLOTS');
+    expect(opposed.length).toBe(12);
+    expect(opposed[0]?.pieces).toHaveLength(2);
+    // Card can be bent past the second joint: the same design in flexible stock only warns.
+    const card = buildModel({
+      ...cubeStars125(6, 1.720166),
+      stock: { thicknessMm: 0.5, flexible: true },
+    }).report;
+    expect(card.errors).toEqual([]);
+    expect(card.warnings.filter((w) => w.code === 'CROSSING.OPPOSED_SLOTS')).toHaveLength(12);
+  });
+
+  it.each([
+    [1.5, 1.817698],
+    [3, 1.977709],
+    [0, 1.242331],
+  ])('gives every crossing of a pair the same slide direction (turn %p°, size %p)', (rot, size) => {
+    const spec = cubeStars125(rot, size);
+    expect(buildModel(spec).report.errors).toEqual([]);
+    const pairs = slideDirections(spec);
+    expect(pairs.length).toBeGreaterThan(0);
+    for (const dirs of pairs) {
+      const d0 = dirs[0] as number[];
+      for (const d of dirs) expect(d.reduce((sum, x, k) => sum + x * (d0[k] ?? 0), 0)).toBeGreaterThan(0.999);
+    }
+  });
+});

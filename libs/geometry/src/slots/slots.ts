@@ -64,6 +64,12 @@ export interface SlotPlan {
   collisions: { piece: number; crossings: [number, number] }[];
   /** Whether the 2-SAT search was needed to avoid collisions. */
   searched: boolean;
+  /**
+   * Crossings of one pair of pieces (several along their common line, as stars give) whose slots cannot all
+   * open the same way: each group lists crossing indices. Slid together along the line, the partner would
+   * have to move both ways at once, so the pair cannot be assembled.
+   */
+  opposed: number[][];
 }
 
 /** The slot that option `option` gives piece `which` ('a' or 'b') for a crossing. */
@@ -176,13 +182,39 @@ export function slotsOverlap(s: Slot, t: Slot, tol = 1e-6): boolean {
  */
 export function planSlots(input: SlotPlanInput): SlotPlan {
   const { crossings, frames } = input;
-  const feasible = crossings.map((c) => [c.endOnA[0] && c.endOnB[1], c.endOnA[1] && c.endOnB[0]] as const);
+  const feasible = crossings.map(
+    (c) => [c.endOnA[0] && c.endOnB[1], c.endOnA[1] && c.endOnB[0]] as [boolean, boolean],
+  );
+  // A pair's crossings lie on one line, and the pieces slide together along it one way only: all of them
+  // must take the same option (option 1 makes piece a's slots face one way along the line, option 0 the other).
+  // (Crossings with no feasible option are reported on their own and left out.)
+  const byPair = new Map<string, Crossing[]>();
+  for (const c of crossings) {
+    if (!at(feasible, c.index).some(Boolean)) continue;
+    const key = `${c.a}-${c.b}`;
+    byPair.set(key, [...(byPair.get(key) ?? []), c]);
+  }
+  const groups = [...byPair.values()].filter((g) => g.length > 1);
+  const opposed: number[][] = [];
+  for (const g of groups) {
+    const f0 = g.every((c) => at(feasible, c.index)[0]);
+    const f1 = g.every((c) => at(feasible, c.index)[1]);
+    if (!f0 && !f1) opposed.push(g.map((c) => c.index));
+    else for (const c of g) feasible[c.index] = [f0, f1];
+  }
   const preferred = crossings.map((c): 0 | 1 | null => {
     const [f0, f1] = at(feasible, c.index);
     if (!f0 && !f1) return null;
     const d = defaultSlotOption(c, at(frames, c.a));
     return (d === 1 ? f1 : f0) ? d : d === 1 ? 0 : 1;
   });
+  // The default rule gives every crossing of a pair the same side (their midpoints share the line): make
+  // sure of it, so one pair's slots never face opposite ways.
+  for (const g of groups) {
+    const first = at(preferred, at(g, 0).index);
+    const [f0, f1] = at(feasible, at(g, 0).index);
+    if (f0 && f1) for (const c of g) preferred[c.index] = first;
+  }
   // Candidate slots per crossing and option.
   const cand = crossings.map((c) =>
     ([0, 1] as const).map((o) =>
@@ -252,6 +284,13 @@ export function planSlots(input: SlotPlanInput): SlotPlan {
       if (!f0) clauses.push([lit(c.index, true), lit(c.index, true)]);
       if (!f1) clauses.push([lit(c.index, false), lit(c.index, false)]);
     });
+    // One option for all crossings of a pair (see above): x_i ⇔ x_j.
+    for (const g of groups) {
+      for (let k = 1; k < g.length; k++) {
+        const [i, j] = [at(g, k - 1).index, at(g, k).index];
+        clauses.push([lit(i, true), lit(j, false)], [lit(i, false), lit(j, true)]);
+      }
+    }
     nearPairs((_piece, e, f) => {
       for (const oi of [0, 1] as const) {
         for (const oj of [0, 1] as const) {
@@ -279,7 +318,7 @@ export function planSlots(input: SlotPlanInput): SlotPlan {
     at(slots, c.a).push(at(pair, 0));
     at(slots, c.b).push(at(pair, 1));
   }
-  return { options, slots, collisions, searched };
+  return { options, slots, collisions, searched, opposed };
 }
 
 /** Points where a slot's walls meet its bottom, for dog-bone reliefs: corner, and the two walls' inward directions from it. */
