@@ -378,6 +378,14 @@ describe('cut-pack exports worked inside the API process', () => {
       (v) => v.attempts >= 1 && v.errorCode !== null,
     );
     expect(failedOnce.state).not.toBe('done');
+    // The hobbyist who owns the job reads plain words about it, never the storage client's own text
+    // ("connect ECONNREFUSED 127.0.0.1:<port>"), which stays in the server log.
+    const seen = (await ctx.http.get(`/api/exports/${id}`).set(auth(p.owner)).expect(200)).body as ExportView;
+    for (const v of [failedOnce, seen]) {
+      expect(v.errorCode).toBe('EXPORT.ATTEMPT_FAILED');
+      expect(v.errorMessage).toMatch(/^The file storage could not be reached.*tried again/);
+      expect(v.errorMessage).not.toMatch(/ECONN|127\.0\.0\.1|:\d{2,5}\b/);
+    }
     await s3.restart();
     const view = await pollExport(ctx, p.fabricator, id, (v) => v.state === 'done' || v.state === 'failed');
     expect(view.state).toBe('done');

@@ -19,7 +19,12 @@ import { JobsService } from '../jobs/jobs.service';
 import { OBJECT_STORAGE, type ObjectStorage } from '../storage/object-storage';
 import { assertJobExportable, CutPackInputService } from './cut-pack-input';
 import { fileKey, isSafeFileName } from './export-keys';
-import { ExportFailure } from './export-failure';
+import {
+  attemptFailureMessage,
+  EXPORT_GAVE_UP_MESSAGE,
+  ExportFailure,
+  ExportStorageError,
+} from './export-failure';
 import { Export, ExportFile } from './export.entity';
 import { EXPORT_JOB, EXPORT_QUEUE, exportsConfig } from './exports.config';
 
@@ -65,14 +70,15 @@ export class ExportsProcessor implements OnApplicationBootstrap {
     if (this.config.workerMode === 'off') return;
     void this.queue.process(EXPORT_JOB, this.config.concurrency, (job) => this.handle(job));
     // An export whose workers kept dying (Bull gives up after maxStalledCount) never reaches handle()'s
-    // catch: record it as failed here so it does not look "running" for ever.
+    // catch: record it as failed here so it does not look "running" for ever (Bull's words go to the log).
     this.queue.on('failed', (job: BullJob<ExportJobData>, err: Error) => {
       if (!/stalled/i.test(err.message)) return;
+      this.logger.warn(`export ${job.data.exportId} given up: ${err.message}`);
       void this.dataSource
         .query(
           `UPDATE exports SET state = 'failed', error_code = 'EXPORT.STALLED', error_message = $2, finished_at = now()
             WHERE id = $1 AND state NOT IN ('done', 'failed')`,
-          [job.data.exportId, err.message.slice(0, 500)],
+          [job.data.exportId, EXPORT_GAVE_UP_MESSAGE],
         )
         .catch(() => undefined);
     });
@@ -108,7 +114,14 @@ export class ExportsProcessor implements OnApplicationBootstrap {
       const attemptsLeft = (bullJob.opts.attempts ?? 1) - (bullJob.attemptsMade + 1);
       const final = failure !== null || attemptsLeft <= 0;
       const code = failure?.code ?? 'EXPORT.ATTEMPT_FAILED';
-      const message = (err instanceof Error ? err.message : String(err)).slice(0, 1000);
+      // The export's readers (the hobbyist who owns the job included) get plain words; the error's own text,
+      // which may name hosts, ports and paths, goes to the log only.
+      const message = (failure?.message ?? attemptFailureMessage(err, final)).slice(0, 1000);
+      const detail = failure
+        ? (failure.detail ?? failure.message)
+        : err instanceof Error
+          ? err.message
+          : String(err);
       await this.dataSource
         .query(
           `UPDATE exports SET state = $2::export_state, error_code = $3, error_message = $4,
@@ -119,7 +132,7 @@ export class ExportsProcessor implements OnApplicationBootstrap {
         .catch((e: unknown) =>
           this.logger.warn(`export ${exportId}: could not record failure: ${String(e)}`),
         );
-      this.logger.warn(`export ${exportId} attempt ${bullJob.attemptsMade + 1} failed (${code}): ${message}`);
+      this.logger.warn(`export ${exportId} attempt ${bullJob.attemptsMade + 1} failed (${code}): ${detail}`);
       if (failure) {
         await bullJob.discard();
         await this.discardObjects(exp);
@@ -130,7 +143,7 @@ export class ExportsProcessor implements OnApplicationBootstrap {
 
   /** Builds the pack and writes every file (overwriting what an earlier attempt left). */
   private async build(exp: Export): Promise<{ files: ExportFile[]; manifest: CutPackManifest }> {
-    await this.storage.ready();
+    await this.onStorage(() => this.storage.ready());
     const input = await this.inputs.forJob(this.dataSource.manager, exp.jobId, new Date(exp.createdAt));
     const progress = this.progressWriter(exp.id);
     let pack: CutPackResult;
@@ -170,8 +183,8 @@ export class ExportsProcessor implements OnApplicationBootstrap {
     };
     await Promise.all(Array.from({ length: parallel }, uploader));
     // Objects under the prefix that this attempt did not write (an earlier, different attempt) go.
-    for (const o of await this.storage.list(exp.storagePrefix)) {
-      if (!rows.some((r) => r.storageKey === o.key)) await this.storage.delete(o.key);
+    for (const o of await this.onStorage(() => this.storage.list(exp.storagePrefix))) {
+      if (!rows.some((r) => r.storageKey === o.key)) await this.onStorage(() => this.storage.delete(o.key));
     }
     return { files: rows, manifest: pack.manifest };
   }
@@ -179,7 +192,7 @@ export class ExportsProcessor implements OnApplicationBootstrap {
   private async store(exp: Export, f: CutPackFile): Promise<ExportFile> {
     const body = Buffer.from(f.data.buffer, f.data.byteOffset, f.data.byteLength);
     const key = fileKey(exp.storagePrefix, f.name);
-    await this.storage.put(key, body, f.contentType);
+    await this.onStorage(() => this.storage.put(key, body, f.contentType));
     return Object.assign(new ExportFile(), {
       exportId: exp.id,
       name: f.name,
@@ -253,6 +266,15 @@ export class ExportsProcessor implements OnApplicationBootstrap {
       for (const o of await this.storage.list(exp.storagePrefix)) await this.storage.delete(o.key);
     } catch (e) {
       this.logger.warn(`export ${exp.id}: could not delete the files of the failed export: ${String(e)}`);
+    }
+  }
+
+  /** Runs a call to the object storage; its failure is marked as the storage's (for the message users read). */
+  private async onStorage<T>(call: () => Promise<T>): Promise<T> {
+    try {
+      return await call();
+    } catch (err) {
+      throw new ExportStorageError(err);
     }
   }
 

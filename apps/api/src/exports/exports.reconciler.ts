@@ -11,6 +11,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { DataSource } from 'typeorm';
 import { withDeadline } from '../common/with-deadline';
+import { attemptFailureMessage } from './export-failure';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
 import { type ExportJobData } from './exports.processor';
 import { ExportsService } from './exports.service';
@@ -96,11 +97,13 @@ export class ExportsReconciler implements OnApplicationBootstrap, OnApplicationS
       if (existing) {
         // Bull gave up on it while PostgreSQL could not be told: record the failure now.
         if (await withDeadline(existing.isFailed(), REDIS_CALL_MS, 'reading the queue')) {
+          // Bull's reason is the last error's own text: the log gets it, the export's readers plain words.
+          this.logger.warn(`export ${id} was given up by the queue: ${String(existing.failedReason)}`);
           await this.dataSource.query(
             `UPDATE exports SET state = 'failed', error_code = COALESCE(error_code, 'EXPORT.ATTEMPT_FAILED'),
                     error_message = COALESCE(error_message, $2), finished_at = now()
               WHERE id = $1 AND state IN ('queued', 'running')`,
-            [id, String(existing.failedReason ?? 'the queue gave up on this export').slice(0, 500)],
+            [id, attemptFailureMessage(null, true)],
           );
         }
         continue;
