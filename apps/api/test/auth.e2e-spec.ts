@@ -44,6 +44,29 @@ describe('sign-in and registration (real PostgreSQL)', () => {
     expectErrorBody(res.body, 409, 'AUTH.EMAIL_TAKEN');
   });
 
+  it('gives requests racing to register one e-mail in different letter cases one account and EMAIL_TAKEN', async () => {
+    const local = `race-${randomUUID().slice(0, 8)}`;
+    const variants = [
+      `${local}@tests.example`,
+      `${local.toUpperCase()}@tests.example`,
+      `${local}@TESTS.example`,
+    ];
+    variants.push(`${local.toUpperCase()}@TESTS.EXAMPLE`);
+    const answers = await Promise.all(
+      variants.map((email) =>
+        ctx.http
+          .post('/api/auth/register')
+          .send({ email, displayName: 'Racer', password: 'a-long-password' }),
+      ),
+    );
+    expect(answers.map((r) => r.status).sort()).toEqual([201, 409, 409, 409]);
+    for (const r of answers.filter((a) => a.status === 409)) expectErrorBody(r.body, 409, 'AUTH.EMAIL_TAKEN');
+    const rows: unknown[] = await ctx.db.query(`SELECT 1 FROM users WHERE lower(email) = lower($1)`, [
+      variants[0],
+    ]);
+    expect(rows).toHaveLength(1);
+  });
+
   it('rejects a malformed body with 400 naming the field, and writes nothing', async () => {
     const before = await countRows(ctx, 'users');
     const res = await ctx.http

@@ -9,7 +9,7 @@ import { DataSource, Repository } from 'typeorm';
 import { type AuthResponse, type UserView } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
-import { sendPrepared } from '../common/db-helpers';
+import { PG_UNIQUE_VIOLATION, pgError, sendPrepared } from '../common/db-helpers';
 import { AppError } from '../common/errors';
 import { appConfig, authConfig } from '../config/app.config';
 import { toUserView, User } from '../users/user.entity';
@@ -31,6 +31,12 @@ export function bcryptInput(password: string): string {
   if (Buffer.byteLength(password, 'utf8') <= BCRYPT_MAX_BYTES) return password;
   return `sha256:${createHash('sha256').update(password, 'utf8').digest('base64')}`;
 }
+
+/** The refusal of an e-mail someone registered already (in any letter case). */
+const emailTaken = (): AppError =>
+  new AppError(HttpStatus.CONFLICT, 'AUTH.EMAIL_TAKEN', 'An account with this e-mail already exists', [
+    { field: 'email', messages: ['already registered'] },
+  ]);
 
 /** Compared against when the e-mail is unknown, so both paths take the same time. */
 const DUMMY_HASH = bcrypt.hashSync('kerfwright-timing-equaliser', PASSWORD_HASH_COST);
@@ -101,32 +107,33 @@ export class AuthService {
   async register(dto: RegisterDto, requestId: string): Promise<AuthResponse> {
     const email = dto.email.trim();
     const hash = await bcrypt.hash(bcryptInput(dto.password), PASSWORD_HASH_COST);
-    const user = await this.dataSource.transaction(async (manager) => {
-      const taken = await manager
-        .createQueryBuilder(User, 'u')
-        .where('lower(u.email) = lower(:email)', { email })
-        .getExists();
-      if (taken) {
-        throw new AppError(
-          HttpStatus.CONFLICT,
-          'AUTH.EMAIL_TAKEN',
-          'An account with this e-mail already exists',
-          [{ field: 'email', messages: ['already registered'] }],
+    const user = await this.dataSource
+      .transaction(async (manager) => {
+        const taken = await manager
+          .createQueryBuilder(User, 'u')
+          .where('lower(u.email) = lower(:email)', { email })
+          .getExists();
+        if (taken) throw emailTaken();
+        const created = await manager.save(
+          manager.create(User, { email, displayName: dto.displayName, passwordHash: hash, role: 'hobbyist' }),
         );
-      }
-      const created = await manager.save(
-        manager.create(User, { email, displayName: dto.displayName, passwordHash: hash, role: 'hobbyist' }),
-      );
-      await this.audit.record(manager, {
-        actorId: created.id,
-        action: 'user.register',
-        entityType: 'user',
-        entityId: created.id,
-        after: toUserView(created),
-        requestId,
+        await this.audit.record(manager, {
+          actorId: created.id,
+          action: 'user.register',
+          entityType: 'user',
+          entityId: created.id,
+          after: toUserView(created),
+          requestId,
+        });
+        return created;
+      })
+      .catch((err: unknown) => {
+        // Registered at the same moment by another request (the check above saw neither): the unique index on
+        // lower(email) refuses the second, which gets the answer a later duplicate gets.
+        const pg = pgError(err);
+        if (pg?.code === PG_UNIQUE_VIOLATION && pg.constraint === 'users_email_lower_key') throw emailTaken();
+        throw err;
       });
-      return created;
-    });
     return this.issue(user);
   }
 
