@@ -599,6 +599,25 @@ describe('machine profiles, versions and kerf records', () => {
       expect(p.latest.settings[0]!.kerfMm).toBe(0);
     });
 
+    it('takes an upper-case material id in a body as the material it names, as path ids are taken', async () => {
+      const p = await createProfile({ settings: [laserSetting(plywood.toUpperCase())] });
+      expect(p.latest.settings[0]!.materialId).toBe(plywood);
+      // The same material twice is still twice, whatever the letter case.
+      const twice = await ctx.http
+        .post('/api/machine-profiles')
+        .set(auth('fabricator'))
+        .send(profileBody({ settings: [laserSetting(plywood), laserSetting(plywood.toUpperCase())] }))
+        .expect(400);
+      expect(twice.body.details.map((d: { field: string }) => d.field)).toContain('settings[1].materialId');
+      const rec = await kerfRecord(p, plywood.toUpperCase(), 0.16);
+      const listed = await ctx.http
+        .get(`/api/machine-profiles/${p.id}/kerf-records`)
+        .query({ materialId: plywood.toUpperCase() })
+        .set(auth('fabricator'))
+        .expect(200);
+      expect(JSON.stringify(listed.body)).toContain(rec.id);
+    });
+
     it('refuses a duplicate profile name with 409', async () => {
       const p = await createProfile();
       const res = await ctx.http

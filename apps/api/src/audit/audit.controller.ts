@@ -1,13 +1,15 @@
 import { Controller, Get, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOkResponse, ApiProperty, ApiPropertyOptional, ApiTags } from '@nestjs/swagger';
 import { InjectRepository } from '@nestjs/typeorm';
-import { IsIn, IsOptional, IsString, IsUUID, MaxLength } from 'class-validator';
+import { Transform } from 'class-transformer';
+import { IsIn, IsOptional, IsString, MaxLength } from 'class-validator';
 import { Repository } from 'typeorm';
 import { type AuditEventView, type Page } from '@kerfwright/contracts';
 import { Roles } from '../common/decorators/auth.decorators';
 import { likePattern } from '../common/db-helpers';
 import { PageQueryDto, pageWindow } from '../common/paging';
 import { AuditEvent } from './audit-event.entity';
+import { canonicalId, IsId } from '../common/validation/id';
 
 export class ListAuditQuery extends PageQueryDto {
   @ApiPropertyOptional({
@@ -27,8 +29,13 @@ export class ListAuditQuery extends PageQueryDto {
   @IsString()
   @MaxLength(40)
   entityType?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(64) entityId?: string;
-  @ApiPropertyOptional() @IsOptional() @IsUUID() actorId?: string;
+  @ApiPropertyOptional()
+  @IsOptional()
+  @Transform(({ value }: { value: unknown }) => canonicalId(value))
+  @IsString()
+  @MaxLength(64)
+  entityId?: string;
+  @ApiPropertyOptional() @IsOptional() @IsId() actorId?: string;
   @ApiPropertyOptional({ description: 'Action prefix, e.g. "job." or "user.update"' })
   @IsOptional()
   @IsString()

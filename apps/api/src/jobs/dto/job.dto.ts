@@ -9,7 +9,6 @@ import {
   IsOptional,
   IsPositive,
   IsString,
-  IsUUID,
   Max,
   MaxLength,
   Min,
@@ -35,9 +34,10 @@ import { PageQueryDto } from '../../common/paging';
 import { Trimmed } from '../../common/text';
 import { OptionalNotNull } from '../../common/validation/optional';
 import { IsRowVersion } from '../../common/validation/row-version';
+import { IsId } from '../../common/validation/id';
 
 export class CreateJobDto {
-  @ApiProperty() @IsUUID() designId: string;
+  @ApiProperty() @IsId() designId: string;
   @ApiPropertyOptional({ minimum: 1, maximum: 100, default: 1 })
   @OptionalNotNull()
   @IsInt()
@@ -135,8 +135,8 @@ export function toScaleSpec(dto: ScaleDto): AnyScaleSpec {
 }
 
 export class PrepareJobDto extends JobActionDto {
-  @ApiProperty() @IsUUID() materialId: string;
-  @ApiProperty({ description: 'An approved machine profile version' }) @IsUUID() profileVersionId: string;
+  @ApiProperty() @IsId() materialId: string;
+  @ApiProperty({ description: 'An approved machine profile version' }) @IsId() profileVersionId: string;
   @ApiProperty({
     type: [String],
     description: 'Colours of the material to cut from (one sheet set per colour)',

@@ -1,11 +1,12 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { IsNumber, IsString, IsUUID, Max, MaxLength, Min } from 'class-validator';
+import { IsNumber, IsString, Max, MaxLength, Min } from 'class-validator';
 import { type CreateKerfRecordRequest, MACHINE_PROFILE_LIMITS as L } from '@kerfwright/contracts';
 import { FINITE, OptionalNotNull } from '../../common/validation/optional';
+import { IsId } from '../../common/validation/id';
 
 export class CreateKerfRecordDto implements CreateKerfRecordRequest {
   @ApiProperty({ format: 'uuid' })
-  @IsUUID()
+  @IsId()
   materialId: string;
 
   @ApiProperty({
@@ -20,7 +21,7 @@ export class CreateKerfRecordDto implements CreateKerfRecordRequest {
 
   @ApiPropertyOptional({ format: 'uuid', description: 'The job whose cut was measured' })
   @OptionalNotNull()
-  @IsUUID()
+  @IsId()
   jobId?: string;
 
   @ApiPropertyOptional({ maxLength: 2000 })

@@ -1,6 +1,6 @@
 import { ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsIn, IsInt, IsOptional, IsString, IsUUID, Max, MaxLength, Min } from 'class-validator';
+import { IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min } from 'class-validator';
 import {
   type ListMachineProfilesQuery,
   MACHINE_PROFILE_KINDS,
@@ -11,6 +11,7 @@ import {
   type ProfileVersionState,
 } from '@kerfwright/contracts';
 import { MAX_PAGE, PageQueryDto } from '../../common/paging';
+import { IsId } from '../../common/validation/id';
 
 const SORTS = [...PROFILE_SORT_FIELDS, ...PROFILE_SORT_FIELDS.map((f) => `-${f}` as const)];
 
@@ -40,7 +41,7 @@ export class ListMachineProfilesQueryDto extends PageQueryDto implements ListMac
 export class ListKerfRecordsQueryDto {
   @ApiPropertyOptional({ format: 'uuid' })
   @IsOptional()
-  @IsUUID()
+  @IsId()
   materialId?: string;
 
   @ApiPropertyOptional({ minimum: 1, maximum: MAX_PAGE, default: 1 })

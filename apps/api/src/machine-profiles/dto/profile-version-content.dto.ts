@@ -6,7 +6,6 @@ import {
   IsInt,
   IsNumber,
   IsString,
-  IsUUID,
   Matches,
   Max,
   MaxLength,
@@ -19,10 +18,11 @@ import {
   type ProfileVersionContent,
 } from '@kerfwright/contracts';
 import { FINITE, OptionalNotNull } from '../../common/validation/optional';
+import { IsId } from '../../common/validation/id';
 
 export class ProfileSettingDto implements ProfileSetting {
   @ApiProperty({ format: 'uuid' })
-  @IsUUID()
+  @IsId()
   materialId: string;
 
   @ApiPropertyOptional({
