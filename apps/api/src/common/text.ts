@@ -1,3 +1,4 @@
+import { applyDecorators } from '@nestjs/common';
 import { Transform } from 'class-transformer';
 import { Matches } from 'class-validator';
 
@@ -6,17 +7,32 @@ export const Trimmed = () =>
   Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value));
 
 /**
- * No control characters (C0, DEL, C1: \p{Cc}), no line or paragraph separators, and none of the bidirectional
- * embeddings, overrides and isolates (U+202A–U+202E, U+2066–U+2069) that make a name display as other text
- * than it holds (Unicode Technical Report #36, "Unicode Security Considerations"; CVE-2021-42574).
+ * No control characters (C0, DEL, C1: \p{Cc}), no line or paragraph separators, and no format characters
+ * (\p{Cf}): the bidirectional embeddings, overrides and isolates (U+202A–U+202E, U+2066–U+2069) make a name
+ * display as other text than it holds (Unicode Technical Report #36, "Unicode Security Considerations";
+ * CVE-2021-42574), and the rest of the category (zero-width space and joiners, word joiner, soft hyphen,
+ * invisible operators…) is invisible, so two names that look alike would differ, or a name would show nothing.
  */
-const ONE_LINE_TEXT = /^[^\p{Cc}\u2028\u2029\u202A-\u202E\u2066-\u2069]*$/u;
+const ONE_LINE_TEXT = /^[^\p{Cc}\p{Cf}\u2028\u2029]*$/u;
+
+/**
+ * A character that shows: a letter, digit, punctuation or symbol that is not one of the default-ignorable
+ * code points (Unicode Standard, section 5.21; the Hangul fillers U+3164 and U+FFA0 are letters that draw
+ * nothing).
+ */
+const VISIBLE = /(?![\p{Default_Ignorable_Code_Point}])[\p{L}\p{N}\p{P}\p{S}]/u;
 
 /** A name is one line of visible text: refuses tabs, line breaks, escape sequences and other controls. */
 export const NoControlCharacters = () =>
-  Matches(ONE_LINE_TEXT, {
-    message: ({ property }) => `${property} must not contain control characters or line breaks`,
-  });
+  applyDecorators(
+    Matches(ONE_LINE_TEXT, {
+      message: ({ property }) =>
+        `${property} must not contain control characters, line breaks or invisible formatting characters (such as a zero-width space)`,
+    }),
+    Matches(VISIBLE, {
+      message: ({ property }) => `${property} must contain at least one visible character`,
+    }),
+  );
 
 /** "A draft", "An approved": the indefinite article a word takes in a sentence's first place (by its spelling). */
 export const withArticle = (word: string): string => `${/^[aeiou]/i.test(word) ? 'An' : 'A'} ${word}`;
