@@ -71,6 +71,27 @@ describe('designs', () => {
     expect(await countRows(ctx, 'designs')).toBe(before);
   });
 
+  it('refuses at once a design too heavy to compute in time, saying how to make it lighter, and stores nothing', async () => {
+    const before = await countRows(ctx, 'designs');
+    // 120 pieces of 60-pointed stars: 9–20 s of a geometry thread to build (measured), 31–42 s under load.
+    const spec = {
+      ...octahedronHexagons(),
+      solid: 'disdyakis-triacontahedron',
+      piece: { sides: 60, step: 29, size: 1.2 },
+    };
+    const started = Date.now();
+    const res = await ctx.http
+      .post('/api/designs')
+      .set(auth(owner))
+      .send({ name: 'Heavy', spec })
+      .expect(422);
+    expect(Date.now() - started).toBeLessThan(3000);
+    expectErrorBody(res.body, 422, 'DESIGN.TOO_HEAVY');
+    expect(res.body.message).toMatch(/too heavy.*120 pieces of 60 sides.*choose pieces of at most \d+ sides/);
+    expect(res.body.details).toMatchObject({ reason: 'estimate', work: 120 * 119 * 60 });
+    expect(await countRows(ctx, 'designs')).toBe(before);
+  });
+
   it('keeps designs private between hobbyists: 404 for one, and lists only their own', async () => {
     const d = await create(owner);
     const nf = await ctx.http.get(`/api/designs/${d.id}`).set(auth(other)).expect(404);
@@ -264,5 +285,45 @@ describe('designs', () => {
     const free = await create(owner);
     await ctx.http.delete(`/api/designs/${free.id}`).set(auth(owner)).expect(204);
     await ctx.http.get(`/api/designs/${free.id}`).set(auth(owner)).expect(404);
+  });
+});
+
+describe('designs whose computation outlasts its deadline', () => {
+  let ctx: TestContext;
+  let owner: TestUser;
+  const saved = process.env.KW_GEOMETRY_TASK_MS;
+  beforeAll(async () => {
+    process.env.KW_GEOMETRY_TASK_MS = '400';
+    ctx = await startTestApp();
+    owner = await createUser(ctx, 'hobbyist');
+  });
+  afterAll(async () => {
+    await ctx.app.close();
+    if (saved === undefined) delete process.env.KW_GEOMETRY_TASK_MS;
+    else process.env.KW_GEOMETRY_TASK_MS = saved;
+  });
+  const auth = (u: TestUser) => ({ Authorization: `Bearer ${u.token}` });
+
+  it('stops the thread at the deadline, answers 422 DESIGN.TOO_HEAVY, and computes the next design on a new one', async () => {
+    const before = await countRows(ctx, 'designs');
+    // Under the up-front limit (120 × 119 × 12 = 171,360) but about 2.3 s of one thread (measured): past 0.4 s.
+    const spec = {
+      ...octahedronHexagons(),
+      solid: 'disdyakis-triacontahedron',
+      piece: { sides: 12, step: 5, size: 1.2 },
+    };
+    const started = Date.now();
+    const res = await ctx.http.post('/api/designs').set(auth(owner)).send({ name: 'Slow', spec }).expect(422);
+    expect(Date.now() - started).toBeLessThan(2000);
+    expectErrorBody(res.body, 422, 'DESIGN.TOO_HEAVY');
+    expect(res.body.message).toMatch(/longer than 0\.4 s.*fewer faces/);
+    expect(res.body.details).toEqual({ reason: 'deadline', deadlineMs: 400 });
+    expect(await countRows(ctx, 'designs')).toBe(before);
+    const next = await ctx.http
+      .post('/api/designs')
+      .set(auth(owner))
+      .send({ name: 'Light', spec: octahedronHexagons() })
+      .expect(201);
+    expect(next.body.preview).toMatchObject({ valid: true, pieceCount: 8 });
   });
 });

@@ -36,6 +36,7 @@ export {
   DEFAULT_SHEET_GAP_MM,
 } from './spec/validate-spec';
 export type { ResolvedSpec, ResolvedScale, SpecValidation } from './spec/validate-spec';
+export { assertDesignWork, designWork, DESIGN_WORK_LIMIT, DesignTooHeavyError } from './spec/workload';
 export { getSolid, listSolids, isSolidId, MIN_PRISM_SIDES, MAX_PRISM_SIDES } from './solids/catalogue';
 export type { SolidSummary } from './solids/catalogue';
 export { solidFromPoints, SolidError, COPLANAR_TOLERANCE } from './solids/polyhedron';

@@ -36,6 +36,8 @@ export class EnvVars {
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_ADDRESS_LIMIT?: number;
   @IsOptional() @IsInt() @Min(1) KW_LOGIN_WINDOW_S?: number;
   @IsOptional() @IsInt() @Min(1) @Max(64) KW_GEOMETRY_THREADS?: number;
+  @IsOptional() @IsInt() @Min(100) @Max(3_600_000) KW_GEOMETRY_TASK_MS?: number;
+  @IsOptional() @IsInt() @Min(100) @Max(3_600_000) KW_GEOMETRY_PACK_MS?: number;
   @IsOptional() @IsString() KW_WEB_DIST?: string;
   /** One origin (scheme://host[:port]); never a wildcard or a path. */
   @IsOptional()

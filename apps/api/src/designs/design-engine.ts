@@ -5,7 +5,7 @@ import {
   type FieldError,
   type SolidTextFormat,
 } from '@kerfwright/contracts';
-import { SolidError, SpecValidationError } from '@kerfwright/geometry';
+import { DesignTooHeavyError, SolidError, SpecValidationError } from '@kerfwright/geometry';
 import { AppError } from '../common/errors';
 import { type GeometryThreads } from '../geometry/geometry-threads';
 
@@ -33,6 +33,16 @@ export function badSolid(err: SolidError): AppError {
       reason: err.code,
     },
   );
+}
+
+/** A design refused before it is built: building it would take too long (422, as a deadline's tooSlow). */
+export function tooHeavy(err: DesignTooHeavyError): AppError {
+  const message = err.message.charAt(0).toUpperCase() + err.message.slice(1);
+  return new AppError(HttpStatus.UNPROCESSABLE_ENTITY, 'DESIGN.TOO_HEAVY', message, {
+    reason: 'estimate',
+    work: err.work,
+    limit: err.limit,
+  });
 }
 
 /**
@@ -71,5 +81,6 @@ export async function checkSolidText(
 function engineError(err: unknown): unknown {
   if (err instanceof SpecValidationError) return invalidSpec(err.fieldErrors);
   if (err instanceof SolidError) return badSolid(err);
+  if (err instanceof DesignTooHeavyError) return tooHeavy(err);
   return err;
 }

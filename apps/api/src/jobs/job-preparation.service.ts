@@ -13,7 +13,12 @@ import {
   toEstimateMachine,
   toMachineSpec,
 } from '@kerfwright/contracts';
-import { clashingColourNames, SolidError, SpecValidationError } from '@kerfwright/geometry';
+import {
+  clashingColourNames,
+  DesignTooHeavyError,
+  SolidError,
+  SpecValidationError,
+} from '@kerfwright/geometry';
 import { type PreparedJob } from '@kerfwright/geometry/worker';
 import { AuditService } from '../audit/audit.service';
 import { AppError } from '../common/errors';
@@ -22,7 +27,7 @@ import {
   MachineProfilesService,
 } from '../machine-profiles/machine-profiles.service';
 import { MaterialsService } from '../materials/materials.service';
-import { badSolid, invalidSpec } from '../designs/design-engine';
+import { badSolid, invalidSpec, tooHeavy } from '../designs/design-engine';
 import { GeometryThreads } from '../geometry/geometry-threads';
 import { type PrepareJobDto, toScaleSpec } from './dto/job.dto';
 import { type Job } from './job.entity';
@@ -137,6 +142,7 @@ export class JobPreparationService {
     } catch (err) {
       if (err instanceof SpecValidationError) throw invalidSpec(err.fieldErrors);
       if (err instanceof SolidError) throw badSolid(err);
+      if (err instanceof DesignTooHeavyError) throw tooHeavy(err);
       throw err;
     }
     if (prepared.stage === 'fit') {

@@ -6,11 +6,46 @@ import { packInputFrom } from '../pack/cli-commands';
 import { CutPackError } from '../pack/pack';
 import { SolidError } from '../solids/polyhedron';
 import { SpecValidationError } from '../spec/validate-spec';
+import { DesignTooHeavyError } from '../spec/workload';
 import { checkSolid, cutPack, prepareJob, previewDesign, reviveThreadError } from './worker';
 
 const cut = { sheet: { widthMm: 600, heightMm: 400 }, marginMm: 5, gapMm: 3, colours: { count: 1 } };
 
 describe('geometry worker tasks', () => {
+  it('refuses at once a design too heavy to build in time, saying how to make it lighter', async () => {
+    // 120 pieces of 60-pointed stars: 9–20 s of one thread when built (measured; see designWork).
+    const heavy = {
+      ...octahedronHexagons(),
+      solid: 'disdyakis-triacontahedron',
+      piece: { sides: 60, step: 29, size: 1.2 },
+    };
+    const started = Date.now();
+    const outcomes = [
+      await previewDesign({ spec: heavy }),
+      await prepareJob({ input: heavy, fitSearch: null, cut }),
+    ];
+    expect(Date.now() - started).toBeLessThan(1000);
+    for (const out of outcomes) {
+      if (out.ok) throw new Error('expected a refusal');
+      const err = reviveThreadError(structuredClone(out.error));
+      expect(err).toBeInstanceOf(DesignTooHeavyError);
+      expect(err).toMatchObject({ code: 'DESIGN.TOO_HEAVY', work: 120 * 119 * 60, limit: 200_000 });
+      expect(err.message).toMatch(
+        /120 pieces of 60 sides.*at most 14 sides on this solid, or a solid with fewer faces/,
+      );
+    }
+    // The sample designs stay far below the limit (octahedron: 8 × 7 × 6 = 336).
+    expect((await previewDesign({ spec: octahedronHexagons() })).ok).toBe(true);
+  });
+
+  it('says on its port when a task starts, so a deadline counts its running time only', async () => {
+    const { port1, port2 } = new MessageChannel();
+    const said = new Promise((resolve) => port1.once('message', resolve));
+    await previewDesign({ spec: octahedronHexagons(), started: port2 });
+    expect(await said).toBe('started');
+    port1.close();
+  });
+
   it('prepares a fixed-scale design: the spec as given, no errors, a summary', async () => {
     const out = await prepareJob({ input: octahedronHexagons(), fitSearch: null, cut });
     expect(out.ok).toBe(true);

@@ -20,7 +20,7 @@ import type {
   JobPreparation,
   SolidTextFormat,
 } from '@kerfwright/contracts';
-import { buildModel } from '../build';
+import { buildModel, resolveSolid } from '../build';
 import { designPreview } from '../layout/design-preview';
 import { buildWithLayout } from '../layout/build-with-layout';
 import { prepareCut } from '../layout/prepare-cut';
@@ -29,7 +29,8 @@ import { CutPackError, createCutPack } from '../pack/pack';
 import { type PreparationEstimateOptions, preparationEstimate } from '../pack/pack-sheets';
 import { parseSolidText } from '../solids/parse';
 import { SolidError } from '../solids/polyhedron';
-import { SpecValidationError, validateSpec } from '../spec/validate-spec';
+import { type ResolvedSpec, SpecValidationError, validateSpec } from '../spec/validate-spec';
+import { assertDesignWork, DesignTooHeavyError } from '../spec/workload';
 
 /** An engine error as data. */
 export interface ThreadError {
@@ -38,6 +39,9 @@ export interface ThreadError {
   code?: string;
   fieldErrors?: FieldError[];
   details?: string[];
+  /** DesignTooHeavyError: the design's work and the limit. */
+  work?: number;
+  limit?: number;
 }
 
 export type ThreadOutcome<T> = { ok: true; value: T } | { ok: false; error: ThreadError };
@@ -47,6 +51,7 @@ export function reviveThreadError(e: ThreadError): Error {
   if (e.name === 'SpecValidationError') return new SpecValidationError(e.fieldErrors ?? []);
   if (e.name === 'SolidError') return new SolidError(e.code ?? 'SOLID.INVALID', e.message);
   if (e.name === 'CutPackError') return new CutPackError(e.code ?? 'PACK.FAILED', e.message, e.details);
+  if (e.name === 'DesignTooHeavyError') return new DesignTooHeavyError(e.work ?? 0, e.limit ?? 0, e.message);
   return new Error(e.message);
 }
 
@@ -56,11 +61,27 @@ function asThreadError(err: unknown): ThreadError | null {
   if (err instanceof SolidError) return { name: 'SolidError', message: err.message, code: err.code };
   if (err instanceof CutPackError)
     return { name: 'CutPackError', message: err.message, code: err.code, details: err.details };
+  if (err instanceof DesignTooHeavyError)
+    return { name: 'DesignTooHeavyError', message: err.message, work: err.work, limit: err.limit };
   return null;
 }
 
+/**
+ * What every task may carry besides its data: a port on which the task says it has started, so that the
+ * caller can give it a deadline of its own running time (not of its wait in the pool's queue).
+ */
+export interface TaskClock {
+  started?: MessagePort;
+}
+
+/** Refuses at once a design too heavy to build in time (see assertDesignWork). */
+function assertWorkable(spec: Pick<ResolvedSpec, 'solid'> & { piece: { sides: number } }): void {
+  assertDesignWork(spec.piece.sides, resolveSolid(spec as ResolvedSpec).faces.length);
+}
+
 /** Runs fn; engine errors become values, anything else (a bug) is thrown as it is. */
-async function settle<T>(fn: () => T | Promise<T>): Promise<ThreadOutcome<T>> {
+async function settle<T>(clock: TaskClock, fn: () => T | Promise<T>): Promise<ThreadOutcome<T>> {
+  clock.started?.postMessage('started');
   try {
     return { ok: true, value: await fn() };
   } catch (err) {
@@ -70,7 +91,7 @@ async function settle<T>(fn: () => T | Promise<T>): Promise<ThreadOutcome<T>> {
   }
 }
 
-export interface PrepareJobTask {
+export interface PrepareJobTask extends TaskClock {
   /** The design as it will be cut: real stock thickness and machine, the scale asked for. */
   input: DesignSpecInput;
   /**
@@ -103,8 +124,9 @@ export type PreparedJob =
  * out for cutting (prepareCut): what a job keeps from its preparation.
  */
 export function prepareJob(task: PrepareJobTask): Promise<ThreadOutcome<PreparedJob>> {
-  return settle((): PreparedJob => {
+  return settle(task, (): PreparedJob => {
     let spec = task.input as DesignSpec;
+    assertWorkable(spec);
     if (task.fitSearch) {
       const { model, resolvedSpec } = buildWithLayout(task.fitSearch);
       if (model.report.errors.length > 0) return { stage: 'fit', errors: model.report.errors };
@@ -124,7 +146,7 @@ export function prepareJob(task: PrepareJobTask): Promise<ThreadOutcome<Prepared
   });
 }
 
-export interface CutPackTask {
+export interface CutPackTask extends TaskClock {
   input: CutPackInput;
   /** Receives the build's progress as fractions 0…1 (transferred with the task). */
   progress?: MessagePort;
@@ -132,7 +154,7 @@ export interface CutPackTask {
 
 /** Builds a cut pack (createCutPack) and reports progress on the task's port. */
 export function cutPack(task: CutPackTask): Promise<ThreadOutcome<CutPackResult>> {
-  return settle(() => createCutPack(task.input, (f) => task.progress?.postMessage(f))).finally(() =>
+  return settle(task, () => createCutPack(task.input, (f) => task.progress?.postMessage(f))).finally(() =>
     task.progress?.close(),
   );
 }
@@ -142,10 +164,11 @@ export function cutPack(task: CutPackTask): Promise<ThreadOutcome<CutPackResult>
  * SpecValidationError, an unusable solid a SolidError; geometric errors are in the preview, valid false). A
  * fit-to-sheets design is built at the size the search finds.
  */
-export function previewDesign(task: { spec: unknown }): Promise<ThreadOutcome<DesignPreview>> {
-  return settle(() => {
+export function previewDesign(task: { spec: unknown } & TaskClock): Promise<ThreadOutcome<DesignPreview>> {
+  return settle(task, () => {
     const checked = validateSpec(task.spec);
     if (!checked.ok) throw new SpecValidationError(checked.errors);
+    assertWorkable(checked.spec);
     // Fit to sheets: the figures of the size found, not of the search's upper bound (buildModel's).
     const model =
       checked.spec.scale.by === 'fitSheets' ? buildWithLayout(task.spec).model : buildModel(task.spec);
@@ -154,12 +177,14 @@ export function previewDesign(task: { spec: unknown }): Promise<ThreadOutcome<De
 }
 
 /** Parses uploaded solid text (hull, merged faces, limits) and returns what was found. */
-export function checkSolid(task: {
-  format: SolidTextFormat;
-  text: string;
-  name: string;
-}): Promise<ThreadOutcome<{ name: string; vertexCount: number; faceCount: number }>> {
-  return settle(() => {
+export function checkSolid(
+  task: {
+    format: SolidTextFormat;
+    text: string;
+    name: string;
+  } & TaskClock,
+): Promise<ThreadOutcome<{ name: string; vertexCount: number; faceCount: number }>> {
+  return settle(task, () => {
     const solid = parseSolidText(task.format, task.text, task.name);
     return { name: solid.name, vertexCount: solid.vertices.length, faceCount: solid.faces.length };
   });
