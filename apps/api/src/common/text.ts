@@ -12,8 +12,12 @@ export const Trimmed = () =>
  * display as other text than it holds (Unicode Technical Report #36, "Unicode Security Considerations";
  * CVE-2021-42574), and the rest of the category (zero-width space and joiners, word joiner, soft hyphen,
  * invisible operators…) is invisible, so two names that look alike would differ, or a name would show nothing.
+ * Except the zero-width non-joiner and joiner (U+200C, U+200D) after a letter, mark or pictograph outside ASCII:
+ * Persian and the Indic scripts spell words with them, and emoji sequences join with them (Unicode Standard,
+ * section 23.2); after a Latin letter they only hide in a name.
  */
-const ONE_LINE_TEXT = /^[^\p{Cc}\p{Cf}\u2028\u2029]*$/u;
+const ONE_LINE_TEXT =
+  /^(?:[^\p{Cc}\p{Cf}\u2028\u2029]|(?<=[\p{L}\p{M}\p{Extended_Pictographic}])(?<!\p{ASCII})[\u200C\u200D])*$/u;
 
 /**
  * A character that shows: a letter, digit, punctuation or symbol that is not one of the default-ignorable
