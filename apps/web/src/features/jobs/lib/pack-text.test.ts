@@ -10,16 +10,21 @@ describe('cut pack wording', () => {
     }
   });
 
-  it("explains a failed attempt of the machinery, quoting the storage's words, and keeps a job's own reason", () => {
+  it("explains a failed attempt of the machinery in the API's words, and keeps a job's own reason", () => {
     const storage = packFailureText({
       errorCode: 'EXPORT.ATTEMPT_FAILED',
-      errorMessage: 'We encountered an internal error. Please try again.',
+      errorMessage:
+        'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so ask the workshop to prepare the cut pack again',
       attempts: 4,
     });
     expect(storage).toBe(
-      'The files could not be built and stored after 4 attempts (last error: “We encountered an internal ' +
-        'error. Please try again.”). Prepare the cut pack again; if it fails again, whoever runs the server ' +
+      'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so ask ' +
+        'the workshop to prepare the cut pack again (4 attempts). If it fails again, whoever runs the server ' +
         'finds the details in its log.',
+    );
+    expect(packFailureText({ errorCode: 'EXPORT.ATTEMPT_FAILED', errorMessage: null, attempts: 1 })).toBe(
+      'The files could not be built and stored after one attempt. Prepare the cut pack again. If it fails ' +
+        'again, whoever runs the server finds the details in its log.',
     );
     const reason = 'The machine profile version was retired since the job was prepared.';
     expect(packFailureText({ errorCode: 'MACHINE_PROFILE.RETIRED', errorMessage: reason, attempts: 1 })).toBe(

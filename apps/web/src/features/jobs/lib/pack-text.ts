@@ -25,11 +25,11 @@ export function packProgressText(view: Pick<ExportView, 'state' | 'progress'>): 
 export function packFailureText(view: Pick<ExportView, 'errorCode' | 'errorMessage' | 'attempts'>): string {
   if (view.errorCode === 'EXPORT.ATTEMPT_FAILED') {
     const tries = view.attempts === 1 ? 'one attempt' : `${view.attempts} attempts`;
-    const said = view.errorMessage ? ` (last error: “${view.errorMessage}”)` : '';
-    return (
-      `The files could not be built and stored after ${tries}${said}. Prepare the cut pack again; if it ` +
-      'fails again, whoever runs the server finds the details in its log.'
-    );
+    // The API words the cause for the job's people (the storage client's own text stays in its log).
+    const cause = view.errorMessage
+      ? `${view.errorMessage.replace(/[.\s]+$/u, '')} (${tries}).`
+      : `The files could not be built and stored after ${tries}. Prepare the cut pack again.`;
+    return `${cause} If it fails again, whoever runs the server finds the details in its log.`;
   }
   return view.errorMessage ?? 'The cut pack could not be prepared.';
 }

@@ -324,7 +324,8 @@ describe('release desk', () => {
     const failed = {
       ...exportFixture('e-new', released.id, 'failed', 40),
       errorCode: 'EXPORT.ATTEMPT_FAILED',
-      errorMessage: 'We encountered an internal error. Please try again.',
+      errorMessage:
+        'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so ask the workshop to prepare the cut pack again',
       attempts: 4,
     };
     const built = {
@@ -335,7 +336,9 @@ describe('release desk', () => {
     const { user } = renderApp('/release-desk', { token: 't' });
     await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
     const job = await screen.findByTestId('desk-job');
-    await within(job).findByText(/The files could not be built and stored after 4 attempts/);
+    await within(job).findByText(
+      /^The file storage could not be reached, .* \(4 attempts\)\. If it fails again/,
+    );
     const files = await within(job).findByRole('table', { name: 'Cut pack files' });
     expect(files).toHaveTextContent('sheet-01-clear.svg');
     expect(within(job).getByTestId('cut-pack-earlier')).toHaveTextContent(
