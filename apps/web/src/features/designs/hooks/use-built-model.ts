@@ -1,5 +1,13 @@
 import { type DesignSpecInput } from '@kerfwright/contracts';
-import { type BuiltModel, buildModel, type ColourPlan, type ColourRule } from '@kerfwright/geometry';
+import {
+  assertDesignWork,
+  type BuiltModel,
+  buildModel,
+  type ColourPlan,
+  type ColourRule,
+  resolveSolid,
+  validateSpec,
+} from '@kerfwright/geometry';
 import { useDeferredValue, useMemo } from 'react';
 import { cachedColourPlan } from './colour-plan-cache';
 
@@ -34,10 +42,15 @@ export function useBuiltModel(
 ): BuiltPreview {
   const input = useMemo(() => ({ spec, colourCount, colourRule }), [spec, colourCount, colourRule]);
   const deferred = useDeferredValue(input);
-  return useMemo(() => build(deferred.spec, deferred.colourCount, deferred.colourRule), [deferred]);
+  return useMemo(() => buildPreview(deferred.spec, deferred.colourCount, deferred.colourRule), [deferred]);
 }
 
-function build(spec: DesignSpecInput | null, colourCount: number, colourRule: ColourRule): BuiltPreview {
+/** The preview of one spec (see useBuiltModel). */
+export function buildPreview(
+  spec: DesignSpecInput | null,
+  colourCount: number,
+  colourRule: ColourRule,
+): BuiltPreview {
   const key = JSON.stringify([spec, colourCount, colourRule]);
   const empty = {
     spec,
@@ -53,6 +66,10 @@ function build(spec: DesignSpecInput | null, colourCount: number, colourRule: Co
   const started = performance.now();
   let model: BuiltModel;
   try {
+    // A design the API refuses as too heavy (DESIGN.TOO_HEAVY) would hold this page for many seconds: said,
+    // not built.
+    const checked = validateSpec(spec);
+    if (checked.ok) assertDesignWork(checked.spec.piece.sides, resolveSolid(checked.spec).faces.length);
     model = buildModel(spec);
   } catch (error) {
     return { ...empty, failure: error instanceof Error ? error.message : String(error) };
