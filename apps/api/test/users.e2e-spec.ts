@@ -84,6 +84,45 @@ describe('users administration (supervisor only)', () => {
     });
   });
 
+  it('tells every supervisor when someone is made a supervisor or stops being one, and no one else', async () => {
+    const user = await createUser(ctx, 'hobbyist');
+    const outbox = async (kind: string) =>
+      (await ctx.db.query(
+        `SELECT recipients, subject, text_body FROM mail_outbox WHERE kind = $1 AND text_body LIKE $2`,
+        [kind, `%${user.email}%`],
+      )) as { recipients: string[]; subject: string; text_body: string }[];
+    // A change that leaves the supervisors as they were tells nobody.
+    await ctx.http
+      .patch(`/api/users/${user.id}`)
+      .set('Authorization', `Bearer ${supervisor.token}`)
+      .send({ role: 'fabricator' })
+      .expect(200);
+    expect(await outbox('user.supervisor-granted')).toHaveLength(0);
+    await ctx.http
+      .patch(`/api/users/${user.id}`)
+      .set('Authorization', `Bearer ${supervisor.token}`)
+      .send({ role: 'supervisor' })
+      .expect(200);
+    const supervisors = (
+      (await ctx.db.query(`SELECT email FROM users WHERE active AND role = 'supervisor'`)) as {
+        email: string;
+      }[]
+    ).map((r) => r.email);
+    const granted = await outbox('user.supervisor-granted');
+    // One mail per supervisor, the new one and the one who made the change included.
+    expect(granted.map((g) => g.recipients[0]).sort()).toEqual([...supervisors].sort());
+    expect(supervisors).toEqual(expect.arrayContaining([supervisor.email, user.email]));
+    expect(granted[0]!.text_body).toContain('If this change was not agreed in the workshop');
+    await ctx.http
+      .patch(`/api/users/${user.id}`)
+      .set('Authorization', `Bearer ${supervisor.token}`)
+      .send({ role: 'operator' })
+      .expect(200);
+    const removed = await outbox('user.supervisor-removed');
+    expect(removed.length).toBe(supervisors.length - 1);
+    expect(removed.map((r) => r.recipients[0])).not.toContain(user.email);
+  });
+
   it('deactivates a user, whose token then stops working', async () => {
     const user = await createUser(ctx, 'operator');
     await ctx.http

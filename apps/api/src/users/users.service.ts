@@ -1,4 +1,5 @@
-import { HttpStatus, Injectable } from '@nestjs/common';
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
 import { DataSource, Repository } from 'typeorm';
 import { type Page, type UserView } from '@kerfwright/contracts';
@@ -7,6 +8,9 @@ import { likePattern } from '../common/db-helpers';
 import { AppError, notFound } from '../common/errors';
 import { pageWindow, sortOrder } from '../common/paging';
 import { sameId } from '../common/pipes/parse-id.pipe';
+import { mailConfig } from '../mail/mail.config';
+import { MailOutboxService } from '../mail/mail-outbox.service';
+import { composeMail } from '../mail/mail-templates';
 import { type ListUsersQuery } from './dto/list-users.query';
 import { type UpdateUserDto } from './dto/update-user.dto';
 import { toUserView, User } from './user.entity';
@@ -24,6 +28,8 @@ export class UsersService {
     @InjectRepository(User) private readonly users: Repository<User>,
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
+    private readonly outbox: MailOutboxService,
+    @Inject(mailConfig.KEY) private readonly mail: ConfigType<typeof mailConfig>,
   ) {}
 
   async list(query: ListUsersQuery): Promise<Page<UserView>> {
@@ -94,6 +100,30 @@ export class UsersService {
         after,
         requestId,
       });
+      if ((before.role === 'supervisor') !== (after.role === 'supervisor')) {
+        // Supervisors approve each other's work (four eyes): every one of them hears who joined or left them,
+        // so an account made a supervisor to approve its maker's own job does not go unseen.
+        const granted = after.role === 'supervisor';
+        const text = composeMail(
+          granted
+            ? `${after.displayName} is now a supervisor`
+            : `${after.displayName} is no longer a supervisor`,
+          [
+            `${actor.displayName} ${granted ? 'made' : 'took the supervisor role from'} ${after.displayName} ` +
+              `(${after.email})${granted ? ' a supervisor' : `, now ${after.role}`}.`,
+            granted
+              ? 'Supervisors approve machine profile versions and jobs that another person prepared. If this ' +
+                'change was not agreed in the workshop, check the audit trail and the approvals made since.'
+              : 'Approvals they made stay in the audit trail.',
+          ],
+          { label: 'Open the people list', url: `${this.mail.appUrl}/people` },
+        );
+        await this.outbox.enqueue(manager, {
+          kind: granted ? 'user.supervisor-granted' : 'user.supervisor-removed',
+          to: await this.outbox.addressesOfRoles(manager, ['supervisor']),
+          ...text,
+        });
+      }
       return after;
     });
   }
