@@ -1,4 +1,10 @@
-import { type ExportView, type JobDetailView } from '@kerfwright/contracts';
+import {
+  type ExportView,
+  type JobAction,
+  type JobDetailView,
+  type JobState,
+  type Role,
+} from '@kerfwright/contracts';
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
@@ -313,21 +319,36 @@ describe('job detail', () => {
     }
   });
 
-  it('does not offer the cut pack of an approved job whose machine version was retired, but the way back', async () => {
+  /** The job in `state` on CO2 laser version 1, retired since, as `role` sees it. */
+  function onRetiredVersion(role: Role, state: JobState, actions: JobAction[]) {
     stubFetch({
-      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      'GET /api/auth/me': () => json(200, userFixture(role)),
       [`GET /api/jobs/${job.id}`]: () =>
         json(200, {
           ...job,
-          state: 'approved',
+          state,
           preparation: preparationFixture(),
           profileName: 'CO2 laser, 60 W',
           profileVersionNumber: 1,
           profileVersionRetired: true,
-          actions: ['release', 'return'],
+          actions,
         }),
       [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+      [`GET /api/jobs/${job.id}/safety`]: () =>
+        json(200, {
+          jobId: job.id,
+          machineKind: 'co2-laser',
+          materialFamily: 'acrylic',
+          notices: [],
+          localRules: null,
+          acknowledged: false,
+          acknowledgedAt: null,
+        }),
     });
+  }
+
+  it('does not offer the cut pack of an approved job whose machine version was retired, but the way back', async () => {
+    onRetiredVersion('fabricator', 'approved', ['release', 'return']);
     renderApp(`/jobs/${job.id}`, { token: 't' });
     const pack = await screen.findByTestId('cut-pack');
     expect(within(pack).getByTestId('cut-pack-blocked')).toHaveTextContent(
@@ -343,30 +364,7 @@ describe('job detail', () => {
   });
 
   it('says a released job’s machine version was retired since, and offers a supervisor its return', async () => {
-    stubFetch({
-      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
-      [`GET /api/jobs/${job.id}`]: () =>
-        json(200, {
-          ...job,
-          state: 'released',
-          preparation: preparationFixture(),
-          profileName: 'CO2 laser, 60 W',
-          profileVersionNumber: 1,
-          profileVersionRetired: true,
-          actions: ['cut', 'return'],
-        }),
-      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
-      [`GET /api/jobs/${job.id}/safety`]: () =>
-        json(200, {
-          jobId: job.id,
-          machineKind: 'co2-laser',
-          materialFamily: 'acrylic',
-          notices: [],
-          localRules: null,
-          acknowledged: false,
-          acknowledgedAt: null,
-        }),
-    });
+    onRetiredVersion('supervisor', 'released', ['cut', 'return']);
     renderApp(`/jobs/${job.id}`, { token: 't' });
     const actions = await screen.findByTestId('job-actions');
     expect(await within(actions).findByTestId('retired-since-release')).toHaveTextContent(
