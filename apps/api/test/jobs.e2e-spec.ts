@@ -564,6 +564,35 @@ describe('jobs through their states', () => {
     expectErrorBody(late.body, 409, 'JOB.ILLEGAL_TRANSITION');
   });
 
+  it('lets a job be requested three times in ten minutes, no more: withdrawing in a loop cannot flood the fabricators', async () => {
+    const job = await draftJob();
+    const mails = async () =>
+      (
+        (await ctx.db.query(
+          `SELECT count(*)::int AS n FROM mail_outbox WHERE kind = 'job.requested' AND text_body LIKE $1`,
+          [`%/jobs/${job.id}%`],
+        )) as { n: number }[]
+      )[0]!.n;
+    for (let i = 0; i < 3; i++) {
+      await act(users.hobbyist, job.id, 'request');
+      await act(users.hobbyist, job.id, 'withdraw');
+    }
+    const sent = await mails();
+    expect(sent).toBeGreaterThan(0);
+    const fourth = await act(users.hobbyist, job.id, 'request', {}, 429);
+    expectErrorBody(fourth.body, 429, 'JOB.REQUESTED_TOO_OFTEN');
+    expect(fourth.body.message).toMatch(/requested 3 times in the last 10 minutes/);
+    // Nothing changed and nobody was mailed; ten minutes on, the job may be requested again.
+    const after = await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.hobbyist)).expect(200);
+    expect(after.body.state).toBe('draft');
+    expect(await mails()).toBe(sent);
+    await ctx.db.query(
+      `UPDATE job_transitions SET created_at = created_at - interval '11 minutes' WHERE job_id = $1`,
+      [job.id],
+    );
+    expect((await act(users.hobbyist, job.id, 'request')).body.state).toBe('requested');
+  });
+
   it("lets the requester change a draft's copies and notes; a new count drops the old layout", async () => {
     const job = await draftJob();
     const patch = (u: TestUser, body: Record<string, unknown>, status = 200) =>

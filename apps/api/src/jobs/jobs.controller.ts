@@ -7,6 +7,7 @@ import {
   ApiOkResponse,
   ApiOperation,
   ApiTags,
+  ApiTooManyRequestsResponse,
 } from '@nestjs/swagger';
 import { type JobDetailView, type JobView, type Page } from '@kerfwright/contracts';
 import { type AuthUser, CurrentUser } from '../common/decorators/auth.decorators';
@@ -79,6 +80,9 @@ export class JobsController {
   @HttpCode(200)
   @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
   @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
+  @ApiTooManyRequestsResponse({
+    description: 'JOB.REQUESTED_TOO_OFTEN: the job was requested three times in the last ten minutes',
+  })
   @ApiOperation({ summary: 'draft → requested (the requester)' })
   request(
     @CurrentUser() u: AuthUser,

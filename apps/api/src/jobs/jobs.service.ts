@@ -186,6 +186,10 @@ function jobActionsFor(
 /** The jobs list's statement texts by shape (their values are parameters; sort columns come from SORT_COLUMNS). */
 const LIST_STATEMENTS = new Map<string, string>();
 
+/** Requests of one job allowed within REQUEST_WINDOW_MINUTES (see assertRequestPace). */
+const REQUESTS_PER_JOB = 3;
+const REQUEST_WINDOW_MINUTES = 10;
+
 @Injectable()
 export class JobsService {
   constructor(
@@ -350,6 +354,7 @@ export class JobsService {
 
   request(user: AuthUser, id: string, version: number, req: unknown) {
     return this.transition(user, id, 'request', version, req, async (m, job) => {
+      await this.assertRequestPace(m, job.id);
       // The job cuts the design as it is now.
       const design = await m.findOneOrFail(Design, { where: { id: job.designId } });
       if (!design.preview.valid) {
@@ -363,6 +368,29 @@ export class JobsService {
       job.spec = design.spec;
       job.returnReason = null;
     });
+  }
+
+  /**
+   * Every request mails every fabricator, and a request can be withdrawn and made again at once: a job asked
+   * for REQUESTS_PER_JOB times within REQUEST_WINDOW_MINUTES waits (429), so withdrawing and requesting in a
+   * loop cannot flood the workshop's inboxes.
+   */
+  private async assertRequestPace(m: EntityManager, jobId: string): Promise<void> {
+    const rows: { n: number }[] = await m.query(
+      `SELECT count(*)::int AS n FROM job_transitions
+        WHERE job_id = $1 AND action = 'request' AND created_at > now() - make_interval(mins => $2)`,
+      [jobId, REQUEST_WINDOW_MINUTES],
+    );
+    const n = rows[0]?.n ?? 0;
+    if (n >= REQUESTS_PER_JOB) {
+      throw new AppError(
+        HttpStatus.TOO_MANY_REQUESTS,
+        'JOB.REQUESTED_TOO_OFTEN',
+        `This job was requested ${n} times in the last ${REQUEST_WINDOW_MINUTES} minutes, and each request ` +
+          'mails the fabricators; wait a few minutes before requesting it again',
+        { windowMinutes: REQUEST_WINDOW_MINUTES },
+      );
+    }
   }
 
   prepare(user: AuthUser, id: string, dto: PrepareJobDto, req: unknown) {
