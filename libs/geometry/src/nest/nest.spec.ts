@@ -525,6 +525,38 @@ describe('nestParts — true shape', () => {
     for (const s of r.sheets) for (const pl of s.placements) expect(pl.rotationDeg).toBe(0);
   });
 
+  it('places a congruent part exactly where its class was laid, when the class outline lies far from its origin', () => {
+    // The reported angle is rounded to 1e-6°; a shift worked out about the part's own origin then misses by
+    // that angle times the distance to the origin: up to 999 km · √2 · 5e-7° ≈ 12 µm (arithmetic). Two
+    // 100 × 50 mm rectangles exactly fill a 200 × 50 mm sheet with no margin or gap, so any miss leaves the
+    // sheet or overlaps. What remains is the rounding times the part's own size (111 mm · 8.7e-9 ≈ 1 nm).
+    const rect = box4(0, 0, 100, 50);
+    const input: NestInput = {
+      sheet: { widthMm: 200, heightMm: 50 },
+      marginMm: 0,
+      gapMm: 0,
+      parts: [
+        { id: 'far', outline: box4(999000, 999000, 100, 50), quantity: 1 },
+        { id: 'turned', outline: moved(rect, 33.3333333, 0, 0), quantity: 1 },
+      ],
+    };
+    const r = nestParts(input);
+    if (!r.ok) throw new Error(r.error.message);
+    const polys = r.sheets[0]!.placements.map((pl) =>
+      placed(input.parts.find((p) => p.id === pl.part)!.outline as P[], pl.x, pl.y, pl.rotationDeg),
+    );
+    expect(polys).toHaveLength(2);
+    for (const p of polys) {
+      const b = box(p);
+      expect(b.minX).toBeGreaterThanOrEqual(-1e-5);
+      expect(b.minY).toBeGreaterThanOrEqual(-1e-5);
+      expect(b.maxX).toBeLessThanOrEqual(200 + 1e-5);
+      expect(b.maxY).toBeLessThanOrEqual(50 + 1e-5);
+    }
+    // polygon-clipping: a 1 nm sliver along the 50 mm edge is 5e-5 mm².
+    expect(mpArea(polygonClipping.intersection([polys[0]!], [polys[1]!]))).toBeLessThan(1e-4);
+  });
+
   it('closes a slot narrower than twice the gap but still fits a part into a wide pocket', () => {
     // A U of 200 × 100 with a 60 × 80 pocket and a 2 mm slot in its base: two 30 mm squares fit only in the
     // pocket on a 206 × 106 sheet (derived: 60 − 2·3 = 54 ≥ 30 across, 80 − 3 = 77 ≥ 2·30 + 3 deep).

@@ -381,15 +381,23 @@ function envelopeClasses(
 /**
  * A placement of a class's first part, given to the member it stands for: the member's outline is R(θ)·A + o,
  * so turning it by φ − θ and shifting by T − R(φ − θ)·o covers the same ground as A turned by φ and shifted by T.
+ * The reported angle ψ is φ − θ rounded to 1e-6°, so the shift is worked out about a point of the member's own
+ * outline (`ref`, in its frame) rather than its origin: points of the outline then land within ψ's rounding
+ * times the part's own size (sub-nanometre) of where A's copy was checked, however far the outline lies from
+ * its origin (the rounding times 1 km is 9 µm).
  */
-function memberPlacement(m: ClassMember, rotationDeg: number, x: number, y: number) {
+function memberPlacement(m: ClassMember, rotationDeg: number, x: number, y: number, ref: Point) {
   if (m.thetaDeg === 0 && m.ox === 0 && m.oy === 0) return { x, y, rotationDeg };
   const deg = ((((rotationDeg - m.thetaDeg) % 360) + 360) % 360) % 360;
-  const psi = round(deg) % 360; // the reported angle, so that the shift matches it
-  const t = (psi * Math.PI) / 180;
-  const ox = m.ox * Math.cos(t) - m.oy * Math.sin(t);
-  const oy = m.ox * Math.sin(t) + m.oy * Math.cos(t);
-  return { x: round(x - ox), y: round(y - oy), rotationDeg: psi };
+  const psi = round(deg) % 360; // the reported angle
+  const turn = (t: number, px: number, py: number) => {
+    const r = (t * Math.PI) / 180;
+    return [px * Math.cos(r) - py * Math.sin(r), px * Math.sin(r) + py * Math.cos(r)] as const;
+  };
+  // Where A's copy puts the member's point ref (the exact turn), less where turning by ψ takes ref.
+  const [ax, ay] = turn(deg, ref[0] - m.ox, ref[1] - m.oy);
+  const [bx, by] = turn(psi, ref[0], ref[1]);
+  return { x: round(x + ax - bx), y: round(y + ay - by), rotationDeg: psi };
 }
 
 interface GroupPlan {
@@ -1030,11 +1038,17 @@ export function nestParts(input: NestInput): NestResult {
         if (shape >= prepared.length) {
           // An envelope's copy: first the covered class's shape inside it, then the member.
           const c = nextCovered(shape);
-          at = memberPlacement({ partIndex: c.cls.index, quantity: 1, ...c.map }, at.rotationDeg, at.x, at.y);
+          at = memberPlacement(
+            { partIndex: c.cls.index, quantity: 1, ...c.map },
+            at.rotationDeg,
+            at.x,
+            at.y,
+            prepared[c.cls.index]!.outline[0]!,
+          );
           shape = c.cls.index;
         }
         const m = nextMember(shape);
-        const placement = memberPlacement(m, at.rotationDeg, at.x, at.y);
+        const placement = memberPlacement(m, at.rotationDeg, at.x, at.y, prepared[m.partIndex]!.outline[0]!);
         // Length and area of the part itself (an envelope's copy is larger than the part inside it).
         const own = shape === it.variant.partIndex ? it : null;
         const maxX = own
