@@ -67,14 +67,16 @@ export function runNestCommand(input: unknown): NestOutput {
   unknownKeys(input, ['sheet', 'marginMm', 'gapMm', 'parts', 'rotationsDeg'], '', problems);
   const sheet = input.sheet;
   if (isRecord(sheet)) unknownKeys(sheet, ['widthMm', 'heightMm'], 'sheet.', problems);
-  if (
-    !isRecord(sheet) ||
-    !finite(sheet.widthMm) ||
-    !finite(sheet.heightMm) ||
-    sheet.widthMm <= 0 ||
-    sheet.heightMm <= 0
-  )
-    problems.push('sheet must be {"widthMm": > 0, "heightMm": > 0}');
+  if (!isRecord(sheet)) problems.push('sheet must be {"widthMm": > 0, "heightMm": > 0}');
+  else {
+    for (const key of ['widthMm', 'heightMm'] as const) {
+      const v = sheet[key];
+      if (finite(v) && v > 0) continue;
+      // Said per side, and a number written as text is named as such (a common slip in hand-written JSON).
+      const got = typeof v === 'string' ? ` (got the text "${v}": write the number without quotes)` : '';
+      problems.push(`sheet.${key} must be a finite number > 0, in millimetres${got}`);
+    }
+  }
   // Absent means the default; null is not a number.
   const marginMm = input.marginMm === undefined ? 0 : input.marginMm;
   const gapMm = input.gapMm === undefined ? 0 : input.gapMm;

@@ -999,6 +999,12 @@ describe('runNestCommand', () => {
     expect(out.error?.message).toMatch(/parts\[0\]\.id/);
     expect(out.error?.message).toMatch(/parts\[0\]\.outline/);
     expect(runNestCommand(null).error?.code).toBe('INVALID_INPUT');
+    // Each side named, and a number written as text (JSON "300") said to be one; 1e999 parses as Infinity.
+    const text = runNestCommand({ sheet: { widthMm: '300', heightMm: Number.POSITIVE_INFINITY }, parts: [] });
+    expect(text.error?.message).toContain(
+      'sheet.widthMm must be a finite number > 0, in millimetres (got the text "300": write the number without quotes)',
+    );
+    expect(text.error?.message).toContain('sheet.heightMm must be a finite number > 0, in millimetres');
   });
 
   it('names unknown fields (a typo would silently leave the gap at 0) and refuses null for a number', () => {
