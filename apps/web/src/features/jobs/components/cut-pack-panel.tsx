@@ -142,7 +142,9 @@ export function CutPackPanel({
                       <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>
                         {PACK_FILE_ROLE_LABELS[f.role] ?? f.role}
                       </TableCell>
-                      <TableCell align="right">{formatBytes(f.bytes)}</TableCell>
+                      <TableCell align="right" sx={{ whiteSpace: 'nowrap' }}>
+                        {formatBytes(f.bytes)}
+                      </TableCell>
                       <TableCell align="right">
                         <Button
                           size="small"
@@ -157,6 +159,8 @@ export function CutPackPanel({
                               if (isApiError(error) && (error.status === 403 || error.status === 409)) {
                                 void queryClient.invalidateQueries({ queryKey: jobsKeys.exports(jobId) });
                                 void queryClient.invalidateQueries({ queryKey: jobsKeys.safety(jobId) });
+                                // Refused because the job moved on (returned meanwhile): the page shows it so.
+                                void queryClient.invalidateQueries({ queryKey: jobsKeys.detail(jobId) });
                               }
                             });
                           }}

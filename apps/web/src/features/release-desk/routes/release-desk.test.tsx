@@ -298,6 +298,32 @@ describe('release desk', () => {
     }
   });
 
+  it('shows a job returned while open as returned, with its reason, and offers none of its files', async () => {
+    stubDesk(
+      true,
+      {},
+      {
+        [`GET /api/jobs/${released.id}`]: () =>
+          json(200, {
+            ...released,
+            state: 'returned',
+            returnReason: 'Wrong acrylic batch on the bed',
+            actions: [],
+            transitions: [],
+          }),
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    expect(await within(job).findByTestId('desk-job-gone')).toHaveTextContent(
+      'This job was returned: “Wrong acrylic batch on the bed”. Its files are no longer offered, and it is not to be cut.',
+    );
+    expect(within(job).queryByRole('table', { name: 'Cut pack files' })).not.toBeInTheDocument();
+    expect(within(job).queryByRole('button', { name: /^Download/ })).not.toBeInTheDocument();
+    expect(within(job).queryByRole('button', { name: 'Record the cut' })).not.toBeInTheDocument();
+  });
+
   it('queues a new cut pack for the job as read: the request carries its version', async () => {
     const stub = stubDesk(
       true,

@@ -1,4 +1,4 @@
-import { JOB_PACK_STATES, type JobView } from '@kerfwright/contracts';
+import { CUT_PACK_DOWNLOADABLE_STATES, JOB_PACK_STATES, type JobView } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
@@ -259,6 +259,8 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   const [open, setOpen] = useState<'safety' | 'cut' | 'close' | null>(null);
   const [unit] = useLengthUnit();
   const acknowledged = safety.data?.acknowledged === true;
+  // Approved (its pack being built), released, or cut and closed since: the desk's states for a job.
+  const atMachines = JOB_PACK_STATES.includes(job.state) || CUT_PACK_DOWNLOADABLE_STATES.includes(job.state);
   const canCut = job.actions.includes('cut');
   return (
     <Paper variant="outlined" sx={{ p: 2 }} data-testid="desk-job" ref={ref}>
@@ -310,21 +312,31 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
           Read and acknowledge the safety notices for this job before its files are offered.
         </Alert>
       ) : null}
+      {atMachines ? null : (
+        // Returned (or reopened since) while open here: said, and nothing offered to cut.
+        <Alert severity="error" data-testid="desk-job-gone">
+          {job.state === 'returned'
+            ? `This job was returned${job.returnReason ? `: “${job.returnReason}”` : ''}. Its files are no longer offered, and it is not to be cut.`
+            : `This job is ${job.state} now: it is no longer at the machines, and its files are not offered.`}
+        </Alert>
+      )}
       {retiredSinceReleaseText(job) ? (
         <Alert severity="warning" data-testid="desk-retired-since-release">
           {retiredSinceReleaseText(job)}
         </Alert>
       ) : null}
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
-      <CutPackPanel
-        jobId={job.id}
-        jobVersion={job.version}
-        canPrepare={user.role === 'supervisor' && JOB_PACK_STATES.includes(job.state)}
-        canDownload={user.role === 'operator' || user.role === 'supervisor'}
-        jobDone={job.state === 'cut' || job.state === 'closed'}
-        prepareBlocked={packPrepareBlockedReason(job)}
-        onOpenSafety={() => setOpen('safety')}
-      />
+      {atMachines ? (
+        <CutPackPanel
+          jobId={job.id}
+          jobVersion={job.version}
+          canPrepare={user.role === 'supervisor' && JOB_PACK_STATES.includes(job.state)}
+          canDownload={user.role === 'operator' || user.role === 'supervisor'}
+          jobDone={job.state === 'cut' || job.state === 'closed'}
+          prepareBlocked={packPrepareBlockedReason(job)}
+          onOpenSafety={() => setOpen('safety')}
+        />
+      ) : null}
       {open === 'safety' ? <SafetyDialog jobId={job.id} open onClose={() => setOpen(null)} /> : null}
       {open === 'cut' ? (
         <RecordCutDialog
