@@ -850,6 +850,13 @@ describe('jobs through their states', () => {
       expect(refused.body.message).toContain('returned');
       const cut = await act(users.operator, job.id, 'cut', { actualMinutes: 5, sheetsUsed: 1 }, 409);
       expectErrorBody(cut.body, 409, 'JOB.ILLEGAL_TRANSITION');
+      // The operators, told to cut it, are told not to.
+      const recalled: { recipients: string[]; subject: string }[] = await ctx.db.query(
+        `SELECT recipients, subject FROM mail_outbox WHERE kind = 'job.recalled' AND text_body LIKE $1`,
+        [`%/jobs/${job.id}%`],
+      );
+      expect(recalled.map((r) => r.recipients[0])).toContain(users.operator.email);
+      expect(recalled[0]!.subject).toMatch(/^Do not cut: /);
       // Its requester reopens it as a draft, to request it again.
       expect((await act(users.hobbyist, job.id, 'reopen')).body.state).toBe('draft');
     } finally {
@@ -857,6 +864,25 @@ describe('jobs through their states', () => {
         released.body.profileVersionId,
       ]);
     }
+  });
+
+  it('asks for the notices again once a returned job is prepared and released again', async () => {
+    const job = await releasedAndAcknowledged();
+    await act(users.fabricator, job.id, 'return', { reason: 'Wrong acrylic batch on the bed' });
+    await act(users.hobbyist, job.id, 'reopen');
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    await releaseJob(ctx, users.fabricator, job.id);
+    // The acknowledgement read before the return does not count for the job as prepared now.
+    const safety = await ctx.http.get(`/api/jobs/${job.id}/safety`).set(auth(users.operator)).expect(200);
+    expect(safety.body.acknowledged).toBe(false);
+    const cut = await act(users.operator, job.id, 'cut', { actualMinutes: 9, sheetsUsed: 1 }, 409);
+    expectErrorBody(cut.body, 409, 'SAFETY.ACKNOWLEDGEMENT_REQUIRED');
+    await acknowledge(ctx, users.operator, job.id);
+    expect((await act(users.operator, job.id, 'cut', { actualMinutes: 9, sheetsUsed: 1 })).body.state).toBe(
+      'cut',
+    );
   });
 
   it('lets only someone who acknowledged the job’s current safety notices record its cut (409 otherwise)', async () => {

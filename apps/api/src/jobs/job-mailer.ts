@@ -1,7 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { type EntityManager } from 'typeorm';
-import { type JobAction } from '@kerfwright/contracts';
+import { type JobAction, type JobState } from '@kerfwright/contracts';
 import { mailConfig } from '../mail/mail.config';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { composeMail } from '../mail/mail-templates';
@@ -16,7 +16,7 @@ export class JobMailer {
     @Inject(mailConfig.KEY) private readonly config: ConfigType<typeof mailConfig>,
   ) {}
 
-  async onTransition(m: EntityManager, job: Job, action: JobAction): Promise<void> {
+  async onTransition(m: EntityManager, job: Job, action: JobAction, from?: JobState): Promise<void> {
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const title = design?.name ?? 'a design';
     const link = { label: 'Open the job', url: `${this.config.appUrl}/jobs/${job.id}` };
@@ -88,6 +88,23 @@ export class JobMailer {
           link,
         );
         await this.outbox.enqueue(m, { kind: 'job.returned', to: await requester(), ...mail });
+        if (from === 'released') {
+          // The operators were told to cut it: they hear, as plainly, that it is not to be cut.
+          const stop = composeMail(
+            `Do not cut: ${title} was returned`,
+            [
+              `The cut job for "${title}" was taken back from the machines before its cut. Do not cut it; ` +
+                'its files are no longer offered. Sheets already laid out for it go back to stock.',
+              `Reason given: ${job.returnReason ?? '(none)'}`,
+            ],
+            link,
+          );
+          await this.outbox.enqueue(m, {
+            kind: 'job.recalled',
+            to: await this.outbox.addressesOfRoles(m, ['operator']),
+            ...stop,
+          });
+        }
         return;
       }
       case 'withdraw': {

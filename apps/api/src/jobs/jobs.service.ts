@@ -597,7 +597,7 @@ export class JobsService {
       after: { state: rule.to, ...(reason ? { reason } : {}) },
       requestId,
     });
-    await this.mailer.onTransition(m, job, action);
+    await this.mailer.onTransition(m, job, action, from);
   }
 
   /** The job route's view: the list's row for this job (same SQL, same mapping) and its transitions. */

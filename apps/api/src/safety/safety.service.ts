@@ -142,7 +142,10 @@ export class SafetyService {
     };
   }
 
-  /** The notices that apply to a job's machine and material, and whether the caller acknowledged them. */
+  /**
+   * The notices that apply to a job's machine and material, and whether the caller acknowledged them since the
+   * job was last prepared.
+   */
   async forJob(
     user: AuthUser,
     jobId: string,
@@ -157,8 +160,14 @@ export class SafetyService {
       local_rules_version: number | null;
       created_at: Date;
     }[] = await m.query(
-      `SELECT notice_versions, local_rules_version, created_at FROM safety_acknowledgements
-          WHERE job_id = $1 AND user_id = $2 ORDER BY created_at DESC LIMIT 1`,
+      // Only since the job's last preparation: a job returned and prepared again (another batch, another
+      // machine) is read again before it is cut.
+      `SELECT a.notice_versions, a.local_rules_version, a.created_at FROM safety_acknowledgements a
+        WHERE a.job_id = $1 AND a.user_id = $2
+          AND a.created_at >= COALESCE(
+                (SELECT max(t.created_at) FROM job_transitions t WHERE t.job_id = $1 AND t.action = 'prepare'),
+                '-infinity')
+        ORDER BY a.created_at DESC LIMIT 1`,
       [jobId, user.id],
     );
     const last = acks[0];
