@@ -59,6 +59,7 @@ describe('the material hazard table in safety/material-hazards.json', () => {
     // are named as their own families.
     for (const [name, family] of [
       ['Grey PVC sheet 3 mm', 'pvc'],
+      ['Polyvinyl chloride offcut', 'pvc'],
       ['Self-adhesive vinyl', 'pvc'],
       ['Lexan offcut', 'polycarbonate'],
       ['Black ABS 2 mm', 'abs'],

@@ -28,6 +28,8 @@ describe('familyNamedIn', () => {
     expect(familyNamedIn('grey pvc sheet', 'plywood', table)?.row.family).toBe('pvc');
     expect(familyNamedIn('Vinyl offcut', 'card', table)?.word).toBe('vinyl');
     expect(familyNamedIn('uPVC window trim', 'acrylic', table)?.word).toBe('uPVC');
+    // Full-width letters (as some keyboards type them) fold to the same word (Unicode NFKC, UAX #15).
+    expect(familyNamedIn('ＰＶＣ sheet', 'acrylic', table)?.word).toBe('PVC');
   });
 
   it('takes a space and a hyphen alike inside a name word', () => {

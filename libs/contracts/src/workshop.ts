@@ -134,13 +134,16 @@ export function laserRefusal(family: string, table: readonly MaterialHazard[]): 
 
 /**
  * The first row of a family refused on the laser, other than `ownFamily`, whose name words `name` contains
- * whole (case-insensitive, a space and a hyphen alike), with the word found; undefined when there is none.
+ * whole (case-insensitive, a space and a hyphen alike, compatibility forms folded by NFKC), with the word found;
+ * undefined when there is none.
  */
 export function familyNamedIn(
   name: string,
   ownFamily: string,
   table: readonly MaterialHazard[],
 ): { row: MaterialHazard; word: string } | undefined {
+  // Compatibility forms folded (NFKC): full-width "ＰＶＣ" reads as "PVC".
+  const text = name.normalize('NFKC');
   for (const row of table) {
     if (row.laser !== 'no' || row.family === ownFamily) continue;
     for (const word of row.nameWords ?? []) {
@@ -150,7 +153,7 @@ export function familyNamedIn(
         .split(/[\s-]+/u)
         .map((p) => p.replace(/[.*+?^${}()|[\]\\]/gu, '\\$&'));
       const whole = new RegExp(`(?<![\\p{L}\\p{N}])${parts.join('[\\s-]+')}(?![\\p{L}\\p{N}])`, 'iu');
-      if (whole.test(name)) return { row, word };
+      if (whole.test(text)) return { row, word };
     }
   }
   return undefined;
