@@ -161,9 +161,9 @@ export class MaterialsService {
           throw new AppError(
             HttpStatus.FORBIDDEN,
             'MATERIAL.LASER_RELEASE_NEEDS_SUPERVISOR',
-            `In family "${family}" a laser may cut ${m.name} only when: ${newCondition ?? 'the hazard table says'}; ` +
-              'only a supervisor can move a laser-usable material into it (or keep it off the laser, saying why)',
-            { materialId: m.id, family: m.family, requestedFamily: family },
+            `A laser may cut a material of this family only on a condition (${(newCondition ?? 'see the hazard table').replace(/[.\s]+$/u, '')}). ` +
+              `Only a supervisor moves a material the laser may cut into such a family; or keep ${m.name} off the laser, saying why`,
+            { field: 'family', materialId: m.id, family: m.family, requestedFamily: family },
           );
         }
         if (dto.name !== undefined) m.name = dto.name;
@@ -347,7 +347,7 @@ function namedRefusedFamily(name: string, named: NonNullable<ReturnType<typeof f
     HttpStatus.CONFLICT,
     'MATERIAL.NAME_NAMES_REFUSED_FAMILY',
     `"${name}" says "${named.word}": ${named.row.examples.join(', ')} must not be cut on a laser. File it under ` +
-      `"${named.row.family}", keep it off the laser saying why, or correct the name if it is wrong`,
+      'that family, keep it off the laser saying why, or correct the name if it is wrong',
     { field: 'name', family: named.row.family, word: named.word },
   );
 }
