@@ -184,6 +184,29 @@ describe('design studio', () => {
     await waitFor(() => expect(request).toBeDisabled());
   });
 
+  it('marks the Name field when the API refuses the name, besides saying it above the page', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+      'GET /api/materials': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
+      [`GET /api/designs/${DESIGN_ID}`]: () => json(200, designFixture()),
+      [`PATCH /api/designs/${DESIGN_ID}`]: () =>
+        json(400, {
+          statusCode: 400,
+          code: 'VALIDATION.FAILED',
+          message: 'Invalid request: name (name must not contain invisible formatting characters)',
+          details: [{ field: 'name', messages: ['name must not contain invisible formatting characters'] }],
+          requestId: 'r',
+        }),
+    });
+    const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    await field('Name', 'Octahedron\u200bhexagons');
+    await user.click(await screen.findByRole('button', { name: 'Save' }));
+    expect(await screen.findByText('Must not contain invisible formatting characters')).toBeInTheDocument();
+    expect(screen.getByLabelText('Name')).toHaveAttribute('aria-invalid', 'true');
+    expect(screen.getByTestId('form-error')).toBeInTheDocument();
+  });
+
   it('says why a design with errors cannot be requested', async () => {
     studioApi(designFixture({ spec: { ...designFixture().spec, scale: { by: 'diameter', mm: 5 } } }));
     const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });

@@ -15,6 +15,7 @@ import { useLocation, useNavigate, useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
+import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { formatLength } from '../../../lib/units';
@@ -221,7 +222,11 @@ function DesignStudio({ design }: { design: DesignView | null }) {
             }
           : { body: { name: v.name, description: v.description, spec: body } },
       )
-      .catch(() => null);
+      .catch((error: unknown) => {
+        // A refused name or description is marked at its field too (the alert above the page says it as well).
+        applyServerFieldErrors(error, form.setError, ['name', 'description']);
+        return null;
+      });
     if (!saved) return null;
     // What was saved is the new starting point: nothing is unsaved now (edits made while saving still are).
     form.reset(v, { keepValues: true });
