@@ -1,4 +1,4 @@
-import { type CutPackFileRole, type ExportView, type JobView } from '@kerfwright/contracts';
+import { type Role, type CutPackFileRole, type ExportView, type JobView } from '@kerfwright/contracts';
 
 /** What each file of a cut pack is, in the words the job page and the desk use. */
 export const PACK_FILE_ROLE_LABELS: Record<CutPackFileRole, string> = {
@@ -52,12 +52,16 @@ export function releaseBlockedReason(job: RetiredVersionJob): string | null {
  * Why a released job should wait for a supervisor, or null: the machine profile version it was released on has
  * been retired since (a setting found wrong, say). Its files stay offered; returning it stops it.
  */
-export function retiredSinceReleaseText(job: RetiredVersionJob): string | null {
+export function retiredSinceReleaseText(job: RetiredVersionJob, role: Role): string | null {
   if (job.state !== 'released' || !job.profileVersionRetired) return null;
+  const what =
+    role === 'supervisor' || role === 'fabricator'
+      ? 'If it must not be cut on that version, return it with a reason: it is then prepared again on the current one.'
+      : 'Check with a supervisor before cutting it: a job that must not be cut on that version is returned with a ' +
+        'reason, and prepared again on the current one.';
   return (
     `${job.profileName ?? 'The machine profile'} version ${job.profileVersionNumber ?? '?'}, which this job was ` +
-    'released on, has been retired since. Check with a supervisor before cutting it: a job that must not be cut ' +
-    'on that version is returned with a reason, and prepared again on the current one.'
+    `released on, has been retired since. ${what}`
   );
 }
 

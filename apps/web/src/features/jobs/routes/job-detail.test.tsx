@@ -367,8 +367,9 @@ describe('job detail', () => {
     onRetiredVersion('supervisor', 'released', ['cut', 'return']);
     renderApp(`/jobs/${job.id}`, { token: 't' });
     const actions = await screen.findByTestId('job-actions');
-    expect(await within(actions).findByTestId('retired-since-release')).toHaveTextContent(
-      /^CO2 laser, 60 W version 1, which this job was released on, has been retired since\. Check with a supervisor/,
+    // A warning of its own, telling the supervisor what is theirs to do.
+    expect(await screen.findByTestId('retired-since-release')).toHaveTextContent(
+      /^CO2 laser, 60 W version 1, which this job was released on, has been retired since\. If it must not be cut on that version, return it with a reason/,
     );
     expect(within(actions).getByRole('button', { name: 'Return with a reason' })).toBeInTheDocument();
   });

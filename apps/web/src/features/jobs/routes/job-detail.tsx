@@ -201,6 +201,11 @@ function JobDetail({ job }: { job: JobDetailView }) {
           {`Returned: ${job.returnReason}`}
         </Alert>
       ) : null}
+      {retiredSinceReleaseText(job, user.role) ? (
+        <Alert severity="warning" sx={{ mb: 2 }} data-testid="retired-since-release">
+          {retiredSinceReleaseText(job, user.role)}
+        </Alert>
+      ) : null}
       {action.error && open === null && !isJobChangedSince(action.error) ? (
         <FormErrorAlert error={action.error} />
       ) : null}
@@ -257,7 +262,6 @@ function JobDetail({ job }: { job: JobDetailView }) {
         {[
           ['approve-blocked', approveBlocked],
           ['cut-waits', cutWaits ? 'Acknowledge the safety notices before recording the cut.' : null],
-          ['retired-since-release', retiredSinceReleaseText(job)],
           // Release is not offered for a job prepared on a version retired since: said here, by the actions.
           [
             'release-blocked',
@@ -292,7 +296,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
               ['Colours', job.colours.length ? job.colours.join(', ') : '—'],
               [
                 'Machine profile',
-                job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : 'not chosen yet',
+                job.profileName
+                  ? `${job.profileName} v${job.profileVersionNumber ?? '?'}${job.profileVersionRetired ? ' (retired since)' : ''}`
+                  : 'not chosen yet',
               ],
               ['Notes', job.notes || '—'],
             ]}

@@ -289,7 +289,8 @@ describe('release desk', () => {
         expect(rebuild).toHaveTextContent('Prepare the cut pack again');
         expect(within(job).queryByTestId('cut-pack-blocked')).not.toBeInTheDocument();
         expect(within(job).getByTestId('desk-retired-since-release')).toHaveTextContent(
-          'CO2 laser version 2, which this job was released on, has been retired since. Check with a supervisor',
+          'CO2 laser version 2, which this job was released on, has been retired since. If it must not be cut on ' +
+            'that version, return it with a reason',
         );
       }
       if (state === 'approved') expect(within(job).queryByTestId('desk-retired-since-release')).toBeNull();

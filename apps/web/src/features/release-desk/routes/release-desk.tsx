@@ -150,7 +150,9 @@ export function ReleaseDeskRoute() {
                   </TableCell>
                   <TableCell>{`${job.materialName ?? '—'}${job.colours.length ? ` (${job.colours.join(', ')})` : ''}`}</TableCell>
                   <TableCell>
-                    {job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : '—'}
+                    {job.profileName
+                      ? `${job.profileName} v${job.profileVersionNumber ?? '?'}${job.profileVersionRetired ? ' (retired since)' : ''}`
+                      : '—'}
                   </TableCell>
                   <TableCell>{job.preparation?.sheetCount ?? '—'}</TableCell>
                   <TableCell>
@@ -215,7 +217,9 @@ function DeskCards({
           </Stack>
           <Typography variant="body2" color="text.secondary" sx={{ overflowWrap: 'anywhere' }}>
             {`${job.materialName ?? '—'}${job.colours.length ? ` (${job.colours.join(', ')})` : ''} · ${
-              job.profileName ? `${job.profileName} v${job.profileVersionNumber ?? '?'}` : '—'
+              job.profileName
+                ? `${job.profileName} v${job.profileVersionNumber ?? '?'}${job.profileVersionRetired ? ' (retired since)' : ''}`
+                : '—'
             } · ${job.preparation ? countOf(job.preparation.sheetCount, 'sheet') : 'not laid out yet'}`}
           </Typography>
           <Box sx={{ my: 1 }}>
@@ -320,9 +324,9 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
             : `This job is ${job.state} now: it is no longer at the machines, and its files are not offered.`}
         </Alert>
       )}
-      {retiredSinceReleaseText(job) ? (
+      {retiredSinceReleaseText(job, user.role) ? (
         <Alert severity="warning" data-testid="desk-retired-since-release">
-          {retiredSinceReleaseText(job)}
+          {retiredSinceReleaseText(job, user.role)}
         </Alert>
       ) : null}
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
