@@ -21,14 +21,16 @@ describe('what an export failure tells the job’s people', () => {
     const failure = ExportFailure.from(new TypeError(raw), 'EXPORT.PACK_FAILED');
     expect(failure.code).toBe('EXPORT.PACK_FAILED');
     expect(failure.message).not.toContain('undefined');
-    expect(failure.message).toMatch(/ask the workshop/);
+    expect(failure.message).toMatch(/must be prepared again \(by a fabricator or a supervisor\)/);
     expect(failure.detail).toBe(raw);
   });
 
   it('says the storage could not be reached, and whether it is tried again, without the client’s text', () => {
     const err = new ExportStorageError(new Error('connect ECONNREFUSED 127.0.0.1:4586'));
     expect(attemptFailureMessage(err, false)).toMatch(/^The file storage could not be reached.*tried again/);
-    expect(attemptFailureMessage(err, true)).toMatch(/ask the workshop/);
+    expect(attemptFailureMessage(err, true)).toMatch(
+      /must be prepared again \(by a fabricator or a supervisor\)/,
+    );
     for (const final of [false, true]) {
       expect(attemptFailureMessage(err, final)).not.toMatch(/ECONN|127\.0\.0\.1/);
       expect(attemptFailureMessage(new Error('connect ECONNREFUSED 127.0.0.1:54329'), final)).not.toMatch(

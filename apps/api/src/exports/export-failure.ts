@@ -33,7 +33,7 @@ export class ExportFailure extends Error {
     if (typeof code === 'string' && /^[A-Z_]+\.[A-Z_]+$/.test(code)) return new ExportFailure(code, raw);
     return new ExportFailure(
       fallback,
-      'The cut pack could not be built because of a fault on the server; ask the workshop to prepare it again',
+      'The cut pack could not be built because of a fault on the server; it must be prepared again (by a fabricator or a supervisor)',
       raw,
     );
   }
@@ -58,10 +58,10 @@ export function attemptFailureMessage(err: unknown, final: boolean): string {
       ? 'The file storage could not be reached, so the cut pack could not be stored'
       : 'The cut pack could not be built and stored because of a passing fault on the server';
   return final
-    ? `${what}; every attempt failed, so ask the workshop to prepare the cut pack again`
+    ? `${what}; every attempt failed, so it must be prepared again (by a fabricator or a supervisor)`
     : `${what}; it is tried again by itself shortly`;
 }
 
 /** What the job's people read about an export the queue gave up on (its workers kept stopping). */
 export const EXPORT_GAVE_UP_MESSAGE =
-  'The workers building this cut pack stopped before it was done; ask the workshop to prepare it again';
+  'The workers building this cut pack stopped before it was done; it must be prepared again (by a fabricator or a supervisor)';

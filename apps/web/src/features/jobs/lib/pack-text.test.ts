@@ -14,13 +14,13 @@ describe('cut pack wording', () => {
     const storage = packFailureText({
       errorCode: 'EXPORT.ATTEMPT_FAILED',
       errorMessage:
-        'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so ask the workshop to prepare the cut pack again',
+        'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so it must be prepared again (by a fabricator or a supervisor)',
       attempts: 4,
     });
     expect(storage).toBe(
-      'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so ask ' +
-        'the workshop to prepare the cut pack again (4 attempts). If it fails again, whoever runs the server ' +
-        'finds the details in its log.',
+      'Tried 4 times: the file storage could not be reached, so the cut pack could not be stored; every attempt ' +
+        'failed, so it must be prepared again (by a fabricator or a supervisor). If it fails again, whoever runs ' +
+        'the server finds the details in its log.',
     );
     expect(packFailureText({ errorCode: 'EXPORT.ATTEMPT_FAILED', errorMessage: null, attempts: 1 })).toBe(
       'The files could not be built and stored after one attempt. Prepare the cut pack again. If it fails ' +

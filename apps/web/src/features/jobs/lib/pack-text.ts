@@ -26,8 +26,10 @@ export function packFailureText(view: Pick<ExportView, 'errorCode' | 'errorMessa
   if (view.errorCode === 'EXPORT.ATTEMPT_FAILED') {
     const tries = view.attempts === 1 ? 'one attempt' : `${view.attempts} attempts`;
     // The API words the cause for the job's people (the storage client's own text stays in its log).
-    const cause = view.errorMessage
-      ? `${view.errorMessage.replace(/[.\s]+$/u, '')} (${tries}).`
+    const times = view.attempts === 1 ? 'once' : `${view.attempts} times`;
+    const said = view.errorMessage?.replace(/[.\s]+$/u, '');
+    const cause = said
+      ? `Tried ${times}: ${said.charAt(0).toLowerCase()}${said.slice(1)}.`
       : `The files could not be built and stored after ${tries}. Prepare the cut pack again.`;
     return `${cause} If it fails again, whoever runs the server finds the details in its log.`;
   }

@@ -12,6 +12,8 @@ export interface DeskRow {
   job: JobView;
   /** The job's newest export, once loaded (null: none yet). */
   newest: ExportView | null | undefined;
+  /** Files of the last pack built, still offered while a newer one is prepared or after it failed. */
+  lastBuiltFiles: number | null;
 }
 
 /**
@@ -42,7 +44,11 @@ export function useReleaseDeskJobs() {
     })),
   });
   const rows: DeskRow[] = jobs
-    .map((job, i) => ({ job, newest: exports[i]?.data ? (exports[i]?.data?.[0] ?? null) : undefined }))
+    .map((job, i) => ({
+      job,
+      newest: exports[i]?.data ? (exports[i]?.data?.[0] ?? null) : undefined,
+      lastBuiltFiles: exports[i]?.data?.find((e) => e.state === 'done')?.files.length ?? null,
+    }))
     .filter(
       ({ job, newest }) =>
         job.state === 'released' || (newest && (newest.state === 'queued' || newest.state === 'running')),

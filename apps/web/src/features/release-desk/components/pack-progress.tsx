@@ -6,7 +6,16 @@ import { useFollowExport } from '../../jobs/api/follow-export';
 import { packFailureText, packProgressText } from '../../jobs/lib/pack-text';
 
 /** A cut pack's state in a desk row: a live progress bar while it is prepared (followed by its events). */
-export function PackProgress({ jobId, newest }: { jobId: string; newest: ExportView | null | undefined }) {
+export function PackProgress({
+  jobId,
+  newest,
+  lastBuiltFiles = null,
+}: {
+  jobId: string;
+  newest: ExportView | null | undefined;
+  /** Files of the last pack built, still offered when a newer one failed. */
+  lastBuiltFiles?: number | null;
+}) {
   const busy = newest && (newest.state === 'queued' || newest.state === 'running');
   const live = useFollowExport(busy ? newest.id : null, jobId);
   const view = live.view ?? newest;
@@ -21,9 +30,14 @@ export function PackProgress({ jobId, newest }: { jobId: string; newest: ExportV
   if (view.state === 'done')
     return <Typography variant="body2">{`Ready, ${view.files.length} files`}</Typography>;
   if (view.state === 'failed') {
-    return (
-      <Typography variant="body2" color="error">
-        {packFailureText(view)}
+    // A row says how things stand; why the rebuild failed is said in full on the opened job.
+    return lastBuiltFiles !== null ? (
+      <Typography variant="body2" color="warning.main" title={packFailureText(view)}>
+        {`Ready, ${lastBuiltFiles} files; a newer pack failed`}
+      </Typography>
+    ) : (
+      <Typography variant="body2" color="error" title={packFailureText(view)}>
+        Failed: open the job for why
       </Typography>
     );
   }

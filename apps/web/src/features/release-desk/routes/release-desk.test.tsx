@@ -352,7 +352,7 @@ describe('release desk', () => {
       ...exportFixture('e-new', released.id, 'failed', 40),
       errorCode: 'EXPORT.ATTEMPT_FAILED',
       errorMessage:
-        'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so ask the workshop to prepare the cut pack again',
+        'The file storage could not be reached, so the cut pack could not be stored; every attempt failed, so it must be prepared again (by a fabricator or a supervisor)',
       attempts: 4,
     };
     const built = {
@@ -361,10 +361,15 @@ describe('release desk', () => {
     };
     stubDesk(true, {}, { [`GET /api/jobs/${released.id}/exports`]: () => json(200, [failed, built]) });
     const { user } = renderApp('/release-desk', { token: 't' });
+    // The row says how things stand in a few words: the files still offered, and that a newer pack failed.
+    const table = await screen.findByRole('table', { name: 'Jobs at the release desk' });
+    expect(
+      await within(table).findByText(`Ready, ${built.files.length} files; a newer pack failed`),
+    ).toBeInTheDocument();
     await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
     const job = await screen.findByTestId('desk-job');
     await within(job).findByText(
-      /^The file storage could not be reached, .* \(4 attempts\)\. If it fails again/,
+      /^Tried 4 times: the file storage could not be reached, .*\. If it fails again/,
     );
     const files = await within(job).findByRole('table', { name: 'Cut pack files' });
     expect(files).toHaveTextContent('sheet-01-clear.svg');

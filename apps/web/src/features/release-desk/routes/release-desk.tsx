@@ -139,7 +139,7 @@ export function ReleaseDeskRoute() {
               </TableRow>
             </TableHead>
             <TableBody>
-              {desk.rows.map(({ job, newest }) => (
+              {desk.rows.map(({ job, newest, lastBuiltFiles }) => (
                 <TableRow key={job.id} selected={job.id === selectedId}>
                   <TableCell>
                     {job.designName}
@@ -156,7 +156,7 @@ export function ReleaseDeskRoute() {
                   </TableCell>
                   <TableCell>{job.preparation?.sheetCount ?? '—'}</TableCell>
                   <TableCell>
-                    <PackProgress jobId={job.id} newest={newest} />
+                    <PackProgress jobId={job.id} newest={newest} lastBuiltFiles={lastBuiltFiles} />
                   </TableCell>
                   <TableCell align="right">
                     <Button size="small" onClick={() => setSelectedId(job.id)} data-open-job={job.id}>
@@ -201,7 +201,7 @@ function DeskCards({
       aria-label="Jobs at the release desk"
       data-testid="desk-cards"
     >
-      {rows.map(({ job, newest }) => (
+      {rows.map(({ job, newest, lastBuiltFiles }) => (
         <Paper
           key={job.id}
           component="li"
@@ -223,7 +223,7 @@ function DeskCards({
             } · ${job.preparation ? countOf(job.preparation.sheetCount, 'sheet') : 'not laid out yet'}`}
           </Typography>
           <Box sx={{ my: 1 }}>
-            <PackProgress jobId={job.id} newest={newest} />
+            <PackProgress jobId={job.id} newest={newest} lastBuiltFiles={lastBuiltFiles} />
           </Box>
           <Button variant="outlined" fullWidth onClick={() => onOpen(job.id)} data-open-job={job.id}>
             {`Open ${job.designName}`}
