@@ -72,7 +72,9 @@ export function buildPreview(
     if (checked.ok) assertDesignWork(checked.spec.piece.sides, resolveSolid(checked.spec).faces.length);
     model = buildModel(spec);
   } catch (error) {
-    return { ...empty, failure: error instanceof Error ? error.message : String(error) };
+    const said = error instanceof Error ? error.message : String(error);
+    // Shown as a sentence of its own (the engine's messages start in lower case, to follow a code or a colon).
+    return { ...empty, failure: said.charAt(0).toUpperCase() + said.slice(1) };
   }
   let pieceColour: Record<string, number> = Object.fromEntries(model.pieces.map((p) => [p.id, 0]));
   let colourPlan: ColourPlan | null = null;
