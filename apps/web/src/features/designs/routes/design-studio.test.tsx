@@ -402,6 +402,25 @@ describe('design studio', () => {
     expect(await screen.findByText('3 colours need at least 3 sheets (one per colour)')).toBeInTheDocument();
   });
 
+  it('raises the sheets of a fit to sheets with the colours it offers, so the offer leads to no new message', async () => {
+    studioApi();
+    const { user } = renderApp('/designs/new', { token: 't' });
+    await screen.findByTestId('model-facts');
+    // Around each vertex of an octahedron four faces meet: "vertex-distinct" needs four colours.
+    await field('Rule', 'vertex-distinct');
+    await field('Colours', '2');
+    await field('Scale by', 'fitSheets');
+    await field('Sheets', '2');
+    const offer = await screen.findByRole('button', { name: /^Use \d+ colours$/ });
+    const count = Number(/\d+/.exec(offer.textContent ?? '')?.[0]);
+    expect(count).toBeGreaterThan(2);
+    await user.click(offer);
+    await waitFor(() => expect(screen.getByLabelText('Sheets')).toHaveValue(count));
+    expect(screen.getByLabelText('Colours')).toHaveValue(count);
+    expect(screen.queryByText(/takes at most/)).not.toBeInTheDocument();
+    expect(screen.queryByText(/need at least \d+ sheets/)).not.toBeInTheDocument();
+  });
+
   it('names the marked field when it says why nothing is laid out', async () => {
     studioApi();
     renderApp('/designs/new', { token: 't' });

@@ -202,7 +202,16 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   const piece = report?.pieces.find((p) => p.id === selected) ?? report?.pieces[0];
   const suggestedSizes = useStableValue(report?.suggestedSizes ?? null);
   const applyColourCount = useCallback(
-    (count: number) => form.setValue('colourCount', count, { shouldDirty: true, shouldValidate: true }),
+    (count: number) => {
+      // Each colour is cut from its own sheets: a fit to fewer sheets than colours is raised with it, so the
+      // offer made does not lead straight into another message.
+      const { scaleBy, fitSheets } = form.getValues();
+      if (scaleBy === 'fitSheets' && Number.isFinite(fitSheets) && fitSheets < count) {
+        form.setValue('fitSheets', count, { shouldDirty: true });
+      }
+      form.setValue('colourCount', count, { shouldDirty: true, shouldValidate: true });
+      void form.trigger(['fitSheets', 'colourCount']);
+    },
     [form],
   );
 
