@@ -38,6 +38,11 @@ describe('NoControlCharacters', () => {
       expect(accepts(name)).toBe(false);
   });
 
+  it('refuses letters and marks that draw nothing inside a name', () => {
+    for (const name of ['Ply\u034Fwood', 'Birch\u3164ply', 'Rosa\u2800Quintero', 'Jun\u115FPark'])
+      expect(accepts(name)).toBe(false);
+  });
+
   it('asks for a character that shows', () => {
     for (const name of ['\u3164', '\u3164\u3164', '   ']) expect(accepts(name)).toBe(false);
   });

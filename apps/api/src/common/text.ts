@@ -14,10 +14,12 @@ export const Trimmed = () =>
  * invisible operators…) is invisible, so two names that look alike would differ, or a name would show nothing.
  * Except the zero-width non-joiner and joiner (U+200C, U+200D) after a letter, mark or pictograph outside ASCII:
  * Persian and the Indic scripts spell words with them, and emoji sequences join with them (Unicode Standard,
- * section 23.2); after a Latin letter they only hide in a name.
+ * section 23.2); after a Latin letter they only hide in a name. Nor the letters and marks that draw nothing
+ * anywhere in a name: the combining grapheme joiner, the Hangul fillers, the Khmer inherent vowels and the blank
+ * braille pattern ("Ply\u034Fwood" looks like "Plywood").
  */
 const ONE_LINE_TEXT =
-  /^(?:[^\p{Cc}\p{Cf}\u2028\u2029]|(?<=[\p{L}\p{M}\p{Extended_Pictographic}])(?<!\p{ASCII})[\u200C\u200D])*$/u;
+  /^(?:(?!\u034F|\u17B4|\u17B5)[^\p{Cc}\p{Cf}\u2028\u2029\u115F\u1160\u2800\u3164\uFFA0]|(?<=[\p{L}\p{M}\p{Extended_Pictographic}])(?<!\p{ASCII})[\u200C\u200D])*$/u;
 
 /**
  * A character that shows: a letter, digit, punctuation or symbol that is not one of the default-ignorable
