@@ -319,6 +319,17 @@ describe('job detail', () => {
     }
   });
 
+  /** The job's safety view on its laser and acrylic, with no notices: acknowledged or not. */
+  const safetyView = (acknowledged: boolean) => ({
+    jobId: job.id,
+    machineKind: 'co2-laser',
+    materialFamily: 'acrylic',
+    notices: [],
+    localRules: null,
+    acknowledged,
+    acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
+  });
+
   /** The job in `state` on CO2 laser version 1, retired since, as `role` sees it. */
   function onRetiredVersion(role: Role, state: JobState, actions: JobAction[]) {
     stubFetch({
@@ -334,16 +345,7 @@ describe('job detail', () => {
           actions,
         }),
       [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
-      [`GET /api/jobs/${job.id}/safety`]: () =>
-        json(200, {
-          jobId: job.id,
-          machineKind: 'co2-laser',
-          materialFamily: 'acrylic',
-          notices: [],
-          localRules: null,
-          acknowledged: false,
-          acknowledgedAt: null,
-        }),
+      [`GET /api/jobs/${job.id}/safety`]: () => json(200, safetyView(false)),
     });
   }
 
@@ -555,16 +557,7 @@ describe('job detail', () => {
         'GET /api/auth/me': () => json(200, userFixture('operator')),
         [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'released', actions: ['cut'] }),
         [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
-        [`GET /api/jobs/${job.id}/safety`]: () =>
-          json(200, {
-            jobId: job.id,
-            machineKind: 'co2-laser',
-            materialFamily: 'acrylic',
-            notices: [],
-            localRules: null,
-            acknowledged,
-            acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
-          }),
+        [`GET /api/jobs/${job.id}/safety`]: () => json(200, safetyView(acknowledged)),
       });
       const { unmount } = renderApp(`/jobs/${job.id}`, { token: 't' });
       const actions = await screen.findByTestId('job-actions');
