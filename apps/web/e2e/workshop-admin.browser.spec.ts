@@ -103,6 +103,8 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     // A family the hazard table refuses cannot be laser-allowed: the form says why and unticks it.
     await dialog.getByLabel('Family').selectOption('pvc');
     await dialog.getByTestId('family-refused').waitFor();
+    // Unticked by the form once the refusal shows (an effect after that render): waited for, not read at once.
+    await dialog.getByLabel('May be cut on a laser').and(page.locator('input:not(:checked)')).waitFor();
     expect(await dialog.getByLabel('May be cut on a laser').isChecked()).toBe(false);
     await shot('material-form-prohibited');
 
