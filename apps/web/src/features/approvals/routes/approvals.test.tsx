@@ -187,7 +187,10 @@ describe('Approvals (supervisor)', () => {
     expect(approve).toHaveTextContent(/^Approve version 2$/);
     await user.click(approve);
     const dialog = await screen.findByRole('dialog', { name: 'Approve version 2 of CO2 laser, 60 W?' });
-    expect(dialog).toHaveTextContent('Jobs use it from now on; version 1 is retired.');
+    expect(dialog).toHaveTextContent(
+      'Jobs use it from now on; version 1 is retired. Jobs already released on version 1 stay released, marked ' +
+        'as on a retired version: return any that must not be cut on it.',
+    );
     expect(calls.some((c) => c.method === 'POST')).toBe(false);
     await user.click(within(dialog).getByRole('button', { name: 'Approve version 2' }));
     await waitFor(() => expect(calls.some((c) => c.method === 'POST')).toBe(true));

@@ -292,7 +292,9 @@ export function ApprovalsRoute() {
           onClose={() => setConfirming(null)}
         >
           {confirming.profile.currentApproved
-            ? `Jobs use it from now on; version ${confirming.profile.currentApproved.number} is retired.`
+            ? `Jobs use it from now on; version ${confirming.profile.currentApproved.number} is retired. Jobs ` +
+              `already released on version ${confirming.profile.currentApproved.number} stay released, marked as on a ` +
+              'retired version: return any that must not be cut on it.'
             : 'Jobs may use this machine from now on.'}
         </ConfirmDialog>
       ) : null}

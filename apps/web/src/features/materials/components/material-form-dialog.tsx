@@ -152,7 +152,11 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
               <FormControlLabel
                 label="Flexible stock (card, felt)"
                 control={
-                  <Checkbox checked={field.value} onChange={(e) => field.onChange(e.target.checked)} />
+                  // A refused family shows unticked in the same render that says why (the value follows below).
+                  <Checkbox
+                    checked={field.value && refusal === null}
+                    onChange={(e) => field.onChange(e.target.checked)}
+                  />
                 }
               />
             )}
@@ -250,7 +254,11 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
                 label="May be cut on a laser"
                 disabled={refusal !== null || laserLocked}
                 control={
-                  <Checkbox checked={field.value} onChange={(e) => field.onChange(e.target.checked)} />
+                  // A refused family shows unticked in the same render that says why (the value follows below).
+                  <Checkbox
+                    checked={field.value && refusal === null}
+                    onChange={(e) => field.onChange(e.target.checked)}
+                  />
                 }
               />
             )}
