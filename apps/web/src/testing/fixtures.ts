@@ -1,4 +1,5 @@
 import {
+  type JobSafetyView,
   type JobPreparation,
   type JobView,
   type MachineProfileVersionView,
@@ -145,5 +146,18 @@ export function materialFixture(overrides: Partial<MaterialView> = {}): Material
     createdAt: '2026-01-01T00:00:00.000Z',
     updatedAt: '2026-01-01T00:00:00.000Z',
     ...overrides,
+  };
+}
+
+/** A job's safety view on a CO2 laser and acrylic, with no notices: acknowledged or not. */
+export function jobSafetyFixture(jobId: string, acknowledged: boolean): JobSafetyView {
+  return {
+    jobId,
+    machineKind: 'co2-laser',
+    materialFamily: 'acrylic',
+    notices: [],
+    localRules: null,
+    acknowledged,
+    acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
   };
 }

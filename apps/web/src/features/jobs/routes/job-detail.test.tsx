@@ -8,7 +8,7 @@ import {
 import { screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { jobFixture, preparationFixture, userFixture } from '../../../testing/fixtures';
+import { jobFixture, jobSafetyFixture, preparationFixture, userFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
 import { stubScreenWidth } from '../../../testing/screen-width';
 
@@ -319,17 +319,6 @@ describe('job detail', () => {
     }
   });
 
-  /** The job's safety view on its laser and acrylic, with no notices: acknowledged or not. */
-  const safetyView = (acknowledged: boolean) => ({
-    jobId: job.id,
-    machineKind: 'co2-laser',
-    materialFamily: 'acrylic',
-    notices: [],
-    localRules: null,
-    acknowledged,
-    acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
-  });
-
   /** The job in `state` on CO2 laser version 1, retired since, as `role` sees it. */
   function onRetiredVersion(role: Role, state: JobState, actions: JobAction[]) {
     stubFetch({
@@ -345,7 +334,7 @@ describe('job detail', () => {
           actions,
         }),
       [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
-      [`GET /api/jobs/${job.id}/safety`]: () => json(200, safetyView(false)),
+      [`GET /api/jobs/${job.id}/safety`]: () => json(200, jobSafetyFixture(job.id, false)),
     });
   }
 
@@ -557,7 +546,7 @@ describe('job detail', () => {
         'GET /api/auth/me': () => json(200, userFixture('operator')),
         [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'released', actions: ['cut'] }),
         [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
-        [`GET /api/jobs/${job.id}/safety`]: () => json(200, safetyView(acknowledged)),
+        [`GET /api/jobs/${job.id}/safety`]: () => json(200, jobSafetyFixture(job.id, acknowledged)),
       });
       const { unmount } = renderApp(`/jobs/${job.id}`, { token: 't' });
       const actions = await screen.findByTestId('job-actions');

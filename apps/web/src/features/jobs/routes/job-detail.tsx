@@ -171,6 +171,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
   const safety = useJobSafety(job.id, canAcknowledge);
   const cutWaits = job.actions.includes('cut') && safety.data?.acknowledged !== true;
   const approveBlocked = approveBlockedReason(job, user.role);
+  const retiredSince = retiredSinceReleaseText(job, user.role);
   // Staff see the cut pack once the job is approved; downloads still need the safety acknowledgement.
   const canSeePack =
     user.role !== 'hobbyist' && ['approved', 'released', 'cut', 'closed'].includes(job.state);
@@ -201,9 +202,9 @@ function JobDetail({ job }: { job: JobDetailView }) {
           {`Returned: ${job.returnReason}`}
         </Alert>
       ) : null}
-      {retiredSinceReleaseText(job, user.role) ? (
+      {retiredSince ? (
         <Alert severity="warning" sx={{ mb: 2 }} data-testid="retired-since-release">
-          {retiredSinceReleaseText(job, user.role)}
+          {retiredSince}
         </Alert>
       ) : null}
       {action.error && open === null && !isJobChangedSince(action.error) ? (

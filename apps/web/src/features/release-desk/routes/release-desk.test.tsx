@@ -2,7 +2,7 @@ import { type ExportView, type JobSafetyView, type JobView } from '@kerfwright/c
 import { act, screen, waitFor, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
-import { userFixture } from '../../../testing/fixtures';
+import { jobSafetyFixture, userFixture } from '../../../testing/fixtures';
 import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
 import { DONE_PACK_REFRESH_MS, STALE_PACK_REFRESH_MS } from '../../jobs/api/get-job-exports';
@@ -79,15 +79,7 @@ function stubDesk(
   pack: Partial<ExportView> | (() => Partial<ExportView>) = {},
   extra: Parameters<typeof stubFetch>[0] = {},
 ) {
-  const safety: JobSafetyView = {
-    jobId: released.id,
-    machineKind: 'co2-laser',
-    materialFamily: 'acrylic',
-    notices: [],
-    localRules: null,
-    acknowledged,
-    acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
-  };
+  const safety: JobSafetyView = jobSafetyFixture(released.id, acknowledged);
   return stubFetch({
     'GET /api/auth/me': () => json(200, userFixture('operator')),
     'GET /api/jobs': (call) => {

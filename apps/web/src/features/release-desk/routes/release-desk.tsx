@@ -263,6 +263,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   const [open, setOpen] = useState<'safety' | 'cut' | 'close' | null>(null);
   const [unit] = useLengthUnit();
   const acknowledged = safety.data?.acknowledged === true;
+  const retiredSince = retiredSinceReleaseText(job, user.role);
   // Approved (its pack being built), released, or cut and closed since: the desk's states for a job.
   const atMachines = JOB_PACK_STATES.includes(job.state) || CUT_PACK_DOWNLOADABLE_STATES.includes(job.state);
   const canCut = job.actions.includes('cut');
@@ -324,9 +325,9 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
             : `This job is ${job.state} now: it is no longer at the machines, and its files are not offered.`}
         </Alert>
       )}
-      {retiredSinceReleaseText(job, user.role) ? (
+      {retiredSince ? (
         <Alert severity="warning" data-testid="desk-retired-since-release">
-          {retiredSinceReleaseText(job, user.role)}
+          {retiredSince}
         </Alert>
       ) : null}
       {action.error && open === null ? <FormErrorAlert error={action.error} /> : null}
