@@ -5,6 +5,7 @@ import { type MaterialHazard, type Role } from '@kerfwright/contracts';
 import { type MailCatcher, startMailCatcher } from '../src/dev-mail/mail-catcher';
 import { MachineProfilesService } from '../src/machine-profiles/machine-profiles.service';
 import { MailDispatcherService } from '../src/mail/mail-dispatcher.service';
+import { octahedronHexagons } from './support/workshop-fixtures';
 import {
   countRows,
   createUser,
@@ -316,6 +317,63 @@ describe('machine profiles, versions and kerf records', () => {
     );
     expect(named.length).toBeGreaterThan(0);
     for (const n of named) expect(n.logged).toBe(p.name);
+  });
+
+  it('takes a machine out of use with a reason: kept on the version, mailed with the jobs it touches', async () => {
+    const { p, v } = await approved();
+    // Jobs on the version, written straight to the database (with a real spec, as every reader expects one).
+    const spec = JSON.stringify(octahedronHexagons());
+    const designs: { id: string; name: string }[] = [];
+    for (const name of [unique('Lantern'), unique('Star lamp'), unique('Old cut')]) {
+      const rows: { id: string }[] = await ctx.db.query(
+        `INSERT INTO designs (owner_id, name, spec) VALUES ($1, $2, $3) RETURNING id`,
+        [users.hobbyist.id, name, spec],
+      );
+      designs.push({ id: rows[0]!.id, name });
+    }
+    for (const [i, state] of (['released', 'approved', 'closed'] as const).entries()) {
+      await ctx.db.query(
+        `INSERT INTO jobs (design_id, requester_id, state, spec, material_id, profile_version_id)
+         VALUES ($1, $2, $3, $4, $5, $6)`,
+        [designs[i]!.id, users.hobbyist.id, state, spec, plywood, v.id],
+      );
+    }
+
+    // A reason says why (3 characters at least once trimmed, as a job's return reason); only supervisors retire.
+    const short = await act('supervisor', p, v, 'retire', { lockVersion: v.lockVersion, reason: '  x ' });
+    expectErrorBody(short.body, 400, 'VALIDATION.FAILED');
+    await act('fabricator', p, v, 'retire', { reason: 'Tube cracked' }).expect(403);
+    const retired = (
+      await act('supervisor', p, v, 'retire', {
+        lockVersion: v.lockVersion,
+        reason: '  Laser tube cracked; do not run until it is replaced  ',
+      }).expect(200)
+    ).body as VersionBody & { retireReason: string | null };
+    expect(retired).toMatchObject({
+      state: 'retired',
+      retireReason: 'Laser tube cracked; do not run until it is replaced',
+    });
+    const detail = (await ctx.http.get(`/api/machine-profiles/${p.id}`).set(auth('operator')).expect(200))
+      .body as ProfileBody;
+    expect(detail.currentApproved).toBeNull();
+
+    const mails = await mailsAbout(`Machine out of use: ${p.name}`);
+    const to = mails.flatMap((m) => m.to);
+    for (const role of ['fabricator', 'operator', 'supervisor'] as const)
+      expect(to).toContain(users[role].email);
+    expect(to).not.toContain(users.hobbyist.email);
+    const mail = mails[0]!;
+    expect(mail.text).toContain('Reason given: Laser tube cracked; do not run until it is replaced');
+    expect(mail.text).toContain(`Released with these settings, not yet cut: "${designs[0]!.name}"`);
+    expect(mail.text).toContain(`Prepared or approved with these settings: "${designs[1]!.name}"`);
+    expect(mail.text).not.toContain(designs[2]!.name);
+
+    // Retiring a version that was never in use (a draft given up) tells nobody.
+    const { p: q } = await submitted();
+    const draft = (await ctx.http.get(`/api/machine-profiles/${q.id}`).set(auth('supervisor')).expect(200))
+      .body as ProfileBody;
+    await act('supervisor', q, draft.latest, 'retire', { reason: 'Superseded by the bay laser' }).expect(200);
+    expect(await mailsAbout(`Machine out of use: ${q.name}`)).toHaveLength(0);
   });
 
   it('keeps submitted and approved versions fixed in the database itself; drafts stay editable', async () => {

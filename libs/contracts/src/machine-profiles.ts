@@ -84,6 +84,8 @@ export interface MachineProfileVersionView {
   approvedBy: string | null;
   approvedAt: string | null;
   retiredAt: string | null;
+  /** Why a supervisor took the version out of use; null when a newer approved version replaced it. */
+  retireReason: string | null;
   /** Optimistic-locking counter: send it back with PATCH and the state changes. */
   lockVersion: number;
   createdAt: string;
@@ -135,6 +137,14 @@ export interface UpdateProfileVersionRequest extends Partial<ProfileVersionConte
 /** Body of retire: optionally the lockVersion the client read (stale → 409). */
 export interface ProfileTransitionRequest {
   lockVersion?: number;
+}
+
+/**
+ * Body of POST …/versions/:versionId/retire: optionally the lockVersion the client read, and why the version is
+ * taken out of use (kept on the version; when it is the approved one, mailed to fabricators and operators).
+ */
+export interface RetireProfileVersionRequest extends ProfileTransitionRequest {
+  reason?: string;
 }
 
 /**

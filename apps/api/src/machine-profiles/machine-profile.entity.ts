@@ -43,6 +43,8 @@ export class MachineProfileVersion {
   @Column({ name: 'returned_at', type: 'timestamptz', nullable: true }) returnedAt: Date | null;
   @Column({ name: 'retired_by', type: 'uuid', nullable: true }) retiredBy: string | null;
   @Column({ name: 'retired_at', type: 'timestamptz', nullable: true }) retiredAt: Date | null;
+  /** Why a supervisor took the version out of use; null when a newer approved version replaced it. */
+  @Column({ name: 'retire_reason', type: 'text', nullable: true }) retireReason: string | null;
   /** Optimistic-locking counter, raised by every change (the service checks and raises it). */
   @Column({ name: 'lock_version', type: 'integer' }) lockVersion: number;
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' }) createdAt: Date;
@@ -102,6 +104,7 @@ export function toVersionView(
     approvedBy: v.approvedBy,
     approvedAt: iso(v.approvedAt),
     retiredAt: iso(v.retiredAt),
+    retireReason: v.retireReason,
     lockVersion: v.lockVersion,
     createdAt: v.createdAt.toISOString(),
     updatedAt: v.updatedAt.toISOString(),

@@ -29,7 +29,7 @@ import {
   ApproveProfileVersionDto,
   CreateProfileVersionDto,
   ProfileDecisionDto,
-  ProfileTransitionDto,
+  RetireProfileVersionDto,
   ReturnProfileVersionDto,
   UpdateProfileVersionDto,
 } from './dto/profile-version-requests.dto';
@@ -199,14 +199,18 @@ export class MachineProfilesController {
   @ApiOperation({ summary: 'Retire a version (supervisor)' })
   @Roles('supervisor')
   @HttpCode(200)
-  @ApiOkResponse({ type: MachineProfileVersionResponse, description: 'Retired: no new job can use it' })
+  @ApiOkResponse({
+    type: MachineProfileVersionResponse,
+    description:
+      'Retired: no new job can use it. Retiring the approved version takes the machine out of use until a newer one is approved; fabricators, operators and supervisors are mailed, with the jobs that used it',
+  })
   @ApiForbiddenResponse({ description: 'AUTH.FORBIDDEN: supervisors only' })
   @ApiConflictResponse({ description: 'MACHINE_PROFILE.INVALID_STATE or MACHINE_PROFILE.STALE_VERSION' })
   retire(
     @CurrentUser() user: AuthUser,
     @Param('id', uuid) id: string,
     @Param('versionId', uuid) versionId: string,
-    @Body() dto: ProfileTransitionDto,
+    @Body() dto: RetireProfileVersionDto,
     @Req() req: unknown,
   ): Promise<MachineProfileVersionView> {
     return this.profiles.retire(actorOf(user, req), id, versionId, dto);

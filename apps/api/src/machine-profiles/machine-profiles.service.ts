@@ -30,7 +30,7 @@ import {
   type ApproveProfileVersionDto,
   type CreateProfileVersionDto,
   type ProfileDecisionDto,
-  type ProfileTransitionDto,
+  type RetireProfileVersionDto,
   type ReturnProfileVersionDto,
   type UpdateProfileVersionDto,
 } from './dto/profile-version-requests.dto';
@@ -401,22 +401,73 @@ export class MachineProfilesService {
     });
   }
 
-  /** Takes a version out of use (an approved one) or closes an abandoned draft. Supervisors only. */
+  /**
+   * Takes a version out of use (an approved one) or closes an abandoned draft. Supervisors only. Retiring the
+   * approved version leaves the machine without one until a newer version is approved: jobs prepared or approved
+   * on it must be prepared again (approval and release check the version), and jobs released on it stay released
+   * but marked. Fabricators, operators and supervisors are mailed why, with those jobs named.
+   */
   async retire(
     actor: ProfileActor,
     profileId: string,
     versionId: string,
-    dto: ProfileTransitionDto,
+    dto: RetireProfileVersionDto,
   ): Promise<MachineProfileVersionView> {
-    return this.versionStep('retire', profileId, versionId, dto, async (manager, _profile, v) => {
+    return this.versionStep('retire', profileId, versionId, dto, async (manager, profile, v) => {
+      const wasApproved = v.state === 'approved';
       const saved = await this.change(
         manager,
         actor,
         v,
-        { state: 'retired', retiredBy: actor.id, retiredAt: new Date() },
+        { state: 'retired', retiredBy: actor.id, retiredAt: new Date(), retireReason: dto.reason ?? null },
         'machine-profile-version.retire',
       );
+      if (wasApproved) await this.mailOutOfUse(manager, actor, profile, v, dto.reason ?? null);
       return saved;
+    });
+  }
+
+  /** The mail when a supervisor retires a machine's approved version: what stops, and which jobs it touches. */
+  private async mailOutOfUse(
+    manager: EntityManager,
+    actor: ProfileActor,
+    profile: MachineProfile,
+    v: MachineProfileVersion,
+    reason: string | null,
+  ): Promise<void> {
+    const jobs: { state: 'prepared' | 'approved' | 'released'; name: string }[] = await manager.query(
+      `SELECT j.state, d.name FROM jobs j JOIN designs d ON d.id = j.design_id
+        WHERE j.profile_version_id = $1 AND j.state IN ('prepared', 'approved', 'released')
+        ORDER BY j.state, d.name`,
+      [v.id],
+    );
+    const named = (states: string[]) =>
+      jobs
+        .filter((j) => states.includes(j.state))
+        .map((j) => `"${j.name}"`)
+        .join(', ');
+    const released = named(['released']);
+    const waiting = named(['prepared', 'approved']);
+    const mail = composeMail(
+      `Machine out of use: ${profile.name}`,
+      [
+        `${actor.displayName} has taken version ${v.number} of the machine profile "${profile.name}" out of use. ` +
+          'No job can be prepared, approved or released on this machine until a newer version is approved.',
+        `Reason given: ${reason ?? '(none)'}`,
+        released
+          ? `Released with these settings, not yet cut: ${released}. They stay on the release desk, marked; ` +
+            'return any that must not be cut on them.'
+          : 'No released job uses these settings.',
+        ...(waiting
+          ? [`Prepared or approved with these settings: ${waiting}. They must be prepared again.`]
+          : []),
+      ],
+      { label: 'Open the machine profile', url: this.link(profile.id) },
+    );
+    await this.mail.enqueue(manager, {
+      kind: 'machine-profile.out-of-use',
+      to: await this.mail.addressesOfRoles(manager, ['fabricator', 'operator', 'supervisor']),
+      ...mail,
     });
   }
 

@@ -43,6 +43,7 @@ export function versionFixture(
     approvedBy: null,
     approvedAt: null,
     retiredAt: null,
+    retireReason: null,
     lockVersion: 1,
     createdAt: '2026-01-01T00:00:00.000Z',
     updatedAt: '2026-01-01T00:00:00.000Z',

@@ -50,6 +50,13 @@ export class MachineProfileVersionResponse implements MachineProfileVersionView 
   @ApiProperty({ type: String, nullable: true, format: 'uuid' }) approvedBy: string | null;
   @ApiProperty({ type: String, nullable: true, format: 'date-time' }) approvedAt: string | null;
   @ApiProperty({ type: String, nullable: true, format: 'date-time' }) retiredAt: string | null;
+  @ApiProperty({
+    type: String,
+    nullable: true,
+    description:
+      'Why a supervisor took the version out of use; null when a newer approved version replaced it',
+  })
+  retireReason: string | null;
   @ApiProperty({ description: 'Send it back with PATCH and state changes (optimistic locking)' })
   lockVersion: number;
   @ApiProperty({ format: 'date-time' }) createdAt: string;

@@ -1,15 +1,17 @@
 import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { IsBoolean, IsNotEmpty, IsString, MaxLength } from 'class-validator';
+import { IsBoolean, IsNotEmpty, IsString, MaxLength, MinLength } from 'class-validator';
 import {
   type ApproveProfileVersionRequest,
   type CreateProfileVersionRequest,
   MACHINE_PROFILE_LIMITS as L,
   type ProfileDecisionRequest,
   type ProfileTransitionRequest,
+  type RetireProfileVersionRequest,
   type ReturnProfileVersionRequest,
   type UpdateProfileVersionRequest,
 } from '@kerfwright/contracts';
+import { Trimmed } from '../../common/text';
 import { OptionalNotNull } from '../../common/validation/optional';
 import { ProfileVersionContentDto } from './profile-version-content.dto';
 import { IsRowVersion } from '../../common/validation/row-version';
@@ -35,6 +37,21 @@ export class ProfileTransitionDto implements ProfileTransitionRequest {
   @OptionalNotNull()
   @IsRowVersion()
   lockVersion?: number;
+}
+
+/** Retiring a version: optionally the lockVersion the client read, and why (kept and mailed). */
+export class RetireProfileVersionDto extends ProfileTransitionDto implements RetireProfileVersionRequest {
+  @ApiPropertyOptional({
+    maxLength: L.reasonLength,
+    description:
+      'Why the version is taken out of use; kept on the version and, when it is the approved one, mailed to fabricators and operators',
+  })
+  @OptionalNotNull()
+  @Trimmed()
+  @IsString()
+  @MinLength(3, { message: 'reason must say why, in at least 3 characters (spaces alone do not count)' })
+  @MaxLength(L.reasonLength)
+  reason?: string;
 }
 
 /**

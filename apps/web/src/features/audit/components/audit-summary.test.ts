@@ -24,6 +24,26 @@ describe('audit summaries', () => {
     ).toBe('Profile version 2 sent back (submitted → draft; reason: Measure two more coupons)');
   });
 
+  it('gives a machine taken out of use its reason, and a version replaced by a newer approval none', () => {
+    const before = { number: 3, state: 'approved', profileName: 'Bay 3 laser', retireReason: null };
+    expect(
+      auditSummary({
+        action: 'machine-profile-version.retire',
+        entityType: 'machine-profile-version',
+        before,
+        after: { ...before, state: 'retired', retireReason: 'Laser tube cracked' },
+      }),
+    ).toMatch(/\(approved → retired; reason: Laser tube cracked\)$/);
+    expect(
+      auditSummary({
+        action: 'machine-profile-version.retire',
+        entityType: 'machine-profile-version',
+        before,
+        after: { ...before, state: 'retired' },
+      }),
+    ).toMatch(/\(approved → retired\)$/);
+  });
+
   it('names a version by its profile when the entry carries the profile name', () => {
     expect(
       auditSummary({

@@ -167,6 +167,9 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
   if (stateAfter && stateBefore && stateBefore !== stateAfter) details.push(`${stateBefore} → ${stateAfter}`);
   const reason = text(after?.returnReason) ?? text(after?.reason);
   if (reason && (step === 'return' || stateAfter === 'returned')) details.push(`reason: ${short(reason)}`);
+  // A machine taken out of use says why (a version retired by a newer approval has no reason).
+  const retireReason = text(after?.retireReason);
+  if (retireReason && step === 'retire') details.push(`reason: ${short(retireReason)}`);
   if (step === 'update' || step === 'adopt') {
     // Adopting is setting the version a record went into: the verb says so, the version's id says nothing.
     const changed = changedFields(before, after).filter(

@@ -72,4 +72,53 @@ describe('machine profile page', () => {
     expect(await screen.findByRole('heading', { name: 'No such machine profile' })).toBeInTheDocument();
     expect(stub.calls.some((c) => c.url.pathname.startsWith('/api/machine-profiles/'))).toBe(false);
   });
+
+  it('lets a supervisor take the machine out of use only with a reason, then says so on the page', async () => {
+    let current: MachineProfileDetailView = profile;
+    const retired = {
+      ...approved,
+      state: 'retired' as const,
+      retiredAt: '2026-12-05T09:30:00.000Z',
+      retireReason: 'Laser tube cracked',
+      lockVersion: approved.lockVersion + 1,
+    };
+    const { calls } = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/machine-profiles/${PROFILE_ID}`]: () => json(200, current),
+      [`GET /api/machine-profiles/${PROFILE_ID}/kerf-records`]: () =>
+        json(200, { items: [], total: 0, page: 1, pageSize: 1000 }),
+      [`POST /api/machine-profiles/${PROFILE_ID}/versions/${approved.id}/retire`]: () => {
+        current = { ...profile, currentApproved: null, versions: [draft, retired] };
+        return json(200, retired);
+      },
+    });
+    const { user } = renderApp(`/machine-profiles/${PROFILE_ID}`, { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Take out of use' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Take Bay 3 laser out of use?' });
+    expect(dialog).toHaveTextContent(/Jobs already released stay on the release desk, marked/);
+    await user.click(within(dialog).getByRole('button', { name: 'Take out of use' }));
+    expect(await within(dialog).findByText(/Say why/)).toBeInTheDocument();
+    expect(calls.some((c) => c.method === 'POST')).toBe(false);
+
+    await user.type(within(dialog).getByLabelText('Reason'), '  Laser tube cracked ');
+    await user.click(within(dialog).getByRole('button', { name: 'Take out of use' }));
+    const out = await screen.findByTestId('out-of-use');
+    expect(out).toHaveTextContent('Version 1 was taken out of use: Laser tube cracked.');
+    const post = calls.find((c) => c.method === 'POST')!;
+    expect(post.body).toEqual({ lockVersion: approved.lockVersion, reason: 'Laser tube cracked' });
+    expect(screen.getByTestId('profile-status')).toHaveTextContent('No version is approved, so no job');
+    expect(screen.queryByRole('button', { name: 'Take out of use' })).not.toBeInTheDocument();
+  });
+
+  it('offers taking the machine out of use to supervisors only', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/machine-profiles/${PROFILE_ID}`]: () => json(200, profile),
+      [`GET /api/machine-profiles/${PROFILE_ID}/kerf-records`]: () =>
+        json(200, { items: [], total: 0, page: 1, pageSize: 1000 }),
+    });
+    renderApp(`/machine-profiles/${PROFILE_ID}`, { token: 't' });
+    expect(await screen.findByTestId('profile-actions')).toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'Take out of use' })).not.toBeInTheDocument();
+  });
 });

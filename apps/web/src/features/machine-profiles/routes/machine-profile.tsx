@@ -18,10 +18,13 @@ import { FullPageProgress } from '../../../components/ui/full-page-progress';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths } from '../../../config/paths';
 import { errorMessage, isApiError } from '../../../lib/api-client';
+import { useUser } from '../../../lib/auth';
+import { formatDateTime } from '../../../lib/dates';
 import { isRecordId } from '../../../lib/record-id';
 import { useCreateProfileVersion } from '../api/create-profile-version';
 import { useMachineProfile } from '../api/get-machine-profile';
 import { useMaterialChoices } from '../api/get-material-choices';
+import { useRetireProfileVersion } from '../api/retire-profile-version';
 import { useSubmitProfileVersion } from '../api/submit-profile-version';
 import { useUpdateProfileVersion } from '../api/update-profile-version';
 import { KerfHistoryPanel } from '../components/kerf-history-panel';
@@ -32,6 +35,7 @@ import {
   versionToFormValues,
 } from '../components/profile-form-schema';
 import { KIND_LABELS, STATE_LABELS } from '../components/profile-labels';
+import { RetireVersionDialog } from '../components/retire-version-dialog';
 import { VersionComparison } from '../components/version-comparison';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 
@@ -53,17 +57,23 @@ function NoSuchProfile() {
   );
 }
 
-/** One machine profile: its versions side by side, drafting and submitting, and the kerf history. */
+/**
+ * One machine profile: its versions side by side, drafting and submitting, and the kerf history. A supervisor
+ * may take the machine out of use (its approved version retired, with a reason).
+ */
 export function MachineProfileRoute() {
   const { profileId = '' } = useParams();
+  const user = useUser();
   const profile = useMachineProfile(profileId);
   const [mode, setMode] = useState<ProfileFormMode | null>(null);
   const [confirmSubmit, setConfirmSubmit] = useState(false);
+  const [confirmRetire, setConfirmRetire] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
   const materials = useMaterialChoices(mode !== null);
   const createVersion = useCreateProfileVersion(profileId);
   const updateVersion = useUpdateProfileVersion(profileId);
   const submitVersion = useSubmitProfileVersion(profileId);
+  const retireVersion = useRetireProfileVersion(profileId);
   const data = profile.data;
   const initial = useMemo(() => (data ? versionToFormValues(data, data.latest) : null), [data]);
 
@@ -82,6 +92,14 @@ export function MachineProfileRoute() {
   }
 
   const latest = data.latest;
+  const approved = data.currentApproved;
+  // Out of use: no approved version, and the last one retired was taken out of use with a reason (not
+  // replaced by a newer approval).
+  const outOfUse = approved
+    ? null
+    : (data.versions
+        .filter((v) => v.state === 'retired' && v.retiredAt)
+        .sort((a, b) => (b.retiredAt ?? '').localeCompare(a.retiredAt ?? ''))[0] ?? null);
   const saving = mode === 'edit-draft' ? updateVersion : createVersion;
 
   const openForm = (m: ProfileFormMode) => {
@@ -123,11 +141,21 @@ export function MachineProfileRoute() {
         <Chip label={KIND_LABELS[data.kind]} variant="outlined" />
       </Box>
       <Typography color="text.secondary" sx={{ mb: 2 }} data-testid="profile-status">
-        {data.currentApproved
-          ? `Jobs use version ${data.currentApproved.number} (approved).`
-          : 'No version is approved yet, so no job can use this machine.'}{' '}
+        {approved
+          ? `Jobs use version ${approved.number} (approved).`
+          : outOfUse
+            ? 'No version is approved, so no job can use this machine.'
+            : 'No version is approved yet, so no job can use this machine.'}{' '}
         Newest: version {latest.number}, {STATE_LABELS[latest.state].toLowerCase()}.
       </Typography>
+
+      {outOfUse?.retireReason ? (
+        <Alert severity="error" sx={{ mb: 2 }} data-testid="out-of-use">
+          <AlertTitle>Out of use since {formatDateTime(outOfUse.retiredAt as string)}</AlertTitle>
+          Version {outOfUse.number} was taken out of use: {outOfUse.retireReason}. A newer version must be
+          approved before jobs can use this machine again.
+        </Alert>
+      ) : null}
 
       {latest.state === 'draft' && latest.returnReason ? (
         <Alert severity="warning" sx={{ mb: 2 }} data-testid="return-reason">
@@ -161,6 +189,18 @@ export function MachineProfileRoute() {
             Draft a new version
           </Button>
         )}
+        {approved && user.role === 'supervisor' ? (
+          <Button
+            variant="outlined"
+            color="error"
+            onClick={() => {
+              retireVersion.reset();
+              setConfirmRetire(true);
+            }}
+          >
+            Take out of use
+          </Button>
+        ) : null}
       </Box>
 
       <Paper variant="outlined" sx={{ mb: 3 }}>
@@ -225,6 +265,30 @@ export function MachineProfileRoute() {
           </Button>
         </DialogActions>
       </Dialog>
+
+      {approved ? (
+        <RetireVersionDialog
+          open={confirmRetire}
+          profileName={data.name}
+          versionNumber={approved.number}
+          busy={retireVersion.isPending}
+          error={retireVersion.error}
+          onClose={() => setConfirmRetire(false)}
+          onSubmit={({ reason }) =>
+            retireVersion.mutate(
+              { version: approved, reason },
+              {
+                onSuccess: (v) => {
+                  setConfirmRetire(false);
+                  setNotice(
+                    `${data.name} is out of use: version ${v.number} is retired, and the workshop is told.`,
+                  );
+                },
+              },
+            )
+          }
+        />
+      ) : null}
 
       <NoticeSnackbar notice={notice} onClose={() => setNotice(null)} />
     </Box>
