@@ -17,6 +17,7 @@ const stamp = Date.now().toString(36);
 const materialName = `Poplar plywood 4 mm ${stamp}`;
 const profileName = `Bay 3 CO2 laser ${stamp}`;
 const sendBackReason = `Measure the kerf on two more coupons first (${stamp})`;
+const outOfUseReason = `Lens cracked; do not run until it is replaced (${stamp})`;
 let profilePath = '';
 
 const session = openPagePerTest((p) => {
@@ -277,6 +278,24 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     await shot('machine-profile-approved');
   });
 
+  it('lets the supervisor take the machine out of use, only with a reason, which the profile then shows', async () => {
+    await openProfile('supervisor');
+    await page.getByTestId('profile-actions').getByRole('button', { name: 'Take out of use' }).click();
+    const dialog = page.getByRole('dialog', { name: `Take ${profileName} out of use?` });
+    await dialog.getByRole('button', { name: 'Take out of use' }).click();
+    await dialog.getByText(/^Say why/).waitFor();
+    await dialog.getByLabel('Reason').fill(outOfUseReason);
+    await dialog.getByRole('button', { name: 'Take out of use' }).click();
+    await dialog.waitFor({ state: 'detached' });
+    await page.getByTestId('out-of-use').filter({ hasText: outOfUseReason }).waitFor();
+    await page
+      .getByTestId('profile-status')
+      .filter({ hasText: 'No version is approved, so no job can use this machine.' })
+      .waitFor();
+    expect(await page.getByRole('button', { name: 'Take out of use' }).count()).toBe(0);
+    await shot('machine-profile-out-of-use');
+  });
+
   it('shows the supervisor all of it in the audit trail', async () => {
     await signInToHome(page, demoUser('supervisor').email, DEMO_PASSWORD);
     await nav('Audit trail').click();
@@ -286,6 +305,7 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
 
     await page.getByRole('searchbox', { name: 'Action starts with' }).fill('machine-profile-version.');
     await rows.filter({ hasText: sendBackReason }).first().waitFor();
+    await rows.filter({ hasText: outOfUseReason }).first().waitFor();
     for (const action of ['approve', 'return', 'submit', 'update', 'create', 'retire']) {
       await table.locator(`[data-action="machine-profile-version.${action}"]`).first().waitFor();
     }

@@ -103,7 +103,7 @@ describe('machine profile page', () => {
     await user.type(within(dialog).getByLabelText('Reason'), '  Laser tube cracked ');
     await user.click(within(dialog).getByRole('button', { name: 'Take out of use' }));
     const out = await screen.findByTestId('out-of-use');
-    expect(out).toHaveTextContent('Version 1 was taken out of use: Laser tube cracked.');
+    expect(out).toHaveTextContent('Version 1 was taken out of use: “Laser tube cracked”.');
     const post = calls.find((c) => c.method === 'POST')!;
     expect(post.body).toEqual({ lockVersion: approved.lockVersion, reason: 'Laser tube cracked' });
     expect(screen.getByTestId('profile-status')).toHaveTextContent('No version is approved, so no job');

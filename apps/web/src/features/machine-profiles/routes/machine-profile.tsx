@@ -152,7 +152,7 @@ export function MachineProfileRoute() {
       {outOfUse?.retireReason ? (
         <Alert severity="error" sx={{ mb: 2 }} data-testid="out-of-use">
           <AlertTitle>Out of use since {formatDateTime(outOfUse.retiredAt as string)}</AlertTitle>
-          Version {outOfUse.number} was taken out of use: {outOfUse.retireReason}. A newer version must be
+          Version {outOfUse.number} was taken out of use: “{outOfUse.retireReason}”. A newer version must be
           approved before jobs can use this machine again.
         </Alert>
       ) : null}
