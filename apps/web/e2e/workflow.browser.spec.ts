@@ -271,7 +271,16 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
       .getByRole('button', { name: /^Prepare/ })
       .click();
     const dialog = page.getByRole('dialog', { name: 'Prepare the job' });
+    // A first preparation starts from the design's stock: the studio drew it for one material's sheet at that
+    // material's measured thickness, so that material comes chosen, and said so.
+    const fromDesign = dialog.getByTestId('prepare-from-design');
+    await fromDesign.waitFor();
+    expect(await fromDesign.textContent()).toMatch(
+      /^Chosen from the design’s stock: .+ 3 mm, 600 × 400 mm sheets/,
+    );
+    expect(await dialog.getByLabel('Material').inputValue()).not.toBe('');
     // Nothing chosen: the form says what is missing.
+    await dialog.getByLabel('Material').selectOption({ label: 'Choose…' });
     await dialog.getByRole('button', { name: 'Prepare' }).click();
     await dialog.getByText('Choose a material').waitFor();
     await dialog.getByLabel('Material').selectOption({ label: 'Cast acrylic 3 mm' });

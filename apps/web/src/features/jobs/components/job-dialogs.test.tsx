@@ -647,7 +647,12 @@ describe('prepare job dialog', () => {
         json(200, {
           id: 'd-1',
           name: 'Cube lamp',
-          spec: { colours: { count: 3, rule: 'neighbour-distinct' } },
+          // Drawn for 6 mm stock, which no material here keeps: the dialog starts with nothing chosen.
+          spec: {
+            stock: { thicknessMm: 6, sheet: { widthMm: 600, heightMm: 400 } },
+            machine: { kind: 'laser', kerfMm: 0.2 },
+            colours: { count: 3, rule: 'neighbour-distinct' },
+          },
         }),
     });
     const onSubmit = vi.fn();
@@ -668,5 +673,150 @@ describe('prepare job dialog', () => {
     );
     await user.click(screen.getByLabelText('teal'));
     expect(screen.queryByTestId('prepare-colour-warning')).not.toBeInTheDocument();
+  });
+
+  describe("a first preparation starts from the design's stock", () => {
+    const plywood6 = materialFixture({
+      id: 'm-ply6',
+      name: 'Birch plywood 6 mm',
+      family: 'plywood',
+      nominalThicknessMm: 6,
+      colours: ['natural'],
+    });
+    const router = {
+      ...laser,
+      id: 'p-router',
+      name: 'Bay router',
+      kind: 'cnc-router',
+      currentApproved: { ...laser.currentApproved, id: 'v-router', number: 1 },
+    } as unknown as MachineProfileSummaryView;
+    function stubDesign(spec: object, materials: MaterialView[], profiles: MachineProfileSummaryView[]) {
+      stubFetch({
+        'GET /api/materials': () =>
+          json(200, { items: materials, total: materials.length, page: 1, pageSize: 100 }),
+        'GET /api/machine-profiles': () =>
+          json(200, { items: profiles, total: profiles.length, page: 1, pageSize: 100 }),
+        'GET /api/designs/d-1': () => json(200, { id: 'd-1', name: 'Star lamp', spec }),
+      });
+    }
+
+    it('chooses the one material that keeps its sheet (either way round) and thickness, its machine and rule', async () => {
+      stubDesign(
+        {
+          stock: { thicknessMm: 3, sheet: { widthMm: 600, heightMm: 1000 } },
+          machine: { kind: 'laser', kerfMm: 0.18 },
+          colours: { count: 2, rule: 'vertex-distinct' },
+        },
+        [plywood6, acrylic],
+        [laser, router, draftOnly],
+      );
+      const onSubmit = vi.fn();
+      const { user } = renderWithProviders(
+        <PrepareJobDialog
+          open
+          designId="d-1"
+          jobColours={['amber', 'Clear']}
+          busy={false}
+          error={null}
+          onSubmit={onSubmit}
+          onClose={noop}
+        />,
+      );
+      await waitFor(() =>
+        expect(screen.getByLabelText('Machine profile (approved version)')).toHaveValue('v-approved'),
+      );
+      expect(screen.getByLabelText('Material')).toHaveValue('m-acrylic');
+      expect(screen.getByLabelText('Sheet')).toHaveValue('1');
+      expect(screen.getByLabelText('Colour rule')).toHaveValue('vertex-distinct');
+      expect(screen.getByTestId('prepare-from-design')).toHaveTextContent(
+        'Chosen from the design’s stock: Cast acrylic 3 mm, 1000 × 600 mm sheets, on CO2 laser. Check them before preparing.',
+      );
+      await user.click(screen.getByRole('button', { name: 'Prepare' }));
+      await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+      expect(onSubmit.mock.calls[0]?.[0]).toEqual({
+        materialId: 'm-acrylic',
+        profileVersionId: 'v-approved',
+        colours: ['clear', 'amber'],
+        colourRule: 'vertex-distinct',
+        sheet: { widthMm: 1000, heightMm: 600 },
+      });
+    });
+
+    it('leaves the machine to choose when none of the design’s kind is approved for the material', async () => {
+      stubDesign(
+        {
+          stock: { thicknessMm: 6, sheet: { widthMm: 400, heightMm: 600 } },
+          machine: { kind: 'router', toolDiameterMm: 3.175 },
+        },
+        [plywood6, acrylic],
+        // The laser holds settings for the plywood too, but the design was drawn for a router bit.
+        [
+          {
+            ...laser,
+            currentApproved: {
+              ...laser.currentApproved,
+              settings: [
+                ...laser.currentApproved!.settings,
+                { ...laser.currentApproved!.settings[0], materialId: 'm-ply6' },
+              ],
+            },
+          } as MachineProfileSummaryView,
+        ],
+      );
+      renderWithProviders(
+        <PrepareJobDialog open designId="d-1" busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+      );
+      expect(await screen.findByTestId('prepare-from-design')).toHaveTextContent(
+        'Chosen from the design’s stock: Birch plywood 6 mm, 600 × 400 mm sheets. Check them before preparing.',
+      );
+      expect(screen.getByLabelText('Material')).toHaveValue('m-ply6');
+      expect(screen.getByLabelText('Machine profile (approved version)')).toHaveValue('');
+    });
+
+    it('chooses nothing when two materials keep the stock and the colours asked do not tell them apart', async () => {
+      const clearOnly = materialFixture({
+        id: 'm-acrylic-b',
+        name: 'Extruded acrylic 3 mm',
+        colours: ['clear'],
+      });
+      stubDesign(
+        {
+          stock: { thicknessMm: 3, sheet: { widthMm: 600, heightMm: 400 } },
+          machine: { kind: 'laser', kerfMm: 0.18 },
+          colours: { count: 1, rule: 'opposite-match' },
+        },
+        [acrylic, clearOnly],
+        [laser],
+      );
+      const { unmount } = renderWithProviders(
+        <PrepareJobDialog
+          open
+          designId="d-1"
+          jobColours={['clear']}
+          busy={false}
+          error={null}
+          onSubmit={vi.fn()}
+          onClose={noop}
+        />,
+      );
+      await waitFor(() => expect(screen.getByLabelText('Colour rule')).toHaveValue('opposite-match'));
+      expect(screen.getByLabelText('Material')).toHaveValue('');
+      expect(screen.queryByTestId('prepare-from-design')).not.toBeInTheDocument();
+      unmount();
+
+      // Amber is stocked by one of them only: that one.
+      renderWithProviders(
+        <PrepareJobDialog
+          open
+          designId="d-1"
+          jobColours={['amber']}
+          busy={false}
+          error={null}
+          onSubmit={vi.fn()}
+          onClose={noop}
+        />,
+      );
+      await waitFor(() => expect(screen.getByLabelText('Material')).toHaveValue('m-acrylic'));
+    });
   });
 });

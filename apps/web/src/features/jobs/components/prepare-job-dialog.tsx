@@ -16,7 +16,7 @@ import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
 import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterials } from '../api/get-materials';
 import { type PrepareJobValues, prepareJobSchema } from './job-action-schemas';
-import { explainMaterialAndMachine, profilesFor } from './prepare-job-explanation';
+import { explainMaterialAndMachine, profilesFor, stockOfDesign } from './prepare-job-explanation';
 import { kindLabel } from '../../../config/trade-labels';
 import { errorMessage } from '../../../lib/api-client';
 import { countOf } from '../../../lib/plural';
@@ -207,6 +207,34 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     }
     setNotOffered(notes);
   }, [prefilled, before, materials.data, profiles.data, props.jobColours, props.unit, setValue]);
+  // A first preparation starts from the design: the colour rule it was drawn with, and the stock and machine
+  // it names when exactly one material (and one approved profile of its kind) fits.
+  const [fromDesign, setFromDesign] = useState<string | null>(null);
+  const designSpec = design.data?.spec;
+  useEffect(() => {
+    if (prefilled || before || !designSpec || !materials.data || !profiles.data) return;
+    setPrefilled(true);
+    if (designSpec.colours?.rule) setValue('colourRule', designSpec.colours.rule);
+    const found = stockOfDesign(
+      designSpec,
+      materials.data.items,
+      profiles.data.items,
+      props.jobColours ?? [],
+    );
+    if (!found) return;
+    const { material: m, sheetIndex, profile } = found;
+    setValue('materialId', m.id);
+    setValue('colours', stockedColours(m, props.jobColours ?? []));
+    setValue('sheetIndex', String(sheetIndex));
+    if (profile?.currentApproved) setPendingProfile(profile.currentApproved.id);
+    const sheet = m.stockSheets[sheetIndex];
+    setFromDesign(
+      `Chosen from the design’s stock: ${m.name}` +
+        (sheet ? `, ${formatSheetSize(sheet, props.unit ?? 'mm')} sheets` : '') +
+        (profile ? `, on ${profile.name}` : '') +
+        '. Check them before preparing.',
+    );
+  }, [prefilled, before, designSpec, materials.data, profiles.data, props.jobColours, props.unit, setValue]);
   const offeredNow =
     pendingProfile && approved.some((p) => p.currentApproved?.id === pendingProfile) ? pendingProfile : null;
   useEffect(() => {
@@ -258,6 +286,11 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
           }
         >
           {`The ${failed.map((l) => l.name).join(' and ')} could not be loaded. ${failedMessages.join(' ')}`}
+        </Alert>
+      ) : null}
+      {fromDesign ? (
+        <Alert severity="info" sx={{ mb: 1 }} data-testid="prepare-from-design">
+          {fromDesign}
         </Alert>
       ) : null}
       {notOffered.length > 0 ? (

@@ -1,4 +1,10 @@
-import { isLaserKind, type MachineProfileSummaryView, type MaterialView } from '@kerfwright/contracts';
+import {
+  type DesignSpecInput,
+  geometryMachineKind,
+  isLaserKind,
+  type MachineProfileSummaryView,
+  type MaterialView,
+} from '@kerfwright/contracts';
 
 export interface PrepareExplanation {
   severity: 'error' | 'warning';
@@ -105,4 +111,49 @@ export function explainMaterialAndMachine({
     };
   }
   return null;
+}
+
+/** Lengths the same within 0.003 mm (the studio's test for stock: see stock-sheet-picker's sameLength). */
+const sameLength = (a: number, b: number) => Math.abs(a - b) < 0.003;
+
+/**
+ * What a job's first preparation starts from, read off its design: the material that keeps the design's sheet
+ * (either way round) at the thickness its slots were drawn for, usable on the design's kind of machine (among
+ * several, the one that stocks every colour the job asks for); that sheet's place in its stock list; and the
+ * approved profile of the design's kind that holds settings for it, when there is exactly one. Null when no
+ * single material fits: the fabricator chooses.
+ */
+export function stockOfDesign(
+  spec: Pick<DesignSpecInput, 'stock' | 'machine'>,
+  materials: readonly MaterialView[],
+  profiles: readonly MachineProfileSummaryView[],
+  jobColours: readonly string[],
+): { material: MaterialView; sheetIndex: number; profile: MachineProfileSummaryView | null } | null {
+  const sheet = spec.stock.sheet;
+  const sheetIndexOf = (m: MaterialView) =>
+    sheet
+      ? m.stockSheets.findIndex(
+          (s) =>
+            (sameLength(s.widthMm, sheet.widthMm) && sameLength(s.heightMm, sheet.heightMm)) ||
+            (sameLength(s.widthMm, sheet.heightMm) && sameLength(s.heightMm, sheet.widthMm)),
+        )
+      : 0;
+  const fits = materials.filter(
+    (m) =>
+      (spec.machine.kind !== 'laser' || m.laserAllowed) &&
+      [m.nominalThicknessMm, m.measuredThicknessMm].some(
+        (t) => t != null && sameLength(t, spec.stock.thicknessMm),
+      ) &&
+      m.stockSheets.length > 0 &&
+      sheetIndexOf(m) >= 0,
+  );
+  const stocksAll = (m: MaterialView) =>
+    jobColours.every((c) => m.colours.some((k) => k.trim().toLowerCase() === c.trim().toLowerCase()));
+  const material =
+    fits.length === 1 ? fits[0] : fits.filter(stocksAll).length === 1 ? fits.find(stocksAll) : null;
+  if (!material) return null;
+  const ofKind = profilesFor(profiles, material).filter(
+    (p) => geometryMachineKind(p.kind) === spec.machine.kind,
+  );
+  return { material, sheetIndex: sheetIndexOf(material), profile: ofKind.length === 1 ? ofKind[0]! : null };
 }

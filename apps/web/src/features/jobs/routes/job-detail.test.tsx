@@ -467,6 +467,12 @@ describe('job detail', () => {
     expect(stub.calls.some((c) => c.url.pathname.endsWith('/exports'))).toBe(false);
   });
 
+  /** The stock and machine of a design no material in these tests keeps (a first preparation chooses nothing). */
+  const sixMillimetreDesign = {
+    stock: { thicknessMm: 6, sheet: { widthMm: 600, heightMm: 400 } },
+    machine: { kind: 'laser', kerfMm: 0.2 },
+  };
+
   it("holds the colours of stock chosen in the Prepare dialog against the job's design", async () => {
     const material = {
       id: 'm-acrylic',
@@ -481,7 +487,11 @@ describe('job detail', () => {
       'GET /api/materials': () => json(200, { items: [material], total: 1, page: 1, pageSize: 100 }),
       'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
       'GET /api/designs/d-1': () =>
-        json(200, { id: 'd-1', spec: { colours: { count: 3, rule: 'neighbour-distinct' } } }),
+        json(200, {
+          id: 'd-1',
+          // Drawn for 6 mm stock, which the material here is not: the dialog starts with nothing chosen.
+          spec: { ...sixMillimetreDesign, colours: { count: 3, rule: 'neighbour-distinct' } },
+        }),
     });
     const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
     const actions = await screen.findByTestId('job-actions');
@@ -509,7 +519,7 @@ describe('job detail', () => {
       [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, colours: ['teal', 'amber'] }),
       'GET /api/materials': () => json(200, { items: [material], total: 1, page: 1, pageSize: 100 }),
       'GET /api/machine-profiles': () => json(200, { items: [], total: 0, page: 1, pageSize: 100 }),
-      'GET /api/designs/d-1': () => json(200, { id: 'd-1', spec: {} }),
+      'GET /api/designs/d-1': () => json(200, { id: 'd-1', spec: sixMillimetreDesign }),
     });
     const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
     const actions = await screen.findByTestId('job-actions');
