@@ -331,12 +331,14 @@ describe('machine profiles, versions and kerf records', () => {
       );
       designs.push({ id: rows[0]!.id, name });
     }
+    const jobIds: string[] = [];
     for (const [i, state] of (['released', 'approved', 'closed'] as const).entries()) {
-      await ctx.db.query(
+      const rows: { id: string }[] = await ctx.db.query(
         `INSERT INTO jobs (design_id, requester_id, state, spec, material_id, profile_version_id)
-         VALUES ($1, $2, $3, $4, $5, $6)`,
+         VALUES ($1, $2, $3, $4, $5, $6) RETURNING id`,
         [designs[i]!.id, users.hobbyist.id, state, spec, plywood, v.id],
       );
+      jobIds.push(rows[0]!.id);
     }
 
     // A reason says why (3 characters at least once trimmed, as a job's return reason); only supervisors retire.
@@ -367,6 +369,12 @@ describe('machine profiles, versions and kerf records', () => {
     expect(mail.text).toContain(`Released with these settings, not yet cut: "${designs[0]!.name}"`);
     expect(mail.text).toContain(`Prepared or approved with these settings: "${designs[1]!.name}"`);
     expect(mail.text).not.toContain(designs[2]!.name);
+    // The released job says why its version was retired, for the release desk to show.
+    const job = await ctx.http.get(`/api/jobs/${jobIds[0]}`).set(auth('operator')).expect(200);
+    expect(job.body).toMatchObject({
+      profileVersionRetired: true,
+      profileRetireReason: 'Laser tube cracked; do not run until it is replaced',
+    });
 
     // Retiring a version that was never in use (a draft given up) tells nobody.
     const { p: q } = await submitted();

@@ -210,6 +210,8 @@ export interface JobView {
   profileVersionNumber: number | null;
   /** True when the job's profile version is no longer the approved one (retired since preparation). */
   profileVersionRetired?: boolean;
+  /** Why a supervisor took that version out of use, when they did (null when a newer approval retired it). */
+  profileRetireReason?: string | null;
   /** True when the caller prepared the job (so may not approve it: four eyes). */
   preparedByCaller?: boolean;
   returnReason: string | null;

@@ -85,6 +85,7 @@ const ROW_SELECT = `${LIST_COLUMNS.filter((c) => !c.endsWith('_at'))
        ${isoTimestamp('page.created_at')} AS created_at, ${isoTimestamp('page.updated_at')} AS updated_at,
        d.name AS design_name, r.display_name AS requester_name,
        m.name AS material_name, p.name AS profile_name, v.number AS profile_number, v.state AS profile_state,
+       v.retire_reason AS profile_retire_reason,
        CASE WHEN page.state = 'prepared' THEN
          (SELECT t.actor_id FROM job_transitions t
            WHERE t.job_id = page.id AND t.action = 'prepare' ORDER BY t.id DESC LIMIT 1)
@@ -125,6 +126,7 @@ type JobListRow = {
   profile_name: string | null;
   profile_number: number | null;
   profile_state: string | null;
+  profile_retire_reason: string | null;
   preparer_id: string | null;
 };
 
@@ -147,6 +149,7 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     profileName: r.profile_name,
     profileVersionNumber: r.profile_number === null ? null : Number(r.profile_number),
     profileVersionRetired: r.profile_state !== null && r.profile_state !== 'approved',
+    profileRetireReason: r.profile_retire_reason,
     preparedByCaller: r.preparer_id === user.id,
     returnReason: r.return_reason,
     preparation: r.preparation,

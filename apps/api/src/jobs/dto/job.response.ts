@@ -97,6 +97,14 @@ export class JobViewDto implements JobView {
   profileVersionRetired?: boolean;
   @ApiProperty({
     required: false,
+    type: String,
+    nullable: true,
+    description:
+      'Why a supervisor took the job’s profile version out of use, when they did (null when a newer approval retired it)',
+  })
+  profileRetireReason?: string | null;
+  @ApiProperty({
+    required: false,
     description: 'True when the caller prepared the job (four eyes: no approval)',
   })
   preparedByCaller?: boolean;

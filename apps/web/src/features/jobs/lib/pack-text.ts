@@ -63,20 +63,24 @@ export function retiredSinceReleaseText(job: RetiredVersionJob, role: Role): str
         'reason, and prepared again on the current one.';
   return (
     `${job.profileName ?? 'The machine profile'} version ${job.profileVersionNumber ?? '?'}, which this job was ` +
-    `released on, has been retired since. ${what}`
+    `released on, has been retired since${retiredBecause(job)}. ${what}`
   );
 }
 
+/** The supervisor's reason for taking the version out of use, as a clause (none when a newer one replaced it). */
+const retiredBecause = (job: RetiredVersionJob): string =>
+  job.profileRetireReason ? `, taken out of use: “${job.profileRetireReason}”` : '';
+
 type RetiredVersionJob = Pick<
   JobView,
-  'state' | 'profileVersionRetired' | 'profileName' | 'profileVersionNumber'
+  'state' | 'profileVersionRetired' | 'profileName' | 'profileVersionNumber' | 'profileRetireReason'
 >;
 
 function retiredVersionSentence(job: RetiredVersionJob, consequence: string): string | null {
   if (job.state !== 'approved' || !job.profileVersionRetired) return null;
   return (
     `${job.profileName ?? 'The machine profile'} version ${job.profileVersionNumber ?? '?'}, which this job was ` +
-    `prepared on, has been retired since, so ${consequence}. Return the job with a reason: ` +
+    `prepared on, has been retired since${retiredBecause(job)}, so ${consequence}. Return the job with a reason: ` +
     'once it is requested again, it is prepared on the current version.'
   );
 }

@@ -291,6 +291,31 @@ describe('release desk', () => {
     }
   });
 
+  it('tells the operator why a released job’s machine was taken out of use', async () => {
+    stubDesk(
+      true,
+      {},
+      {
+        'GET /api/auth/me': () => json(200, userFixture('operator')),
+        [`GET /api/jobs/${released.id}`]: () =>
+          json(200, {
+            ...released,
+            profileVersionRetired: true,
+            profileRetireReason: 'Lens cracked',
+            actions: [],
+            transitions: [],
+          }),
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    expect(await within(job).findByTestId('desk-retired-since-release')).toHaveTextContent(
+      'CO2 laser version 2, which this job was released on, has been retired since, taken out of use: ' +
+        '“Lens cracked”. Check with a supervisor before cutting it',
+    );
+  });
+
   it('shows a job returned while open as returned, with its reason, and offers none of its files', async () => {
     stubDesk(
       true,
