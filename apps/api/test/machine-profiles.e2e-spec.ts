@@ -382,6 +382,38 @@ describe('machine profiles, versions and kerf records', () => {
       .body as ProfileBody;
     await act('supervisor', q, draft.latest, 'retire', { reason: 'Superseded by the bay laser' }).expect(200);
     expect(await mailsAbout(`Machine out of use: ${q.name}`)).toHaveLength(0);
+
+    // A newer version approved: the machine is back in use, and the workshop hears so once.
+    const v2 = (
+      await ctx.http
+        .post(`/api/machine-profiles/${p.id}/versions`)
+        .set(auth('fabricator'))
+        .send({ notes: 'New tube fitted and aligned' })
+        .expect(201)
+    ).body as VersionBody;
+    const s2 = (await act('fabricator', p, v2, 'submit', { lockVersion: v2.lockVersion }).expect(200))
+      .body as VersionBody;
+    await act('supervisor', p, s2, 'approve', { lockVersion: s2.lockVersion }).expect(200);
+    const back = await mailsAbout(`Machine back in use: ${p.name}`);
+    expect(back.flatMap((m) => m.to)).toEqual(
+      expect.arrayContaining([users.operator.email, users.fabricator.email]),
+    );
+    expect(back[0]!.text).toContain(
+      'which was out of use (“Laser tube cracked; do not run until it is replaced”)',
+    );
+    // Version 3 replacing version 2 is an ordinary change: nobody hears of a machine coming back.
+    const v3 = (
+      await ctx.http
+        .post(`/api/machine-profiles/${p.id}/versions`)
+        .set(auth('fabricator'))
+        .send({ notes: 'Mirror cleaned' })
+        .expect(201)
+    ).body as VersionBody;
+    const s3 = (await act('fabricator', p, v3, 'submit', { lockVersion: v3.lockVersion }).expect(200))
+      .body as VersionBody;
+    const before = back.length;
+    await act('supervisor', p, s3, 'approve', { lockVersion: s3.lockVersion }).expect(200);
+    expect(await mailsAbout(`Machine back in use: ${p.name}`)).toHaveLength(before);
   });
 
   it('keeps submitted and approved versions fixed in the database itself; drafts stay editable', async () => {

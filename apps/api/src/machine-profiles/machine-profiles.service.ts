@@ -355,6 +355,7 @@ export class MachineProfilesService {
         { state: 'approved', approvedBy: actor.id, approvedAt: new Date() },
         'machine-profile-version.approve',
       );
+      if (!previous) await this.mailBackInUse(manager, actor, profile, v);
       await this.notifySubmitter(
         manager,
         v,
@@ -424,6 +425,37 @@ export class MachineProfilesService {
       );
       if (wasApproved) await this.mailOutOfUse(manager, actor, profile, v, dto.reason ?? null);
       return saved;
+    });
+  }
+
+  /**
+   * When a version is approved for a machine a supervisor had taken out of use (its last retired version was an
+   * approved one, retired with a reason), those who were told it stopped hear that it runs again.
+   */
+  private async mailBackInUse(
+    manager: EntityManager,
+    actor: ProfileActor,
+    profile: MachineProfile,
+    v: MachineProfileVersion,
+  ): Promise<void> {
+    const last = await manager.findOne(MachineProfileVersion, {
+      where: { profileId: profile.id, state: 'retired' },
+      order: { retiredAt: 'DESC' },
+    });
+    if (!last?.retireReason || !last.approvedAt) return;
+    const mail = composeMail(
+      `Machine back in use: ${profile.name}`,
+      [
+        `${actor.displayName} has approved version ${v.number} of the machine profile "${profile.name}", which was ` +
+          `out of use (“${last.retireReason}”). Jobs can be prepared on it again.`,
+        'Jobs returned while it was out of use can be requested again.',
+      ],
+      { label: 'Open the machine profile', url: this.link(profile.id) },
+    );
+    await this.mail.enqueue(manager, {
+      kind: 'machine-profile.back-in-use',
+      to: await this.mail.addressesOfRoles(manager, ['fabricator', 'operator', 'supervisor']),
+      ...mail,
     });
   }
 
