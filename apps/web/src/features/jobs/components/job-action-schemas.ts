@@ -1,15 +1,6 @@
 import { COLOUR_RULES, measuredKerfRangeMm } from '@kerfwright/contracts';
 import { z } from 'zod';
 
-export const returnJobSchema = z.object({
-  reason: z
-    .string()
-    .trim()
-    .min(3, 'Say why the job goes back (at least 3 characters)')
-    .max(2000, 'At most 2000 characters'),
-});
-export type ReturnJobValues = z.infer<typeof returnJobSchema>;
-
 /** Most sheets one cut may record (the API's RecordCutDto takes up to 1000). */
 const MAX_SHEETS_USED = 1000;
 
