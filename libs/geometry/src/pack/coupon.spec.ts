@@ -4,7 +4,7 @@ import { buildModel } from '../build';
 import { design } from '../test-support/designs';
 import { createCoupon, createCutPack } from './pack';
 import { packInputFrom } from './cli-commands';
-import { type P, disc, outsideArea, readDxf, readSvg, scaleBars } from './read-back.test';
+import { type P, disc, outsideArea, polyArea, readDxf, readSvg, scaleBars } from './read-back.test';
 
 /** Rhombic triacontahedron planes with triangles: 30 pieces crossing at 36° and 60° (our own design). */
 const triacontaTriangles = (extra: Partial<DesignSpec> = {}): DesignSpec =>
@@ -116,6 +116,40 @@ describe('fit-test coupon', () => {
     const nearBottom = gapsAt(c, top - depth + 0.3).slice(0, 7);
     expect(nearBottom).toHaveLength(7);
     nearBottom.forEach((w, k) => expect(w).toBeGreaterThan(measured[k]! + 0.05));
+  });
+
+  it('keeps a router coupon as a sheet keeps its pieces: strips a bit diameter and 1 mm apart, off the edges and the scale mark', async () => {
+    // A 10 mm bit in 12 mm stock (cube planes cross at 90°: w = 12 + 0.2 = 12.2 mm, every graded slot wider than
+    // the bit). The files carry the nominal outline and the bit runs outside it, removing a band one diameter wide
+    // (derived): the layout's rule (libs/geometry README, "Stock sheet") keeps neighbours a diameter and 1 mm apart
+    // and a diameter from the stock's edges. Strips 6 mm apart would have each strip's cut run 4 mm into the other.
+    const toolMm = 10;
+    const { r } = await routerCoupon(12, toolMm, 0.2);
+    const d = readDxf(r.files[0]!.data);
+    const svg = readSvg(r.files[1]!.data);
+    const [lower, upper] = [...d.cut].sort(
+      (a, b) => Math.min(...a.map((p) => p[1])) - Math.min(...b.map((p) => p[1])),
+    ) as [P[], P[]];
+    const ys = (c: P[]) => c.map((p) => p[1]);
+    const xs = (c: P[]) => c.map((p) => p[0]);
+    // The strips are rectangles notched from their top and bottom edges: their gap is the space between them.
+    expect(Math.min(...ys(upper)) - Math.max(...ys(lower))).toBeGreaterThanOrEqual(toolMm + 1 - 1e-9);
+    // Coupon sheet edges (the SVG page, mm; nothing lies off the sheet): one bit diameter at least.
+    for (const c of [lower, upper]) {
+      expect(Math.min(...xs(c))).toBeGreaterThanOrEqual(toolMm - 1e-9);
+      expect(Math.min(...ys(c))).toBeGreaterThanOrEqual(toolMm - 1e-9);
+      expect(svg.width - Math.max(...xs(c))).toBeGreaterThanOrEqual(toolMm - 1e-9);
+      expect(svg.height - Math.max(...ys(c))).toBeGreaterThanOrEqual(toolMm - 1e-9);
+    }
+    // The scale mark (bar, ticks and label) stays out of the band the bit removes round each strip: its ink is
+    // more than a diameter from every strip (polygon-clipping: a disc of that radius round each point misses them).
+    const strips = [lower, upper];
+    const markPoints = d.mark.flat().filter((p) => !strips.some((c) => outsideArea(disc(p, 0.01), c) < 1e-9));
+    expect(markPoints.length).toBeGreaterThan(0);
+    for (const p of markPoints)
+      for (const c of strips)
+        expect(outsideArea(disc(p, toolMm), c)).toBeCloseTo(polyArea(disc(p, toolMm)), 6);
+    expect((r.manifest.warnings ?? []).filter((w) => w.includes('scale mark'))).toEqual([]);
   });
 
   it('leaves out graded slots narrower than the router bit, and says which', async () => {

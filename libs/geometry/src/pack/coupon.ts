@@ -14,7 +14,15 @@ import { MIN_DRAWN_SLOT_MM, type Slot, nominalSlotWidth, slotCuttable, slotRecta
 import { compensateKerf, notchOutline } from '../compensation/compensate';
 import { labelPiece } from '../labels';
 import { type EstimateMachine } from '../estimate';
-import { type SheetDrawing, type SheetPart, type Units, drawSheet, placePoint } from './sheet-drawing';
+import {
+  SCALE_BOX_HEIGHT_MM,
+  type SheetDrawing,
+  type SheetPart,
+  type Units,
+  drawSheet,
+  placePoint,
+} from './sheet-drawing';
+import { cutterClearanceMm, cutterMarginMm } from '../layout/plan-layout';
 import { lengthText } from '../math/length-text';
 
 export interface CouponOptions {
@@ -158,17 +166,31 @@ export function buildCoupon(
   const c1 = strip('C1', steep, wSteep, wShallow);
   const c2 = strip('C2', shallow, wShallow, wSteep);
   const sheetMargin = 5;
-  const gap = 6;
-  const scaleBand = 16;
-  const widthMm =
-    Math.max(c1.lengthMm, c2.lengthMm, units === 'in' ? 2 * 25.4 + 2 : 52) + 2 * sheetMargin + 2;
-  const heightMm = 2 * height + gap + 2 * sheetMargin + scaleBand + 4;
+  // Spaced as a sheet's pieces are (layout/plan-layout): a router's files carry the nominal outline and its bit
+  // runs outside it, so the strips keep a bit diameter and 1 mm apart, a bit diameter from the coupon's edges,
+  // and the scale mark as far from them as the pieces of a sheet keep from each other. A beam needs less than
+  // the 6 mm (gap) and 2 mm (scale mark) a laser coupon keeps.
+  const clearMm = Math.max(2, cutterClearanceMm(spec.machine));
+  const gap = Math.max(6, clearMm);
+  const inset = Math.max(sheetMargin + 1, cutterMarginMm(spec.machine));
+  // The scale mark sits in a band below the strips: from max(margin, clearance) up, then clear of C1.
+  // (1 mm to spare: the mark's places are tried on a 5 mm grid and a box exactly at the clearance counts as touching).
+  const stripBottom = Math.max(
+    sheetMargin + 19,
+    Math.max(sheetMargin, clearMm) + SCALE_BOX_HEIGHT_MM + clearMm + 1,
+  );
+  const shortestMarkMm = units === 'in' ? 2 * 25.4 + 2 : 52;
+  const widthMm = Math.max(
+    Math.max(c1.lengthMm, c2.lengthMm) + 2 * inset,
+    shortestMarkMm + 2 * Math.max(sheetMargin, clearMm) + 2,
+  );
+  const heightMm = stripBottom + 2 * height + gap + inset;
   const parts: SheetPart[] = [c1, c2].map((s, i) => {
-    const dy = sheetMargin + scaleBand + 2 + i * (height + gap) + 1;
+    const dy = stripBottom + i * (height + gap);
     return {
       id: s.id,
-      outline: s.outline.map((p) => placePoint(p, 0, sheetMargin + 1, dy)),
-      marks: s.marks.map((m) => m.map((p) => placePoint(p, 0, sheetMargin + 1, dy))),
+      outline: s.outline.map((p) => placePoint(p, 0, inset, dy)),
+      marks: s.marks.map((m) => m.map((p) => placePoint(p, 0, inset, dy))),
     };
   });
   const drawing = drawSheet({
@@ -177,7 +199,7 @@ export function buildCoupon(
     colourName: '',
     sheet: { widthMm, heightMm },
     marginMm: sheetMargin,
-    clearMm: 2,
+    clearMm,
     parts,
     units,
     machine,

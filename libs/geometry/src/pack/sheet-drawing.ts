@@ -90,7 +90,8 @@ export function scaleMarkStrokes(mark: Pick<ScaleMark, 'from' | 'lengthMm' | 'la
 
 const SCALE_TICK_MM = 4;
 const SCALE_TEXT_MM = 3.5;
-const SCALE_BOX_HEIGHT_MM = SCALE_TICK_MM + 1.5 + SCALE_TEXT_MM + 0.5;
+/** Height of the scale mark's box (ticks, gap, label), mm. */
+export const SCALE_BOX_HEIGHT_MM = SCALE_TICK_MM + 1.5 + SCALE_TEXT_MM + 0.5;
 
 /** Scale lengths tried, longest first, in the file's units. */
 const SCALE_LENGTHS: Record<Units, number[]> = { mm: [100, 50, 20, 10], in: [4, 2, 1, 0.5] };
