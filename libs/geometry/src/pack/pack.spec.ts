@@ -5,7 +5,8 @@ import { buildModel } from '../build';
 import { toolPathLength } from '../estimate';
 import { design, octahedronHexagons } from '../test-support/designs';
 import { CutPackError, archiveName, createCutPack, sheetOverBedNote } from './pack';
-import { placeScaleMark } from './sheet-drawing';
+import { drawSheet, placeScaleMark } from './sheet-drawing';
+import { sheetToDxf } from './sheet-files';
 import { packInputFrom, runPackCommand } from './cli-commands';
 import { SAFETY_DEFERRAL } from './documents';
 import {
@@ -574,6 +575,61 @@ describe('createCutPack failures and the command-line helper', () => {
     );
     expect(free.onPiece).toBeUndefined();
     expect(free.from[0]).toBeGreaterThan(200);
+  });
+
+  it('keeps the whole scale mark, label included, clear of the cuts when only a short bar fits', () => {
+    // Two 20 mm-wide pieces fill a 60 × 40 sheet's sides, leaving a pocket too narrow for the 20 mm (1 in) bar.
+    // "10 MM" and "0.5 IN" in the 3.5 mm stroke font are wider than their bars (15.7 and 14.5 mm against 10 and
+    // 12.7): every stroke of the mark, read back from the DXF with dxf-parser, must still lie clear of every cut
+    // line by the clearance, or inside one piece as far from its edges (polygon-clipping: a disc of that radius
+    // round each point lies wholly inside or wholly outside each piece, and on the sheet).
+    const clearMm = 2;
+    const machine = {
+      cutSpeedMmS: 10,
+      markSpeedMmS: 100,
+      pierceTimeS: 0.5,
+      rapidSpeedMmS: 200,
+      hourlyRate: 0,
+    };
+    for (const [units, pocketMm] of [
+      ['mm', 15],
+      ['in', 18],
+    ] as const) {
+      const rect = (x0: number, x1: number): [number, number][] => [
+        [x0, 0],
+        [x1, 0],
+        [x1, 40],
+        [x0, 40],
+      ];
+      const parts = [
+        { id: 'P1', outline: rect(0, 20), marks: [] },
+        { id: 'P2', outline: rect(20 + pocketMm, 60), marks: [] },
+      ];
+      const sheet = drawSheet({
+        name: 'sheet-01',
+        title: 'pocket',
+        colourName: '',
+        sheet: { widthMm: 60, heightMm: 40 },
+        marginMm: 0,
+        clearMm,
+        parts,
+        units,
+        machine,
+      });
+      const k = units === 'in' ? 25.4 : 1;
+      const d = readDxf(new TextEncoder().encode(sheetToDxf(sheet, units)));
+      const points = d.mark.flat().map((p) => [p[0] * k, p[1] * k] as P);
+      expect(points.length).toBeGreaterThan(0);
+      for (const p of points) {
+        const c = disc(p, clearMm - 1e-3);
+        expect(outsideArea(c, rect(0, 60))).toBeLessThan(1e-9);
+        for (const part of parts) {
+          const inside = outsideArea(c, part.outline) < 1e-9;
+          const outside = overlapArea(c, part.outline) < 1e-9;
+          expect(inside || outside).toBe(true);
+        }
+      }
+    }
   });
 
   it('keeps the scale mark off the stock edge on a sheet with no margin', () => {

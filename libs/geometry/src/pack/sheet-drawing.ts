@@ -115,12 +115,27 @@ export function placeScaleMark(
     return [Math.min(...xs), Math.min(...ys), Math.max(...xs), Math.max(...ys)] as const;
   };
   const boxes = parts.map((p) => bounds(p.outline));
+  const labelOf = (length: number) => (units === 'in' ? `${length} IN` : `${length} MM`);
+  const mmOf = (length: number) => (units === 'in' ? length * MM_PER_INCH : length);
+  /**
+   * The mark's box width: the bar or its label, whichever is wider ("10 MM" is wider than its bar), and 1 mm to
+   * spare; scaleMarkStrokes centres both on the bar, so the bar is centred in the box.
+   */
+  const boxWidth = (length: number) => {
+    const b = strokeBounds(strokeText(labelOf(length), SCALE_TEXT_MM));
+    return Math.max(mmOf(length), b.x1 - b.x0) + 1;
+  };
+  /** The bar's left end for a box with its lower-left corner at (x, y). */
+  const barAt = (length: number, x: number, y: number): Vec2 => [
+    x + (boxWidth(length) - mmOf(length)) / 2,
+    y,
+  ];
   const mark = (length: number, from: Vec2, extra: Partial<ScaleMark> = {}): ScaleMark => {
-    const lengthMm = units === 'in' ? length * MM_PER_INCH : length;
+    const lengthMm = mmOf(length);
     return {
       length,
       lengthMm,
-      label: units === 'in' ? `${length} IN` : `${length} MM`,
+      label: labelOf(length),
       from,
       to: [from[0] + lengthMm, from[1]],
       offSheet: false,
@@ -138,7 +153,7 @@ export function placeScaleMark(
   const step = 5;
   const inset = Math.max(marginMm, clearMm);
   for (const length of SCALE_LENGTHS[units]) {
-    const w = (units === 'in' ? length * MM_PER_INCH : length) + 1;
+    const w = boxWidth(length);
     for (let y = inset; y + h <= sheet.heightMm - inset + 1e-9; y += step) {
       for (let x = inset; x + w <= sheet.widthMm - inset + 1e-9; x += step) {
         const box = boxAt(x, y, w);
@@ -149,7 +164,7 @@ export function placeScaleMark(
           }
           return boxClearOf(p.outline, box, clearMm);
         });
-        if (clear) return mark(length, [x + 0.5, y]);
+        if (clear) return mark(length, barAt(length, x, y));
       }
     }
   }
@@ -158,7 +173,7 @@ export function placeScaleMark(
   const order = parts.map((_, i) => i).sort((a, b) => area(boxes[b]!) - area(boxes[a]!));
   const fine = 2.5;
   for (const length of SCALE_LENGTHS[units]) {
-    const w = (units === 'in' ? length * MM_PER_INCH : length) + 1;
+    const w = boxWidth(length);
     for (const i of order) {
       const [x0, y0, x1, y1] = boxes[i]!;
       for (let y = y0; y + h <= y1 + 1e-9; y += fine)
@@ -167,7 +182,7 @@ export function placeScaleMark(
           const hitsLabel = strokeBoxes.some(
             (b) => b[0] < x + w + 1 && b[2] > x - 1 && b[1] < y + h + 1 && b[3] > y - 1,
           );
-          if (!hitsLabel) return mark(length, [x + 0.5, y], { onPiece: parts[i]!.id ?? `#${i + 1}` });
+          if (!hitsLabel) return mark(length, barAt(length, x, y), { onPiece: parts[i]!.id ?? `#${i + 1}` });
         }
     }
   }
