@@ -25,7 +25,7 @@
  * the machine's speed.
  */
 import { innerFit, type PlacedItem, type SheetFrame } from './bottom-left';
-import { clearOfItems, strictlyInside, type GeometryCache, type Variant } from './variants';
+import { clearOfItems, strictlyInside, type GeometryCache, type NfpEntry, type Variant } from './variants';
 import { M, INF } from '../math/hot-globals';
 
 interface Piece {
@@ -124,6 +124,11 @@ function overlapSearch(
     return list;
   });
   const indexOf = new Map(vs.map((v, i) => [v.key, i]));
+  // The no-fit polygon of every ordered pair of usable variants, looked up by index: a search evaluates a pair
+  // hundreds of thousands of times, and the cache's string keys and recency bookkeeping took a seventh of a
+  // fit-to-sheets search. The entries are the cache's own, so the search sees the very same polygons.
+  const nfps: (NfpEntry | undefined)[] = new Array<NfpEntry | undefined>(vs.length * vs.length);
+  const nfpOf = (a: number, b: number): NfpEntry => (nfps[a * vs.length + b] ??= cache.nfp(vs[a]!, vs[b]!));
   const random = generator(options.seed ?? 0x5eed);
   let work = 0;
   const workLimit = options.workLimit ?? 400_000;
@@ -139,7 +144,7 @@ function overlapSearch(
   /** Penetration of b into a's no-fit polygon: the push (on b) that clears the pair, or null when clear. */
   const push = (a: Piece, b: Piece): { dx: number; dy: number; depth: number } | null => {
     work++;
-    const e = cache.nfp(vs[a.v]!, vs[b.v]!);
+    const e = nfpOf(a.v, b.v);
     const rx = b.x - a.x;
     const ry = b.y - a.y;
     if (rx <= e.box.minX || rx >= e.box.maxX || ry <= e.box.minY || ry >= e.box.maxY) return null;

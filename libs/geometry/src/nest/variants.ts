@@ -159,7 +159,7 @@ export function distinctRotations(outline: Point[], rotationsDeg: readonly numbe
 
 export { normaliseAngle };
 
-interface NfpEntry {
+export interface NfpEntry {
   paths: IntPaths;
   box: IntBounds;
 }
