@@ -12,7 +12,7 @@ import {
 } from '../build';
 import { type ColourPlan } from '../colour';
 import { SpecValidationError, validateSpec, type ResolvedSpec } from '../spec/validate-spec';
-import { layoutModel, type ModelLayout } from './plan-layout';
+import { layoutFits, layoutModel, type LayoutOptions, type ModelLayout } from './plan-layout';
 import { lengthText } from '../math/length-text';
 
 /** fitSheets stops when the largest fitting size and the smallest failing size differ by this fraction. */
@@ -63,14 +63,18 @@ export function sheetsNeeded(input: unknown): number | null {
 }
 
 function layOut(model: BuiltModel, spec: ResolvedSpec, colourPlan?: ColourPlan): ModelLayout {
+  return layoutModel(model, layoutOptionsOf(spec, colourPlan));
+}
+
+function layoutOptionsOf(spec: ResolvedSpec, colourPlan?: ColourPlan): LayoutOptions {
   const sheet = spec.sheet as NonNullable<ResolvedSpec['sheet']>;
-  return layoutModel(model, {
+  return {
     sheet: { widthMm: sheet.widthMm, heightMm: sheet.heightMm },
     marginMm: sheet.marginMm,
     gapMm: sheet.gapMm,
     colours: { count: spec.colours?.count ?? 1, rule: spec.colours?.rule ?? 'neighbour-distinct' },
     ...(colourPlan ? { colourPlan } : {}),
-  });
+  };
 }
 
 function noteLayout(model: BuiltModel, layout: ModelLayout): void {
@@ -130,14 +134,19 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
   }
   let layouts = 0;
   let builds = 0;
+  // Each size asks only whether its layout fits (layoutFits: the same answer as laying it out and counting the
+  // sheets, with a bound that needs no layout and nestings that stop once the answer is certain); the layout
+  // itself is made once, at the size chosen. The search therefore tries the same sizes in the same order as
+  // with full layouts, and ends on the same size and layout.
+  const options = layoutOptionsOf(spec, plan);
   const evaluate = (model: BuiltModel) => {
     builds++;
-    if (model.report.errors.length > 0) return { model, layout: null, fits: false, tooSmall: true };
+    if (model.report.errors.length > 0) return { model, fits: false, tooSmall: true };
     layouts++;
-    const layout = layOut(model, spec, plan);
-    return { model, layout, fits: layout.ok && layout.totals.sheetCount <= sheets, tooSmall: false };
+    return { model, fits: layoutFits(model, options, sheets), tooSmall: false };
   };
   type Trial = ReturnType<typeof evaluate>;
+  const layoutOf = (t: Trial): ModelLayout | null => (t.tooSmall ? null : layoutModel(t.model, options));
   const at = (mmPerUnit: number) => evaluate(buildAtScale(spec, solid, mmPerUnit));
   const budgetLeft = () => layouts < FIT_SHEETS_MAX_LAYOUTS && builds < FIT_SHEETS_MAX_BUILDS;
   const apart = (a: Trial, b: Trial) => a.model.mmPerUnit / b.model.mmPerUnit - 1 > FIT_SHEETS_TOLERANCE;
@@ -178,8 +187,9 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
           : `no size tried fits ${sheetText} without errors`,
       pieces: [],
     });
-    if (hi.layout) noteLayout(model, hi.layout);
-    return { model, layout: hi.layout, resolvedSpec: resolvedSpecOf(input, model) };
+    const layout = layoutOf(hi);
+    if (layout) noteLayout(model, layout);
+    return { model, layout, resolvedSpec: resolvedSpecOf(input, model) };
   }
   const bisect = () => {
     while (lo && lo !== hi && apart(hi, lo) && budgetLeft()) {
@@ -212,6 +222,7 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
   }
   const model = lo.model;
   summary(model, layouts, true);
-  if (lo.layout) noteLayout(model, lo.layout);
-  return { model, layout: lo.layout, resolvedSpec: resolvedSpecOf(input, model) };
+  const layout = layoutOf(lo);
+  if (layout) noteLayout(model, layout);
+  return { model, layout, resolvedSpec: resolvedSpecOf(input, model) };
 }

@@ -1,7 +1,14 @@
 import type { BuiltModel } from '../build';
 import { solveColourPlan, type ColourPlan, type ColourRule } from '../colour';
 import { compensateKerf } from '../compensation/compensate';
-import { nestParts, type NestResult, type NestSheetResult, type NestTotals } from '../nest';
+import {
+  nestFits,
+  nestParts,
+  type NestInput,
+  type NestResult,
+  type NestSheetResult,
+  type NestTotals,
+} from '../nest';
 import { lengthText } from '../math/length-text';
 
 /** How a built model is laid out on stock: sheet size, margin, gap, colours and copies. Lengths in mm. */
@@ -124,6 +131,46 @@ function envelopeOf(model: BuiltModel, shape: BuiltModel['pieces'][number]['shap
  * Pieces are never laid closer than the cutter's width (cutterClearanceMm), whatever gap is asked for.
  */
 export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLayout {
+  const nest = nestingOf(model, options);
+  if ('ok' in nest) return nest;
+  const { input, colourPlan, pieceColour, gapMm, marginMm } = nest;
+  const result: NestResult = nestParts(input);
+  if (!result.ok) {
+    const tooLarge = result.error.code === 'PART_DOES_NOT_FIT';
+    return {
+      ok: false,
+      code: tooLarge ? 'LAYOUT.PIECE_TOO_LARGE' : 'LAYOUT.INVALID',
+      message: tooLarge
+        ? pieceTooLargeMessage(result.error.partIds, options.sheet, marginMm)
+        : result.error.message,
+      pieces: result.error.partIds,
+    };
+  }
+  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals, gapMm, marginMm };
+}
+
+/**
+ * Whether layoutModel(model, options) succeeds on at most maxSheets sheets: the same answer, found with
+ * less work (nestFits). For searches over the model's size that need the layout only at the size chosen.
+ */
+export function layoutFits(model: BuiltModel, options: LayoutOptions, maxSheets: number): boolean {
+  const nest = nestingOf(model, options);
+  return !('ok' in nest) && nestFits(nest.input, maxSheets);
+}
+
+/** The nesting layoutModel runs: colour plan, gap, margin and parts; or the layout's error. */
+function nestingOf(
+  model: BuiltModel,
+  options: LayoutOptions,
+):
+  | Extract<ModelLayout, { ok: false }>
+  | {
+      input: NestInput;
+      colourPlan: ColourPlan | null;
+      pieceColour: Record<string, number>;
+      gapMm: number;
+      marginMm: number;
+    } {
   const count = Math.max(1, Math.floor(options.colours.count));
   const ids = model.pieces.map((p) => p.id);
   let colourPlan: ColourPlan | null = null;
@@ -154,7 +201,7 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
   const quantity = Math.max(1, Math.floor(options.quantity ?? 1));
   const gapMm = Math.max(options.gapMm, cutterClearanceMm(model.spec.machine));
   const marginMm = Math.max(options.marginMm, cutterMarginMm(model.spec.machine));
-  const result: NestResult = nestParts({
+  const input: NestInput = {
     sheet: options.sheet,
     marginMm,
     gapMm,
@@ -167,17 +214,6 @@ export function layoutModel(model: BuiltModel, options: LayoutOptions): ModelLay
       // can then share one lattice pattern.
       envelope: envelopeOf(model, p.shape),
     })),
-  });
-  if (!result.ok) {
-    const tooLarge = result.error.code === 'PART_DOES_NOT_FIT';
-    return {
-      ok: false,
-      code: tooLarge ? 'LAYOUT.PIECE_TOO_LARGE' : 'LAYOUT.INVALID',
-      message: tooLarge
-        ? pieceTooLargeMessage(result.error.partIds, options.sheet, marginMm)
-        : result.error.message,
-      pieces: result.error.partIds,
-    };
-  }
-  return { ok: true, colourPlan, pieceColour, sheets: result.sheets, totals: result.totals, gapMm, marginMm };
+  };
+  return { input, colourPlan, pieceColour, gapMm, marginMm };
 }

@@ -1,6 +1,7 @@
 /** Public API of true-shape nesting. Lengths in mm, angles in degrees counter-clockwise. */
 export {
   nestParts,
+  nestFits,
   type NestInput,
   type NestPartInput,
   type NestPlacement,

@@ -59,6 +59,7 @@ import {
   type Point,
 } from './polygon';
 import { bestFitRatio } from '../scale/fit-ratio';
+import { sheetsLowerBound } from './sheet-bound';
 import {
   autoRotations,
   clearOfItems,
@@ -182,11 +183,15 @@ export const NEST_LIMITS = {
   copies: 100_000,
 };
 
-function fail(code: NestErrorCode, message: string, partIds: string[] = []): NestResult {
+function fail(
+  code: NestErrorCode,
+  message: string,
+  partIds: string[] = [],
+): Extract<NestResult, { ok: false }> {
   return { ok: false, error: { code, message, partIds } };
 }
 
-function prepare(input: NestInput): PreparedPart[] | NestResult {
+function prepare(input: NestInput): PreparedPart[] | Extract<NestResult, { ok: false }> {
   const parts: PreparedPart[] = [];
   const ids = new Set<string>();
   for (const [index, p] of input.parts.entries()) {
@@ -592,6 +597,34 @@ const DENSE_WORK = 200_000;
 export type DenseLayouts = Map<number, { layout: PlacedItem[]; failedAt: number | null }>;
 
 /**
+ * The copies per sheet denserPlan looks for to save a sheet on `best`, or null when it does not look (one
+ * sheet, too many copies to a sheet already, or too many for the sheet's area).
+ */
+function denserTarget(frame: SheetFrame, shape: PreparedPart, best: GroupPlan): number | null {
+  const sheetsNow = best.sheets.length;
+  if (sheetsNow < 2) return null;
+  const most = Math.max(...best.sheets.map((s) => s.items.length));
+  if (most > DENSE_MAX_PER_SHEET) return null;
+  const target = Math.ceil(shape.quantity / (sheetsNow - 1));
+  if (target <= most || target * shape.areaMm2 > usableAreaMm2(frame)) return null;
+  return target;
+}
+
+/**
+ * The fewest sheets denserPlan(…, best, dense) can return, worked out without its search (Infinity when it
+ * returns null): a layout already found for the shape is reused as it is, and a search raises the count one
+ * copy at a time up to the target and no further, so its plan, if any, has ⌈quantity ÷ target⌉ sheets.
+ */
+function denserFloor(frame: SheetFrame, shape: PreparedPart, best: GroupPlan, dense: DenseLayouts): number {
+  const target = denserTarget(frame, shape, best);
+  if (target === null) return Infinity;
+  const known = dense.get(shape.index);
+  if (known && known.layout.length >= target) return Math.ceil(shape.quantity / known.layout.length);
+  if (known && known.failedAt !== null) return Infinity;
+  return Math.ceil(shape.quantity / target);
+}
+
+/**
  * A plan for a group whose copies are all of one shape (a class, or an envelope covering every class of the
  * group) with fewer sheets than `best`: the overlap search looks for a sheet holding enough copies to save a
  * sheet; full sheets repeat that layout, the last takes its left-most copies or bottom-left fill of the
@@ -606,13 +639,8 @@ function denserPlan(
   dense: DenseLayouts,
 ): GroupPlan | null {
   const n = shape.quantity;
-  const sheetsNow = best.sheets.length;
-  if (sheetsNow < 2) return null;
-  const most = Math.max(...best.sheets.map((s) => s.items.length));
-  if (most > DENSE_MAX_PER_SHEET) return null;
-  const target = Math.ceil(n / (sheetsNow - 1));
-  const usable = usableAreaMm2(frame);
-  if (target <= most || target * shape.areaMm2 > usable) return null;
+  const target = denserTarget(frame, shape, best);
+  if (target === null) return null;
   let known = dense.get(shape.index);
   if (!known || (known.layout.length < target && known.failedAt === null)) {
     const rotations = [...new Set([...shape.patternRotationsDeg, ...shape.rotationsDeg])];
@@ -798,6 +826,24 @@ function rectangleGridPlan(
   return best;
 }
 
+/**
+ * A question nestGroup may answer instead of laying the group out: does its plan use at most `cap` sheets?
+ * `last`: the group is the last one asked about, so a plan within the cap settles the answer (an earlier
+ * group's exact count is still needed, for the groups after it).
+ */
+interface GroupLimit {
+  cap: number;
+  last: boolean;
+}
+
+/**
+ * The group's plan (methods tried in turn, the better plan kept: see betterPlan). With a limit, the methods
+ * run in the same order on the same data, but the search stops as soon as the plan's sheet count against the
+ * cap is certain: 'within' once the last group has a clear plan of every copy within the cap (the plan kept
+ * could only get better), 'over' when neither the plan nor what the overlap search or the emptied last sheet
+ * could still save brings it within the cap (their searches, the costliest step, are then skipped). Otherwise
+ * the plan itself, the very one the unlimited call returns.
+ */
 function nestGroup(
   cache: GeometryCache,
   frame: SheetFrame,
@@ -806,8 +852,16 @@ function nestGroup(
   method: NonNullable<NestInput['method']>,
   envelopes: readonly EnvelopeClass[] = [],
   dense: DenseLayouts = new Map(),
-): GroupPlan | null {
+  limit?: GroupLimit,
+): GroupPlan | null | 'within' | 'over' {
   let best: GroupPlan | null = null;
+  const wanted = parts.reduce((a, p) => a + p.quantity, 0);
+  const within = () =>
+    limit?.last === true &&
+    best !== null &&
+    best.sheets.length <= limit.cap &&
+    best.sheets.reduce((a, sh) => a + sh.items.length, 0) === wanted &&
+    planIsClear(best, cache.gapMm);
   // Hundreds of copies of one shape to a sheet: the lattice is as good as a fill, and bottom-left fill,
   // searching every copy, would take most of a minute (left to the fallback below when no lattice is found).
   const crowded =
@@ -820,6 +874,7 @@ function nestGroup(
       const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), [], rule);
       const plan = { sheets: r.sheets, method: `true-shape (bottom-left fill, ${rule} edge first)` };
       if (r.failed === null && betterPlan(plan, best, cache.gapMm)) best = plan;
+      if (within()) return 'within';
     }
   }
   if (method !== 'true-shape') {
@@ -847,10 +902,12 @@ function nestGroup(
     for (const opt of options) {
       const plan = patternPlan(cache, frame, group, parts, opt, covers);
       if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
+      if (within()) return 'within';
     }
     if (parts.length === 1) {
       const grid = rectangleGridPlan(cache, frame, group, parts[0]!);
       if (grid && betterPlan(grid, best, cache.gapMm)) best = grid;
+      if (within()) return 'within';
     }
     if (!best) {
       const r = bottomLeftFill(cache, frame, group, copiesOf(cache, parts), []);
@@ -861,6 +918,11 @@ function nestGroup(
     // One shape only: a class alone, or an envelope that covers every class of the group.
     const whole = envelopes.find((e) => e.covers.length === parts.length);
     const shape = parts.length === 1 ? parts[0]! : whole?.part;
+    if (limit) {
+      // What the steps below can still save: the overlap search down to its floor, the emptied last sheet one.
+      const floor = shape ? denserFloor(frame, shape, best, dense) : best.sheets.length - 1;
+      if (Math.min(best.sheets.length, floor) > limit.cap) return 'over';
+    }
     const plan = shape ? denserPlan(cache, frame, group, shape, best, dense) : null;
     if (plan && betterPlan(plan, best, cache.gapMm)) best = plan;
     if (!shape) {
@@ -916,10 +978,55 @@ function addFittingTurns(parts: PreparedPart[], usableW: number, usableH: number
 }
 
 /**
- * Nests parts onto sheets: true shape, per-part rotations, each group on its own sheets. Returns an error
- * result naming any part that cannot fit on an empty sheet at any allowed rotation.
+ * Whether nestParts(input) lays the parts out on at most maxSheets sheets (false also when it returns an
+ * error), with the same answer and less work: first a lower bound on each group's sheets found without any
+ * layout (sheetsLowerBound: a bin-packing bound on the parts' gap-grown areas), then the groups in nestParts'
+ * order, each stopping as soon as its count against what the others leave it is certain (see nestGroup). For
+ * searches that lay the same parts out at many sizes and need only the answer (fit to sheets).
  */
-export function nestParts(input: NestInput): NestResult {
+export function nestFits(input: NestInput, maxSheets: number): boolean {
+  const setup = setUp(input);
+  if ('ok' in setup) return false;
+  const { frame, cache, groups, groupParts, groupEnvelopes } = setup;
+  const usableW = input.sheet.widthMm - 2 * input.marginMm;
+  const usableH = input.sheet.heightMm - 2 * input.marginMm;
+  const bounds = groups.map((g) => sheetsLowerBound(groupParts(g), usableW, usableH, input.gapMm));
+  let floorAfter = bounds.reduce((a, b) => a + b, 0);
+  if (floorAfter > maxSheets) return false;
+  let used = 0;
+  const dense: DenseLayouts = new Map();
+  for (const [k, group] of groups.entries()) {
+    floorAfter -= bounds[k]!;
+    const parts = groupParts(group);
+    const limit = { cap: maxSheets - used - floorAfter, last: k === groups.length - 1 };
+    const method = input.method ?? 'best';
+    const found = nestGroup(cache, frame, group, parts, method, groupEnvelopes(group), dense, limit);
+    if (found === 'within') return true;
+    if (found === 'over' || found === null) return false;
+    // Every copy placed, as nestParts requires.
+    const placed = found.sheets.reduce((a, sh) => a + sh.items.length, 0);
+    if (placed !== parts.reduce((a, p) => a + p.quantity, 0)) return false;
+    used += found.sheets.length;
+    if (used + floorAfter > maxSheets) return false;
+  }
+  return used <= maxSheets;
+}
+
+interface NestSetup {
+  prepared: PreparedPart[];
+  frame: SheetFrame;
+  members: Map<string, ClassMember[]>;
+  cache: GeometryCache;
+  /** Groups in the order they are nested. */
+  groups: string[];
+  /** The classes of a group to nest (mergeCongruent), with copies. */
+  groupParts: (group: string) => PreparedPart[];
+  /** The envelope classes of a group that fit the sheet. */
+  groupEnvelopes: (group: string) => EnvelopeClass[];
+}
+
+/** Checks the input and prepares what nesting it needs: parts, classes, envelopes, the geometry cache. */
+function setUp(input: NestInput): NestSetup | Extract<NestResult, { ok: false }> {
   const { sheet, marginMm, gapMm } = input;
   if (!(sheet.widthMm > 0 && sheet.heightMm > 0)) return fail('INVALID_INPUT', 'sheet size must be positive');
   if (!(marginMm >= 0) || !(gapMm >= 0)) return fail('INVALID_INPUT', 'margin and gap must be ≥ 0');
@@ -980,6 +1087,27 @@ export function nestParts(input: NestInput): NestResult {
   const usableEnvelopes = new Set(envelopes.shapes.filter(fitsEmptySheet).map((e) => e.index));
   const groups: string[] = [];
   for (const p of nesting) if (p.quantity > 0 && !groups.includes(p.group)) groups.push(p.group);
+  return {
+    prepared,
+    frame,
+    members,
+    cache,
+    groups,
+    groupParts: (group) => nesting.filter((p) => p.group === group && p.quantity > 0),
+    groupEnvelopes: (group) =>
+      (envelopes.byGroup.get(group) ?? []).filter((e) => usableEnvelopes.has(e.part.index)),
+  };
+}
+
+/**
+ * Nests parts onto sheets: true shape, per-part rotations, each group on its own sheets. Returns an error
+ * result naming any part that cannot fit on an empty sheet at any allowed rotation.
+ */
+export function nestParts(input: NestInput): NestResult {
+  const setup = setUp(input);
+  if ('ok' in setup) return setup;
+  const { sheet, marginMm } = input;
+  const { prepared, frame, members, cache, groups, groupParts, groupEnvelopes: envelopesOf } = setup;
   const sheetArea = sheet.widthMm * sheet.heightMm;
   const sheets: NestSheetResult[] = [];
   const groupTotals: NestTotals['groups'] = [];
@@ -987,11 +1115,10 @@ export function nestParts(input: NestInput): NestResult {
   const sheetsByGroup: Record<string, number> = Object.create(null) as Record<string, number>;
   const dense: DenseLayouts = new Map();
   for (const group of groups) {
-    const parts = nesting.filter((p) => p.group === group && p.quantity > 0);
-    const groupEnvelopes = (envelopes.byGroup.get(group) ?? []).filter((e) =>
-      usableEnvelopes.has(e.part.index),
-    );
-    const plan = nestGroup(cache, frame, group, parts, input.method ?? 'best', groupEnvelopes, dense);
+    const parts = groupParts(group);
+    const groupEnvelopes = envelopesOf(group);
+    const found = nestGroup(cache, frame, group, parts, input.method ?? 'best', groupEnvelopes, dense);
+    const plan = typeof found === 'string' ? null : found;
     // Every copy placed, or an error: never a layout that silently leaves parts out.
     const placed = plan ? plan.sheets.reduce((a, s) => a + s.items.length, 0) : 0;
     const wanted = parts.reduce((a, p) => a + p.quantity, 0);
