@@ -21,6 +21,7 @@
 import {
   areaUnits,
   boxOfPaths,
+  differenceAcross,
   differenceComponents,
   differenceNear,
   differencePaths,
@@ -494,7 +495,7 @@ export function findPosition(
           ? differenceNear(start, clips)
           : clips.length === 0 && !windows
             ? start
-            : differencePaths(start, clips);
+            : differenceAcross(start, clips);
     regions.set(v.key, { paths: region, done: sheet.items.length });
     const before = all.length;
     vertices(region, v, order, fit, all);

@@ -389,6 +389,29 @@ export function differencePaths(subject: IntPaths, clips: IntPaths): IntPaths {
   return out;
 }
 
+/** A subject at least this many times as long as high, and this long (mm), is clipped across (differenceAcross). */
+export const ACROSS_ASPECT = 4;
+export const ACROSS_MIN_MM = 2500;
+
+/**
+ * The subject minus the union of the clips, as differencePaths gives it, for regions laid along a long sheet
+ * (a roll): Clipper's sweep (Vatti, "A generic solution to polygon clipping", CACM 35(7), 1992; from memory)
+ * runs along y, and its cost grows with the edges every horizontal scanline crosses, which on a 10 m sheet is
+ * every part along its length. A subject whose bounds are at least ACROSS_ASPECT times as wide as high and
+ * ACROSS_MIN_MM wide is clipped with x and y swapped, so the scanlines run across the sheet's short side, and
+ * swapped back (each path reversed, so outer contours keep their counter-clockwise turn). Intersection points
+ * may then round to the other neighbouring unit (1 µm, inside the no-fit polygons' safety margin); other
+ * subjects, every stock sheet among them, are clipped as before.
+ */
+export function differenceAcross(subject: IntPaths, clips: IntPaths): IntPaths {
+  const b = boxOfPaths(subject);
+  const w = b.maxX - b.minX;
+  if (!(w >= ACROSS_ASPECT * (b.maxY - b.minY) && w >= ACROSS_MIN_MM * SCALE_PER_MM))
+    return differencePaths(subject, clips);
+  const swap = (paths: IntPaths): IntPaths => paths.map((p) => p.map((q) => ({ X: q.Y, Y: q.X })).reverse());
+  return swap(differencePaths(swap(subject), swap(clips)));
+}
+
 /**
  * subject minus the union of clips, like differencePaths, but only the subject's paths whose bounds meet a clip's
  * go through Clipper; the others are kept as they are. This is exact for a region given as Clipper gives it
@@ -410,7 +433,7 @@ export function differenceNear(subject: IntPaths, clips: IntPaths): IntPaths {
     (meets ? near : kept).push(path);
   }
   if (near.length === 0) return subject;
-  const out = differencePaths(near, clips);
+  const out = differenceAcross(near, clips);
   for (const p of kept) out.push(p);
   return out;
 }

@@ -836,6 +836,33 @@ describe('nestParts — true shape', () => {
 });
 
 describe('nestParts — large quantities', () => {
+  it('lays 120 seeded random parts along a 10 m roll, 600 mm wide, without overlap, gap or margin faults (checked with polygon-clipping)', () => {
+    // The roll's regions are clipped across its short side (differenceAcross): their intersection points may
+    // round to the other neighbouring micrometre, which the layout must absorb.
+    let seed = 21;
+    const rnd = () => (seed = (seed * 1664525 + 1013904223) % 4294967296) / 4294967296;
+    const parts = Array.from({ length: 30 }, (_, k) => {
+      const n = 5 + Math.floor(rnd() * 8);
+      const R = 20 + rnd() * 50;
+      const outline = Array.from({ length: n }, (_, i) => {
+        const t = (2 * Math.PI * i) / n;
+        const r = R * (0.6 + 0.4 * rnd());
+        return [r * Math.cos(t), r * Math.sin(t)] as P;
+      });
+      return { id: `k${k}`, outline, quantity: 4 };
+    });
+    const input: NestInput = {
+      sheet: { widthMm: 10_000, heightMm: 600 },
+      marginMm: 5,
+      gapMm: 3,
+      parts,
+      method: 'true-shape',
+    };
+    const r = nestParts(input);
+    checkLayout(input, r);
+    expect(r.ok && r.totals.sheetCount).toBe(1);
+  });
+
   /** Placements of a sheet as comparable text (order-independent). */
   const key = (sheet: { placements: { part: string; x: number; y: number; rotationDeg: number }[] }) =>
     sheet.placements
