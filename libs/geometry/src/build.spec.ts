@@ -5,6 +5,8 @@ import { listSolids, getSolid } from './solids/catalogue';
 import { suggestSizes } from './pieces/place';
 import { signedArea } from './math/polygon';
 import { design, octahedronHexagons } from './test-support/designs';
+import { SpecValidationError } from './spec/validate-spec';
+import { assertDesignWork, DESIGN_WORK_LIMIT, DesignTooHeavyError } from './spec/workload';
 
 describe('buildModel scaling', () => {
   it('planeDistance sets the nearest plane distance; other planes keep their proportion', () => {
@@ -32,6 +34,54 @@ describe('buildModel scaling', () => {
     expect(byDiameter.planeDistanceMm).toBeCloseTo(150 / Math.sqrt(1 + 1.3 ** 2), 6);
     const byRadius = buildModel(octahedronHexagons({ scale: { by: 'pieceCircumradius', mm: 90 } }));
     for (const p of byRadius.pieces) expect(p.circumradiusMm).toBeCloseTo(90, 9);
+  });
+});
+
+describe('buildModel with a work limit', () => {
+  const heavy = design({
+    solid: 'disdyakis-triacontahedron',
+    piece: { sides: 60, step: 29, rotationDeg: 0, size: 1.2 },
+  });
+
+  it('refuses a design over the limit before building it, as assertDesignWork says it', () => {
+    // 120 pieces × 119 × 60 sides = 856,800: built, it would take 10 s or more (see designWork).
+    let said: unknown;
+    try {
+      assertDesignWork(60, 120);
+    } catch (error) {
+      said = error;
+    }
+    expect(said).toBeInstanceOf(DesignTooHeavyError);
+    expect(() => buildModel(heavy, { workLimit: DESIGN_WORK_LIMIT })).toThrow(
+      new DesignTooHeavyError(856_800, DESIGN_WORK_LIMIT, (said as Error).message),
+    );
+  });
+
+  it('counts the faces of an uploaded solid (its hull) as the pieces', () => {
+    // A 2 × 4 × 6 box of our own as OFF text: 6 faces, so 6 × 5 × 8 sides = 240.
+    const box = `OFF\n8 0 0\n${[-1, 1]
+      .flatMap((x) => [-2, 2].flatMap((y) => [-3, 3].map((z) => `${x} ${y} ${z}`)))
+      .join('\n')}\n`;
+    const spec = design({
+      solid: { format: 'off', text: box },
+      piece: { sides: 8, step: 3, rotationDeg: 0, size: 1.6 },
+    });
+    expect(() => buildModel(spec, { workLimit: 239 })).toThrow(DesignTooHeavyError);
+    expect(buildModel(spec, { workLimit: 240 }).pieces).toHaveLength(6);
+  });
+
+  it('builds a design at the limit, and any design when no limit is given', () => {
+    // A cube of squares: 6 × 5 × 4 = 120.
+    const cube = design({ solid: 'cube', piece: { sides: 4, rotationDeg: 45, size: 1.5 } });
+    expect(() => buildModel(cube, { workLimit: 119 })).toThrow(/6 pieces of 4 sides/);
+    expect(buildModel(cube, { workLimit: 120 }).pieces).toHaveLength(6);
+    expect(buildModel(cube).pieces).toHaveLength(6);
+  });
+
+  it('says what is wrong with a spec that does not validate before weighing it', () => {
+    expect(() => buildModel({ ...heavy, stock: { thicknessMm: -1 } }, { workLimit: 1 })).toThrow(
+      SpecValidationError,
+    );
   });
 });
 

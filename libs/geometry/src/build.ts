@@ -26,6 +26,7 @@ import { IssueList, fitsBed, slotGap, slotWeb } from './validity/validity';
 import { cutterMarginMm } from './layout/plan-layout';
 import { CLASH_TOLERANCE_MM, thicknessClashes } from './validity/thickness-clash';
 import { lengthText } from './math/length-text';
+import { assertDesignWork } from './spec/workload';
 
 /** A slot as built into one piece (piece frame, mm). */
 export interface BuiltSlot {
@@ -150,6 +151,16 @@ function cachedSuggestions(solid: Solid, spec: ResolvedSpec): SuggestedSizes {
   return hit;
 }
 
+/** How buildModel goes about a build. */
+export interface BuildOptions {
+  /**
+   * Refuse a design whose work (designWork: pieces × (pieces − 1) × sides) exceeds this, with
+   * DesignTooHeavyError (see assertDesignWork), once the spec is validated and its solid resolved and before
+   * anything is built: the check costs no second validation or hull. No limit when absent.
+   */
+  workLimit?: number;
+}
+
 /**
  * Builds a design: pieces, crossings, slot pairs, compensated outlines, the validity report and (when the
  * spec gives `colours`) a colour plan. `input` is any JSON value; invalid specs throw SpecValidationError,
@@ -157,11 +168,13 @@ function cachedSuggestions(solid: Solid, spec: ResolvedSpec): SuggestedSizes {
  * scale is built at its upper bound (report.scale.resolved = false, warning SCALE.UPPER_BOUND); use
  * buildWithLayout for the searched size and the sheet count.
  */
-export function buildModel(input: unknown): BuiltModel {
+export function buildModel(input: unknown, options: BuildOptions = {}): BuiltModel {
   const v = validateSpec(input);
   if (!v.ok) throw new SpecValidationError(v.errors);
   const spec = v.spec;
   const solid = resolveSolid(spec);
+  if (options.workLimit !== undefined)
+    assertDesignWork(spec.piece.sides, solid.faces.length, options.workLimit);
   const sized = sizeWithoutLayout(spec, solid);
   const model = sized.model;
   if (spec.scale.by === 'fitSheets') {

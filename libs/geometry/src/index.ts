@@ -23,7 +23,7 @@ export type { LayoutBuild } from './layout/build-with-layout';
 export { bestFitRatio } from './scale/fit-ratio';
 export { smallestSoundSize } from './scale/sound-size';
 export type { SoundSize } from './scale/sound-size';
-export type { BuiltModel, BuiltPiece, BuiltSlot } from './build';
+export type { BuildOptions, BuiltModel, BuiltPiece, BuiltSlot } from './build';
 export {
   validateSpec,
   SpecValidationError,
