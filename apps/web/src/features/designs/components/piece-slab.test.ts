@@ -1,6 +1,6 @@
 import { buildModel } from '@kerfwright/geometry';
 import { describe, expect, it } from 'vitest';
-import { cachedColourPlan } from '../hooks/colour-plan-cache';
+import { cachedColourPlan } from '../lib/colour-plan-cache';
 import { pieceSlab } from './piece-slab';
 
 const model = buildModel({

@@ -6,7 +6,8 @@ import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { memo } from 'react';
 import { countOf } from '../../../lib/plural';
-import { type BuiltPreview } from '../hooks/use-built-model';
+import { useDelayedFlag } from '../../../lib/use-delayed-flag';
+import { type BuiltPreview } from '../lib/build-preview';
 import { solidName } from '../lib/solid-name';
 import { ColourPlanNotice } from './colour-plan-notice';
 import { MAX_COLOURS, DESIGN_FIELD_LABELS } from './design-form-schema';
@@ -25,11 +26,17 @@ interface StudioPreviewPanelProps {
   fittingSheets?: number | null;
   /** The form has errors: the model shown is the last one the form described without errors. */
   showingLastValid?: boolean;
+  /** The model of the values entered is being built (in the preview worker); the one shown is earlier. */
+  building?: boolean;
 }
+
+/** How long a build runs before the panel says so (quicker ones would only make it flicker). */
+export const BUILDING_NOTICE_DELAY_MS = 250;
 
 /**
  * The model's facts and its 3D view. Memoised on the built preview: the keystroke itself re-renders the
- * form only, and this panel follows once the deferred build has finished.
+ * form only, and this panel follows once the build has finished. A build that takes a while is said, and the
+ * model built before stays on screen, dimmed and marked busy, until the new one replaces it.
  */
 export const StudioPreviewPanel = memo(function StudioPreviewPanel({
   preview,
@@ -40,9 +47,14 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
   onUseColours,
   fittingSheets = null,
   showingLastValid = false,
+  building = false,
 }: StudioPreviewPanelProps) {
-  const report = preview.model?.report ?? null;
+  const report = preview.report;
   const fitting = fittingSheets !== null;
+  const slowBuild = useDelayedFlag(building && !fitting, BUILDING_NOTICE_DELAY_MS);
+  const buildingText =
+    report || preview.failure ? 'Building the model for the values entered…' : 'Building the model…';
+  const earlier = fitting || slowBuild;
   const fittingText = fitting ? `Fitting the largest size on ${countOf(fittingSheets, 'sheet')}…` : '';
   // Sizes of an earlier fit are not the size being fitted: they give way to the search's progress.
   const size = (mm: number) => (fitting ? 'fitting…' : fmt(mm));
@@ -60,9 +72,16 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
           </Typography>
           <LinearProgress aria-label={fittingText} sx={{ mt: 0.5 }} />
         </Box>
+      ) : slowBuild ? (
+        <Box sx={{ mb: 1 }} data-testid="preview-building" role="status">
+          <Typography variant="body2" color="text.secondary">
+            {report ? `${buildingText} The model below is the one built before.` : buildingText}
+          </Typography>
+          <LinearProgress aria-label={buildingText} sx={{ mt: 0.5 }} />
+        </Box>
       ) : null}
       {report ? (
-        <Box sx={fitting ? { opacity: 0.55 } : undefined} aria-busy={fitting || undefined}>
+        <Box sx={earlier ? { opacity: 0.55 } : undefined} aria-busy={earlier || undefined}>
           <Stack
             direction="row"
             spacing={3}
@@ -99,8 +118,13 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             />
           </Box>
         </Box>
-      ) : fitting ? null : (
-        <Alert severity={preview.failure ? 'error' : 'info'} data-testid="preview-unavailable">
+      ) : fitting || (building && !preview.failure) ? null : (
+        <Alert
+          severity={preview.failure ? 'error' : 'info'}
+          data-testid="preview-unavailable"
+          sx={slowBuild ? { opacity: 0.55 } : undefined}
+          aria-busy={slowBuild || undefined}
+        >
           {preview.failure ?? idleMessage}
         </Alert>
       )}

@@ -21,7 +21,7 @@ import { estimateSheets } from '../../layout/lib/estimate-sheets';
 import { useLayoutTask } from '../../layout/hooks/use-layout-task';
 import { useMachineProfiles } from '../../jobs/api/get-machine-profiles';
 import { useMaterials } from '../../jobs/api/get-materials';
-import { type BuiltPreview } from '../hooks/use-built-model';
+import { type BuiltPreview } from '../lib/build-preview';
 import { type StudioFit } from '../hooks/use-studio-preview';
 import { type StudioSheets } from '../lib/studio-layout';
 import { countOf } from '../../../lib/plural';
@@ -161,7 +161,7 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
     blocked === null &&
     colourProblem === null &&
     layoutSpec !== null &&
-    (fitting || (asked && preview.model !== null && !preview.failure));
+    (fitting || (asked && preview.report !== null && !preview.failure));
   // The preview's key names the spec, colours and rule the preview was built from. A fit's layout is the
   // studio's search itself (its answer sized the preview), so this panel runs none of its own then.
   const own = useLayoutTask(

@@ -1,30 +1,151 @@
-import { DESIGN_WORK_LIMIT, designWork } from '@kerfwright/geometry';
-import { describe, expect, it } from 'vitest';
-import { buildPreview } from './use-built-model';
+import { type DesignSpecInput } from '@kerfwright/contracts';
+import { type ColourRule } from '@kerfwright/geometry';
+import { act, renderHook, waitFor } from '@testing-library/react';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { type TaskRequest } from '../../../lib/task-worker';
+import { buildPreview } from '../lib/build-preview';
 
-const spec = (solid: string, sides: number, step: number) => ({
+/** Stands in for the browser's Worker (jsdom has none): records what the page posts and lets the test answer. */
+class FakeWorker {
+  static made: FakeWorker[] = [];
+  posted: TaskRequest[] = [];
+  terminated = false;
+  onmessage: ((event: MessageEvent) => void) | null = null;
+  onerror: ((event: ErrorEvent) => void) | null = null;
+  constructor(
+    readonly url: URL,
+    readonly options: WorkerOptions,
+  ) {
+    FakeWorker.made.push(this);
+  }
+  postMessage(request: TaskRequest) {
+    // What crosses to a worker is copied (structured clone), as the browser does.
+    this.posted.push(structuredClone(request));
+  }
+  terminate() {
+    this.terminated = true;
+  }
+  /** Answers the last request with what the real task gives for it, copied as the browser copies it. */
+  async answerWithTask() {
+    const last = this.posted[this.posted.length - 1] as TaskRequest;
+    const [spec, count, rule] = last.args as [DesignSpecInput, number, ColourRule];
+    const value = structuredClone(buildPreview(spec, count, rule));
+    // The page hears of it on a promise: act waits for what that sets.
+    await act(async () => this.onmessage?.({ data: { id: last.id, ok: true, value } } as MessageEvent));
+  }
+  async fail(message: string) {
+    await act(async () => this.onerror?.({ message, preventDefault: () => undefined } as ErrorEvent));
+  }
+}
+
+const design = (solid: string, sides: number, size = 1.2): DesignSpecInput => ({
   solid,
-  piece: { sides, step, rotationDeg: 0, size: 1.2 },
-  scale: { by: 'planeDistance' as const, mm: 60 },
-  stock: { thicknessMm: 0.4, flexible: true },
-  machine: { kind: 'laser' as const, kerfMm: 0.1 },
+  piece: { sides, step: 1, rotationDeg: 0, size },
+  scale: { by: 'diameter', mm: 200 },
+  stock: { thicknessMm: 3, flexible: false },
+  machine: { kind: 'laser', kerfMm: 0.15 },
 });
 
-describe('buildPreview', () => {
-  it('says a design too heavy for the API, as the API does, without building it on the page', () => {
-    // 120 faces (a disdyakis triacontahedron, the catalogue's largest) × 119 others × 60 sides.
-    expect(designWork(120, 60)).toBeGreaterThan(DESIGN_WORK_LIMIT);
-    const started = performance.now();
-    const heavy = buildPreview(spec('disdyakis-triacontahedron', 60, 29), 1, 'neighbour-distinct');
-    expect(performance.now() - started).toBeLessThan(1000);
-    expect(heavy.model).toBeNull();
-    expect(heavy.failure).toMatch(/^This design is too heavy to compute in time: 120 pieces of 60 sides/);
-    expect(heavy.failure).toMatch(/at most 14 sides on this solid/);
+async function load() {
+  vi.resetModules();
+  const hook = await import('./use-built-model');
+  const layout = await import('../../layout/lib/layout-worker');
+  const render = (spec: DesignSpecInput | null) =>
+    renderHook((s: DesignSpecInput | null) => hook.useBuiltModel(s, 1, 'neighbour-distinct'), {
+      initialProps: spec,
+    });
+  return { render, runInLayoutWorker: layout.runInLayoutWorker };
+}
+
+const previewWorkers = () => FakeWorker.made.filter((w) => /preview\.worker/.test(String(w.url)));
+
+describe('useBuiltModel in the browser (a preview worker)', () => {
+  beforeEach(() => {
+    FakeWorker.made = [];
+    vi.stubGlobal('Worker', FakeWorker);
+  });
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('builds the model in a module worker, not on the page, and shows it when it arrives', async () => {
+    const { render } = await load();
+    const cube = design('cube', 4);
+    const { result } = render(cube);
+    expect(previewWorkers()).toHaveLength(1);
+    const worker = previewWorkers()[0]!;
+    expect(worker.options).toEqual({ type: 'module' });
+    expect(worker.posted.map((r) => [r.task, r.args])).toEqual([
+      ['preview', [cube, 1, 'neighbour-distinct']],
+    ]);
+    expect(result.current.building).toBe(true);
+    expect(result.current.preview.report).toBeNull();
+    await worker.answerWithTask();
+    expect(result.current.building).toBe(false);
+    expect(result.current.preview.report?.pieces).toHaveLength(6);
+    // The preview is of the page's own spec (the worker's is a copy).
+    expect(result.current.preview.spec).toBe(cube);
   });
 
-  it('builds a design within the limit', () => {
-    const cube = buildPreview(spec('cube', 4, 1), 1, 'neighbour-distinct');
-    expect(cube.failure).toBeNull();
-    expect(cube.model?.pieces).toHaveLength(6);
+  it('keeps the last model on screen while the next builds, and drops a build overtaken by an edit', async () => {
+    const { render } = await load();
+    const { result, rerender } = render(design('cube', 4));
+    await previewWorkers()[0]!.answerWithTask();
+    const first = result.current.preview;
+
+    rerender(design('octahedron', 6));
+    expect(result.current).toEqual({ preview: first, building: true });
+    rerender(design('octahedron', 6, 1.3));
+    // The octahedron at 1.2 is no longer wanted: its worker is stopped, and the next size builds afresh.
+    expect(previewWorkers()[0]!.terminated).toBe(true);
+    expect(previewWorkers()).toHaveLength(2);
+    expect(result.current).toEqual({ preview: first, building: true });
+    const next = previewWorkers()[1]!;
+    expect(next.posted.map((r) => (r.args[0] as DesignSpecInput).piece.size)).toEqual([1.3]);
+    await next.answerWithTask();
+    expect(result.current.building).toBe(false);
+    expect(result.current.preview.report?.pieces).toHaveLength(8);
+    expect(result.current.preview.report?.piece.size).toBe(1.3);
+  });
+
+  it("shows the engine's refusal of a design too heavy, and a stopped worker's reason, as sentences", async () => {
+    const { render } = await load();
+    const { result, rerender } = render(design('disdyakis-triacontahedron', 15));
+    await previewWorkers()[0]!.answerWithTask();
+    expect(result.current.preview.report).toBeNull();
+    expect(result.current.preview.failure).toMatch(
+      /^This design is too heavy to compute in time: 120 pieces/,
+    );
+
+    rerender(design('cube', 4));
+    await previewWorkers()[0]!.fail('out of memory');
+    expect(result.current.building).toBe(false);
+    expect(result.current.preview.failure).toBe('Out of memory');
+  });
+
+  it('does not wait behind a layout running in the layout worker', async () => {
+    const { render, runInLayoutWorker } = await load();
+    void runInLayoutWorker('studio', [design('cube', 4), 1, 'neighbour-distinct', null]).promise;
+    const cube = design('cube', 4);
+    render(cube);
+    const layoutWorker = FakeWorker.made.find((w) => /layout\.worker/.test(String(w.url)));
+    expect(layoutWorker?.posted).toHaveLength(1);
+    // The layout has not answered, yet the model's build is already with its own worker.
+    expect(previewWorkers()).toHaveLength(1);
+    expect(previewWorkers()[0]!.posted).toHaveLength(1);
+  });
+});
+
+describe('useBuiltModel without Worker support (jsdom)', () => {
+  it('builds the model on the main thread', async () => {
+    expect(typeof Worker).toBe('undefined');
+    const { render } = await load();
+    const { result } = render(design('cube', 4));
+    await waitFor(() => expect(result.current.preview.report?.pieces).toHaveLength(6));
+    expect(result.current.building).toBe(false);
+  });
+
+  it('has nothing to build without a spec', async () => {
+    const { render } = await load();
+    const { result } = render(null);
+    expect(result.current).toMatchObject({ building: false, preview: { report: null, failure: null } });
   });
 });

@@ -1,109 +1,56 @@
 import { type DesignSpecInput } from '@kerfwright/contracts';
-import {
-  assertDesignWork,
-  type BuiltModel,
-  buildModel,
-  type ColourPlan,
-  type ColourRule,
-  resolveSolid,
-  validateSpec,
-} from '@kerfwright/geometry';
-import { useDeferredValue, useMemo } from 'react';
-import { cachedColourPlan } from './colour-plan-cache';
+import { type ColourRule } from '@kerfwright/geometry';
+import { useDeferredValue, useEffect, useMemo, useState } from 'react';
+import { taskWorkersAvailable } from '../../../lib/task-worker';
+import { asSentence, type BuiltPreview, buildPreview, emptyPreview, previewKey } from '../lib/build-preview';
+import { runInPreviewWorker } from '../lib/preview-worker';
 
-export interface BuiltPreview {
-  /** The spec this preview was built from. */
-  spec: DesignSpecInput | null;
-  model: BuiltModel | null;
-  /** Colour index per piece id (all 0 when one colour, or when the rule has no plan). */
-  pieceColour: Record<string, number>;
-  /** The plan behind pieceColour when there are several colours (the layout reuses it). */
-  colourPlan: ColourPlan | null;
-  colourMessage: string | null;
-  /** When the rule has no plan with this many colours: the fewest it needs. */
-  colourFewest: number | null;
-  /** Why the engine refused the spec (field errors or a failure), when it did. */
-  failure: string | null;
-  /** Time spent in the geometry library for this preview (model build and, when not cached, colour plan). */
-  buildMs: number;
-  /** Identifies the spec this preview was built from. */
-  key: string;
+/** The studio's model as on screen: the last preview finished, and whether a newer one is being built. */
+export interface BuiltModelState {
+  /** The last preview finished (for an earlier spec while `building`). */
+  preview: BuiltPreview;
+  /** A preview of the current spec is being built; `preview` is an earlier one meanwhile. */
+  building: boolean;
 }
 
 /**
- * Runs the geometry library in the browser on every change. The spec is deferred, so typing stays responsive
- * while a large model builds; the last finished model stays on screen meanwhile. The colour plan does not
- * depend on the size, so it is solved once per solid, count and rule (see colour-plan-cache).
+ * Builds the studio's model on every change, in the preview worker, so that typing never waits for the
+ * geometry library; the last finished model stays on screen meanwhile (`building`). A change drops the build
+ * in progress. Without Worker support (jsdom) the model is built on the main thread from a deferred value, so
+ * typing still renders before the build.
  */
 export function useBuiltModel(
   spec: DesignSpecInput | null,
   colourCount: number,
   colourRule: ColourRule,
-): BuiltPreview {
-  const input = useMemo(() => ({ spec, colourCount, colourRule }), [spec, colourCount, colourRule]);
+): BuiltModelState {
+  const inWorker = taskWorkersAvailable();
+  const input = useMemo(
+    () => ({ spec, colourCount, colourRule, key: previewKey(spec, colourCount, colourRule) }),
+    [spec, colourCount, colourRule],
+  );
   const deferred = useDeferredValue(input);
-  return useMemo(() => buildPreview(deferred.spec, deferred.colourCount, deferred.colourRule), [deferred]);
-}
-
-/** The preview of one spec (see useBuiltModel). */
-export function buildPreview(
-  spec: DesignSpecInput | null,
-  colourCount: number,
-  colourRule: ColourRule,
-): BuiltPreview {
-  const key = JSON.stringify([spec, colourCount, colourRule]);
-  const empty = {
-    spec,
-    model: null,
-    pieceColour: {},
-    colourPlan: null,
-    colourMessage: null,
-    colourFewest: null,
-    buildMs: 0,
-    key,
-  };
-  if (!spec) return { ...empty, failure: null };
-  const started = performance.now();
-  let model: BuiltModel;
-  try {
-    // A design the API refuses as too heavy (DESIGN.TOO_HEAVY) would hold this page for many seconds: said,
-    // not built.
-    const checked = validateSpec(spec);
-    if (checked.ok) assertDesignWork(checked.spec.piece.sides, resolveSolid(checked.spec).faces.length);
-    model = buildModel(spec);
-  } catch (error) {
-    const said = error instanceof Error ? error.message : String(error);
-    // Shown as a sentence of its own (the engine's messages start in lower case, to follow a code or a colon).
-    return { ...empty, failure: said.charAt(0).toUpperCase() + said.slice(1) };
-  }
-  let pieceColour: Record<string, number> = Object.fromEntries(model.pieces.map((p) => [p.id, 0]));
-  let colourPlan: ColourPlan | null = null;
-  let colourMessage: string | null = null;
-  let colourFewest: number | null = null;
-  if (colourCount > 1) {
-    try {
-      const ids = model.pieces.map((p) => p.id);
-      const plan = cachedColourPlan(model.solid, ids, colourCount, colourRule);
-      if (plan.feasible) {
-        pieceColour = plan.assignment;
-        colourPlan = plan;
-      } else {
-        colourMessage = plan.message ?? `No colour plan for this rule with ${colourCount} colours.`;
-        colourFewest = plan.fewestColours ?? null;
-      }
-    } catch (error) {
-      colourMessage = error instanceof Error ? error.message : String(error);
-    }
-  }
-  return {
-    spec,
-    model,
-    pieceColour,
-    colourPlan,
-    colourMessage,
-    colourFewest,
-    failure: null,
-    buildMs: performance.now() - started,
-    key,
-  };
+  const onPage = useMemo(
+    () => (inWorker ? null : buildPreview(deferred.spec, deferred.colourCount, deferred.colourRule)),
+    [inWorker, deferred],
+  );
+  const [fromWorker, setFromWorker] = useState<BuiltPreview | null>(null);
+  useEffect(() => {
+    if (!inWorker || !input.spec) return;
+    const { spec: asked, colourCount: count, colourRule: rule, key } = input;
+    let live = true;
+    const run = runInPreviewWorker(asked, count, rule);
+    run.promise.then(
+      // The page's own spec and key: the preview is of them (the worker's copies are equal, not the same).
+      (value) => live && setFromWorker({ ...(value as BuiltPreview), spec: asked, key }),
+      (error: unknown) => live && setFromWorker(emptyPreview(asked, count, rule, asSentence(error))),
+    );
+    return () => {
+      live = false;
+      run.cancel();
+    };
+  }, [inWorker, input]);
+  if (!input.spec) return { preview: emptyPreview(null, colourCount, colourRule), building: false };
+  const preview = (inWorker ? fromWorker : onPage) ?? emptyPreview(null, colourCount, colourRule);
+  return { preview, building: preview.key !== input.key };
 }

@@ -3,7 +3,8 @@ import { type ColourRule } from '@kerfwright/geometry';
 import { useMemo, useRef } from 'react';
 import { useLayoutTask } from '../../layout/hooks/use-layout-task';
 import { type StudioSheets } from '../lib/studio-layout';
-import { type BuiltPreview, useBuiltModel } from './use-built-model';
+import { type BuiltPreview } from '../lib/build-preview';
+import { useBuiltModel } from './use-built-model';
 
 /** A "fit to sheets" search for the studio's spec: running, or what it found. */
 export interface StudioFit {
@@ -27,10 +28,12 @@ export interface StudioPreview {
    * way. The model on screen meanwhile, if any, is an earlier fit.
    */
   fitting: boolean;
+  /** The model of the current spec is being built (in the preview worker); the one on screen is earlier. */
+  building: boolean;
 }
 
 /**
- * The studio's model. A fixed or bed-fitted size builds straight away (useBuiltModel). "Fit to sheets" is a
+ * The studio's model. A fixed or bed-fitted size is built straight away (useBuiltModel, in the preview worker). "Fit to sheets" is a
  * search (about a second: a dozen nestings), so it runs in the layout worker first, and the model is then built
  * at the diameter found (`{ by: 'diameter', mm }`, as the library's resolvedSpec reproduces a fit): every
  * figure and view shows the fitted size, never the search's upper bound. While a search runs (`fitting`)
@@ -65,8 +68,8 @@ export function useStudioPreview(
   const searching = fitSheets !== null && task.pending;
   const previewSpec = fitSheets === null ? spec : (fitted ?? (searching ? lastShown.current : null));
   if (previewSpec) lastShown.current = previewSpec;
-  const preview = useBuiltModel(previewSpec, colourCount, colourRule);
-  if (fitSheets === null) return { preview, fit: null, fitting: false };
+  const { preview, building } = useBuiltModel(previewSpec, colourCount, colourRule);
+  if (fitSheets === null) return { preview, fit: null, fitting: false, building };
   const fit: StudioFit = { sheets: fitSheets, pending: task.pending, result: task.value, error: task.error };
   if (!searching && !fitted && !preview.failure) {
     const reason = task.error instanceof Error ? task.error.message : task.error ? String(task.error) : null;
@@ -74,8 +77,9 @@ export function useStudioPreview(
       preview: { ...preview, failure: reason ?? 'The search found no size for these sheets.' },
       fit,
       fitting: false,
+      building: false,
     };
   }
-  // Until the deferred build of the fitted spec has finished, the model on screen is an earlier one.
-  return { preview, fit, fitting: searching || preview.spec !== previewSpec };
+  // Until the build of the fitted spec has finished, the model on screen is an earlier one.
+  return { preview, fit, fitting: searching || building, building };
 }

@@ -20,6 +20,7 @@ import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { formatLength } from '../../../lib/units';
 import { useLengthUnit } from '../../../lib/use-length-unit';
+import { useDelayedFlag } from '../../../lib/use-delayed-flag';
 import { useStableCallback } from '../../../lib/use-stable-callback';
 import { useDuplicateDesign } from '../api/duplicate-design';
 import { useDesign } from '../api/get-design';
@@ -39,7 +40,7 @@ import { RequestJobDialog, type RequestJobValues } from '../../jobs/components/r
 import { SpecForm } from '../components/spec-form';
 import { StudioHeader } from '../components/studio-header';
 import { StudioDetailsPanel } from '../components/studio-details-panel';
-import { StudioPreviewPanel } from '../components/studio-preview-panel';
+import { BUILDING_NOTICE_DELAY_MS, StudioPreviewPanel } from '../components/studio-preview-panel';
 import { StudioSheetsPanel } from '../components/studio-sheets-panel';
 import { useStudioPreview } from '../hooks/use-studio-preview';
 import { useUnsavedChangesGuard } from '../hooks/use-unsaved-changes-guard';
@@ -188,7 +189,9 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   );
   const colourCount = shown?.colourCount ?? 1;
   const colourRule: ColourRuleName = shown?.colourRule ?? 'neighbour-distinct';
-  const { preview, fit, fitting } = useStudioPreview(shown?.spec ?? null, colourCount, colourRule);
+  const { preview, fit, fitting, building } = useStudioPreview(shown?.spec ?? null, colourCount, colourRule);
+  // The details are dimmed with the model while a build that takes a while runs (see StudioPreviewPanel).
+  const slowBuild = useDelayedFlag(building && !fitting, BUILDING_NOTICE_DELAY_MS);
   // Said away from the field (preview, sheets), so it names the field.
   const firstIssue = parsed.success ? undefined : parsed.error.issues[0];
   const formError = parsed.success
@@ -196,7 +199,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
     : firstIssue
       ? describeFormIssue(firstIssue)
       : 'a field is not valid';
-  const report = preview.model?.report ?? null;
+  const report = preview.report;
   // Stable between keystrokes, so the memoised panels skip the keystroke's render.
   const fmt = useCallback((mm: number) => formatLength(mm, unit), [unit]);
   const piece = report?.pieces.find((p) => p.id === selected) ?? report?.pieces[0];
@@ -345,6 +348,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
           <StudioPreviewPanel
             preview={preview}
             fittingSheets={fitting && fit ? fit.sheets : null}
+            building={building}
             showingLastValid={formError !== null}
             idleMessage={
               values.solidSource === 'upload' && !upload
@@ -365,7 +369,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
               selectedPiece={piece?.id}
               onSelectPiece={setSelected}
               formatLength={fmt}
-              busy={fitting}
+              busy={fitting || slowBuild}
             />
           ) : null}
           <StudioSheetsPanel

@@ -1,3 +1,4 @@
+import { type TaskRequest } from '../../../lib/task-worker';
 import { layOutStudio } from '../../designs/lib/studio-layout';
 import { layOutJob } from '../../jobs/lib/job-layout';
 
@@ -14,14 +15,8 @@ export type LayoutTaskName = keyof typeof layoutTasks;
 export type LayoutTaskArgs<K extends LayoutTaskName> = Parameters<(typeof layoutTasks)[K]>;
 export type LayoutTaskResult<K extends LayoutTaskName> = ReturnType<(typeof layoutTasks)[K]>;
 
-/** A request to the worker and its answer. */
-export interface LayoutRequest {
-  id: number;
-  task: LayoutTaskName;
-  args: unknown[];
-}
-export type LayoutResponse =
-  { id: number; ok: true; value: unknown } | { id: number; ok: false; message: string };
+/** A request to the worker (its answer is a TaskResponse). */
+export type LayoutRequest = TaskRequest<LayoutTaskName>;
 
 /** Runs a task by name (in the worker, or on the main thread as the fallback). */
 export function runLayoutTask(task: LayoutTaskName, args: readonly unknown[]): unknown {
