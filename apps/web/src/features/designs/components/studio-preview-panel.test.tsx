@@ -1,0 +1,87 @@
+import { screen, within } from '@testing-library/react';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { renderWithProviders } from '../../../testing/render-app';
+import { buildPreview, emptyPreview } from '../lib/build-preview';
+import { DEFAULT_DESIGN_VALUES, toDesignSpec } from './design-form-schema';
+import { BUILDING_NOTICE_DELAY_MS, StudioPreviewPanel } from './studio-preview-panel';
+
+// No WebGL here (as in model-preview-3d.test.tsx): the 3D view draws nothing, the panel around it is tested.
+vi.mock('./render-quality', () => ({ isSoftwareWebGl: () => true }));
+
+const spec = toDesignSpec(DEFAULT_DESIGN_VALUES, null);
+const built = buildPreview(spec, 1, 'neighbour-distinct');
+
+function panel(preview: typeof built, building: boolean) {
+  return (
+    <StudioPreviewPanel
+      preview={preview}
+      building={building}
+      idleMessage="Correct the marked fields to see the model."
+      selectedPiece={undefined}
+      onSelectPiece={() => undefined}
+      formatLength={(mm) => `${mm.toFixed(1)} mm`}
+    />
+  );
+}
+
+describe('studio preview panel while the next model builds', () => {
+  beforeEach(() => {
+    // jsdom measures nothing; React Three Fiber only needs the observer to exist.
+    vi.stubGlobal(
+      'ResizeObserver',
+      class {
+        observe() {}
+        unobserve() {}
+        disconnect() {}
+      },
+    );
+  });
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('keeps the model built before on screen, and says so once the build takes a while', async () => {
+    const { rerender } = renderWithProviders(panel(built, true));
+    const facts = screen.getByTestId('model-facts');
+    // A build that ends in a moment leaves the panel as it was (no flicker on every keystroke).
+    expect(screen.queryByTestId('preview-building')).not.toBeInTheDocument();
+    expect(facts.parentElement).not.toHaveAttribute('aria-busy');
+    const notice = await screen.findByRole('status', {}, { timeout: BUILDING_NOTICE_DELAY_MS + 1000 });
+    expect(notice).toHaveTextContent(
+      'Building the model for the values entered… The model below is the one built before.',
+    );
+    expect(within(notice).getByRole('progressbar')).toHaveAccessibleName(
+      'Building the model for the values entered…',
+    );
+    expect(screen.getByTestId('model-facts')).toHaveTextContent('Pieces8');
+    expect(screen.getByTestId('model-facts').parentElement).toHaveAttribute('aria-busy', 'true');
+
+    rerender(panel(built, false));
+    expect(screen.queryByTestId('preview-building')).not.toBeInTheDocument();
+    expect(screen.getByTestId('model-facts').parentElement).not.toHaveAttribute('aria-busy');
+  });
+
+  it('says nothing is there to see only when no model is on its way', async () => {
+    const { rerender } = renderWithProviders(panel(emptyPreview(null, 1, 'neighbour-distinct'), true));
+    // The first model of the page is being built: no "correct the fields", a notice after a moment.
+    expect(screen.queryByTestId('preview-unavailable')).not.toBeInTheDocument();
+    expect(
+      await screen.findByRole('status', {}, { timeout: BUILDING_NOTICE_DELAY_MS + 1000 }),
+    ).toHaveTextContent(/^Building the model…$/);
+    rerender(panel(emptyPreview(null, 1, 'neighbour-distinct'), false));
+    expect(screen.getByTestId('preview-unavailable')).toHaveTextContent(
+      'Correct the marked fields to see the model.',
+    );
+  });
+
+  it('keeps showing why the engine refused the last spec while the next one builds', () => {
+    const refused = emptyPreview(
+      spec,
+      1,
+      'neighbour-distinct',
+      'This design is too heavy to compute in time',
+    );
+    renderWithProviders(panel(refused, true));
+    expect(screen.getByTestId('preview-unavailable')).toHaveTextContent(
+      'This design is too heavy to compute in time',
+    );
+  });
+});
