@@ -22,7 +22,16 @@ interface Pending {
   request: TaskRequest;
   resolve: (value: unknown) => void;
   reject: (error: Error) => void;
+  /** Cancelled while running, and left to finish: its answer is not passed on. */
+  dropped?: boolean;
 }
+
+/**
+ * What cancelling the running request does: `terminate` stops the worker at once (the next request starts a
+ * fresh one, which loads the engine and warms up anew); `discard` lets it finish in the worker, which stays
+ * warm, and passes its answer on to no one.
+ */
+export type CancelRunning = 'terminate' | 'discard';
 
 /** True where the page can run tasks in a worker (not in jsdom). */
 export function taskWorkersAvailable(): boolean {
@@ -32,12 +41,13 @@ export function taskWorkersAvailable(): boolean {
 /**
  * The client of one worker, started on first use by `start` (which names the worker's module, so that the
  * bundler finds it). Requests run one at a time in the order asked. Cancelling a queued request drops it;
- * cancelling the running one terminates the worker (a task cannot be interrupted otherwise), and the next
- * request starts a fresh one. `stopped` is the message of a worker that failed without saying why.
+ * cancelling the running one terminates the worker (a task cannot be interrupted otherwise) or lets it
+ * finish unheard, as `cancelRunning` says. `stopped` is the message of a worker that failed without saying why.
  */
 export function createTaskWorkerClient<Name extends string>(
   start: () => Worker,
   stopped: string,
+  cancelRunning: CancelRunning = 'terminate',
 ): { run: (task: Name, args: readonly unknown[]) => TaskRun } {
   let worker: Worker | null = null;
   let running: Pending | null = null;
@@ -50,7 +60,9 @@ export function createTaskWorkerClient<Name extends string>(
       const done = running;
       if (!done || done.request.id !== event.data.id) return;
       running = null;
-      if (event.data.ok) done.resolve(event.data.value);
+      if (done.dropped) {
+        // Asked for no more: the answer goes to no one.
+      } else if (event.data.ok) done.resolve(event.data.value);
       else done.reject(new Error(event.data.message));
       pump();
     };
@@ -83,6 +95,7 @@ export function createTaskWorkerClient<Name extends string>(
     const cancel = () => {
       const i = queue.indexOf(entry as unknown as Pending);
       if (i >= 0) queue.splice(i, 1);
+      else if (running === entry && cancelRunning === 'discard') (entry as Pending).dropped = true;
       else if (running === entry && worker) {
         worker.terminate();
         worker = null;
