@@ -314,6 +314,19 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
         `${median(longest).toFixed(0)} ms (runs: ${longest.map((t) => t.toFixed(0)).join(', ')} ms); ` +
         `model on screen after a median ${median(update).toFixed(0)} ms (runs: ${update.map((t) => t.toFixed(0)).join(', ')} ms)`,
     );
+    // A size typed key by key (120 ms apart, as a quick typist): how long the keys took to go in (the page
+    // froze under each build when it built on the main thread), and how soon the model followed the last key.
+    const sizeField = page.getByLabel('Size');
+    await sizeField.selectText();
+    const typingStarted = Date.now();
+    await sizeField.pressSequentially('1.234', { delay: 120 });
+    const typedMs = Date.now() - typingStarted;
+    await page.locator('canvas[data-rendered-key*="1.234"]').waitFor({ timeout: 60_000 });
+    console.log(
+      `the same design, 5 keys typed into Size: the keys took ${typedMs} ms (about 600 ms of it the typist's ` +
+        `own pauses); the model followed ${Date.now() - typingStarted - typedMs} ms after the last key`,
+    );
+
     // The model came from the preview worker, and the studio shows it whole: its facts, its report.
     expect(workers.some((url) => /preview\.worker/.test(url))).toBe(true);
     expect(await page.getByTestId('model-facts').textContent()).toMatch(

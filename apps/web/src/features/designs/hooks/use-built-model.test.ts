@@ -54,7 +54,7 @@ async function load() {
     renderHook((s: DesignSpecInput | null) => hook.useBuiltModel(s, 1, 'neighbour-distinct'), {
       initialProps: spec,
     });
-  return { render, runInLayoutWorker: layout.runInLayoutWorker };
+  return { render, runInLayoutWorker: layout.runInLayoutWorker, pauseMs: hook.TYPING_PAUSE_MS };
 }
 
 const previewWorkers = () => FakeWorker.made.filter((w) => /preview\.worker/.test(String(w.url)));
@@ -109,6 +109,24 @@ describe('useBuiltModel in the browser (a preview worker)', () => {
     expect(result.current.building).toBe(false);
     expect(result.current.preview.report?.pieces).toHaveLength(8);
     expect(result.current.preview.report?.piece.size).toBe(1.4);
+  });
+
+  it('waits for a pause in the edits before building a model whose last build was slow', async () => {
+    const { render, pauseMs } = await load();
+    // 120 pieces × 119 × 14 sides = 199,920, just under the work limit: its build takes a good part of a second.
+    const heavy = (size: number) => design('disdyakis-triacontahedron', 14, size);
+    const { result, rerender } = render(heavy(1.2));
+    const worker = previewWorkers()[0]!;
+    await worker.answerWithTask();
+    expect(result.current.preview.buildMs).toBeGreaterThan(pauseMs);
+
+    // Typed key by key: nothing is sent until the edits pause, then the last value alone.
+    rerender(heavy(1.3));
+    rerender(heavy(1.35));
+    expect(worker.posted).toHaveLength(1);
+    expect(result.current.building).toBe(true);
+    await waitFor(() => expect(worker.posted).toHaveLength(2));
+    expect((worker.posted[1]!.args[0] as DesignSpecInput).piece.size).toBe(1.35);
   });
 
   it("shows the engine's refusal of a design too heavy, and a stopped worker's reason, as sentences", async () => {
