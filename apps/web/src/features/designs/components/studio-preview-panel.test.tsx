@@ -48,9 +48,8 @@ describe('studio preview panel while the next model builds', () => {
     expect(notice).toHaveTextContent(
       'Building the model for the values entered… The model below is the one built before.',
     );
-    expect(within(notice).getByRole('progressbar')).toHaveAccessibleName(
-      'Building the model for the values entered…',
-    );
+    // Words, not a moving bar (a bar is laid out and painted on every frame while the worker builds).
+    expect(within(notice).queryByRole('progressbar')).not.toBeInTheDocument();
     expect(screen.getByTestId('model-facts')).toHaveTextContent('Pieces8');
     expect(screen.getByTestId('model-facts').parentElement).toHaveAttribute('aria-busy', 'true');
 
