@@ -70,6 +70,12 @@ export const theme = createTheme({
         },
       },
     },
+    MuiToggleButton: {
+      styleOverrides: {
+        // MUI's default (black at 54 %) reads 4.46:1 on birch, under the 4.5:1 of WCAG 2.1, 1.4.3.
+        root: ({ theme: t }) => ({ color: t.palette.text.secondary }),
+      },
+    },
     MuiCard: { defaultProps: { variant: 'outlined' } },
     MuiPaper: { styleOverrides: { outlined: { borderColor: birch.edge } } },
     MuiTableCell: { styleOverrides: { head: { fontWeight: 700 } } },

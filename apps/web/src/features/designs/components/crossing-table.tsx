@@ -21,7 +21,8 @@ export function CrossingTable({
     .map((c, index) => ({ c, index }))
     .filter(({ c }) => !pieceId || c.a === pieceId || c.b === pieceId);
   return (
-    <TableContainer sx={{ maxHeight: 320 }}>
+    // The rows scroll inside the box: it takes the keyboard's focus, so the arrow keys scroll it (WCAG 2.1, 2.1.1).
+    <TableContainer tabIndex={0} role="region" aria-label="Crossings" sx={{ maxHeight: 320 }}>
       <Table size="small" stickyHeader aria-label="Crossings">
         <TableHead>
           <TableRow>
