@@ -372,6 +372,7 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     );
     expect(await dialog.getByLabel('Material').inputValue()).not.toBe('');
     // Nothing chosen: the form says what is missing.
+    await dialog.getByRole('progressbar').waitFor({ state: 'detached' });
     await dialog.getByLabel('Material').selectOption({ label: 'Choose…' });
     await dialog.getByRole('button', { name: 'Prepare' }).click();
     await dialog.getByText('Choose a material').waitFor();

@@ -13,6 +13,7 @@ import TablePagination from '@mui/material/TablePagination';
 import TableRow from '@mui/material/TableRow';
 import TableSortLabel from '@mui/material/TableSortLabel';
 import { type ReactNode } from 'react';
+import { useScrollFocus } from '../../lib/use-scroll-focus';
 
 /** One column: its header, how a row shows in it, and (when sortable) the API's sort field. */
 export interface DataTableColumn<T, F extends string = string> {
@@ -96,6 +97,7 @@ export function DataTable<T, F extends string = string>({
   onPage,
   onPageSize,
 }: DataTableProps<T, F>) {
+  const scrollFocus = useScrollFocus(label);
   const phone = useMediaQuery((theme: Theme) => theme.breakpoints.down('sm'));
   const tablet = useMediaQuery((theme: Theme) => theme.breakpoints.down('md'));
   // On a phone or a tablet the secondary columns go, and with them the width the whole table needed.
@@ -106,7 +108,7 @@ export function DataTable<T, F extends string = string>({
   return (
     <Paper variant="outlined">
       <Box sx={{ height: 4 }}>{fetching ? <LinearProgress aria-label={fetchingLabel} /> : null}</Box>
-      <TableContainer sx={{ overflowX: 'auto' }}>
+      <TableContainer {...scrollFocus} sx={{ overflowX: 'auto' }}>
         <Table size="small" aria-label={label} sx={{ minWidth: tablet ? undefined : minWidth }}>
           <TableHead>
             <TableRow>

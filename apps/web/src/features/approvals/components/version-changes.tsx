@@ -10,6 +10,7 @@ import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import useMediaQuery from '@mui/material/useMediaQuery';
 import { type VersionChange, versionChanges } from '../../machine-profiles/utils/version-rows';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /** Long values (notes) wrap where they must instead of widening the page. */
 const WRAP = { overflowWrap: 'anywhere', whiteSpace: 'pre-line' } as const;
@@ -29,12 +30,13 @@ export function VersionChanges({
   // Five columns do not fit a phone: there each setting is a block of its own, old value above the new.
   const phone = useMediaQuery(useTheme().breakpoints.down('sm'), { noSsr: true });
   const changes = versionChanges(approved, waiting);
+  const label = `Changes in version ${waiting.number}`;
+  const scrollFocus = useScrollFocus(label);
   if (changes.length === 0) {
     return <Typography color="text.secondary">No value differs from the approved version.</Typography>;
   }
   const approvedHeading = approved ? `Approved (version ${approved.number})` : 'Approved';
   const waitingHeading = `Version ${waiting.number}`;
-  const label = `Changes in version ${waiting.number}`;
   if (phone) {
     return (
       <Box
@@ -56,7 +58,7 @@ export function VersionChanges({
   }
   return (
     // A table wider than its box (long names) scrolls inside it rather than widening the page.
-    <TableContainer sx={{ overflowX: 'auto' }}>
+    <TableContainer {...scrollFocus} sx={{ overflowX: 'auto' }}>
       <Table size="small" aria-label={label} data-testid="version-changes" sx={{ '& td, & th': { py: 0.5 } }}>
         <TableHead>
           <TableRow>

@@ -10,6 +10,7 @@ import TableContainer from '@mui/material/TableContainer';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import { useMemo } from 'react';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /**
  * The suggested assembly order (the same as the cut pack's assembly guide): each step's new piece, the placed
@@ -22,6 +23,7 @@ export function AssemblySteps({
   report: DesignReport;
   onSelectPiece: (id: string) => void;
 }) {
+  const scrollFocus = useScrollFocus('Assembly order');
   const steps = useMemo(() => assemblyStepsOfReport(report), [report]);
   const rigid = !report.stock.flexible;
   const crooked = rigid ? steps.filter((s) => s.spreadDeg > STRAIGHT_DEG).length : 0;
@@ -34,7 +36,7 @@ export function AssemblySteps({
             'part-way out until it is in.'
           : `Add the pieces in this order: each new piece is held by at least one piece already in place.`}
       </Alert>
-      <TableContainer sx={{ maxHeight: 360 }}>
+      <TableContainer {...scrollFocus} sx={{ maxHeight: 360 }}>
         <Table size="small" stickyHeader aria-label="Assembly order">
           <TableHead>
             <TableRow>

@@ -22,6 +22,7 @@ import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
 import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from '../lib/pack-text';
 import { formatDateTime } from '../../../lib/dates';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 function formatBytes(bytes: number): string {
   if (bytes < 1024) return `${bytes} B`;
@@ -55,6 +56,7 @@ export function CutPackPanel({
   /** Why a pack cannot be prepared now though the caller may prepare packs (packPrepareBlockedReason). */
   prepareBlocked?: string | null;
 }) {
+  const scrollFocus = useScrollFocus('Cut pack files');
   const exports = useJobExports(jobId, true);
   const safety = useJobSafety(jobId, true);
   const request = useRequestCutPack(jobId, jobVersion);
@@ -133,7 +135,7 @@ export function CutPackPanel({
             ) : null}
             {/* At phone width the row keeps to the name, size and button (the name wraps); the table scrolls
               inside its own box rather than widening the page. */}
-            <TableContainer sx={{ overflowX: 'auto' }}>
+            <TableContainer {...scrollFocus} sx={{ overflowX: 'auto' }}>
               <Table size="small" aria-label="Cut pack files">
                 <TableBody>
                   {shown.files.map((f) => (

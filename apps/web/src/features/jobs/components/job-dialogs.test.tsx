@@ -356,6 +356,25 @@ describe('prepare job dialog', () => {
     });
   });
 
+  it('says it is loading until the lists and the design are in', async () => {
+    stubLists([acrylic], [laser]);
+    renderWithProviders(
+      <PrepareJobDialog
+        open
+        designId="d-missing"
+        busy={false}
+        error={null}
+        onSubmit={vi.fn()}
+        onClose={noop}
+      />,
+    );
+    expect(
+      screen.getByRole('progressbar', { name: 'Loading the materials and machine profiles' }),
+    ).toBeInTheDocument();
+    await screen.findByRole('option', { name: acrylic.name });
+    await waitFor(() => expect(screen.queryByRole('progressbar')).not.toBeInTheDocument());
+  });
+
   it('lists the stock sheets in the unit the job page shows (the prices stay per sheet)', async () => {
     stubLists([acrylic], [laser, draftOnly]);
     const { user } = renderWithProviders(

@@ -10,6 +10,7 @@ import Typography from '@mui/material/Typography';
 import { type Theme } from '@mui/material/styles';
 import useMediaQuery from '@mui/material/useMediaQuery';
 import { formatDateTime } from '../../../lib/dates';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /** "requested → prepared", or for a change of copies or notes "draft: changed". */
 function stepText(t: JobTransitionView): string {
@@ -21,6 +22,7 @@ function stepText(t: JobTransitionView): string {
  * screens; on a phone a list, each step on its own lines, so nothing needs sideways scrolling.
  */
 export function JobHistory({ transitions }: { transitions: readonly JobTransitionView[] }) {
+  const scrollFocus = useScrollFocus('History');
   const phone = useMediaQuery((theme: Theme) => theme.breakpoints.down('sm'));
   if (phone)
     return (
@@ -47,7 +49,7 @@ export function JobHistory({ transitions }: { transitions: readonly JobTransitio
       </Box>
     );
   return (
-    <TableContainer sx={{ overflowX: 'auto' }}>
+    <TableContainer {...scrollFocus} sx={{ overflowX: 'auto' }}>
       <Table size="small" aria-label="History">
         <TableHead>
           <TableRow>

@@ -5,6 +5,7 @@ import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import FormHelperText from '@mui/material/FormHelperText';
+import LinearProgress from '@mui/material/LinearProgress';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useEffect, useState } from 'react';
@@ -268,6 +269,13 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
       onSubmit={submit}
       onClose={props.onClose}
     >
+      {
+        // Until the lists (and the job's design, which a first preparation starts from) are in, the choices
+        // shown are not the ones offered: said, so nobody picks from half a list.
+        materials.isLoading || profiles.isLoading || design.isLoading ? (
+          <LinearProgress aria-label="Loading the materials and machine profiles" sx={{ mb: 1 }} />
+        ) : null
+      }
       {failed.length > 0 ? (
         <Alert
           severity="error"

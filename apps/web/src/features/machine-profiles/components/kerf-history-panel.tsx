@@ -19,6 +19,7 @@ import { KerfHistoryChart, type KerfReference } from './kerf-history-chart';
 import { KerfRecordDialog } from './kerf-record-dialog';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 import { formatDateTime } from '../../../lib/dates';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /**
  * The kerf history of one material on this machine: measurements over time against the approved and the
@@ -38,6 +39,7 @@ export function KerfHistoryPanel({
   const [justAdopted, setJustAdopted] = useState<string | null>(null);
   const router = profile.kind === 'cnc-router';
   const quantity = router ? 'cut width' : 'kerf';
+  const scrollFocus = useScrollFocus(`Measured ${quantity}s`);
 
   // Materials this machine has settings or measurements for, newest version first.
   const materials = new Map<string, string>();
@@ -111,7 +113,7 @@ export function KerfHistoryPanel({
       ) : null}
       <KerfHistoryChart records={mine} references={references} quantity={quantity} />
       {mine.length > 0 ? (
-        <TableContainer sx={{ mt: 2, overflowX: 'auto' }}>
+        <TableContainer {...scrollFocus} sx={{ mt: 2, overflowX: 'auto' }}>
           <Table size="small" aria-label={`Measured ${quantity}s`}>
             <TableHead>
               <TableRow>

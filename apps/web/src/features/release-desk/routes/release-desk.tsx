@@ -39,12 +39,14 @@ import { SafetyDialog } from '../../jobs/components/safety-dialog';
 import { type DeskRow, useReleaseDeskJobs } from '../api/get-release-desk-jobs';
 import { PackProgress } from '../components/pack-progress';
 import { countOf } from '../../../lib/plural';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /**
  * The release desk (operators, supervisors): the jobs ready for the machines and those whose cut pack is
  * being prepared. Open one to read and acknowledge its safety notices, download its files and record the cut.
  */
 export function ReleaseDeskRoute() {
+  const scrollFocus = useScrollFocus('Jobs at the release desk');
   const desk = useReleaseDeskJobs();
   const [unit, setUnit] = useLengthUnit();
   // The opened job is in the address (?job=…): the browser's Back closes it, and a link to it opens it.
@@ -120,7 +122,12 @@ export function ReleaseDeskRoute() {
       ) : null}
       {desk.rows.length > 0 && !phone ? (
         // A tablet-width page keeps its width: the table scrolls inside its card.
-        <TableContainer component={Paper} variant="outlined" sx={{ mb: 2, overflowX: 'auto' }}>
+        <TableContainer
+          {...scrollFocus}
+          component={Paper}
+          variant="outlined"
+          sx={{ mb: 2, overflowX: 'auto' }}
+        >
           <Table size="small" aria-label="Jobs at the release desk">
             <TableHead>
               <TableRow>

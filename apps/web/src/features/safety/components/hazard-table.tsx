@@ -13,6 +13,7 @@ import TextField from '@mui/material/TextField';
 import { useMemo, useState } from 'react';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 import { familyLabel } from '../../../config/trade-labels';
+import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 type SortKey = 'family' | 'laser';
 const LASER_LABEL: Record<LaserAllowance, string> = {
@@ -24,6 +25,7 @@ const LASER_COLOUR = { yes: 'success', no: 'error', conditional: 'warning' } as 
 
 /** The material hazard table: searchable, filterable by laser allowance, sortable and paged. */
 export function HazardTable({ rows }: { rows: readonly MaterialHazard[] }) {
+  const scrollFocus = useScrollFocus('Material hazards');
   const [q, setQ] = useState('');
   const [laser, setLaser] = useState<LaserAllowance | 'all'>('all');
   const [sort, setSort] = useState<{ key: SortKey; asc: boolean }>({ key: 'family', asc: true });
@@ -89,7 +91,7 @@ export function HazardTable({ rows }: { rows: readonly MaterialHazard[] }) {
         </TextField>
       </Stack>
       {/* A phone-width page keeps its width: the table scrolls inside its own box. */}
-      <TableContainer sx={{ overflowX: 'auto' }}>
+      <TableContainer {...scrollFocus} sx={{ overflowX: 'auto' }}>
         <Table size="small" aria-label="Material hazards">
           <TableHead>
             <TableRow>
