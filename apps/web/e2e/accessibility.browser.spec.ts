@@ -239,6 +239,19 @@ describe(`WCAG 2.1 AA (axe-core rules) in Chromium at ${BASE_URL}`, () => {
         page.locator('[data-testid="preview-3d"] canvas[data-rendered-key]').waitFor(),
       )),
     );
+    // Its sheets laid out (drawn pieces, facts), and the assembly order.
+    const sheets = page.getByTestId('studio-sheets');
+    await sheets.getByRole('button', { name: 'Lay out on sheets' }).click();
+    await sheets.getByTestId('sheets-summary').waitFor();
+    await page.getByRole('tab', { name: 'Assembly' }).click();
+    await page.getByRole('table', { name: 'Assembly order' }).waitFor();
+    found.push(...(await audit(page, 'hobbyist studio, sheets and assembly @390')));
+    // On a phone the navigation opens over the page.
+    await page.getByRole('button', { name: 'Open navigation' }).click();
+    await page.getByRole('navigation', { name: 'Main' }).waitFor();
+    found.push(...(await audit(page, 'hobbyist navigation drawer @390')));
+    await page.keyboard.press('Escape');
+    expect(await receivesFocus(page.getByRole('button', { name: 'Open navigation' }))).toBe(true);
     // A saved design, and its request for a cut.
     await page.goto('/designs');
     await page.getByRole('table', { name: 'Designs' }).getByRole('link').first().click();
