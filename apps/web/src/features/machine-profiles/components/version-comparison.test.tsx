@@ -1,5 +1,6 @@
 import { type MachineProfileVersionView } from '@kerfwright/contracts';
 import { render, screen, within } from '@testing-library/react';
+import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { VersionComparison } from './version-comparison';
 import { versionFixture } from '../../../testing/fixtures';
@@ -26,5 +27,16 @@ describe('versions side by side', () => {
     } as MachineProfileVersionView;
     render(<VersionComparison versions={[version, v2]} />);
     expect(screen.getByText(KEY)).toBeInTheDocument();
+  });
+
+  it('scrolls in a named region the keyboard can focus, as nothing inside it takes the focus', async () => {
+    const v2 = { ...version, id: 'v-2', number: 2, state: 'draft' } as MachineProfileVersionView;
+    render(<VersionComparison versions={[version, v2]} />);
+    const region = screen.getByRole('region', { name: 'Versions side by side' });
+    expect(region).toContainElement(screen.getByRole('table', { name: 'Versions side by side' }));
+    // Wider than a phone, the box scrolls: the arrow keys reach the later versions once it has the focus
+    // (WCAG 2.1, 2.1.1; axe-core rule "scrollable-region-focusable").
+    await userEvent.setup().tab();
+    expect(region).toHaveFocus();
   });
 });

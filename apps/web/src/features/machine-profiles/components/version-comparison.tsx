@@ -22,8 +22,14 @@ export function VersionComparison({ versions }: { versions: readonly MachineProf
   let section = '';
   return (
     // Positioned, so the hidden "(changed)" texts (absolutely placed) stay inside the scrolling box: otherwise
-    // they escape it and widen a phone-width page.
-    <TableContainer sx={{ overflowX: 'auto', position: 'relative' }}>
+    // they escape it and widen a phone-width page. Nothing in it takes the focus, so the box does: the arrow
+    // keys scroll it to the later versions (WCAG 2.1, 2.1.1).
+    <TableContainer
+      tabIndex={0}
+      role="region"
+      aria-label="Versions side by side"
+      sx={{ overflowX: 'auto', position: 'relative' }}
+    >
       <Table size="small" aria-label="Versions side by side" data-testid="version-comparison">
         <TableHead>
           <TableRow>
