@@ -1,5 +1,10 @@
 import fs from 'node:fs';
-import { type AuthResponse, type Role } from '@kerfwright/contracts';
+import {
+  type AuthResponse,
+  type MachineProfileSummaryView,
+  type Page as ListPage,
+  type Role,
+} from '@kerfwright/contracts';
 import { type Browser, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import type { AxeResults, Result, RunOptions } from 'axe-core';
 import { BASE_URL, launchBrowser, newContext, signInToHome } from './browser';
@@ -283,8 +288,25 @@ describe(`WCAG 2.1 AA (axe-core rules) in Chromium at ${BASE_URL}`, () => {
   it('finds no violation on the fabricator pages and the prepare dialog', async () => {
     const page = await signedInPage('fabricator');
     const found = await auditNavigation(page, 'fabricator');
+    // A profile with versions side by side (the seed gives each profile one version): the approved laser
+    // profile with a draft of its next version, started once through the API as the fabricator would.
+    const fabricator = await api<AuthResponse>('POST', '/api/auth/login', {
+      email: demoUser('fabricator').email,
+      password: DEMO_PASSWORD,
+    });
+    const profiles = await api<ListPage<MachineProfileSummaryView>>(
+      'GET',
+      '/api/machine-profiles',
+      undefined,
+      fabricator.accessToken,
+    );
+    const profile = profiles.items.find((p) => p.currentApproved !== null);
+    if (!profile) throw new Error('the demo data has no approved machine profile');
+    if (profile.latest.number === 1)
+      await api('POST', `/api/machine-profiles/${profile.id}/versions`, {}, fabricator.accessToken);
     await page.goto('/machine-profiles');
-    await page.getByRole('table').getByRole('link').first().click();
+    await page.getByRole('table').getByRole('link', { name: profile.name, exact: true }).click();
+    await page.getByTestId('version-comparison').waitFor();
     found.push(
       ...(await auditAtBothWidths(page, 'fabricator machine profile', () =>
         page.getByTestId('machine-profile-page').waitFor(),
@@ -371,7 +393,7 @@ async function api<T>(method: string, route: string, body: unknown, token?: stri
   const res = await fetch(`${BASE_URL}${route}`, {
     method,
     headers: { 'content-type': 'application/json', ...(token ? { authorization: `Bearer ${token}` } : {}) },
-    body: JSON.stringify(body),
+    body: body === undefined ? undefined : JSON.stringify(body),
   });
   if (!res.ok) throw new Error(`${method} ${route}: ${res.status} ${await res.text()}`);
   return (await res.json()) as T;
