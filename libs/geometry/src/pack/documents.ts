@@ -5,7 +5,7 @@ import { type AssemblyStep, STRAIGHT_DEG } from './assembly';
 import { type Coupon } from './coupon';
 import { type Pdf, PAGE, drawFlat, drawProjected, ensureRoom, heading, renderPdf, rows } from './pdf';
 import { type SheetDrawing } from './sheet-drawing';
-import { lengthText } from '../math/length-text';
+import { unitLengthText, unitSizeText } from '../math/length-text';
 
 /** The sentence every safety section ends with. */
 export const SAFETY_DEFERRAL =
@@ -26,6 +26,13 @@ export function setupSheetPdf(args: {
   const { input, model, sheets, estimate, coupon } = args;
   const m = input.machine;
   const spec = model.spec;
+  // Every length below is given in mm; in an inch pack it prints in inches with the mm beside it.
+  const units = input.units;
+  const len = (mm: number, mmText?: (mm: number) => string) => unitLengthText(mm, units, mmText);
+  // A length set off in a sentence: in brackets in mm, after a comma in inches (whose text has brackets), and
+  // before one unless the sentence ends there.
+  const aside = (mm: number, end = false) =>
+    units === 'in' ? `, ${len(mm)}${end ? '' : ','}` : ` (${len(mm)})`;
   const unitsLine =
     input.units === 'in'
       ? 'inches (DXF $INSUNITS 1; SVG width and height in in)'
@@ -41,13 +48,10 @@ export function setupSheetPdf(args: {
       heading(doc, 'Material and stock');
       rows(doc, [
         ['Material', `${input.material.name} (${input.material.family})`],
-        [
-          'Thickness',
-          `${lengthText(input.material.thicknessMm)} mm${spec.stock.flexible ? ', flexible' : ''}`,
-        ],
+        ['Thickness', `${len(input.material.thicknessMm)}${spec.stock.flexible ? ', flexible' : ''}`],
         [
           'Sheet',
-          `${lengthText(input.sheet.widthMm)} x ${lengthText(input.sheet.heightMm)} mm, margin ${lengthText(input.marginMm)} mm, gap ${lengthText(input.gapMm)} mm`,
+          `${unitSizeText(input.sheet.widthMm, input.sheet.heightMm, units)}, margin ${len(input.marginMm)}, gap ${len(input.gapMm)}`,
         ],
         ['Colours', input.colours.join(', ') + (input.colourRule ? ` (rule: ${input.colourRule})` : '')],
         ['Sheet count', `${sheets.length} (copies of the model: ${input.quantity})`],
@@ -56,20 +60,21 @@ export function setupSheetPdf(args: {
       heading(doc, 'Machine settings');
       rows(doc, [
         ['Profile', `${m.profileName} v${m.profileVersion} (${m.kind})`],
-        ['Bed', `${f1(m.bedWidthMm)} x ${f1(m.bedHeightMm)} mm`],
+        ['Bed', unitSizeText(m.bedWidthMm, m.bedHeightMm, units, f1)],
         [
           spec.machine.kind === 'laser' ? 'Kerf' : 'Tool diameter',
           spec.machine.kind === 'laser'
-            ? `${lengthText(spec.machine.kerfMm)} mm`
-            : `${lengthText(spec.machine.toolDiameterMm)} mm (dog-bone reliefs in slot corners)`,
+            ? len(spec.machine.kerfMm)
+            : len(spec.machine.toolDiameterMm) +
+              (units === 'in' ? '; dog-bone reliefs in slot corners' : ' (dog-bone reliefs in slot corners)'),
         ],
         [
           'Compensation',
           spec.machine.kind === 'laser'
-            ? `Built into the files: every cut line is already offset outward by half the kerf ` +
-              `(${lengthText(spec.machine.kerfMm / 2)} mm). Cut on the line; set no kerf offset in the machine software.`
+            ? `Built into the files: every cut line is already offset outward by half the kerf` +
+              `${aside(spec.machine.kerfMm / 2, true)}. Cut on the line; set no kerf offset in the machine software.`
             : `Not in the files: cut lines are the nominal outlines. Set an outside tool offset of the bit's ` +
-              `radius (${lengthText(spec.machine.toolDiameterMm / 2)} mm) in the machine software.`,
+              `radius${aside(spec.machine.toolDiameterMm / 2)} in the machine software.`,
         ],
         ['Cut speed', `${f1(m.cutSpeedMmS)} mm/s, ${m.passes} pass${m.passes === 1 ? '' : 'es'}`],
         ['Mark speed', `${f1(m.markSpeedMmS)} mm/s`],
@@ -98,15 +103,19 @@ export function setupSheetPdf(args: {
           'Fit-test coupon',
           `Cut coupon.dxf first. C1 (${f1(coupon.strips[0].angleDeg)} deg) slots ${coupon.strips[0].seriesMm.map(f2).join(' / ')} mm; ` +
             `C2 (${f1(coupon.strips[1].angleDeg)} deg) slots ${coupon.strips[1].seriesMm.map(f2).join(' / ')} mm. ` +
-            "Slide the other strip's key slot into each graded slot at the engraved angle and record the best fit.",
+            "Slide the other strip's key slot into each graded slot at the engraved angle and record the best fit." +
+            (units === 'in'
+              ? ' These widths are in millimetres in this inch pack too, as engraved on the coupon (its strip ' +
+                'labels end in MM): note the best fit in mm.'
+              : ''),
         ],
       ]);
       heading(doc, 'Estimates');
       rows(doc, [
-        ['Cut length', `${f1(estimate.cutLengthMm)} mm`],
-        ['Mark length', `${f1(estimate.markLengthMm)} mm`],
+        ['Cut length', len(estimate.cutLengthMm, f1)],
+        ['Mark length', len(estimate.markLengthMm, f1)],
         ['Pierces', String(estimate.pierces)],
-        ['Rapid travel', `${f1(estimate.travelMm)} mm`],
+        ['Rapid travel', len(estimate.travelMm, f1)],
         ['Machine time', `${f1(estimate.minutes)} min (uncalibrated; compare with recorded cuts)`],
         ['Machine cost', money(estimate.machineCost, m.currency)],
         [

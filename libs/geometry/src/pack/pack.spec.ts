@@ -345,13 +345,18 @@ describe('createCutPack (octahedron hexagons, two colours, mm)', () => {
 });
 
 describe('createCutPack in inches', () => {
-  it('writes true inches: $INSUNITS 1, every cut vertex 1/25.4 of the mm file, a 4 in scale bar', async () => {
-    const spec = octahedronHexagons();
+  const spec = octahedronHexagons();
+  let mm: CutPackResult;
+  let inch: CutPackResult;
+  beforeAll(async () => {
     const one = { colours: ['natural'], archive: false };
-    const [mm, inch] = await Promise.all([
+    [mm, inch] = await Promise.all([
       createCutPack(input(spec, { ...one, units: 'mm' })),
       createCutPack(input(spec, { ...one, units: 'in' })),
     ]);
+  });
+
+  it('writes true inches: $INSUNITS 1, every cut vertex 1/25.4 of the mm file, a 4 in scale bar', async () => {
     const mmD = sheetsOf(mm, 'dxf').map((f) => readDxf(f.data));
     const inD = sheetsOf(inch, 'dxf').map((f) => readDxf(f.data));
     expect(inD).toHaveLength(mmD.length);
@@ -378,6 +383,55 @@ describe('createCutPack in inches', () => {
     const { text } = await pdfText(file(inch, 'setup-sheet.pdf').data);
     expect(text).toContain('inches (DXF $INSUNITS 1');
     expect(text).toContain('4 IN');
+  });
+
+  /** The inches printed for `mm`: 1 in = 25.4 mm exactly (NIST SP 811, appendix B), to the printed decimals. */
+  const expectInches = (printed: string | undefined, mm: number, decimals: number) => {
+    expect(printed?.split('.')[1]).toHaveLength(decimals);
+    expect(Math.abs(Number(printed) - mm / 25.4)).toBeLessThanOrEqual(0.5 * 10 ** -decimals + 1e-12);
+  };
+
+  it('setup sheet (pdf-parse) gives sheet, thickness, kerf and lengths in inches with the mm beside them', async () => {
+    const { text } = await pdfText(file(inch, 'setup-sheet.pdf').data);
+    // Thickness 3 mm, kerf 0.15 mm, sheet 600 x 400 mm, margin 5 mm, gap 3 mm: the input above.
+    const thickness = /Thickness ([\d.]+) in \(3 mm\)/.exec(text);
+    expectInches(thickness?.[1], 3, 3);
+    const sheet =
+      /Sheet ([\d.]+) x ([\d.]+) in \(600 x 400 mm\), margin ([\d.]+) in \(5 mm\), gap ([\d.]+) in \(3 mm\)/.exec(
+        text,
+      );
+    expectInches(sheet?.[1], 600, 2);
+    expectInches(sheet?.[2], 400, 2);
+    expectInches(sheet?.[3], 5, 3);
+    expectInches(sheet?.[4], 3, 3);
+    // Below 0.1 in a thou is too coarse for a kerf: four decimals.
+    expectInches(/Kerf ([\d.]+) in \(0\.15 mm\)/.exec(text)?.[1], 0.15, 4);
+    expectInches(/half the kerf, ([\d.]+) in \(0\.075 mm\)\./.exec(text)?.[1], 0.075, 4);
+    expectInches(/Bed ([\d.]+) x [\d.]+ in \(600\.0 x 400\.0 mm\)/.exec(text)?.[1], 600, 2);
+    const cut = inch.manifest.estimate.cutLengthMm;
+    expectInches(new RegExp(`Cut length ([\\d.]+) in \\(${cut.toFixed(1)} mm\\)`).exec(text)?.[1], cut, 1);
+    // Speeds stay in the profile's mm/s, said so; the coupon's widths stay in mm, and the text says why.
+    expect(text).toContain('Cut speed 12.0 mm/s, 1 pass');
+    expect(text).toMatch(/slots [\d. /]+ mm; C2/);
+    expect(text).toContain('in millimetres in this inch pack too, as engraved on the coupon');
+    // The assembly guide gives no lengths at all: nothing there to convert.
+    const guide = await pdfText(file(inch, 'assembly-guide.pdf').data);
+    expect(guide.text).not.toMatch(/\d ?(mm|in)\b/);
+  });
+
+  it('mm setup sheet prints the same lengths in mm only, as before', async () => {
+    const { text } = await pdfText(file(mm, 'setup-sheet.pdf').data);
+    for (const s of [
+      'Thickness 3 mm',
+      'Sheet 600 x 400 mm, margin 5 mm, gap 3 mm',
+      'Bed 600.0 x 400.0 mm',
+      'Kerf 0.15 mm',
+      'offset outward by half the kerf (0.075 mm). Cut on the line',
+      `Cut length ${mm.manifest.estimate.cutLengthMm.toFixed(1)} mm`,
+    ])
+      expect(text).toContain(s);
+    expect(text).not.toMatch(/\d in\b/);
+    expect(text).not.toContain('inch pack');
   });
 });
 
