@@ -569,6 +569,18 @@ describe('createCutPack failures and the command-line helper', () => {
     expect(text).not.toMatch(/65(\.0)? %/);
   });
 
+  it('gives an inch pack a 1/8 in bit and its 1/16 in offset in inches (1 in = 25.4 mm exactly, NIST SP 811)', async () => {
+    // A 1/8 in bit is 3.175 mm (common practice); the tool offset to type is its radius, 0.0625 in.
+    const spec = octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } });
+    const base = packInputFrom(spec, { sheet: { widthMm: 1220, heightMm: 2440 } });
+    const r = await createCutPack({ ...base, units: 'in', archive: false });
+    const { text } = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(text).toContain('Tool diameter 0.125 in (3.175 mm); dog-bone reliefs in slot corners');
+    expect(text).toContain(
+      "Set an outside tool offset of the bit's radius, 0.0625 in (1.5875 mm), in the machine",
+    );
+  });
+
   it('fits a fitBed design without a stock sheet to the sheet the pack lays out on (600 × 400, margin 5)', async () => {
     // Sized to the 600 × 400 bed alone, the largest piece would not fit the default sheet less its margins.
     const spec = { ...octahedronHexagons(), scale: { by: 'fitBed' }, bed: { widthMm: 600, heightMm: 400 } };
