@@ -11,6 +11,7 @@ const benches = [
   'libs/geometry/bench/build.bench.mjs',
   'libs/geometry/bench/nest.bench.mjs',
   'libs/geometry/bench/layout.bench.mjs',
+  'libs/geometry/bench/fit.bench.mjs',
   'libs/geometry/bench/pack.bench.mjs',
   'scripts/bench-queue.mjs',
   'scripts/bench-api.mjs',
