@@ -364,11 +364,19 @@ describe('machine profiles, versions and kerf records', () => {
     for (const role of ['fabricator', 'operator', 'supervisor'] as const)
       expect(to).toContain(users[role].email);
     expect(to).not.toContain(users.hobbyist.email);
-    const mail = mails[0]!;
+    const mail = mails.find((m) => m.to.includes(users.fabricator.email))!;
     expect(mail.text).toContain('Reason given: Laser tube cracked; do not run until it is replaced');
     expect(mail.text).toContain(`Released with these settings, not yet cut: "${designs[0]!.name}"`);
     expect(mail.text).toContain(`Prepared or approved with these settings: "${designs[1]!.name}"`);
+    expect(mail.text).toContain(`/machine-profiles/${p.id}`);
     expect(mail.text).not.toContain(designs[2]!.name);
+    // Operators cannot return jobs nor open profiles: they are told to check before cutting, and sent to the desk.
+    const operators = mails.find((m) => m.to.includes(users.operator.email))!;
+    expect(operators.text).toContain(`Released with these settings, not yet cut: "${designs[0]!.name}"`);
+    expect(operators.text).toContain('Check with a supervisor before cutting any of them');
+    expect(operators.text).toContain('/release-desk');
+    expect(operators.text).not.toContain('/machine-profiles/');
+    expect(operators.text).not.toContain(designs[1]!.name);
     // The released job says why its version was retired, for the release desk to show.
     const job = await ctx.http.get(`/api/jobs/${jobIds[0]}`).set(auth('operator')).expect(200);
     expect(job.body).toMatchObject({
@@ -382,6 +390,23 @@ describe('machine profiles, versions and kerf records', () => {
       .body as ProfileBody;
     await act('supervisor', q, draft.latest, 'retire', { reason: 'Superseded by the bay laser' }).expect(200);
     expect(await mailsAbout(`Machine out of use: ${q.name}`)).toHaveLength(0);
+
+    // A draft started and closed while the machine is out of use says nothing of the machine.
+    const mistake = (
+      await ctx.http
+        .post(`/api/machine-profiles/${p.id}/versions`)
+        .set(auth('fabricator'))
+        .send({ notes: 'Started by mistake' })
+        .expect(201)
+    ).body as VersionBody;
+    const closed = await act('supervisor', p, mistake, 'retire', {
+      reason: 'Draft started by mistake',
+    }).expect(200);
+    // Retired twice (a second tab): the answer says so in plain words.
+    const twice = await act('supervisor', p, closed.body as VersionBody, 'retire').expect(409);
+    expect(twice.body.message).toMatch(
+      /^Version \d+ is retired already \(someone else may have just done it\); only an approved, draft or submitted version can be retired$/,
+    );
 
     // A newer version approved: the machine is back in use, and the workshop hears so once.
     const v2 = (

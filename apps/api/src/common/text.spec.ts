@@ -1,5 +1,5 @@
 import { validateSync } from 'class-validator';
-import { NoControlCharacters, withArticle } from './text';
+import { NoControlCharacters, orList, withArticle, withIndefinite } from './text';
 
 class Named {
   @NoControlCharacters() name!: string;
@@ -53,5 +53,15 @@ describe('withArticle', () => {
     expect(withArticle('approved')).toBe('An approved');
     expect(withArticle('released')).toBe('A released');
     expect(withArticle('draft')).toBe('A draft');
+  });
+});
+
+describe('withIndefinite and orList', () => {
+  it('say "only an approved, draft or submitted version" as a sentence does', () => {
+    expect(`only ${withIndefinite(orList(['approved', 'draft', 'submitted']))} version`).toBe(
+      'only an approved, draft or submitted version',
+    );
+    expect(withIndefinite(orList(['draft']))).toBe('a draft');
+    expect(orList(['submitted', 'approved'])).toBe('submitted or approved');
   });
 });

@@ -40,5 +40,13 @@ export const NoControlCharacters = () =>
     }),
   );
 
-/** "A draft", "An approved": the indefinite article a word takes in a sentence's first place (by its spelling). */
-export const withArticle = (word: string): string => `${/^[aeiou]/i.test(word) ? 'An' : 'A'} ${word}`;
+/** "a draft", "an approved": the indefinite article a word takes (by its spelling). */
+export const withIndefinite = (word: string): string => `${/^[aeiou]/i.test(word) ? 'an' : 'a'} ${word}`;
+
+/** "A draft", "An approved": the same in a sentence's first place. */
+export const withArticle = (word: string): string =>
+  withIndefinite(word).charAt(0).toUpperCase() + withIndefinite(word).slice(1);
+
+/** "approved, draft or submitted": words listed as a sentence lists them. */
+export const orList = (words: readonly string[]): string =>
+  words.length > 1 ? `${words.slice(0, -1).join(', ')} or ${words[words.length - 1]}` : (words[0] ?? '');

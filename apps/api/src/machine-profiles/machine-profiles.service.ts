@@ -1,7 +1,7 @@
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, type EntityManager, In } from 'typeorm';
+import { DataSource, type EntityManager, In, IsNull, Not } from 'typeorm';
 import {
   isLaserKind,
   laserConditionOf,
@@ -17,6 +17,7 @@ import {
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { AppError, notFound, validationFailed } from '../common/errors';
+import { orList, withIndefinite } from '../common/text';
 import { sortOrder } from '../common/paging';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { composeMail } from '../mail/mail-templates';
@@ -438,11 +439,12 @@ export class MachineProfilesService {
     profile: MachineProfile,
     v: MachineProfileVersion,
   ): Promise<void> {
+    // The last version that was in use (a draft closed since says nothing of the machine).
     const last = await manager.findOne(MachineProfileVersion, {
-      where: { profileId: profile.id, state: 'retired' },
+      where: { profileId: profile.id, state: 'retired', approvedAt: Not(IsNull()) },
       order: { retiredAt: 'DESC' },
     });
-    if (!last?.retireReason || !last.approvedAt) return;
+    if (!last?.retireReason) return;
     const mail = composeMail(
       `Machine back in use: ${profile.name}`,
       [
@@ -480,26 +482,50 @@ export class MachineProfilesService {
         .join(', ');
     const released = named(['released']);
     const waiting = named(['prepared', 'approved']);
-    const mail = composeMail(
+    const said = [
+      `${actor.displayName} has taken version ${v.number} of the machine profile "${profile.name}" out of use. ` +
+        'No job can be prepared, approved or released on this machine until a newer version is approved.',
+      `Reason given: ${reason ?? '(none)'}`,
+    ];
+    // Those who prepare and approve jobs hear what to do with them, with the profile's link.
+    const workshop = composeMail(
       `Machine out of use: ${profile.name}`,
       [
-        `${actor.displayName} has taken version ${v.number} of the machine profile "${profile.name}" out of use. ` +
-          'No job can be prepared, approved or released on this machine until a newer version is approved.',
-        `Reason given: ${reason ?? '(none)'}`,
+        ...said,
         released
           ? `Released with these settings, not yet cut: ${released}. They stay on the release desk, marked; ` +
             'return any that must not be cut on them.'
           : 'No released job uses these settings.',
         ...(waiting
-          ? [`Prepared or approved with these settings: ${waiting}. They must be prepared again.`]
+          ? [
+              `Prepared or approved with these settings: ${waiting}. They cannot be released on them: return ` +
+                'them with a reason; once requested again, they are prepared on the version approved then.',
+            ]
           : []),
       ],
       { label: 'Open the machine profile', url: this.link(profile.id) },
     );
     await this.mail.enqueue(manager, {
       kind: 'machine-profile.out-of-use',
-      to: await this.mail.addressesOfRoles(manager, ['fabricator', 'operator', 'supervisor']),
-      ...mail,
+      to: await this.mail.addressesOfRoles(manager, ['fabricator', 'supervisor']),
+      ...workshop,
+    });
+    // Operators cut: they hear which released jobs to hold, and go to the release desk (the profile is not theirs).
+    const operators = composeMail(
+      `Machine out of use: ${profile.name}`,
+      [
+        ...said,
+        released
+          ? `Released with these settings, not yet cut: ${released}. Check with a supervisor before cutting any ` +
+            'of them; a job that must not be cut is returned and leaves the release desk.'
+          : 'No released job uses these settings.',
+      ],
+      { label: 'Open the release desk', url: `${this.mailCfg.appUrl.replace(/\/+$/, '')}/release-desk` },
+    );
+    await this.mail.enqueue(manager, {
+      kind: 'machine-profile.out-of-use',
+      to: await this.mail.addressesOfRoles(manager, ['operator']),
+      ...operators,
     });
   }
 
@@ -734,7 +760,8 @@ export class MachineProfilesService {
       throw new AppError(
         HttpStatus.CONFLICT,
         `${AREA}.INVALID_STATE`,
-        `Version ${v.number} is ${v.state}; only a ${from.join(' or ')} version can be ${what}`,
+        `Version ${v.number} is ${v.state}${v.state === what ? ' already (someone else may have just done it)' : ''}; ` +
+          `only ${withIndefinite(orList(from))} version can be ${what}`,
         { state: v.state, allowed: from },
       );
     }

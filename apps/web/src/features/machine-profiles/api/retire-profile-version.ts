@@ -30,8 +30,9 @@ export function useRetireProfileVersion(profileId: string) {
       version: Pick<MachineProfileVersionView, 'id' | 'lockVersion'>;
       reason: string;
     }) => retireProfileVersion(profileId, version, reason),
-    // The profile pages, and the jobs and approvals that name the version, show its state.
-    onSuccess: () =>
+    // The profile pages, and the jobs and approvals that name the version, show its state; refused (another
+    // supervisor retired it first), the page shows what happened meanwhile.
+    onSettled: () =>
       Promise.all(
         [profilesKeys.all, ['jobs'], ['approvals']].map((queryKey) =>
           queryClient.invalidateQueries({ queryKey }),

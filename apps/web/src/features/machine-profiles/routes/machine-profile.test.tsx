@@ -78,9 +78,17 @@ describe('machine profile page', () => {
     const retired = {
       ...approved,
       state: 'retired' as const,
+      approvedAt: '2026-11-02T08:00:00.000Z',
       retiredAt: '2026-12-05T09:30:00.000Z',
       retireReason: 'Laser tube cracked',
       lockVersion: approved.lockVersion + 1,
+    };
+    // A draft closed after the machine went out of use, with a reason of its own: it says nothing of the machine.
+    const closedDraft = {
+      ...draft,
+      state: 'retired' as const,
+      retiredAt: '2026-12-05T10:00:00.000Z',
+      retireReason: 'Draft started by mistake',
     };
     const { calls } = stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('supervisor')),
@@ -88,7 +96,12 @@ describe('machine profile page', () => {
       [`GET /api/machine-profiles/${PROFILE_ID}/kerf-records`]: () =>
         json(200, { items: [], total: 0, page: 1, pageSize: 1000 }),
       [`POST /api/machine-profiles/${PROFILE_ID}/versions/${approved.id}/retire`]: () => {
-        current = { ...profile, currentApproved: null, versions: [draft, retired] };
+        current = {
+          ...profile,
+          currentApproved: null,
+          latest: closedDraft,
+          versions: [closedDraft, retired],
+        };
         return json(200, retired);
       },
     });

@@ -93,12 +93,12 @@ export function MachineProfileRoute() {
 
   const latest = data.latest;
   const approved = data.currentApproved;
-  // Out of use: no approved version, and the last one retired was taken out of use with a reason (not
-  // replaced by a newer approval).
+  // Out of use: no approved version, and the last one in use was taken out of use with a reason (not replaced
+  // by a newer approval). A draft closed since says nothing of the machine.
   const outOfUse = approved
     ? null
     : (data.versions
-        .filter((v) => v.state === 'retired' && v.retiredAt)
+        .filter((v) => v.state === 'retired' && v.retiredAt && v.approvedAt)
         .sort((a, b) => (b.retiredAt ?? '').localeCompare(a.retiredAt ?? ''))[0] ?? null);
   const saving = mode === 'edit-draft' ? updateVersion : createVersion;
 
