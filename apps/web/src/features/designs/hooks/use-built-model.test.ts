@@ -141,7 +141,7 @@ describe('useBuiltModel in the browser (a preview worker)', () => {
     rerender(design('cube', 4));
     await previewWorkers()[0]!.fail('out of memory');
     expect(result.current.building).toBe(false);
-    expect(result.current.preview.failure).toBe('Out of memory');
+    expect(result.current.preview.failure).toBe('Out of memory.');
   });
 
   it('does not wait behind a layout running in the layout worker', async () => {

@@ -14,12 +14,11 @@ describe('buildPreview', () => {
   it('says a design too heavy for the API, as the API does, without building it', () => {
     // 120 faces (a disdyakis triacontahedron, the catalogue's largest) × 119 others × 60 sides.
     expect(designWork(120, 60)).toBeGreaterThan(DESIGN_WORK_LIMIT);
-    const started = performance.now();
     const heavy = buildPreview(spec('disdyakis-triacontahedron', 60, 29), 1, 'neighbour-distinct');
-    expect(performance.now() - started).toBeLessThan(1000);
+    // Refused, not built: no report.
     expect(heavy.report).toBeNull();
     expect(heavy.failure).toMatch(/^This design is too heavy to compute in time: 120 pieces of 60 sides/);
-    expect(heavy.failure).toMatch(/at most 14 sides on this solid/);
+    expect(heavy.failure).toMatch(/at most 14 sides on this solid, or a solid with fewer faces\.$/);
   });
 
   it('says why a spec does not validate, as a sentence', () => {

@@ -64,8 +64,10 @@ export function emptyPreview(
 
 /** An engine message as a sentence of its own (the engine's start in lower case, to follow a code or colon). */
 export function asSentence(error: unknown): string {
-  const said = error instanceof Error ? error.message : String(error);
-  return said.charAt(0).toUpperCase() + said.slice(1);
+  const said = (error instanceof Error ? error.message : String(error)).trim();
+  // The engine's messages follow a code or a colon: begun in lower case, without a full stop.
+  const ended = /[.!?)]$/.test(said) || said === '' ? said : `${said}.`;
+  return ended.charAt(0).toUpperCase() + ended.slice(1);
 }
 
 /**

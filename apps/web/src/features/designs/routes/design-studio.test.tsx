@@ -219,6 +219,24 @@ describe('design studio', () => {
     );
   });
 
+  it('says why a design whose colour rule cannot be met cannot be requested (the API refuses it: COLOUR.NO_PLAN)', async () => {
+    // The faces of a cube around each vertex: three meet, so "all pieces around a vertex differ" needs 3 colours.
+    const spec = {
+      ...designFixture().spec,
+      solid: 'cube',
+      colours: { count: 2, rule: 'vertex-distinct' as const },
+    };
+    studioApi(designFixture({ spec }));
+    const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await screen.findByTestId('model-facts');
+    await waitFor(() => expect(request).toBeDisabled());
+    await user.hover(screen.getByTestId('request-job-wrapper'));
+    expect(await screen.findByRole('tooltip')).toHaveTextContent(
+      'The colour rule cannot be met with these colours: see the colour notice',
+    );
+  });
+
   it('marks a sheet too small for its margins in plain words and keeps the last model on screen', async () => {
     studioApi();
     renderApp('/designs/new', { token: 't' });

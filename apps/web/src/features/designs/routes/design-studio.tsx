@@ -325,7 +325,14 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         onDuplicate={onDuplicateClick}
         duplicating={duplicate.isPending}
         onRequest={onRequestClick}
-        requestBlocked={requestBlockedReason({ dirty, formError, fitting, report, failure: preview.failure })}
+        requestBlocked={requestBlockedReason({
+          dirty,
+          formError,
+          fitting,
+          report,
+          failure: preview.failure,
+          noColourPlan: preview.colourMessage !== null,
+        })}
         canSave={canSave}
       />
       {saveDesign.error ? <FormErrorAlert error={saveDesign.error} /> : null}
@@ -416,12 +423,15 @@ function requestBlockedReason({
   fitting,
   report,
   failure,
+  noColourPlan,
 }: {
   dirty: boolean;
   formError: string | null;
   fitting: boolean;
   report: DesignReport | null;
   failure: string | null;
+  /** The colour rule cannot be met with the count asked: the API counts it an error (COLOUR.NO_PLAN). */
+  noColourPlan: boolean;
 }): string | null {
   if (formError !== null) return 'Correct the marked fields first';
   if (dirty) return 'Save the changes first';
@@ -429,6 +439,7 @@ function requestBlockedReason({
   if (!report) return failure ? 'The design does not build: see the preview' : 'The preview is not ready yet';
   if (report.errors.length > 0)
     return `The design has ${countOf(report.errors.length, 'error')}: see the Report tab`;
+  if (noColourPlan) return 'The colour rule cannot be met with these colours: see the colour notice';
   return null;
 }
 

@@ -779,7 +779,7 @@ describe('prepare job dialog', () => {
           } as MachineProfileSummaryView,
         ],
       );
-      renderWithProviders(
+      const { user } = renderWithProviders(
         <PrepareJobDialog open designId="d-1" busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
       );
       expect(await screen.findByTestId('prepare-from-design')).toHaveTextContent(
@@ -787,6 +787,9 @@ describe('prepare job dialog', () => {
       );
       expect(screen.getByLabelText('Material')).toHaveValue('m-ply6');
       expect(screen.getByLabelText('Machine profile (approved version)')).toHaveValue('');
+      // Another material chosen: the line no longer says what is chosen.
+      await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+      expect(screen.queryByTestId('prepare-from-design')).not.toBeInTheDocument();
     });
 
     it('chooses nothing when two materials keep the stock and the colours asked do not tell them apart', async () => {

@@ -315,6 +315,8 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
             ...materialField,
             onChange: async (e) => {
               const next = allMaterials.find((m) => m.id === String(e.target.value));
+              // The line saying the design's stock was chosen is no longer true of another material.
+              if (next?.id !== getValues('materialId')) setFromDesign(null);
               // The job's own colours come ticked where the new material stocks them.
               setValue('colours', stockedColours(next, props.jobColours ?? []));
               setValue('sheetIndex', '0');

@@ -1,5 +1,5 @@
 import { type MachineProfileDetailView } from '@kerfwright/contracts';
-import { screen, within } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture, versionFixture } from '../../../testing/fixtures';
@@ -116,6 +116,8 @@ describe('machine profile page', () => {
     await user.type(within(dialog).getByLabelText('Reason'), '  Laser tube cracked ');
     await user.click(within(dialog).getByRole('button', { name: 'Take out of use' }));
     const out = await screen.findByTestId('out-of-use');
+    // The button that opened the dialog is gone: the keyboard is on what the page now says.
+    await waitFor(() => expect(out).toHaveFocus());
     expect(out).toHaveTextContent('Version 1 was taken out of use: “Laser tube cracked”.');
     const post = calls.find((c) => c.method === 'POST')!;
     expect(post.body).toEqual({ lockVersion: approved.lockVersion, reason: 'Laser tube cracked' });

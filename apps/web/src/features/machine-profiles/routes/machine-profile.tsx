@@ -10,7 +10,7 @@ import DialogContentText from '@mui/material/DialogContentText';
 import DialogTitle from '@mui/material/DialogTitle';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { NotFoundPage } from '../../../components/errors/not-found-page';
@@ -68,6 +68,10 @@ export function MachineProfileRoute() {
   const [mode, setMode] = useState<ProfileFormMode | null>(null);
   const [confirmSubmit, setConfirmSubmit] = useState(false);
   const [confirmRetire, setConfirmRetire] = useState(false);
+  // Taken out of use here: the button that opened the dialog is gone, so the keyboard goes to what is said
+  // instead (WCAG 2.1, 2.4.3), once the page shows it.
+  const [focusOutOfUse, setFocusOutOfUse] = useState(false);
+  const outOfUseBox = useRef<HTMLDivElement>(null);
   const [notice, setNotice] = useState<string | null>(null);
   const materials = useMaterialChoices(mode !== null);
   const createVersion = useCreateProfileVersion(profileId);
@@ -76,6 +80,12 @@ export function MachineProfileRoute() {
   const retireVersion = useRetireProfileVersion(profileId);
   const data = profile.data;
   const initial = useMemo(() => (data ? versionToFormValues(data, data.latest) : null), [data]);
+
+  useEffect(() => {
+    if (!focusOutOfUse || !outOfUseBox.current) return;
+    outOfUseBox.current.focus();
+    setFocusOutOfUse(false);
+  }, [focusOutOfUse, profile.data]);
 
   if (!isRecordId(profileId) || (isApiError(profile.error) && profile.error.status === 404)) {
     return <NoSuchProfile />;
@@ -150,7 +160,7 @@ export function MachineProfileRoute() {
       </Typography>
 
       {outOfUse?.retireReason ? (
-        <Alert severity="error" sx={{ mb: 2 }} data-testid="out-of-use">
+        <Alert severity="error" sx={{ mb: 2 }} data-testid="out-of-use" ref={outOfUseBox} tabIndex={-1}>
           <AlertTitle>Out of use since {formatDateTime(outOfUse.retiredAt as string)}</AlertTitle>
           Version {outOfUse.number} was taken out of use: “{outOfUse.retireReason}”. A newer version must be
           approved before jobs can use this machine again.
@@ -280,6 +290,7 @@ export function MachineProfileRoute() {
               {
                 onSuccess: (v) => {
                   setConfirmRetire(false);
+                  setFocusOutOfUse(true);
                   setNotice(
                     `${data.name} is out of use: version ${v.number} is retired, and the workshop is told.`,
                   );
