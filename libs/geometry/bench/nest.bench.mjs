@@ -313,23 +313,30 @@ for (const [label, outline] of [
   );
 }
 
-// ---------- Many kinds in quantity ----------
-// A cutting service's mixed order: 40 different random outlines (5–12 vertices, radius 20–80 mm, seeded), 50 of
-// each, on 2440 × 1220 mm sheets (margin 10, gap 3): about 400 parts a sheet, copies of a few parts at a time.
-// Run once (it takes seconds); the figure to watch is ms per part.
-{
-  let seed = 40;
+/**
+ * Random star-shaped outlines, the same for a seed (a linear congruential generator, Numerical Recipes'
+ * constants): 5–12 vertices each, radius 20 to 20 + spanMm mm, each vertex at 60–100 % of it.
+ */
+function seededOutlines({ seed, kinds, spanMm, prefix, quantity }) {
   const rnd = () => (seed = (seed * 1664525 + 1013904223) % 4294967296) / 4294967296;
-  const parts = Array.from({ length: 40 }, (_, k) => {
+  return Array.from({ length: kinds }, (_, k) => {
     const n = 5 + Math.floor(rnd() * 8);
-    const R = 20 + rnd() * 60;
+    const R = 20 + rnd() * spanMm;
     const outline = Array.from({ length: n }, (_, i) => {
       const t = (2 * Math.PI * i) / n;
       const r = R * (0.6 + 0.4 * rnd());
       return [r * Math.cos(t), r * Math.sin(t)];
     });
-    return { id: `k${k}`, outline, quantity: 50 };
+    return { id: `${prefix}${k}`, outline, quantity };
   });
+}
+
+// ---------- Many kinds in quantity ----------
+// A cutting service's mixed order: 40 different random outlines (5–12 vertices, radius 20–80 mm, seeded), 50 of
+// each, on 2440 × 1220 mm sheets (margin 10, gap 3): about 400 parts a sheet, copies of a few parts at a time.
+// Run once (it takes seconds); the figure to watch is ms per part.
+{
+  const parts = seededOutlines({ seed: 40, kinds: 40, spanMm: 60, prefix: 'k', quantity: 50 });
   const input = { sheet: { widthMm: 2440, heightMm: 1220 }, marginMm: 10, gapMm: 3, parts };
   const t0 = performance.now();
   const c0 = process.cpuUsage();
@@ -347,18 +354,7 @@ for (const [label, outline] of [
 // seeded), 15 of each, about 8 m of it used. Clipper sweeps along y, so on a roll every scanline used to cross
 // every part along it; the regions are now clipped across the short side (differenceAcross). Run once.
 {
-  let seed = 7;
-  const rnd = () => (seed = (seed * 1664525 + 1013904223) % 4294967296) / 4294967296;
-  const parts = Array.from({ length: 60 }, (_, k) => {
-    const n = 5 + Math.floor(rnd() * 8);
-    const R = 20 + rnd() * 50;
-    const outline = Array.from({ length: n }, (_, i) => {
-      const t = (2 * Math.PI * i) / n;
-      const r = R * (0.6 + 0.4 * rnd());
-      return [r * Math.cos(t), r * Math.sin(t)];
-    });
-    return { id: `r${k}`, outline, quantity: 15 };
-  });
+  const parts = seededOutlines({ seed: 7, kinds: 60, spanMm: 50, prefix: 'r', quantity: 15 });
   const input = { sheet: { widthMm: 10_000, heightMm: 600 }, marginMm: 5, gapMm: 3, parts };
   const t0 = performance.now();
   const c0 = process.cpuUsage();
