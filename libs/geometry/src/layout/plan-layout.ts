@@ -9,7 +9,7 @@ import {
   type NestSheetResult,
   type NestTotals,
 } from '../nest';
-import { lengthText } from '../math/length-text';
+import { type LengthUnits, lengthText, unitLengthText } from '../math/length-text';
 
 /** How a built model is laid out on stock: sheet size, margin, gap, colours and copies. Lengths in mm. */
 export interface LayoutOptions {
@@ -90,32 +90,42 @@ export function pieceTooLargeMessage(
   );
 }
 
-/** What to tell the operator when the cutter's width, not the margin asked for, set the margin (else null). */
+/**
+ * What to tell the operator when the cutter's width, not the margin asked for, set the margin (else null).
+ * Lengths in the document's units (an inch pack says "0.394 in (10 mm)").
+ */
 export function marginRaisedNote(
   machine: BuiltModel['spec']['machine'],
   askedMarginMm: number,
   usedMarginMm: number,
+  units: LengthUnits = 'mm',
 ): string | null {
   if (!(usedMarginMm > askedMarginMm) || machine.kind !== 'router') return null;
+  const len = (mm: number) => unitLengthText(mm, units);
   return (
-    `pieces keep ${lengthText(usedMarginMm)} mm from the sheet's edges, not ${lengthText(askedMarginMm)} mm: the ` +
-    `${lengthText(machine.toolDiameterMm ?? 0)} mm bit passes outside each piece and must stay on the stock`
+    `pieces keep ${len(usedMarginMm)} from the sheet's edges, not ${len(askedMarginMm)}: the ` +
+    `${len(machine.toolDiameterMm ?? 0)} bit passes outside each piece and must stay on the stock`
   );
 }
 
-/** What to tell the operator when the cutter's width, not the gap asked for, set the spacing (else null). */
+/**
+ * What to tell the operator when the cutter's width, not the gap asked for, set the spacing (else null).
+ * Lengths in the document's units.
+ */
 export function gapRaisedNote(
   machine: BuiltModel['spec']['machine'],
   askedGapMm: number,
   usedGapMm: number,
+  units: LengthUnits = 'mm',
 ): string | null {
   if (!(usedGapMm > askedGapMm)) return null;
+  const len = (mm: number) => unitLengthText(mm, units);
   const cutter =
     machine.kind === 'router'
-      ? `the ${lengthText(machine.toolDiameterMm ?? 0)} mm bit, passing outside both neighbours on separate paths,`
-      : `the ${lengthText(machine.kerfMm ?? 0)} mm kerf`;
+      ? `the ${len(machine.toolDiameterMm ?? 0)} bit, passing outside both neighbours on separate paths,`
+      : `the ${len(machine.kerfMm ?? 0)} kerf`;
   return (
-    `pieces are laid out ${lengthText(usedGapMm)} mm apart, not ${lengthText(askedGapMm)} mm: ${cutter} needs that much room ` +
+    `pieces are laid out ${len(usedGapMm)} apart, not ${len(askedGapMm)}: ${cutter} needs that much room ` +
     `between neighbours`
   );
 }

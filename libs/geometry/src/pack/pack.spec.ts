@@ -581,6 +581,40 @@ describe('createCutPack failures and the command-line helper', () => {
     );
   });
 
+  it("gives an inch pack's own warnings in inches, the millimetres beside them (1 in = 25.4 mm, NIST SP 811)", async () => {
+    // The bit (1/8 in = 3.175 mm) raises a 1 mm gap to 4.175 mm and a 0 margin to 3.175 mm (see plan-layout); the
+    // 1/4 in stock differs from the design's; the 48 × 24 in sheet does not fit a 24 × 24 in bed.
+    const spec = { ...octahedronHexagons({ machine: { kind: 'router', toolDiameterMm: 3.175 } }) };
+    const base = packInputFrom(spec, {
+      sheet: { widthMm: 48 * 25.4, heightMm: 24 * 25.4 },
+      gapMm: 1,
+      marginMm: 0,
+      machine: { bedWidthMm: 24 * 25.4, bedHeightMm: 24 * 25.4 },
+      material: { thicknessMm: 6.35 },
+    });
+    const r = await createCutPack({ ...base, units: 'in', archive: false });
+    const warnings = r.manifest.warnings ?? [];
+    expect(warnings).toContainEqual(
+      'pieces are laid out 0.164 in (4.175 mm) apart, not 0.0394 in (1 mm): the 0.125 in (3.175 mm) bit, ' +
+        'passing outside both neighbours on separate paths, needs that much room between neighbours',
+    );
+    expect(warnings).toContainEqual(
+      "pieces keep 0.125 in (3.175 mm) from the sheet's edges, not 0.0000 in (0 mm): the 0.125 in (3.175 mm) " +
+        'bit passes outside each piece and must stay on the stock',
+    );
+    expect(warnings).toContainEqual(
+      "the 48.00 × 24.00 in (1219.2 × 609.6 mm) sheet does not fit the machine's 24.00 × 24.00 in " +
+        '(609.6 × 609.6 mm) bed: cut the stock down to the bed first, or lay out on sheets the bed takes',
+    );
+    expect(warnings).toContainEqual(
+      `the material is 0.250 in (6.35 mm) thick but the design was built for ${(spec.stock.thicknessMm / 25.4).toFixed(3)} in ` +
+        `(${spec.stock.thicknessMm} mm) stock: slot widths follow the design`,
+    );
+    // The setup sheet prints the same words.
+    const { text } = await pdfText(file(r, 'setup-sheet.pdf').data);
+    expect(text.replace(/\s+/g, ' ')).toContain('pieces are laid out 0.164 in (4.175 mm) apart');
+  });
+
   it('fits a fitBed design without a stock sheet to the sheet the pack lays out on (600 × 400, margin 5)', async () => {
     // Sized to the 600 × 400 bed alone, the largest piece would not fit the default sheet less its margins.
     const spec = { ...octahedronHexagons(), scale: { by: 'fitBed' }, bed: { widthMm: 600, heightMm: 400 } };

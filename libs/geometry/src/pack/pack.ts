@@ -28,7 +28,7 @@ import { assemblyGuidePdf, setupSheetPdf } from './documents';
 import { sheetToDxf, sheetToSvg } from './sheet-files';
 import { PackSheetsError, drawPackSheets, sheetsEstimate } from './pack-sheets';
 import { withCutter } from '../estimate';
-import { lengthText } from '../math/length-text';
+import { unitLengthText, unitSizeText } from '../math/length-text';
 
 /** Thrown when a pack cannot be made; `code` reads AREA.REASON. */
 export class CutPackError extends Error {
@@ -215,16 +215,18 @@ export async function createCutPack(
       `${unused.length} of the ${input.colours.length} colours get no pieces under the colour rule ` +
         `(${unused.join(', ')}): no sheets of them are needed`,
     );
-  const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm);
+  // Lengths in the pack's units, as the setup sheet gives them (the design's own findings stay in mm).
+  const len = (mm: number) => unitLengthText(mm, input.units);
+  const gapNote = gapRaisedNote(model.spec.machine, input.gapMm, layout.gapMm, input.units);
   if (gapNote) warnings.push(gapNote);
-  const marginNote = marginRaisedNote(model.spec.machine, input.marginMm, layout.marginMm);
+  const marginNote = marginRaisedNote(model.spec.machine, input.marginMm, layout.marginMm, input.units);
   if (marginNote) warnings.push(marginNote);
   const bedNote = sheetOverBedNote(input);
   if (bedNote) warnings.push(bedNote);
   if (Math.abs(input.material.thicknessMm - model.spec.stock.thicknessMm) > 0.01) {
     warnings.push(
-      `the material is ${lengthText(input.material.thicknessMm)} mm thick but the design was built for ` +
-        `${lengthText(model.spec.stock.thicknessMm)} mm stock: slot widths follow the design`,
+      `the material is ${len(input.material.thicknessMm)} thick but the design was built for ` +
+        `${len(model.spec.stock.thicknessMm)} stock: slot widths follow the design`,
     );
   }
   if (cutterKind(input.machine.kind) !== model.spec.machine.kind) {
@@ -316,13 +318,14 @@ function colourNameNotes(names: readonly string[]): string[] {
 const asciiUpper = (s: string) => s.toUpperCase().replace(/\s+/g, ' ').trim();
 
 /** A note when the stock sheet fits the machine's bed neither way round (else null). */
-export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine'>): string | null {
+export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine' | 'units'>): string | null {
   const { widthMm: w, heightMm: h } = input.sheet;
   const { bedWidthMm: bw, bedHeightMm: bh } = input.machine;
   const fits = (a: number, b: number) => a <= bw + 1e-9 && b <= bh + 1e-9;
   if (!(bw > 0 && bh > 0) || fits(w, h) || fits(h, w)) return null;
+  const size = (a: number, b: number) => unitSizeText(a, b, input.units).replace(/ x /g, ' × ');
   return (
-    `the ${lengthText(w)} × ${lengthText(h)} mm sheet does not fit the machine's ${lengthText(bw)} × ${lengthText(bh)} mm bed: ` +
+    `the ${size(w, h)} sheet does not fit the machine's ${size(bw, bh)} bed: ` +
     `cut the stock down to the bed first, or lay out on sheets the bed takes`
   );
 }
