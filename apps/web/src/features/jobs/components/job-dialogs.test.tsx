@@ -820,7 +820,10 @@ describe('prepare job dialog', () => {
       );
       await waitFor(() => expect(screen.getByLabelText('Colour rule')).toHaveValue('opposite-match'));
       expect(screen.getByLabelText('Material')).toHaveValue('');
-      expect(screen.queryByTestId('prepare-from-design')).not.toBeInTheDocument();
+      // It says why nothing is chosen.
+      expect(screen.getByTestId('prepare-from-design')).toHaveTextContent(
+        'Cast acrylic 3 mm, Extruded acrylic 3 mm all keep the design’s stock and stock the colours asked: choose one.',
+      );
       unmount();
 
       // Amber is stocked by one of them only: that one.
@@ -836,6 +839,34 @@ describe('prepare job dialog', () => {
         />,
       );
       await waitFor(() => expect(screen.getByLabelText('Material')).toHaveValue('m-acrylic'));
+    });
+
+    it('says so when no material keeps the stock the design was drawn for, in the unit asked', async () => {
+      // 1/4 in (6.35 mm) stock in 24 × 12 in sheets; only 3 and 6 mm materials are listed.
+      stubDesign(
+        {
+          stock: { thicknessMm: 6.35, sheet: { widthMm: 609.6, heightMm: 304.8 } },
+          machine: { kind: 'laser', kerfMm: 0.18 },
+        },
+        [acrylic, plywood6],
+        [laser],
+      );
+      renderWithProviders(
+        <PrepareJobDialog
+          open
+          designId="d-1"
+          unit="in"
+          busy={false}
+          error={null}
+          onSubmit={vi.fn()}
+          onClose={noop}
+        />,
+      );
+      expect(await screen.findByTestId('prepare-from-design')).toHaveTextContent(
+        'No material on the list is 0.250 in stock in 24.000 × 12.000 in sheets that may be cut on a laser, as ' +
+          'the design was drawn for: choose a material. Its slots keep the widths drawn for that thickness.',
+      );
+      expect(screen.getByLabelText('Material')).toHaveValue('');
     });
   });
 });

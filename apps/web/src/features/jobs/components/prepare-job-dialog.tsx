@@ -21,7 +21,7 @@ import { explainMaterialAndMachine, profilesFor, stockOfDesign } from './prepare
 import { kindLabel } from '../../../config/trade-labels';
 import { errorMessage } from '../../../lib/api-client';
 import { countOf } from '../../../lib/plural';
-import { formatSheetSize, type LengthUnit } from '../../../lib/units';
+import { formatLength, formatSheetSize, type LengthUnit } from '../../../lib/units';
 import { useDesign } from '../../designs/api/get-design';
 
 export interface PrepareJobBody {
@@ -222,7 +222,26 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
       profiles.data.items,
       props.jobColours ?? [],
     );
-    if (!found) return;
+    const unit = props.unit ?? 'mm';
+    if (found.kind === 'none') {
+      const drawnFor = `${formatLength(designSpec.stock.thicknessMm, unit)} stock${
+        designSpec.stock.sheet ? ` in ${formatSheetSize(designSpec.stock.sheet, unit)} sheets` : ''
+      }`;
+      setFromDesign(
+        `No material on the list is ${drawnFor}${
+          designSpec.machine.kind === 'laser' ? ' that may be cut on a laser' : ''
+        }, as the design was drawn for: choose a material. Its slots keep the widths drawn for that thickness.`,
+      );
+      return;
+    }
+    if (found.kind === 'several') {
+      setFromDesign(
+        `${found.materials.map((x) => x.name).join(', ')} all keep the design’s stock` +
+          (found.stockColours ? ' and stock the colours asked' : '') +
+          ': choose one.',
+      );
+      return;
+    }
     const { material: m, sheetIndex, profile } = found;
     setValue('materialId', m.id);
     setValue('colours', stockedColours(m, props.jobColours ?? []));
@@ -231,7 +250,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     const sheet = m.stockSheets[sheetIndex];
     setFromDesign(
       `Chosen from the design’s stock: ${m.name}` +
-        (sheet ? `, ${formatSheetSize(sheet, props.unit ?? 'mm')} sheets` : '') +
+        (sheet ? `, ${formatSheetSize(sheet, unit)} sheets` : '') +
         (profile ? `, on ${profile.name}` : '') +
         '. Check them before preparing.',
     );

@@ -116,19 +116,30 @@ export function explainMaterialAndMachine({
 /** Lengths the same within 0.003 mm (the studio's test for stock: see stock-sheet-picker's sameLength). */
 const sameLength = (a: number, b: number) => Math.abs(a - b) < 0.003;
 
+/** What the design's stock tells a first preparation (see {@link stockOfDesign}). */
+export type StockOfDesign =
+  | { kind: 'chosen'; material: MaterialView; sheetIndex: number; profile: MachineProfileSummaryView | null }
+  /**
+   * Several materials keep the stock, and the job's colours do not tell them apart: the fabricator chooses.
+   * `stockColours`: each of them also stocks every colour the job asks for (and the job asks for some).
+   */
+  | { kind: 'several'; materials: MaterialView[]; stockColours: boolean }
+  /** No material on the list keeps the stock (thickness, sheet, a laser's allowed materials). */
+  | { kind: 'none' };
+
 /**
  * What a job's first preparation starts from, read off its design: the material that keeps the design's sheet
  * (either way round) at the thickness its slots were drawn for, usable on the design's kind of machine (among
  * several, the one that stocks every colour the job asks for); that sheet's place in its stock list; and the
- * approved profile of the design's kind that holds settings for it, when there is exactly one. Null when no
- * single material fits: the fabricator chooses.
+ * approved profile of the design's kind that holds settings for it, when there is exactly one. When no single
+ * material fits, which ones do (or that none does): the fabricator chooses.
  */
 export function stockOfDesign(
   spec: Pick<DesignSpecInput, 'stock' | 'machine'>,
   materials: readonly MaterialView[],
   profiles: readonly MachineProfileSummaryView[],
   jobColours: readonly string[],
-): { material: MaterialView; sheetIndex: number; profile: MachineProfileSummaryView | null } | null {
+): StockOfDesign {
   const sheet = spec.stock.sheet;
   const sheetIndexOf = (m: MaterialView) =>
     sheet
@@ -149,11 +160,22 @@ export function stockOfDesign(
   );
   const stocksAll = (m: MaterialView) =>
     jobColours.every((c) => m.colours.some((k) => k.trim().toLowerCase() === c.trim().toLowerCase()));
-  const material =
-    fits.length === 1 ? fits[0] : fits.filter(stocksAll).length === 1 ? fits.find(stocksAll) : null;
-  if (!material) return null;
+  const stocking = fits.filter(stocksAll);
+  const material = fits.length === 1 ? fits[0] : stocking.length === 1 ? stocking[0] : undefined;
+  if (!material) {
+    if (fits.length === 0) return { kind: 'none' };
+    // Those that stock the colours asked, when some do; else every one that keeps the stock.
+    return stocking.length > 1
+      ? { kind: 'several', materials: stocking, stockColours: jobColours.length > 0 }
+      : { kind: 'several', materials: fits, stockColours: false };
+  }
   const ofKind = profilesFor(profiles, material).filter(
     (p) => geometryMachineKind(p.kind) === spec.machine.kind,
   );
-  return { material, sheetIndex: sheetIndexOf(material), profile: ofKind.length === 1 ? ofKind[0]! : null };
+  return {
+    kind: 'chosen',
+    material,
+    sheetIndex: sheetIndexOf(material),
+    profile: ofKind.length === 1 ? ofKind[0]! : null,
+  };
 }
