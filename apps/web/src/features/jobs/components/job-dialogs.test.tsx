@@ -678,16 +678,19 @@ describe('prepare job dialog', () => {
     await screen.findByRole('option', { name: 'Cast acrylic 3 mm' });
     await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
     await user.selectOptions(screen.getByLabelText('Machine profile (approved version)'), 'v-approved');
+    // The job names no colours and the material stocks exactly three: all three come ticked.
+    for (const c of ['clear', 'amber', 'teal']) expect(screen.getByLabelText(c)).toBeChecked();
     expect(screen.queryByTestId('prepare-colour-warning')).not.toBeInTheDocument();
-    await user.click(screen.getByLabelText('amber'));
+    await user.click(screen.getByLabelText('teal'));
     expect(await screen.findByTestId('prepare-colour-warning')).toHaveTextContent(
-      'The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same stock.',
+      'The design uses 3 colours (Neighbours differ); with 2 colours its pieces are shared among fewer colours, and the rule may not be met.',
     );
     await user.click(screen.getByLabelText('clear'));
     expect(screen.getByTestId('prepare-colour-warning')).toHaveTextContent(
-      'The design uses 3 colours (Neighbours differ); with 2 colours its pieces are shared among fewer colours, and the rule may not be met.',
+      'The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same stock.',
     );
     await user.click(screen.getByLabelText('teal'));
+    await user.click(screen.getByLabelText('clear'));
     expect(screen.queryByTestId('prepare-colour-warning')).not.toBeInTheDocument();
   });
 
@@ -839,6 +842,59 @@ describe('prepare job dialog', () => {
         />,
       );
       await waitFor(() => expect(screen.getByLabelText('Material')).toHaveValue('m-acrylic'));
+    });
+
+    it('ticks every colour of a material stocking as many as the design is drawn in, when the job names none', async () => {
+      // A job requested from the studio names no colours; its design is drawn in 2 (a count, no names).
+      const twoTone = materialFixture({ id: 'm-two', name: 'Felt 3 mm', colours: ['grey', 'mustard'] });
+      const threeTone = materialFixture({
+        id: 'm-three',
+        name: 'Card 3 mm',
+        colours: ['white', 'black', 'red'],
+        stockSheets: [{ widthMm: 500, heightMm: 500, pricePerSheet: 2, currency: 'EUR' }],
+      });
+      stubDesign(
+        {
+          stock: { thicknessMm: 3, sheet: { widthMm: 600, heightMm: 400 } },
+          machine: { kind: 'laser', kerfMm: 0.18 },
+          colours: { count: 2, rule: 'opposite-match' },
+        },
+        [twoTone, threeTone],
+        [laser],
+      );
+      const { user } = renderWithProviders(
+        <PrepareJobDialog open designId="d-1" busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+      );
+      await waitFor(() => expect(screen.getByLabelText('Material')).toHaveValue('m-two'));
+      expect(screen.getByLabelText('grey')).toBeChecked();
+      expect(screen.getByLabelText('mustard')).toBeChecked();
+      // Three colours for a two-colour design: which two is the fabricator's choice.
+      await user.selectOptions(screen.getByLabelText('Material'), 'm-three');
+      for (const c of ['white', 'black', 'red']) expect(screen.getByLabelText(c)).not.toBeChecked();
+    });
+
+    it('ticks the colours the design names when the job names none', async () => {
+      const threeTone = materialFixture({
+        id: 'm-three',
+        name: 'Card 3 mm',
+        colours: ['White', 'black', 'red'],
+      });
+      stubDesign(
+        {
+          stock: { thicknessMm: 3, sheet: { widthMm: 600, heightMm: 400 } },
+          machine: { kind: 'laser', kerfMm: 0.18 },
+          colours: { names: ['white', 'red'], rule: 'opposite-match' },
+        },
+        [threeTone],
+        [laser],
+      );
+      renderWithProviders(
+        <PrepareJobDialog open designId="d-1" busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+      );
+      await waitFor(() => expect(screen.getByLabelText('Material')).toHaveValue('m-three'));
+      expect(screen.getByLabelText('White')).toBeChecked();
+      expect(screen.getByLabelText('red')).toBeChecked();
+      expect(screen.getByLabelText('black')).not.toBeChecked();
     });
 
     it('says so when no material keeps the stock the design was drawn for, in the unit asked', async () => {

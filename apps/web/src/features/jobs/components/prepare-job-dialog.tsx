@@ -71,11 +71,28 @@ function stockedColours(material: { colours: readonly string[] } | undefined, wa
   return (material?.colours ?? []).filter((c) => asked.has(colourKey(c)));
 }
 
+/**
+ * The colours ticked when a material is chosen: those of the job's own colours it stocks (a job that names
+ * none asks for the colours its design names, if any). A job naming no colour at all (one requested from the
+ * studio, whose designs give a count) gets every colour of a material that stocks exactly as many as the
+ * design is drawn in, the one choice that gives the design all its colours; else none, for the fabricator.
+ */
+export function coloursToTick(
+  material: { colours: readonly string[] } | undefined,
+  jobColours: readonly string[],
+  design: Pick<DesignView, 'spec'> | undefined,
+): string[] {
+  const named = jobColours.length > 0 ? jobColours : (design?.spec.colours?.names ?? []);
+  if (named.length > 0) return stockedColours(material, named);
+  if (!material || !design) return [];
+  return material.colours.length === designColours(design).count ? [...material.colours] : [];
+}
+
 /** A colour as stock lists compare it: "Amber " and "amber" are one colour. */
 const colourKey = (c: string) => c.trim().toLowerCase();
 
 /** How many colours of stock a design is drawn in, and by which rule (one colour: no rule applies). */
-export function designColours(design: DesignView | undefined): {
+export function designColours(design: Pick<DesignView, 'spec'> | undefined): {
   count: number;
   rule: PrepareJobValues['colourRule'];
 } {
@@ -244,7 +261,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     }
     const { material: m, sheetIndex, profile } = found;
     setValue('materialId', m.id);
-    setValue('colours', stockedColours(m, props.jobColours ?? []));
+    setValue('colours', coloursToTick(m, props.jobColours ?? [], { spec: designSpec }));
     setValue('sheetIndex', String(sheetIndex));
     if (profile?.currentApproved) setPendingProfile(profile.currentApproved.id);
     const sheet = m.stockSheets[sheetIndex];
@@ -336,8 +353,8 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
               const next = allMaterials.find((m) => m.id === String(e.target.value));
               // The line saying the design's stock was chosen is no longer true of another material.
               if (next?.id !== getValues('materialId')) setFromDesign(null);
-              // The job's own colours come ticked where the new material stocks them.
-              setValue('colours', stockedColours(next, props.jobColours ?? []));
+              // The job's own colours come ticked where the new material stocks them (see coloursToTick).
+              setValue('colours', coloursToTick(next, props.jobColours ?? [], design.data));
               setValue('sheetIndex', '0');
               // The colours are the new material's to choose: an error about the old one's no longer applies.
               clearErrors('colours');

@@ -499,7 +499,9 @@ describe('job detail', () => {
     const dialog = await screen.findByRole('dialog', { name: 'Prepare the job' });
     await within(dialog).findByRole('option', { name: 'Cast acrylic 3 mm' });
     await user.selectOptions(within(dialog).getByLabelText('Material'), 'm-acrylic');
+    // The job names no colours: the material's three, as many as the design's, come ticked; two taken off.
     await user.click(within(dialog).getByLabelText('teal'));
+    await user.click(within(dialog).getByLabelText('amber'));
     expect(await within(dialog).findByTestId('prepare-colour-warning')).toHaveTextContent(
       'The design uses 3 colours (Neighbours differ); with 1 colour every piece is cut from the same stock.',
     );
