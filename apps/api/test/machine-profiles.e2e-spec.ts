@@ -366,13 +366,26 @@ describe('machine profiles, versions and kerf records', () => {
     expect(to).not.toContain(users.hobbyist.email);
     const mail = mails.find((m) => m.to.includes(users.fabricator.email))!;
     expect(mail.text).toContain('Reason given: Laser tube cracked; do not run until it is replaced');
-    expect(mail.text).toContain(`Released with these settings, not yet cut: "${designs[0]!.name}"`);
-    expect(mail.text).toContain(`Prepared or approved with these settings: "${designs[1]!.name}"`);
+    // Each job it touches named with a link to its page, under what to do with it.
+    expect(mail.text).toMatch(
+      new RegExp(
+        'Released with these settings, not yet cut;[^\\n]*:\\n' +
+          `- "${designs[0]!.name}" \\(released\\): https?://[^\\s]+/jobs/${jobIds[0]}\\n`,
+      ),
+    );
+    expect(mail.text).toMatch(
+      new RegExp(
+        'Prepared or approved with these settings;[^\\n]*:\\n' +
+          `- "${designs[1]!.name}" \\(approved\\): https?://[^\\s]+/jobs/${jobIds[1]}\\n`,
+      ),
+    );
+    expect(mail.html).toMatch(new RegExp(`<li><a href="https?://[^"]+/jobs/${jobIds[0]}">`));
     expect(mail.text).toContain(`/machine-profiles/${p.id}`);
     expect(mail.text).not.toContain(designs[2]!.name);
     // Operators cannot return jobs nor open profiles: they are told to check before cutting, and sent to the desk.
     const operators = mails.find((m) => m.to.includes(users.operator.email))!;
-    expect(operators.text).toContain(`Released with these settings, not yet cut: "${designs[0]!.name}"`);
+    expect(operators.text).toContain(`- "${designs[0]!.name}" (released): `);
+    expect(operators.text).toContain(`/jobs/${jobIds[0]}`);
     expect(operators.text).toContain('Check with a supervisor before cutting any of them');
     expect(operators.text).toContain('/release-desk');
     expect(operators.text).not.toContain('/machine-profiles/');

@@ -4,7 +4,7 @@ import { type EntityManager } from 'typeorm';
 import { type JobAction, type JobState } from '@kerfwright/contracts';
 import { mailConfig } from '../mail/mail.config';
 import { MailOutboxService } from '../mail/mail-outbox.service';
-import { composeMail } from '../mail/mail-templates';
+import { appLink, composeMail } from '../mail/mail-templates';
 import { Design } from '../designs/design.entity';
 import { type Job } from './job.entity';
 
@@ -19,7 +19,7 @@ export class JobMailer {
   async onTransition(m: EntityManager, job: Job, action: JobAction, from?: JobState): Promise<void> {
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const title = design?.name ?? 'a design';
-    const link = { label: 'Open the job', url: `${this.config.appUrl}/jobs/${job.id}` };
+    const link = { label: 'Open the job', url: appLink(this.config.appUrl, `jobs/${job.id}`) };
     const requester = () => this.outbox.addressOfUser(m, job.requesterId);
     switch (action) {
       case 'request': {

@@ -20,7 +20,7 @@ import { AppError, notFound, validationFailed } from '../common/errors';
 import { orList, withIndefinite } from '../common/text';
 import { sortOrder } from '../common/paging';
 import { MailOutboxService } from '../mail/mail-outbox.service';
-import { composeMail } from '../mail/mail-templates';
+import { type MailLinkList, appLink, composeMail } from '../mail/mail-templates';
 import { mailConfig } from '../mail/mail.config';
 import { likePattern, PG_UNIQUE_VIOLATION, pgError } from '../common/db-helpers';
 import { HazardTableService } from '../materials/hazard-table.service';
@@ -61,6 +61,8 @@ type VersionChanges = Partial<Omit<MachineProfileVersion, 'id' | 'profileId' | '
 const AREA = 'MACHINE_PROFILE';
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const noNames = new Map<string, SettingMaterial>();
+/** How many jobs of one kind the out-of-use mail lists with links (the jobs board has them all). */
+const OUT_OF_USE_JOBS_LISTED = 25;
 
 /** A version as the audit trail keeps it: its view, and its profile's name so that an entry can say which. */
 async function versionSnapshot(
@@ -469,40 +471,47 @@ export class MachineProfilesService {
     v: MachineProfileVersion,
     reason: string | null,
   ): Promise<void> {
-    const jobs: { state: 'prepared' | 'approved' | 'released'; name: string }[] = await manager.query(
-      `SELECT j.state, d.name FROM jobs j JOIN designs d ON d.id = j.design_id
-        WHERE j.profile_version_id = $1 AND j.state IN ('prepared', 'approved', 'released')
-        ORDER BY j.state, d.name`,
-      [v.id],
-    );
-    const named = (states: string[]) =>
-      jobs
-        .filter((j) => states.includes(j.state))
-        .map((j) => `"${j.name}"`)
-        .join(', ');
-    const released = named(['released']);
-    const waiting = named(['prepared', 'approved']);
+    const jobs: { id: string; state: 'prepared' | 'approved' | 'released'; name: string }[] =
+      await manager.query(
+        `SELECT j.id, j.state, d.name FROM jobs j JOIN designs d ON d.id = j.design_id
+          WHERE j.profile_version_id = $1 AND j.state IN ('prepared', 'approved', 'released')
+          ORDER BY j.state, d.name, j.created_at`,
+        [v.id],
+      );
+    // Each job named with a link to its page (two jobs of one design differ by their links).
+    const listed = (states: string[], text: string): MailLinkList | null => {
+      const of = jobs.filter((j) => states.includes(j.state));
+      if (of.length === 0) return null;
+      const shown = of.slice(0, OUT_OF_USE_JOBS_LISTED).map((j) => ({
+        label: `"${j.name}" (${j.state})`,
+        url: appLink(this.mailCfg.appUrl, `jobs/${j.id}`),
+      }));
+      const more = of.length - shown.length;
+      return {
+        text: `${text}${more > 0 ? ` The first ${shown.length} of ${of.length} (the jobs board lists them all):` : ''}`,
+        links: shown,
+      };
+    };
     const said = [
       `${actor.displayName} has taken version ${v.number} of the machine profile "${profile.name}" out of use. ` +
         'No job can be prepared, approved or released on this machine until a newer version is approved.',
       `Reason given: ${reason ?? '(none)'}`,
     ];
+    const noneReleased = 'No released job uses these settings.';
     // Those who prepare and approve jobs hear what to do with them, with the profile's link.
+    const released = listed(
+      ['released'],
+      'Released with these settings, not yet cut; they stay on the release desk, marked. Return any that must ' +
+        'not be cut on them:',
+    );
+    const waiting = listed(
+      ['prepared', 'approved'],
+      'Prepared or approved with these settings; they cannot be released on them. Return them with a reason; ' +
+        'once requested again, they are prepared on the version approved then:',
+    );
     const workshop = composeMail(
       `Machine out of use: ${profile.name}`,
-      [
-        ...said,
-        released
-          ? `Released with these settings, not yet cut: ${released}. They stay on the release desk, marked; ` +
-            'return any that must not be cut on them.'
-          : 'No released job uses these settings.',
-        ...(waiting
-          ? [
-              `Prepared or approved with these settings: ${waiting}. They cannot be released on them: return ` +
-                'them with a reason; once requested again, they are prepared on the version approved then.',
-            ]
-          : []),
-      ],
+      [...said, released ?? noneReleased, ...(waiting ? [waiting] : [])],
       { label: 'Open the machine profile', url: this.link(profile.id) },
     );
     await this.mail.enqueue(manager, {
@@ -511,17 +520,15 @@ export class MachineProfilesService {
       ...workshop,
     });
     // Operators cut: they hear which released jobs to hold, and go to the release desk (the profile is not theirs).
-    const operators = composeMail(
-      `Machine out of use: ${profile.name}`,
-      [
-        ...said,
-        released
-          ? `Released with these settings, not yet cut: ${released}. Check with a supervisor before cutting any ` +
-            'of them; a job that must not be cut is returned and leaves the release desk.'
-          : 'No released job uses these settings.',
-      ],
-      { label: 'Open the release desk', url: `${this.mailCfg.appUrl.replace(/\/+$/, '')}/release-desk` },
+    const toHold = listed(
+      ['released'],
+      'Released with these settings, not yet cut. Check with a supervisor before cutting any of them; a job ' +
+        'that must not be cut is returned and leaves the release desk:',
     );
+    const operators = composeMail(`Machine out of use: ${profile.name}`, [...said, toHold ?? noneReleased], {
+      label: 'Open the release desk',
+      url: appLink(this.mailCfg.appUrl, 'release-desk'),
+    });
     await this.mail.enqueue(manager, {
       kind: 'machine-profile.out-of-use',
       to: await this.mail.addressesOfRoles(manager, ['operator']),
@@ -800,7 +807,7 @@ export class MachineProfilesService {
   }
 
   private link(profileId: string): string {
-    return `${this.mailCfg.appUrl.replace(/\/+$/, '')}/machine-profiles/${profileId}`;
+    return appLink(this.mailCfg.appUrl, `machine-profiles/${profileId}`);
   }
 
   private async detail(manager: EntityManager, id: string): Promise<MachineProfileDetailView> {

@@ -10,7 +10,7 @@ import { pageWindow, sortOrder } from '../common/paging';
 import { sameId } from '../common/pipes/parse-id.pipe';
 import { mailConfig } from '../mail/mail.config';
 import { MailOutboxService } from '../mail/mail-outbox.service';
-import { composeMail } from '../mail/mail-templates';
+import { appLink, composeMail } from '../mail/mail-templates';
 import { type ListUsersQuery } from './dto/list-users.query';
 import { type UpdateUserDto } from './dto/update-user.dto';
 import { toUserView, User } from './user.entity';
@@ -116,7 +116,7 @@ export class UsersService {
                 'change was not agreed in the workshop, check the audit trail and the approvals made since.'
               : 'Approvals they made stay in the audit trail.',
           ],
-          { label: 'Open the people list', url: `${this.mail.appUrl}/people` },
+          { label: 'Open the people list', url: appLink(this.mail.appUrl, 'people') },
         );
         await this.outbox.enqueue(manager, {
           kind: granted ? 'user.supervisor-granted' : 'user.supervisor-removed',
