@@ -207,6 +207,13 @@ describe('machine profiles, versions and kerf records', () => {
     // Return with a reason → draft again; the reason is required.
     const noReason = await act('supervisor', p, s1, 'return', { lockVersion: s1.lockVersion }).expect(400);
     expect(noReason.body.details[0].field).toBe('reason');
+    // A reason says something: at least 3 characters once trimmed, as for a job sent back or a machine retired.
+    const tooShort = await act('supervisor', p, s1, 'return', {
+      lockVersion: s1.lockVersion,
+      reason: '  x ',
+    });
+    expectErrorBody(tooShort.body, 400, 'VALIDATION.FAILED');
+    expect(tooShort.body.details[0].field).toBe('reason');
     const r1 = (
       await act('supervisor', p, s1, 'return', {
         lockVersion: s1.lockVersion,

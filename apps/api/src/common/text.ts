@@ -1,10 +1,26 @@
 import { applyDecorators } from '@nestjs/common';
 import { Transform } from 'class-transformer';
-import { Matches } from 'class-validator';
+import { IsString, Matches, MaxLength, MinLength } from 'class-validator';
 
 /** class-transformer step: a string without its leading and trailing white space (other values as they are). */
 export const Trimmed = () =>
   Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value));
+
+/** The most a reason may hold (a job returned, a machine profile version sent back or taken out of use). */
+export const REASON_MAX_LENGTH = 2000;
+
+/**
+ * Why someone acts (returns a job, sends a machine profile version back, takes one out of use): trimmed, then
+ * 3 to `max` characters, so a reason says something and spaces alone do not count; the web's reason dialog
+ * asks the same. Line breaks are allowed (a reason may list what to change).
+ */
+export const IsReason = (max = REASON_MAX_LENGTH) =>
+  applyDecorators(
+    Trimmed(),
+    IsString(),
+    MinLength(3, { message: 'reason must say why, in at least 3 characters (spaces alone do not count)' }),
+    MaxLength(max),
+  );
 
 /**
  * No control characters (C0, DEL, C1: \p{Cc}), no line or paragraph separators, and no format characters

@@ -31,7 +31,7 @@ import {
 } from '@kerfwright/contracts';
 import { MAX_FIT_SHEETS } from '@kerfwright/geometry';
 import { PageQueryDto } from '../../common/paging';
-import { Trimmed } from '../../common/text';
+import { IsReason } from '../../common/text';
 import { OptionalNotNull } from '../../common/validation/optional';
 import { IsRowVersion } from '../../common/validation/row-version';
 import { IsId } from '../../common/validation/id';
@@ -183,10 +183,7 @@ export class PrepareJobDto extends JobActionDto {
 
 export class ReturnJobDto extends JobActionDto {
   @ApiProperty({ maxLength: 2000, description: 'Why the job goes back: at least 3 characters once trimmed' })
-  @Trimmed()
-  @IsString()
-  @MinLength(3, { message: 'reason must say why, in at least 3 characters (spaces alone do not count)' })
-  @MaxLength(2000)
+  @IsReason()
   reason: string;
 }
 

@@ -1,6 +1,5 @@
 import { ApiProperty, ApiPropertyOptional, PartialType } from '@nestjs/swagger';
-import { Transform } from 'class-transformer';
-import { IsBoolean, IsNotEmpty, IsString, MaxLength, MinLength } from 'class-validator';
+import { IsBoolean } from 'class-validator';
 import {
   type ApproveProfileVersionRequest,
   type CreateProfileVersionRequest,
@@ -11,7 +10,7 @@ import {
   type ReturnProfileVersionRequest,
   type UpdateProfileVersionRequest,
 } from '@kerfwright/contracts';
-import { Trimmed } from '../../common/text';
+import { IsReason } from '../../common/text';
 import { OptionalNotNull } from '../../common/validation/optional';
 import { ProfileVersionContentDto } from './profile-version-content.dto';
 import { IsRowVersion } from '../../common/validation/row-version';
@@ -47,10 +46,7 @@ export class RetireProfileVersionDto extends ProfileTransitionDto implements Ret
       'Why the version is taken out of use; kept on the version and, when it is the approved one, mailed to fabricators and operators',
   })
   @OptionalNotNull()
-  @Trimmed()
-  @IsString()
-  @MinLength(3, { message: 'reason must say why, in at least 3 characters (spaces alone do not count)' })
-  @MaxLength(L.reasonLength)
+  @IsReason(L.reasonLength)
   reason?: string;
 }
 
@@ -78,10 +74,10 @@ export class ApproveProfileVersionDto extends ProfileDecisionDto implements Appr
 }
 
 export class ReturnProfileVersionDto extends ProfileDecisionDto implements ReturnProfileVersionRequest {
-  @ApiProperty({ maxLength: L.reasonLength, description: 'What must change before approval' })
-  @Transform(({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value))
-  @IsString()
-  @IsNotEmpty()
-  @MaxLength(L.reasonLength)
+  @ApiProperty({
+    maxLength: L.reasonLength,
+    description: 'What must change before approval: at least 3 characters once trimmed',
+  })
+  @IsReason(L.reasonLength)
   reason: string;
 }
