@@ -3,7 +3,8 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { buildPreview, emptyPreview } from '../lib/build-preview';
 import { DEFAULT_DESIGN_VALUES, toDesignSpec } from './design-form-schema';
-import { BUILDING_NOTICE_DELAY_MS, StudioPreviewPanel } from './studio-preview-panel';
+import { layOutStudio } from '../lib/studio-layout';
+import { BUILDING_NOTICE_DELAY_MS, StudioPreviewPanel, unfittedNote } from './studio-preview-panel';
 
 // No WebGL here (as in model-preview-3d.test.tsx): the 3D view draws nothing, the panel around it is tested.
 vi.mock('./render-quality', () => ({ isSoftwareWebGl: () => true }));
@@ -82,5 +83,62 @@ describe('studio preview panel while the next model builds', () => {
     expect(screen.getByTestId('preview-unavailable')).toHaveTextContent(
       'This design is too heavy to compute in time',
     );
+  });
+});
+
+describe('studio preview panel when fit to sheets found no size', () => {
+  beforeEach(() => {
+    vi.stubGlobal(
+      'ResizeObserver',
+      class {
+        observe() {}
+        unobserve() {}
+        disconnect() {}
+      },
+    );
+  });
+  afterEach(() => vi.unstubAllGlobals());
+
+  it('says the size is not fitted while the colour rule cannot be met, and marks the sizes so', () => {
+    // Four faces meet at each vertex of an octahedron, so "all differ at each vertex" needs 4 colours, not 2
+    // (the engine's own colour-plan tests check the rule): no search runs, and its answer lays out nothing.
+    const base = spec!;
+    const fitSpec: typeof base = {
+      ...base,
+      scale: { by: 'fitSheets', sheets: 2 },
+      stock: { ...base.stock, sheet: { widthMm: 600, heightMm: 400 } },
+    };
+    const answer = layOutStudio(fitSpec, 2, 'vertex-distinct', null);
+    expect(answer.failure).toMatch(/^no plan exists/);
+    expect(answer.sheets).toEqual([]);
+    const note = unfittedNote({ sheets: 2, pending: false, result: answer });
+    expect(note).toBe(
+      'No size is fitted to 2 sheets while the colour rule cannot be met: the model is shown at the most the ' +
+        'sheets could hold, an upper bound.',
+    );
+    renderWithProviders(
+      <StudioPreviewPanel
+        preview={built}
+        unfitted={note}
+        idleMessage=""
+        selectedPiece={undefined}
+        onSelectPiece={() => undefined}
+        formatLength={(mm) => `${mm.toFixed(1)} mm`}
+      />,
+    );
+    expect(screen.getByTestId('preview-unfitted')).toHaveTextContent(note!);
+    expect(screen.getByTestId('model-facts')).toHaveTextContent(/Diameter[\d.]+ mm \(not fitted\)/);
+  });
+
+  it('says nothing while the search runs or once it found a size, and names the last size tried otherwise', () => {
+    const found = { sheets: [{}], failure: null };
+    expect(unfittedNote(null)).toBeNull();
+    expect(
+      unfittedNote({ sheets: 1, pending: true, result: { sheets: [], failure: 'no size fits' } }),
+    ).toBeNull();
+    expect(unfittedNote({ sheets: 1, pending: false, result: found })).toBeNull();
+    expect(
+      unfittedNote({ sheets: 1, pending: false, result: { sheets: [], failure: 'no size fits 1 sheet' } }),
+    ).toBe('No size fits 1 sheet: the model is shown at the last size tried (see Sheets).');
   });
 });

@@ -28,6 +28,31 @@ interface StudioPreviewPanelProps {
   showingLastValid?: boolean;
   /** The model of the values entered is being built (in the preview worker); the one shown is earlier. */
   building?: boolean;
+  /**
+   * "Fit to sheets" found no size (see unfittedNote): why, and at what size the model is shown instead. Its
+   * sizes are then marked "not fitted".
+   */
+  unfitted?: string | null;
+}
+
+/**
+ * Why "fit to sheets" shows a model of no fitted size, for the preview (null while it searches or once it
+ * found a size): with no colour plan no search runs, and the model is the search's upper bound (the largest
+ * piece fits a sheet, the pieces' area fills the sheets); when no size fits, it is the last size tried.
+ */
+export function unfittedNote(
+  fit: {
+    sheets: number;
+    pending: boolean;
+    result: { sheets: unknown[]; failure: string | null } | null;
+  } | null,
+): string | null {
+  if (!fit || fit.pending || !fit.result || fit.result.sheets.length > 0) return null;
+  const on = countOf(fit.sheets, 'sheet');
+  return /^no plan exists/i.test(fit.result.failure ?? '')
+    ? `No size is fitted to ${on} while the colour rule cannot be met: the model is shown at the most the ` +
+        'sheets could hold, an upper bound.'
+    : `No size fits ${on}: the model is shown at the last size tried (see Sheets).`;
 }
 
 /** How long a build runs before the panel says so (quicker ones would only make it flicker). */
@@ -48,6 +73,7 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
   fittingSheets = null,
   showingLastValid = false,
   building = false,
+  unfitted = null,
 }: StudioPreviewPanelProps) {
   const report = preview.report;
   const fitting = fittingSheets !== null;
@@ -57,7 +83,7 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
   const earlier = fitting || slowBuild;
   const fittingText = fitting ? `Fitting the largest size on ${countOf(fittingSheets, 'sheet')}…` : '';
   // Sizes of an earlier fit are not the size being fitted: they give way to the search's progress.
-  const size = (mm: number) => (fitting ? 'fitting…' : fmt(mm));
+  const size = (mm: number) => (fitting ? 'fitting…' : unfitted ? `${fmt(mm)} (not fitted)` : fmt(mm));
   return (
     <Paper variant="outlined" sx={{ p: 2 }}>
       {showingLastValid && report ? (
@@ -81,6 +107,11 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             {report ? `${buildingText} The model below is the one built before.` : buildingText}
           </Typography>
         </Box>
+      ) : null}
+      {report && unfitted && !fitting ? (
+        <Alert severity="info" sx={{ mb: 1 }} data-testid="preview-unfitted">
+          {unfitted}
+        </Alert>
       ) : null}
       {report ? (
         <Box sx={earlier ? { opacity: 0.55 } : undefined} aria-busy={earlier || undefined}>

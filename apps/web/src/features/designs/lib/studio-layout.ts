@@ -34,11 +34,15 @@ export function layOutStudio(
   if (spec.scale.by === 'fitSheets') {
     const colours = colourCount > 1 ? { colours: { count: colourCount, rule: colourRule } } : {};
     const { model, layout } = buildWithLayout({ ...spec, ...colours });
-    // When no size fits, the search says why in one sentence (SCALE.NO_FIT): that, before any single error.
+    // When no size fits, the search says why in one sentence (SCALE.NO_FIT): that, before any single error;
+    // with no colour plan no search ran (COLOUR.NO_PLAN), whatever else the upper bound's model has.
     const errors = model.report.errors;
     const failure =
-      (errors.find((e) => e.code === 'SCALE.NO_FIT') ?? errors[0])?.message ??
-      (layout && !layout.ok ? layout.message : null);
+      (
+        errors.find((e) => e.code === 'SCALE.NO_FIT') ??
+        errors.find((e) => e.code === 'COLOUR.NO_PLAN') ??
+        errors[0]
+      )?.message ?? (layout && !layout.ok ? layout.message : null);
     return {
       sheets: layout?.ok ? sheetViews(model, layout, sheet) : [],
       diameterMm: model.report.diameterMm,

@@ -40,7 +40,11 @@ import { RequestJobDialog, type RequestJobValues } from '../../jobs/components/r
 import { SpecForm } from '../components/spec-form';
 import { StudioHeader } from '../components/studio-header';
 import { StudioDetailsPanel } from '../components/studio-details-panel';
-import { BUILDING_NOTICE_DELAY_MS, StudioPreviewPanel } from '../components/studio-preview-panel';
+import {
+  BUILDING_NOTICE_DELAY_MS,
+  StudioPreviewPanel,
+  unfittedNote,
+} from '../components/studio-preview-panel';
 import { StudioSheetsPanel } from '../components/studio-sheets-panel';
 import { useStudioPreview } from '../hooks/use-studio-preview';
 import { useUnsavedChangesGuard } from '../hooks/use-unsaved-changes-guard';
@@ -355,6 +359,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
           <StudioPreviewPanel
             preview={preview}
             fittingSheets={fitting && fit ? fit.sheets : null}
+            unfitted={unfittedNote(fit)}
             building={building}
             showingLastValid={formError !== null}
             idleMessage={
