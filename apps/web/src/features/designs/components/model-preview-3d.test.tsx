@@ -5,6 +5,7 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { ModelPreview3d } from './model-preview-3d';
 import { HOME_VIEW, VIEW_STEP_DEG, ZOOM_STEP } from './preview-view';
+import { stubResizeObserver } from '../../../testing/resize-observer';
 
 // No WebGL here: with no size measured, React Three Fiber draws nothing and the view's frame is tested alone.
 vi.mock('./render-quality', () => ({ isSoftwareWebGl: () => true }));
@@ -57,17 +58,7 @@ const HOME = {
 };
 
 describe('the 3D preview without a pointer', () => {
-  beforeEach(() => {
-    // jsdom measures nothing; React Three Fiber only needs the observer to exist.
-    vi.stubGlobal(
-      'ResizeObserver',
-      class {
-        observe() {}
-        unobserve() {}
-        disconnect() {}
-      },
-    );
-  });
+  beforeEach(stubResizeObserver);
 
   it('is a named stop in the tab order, described by a visible hint of its keys', async () => {
     const { user } = renderPreview();

@@ -5,6 +5,7 @@ import { buildPreview, emptyPreview } from '../lib/build-preview';
 import { DEFAULT_DESIGN_VALUES, toDesignSpec } from './design-form-schema';
 import { layOutStudio } from '../lib/studio-layout';
 import { BUILDING_NOTICE_DELAY_MS, StudioPreviewPanel, unfittedNote } from './studio-preview-panel';
+import { stubResizeObserver } from '../../../testing/resize-observer';
 
 // No WebGL here (as in model-preview-3d.test.tsx): the 3D view draws nothing, the panel around it is tested.
 vi.mock('./render-quality', () => ({ isSoftwareWebGl: () => true }));
@@ -26,17 +27,7 @@ function panel(preview: typeof built, building: boolean) {
 }
 
 describe('studio preview panel while the next model builds', () => {
-  beforeEach(() => {
-    // jsdom measures nothing; React Three Fiber only needs the observer to exist.
-    vi.stubGlobal(
-      'ResizeObserver',
-      class {
-        observe() {}
-        unobserve() {}
-        disconnect() {}
-      },
-    );
-  });
+  beforeEach(stubResizeObserver);
   afterEach(() => vi.unstubAllGlobals());
 
   it('keeps the model built before on screen, and says so once the build takes a while', async () => {
@@ -87,16 +78,7 @@ describe('studio preview panel while the next model builds', () => {
 });
 
 describe('studio preview panel when fit to sheets found no size', () => {
-  beforeEach(() => {
-    vi.stubGlobal(
-      'ResizeObserver',
-      class {
-        observe() {}
-        unobserve() {}
-        disconnect() {}
-      },
-    );
-  });
+  beforeEach(stubResizeObserver);
   afterEach(() => vi.unstubAllGlobals());
 
   it('says the size is not fitted while the colour rule cannot be met, and marks the sizes so', () => {
