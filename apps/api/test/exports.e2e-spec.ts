@@ -696,6 +696,81 @@ describe('cut packs whose job changes while they are built', () => {
     }
   });
 
+  it('orders a retire and a release finishing at once: the out-of-use mail names the job as it ends, released', async () => {
+    // A workshop of its own: its laser version is taken out of use here.
+    const own = await createWorkshop(ctx);
+    const jobId = await approvedJob(ctx, own, p);
+    const design = (await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200)).body
+      .designName as string;
+    /** Whether some statement waits for a lock and its text matches `like`. */
+    const waiting = async (like: string) =>
+      (
+        await ctx.db.query(
+          `SELECT 1 FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
+          [like],
+        )
+      ).length > 0;
+    const until = async (what: string, holds: () => Promise<boolean>) => {
+      const end = Date.now() + 30_000;
+      while (!(await holds())) {
+        if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+        await sleep(50);
+      }
+    };
+    // Holding off the files' rows stops the export's finishing transaction after it has checked the job's
+    // machine version, before it commits: the moment a supervisor retires that version.
+    const hold = ctx.db.createQueryRunner();
+    await hold.connect();
+    await hold.startTransaction();
+    let exportId: string;
+    let retired: Promise<Response> | undefined;
+    try {
+      await hold.query(`LOCK TABLE export_files IN SHARE MODE`);
+      exportId = await postRelease(ctx, p.fabricator, jobId);
+      await until('the export to reach its last transaction', () => waiting('%export_files%'));
+      let answered = false;
+      retired = Promise.resolve(
+        ctx.http
+          .post(`/api/machine-profiles/${own.laserProfileId}/versions/${own.laserVersionId}/retire`)
+          .set(auth(p.supervisor))
+          .send({ reason: 'Lens cracked; do not run' }),
+      ).then((res) => {
+        answered = true;
+        return res;
+      });
+      await until('the retire to answer or wait for the release', async () =>
+        answered ? true : waiting('%machine_profile_versions%'),
+      );
+    } finally {
+      await hold.rollbackTransaction();
+      await hold.release();
+    }
+    expect((await retired).status).toBe(200);
+    const view = await pollExport(
+      ctx,
+      p.fabricator,
+      exportId,
+      (v) => v.state === 'done' || v.state === 'failed',
+    );
+    expect(view.state).toBe('done');
+    const job = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200);
+    expect(job.body.state).toBe('released');
+    // Whatever committed first, the mail sent with the retire says what became of the job: released on these
+    // settings (it is on the release desk, marked), not waiting to be released.
+    const profile = (
+      await ctx.http.get(`/api/machine-profiles/${own.laserProfileId}`).set(auth(p.fabricator)).expect(200)
+    ).body as { name: string };
+    const mails: { text_body: string }[] = await ctx.db.query(
+      `SELECT text_body FROM mail_outbox WHERE subject = $1`,
+      [`Machine out of use: ${profile.name}`],
+    );
+    expect(mails.length).toBeGreaterThan(0);
+    for (const m of mails) {
+      expect(m.text_body).toContain(`- "${design}" (released): `);
+      expect(m.text_body).not.toContain(`- "${design}" (approved): `);
+    }
+  });
+
   it('serves files only for a job released to the machines (or cut and closed since)', async () => {
     const jobId = await approvedJob(ctx, w, p);
     const view = await releaseAndWait(ctx, p.fabricator, jobId);

@@ -165,7 +165,16 @@ export class MachineProfilesService {
     retiredAllowed = false,
   ): Promise<ApprovedProfileVersion> {
     const m = manager ?? this.dataSource.manager;
-    const v = UUID.test(versionId) ? await m.findOneBy(MachineProfileVersion, { id: versionId }) : null;
+    // Inside a job's transaction (preparation, approval, release) the version row is share-locked until it
+    // commits: a retire, or the approval of a newer version, waits for it rather than committing between this
+    // check and the job's change (a job released on a machine already out of use, and the out-of-use mail
+    // calling it not released). Share locks do not wait for each other, so jobs still pass in parallel.
+    const v = UUID.test(versionId)
+      ? await m.findOne(MachineProfileVersion, {
+          where: { id: versionId },
+          ...(m.queryRunner?.isTransactionActive ? { lock: { mode: 'pessimistic_read' as const } } : {}),
+        })
+      : null;
     if (!v)
       throw new AppError(
         HttpStatus.NOT_FOUND,
