@@ -1037,6 +1037,22 @@ describe('jobs through their states', () => {
     expect(turned.body.preparation.estimate.machineCost).toBeGreaterThan(0);
   });
 
+  it('asks the other supervisors, not the one who prepared it, to approve a job a supervisor prepared', async () => {
+    const second = await createUser(ctx, 'supervisor');
+    catcher.messages.length = 0;
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.supervisor, job.id, 'prepare', prepareBody());
+    const asked = (await mailsSent())
+      .filter((m) => m.subject.startsWith('Job prepared, waiting for approval') && m.text.includes(job.id))
+      .flatMap((m) => m.to);
+    // The preparer may not approve it (four eyes): the mail goes to those who may.
+    expect(asked).toContain(second.email);
+    expect(asked).not.toContain(users.supervisor.email);
+    await act(users.supervisor, job.id, 'approve', {}, 403);
+    await act(second, job.id, 'approve');
+  });
+
   it('sends mail to the right people on request, preparation, approval, release and return', async () => {
     catcher.messages.length = 0;
     const job = await draftJob();

@@ -16,7 +16,14 @@ export class JobMailer {
     @Inject(mailConfig.KEY) private readonly config: ConfigType<typeof mailConfig>,
   ) {}
 
-  async onTransition(m: EntityManager, job: Job, action: JobAction, from?: JobState): Promise<void> {
+  async onTransition(
+    m: EntityManager,
+    job: Job,
+    action: JobAction,
+    from?: JobState,
+    /** Who took the action (null: the export queue): not asked to do what the rules forbid them next. */
+    actorId: string | null = null,
+  ): Promise<void> {
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const title = design?.name ?? 'a design';
     const link = { label: 'Open the job', url: appLink(this.config.appUrl, `jobs/${job.id}`) };
@@ -40,7 +47,7 @@ export class JobMailer {
       }
       case 'prepare': {
         // Four eyes: a prepared job waits for a supervisor, who should hear of it as fabricators hear of
-        // requests.
+        // requests; not the supervisor who prepared it, whom approval refuses (JOB.SELF_APPROVAL).
         const mail = composeMail(
           `Job prepared, waiting for approval: ${title}`,
           [
@@ -51,7 +58,7 @@ export class JobMailer {
         );
         await this.outbox.enqueue(m, {
           kind: 'job.prepared',
-          to: await this.outbox.addressesOfRoles(m, ['supervisor']),
+          to: await this.outbox.addressesOfRoles(m, ['supervisor'], actorId ? [actorId] : []),
           ...mail,
         });
         return;

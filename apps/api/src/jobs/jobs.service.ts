@@ -600,7 +600,7 @@ export class JobsService {
       after: { state: rule.to, ...(reason ? { reason } : {}) },
       requestId,
     });
-    await this.mailer.onTransition(m, job, action, from);
+    await this.mailer.onTransition(m, job, action, from, actorId);
   }
 
   /** The job route's view: the list's row for this job (same SQL, same mapping) and its transitions. */

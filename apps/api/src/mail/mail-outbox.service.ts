@@ -29,11 +29,12 @@ export class MailOutboxService {
     );
   }
 
-  /** E-mail addresses of the active users holding any of the roles. */
-  async addressesOfRoles(manager: EntityManager, roles: Role[]): Promise<string[]> {
+  /** E-mail addresses of the active users holding any of the roles, but for the users `except` names. */
+  async addressesOfRoles(manager: EntityManager, roles: Role[], except: string[] = []): Promise<string[]> {
     const rows: { email: string }[] = await manager.query(
-      `SELECT email FROM users WHERE active AND role = ANY($1::user_role[]) ORDER BY email`,
-      [roles],
+      `SELECT email FROM users WHERE active AND role = ANY($1::user_role[]) AND NOT (id = ANY($2::uuid[]))
+        ORDER BY email`,
+      [roles, except],
     );
     return rows.map((r) => r.email);
   }
