@@ -496,6 +496,39 @@ describe('machine profiles, versions and kerf records', () => {
     await act('fabricator', p, same, 'submit', { lockVersion: changed.body.lockVersion }).expect(200);
   });
 
+  it('asks for review only the supervisors who may approve: not one who edited or submitted the version', async () => {
+    // A supervisor changed the fabricator's draft: the four-eyes rule keeps them from approving it.
+    const p = await createProfile({ name: unique('Review mail laser') });
+    const edited = await ctx.http
+      .patch(versionPath(p, p.latest))
+      .set(auth(secondSupervisor))
+      .send({ lockVersion: p.latest.lockVersion, settings: [laserSetting(plywood, 0.3)] })
+      .expect(200);
+    await act('fabricator', p, p.latest, 'submit', { lockVersion: edited.body.lockVersion }).expect(200);
+    const asked = (await mailsAbout(p.name))
+      .filter((m) => m.subject.startsWith('Machine profile to review'))
+      .flatMap((m) => m.to);
+    expect(asked).toContain(users.supervisor.email);
+    expect(asked).not.toContain(secondSupervisor.email);
+
+    // A supervisor who drafts and submits a version is not asked to review it either.
+    const own = (
+      await ctx.http
+        .post('/api/machine-profiles')
+        .set(auth(secondSupervisor))
+        .send(profileBody({ name: unique('Own review mail laser') }))
+        .expect(201)
+    ).body as ProfileBody;
+    await act(secondSupervisor, own, own.latest, 'submit', { lockVersion: own.latest.lockVersion }).expect(
+      200,
+    );
+    const askedOwn = (await mailsAbout(own.name))
+      .filter((m) => m.subject.startsWith('Machine profile to review'))
+      .flatMap((m) => m.to);
+    expect(askedOwn).toContain(users.supervisor.email);
+    expect(askedOwn).not.toContain(secondSupervisor.email);
+  });
+
   it('needs the lockVersion the caller read to submit, approve or send back (400 without it); retiring takes none', async () => {
     const p = await createProfile();
     const noBody = await ctx.http

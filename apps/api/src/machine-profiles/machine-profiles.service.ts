@@ -312,7 +312,8 @@ export class MachineProfilesService {
       );
       await this.mail.enqueue(manager, {
         kind: 'machine-profile.submitted',
-        to: await this.mail.addressesOfRoles(manager, ['supervisor']),
+        // Those who had a hand in the version may not approve it (four eyes): they are not asked to review it.
+        to: await this.mail.addressesOfRoles(manager, ['supervisor'], await this.authors(manager, saved)),
         ...mail,
       });
       return saved;
@@ -567,6 +568,20 @@ export class MachineProfilesService {
       this.expect(v, from, dto.lockVersion, what);
       return this.view(manager, await change(manager, profile, v));
     });
+  }
+
+  /** Everyone who drafted, edited or submitted the version (approve refuses them; see `authorship`). */
+  private async authors(manager: EntityManager, v: MachineProfileVersion): Promise<string[]> {
+    const rows: { actor_id: string }[] = await manager.query(
+      `SELECT DISTINCT actor_id FROM audit_events
+        WHERE entity_type = 'machine-profile-version' AND entity_id = $1 AND actor_id IS NOT NULL
+          AND action IN ('machine-profile-version.create', 'machine-profile-version.update',
+                         'machine-profile-version.submit')`,
+      [v.id],
+    );
+    const ids = new Set(rows.map((r) => r.actor_id));
+    for (const id of [v.createdBy, v.submittedBy]) if (id) ids.add(id);
+    return [...ids];
   }
 
   /**
