@@ -75,6 +75,19 @@ const SOLIDS = {
       return [Math.cos(t), Math.sin(t), i < 5 ? 0.6 : -0.6] as V3;
     }),
   ),
+  // A truncated icosahedron: the cyclic permutations of (0, ±1, ±3φ), (±1, ±(2 + φ), ±2φ) and (±φ, ±2, ±φ³)
+  // (canonical coordinates, from memory; the face counts are checked below).
+  truncatedIcosahedron: hullFaces(
+    (
+      [
+        [0, 1, 3 * PHI],
+        [1, 2 + PHI, 2 * PHI],
+        [PHI, 2, PHI ** 3],
+      ] as V3[]
+    )
+      .flatMap(cyclic)
+      .flatMap(signs),
+  ),
   // A square antiprism: two parallel squares turned 45° to each other, eight triangles between.
   squareAntiprism: hullFaces(
     Array.from({ length: 8 }, (_, i) => {
@@ -293,6 +306,32 @@ describe('solveColourPlan — the most even plan when no balanced one exists', (
       expect(satisfies('opposite-match', r.solid.faces, r.solid.normals, r.colours)).toBe(true);
     }
   });
+
+  it('finds the most even plan at once when the pairs make n/k unreachable (truncated icosahedron, derived)', () => {
+    // 12 pentagons and 20 hexagons (Euler: 60 − 90 + 32 = 2) in 16 opposite pairs, so every count is even.
+    // In 10 colours n/k = 3.2: no even count lies in 3…4 but 4, and ten 4s make 40, not 32; one step wider (2…5)
+    // 4·a + 2·b = 32 with a + b = 10 gives six 4s and four 2s (derived). Proving that no balanced plan
+    // exists, and no plan with fewer than four counts off, is arithmetic: asked of the SAT solver it ran for
+    // minutes (and ran out of memory with 12 colours on a 62-face solid).
+    const s = SOLIDS.truncatedIcosahedron;
+    expect(s.faces.filter((f) => f.length === 5)).toHaveLength(12);
+    expect(s.faces.filter((f) => f.length === 6)).toHaveLength(20);
+    const started = Date.now();
+    const result = solveColourPlan({
+      faceCount: s.faces.length,
+      faceVertices: s.faces,
+      normals: s.normals,
+      rule: 'opposite-match',
+      count: 10,
+      countCap: 12,
+    });
+    expect(Date.now() - started).toBeLessThan(8000);
+    expect(result.feasible).toBe(true);
+    expect(result.balanced).toBe(false);
+    expect([...result.colourCounts].sort((a, b) => a - b)).toEqual([2, 2, 2, 2, 4, 4, 4, 4, 4, 4]);
+    const colours = s.faces.map((_, i) => result.assignment[String(i)] ?? -1);
+    expect(satisfies('opposite-match', s.faces, s.normals, colours)).toBe(true);
+  }, 10_000);
 
   it('leaves as few colours empty as the rule allows (square antiprism, derived)', () => {
     // Opposite-match: the two squares are parallel and share a colour; no two of the eight triangles are

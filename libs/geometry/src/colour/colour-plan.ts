@@ -162,11 +162,15 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
     for (const [a, b] of edgeAdjacentFaces(faceVertices)) distinct(a, b);
   }
   let oppositeCount = 0;
+  let pairs: readonly (readonly [number, number])[] = [];
   if (rule === 'opposite-match') {
-    const pairs = input.opposite ?? (input.normals ? oppositePairsFromNormals(input.normals) : []);
+    pairs = input.opposite ?? (input.normals ? oppositePairsFromNormals(input.normals) : []);
     oppositeCount = pairs.length;
     for (const [a, b] of pairs) for (let c = 0; c < k; c++) solver.require(Logic.equiv(v(a, c), v(b, c)));
   }
+  // Faces that must share a colour count together: what counts per colour are possible at all is plain
+  // arithmetic, asked before the solver (which would take minutes to prove a parity bound by search).
+  const counting = countingBound(n, k, pairs);
   // Value precedence: colour c on face f needs colour c−1 on some lower face (one plan per colour renaming).
   for (let f = 0; f < n; f++)
     for (let c = 1; c < k; c++) {
@@ -186,7 +190,7 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
       ]),
     );
   const balance = band(lo, hi);
-  let solution = solver.solveAssuming(balance);
+  let solution = counting.fewestOutside(lo, hi) === 0 ? solver.solveAssuming(balance) : null;
   if (!solution) {
     // No balanced plan: any plan at all? Then the most even one: first the band around n/k widened one count
     // at a time up to the spread of the plan found (so an answer that exists is never missed: an icosahedron
@@ -198,12 +202,16 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
       const stray = (x: number) => Math.max(lo - x, x - hi);
       const spread = Math.max(...readCounts(solution, n, k).map(stray));
       let within = band(Math.max(0, lo - spread), Math.min(n, hi + spread));
+      let reach = spread;
       for (let d = 1; d < spread; d++) {
+        // Tighter bands have no plan, so one here strays d from n/k: when the counting rules that out, skip.
+        if (!Number.isFinite(counting.fewestOutside(lo - d, hi + d, d))) continue;
         const tighter = band(Math.max(0, lo - d), Math.min(n, hi + d));
         const even = solver.solveAssuming(tighter);
         if (even) {
           solution = even;
           within = tighter;
+          reach = d;
           break;
         }
       }
@@ -214,7 +222,10 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
       );
       const offCount = (s: Logic.Solution) => readCounts(s, n, k).filter((x) => stray(x) > 0).length;
       let off = offCount(solution);
-      for (;;) {
+      // No plan within the band has fewer colours off n/k than the counting allows, given that no tighter band
+      // has a plan (some colour strays `reach`): stop there.
+      const fewestOff = counting.fewestOutside(lo - reach, hi + reach, reach);
+      while (off > fewestOff) {
         const better = solver.solveAssuming(
           Logic.and(within, Logic.lessThan(outside, Logic.constantBits(off))),
         );
@@ -274,6 +285,70 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
   }
   if (notes.length > 0) plan.message = notes.join('; ');
   return plan;
+}
+
+/**
+ * What the counting alone allows. Faces joined by opposite pairs must share a colour, so each colour's count is
+ * a sum of the joined groups' sizes. With groups of one and two faces (pairs from normals: each face in one pair
+ * at most), a colour with count x takes an odd number of single faces when x is odd and an even number (maybe 0)
+ * when x is even, so counts x₁ … x_k are possible exactly when they sum to n and at most S of them (S single
+ * faces) are odd. `fewestOutside(min, max, stray)` is the fewest colours whose count lies outside [lo, hi] among
+ * such counts within [min, max] of which at least one lies `stray` or more from [lo, hi] (Infinity when there
+ * are none), by dynamic programming over the colours. With larger
+ * groups (explicit pairs that chain faces) it returns 0 and leaves every question to the solver.
+ */
+function countingBound(
+  n: number,
+  k: number,
+  pairs: readonly (readonly [number, number])[],
+): { fewestOutside: (min: number, max: number, stray?: number) => number } {
+  const paired = new Set<number>();
+  let simple = true;
+  for (const [a, b] of pairs) {
+    if (paired.has(a) || paired.has(b)) simple = false;
+    paired.add(a);
+    paired.add(b);
+  }
+  const singles = n - paired.size;
+  const lo = Math.floor(n / k);
+  const hi = Math.ceil(n / k);
+  return {
+    fewestOutside(min: number, max: number, stray = 0): number {
+      if (!simple) return 0;
+      const from = Math.max(0, min);
+      const to = Math.min(n, max);
+      const far = (x: number) => (Math.max(lo - x, x - hi) >= stray ? 1 : 0);
+      // best[reached][sum][odd]: fewest counts outside [lo, hi] among the colours so far, by whether one of them
+      // lies `stray` away, their total and how many are odd.
+      const table = () =>
+        [0, 1].map(() => Array.from({ length: n + 1 }, () => new Array<number>(k + 1).fill(Infinity)));
+      let best = table();
+      (best[0]![0] as number[])[0] = 0;
+      for (let c = 0; c < k; c++) {
+        const next = table();
+        for (const reached of [0, 1]) {
+          for (let sum = 0; sum <= n; sum++) {
+            for (let odd = 0; odd <= c; odd++) {
+              const here = (best[reached]![sum] as number[])[odd] as number;
+              if (!Number.isFinite(here)) continue;
+              for (let x = from; x <= to && sum + x <= n; x++) {
+                const o = odd + (x % 2);
+                const cost = here + (x < lo || x > hi ? 1 : 0);
+                const row = next[reached | far(x)]![sum + x] as number[];
+                if (cost < (row[o] as number)) row[o] = cost;
+              }
+            }
+          }
+        }
+        best = next;
+      }
+      let fewest = Infinity;
+      (best[1]![n] as number[]).forEach((cost, odd) => {
+        if (odd <= singles && cost < fewest) fewest = cost;
+      });
+      return fewest;
+    },
+  };
 }
 
 function readCounts(solution: Logic.Solution, n: number, k: number): number[] {
