@@ -232,6 +232,36 @@ describe('uploaded solids', () => {
     expect(code(() => parseSolidText('obj', ' '.repeat(MAX_SOLID_TEXT_LENGTH + 1)))).toBe('SOLID.TOO_LARGE');
   });
 
+  it('refuses OBJ coordinates that are not numbers in full instead of reading their first digits', () => {
+    // The OBJ format writes coordinates as floating-point numbers with a decimal point (Wavefront OBJ
+    // specification, from memory); a file exported with decimal commas ("1,5") was read as 1, 2 and 3: a
+    // 1 x 2 x 3 box accepted in place of the 1.5 x 2.5 x 3.5 one.
+    const box = (fmt: (x: number) => string) =>
+      [0, 1.5]
+        .flatMap((x) => [0, 2.5].flatMap((y) => [0, 3.5].map((z) => `v ${fmt(x)} ${fmt(y)} ${fmt(z)}`)))
+        .join('\n');
+    const comma = box((x) => String(x).replace('.', ','));
+    expect(code(() => parseSolidText('obj', comma))).toBe('SOLID.NOT_OBJ');
+    expect(() => parseSolidText('obj', comma)).toThrow(
+      /line 2: "3,5" is not a number \(write decimals with a point/,
+    );
+    expect(
+      code(() =>
+        parseSolidText(
+          'obj',
+          box((x) => `${x}mm`),
+        ),
+      ),
+    ).toBe('SOLID.NOT_OBJ');
+    // Numbers written in other valid ways still read in full: the same box, 1.5 x 2.5 x 3.5 (derived).
+    for (const fmt of [(x: number) => String(x), (x: number) => x.toExponential(), (x: number) => `+${x}`]) {
+      const s = parseSolidText('obj', box(fmt));
+      const span = (k: number) =>
+        Math.max(...s.vertices.map((v) => v[k]!)) - Math.min(...s.vertices.map((v) => v[k]!));
+      expect([span(0), span(1), span(2)].map((x) => Number(x.toFixed(9)))).toEqual([1.5, 2.5, 3.5]);
+    }
+  });
+
   it('builds a cube drawn in any sensible unit, and refuses coordinates far beyond them with a coded error', () => {
     const cube = (k: number) =>
       [0, 1]

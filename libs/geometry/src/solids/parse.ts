@@ -29,8 +29,21 @@ export function parseObj(text: string): UploadedMesh {
   const lines = text.split(/\r?\n/);
   for (let i = 0; i < lines.length; i++) {
     const m = /^\s*v\s+(.*)$/.exec(lines[i] as string);
-    if (m && (m[1] ?? '').trim().split(/\s+/).length < 3) {
+    if (!m) continue;
+    const tokens = (m[1] ?? '').trim().split(/\s+/);
+    if (tokens.length < 3) {
       throw new SolidError('SOLID.NOT_OBJ', `OBJ line ${i + 1} gives fewer than three vertex coordinates`);
+    }
+    // The OBJ reader takes the number at the start of each coordinate and drops the rest, so "2,5" (a decimal
+    // comma) would be read as 2 and the solid silently misshapen: a coordinate must be a number in full
+    // (NaN and infinities are refused below with their own code).
+    for (const token of tokens.slice(0, 3)) {
+      const whole = Number(token);
+      const start = parseFloat(token);
+      if (!Object.is(whole, start) && !(Number.isNaN(whole) && Number.isNaN(start))) {
+        const hint = /\d,\d/.test(token) ? ' (write decimals with a point, not a comma)' : '';
+        throw new SolidError('SOLID.NOT_OBJ', `OBJ line ${i + 1}: "${token}" is not a number${hint}`);
+      }
     }
   }
   let parsed: ReturnType<OBJFile['parse']>;
