@@ -38,6 +38,9 @@ export function bestFitRatio(
 ): { ratio: number; angleDeg: number } {
   const hull = convexHull2(outline);
   if (hull.length === 0) return { ratio: 0, angleDeg: 0 };
+  // An empty rectangle (a bed no wider than a router's bit, less the bit) holds nothing: without this the
+  // ratios of a negative width came out negative, and a piece "fitted" it.
+  if (!(widthMm > 0 && heightMm > 0)) return { ratio: Infinity, angleDeg: 0 };
   const samples: { deg: number; r: number }[] = [];
   for (let k = 0; k * FIT_SWEEP_STEP_DEG < 180; k++) {
     const deg = k * FIT_SWEEP_STEP_DEG;

@@ -32,6 +32,43 @@ describe('bestFitRatio', () => {
     expect(Math.max(...xs) - Math.min(...xs)).toBeCloseTo(100 * Math.SQRT2, 9);
   });
 
+  it('fits nothing in an empty rectangle, and a router bed no wider than the bit holds no piece', () => {
+    // A 3 × 3 mm bed less a 3.175 mm bit's path leaves a negative rectangle; the ratios came out negative, so
+    // the cube's squares (176.5 mm sides: README worked example 2, derived) were said to fit it.
+    expect(bestFitRatio(square(10), -0.175, 5).ratio).toBe(Infinity);
+    expect(bestFitRatio(square(10), 5, 0).ratio).toBe(Infinity);
+    const spec = {
+      ...design({ solid: 'cube', piece: { sides: 4, step: 1, rotationDeg: 45, size: 1.5 } }),
+      scale: { by: 'diameter' as const, mm: 300 },
+      stock: { thicknessMm: 6, flexible: false },
+      machine: { kind: 'router' as const, toolDiameterMm: 3.175 },
+      bed: { widthMm: 3, heightMm: 3 },
+    };
+    const tooLarge = buildModel(spec).report.errors.filter((e) => e.code === 'PIECE.LARGER_THAN_BED');
+    expect(tooLarge.flatMap((e) => e.pieces)).toEqual(['P1', 'P2', 'P3', 'P4', 'P5', 'P6']);
+    // Scaled to that bed, the search had an empty rectangle (it crashed in Clipper on a negative scale): the
+    // spec is refused, naming the bed. A sheet whose bit-wide margins leave nothing is refused too.
+    const refused = (s: unknown) => {
+      const v = validateSpec(s);
+      return v.ok ? [] : v.errors.map((e) => e.field);
+    };
+    expect(refused({ ...spec, scale: { by: 'fitBed' } })).toEqual(['bed']);
+    expect(() => buildModel({ ...spec, scale: { by: 'fitBed' } })).toThrow(/bed leaves no room/);
+    expect(refused({ ...spec, bed: { widthMm: 3.2, heightMm: 600 }, scale: { by: 'fitBed' } })).toEqual([]);
+    const sheet = { widthMm: 100, heightMm: 100 };
+    const bit50 = { kind: 'router' as const, toolDiameterMm: 50 };
+    expect(refused({ ...spec, machine: bit50, stock: { thicknessMm: 60, sheet, marginMm: 1 } })).toEqual([
+      'stock.sheet',
+    ]);
+    expect(
+      refused({
+        ...spec,
+        machine: { ...bit50, toolDiameterMm: 49 },
+        stock: { thicknessMm: 60, sheet, marginMm: 1 },
+      }),
+    ).toEqual([]);
+  });
+
   it('finds the diagonal for a strip longer than the bed', () => {
     // Derived: an L × w strip turned by θ has a box (L cos θ + w sin θ) × (L sin θ + w cos θ); on a square
     // bed the larger side is least where both are equal, θ = 45°, giving (L + w)/√2.

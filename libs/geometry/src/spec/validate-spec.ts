@@ -308,6 +308,23 @@ export function validateSpec(input: unknown): SpecValidation {
       `scale.sheets must be at least colours.count (${colours.count}): each colour is cut from its own sheets`,
     );
   }
+  // A router's bit runs outside each piece: its path is one bit diameter wider than the outline, and the layout
+  // keeps the pieces a bit diameter from the sheet's edges. A bed or sheet with no room left for that has no size
+  // that fits (fitBed would search an empty rectangle).
+  if (machine.kind === 'router') {
+    const d = machine.toolDiameterMm;
+    if (scale.by === 'fitBed' && bed && d > 0 && Math.min(bed.widthMm, bed.heightMm) <= d)
+      c.add(
+        'bed',
+        `the bed leaves no room for a piece: the ${d} mm router bit runs outside each piece, so the bed must be ` +
+          'wider and taller than the bit',
+      );
+    if (sheet && d > 0 && 2 * Math.max(sheet.marginMm, d) >= Math.min(sheet.widthMm, sheet.heightMm))
+      c.add(
+        'stock.sheet',
+        `the sheet leaves no room for a piece: a router keeps its bit's diameter (${d} mm) from the sheet's edges`,
+      );
+  }
   if (c.errors.length) return { ok: false, errors: c.errors };
   return {
     ok: true,
