@@ -262,6 +262,21 @@ describe('uploaded solids', () => {
     }
   });
 
+  it('refuses OFF text with more lines than its header counts instead of reading only the first points', () => {
+    // An OFF file gives the vertex and face counts, then exactly that many vertex and face lines (Geomview OFF
+    // format description, from memory). A cube of eight corners under a header that counts five was read as
+    // the five-point solid those lines span.
+    const corners = [0, 1].flatMap((x) => [0, 1].flatMap((y) => [0, 1].map((z) => `${x} ${y} ${z}`)));
+    const off = (header: string) => `OFF\n${header}\n${corners.join('\n')}\n`;
+    expect(parseSolidText('off', off('8 0 0')).faces).toHaveLength(6);
+    expect(code(() => parseSolidText('off', off('5 0 0')))).toBe('SOLID.NOT_OFF');
+    expect(() => parseSolidText('off', off('5 0 0'))).toThrow(
+      /counts 5 vertices and 0 faces, but 3 more lines/,
+    );
+    // Face lines within the count, comments and blank lines are still fine.
+    expect(parseSolidText('off', `${off('8 1 0')}4 0 1 3 2\n# end\n\n`).faces).toHaveLength(6);
+  });
+
   it('builds a cube drawn in any sensible unit, and refuses coordinates far beyond them with a coded error', () => {
     const cube = (k: number) =>
       [0, 1]

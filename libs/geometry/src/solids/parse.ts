@@ -100,6 +100,15 @@ export function parseOff(text: string): UploadedMesh {
       throw new SolidError('SOLID.NOT_OFF', `OFF vertex ${i + 1} has fewer than three coordinates`);
     return [Number(t[0]), Number(t[1]), Number(t[2])] as Vec3;
   });
+  // Lines past the counted vertices and faces mean the header's counts are wrong (an edited file, points added
+  // without updating them): reading only the first nv points would build another solid without a word.
+  if (lines.length > nv + Math.max(0, nf)) {
+    throw new SolidError(
+      'SOLID.NOT_OFF',
+      `the OFF header counts ${nv} vertices and ${nf} faces, but ${lines.length - nv - Math.max(0, nf)} more ` +
+        'lines follow them: correct the counts',
+    );
+  }
   const faces: number[][] = [];
   for (const l of lines.slice(nv, nv + nf)) {
     const t = l.split(/\s+/).map(Number);
