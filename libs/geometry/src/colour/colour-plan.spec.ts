@@ -342,6 +342,37 @@ describe('solveColourPlan — the most even plan when no balanced one exists', (
     expect(satisfies('opposite-match', r.solid.faces, r.solid.normals, r.colours)).toBe(true);
   });
 
+  it('keeps the plan it found, and says a more even one may exist, when the solver runs out of memory', () => {
+    // A 40-sided antiprism (two 40-gons at heights ±0.5, turned half a step; 82 faces, derived). Proving that no
+    // plan in 12 colours is more even outgrows MiniSat's fixed heap (64 MB: logic-solver's asm.js build), which
+    // aborts by throwing a string after some 20 s. The plan found before that still meets the rule.
+    const points: V3[] = [];
+    for (const [z, turn] of [
+      [0.5, 0],
+      [-0.5, 0.5],
+    ] as const)
+      for (let i = 0; i < 40; i++) {
+        const a = (2 * Math.PI * (i + turn)) / 40;
+        points.push([Math.cos(a), Math.sin(a), z]);
+      }
+    const solid = hullFaces(points);
+    expect(solid.faces).toHaveLength(82);
+    const result = solveColourPlan({
+      faceCount: 82,
+      faceVertices: solid.faces,
+      normals: solid.normals,
+      rule: 'opposite-match',
+      count: 12,
+    });
+    expect(result.feasible).toBe(true);
+    const colours = solid.faces.map((_, f) => result.assignment[String(f)]!);
+    expect(satisfies('opposite-match', solid.faces, solid.normals, colours)).toBe(true);
+    expect(result.balanced).toBe(false);
+    expect(result.message).toMatch(/a more even one than this may exist \(the search ran out of memory\)/);
+    // The solver that gave up counts no plans.
+    expect(result.distinctPlans).toBeUndefined();
+  }, 180_000);
+
   it('strays from n/k no further than the most even plan an exhaustive search finds', () => {
     const cases: [keyof typeof SOLIDS, ColourRule, number][] = [
       ['pentPrism', 'opposite-match', 7],

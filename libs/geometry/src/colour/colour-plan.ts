@@ -138,6 +138,21 @@ function validate(input: ColourPlanInput): void {
 const v = (face: number, colour: number): string => `f${face}c${colour}`;
 
 /**
+ * The SAT solver (MiniSat compiled to asm.js with a fixed 64 MB heap, in logic-solver) aborts by throwing a
+ * string when a proof outgrows its memory; the solver is unusable after that (a new one works). Such an abort
+ * becomes GAVE_UP; any other error is thrown on.
+ */
+const GAVE_UP = Symbol('gave up');
+function attempt(solve: () => Logic.Solution | null): Logic.Solution | null | typeof GAVE_UP {
+  try {
+    return solve();
+  } catch (e) {
+    if (typeof e === 'string' && /abort/i.test(e)) return GAVE_UP;
+    throw e;
+  }
+}
+
+/**
  * Finds a colour plan for the rule and colour count (see the module comment for the rules, balance and
  * counting). When no plan exists and `searchFewest` (default), also finds the fewest colours that meet the
  * rule. Throws ColourPlanInputError for malformed input.
@@ -190,15 +205,38 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
       ]),
     );
   const balance = band(lo, hi);
-  let solution = counting.fewestOutside(lo, hi) === 0 ? solver.solveAssuming(balance) : null;
-  if (!solution) {
+  /** The solver gave up (see attempt) while refining a plan it had found: the plan is kept as it is. */
+  let gaveUp = false;
+  const refine = (solve: () => Logic.Solution | null): Logic.Solution | null => {
+    if (gaveUp) return null;
+    const found = attempt(solve);
+    if (found === GAVE_UP) gaveUp = true;
+    return found === GAVE_UP ? null : found;
+  };
+  const first = counting.fewestOutside(lo, hi) === 0 ? attempt(() => solver.solveAssuming(balance)) : null;
+  const any = first === null ? attempt(() => solver.solve()) : first;
+  if (any === GAVE_UP) {
+    // Not even whether a plan exists could be settled: said so, never "no plan exists".
+    return {
+      rule,
+      count: k,
+      feasible: false,
+      assignment: {},
+      balanced: false,
+      colourCounts: [],
+      message:
+        `no plan found: the search for a plan under rule "${rule}" with ${k} colour${k === 1 ? '' : 's'} ` +
+        `ran out of memory on these ${n} pieces; try another colour count or rule`,
+    };
+  }
+  let solution: Logic.Solution | null = any;
+  if (first === null && solution) {
     // No balanced plan: any plan at all? Then the most even one: first the band around n/k widened one count
     // at a time up to the spread of the plan found (so an answer that exists is never missed: an icosahedron
     // under 'opposite-match' in 4 colours gets 6/6/4/4, not 8/4/4/4), then within that band the fewest
     // colours used other than floor(n/k) or ceil(n/k) times (a pentagonal prism in 7 colours gets
     // 2/1/1/1/1/1/0, not 2/2/1/1/1/0/0). Assumptions only: the plans counted below are all plans.
-    solution = solver.solve();
-    if (solution) {
+    {
       const stray = (x: number) => Math.max(lo - x, x - hi);
       const spread = Math.max(...readCounts(solution, n, k).map(stray));
       let within = band(Math.max(0, lo - spread), Math.min(n, hi + spread));
@@ -207,7 +245,8 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
         // Tighter bands have no plan, so one here strays d from n/k: when the counting rules that out, skip.
         if (!Number.isFinite(counting.fewestOutside(lo - d, hi + d, d))) continue;
         const tighter = band(Math.max(0, lo - d), Math.min(n, hi + d));
-        const even = solver.solveAssuming(tighter);
+        const even = refine(() => solver.solveAssuming(tighter));
+        if (gaveUp) break;
         if (even) {
           solution = even;
           within = tighter;
@@ -225,9 +264,9 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
       // No plan within the band has fewer colours off n/k than the counting allows, given that no tighter band
       // has a plan (some colour strays `reach`): stop there.
       const fewestOff = counting.fewestOutside(lo - reach, hi + reach, reach);
-      while (off > fewestOff) {
-        const better = solver.solveAssuming(
-          Logic.and(within, Logic.lessThan(outside, Logic.constantBits(off))),
+      while (off > fewestOff && !gaveUp) {
+        const better = refine(() =>
+          solver.solveAssuming(Logic.and(within, Logic.lessThan(outside, Logic.constantBits(off)))),
         );
         if (!better) break;
         solution = better;
@@ -269,9 +308,15 @@ export function solveColourPlan(input: ColourPlanInput, searchFewest = true): Co
   const balanced = colourCounts.every((x) => x >= lo && x <= hi);
   const plan: ColourPlan = { ...base, feasible: true, assignment, balanced, colourCounts };
   const notes: string[] = [];
-  if (!balanced) notes.push('the rule can be met only with unequal colour counts');
+  if (!balanced)
+    notes.push(
+      gaveUp
+        ? 'no plan with equal colour counts was found; a more even one than this may exist (the search ran out of memory)'
+        : 'the rule can be met only with unequal colour counts',
+    );
   if (rule === 'opposite-match' && oppositeCount === 0) notes.push('the solid has no opposite faces');
-  if (cap > 0) {
+  // Plans are counted with the same solver: not once it has given up.
+  if (cap > 0 && !gaveUp) {
     if (balanced) solver.require(balance);
     let found = 0;
     let s: Logic.Solution | null = solution;
