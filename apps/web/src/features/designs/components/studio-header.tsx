@@ -27,6 +27,11 @@ interface StudioHeaderProps {
 
 const SAVE_NOT_YOURS = 'Only its owner or a supervisor saves this design: duplicate it to keep your changes.';
 
+/** Reasons that pass by themselves in a moment (the model is on its way): not worth a line on the page. */
+export const REQUEST_WAITS_FOR_PREVIEW = 'The preview is not ready yet';
+export const REQUEST_WAITS_FOR_FIT = 'Wait until the size is fitted to the sheets';
+const PASSING_REASONS: readonly string[] = [REQUEST_WAITS_FOR_PREVIEW, REQUEST_WAITS_FOR_FIT];
+
 /** The studio's title, unit switch and actions. Memoised: typing in the form leaves it alone. */
 export const StudioHeader = memo(function StudioHeader({
   design,
@@ -55,6 +60,21 @@ export const StudioHeader = memo(function StudioHeader({
             {SAVE_NOT_YOURS}
           </Typography>
         )}
+        {/* Why "Request a cut job" is disabled, on the page for the same reason: a phone has no hover and a
+            disabled button no focus, so its tooltip alone reaches nobody there. Its line is kept while empty,
+            so the page does not jump when the first edit makes it appear. */}
+        {design ? (
+          <Typography
+            variant="body2"
+            color="text.secondary"
+            data-testid="request-blocked"
+            sx={{ minHeight: '1.43em' }}
+          >
+            {requestBlocked !== null && !PASSING_REASONS.includes(requestBlocked)
+              ? `A cut job cannot be requested yet. ${requestBlocked}.`
+              : null}
+          </Typography>
+        ) : null}
       </Box>
       <UnitToggle unit={unit} onUnit={onUnit} />
       <Tooltip title={canSave ? '' : SAVE_NOT_YOURS} describeChild>

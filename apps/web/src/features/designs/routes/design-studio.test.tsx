@@ -237,6 +237,43 @@ describe('design studio', () => {
     );
   });
 
+  it('says on the page, not only in the tooltip, why a cut job cannot be requested (a phone has no hover)', async () => {
+    studioApi(designFixture({ spec: { ...designFixture().spec, scale: { by: 'diameter', mm: 5 } } }));
+    renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await screen.findByTestId('model-facts');
+    await waitFor(() => expect(request).toBeDisabled());
+    expect(screen.getByTestId('request-blocked')).toHaveTextContent(
+      /^A cut job cannot be requested yet\. The design has \d+ errors: see the Report tab\.$/,
+    );
+  });
+
+  it('says nothing under the title while a sound saved design can be requested, and asks for a save after an edit', async () => {
+    studioApi();
+    renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await waitFor(() => expect(request).toBeEnabled());
+    expect(screen.getByTestId('request-blocked')).toBeEmptyDOMElement();
+    await field('Sides (n)', '5');
+    await waitFor(() =>
+      expect(screen.getByTestId('request-blocked')).toHaveTextContent(
+        'A cut job cannot be requested yet. Save the changes first.',
+      ),
+    );
+  });
+
+  it('does not tell a member who may not save the design to save their changes before requesting', async () => {
+    studioApi(designFixture(), userFixture('fabricator'));
+    renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await waitFor(() => expect(request).toBeEnabled());
+    await field('Sides (n)', '5');
+    await waitFor(() => expect(request).toBeDisabled());
+    const said = screen.getByTestId('request-blocked');
+    expect(said).toHaveTextContent(/undo your changes, or duplicate the design to keep them\.$/);
+    expect(said).not.toHaveTextContent(/Save the changes/);
+  });
+
   it('marks a sheet too small for its margins in plain words and keeps the last model on screen', async () => {
     studioApi();
     renderApp('/designs/new', { token: 't' });

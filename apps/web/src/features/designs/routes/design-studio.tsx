@@ -38,7 +38,7 @@ import {
 import { DuplicateDialog } from '../components/duplicate-dialog';
 import { RequestJobDialog, type RequestJobValues } from '../../jobs/components/request-job-dialog';
 import { SpecForm } from '../components/spec-form';
-import { StudioHeader } from '../components/studio-header';
+import { REQUEST_WAITS_FOR_FIT, REQUEST_WAITS_FOR_PREVIEW, StudioHeader } from '../components/studio-header';
 import { StudioDetailsPanel } from '../components/studio-details-panel';
 import {
   BUILDING_NOTICE_DELAY_MS,
@@ -331,6 +331,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
         onRequest={onRequestClick}
         requestBlocked={requestBlockedReason({
           dirty,
+          canSave,
           formError,
           fitting,
           report,
@@ -424,6 +425,7 @@ function DesignStudio({ design }: { design: DesignView | null }) {
 /** Why a cut job cannot be requested now, in the words the button's tooltip shows; null when it can. */
 function requestBlockedReason({
   dirty,
+  canSave,
   formError,
   fitting,
   report,
@@ -431,6 +433,8 @@ function requestBlockedReason({
   noColourPlan,
 }: {
   dirty: boolean;
+  /** Whether this member may save the design: one who may not cannot follow "save the changes first". */
+  canSave: boolean;
   formError: string | null;
   fitting: boolean;
   report: DesignReport | null;
@@ -439,9 +443,11 @@ function requestBlockedReason({
   noColourPlan: boolean;
 }): string | null {
   if (formError !== null) return 'Correct the marked fields first';
+  if (dirty && !canSave)
+    return 'A request takes the design as saved: undo your changes, or duplicate the design to keep them';
   if (dirty) return 'Save the changes first';
-  if (fitting) return 'Wait until the size is fitted to the sheets';
-  if (!report) return failure ? 'The design does not build: see the preview' : 'The preview is not ready yet';
+  if (fitting) return REQUEST_WAITS_FOR_FIT;
+  if (!report) return failure ? 'The design does not build: see the preview' : REQUEST_WAITS_FOR_PREVIEW;
   if (report.errors.length > 0)
     return `The design has ${countOf(report.errors.length, 'error')}: see the Report tab`;
   if (noColourPlan) return 'The colour rule cannot be met with these colours: see the colour notice';
