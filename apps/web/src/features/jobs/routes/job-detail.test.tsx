@@ -165,6 +165,44 @@ describe('job detail', () => {
     expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 4 });
   });
 
+  it('keeps the reason a job was returned for in view once it is reopened as a draft, until it is requested again', async () => {
+    const reason = 'Saffron card is out of stock until Friday; choose another colour.';
+    let current: JobDetailView = { ...job, state: 'returned', returnReason: reason, actions: ['reopen'] };
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, current),
+      [`POST /api/jobs/${job.id}/reopen`]: () => {
+        // The API keeps the reason on the reopened draft (jobs.service clears it on the next request).
+        current = { ...current, state: 'draft', version: 5, actions: ['request'] };
+        return json(200, current);
+      },
+      [`POST /api/jobs/${job.id}/request`]: () => {
+        current = { ...current, state: 'requested', version: 6, returnReason: null, actions: ['withdraw'] };
+        return json(200, current);
+      },
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    expect(await screen.findByTestId('return-reason')).toHaveTextContent(`Returned: ${reason}`);
+
+    await user.click(
+      within(screen.getByTestId('job-actions')).getByRole('button', { name: 'Reopen as a draft' }),
+    );
+    const reopen = await screen.findByRole('dialog', { name: 'Reopen as a draft?' });
+    await user.click(within(reopen).getByRole('button', { name: 'Reopen as a draft' }));
+    await screen.findByText(/^Owner: Jun Park/);
+    expect(screen.getByTestId('return-reason')).toHaveTextContent(
+      `Returned earlier: ${reason} Put that right, then request the cut again.`,
+    );
+
+    await user.click(
+      within(screen.getByTestId('job-actions')).getByRole('button', { name: 'Request the cut' }),
+    );
+    const request = await screen.findByRole('dialog', { name: 'Request the cut?' });
+    await user.click(within(request).getByRole('button', { name: 'Request the cut' }));
+    await screen.findByText(/^Requested by Jun Park/);
+    expect(screen.queryByTestId('return-reason')).not.toBeInTheDocument();
+  });
+
   it("lets a draft's requester change its copies and notes, starting from the job's own", async () => {
     const me = userFixture('hobbyist');
     let current: JobDetailView = {

@@ -202,6 +202,13 @@ function JobDetail({ job }: { job: JobDetailView }) {
           {`Returned: ${job.returnReason}`}
         </Alert>
       ) : null}
+      {/* Reopened after a return, the draft is being put right for the reason given: it stays in view until the
+          cut is requested again (the API clears it then), rather than only in the history further down. */}
+      {job.returnReason && job.state === 'draft' ? (
+        <Alert severity="info" sx={{ mb: 2 }} data-testid="return-reason">
+          {`Returned earlier: ${job.returnReason} Put that right, then request the cut again.`}
+        </Alert>
+      ) : null}
       {retiredSince ? (
         <Alert severity="warning" sx={{ mb: 2 }} data-testid="retired-since-release">
           {retiredSince}
