@@ -20,7 +20,9 @@ export function auditColumns({
       id: 'when',
       header: 'When',
       sortField: 'createdAt',
-      cellSx: { whiteSpace: 'nowrap' },
+      // Kept on one line where there is room; on a phone it wraps, or it takes half the screen and leaves
+      // "What happened" a word or two wide.
+      cellSx: { whiteSpace: { xs: 'normal', sm: 'nowrap' } },
       render: (e) => formatDateTime(e.createdAt, { seconds: true }),
     },
     {
