@@ -42,3 +42,35 @@ describe(`Pages at phone width, in Chromium at ${BASE_URL}`, () => {
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(PHONE.width);
   });
 });
+
+describe(`Kerf history at phone width, in Chromium at ${BASE_URL}`, () => {
+  it('draws the chart at the width it has, so its figures and labels are as large as the page text', async () => {
+    await page.setViewportSize(PHONE);
+    await signInToHome(page, demoUser('fabricator').email, DEMO_PASSWORD);
+    await page.goto('/machine-profiles');
+    await page
+      .getByRole('link', { name: /CO2 laser/ })
+      .first()
+      .click();
+    const chart = page.getByTestId('kerf-chart');
+    await chart.waitFor();
+    const box = await chart.boundingBox();
+    expect(box).not.toBeNull();
+    // A tick figure at 12 px type is about 12 px high on screen (it was about 5 px, drawn 720 wide and shrunk).
+    const tickHeights = await chart
+      .getByTestId('kerf-tick')
+      .evaluateAll((ticks) => ticks.map((t) => t.getBoundingClientRect().height));
+    expect(tickHeights.length).toBeGreaterThan(1);
+    for (const h of tickHeights) expect(h).toBeGreaterThanOrEqual(10);
+    // The approved value's label is whole on screen, inside the drawing.
+    const labels = await chart
+      .getByTestId('kerf-reference-label')
+      .evaluateAll((ls) => ls.map((l) => l.getBoundingClientRect().toJSON() as DOMRect));
+    expect(labels.length).toBeGreaterThan(0);
+    for (const l of labels) {
+      expect(l.left).toBeGreaterThanOrEqual(box!.x - 1);
+      expect(l.right).toBeLessThanOrEqual(box!.x + box!.width + 1);
+      expect(l.height).toBeGreaterThanOrEqual(10);
+    }
+  });
+});

@@ -2,6 +2,7 @@ import { type KerfRecordView } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
 import { countOf } from '../../../lib/plural';
+import { useElementWidth } from '../../../lib/use-element-width';
 
 /** A reference line: the kerf (or tool diameter) a profile version holds for the material. */
 export interface KerfReference {
@@ -16,9 +17,15 @@ interface KerfHistoryChartProps {
   references: readonly KerfReference[];
   /** What the values are ("kerf" or "cut width"), for the labels. */
   quantity: string;
+  /** The drawing's width in CSS pixels; by default the width it is given on the page, up to 720. */
   width?: number;
   height?: number;
 }
+
+/** Below this width the reference lines' labels go inside the plot, over their lines, not in a margin. */
+export const NARROW_CHART_PX = 480;
+const WIDEST_CHART_PX = 720;
+const NARROWEST_CHART_PX = 280;
 
 const dateFormat = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short' });
 const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' });
@@ -92,10 +99,16 @@ export function KerfHistoryChart({
   records,
   references,
   quantity,
-  width = 720,
+  width: fixedWidth,
   height = 280,
 }: KerfHistoryChartProps) {
-  const pad = { left: 56, right: 150, top: 16, bottom: 36 };
+  // Drawn at the width it has, so its text keeps its size: a 720-wide drawing shrunk onto a phone printed its
+  // labels five pixels high.
+  const box = useElementWidth();
+  const width =
+    fixedWidth ?? Math.min(WIDEST_CHART_PX, Math.max(NARROWEST_CHART_PX, box.width ?? WIDEST_CHART_PX));
+  const narrow = width < NARROW_CHART_PX;
+  const pad = { left: 56, right: narrow ? 12 : 150, top: narrow ? 22 : 16, bottom: 36 };
   const innerW = width - pad.left - pad.right;
   const innerH = height - pad.top - pad.bottom;
   const values = [...records.map((r) => r.kerfMm), ...references.map((r) => r.valueMm)];
@@ -123,7 +136,7 @@ export function KerfHistoryChart({
   const mean = records.length > 0 ? records.reduce((s, r) => s + r.kerfMm, 0) / records.length : null;
 
   return (
-    <Box>
+    <Box ref={box.ref}>
       <svg
         viewBox={`0 0 ${width} ${height}`}
         width="100%"
@@ -168,8 +181,9 @@ export function KerfHistoryChart({
               strokeDasharray={ref.dashed ? '6 4' : undefined}
             />
             <text
-              x={pad.left + innerW + 6}
-              y={labelYs[i]! + 4}
+              x={narrow ? pad.left + innerW - 4 : pad.left + innerW + 6}
+              y={narrow ? labelYs[i]! - 5 : labelYs[i]! + 4}
+              textAnchor={narrow ? 'end' : undefined}
               fill={ref.colour}
               data-testid="kerf-reference-label"
             >
