@@ -73,4 +73,36 @@ describe(`Kerf history at phone width, in Chromium at ${BASE_URL}`, () => {
       expect(l.height).toBeGreaterThanOrEqual(10);
     }
   });
+
+  it("keeps a measurement's Adopt button on screen, the table fitting the phone without scrolling sideways", async () => {
+    await page.setViewportSize(PHONE);
+    await signInToHome(page, demoUser('fabricator').email, DEMO_PASSWORD);
+    await page.goto('/machine-profiles');
+    await page
+      .getByRole('link', { name: /CO2 laser/ })
+      .first()
+      .click();
+    await page.getByTestId('kerf-chart').waitFor();
+    const note = `phone layout check ${Date.now().toString(36)}`;
+    await page.getByRole('button', { name: 'Record a measured kerf' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Record a measured kerf' });
+    await dialog.getByLabel('Measured kerf (mm)').fill('0.081');
+    await dialog.getByLabel('Notes (optional)').fill(note);
+    await dialog.getByRole('button', { name: 'Record' }).click();
+    await dialog.waitFor({ state: 'detached' });
+    const row = page.getByTestId('kerf-record').filter({ hasText: note });
+    const adopt = row.getByRole('button', { name: 'Adopt 0.081 mm' });
+    await adopt.waitFor();
+    const fits = await page.getByRole('table', { name: 'Measured kerfs' }).evaluate((table) => {
+      const box = table.parentElement!;
+      return {
+        scrollWidth: box.scrollWidth,
+        clientWidth: box.clientWidth,
+        right: box.getBoundingClientRect().right,
+      };
+    });
+    expect(fits.scrollWidth).toBeLessThanOrEqual(fits.clientWidth + 1);
+    const button = await adopt.boundingBox();
+    expect(button!.x + button!.width).toBeLessThanOrEqual(fits.right + 1);
+  });
 });

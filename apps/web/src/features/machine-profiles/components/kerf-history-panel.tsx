@@ -114,7 +114,12 @@ export function KerfHistoryPanel({
       <KerfHistoryChart records={mine} references={references} quantity={quantity} />
       {mine.length > 0 ? (
         <TableContainer {...scrollFocus} sx={{ mt: 2, overflowX: 'auto' }}>
-          <Table size="small" aria-label={`Measured ${quantity}s`}>
+          <Table
+            size="small"
+            aria-label={`Measured ${quantity}s`}
+            // Narrower cell padding on a phone, so the four columns fit its width.
+            sx={{ '& .MuiTableCell-root': { px: { xs: 1, sm: 2 } } }}
+          >
             <TableHead>
               <TableRow>
                 <TableCell>Measured</TableCell>
@@ -126,7 +131,10 @@ export function KerfHistoryPanel({
             <TableBody>
               {[...mine].reverse().map((r) => (
                 <TableRow key={r.id} data-testid="kerf-record">
-                  <TableCell sx={{ whiteSpace: 'nowrap' }}>{formatDateTime(r.createdAt)}</TableCell>
+                  {/* On a phone the date wraps: on one line it pushed "Adopt" out of sight, sideways. */}
+                  <TableCell sx={{ whiteSpace: { xs: 'normal', sm: 'nowrap' } }}>
+                    {formatDateTime(r.createdAt)}
+                  </TableCell>
                   <TableCell>{r.kerfMm} mm</TableCell>
                   <TableCell>{r.notes || '—'}</TableCell>
                   <TableCell align="right">
