@@ -11,7 +11,7 @@ import TableContainer from '@mui/material/TableContainer';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { Fragment, type ReactNode, useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { useFollowExport } from '../api/follow-export';
 import { downloadExportFile } from '../api/download-export-file';
@@ -136,11 +136,18 @@ export function CutPackPanel({
             {/* At phone width the row keeps to the name, size and button (the name wraps); the table scrolls
               inside its own box rather than widening the page. */}
             <TableContainer {...scrollFocus} sx={{ overflowX: 'auto' }}>
-              <Table size="small" aria-label="Cut pack files">
+              <Table
+                size="small"
+                aria-label="Cut pack files"
+                // Narrower cell padding on a phone leaves the names room to wrap between their parts.
+                sx={{ '& .MuiTableCell-root': { px: { xs: 1, sm: 2 } } }}
+              >
                 <TableBody>
                   {shown.files.map((f) => (
                     <TableRow key={f.name}>
-                      <TableCell sx={{ overflowWrap: 'anywhere' }}>{f.name}</TableCell>
+                      <TableCell sx={{ overflowWrap: 'break-word' }} data-testid="pack-file-name">
+                        {breakableFileName(f.name)}
+                      </TableCell>
                       <TableCell sx={{ display: { xs: 'none', sm: 'table-cell' } }}>
                         {PACK_FILE_ROLE_LABELS[f.role] ?? f.role}
                       </TableCell>
@@ -198,4 +205,18 @@ export function CutPackPanel({
       ) : null}
     </Paper>
   );
+}
+
+/**
+ * A file name that a narrow column may wrap before its extension as well as after its hyphens
+ * ("manifest" / ".json"), never inside a word: breaking anywhere wrote "manifest.jso" over "n" on a phone.
+ */
+export function breakableFileName(name: string): ReactNode {
+  const parts = name.split(/(?=\.)/);
+  return parts.map((part, i) => (
+    <Fragment key={i}>
+      {i > 0 ? <wbr /> : null}
+      {part}
+    </Fragment>
+  ));
 }
