@@ -31,6 +31,29 @@ describe('studio details panel', () => {
     expect(getComputedStyle(tabs.parentElement!).overflowX).toBe('auto');
   });
 
+  it("shows each tab's content in a tab panel named by its tab, which the tabs point to", () => {
+    const report = buildModel(toDesignSpec(DEFAULT_DESIGN_VALUES, null)).report;
+    const panel = (tab: number) => (
+      <StudioDetailsPanel
+        report={report}
+        pieceColour={{}}
+        tab={tab}
+        onTab={() => undefined}
+        selectedPiece={undefined}
+        onSelectPiece={() => undefined}
+        formatLength={(mm) => `${mm.toFixed(1)} mm`}
+      />
+    );
+    const { rerender } = renderWithProviders(panel(0));
+    expect(screen.getByRole('tabpanel', { name: 'Piece' })).toBeInTheDocument();
+    rerender(panel(1));
+    const crossings = screen.getByRole('tabpanel', { name: `Crossings (${report.crossings.length})` });
+    expect(crossings).toContainElement(screen.getByRole('table'));
+    for (const tab of screen.getAllByRole('tab')) {
+      expect(tab).toHaveAttribute('aria-controls', crossings.id);
+    }
+  });
+
   it('claims no problems on the Piece tab only when the report has no errors', () => {
     const valid = buildModel(toDesignSpec(DEFAULT_DESIGN_VALUES, null)).report;
     // An error of the whole design (as the audit's Size 0.5 gave) names no piece.
