@@ -166,7 +166,8 @@ describe('job detail', () => {
   });
 
   it('keeps the reason a job was returned for in view once it is reopened as a draft, until it is requested again', async () => {
-    const reason = 'Saffron card is out of stock until Friday; choose another colour.';
+    // Typed without a full stop: the page ends the sentence before going on.
+    const reason = 'Saffron card is out of stock until Friday; choose another colour';
     let current: JobDetailView = { ...job, state: 'returned', returnReason: reason, actions: ['reopen'] };
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
@@ -191,7 +192,7 @@ describe('job detail', () => {
     await user.click(within(reopen).getByRole('button', { name: 'Reopen as a draft' }));
     await screen.findByText(/^Owner: Jun Park/);
     expect(screen.getByTestId('return-reason')).toHaveTextContent(
-      `Returned earlier: ${reason} Put that right, then request the cut again.`,
+      `Returned earlier: ${reason}. Put that right, then request the cut again.`,
     );
 
     await user.click(

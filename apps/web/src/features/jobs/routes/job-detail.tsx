@@ -49,6 +49,7 @@ import { useChangeJobRequest } from '../api/change-job-request';
 import { SafetyDialog } from '../components/safety-dialog';
 import { countOf } from '../../../lib/plural';
 import { isBlankNumber } from '../../../lib/form-numbers';
+import { withFullStop } from '../../../lib/sentences';
 
 /** Actions that need more than a confirmation open their own dialog; so do the notices and a draft's request. */
 type Open = JobAction | 'safety' | 'change' | null;
@@ -206,7 +207,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           cut is requested again (the API clears it then), rather than only in the history further down. */}
       {job.returnReason && job.state === 'draft' ? (
         <Alert severity="info" sx={{ mb: 2 }} data-testid="return-reason">
-          {`Returned earlier: ${job.returnReason} Put that right, then request the cut again.`}
+          {`Returned earlier: ${withFullStop(job.returnReason)} Put that right, then request the cut again.`}
         </Alert>
       ) : null}
       {retiredSince ? (

@@ -335,7 +335,7 @@ describe('release desk', () => {
     await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
     const job = await screen.findByTestId('desk-job');
     expect(await within(job).findByTestId('desk-job-gone')).toHaveTextContent(
-      'This job was returned: “Wrong acrylic batch on the bed”. Its files are no longer offered, and it is not to be cut.',
+      'This job was returned: “Wrong acrylic batch on the bed.” Its files are no longer offered, and it is not to be cut.',
     );
     expect(within(job).queryByRole('table', { name: 'Cut pack files' })).not.toBeInTheDocument();
     expect(within(job).queryByRole('button', { name: /^Download/ })).not.toBeInTheDocument();

@@ -40,6 +40,7 @@ import { type DeskRow, useReleaseDeskJobs } from '../api/get-release-desk-jobs';
 import { PackProgress } from '../components/pack-progress';
 import { countOf } from '../../../lib/plural';
 import { useScrollFocus } from '../../../lib/use-scroll-focus';
+import { withFullStop } from '../../../lib/sentences';
 
 /**
  * The release desk (operators, supervisors): the jobs ready for the machines and those whose cut pack is
@@ -328,7 +329,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
         // Returned (or reopened since) while open here: said, and nothing offered to cut.
         <Alert severity="error" data-testid="desk-job-gone">
           {job.state === 'returned'
-            ? `This job was returned${job.returnReason ? `: “${job.returnReason}”` : ''}. Its files are no longer offered, and it is not to be cut.`
+            ? `${job.returnReason ? `This job was returned: “${withFullStop(job.returnReason)}”` : 'This job was returned.'} Its files are no longer offered, and it is not to be cut.`
             : `This job is ${job.state} now: it is no longer at the machines, and its files are not offered.`}
         </Alert>
       )}
