@@ -24,7 +24,7 @@ export function ConfirmJobActionDialog({
   onConfirm,
   onClose,
 }: ConfirmJobActionDialogProps) {
-  const { label, to } = transitionFor(action);
+  const { label, to, viaExport } = transitionFor(action);
   return (
     <ConfirmDialog
       open
@@ -36,7 +36,11 @@ export function ConfirmJobActionDialog({
       onConfirm={onConfirm}
       onClose={onClose}
     >
-      {`The job moves from ${from} to ${to}.`}
+      {viaExport
+        ? // A release waits for its cut pack (the job stays approved meanwhile, its files being built on the
+          // page): said before it is confirmed, not learnt from a state that did not change.
+          `Its cut pack is built first; the job moves from ${from} to ${to} once its files are ready.`
+        : `The job moves from ${from} to ${to}.`}
     </ConfirmDialog>
   );
 }

@@ -4,6 +4,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { materialFixture } from '../../../testing/fixtures';
 import { renderWithProviders } from '../../../testing/render-app';
+import { ConfirmJobActionDialog } from './confirm-job-action-dialog';
 import { PrepareJobDialog } from './prepare-job-dialog';
 import { RecordCutDialog } from './record-cut-dialog';
 import { ReturnJobDialog } from './return-job-dialog';
@@ -37,6 +38,40 @@ describe('return job dialog', () => {
     await user.click(screen.getByRole('button', { name: 'Return with this reason' }));
     await waitFor(() =>
       expect(onSubmit).toHaveBeenCalledWith({ reason: 'Slots too tight for this acrylic' }),
+    );
+  });
+});
+
+describe('confirming a job action', () => {
+  it('says a release waits for its cut pack, as the job stays approved until the files are ready', () => {
+    renderWithProviders(
+      <ConfirmJobActionDialog
+        action="release"
+        from="approved"
+        busy={false}
+        error={null}
+        onConfirm={noop}
+        onClose={noop}
+      />,
+    );
+    expect(screen.getByRole('dialog', { name: 'Release to the machines?' })).toHaveTextContent(
+      'Its cut pack is built first; the job moves from approved to released once its files are ready.',
+    );
+  });
+
+  it('says where an action done at once moves the job', () => {
+    renderWithProviders(
+      <ConfirmJobActionDialog
+        action="approve"
+        from="prepared"
+        busy={false}
+        error={null}
+        onConfirm={noop}
+        onClose={noop}
+      />,
+    );
+    expect(screen.getByRole('dialog', { name: 'Approve the job?' })).toHaveTextContent(
+      'The job moves from prepared to approved.',
     );
   });
 });
