@@ -42,6 +42,28 @@ describe('return job dialog', () => {
   });
 });
 
+describe('return job dialog, what follows', () => {
+  it('says a released job is taken back from the machines, its files withdrawn, before it is confirmed', () => {
+    renderWithProviders(
+      <ReturnJobDialog open from="released" busy={false} error={null} onSubmit={noop} onClose={noop} />,
+    );
+    expect(screen.getByRole('dialog', { name: 'Return the job' })).toHaveTextContent(
+      /^Return the jobThe job is taken back from the machines: its files are no longer offered, and the operators are told not to cut it\. It goes back to its requester with your reason/,
+    );
+  });
+
+  it('says where a job not yet released goes, and nothing about the machines', () => {
+    renderWithProviders(
+      <ReturnJobDialog open from="prepared" busy={false} error={null} onSubmit={noop} onClose={noop} />,
+    );
+    const dialog = screen.getByRole('dialog', { name: 'Return the job' });
+    expect(dialog).toHaveTextContent(
+      'It goes back to its requester with your reason; they can reopen it as a draft, change the copies and the notes, and request the cut again.',
+    );
+    expect(dialog).not.toHaveTextContent(/machines/);
+  });
+});
+
 describe('confirming a job action', () => {
   it('says a release waits for its cut pack, as the job stays approved until the files are ready', () => {
     renderWithProviders(

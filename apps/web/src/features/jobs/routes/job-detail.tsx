@@ -449,6 +449,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
       {open === 'return' ? (
         <ReturnJobDialog
           open
+          from={job.state}
           busy={action.isPending}
           error={action.error}
           onSubmit={(v) => take('return', { reason: v.reason.trim() })}
