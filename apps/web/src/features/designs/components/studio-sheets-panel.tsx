@@ -8,6 +8,7 @@ import {
 } from '@kerfwright/contracts';
 import { type ColourRule, FIT_SHEETS_TOLERANCE } from '@kerfwright/geometry';
 import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import LinearProgress from '@mui/material/LinearProgress';
 import Paper from '@mui/material/Paper';
@@ -284,8 +285,15 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
           {result.error instanceof Error ? result.error.message : String(result.error)}
         </Alert>
       ) : null}
-      {on && value ? (
-        <>
+      {on && value && !(result.pending && value.sheets.length === 0) ? (
+        // While a newer layout or fit runs, the last sheets stay in view, dimmed and marked busy; a last answer
+        // that laid nothing out is not shown at all: its reason ("cannot be met with 2 colours") is about
+        // the values before the edit that started the new one.
+        <Box
+          sx={{ opacity: result.pending ? 0.55 : 1 }}
+          aria-busy={result.pending || undefined}
+          data-testid="sheets-result"
+        >
           <Typography sx={{ mb: 1 }} data-testid="sheets-summary">
             {sheetsSummary(value, fmt)}
           </Typography>
@@ -327,7 +335,7 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
               so they can differ from these.
             </Typography>
           ) : null}
-        </>
+        </Box>
       ) : null}
     </Paper>
   );
