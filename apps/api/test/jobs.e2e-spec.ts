@@ -1073,15 +1073,35 @@ describe('jobs through their states', () => {
     await act(users.supervisor, job.id, 'approve');
     await releaseJob(ctx, users.fabricator, job.id);
     mails = await mailsSent();
-    for (const prefix of ['Job approved', 'Job released']) {
-      // The requester and each operator get a message of their own: nobody sees the others' addresses.
-      const ofJob = mails.filter((x) => x.subject.startsWith(prefix) && x.text.includes(job.id));
-      for (const who of [users.hobbyist.email, users.operator.email]) {
-        const m = ofJob.find((x) => x.to.includes(who));
-        expect(m?.to).toEqual([who]);
-        expect(m?.html).toContain('<p>');
-      }
+    for (const [prefix, ownPrefix] of [
+      ['Job approved', 'Your job is approved'],
+      ['Job released', 'Your job is released'],
+    ] as const) {
+      // The requester and each operator get a message of their own: nobody sees the others' addresses. The
+      // operators are told what to do next, the requester what happens to the job.
+      const ofJob = mails.filter((x) => x.text.includes(job.id));
+      const toOperator = ofJob.find(
+        (x) => x.subject.startsWith(prefix) && x.to.includes(users.operator.email),
+      );
+      expect(toOperator?.to).toEqual([users.operator.email]);
+      expect(toOperator?.html).toContain('<p>');
+      const toOwner = ofJob.find((x) => x.subject.startsWith(ownPrefix));
+      expect(toOwner?.to).toEqual([users.hobbyist.email]);
+      expect(ofJob.filter((x) => x.subject.startsWith(prefix)).flatMap((x) => x.to)).not.toContain(
+        users.hobbyist.email,
+      );
+      expect(toOwner?.text).not.toMatch(/acknowledge the safety notices/i);
     }
+    expect(
+      mails.find((x) => x.subject.startsWith('Job released') && x.text.includes(job.id))?.text,
+    ).toContain('Acknowledge the safety notices for this job before downloading its files.');
+    // The cut recorded: the requester hears their pieces are cut.
+    await acknowledge(ctx, users.operator, job.id);
+    await act(users.operator, job.id, 'cut', { actualMinutes: 12, sheetsUsed: 1 });
+    mails = await mailsSent();
+    const cut = mails.find((m) => m.subject.startsWith('Your job is cut') && m.text.includes(job.id));
+    expect(cut?.to).toEqual([users.hobbyist.email]);
+
     const other = await draftJob(users.other);
     await act(users.other, other.id, 'request');
     await act(users.fabricator, other.id, 'return', { reason: 'Needs a thicker stock' });
@@ -1091,6 +1111,18 @@ describe('jobs through their states', () => {
     );
     expect(ret?.to).toEqual([users.other.email]);
     expect(ret?.text).toMatch(/Reason given: \S/);
+    // Returned after its preparation, the fabricator who prepared it hears why; not when they returned it.
+    expect(mails.some((m) => m.subject.startsWith('A job you prepared was returned'))).toBe(false);
+    await act(users.other, other.id, 'reopen');
+    await act(users.other, other.id, 'request');
+    await act(users.fabricator, other.id, 'prepare', prepareBody());
+    await act(users.supervisor, other.id, 'return', { reason: 'Wrong sheet size for this batch' });
+    mails = await mailsSent();
+    const back = mails.find(
+      (m) => m.subject.startsWith('A job you prepared was returned') && m.text.includes(other.id),
+    );
+    expect(back?.to).toEqual([users.fabricator.email]);
+    expect(back?.text).toContain('Reason given: Wrong sheet size for this batch');
   });
 
   it('documents the response shapes of the designs and jobs routes at /api/docs', async () => {

@@ -1,5 +1,5 @@
 import { validateSync } from 'class-validator';
-import { NoControlCharacters, orList, withArticle, withIndefinite } from './text';
+import { NoControlCharacters, countOf, orList, withArticle, withIndefinite } from './text';
 
 class Named {
   @NoControlCharacters() name!: string;
@@ -63,5 +63,13 @@ describe('withIndefinite and orList', () => {
     );
     expect(withIndefinite(orList(['draft']))).toBe('a draft');
     expect(orList(['submitted', 'approved'])).toBe('submitted or approved');
+  });
+});
+
+describe('countOf', () => {
+  it('gives the noun its plural s unless the count is one', () => {
+    expect(countOf(1, 'material')).toBe('1 material');
+    expect(countOf(0, 'material')).toBe('0 materials');
+    expect(countOf(4, 'material')).toBe('4 materials');
   });
 });

@@ -66,3 +66,6 @@ export const withArticle = (word: string): string =>
 /** "approved, draft or submitted": words listed as a sentence lists them. */
 export const orList = (words: readonly string[]): string =>
   words.length > 1 ? `${words.slice(0, -1).join(', ')} or ${words[words.length - 1]}` : (words[0] ?? '');
+
+/** "1 material", "4 materials": a count with its noun (nouns that take an s). */
+export const countOf = (n: number, noun: string): string => `${n} ${noun}${n === 1 ? '' : 's'}`;

@@ -6,7 +6,7 @@ import { mailConfig } from '../mail/mail.config';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { appLink, composeMail } from '../mail/mail-templates';
 import { Design } from '../designs/design.entity';
-import { type Job } from './job.entity';
+import { type Job, JobTransition } from './job.entity';
 
 /** Who hears about a job's state change, and what they are told. */
 @Injectable()
@@ -66,22 +66,55 @@ export class JobMailer {
       case 'approve':
       case 'release': {
         const verb = action === 'approve' ? 'approved' : 'released to the machines';
-        const mail = composeMail(
+        // The operators hear what they do next; the requester, what happens to their job. A requester who
+        // is an operator gets the operators' mail.
+        const operators = await this.outbox.addressesOfRoles(m, ['operator']);
+        const operatorMail = composeMail(
           `Job ${verb}: ${title}`,
           [
             `The cut job for "${title}" has been ${verb}.`,
             action === 'release'
-              ? 'Operators: acknowledge the safety notices for this job before downloading its files.'
-              : 'Its files are prepared next; operators will see it on the release desk once it is released.',
+              ? 'Acknowledge the safety notices for this job before downloading its files.'
+              : 'Its files are prepared next; it comes to the release desk once it is released.',
           ],
           link,
         );
-        const to = [...(await requester()), ...(await this.outbox.addressesOfRoles(m, ['operator']))];
         await this.outbox.enqueue(m, {
           kind: action === 'approve' ? 'job.approved' : 'job.released',
-          to,
-          ...mail,
+          to: operators,
+          ...operatorMail,
         });
+        const owner = (await requester()).filter((a) => !operators.includes(a));
+        if (owner.length > 0) {
+          const ownerMail = composeMail(
+            `Your job is ${verb}: ${title}`,
+            [
+              `Your cut job for "${title}" has been ${verb}.`,
+              action === 'release'
+                ? 'Its files are on the machines’ desk: the workshop cuts it next, and you hear when it is cut.'
+                : 'The workshop releases it to the machines next.',
+            ],
+            link,
+          );
+          await this.outbox.enqueue(m, {
+            kind: action === 'approve' ? 'job.approved' : 'job.released',
+            to: owner,
+            ...ownerMail,
+          });
+        }
+        return;
+      }
+      case 'cut': {
+        const mail = composeMail(
+          `Your job is cut: ${title}`,
+          [
+            `The workshop has recorded the cut of your job for "${title}" (quantity ${job.quantity}).`,
+            'The assembly guide on the job page shows which piece goes into which slot, and an order to put ' +
+              'them together in.',
+          ],
+          link,
+        );
+        await this.outbox.enqueue(m, { kind: 'job.cut', to: await requester(), ...mail });
         return;
       }
       case 'return': {
@@ -94,7 +127,31 @@ export class JobMailer {
           ],
           link,
         );
-        await this.outbox.enqueue(m, { kind: 'job.returned', to: await requester(), ...mail });
+        const owner = await requester();
+        await this.outbox.enqueue(m, { kind: 'job.returned', to: owner, ...mail });
+        // Whoever prepared it hears why their preparation went back (unless they returned it themselves).
+        if (from === 'prepared' || from === 'approved' || from === 'released') {
+          const prepared = await m.findOne(JobTransition, {
+            where: { jobId: job.id, action: 'prepare' },
+            order: { id: 'DESC' },
+          });
+          const preparer = prepared?.actorId && prepared.actorId !== actorId ? prepared.actorId : null;
+          const to = preparer
+            ? (await this.outbox.addressOfUser(m, preparer)).filter((a) => !owner.includes(a))
+            : [];
+          if (to.length > 0) {
+            const back = composeMail(
+              `A job you prepared was returned: ${title}`,
+              [
+                `The cut job for "${title}", which you prepared, was returned to its requester while ${from}.`,
+                `Reason given: ${job.returnReason ?? '(none)'}`,
+                'Once it is requested again, it waits to be prepared anew.',
+              ],
+              link,
+            );
+            await this.outbox.enqueue(m, { kind: 'job.preparation-returned', to, ...back });
+          }
+        }
         if (from === 'released') {
           // The operators were told to cut it: they hear, as plainly, that it is not to be cut.
           const stop = composeMail(

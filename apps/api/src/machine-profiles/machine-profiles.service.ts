@@ -17,7 +17,7 @@ import {
 } from '@kerfwright/contracts';
 import { AuditService } from '../audit/audit.service';
 import { AppError, notFound, validationFailed } from '../common/errors';
-import { orList, withIndefinite } from '../common/text';
+import { countOf, orList, withIndefinite } from '../common/text';
 import { sortOrder } from '../common/paging';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { type MailLinkList, appLink, composeMail } from '../mail/mail-templates';
@@ -305,7 +305,7 @@ export class MachineProfilesService {
         `Machine profile to review: ${profile.name}, version ${v.number}`,
         [
           `${actor.displayName} has submitted version ${v.number} of the machine profile "${profile.name}" (${profile.kind}) for approval.`,
-          `It holds cutting values for ${v.settings.length} material(s). Jobs can only use it once a supervisor has approved it.`,
+          `It holds cutting values for ${countOf(v.settings.length, 'material')}. Jobs can only use it once a supervisor has approved it.`,
           'Please look it over, then approve it or send it back with a reason.',
         ],
         { label: 'Review the machine profile', url: this.link(profile.id) },
