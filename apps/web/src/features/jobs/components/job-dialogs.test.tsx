@@ -643,6 +643,23 @@ describe('prepare job dialog', () => {
     expect(why).toHaveTextContent('No approved machine profile that may cut it has settings for it');
   });
 
+  it('puts the keyboard on the first colour when none is ticked, described by the error', async () => {
+    stubFetch({
+      'GET /api/materials': () => json(200, { items: [acrylic], total: 1, page: 1, pageSize: 100 }),
+      'GET /api/machine-profiles': () => json(200, { items: [laser], total: 1, page: 1, pageSize: 100 }),
+    });
+    const { user } = renderWithProviders(
+      <PrepareJobDialog open busy={false} error={null} onSubmit={vi.fn()} onClose={noop} />,
+    );
+    await screen.findByRole('option', { name: 'Cast acrylic 3 mm' });
+    await user.selectOptions(screen.getByLabelText('Material'), 'm-acrylic');
+    await user.selectOptions(screen.getByLabelText('Machine profile (approved version)'), 'v-approved');
+    await user.click(screen.getByRole('button', { name: 'Prepare' }));
+    // As on a field left empty (WCAG 2.1, 3.3.1 error identification): focus and description.
+    await waitFor(() => expect(screen.getByLabelText('clear')).toHaveFocus());
+    expect(screen.getByLabelText('clear')).toHaveAccessibleDescription('Choose at least one colour');
+  });
+
   it('forgets the colour error of the last material when another material is chosen', async () => {
     const birch = { ...acrylic, id: 'm-birch', name: 'Birch plywood 3 mm', colours: ['natural'] };
     stubFetch({

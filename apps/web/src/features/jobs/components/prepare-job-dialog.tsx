@@ -419,12 +419,20 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
                     Colours of stock
                   </Typography>
                   <Stack direction="row" sx={{ flexWrap: 'wrap' }}>
-                    {material.colours.map((c) => (
+                    {material.colours.map((c, i) => (
                       <FormControlLabel
                         key={c}
                         label={c}
                         control={
                           <Checkbox
+                            // The first colour takes the field's ref: a Prepare with none ticked puts the
+                            // keyboard there, by the error, as it does on a field left empty.
+                            slotProps={{
+                              input: {
+                                ...(i === 0 ? { ref: field.ref } : {}),
+                                'aria-describedby': errors.colours ? 'prepare-colours-error' : undefined,
+                              },
+                            }}
                             checked={field.value.includes(c)}
                             onChange={(e) =>
                               field.onChange(
@@ -436,7 +444,11 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
                       />
                     ))}
                   </Stack>
-                  {errors.colours ? <FormHelperText error>{errors.colours.message}</FormHelperText> : null}
+                  {errors.colours ? (
+                    <FormHelperText error id="prepare-colours-error">
+                      {errors.colours.message}
+                    </FormHelperText>
+                  ) : null}
                 </Stack>
               )}
             />
