@@ -5,6 +5,7 @@ import { json, stubFetch } from '../../../testing/fetch-stub';
 import { preparationFixture, userFixture, versionFixture } from '../../../testing/fixtures';
 import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
+import { setLengthUnit } from '../../../lib/use-length-unit';
 
 const supervisor = userFixture('supervisor');
 
@@ -313,6 +314,21 @@ describe('Approvals (supervisor)', () => {
     expect(card).toHaveTextContent(
       '8 pieces on 1 sheet of 600 × 1000 mm, 30.0 % used; about 2.4 min, 0.96 EUR of machine time (no sheet price in EUR).',
     );
+  });
+
+  it("gives the job's sheet in the unit this browser shows lengths in", async () => {
+    setLengthUnit('in');
+    try {
+      approvalsApi({
+        ...job,
+        preparation: preparationFixture({ sheet: { widthMm: 609.6, heightMm: 304.8 } }),
+      });
+      renderApp('/approvals', { token: 't' });
+      // 24 × 12 in (1 in = 25.4 mm exactly, NIST SP 811).
+      expect(await screen.findByTestId('waiting-job')).toHaveTextContent('1 sheet of 24.000 × 12.000 in');
+    } finally {
+      setLengthUnit('mm');
+    }
   });
 
   it('says why a job cannot be approved instead of offering a button the server refuses', async () => {

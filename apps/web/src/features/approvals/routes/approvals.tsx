@@ -28,6 +28,7 @@ import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 import { countOf } from '../../../lib/plural';
 import { formatMinutes, formatMoney, formatSheetSize } from '../../../lib/units';
+import { useLengthUnit } from '../../../lib/use-length-unit';
 import { formatDateTime } from '../../../lib/dates';
 
 /**
@@ -50,6 +51,8 @@ const decidingOn = (p: MachineProfileSummaryView) => ({
 
 /** Supervisors: machine profile versions and jobs waiting for a decision, each approved or sent back. */
 export function ApprovalsRoute() {
+  // Sheet sizes in the unit this browser shows lengths in (chosen on the studio, job or desk pages).
+  const [unit] = useLengthUnit();
   const versions = useWaitingVersions();
   const jobs = useWaitingJobs();
   const decideVersion = useDecideProfileVersion();
@@ -225,7 +228,7 @@ export function ApprovalsRoute() {
                 {prep ? (
                   <Typography variant="body2" color="text.secondary">
                     {countOf(prep.pieceCount, 'piece')} on {countOf(prep.sheetCount, 'sheet')} of{' '}
-                    {formatSheetSize(prep.sheet, 'mm')}, {(prep.utilisation * 100).toFixed(1)} % used
+                    {formatSheetSize(prep.sheet, unit)}, {(prep.utilisation * 100).toFixed(1)} % used
                     {prep.estimate
                       ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + (prep.estimate.materialCost ?? 0), prep.estimate.currency)}${prep.estimate.materialCost === null ? ` of machine time (no sheet price in ${prep.estimate.currency})` : ''}`
                       : ''}
