@@ -6,6 +6,7 @@ import { jobFixture, userFixture } from '../../../testing/fixtures';
 import { QUEUE_REFRESH_MS } from '../../../lib/query-client';
 import { renderApp } from '../../../testing/render-app';
 import { stubScreenWidth } from '../../../testing/screen-width';
+import { formatDate } from '../../../lib/dates';
 
 function boardJob(id: string, state: JobView['state'], requesterName: string): JobView {
   return jobFixture({
@@ -76,7 +77,18 @@ describe('jobs board', () => {
     stubFetch({
       'GET /api/auth/me': () => json(200, userFixture('fabricator')),
       'GET /api/jobs': () =>
-        json(200, { items: [boardJob('j-1', 'requested', 'Ana Ruiz')], total: 1, page: 1, pageSize: 25 }),
+        json(200, {
+          items: [
+            {
+              ...boardJob('j-1', 'requested', 'Ana Ruiz'),
+              quantity: 3,
+              createdAt: '2025-12-30T09:00:00.000Z',
+            },
+          ],
+          total: 1,
+          page: 1,
+          pageSize: 25,
+        }),
     });
     for (const [px, expected] of [
       [768, ['Design', 'Owner', 'State', 'Material', 'Machine profile', 'Updated']],
@@ -91,6 +103,10 @@ describe('jobs board', () => {
           .getAllByRole('columnheader')
           .map((h) => h.textContent),
       ).toEqual(expected);
+      // Copies and the day it was created, gone with their columns, are said under the design's name.
+      expect(within(table).getByTestId('job-row-facts')).toHaveTextContent(
+        `3 copies · created ${formatDate('2025-12-30T09:00:00.000Z')}`,
+      );
       unmount();
     }
   });

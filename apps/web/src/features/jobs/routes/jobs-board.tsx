@@ -2,6 +2,7 @@ import { JOB_STATES, type JobState, type JobView, type Role } from '@kerfwright/
 import Stack from '@mui/material/Stack';
 import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
+import Typography from '@mui/material/Typography';
 import { Link } from 'react-router-dom';
 import { DataTable, type DataTableColumn } from '../../../components/data-table/data-table';
 import { SearchFilter } from '../../../components/data-table/filter-bar';
@@ -11,6 +12,7 @@ import { useUser } from '../../../lib/auth';
 import { JOB_SORT_FIELDS, type JobSortField, useJobs } from '../api/get-jobs';
 import { JobStateChip } from '../components/job-state-chip';
 import { formatDate, formatDateTime } from '../../../lib/dates';
+import { countOf } from '../../../lib/plural';
 
 const PAGE_SIZES = [10, 25, 50] as const;
 
@@ -27,7 +29,25 @@ const JOBS_LISTED: Record<Role, string> = {
 };
 
 const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
-  { id: 'design', header: 'Design', render: (job) => <Link to={`/jobs/${job.id}`}>{job.designName}</Link> },
+  {
+    id: 'design',
+    header: 'Design',
+    render: (job) => (
+      <>
+        <Link to={`/jobs/${job.id}`}>{job.designName}</Link>
+        {/* Below md the copies and created columns go: said under the name instead, so two jobs of one
+            design still read apart. */}
+        <Typography
+          variant="body2"
+          color="text.secondary"
+          sx={{ display: { xs: 'block', md: 'none' } }}
+          data-testid="job-row-facts"
+        >
+          {`${countOf(job.quantity, 'copy', 'copies')} · created ${formatDate(job.createdAt)}`}
+        </Typography>
+      </>
+    ),
+  },
   // "Owner", not "Requester": a draft (not sent yet, or its request withdrawn) is requested by nobody.
   { id: 'requester', header: 'Owner', render: (job) => job.requesterName },
   { id: 'state', header: 'State', sortField: 'state', render: (job) => <JobStateChip state={job.state} /> },
