@@ -262,6 +262,43 @@ describe('uploaded solids', () => {
     }
   });
 
+  it('refuses OFF coordinates that are not decimal numbers, saying which and why, and reads NaN as not finite', () => {
+    // OFF writes coordinates as decimal floating-point numbers (Geomview OFF format description, from memory).
+    const corners = (fmt: (x: number) => string) =>
+      [0, 1.5].flatMap((x) => [0, 2.5].flatMap((y) => [0, 3.5].map((z) => [x, y, z].map(fmt).join(' '))));
+    const off = (fmt: (x: number) => string) => `OFF\n8 0 0\n${corners(fmt).join('\n')}\n`;
+    expect(() =>
+      parseSolidText(
+        'off',
+        off((x) => String(x).replace('.', ',')),
+      ),
+    ).toThrow(/OFF vertex 2: "3,5" is not a number \(write decimals with a point, not a comma\)/);
+    expect(
+      code(() =>
+        parseSolidText(
+          'off',
+          off((x) => `0x${x === 0 ? 0 : 1}`),
+        ),
+      ),
+    ).toBe('SOLID.NOT_OFF');
+    expect(
+      code(() =>
+        parseSolidText(
+          'off',
+          off((x) => (x === 2.5 ? 'nan' : String(x))),
+        ),
+      ),
+    ).toBe('SOLID.NOT_FINITE');
+    // Exponents and signs read in full: a 1.5 × 2.5 × 3.5 box (derived).
+    const s = parseSolidText(
+      'off',
+      off((x) => `+${x.toExponential()}`),
+    );
+    const span = (k: number) =>
+      Math.max(...s.vertices.map((v) => v[k]!)) - Math.min(...s.vertices.map((v) => v[k]!));
+    expect([span(0), span(1), span(2)].map((x) => Number(x.toFixed(9)))).toEqual([1.5, 2.5, 3.5]);
+  });
+
   it('refuses OFF text with more lines than its header counts instead of reading only the first points', () => {
     // An OFF file gives the vertex and face counts, then exactly that many vertex and face lines (Geomview OFF
     // format description, from memory). A cube of eight corners under a header that counts five was read as

@@ -35,16 +35,8 @@ export function parseObj(text: string): UploadedMesh {
       throw new SolidError('SOLID.NOT_OBJ', `OBJ line ${i + 1} gives fewer than three vertex coordinates`);
     }
     // The OBJ reader takes the number at the start of each coordinate and drops the rest, so "2,5" (a decimal
-    // comma) would be read as 2 and the solid silently misshapen: a coordinate must be a number in full
-    // (NaN and infinities are refused below with their own code).
-    for (const token of tokens.slice(0, 3)) {
-      const whole = Number(token);
-      const start = parseFloat(token);
-      if (!Object.is(whole, start) && !(Number.isNaN(whole) && Number.isNaN(start))) {
-        const hint = /\d,\d/.test(token) ? ' (write decimals with a point, not a comma)' : '';
-        throw new SolidError('SOLID.NOT_OBJ', `OBJ line ${i + 1}: "${token}" is not a number${hint}`);
-      }
-    }
+    // comma) would be read as 2 and the solid silently misshapen: a coordinate must be a number in full.
+    for (const token of tokens.slice(0, 3)) coordinate(token, `OBJ line ${i + 1}`, 'SOLID.NOT_OBJ');
   }
   let parsed: ReturnType<OBJFile['parse']>;
   try {
@@ -98,7 +90,9 @@ export function parseOff(text: string): UploadedMesh {
     const t = l.split(/\s+/);
     if (t.length < 3)
       throw new SolidError('SOLID.NOT_OFF', `OFF vertex ${i + 1} has fewer than three coordinates`);
-    return [Number(t[0]), Number(t[1]), Number(t[2])] as Vec3;
+    const where = `OFF vertex ${i + 1}`;
+    const c = (j: number) => coordinate(t[j]!, where, 'SOLID.NOT_OFF');
+    return [c(0), c(1), c(2)] as Vec3;
   });
   // Lines past the counted vertices and faces mean the header's counts are wrong (an edited file, points added
   // without updating them): reading only the first nv points would build another solid without a word.
@@ -118,6 +112,23 @@ export function parseOff(text: string): UploadedMesh {
       faces.push(idx);
   }
   return { points, faces };
+}
+
+/** A decimal number as OBJ and OFF write one: digits with a point, an exponent maybe; no hex, no comma. */
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+/** NaN and the infinities, as C's printf writes them: read as such, and refused as not finite later on. */
+const NOT_FINITE = /^[+-]?(nan|inf|infinity)$/i;
+
+/**
+ * One vertex coordinate: a decimal number in full, or NaN or an infinity (refused later with SOLID.NOT_FINITE).
+ * Anything else is refused with `code`, naming where it stands and the token: "2,5" (a decimal comma, which a
+ * reader taking the leading digits would make 2), "0x1A", "1.5mm".
+ */
+function coordinate(token: string, where: string, code: 'SOLID.NOT_OBJ' | 'SOLID.NOT_OFF'): number {
+  if (DECIMAL.test(token)) return Number(token);
+  if (NOT_FINITE.test(token)) return /nan/i.test(token) ? NaN : token.startsWith('-') ? -Infinity : Infinity;
+  const hint = /\d,\d/.test(token) ? ' (write decimals with a point, not a comma)' : '';
+  throw new SolidError(code, `${where}: "${token}" is not a number${hint}`);
 }
 
 const tooMany = (n: number) =>
