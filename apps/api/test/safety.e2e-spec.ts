@@ -85,6 +85,37 @@ describe('safety notices, local rules and acknowledgements', () => {
     expect(next.body.authorName).toBe('Test supervisor');
   });
 
+  it('refuses rules written over a version another supervisor has replaced since (409), keeping theirs', async () => {
+    const read = (await ctx.http.get('/api/safety/local-rules').set(auth(u.supervisor)).expect(200)).body as {
+      version: number;
+    } | null;
+    const seen = read?.version ?? 0;
+    // Two supervisors open the same version; the first to save makes the next one.
+    const first = await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(u.supervisor))
+      .send({ body: 'Ear defenders at the router.', version: seen })
+      .expect(200);
+    expect(first.body.version).toBe(seen + 1);
+    const second = await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(u.supervisor))
+      .send({ body: 'Goggles on at the laser.', version: seen })
+      .expect(409);
+    expectErrorBody(second.body, 409, 'SAFETY.STALE_RULES');
+    expect(second.body.message).toMatch(
+      /changed since you opened them \(now version \d+, by Test supervisor\)/,
+    );
+    const now = (await ctx.http.get('/api/safety/local-rules').set(auth(u.operator)).expect(200)).body;
+    expect(now).toMatchObject({ version: seen + 1, body: 'Ear defenders at the router.' });
+    // A version that is not a count is refused as such.
+    await ctx.http
+      .put('/api/safety/local-rules')
+      .set(auth(u.supervisor))
+      .send({ body: 'x', version: -1 })
+      .expect(400);
+  });
+
   it('records an acknowledgement of exactly the current notice versions, and refuses a stale one', async () => {
     const d = await ctx.http
       .post('/api/designs')

@@ -67,7 +67,7 @@ export class SafetyController {
     @Body() dto: LocalRulesDto,
     @Req() req: unknown,
   ): Promise<LocalRulesView> {
-    return this.safety.updateLocalRules(u, dto.body, requestIdOf(req));
+    return this.safety.updateLocalRules(u, dto.body, requestIdOf(req), dto.version);
   }
 
   @Get('jobs/:id/safety')

@@ -104,10 +104,25 @@ export class SafetyService {
       : null;
   }
 
-  async updateLocalRules(user: AuthUser, body: string, requestId: string): Promise<LocalRulesView> {
+  /** A new version of the rules; `readVersion` (when given) must still be the latest (0: none yet), else 409. */
+  async updateLocalRules(
+    user: AuthUser,
+    body: string,
+    requestId: string,
+    readVersion?: number,
+  ): Promise<LocalRulesView> {
     return this.dataSource.transaction(async (m) => {
       await m.query(`LOCK TABLE local_rules IN EXCLUSIVE MODE`);
       const before = await this.localRules(m);
+      if (readVersion !== undefined && readVersion !== (before?.version ?? 0)) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'SAFETY.STALE_RULES',
+          `The local rules changed since you opened them (now version ${before?.version ?? 0}` +
+            `${before?.authorName ? `, by ${before.authorName}` : ''}): reload them, and write yours over the new text`,
+          { current: before?.version ?? 0 },
+        );
+      }
       const version = (before?.version ?? 0) + 1;
       await m.query(`INSERT INTO local_rules (version, body, author_id) VALUES ($1, $2, $3)`, [
         version,

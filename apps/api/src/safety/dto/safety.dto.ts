@@ -4,10 +4,13 @@ import {
   ArrayMaxSize,
   IsArray,
   IsIn,
+  IsInt,
   IsOptional,
   IsString,
   Matches,
+  Max,
   MaxLength,
+  Min,
   MinLength,
   ValidateIf,
   ValidateNested,
@@ -18,7 +21,8 @@ import {
   type MachineProfileKind,
   type MaterialFamily,
 } from '@kerfwright/contracts';
-import { IsRowVersion } from '../../common/validation/row-version';
+import { IsRowVersion, MAX_ROW_VERSION } from '../../common/validation/row-version';
+import { OptionalNotNull } from '../../common/validation/optional';
 
 export class NoticeFilterQuery {
   @ApiPropertyOptional({ enum: MACHINE_PROFILE_KINDS })
@@ -37,6 +41,18 @@ export class LocalRulesDto {
   @MinLength(1)
   @MaxLength(20000)
   body: string;
+
+  @ApiPropertyOptional({
+    minimum: 0,
+    description:
+      'The version of the rules the text was written over (0: there were none); a newer one gets 409 ' +
+      'SAFETY.STALE_RULES, so one supervisor never replaces another’s rules unseen. Left out: not compared.',
+  })
+  @OptionalNotNull()
+  @IsInt()
+  @Min(0)
+  @Max(MAX_ROW_VERSION)
+  version?: number;
 }
 
 export class NoticeVersionRefDto {

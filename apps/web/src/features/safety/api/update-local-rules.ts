@@ -15,8 +15,11 @@ export const localRulesSchema = z.object({
 });
 export type LocalRulesInput = z.infer<typeof localRulesSchema>;
 
-/** PUT /api/safety/local-rules (supervisor) → the new version of the rules. */
-export function updateLocalRules(body: LocalRulesInput): Promise<LocalRulesView> {
+/**
+ * PUT /api/safety/local-rules (supervisor) → the new version of the rules. `version`: the one the text was
+ * written over (0: none yet); the API answers 409 SAFETY.STALE_RULES when another has been saved since.
+ */
+export function updateLocalRules(body: LocalRulesInput & { version: number }): Promise<LocalRulesView> {
   return api.put<LocalRulesView>('/safety/local-rules', body);
 }
 

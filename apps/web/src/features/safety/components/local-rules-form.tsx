@@ -1,13 +1,19 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { type LocalRulesView } from '@kerfwright/contracts';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Stack from '@mui/material/Stack';
-import { useEffect, useRef } from 'react';
+import Typography from '@mui/material/Typography';
+import { useQueryClient } from '@tanstack/react-query';
+import { useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { focusFirstField } from '../../../components/ui/focus-first-field';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { isApiError } from '../../../lib/api-client';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
+import { localRulesQueryOptions } from '../api/get-local-rules';
 import { type LocalRulesInput, localRulesSchema, useUpdateLocalRules } from '../api/update-local-rules';
 
 /**
@@ -16,6 +22,11 @@ import { type LocalRulesInput, localRulesSchema, useUpdateLocalRules } from '../
  */
 export function LocalRulesForm({ rules, onDone }: { rules: LocalRulesView | null; onDone: () => void }) {
   const update = useUpdateLocalRules();
+  const queryClient = useQueryClient();
+  // The version the text is written over: another supervisor's save since is not replaced unseen (409).
+  const [base, setBase] = useState(rules?.version ?? 0);
+  /** The rules another supervisor saved while this form was open, shown once the save was refused. */
+  const [theirs, setTheirs] = useState<LocalRulesView | null>(null);
   const {
     register,
     handleSubmit,
@@ -27,9 +38,16 @@ export function LocalRulesForm({ rules, onDone }: { rules: LocalRulesView | null
   });
   const submit = handleSubmit(async (v) => {
     try {
-      await update.mutateAsync({ body: v.body.trim() });
+      await update.mutateAsync({ body: v.body.trim(), version: base });
       onDone();
     } catch (error) {
+      if (isApiError(error) && error.code === 'SAFETY.STALE_RULES') {
+        // Their rules are shown beside this text; saving again replaces them, knowingly.
+        const now = await queryClient.fetchQuery({ ...localRulesQueryOptions(), staleTime: 0 });
+        setTheirs(now);
+        setBase(now?.version ?? 0);
+        return;
+      }
       applyServerFieldErrors(error, setError, ['body']);
     }
   });
@@ -47,7 +65,19 @@ export function LocalRulesForm({ rules, onDone }: { rules: LocalRulesView | null
       }}
     >
       <Stack spacing={2}>
-        {update.error && errors.body?.type !== 'server' ? <FormErrorAlert error={update.error} /> : null}
+        {theirs ? (
+          <Alert severity="warning" data-testid="local-rules-theirs">
+            <Typography variant="body2" sx={{ mb: 1 }}>
+              {`${theirs.authorName ?? 'Another supervisor'} saved version ${theirs.version} while you were writing: ` +
+                'their text is below. Saving now replaces it with yours; copy what you want to keep first.'}
+            </Typography>
+            <Box component="pre" sx={{ whiteSpace: 'pre-wrap', m: 0, fontFamily: 'inherit' }}>
+              {theirs.body}
+            </Box>
+          </Alert>
+        ) : update.error && errors.body?.type !== 'server' ? (
+          <FormErrorAlert error={update.error} />
+        ) : null}
         <FormTextField
           label="Local rules"
           registration={register('body')}

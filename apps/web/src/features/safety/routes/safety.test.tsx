@@ -170,6 +170,52 @@ describe('safety page', () => {
     expect(families()).toEqual(['Carbon fibre']);
   });
 
+  it("shows another supervisor's rules saved meanwhile, and replaces them only when saved again", async () => {
+    const theirs = {
+      ...rules,
+      version: 4,
+      body: 'Ear defenders at the router.',
+      authorName: 'Bo Supervisor',
+    };
+    let current: LocalRulesView = rules;
+    const { calls } = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      'GET /api/safety/notices': () => json(200, [notice]),
+      'GET /api/safety/hazards': () => json(200, hazards),
+      'GET /api/safety/local-rules': () => json(200, current),
+      'PUT /api/safety/local-rules': (call) => {
+        const sent = call.body as { body: string; version: number };
+        if (sent.version !== current.version)
+          return json(409, {
+            statusCode: 409,
+            code: 'SAFETY.STALE_RULES',
+            message: 'The local rules changed since you opened them',
+            requestId: 'r',
+          });
+        current = { ...current, version: current.version + 1, body: sent.body };
+        return json(200, current);
+      },
+    });
+    const { user } = renderApp('/safety', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Edit the local rules' }));
+    // Another supervisor saves while this one writes.
+    current = theirs;
+    const body = screen.getByLabelText('Local rules');
+    await user.clear(body);
+    await user.type(body, 'Goggles on at the laser.');
+    await user.click(screen.getByRole('button', { name: 'Save as a new version' }));
+    const shown = await screen.findByTestId('local-rules-theirs');
+    expect(shown).toHaveTextContent('Bo Supervisor saved version 4 while you were writing');
+    expect(shown).toHaveTextContent('Ear defenders at the router.');
+    expect(screen.getByLabelText('Local rules')).toHaveValue('Goggles on at the laser.');
+    // Saved again, over version 4, knowingly.
+    await user.click(screen.getByRole('button', { name: 'Save as a new version' }));
+    expect(await screen.findByText('Goggles on at the laser.')).toBeInTheDocument();
+    expect(
+      calls.filter((c) => c.method === 'PUT').map((c) => (c.body as { version: number }).version),
+    ).toEqual([3, 4]);
+  });
+
   it('lets a supervisor save new local rules, and refuses empty ones', async () => {
     const { calls } = stub('supervisor');
     const { user } = renderApp('/safety', { token: 't' });
@@ -183,7 +229,10 @@ describe('safety page', () => {
     await user.type(body, 'Extraction on before the beam.');
     await user.click(screen.getByRole('button', { name: 'Save as a new version' }));
     await waitFor(() =>
-      expect(calls.find((c) => c.method === 'PUT')?.body).toEqual({ body: 'Extraction on before the beam.' }),
+      expect(calls.find((c) => c.method === 'PUT')?.body).toEqual({
+        body: 'Extraction on before the beam.',
+        version: 3,
+      }),
     );
     expect(await screen.findByText('Extraction on before the beam.')).toBeInTheDocument();
     expect(screen.getByText(/^Version 4/)).toBeInTheDocument();
