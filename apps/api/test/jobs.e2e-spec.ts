@@ -351,6 +351,17 @@ describe('jobs through their states', () => {
       expectErrorBody(bad.body, 400);
       expect(bad.body.details.map((x: { field: string }) => x.field)).toContain('scale.by');
     }
+    // Fewer sheets than colours (each colour is cut from its own sheets): the engine's refusal names the field
+    // as this request does, not as the design's spec would.
+    const few = await act(
+      users.fabricator,
+      j.id,
+      'prepare',
+      { ...prepareBody(), colours: ['clear', 'amber'], scale: { by: 'fitSheets', sheets: 1 } },
+      400,
+    );
+    expectErrorBody(few.body, 400, 'DESIGN.INVALID_SPEC');
+    expect(few.body.details.map((x: { field: string }) => x.field)).toEqual(['scale.sheets']);
   });
 
   it('answers other requests while a fit search runs: the engine works in a worker thread', async () => {

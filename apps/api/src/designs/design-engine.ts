@@ -9,13 +9,18 @@ import { DesignTooHeavyError, SolidError, SpecValidationError } from '@kerfwrigh
 import { AppError } from '../common/errors';
 import { type GeometryThreads } from '../geometry/geometry-threads';
 
-/** Field errors of the engine's spec check, named from the request body (`spec.piece.sides`). */
-function specFieldErrors(errors: FieldError[]): FieldError[] {
-  return errors.map((e) => ({ field: `spec.${e.field}`, messages: e.messages }));
-}
+/** A design's spec field as the request body names it: `spec.piece.sides`. */
+const inSpec = (field: string) => `spec.${field}`;
 
-export function invalidSpec(errors: FieldError[]): AppError {
-  const details = specFieldErrors(errors);
+/**
+ * 400 DESIGN.INVALID_SPEC with the engine's field errors, each named as the request that carried it names it
+ * (`requestField`; by default the body's `spec`).
+ */
+export function invalidSpec(
+  errors: FieldError[],
+  requestField: (specField: string) => string = inSpec,
+): AppError {
+  const details = errors.map((e) => ({ field: requestField(e.field), messages: e.messages }));
   return new AppError(
     HttpStatus.BAD_REQUEST,
     'DESIGN.INVALID_SPEC',

@@ -140,7 +140,8 @@ export class JobPreparationService {
         },
       });
     } catch (err) {
-      if (err instanceof SpecValidationError) throw invalidSpec(err.fieldErrors);
+      if (err instanceof SpecValidationError)
+        throw invalidSpec(err.fieldErrors, (f) => preparedField(f, dto));
       if (err instanceof SolidError) throw badSolid(err);
       if (err instanceof DesignTooHeavyError) throw tooHeavy(err);
       throw err;
@@ -326,4 +327,18 @@ export function sheetFitsBed(
     (sheet.widthMm <= bed.widthMm && sheet.heightMm <= bed.heightMm) ||
     (sheet.widthMm <= bed.heightMm && sheet.heightMm <= bed.widthMm)
   );
+}
+
+/**
+ * A field of the spec a preparation checks, named as the prepare request names what it set: `scale.sheets` for
+ * a scale the request gave, `sheet`, `marginMm`, `gapMm` and `colours` for the stock and colours it chose; a
+ * field only the design sets stays `spec.…` (the job's design).
+ */
+function preparedField(specField: string, dto: { scale?: unknown }): string {
+  const [head, ...rest] = specField.split('.');
+  if (head === 'scale') return dto.scale ? specField : `spec.${specField}`;
+  if (head === 'colours') return 'colours';
+  if (head === 'stock' && rest[0] === 'sheet') return ['sheet', ...rest.slice(1)].join('.');
+  if (head === 'stock' && (rest[0] === 'marginMm' || rest[0] === 'gapMm')) return rest[0];
+  return `spec.${specField}`;
 }
