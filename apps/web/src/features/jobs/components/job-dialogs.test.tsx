@@ -65,36 +65,28 @@ describe('return job dialog, what follows', () => {
 });
 
 describe('confirming a job action', () => {
-  it('says a release waits for its cut pack, as the job stays approved until the files are ready', () => {
-    renderWithProviders(
-      <ConfirmJobActionDialog
-        action="release"
-        from="approved"
-        busy={false}
-        error={null}
-        onConfirm={noop}
-        onClose={noop}
-      />,
-    );
-    expect(screen.getByRole('dialog', { name: 'Release to the machines?' })).toHaveTextContent(
+  it.each([
+    // A release waits for its cut pack: the job stays approved until the files are ready.
+    [
+      'release',
+      'approved',
+      'Release to the machines?',
       'Its cut pack is built first; the job moves from approved to released once its files are ready.',
-    );
-  });
-
-  it('says where an action done at once moves the job', () => {
+    ],
+    // An action done at once says where it moves the job.
+    ['approve', 'prepared', 'Approve the job?', 'The job moves from prepared to approved.'],
+  ] as const)('says what follows %s from %s', (action, from, title, text) => {
     renderWithProviders(
       <ConfirmJobActionDialog
-        action="approve"
-        from="prepared"
+        action={action}
+        from={from}
         busy={false}
         error={null}
         onConfirm={noop}
         onClose={noop}
       />,
     );
-    expect(screen.getByRole('dialog', { name: 'Approve the job?' })).toHaveTextContent(
-      'The job moves from prepared to approved.',
-    );
+    expect(screen.getByRole('dialog', { name: title })).toHaveTextContent(text);
   });
 });
 
