@@ -1,27 +1,6 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { FakeWorker } from '../testing/fake-worker';
 import { createTaskWorkerClient, serveTasks, type TaskRequest, type TaskResponse } from './task-worker';
-
-/** Stands in for the browser's Worker (jsdom has none): records what the page posts and lets the test answer. */
-class FakeWorker {
-  static made: FakeWorker[] = [];
-  posted: TaskRequest[] = [];
-  terminated = false;
-  onmessage: ((event: MessageEvent) => void) | null = null;
-  onerror: ((event: ErrorEvent) => void) | null = null;
-  constructor() {
-    FakeWorker.made.push(this);
-  }
-  postMessage(request: TaskRequest) {
-    this.posted.push(request);
-  }
-  terminate() {
-    this.terminated = true;
-  }
-  answer(value: unknown) {
-    const last = this.posted[this.posted.length - 1] as TaskRequest;
-    this.onmessage?.({ data: { id: last.id, ok: true, value } } as MessageEvent);
-  }
-}
 
 const start = () => new FakeWorker() as unknown as Worker;
 

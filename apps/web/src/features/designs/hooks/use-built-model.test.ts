@@ -2,39 +2,19 @@ import { type DesignSpecInput } from '@kerfwright/contracts';
 import { type ColourRule } from '@kerfwright/geometry';
 import { act, renderHook, waitFor } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { type TaskRequest } from '../../../lib/task-worker';
+import { FakeWorker } from '../../../testing/fake-worker';
 import { buildPreview } from '../lib/build-preview';
 
-/** Stands in for the browser's Worker (jsdom has none): records what the page posts and lets the test answer. */
-class FakeWorker {
-  static made: FakeWorker[] = [];
-  posted: TaskRequest[] = [];
-  terminated = false;
-  onmessage: ((event: MessageEvent) => void) | null = null;
-  onerror: ((event: ErrorEvent) => void) | null = null;
-  constructor(
-    readonly url: URL,
-    readonly options: WorkerOptions,
-  ) {
-    FakeWorker.made.push(this);
-  }
-  postMessage(request: TaskRequest) {
-    // What crosses to a worker is copied (structured clone), as the browser does.
-    this.posted.push(structuredClone(request));
-  }
-  terminate() {
-    this.terminated = true;
-  }
+/** The fake Worker, answering with what the real task gives, and inside act (the page hears of it on a promise). */
+class PreviewFakeWorker extends FakeWorker {
   /** Answers the last request with what the real task gives for it, copied as the browser copies it. */
   async answerWithTask() {
-    const last = this.posted[this.posted.length - 1] as TaskRequest;
-    const [spec, count, rule] = last.args as [DesignSpecInput, number, ColourRule];
+    const [spec, count, rule] = this.last.args as [DesignSpecInput, number, ColourRule];
     const value = structuredClone(buildPreview(spec, count, rule));
-    // The page hears of it on a promise: act waits for what that sets.
-    await act(async () => this.onmessage?.({ data: { id: last.id, ok: true, value } } as MessageEvent));
+    await act(async () => this.answer(value));
   }
-  async fail(message: string) {
-    await act(async () => this.onerror?.({ message, preventDefault: () => undefined } as ErrorEvent));
+  async failInAct(message: string) {
+    await act(async () => this.fail(message));
   }
 }
 
@@ -57,12 +37,13 @@ async function load() {
   return { render, runInLayoutWorker: layout.runInLayoutWorker, pauseMs: hook.TYPING_PAUSE_MS };
 }
 
-const previewWorkers = () => FakeWorker.made.filter((w) => /preview\.worker/.test(String(w.url)));
+const previewWorkers = () =>
+  FakeWorker.made.filter((w) => /preview\.worker/.test(String(w.url))) as PreviewFakeWorker[];
 
 describe('useBuiltModel in the browser (a preview worker)', () => {
   beforeEach(() => {
     FakeWorker.made = [];
-    vi.stubGlobal('Worker', FakeWorker);
+    vi.stubGlobal('Worker', PreviewFakeWorker);
   });
   afterEach(() => vi.unstubAllGlobals());
 
@@ -139,7 +120,7 @@ describe('useBuiltModel in the browser (a preview worker)', () => {
     );
 
     rerender(design('cube', 4));
-    await previewWorkers()[0]!.fail('out of memory');
+    await previewWorkers()[0]!.failInAct('out of memory');
     expect(result.current.building).toBe(false);
     expect(result.current.preview.failure).toBe('Out of memory.');
   });

@@ -1,33 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { type LayoutRequest } from './layout-tasks';
-
-/** Stands in for the browser's Worker: records what the page posts and lets the test answer. */
-class FakeWorker {
-  static made: FakeWorker[] = [];
-  posted: LayoutRequest[] = [];
-  terminated = false;
-  onmessage: ((event: MessageEvent) => void) | null = null;
-  onerror: ((event: ErrorEvent) => void) | null = null;
-  constructor(
-    readonly url: URL,
-    readonly options: WorkerOptions,
-  ) {
-    FakeWorker.made.push(this);
-  }
-  postMessage(request: LayoutRequest) {
-    this.posted.push(request);
-  }
-  terminate() {
-    this.terminated = true;
-  }
-  answer(value: unknown) {
-    const last = this.posted[this.posted.length - 1] as LayoutRequest;
-    this.onmessage?.({ data: { id: last.id, ok: true, value } } as MessageEvent);
-  }
-  fail(message: string) {
-    this.onerror?.({ message, preventDefault: () => undefined } as ErrorEvent);
-  }
-}
+import { FakeWorker } from '../../../testing/fake-worker';
 
 async function client() {
   vi.resetModules();
