@@ -28,165 +28,114 @@ export class JobMailer {
     const title = design?.name ?? 'a design';
     const link = { label: 'Open the job', url: appLink(this.config.appUrl, `jobs/${job.id}`) };
     const requester = () => this.outbox.addressOfUser(m, job.requesterId);
+    /** Queues one mail with the job's link (the outbox skips an empty list of recipients). */
+    const send = (kind: string, to: string[], subject: string, paragraphs: string[]) =>
+      this.outbox.enqueue(m, { kind, to, ...composeMail(subject, paragraphs, link) });
+    const reason = `Reason given: ${job.returnReason ?? '(none)'}`;
     switch (action) {
-      case 'request': {
-        const mail = composeMail(
+      case 'request':
+        await send(
+          'job.requested',
+          await this.outbox.addressesOfRoles(m, ['fabricator']),
           `Cut requested: ${title}`,
           [
             `A new cut job for "${title}" (quantity ${job.quantity}) is waiting to be prepared.`,
             'Pick the material, the machine profile and the colours, then check the layout and estimates.',
           ],
-          link,
         );
-        await this.outbox.enqueue(m, {
-          kind: 'job.requested',
-          to: await this.outbox.addressesOfRoles(m, ['fabricator']),
-          ...mail,
-        });
         return;
-      }
-      case 'prepare': {
+      case 'prepare':
         // Four eyes: a prepared job waits for a supervisor, who should hear of it as fabricators hear of
         // requests; not the supervisor who prepared it, whom approval refuses (JOB.SELF_APPROVAL).
-        const mail = composeMail(
+        await send(
+          'job.prepared',
+          await this.outbox.addressesOfRoles(m, ['supervisor'], actorId ? [actorId] : []),
           `Job prepared, waiting for approval: ${title}`,
           [
             `The cut job for "${title}" (quantity ${job.quantity}) has been prepared and is waiting for approval.`,
             'Check the material, the machine profile, the layout and the estimates, then approve it or send it back.',
           ],
-          link,
         );
-        await this.outbox.enqueue(m, {
-          kind: 'job.prepared',
-          to: await this.outbox.addressesOfRoles(m, ['supervisor'], actorId ? [actorId] : []),
-          ...mail,
-        });
         return;
-      }
       case 'approve':
       case 'release': {
+        const kind = action === 'approve' ? 'job.approved' : 'job.released';
         const verb = action === 'approve' ? 'approved' : 'released to the machines';
         // The operators hear what they do next; the requester, what happens to their job. A requester who
         // is an operator gets the operators' mail.
         const operators = await this.outbox.addressesOfRoles(m, ['operator']);
-        const operatorMail = composeMail(
-          `Job ${verb}: ${title}`,
-          [
-            `The cut job for "${title}" has been ${verb}.`,
-            action === 'release'
-              ? 'Acknowledge the safety notices for this job before downloading its files.'
-              : 'Its files are prepared next; it comes to the release desk once it is released.',
-          ],
-          link,
-        );
-        await this.outbox.enqueue(m, {
-          kind: action === 'approve' ? 'job.approved' : 'job.released',
-          to: operators,
-          ...operatorMail,
-        });
+        await send(kind, operators, `Job ${verb}: ${title}`, [
+          `The cut job for "${title}" has been ${verb}.`,
+          action === 'release'
+            ? 'Acknowledge the safety notices for this job before downloading its files.'
+            : 'Its files are prepared next; it comes to the release desk once it is released.',
+        ]);
         const owner = (await requester()).filter((a) => !operators.includes(a));
-        if (owner.length > 0) {
-          const ownerMail = composeMail(
-            `Your job is ${verb}: ${title}`,
-            [
-              `Your cut job for "${title}" has been ${verb}.`,
-              action === 'release'
-                ? 'Its files are on the machines’ desk: the workshop cuts it next, and you hear when it is cut.'
-                : 'The workshop releases it to the machines next.',
-            ],
-            link,
-          );
-          await this.outbox.enqueue(m, {
-            kind: action === 'approve' ? 'job.approved' : 'job.released',
-            to: owner,
-            ...ownerMail,
-          });
-        }
+        await send(kind, owner, `Your job is ${verb}: ${title}`, [
+          `Your cut job for "${title}" has been ${verb}.`,
+          action === 'release'
+            ? 'Its files are on the machines’ desk: the workshop cuts it next, and you hear when it is cut.'
+            : 'The workshop releases it to the machines next.',
+        ]);
         return;
       }
-      case 'cut': {
-        const mail = composeMail(
-          `Your job is cut: ${title}`,
-          [
-            `The workshop has recorded the cut of your job for "${title}" (quantity ${job.quantity}).`,
-            'The assembly guide on the job page shows which piece goes into which slot, and an order to put ' +
-              'them together in.',
-          ],
-          link,
-        );
-        await this.outbox.enqueue(m, { kind: 'job.cut', to: await requester(), ...mail });
+      case 'cut':
+        await send('job.cut', await requester(), `Your job is cut: ${title}`, [
+          `The workshop has recorded the cut of your job for "${title}" (quantity ${job.quantity}).`,
+          'The assembly guide on the job page shows which piece goes into which slot, and an order to put ' +
+            'them together in.',
+        ]);
         return;
-      }
       case 'return': {
-        const mail = composeMail(
-          `Job returned: ${title}`,
-          [
-            `Your cut job for "${title}" was returned to you.`,
-            `Reason given: ${job.returnReason ?? '(none)'}`,
-            'You can reopen it as a draft, change the design, and request it again.',
-          ],
-          link,
-        );
         const owner = await requester();
-        await this.outbox.enqueue(m, { kind: 'job.returned', to: owner, ...mail });
+        await send('job.returned', owner, `Job returned: ${title}`, [
+          `Your cut job for "${title}" was returned to you.`,
+          reason,
+          'You can reopen it as a draft, change the design, and request it again.',
+        ]);
         // Whoever prepared it hears why their preparation went back (unless they returned it themselves).
         if (from === 'prepared' || from === 'approved' || from === 'released') {
           const prepared = await m.findOne(JobTransition, {
             where: { jobId: job.id, action: 'prepare' },
             order: { id: 'DESC' },
           });
-          const preparer = prepared?.actorId && prepared.actorId !== actorId ? prepared.actorId : null;
-          const to = preparer
-            ? (await this.outbox.addressOfUser(m, preparer)).filter((a) => !owner.includes(a))
-            : [];
-          if (to.length > 0) {
-            const back = composeMail(
-              `A job you prepared was returned: ${title}`,
-              [
-                `The cut job for "${title}", which you prepared, was returned to its requester while ${from}.`,
-                `Reason given: ${job.returnReason ?? '(none)'}`,
-                'Once it is requested again, it waits to be prepared anew.',
-              ],
-              link,
+          if (prepared?.actorId && prepared.actorId !== actorId) {
+            const preparer = (await this.outbox.addressOfUser(m, prepared.actorId)).filter(
+              (a) => !owner.includes(a),
             );
-            await this.outbox.enqueue(m, { kind: 'job.preparation-returned', to, ...back });
+            await send('job.preparation-returned', preparer, `A job you prepared was returned: ${title}`, [
+              `The cut job for "${title}", which you prepared, was returned to its requester while ${from}.`,
+              reason,
+              'Once it is requested again, it waits to be prepared anew.',
+            ]);
           }
         }
         if (from === 'released') {
           // The operators were told to cut it: they hear, as plainly, that it is not to be cut.
-          const stop = composeMail(
+          await send(
+            'job.recalled',
+            await this.outbox.addressesOfRoles(m, ['operator']),
             `Do not cut: ${title} was returned`,
             [
               `The cut job for "${title}" was taken back from the machines before its cut. Do not cut it; ` +
                 'its files are no longer offered. Sheets already laid out for it go back to stock.',
-              `Reason given: ${job.returnReason ?? '(none)'}`,
+              reason,
             ],
-            link,
           );
-          await this.outbox.enqueue(m, {
-            kind: 'job.recalled',
-            to: await this.outbox.addressesOfRoles(m, ['operator']),
-            ...stop,
-          });
         }
         return;
       }
-      case 'withdraw': {
+      case 'withdraw':
         // The fabricators heard of the request: they hear that it is no longer waiting for them.
-        const mail = composeMail(
+        await send(
+          'job.withdrawn',
+          await this.outbox.addressesOfRoles(m, ['fabricator']),
           `Request withdrawn: ${title}`,
           [
             `The cut job for "${title}" was withdrawn by its requester before it was prepared; nothing to do.`,
           ],
-          link,
         );
-        await this.outbox.enqueue(m, {
-          kind: 'job.withdrawn',
-          to: await this.outbox.addressesOfRoles(m, ['fabricator']),
-          ...mail,
-        });
         return;
-      }
       default:
         return;
     }
