@@ -161,12 +161,12 @@ function cpuMs(c0) {
   const d = process.cpuUsage(c0);
   return (d.user + d.system) / 1000;
 }
-/** Runs fn RUNS times: the last result, the wall times and the CPU times (ms). */
-function timeRuns(fn) {
+/** Runs fn `runs` times: the last result, the wall times and the CPU times (ms). */
+function timeRuns(fn, runs = RUNS) {
   const wall = [];
   const cpu = [];
   let result;
-  for (let i = 0; i < RUNS; i++) {
+  for (let i = 0; i < runs; i++) {
     const t0 = performance.now();
     const c0 = process.cpuUsage();
     result = fn();
@@ -338,11 +338,11 @@ function seededOutlines({ seed, kinds, spanMm, prefix, quantity }) {
 {
   const parts = seededOutlines({ seed: 40, kinds: 40, spanMm: 60, prefix: 'k', quantity: 50 });
   const input = { sheet: { widthMm: 2440, heightMm: 1220 }, marginMm: 10, gapMm: 3, parts };
-  const t0 = performance.now();
-  const c0 = process.cpuUsage();
-  const r = nestParts(input);
-  const wall = performance.now() - t0;
-  const cpu = cpuMs(c0);
+  const {
+    result: r,
+    wall: [wall],
+    cpu: [cpu],
+  } = timeRuns(() => nestParts(input), 1);
   console.log(
     `40 kinds × 50 on 2440 × 1220: ${r.ok ? `${r.totals.sheetCount} sheets, utilisation ${r.totals.utilisation.toFixed(3)}` : r.error.message}; ` +
       `${wall.toFixed(0)} ms wall, ${cpu.toFixed(0)} ms CPU, ${(wall / 2000).toFixed(1)} ms per part (one run)`,
@@ -356,11 +356,11 @@ function seededOutlines({ seed, kinds, spanMm, prefix, quantity }) {
 {
   const parts = seededOutlines({ seed: 7, kinds: 60, spanMm: 50, prefix: 'r', quantity: 15 });
   const input = { sheet: { widthMm: 10_000, heightMm: 600 }, marginMm: 5, gapMm: 3, parts };
-  const t0 = performance.now();
-  const c0 = process.cpuUsage();
-  const r = nestParts(input);
-  const wall = performance.now() - t0;
-  const cpu = cpuMs(c0);
+  const {
+    result: r,
+    wall: [wall],
+    cpu: [cpu],
+  } = timeRuns(() => nestParts(input), 1);
   console.log(
     `60 kinds × 15 along a 10,000 × 600 roll: ${r.ok ? `${r.totals.sheetCount} sheet(s), ${r.sheets[0].usedLengthMm.toFixed(1)} mm used, utilisation ${r.totals.utilisation.toFixed(3)}` : r.error.message}; ` +
       `${wall.toFixed(0)} ms wall, ${cpu.toFixed(0)} ms CPU (one run)`,
@@ -413,11 +413,11 @@ function seededOutlines({ seed, kinds, spanMm, prefix, quantity }) {
   const big = { widthMm: 1220, heightMm: 2440 };
   const dec = designs.find((d) => d.name.startsWith('decagons'));
   const many = { ...dec.parts[0], quantity: 260 };
-  const t0 = performance.now();
-  const c0 = process.cpuUsage();
-  const r = nestParts({ sheet: big, marginMm: 0, gapMm: GAP, parts: [many] });
-  const ms = performance.now() - t0;
-  const cpu = cpuMs(c0);
+  const {
+    result: r,
+    wall: [ms],
+    cpu: [cpu],
+  } = timeRuns(() => nestParts({ sheet: big, marginMm: 0, gapMm: GAP, parts: [many] }), 1);
   const xs = many.outline.map((q) => q[0]);
   const ys = many.outline.map((q) => q[1]);
   const packer = new MaxRectsPacker(big.widthMm, big.heightMm, GAP, {
