@@ -19,6 +19,8 @@ declare module 'logic-solver' {
       solve(): Solution | null;
       solveAssuming(f: Formula): Solution | null;
     }
+    const TRUE: Formula;
+    const FALSE: Formula;
     function not(f: Formula): Formula;
     function or(...f: (Formula | Formula[])[]): Formula;
     function and(...f: (Formula | Formula[])[]): Formula;
