@@ -210,7 +210,7 @@ describe(`Materials, machine profiles, approvals and the audit trail, in Chromiu
     await history.getByRole('button', { name: 'Record a measured kerf' }).click();
     const record = page.getByRole('dialog', { name: 'Record a measured kerf' });
     await record.getByRole('button', { name: 'Record' }).click();
-    await record.getByText('Enter the measured value in mm').waitFor();
+    await record.getByText('Enter the measured kerf').waitFor();
     await record.getByLabel('Measured kerf (mm)').fill('0.17');
     await record.getByLabel('Notes (optional)').fill('Coupon of 10 slots, callipers');
     await record.getByRole('button', { name: 'Record' }).click();

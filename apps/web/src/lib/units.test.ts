@@ -1,5 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { formatHourlyRate, formatMinutes, formatMoney, formatRunLength, formatSheetSize } from './units';
+import {
+  formatHourlyRate,
+  formatKerf,
+  formatMinutes,
+  formatMoney,
+  formatQuantity,
+  formatRunLength,
+  formatSheetSize,
+  formatSpeed,
+} from './units';
 
 describe('figures a workshop reads at a glance', () => {
   it('gives a sheet size with its unit once, as stock is listed (1 in = 25.4 mm exactly)', () => {
@@ -36,5 +45,33 @@ describe('figures a workshop reads at a glance', () => {
   it('gives an hourly rate per hour', () => {
     expect(formatHourlyRate(24, 'EUR')).toBe('24.00 EUR/h');
     expect(formatHourlyRate(1250, 'GBP')).toBe('1,250.00 GBP/h');
+  });
+
+  it('gives a kerf to two decimals, three where it was recorded to the thousandth, or four in inches', () => {
+    expect(formatKerf(0.2, 'mm')).toBe('0.20 mm');
+    expect(formatKerf(0.165, 'mm')).toBe('0.165 mm');
+    expect(formatKerf(0.09, 'mm')).toBe('0.09 mm');
+    expect(formatKerf(6, 'mm')).toBe('6.00 mm');
+    // Floating point noise is not a thousandth recorded.
+    expect(formatKerf(0.1 + 0.2, 'mm')).toBe('0.30 mm');
+    // 0.15 and 0.16 mm: 0.00591 and 0.00630 in, alike to three decimals (1 in = 25.4 mm exactly).
+    expect(formatKerf(0.15, 'in')).toBe('0.0059 in');
+    expect(formatKerf(0.16, 'in')).toBe('0.0063 in');
+    expect(formatKerf(Number.NaN, 'mm')).toBe('—');
+  });
+
+  it('gives a speed per second in the unit chosen, thousands grouped and no trailing zeros', () => {
+    expect(formatSpeed(1200, 'mm')).toBe('1,200 mm/s');
+    expect(formatSpeed(12.5, 'mm')).toBe('12.5 mm/s');
+    expect(formatSpeed(254, 'in')).toBe('10 in/s');
+    // 1,200 mm/s = 47.244 in/s.
+    expect(formatSpeed(1200, 'in')).toBe('47.24 in/s');
+  });
+
+  it('groups the thousands of any other quantity, and writes a bare count bare', () => {
+    expect(formatQuantity(18000, 'rpm')).toBe('18,000 rpm');
+    expect(formatQuantity(0.5, 's')).toBe('0.5 s');
+    expect(formatQuantity(80, '%')).toBe('80 %');
+    expect(formatQuantity(2, '')).toBe('2');
   });
 });

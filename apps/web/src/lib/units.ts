@@ -10,6 +10,39 @@ export function formatLength(mm: number, unit: LengthUnit): string {
 }
 
 /**
+ * A kerf, a tool diameter or a measured cut width: millimetres with two decimals, a third where the value was
+ * recorded to the thousandth ("0.20 mm", "0.165 mm"); inches to four decimals, as the forms take them back
+ * ("0.0079 in"), since three would read 0.15 and 0.16 mm alike.
+ */
+export function formatKerf(mm: number, unit: LengthUnit): string {
+  if (!Number.isFinite(mm)) return '—';
+  if (unit === 'in') return `${(mm / MM_PER_INCH).toFixed(4)} in`;
+  const thousandths = Math.round(mm * 1000);
+  return `${(thousandths / 1000).toFixed(thousandths % 10 === 0 ? 2 : 3)} mm`;
+}
+
+/**
+ * A feed or rapid speed in the reader's unit per second, thousands grouped and no trailing zeros: millimetres
+ * to a tenth ("1,200 mm/s", "12.5 mm/s"), inches to a hundredth ("47.24 in/s").
+ */
+export function formatSpeed(mmPerS: number, unit: LengthUnit): string {
+  if (!Number.isFinite(mmPerS)) return '—';
+  if (unit === 'in') return `${grouped(mmPerS / MM_PER_INCH, 0, 2)} in/s`;
+  return `${grouped(mmPerS, 0, 1)} mm/s`;
+}
+
+/** A plain quantity with thousands grouped and its unit, if any ("18,000 rpm", "0.5 s", "80 %"). */
+export function formatQuantity(n: number, unit: string): string {
+  if (!Number.isFinite(n)) return '—';
+  return `${grouped(n, 0, 3)} ${unit}`.trimEnd();
+}
+
+/** A number with thousands grouped the way every page groups them ("1,234.5"). */
+function grouped(x: number, minDecimals: number, maxDecimals: number): string {
+  return x.toLocaleString('en', { minimumFractionDigits: minDecimals, maximumFractionDigits: maxDecimals });
+}
+
+/**
  * A sheet's size, the unit said once: "600 × 400 mm", "23.622 × 15.748 in" (millimetres to a tenth without a
  * trailing zero, as stock is listed; inches to three places, as formatLength gives them).
  */
@@ -29,13 +62,12 @@ export function formatSheetSize(sheet: { widthMm: number; heightMm: number }, un
  */
 export function formatRunLength(mm: number, unit: LengthUnit): string {
   if (!Number.isFinite(mm)) return '—';
-  const grouped = (x: number) =>
-    x.toLocaleString('en', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+  const tenths = (x: number) => grouped(x, 1, 1);
   if (unit === 'in') {
     const inches = mm / MM_PER_INCH;
-    return Math.abs(inches) >= 1200 ? `${grouped(inches / 12)} ft` : `${grouped(inches)} in`;
+    return Math.abs(inches) >= 1200 ? `${tenths(inches / 12)} ft` : `${tenths(inches)} in`;
   }
-  return Math.abs(mm) >= 10_000 ? `${grouped(mm / 1000)} m` : `${grouped(mm)} mm`;
+  return Math.abs(mm) >= 10_000 ? `${tenths(mm / 1000)} m` : `${tenths(mm)} mm`;
 }
 
 /** Machine time: minutes with one decimal under an hour, else hours and whole minutes ("28 h 44 min"). */
@@ -43,13 +75,12 @@ export function formatMinutes(minutes: number): string {
   if (!Number.isFinite(minutes)) return '—';
   if (minutes < 60) return `${minutes.toFixed(1)} min`;
   const whole = Math.round(minutes);
-  return `${Math.floor(whole / 60).toLocaleString('en')} h ${whole % 60} min`;
+  return `${grouped(Math.floor(whole / 60), 0, 0)} h ${whole % 60} min`;
 }
 
 /** An amount of money with two decimals and thousands grouped, then the currency code ("9,389.52 EUR"). */
 export function formatMoney(amount: number, currency: string): string {
-  const n = amount.toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
-  return `${n} ${currency}`;
+  return `${grouped(amount, 2, 2)} ${currency}`;
 }
 
 /** A machine's rate per hour: an amount of money per hour of machine time ("24.00 EUR/h"). */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { inchesText, inchesToMm, messageInInches } from './length-field';
+import { inchLabel, inchesText, inchesToMm, messageInInches } from './length-field';
 
 // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; NIST SP 811).
 describe('inch fields over millimetre values', () => {
@@ -22,6 +22,13 @@ describe('inch fields over millimetre values', () => {
     expect(inchesToMm('1e')).toBeNaN();
   });
 
+  it('labels a field in inches, a speed in inches per second', () => {
+    expect(inchLabel('Margin (mm)')).toBe('Margin (in)');
+    expect(inchLabel('Kerf (mm, optional)')).toBe('Kerf (in, optional)');
+    expect(inchLabel('Cut speed (mm/s)')).toBe('Cut speed (in/s)');
+    expect(inchLabel('Hourly rate')).toBe('Hourly rate');
+  });
+
   it("says a check's limits in inches to a reader typing inches", () => {
     expect(messageInInches('At most 100 mm')).toBe('At most 3.937 in');
     expect(messageInInches('At least 1 mm: a smaller model cannot be cut')).toBe(
@@ -32,6 +39,8 @@ describe('inch fields over millimetre values', () => {
       'Leaves no room inside the 0.1969 in margins: more than 0.3938 in',
     );
     expect(messageInInches('Enter the sheet width')).toBe('Enter the sheet width');
+    // A speed's limit: 1,000 mm/s = 39.37 in/s.
+    expect(messageInInches('At most 1000 mm/s')).toBe('At most 39.37 in/s');
   });
 
   it('rounds a limit inward, so that the value it says is taken: a maximum down, a minimum up', () => {

@@ -6,7 +6,10 @@ import { type BoundFieldProps } from './form-text-field';
 import { NumberField } from './number-field';
 
 type LengthFieldProps<T extends FieldValues> = Omit<BoundFieldProps<T>, 'type' | 'slotProps' | 'label'> & {
-  /** The label with its unit in brackets as the form keeps it: "Margin (mm)", "Kerf (mm, optional)". */
+  /**
+   * The label with its unit in brackets as the form keeps it: "Margin (mm)", "Kerf (mm, optional)", or a speed
+   * "Cut speed (mm/s)" (millimetres per second, shown as inches per second).
+   */
   label: string;
   /** The unit the reader works in; the form always keeps millimetres. */
   unit: LengthUnit;
@@ -17,6 +20,11 @@ type LengthFieldProps<T extends FieldValues> = Omit<BoundFieldProps<T>, 'type' |
 /** Inches as typed back to the reader: up to four decimals, no trailing zeros ("0.25", "5.6875"). */
 export function inchesText(mm: unknown): string {
   return typeof mm === 'number' && Number.isFinite(mm) ? String(Number((mm / MM_PER_INCH).toFixed(4))) : '';
+}
+
+/** A length field's label as shown in inches: "Kerf (mm, optional)" → "Kerf (in, optional)", "(mm/s)" → "(in/s)". */
+export function inchLabel(label: string): string {
+  return label.replace(/\(mm(\/s)?(, [^)]*)?\)$/, '(in$1$2)');
 }
 
 /**
@@ -105,7 +113,7 @@ export function LengthField<T extends FieldValues>({
         <InchInput
           {...props}
           name={name}
-          label={label.replace(/\(mm(, [^)]*)?\)$/, '(in$1)')}
+          label={inchLabel(label)}
           mm={field.value}
           onMm={field.onChange}
           onBlur={field.onBlur}

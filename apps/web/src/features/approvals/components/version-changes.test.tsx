@@ -27,7 +27,7 @@ afterEach(() => vi.unstubAllGlobals());
 describe('changes of a waiting version', () => {
   it('on a phone, gives each setting a block of its own with the old and the new value under its name', () => {
     stubScreenWidth(390);
-    renderWithProviders(<VersionChanges approved={approved} waiting={waiting} />);
+    renderWithProviders(<VersionChanges approved={approved} waiting={waiting} unit="mm" />);
     // No five-column table to run off the screen's edge.
     expect(screen.queryByRole('table')).not.toBeInTheDocument();
     const list = screen.getByRole('list', { name: 'Changes in version 2' });
@@ -46,7 +46,7 @@ describe('changes of a waiting version', () => {
 
   it('on a wide screen, heads the column of setting names "Setting"', () => {
     stubScreenWidth(1280);
-    renderWithProviders(<VersionChanges approved={approved} waiting={waiting} />);
+    renderWithProviders(<VersionChanges approved={approved} waiting={waiting} unit="mm" />);
     const table = screen.getByRole('table', { name: 'Changes in version 2' });
     const headers = within(table)
       .getAllByRole('columnheader')

@@ -10,6 +10,7 @@ import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import useMediaQuery from '@mui/material/useMediaQuery';
 import { type VersionChange, versionChanges } from '../../machine-profiles/utils/version-rows';
+import { type LengthUnit } from '../../../lib/units';
 import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /** Long values (notes) wrap where they must instead of widening the page. */
@@ -23,13 +24,16 @@ const shownAfter = (c: VersionChange) => (c.after === null ? 'removed' : c.after
 export function VersionChanges({
   approved,
   waiting,
+  unit,
 }: {
   approved: MachineProfileVersionView | null;
   waiting: MachineProfileVersionView;
+  /** The unit lengths and speeds are shown in. */
+  unit: LengthUnit;
 }) {
   // Five columns do not fit a phone: there each setting is a block of its own, old value above the new.
   const phone = useMediaQuery(useTheme().breakpoints.down('sm'), { noSsr: true });
-  const changes = versionChanges(approved, waiting);
+  const changes = versionChanges(approved, waiting, unit);
   const label = `Changes in version ${waiting.number}`;
   const scrollFocus = useScrollFocus(label);
   if (changes.length === 0) {

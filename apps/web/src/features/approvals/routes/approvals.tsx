@@ -36,7 +36,8 @@ import { formatDateTime } from '../../../lib/dates';
  * version). Listed notes are not repeated; only unchanged notes get a line of their own.
  */
 const notesAmongChanges = (p: MachineProfileSummaryView) =>
-  versionChanges(p.currentApproved, p.latest).some((c) => c.key === 'machine.notes');
+  // Notes have no unit: any unit tells whether they changed.
+  versionChanges(p.currentApproved, p.latest, 'mm').some((c) => c.key === 'machine.notes');
 
 /** What a dialog is open for: a version or a job, to approve or to send back. */
 type Deciding =
@@ -51,7 +52,8 @@ const decidingOn = (p: MachineProfileSummaryView) => ({
 
 /** Supervisors: machine profile versions and jobs waiting for a decision, each approved or sent back. */
 export function ApprovalsRoute() {
-  // Sheet sizes in the unit this browser shows lengths in (chosen on the studio, job or desk pages).
+  // Sheet sizes and machine values in the unit this browser shows lengths in (chosen on the studio, job,
+  // desk or machine profile pages).
   const [unit] = useLengthUnit();
   const versions = useWaitingVersions();
   const jobs = useWaitingJobs();
@@ -183,7 +185,7 @@ export function ApprovalsRoute() {
                   ? `Compared with the approved version ${p.currentApproved.number}; only changed values are listed.`
                   : 'No version is approved yet: every value is new.'}
               </Typography>
-              <VersionChanges approved={p.currentApproved} waiting={p.latest} />
+              <VersionChanges approved={p.currentApproved} waiting={p.latest} unit={unit} />
               <LaserConditions conditions={laserConditionsOf(p)} />
               {p.latest.notes && !notesAmongChanges(p) ? (
                 <Typography variant="body2" sx={{ mt: 2 }} data-testid="version-notes">

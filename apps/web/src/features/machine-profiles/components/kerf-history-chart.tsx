@@ -2,6 +2,7 @@ import { type KerfRecordView } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
 import { countOf } from '../../../lib/plural';
+import { formatKerf, type LengthUnit, MM_PER_INCH } from '../../../lib/units';
 import { useElementWidth } from '../../../lib/use-element-width';
 
 /** A reference line: the kerf (or tool diameter) a profile version holds for the material. */
@@ -17,6 +18,8 @@ interface KerfHistoryChartProps {
   references: readonly KerfReference[];
   /** What the values are ("kerf" or "cut width"), for the labels. */
   quantity: string;
+  /** The unit the axis and the labels give the values in. */
+  unit: LengthUnit;
   /** The drawing's width in CSS pixels; by default the width it is given on the page, up to 720. */
   width?: number;
   height?: number;
@@ -99,6 +102,7 @@ export function KerfHistoryChart({
   records,
   references,
   quantity,
+  unit,
   width: fixedWidth,
   height = 280,
 }: KerfHistoryChartProps) {
@@ -111,13 +115,17 @@ export function KerfHistoryChart({
   const pad = { left: 56, right: narrow ? 12 : 150, top: narrow ? 22 : 16, bottom: 36 };
   const innerW = width - pad.left - pad.right;
   const innerH = height - pad.top - pad.bottom;
-  const values = [...records.map((r) => r.kerfMm), ...references.map((r) => r.valueMm)];
+  // Plotted in the reader's unit, so the axis's round steps are round in it.
+  const inUnit = (mm: number) => (unit === 'in' ? mm / MM_PER_INCH : mm);
+  const kerf = (mm: number) => formatKerf(mm, unit);
+  const values = [...records.map((r) => inUnit(r.kerfMm)), ...references.map((r) => inUnit(r.valueMm))];
   if (values.length === 0) {
     return <Typography color="text.secondary">No measured values yet for this material.</Typography>;
   }
   const lo = Math.min(...values);
   const hi = Math.max(...values);
-  const margin = (hi - lo) * 0.15 || Math.max(hi * 0.1, 0.01);
+  // Headroom of at least a hundredth of a millimetre (in the unit drawn), so one value is not a flat line.
+  const margin = (hi - lo) * 0.15 || Math.max(hi * 0.1, inUnit(0.01));
   const ticks = niceTicks(Math.max(0, lo - margin), hi + margin, 5);
   const yMin = ticks[0]!;
   const yMax = ticks[ticks.length - 1]!;
@@ -125,7 +133,8 @@ export function KerfHistoryChart({
   const tMin = Math.min(...times);
   const tMax = Math.max(...times);
   const x = (t: number) => pad.left + (tMax === tMin ? innerW / 2 : ((t - tMin) / (tMax - tMin)) * innerW);
-  const y = (v: number) => pad.top + innerH - ((v - yMin) / (yMax - yMin || 1)) * innerH;
+  const yOf = (v: number) => pad.top + innerH - ((v - yMin) / (yMax - yMin || 1)) * innerH;
+  const y = (mm: number) => yOf(inUnit(mm));
   const xTicks = records.length > 0 ? (tMax === tMin ? [tMin] : [tMin, (tMin + tMax) / 2, tMax]) : [];
   const decimals = tickDecimals(ticks);
   const labelYs = spreadLabels(
@@ -147,14 +156,14 @@ export function KerfHistoryChart({
       >
         {ticks.map((t) => (
           <g key={t}>
-            <line x1={pad.left} x2={pad.left + innerW} y1={y(t)} y2={y(t)} stroke="#e0e0e0" />
-            <text x={pad.left - 8} y={y(t) + 4} textAnchor="end" fill="#555" data-testid="kerf-tick">
+            <line x1={pad.left} x2={pad.left + innerW} y1={yOf(t)} y2={yOf(t)} stroke="#e0e0e0" />
+            <text x={pad.left - 8} y={yOf(t) + 4} textAnchor="end" fill="#555" data-testid="kerf-tick">
               {t.toFixed(decimals)}
             </text>
           </g>
         ))}
         <text transform={`translate(14 ${pad.top + innerH / 2}) rotate(-90)`} textAnchor="middle" fill="#555">
-          {quantity} (mm)
+          {quantity} ({unit})
         </text>
         <line x1={pad.left} x2={pad.left} y1={pad.top} y2={pad.top + innerH} stroke="#9e9e9e" />
         <line
@@ -187,7 +196,7 @@ export function KerfHistoryChart({
               fill={ref.colour}
               data-testid="kerf-reference-label"
             >
-              {ref.label}: {ref.valueMm} mm
+              {ref.label}: {kerf(ref.valueMm)}
             </text>
           </g>
         ))}
@@ -208,14 +217,13 @@ export function KerfHistoryChart({
             fill={r.adoptedVersionId ? '#2e7d32' : '#3949ab'}
             data-testid="kerf-point"
           >
-            <title>{`${r.kerfMm} mm, ${fullDate.format(new Date(r.createdAt))}${r.notes ? ` — ${r.notes}` : ''}`}</title>
+            <title>{`${kerf(r.kerfMm)}, ${fullDate.format(new Date(r.createdAt))}${r.notes ? ` — ${r.notes}` : ''}`}</title>
           </circle>
         ))}
       </svg>
       {mean !== null ? (
         <Typography variant="body2" color="text.secondary">
-          {countOf(records.length, 'measurement')}; mean {mean.toFixed(3)} mm. Green dots were adopted into a
-          version.
+          {countOf(records.length, 'measurement')}; mean {kerf(mean)}. Green dots were adopted into a version.
         </Typography>
       ) : null}
     </Box>

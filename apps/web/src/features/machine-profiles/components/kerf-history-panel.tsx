@@ -19,6 +19,7 @@ import { KerfHistoryChart, type KerfReference } from './kerf-history-chart';
 import { KerfRecordDialog } from './kerf-record-dialog';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 import { formatDateTime } from '../../../lib/dates';
+import { formatKerf, type LengthUnit } from '../../../lib/units';
 import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
 /**
@@ -27,11 +28,15 @@ import { useScrollFocus } from '../../../lib/use-scroll-focus';
  */
 export function KerfHistoryPanel({
   profile,
+  unit,
   onAdopted,
 }: {
   profile: MachineProfileDetailView;
+  /** The unit kerfs are shown and typed in (they are kept in millimetres). */
+  unit: LengthUnit;
   onAdopted: (message: string) => void;
 }) {
+  const kerf = (mm: number) => formatKerf(mm, unit);
   const records = useKerfRecords(profile.id);
   const adopt = useAdoptKerfRecord(profile.id);
   const record = useCreateKerfRecord(profile.id);
@@ -111,7 +116,7 @@ export function KerfHistoryPanel({
           {errorMessage(adopt.error)}
         </Alert>
       ) : null}
-      <KerfHistoryChart records={mine} references={references} quantity={quantity} />
+      <KerfHistoryChart records={mine} references={references} quantity={quantity} unit={unit} />
       {mine.length > 0 ? (
         <TableContainer {...scrollFocus} sx={{ mt: 2, overflowX: 'auto' }}>
           <Table
@@ -135,7 +140,7 @@ export function KerfHistoryPanel({
                   <TableCell sx={{ whiteSpace: { xs: 'normal', sm: 'nowrap' } }}>
                     {formatDateTime(r.createdAt)}
                   </TableCell>
-                  <TableCell>{r.kerfMm} mm</TableCell>
+                  <TableCell>{kerf(r.kerfMm)}</TableCell>
                   <TableCell>{r.notes || '—'}</TableCell>
                   <TableCell align="right">
                     {r.adoptedVersionId ? (
@@ -162,12 +167,12 @@ export function KerfHistoryPanel({
                           adopt.mutate(r.id, {
                             onSuccess: (v) => {
                               setJustAdopted(r.id);
-                              onAdopted(`${r.kerfMm} mm is in draft version ${v.number}.`);
+                              onAdopted(`${kerf(r.kerfMm)} is in draft version ${v.number}.`);
                             },
                           })
                         }
                       >
-                        Adopt {r.kerfMm} mm
+                        Adopt {kerf(r.kerfMm)}
                       </Button>
                     )}
                   </TableCell>
@@ -184,6 +189,7 @@ export function KerfHistoryPanel({
       <KerfRecordDialog
         open={recording}
         kind={profile.kind}
+        unit={unit}
         materials={choices}
         defaultMaterialId={materialId}
         busy={record.isPending}

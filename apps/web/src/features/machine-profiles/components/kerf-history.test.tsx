@@ -35,12 +35,34 @@ describe('kerf history chart', () => {
         records={[record('k-1', 0.078, 1), record('k-2', 0.081, 3), record('k-3', 0.084, 5)]}
         references={[]}
         quantity="kerf"
+        unit="mm"
       />,
     );
     const labels = screen.getAllByTestId('kerf-tick').map((t) => t.textContent);
     expect(labels.length).toBeGreaterThan(2);
     expect(new Set(labels).size).toBe(labels.length);
     expect(labels).toContain('0.080');
+  });
+
+  it('spans the same kerfs in inches as in millimetres, its headroom converted too', () => {
+    const ticksIn = (unit: 'mm' | 'in') => {
+      const { unmount } = render(
+        <KerfHistoryChart
+          records={[record('k-1', 0.08, 1)]}
+          references={[{ label: 'Approved v1', valueMm: 0.08, colour: '#2e7d32' }]}
+          quantity="kerf"
+          unit={unit}
+        />,
+      );
+      const ticks = screen.getAllByTestId('kerf-tick').map((t) => Number(t.textContent));
+      unmount();
+      return ticks;
+    };
+    const mm = ticksIn('mm');
+    // 1 in = 25.4 mm exactly: the inch axis covers the millimetre axis's span, converted, give or take a step.
+    const inches = ticksIn('in').map((t) => t * 25.4);
+    expect(Math.min(...inches)).toBeGreaterThan(Math.min(...mm) - 0.01);
+    expect(Math.max(...inches)).toBeLessThan(Math.max(...mm) + 0.01);
   });
 
   it('keeps the labels of close reference lines apart', () => {
@@ -52,6 +74,7 @@ describe('kerf history chart', () => {
           { label: 'Draft v2', valueMm: 0.081, colour: '#ed6c02', dashed: true },
         ]}
         quantity="kerf"
+        unit="mm"
       />,
     );
     const [approved, draft] = screen.getAllByTestId('kerf-reference-label');
@@ -64,12 +87,12 @@ describe('kerf history chart', () => {
 
   it('counts the measurements in words, one or many', () => {
     const { unmount } = render(
-      <KerfHistoryChart records={[record('k-1', 0.078, 1)]} references={[]} quantity="kerf" />,
+      <KerfHistoryChart records={[record('k-1', 0.078, 1)]} references={[]} quantity="kerf" unit="mm" />,
     );
     expect(screen.getByRole('img', { name: 'Measured kerf over time: 1 measurement' })).toBeInTheDocument();
     expect(screen.getByText(/^1 measurement; mean 0\.078 mm\./)).toBeInTheDocument();
     unmount();
-    render(<KerfHistoryChart records={records} references={[]} quantity="kerf" />);
+    render(<KerfHistoryChart records={records} references={[]} quantity="kerf" unit="mm" />);
     expect(screen.getByRole('img', { name: 'Measured kerf over time: 3 measurements' })).toBeInTheDocument();
     expect(screen.getByText(/^3 measurements; mean/)).toBeInTheDocument();
     expect(screen.queryByText(/\(s\)/)).not.toBeInTheDocument();
@@ -119,10 +142,40 @@ describe('kerf history panel', () => {
       'GET /api/machine-profiles/p-1/kerf-records': () =>
         json(200, { items: records, total: records.length, page: 1, pageSize: 1000 }),
     });
-    renderWithProviders(<KerfHistoryPanel profile={profile} onAdopted={() => undefined} />);
+    renderWithProviders(<KerfHistoryPanel profile={profile} unit="mm" onAdopted={() => undefined} />);
     const table = await screen.findByRole('table', { name: 'Measured kerfs' });
     expect(within(table).getByText('0.165 mm')).toBeInTheDocument();
     expect(getComputedStyle(table.parentElement!).overflowX).toBe('auto');
+  });
+});
+
+// 1 in = 25.4 mm exactly (international yard and pound agreement, 1959).
+describe('kerf history panel in inches', () => {
+  it('gives the measurements, the chart and the adopted value in inches', async () => {
+    let adopted = false;
+    stubFetch({
+      'GET /api/machine-profiles/p-1/kerf-records': () =>
+        json(200, { items: records, total: records.length, page: 1, pageSize: 1000 }),
+      'POST /api/machine-profiles/p-1/kerf-records/k-2/adopt': () => {
+        adopted = true;
+        return json(201, version);
+      },
+    });
+    const notices: string[] = [];
+    const { user } = renderWithProviders(
+      <KerfHistoryPanel profile={profile} unit="in" onAdopted={(m) => notices.push(m)} />,
+    );
+    const table = await screen.findByRole('table', { name: 'Measured kerfs' });
+    // 0.165 mm = 0.00650 in; 0.078 mm = 0.00307 in.
+    expect(within(table).getByText('0.0065 in')).toBeInTheDocument();
+    expect(within(table).getByText('0.0031 in')).toBeInTheDocument();
+    expect(within(table).queryByText(/mm/)).not.toBeInTheDocument();
+    expect(screen.getByTestId('kerf-chart')).toHaveTextContent('kerf (in)');
+    // The approved version's 0.08 mm is 0.0031 in.
+    expect(screen.getByTestId('kerf-reference-label')).toHaveTextContent('Approved v1: 0.0031 in');
+    await user.click(screen.getByRole('button', { name: 'Adopt 0.0065 in' }));
+    await waitFor(() => expect(notices).toEqual(['0.0065 in is in draft version 1.']));
+    expect(adopted).toBe(true);
   });
 });
 
@@ -142,7 +195,9 @@ describe('kerf history panel, adopting', () => {
         return json(201, version);
       },
     });
-    const { user } = renderWithProviders(<KerfHistoryPanel profile={profile} onAdopted={() => undefined} />);
+    const { user } = renderWithProviders(
+      <KerfHistoryPanel profile={profile} unit="mm" onAdopted={() => undefined} />,
+    );
     await user.click(await screen.findByRole('button', { name: 'Adopt 0.165 mm' }));
     const done = await screen.findByText(`Adopted into version ${version.number}`);
     await waitFor(() => expect(done).toHaveFocus());
@@ -158,7 +213,7 @@ describe('versions side by side', () => {
       state: 'draft',
       settings: [{ ...version.settings[0]!, kerfMm: 0.082 }],
     } as MachineProfileVersionView;
-    render(<VersionComparison versions={[v2, version]} />);
+    render(<VersionComparison versions={[v2, version]} unit="mm" />);
     const table = screen.getByRole('table', { name: 'Versions side by side' });
     expect(within(table).getByText('(changed)', { exact: false })).toBeInTheDocument();
     // The hidden texts are placed absolutely: a box that is not positioned would not clip them.

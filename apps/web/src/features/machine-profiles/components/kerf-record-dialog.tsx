@@ -6,6 +6,8 @@ import { resetUnlessSame } from '../../../lib/reset-unless-same';
 import { useForm } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
+import { LengthField } from '../../../components/ui/length-field';
+import { type LengthUnit } from '../../../lib/units';
 import { type KerfRecordValues, kerfRecordSchema } from './kerf-record-schema';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
@@ -13,6 +15,8 @@ import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 export function KerfRecordDialog(
   props: FormDialogBaseProps<KerfRecordValues> & {
     kind: MachineProfileKind;
+    /** The unit the measured value is typed in; the form keeps millimetres. */
+    unit: LengthUnit;
     materials: readonly { id: string; name: string }[];
     defaultMaterialId: string;
   },
@@ -20,6 +24,7 @@ export function KerfRecordDialog(
   const schema = useMemo(() => kerfRecordSchema(props.kind), [props.kind]);
   const {
     register,
+    control,
     handleSubmit,
     reset,
     getValues,
@@ -60,12 +65,12 @@ export function KerfRecordDialog(
             </option>
           ))}
         </FormTextField>
-        <FormTextField
+        <LengthField
           label={router ? 'Measured cut width (mm)' : 'Measured kerf (mm)'}
-          type="number"
-          registration={register('kerfMm', { valueAsNumber: true })}
-          error={errors.kerfMm}
-          slotProps={{ htmlInput: { step: 'any' } }}
+          name="kerfMm"
+          form={{ register, errors }}
+          control={control}
+          unit={props.unit}
         />
         <FormTextField
           label="Notes (optional)"

@@ -10,7 +10,7 @@ export function kerfRecordSchema(kind: MachineProfileKind) {
   return z.object({
     materialId: z.string().min(1, 'Choose the material'),
     kerfMm: z
-      .number({ error: 'Enter the measured value in mm' })
+      .number({ error: `Enter the measured ${kind === 'cnc-router' ? 'cut width' : 'kerf'}` })
       .min(range.min, `At least ${range.min} mm`)
       .max(range.max, `At most ${range.max} mm`),
     notes: z.string().trim().max(2000, 'At most 2000 characters'),

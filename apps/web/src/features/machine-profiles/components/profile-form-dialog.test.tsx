@@ -35,6 +35,7 @@ function renderForm(onSubmit = vi.fn()) {
     <ProfileFormDialog
       open
       mode="create"
+      unit="mm"
       initial={EMPTY_PROFILE}
       materials={[birch, pvc]}
       busy={false}
@@ -211,6 +212,7 @@ describe('changing a draft', () => {
       <ProfileFormDialog
         open
         mode="edit-draft"
+        unit="mm"
         initial={draft}
         materials={materials}
         busy={false}
@@ -257,6 +259,7 @@ describe('measured kerf form', () => {
       <KerfRecordDialog
         open
         kind="co2-laser"
+        unit="mm"
         materials={[birch]}
         defaultMaterialId="m-birch"
         busy={false}
@@ -266,7 +269,7 @@ describe('measured kerf form', () => {
       />,
     );
     await user.click(await screen.findByRole('button', { name: 'Record' }));
-    expect(await screen.findByText('Enter the measured value in mm')).toBeInTheDocument();
+    expect(await screen.findByText('Enter the measured kerf')).toBeInTheDocument();
     await user.type(screen.getByLabelText('Measured kerf (mm)'), '2.5');
     await user.click(screen.getByRole('button', { name: 'Record' }));
     expect(await screen.findByText('At most 2 mm')).toBeInTheDocument();
@@ -275,6 +278,95 @@ describe('measured kerf form', () => {
     await user.click(screen.getByRole('button', { name: 'Record' }));
     await waitFor(() =>
       expect(onSubmit).toHaveBeenCalledWith({ materialId: 'm-birch', kerfMm: 0.17, notes: '' }),
+    );
+  });
+});
+
+// 1 in = 25.4 mm exactly (international yard and pound agreement, 1959).
+describe('the profile forms in inches', () => {
+  it('shows a version in inches and saves what is typed in millimetres', async () => {
+    const onSubmit = vi.fn();
+    const version = {
+      ...EMPTY_PROFILE,
+      name: 'Bay 3 laser',
+      bedWidthMm: 609.6,
+      bedHeightMm: 406.4,
+      rapidSpeedMmS: 254,
+      hourlyRate: 20,
+      settings: [
+        { ...EMPTY_SETTING, materialId: 'm-birch', kerfMm: 0.2032, cutSpeedMmS: 12.7, powerPct: 70 },
+      ],
+    };
+    const { user } = renderWithProviders(
+      <ProfileFormDialog
+        open
+        mode="edit-draft"
+        unit="in"
+        initial={version}
+        materials={[birch]}
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    const setting = await screen.findByRole('group', { name: row(1) });
+    expect(screen.getByLabelText('Bed width (in)')).toHaveValue(24);
+    expect(screen.getByLabelText('Bed height (in)')).toHaveValue(16);
+    expect(screen.getByLabelText('Rapid speed (in/s)')).toHaveValue(10);
+    expect(within(setting).getByLabelText('Kerf (in)')).toHaveValue(0.008);
+    expect(within(setting).getByLabelText('Cut speed (in/s)')).toHaveValue(0.5);
+    expect(screen.queryByLabelText(/\(mm/)).not.toBeInTheDocument();
+
+    await user.clear(screen.getByLabelText('Bed width (in)'));
+    await user.type(screen.getByLabelText('Bed width (in)'), '48');
+    await user.clear(within(setting).getByLabelText('Mark speed (in/s)'));
+    await user.type(within(setting).getByLabelText('Mark speed (in/s)'), '4');
+    await user.click(screen.getByRole('button', { name: 'Save the draft' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    const saved = toVersionContent(onSubmit.mock.calls[0]![0]);
+    expect(saved).toMatchObject({ bedWidthMm: 1219.2, bedHeightMm: 406.4, rapidSpeedMmS: 254 });
+    expect(saved.settings[0]).toMatchObject({ kerfMm: 0.2032, cutSpeedMmS: 12.7, markSpeedMmS: 101.6 });
+  });
+
+  it('gives the limits of a speed in inches per second', async () => {
+    const { user } = renderWithProviders(
+      <ProfileFormDialog
+        open
+        mode="create"
+        unit="in"
+        initial={EMPTY_PROFILE}
+        materials={[birch]}
+        busy={false}
+        error={null}
+        onSubmit={noop}
+        onClose={noop}
+      />,
+    );
+    await user.type(screen.getByLabelText('Rapid speed (in/s)'), '100000');
+    await user.click(screen.getByRole('button', { name: 'Create as draft' }));
+    expect(await screen.findByText(/^At most [\d.]+ in\/s$/)).toBeInTheDocument();
+  });
+
+  it('records a measured kerf typed in inches as millimetres', async () => {
+    const onSubmit = vi.fn();
+    const { user } = renderWithProviders(
+      <KerfRecordDialog
+        open
+        kind="co2-laser"
+        unit="in"
+        materials={[birch]}
+        defaultMaterialId="m-birch"
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    await user.type(await screen.findByLabelText('Measured kerf (in)'), '0.0065');
+    await user.click(screen.getByRole('button', { name: 'Record' }));
+    await waitFor(() =>
+      expect(onSubmit).toHaveBeenCalledWith({ materialId: 'm-birch', kerfMm: 0.1651, notes: '' }),
     );
   });
 });

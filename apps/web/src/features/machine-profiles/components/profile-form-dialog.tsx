@@ -16,7 +16,9 @@ import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/for
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { FormTextField, upperCased } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { LengthField } from '../../../components/ui/length-field';
 import { NumberField } from '../../../components/ui/number-field';
+import { type LengthUnit } from '../../../lib/units';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { KIND_LABELS } from './profile-labels';
 import { EMPTY_SETTING, type ProfileFormValues, profileFormSchema } from './profile-form-schema';
@@ -42,6 +44,8 @@ interface ProfileFormDialogProps extends FormDialogBaseProps<ProfileFormValues> 
   materials: readonly MaterialView[] | undefined;
   /** Why the materials could not be loaded, if they could not. */
   materialsError?: unknown;
+  /** The unit lengths and speeds are typed in; the form keeps millimetres (and millimetres per second). */
+  unit: LengthUnit;
 }
 
 /**
@@ -57,7 +61,7 @@ const SETTING_VALUES_GRID = {
 
 /** Bed, speeds, rate and the per-material cutting values of a profile version; saved as a draft. */
 export function ProfileFormDialog(props: ProfileFormDialogProps) {
-  const { materials, materialsError, mode } = props;
+  const { materials, materialsError, mode, unit } = props;
   const schema = useMemo(() => profileFormSchema(materials), [materials]);
   const {
     register,
@@ -133,9 +137,21 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
             gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr', md: 'repeat(5, 1fr)' },
           }}
         >
-          <NumberField label="Bed width (mm)" name="bedWidthMm" form={fields} />
-          <NumberField label="Bed height (mm)" name="bedHeightMm" form={fields} />
-          <NumberField label="Rapid speed (mm/s)" name="rapidSpeedMmS" form={fields} />
+          <LengthField label="Bed width (mm)" name="bedWidthMm" form={fields} control={control} unit={unit} />
+          <LengthField
+            label="Bed height (mm)"
+            name="bedHeightMm"
+            form={fields}
+            control={control}
+            unit={unit}
+          />
+          <LengthField
+            label="Rapid speed (mm/s)"
+            name="rapidSpeedMmS"
+            form={fields}
+            control={control}
+            unit={unit}
+          />
           <NumberField label="Hourly rate" name="hourlyRate" form={fields} />
           <FormTextField
             label="Currency"
@@ -201,35 +217,43 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
               </Box>
               <Box sx={SETTING_VALUES_GRID} data-testid="setting-values">
                 {router ? (
-                  <NumberField
+                  <LengthField
                     id={`settings-${i}-tool`}
                     size="small"
                     label="Tool diameter (mm)"
                     name={`settings.${i}.toolDiameterMm`}
                     form={fields}
+                    control={control}
+                    unit={unit}
                   />
                 ) : (
-                  <NumberField
+                  <LengthField
                     id={`settings-${i}-kerf`}
                     size="small"
                     label="Kerf (mm)"
                     name={`settings.${i}.kerfMm`}
                     form={fields}
+                    control={control}
+                    unit={unit}
                   />
                 )}
-                <NumberField
+                <LengthField
                   id={`settings-${i}-cut`}
                   size="small"
                   label="Cut speed (mm/s)"
                   name={`settings.${i}.cutSpeedMmS`}
                   form={fields}
+                  control={control}
+                  unit={unit}
                 />
-                <NumberField
+                <LengthField
                   id={`settings-${i}-mark`}
                   size="small"
                   label="Mark speed (mm/s)"
                   name={`settings.${i}.markSpeedMmS`}
                   form={fields}
+                  control={control}
+                  unit={unit}
                 />
                 {router ? (
                   <NumberField

@@ -1,9 +1,9 @@
 import { type MachineProfileSummaryView } from '@kerfwright/contracts';
-import { screen } from '@testing-library/react';
+import { cleanup, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { versionFixture } from '../../../testing/fixtures';
 import { tableHeadersAt } from '../../../testing/table-headers';
-import { PROFILE_COLUMNS } from './profiles-table';
+import { profileColumns } from './profiles-table';
 
 const profile: MachineProfileSummaryView = {
   id: 'p-1',
@@ -17,7 +17,7 @@ const profile: MachineProfileSummaryView = {
 const headersAt = (px: number) =>
   tableHeadersAt(px, {
     label: 'Machine profiles',
-    columns: PROFILE_COLUMNS,
+    columns: profileColumns('mm'),
     rows: [profile],
     rowKey: (p) => p.id,
     minWidth: 760,
@@ -33,6 +33,25 @@ describe('the machine profiles table', () => {
 
   it('shows every column on a desktop (1280 px)', async () => {
     expect(await headersAt(1280)).toEqual(['Name', 'Kind', 'Bed', 'In use for jobs', 'Latest version']);
+  });
+
+  it('gives the bed in the unit the reader chose (24 × 16 in = 609.6 × 406.4 mm)', async () => {
+    const bed = { bedWidthMm: 609.6, bedHeightMm: 406.4 };
+    const wide = { ...profile, latest: { ...profile.latest, ...bed } };
+    for (const [unit, text] of [
+      ['mm', '609.6 × 406.4 mm'],
+      ['in', '24.000 × 16.000 in'],
+    ] as const) {
+      await tableHeadersAt(1280, {
+        label: 'Machine profiles',
+        columns: profileColumns(unit),
+        rows: [wide],
+        rowKey: (p) => p.id,
+        minWidth: 760,
+      });
+      expect(screen.getByRole('table', { name: 'Machine profiles' })).toHaveTextContent(text);
+      cleanup();
+    }
   });
 
   it('keeps name, kind and the version in use on a phone (390 px)', async () => {

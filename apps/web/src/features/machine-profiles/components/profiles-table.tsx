@@ -3,11 +3,17 @@ import Box from '@mui/material/Box';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
 import { RouterLink } from '../../../components/ui/router-link';
 import { paths } from '../../../config/paths';
+import { formatSheetSize, type LengthUnit } from '../../../lib/units';
 import { KIND_LABELS } from './profile-labels';
 import { VersionStateChip } from './version-state-chip';
 
-/** One row per machine profile: its kind, bed, the version jobs use now and the state of the newest one. */
-export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView, ProfileSortField>[] = [
+/**
+ * One row per machine profile: its kind, bed (in the reader's unit), the version jobs use now and the state of
+ * the newest one.
+ */
+export const profileColumns = (
+  unit: LengthUnit,
+): readonly DataTableColumn<MachineProfileSummaryView, ProfileSortField>[] => [
   {
     id: 'name',
     header: 'Name',
@@ -20,7 +26,7 @@ export const PROFILE_COLUMNS: readonly DataTableColumn<MachineProfileSummaryView
     hideOnTablet: true,
     header: 'Bed',
     cellSx: { whiteSpace: 'nowrap' },
-    render: (p) => `${p.latest.bedWidthMm} × ${p.latest.bedHeightMm} mm`,
+    render: (p) => formatSheetSize({ widthMm: p.latest.bedWidthMm, heightMm: p.latest.bedHeightMm }, unit),
   },
   {
     id: 'current',

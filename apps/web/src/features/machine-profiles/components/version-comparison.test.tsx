@@ -11,7 +11,7 @@ const KEY = 'Highlighted: changed from the version to its left.';
 
 describe('versions side by side', () => {
   it('heads the column of setting names "Setting", and has no key for highlights with one version', () => {
-    render(<VersionComparison versions={[version]} />);
+    render(<VersionComparison versions={[version]} unit="mm" />);
     const table = screen.getByRole('table', { name: 'Versions side by side' });
     expect(within(table).getAllByRole('columnheader')[0]).toHaveTextContent(/^Setting$/);
     expect(screen.queryByText(KEY)).not.toBeInTheDocument();
@@ -25,13 +25,13 @@ describe('versions side by side', () => {
       state: 'draft',
       rapidSpeedMmS: 350,
     } as MachineProfileVersionView;
-    render(<VersionComparison versions={[version, v2]} />);
+    render(<VersionComparison versions={[version, v2]} unit="mm" />);
     expect(screen.getByText(KEY)).toBeInTheDocument();
   });
 
   it('scrolls in a named region the keyboard can focus, as nothing inside it takes the focus', async () => {
     const v2 = { ...version, id: 'v-2', number: 2, state: 'draft' } as MachineProfileVersionView;
-    render(<VersionComparison versions={[version, v2]} />);
+    render(<VersionComparison versions={[version, v2]} unit="mm" />);
     const region = screen.getByRole('region', { name: 'Versions side by side' });
     expect(region).toContainElement(screen.getByRole('table', { name: 'Versions side by side' }));
     // Wider than a phone, the box scrolls: the arrow keys reach the later versions once it has the focus

@@ -8,6 +8,7 @@ import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { Fragment } from 'react';
+import { type LengthUnit } from '../../../lib/units';
 import { versionRows } from '../utils/version-rows';
 import { VersionStateChip } from './version-state-chip';
 import { SCREEN_READER_ONLY } from '../../../components/ui/screen-reader-only';
@@ -16,9 +17,15 @@ import { SCREEN_READER_ONLY } from '../../../components/ui/screen-reader-only';
  * Versions side by side: one column per version (oldest on the left), one row per value. A cell that
  * differs from the version to its left is highlighted, so a change shows where it was made.
  */
-export function VersionComparison({ versions }: { versions: readonly MachineProfileVersionView[] }) {
+export function VersionComparison({
+  versions,
+  unit,
+}: {
+  versions: readonly MachineProfileVersionView[];
+  unit: LengthUnit;
+}) {
   const ordered = [...versions].sort((a, b) => a.number - b.number);
-  const rows = versionRows(ordered);
+  const rows = versionRows(ordered, unit);
   let section = '';
   return (
     // Positioned, so the hidden "(changed)" texts (absolutely placed) stay inside the scrolling box: otherwise
@@ -64,7 +71,7 @@ export function VersionComparison({ versions }: { versions: readonly MachineProf
                     {row.label}
                   </TableCell>
                   {row.values.map((value, i) => {
-                    const changed = i > 0 && value !== row.values[i - 1];
+                    const changed = i > 0 && row.stored[i] !== row.stored[i - 1];
                     return (
                       <TableCell
                         key={ordered[i]!.id}

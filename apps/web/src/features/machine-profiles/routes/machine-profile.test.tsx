@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { json, stubFetch } from '../../../testing/fetch-stub';
 import { userFixture, versionFixture } from '../../../testing/fixtures';
 import { renderApp } from '../../../testing/render-app';
+import { LENGTH_UNIT_STORAGE_KEY } from '../../../lib/use-length-unit';
 
 const PROFILE_ID = '5e2f8a10-3c4b-4d6e-8f9a-0b1c2d3e4f50';
 
@@ -42,6 +43,32 @@ describe('machine profile page', () => {
         .getAllByRole('cell')
         .map((c) => c.textContent),
     ).toEqual(['24.00 EUR/h', '26.50 EUR/h (changed)']);
+  });
+
+  it('follows the unit chosen for this browser, and switching it here switches the whole page', async () => {
+    window.localStorage.setItem(LENGTH_UNIT_STORAGE_KEY, 'in');
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('fabricator')),
+      [`GET /api/machine-profiles/${PROFILE_ID}`]: () => json(200, profile),
+      [`GET /api/machine-profiles/${PROFILE_ID}/kerf-records`]: () =>
+        json(200, { items: [], total: 0, page: 1, pageSize: 1000 }),
+    });
+    const { user } = renderApp(`/machine-profiles/${PROFILE_ID}`, { token: 't' });
+    const table = await screen.findByRole('table', { name: 'Versions side by side' });
+    const cells = (name: string) =>
+      within(within(table).getByRole('rowheader', { name }).closest('tr')!)
+        .getAllByRole('cell')
+        .map((c) => c.textContent);
+    // The fixture's 600 × 400 mm bed, 400 mm/s and 0.08 mm kerf (1 in = 25.4 mm exactly).
+    expect(cells('Bed')).toEqual(['23.622 × 15.748 in', '23.622 × 15.748 in']);
+    expect(cells('Rapid speed')).toEqual(['15.75 in/s', '15.75 in/s']);
+    expect(cells('Kerf')).toEqual(['0.0031 in', '0.0031 in']);
+    await user.click(screen.getByRole('button', { name: 'mm' }));
+    expect(cells('Bed')).toEqual(['600 × 400 mm', '600 × 400 mm']);
+    expect(cells('Kerf')).toEqual(['0.08 mm', '0.08 mm']);
+    expect(window.localStorage.getItem(LENGTH_UNIT_STORAGE_KEY)).toBe('mm');
+    await user.click(screen.getByRole('button', { name: 'Change the draft' }));
+    expect(await screen.findByLabelText('Bed width (mm)')).toHaveValue(600);
   });
 
   it('says plainly that there is no such profile, with the way back and no retry, when the API knows none', async () => {

@@ -21,6 +21,8 @@ import { errorMessage, isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { formatDateTime } from '../../../lib/dates';
 import { isRecordId } from '../../../lib/record-id';
+import { useLengthUnit } from '../../../lib/use-length-unit';
+import { UnitToggle } from '../../../components/ui/unit-toggle';
 import { useCreateProfileVersion } from '../api/create-profile-version';
 import { useMachineProfile } from '../api/get-machine-profile';
 import { useMaterialChoices } from '../api/get-material-choices';
@@ -78,6 +80,8 @@ export function MachineProfileRoute() {
   const updateVersion = useUpdateProfileVersion(profileId);
   const submitVersion = useSubmitProfileVersion(profileId);
   const retireVersion = useRetireProfileVersion(profileId);
+  // Lengths and speeds in the unit this browser shows them in, as on the studio and job pages.
+  const [unit, setUnit] = useLengthUnit();
   const data = profile.data;
   const initial = useMemo(() => (data ? versionToFormValues(data, data.latest) : null), [data]);
 
@@ -149,6 +153,8 @@ export function MachineProfileRoute() {
       <Box sx={{ display: 'flex', alignItems: 'center', gap: 2, flexWrap: 'wrap', mb: 1 }}>
         <Typography variant="h1">{data.name}</Typography>
         <Chip label={KIND_LABELS[data.kind]} variant="outlined" />
+        <Box sx={{ flex: 1 }} />
+        <UnitToggle unit={unit} onUnit={setUnit} />
       </Box>
       <Typography color="text.secondary" sx={{ mb: 2 }} data-testid="profile-status">
         {approved
@@ -217,14 +223,14 @@ export function MachineProfileRoute() {
         <Typography variant="h2" sx={{ px: 2, pt: 2, fontSize: '1.25rem' }}>
           Versions
         </Typography>
-        <VersionComparison versions={data.versions} />
+        <VersionComparison versions={data.versions} unit={unit} />
       </Paper>
 
       <Paper variant="outlined" sx={{ p: 2, mb: 3 }}>
         <Typography variant="h2" sx={{ mb: 2, fontSize: '1.25rem' }}>
           Kerf history
         </Typography>
-        <KerfHistoryPanel profile={data} onAdopted={setNotice} />
+        <KerfHistoryPanel profile={data} unit={unit} onAdopted={setNotice} />
       </Paper>
 
       <Alert severity="warning" sx={{ mb: 2 }}>
@@ -235,6 +241,7 @@ export function MachineProfileRoute() {
       <ProfileFormDialog
         open={mode !== null}
         mode={mode ?? 'new-version'}
+        unit={unit}
         initial={initial}
         materials={materials.data?.items}
         materialsError={materials.error}

@@ -1,18 +1,21 @@
 import { MACHINE_PROFILE_KINDS, PROFILE_VERSION_STATES } from '@kerfwright/contracts';
+import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { DataTable } from '../../../components/data-table/data-table';
 import { labelled, SearchSelectFilterBar } from '../../../components/data-table/filter-bar';
 import { ListPage } from '../../../components/layouts/list-page';
 import { paths } from '../../../config/paths';
+import { UnitToggle } from '../../../components/ui/unit-toggle';
+import { useLengthUnit } from '../../../lib/use-length-unit';
 import { useCreateMachineProfile } from '../api/create-machine-profile';
 import { useMachineProfiles } from '../api/get-machine-profiles';
 import { useMaterialChoices } from '../api/get-material-choices';
 import { ProfileFormDialog } from '../components/profile-form-dialog';
 import { EMPTY_PROFILE, type ProfileFormValues, toVersionContent } from '../components/profile-form-schema';
 import { KIND_LABELS, STATE_LABELS } from '../components/profile-labels';
-import { PROFILE_COLUMNS } from '../components/profiles-table';
+import { profileColumns } from '../components/profiles-table';
 import { useProfilesSearchParams } from '../hooks/use-profiles-search-params';
 
 const SELECTS = {
@@ -36,6 +39,8 @@ export function MachineProfilesRoute() {
   const { params, query, set, tableProps } = useProfilesSearchParams();
   const profiles = useMachineProfiles(query);
   const [creating, setCreating] = useState(false);
+  const [unit, setUnit] = useLengthUnit();
+  const columns = useMemo(() => profileColumns(unit), [unit]);
   const materials = useMaterialChoices(creating);
   const create = useCreateMachineProfile();
   const submit = (v: ProfileFormValues) => {
@@ -50,15 +55,18 @@ export function MachineProfilesRoute() {
       title="Machine profiles"
       testId="machine-profiles-page"
       action={
-        <Button
-          variant="contained"
-          onClick={() => {
-            create.reset();
-            setCreating(true);
-          }}
-        >
-          New machine profile
-        </Button>
+        <Box sx={{ display: 'flex', gap: 2, alignItems: 'center', flexWrap: 'wrap' }}>
+          <UnitToggle unit={unit} onUnit={setUnit} />
+          <Button
+            variant="contained"
+            onClick={() => {
+              create.reset();
+              setCreating(true);
+            }}
+          >
+            New machine profile
+          </Button>
+        </Box>
       }
       intro="Each machine’s bed, speeds and cutting values per material, in numbered versions. Jobs use only an approved version; a new version is drafted, submitted and approved by a supervisor."
       filters={
@@ -75,7 +83,7 @@ export function MachineProfilesRoute() {
       table={
         <DataTable
           label="Machine profiles"
-          columns={PROFILE_COLUMNS}
+          columns={columns}
           rows={profiles.data?.items}
           rowKey={(p) => p.id}
           rowProps={(p) => ({ 'data-testid': `profile-${p.name}` })}
@@ -92,6 +100,7 @@ export function MachineProfilesRoute() {
       <ProfileFormDialog
         open={creating}
         mode="create"
+        unit={unit}
         initial={EMPTY_PROFILE}
         materials={materials.data?.items}
         materialsError={materials.error}

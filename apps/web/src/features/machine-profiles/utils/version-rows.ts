@@ -1,5 +1,12 @@
 import { type MachineProfileVersionView, type ProfileSettingView } from '@kerfwright/contracts';
-import { formatHourlyRate } from '../../../lib/units';
+import {
+  formatHourlyRate,
+  formatKerf,
+  formatQuantity,
+  formatSheetSize,
+  formatSpeed,
+  type LengthUnit,
+} from '../../../lib/units';
 
 /** One line of a side-by-side comparison: a machine value or one material's value, per version. */
 export interface VersionRow {
@@ -9,6 +16,8 @@ export interface VersionRow {
   label: string;
   /** One entry per version, in the order given; null where the version does not hold the value. */
   values: (string | null)[];
+  /** The same values as stored (millimetres), by which a change is told: shown ones may round alike. */
+  stored: unknown[];
   /** True when the versions do not all hold the same value. */
   changed: boolean;
 }
@@ -22,35 +31,46 @@ export interface VersionChange {
   after: string | null;
 }
 
-const SETTING_FIELDS: { field: keyof ProfileSettingView; label: string; unit: string }[] = [
-  { field: 'kerfMm', label: 'Kerf', unit: 'mm' },
-  { field: 'toolDiameterMm', label: 'Tool diameter', unit: 'mm' },
-  { field: 'cutSpeedMmS', label: 'Cut speed', unit: 'mm/s' },
-  { field: 'markSpeedMmS', label: 'Mark speed', unit: 'mm/s' },
-  { field: 'powerPct', label: 'Power', unit: '%' },
-  { field: 'passes', label: 'Passes', unit: '' },
-  { field: 'pierceTimeS', label: 'Pierce time', unit: 's' },
-  { field: 'spindleRpm', label: 'Spindle speed', unit: 'rpm' },
+type Format = (n: number, unit: LengthUnit) => string;
+
+const kerf: Format = formatKerf;
+const speed: Format = formatSpeed;
+const plain =
+  (quantity: string): Format =>
+  (n) =>
+    formatQuantity(n, quantity);
+
+/** The setting fields as shown: lengths and speeds in the reader's unit, the rest as they are. */
+const SETTING_FIELDS: { field: keyof ProfileSettingView; label: string; format: Format }[] = [
+  { field: 'kerfMm', label: 'Kerf', format: kerf },
+  { field: 'toolDiameterMm', label: 'Tool diameter', format: kerf },
+  { field: 'cutSpeedMmS', label: 'Cut speed', format: speed },
+  { field: 'markSpeedMmS', label: 'Mark speed', format: speed },
+  { field: 'powerPct', label: 'Power', format: plain('%') },
+  { field: 'passes', label: 'Passes', format: plain('') },
+  { field: 'pierceTimeS', label: 'Pierce time', format: plain('s') },
+  { field: 'spindleRpm', label: 'Spindle speed', format: plain('rpm') },
 ];
 
-/**
- * A value with its unit. Kerfs and tool diameters (mm) keep at least two decimals, so a column reads
- * 0.20, 0.18, 0.25 mm, not 0.2 beside 0.18; a value recorded to the thousandth keeps its third.
- */
-const withUnit = (n: number, unit: string) => {
-  if (unit === 'mm') {
-    const decimals = Math.min(3, Math.max(2, (String(n).split('.')[1] ?? '').length));
-    return `${n.toFixed(decimals)} mm`;
-  }
-  return unit ? `${n} ${unit}` : String(n);
-};
-
-function machineValues(v: MachineProfileVersionView): { key: string; label: string; value: string }[] {
+function machineValues(
+  v: MachineProfileVersionView,
+  unit: LengthUnit,
+): { key: string; label: string; value: string; raw: unknown }[] {
   return [
-    { key: 'bed', label: 'Bed', value: `${v.bedWidthMm} × ${v.bedHeightMm} mm` },
-    { key: 'rapid', label: 'Rapid speed', value: withUnit(v.rapidSpeedMmS, 'mm/s') },
-    { key: 'rate', label: 'Hourly rate', value: formatHourlyRate(v.hourlyRate, v.currency) },
-    { key: 'notes', label: 'Notes', value: v.notes },
+    {
+      key: 'bed',
+      label: 'Bed',
+      value: formatSheetSize({ widthMm: v.bedWidthMm, heightMm: v.bedHeightMm }, unit),
+      raw: `${v.bedWidthMm}×${v.bedHeightMm}`,
+    },
+    { key: 'rapid', label: 'Rapid speed', value: formatSpeed(v.rapidSpeedMmS, unit), raw: v.rapidSpeedMmS },
+    {
+      key: 'rate',
+      label: 'Hourly rate',
+      value: formatHourlyRate(v.hourlyRate, v.currency),
+      raw: `${v.hourlyRate} ${v.currency}`,
+    },
+    { key: 'notes', label: 'Notes', value: v.notes, raw: v.notes },
   ];
 }
 
@@ -58,18 +78,21 @@ function machineValues(v: MachineProfileVersionView): { key: string; label: stri
  * The rows of a side-by-side comparison of versions (columns = versions): the machine values, then each
  * material any version holds settings for, with only the setting fields some version uses.
  */
-export function versionRows(versions: readonly MachineProfileVersionView[]): VersionRow[] {
+export function versionRows(versions: readonly MachineProfileVersionView[], unit: LengthUnit): VersionRow[] {
   const rows: VersionRow[] = [];
-  const push = (key: string, section: string, label: string, values: (string | null)[]) =>
-    rows.push({ key, section, label, values, changed: new Set(values).size > 1 });
+  // Changed is told from the values as stored, not as shown: two kerfs a thousandth of a millimetre apart
+  // may read alike in inches, and are still a change.
+  const push = (key: string, section: string, label: string, values: (string | null)[], raw: unknown[]) =>
+    rows.push({ key, section, label, values, stored: raw, changed: new Set(raw).size > 1 });
 
-  const machine = versions.map(machineValues);
+  const machine = versions.map((v) => machineValues(v, unit));
   for (const [i, item] of (machine[0] ?? []).entries()) {
     push(
       `machine.${item.key}`,
       'Machine',
       item.label,
       machine.map((m) => m[i]?.value ?? null),
+      machine.map((m) => m[i]?.raw ?? null),
     );
   }
 
@@ -79,13 +102,14 @@ export function versionRows(versions: readonly MachineProfileVersionView[]): Ver
   }
   for (const [materialId, name] of materials) {
     const settings = versions.map((v) => v.settings.find((s) => s.materialId === materialId));
-    for (const { field, label, unit } of SETTING_FIELDS) {
-      const values = settings.map((s) => {
+    for (const { field, label, format } of SETTING_FIELDS) {
+      const raw = settings.map((s) => {
         const value = s?.[field];
-        return typeof value === 'number' ? withUnit(value, unit) : null;
+        return typeof value === 'number' ? value : null;
       });
-      if (values.every((x) => x === null)) continue;
-      push(`${materialId}.${field}`, name || 'Removed material', label, values);
+      if (raw.every((x) => x === null)) continue;
+      const values = raw.map((n) => (n === null ? null : format(n, unit)));
+      push(`${materialId}.${field}`, name || 'Removed material', label, values, raw);
     }
   }
   return rows;
@@ -95,9 +119,10 @@ export function versionRows(versions: readonly MachineProfileVersionView[]): Ver
 export function versionChanges(
   before: MachineProfileVersionView | null,
   after: MachineProfileVersionView,
+  unit: LengthUnit,
 ): VersionChange[] {
   if (before === null) {
-    return versionRows([after])
+    return versionRows([after], unit)
       .filter((r) => r.values[0])
       .map((r) => ({
         key: r.key,
@@ -107,7 +132,7 @@ export function versionChanges(
         after: r.values[0] ?? null,
       }));
   }
-  return versionRows([before, after])
+  return versionRows([before, after], unit)
     .filter((r) => r.changed)
     .map((r) => ({
       key: r.key,
