@@ -4,6 +4,7 @@ import {
   formatKerf,
   formatMinutes,
   formatMoney,
+  formatPercent,
   formatQuantity,
   formatRunLength,
   formatSheetSize,
@@ -66,6 +67,12 @@ describe('figures a workshop reads at a glance', () => {
     expect(formatSpeed(254, 'in')).toBe('10 in/s');
     // 1,200 mm/s = 47.244 in/s.
     expect(formatSpeed(1200, 'in')).toBe('47.24 in/s');
+  });
+
+  it('gives a share as a percentage to a tenth, as utilisation reads on every page', () => {
+    expect(formatPercent(0.875)).toBe('87.5 %');
+    expect(formatPercent(0.5)).toBe('50.0 %');
+    expect(formatPercent(Number.NaN)).toBe('—');
   });
 
   it('groups the thousands of any other quantity, and writes a bare count bare', () => {

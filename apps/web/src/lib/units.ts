@@ -37,6 +37,12 @@ export function formatQuantity(n: number, unit: string): string {
   return `${grouped(n, 0, 3)} ${unit}`.trimEnd();
 }
 
+/** A share as a percentage to a tenth ("87.5 %"), as utilisation is given on every page. */
+export function formatPercent(fraction: number): string {
+  if (!Number.isFinite(fraction)) return '—';
+  return `${grouped(fraction * 100, 1, 1)} %`;
+}
+
 /** A number with thousands grouped the way every page groups them ("1,234.5"). */
 function grouped(x: number, minDecimals: number, maxDecimals: number): string {
   return x.toLocaleString('en', { minimumFractionDigits: minDecimals, maximumFractionDigits: maxDecimals });

@@ -27,7 +27,7 @@ import { VersionChanges } from '../components/version-changes';
 import { WaitingSection } from '../components/waiting-section';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 import { countOf } from '../../../lib/plural';
-import { formatMinutes, formatMoney, formatSheetSize } from '../../../lib/units';
+import { formatMinutes, formatMoney, formatPercent, formatSheetSize } from '../../../lib/units';
 import { useLengthUnit } from '../../../lib/use-length-unit';
 import { formatDateTime } from '../../../lib/dates';
 
@@ -230,7 +230,7 @@ export function ApprovalsRoute() {
                 {prep ? (
                   <Typography variant="body2" color="text.secondary">
                     {countOf(prep.pieceCount, 'piece')} on {countOf(prep.sheetCount, 'sheet')} of{' '}
-                    {formatSheetSize(prep.sheet, unit)}, {(prep.utilisation * 100).toFixed(1)} % used
+                    {formatSheetSize(prep.sheet, unit)}, {formatPercent(prep.utilisation)} used
                     {prep.estimate
                       ? `; about ${formatMinutes(prep.estimate.minutes)}, ${formatMoney(prep.estimate.machineCost + (prep.estimate.materialCost ?? 0), prep.estimate.currency)}${prep.estimate.materialCost === null ? ` of machine time (no sheet price in ${prep.estimate.currency})` : ''}`
                       : ''}

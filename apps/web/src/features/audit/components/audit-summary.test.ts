@@ -83,6 +83,14 @@ describe('audit summaries', () => {
       after: adopted,
     });
     expect(line).toBe('Kerf record adopted into a draft (0.18 mm)');
+    // Written as every page writes a kerf: two decimals at least.
+    const tenth = auditSummary({
+      action: 'kerf-record.adopt',
+      entityType: 'kerf-record',
+      before: { ...record, kerfMm: 0.2 },
+      after: { ...adopted, kerfMm: 0.2 },
+    });
+    expect(tenth).toBe('Kerf record adopted into a draft (0.20 mm)');
     expect(line).not.toMatch(/c80d26af|adopted version id/);
 
     const updated = auditSummary({

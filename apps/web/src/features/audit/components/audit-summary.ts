@@ -1,5 +1,6 @@
 import { type AuditEventView } from '@kerfwright/contracts';
 import { isRecordId } from '../../../lib/record-id';
+import { formatKerf } from '../../../lib/units';
 
 /** What each kind of record is called on screen. */
 export const ENTITY_LABELS: Record<string, string> = {
@@ -182,7 +183,7 @@ export function auditSummary(e: Pick<AuditEventView, 'action' | 'entityType' | '
     details.push(`${n} file${n === 1 ? '' : 's'}`);
   }
   if (typeof after?.kerfMm === 'number' && e.entityType.startsWith('kerf'))
-    details.push(`${after.kerfMm} mm`);
+    details.push(formatKerf(after.kerfMm, 'mm'));
   if (details.length) line += ` (${details.join('; ')})`;
   return line;
 }

@@ -21,7 +21,7 @@ import { explainMaterialAndMachine, profilesFor, stockOfDesign } from './prepare
 import { kindLabel } from '../../../config/trade-labels';
 import { errorMessage } from '../../../lib/api-client';
 import { countOf } from '../../../lib/plural';
-import { formatLength, formatSheetSize, type LengthUnit } from '../../../lib/units';
+import { formatLength, formatMoney, formatSheetSize, type LengthUnit } from '../../../lib/units';
 import { useDesign } from '../../designs/api/get-design';
 
 export interface PrepareJobBody {
@@ -460,7 +460,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
             <NativeSelectField label="Sheet" name="sheetIndex" form={fields}>
               {material.stockSheets.map((s, i) => (
                 <option key={i} value={String(i)}>
-                  {`${formatSheetSize(s, props.unit ?? 'mm')} · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
+                  {`${formatSheetSize(s, props.unit ?? 'mm')} · ${formatMoney(s.pricePerSheet, s.currency)}`}
                 </option>
               ))}
             </NativeSelectField>

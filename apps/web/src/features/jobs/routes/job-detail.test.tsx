@@ -332,10 +332,11 @@ describe('job detail', () => {
     expect(screen.getByText('0.0065 in')).toBeInTheDocument();
   });
 
-  it('shows a kerf as recorded (0.09 mm, not 0.090), and a router job’s as the width of its cut', async () => {
+  it('shows a kerf as the machine profiles do (0.09 mm, 0.20 mm), and a router job’s as the width of its cut', async () => {
     for (const [machineKind, label, kerf, shown] of [
       ['laser', 'Measured kerf', 0.09, '0.09 mm'],
-      ['router', 'Measured cut width', 3.2, '3.2 mm'],
+      ['laser', 'Measured kerf', 0.2, '0.20 mm'],
+      ['router', 'Measured cut width', 3.2, '3.20 mm'],
     ] as const) {
       stubFetch({
         'GET /api/auth/me': () => json(200, userFixture('operator')),

@@ -23,12 +23,13 @@ import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { useLengthUnit } from '../../../lib/use-length-unit';
 import {
+  formatKerf,
   formatLength,
   formatMinutes,
   formatMoney,
+  formatPercent,
   formatRunLength,
   formatSheetSize,
-  MM_PER_INCH,
 } from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
@@ -132,10 +133,6 @@ function JobDetail({ job }: { job: JobDetailView }) {
   if (open !== opened) setOpen(open);
   const [unit, setUnit] = useLengthUnit();
   const fmt = (mm: number) => formatLength(mm, unit);
-  // Kerfs are recorded to the thousandth of a millimetre and shown as recorded (0.165 mm, 0.09 mm), as the
-  // kerf history and the record-cut form have them.
-  const fmtKerf = (mm: number) =>
-    unit === 'in' ? `${(mm / MM_PER_INCH).toFixed(4)} in` : `${Math.round(mm * 1000) / 1000} mm`;
   const prep = job.preparation;
 
   // A step taken moves the job on and the button that opened its dialog goes: once the dialog has closed,
@@ -319,7 +316,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
                 ['Sheets used', String(job.sheetsUsed ?? '—')],
                 [
                   prep?.machineKind === 'router' ? 'Measured cut width' : 'Measured kerf',
-                  job.measuredKerfMm === null ? '—' : fmtKerf(job.measuredKerfMm),
+                  job.measuredKerfMm === null ? '—' : formatKerf(job.measuredKerfMm, unit),
                 ],
               ]}
             />
@@ -346,7 +343,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
                   ],
                   ['Diameter', fmt(prep.diameterMm)],
                   ['Sheets', `${countOf(prep.sheetCount, 'sheet')} of ${formatSheetSize(prep.sheet, unit)}`],
-                  ['Utilisation', `${(prep.utilisation * 100).toFixed(1)} %`],
+                  ['Utilisation', formatPercent(prep.utilisation)],
                   ['Stock', `${fmt(prep.thicknessMm)} thick, cut on a ${prep.machineKind}`],
                   ...(prep.estimate
                     ? ([

@@ -6,6 +6,7 @@ import {
   formatLength,
   formatMinutes,
   formatMoney,
+  formatPercent,
   formatRunLength,
   formatSheetSize,
   type LengthUnit,
@@ -57,7 +58,7 @@ export const SheetLayoutView = memo(function SheetLayoutView({
       >
         <Figure label="Sheets" value={String(sheets.length)} />
         {first ? <Figure label="Sheet size" value={formatSheetSize(first, unit)} /> : null}
-        <Figure label="Utilisation" value={areaAll > 0 ? percent(areaUsed / areaAll) : '—'} />
+        <Figure label="Utilisation" value={areaAll > 0 ? formatPercent(areaUsed / areaAll) : '—'} />
         <Figure label="Cut length" value={formatRunLength(figures.cutLengthMm, unit)} />
         <Figure label="Pierces" value={String(figures.pierces)} />
         {estimate ? (
@@ -96,10 +97,6 @@ export const SheetLayoutView = memo(function SheetLayoutView({
   );
 });
 
-function percent(x: number): string {
-  return `${(x * 100).toFixed(1)} %`;
-}
-
 function Figure({ label, value }: { label: string; value: string }) {
   return (
     <Box>
@@ -136,7 +133,7 @@ function SheetDrawing({
       <Box
         component="svg"
         role="img"
-        aria-label={`${title}, ${colour}, ${fmt(w)} by ${fmt(h)}, ${countOf(sheet.pieces.length, 'piece')}, ${percent(sheet.utilisation)} used`}
+        aria-label={`${title}, ${colour}, ${fmt(w)} by ${fmt(h)}, ${countOf(sheet.pieces.length, 'piece')}, ${formatPercent(sheet.utilisation)} used`}
         viewBox={`${-stroke * 2} ${-stroke * 2} ${w + stroke * 4} ${h + stroke * 4}`}
         sx={{ width: '100%', height: 'auto', display: 'block' }}
       >
@@ -186,7 +183,7 @@ function SheetDrawing({
         })}
       </Box>
       <Typography component="figcaption" variant="body2" sx={{ mt: 0.5 }}>
-        {`${title} · ${colour} · ${countOf(sheet.pieces.length, 'piece')} · ${percent(sheet.utilisation)} used`}
+        {`${title} · ${colour} · ${countOf(sheet.pieces.length, 'piece')} · ${formatPercent(sheet.utilisation)} used`}
       </Typography>
     </Box>
   );

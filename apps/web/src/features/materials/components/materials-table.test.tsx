@@ -38,4 +38,19 @@ describe('the materials table', () => {
     expect(await headersAt(390)).toEqual(['Name', 'Laser', 'Change']);
     expect(screen.getByText('3 mm (measured 2.9 mm)')).toBeInTheDocument();
   });
+
+  it('gives a sheet price as money is given on every page, thousands grouped', async () => {
+    await tableHeadersAt(1280, {
+      label: 'Materials',
+      columns: materialColumns(vi.fn()),
+      rows: [
+        materialFixture({
+          stockSheets: [{ widthMm: 3050, heightMm: 1525, pricePerSheet: 1250, currency: 'EUR' }],
+        }),
+      ],
+      rowKey: (m) => m.id,
+      minWidth: 900,
+    });
+    expect(screen.getByText('3050 × 1525 mm · 1,250.00 EUR')).toBeInTheDocument();
+  });
 });

@@ -5,7 +5,7 @@ import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
 import { PhoneOnly } from '../../../components/ui/phone-only';
-import { formatSheetSize } from '../../../lib/units';
+import { formatMoney, formatSheetSize } from '../../../lib/units';
 import { FAMILY_LABELS } from './material-labels';
 
 type Column = DataTableColumn<MaterialView, MaterialSortField>;
@@ -19,7 +19,7 @@ function sheets(m: MaterialView) {
   if (m.stockSheets.length === 0) return '—';
   return m.stockSheets.map((s, i) => (
     <Box key={i} sx={{ whiteSpace: 'nowrap' }}>
-      {`${formatSheetSize(s, 'mm')} · ${s.pricePerSheet.toFixed(2)} ${s.currency}`}
+      {`${formatSheetSize(s, 'mm')} · ${formatMoney(s.pricePerSheet, s.currency)}`}
     </Box>
   ));
 }
