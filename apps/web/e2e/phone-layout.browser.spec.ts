@@ -106,3 +106,30 @@ describe(`Kerf history at phone width, in Chromium at ${BASE_URL}`, () => {
     expect(button!.x + button!.width).toBeLessThanOrEqual(fits.right + 1);
   });
 });
+
+describe(`The studio's actions, in Chromium at ${BASE_URL}`, () => {
+  it.each([
+    ['a phone', { width: 390, height: 844 }],
+    ['a desktop', { width: 1366, height: 768 }],
+  ])('says why a cut job cannot be requested right under its button, on %s', async (_, size) => {
+    await page.setViewportSize(size);
+    await signInToHome(page, demoUser('hobbyist').email, DEMO_PASSWORD);
+    await page.goto('/designs');
+    await page.getByRole('table', { name: 'Designs' }).locator('tbody a').first().click();
+    await page.getByTestId('design-studio').waitFor();
+    const name = page.getByLabel('Name', { exact: true });
+    await name.fill(`${await name.inputValue()} (edited)`);
+    const reason = page.getByTestId('request-blocked').filter({ hasText: 'cannot be requested yet' });
+    await reason.waitFor();
+    const button = await page.getByRole('button', { name: 'Request a cut job' }).boundingBox();
+    const line = await reason.boundingBox();
+    if (!button || !line) throw new Error('the button or its reason is not on screen');
+    // Just below the button (on a phone it sat under the title, a screen's height above the stacked actions)…
+    const gap = line.y - (button.y + button.height);
+    expect(gap).toBeGreaterThanOrEqual(0);
+    expect(gap).toBeLessThan(40);
+    // …and beside it, not across the page.
+    expect(line.x).toBeLessThan(button.x + button.width);
+    expect(line.x + line.width).toBeGreaterThan(button.x);
+  });
+});

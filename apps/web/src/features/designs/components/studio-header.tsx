@@ -47,28 +47,77 @@ export const StudioHeader = memo(function StudioHeader({
   canSave,
 }: StudioHeaderProps) {
   return (
-    <Stack direction={{ xs: 'column', md: 'row' }} spacing={2} sx={{ mb: 2, alignItems: { md: 'center' } }}>
+    <Stack
+      direction={{ xs: 'column', md: 'row' }}
+      spacing={2}
+      sx={{ mb: 2, alignItems: { md: 'flex-start' } }}
+    >
       <Box sx={{ flex: 1 }}>
         <Typography variant="h1">Design studio</Typography>
         <Typography color="text.secondary">
           {design ? `${design.name} · version ${design.version} · by ${design.ownerName}` : 'A new design'}
         </Typography>
-        {/* Said on the page, not only in the tooltip: a disabled button takes no focus, so a keyboard or
-            screen reader never meets the tooltip. */}
+      </Box>
+      {/* The actions, and under them why one is disabled: beside the button it explains at every width (under
+          the title it sat a screen away from the button on a phone, where the actions stack). */}
+      <Box sx={{ display: 'flex', flexDirection: 'column', gap: 1, alignItems: { md: 'flex-end' } }}>
+        <Stack direction={{ xs: 'column', md: 'row' }} spacing={2} sx={{ alignItems: { md: 'center' } }}>
+          <UnitToggle unit={unit} onUnit={onUnit} />
+          <Tooltip title={canSave ? '' : SAVE_NOT_YOURS} describeChild>
+            <Box component="span" sx={{ display: 'inline-flex' }} data-testid="save-wrapper">
+              <Button
+                ref={saveRef}
+                variant="contained"
+                onClick={onSave}
+                disabled={saving || !canSave}
+                sx={{ flex: 1 }}
+              >
+                {design ? 'Save' : 'Save design'}
+              </Button>
+            </Box>
+          </Tooltip>
+          {design ? (
+            <>
+              <Button variant="outlined" onClick={onDuplicate} disabled={duplicating}>
+                Duplicate
+              </Button>
+              {/* A disabled button takes no pointer events: the reason's tooltip sits on a wrapper. */}
+              <Tooltip title={requestBlocked ?? ''} describeChild>
+                <Box component="span" sx={{ display: 'inline-flex' }} data-testid="request-job-wrapper">
+                  <Button
+                    variant="outlined"
+                    color="secondary"
+                    disabled={requestBlocked !== null}
+                    onClick={onRequest}
+                    sx={{ flex: 1 }}
+                  >
+                    Request a cut job
+                  </Button>
+                </Box>
+              </Tooltip>
+            </>
+          ) : null}
+        </Stack>
+        {/* Said on the page, not only in the tooltips: a disabled button takes no focus, so a keyboard or
+            screen reader never meets its tooltip, and a phone has no hover. */}
         {canSave ? null : (
-          <Typography variant="body2" color="text.secondary" data-testid="save-not-yours">
+          <Typography
+            variant="body2"
+            color="text.secondary"
+            data-testid="save-not-yours"
+            sx={{ textAlign: { md: 'right' }, maxWidth: { md: '40rem' } }}
+          >
             {SAVE_NOT_YOURS}
           </Typography>
         )}
-        {/* Why "Request a cut job" is disabled, on the page for the same reason: a phone has no hover and a
-            disabled button no focus, so its tooltip alone reaches nobody there. Its line is kept while empty,
-            so the page does not jump when the first edit makes it appear. */}
+        {/* Why "Request a cut job" is disabled. Its line is kept while empty, so the page does not jump when
+            the first edit makes it appear. */}
         {design ? (
           <Typography
             variant="body2"
             color="text.secondary"
             data-testid="request-blocked"
-            sx={{ minHeight: '1.43em' }}
+            sx={{ minHeight: '1.43em', textAlign: { md: 'right' }, maxWidth: { md: '40rem' } }}
           >
             {requestBlocked !== null && !PASSING_REASONS.includes(requestBlocked)
               ? `A cut job cannot be requested yet. ${requestBlocked}.`
@@ -76,41 +125,6 @@ export const StudioHeader = memo(function StudioHeader({
           </Typography>
         ) : null}
       </Box>
-      <UnitToggle unit={unit} onUnit={onUnit} />
-      <Tooltip title={canSave ? '' : SAVE_NOT_YOURS} describeChild>
-        <Box component="span" sx={{ display: 'inline-flex' }} data-testid="save-wrapper">
-          <Button
-            ref={saveRef}
-            variant="contained"
-            onClick={onSave}
-            disabled={saving || !canSave}
-            sx={{ flex: 1 }}
-          >
-            {design ? 'Save' : 'Save design'}
-          </Button>
-        </Box>
-      </Tooltip>
-      {design ? (
-        <>
-          <Button variant="outlined" onClick={onDuplicate} disabled={duplicating}>
-            Duplicate
-          </Button>
-          {/* A disabled button takes no pointer events: the reason's tooltip sits on a wrapper. */}
-          <Tooltip title={requestBlocked ?? ''} describeChild>
-            <Box component="span" sx={{ display: 'inline-flex' }} data-testid="request-job-wrapper">
-              <Button
-                variant="outlined"
-                color="secondary"
-                disabled={requestBlocked !== null}
-                onClick={onRequest}
-                sx={{ flex: 1 }}
-              >
-                Request a cut job
-              </Button>
-            </Box>
-          </Tooltip>
-        </>
-      ) : null}
     </Stack>
   );
 });

@@ -246,9 +246,14 @@ describe('design studio', () => {
     expect(screen.getByTestId('request-blocked')).toHaveTextContent(
       /^A cut job cannot be requested yet\. The design has \d+ errors: see the Report tab\.$/,
     );
+    // Said after the button it explains, not before the actions under the title (where a phone, the actions
+    // stacked, showed it a screen away from the button); the browser test measures the distance.
+    expect(request.compareDocumentPosition(screen.getByTestId('request-blocked'))).toBe(
+      Node.DOCUMENT_POSITION_FOLLOWING,
+    );
   });
 
-  it('says nothing under the title while a sound saved design can be requested, and asks for a save after an edit', async () => {
+  it('says nothing under the request button while a sound saved design can be requested, and asks for a save after an edit', async () => {
     studioApi();
     renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
     const request = await screen.findByRole('button', { name: 'Request a cut job' });
