@@ -3,6 +3,8 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Box from '@mui/material/Box';
 import { Link } from 'react-router-dom';
+import { RouterLink } from '../../../components/ui/router-link';
+import { paths } from '../../../config/paths';
 import { DataTable, type DataTableColumn } from '../../../components/data-table/data-table';
 import { SearchFilter } from '../../../components/data-table/filter-bar';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
@@ -19,7 +21,7 @@ const COLUMNS: readonly DataTableColumn<DesignSummary, DesignSortField>[] = [
     id: 'name',
     header: 'Name',
     sortField: 'name',
-    render: (d) => <Link to={`/designs/${d.id}`}>{d.name}</Link>,
+    render: (d) => <RouterLink to={paths.design.getHref(d.id)}>{d.name}</RouterLink>,
   },
   { id: 'owner', header: 'Owner', render: (d) => d.ownerName },
   { id: 'solid', hideOnPhone: true, header: 'Solid', render: (d) => d.solidFileName ?? solidName(d.solid) },

@@ -13,7 +13,8 @@ import Paper from '@mui/material/Paper';
 import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { useEffect, useRef, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { useParams } from 'react-router-dom';
+import { RouterLink } from '../../../components/ui/router-link';
 import { ErrorPanel } from '../../../components/errors/error-panel';
 import { NotFoundPage } from '../../../components/errors/not-found-page';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
@@ -193,7 +194,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
       <Typography color="text.secondary" sx={{ mb: 2 }}>
         {/* A draft is requested by nobody (not sent yet, or the request was withdrawn): its maker owns it. */}
         {`${job.state === 'draft' ? 'Owner:' : 'Requested by'} ${job.requesterName} · ${countOf(job.quantity, 'copy', 'copies')} · `}
-        <Link to={`/designs/${job.designId}`}>open the design</Link>
+        <RouterLink to={paths.design.getHref(job.designId)}>open the design</RouterLink>
       </Typography>
       {job.returnReason && job.state === 'returned' ? (
         <Alert severity="error" sx={{ mb: 2 }} data-testid="return-reason">

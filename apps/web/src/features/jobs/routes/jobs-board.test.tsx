@@ -47,6 +47,19 @@ describe('jobs board', () => {
     expect(await screen.findByTestId('job-row-j-2')).toHaveTextContent('Ana Ruiz');
   });
 
+  it("links each job by its design's name in the app's own link style, as every other list does", async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      'GET /api/jobs': () =>
+        json(200, { items: [boardJob('j-1', 'requested', 'Jun Park')], total: 1, page: 1, pageSize: 25 }),
+    });
+    renderApp('/jobs', { token: 't' });
+    const link = await screen.findByRole('link', { name: 'Design j-1' });
+    expect(link).toHaveAttribute('href', '/jobs/j-1');
+    // The browser's own blue and visited purple stood out beside the themed links of the other lists.
+    expect(link).toHaveClass('MuiLink-root');
+  });
+
   it('heads the column of names "Owner", true of a draft too, which nobody has requested', async () => {
     // A draft whose request was withdrawn, beside a job that is requested.
     const withdrawn = boardJob('j-1', 'draft', 'Jun Park');

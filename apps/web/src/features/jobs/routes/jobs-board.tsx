@@ -3,7 +3,8 @@ import Stack from '@mui/material/Stack';
 import ToggleButton from '@mui/material/ToggleButton';
 import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
-import { Link } from 'react-router-dom';
+import { RouterLink } from '../../../components/ui/router-link';
+import { paths } from '../../../config/paths';
 import { DataTable, type DataTableColumn } from '../../../components/data-table/data-table';
 import { SearchFilter } from '../../../components/data-table/filter-bar';
 import { useTableSearchParams } from '../../../components/data-table/use-table-search-params';
@@ -34,7 +35,7 @@ const COLUMNS: readonly DataTableColumn<JobView, JobSortField>[] = [
     header: 'Design',
     render: (job) => (
       <>
-        <Link to={`/jobs/${job.id}`}>{job.designName}</Link>
+        <RouterLink to={paths.job.getHref(job.id)}>{job.designName}</RouterLink>
         {/* Below md the copies and created columns go: said under the name instead, so two jobs of one
             design still read apart. */}
         <Typography
