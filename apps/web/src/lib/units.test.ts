@@ -9,6 +9,7 @@ import {
   formatRunLength,
   formatSheetSize,
   formatSpeed,
+  formatStockThickness,
 } from './units';
 
 describe('figures a workshop reads at a glance', () => {
@@ -80,5 +81,13 @@ describe('figures a workshop reads at a glance', () => {
     expect(formatQuantity(0.5, 's')).toBe('0.5 s');
     expect(formatQuantity(80, '%')).toBe('80 %');
     expect(formatQuantity(2, '')).toBe('2');
+  });
+
+  it('gives a stock thickness as stock is listed, or in inches to three places', () => {
+    expect(formatStockThickness(3, 'mm')).toBe('3 mm');
+    expect(formatStockThickness(2.9, 'mm')).toBe('2.9 mm');
+    expect(formatStockThickness(0.42, 'mm')).toBe('0.42 mm');
+    // 3 mm = 0.1181 in (1 in = 25.4 mm exactly).
+    expect(formatStockThickness(3, 'in')).toBe('0.118 in');
   });
 });

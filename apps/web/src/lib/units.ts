@@ -62,6 +62,16 @@ export function formatSheetSize(sheet: { widthMm: number; heightMm: number }, un
 }
 
 /**
+ * A stock thickness as stock is listed: millimetres as given, to a hundredth without trailing zeros ("3 mm",
+ * "2.9 mm"); inches to three places, as formatLength gives them ("0.118 in").
+ */
+export function formatStockThickness(mm: number, unit: LengthUnit): string {
+  if (!Number.isFinite(mm)) return '—';
+  if (unit === 'in') return formatLength(mm, unit);
+  return `${Math.round(mm * 100) / 100} mm`;
+}
+
+/**
  * A total length along the cuts, to a tenth with thousands grouped, so that a job's cut length reads at a
  * glance and alike on every page: millimetres (inches) up to 10 m (100 ft), then metres (feet)
  * ("7,029.4 mm", "1,238.8 m"; "636.9 in", "4,064.5 ft"), not "1238848.2 mm" or "636.906 in".

@@ -7,6 +7,8 @@ import { renderApp, renderWithProviders } from '../../../testing/render-app';
 import { stubScreenWidth } from '../../../testing/screen-width';
 import { MaterialFormDialog } from './material-form-dialog';
 import { toMaterialRequest } from './material-form-schema';
+import { type LengthUnit } from '../../../lib/units';
+import { materialFixture } from '../../../testing/fixtures';
 
 // Rows in the spirit of published laser-safety material lists: PVC gives off hydrogen chloride and never goes
 // on a laser; plywood may (common practice).
@@ -27,10 +29,12 @@ function renderDialog(
   onSubmit = vi.fn(),
   material: MaterialView | null = null,
   canLiftLaserRestriction = false,
+  unit: LengthUnit = 'mm',
 ) {
   const utils = renderWithProviders(
     <MaterialFormDialog
       open
+      unit={unit}
       material={material}
       canLiftLaserRestriction={canLiftLaserRestriction}
       hazards={hazards}
@@ -125,6 +129,35 @@ describe('material form, currency', () => {
     expect(screen.queryByText('A three-letter currency code such as EUR')).not.toBeInTheDocument();
     expect(toMaterialRequest(onSubmit.mock.calls[0]![0]).stockSheets).toEqual([
       { widthMm: 600, heightMm: 400, pricePerSheet: 9.5, currency: 'USD' },
+    ]);
+  });
+});
+
+// 1 in = 25.4 mm exactly (international yard and pound agreement, 1959).
+describe('the material form in inches', () => {
+  it('shows a material in inches and saves what is typed in millimetres', async () => {
+    const { user, onSubmit } = renderDialog(
+      vi.fn(),
+      materialFixture({
+        nominalThicknessMm: 3.175,
+        stockSheets: [{ widthMm: 609.6, heightMm: 406.4, pricePerSheet: 14.5, currency: 'EUR' }],
+      }),
+      false,
+      'in',
+    );
+    expect(await screen.findByLabelText('Nominal thickness (in)')).toHaveValue(0.125);
+    expect(screen.getByLabelText('Width (in)')).toHaveValue(24);
+    expect(screen.getByLabelText('Height (in)')).toHaveValue(16);
+    expect(screen.queryByLabelText(/\(mm/)).not.toBeInTheDocument();
+    await user.type(screen.getByLabelText('Measured thickness (in, optional)'), '0.12');
+    await user.clear(screen.getByLabelText('Height (in)'));
+    await user.type(screen.getByLabelText('Height (in)'), '12');
+    await user.click(screen.getByRole('button', { name: 'Save changes' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalled());
+    const sent = toMaterialRequest(onSubmit.mock.calls[0]![0]);
+    expect(sent).toMatchObject({ nominalThicknessMm: 3.175, measuredThicknessMm: 3.048 });
+    expect(sent.stockSheets).toEqual([
+      { widthMm: 609.6, heightMm: 304.8, pricePerSheet: 14.5, currency: 'EUR' },
     ]);
   });
 });

@@ -21,7 +21,9 @@ import { Controller, type Path, useFieldArray, useForm, useWatch } from 'react-h
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField, upperCased } from '../../../components/ui/form-text-field';
 import { NativeSelectField } from '../../../components/ui/native-select-field';
+import { LengthField } from '../../../components/ui/length-field';
 import { NumberField } from '../../../components/ui/number-field';
+import { type LengthUnit } from '../../../lib/units';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import {
   EMPTY_STOCK_SHEET,
@@ -50,6 +52,8 @@ interface MaterialFormDialogProps extends FormDialogBaseProps<MaterialFormValues
   hazards: readonly MaterialHazard[] | undefined;
   /** A supervisor may put a material kept off the laser back on it; others only keep it off (the API agrees). */
   canLiftLaserRestriction: boolean;
+  /** The unit thicknesses and sheet sizes are typed in; the form keeps millimetres. */
+  unit: LengthUnit;
 }
 
 /** Adds or changes a material of the library; the laser rules follow the workshop's hazard table. */
@@ -138,8 +142,16 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
           </NativeSelectField>
         </Box>
         <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr 1fr' } }}>
-          <NumberField label="Nominal thickness (mm)" name="nominalThicknessMm" form={fields} />
-          <NumberField
+          <LengthField
+            label="Nominal thickness (mm)"
+            name="nominalThicknessMm"
+            form={fields}
+            control={control}
+            unit={props.unit}
+          />
+          <LengthField
+            control={control}
+            unit={props.unit}
             label="Measured thickness (mm, optional)"
             name="measuredThicknessMm"
             form={fields}
@@ -188,19 +200,23 @@ export function MaterialFormDialog(props: MaterialFormDialogProps) {
                     gridTemplateColumns: { xs: '1fr 1fr', sm: '1fr 1fr 1fr 0.7fr auto' },
                   }}
                 >
-                  <NumberField
+                  <LengthField
                     id={`sheet-${i}-width`}
                     size="small"
                     label="Width (mm)"
                     name={`stockSheets.${i}.widthMm`}
                     form={fields}
+                    control={control}
+                    unit={props.unit}
                   />
-                  <NumberField
+                  <LengthField
                     id={`sheet-${i}-height`}
                     size="small"
                     label="Height (mm)"
                     name={`stockSheets.${i}.heightMm`}
                     form={fields}
+                    control={control}
+                    unit={props.unit}
                   />
                   <NumberField
                     id={`sheet-${i}-price`}

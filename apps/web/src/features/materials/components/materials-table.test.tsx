@@ -7,7 +7,7 @@ import { materialColumns } from './materials-table';
 const headersAt = (px: number) =>
   tableHeadersAt(px, {
     label: 'Materials',
-    columns: materialColumns(vi.fn()),
+    columns: materialColumns('mm', vi.fn()),
     rows: [materialFixture({ measuredThicknessMm: 2.9 })],
     rowKey: (m) => m.id,
     minWidth: 900,
@@ -42,7 +42,7 @@ describe('the materials table', () => {
   it('gives a sheet price as money is given on every page, thousands grouped', async () => {
     await tableHeadersAt(1280, {
       label: 'Materials',
-      columns: materialColumns(vi.fn()),
+      columns: materialColumns('mm', vi.fn()),
       rows: [
         materialFixture({
           stockSheets: [{ widthMm: 3050, heightMm: 1525, pricePerSheet: 1250, currency: 'EUR' }],
@@ -52,5 +52,19 @@ describe('the materials table', () => {
       minWidth: 900,
     });
     expect(screen.getByText('3050 × 1525 mm · 1,250.00 EUR')).toBeInTheDocument();
+  });
+
+  it('gives thicknesses and sheet sizes in the unit the reader chose (1 in = 25.4 mm exactly)', async () => {
+    await tableHeadersAt(1280, {
+      label: 'Materials',
+      columns: materialColumns('in', vi.fn()),
+      rows: [materialFixture({ measuredThicknessMm: 2.9 })],
+      rowKey: (m) => m.id,
+      minWidth: 900,
+    });
+    const table = screen.getByRole('table', { name: 'Materials' });
+    // 3 mm = 0.118 in, 2.9 mm = 0.114 in; a 600 × 400 mm sheet is 23.622 × 15.748 in.
+    expect(table).toHaveTextContent('0.118 in (measured 0.114 in)');
+    expect(table).toHaveTextContent('23.622 × 15.748 in · 14.50 EUR');
   });
 });

@@ -5,26 +5,28 @@ import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import { type DataTableColumn } from '../../../components/data-table/data-table';
 import { PhoneOnly } from '../../../components/ui/phone-only';
-import { formatMoney, formatSheetSize } from '../../../lib/units';
+import { formatMoney, formatSheetSize, formatStockThickness, type LengthUnit } from '../../../lib/units';
 import { FAMILY_LABELS } from './material-labels';
 
 type Column = DataTableColumn<MaterialView, MaterialSortField>;
 
-function thickness(m: MaterialView): string {
-  const nominal = `${m.nominalThicknessMm} mm`;
-  return m.measuredThicknessMm === null ? nominal : `${nominal} (measured ${m.measuredThicknessMm} mm)`;
+function thickness(m: MaterialView, unit: LengthUnit): string {
+  const nominal = formatStockThickness(m.nominalThicknessMm, unit);
+  return m.measuredThicknessMm === null
+    ? nominal
+    : `${nominal} (measured ${formatStockThickness(m.measuredThicknessMm, unit)})`;
 }
 
-function sheets(m: MaterialView) {
+function sheets(m: MaterialView, unit: LengthUnit) {
   if (m.stockSheets.length === 0) return '—';
   return m.stockSheets.map((s, i) => (
     <Box key={i} sx={{ whiteSpace: 'nowrap' }}>
-      {`${formatSheetSize(s, 'mm')} · ${formatMoney(s.pricePerSheet, s.currency)}`}
+      {`${formatSheetSize(s, unit)} · ${formatMoney(s.pricePerSheet, s.currency)}`}
     </Box>
   ));
 }
 
-const COLUMNS: readonly Column[] = [
+const columnsIn = (unit: LengthUnit): readonly Column[] => [
   {
     id: 'family',
     hideOnTablet: true,
@@ -46,7 +48,7 @@ const COLUMNS: readonly Column[] = [
           </Typography>
         ) : null}
         {/* On a phone the Thickness column goes: the thickness is said under the name. */}
-        <PhoneOnly>{thickness(m)}</PhoneOnly>
+        <PhoneOnly>{thickness(m, unit)}</PhoneOnly>
       </>
     ),
   },
@@ -56,7 +58,7 @@ const COLUMNS: readonly Column[] = [
     header: 'Thickness',
     sortField: 'nominalThicknessMm',
     cellSx: { whiteSpace: 'nowrap' },
-    render: thickness,
+    render: (m) => thickness(m, unit),
   },
   { id: 'colours', hideOnTablet: true, header: 'Colours', render: (m) => m.colours.join(', ') || '—' },
   {
@@ -64,7 +66,7 @@ const COLUMNS: readonly Column[] = [
     hideOnTablet: true,
     header: 'Stock sheets',
     cellSx: { fontSize: '0.8125rem' },
-    render: sheets,
+    render: (m) => sheets(m, unit),
   },
   {
     id: 'laser',
@@ -93,13 +95,18 @@ const COLUMNS: readonly Column[] = [
 ];
 
 /**
- * One row per material (a material kept off the laser says so in red, with its reason), with a Change
+ * One row per material (a material kept off the laser says so in red, with its reason), its thickness and
+ * sheet sizes in the reader's unit, with a Change
  * button per row for those who may edit.
  */
-export function materialColumns(onEdit?: (material: MaterialView) => void): readonly Column[] {
-  if (!onEdit) return COLUMNS;
+export function materialColumns(
+  unit: LengthUnit,
+  onEdit?: (material: MaterialView) => void,
+): readonly Column[] {
+  const columns = columnsIn(unit);
+  if (!onEdit) return columns;
   return [
-    ...COLUMNS,
+    ...columns,
     {
       id: 'change',
       header: 'Change',

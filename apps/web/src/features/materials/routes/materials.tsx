@@ -1,5 +1,6 @@
 import { type MaterialView } from '@kerfwright/contracts';
 import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import { useState } from 'react';
 import { DataTable } from '../../../components/data-table/data-table';
@@ -15,6 +16,8 @@ import { materialColumns, materialRowSx } from '../components/materials-table';
 import { useMaterialsSearchParams } from '../hooks/use-materials-search-params';
 import { useUser } from '../../../lib/auth';
 import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
+import { UnitToggle } from '../../../components/ui/unit-toggle';
+import { useLengthUnit } from '../../../lib/use-length-unit';
 
 /** Fabricators and supervisors: the workshop's materials, their stock and whether they may go on a laser. */
 export function MaterialsRoute() {
@@ -27,6 +30,8 @@ export function MaterialsRoute() {
   // undefined: closed; null: adding; a material: changing it.
   const [editing, setEditing] = useState<MaterialView | null | undefined>(undefined);
   const [notice, setNotice] = useState<string | null>(null);
+  // Thicknesses and sheet sizes in the unit this browser shows lengths in, as on every other page.
+  const [unit, setUnit] = useLengthUnit();
 
   const mutation = editing ? change : create;
 
@@ -64,9 +69,12 @@ export function MaterialsRoute() {
       maxWidth={1280}
       testId="materials-page"
       action={
-        <Button variant="contained" onClick={() => open(null)}>
-          Add a material
-        </Button>
+        <Box sx={{ display: 'flex', gap: 2, alignItems: 'center', flexWrap: 'wrap' }}>
+          <UnitToggle unit={unit} onUnit={setUnit} />
+          <Button variant="contained" onClick={() => open(null)}>
+            Add a material
+          </Button>
+        </Box>
       }
       intro="The sheet stock the workshop cuts: thickness, colours, sheet sizes and prices. A material kept off the laser is marked in red with its reason, and cannot be prepared for a laser job."
       notice={
@@ -84,7 +92,7 @@ export function MaterialsRoute() {
       table={
         <DataTable
           label="Materials"
-          columns={materialColumns(open)}
+          columns={materialColumns(unit, open)}
           rows={materials.data?.items}
           rowKey={(m) => m.id}
           rowProps={(m) => ({ 'data-testid': `material-${m.name}` })}
@@ -102,6 +110,7 @@ export function MaterialsRoute() {
       <MaterialFormDialog
         open={editing !== undefined}
         material={editing ?? null}
+        unit={unit}
         hazards={hazards.data}
         canLiftLaserRestriction={user.role === 'supervisor'}
         busy={mutation.isPending}
