@@ -896,6 +896,127 @@ describe('jobs through their states', () => {
     );
   });
 
+  /** The operator's safety view of a job, and the acknowledgement body that view asks for. */
+  async function safetyRead(jobId: string, reader = users.operator) {
+    const view = (await ctx.http.get(`/api/jobs/${jobId}/safety`).set(auth(reader)).expect(200)).body as {
+      notices: { id: string; version: number }[];
+      localRules: { version: number } | null;
+      preparationId: string | null;
+      acknowledged: boolean;
+    };
+    const body = {
+      notices: view.notices.map((n) => ({ id: n.id, version: n.version })),
+      localRulesVersion: view.localRules?.version ?? null,
+      preparationId: view.preparationId,
+    };
+    return { view, body };
+  }
+
+  it('binds an acknowledgement to the preparation it was read for: prepared again, the files need a fresh one', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    const first = await safetyRead(job.id);
+    expect(first.view.preparationId).toMatch(/^[1-9][0-9]*$/);
+    await ctx.http
+      .post(`/api/jobs/${job.id}/safety/acknowledge`)
+      .set(auth(users.operator))
+      .send(first.body)
+      .expect(200);
+    // Prepared again on the same material and machine: the same notice versions, another preparation.
+    await act(users.fabricator, job.id, 'prepare', { ...prepareBody(), marginMm: 12 });
+    const second = await safetyRead(job.id);
+    expect(second.body.notices).toEqual(first.body.notices);
+    expect(second.body.localRulesVersion).toBe(first.body.localRulesVersion);
+    expect(second.view.preparationId).not.toBe(first.view.preparationId);
+    expect(second.view.acknowledged).toBe(false);
+    // What was read for the first preparation is refused, and nothing is recorded.
+    const before = await countRows(ctx, 'safety_acknowledgements');
+    const stale = await ctx.http
+      .post(`/api/jobs/${job.id}/safety/acknowledge`)
+      .set(auth(users.operator))
+      .send(first.body)
+      .expect(409);
+    expectErrorBody(stale.body, 409, 'SAFETY.PREPARATION_CHANGED');
+    expect(stale.body.message).toMatch(/prepared again since you read its notices/);
+    expect(stale.body.details).toEqual({ preparationId: second.view.preparationId });
+    expect(await countRows(ctx, 'safety_acknowledgements')).toBe(before);
+    // Approved and released as prepared now: no file and no cut on the first preparation's acknowledgement.
+    await act(users.supervisor, job.id, 'approve');
+    const pack = await releaseJob(ctx, users.fabricator, job.id);
+    const file = pack.files[0]!.name;
+    const refused = await ctx.http
+      .get(`/api/exports/${pack.id}/files/${file}`)
+      .set(auth(users.operator))
+      .expect(403);
+    expectErrorBody(refused.body, 403, 'SAFETY.ACKNOWLEDGEMENT_REQUIRED');
+    const cut = await act(users.operator, job.id, 'cut', { actualMinutes: 9, sheetsUsed: 1 }, 409);
+    expectErrorBody(cut.body, 409, 'SAFETY.ACKNOWLEDGEMENT_REQUIRED');
+    await ctx.http
+      .post(`/api/jobs/${job.id}/safety/acknowledge`)
+      .set(auth(users.operator))
+      .send(second.body)
+      .expect(200);
+    await ctx.http.get(`/api/exports/${pack.id}/files/${file}`).set(auth(users.operator)).expect(200);
+  });
+
+  it('refuses an acknowledgement read before a preparation that lands while it is sent (409, never counted)', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    const read = await safetyRead(job.id);
+    /** Whether some statement waits for a lock and its text matches `like`. */
+    const waiting = async (like: string) =>
+      (
+        await ctx.db.query(
+          `SELECT 1 FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
+          [like],
+        )
+      ).length > 0;
+    const until = async (what: string, holds: () => Promise<boolean>) => {
+      const end = Date.now() + 30_000;
+      while (!(await holds())) {
+        if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+        await new Promise((r) => setTimeout(r, 50));
+      }
+    };
+    // Holding off the audit trail stops the second preparation after it has written the job and its prepare
+    // transition (stamped with its transaction's start), before it commits: then the acknowledgement is sent.
+    const hold = ctx.db.createQueryRunner();
+    await hold.connect();
+    await hold.startTransaction();
+    let prepared: Promise<{ status: number }> | undefined;
+    let acknowledged: Promise<{ status: number; body: Record<string, unknown> }> | undefined;
+    try {
+      await hold.query(`LOCK TABLE audit_events IN SHARE MODE`);
+      const version = (await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.supervisor)).expect(200)).body
+        .version as number;
+      prepared = Promise.resolve(
+        ctx.http
+          .post(`/api/jobs/${job.id}/prepare`)
+          .set(auth(users.fabricator))
+          .send({ ...prepareBody(), marginMm: 14, version }),
+      );
+      await until('the preparation to wait on the audit trail', () => waiting('%INSERT INTO%audit_events%'));
+      acknowledged = Promise.resolve(
+        ctx.http.post(`/api/jobs/${job.id}/safety/acknowledge`).set(auth(users.operator)).send(read.body),
+      );
+      // It waits for the preparation to end, and then reads it.
+      await until('the acknowledgement to wait for it', () => waiting('%FROM jobs WHERE id = $1 FOR SHARE%'));
+    } finally {
+      await hold.rollbackTransaction();
+      await hold.release();
+    }
+    expect((await prepared).status).toBe(200);
+    const ack = await acknowledged;
+    expect(ack.status).toBe(409);
+    expectErrorBody(ack.body, 409, 'SAFETY.PREPARATION_CHANGED');
+    const now = await safetyRead(job.id);
+    expect(now.view.preparationId).not.toBe(read.view.preparationId);
+    expect(ack.body.details).toEqual({ preparationId: now.view.preparationId });
+    expect(now.view.acknowledged).toBe(false);
+  });
+
   it('lets only someone who acknowledged the job’s current safety notices record its cut (409 otherwise)', async () => {
     const job = await releasedAndAcknowledged();
     // A second operator, who never acknowledged, and a supervisor, who did not either.

@@ -719,6 +719,7 @@ describe('role matrix: every route × every role', () => {
               version: n.version,
             })),
             localRulesVersion: s.localRules?.version ?? null,
+            preparationId: s.preparationId,
           },
         };
       },

@@ -145,43 +145,59 @@ describe('safety notices, local rules and acknowledgements', () => {
           version: n.version,
         })),
         localRulesVersion: early.localRules?.version ?? null,
+        preparationId: '1',
       })
       .expect(409);
     expectErrorBody(blanket.body, 409, 'SAFETY.JOB_NOT_PREPARED');
-    await ctx.db.query(
-      `UPDATE jobs SET state = 'released', material_id = $2, profile_version_id = $3 WHERE id = $1`,
-      [j.body.id, w.acrylicId, w.laserVersionId],
-    );
+    expect(early.preparationId).toBeNull();
+    const requested = (await ctx.http.get(`/api/jobs/${j.body.id}`).set(auth(u.fabricator)).expect(200)).body;
+    await ctx.http
+      .post(`/api/jobs/${j.body.id}/prepare`)
+      .set(auth(u.fabricator))
+      .send({
+        materialId: w.acrylicId,
+        profileVersionId: w.laserVersionId,
+        colours: ['clear'],
+        version: requested.version,
+      })
+      .expect(200);
     const view = (await ctx.http.get(`/api/jobs/${j.body.id}/safety`).set(auth(u.operator)).expect(200)).body;
     expect(view).toMatchObject({ machineKind: 'co2-laser', materialFamily: 'acrylic', acknowledged: false });
     const refs = view.notices.map((n: { id: string; version: number }) => ({ id: n.id, version: n.version }));
     const rulesVersion = view.localRules?.version ?? null;
+    const preparationId = view.preparationId;
     // A hobbyist cannot acknowledge for the operators.
     await ctx.http
       .post(`/api/jobs/${j.body.id}/safety/acknowledge`)
       .set(auth(u.hobbyist))
-      .send({ notices: refs, localRulesVersion: rulesVersion })
+      .send({ notices: refs, localRulesVersion: rulesVersion, preparationId })
       .expect(403);
     const before = await countRows(ctx, 'safety_acknowledgements');
     const stale = await ctx.http
       .post(`/api/jobs/${j.body.id}/safety/acknowledge`)
       .set(auth(u.operator))
-      .send({ notices: refs.slice(1), localRulesVersion: rulesVersion })
+      .send({ notices: refs.slice(1), localRulesVersion: rulesVersion, preparationId })
       .expect(409);
     expectErrorBody(stale.body, 409, 'SAFETY.STALE_ACKNOWLEDGEMENT');
     expect(await countRows(ctx, 'safety_acknowledgements')).toBe(before);
     const ok = await ctx.http
       .post(`/api/jobs/${j.body.id}/safety/acknowledge`)
       .set(auth(u.operator))
-      .send({ notices: refs, localRulesVersion: rulesVersion })
+      .send({ notices: refs, localRulesVersion: rulesVersion, preparationId })
       .expect(200);
     expect(ok.body.acknowledged).toBe(true);
-    const rows: { notice_versions: unknown; user_id: string }[] = await ctx.db.query(
-      `SELECT notice_versions, user_id FROM safety_acknowledgements WHERE job_id = $1`,
+    const rows: { notice_versions: unknown; user_id: string; preparation_id: string }[] = await ctx.db.query(
+      `SELECT notice_versions, user_id, preparation_id FROM safety_acknowledgements WHERE job_id = $1`,
       [j.body.id],
     );
     expect(rows).toHaveLength(1);
     expect(rows[0]!.user_id).toBe(u.operator.id);
+    // Stored with the preparation it was read for: the job's prepare transition.
+    const [prepare] = await ctx.db.query(
+      `SELECT id FROM job_transitions WHERE job_id = $1 AND action = 'prepare'`,
+      [j.body.id],
+    );
+    expect(rows[0]!.preparation_id).toBe(prepare.id);
     expect(rows[0]!.notice_versions).toEqual(refs);
     // Another hobbyist does not see the job at all.
     const other = await createUser(ctx, 'hobbyist');

@@ -376,7 +376,10 @@ async function seedJob(
     const versions =
       ack.notices.length > 0 ? ack.notices : notices.map((n) => ({ id: n.id, version: n.version }));
     await m.query(
-      `INSERT INTO safety_acknowledgements (job_id, user_id, notice_versions, local_rules_version) VALUES ($1, $2, $3, 1)`,
+      // For the job's preparation in effect (its latest prepare), as the API records one.
+      `INSERT INTO safety_acknowledgements (job_id, user_id, notice_versions, local_rules_version, preparation_id)
+       VALUES ($1, $2, $3, 1,
+               (SELECT max(t.id) FROM job_transitions t WHERE t.job_id = $1 AND t.action = 'prepare'))`,
       [jobId, idOf(ids.users, ack.by, 'user'), JSON.stringify(versions)],
     );
   }

@@ -215,7 +215,12 @@ export interface JobSafetyView {
   materialFamily: MaterialFamily | null;
   notices: SafetyNotice[];
   localRules: LocalRulesView | null;
-  /** Whether the caller has acknowledged exactly these notice versions and local rules. */
+  /**
+   * The job's preparation in effect (its latest `prepare`), as an opaque id: the notices are for the material
+   * and machine it chose, and an acknowledgement names it. Null before the job is first prepared.
+   */
+  preparationId: string | null;
+  /** Whether the caller has acknowledged exactly these notice versions and local rules for this preparation. */
   acknowledged: boolean;
   acknowledgedAt: string | null;
 }
@@ -223,4 +228,9 @@ export interface JobSafetyView {
 export interface AcknowledgeSafetyRequest {
   notices: NoticeVersionRef[];
   localRulesVersion: number | null;
+  /**
+   * The `preparationId` of the view that was read: a job prepared again since gets 409
+   * SAFETY.PREPARATION_CHANGED (its material, machine or kerf may differ), never an acknowledgement it did not see.
+   */
+  preparationId: string;
 }

@@ -88,7 +88,7 @@ export class SafetyController {
   @ApiOkResponse({ type: JobSafetyResponse, description: 'The job’s safety view, now acknowledged' })
   @ApiConflictResponse({
     description:
-      'SAFETY.STALE_ACKNOWLEDGEMENT (the notices or local rules changed since they were read) or SAFETY.JOB_NOT_PREPARED (the job has no machine and material yet, so no notices of its own)',
+      'SAFETY.STALE_ACKNOWLEDGEMENT (the notices or local rules changed since they were read), SAFETY.PREPARATION_CHANGED (the job was prepared again since its notices were read) or SAFETY.JOB_NOT_PREPARED (the job has no machine and material yet, so no notices of its own)',
   })
   acknowledge(
     @CurrentUser() u: AuthUser,

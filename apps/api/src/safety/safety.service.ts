@@ -158,8 +158,8 @@ export class SafetyService {
   }
 
   /**
-   * The notices that apply to a job's machine and material, and whether the caller acknowledged them since the
-   * job was last prepared.
+   * The notices that apply to a job's machine and material, and whether the caller acknowledged them for the
+   * job's preparation in effect.
    */
   async forJob(
     user: AuthUser,
@@ -170,21 +170,22 @@ export class SafetyService {
     if (!job || !canReadJob(user, { requesterId: job.requester_id, state: job.state as JobState })) {
       throw notFound('JOB', 'No such job');
     }
+    const preparationId = job.preparation_id;
+    // Only for the preparation in effect: a job prepared again (another batch, material, machine or kerf) is
+    // read again before it is cut, even when its notices happen to be the same versions.
     const acks: {
       notice_versions: { id: string; version: number }[];
       local_rules_version: number | null;
       created_at: Date;
-    }[] = await m.query(
-      // Only since the job's last preparation: a job returned and prepared again (another batch, another
-      // machine) is read again before it is cut.
-      `SELECT a.notice_versions, a.local_rules_version, a.created_at FROM safety_acknowledgements a
-        WHERE a.job_id = $1 AND a.user_id = $2
-          AND a.created_at >= COALESCE(
-                (SELECT max(t.created_at) FROM job_transitions t WHERE t.job_id = $1 AND t.action = 'prepare'),
-                '-infinity')
-        ORDER BY a.created_at DESC LIMIT 1`,
-      [jobId, user.id],
-    );
+    }[] =
+      preparationId === null
+        ? []
+        : await m.query(
+            `SELECT a.notice_versions, a.local_rules_version, a.created_at FROM safety_acknowledgements a
+              WHERE a.job_id = $1 AND a.user_id = $2 AND a.preparation_id = $3
+              ORDER BY a.created_at DESC LIMIT 1`,
+            [jobId, user.id, preparationId],
+          );
     const last = acks[0];
     const acknowledged =
       !!last &&
@@ -196,20 +197,28 @@ export class SafetyService {
       materialFamily: job.family,
       notices,
       localRules,
+      preparationId,
       acknowledged,
       acknowledgedAt: acknowledged && last ? new Date(last.created_at).toISOString() : null,
     };
   }
 
-  /** The job's owner, state, machine kind and material family, the notices that apply to them, and the rules. */
+  /**
+   * The job's owner, state, machine kind, material family and preparation in effect (its latest `prepare`
+   * transition), the notices that apply to them, and the rules.
+   */
   private async currentForJob(jobId: string, m: EntityManager) {
     const rows: {
       requester_id: string;
       state: string;
       kind: MachineProfileKind | null;
       family: MaterialFamily | null;
+      /** bigint, as node-postgres gives it: a string. */
+      preparation_id: string | null;
     }[] = await m.query(
-      `SELECT j.requester_id, j.state, p.kind, mat.family
+      `SELECT j.requester_id, j.state, p.kind, mat.family,
+              (SELECT max(t.id) FROM job_transitions t WHERE t.job_id = j.id AND t.action = 'prepare')::text
+                AS preparation_id
          FROM jobs j
          LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
          LEFT JOIN machine_profiles p ON p.id = v.profile_id
@@ -227,7 +236,9 @@ export class SafetyService {
   /**
    * Records that the caller read and accepts exactly the current notice versions for the job. A stale list
    * (a notice changed since the page was opened) is refused so nobody acknowledges text they did not see, and
-   * so is a job not yet prepared (its machine and material, and so its notices, are not known).
+   * so is a job not yet prepared (its machine and material, and so its notices, are not known), and one prepared
+   * again since the caller read its notices (409 SAFETY.PREPARATION_CHANGED): the acknowledgement is stored with
+   * the preparation it was read for, and counts for that one only.
    */
   async acknowledge(
     user: AuthUser,
@@ -236,14 +247,26 @@ export class SafetyService {
     requestId: string,
   ): Promise<JobSafetyView> {
     return this.dataSource.transaction(async (m) => {
+      // A preparation being saved holds the job's row: wait for it, so the check below sees it and refuses an
+      // acknowledgement read for the preparation it replaces rather than answering "acknowledged" for that one.
+      await m.query(`SELECT 1 FROM jobs WHERE id = $1 FOR SHARE`, [jobId]);
       const view = await this.forJob(user, jobId, m);
-      if (!view.machineKind || !view.materialFamily) {
+      if (!view.machineKind || !view.materialFamily || view.preparationId === null) {
         // Before a job has a machine and a material, its notices are every notice: acknowledging that list
         // would read nothing about this job, and would count once it is prepared.
         throw new AppError(
           HttpStatus.CONFLICT,
           'SAFETY.JOB_NOT_PREPARED',
           'This job has no machine and material yet; its safety notices can be acknowledged once it is prepared',
+        );
+      }
+      if (dto.preparationId !== view.preparationId) {
+        throw new AppError(
+          HttpStatus.CONFLICT,
+          'SAFETY.PREPARATION_CHANGED',
+          'This job was prepared again since you read its notices, and its material, machine or kerf may have ' +
+            'changed; read the notices for the job as it is prepared now and acknowledge again',
+          { preparationId: view.preparationId },
         );
       }
       const want = noticeVersionKeys(view.notices);
@@ -261,15 +284,16 @@ export class SafetyService {
         );
       }
       await m.query(
-        `INSERT INTO safety_acknowledgements (job_id, user_id, notice_versions, local_rules_version) VALUES ($1, $2, $3, $4)`,
-        [jobId, user.id, JSON.stringify(dto.notices), dto.localRulesVersion],
+        `INSERT INTO safety_acknowledgements (job_id, user_id, notice_versions, local_rules_version, preparation_id)
+         VALUES ($1, $2, $3, $4, $5)`,
+        [jobId, user.id, JSON.stringify(dto.notices), dto.localRulesVersion, view.preparationId],
       );
       await this.audit.record(m, {
         actorId: user.id,
         action: 'safety.acknowledge',
         entityType: 'job',
         entityId: jobId,
-        after: { notices: got, localRulesVersion: dto.localRulesVersion },
+        after: { notices: got, localRulesVersion: dto.localRulesVersion, preparationId: view.preparationId },
         requestId,
       });
       return this.forJob(user, jobId, m);

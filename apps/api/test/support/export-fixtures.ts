@@ -85,6 +85,7 @@ export async function acknowledge(ctx: TestContext, user: TestUser, jobId: strin
         version: n.version,
       })),
       localRulesVersion: s.body.localRules?.version ?? null,
+      preparationId: s.body.preparationId,
     })
     .expect(200);
 }

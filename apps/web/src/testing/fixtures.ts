@@ -158,6 +158,7 @@ export function jobSafetyFixture(jobId: string, acknowledged: boolean): JobSafet
     materialFamily: 'acrylic',
     notices: [],
     localRules: null,
+    preparationId: '7',
     acknowledged,
     acknowledgedAt: acknowledged ? '2026-01-02T00:00:00.000Z' : null,
   };

@@ -71,4 +71,15 @@ export class AcknowledgeSafetyDto {
   @ValidateIf((_o, v) => v !== null)
   @IsRowVersion()
   localRulesVersion: number | null;
+  @ApiProperty({
+    pattern: '^[1-9][0-9]{0,17}$',
+    description:
+      'The preparationId of the safety view that was read; a job prepared again since gets 409 ' +
+      'SAFETY.PREPARATION_CHANGED, so an acknowledgement never counts for a preparation it did not see',
+  })
+  @IsString()
+  @Matches(/^[1-9][0-9]{0,17}$/, {
+    message: 'preparationId must be the preparationId of the job’s safety view',
+  })
+  preparationId: string;
 }

@@ -75,7 +75,15 @@ export class JobSafetyResponse implements JobSafetyView {
   @ApiProperty({ type: [SafetyNoticeResponse] }) notices: SafetyNoticeResponse[];
   @ApiProperty({ type: LocalRulesResponse, nullable: true }) localRules: LocalRulesResponse | null;
   @ApiProperty({
-    description: 'Whether the caller has acknowledged exactly these notice versions and local rules',
+    type: String,
+    nullable: true,
+    description:
+      'The job’s preparation in effect (its latest prepare), opaque; an acknowledgement names it. Null before the job is prepared',
+  })
+  preparationId: string | null;
+  @ApiProperty({
+    description:
+      'Whether the caller has acknowledged exactly these notice versions and local rules for this preparation',
   })
   acknowledged: boolean;
   @ApiProperty({ type: String, format: 'date-time', nullable: true }) acknowledgedAt: string | null;

@@ -38,6 +38,7 @@ const safety: JobSafetyView = {
     authorName: null,
     updatedAt: '2026-01-01T00:00:00.000Z',
   },
+  preparationId: '41',
   acknowledged: false,
   acknowledgedAt: null,
 };
@@ -89,6 +90,37 @@ describe('safety dialog', () => {
     await screen.findByTestId('safety-acknowledged');
     expect(screen.queryByRole('button', { name: 'Acknowledge' })).toBeNull();
     expect(screen.getByRole('button', { name: 'Close' })).toHaveFocus();
+  });
+
+  it('acknowledges for the preparation read, and shows the notices again when the job was prepared since', async () => {
+    // The job is prepared again (on a router) while the dialog is open.
+    let current: JobSafetyView = safety;
+    const { calls } = stubFetch({
+      [`GET /api/jobs/${jobId}/safety`]: () => json(200, current),
+      [`POST /api/jobs/${jobId}/safety/acknowledge`]: () => {
+        current = { ...safety, machineKind: 'cnc-router', materialFamily: 'plywood', preparationId: '42' };
+        return json(409, {
+          statusCode: 409,
+          code: 'SAFETY.PREPARATION_CHANGED',
+          message: 'This job was prepared again since you read its notices',
+          details: { preparationId: '42' },
+          requestId: 'r-1',
+        });
+      },
+    });
+    const { user } = renderWithProviders(<SafetyDialog jobId={jobId} open onClose={() => undefined} />);
+    await user.click(await screen.findByLabelText(/I have read these notices/));
+    await user.click(screen.getByRole('button', { name: 'Acknowledge' }));
+    expect(calls.find((c) => c.method === 'POST')?.body).toEqual({
+      notices: [{ id: 'laser-classes', version: 1 }],
+      localRulesVersion: 2,
+      preparationId: '41',
+    });
+    expect(await screen.findByRole('alert')).toHaveTextContent(/prepared again since you read its notices/);
+    // The view is read again: the notices for the job as prepared now, to be ticked again.
+    expect(await screen.findByText(/For plywood on a /)).toBeInTheDocument();
+    expect(screen.getByLabelText(/I have read these notices/)).not.toBeChecked();
+    expect(screen.getByRole('button', { name: 'Acknowledge' })).toBeDisabled();
   });
 
   it('shows a fabricator the notices to read, with no acknowledgement the server would refuse', async () => {

@@ -15,7 +15,7 @@ import useMediaQuery from '@mui/material/useMediaQuery';
 import { useRef, useState } from 'react';
 import { FormErrorAlert } from '../../../components/ui/form-error-alert';
 import { MarkdownText } from '../../../components/ui/markdown-text';
-import { useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
+import { isStaleAcknowledgement, useAcknowledgeJobSafety } from '../api/acknowledge-job-safety';
 import { useJobSafety } from '../api/get-job-safety';
 import { familyLabel, kindLabel } from '../../../config/trade-labels';
 import { formatDateTime } from '../../../lib/dates';
@@ -44,6 +44,7 @@ export function SafetyDialog({
   // Acknowledged, the button goes: the keyboard moves on to Close instead of falling to the dialog.
   const closeRef = useRef<HTMLButtonElement>(null);
   const view = safety.data;
+  const preparationId = view?.preparationId ?? null;
   // On a phone the notices (tables included) get the whole screen.
   const phone = useMediaQuery(useTheme().breakpoints.down('sm'));
   return (
@@ -102,6 +103,11 @@ export function SafetyDialog({
                 An operator or a supervisor acknowledges these notices before downloading the files and
                 cutting.
               </Alert>
+            ) : view.preparationId === null ? (
+              <Alert severity="info" role="note" data-testid="safety-not-prepared">
+                This job is not prepared yet: its notices are acknowledged once its material and machine are
+                chosen.
+              </Alert>
             ) : (
               <FormControlLabel
                 control={<Checkbox checked={read} onChange={(e) => setRead(e.target.checked)} />}
@@ -121,7 +127,7 @@ export function SafetyDialog({
         <Button ref={closeRef} onClick={onClose}>
           Close
         </Button>
-        {view && !view.acknowledged && canAcknowledge ? (
+        {view && !view.acknowledged && canAcknowledge && preparationId !== null ? (
           <Button
             variant="contained"
             disabled={!read || acknowledge.isPending}
@@ -130,8 +136,16 @@ export function SafetyDialog({
                 {
                   notices: view.notices.map((n) => ({ id: n.id, version: n.version })),
                   localRulesVersion: view.localRules?.version ?? null,
+                  // The preparation these notices were read for: the job prepared again since is refused (409).
+                  preparationId,
                 },
-                { onSuccess: () => closeRef.current?.focus() },
+                {
+                  onSuccess: () => closeRef.current?.focus(),
+                  // What was read is out of date: the current notices are read again, and ticked again.
+                  onError: (error) => {
+                    if (isStaleAcknowledgement(error)) setRead(false);
+                  },
+                },
               )
             }
           >
