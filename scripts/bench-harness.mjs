@@ -85,6 +85,7 @@ export async function startBenchServices(name, apiEnv = {}, apiNodeArgs = []) {
     KW_QUEUE_PREFIX: `kw-bench-${tag}`,
     KW_PORT: String(apiPort),
     KW_LOGIN_LIMIT: '1000',
+    KW_OPEN_REQUEST_LIMIT: '100000', // one hobbyist requests every job the benchmarks cut
     KW_SMTP_PORT: '9', // nothing listens: mail stays queued, which the benchmarks do not measure
   };
   const started = [];

@@ -17,6 +17,8 @@ export KW_REDIS_DIR="$KW_STATE_DIR/redis"
 export KW_REDIS_PERSIST=0
 export KW_PG_FAST=1
 export KW_LOGIN_LIMIT=10
+# A suite's hobbyists request many jobs; apps/api/test/request-limit.e2e-spec.ts sets its own limit.
+export KW_OPEN_REQUEST_LIMIT=1000
 export KW_SMTP_PORT="${KW_TEST_SMTP_PORT:-2535}"
 export KW_MAIL_POLL_MS=500
 export KW_STORAGE=s3

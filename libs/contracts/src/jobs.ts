@@ -90,6 +90,32 @@ export function transitionFor(action: JobAction): JobTransitionRule {
   return rule;
 }
 
+/**
+ * The actions that end a request's wait for the workshop: it is accepted (approved), sent back (returned), or
+ * taken back by its requester (withdrawn).
+ */
+export const JOB_WAIT_ENDING_ACTIONS: readonly JobAction[] = ['approve', 'return', 'withdraw'];
+
+/**
+ * States of a job open with the workshop: requested and not yet approved, returned or withdrawn (so requested,
+ * or prepared and waiting for approval). Read off the state machine: where a request leads, and every state the
+ * workshop's other actions lead on to from there. A requester may have only so many open at a time.
+ */
+export const JOB_OPEN_STATES: readonly JobState[] = (() => {
+  const open = new Set<JobState>([transitionFor('request').to]);
+  for (let grew = true; grew;) {
+    grew = false;
+    for (const t of JOB_TRANSITIONS) {
+      if (JOB_WAIT_ENDING_ACTIONS.includes(t.action) || open.has(t.to)) continue;
+      if (t.from.some((s) => open.has(s))) {
+        open.add(t.to);
+        grew = true;
+      }
+    }
+  }
+  return [...open];
+})();
+
 /** Actions a user may take on a job in its current state. */
 export function allowedJobActions(state: JobState, role: Role, isOwner: boolean): JobAction[] {
   return JOB_TRANSITIONS.filter(

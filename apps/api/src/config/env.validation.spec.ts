@@ -27,6 +27,13 @@ describe('configuration validated at boot', () => {
     expect(() => validateEnv({ KW_LOGIN_ADDRESS_LIMIT: '0' })).toThrow(/KW_LOGIN_ADDRESS_LIMIT/);
   });
 
+  it('takes a whole number of at least 1 for the open requests a requester may have', () => {
+    expect(() => validateEnv({ KW_OPEN_REQUEST_LIMIT: '12' })).not.toThrow();
+    for (const bad of ['0', '-3', '2.5', 'five', '']) {
+      expect(() => validateEnv({ KW_OPEN_REQUEST_LIMIT: bad })).toThrow(/KW_OPEN_REQUEST_LIMIT/);
+    }
+  });
+
   it('trusts no proxy unless KW_TRUST_PROXY names them as Express takes them (hop count, addresses, subnets)', () => {
     expect(trustProxySetting(undefined)).toBe(false);
     expect(trustProxySetting('')).toBe(false);

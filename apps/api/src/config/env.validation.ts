@@ -39,6 +39,8 @@ export class EnvVars {
   @IsOptional() @IsInt() @Min(100) @Max(3_600_000) KW_GEOMETRY_TASK_MS?: number;
   @IsOptional() @IsInt() @Min(100) @Max(3_600_000) KW_GEOMETRY_PACK_MS?: number;
   @IsOptional() @IsString() KW_WEB_DIST?: string;
+  /** Jobs one requester may have open with the workshop at a time (fabricators and supervisors have no cap). */
+  @IsOptional() @IsInt() @Min(1) @Max(10_000) KW_OPEN_REQUEST_LIMIT?: number;
   /** One origin (scheme://host[:port]); never a wildcard or a path. */
   @IsOptional()
   @Matches(/^https?:\/\/[A-Za-z0-9.-]+(:\d{1,5})?$/, {

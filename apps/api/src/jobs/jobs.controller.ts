@@ -81,7 +81,10 @@ export class JobsController {
   @ApiOkResponse({ type: JobDetailViewDto, description: 'The job after the change' })
   @ApiConflictResponse({ description: 'JOB.ILLEGAL_TRANSITION, JOB.STALE_VERSION or a rule of the action' })
   @ApiTooManyRequestsResponse({
-    description: 'JOB.REQUESTED_TOO_OFTEN: the job was requested three times in the last ten minutes',
+    description:
+      'JOB.REQUESTED_TOO_OFTEN: the job was requested three times in the last ten minutes; ' +
+      'JOB.TOO_MANY_OPEN_REQUESTS: the requester (not a fabricator or supervisor) already has ' +
+      'KW_OPEN_REQUEST_LIMIT jobs waiting for the workshop (requested, or prepared and not yet approved)',
   })
   @ApiOperation({ summary: 'draft → requested (the requester)' })
   request(

@@ -7,6 +7,7 @@ import { MaterialsModule } from '../materials/materials.module';
 import { mailConfig } from '../mail/mail.config';
 import { SafetyModule } from '../safety/safety.module';
 import { Job, JobTransition } from './job.entity';
+import { jobsConfig } from './jobs.config';
 import { JobMailer } from './job-mailer';
 import { JobPreparationService } from './job-preparation.service';
 import { JobsController } from './jobs.controller';
@@ -16,6 +17,7 @@ import { JobsService } from './jobs.service';
   imports: [
     TypeOrmModule.forFeature([Job, JobTransition]),
     ConfigModule.forFeature(mailConfig),
+    ConfigModule.forFeature(jobsConfig),
     MachineProfilesModule,
     MaterialsModule,
     SafetyModule,

@@ -1,4 +1,5 @@
-import { HttpStatus, Injectable } from '@nestjs/common';
+import { HttpStatus, Inject, Injectable } from '@nestjs/common';
+import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, type EntityManager } from 'typeorm';
 import {
@@ -10,6 +11,7 @@ import {
   type JobState,
   type JobView,
   JOB_EDITABLE_STATES,
+  JOB_OPEN_STATES,
   JOB_PACK_STATES,
   layoutChoiceOf,
   type MachineProfileKind,
@@ -38,6 +40,7 @@ import { assertVersion, canReadJob } from './job-access';
 import { Job, JobTransition } from './job.entity';
 import { JobMailer } from './job-mailer';
 import { JobPreparationService } from './job-preparation.service';
+import { jobsConfig } from './jobs.config';
 import { withArticle } from '../common/text';
 
 const SORT_COLUMNS: Record<string, string> = {
@@ -201,6 +204,7 @@ export class JobsService {
     private readonly preparation: JobPreparationService,
     private readonly mailer: JobMailer,
     private readonly safety: SafetyService,
+    @Inject(jobsConfig.KEY) private readonly config: ConfigType<typeof jobsConfig>,
   ) {}
 
   /**
@@ -358,6 +362,7 @@ export class JobsService {
   request(user: AuthUser, id: string, version: number, req: unknown) {
     return this.transition(user, id, 'request', version, req, async (m, job) => {
       await this.assertRequestPace(m, job.id);
+      await this.assertOpenRequestsBelowLimit(m, user, job);
       // The job cuts the design as it is now.
       const design = await m.findOneOrFail(Design, { where: { id: job.designId } });
       if (!design.preview.valid) {
@@ -392,6 +397,36 @@ export class JobsService {
         `This job was requested ${n} times in the last ${REQUEST_WINDOW_MINUTES} minutes, and each request ` +
           'mails the fabricators; wait a few minutes before requesting it again',
         { windowMinutes: REQUEST_WINDOW_MINUTES },
+      );
+    }
+  }
+
+  /**
+   * Every request mails every fabricator, and nothing stops a requester creating job after job: one who has
+   * KW_OPEN_REQUEST_LIMIT jobs open with the workshop (JOB_OPEN_STATES: requested, or prepared and not yet
+   * approved) waits for one to be approved or returned, or withdraws one (429). The workshop's own people are not
+   * limited. Requests of one requester are taken one at a time, so two sent at once cannot both pass.
+   */
+  private async assertOpenRequestsBelowLimit(m: EntityManager, user: AuthUser, job: Job): Promise<void> {
+    if (user.role === 'fabricator' || user.role === 'supervisor') return;
+    await m.query(`SELECT pg_advisory_xact_lock(hashtextextended('job-request:' || $1::text, 0))`, [
+      job.requesterId,
+    ]);
+    const rows: { n: number }[] = await m.query(
+      `SELECT count(*)::int AS n FROM jobs WHERE requester_id = $1 AND state = ANY($2::job_state[]) AND id <> $3`,
+      [job.requesterId, [...JOB_OPEN_STATES], job.id],
+    );
+    const open = rows[0]?.n ?? 0;
+    const limit = this.config.openRequestLimit;
+    if (open >= limit) {
+      throw new AppError(
+        HttpStatus.TOO_MANY_REQUESTS,
+        'JOB.TOO_MANY_OPEN_REQUESTS',
+        `${open === 1 ? 'One job is' : `${open} jobs are`} already waiting for the workshop (requested, or ` +
+          `prepared and not yet approved), and ${limit === 1 ? 'one is' : `${limit} are`} allowed at a time: ` +
+          'request this one once the workshop has approved or returned one, or withdraw one not yet prepared. ' +
+          'The workshop can raise the limit.',
+        { open, limit, openStates: JOB_OPEN_STATES },
       );
     }
   }

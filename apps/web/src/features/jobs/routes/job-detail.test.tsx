@@ -165,6 +165,34 @@ describe('job detail', () => {
     expect(stub.calls.find((c) => c.method === 'POST')?.body).toEqual({ version: 4 });
   });
 
+  it('says in the request dialog why the workshop refused the request: too many open, and who can raise the limit', async () => {
+    const message =
+      '5 jobs are already waiting for the workshop (requested, or prepared and not yet approved), and 5 are ' +
+      'allowed at a time: request this one once the workshop has approved or returned one, or withdraw one not ' +
+      'yet prepared. The workshop can raise the limit.';
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('hobbyist')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'draft', actions: ['request'] }),
+      [`POST /api/jobs/${job.id}/request`]: () =>
+        json(429, {
+          statusCode: 429,
+          code: 'JOB.TOO_MANY_OPEN_REQUESTS',
+          message,
+          details: { open: 5, limit: 5, openStates: ['requested', 'prepared'] },
+          requestId: 'r-429',
+        }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    await user.click(
+      within(await screen.findByTestId('job-actions')).getByRole('button', { name: 'Request the cut' }),
+    );
+    const dialog = await screen.findByRole('dialog', { name: 'Request the cut?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Request the cut' }));
+    // Said where the request was made, and the job is still a draft to request later.
+    expect(await within(dialog).findByRole('alert')).toHaveTextContent(message);
+    expect(screen.getByText(/^Owner: Jun Park/)).toBeInTheDocument();
+  });
+
   it('keeps the reason a job was returned for in view once it is reopened as a draft, until it is requested again', async () => {
     // Typed without a full stop: the page ends the sentence before going on.
     const reason = 'Saffron card is out of stock until Friday; choose another colour';
