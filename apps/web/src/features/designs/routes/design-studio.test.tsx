@@ -7,8 +7,8 @@ import {
 import { buildModel } from '@kerfwright/geometry';
 import { fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
-import { json, type RecordedCall, stubFetch } from '../../../testing/fetch-stub';
-import { materialFixture, userFixture } from '../../../testing/fixtures';
+import { json, type RecordedCall, type RouteHandler, stubFetch } from '../../../testing/fetch-stub';
+import { jobFixture, materialFixture, userFixture } from '../../../testing/fixtures';
 import { formatLength } from '../../../lib/units';
 import { getAccessToken } from '../../../lib/token-store';
 import { renderApp } from '../../../testing/render-app';
@@ -56,9 +56,11 @@ function studioApi(
   design: DesignView = designFixture(),
   me = userFixture('hobbyist'),
   materials: MaterialView[] = [],
+  more: Record<string, RouteHandler> = {},
 ) {
   let current = design;
   return stubFetch({
+    ...more,
     // The server copies the design as it is stored (designs.service duplicate), not what a page shows.
     [`POST /api/designs/${DESIGN_ID}/duplicate`]: () =>
       json(201, { ...current, id: COPY_ID, name: `${current.name} (copy)`, version: 1 }),
@@ -182,6 +184,63 @@ describe('design studio', () => {
     // A later edit is unsaved again.
     await field('Description', 'for the window');
     await waitFor(() => expect(request).toBeDisabled());
+  });
+
+  it('says why a request was refused in its dialog, and requests the draft it kept when asked again', async () => {
+    const message =
+      '5 jobs are already waiting for the workshop (requested, or prepared and not yet approved), and 5 are ' +
+      'allowed at a time: request this one once the workshop has approved or returned one, or withdraw one not ' +
+      'yet prepared. The workshop can raise the limit.';
+    let job = jobFixture({ designId: DESIGN_ID, state: 'draft', version: 1, actions: ['request'] });
+    let refuse = true;
+    const { calls } = studioApi(designFixture(), userFixture('hobbyist'), [], {
+      'POST /api/jobs': () => json(201, job),
+      [`GET /api/jobs/${job.id}`]: () => json(200, job),
+      [`PATCH /api/jobs/${job.id}`]: (call) => {
+        job = { ...job, ...(call.body as object), version: job.version + 1 };
+        return json(200, job);
+      },
+      [`POST /api/jobs/${job.id}/request`]: (call) => {
+        if (refuse) {
+          return json(429, {
+            statusCode: 429,
+            code: 'JOB.TOO_MANY_OPEN_REQUESTS',
+            message,
+            details: { open: 5, limit: 5, openStates: ['requested', 'prepared'] },
+            requestId: 'r-429',
+          });
+        }
+        expect(call.body).toEqual({ version: job.version });
+        job = { ...job, state: 'requested', version: job.version + 1 };
+        return json(200, job);
+      },
+    });
+    const { user } = renderApp(`/designs/${DESIGN_ID}`, { token: 't' });
+    const request = await screen.findByRole('button', { name: 'Request a cut job' });
+    await waitFor(() => expect(request).toBeEnabled());
+    await user.click(request);
+    const dialog = await screen.findByRole('dialog', { name: 'Request a cut job' });
+    await user.click(within(dialog).getByRole('button', { name: 'Request the cut' }));
+    // Said where the request was made, with what became of the job.
+    const alert = await within(dialog).findByRole('alert');
+    expect(alert).toHaveTextContent(message);
+    expect(alert).toHaveTextContent(
+      'The job is kept as a draft: request it again here, or later from its page.',
+    );
+    // Asked again with two copies: the same draft, its copies changed, is requested; no second draft.
+    refuse = false;
+    await user.clear(within(dialog).getByLabelText('Copies'));
+    await user.type(within(dialog).getByLabelText('Copies'), '2');
+    await user.click(within(dialog).getByRole('button', { name: 'Request the cut' }));
+    await waitFor(() => expect(job.state).toBe('requested'));
+    expect(calls.filter((c) => c.method === 'POST' && c.url.pathname === '/api/jobs')).toHaveLength(1);
+    expect(calls.find((c) => c.method === 'PATCH' && c.url.pathname === `/api/jobs/${job.id}`)?.body).toEqual(
+      {
+        version: 1,
+        quantity: 2,
+        notes: '',
+      },
+    );
   });
 
   it('marks the Name field when the API refuses the name, besides saying it above the page', async () => {

@@ -3,6 +3,7 @@ import {
   type ColourRuleName,
   type DesignReport,
   type DesignView,
+  type JobView,
   type UploadedSolid,
 } from '@kerfwright/contracts';
 import Box from '@mui/material/Box';
@@ -24,7 +25,7 @@ import { useDelayedFlag } from '../../../lib/use-delayed-flag';
 import { useStableCallback } from '../../../lib/use-stable-callback';
 import { useDuplicateDesign } from '../api/duplicate-design';
 import { useDesign } from '../api/get-design';
-import { useRequestCutJob } from '../api/request-cut-job';
+import { DraftKeptError, useRequestCutJob } from '../api/request-cut-job';
 import { useSaveDesign } from '../api/save-design';
 import {
   DEFAULT_DESIGN_VALUES,
@@ -170,6 +171,8 @@ function DesignStudio({ design }: { design: DesignView | null }) {
   const { leaving, dialog: leaveDialog } = useUnsavedChangesGuard(dirtyNow);
   const duplicate = useDuplicateDesign();
   const requestJob = useRequestCutJob();
+  // A draft whose request was refused: the next request of this design takes it up rather than making another.
+  const keptDraft = useRef<JobView | null>(null);
 
   const values = useWatch({ control: form.control }) as DesignFormValues;
   const parsed = designFormSchema.safeParse(values);
@@ -298,8 +301,16 @@ function DesignStudio({ design }: { design: DesignView | null }) {
 
   const onRequest = async (v: RequestJobValues) => {
     if (!design) return;
-    const job = await requestJob.mutateAsync({ designId: design.id, ...v }).catch(() => null);
-    if (job) void navigate(`/jobs/${job.id}`);
+    const job = await requestJob
+      .mutateAsync({ designId: design.id, ...v, draft: keptDraft.current ?? undefined })
+      .catch((error: unknown) => {
+        if (error instanceof DraftKeptError) keptDraft.current = error.draft;
+        return null;
+      });
+    if (job) {
+      keptDraft.current = null;
+      void navigate(`/jobs/${job.id}`);
+    }
   };
 
   const dirty = dirtyNow;
