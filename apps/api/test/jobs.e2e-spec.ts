@@ -896,6 +896,43 @@ describe('jobs through their states', () => {
     );
   });
 
+  it('serves no file of a cut pack built for a preparation the job has replaced since (returned and prepared again)', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    const first = await releaseJob(ctx, users.fabricator, job.id);
+    await act(users.fabricator, job.id, 'return', { reason: 'Use card for this one' });
+    await act(users.hobbyist, job.id, 'reopen');
+    await act(users.hobbyist, job.id, 'request');
+    // Prepared again on another material (another thickness and kerf): the first pack's files are not for it.
+    await act(users.fabricator, job.id, 'prepare', { ...prepareBody(), materialId: w.cardId });
+    await act(users.supervisor, job.id, 'approve');
+    const second = await releaseJob(ctx, users.fabricator, job.id);
+    await acknowledge(ctx, users.operator, job.id);
+    for (const f of first.files) {
+      const res = await ctx.http
+        .get(`/api/exports/${first.id}/files/${f.name}`)
+        .set(auth(users.operator))
+        .expect(409);
+      expectErrorBody(res.body, 409, 'EXPORT.PREPARATION_REPLACED');
+      expect(res.body.message).toMatch(/prepared again/);
+      expect(res.body.details).toEqual({ exportId: first.id, jobId: job.id });
+    }
+    const guide = (x: typeof first) => x.files.find((f) => f.role === 'assembly-guide')!.name;
+    await ctx.http
+      .get(`/api/exports/${first.id}/files/${guide(first)}`)
+      .set(auth(users.hobbyist))
+      .expect(409);
+    for (const f of second.files) {
+      await ctx.http.get(`/api/exports/${second.id}/files/${f.name}`).set(auth(users.operator)).expect(200);
+    }
+    await ctx.http
+      .get(`/api/exports/${second.id}/files/${guide(second)}`)
+      .set(auth(users.hobbyist))
+      .expect(200);
+  });
+
   /** The operator's safety view of a job, and the acknowledgement body that view asks for. */
   async function safetyRead(jobId: string, reader = users.operator) {
     const view = (await ctx.http.get(`/api/jobs/${jobId}/safety`).set(auth(reader)).expect(200)).body as {

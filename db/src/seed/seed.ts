@@ -368,7 +368,9 @@ async function seedJob(
   if (release && job.state === 'released') {
     const exportId = randomUUID();
     await m.query(
-      `INSERT INTO exports (id, job_id, state, requested_by, storage_prefix) VALUES ($1, $2, 'queued', $3, $4)`,
+      `INSERT INTO exports (id, job_id, state, requested_by, storage_prefix, preparation_id)
+       VALUES ($1, $2, 'queued', $3, $4,
+               (SELECT max(t.id) FROM job_transitions t WHERE t.job_id = $2 AND t.action = 'prepare'))`,
       [exportId, jobId, idOf(ids.users, release.by, 'user'), `jobs/${jobId}/exports/${exportId}/`],
     );
   }

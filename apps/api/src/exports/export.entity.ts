@@ -23,6 +23,8 @@ export class Export {
   @Column({ name: 'finished_at', type: 'timestamptz', nullable: true }) finishedAt: Date | null;
   @Column({ type: 'jsonb', nullable: true }) manifest: CutPackManifest | null;
   @Column({ name: 'storage_prefix', type: 'varchar', length: 300 }) storagePrefix: string;
+  /** The job's preparation (its `prepare` transition, a bigint as a string) the pack was asked for. */
+  @Column({ name: 'preparation_id', type: 'bigint', nullable: true }) preparationId: string | null;
 }
 
 const bigint = { to: (v: number) => v, from: (v: string) => Number(v) };

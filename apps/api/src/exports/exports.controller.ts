@@ -154,7 +154,7 @@ export class ExportsController {
   })
   @ApiConflictResponse({
     description:
-      'EXPORT.NOT_DONE, EXPORT.JOB_NOT_RELEASED, or EXPORT.SAFETY_CHANGED (the setup sheet or ZIP prints safety notices changed since the build)',
+      'EXPORT.NOT_DONE, EXPORT.JOB_NOT_RELEASED, EXPORT.PREPARATION_REPLACED (the pack was built before the job was returned and prepared again), or EXPORT.SAFETY_CHANGED (the setup sheet or ZIP prints safety notices changed since the build)',
   })
   async download(
     @CurrentUser() u: AuthUser,

@@ -132,6 +132,7 @@ export class ExportsService {
       state: 'queued',
       requestedBy: actorId,
       storagePrefix: exportPrefix(jobId, id),
+      preparationId: await this.preparationInEffect(m, jobId),
     });
     await m.insert(Export, created);
     await this.audit.record(m, {
@@ -143,6 +144,15 @@ export class ExportsService {
       requestId,
     });
     return created;
+  }
+
+  /** The job's preparation in effect: its latest `prepare` transition (null: never prepared). */
+  private async preparationInEffect(m: EntityManager, jobId: string): Promise<string | null> {
+    const rows: { id: string | null }[] = await m.query(
+      `SELECT max(id)::text AS id FROM job_transitions WHERE job_id = $1 AND action = 'prepare'`,
+      [jobId],
+    );
+    return rows[0]?.id ?? null;
   }
 
   private async enqueue(exportId: string, requestId: string | null): Promise<void> {
@@ -312,6 +322,17 @@ export class ExportsService {
           ? 'The job was returned before its cut; its files are not to be cut'
           : `The job is ${job.state}; its files can be downloaded once it is released`,
         { state: job.state, allowed: CUT_PACK_DOWNLOADABLE_STATES },
+      );
+    }
+    // A pack is for the preparation it was built from: a job returned and prepared again (another material,
+    // kerf or layout) is cut from the packs built since, never from an earlier one.
+    if (exp.preparationId !== (await this.preparationInEffect(this.dataSource.manager, job.id))) {
+      throw new AppError(
+        HttpStatus.CONFLICT,
+        'EXPORT.PREPARATION_REPLACED',
+        'This cut pack was built before the job was returned and prepared again (its material, kerf or layout ' +
+          'may differ); download the files of its current cut pack',
+        { exportId: exp.id, jobId: job.id },
       );
     }
     await this.preparation.assertMaterialAllowed(this.dataSource.manager, job);
