@@ -833,6 +833,37 @@ describe('nestParts — true shape', () => {
       expect(r.error.message).toContain('huge');
     }
   });
+
+  it('takes an outline whose every vertex is written twice, 1 nm to 0.4 µm apart in any direction (export noise), as the outline itself', () => {
+    const u: P[] = [
+      [0, 0],
+      [200, 0],
+      [200, 150],
+      [160, 150],
+      [160, 40],
+      [40, 40],
+      [40, 150],
+      [0, 150],
+    ];
+    for (const eps of [1e-6, 1e-4, 4e-4]) {
+      // The copy of vertex i sits eps away at angle 2.4·i rad: some copies lie outside a corner, so the raw
+      // outline crosses itself by a fraction of a micrometre (it was refused as self-intersecting).
+      const noisy = u.flatMap((p, i): P[] => [
+        p,
+        [p[0] + eps * Math.cos(2.4 * i), p[1] + eps * Math.sin(2.4 * i)],
+      ]);
+      const input: NestInput = {
+        sheet: { widthMm: 1000, heightMm: 600 },
+        marginMm: 10,
+        gapMm: 5,
+        parts: [{ id: 'u', outline: noisy, quantity: 6 }],
+      };
+      const r = nestParts(input);
+      // Checked with polygon-clipping on the clean outline (it fails on the noisy one's sub-micrometre loops);
+      // the noise is well inside checkLayout's 2 µm tolerance.
+      checkLayout({ ...input, parts: [{ id: 'u', outline: u, quantity: 6 }] }, r);
+    }
+  });
 });
 
 describe('nestParts — large quantities', () => {

@@ -191,13 +191,21 @@ function fail(
   return { ok: false, error: { code, message, partIds } };
 }
 
+/**
+ * Consecutive outline points closer than this (mm) are one point: half the integer grid's step (1 µm), so
+ * nothing the nesting computes can tell them apart. Float noise from an export (a vertex written twice, 0.1 nm
+ * apart in a random direction) otherwise leaves a spike or a loop far below a micrometre, and the outline was
+ * refused as self-intersecting.
+ */
+const NEAR_DUPLICATE_MM = 0.5 / SCALE_PER_MM;
+
 function prepare(input: NestInput): PreparedPart[] | Extract<NestResult, { ok: false }> {
   const parts: PreparedPart[] = [];
   const ids = new Set<string>();
   for (const [index, p] of input.parts.entries()) {
     if (ids.has(p.id)) return fail('INVALID_INPUT', `part id "${p.id}" is used twice`, [p.id]);
     ids.add(p.id);
-    const cleaned = cleanPolygon(p.outline as Point[]);
+    const cleaned = cleanPolygon(p.outline as Point[], NEAR_DUPLICATE_MM);
     // Self-crossing first: a symmetric bow tie's two lobes cancel to no signed area.
     if (cleaned.length >= 3 && !isSimplePolygon(cleaned))
       return fail('INVALID_INPUT', `part "${p.id}" has a self-intersecting outline`, [p.id]);
@@ -233,7 +241,7 @@ function prepare(input: NestInput): PreparedPart[] | Extract<NestResult, { ok: f
  * else null. The envelope itself is kept as given, so congruent envelopes stay congruent and symmetric.
  */
 function containingEnvelope(outline: Point[], given: Point[]): Point[] | null {
-  const cleaned = cleanPolygon(given);
+  const cleaned = cleanPolygon(given, NEAR_DUPLICATE_MM);
   if (cleaned.length < 3 || !isSimplePolygon(cleaned) || Math.abs(signedArea(cleaned)) < 1e-9) return null;
   const envelope = toCounterClockwise(cleaned);
   const grown = growPolygon(toIntPath(envelope), ENVELOPE_SLACK_MM);
