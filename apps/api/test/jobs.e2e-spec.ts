@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { type JobAction, JOB_TRANSITIONS } from '@kerfwright/contracts';
+import { type ExportView, type JobAction, JOB_TRANSITIONS } from '@kerfwright/contracts';
 import { type MailCatcher, startMailCatcher } from '../src/dev-mail/mail-catcher';
 import { MailDispatcherService } from '../src/mail/mail-dispatcher.service';
 import {
@@ -931,6 +931,49 @@ describe('jobs through their states', () => {
       .get(`/api/exports/${second.id}/files/${guide(second)}`)
       .set(auth(users.hobbyist))
       .expect(200);
+  });
+
+  it("lists only the cut packs of the job's preparation in effect: none once it is prepared again, until one is built", async () => {
+    const job = await draftJob();
+    const listed = async (u: TestUser) =>
+      ((await ctx.http.get(`/api/jobs/${job.id}/exports`).set(auth(u)).expect(200)).body as ExportView[]).map(
+        (e) => ({ id: e.id, state: e.state, replaced: e.replaced }),
+      );
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', prepareBody());
+    await act(users.supervisor, job.id, 'approve');
+    const first = await releaseJob(ctx, users.fabricator, job.id);
+    expect(first.replaced).toBe(false);
+    for (const u of [users.fabricator, users.operator, users.hobbyist]) {
+      expect(await listed(u)).toEqual([{ id: first.id, state: 'done', replaced: false }]);
+    }
+    await act(users.fabricator, job.id, 'return', { reason: 'Use card for this one' });
+    // Returned, not yet prepared again: its pack is still the one of its preparation in effect (refused to the
+    // machines because the job is returned).
+    expect(await listed(users.operator)).toEqual([{ id: first.id, state: 'done', replaced: false }]);
+    await act(users.hobbyist, job.id, 'reopen');
+    await act(users.hobbyist, job.id, 'request');
+    await act(users.fabricator, job.id, 'prepare', { ...prepareBody(), materialId: w.cardId });
+    await act(users.supervisor, job.id, 'approve');
+    // Prepared again and approved: no pack is built for this preparation yet, and the first one is not offered.
+    for (const u of [users.fabricator, users.operator, users.hobbyist]) expect(await listed(u)).toEqual([]);
+    const read = await ctx.http.get(`/api/exports/${first.id}`).set(auth(users.operator)).expect(200);
+    expect(read.body).toMatchObject({ id: first.id, state: 'done', replaced: true });
+    const second = await releaseJob(ctx, users.fabricator, job.id);
+    expect(second.replaced).toBe(false);
+    for (const u of [users.fabricator, users.operator, users.hobbyist]) {
+      expect(await listed(u)).toEqual([{ id: second.id, state: 'done', replaced: false }]);
+    }
+    // The audit trail keeps both packs.
+    const trail = await ctx.http
+      .get('/api/audit')
+      .query({ entityType: 'job', entityId: job.id })
+      .set(auth(users.supervisor))
+      .expect(200);
+    const built = (trail.body.items as { action: string; after: { exportId?: string } }[])
+      .filter((e) => e.action === 'export.done')
+      .map((e) => e.after.exportId);
+    expect(built.sort()).toEqual([first.id, second.id].sort());
   });
 
   /** The operator's safety view of a job, and the acknowledgement body that view asks for. */

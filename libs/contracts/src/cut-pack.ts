@@ -142,6 +142,12 @@ export interface ExportView {
   createdAt: string;
   finishedAt: string | null;
   /**
+   * The pack was built for a preparation the job has replaced since (returned and prepared again: another
+   * material, kerf or layout may apply): its files are not served (EXPORT.PREPARATION_REPLACED). The job's list
+   * of exports holds only the packs of its preparation in effect, so this is true only of a pack read by its id.
+   */
+  replaced: boolean;
+  /**
    * Staff only, done exports: the safety notices or workshop rules changed since the pack was built, so its
    * setup sheet (and ZIP) are out of date and are not served (EXPORT.SAFETY_CHANGED); build it again.
    */

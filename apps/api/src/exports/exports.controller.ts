@@ -96,7 +96,12 @@ export class ExportsController {
   }
 
   @Get('jobs/:id/exports')
-  @ApiOkResponse({ type: [ExportViewDto], description: 'The job’s exports, newest first' })
+  @ApiOkResponse({
+    type: [ExportViewDto],
+    description:
+      'The cut packs of the job’s preparation in effect, newest first (none yet: an empty list). Packs built ' +
+      'before the job was returned and prepared again are not listed; the audit trail keeps them',
+  })
   list(@CurrentUser() u: AuthUser, @Param('id', ID) id: string): Promise<ExportView[]> {
     return this.exports.list(u, id);
   }

@@ -6,7 +6,7 @@ import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { type Queue } from 'bull';
 import { distinctUntilChanged, from, type Observable, switchMap, takeWhile, timer, map } from 'rxjs';
-import { DataSource, type EntityManager, In } from 'typeorm';
+import { DataSource, type EntityManager, In, IsNull } from 'typeorm';
 import {
   CUT_PACK_DOWNLOADABLE_STATES,
   CUT_PACK_ROLES_FOR_REQUESTER,
@@ -227,20 +227,27 @@ export class ExportsService {
 
   async get(user: AuthUser, id: string): Promise<ExportView> {
     const exp = await this.visible(user, id);
-    return this.toView(user, exp);
+    const inEffect = await this.preparationInEffect(this.dataSource.manager, exp.jobId);
+    return this.toView(user, exp, exp.preparationId !== inEffect);
   }
 
+  /**
+   * The cut packs of the job's preparation in effect, newest first. A job returned and prepared again starts
+   * with none: the packs of its earlier preparations are for another material, kerf or layout, and their files
+   * are refused (EXPORT.PREPARATION_REPLACED), so no page offers them (the audit trail keeps them).
+   */
   async list(user: AuthUser, jobId: string): Promise<ExportView[]> {
     const job = await this.dataSource.manager.findOne(Job, { where: { id: jobId } });
     if (!job || !this.canSee(user, job)) throw notFound('JOB', 'No such job');
+    const inEffect = await this.preparationInEffect(this.dataSource.manager, jobId);
     const rows = await this.dataSource.manager.find(Export, {
-      where: { jobId },
-      order: { createdAt: 'DESC' },
+      where: { jobId, preparationId: inEffect ?? IsNull() },
+      order: { createdAt: 'DESC', id: 'DESC' },
     });
     // The job's current notice versions are read once for the whole list, and only if a pack needs them.
     let current: ReturnType<SafetyService['versionsForJob']> | undefined;
     const versions = () => (current ??= this.safety.versionsForJob(jobId));
-    return Promise.all(rows.map((e) => this.toView(user, e, versions)));
+    return Promise.all(rows.map((e) => this.toView(user, e, false, versions)));
   }
 
   /** Server-sent events: the export's view whenever its state or progress changes, until it ends. */
@@ -400,6 +407,7 @@ export class ExportsService {
   private async toView(
     user: AuthUser,
     exp: Export,
+    replaced: boolean,
     versions?: () => ReturnType<SafetyService['versionsForJob']>,
   ): Promise<ExportView> {
     const files =
@@ -428,6 +436,7 @@ export class ExportsService {
         })),
       createdAt: exp.createdAt.toISOString(),
       finishedAt: exp.finishedAt ? exp.finishedAt.toISOString() : null,
+      replaced,
       ...(exp.state === 'done' && user.role !== 'hobbyist'
         ? { safetyChanged: await this.safetyChanged(exp, versions) }
         : {}),

@@ -34,6 +34,11 @@ export class ExportViewDto implements ExportView {
   @ApiProperty() createdAt: string;
   @ApiProperty({ type: String, nullable: true }) finishedAt: string | null;
   @ApiProperty({
+    description:
+      'Built for a preparation the job has replaced since (returned and prepared again); its files are refused (EXPORT.PREPARATION_REPLACED). Always false in the job’s list, which holds only the packs of its preparation in effect',
+  })
+  replaced: boolean;
+  @ApiProperty({
     required: false,
     description:
       'Staff, done exports: the safety notices or workshop rules changed since the build; the setup sheet and ZIP are refused (EXPORT.SAFETY_CHANGED) until it is built again',

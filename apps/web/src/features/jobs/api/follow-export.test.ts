@@ -26,6 +26,7 @@ function view(state: ExportView['state'], progress: number): ExportView {
         : [],
     createdAt: '2026-12-01T10:00:00.000Z',
     finishedAt: null,
+    replaced: false,
   };
 }
 

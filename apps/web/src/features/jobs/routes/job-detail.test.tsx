@@ -66,6 +66,7 @@ const hobbyistExport: ExportView = {
   ],
   createdAt: '2026-01-02T00:00:00.000Z',
   finishedAt: '2026-01-02T00:01:00.000Z',
+  replaced: false,
 };
 
 describe('job detail', () => {

@@ -67,6 +67,7 @@ function exportFixture(id: string, jobId: string, state: ExportView['state'], pr
         : [],
     createdAt: '2026-01-02T00:00:00.000Z',
     finishedAt: null,
+    replaced: false,
   };
 }
 
