@@ -20,7 +20,12 @@ import { jobsKeys } from '../api/jobs-keys';
 import { isApiError } from '../../../lib/api-client';
 import { useJobSafety } from '../api/get-job-safety';
 import { useRequestCutPack } from '../api/request-cut-pack';
-import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from '../lib/pack-text';
+import {
+  NO_PACK_FOR_NEW_PREPARATION,
+  PACK_FILE_ROLE_LABELS,
+  packFailureText,
+  packProgressText,
+} from '../lib/pack-text';
 import { formatDateTime } from '../../../lib/dates';
 import { useScrollFocus } from '../../../lib/use-scroll-focus';
 
@@ -32,7 +37,9 @@ function formatBytes(bytes: number): string {
 
 /**
  * The job's cut pack for staff: prepare it (progress while the queue works), then its files with sizes. Files
- * are offered only once the caller has acknowledged the job's current safety notices and local rules.
+ * are offered only once the caller has acknowledged the job's current safety notices and local rules. Only the
+ * packs of the job's preparation in effect are listed (the API leaves out those of a preparation replaced since
+ * the job was returned), so a job prepared again offers nothing until its new pack is built, and says so.
  */
 export function CutPackPanel({
   jobId,
@@ -42,6 +49,7 @@ export function CutPackPanel({
   onOpenSafety,
   jobDone = false,
   prepareBlocked = null,
+  preparedAgain = false,
 }: {
   jobId: string;
   /** The job's version as shown: the pack is queued for the job as read (a stale one gets 409). */
@@ -55,6 +63,8 @@ export function CutPackPanel({
   onOpenSafety: () => void;
   /** Why a pack cannot be prepared now though the caller may prepare packs (packPrepareBlockedReason). */
   prepareBlocked?: string | null;
+  /** The job was returned and prepared again (preparedAgainAfterReturn): earlier packs are not for it. */
+  preparedAgain?: boolean;
 }) {
   const scrollFocus = useScrollFocus('Cut pack files');
   const exports = useJobExports(jobId, true);
@@ -68,8 +78,8 @@ export function CutPackPanel({
   const live = useFollowExport(listedBusy ? listed.id : null, jobId);
   const newest = live.view && live.view.id === listed?.id ? live.view : listed;
   const busy = newest && (newest.state === 'queued' || newest.state === 'running');
-  // The files on offer: the newest pack's, or, while a new one is built or after it failed, the last pack
-  // that was built (its files are still stored and still downloadable).
+  // The files on offer: the newest pack's, or, while a new one is built or after it failed, the last pack built
+  // for the same preparation (its files are still stored and still downloadable). The list holds no other.
   const shown = newest?.state === 'done' ? newest : exports.data?.find((e) => e.state === 'done');
 
   return (
@@ -93,7 +103,11 @@ export function CutPackPanel({
       {request.error ? <FormErrorAlert error={request.error} /> : null}
       {downloadError ? <FormErrorAlert error={downloadError} /> : null}
       {live.error ? <FormErrorAlert error={live.error} /> : null}
-      {!newest && exports.isSuccess ? (
+      {!shown && exports.isSuccess && preparedAgain && !jobDone ? (
+        <Typography color="text.secondary" sx={{ mb: 1 }} data-testid="cut-pack-none-for-preparation">
+          {NO_PACK_FOR_NEW_PREPARATION}
+        </Typography>
+      ) : !newest && exports.isSuccess ? (
         <Typography color="text.secondary">
           {canPrepare || !jobDone
             ? 'No cut pack has been prepared for this job yet.'

@@ -1,6 +1,12 @@
-import { CUT_PACK_FILE_ROLES } from '@kerfwright/contracts';
+import { CUT_PACK_FILE_ROLES, type JobTransitionView } from '@kerfwright/contracts';
 import { describe, expect, it } from 'vitest';
-import { PACK_FILE_ROLE_LABELS, packFailureText, packProgressText } from './pack-text';
+import { jobFixture } from '../../../testing/fixtures';
+import {
+  PACK_FILE_ROLE_LABELS,
+  packFailureText,
+  packProgressText,
+  preparedAgainAfterReturn,
+} from './pack-text';
 
 describe('cut pack wording', () => {
   it('names every file role in words, never by its internal name', () => {
@@ -38,5 +44,31 @@ describe('cut pack wording', () => {
   it('says a queued pack waits for a worker instead of showing the last attempt’s percentage', () => {
     expect(packProgressText({ state: 'queued', progress: 99 })).toBe('waiting for a worker');
     expect(packProgressText({ state: 'running', progress: 42 })).toBe('building, 42 %');
+  });
+
+  it('tells a preparation made after a return (earlier packs are not for it) from a first one', () => {
+    const steps = (...actions: string[]): { transitions: JobTransitionView[] } => ({
+      transitions: actions.map((action) => ({
+        from: null,
+        to: 'draft',
+        action,
+        actorId: null,
+        actorName: null,
+        reason: null,
+        at: '2026-01-01T00:00:00.000Z',
+      })),
+    });
+    expect(preparedAgainAfterReturn(steps('create', 'request', 'prepare', 'approve', 'release'))).toBe(false);
+    // Prepared twice before approval: no pack could have been built for the first preparation.
+    expect(preparedAgainAfterReturn(steps('create', 'request', 'prepare', 'prepare', 'approve'))).toBe(false);
+    expect(
+      preparedAgainAfterReturn(
+        steps('create', 'request', 'prepare', 'approve', 'release', 'return', 'reopen', 'request', 'prepare'),
+      ),
+    ).toBe(true);
+    // Returned and not prepared since: the preparation in effect is still the one its packs were built for.
+    expect(preparedAgainAfterReturn(steps('create', 'request', 'prepare', 'approve', 'return'))).toBe(false);
+    // A list row carries no history.
+    expect(preparedAgainAfterReturn(jobFixture({ state: 'approved' }))).toBe(false);
   });
 });

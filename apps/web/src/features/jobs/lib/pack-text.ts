@@ -1,4 +1,10 @@
-import { type Role, type CutPackFileRole, type ExportView, type JobView } from '@kerfwright/contracts';
+import {
+  type Role,
+  type CutPackFileRole,
+  type ExportView,
+  type JobTransitionView,
+  type JobView,
+} from '@kerfwright/contracts';
 
 /** What each file of a cut pack is, in the words the job page and the desk use. */
 export const PACK_FILE_ROLE_LABELS: Record<CutPackFileRole, string> = {
@@ -84,3 +90,21 @@ function retiredVersionSentence(job: RetiredVersionJob, consequence: string): st
     'once it is requested again, it is prepared on the current version.'
   );
 }
+
+/**
+ * Whether the job's preparation in effect came after a return: a pack is built only for an approved or released
+ * job, so the packs of any earlier preparation are for another material, kerf or layout, and the API neither lists
+ * them nor serves their files. The job's history is not always at hand (a row of a list): then false.
+ */
+export function preparedAgainAfterReturn(
+  job: JobView | { transitions: readonly JobTransitionView[] },
+): boolean {
+  if (!('transitions' in job)) return false;
+  const lastPrepare = job.transitions.findLastIndex((t) => t.action === 'prepare');
+  return lastPrepare > 0 && job.transitions.slice(0, lastPrepare).some((t) => t.action === 'return');
+}
+
+/** What the cut-pack panel says of a job prepared again whose current preparation has no pack built yet. */
+export const NO_PACK_FOR_NEW_PREPARATION =
+  'The job was returned and prepared again: no cut pack has been built for its current preparation yet. The ' +
+  'files built before are for the earlier preparation and are not offered.';

@@ -434,6 +434,79 @@ describe('job detail', () => {
     expect(within(actions).getByRole('button', { name: 'Return with a reason' })).toBeInTheDocument();
   });
 
+  /** A job's history, one step per action, as the API lists it (only the actions matter to the cut pack). */
+  const history = (...actions: string[]): JobDetailView['transitions'] =>
+    actions.map((action, i) => ({
+      from: null,
+      to: 'draft',
+      action,
+      actorId: 'u-f',
+      actorName: 'Ada Fabricator',
+      reason: action === 'return' ? 'Use card for this one' : null,
+      at: `2026-01-0${1 + Math.floor(i / 5)}T00:0${i % 5}:00.000Z`,
+    }));
+  const firstPreparation = history('create', 'request', 'prepare', 'approve');
+  const preparedAgain = history(
+    ...['create', 'request', 'prepare', 'approve', 'release'],
+    ...['return', 'reopen', 'request', 'prepare', 'approve'],
+  );
+  const runningPack: ExportView = {
+    ...hobbyistExport,
+    id: 'e-2',
+    state: 'running',
+    progress: 40,
+    files: [],
+    finishedAt: null,
+  };
+
+  it.each([
+    ['no pack yet', preparedAgain, [], true, 'none'],
+    ['its new pack being built', preparedAgain, [runningPack], true, 'progress'],
+    ['its new pack failed', preparedAgain, [{ ...runningPack, state: 'failed' as const }], true, 'failed'],
+    ['its new pack built', preparedAgain, [hobbyistExport], false, 'files'],
+    ['no pack yet, never returned', firstPreparation, [], false, 'none'],
+  ])(
+    'says plainly whether a job’s current preparation has a cut pack (%s)',
+    async (_case, transitions, exports, saysPreparedAgain, shows) => {
+      stubFetch({
+        'GET /api/auth/me': () => json(200, userFixture('operator')),
+        [`GET /api/jobs/${job.id}`]: () =>
+          json(200, {
+            ...job,
+            state: 'approved',
+            actions: [],
+            preparation: preparationFixture(),
+            transitions,
+          }),
+        [`GET /api/jobs/${job.id}/exports`]: () => json(200, exports),
+        [`GET /api/jobs/${job.id}/safety`]: () => json(200, jobSafetyFixture(job.id, true)),
+        'GET /api/exports/e-2/events': () =>
+          new Response(`event: progress\ndata: ${JSON.stringify(runningPack)}\n\n`, { status: 200 }),
+        'GET /api/exports/e-2': () => json(200, runningPack),
+      });
+      renderApp(`/jobs/${job.id}`, { token: 't' });
+      const pack = await screen.findByTestId('cut-pack');
+      if (shows === 'files') await within(pack).findByRole('table', { name: 'Cut pack files' });
+      else if (shows === 'progress') await within(pack).findByRole('progressbar');
+      else if (shows === 'failed') await within(pack).findByRole('alert');
+      else await within(pack).findByText(/cut pack/);
+      if (saysPreparedAgain) {
+        expect(within(pack).getByTestId('cut-pack-none-for-preparation')).toHaveTextContent(
+          'The job was returned and prepared again: no cut pack has been built for its current preparation yet.',
+        );
+      } else {
+        expect(within(pack).queryByTestId('cut-pack-none-for-preparation')).not.toBeInTheDocument();
+      }
+      // Only the packs the API lists for the preparation in effect are offered: none but a built one's files.
+      expect(within(pack).queryAllByRole('button', { name: /^Download / })).toHaveLength(
+        shows === 'files' ? hobbyistExport.files.length : 0,
+      );
+      expect(within(pack).queryByText('No cut pack has been prepared for this job yet.') !== null).toBe(
+        shows === 'none' && !saysPreparedAgain,
+      );
+    },
+  );
+
   it('tells the recorded machine time from the estimated one', async () => {
     const preparation = preparationFixture();
     stubFetch({

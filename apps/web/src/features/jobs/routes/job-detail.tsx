@@ -35,7 +35,12 @@ import {
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
 import { approveBlockedReason } from '../lib/approve-blocked';
-import { packPrepareBlockedReason, releaseBlockedReason, retiredSinceReleaseText } from '../lib/pack-text';
+import {
+  packPrepareBlockedReason,
+  preparedAgainAfterReturn,
+  releaseBlockedReason,
+  retiredSinceReleaseText,
+} from '../lib/pack-text';
 import { isJobChangedSince, useTakeJobAction } from '../api/take-job-action';
 import { AssemblyGuidePanel } from '../components/assembly-guide-panel';
 import { ConfirmJobActionDialog } from '../components/confirm-job-action-dialog';
@@ -388,6 +393,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           canDownload={user.role === 'operator' || user.role === 'supervisor'}
           jobDone={job.state === 'cut' || job.state === 'closed'}
           prepareBlocked={packPrepareBlockedReason(job)}
+          preparedAgain={preparedAgainAfterReturn(job)}
           onOpenSafety={() => setOpen('safety')}
         />
       ) : null}

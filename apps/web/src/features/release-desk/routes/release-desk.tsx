@@ -32,7 +32,11 @@ import { jobQueryOptions } from '../../jobs/api/get-job';
 import { useJobSafety } from '../../jobs/api/get-job-safety';
 import { useTakeJobAction } from '../../jobs/api/take-job-action';
 import { CutPackPanel } from '../../jobs/components/cut-pack-panel';
-import { packPrepareBlockedReason, retiredSinceReleaseText } from '../../jobs/lib/pack-text';
+import {
+  packPrepareBlockedReason,
+  preparedAgainAfterReturn,
+  retiredSinceReleaseText,
+} from '../../jobs/lib/pack-text';
 import { JobStateChip } from '../../jobs/components/job-state-chip';
 import { RecordCutDialog } from '../../jobs/components/record-cut-dialog';
 import { SafetyDialog } from '../../jobs/components/safety-dialog';
@@ -347,6 +351,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
           canDownload={user.role === 'operator' || user.role === 'supervisor'}
           jobDone={job.state === 'cut' || job.state === 'closed'}
           prepareBlocked={packPrepareBlockedReason(job)}
+          preparedAgain={preparedAgainAfterReturn(job)}
           onOpenSafety={() => setOpen('safety')}
         />
       ) : null}
