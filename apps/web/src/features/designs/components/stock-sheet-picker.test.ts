@@ -51,9 +51,9 @@ describe('workshop stock in the studio', () => {
 
   it('says which thickness the slots follow when the fields hold the nominal one of stock measured otherwise', () => {
     const [b] = stockOptions([birch], 'laser');
-    expect(stockThicknessText(b!, 2.9, 'mm')).toBe('2.90 mm thick as measured');
+    expect(stockThicknessText(b!, 2.9, 'mm')).toBe('2.9 mm thick as measured');
     expect(stockThicknessText(b!, 3, 'mm')).toBe(
-      'sold as 3.00 mm and measured at 2.90 mm: the slots are worked for the 3.00 mm in the fields',
+      'sold as 3 mm and measured at 2.9 mm: the slots are worked for the 3 mm in the fields',
     );
   });
 

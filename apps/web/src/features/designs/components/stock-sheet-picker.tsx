@@ -3,7 +3,7 @@ import TextField from '@mui/material/TextField';
 import { useEffect, useRef, useState } from 'react';
 import { type UseFormReturn, useWatch } from 'react-hook-form';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
-import { formatLength, formatSheetSize, type LengthUnit } from '../../../lib/units';
+import { formatSheetSize, formatStockThickness, type LengthUnit } from '../../../lib/units';
 import { type DesignFormValues } from './design-form-schema';
 
 /** One sheet size of one material the workshop keeps, as the studio offers it. */
@@ -88,10 +88,10 @@ function isSheetOf(
 export function stockThicknessText(o: StockOption, formThicknessMm: number, unit: LengthUnit): string {
   const measured = o.thicknessesMm.length > 1;
   if (sameLength(o.thicknessMm, formThicknessMm))
-    return `${formatLength(o.thicknessMm, unit)} thick${measured ? ' as measured' : ''}`;
+    return `${formatStockThickness(o.thicknessMm, unit)} thick${measured ? ' as measured' : ''}`;
   return (
-    `sold as ${formatLength(formThicknessMm, unit)} and measured at ${formatLength(o.thicknessMm, unit)}: ` +
-    `the slots are worked for the ${formatLength(formThicknessMm, unit)} in the fields`
+    `sold as ${formatStockThickness(formThicknessMm, unit)} and measured at ${formatStockThickness(o.thicknessMm, unit)}: ` +
+    `the slots are worked for the ${formatStockThickness(formThicknessMm, unit)} in the fields`
   );
 }
 

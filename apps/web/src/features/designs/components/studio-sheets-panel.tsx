@@ -16,7 +16,7 @@ import Stack from '@mui/material/Stack';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { memo, useMemo, useState } from 'react';
-import { type LengthUnit, formatLength, formatSheetSize } from '../../../lib/units';
+import { type LengthUnit, formatLength, formatSheetSize, formatStockThickness } from '../../../lib/units';
 import { SheetLayoutView } from '../../layout/components/sheet-layout-view';
 import { estimateSheets } from '../../layout/lib/estimate-sheets';
 import { useLayoutTask } from '../../layout/hooks/use-layout-task';
@@ -234,8 +234,8 @@ export const StudioSheetsPanel = memo(function StudioSheetsPanel({
   const chosen = choice ? thickness(choice.setting.materialId) : null;
   const thicknessWarning =
     choice && chosen && !chosen.matches && chosen.thicknessMm !== null && designThicknessMm !== null
-      ? `${choice.setting.materialName} is ${fmt(chosen.thicknessMm)} thick, but this design is for ` +
-        `${fmt(designThicknessMm)} stock: its slots would not fit that material, and the estimate uses its speeds.`
+      ? `${choice.setting.materialName} is ${formatStockThickness(chosen.thicknessMm, unit)} thick, but this design is for ` +
+        `${formatStockThickness(designThicknessMm, unit)} stock: its slots would not fit that material, and the estimate uses its speeds.`
       : null;
   const estimate = useMemo(() => {
     const drawnFor = (layoutSpec ?? spec)?.machine;

@@ -417,7 +417,7 @@ describe('design studio', () => {
     await waitFor(() => expect(screen.getByLabelText('Thickness (mm)')).toHaveValue(2.9));
     expect(screen.getByLabelText('Sheet width (mm)')).toHaveValue(600);
     expect(picker).toHaveDisplayValue('Birch plywood 3 mm, 600 × 400 mm');
-    expect(screen.getByText(/^Sheet 600 × 400 mm, 2\.90 mm thick as measured\./)).toBeInTheDocument();
+    expect(screen.getByText(/^Sheet 600 × 400 mm, 2\.9 mm thick as measured\./)).toBeInTheDocument();
   });
 
   it('keeps a saved design as it is and marks a stock picked as an unsaved change', async () => {

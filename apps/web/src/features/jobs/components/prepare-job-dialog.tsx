@@ -21,7 +21,7 @@ import { explainMaterialAndMachine, profilesFor, stockOfDesign } from './prepare
 import { kindLabel } from '../../../config/trade-labels';
 import { errorMessage } from '../../../lib/api-client';
 import { countOf } from '../../../lib/plural';
-import { formatLength, formatMoney, formatSheetSize, type LengthUnit } from '../../../lib/units';
+import { formatMoney, formatSheetSize, formatStockThickness, type LengthUnit } from '../../../lib/units';
 import { useDesign } from '../../designs/api/get-design';
 
 export interface PrepareJobBody {
@@ -241,7 +241,7 @@ export function PrepareJobDialog(props: PrepareJobDialogProps) {
     );
     const unit = props.unit ?? 'mm';
     if (found.kind === 'none') {
-      const drawnFor = `${formatLength(designSpec.stock.thicknessMm, unit)} stock${
+      const drawnFor = `${formatStockThickness(designSpec.stock.thicknessMm, unit)} stock${
         designSpec.stock.sheet ? ` in ${formatSheetSize(designSpec.stock.sheet, unit)} sheets` : ''
       }`;
       setFromDesign(

@@ -539,6 +539,18 @@ describe('job detail', () => {
     expect(await value('Sheets')).toBe('2 sheets of 600 × 400 mm');
   });
 
+  it('writes the stock thickness as the materials list does (3 mm, not 3.00 mm)', async () => {
+    const preparation = preparationFixture({ thicknessMm: 3 });
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('operator')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, { ...job, state: 'prepared', preparation, actions: [] }),
+      [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+    });
+    renderApp(`/jobs/${job.id}`, { token: 't' });
+    const stock = await screen.findByText('Stock', { selector: 'dt' });
+    expect(stock.nextElementSibling?.textContent).toBe('3 mm thick, cut on a laser');
+  });
+
   it('says plainly that there is no such job, with the way back, for an address that is no job id', async () => {
     const stub = stubFetch({ 'GET /api/auth/me': () => json(200, userFixture('operator')) });
     renderApp('/jobs/not-a-uuid', { token: 't' });

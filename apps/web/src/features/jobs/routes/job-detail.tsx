@@ -31,6 +31,7 @@ import {
   formatPercent,
   formatRunLength,
   formatSheetSize,
+  formatStockThickness,
 } from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
@@ -350,7 +351,10 @@ function JobDetail({ job }: { job: JobDetailView }) {
                   ['Diameter', fmt(prep.diameterMm)],
                   ['Sheets', `${countOf(prep.sheetCount, 'sheet')} of ${formatSheetSize(prep.sheet, unit)}`],
                   ['Utilisation', formatPercent(prep.utilisation)],
-                  ['Stock', `${fmt(prep.thicknessMm)} thick, cut on a ${prep.machineKind}`],
+                  [
+                    'Stock',
+                    `${formatStockThickness(prep.thicknessMm, unit)} thick, cut on a ${prep.machineKind}`,
+                  ],
                   ...(prep.estimate
                     ? ([
                         ['Cut length', formatRunLength(prep.estimate.cutLengthMm, unit)],
