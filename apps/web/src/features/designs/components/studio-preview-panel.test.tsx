@@ -50,6 +50,11 @@ describe('studio preview panel while the next model builds', () => {
     expect(screen.getByTestId('model-facts').parentElement).not.toHaveAttribute('aria-busy');
   });
 
+  it('gives the build time in whole milliseconds, thousands grouped as every other figure', () => {
+    renderWithProviders(panel({ ...built, buildMs: 1234.56 }, false));
+    expect(screen.getByTestId('model-facts')).toHaveTextContent('Built in1,235 ms');
+  });
+
   it('says nothing is there to see only when no model is on its way', async () => {
     const { rerender } = renderWithProviders(panel(emptyPreview(null, 1, 'neighbour-distinct'), true));
     // The first model of the page is being built: no "correct the fields", a notice after a moment.

@@ -6,6 +6,7 @@ import Stack from '@mui/material/Stack';
 import Typography from '@mui/material/Typography';
 import { memo } from 'react';
 import { countOf } from '../../../lib/plural';
+import { formatQuantity } from '../../../lib/units';
 import { useDelayedFlag } from '../../../lib/use-delayed-flag';
 import { type BuiltPreview } from '../lib/build-preview';
 import { solidName } from '../lib/solid-name';
@@ -130,7 +131,7 @@ export const StudioPreviewPanel = memo(function StudioPreviewPanel({
             <Fact label="Crossings" value={String(report.crossings.length)} />
             <Fact label="Diameter" value={size(report.diameterMm)} />
             <Fact label="Plane distance" value={size(report.planeDistanceMm)} />
-            <Fact label="Built in" value={`${preview.buildMs.toFixed(0)} ms`} />
+            <Fact label="Built in" value={formatQuantity(Math.round(preview.buildMs), 'ms')} />
           </Stack>
           {preview.colourMessage ? (
             <ColourPlanNotice
