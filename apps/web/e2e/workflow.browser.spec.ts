@@ -85,7 +85,7 @@ describe(`A job from design to cut, in Chromium at ${BASE_URL}`, () => {
     // errors: its crossings have no length); the report then has no errors. The default size is put back.
     await page
       .getByTestId('suggested-sizes')
-      .getByText(/^Pieces cross from size 0\.707\./)
+      .getByText(/^Pieces cross from size 0\.7071\./)
       .waitFor();
     await page.getByRole('button', { name: 'Smallest sound size' }).click();
     await page

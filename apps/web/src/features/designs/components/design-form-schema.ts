@@ -31,6 +31,14 @@ export const MAX_COLOURS = 6;
  */
 export const MIN_SCALE_MM = 1;
 
+/**
+ * A design size (× plane distance) as the studio writes it, in its suggestions as in the size it puts into
+ * the field: four decimals, so that a size found and the threshold it is found from read alike.
+ */
+export function formatDesignSize(size: number): string {
+  return size.toFixed(4);
+}
+
 /** The design studio's form: the spec's fields flattened, plus name, colours and the solid's source. */
 export const designFormSchema = z
   .object({

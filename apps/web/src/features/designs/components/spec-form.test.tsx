@@ -139,7 +139,7 @@ describe('design studio spec form', () => {
   it('finds the smallest sound size with the engine and puts it into the size field', async () => {
     let submitted: DesignFormValues | undefined;
     const { user } = renderWithProviders(<Harness onValues={(v) => (submitted = v)} />);
-    expect(await screen.findByTestId('suggested-sizes')).toHaveTextContent('Pieces cross from size 0.800.');
+    expect(await screen.findByTestId('suggested-sizes')).toHaveTextContent('Pieces cross from size 0.8000.');
     await user.click(screen.getByRole('button', { name: 'Smallest sound size' }));
     const said = await screen.findByTestId('sound-size');
     const size = Number((screen.getByLabelText('Size') as HTMLInputElement).value);

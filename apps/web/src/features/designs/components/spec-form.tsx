@@ -22,6 +22,7 @@ import {
   designFormSchema,
   toDesignSpec,
   DESIGN_FIELD_LABELS,
+  formatDesignSize,
 } from './design-form-schema';
 import { SolidDropZone } from './solid-drop-zone';
 import { StockSheetPicker } from './stock-sheet-picker';
@@ -100,7 +101,7 @@ export const SpecForm = memo(function SpecForm({
   const fields = { register, errors };
   const materials = useMaterials(true);
   const setSize = (size: number) =>
-    setValue('size', Number(size.toFixed(4)), { shouldValidate: true, shouldDirty: true });
+    setValue('size', Number(formatDesignSize(size)), { shouldValidate: true, shouldDirty: true });
   // The sizes where pieces touch and first cross are thresholds, not designs (their crossings have no length):
   // the engine searches upwards from there for the smallest size that builds soundly (smallestSoundSize).
   const [soundSize, setSoundSize] = useState<string | null>(null);
@@ -128,14 +129,14 @@ export const SpecForm = memo(function SpecForm({
         const found = smallestSoundSize(spec);
         if (found.size === null) {
           setSoundSize(
-            `No size up to three times ${found.crossingsFrom?.toFixed(3) ?? 'the crossing size'} builds soundly with this stock and machine: try a thinner stock, another rotation or another shape.`,
+            `No size up to three times ${found.crossingsFrom != null ? formatDesignSize(found.crossingsFrom) : 'the crossing size'} builds soundly with this stock and machine: try a thinner stock, another rotation or another shape.`,
           );
           return;
         }
-        foundSize.current = Number(found.size.toFixed(4));
+        foundSize.current = Number(formatDesignSize(found.size));
         setSize(found.size);
         setSoundSize(
-          `${found.size.toFixed(4)} is the smallest size that builds without errors, collisions or slots breaking through a tip` +
+          `${formatDesignSize(found.size)} is the smallest size that builds without errors, collisions or slots breaking through a tip` +
             (found.thinWebs
               ? ', though some slots leave thin material beside them (see the warnings).'
               : '.'),
@@ -227,7 +228,7 @@ export const SpecForm = memo(function SpecForm({
           <Stack spacing={0.5} data-testid="suggested-sizes">
             <Stack direction="row" spacing={1} sx={{ alignItems: 'center', flexWrap: 'wrap' }}>
               <Typography variant="body2" color="text.secondary">
-                {`Pieces cross from size ${suggestedSizes.overlap.toFixed(3)}.`}
+                {`Pieces cross from size ${formatDesignSize(suggestedSizes.overlap)}.`}
               </Typography>
               <Button size="small" onClick={findSoundSize} loading={soundSize === 'searching'}>
                 Smallest sound size
