@@ -49,16 +49,18 @@ describe('figures a workshop reads at a glance', () => {
     expect(formatHourlyRate(1250, 'GBP')).toBe('1,250.00 GBP/h');
   });
 
-  it('gives a kerf to two decimals, three where it was recorded to the thousandth, or four in inches', () => {
+  it('gives a kerf to two decimals, three where it was recorded to the thousandth, or five in inches', () => {
     expect(formatKerf(0.2, 'mm')).toBe('0.20 mm');
     expect(formatKerf(0.165, 'mm')).toBe('0.165 mm');
     expect(formatKerf(0.09, 'mm')).toBe('0.09 mm');
     expect(formatKerf(6, 'mm')).toBe('6.00 mm');
     // Floating point noise is not a thousandth recorded.
     expect(formatKerf(0.1 + 0.2, 'mm')).toBe('0.30 mm');
-    // 0.15 and 0.16 mm: 0.00591 and 0.00630 in, alike to three decimals (1 in = 25.4 mm exactly).
-    expect(formatKerf(0.15, 'in')).toBe('0.0059 in');
-    expect(formatKerf(0.16, 'in')).toBe('0.0063 in');
+    // 0.15 and 0.16 mm: 0.005906 and 0.006299 in (1 in = 25.4 mm exactly).
+    expect(formatKerf(0.15, 'in')).toBe('0.00591 in');
+    expect(formatKerf(0.16, 'in')).toBe('0.00630 in');
+    // 0.08 mm is 0.0031496 in: to four decimals, 0.0031 in would read back as 0.0787 mm.
+    expect(formatKerf(0.08, 'in')).toBe('0.00315 in');
     expect(formatKerf(Number.NaN, 'mm')).toBe('—');
   });
 

@@ -10,13 +10,20 @@ export function formatLength(mm: number, unit: LengthUnit): string {
 }
 
 /**
+ * Inch decimals of a kerf, a tool diameter or a fit, shown and typed: five, so that the inches shown, typed
+ * back, are the millimetres stored within 0.13 µm (half of 0.00001 in); four would be up to 1.27 µm off, and a
+ * 0.08 mm kerf read as 0.0031 in and retyped would be saved as 0.0787 mm.
+ */
+export const KERF_INCH_DECIMALS = 5;
+
+/**
  * A kerf, a tool diameter or a measured cut width: millimetres with two decimals, a third where the value was
- * recorded to the thousandth ("0.20 mm", "0.165 mm"); inches to four decimals, as the forms take them back
- * ("0.0079 in"), since three would read 0.15 and 0.16 mm alike.
+ * recorded to the thousandth ("0.20 mm", "0.165 mm"); inches to KERF_INCH_DECIMALS, as the forms take them
+ * back ("0.00787 in").
  */
 export function formatKerf(mm: number, unit: LengthUnit): string {
   if (!Number.isFinite(mm)) return '—';
-  if (unit === 'in') return `${(mm / MM_PER_INCH).toFixed(4)} in`;
+  if (unit === 'in') return `${(mm / MM_PER_INCH).toFixed(KERF_INCH_DECIMALS)} in`;
   const thousandths = Math.round(mm * 1000);
   return `${(thousandths / 1000).toFixed(thousandths % 10 === 0 ? 2 : 3)} mm`;
 }

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { KERF_INCH_DECIMALS } from '../../lib/units';
 import { inchLabel, inchesText, inchesToMm, messageInInches } from './length-field';
 
 // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; NIST SP 811).
@@ -10,6 +11,19 @@ describe('inch fields over millimetre values', () => {
     expect(inchesText(600)).toBe('23.622');
     expect(inchesText(Number.NaN)).toBe('');
     expect(inchesText(undefined)).toBe('');
+  });
+
+  it('shows a kerf in inches that, typed back as shown, is the kerf stored within half a micrometre', () => {
+    // 0.08 mm = 0.0031496 in: to four decimals it would read 0.0031 in, typed back 0.07874 mm.
+    expect(inchesText(0.08)).toBe('0.0031');
+    expect(inchesToMm(inchesText(0.08))).toBe(0.07874);
+    expect(inchesText(0.08, KERF_INCH_DECIMALS)).toBe('0.00315');
+    // Every kerf of a laser or width of a router cut (0.01–12 mm) to the thousandth, as profiles record them.
+    for (let um = 10; um <= 12_000; um += 1) {
+      const mm = um / 1000;
+      const back = inchesToMm(inchesText(mm, KERF_INCH_DECIMALS));
+      expect(Math.abs(back - mm)).toBeLessThanOrEqual(0.0005);
+    }
   });
 
   it('takes typed inches as millimetres to the nanometre, and anything else as no number', () => {

@@ -15,11 +15,18 @@ type LengthFieldProps<T extends FieldValues> = Omit<BoundFieldProps<T>, 'type' |
   unit: LengthUnit;
   control: Control<T>;
   rules?: RegisterOptions<T, Path<T>>;
+  /**
+   * Decimals the inches are shown to (4 unless said): KERF_INCH_DECIMALS for a kerf, a tool diameter or a fit,
+   * so that a value shown and typed back is the one stored.
+   */
+  inchDecimals?: number;
 };
 
-/** Inches as typed back to the reader: up to four decimals, no trailing zeros ("0.25", "5.6875"). */
-export function inchesText(mm: unknown): string {
-  return typeof mm === 'number' && Number.isFinite(mm) ? String(Number((mm / MM_PER_INCH).toFixed(4))) : '';
+/** Inches as typed back to the reader: up to `decimals` (four), no trailing zeros ("0.25", "5.6875"). */
+export function inchesText(mm: unknown, decimals = 4): string {
+  return typeof mm === 'number' && Number.isFinite(mm)
+    ? String(Number((mm / MM_PER_INCH).toFixed(decimals)))
+    : '';
 }
 
 /** A length field's label as shown in inches: "Kerf (mm, optional)" → "Kerf (in, optional)", "(mm/s)" → "(in/s)". */
@@ -90,6 +97,7 @@ export function LengthField<T extends FieldValues>({
   name,
   rules,
   helperText,
+  inchDecimals,
   ...props
 }: LengthFieldProps<T>) {
   if (unit === 'mm') {
@@ -115,6 +123,7 @@ export function LengthField<T extends FieldValues>({
           name={name}
           label={inchLabel(label)}
           mm={field.value}
+          decimals={inchDecimals ?? 4}
           onMm={field.onChange}
           onBlur={field.onBlur}
           inputRef={field.ref}
@@ -128,6 +137,7 @@ export function LengthField<T extends FieldValues>({
 
 function InchInput({
   mm,
+  decimals,
   onMm,
   onBlur,
   error,
@@ -136,8 +146,9 @@ function InchInput({
   name,
   inputRef,
   ...props
-}: Omit<LengthFieldProps<FieldValues>, 'unit' | 'control' | 'form' | 'rules'> & {
+}: Omit<LengthFieldProps<FieldValues>, 'unit' | 'control' | 'form' | 'rules' | 'inchDecimals'> & {
   mm: unknown;
+  decimals: number;
   onMm: (mm: number) => void;
   onBlur: () => void;
   error: string | undefined;
@@ -153,7 +164,7 @@ function InchInput({
       label={label}
       type="number"
       slotProps={{ htmlInput: { step: 'any' } }}
-      value={typed ?? inchesText(mm)}
+      value={typed ?? inchesText(mm, decimals)}
       onChange={(e) => {
         setTyped(e.target.value);
         onMm(inchesToMm(e.target.value));

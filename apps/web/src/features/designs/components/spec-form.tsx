@@ -28,7 +28,7 @@ import { SolidDropZone } from './solid-drop-zone';
 import { StockSheetPicker } from './stock-sheet-picker';
 import { useMaterials } from '../../jobs/api/get-materials';
 import { COLOUR_RULE_LABELS } from '../../../config/colour-rules';
-import { type LengthUnit } from '../../../lib/units';
+import { KERF_INCH_DECIMALS, type LengthUnit } from '../../../lib/units';
 
 const SOLIDS = listSolids();
 
@@ -380,6 +380,7 @@ export const SpecForm = memo(function SpecForm({
               label={DESIGN_FIELD_LABELS.kerfMm}
               name="kerfMm"
               unit={unit}
+              inchDecimals={KERF_INCH_DECIMALS}
               control={control}
               form={fields}
               size="small"
@@ -389,6 +390,7 @@ export const SpecForm = memo(function SpecForm({
               label={DESIGN_FIELD_LABELS.toolDiameterMm}
               name="toolDiameterMm"
               unit={unit}
+              inchDecimals={KERF_INCH_DECIMALS}
               control={control}
               form={fields}
               size="small"
@@ -398,6 +400,7 @@ export const SpecForm = memo(function SpecForm({
             label={DESIGN_FIELD_LABELS.fitMm}
             name="fitMm"
             unit={unit}
+            inchDecimals={KERF_INCH_DECIMALS}
             control={control}
             form={fields}
             size="small"

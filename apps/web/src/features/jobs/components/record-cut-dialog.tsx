@@ -15,7 +15,7 @@ import { FormTextField } from '../../../components/ui/form-text-field';
 import { LengthField } from '../../../components/ui/length-field';
 import { FOCUS_FIRST_FIELD_ON_OPEN } from '../../../components/ui/focus-first-field';
 import { countOf } from '../../../lib/plural';
-import { type LengthUnit } from '../../../lib/units';
+import { KERF_INCH_DECIMALS, type LengthUnit } from '../../../lib/units';
 import { isFarAboveSheets, type RecordCutValues, recordCutSchemaFor } from './job-action-schemas';
 
 /**
@@ -106,6 +106,7 @@ export function RecordCutDialog(props: {
               }
               name="measuredKerfMm"
               unit={props.unit}
+              inchDecimals={KERF_INCH_DECIMALS}
               control={control}
               form={{ register, errors }}
             />

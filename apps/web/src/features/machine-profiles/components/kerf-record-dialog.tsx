@@ -7,7 +7,7 @@ import { useForm } from 'react-hook-form';
 import { FormDialog, type FormDialogBaseProps } from '../../../components/ui/form-dialog';
 import { FormTextField } from '../../../components/ui/form-text-field';
 import { LengthField } from '../../../components/ui/length-field';
-import { type LengthUnit } from '../../../lib/units';
+import { KERF_INCH_DECIMALS, type LengthUnit } from '../../../lib/units';
 import { type KerfRecordValues, kerfRecordSchema } from './kerf-record-schema';
 import { NATIVE_SELECT } from '../../../components/ui/native-select-field';
 
@@ -71,6 +71,7 @@ export function KerfRecordDialog(
           form={{ register, errors }}
           control={control}
           unit={props.unit}
+          inchDecimals={KERF_INCH_DECIMALS}
         />
         <FormTextField
           label="Notes (optional)"

@@ -329,6 +329,51 @@ describe('the profile forms in inches', () => {
     expect(saved.settings[0]).toMatchObject({ kerfMm: 0.2032, cutSpeedMmS: 12.7, markSpeedMmS: 101.6 });
   });
 
+  it('shows a kerf in inches to five decimals, so that typing back what it shows keeps the kerf', async () => {
+    const onSubmit = vi.fn();
+    const version = {
+      ...EMPTY_PROFILE,
+      name: 'Bay 3 laser',
+      bedWidthMm: 600,
+      bedHeightMm: 400,
+      rapidSpeedMmS: 300,
+      hourlyRate: 20,
+      settings: [
+        {
+          ...EMPTY_SETTING,
+          materialId: 'm-birch',
+          kerfMm: 0.08,
+          cutSpeedMmS: 12,
+          markSpeedMmS: 100,
+          powerPct: 70,
+        },
+      ],
+    };
+    const { user } = renderWithProviders(
+      <ProfileFormDialog
+        open
+        mode="edit-draft"
+        unit="in"
+        initial={version}
+        materials={[birch]}
+        busy={false}
+        error={null}
+        onSubmit={onSubmit}
+        onClose={noop}
+      />,
+    );
+    const setting = await screen.findByRole('group', { name: row(1) });
+    const kerf = within(setting).getByLabelText('Kerf (in)');
+    // 0.08 mm = 0.0031496 in (1 in = 25.4 mm exactly).
+    expect(kerf).toHaveValue(0.00315);
+    await user.clear(kerf);
+    await user.type(kerf, '0.00315');
+    await user.click(screen.getByRole('button', { name: 'Save the draft' }));
+    await waitFor(() => expect(onSubmit).toHaveBeenCalledTimes(1));
+    const saved = toVersionContent(onSubmit.mock.calls[0]![0]);
+    expect(Math.abs(saved.settings[0]!.kerfMm! - 0.08)).toBeLessThanOrEqual(0.0005);
+  });
+
   it('gives the limits of a speed in inches per second', async () => {
     const { user } = renderWithProviders(
       <ProfileFormDialog

@@ -18,7 +18,7 @@ import { FormTextField, upperCased } from '../../../components/ui/form-text-fiel
 import { NativeSelectField } from '../../../components/ui/native-select-field';
 import { LengthField } from '../../../components/ui/length-field';
 import { NumberField } from '../../../components/ui/number-field';
-import { type LengthUnit } from '../../../lib/units';
+import { KERF_INCH_DECIMALS, type LengthUnit } from '../../../lib/units';
 import { applyServerFieldErrors } from '../../../lib/form-errors';
 import { KIND_LABELS } from './profile-labels';
 import { EMPTY_SETTING, type ProfileFormValues, profileFormSchema } from './profile-form-schema';
@@ -225,6 +225,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                     form={fields}
                     control={control}
                     unit={unit}
+                    inchDecimals={KERF_INCH_DECIMALS}
                   />
                 ) : (
                   <LengthField
@@ -235,6 +236,7 @@ export function ProfileFormDialog(props: ProfileFormDialogProps) {
                     form={fields}
                     control={control}
                     unit={unit}
+                    inchDecimals={KERF_INCH_DECIMALS}
                   />
                 )}
                 <LengthField

@@ -62,7 +62,7 @@ describe('machine profile page', () => {
     // The fixture's 600 × 400 mm bed, 400 mm/s and 0.08 mm kerf (1 in = 25.4 mm exactly).
     expect(cells('Bed')).toEqual(['23.622 × 15.748 in', '23.622 × 15.748 in']);
     expect(cells('Rapid speed')).toEqual(['15.75 in/s', '15.75 in/s']);
-    expect(cells('Kerf')).toEqual(['0.0031 in', '0.0031 in']);
+    expect(cells('Kerf')).toEqual(['0.00315 in', '0.00315 in']);
     await user.click(screen.getByRole('button', { name: 'mm' }));
     expect(cells('Bed')).toEqual(['600 × 400 mm', '600 × 400 mm']);
     expect(cells('Kerf')).toEqual(['0.08 mm', '0.08 mm']);
