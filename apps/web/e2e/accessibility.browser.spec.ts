@@ -465,13 +465,19 @@ describe(`The main flow with the keyboard alone (WCAG 2.1, 2.1.1 and 2.4.3) in C
     await page.keyboard.press('Enter');
     await page.waitForURL(/\/jobs\/[0-9a-f-]{36}$/);
     await page.getByTestId('job-state').filter({ hasText: 'requested' }).waitFor();
+    // The dialog and its button have gone with the studio: the keyboard is on the new job's heading, as after
+    // any other move to a page, not back at the start of the document.
+    expect(await receivesFocus(page.getByTestId('job-detail').getByRole('heading', { level: 1 }))).toBe(true);
   });
 
   it('lets an operator open a released job at the desk, acknowledge its notices and reach the downloads', async () => {
     // A new operator, so that nothing is acknowledged yet however often the test runs on the same data.
     await signInByKeyboard('operator', await newOperator());
     await navigateByKeyboard('Release desk');
+    // Followed from the navigation, the keyboard goes on from the page's heading (the desk's own: the page left
+    // behind may still show its heading for a moment).
     const desk = page.getByTestId('release-desk');
+    expect(await receivesFocus(desk.getByRole('heading', { level: 1 }))).toBe(true);
     await desk.getByRole('table', { name: 'Jobs at the release desk' }).waitFor();
     // A released job whose cut pack is ready (the seed releases some; their packs are built at start).
     const row = desk

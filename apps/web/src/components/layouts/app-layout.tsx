@@ -11,6 +11,7 @@ import { useState } from 'react';
 import { Outlet } from 'react-router-dom';
 import { ROLE_LABELS } from '../../config/roles';
 import { useSignOut, useUser } from '../../lib/auth';
+import { useRouteFocus } from '../../lib/use-route-focus';
 import { SideNav } from './side-nav';
 
 const NAV_WIDTH = 232;
@@ -28,6 +29,7 @@ export function AppLayout() {
   const user = useUser();
   const signOut = useSignOut();
   const [navOpen, setNavOpen] = useState(false);
+  useRouteFocus('main-content');
 
   return (
     <Box sx={{ display: 'flex', minHeight: '100vh' }}>
