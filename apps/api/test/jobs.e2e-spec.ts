@@ -342,10 +342,15 @@ describe('jobs through their states', () => {
     // The job keeps the size found as a fixed diameter, so its cut pack is cut at exactly that size.
     expect(await stored()).toEqual({ by: 'diameter', mm: expect.any(Number) });
     expect((await stored()).mm).toBeCloseTo(one.body.preparation.diameterMm, 1);
+    // Prepared again without a scale: from the design as requested (its fitBed, margin and gap), not from the
+    // first preparation's spec (its fixed diameter, and no margin or gap of the design's).
     const bed = await act(users.fabricator, j.id, 'prepare', prepareBody());
     expect((await stored()).by).toBe('diameter');
-    // Laid out on one 600 × 400 sheet the model is no larger than when only each piece must fit the bed.
-    expect(one.body.preparation.diameterMm).toBeLessThanOrEqual(bed.body.preparation.diameterMm + 0.01);
+    expect(bed.body.preparation).toMatchObject({ marginMm: 6, gapMm: 4 });
+    // Laid out on one 600 × 400 sheet the model is smaller than when only each piece must fit the bed.
+    expect(one.body.preparation.diameterMm).toBeLessThan(bed.body.preparation.diameterMm - 1);
+    const again = await act(users.fabricator, j.id, 'prepare', prepareBody());
+    expect(again.body.preparation.diameterMm).toBeCloseTo(bed.body.preparation.diameterMm, 6);
     for (const scale of [{ by: 'fitBed', mm: 200 }, { by: 'fitSheets' }, { by: 'diameter' }]) {
       const bad = await act(users.fabricator, j.id, 'prepare', { ...prepareBody(), scale }, 400);
       expectErrorBody(bad.body, 400);
@@ -530,6 +535,34 @@ describe('jobs through their states', () => {
     });
     const reopened = await act(users.hobbyist, job.id, 'reopen');
     expect(reopened.body.state).toBe('draft');
+  });
+
+  it('drops the layout and figures of a job whose design changed before it was requested again', async () => {
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    const prepared = await act(users.fabricator, job.id, 'prepare', prepareBody());
+    expect(prepared.body.preparation).not.toBeNull();
+    await act(users.fabricator, job.id, 'return', { reason: 'Make the pieces a little larger' });
+    await act(users.hobbyist, job.id, 'reopen');
+    // Requested again unchanged: the earlier figures stay, for the fabricator to compare.
+    const same = await act(users.hobbyist, job.id, 'request');
+    expect(same.body.preparation).toEqual(prepared.body.preparation);
+    await act(users.fabricator, job.id, 'return', { reason: 'Make the pieces a little larger' });
+    await act(users.hobbyist, job.id, 'reopen');
+    const designId = (same.body as { designId: string }).designId;
+    const design = await ctx.http.get(`/api/designs/${designId}`).set(auth(users.hobbyist)).expect(200);
+    const spec = design.body.spec as { piece: { size: number } };
+    await ctx.http
+      .patch(`/api/designs/${designId}`)
+      .set(auth(users.hobbyist))
+      .send({
+        version: design.body.version,
+        spec: { ...spec, piece: { ...spec.piece, size: spec.piece.size * 1.02 } },
+      })
+      .expect(200);
+    // Requested again after the edit: the layout and estimate were for the design before it.
+    const changed = await act(users.hobbyist, job.id, 'request');
+    expect(changed.body.preparation).toBeNull();
   });
 
   it('says in a sentence when the colours chosen cannot meet the colour rule', async () => {

@@ -270,6 +270,12 @@ async function seedDesigns(
 
 const PREPARED_STATES = new Set(['prepared', 'approved', 'released', 'cut', 'closed']);
 
+function designOf(s: Scenario, job: ScenarioJob): Scenario['designs'][number] {
+  const design = s.designs.find((d) => d.key === job.design);
+  if (!design) throw new Error(`job "${job.key}" refers to a missing design`);
+  return design;
+}
+
 async function seedJob(
   m: EntityManager,
   s: Scenario,
@@ -320,8 +326,8 @@ async function seedJob(
   const hasMachine = reached.some((st) => PREPARED_STATES.has(st)) || job.state === 'returned';
   const rows: { id: string }[] = await m.query(
     `INSERT INTO jobs (seed_key, design_id, requester_id, state, spec, material_id, colours, profile_version_id, quantity, notes,
-       return_reason, preparation, layout_choice, actual_minutes, sheets_used, measured_kerf_mm)
-     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16) RETURNING id`,
+       return_reason, preparation, layout_choice, actual_minutes, sheets_used, measured_kerf_mm, requested_spec)
+     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $17) RETURNING id`,
     [
       job.key,
       idOf(ids.designs, job.design, 'design'),
@@ -339,6 +345,8 @@ async function seedJob(
       job.cutRecord?.actualMinutes ?? null,
       job.cutRecord ? (preparation?.sheetCount ?? null) : null,
       job.cutRecord?.measuredKerfMm ?? null,
+      // The design as requested, which a preparation starts from (a draft has not been requested yet).
+      reached.includes('requested') ? JSON.stringify(designOf(s, job).spec) : null,
     ],
   );
   const jobId = rows[0]!.id;

@@ -95,8 +95,10 @@ export class JobPreparationService {
     }
     const thicknessMm = material.measuredThicknessMm ?? material.nominalThicknessMm;
     const machine = toMachineSpec(version.kind, setting);
-    // The design's own layout settings and colour rule apply unless the fabricator overrides them.
-    const designed = job.spec as DesignSpecInput;
+    // The design's own layout settings and colour rule apply unless the fabricator overrides them: the design as
+    // requested, not an earlier preparation's spec (which keeps only the thickness and names no margin, gap,
+    // colour rule or size search), so preparing again starts where the first preparation did.
+    const designed = (job.requestedSpec ?? job.spec) as DesignSpecInput;
     const marginMm = dto.marginMm ?? designed.stock.marginMm ?? DEFAULT_MARGIN_MM;
     const gapMm = dto.gapMm ?? designed.stock.gapMm ?? DEFAULT_GAP_MM;
     const colourRule = dto.colourRule ?? designed.colours?.rule;

@@ -29,8 +29,14 @@ export class Job {
   @ManyToOne(() => User) @JoinColumn({ name: 'requester_id' }) requester?: User;
   @Column({ type: 'enum', enumName: 'job_state', enum: [...JOB_STATES] })
   state: JobState;
-  /** The design's spec as it was when the job was created or last reopened. */
+  /** The design's spec as it was when the job was created or last requested; once prepared, the prepared one. */
   @Column({ type: 'jsonb' }) spec: DesignSpec;
+  /**
+   * The design's spec as it was last requested: every preparation starts from it (its scale, margin, gap and
+   * colour rule), never from an earlier preparation's spec. Null for a job not requested yet, and for jobs
+   * prepared before it was kept.
+   */
+  @Column({ name: 'requested_spec', type: 'jsonb', nullable: true }) requestedSpec: DesignSpec | null;
   @Column({ name: 'material_id', type: 'uuid', nullable: true }) materialId: string | null;
   @Column({ type: 'jsonb', default: [] }) colours: string[];
   @Column({ name: 'profile_version_id', type: 'uuid', nullable: true }) profileVersionId: string | null;

@@ -1,3 +1,4 @@
+import { isDeepStrictEqual } from 'node:util';
 import { HttpStatus, Inject, Injectable } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { InjectDataSource } from '@nestjs/typeorm';
@@ -373,7 +374,11 @@ export class JobsService {
           design.preview.errors,
         );
       }
+      // A design changed since the job's last preparation makes that preparation's layout and figures wrong.
+      const earlier = job.requestedSpec;
+      if (earlier && job.preparation && !isDeepStrictEqual(earlier, design.spec)) job.preparation = null;
       job.spec = design.spec;
+      job.requestedSpec = design.spec;
       job.returnReason = null;
     });
   }
