@@ -201,8 +201,11 @@ describe('fitSheets scale', () => {
   it('says why no size fits when even the largest model for the sheets has design errors', () => {
     const star = tetrahedronStars(10);
     const r = buildWithLayout(star).model.report;
-    // The model reported is the largest (the upper bound), not one stepped down into worse errors.
-    expect(r.diameterMm).toBeCloseTo(buildModel(star).report.diameterMm, 6);
+    // The model reported is the largest (the upper bound, its diameter rounded down to the report's 1e-6 mm so
+    // that it rebuilds exactly), not one stepped down into worse errors.
+    const bound = buildModel(star).report.diameterMm;
+    expect(r.diameterMm).toBeLessThanOrEqual(bound);
+    expect(r.diameterMm).toBeGreaterThanOrEqual(bound - 2e-6);
     expect(r.scale).toMatchObject({ resolved: false });
     expect(r.errors.find((e) => e.code === 'SCALE.NO_FIT')?.message).toMatch(
       /^no size fits 1 sheet of 600 × 400 mm: even the largest model that fits it \(\d+(\.\d)? mm across\) has design errors at 10 mm stock/,
@@ -234,6 +237,36 @@ describe('fitSheets scale', () => {
     ).toMatch(
       /has errors at every size \(.*6\.35 mm tool\); choose thicker stock, a larger fit allowance or a smaller bit$/,
     );
+  });
+
+  it('lays out the stored diameter on the sheets it counted (the search judges only sizes that rebuild exactly)', () => {
+    // Our own: a dodecahedron of {5/2} stars on one 800 × 400 sheet, cut with a 2 mm bit. The layout of this
+    // design flips between one and two sheets with changes of 1e-5 in the size, and the search once reported
+    // one sheet at a size whose diameter, rounded to 1e-6 mm in the report and rebuilt from the stored spec,
+    // needed two.
+    const dodecahedronStars = {
+      solid: 'dodecahedron',
+      piece: { sides: 5, step: 2, rotationDeg: 36, size: 0.803 },
+      scale: { by: 'fitSheets', sheets: 1 },
+      stock: { thicknessMm: 3, sheet: { widthMm: 800, heightMm: 400 }, marginMm: 5, gapMm: 3 },
+      machine: { kind: 'router', toolDiameterMm: 2 },
+      fitMm: 0,
+      bed: { widthMm: 600, heightMm: 700 },
+    } as unknown as DesignSpec;
+    for (const [design, sheets] of [
+      [dodecahedronStars, 1],
+      [spec(2), 2],
+    ] as const) {
+      const { model, resolvedSpec } = buildWithLayout(design);
+      const r = model.report;
+      expect(r.errors).toEqual([]);
+      // Rebuilt from what is stored, independently of the search: the same scale to the last bit, and a
+      // layout of its own on no more sheets than asked, as many as the report says.
+      const rebuilt = buildWithLayout(resolvedSpec);
+      expect(rebuilt.model.mmPerUnit).toBe(model.mmPerUnit);
+      expect(rebuilt.layout?.ok && rebuilt.layout.totals.sheetCount).toBe(r.sheetCount);
+      expect(r.sheetCount).toBeLessThanOrEqual(sheets);
+    }
   });
 
   it('does not search when the colour rule has no plan', () => {

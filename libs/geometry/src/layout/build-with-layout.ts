@@ -9,7 +9,9 @@ import {
   solveModelColourPlan,
   buildModel,
   noFitReason,
+  scaleFactor,
 } from '../build';
+import type { Solid } from '../solids/polyhedron';
 import { type ColourPlan } from '../colour';
 import { SpecValidationError, validateSpec, type ResolvedSpec } from '../spec/validate-spec';
 import { layoutFits, layoutModel, type LayoutOptions, type ModelLayout } from './plan-layout';
@@ -96,6 +98,18 @@ export const FIT_SHEETS_MAX_BUILDS = 32;
 const FIT_SHEETS_PROBES = [1.01, 1.02] as const;
 
 /**
+ * The scale at or just below `mmPerUnit` that a fitSheets result rebuilds at exactly. A result is stored and
+ * built again as `{ by: 'diameter', mm: report.diameterMm }`, the diameter rounded to 1e-6 mm; nesting is
+ * chaotic in the size (a model 1e-6 mm larger may need another sheet), so the search judges only sizes whose
+ * diameter already has that rounding: what it saw fit is then what the stored spec lays out.
+ */
+export function reproducibleScale(spec: ResolvedSpec, solid: Solid, mmPerUnit: number): number {
+  const perMm = scaleFactor(solid, { ...spec, scale: { by: 'diameter', mm: 1 } });
+  const diameterMm = Math.floor((mmPerUnit / perMm) * 1e6) / 1e6;
+  return scaleFactor(solid, { ...spec, scale: { by: 'diameter', mm: diameterMm } });
+}
+
+/**
  * The largest model whose layout uses at most `scale.sheets` sheets, with no design errors. A size can fail
  * two ways: too large (its layout needs more sheets, or a piece does not fit the sheet), or too small for
  * the stock (design errors: at a fixed thickness the slots take more of a smaller piece, until they cut it
@@ -110,7 +124,8 @@ const FIT_SHEETS_PROBES = [1.01, 1.02] as const;
  *    by FIT_SHEETS_TOLERANCE (0.5 %), or FIT_SHEETS_MAX_LAYOUTS layouts (FIT_SHEETS_MAX_BUILDS models) ran;
  * 4. probe 1 % and 2 % above the result (nesting is not monotone, so a slightly larger size may fit again);
  *    the largest probe that fits is taken, and the window up to the next size that failed is bisected.
- * When no size fits, the report has error SCALE.NO_FIT (with the last model tried), saying which way the
+ * Every size tried is one the resolved spec rebuilds at exactly (reproducibleScale), so the stored diameter lays
+ * out on the sheets the search counted. When no size fits, the report has error SCALE.NO_FIT (with the last model tried), saying which way the
  * sizes failed. The colour plan is solved once (it does not depend on the size); without one
  * (COLOUR.NO_PLAN) no search runs.
  */
@@ -147,10 +162,14 @@ export function fitSheetsSearch(spec: ResolvedSpec, input: DesignSpec): LayoutBu
   };
   type Trial = ReturnType<typeof evaluate>;
   const layoutOf = (t: Trial): ModelLayout | null => (t.tooSmall ? null : layoutModel(t.model, options));
-  const at = (mmPerUnit: number) => evaluate(buildAtScale(spec, solid, mmPerUnit));
+  const at = (mmPerUnit: number) =>
+    evaluate(buildAtScale(spec, solid, reproducibleScale(spec, solid, mmPerUnit)));
   const budgetLeft = () => layouts < FIT_SHEETS_MAX_LAYOUTS && builds < FIT_SHEETS_MAX_BUILDS;
   const apart = (a: Trial, b: Trial) => a.model.mmPerUnit / b.model.mmPerUnit - 1 > FIT_SHEETS_TOLERANCE;
-  const top: Trial = evaluate(upper.model);
+  const topScale = reproducibleScale(spec, solid, upper.model.mmPerUnit);
+  const top: Trial = evaluate(
+    topScale === upper.model.mmPerUnit ? upper.model : buildAtScale(spec, solid, topScale),
+  );
   let hi: Trial = top;
   let lo: Trial | null = hi.fits ? hi : null;
   /** The largest size found too small for the stock, below every size found too large. */
