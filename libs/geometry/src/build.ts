@@ -424,8 +424,9 @@ function fitToRectangleUncapped(
 
 /**
  * An upper bound on the fitSheets size, without layout: the smaller of the size at which the largest
- * piece just fits the sheet inside its margins (and the bed, when given) and the size at which the
- * pieces' total area equals `sheets` × the usable sheet area (area grows as the square of the scale).
+ * piece just fits the sheet inside its margins (and the bed, when given, less a router's path; see
+ * fitBedRectangle) and the size at which the pieces' total area equals `sheets` × the usable sheet area
+ * (area grows as the square of the scale).
  */
 export function fitSheetsUpperBound(
   spec: ResolvedSpec,
@@ -433,12 +434,16 @@ export function fitSheetsUpperBound(
 ): { model: BuiltModel; evaluations: number } {
   const sheet = spec.sheet as NonNullable<ResolvedSpec['sheet']>;
   const sheets = spec.scale.by === 'fitSheets' ? spec.scale.sheets : 1;
-  const w = sheet.widthMm - 2 * sheet.marginMm;
-  const h = sheet.heightMm - 2 * sheet.marginMm;
+  // The margin and bed the layout and the validity check hold the pieces to: a router's margin is at least
+  // its bit, and its path runs a bit's width outside each piece, which the bed must take too.
+  const margin = Math.max(sheet.marginMm, cutterMarginMm(spec.machine));
+  const w = sheet.widthMm - 2 * margin;
+  const h = sheet.heightMm - 2 * margin;
   let fit = fitToRectangle(spec, solid, w, h);
   let evaluations = fit.evaluations;
   if (spec.bed) {
-    const onBed = fitToRectangle(spec, solid, spec.bed.widthMm, spec.bed.heightMm);
+    const extra = toolPathExtraMm(spec.machine);
+    const onBed = fitToRectangle(spec, solid, spec.bed.widthMm - extra, spec.bed.heightMm - extra);
     evaluations += onBed.evaluations;
     if (onBed.model.mmPerUnit < fit.model.mmPerUnit) fit = onBed;
   }

@@ -269,6 +269,30 @@ describe('fitSheets scale', () => {
     }
   });
 
+  it('holds the pieces of a router to the bed less the bit, as fitBed and the validity check do', () => {
+    // Our own: a cube of squares cut with a 3 mm bit on a 300 × 250 mm bed, six 1000 × 800 sheets (one per
+    // piece), so the bed alone limits the size. The bit's path runs half a diameter outside each outline on
+    // every side (common practice: the router's tool offset), so the outline must fit the bed less 3 mm.
+    // The search's upper bound once fitted the outline to the whole bed: every size it tried had
+    // PIECE.LARGER_THAN_BED, and it answered SCALE.NO_FIT.
+    const routed = (scale: object) =>
+      withSheet(cubeSquares45(1.5), {
+        stock: { thicknessMm: 4, sheet: { widthMm: 1000, heightMm: 800 }, marginMm: 5, gapMm: 3 },
+        machine: { kind: 'router', toolDiameterMm: 3 },
+        bed: { widthMm: 300, heightMm: 250 },
+        scale,
+      }) as unknown as DesignSpec;
+    const r = buildWithLayout(routed({ by: 'fitSheets', sheets: 6 })).model.report;
+    expect(r.errors).toEqual([]);
+    expect(r.scale).toMatchObject({ resolved: true });
+    // The largest size whose pieces fit the bed, found by fitBed; 0.5 % larger no longer fits it.
+    const bed = buildWithLayout(routed({ by: 'fitBed' })).model.report;
+    expect(r.diameterMm).toBeLessThanOrEqual(bed.diameterMm);
+    expect(r.diameterMm).toBeGreaterThan(bed.diameterMm / 1.005);
+    const larger = buildModel(routed({ by: 'diameter', mm: r.diameterMm * 1.005 })).report;
+    expect(larger.errors.map((e) => e.code)).toContain('PIECE.LARGER_THAN_BED');
+  });
+
   it('does not search when the colour rule has no plan', () => {
     const r = buildWithLayout({ ...spec(3), colours: { count: 2, rule: 'neighbour-distinct' } }).model.report;
     expect(r.errors.map((e) => e.code)).toEqual(['COLOUR.NO_PLAN']);
