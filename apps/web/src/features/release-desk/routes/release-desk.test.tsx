@@ -401,7 +401,10 @@ describe('release desk', () => {
     const { user } = renderApp('/release-desk', { token: 't' });
     await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
     const job = await screen.findByTestId('desk-job');
-    await within(job).findByTestId('desk-needs-acknowledgement');
+    // Why "Record the cut" is disabled is said on the page, not only in the button's title.
+    expect(await within(job).findByTestId('desk-needs-acknowledgement')).toHaveTextContent(
+      'before its files are offered and its cut can be recorded',
+    );
     expect(within(job).queryByRole('button', { name: /^Download / })).not.toBeInTheDocument();
     expect(within(job).getByRole('button', { name: 'Record the cut' })).toBeDisabled();
   });

@@ -325,8 +325,12 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
         ) : null}
       </Stack>
       {job.state === 'released' && safety.isSuccess && !acknowledged ? (
+        // Also why "Record the cut" is disabled: a disabled button takes no focus, so its title reaches no
+        // keyboard or screen reader.
         <Alert severity="warning" data-testid="desk-needs-acknowledgement">
-          Read and acknowledge the safety notices for this job before its files are offered.
+          {canCut
+            ? 'Read and acknowledge the safety notices for this job before its files are offered and its cut can be recorded.'
+            : 'Read and acknowledge the safety notices for this job before its files are offered.'}
         </Alert>
       ) : null}
       {atMachines ? null : (
