@@ -180,6 +180,67 @@ describe('fit-test coupon', () => {
     );
   });
 
+  it('fits the machine bed: leaves out the outermost graded slots when the whole series would not, and says so', async () => {
+    // Icosahedron planes cross at 180° − 138.19° = 41.81° (dihedral arccos(−√5/3), handbook value), so a slot in
+    // 12 mm stock is t·cot(20.905°) = φ²·t = 31.42 mm wide (cot(θ/2) = (3 + √5)/2, derived). Seven graded slots of
+    // that width make a coupon about 400 mm long, more than a 300 × 250 mm bed takes either way round.
+    const spec: DesignSpec = {
+      solid: 'icosahedron',
+      piece: { sides: 4, step: 1, rotationDeg: 0, size: 0.52 },
+      scale: { by: 'diameter', mm: 1000 },
+      stock: { thicknessMm: 12, flexible: false },
+      machine: { kind: 'router', toolDiameterMm: 6.35 },
+      fitMm: 0,
+    };
+    const onBed = (bedWidthMm: number, bedHeightMm: number) =>
+      createCoupon({ ...packInputFrom(spec, { machine: { bedWidthMm, bedHeightMm } }), archive: false });
+    const fits = (w: number, h: number, bw: number, bh: number) =>
+      (w <= bw && h <= bh) || (h <= bw && w <= bh);
+    const phi2 = (3 + Math.sqrt(5)) / 2;
+    const computed = Math.round(12 * phi2 * 100) / 100;
+    expect(computed).toBeCloseTo(31.42, 2);
+
+    // A large bed takes the whole series.
+    const large = await onBed(1200, 800);
+    const largeSvg = readSvg(large.files[1]!.data);
+    expect(fits(largeSvg.width, largeSvg.height, 300, 250)).toBe(false);
+    const gradedOf = (r: typeof large) => {
+      const [c1] = [...readDxf(r.files[0]!.data).cut].sort(
+        (a, b) => Math.min(...a.map((p) => p[1])) - Math.min(...b.map((p) => p[1])),
+      ) as [P[]];
+      const ys = c1.map((p) => p[1]);
+      const top = Math.max(...ys);
+      return gapsAt(c1, top - (top - Math.min(...ys)) / 4).map((w) => Math.round(w * 100) / 100);
+    };
+    expect(gradedOf(large)).toHaveLength(7);
+    expect(large.manifest.warnings).toEqual([]);
+
+    // A 300 × 250 mm bed: the coupon drawn fits it (the SVG page is the coupon's extent), keeps the computed
+    // width and its nearest neighbours, and names the offsets left out.
+    const small = await onBed(300, 250);
+    const smallSvg = readSvg(small.files[1]!.data);
+    expect(fits(smallSvg.width, smallSvg.height, 300, 250)).toBe(true);
+    const kept = gradedOf(small);
+    expect(kept.length).toBeGreaterThanOrEqual(1);
+    expect(kept.length).toBeLessThan(7);
+    expect(kept).toContain(computed);
+    const offsetsKept = kept.map((w) => Math.round((w - computed) * 100) / 100);
+    const left = [-0.15, -0.1, -0.05, 0, 0.05, 0.1, 0.15].filter((o) => !offsetsKept.includes(o));
+    // Those left out lie farther from the computed width than every one kept.
+    expect(Math.min(...left.map(Math.abs))).toBeGreaterThanOrEqual(Math.max(...offsetsKept.map(Math.abs)));
+    expect((small.manifest.warnings ?? []).filter((w) => w.includes('bed'))).toEqual([
+      `coupon: the graded slots at ${left.map((o) => `${o > 0 ? '+' : ''}${o.toFixed(2)}`).join(', ')} mm ` +
+        "from the computed width are left out so that the coupon fits the machine's 300 × 250 mm bed",
+    ]);
+
+    // A bed smaller than a single slot's strip: the coupon cannot fit, and the warning says so.
+    const tiny = await onBed(200, 150);
+    const tinySvg = readSvg(tiny.files[1]!.data);
+    expect(fits(tinySvg.width, tinySvg.height, 200, 150)).toBe(false);
+    expect((tiny.manifest.warnings ?? []).join(' ')).toContain("larger than the machine's 200 × 150 mm bed");
+    expect(gradedOf(tiny)).toHaveLength(7);
+  });
+
   it('is part of every cut pack, in the pack units', async () => {
     const spec = design({ solid: 'octahedron', piece: { sides: 6, step: 1, rotationDeg: 0, size: 1.3 } });
     const r = await createCutPack({ ...packInputFrom(spec, { units: 'in' }), archive: false });

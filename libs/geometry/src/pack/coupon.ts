@@ -23,11 +23,17 @@ import {
   placePoint,
 } from './sheet-drawing';
 import { cutterClearanceMm, cutterMarginMm } from '../layout/plan-layout';
-import { lengthText } from '../math/length-text';
+import { lengthText, unitSizeText } from '../math/length-text';
 
 export interface CouponOptions {
   /** Offsets from the computed width, mm. Default −0.15 … +0.15 in 0.05 steps. */
   offsetsMm?: readonly number[];
+  /**
+   * The machine's bed, mm. A coupon larger than the bed either way round loses its outermost graded slots (the
+   * offsets farthest from the computed width) until it fits, with a warning; one that still does not fit is
+   * warned about.
+   */
+  bed?: { widthMm: number; heightMm: number };
 }
 
 export interface CouponStrip {
@@ -72,12 +78,65 @@ function makeSlot(end: Vec2, axis: Vec2, depth: number, width: number): Slot {
   return s;
 }
 
-/** Builds the coupon for a built model (its stock, fit allowance and machine), laid out on a small sheet. */
+/** Whether a drawing of w × h fits the bed one way round or the other. */
+const fitsBed = (w: number, h: number, bed: { widthMm: number; heightMm: number }) =>
+  (w <= bed.widthMm + 1e-9 && h <= bed.heightMm + 1e-9) ||
+  (h <= bed.widthMm + 1e-9 && w <= bed.heightMm + 1e-9);
+
+/**
+ * Builds the coupon for a built model (its stock, fit allowance and machine), laid out on a small sheet that
+ * fits the machine's bed when one is given (see CouponOptions.bed).
+ */
 export function buildCoupon(
   model: BuiltModel,
   units: Units,
   machine: EstimateMachine,
   options: CouponOptions = {},
+): Coupon {
+  const offsets = [...(options.offsetsMm ?? DEFAULT_COUPON_OFFSETS)];
+  let coupon = couponWith(model, units, machine, offsets);
+  const bed = options.bed;
+  if (!bed || !(bed.widthMm > 0 && bed.heightMm > 0)) return coupon;
+  const fits = () => fitsBed(coupon.drawing.widthMm, coupon.drawing.heightMm, bed);
+  const dropped: number[] = [];
+  while (!fits() && offsets.length > 1) {
+    // The offset farthest from the computed width goes first (the wider one when two are as far).
+    let k = 0;
+    offsets.forEach((o, i) => {
+      const far = Math.abs(o) - Math.abs(offsets[k]!);
+      if (far > 1e-9 || (Math.abs(far) <= 1e-9 && o > offsets[k]!)) k = i;
+    });
+    dropped.push(...offsets.splice(k, 1));
+    coupon = couponWith(model, units, machine, offsets);
+  }
+  const size = (w: number, h: number) => unitSizeText(w, h, units).replace(/ x /g, ' × ');
+  const bedText = size(bed.widthMm, bed.heightMm);
+  const notes: string[] = [];
+  if (!fits()) {
+    // Nothing is gained by leaving slots out: the coupon keeps its whole series.
+    coupon = couponWith(model, units, machine, options.offsetsMm ?? DEFAULT_COUPON_OFFSETS);
+    notes.push(
+      `the coupon is ${size(coupon.drawing.widthMm, coupon.drawing.heightMm)}, larger than the machine's ` +
+        `${bedText} bed, and would be even with one graded slot per strip: test the fit on a larger machine`,
+    );
+  } else if (dropped.length > 0)
+    notes.push(
+      `coupon: the graded slot${dropped.length > 1 ? 's' : ''} at ${dropped
+        .sort((a, b) => a - b)
+        .map((o) => `${o > 0 ? '+' : ''}${o.toFixed(2)}`)
+        .join(
+          ', ',
+        )} mm from the computed width ${dropped.length > 1 ? 'are' : 'is'} left out so that the coupon ` +
+        `fits the machine's ${bedText} bed`,
+    );
+  return { ...coupon, warnings: [...notes, ...coupon.warnings] };
+}
+
+function couponWith(
+  model: BuiltModel,
+  units: Units,
+  machine: EstimateMachine,
+  offsets: readonly number[],
 ): Coupon {
   const spec = model.spec;
   const t = spec.stock.thicknessMm;
@@ -85,7 +144,6 @@ export function buildCoupon(
   const steep = angles.length ? Math.max(...angles) : 90;
   const shallow = angles.length ? Math.min(...angles) : 90;
   const widthFor = (deg: number) => nominalSlotWidth(t, deg, spec.stock.flexible) + spec.fitMm;
-  const offsets = options.offsetsMm ?? DEFAULT_COUPON_OFFSETS;
   // Widths are engraved to 0.01 mm: cut exactly what is engraved.
   const wSteep = r2(widthFor(steep));
   const wShallow = r2(widthFor(shallow));

@@ -236,7 +236,7 @@ export async function createCutPack(
   }
   warnings.push(...sheets.flatMap((s) => s.warnings));
   progress(0.55);
-  const coupon = buildCoupon(model, input.units, machine);
+  const coupon = buildCoupon(model, input.units, machine, { bed: bedOf(input.machine) });
   warnings.push(...coupon.warnings);
   const estimate = sheetsEstimate(sheets, machine, input.material.pricePerSheet, input.machine.currency);
   const files: CutPackFile[] = [];
@@ -330,6 +330,9 @@ export function sheetOverBedNote(input: Pick<CutPackInput, 'sheet' | 'machine' |
   );
 }
 
+/** The machine's bed, which the coupon must fit. */
+const bedOf = (m: CutPackInput['machine']) => ({ widthMm: m.bedWidthMm, heightMm: m.bedHeightMm });
+
 /**
  * The geometry's machine kind of a profile's kind ("co2-laser" compensates like a "laser"); a geometry kind
  * (the CLI's) as it is.
@@ -355,12 +358,10 @@ export async function createCoupon(
   const model = buildChecked(input.spec);
   onProgress?.(0.4);
   const machine = withCutter(toEstimateMachine(input.machine, input.machine), model.spec.machine);
-  const coupon = buildCoupon(
-    model,
-    input.units,
-    machine,
-    input.offsetsMm ? { offsetsMm: input.offsetsMm } : {},
-  );
+  const coupon = buildCoupon(model, input.units, machine, {
+    bed: bedOf(input.machine),
+    ...(input.offsetsMm ? { offsetsMm: input.offsetsMm } : {}),
+  });
   const files = couponFiles(coupon, input.units);
   // The coupon is cut from offcuts: machine time only.
   const estimate = sheetsEstimate([coupon.drawing], machine, 0, input.machine.currency);
