@@ -608,6 +608,51 @@ describe('jobs through their states', () => {
     expectErrorBody(late.body, 409, 'JOB.ILLEGAL_TRANSITION');
   });
 
+  it('says who withdrew a request, links the fabricators to a page they can open, and tells a requester a supervisor withdrew theirs', async () => {
+    // The mails' main link is the last "label: address" line of the text body (mail-templates.ts).
+    const linkOf = (text: string) => /: (\S+)\n\n— Kerfwright/.exec(text)?.[1] ?? '';
+    const pathOf = (url: string) => new URL(url).pathname;
+
+    // Withdrawn by its requester: the fabricators hear it, the requester (who did it) does not.
+    const own = await draftJob();
+    await act(users.hobbyist, own.id, 'request');
+    // Earlier tests' mails (this hobbyist's too) are sent first, so that only this test's are read.
+    await mailsSent();
+    catcher.messages.length = 0;
+    await act(users.hobbyist, own.id, 'withdraw');
+    let mails = await mailsSent();
+    let toFabricator = mails.find(
+      (m) => m.subject.startsWith('Request withdrawn') && m.to.includes(users.fabricator.email),
+    );
+    expect(toFabricator?.text).toContain('was withdrawn by its requester before it was prepared');
+    expect(mails.filter((m) => m.to.includes(users.hobbyist.email))).toEqual([]);
+    // The job is a draft again, which a fabricator cannot open: the link is a page they can.
+    const link = pathOf(linkOf(toFabricator!.text));
+    expect(link).toBe('/jobs');
+    await ctx.http.get(`/api/jobs/${own.id}`).set(auth(users.fabricator)).expect(404);
+
+    // Withdrawn by a supervisor: the fabricators hear who did it, and so does the requester.
+    const job = await draftJob();
+    await act(users.hobbyist, job.id, 'request');
+    await mailsSent();
+    catcher.messages.length = 0;
+    await act(users.supervisor, job.id, 'withdraw');
+    mails = await mailsSent();
+    toFabricator = mails.find(
+      (m) => m.subject.startsWith('Request withdrawn') && m.to.includes(users.fabricator.email),
+    );
+    expect(toFabricator?.text).toContain(
+      'was withdrawn by a supervisor, Test supervisor, before it was prepared',
+    );
+    expect(toFabricator?.text).not.toContain('its requester');
+    const toRequester = mails.filter((m) => m.to.includes(users.hobbyist.email));
+    expect(toRequester.map((m) => m.subject)).toEqual(['Your request was withdrawn: Hanging octahedron']);
+    expect(toRequester[0]!.text).toContain('Test supervisor, a supervisor, withdrew your request');
+    // The requester's link is their job's page, which they can open.
+    expect(pathOf(linkOf(toRequester[0]!.text))).toBe(`/jobs/${job.id}`);
+    await ctx.http.get(`/api/jobs/${job.id}`).set(auth(users.hobbyist)).expect(200);
+  });
+
   it('lets a job be requested three times in ten minutes, no more: withdrawing in a loop cannot flood the fabricators', async () => {
     const job = await draftJob();
     const mails = async () =>

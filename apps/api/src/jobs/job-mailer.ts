@@ -28,9 +28,9 @@ export class JobMailer {
     const title = design?.name ?? 'a design';
     const link = { label: 'Open the job', url: appLink(this.config.appUrl, `jobs/${job.id}`) };
     const requester = () => this.outbox.addressOfUser(m, job.requesterId);
-    /** Queues one mail with the job's link (the outbox skips an empty list of recipients). */
-    const send = (kind: string, to: string[], subject: string, paragraphs: string[]) =>
-      this.outbox.enqueue(m, { kind, to, ...composeMail(subject, paragraphs, link) });
+    /** Queues one mail with the job's link, or another (the outbox skips an empty list of recipients). */
+    const send = (kind: string, to: string[], subject: string, paragraphs: string[], main = link) =>
+      this.outbox.enqueue(m, { kind, to, ...composeMail(subject, paragraphs, main) });
     const reason = `Reason given: ${job.returnReason ?? '(none)'}`;
     switch (action) {
       case 'request':
@@ -125,19 +125,40 @@ export class JobMailer {
         }
         return;
       }
-      case 'withdraw':
-        // The fabricators heard of the request: they hear that it is no longer waiting for them.
+      case 'withdraw': {
+        // The fabricators heard of the request: they hear that it is no longer waiting for them. The job is a
+        // draft again, which only its requester (and supervisors) can open: their link is the jobs board.
+        const byRequester = actorId === null || actorId === job.requesterId;
+        // Only a supervisor may withdraw another person's request.
+        const name = byRequester ? null : await this.nameOf(m, actorId, null);
+        const by = byRequester ? 'its requester' : name ? `a supervisor, ${name},` : 'a supervisor';
         await send(
           'job.withdrawn',
           await this.outbox.addressesOfRoles(m, ['fabricator']),
           `Request withdrawn: ${title}`,
-          [
-            `The cut job for "${title}" was withdrawn by its requester before it was prepared; nothing to do.`,
-          ],
+          [`The cut job for "${title}" was withdrawn by ${by} before it was prepared; nothing to do.`],
+          { label: 'Open the jobs board', url: appLink(this.config.appUrl, 'jobs') },
         );
+        // A request withdrawn by someone else (a supervisor) is news to its requester.
+        if (!byRequester) {
+          await send('job.withdrawn', await requester(), `Your request was withdrawn: ${title}`, [
+            `${name ? `${name}, a supervisor,` : 'A supervisor'} withdrew your request for "${title}" before it ` +
+              'was prepared; the job is a draft again.',
+            'Change it if need be, and request it again when it is ready.',
+          ]);
+        }
         return;
+      }
       default:
         return;
     }
+  }
+
+  /** A user's name as mails give it, or `fallback` when the account is gone. */
+  private async nameOf<T>(m: EntityManager, userId: string, fallback: T): Promise<string | T> {
+    const rows: { display_name: string }[] = await m.query(`SELECT display_name FROM users WHERE id = $1`, [
+      userId,
+    ]);
+    return rows[0]?.display_name ?? fallback;
   }
 }
