@@ -1415,6 +1415,78 @@ describe('jobs through their states', () => {
     expect(back?.text).toContain('Reason given: Wrong sheet size for this batch');
   });
 
+  it('mails nobody about what they just did themselves, whatever their role', async () => {
+    const second = await createUser(ctx, 'fabricator');
+    const subjectsTo = (
+      mails: { to: string[]; subject: string; text: string }[],
+      who: TestUser,
+      id: string,
+    ) => mails.filter((m) => m.to.includes(who.email) && m.text.includes(id)).map((m) => m.subject);
+    // A fabricator's own request, withdrawn, requested again and returned by them: the other fabricators hear of
+    // the request and the withdrawal; the fabricator who did each hears of none of it.
+    catcher.messages.length = 0;
+    const own = await draftJob(users.fabricator, 'Fabricator’s own octahedron');
+    await act(users.fabricator, own.id, 'request');
+    await act(users.fabricator, own.id, 'withdraw');
+    await act(users.fabricator, own.id, 'request');
+    await act(users.fabricator, own.id, 'return', { reason: 'Cut it another day' });
+    let mails = await mailsSent();
+    const withdrawn = mails.filter(
+      (m) => m.subject.startsWith('Request withdrawn') && m.to.includes(second.email),
+    );
+    expect(withdrawn.length).toBeGreaterThan(0);
+    expect(subjectsTo(mails, second, own.id)).toContain('Cut requested: Fabricator’s own octahedron');
+    expect(subjectsTo(mails, users.fabricator, own.id)).toEqual([]);
+    expect(
+      mails.filter((m) => m.to.includes(users.fabricator.email) && m.subject.includes('withdrawn')),
+    ).toEqual([]);
+
+    // A supervisor approving a job of their own (a fabricator prepared it) is asked to approve it, as every
+    // supervisor is, but not told they approved it; once the queue has released it, they hear that, as any
+    // requester does.
+    catcher.messages.length = 0;
+    const supervisors = await draftJob(users.supervisor, 'Supervisor’s own octahedron');
+    await act(users.supervisor, supervisors.id, 'request');
+    await act(users.fabricator, supervisors.id, 'prepare', prepareBody());
+    await act(users.supervisor, supervisors.id, 'approve');
+    await releaseJob(ctx, users.fabricator, supervisors.id);
+    mails = await mailsSent();
+    expect(subjectsTo(mails, users.supervisor, supervisors.id)).toEqual([
+      'Job prepared, waiting for approval: Supervisor’s own octahedron',
+      'Your job is released to the machines: Supervisor’s own octahedron',
+    ]);
+    expect(subjectsTo(mails, users.operator, supervisors.id)).toEqual([
+      'Job approved: Supervisor’s own octahedron',
+      'Job released to the machines: Supervisor’s own octahedron',
+    ]);
+
+    // An operator recording the cut of a job of their own is not told it is cut.
+    catcher.messages.length = 0;
+    const operators = await draftJob(users.operator, 'Operator’s own octahedron');
+    await act(users.operator, operators.id, 'request');
+    await act(users.fabricator, operators.id, 'prepare', prepareBody());
+    await act(users.supervisor, operators.id, 'approve');
+    await releaseJob(ctx, users.fabricator, operators.id);
+    await acknowledge(ctx, users.operator, operators.id);
+    await act(users.operator, operators.id, 'cut', { actualMinutes: 10, sheetsUsed: 1 });
+    mails = await mailsSent();
+    expect(subjectsTo(mails, users.operator, operators.id)).not.toContain(
+      'Your job is cut: Operator’s own octahedron',
+    );
+    // Someone else recording it, the requester hears it.
+    const other = await draftJob(users.operator, 'Operator’s second octahedron');
+    await act(users.operator, other.id, 'request');
+    await act(users.fabricator, other.id, 'prepare', prepareBody());
+    await act(users.supervisor, other.id, 'approve');
+    await releaseJob(ctx, users.fabricator, other.id);
+    await acknowledge(ctx, users.supervisor, other.id);
+    await act(users.supervisor, other.id, 'cut', { actualMinutes: 10, sheetsUsed: 1 });
+    mails = await mailsSent();
+    expect(subjectsTo(mails, users.operator, other.id)).toContain(
+      'Your job is cut: Operator’s second octahedron',
+    );
+  });
+
   it('documents the response shapes of the designs and jobs routes at /api/docs', async () => {
     const doc = (await ctx.http.get('/api/docs-json').expect(200)).body as {
       paths: Record<string, Record<string, { responses: Record<string, { content?: unknown }> }>>;

@@ -1,7 +1,7 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { type ConfigType } from '@nestjs/config';
 import { type EntityManager } from 'typeorm';
-import { type JobAction, type JobState } from '@kerfwright/contracts';
+import { type JobAction, type JobState, type Role } from '@kerfwright/contracts';
 import { mailConfig } from '../mail/mail.config';
 import { MailOutboxService } from '../mail/mail-outbox.service';
 import { appLink, composeMail } from '../mail/mail-templates';
@@ -27,29 +27,30 @@ export class JobMailer {
     const design = await m.findOne(Design, { where: { id: job.designId } });
     const title = design?.name ?? 'a design';
     const link = { label: 'Open the job', url: appLink(this.config.appUrl, `jobs/${job.id}`) };
-    const requester = () => this.outbox.addressOfUser(m, job.requesterId);
+    // Nobody is mailed about what they just did themselves (a fabricator requesting a job of their own, a
+    // supervisor approving theirs): the actor is left out of every list, but for a release, which the cut-pack
+    // queue finishes after the request has been answered.
+    const skipped = action === 'release' ? null : actorId;
+    const requester = () =>
+      job.requesterId === skipped ? Promise.resolve([]) : this.outbox.addressOfUser(m, job.requesterId);
+    const ofRoles = (roles: Role[]) => this.outbox.addressesOfRoles(m, roles, skipped ? [skipped] : []);
     /** Queues one mail with the job's link, or another (the outbox skips an empty list of recipients). */
     const send = (kind: string, to: string[], subject: string, paragraphs: string[], main = link) =>
       this.outbox.enqueue(m, { kind, to, ...composeMail(subject, paragraphs, main) });
     const reason = `Reason given: ${job.returnReason ?? '(none)'}`;
     switch (action) {
       case 'request':
-        await send(
-          'job.requested',
-          await this.outbox.addressesOfRoles(m, ['fabricator']),
-          `Cut requested: ${title}`,
-          [
-            `A new cut job for "${title}" (quantity ${job.quantity}) is waiting to be prepared.`,
-            'Pick the material, the machine profile and the colours, then check the layout and estimates.',
-          ],
-        );
+        await send('job.requested', await ofRoles(['fabricator']), `Cut requested: ${title}`, [
+          `A new cut job for "${title}" (quantity ${job.quantity}) is waiting to be prepared.`,
+          'Pick the material, the machine profile and the colours, then check the layout and estimates.',
+        ]);
         return;
       case 'prepare':
         // Four eyes: a prepared job waits for a supervisor, who should hear of it as fabricators hear of
         // requests; not the supervisor who prepared it, whom approval refuses (JOB.SELF_APPROVAL).
         await send(
           'job.prepared',
-          await this.outbox.addressesOfRoles(m, ['supervisor'], actorId ? [actorId] : []),
+          await ofRoles(['supervisor']),
           `Job prepared, waiting for approval: ${title}`,
           [
             `The cut job for "${title}" (quantity ${job.quantity}) has been prepared and is waiting for approval.`,
@@ -63,7 +64,7 @@ export class JobMailer {
         const verb = action === 'approve' ? 'approved' : 'released to the machines';
         // The operators hear what they do next; the requester, what happens to their job. A requester who
         // is an operator gets the operators' mail.
-        const operators = await this.outbox.addressesOfRoles(m, ['operator']);
+        const operators = await ofRoles(['operator']);
         await send(kind, operators, `Job ${verb}: ${title}`, [
           `The cut job for "${title}" has been ${verb}.`,
           action === 'release'
@@ -112,16 +113,11 @@ export class JobMailer {
         }
         if (from === 'released') {
           // The operators were told to cut it: they hear, as plainly, that it is not to be cut.
-          await send(
-            'job.recalled',
-            await this.outbox.addressesOfRoles(m, ['operator']),
-            `Do not cut: ${title} was returned`,
-            [
-              `The cut job for "${title}" was taken back from the machines before its cut. Do not cut it; ` +
-                'its files are no longer offered. Sheets already laid out for it go back to stock.',
-              reason,
-            ],
-          );
+          await send('job.recalled', await ofRoles(['operator']), `Do not cut: ${title} was returned`, [
+            `The cut job for "${title}" was taken back from the machines before its cut. Do not cut it; ` +
+              'its files are no longer offered. Sheets already laid out for it go back to stock.',
+            reason,
+          ]);
         }
         return;
       }
@@ -134,7 +130,7 @@ export class JobMailer {
         const by = byRequester ? 'its requester' : name ? `a supervisor, ${name},` : 'a supervisor';
         await send(
           'job.withdrawn',
-          await this.outbox.addressesOfRoles(m, ['fabricator']),
+          await ofRoles(['fabricator']),
           `Request withdrawn: ${title}`,
           [`The cut job for "${title}" was withdrawn by ${by} before it was prepared; nothing to do.`],
           { label: 'Open the jobs board', url: appLink(this.config.appUrl, 'jobs') },
