@@ -900,6 +900,54 @@ describe('jobs through their states', () => {
     expect(after.body.state).toBe('released');
   });
 
+  it('says on the job, in the list and the job view, why a material taken off the laser stops it, and offers no action the server refuses', async () => {
+    const refused: Record<string, JobAction[]> = {
+      prepared: ['approve'],
+      approved: ['release'],
+      released: ['cut'],
+    };
+    for (const state of ['prepared', 'approved', 'released'] as const) {
+      const { own, jobId } = await jobInOwnWorkshop(state);
+      const before = await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.supervisor)).expect(200);
+      expect(before.body.materialRefusal).toBeNull();
+      expect(before.body.actions).toEqual(expect.arrayContaining(refused[state]!));
+      await makePvc(own.cardId);
+      const message = await preparationRefusal(own, own.cardId);
+      for (const who of [users.supervisor, users.fabricator, users.operator, users.hobbyist]) {
+        const view = (await ctx.http.get(`/api/jobs/${jobId}`).set(auth(who)).expect(200)).body;
+        expect(view.state).toBe(state);
+        // The reason is the server's own refusal, word for word (the page shows it beside the job).
+        expect(view.materialRefusal).toBe(message);
+        for (const a of ['approve', 'release', 'cut']) expect(view.actions).not.toContain(a);
+        // The list's row says the same as the job's view.
+        const row = (
+          await ctx.http.get('/api/jobs').set(auth(who)).query({ state, pageSize: 100 }).expect(200)
+        ).body.items.find((j: { id: string }) => j.id === jobId);
+        expect(row).toMatchObject({ materialRefusal: message, actions: view.actions });
+      }
+      // What is still offered still works: the fabricator returns it (or prepares it with another material).
+      const fabricatorView = (await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.fabricator))).body;
+      expect(fabricatorView.actions).toContain('return');
+      // Each action no longer offered is refused by the server, as the reason says.
+      const action = refused[state]![0]!;
+      const who =
+        action === 'approve' ? users.supervisor : action === 'cut' ? users.operator : users.fabricator;
+      if (action === 'cut') await acknowledge(ctx, users.operator, jobId);
+      const res = await act(
+        who,
+        jobId,
+        action,
+        action === 'cut' ? { actualMinutes: 5, sheetsUsed: 1 } : {},
+        409,
+      );
+      expectErrorBody(res.body, 409, 'MATERIAL.LASER_PROHIBITED');
+      expect(res.body.message).toBe(message);
+      await act(users.fabricator, jobId, 'return', { reason: 'Material taken off the laser' });
+      const returned = (await ctx.http.get(`/api/jobs/${jobId}`).set(auth(users.fabricator))).body;
+      expect(returned.materialRefusal).toBeNull();
+    }
+  });
+
   it('stops a released job by returning it: its files are no longer offered and it cannot be cut', async () => {
     const job = await releasedAndAcknowledged();
     const [exp] = (await ctx.http.get(`/api/jobs/${job.id}/exports`).set(auth(users.operator)).expect(200))

@@ -238,6 +238,13 @@ export interface JobView {
   profileVersionRetired?: boolean;
   /** Why a supervisor took that version out of use, when they did (null when a newer approval retired it). */
   profileRetireReason?: string | null;
+  /**
+   * Why the job's material may not be cut on its machine now (kept off the laser, or refused by the hazard table,
+   * since the job was prepared): the message the server's 409 MATERIAL.LASER_PROHIBITED gives. Such a job is not
+   * approved, released or cut (those actions are not offered) until it is prepared with another material or
+   * returned. Null when it may be cut, or before preparation and after the cut.
+   */
+  materialRefusal?: string | null;
   /** True when the caller prepared the job (so may not approve it: four eyes). */
   preparedByCaller?: boolean;
   returnReason: string | null;

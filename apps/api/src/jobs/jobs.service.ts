@@ -14,8 +14,11 @@ import {
   JOB_EDITABLE_STATES,
   JOB_OPEN_STATES,
   JOB_PACK_STATES,
+  isLaserKind,
   layoutChoiceOf,
   type MachineProfileKind,
+  type MaterialFamily,
+  type MaterialHazard,
   mayChangeJobRequest,
   type Page,
   transitionFor,
@@ -29,6 +32,8 @@ import { requestIdOf } from '../common/middleware/request-id.middleware';
 import { canReadDesign } from '../designs/designs.service';
 import { Design } from '../designs/design.entity';
 import { measuredKerfError } from '../machine-profiles/profile-rules';
+import { HazardTableService } from '../materials/hazard-table.service';
+import { laserRefusalOf } from '../materials/materials.service';
 import { SafetyService } from '../safety/safety.service';
 import {
   type CreateJobDto,
@@ -88,7 +93,8 @@ const ROW_SELECT = `${LIST_COLUMNS.filter((c) => !c.endsWith('_at'))
   .join(', ')},
        ${isoTimestamp('page.created_at')} AS created_at, ${isoTimestamp('page.updated_at')} AS updated_at,
        d.name AS design_name, r.display_name AS requester_name,
-       m.name AS material_name, p.name AS profile_name, v.number AS profile_number, v.state AS profile_state,
+       m.name AS material_name, m.family AS material_family, m.laser_allowed AS material_laser_allowed,
+       m.hazard_note AS material_hazard_note, p.kind AS profile_kind, p.name AS profile_name, v.number AS profile_number, v.state AS profile_state,
        v.retire_reason AS profile_retire_reason,
        CASE WHEN page.state = 'prepared' THEN
          (SELECT t.actor_id FROM job_transitions t
@@ -127,6 +133,10 @@ type JobListRow = {
   /** The list's total (the job route reads no total). */
   total?: string;
   material_name: string | null;
+  material_family: MaterialFamily | null;
+  material_laser_allowed: boolean | null;
+  material_hazard_note: string | null;
+  profile_kind: MachineProfileKind | null;
   profile_name: string | null;
   profile_number: number | null;
   profile_state: string | null;
@@ -136,7 +146,35 @@ type JobListRow = {
 
 const numberOrNull = (v: string | null): number | null => (v === null ? null : Number(v));
 
-function rowView(r: JobListRow, user: AuthUser): JobView {
+/** States in which a job's material is checked against its machine before it is cut (approve, release, cut). */
+const MATERIAL_CHECKED_STATES: readonly JobState[] = ['prepared', 'approved', 'released'];
+
+/** Whether a row's material is to be checked against the hazard table: a laser job waiting to be cut. */
+const laserChecked = (r: JobListRow): boolean =>
+  r.material_id !== null &&
+  r.profile_kind !== null &&
+  isLaserKind(r.profile_kind) &&
+  MATERIAL_CHECKED_STATES.includes(r.state);
+
+/** Why the row's material may not be cut on its machine now (as the server's 409 says), or null. */
+function materialRefusalOf(r: JobListRow, table: readonly MaterialHazard[] | null): string | null {
+  if (!table || !laserChecked(r)) return null;
+  return laserRefusalOf(
+    {
+      name: r.material_name ?? '',
+      family: r.material_family!,
+      laserAllowed: r.material_laser_allowed === true,
+      hazardNote: r.material_hazard_note ?? '',
+    },
+    table,
+  );
+}
+
+/** Actions refused while the job's material may not be cut on its machine (MATERIAL.LASER_PROHIBITED). */
+const MATERIAL_REFUSED_ACTIONS: readonly JobAction[] = ['approve', 'release', 'cut'];
+
+function rowView(r: JobListRow, user: AuthUser, hazards: readonly MaterialHazard[] | null): JobView {
+  const materialRefusal = materialRefusalOf(r, hazards);
   return {
     id: r.id,
     state: r.state,
@@ -154,6 +192,7 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     profileVersionNumber: r.profile_number === null ? null : Number(r.profile_number),
     profileVersionRetired: r.profile_state !== null && r.profile_state !== 'approved',
     profileRetireReason: r.profile_retire_reason,
+    materialRefusal,
     preparedByCaller: r.preparer_id === user.id,
     returnReason: r.return_reason,
     preparation: r.preparation,
@@ -166,9 +205,13 @@ function rowView(r: JobListRow, user: AuthUser): JobView {
     updatedAt: r.updated_at,
     actions: jobActionsFor(r.state, user, r.requester_id, r.preparer_id).filter(
       // A job prepared on a version retired (or withdrawn) since cannot be approved or released: it is
-      // prepared again on the approved version first (the server refuses either with 409 otherwise).
+      // prepared again on the approved version first (the server refuses either with 409 otherwise). Nor is a
+      // job whose material was taken off its laser since approved, released or cut.
       (a) =>
-        r.profile_state === null || r.profile_state === 'approved' || (a !== 'approve' && a !== 'release'),
+        (r.profile_state === null ||
+          r.profile_state === 'approved' ||
+          (a !== 'approve' && a !== 'release')) &&
+        (materialRefusal === null || !MATERIAL_REFUSED_ACTIONS.includes(a)),
     ),
   };
 }
@@ -205,6 +248,7 @@ export class JobsService {
     private readonly preparation: JobPreparationService,
     private readonly mailer: JobMailer,
     private readonly safety: SafetyService,
+    private readonly hazards: HazardTableService,
     @Inject(jobsConfig.KEY) private readonly config: ConfigType<typeof jobsConfig>,
   ) {}
 
@@ -255,7 +299,9 @@ export class JobsService {
     }
     const rows = await preparedQuery<JobListRow>(this.dataSource, text, params);
     const total = Number(rows[0]?.total ?? 0);
-    const items = rows.filter((r) => r.id !== null).map((r) => rowView(r, user));
+    const found = rows.filter((r) => r.id !== null);
+    const hazards = await this.hazardsFor(this.dataSource.manager, found);
+    const items = found.map((r) => rowView(r, user, hazards));
     return { items, total, page, pageSize };
   }
 
@@ -643,6 +689,14 @@ export class JobsService {
     await this.mailer.onTransition(m, job, action, from, actorId);
   }
 
+  /**
+   * The hazard table, read only when one of the rows is a laser job waiting to be cut (whose material it may
+   * refuse since preparation); null otherwise.
+   */
+  private async hazardsFor(m: EntityManager, rows: JobListRow[]): Promise<MaterialHazard[] | null> {
+    return rows.some(laserChecked) ? this.hazards.rows(m) : null;
+  }
+
   /** The job route's view: the list's row for this job (same SQL, same mapping) and its transitions. */
   private async detail(m: EntityManager, user: AuthUser, id: string): Promise<JobDetailView> {
     // A plain query, not a prepared one: it also runs inside the transactions of job changes.
@@ -658,7 +712,7 @@ export class JobsService {
       order: { id: 'ASC' },
     });
     return {
-      ...rowView(row, user),
+      ...rowView(row, user, await this.hazardsFor(m, [row])),
       transitions: transitions.map((t) => ({
         from: t.fromState,
         to: t.toState,

@@ -8,6 +8,7 @@ import {
   laserRefusal,
   type MachineProfileKind,
   type MaterialFamily,
+  type MaterialHazard,
   type MaterialView,
   type Page,
   type Role,
@@ -225,20 +226,12 @@ export class MaterialsService {
     const m = await manager.findOneBy(Material, { id: materialId });
     if (!m) throw notFound('MATERIAL', 'No such material');
     if (isLaserKind(kind)) {
-      const table = await this.hazards.rows(manager);
-      const named = familyNamedIn(m.name, m.family, table);
-      const refusal = !m.laserAllowed
-        ? m.hazardNote
-        : named
-          ? `its name says "${named.word}": ${laserRefusal(named.row.family, table)}`
-          : laserRefusal(m.family, table);
+      const refusal = laserRefusalOf(m, await this.hazards.rows(manager));
       if (refusal !== null) {
-        throw new AppError(
-          HttpStatus.CONFLICT,
-          'MATERIAL.LASER_PROHIBITED',
-          `${m.name} may not be cut on a laser: ${refusal || 'it is marked as not laser-allowed'}`,
-          { materialId: m.id, family: m.family },
-        );
+        throw new AppError(HttpStatus.CONFLICT, 'MATERIAL.LASER_PROHIBITED', refusal, {
+          materialId: m.id,
+          family: m.family,
+        });
       }
     }
     return toMaterialView(m);
@@ -350,4 +343,22 @@ function namedRefusedFamily(name: string, named: NonNullable<ReturnType<typeof f
       'that family, keep it off the laser saying why, or correct the name if it is wrong',
     { field: 'name', family: named.row.family, word: named.word },
   );
+}
+
+/**
+ * Why a material may not be cut on a laser now, in the words of 409 MATERIAL.LASER_PROHIBITED, or null when it
+ * may: kept off the laser by its own flag, named as a refused plastic, or of a family the hazard table refuses.
+ */
+export function laserRefusalOf(
+  m: Pick<Material, 'name' | 'family' | 'laserAllowed' | 'hazardNote'>,
+  table: readonly MaterialHazard[],
+): string | null {
+  const named = familyNamedIn(m.name, m.family, table);
+  const refusal = !m.laserAllowed
+    ? m.hazardNote
+    : named
+      ? `its name says "${named.word}": ${laserRefusal(named.row.family, table)}`
+      : laserRefusal(m.family, table);
+  if (refusal === null) return null;
+  return `${m.name} may not be cut on a laser: ${refusal || 'it is marked as not laser-allowed'}`;
 }

@@ -104,6 +104,15 @@ export class JobViewDto implements JobView {
   })
   profileRetireReason?: string | null;
   @ApiProperty({
+    type: String,
+    required: false,
+    nullable: true,
+    description:
+      'Why the job’s material may not be cut on its machine now (taken off the laser since preparation: the ' +
+      'message of 409 MATERIAL.LASER_PROHIBITED); approve, release and cut are then not offered',
+  })
+  materialRefusal?: string | null;
+  @ApiProperty({
     required: false,
     description: 'True when the caller prepared the job (four eyes: no approval)',
   })
