@@ -706,6 +706,37 @@ describe('job detail', () => {
     expect(within(actions).queryByRole('button', { name: /approve/i })).toBeNull();
   });
 
+  it('says why a job whose material was taken off the laser is not offered for approval, release or cut', async () => {
+    // The server's refusal (MATERIAL.LASER_PROHIBITED), word for word, as the job view carries it.
+    const refusal = 'PVC, vinyl must not be cut on a laser: releases hydrogen chloride';
+    for (const [role, state, next] of [
+      ['supervisor', 'prepared', 'Return it with a reason'],
+      ['operator', 'released', 'A supervisor or fabricator returns it'],
+    ] as const) {
+      stubFetch({
+        'GET /api/auth/me': () => json(200, userFixture(role)),
+        [`GET /api/jobs/${job.id}`]: () =>
+          json(200, {
+            ...job,
+            state,
+            actions: role === 'supervisor' ? ['return'] : [],
+            materialRefusal: refusal,
+          }),
+        [`GET /api/jobs/${job.id}/exports`]: () => json(200, []),
+        [`GET /api/jobs/${job.id}/safety`]: () => json(200, jobSafetyFixture(job.id, false)),
+      });
+      const { unmount } = renderApp(`/jobs/${job.id}`, { token: 't' });
+      const actions = await screen.findByTestId('job-actions');
+      const note = await within(actions).findByTestId('material-stopped');
+      expect(note).toHaveTextContent(`${refusal}. Since it was prepared`);
+      expect(note).toHaveTextContent('it cannot be approved, released or cut');
+      expect(note).toHaveTextContent(next);
+      // Not the supervisor's generic "You cannot approve this job." beside it.
+      expect(within(actions).queryByTestId('approve-blocked')).toBeNull();
+      unmount();
+    }
+  });
+
   it('waits with the cut record until the operator has acknowledged the notices, as the server does', async () => {
     for (const acknowledged of [false, true]) {
       stubFetch({

@@ -35,7 +35,7 @@ import {
 } from '../../../lib/units';
 import { isJobId, useJob } from '../api/get-job';
 import { useJobSafety } from '../api/get-job-safety';
-import { approveBlockedReason } from '../lib/approve-blocked';
+import { approveBlockedReason, materialStopText } from '../lib/approve-blocked';
 import {
   packPrepareBlockedReason,
   preparedAgainAfterReturn,
@@ -273,6 +273,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           </Button>
         ) : null}
         {[
+          ['material-stopped', materialStopText(job, user.role)],
           ['approve-blocked', approveBlocked],
           ['cut-waits', cutWaits ? 'Acknowledge the safety notices before recording the cut.' : null],
           // Release is not offered for a job prepared on a version retired since: said here, by the actions.

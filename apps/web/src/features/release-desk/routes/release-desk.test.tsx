@@ -317,6 +317,30 @@ describe('release desk', () => {
     );
   });
 
+  it('tells the operator why a released job’s material may not be cut on its laser any more', async () => {
+    stubDesk(
+      true,
+      {},
+      {
+        'GET /api/auth/me': () => json(200, userFixture('operator')),
+        [`GET /api/jobs/${released.id}`]: () =>
+          json(200, {
+            ...released,
+            materialRefusal: 'PVC, vinyl must not be cut on a laser: releases hydrogen chloride',
+            actions: [],
+            transitions: [],
+          }),
+      },
+    );
+    const { user } = renderApp('/release-desk', { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Open Turned squares' }));
+    const job = await screen.findByTestId('desk-job');
+    expect(await within(job).findByTestId('desk-material-stopped')).toHaveTextContent(
+      'PVC, vinyl must not be cut on a laser: releases hydrogen chloride. Since it was prepared',
+    );
+    expect(within(job).queryByRole('button', { name: 'Record the cut' })).toBeNull();
+  });
+
   it('shows a job returned while open as returned, with its reason, and offers none of its files', async () => {
     stubDesk(
       true,

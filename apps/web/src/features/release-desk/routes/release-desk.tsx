@@ -39,6 +39,7 @@ import {
 } from '../../jobs/lib/pack-text';
 import { JobStateChip } from '../../jobs/components/job-state-chip';
 import { RecordCutDialog } from '../../jobs/components/record-cut-dialog';
+import { materialStopText } from '../../jobs/lib/approve-blocked';
 import { SafetyDialog } from '../../jobs/components/safety-dialog';
 import { type DeskRow, useReleaseDeskJobs } from '../api/get-release-desk-jobs';
 import { PackProgress } from '../components/pack-progress';
@@ -276,6 +277,7 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
   const [unit] = useLengthUnit();
   const acknowledged = safety.data?.acknowledged === true;
   const retiredSince = retiredSinceReleaseText(job, user.role);
+  const materialStop = materialStopText(job, user.role);
   // Approved (its pack being built), released, or cut and closed since: the desk's states for a job.
   const atMachines = JOB_PACK_STATES.includes(job.state) || CUT_PACK_DOWNLOADABLE_STATES.includes(job.state);
   const canCut = job.actions.includes('cut');
@@ -341,6 +343,11 @@ function DeskJob({ job, phone }: { job: JobView; phone: boolean }) {
             : `This job is ${job.state} now: it is no longer at the machines, and its files are not offered.`}
         </Alert>
       )}
+      {materialStop ? (
+        <Alert severity="error" data-testid="desk-material-stopped">
+          {materialStop}
+        </Alert>
+      ) : null}
       {retiredSince ? (
         <Alert severity="warning" data-testid="desk-retired-since-release">
           {retiredSince}
