@@ -1,6 +1,6 @@
 import { type MaterialView } from '@kerfwright/contracts';
 import { act, screen, waitFor, within } from '@testing-library/react';
-import { useState } from 'react';
+import { type ComponentProps, useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
 import { renderWithProviders } from '../../../testing/render-app';
 import { KerfRecordDialog } from './kerf-record-dialog';
@@ -30,14 +30,23 @@ const noop = () => undefined;
 /** A material's row, whatever material it names ("Material setting 1: Birch plywood 3 mm"). */
 const row = (n: number) => new RegExp(`^Material setting ${n}:`);
 
-function renderForm(onSubmit = vi.fn()) {
+/** The form, by default a new profile in millimetres offering birch and PVC. */
+function renderForm(
+  onSubmit = vi.fn(),
+  {
+    mode = 'create',
+    unit = 'mm',
+    initial = EMPTY_PROFILE,
+    materials = [birch, pvc],
+  }: Partial<Pick<ComponentProps<typeof ProfileFormDialog>, 'mode' | 'unit' | 'initial' | 'materials'>> = {},
+) {
   const utils = renderWithProviders(
     <ProfileFormDialog
       open
-      mode="create"
-      unit="mm"
-      initial={EMPTY_PROFILE}
-      materials={[birch, pvc]}
+      mode={mode}
+      unit={unit}
+      initial={initial}
+      materials={materials}
       busy={false}
       error={null}
       onSubmit={onSubmit}
@@ -297,19 +306,12 @@ describe('the profile forms in inches', () => {
         { ...EMPTY_SETTING, materialId: 'm-birch', kerfMm: 0.2032, cutSpeedMmS: 12.7, powerPct: 70 },
       ],
     };
-    const { user } = renderWithProviders(
-      <ProfileFormDialog
-        open
-        mode="edit-draft"
-        unit="in"
-        initial={version}
-        materials={[birch]}
-        busy={false}
-        error={null}
-        onSubmit={onSubmit}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderForm(onSubmit, {
+      mode: 'edit-draft',
+      unit: 'in',
+      initial: version,
+      materials: [birch],
+    });
     const setting = await screen.findByRole('group', { name: row(1) });
     expect(screen.getByLabelText('Bed width (in)')).toHaveValue(24);
     expect(screen.getByLabelText('Bed height (in)')).toHaveValue(16);
@@ -349,19 +351,12 @@ describe('the profile forms in inches', () => {
         },
       ],
     };
-    const { user } = renderWithProviders(
-      <ProfileFormDialog
-        open
-        mode="edit-draft"
-        unit="in"
-        initial={version}
-        materials={[birch]}
-        busy={false}
-        error={null}
-        onSubmit={onSubmit}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderForm(onSubmit, {
+      mode: 'edit-draft',
+      unit: 'in',
+      initial: version,
+      materials: [birch],
+    });
     const setting = await screen.findByRole('group', { name: row(1) });
     const kerf = within(setting).getByLabelText('Kerf (in)');
     // 0.08 mm = 0.0031496 in (1 in = 25.4 mm exactly).
@@ -375,19 +370,7 @@ describe('the profile forms in inches', () => {
   });
 
   it('gives the limits of a speed in inches per second', async () => {
-    const { user } = renderWithProviders(
-      <ProfileFormDialog
-        open
-        mode="create"
-        unit="in"
-        initial={EMPTY_PROFILE}
-        materials={[birch]}
-        busy={false}
-        error={null}
-        onSubmit={noop}
-        onClose={noop}
-      />,
-    );
+    const { user } = renderForm(vi.fn(), { unit: 'in', materials: [birch] });
     await user.type(screen.getByLabelText('Rapid speed (in/s)'), '100000');
     await user.click(screen.getByRole('button', { name: 'Create as draft' }));
     expect(await screen.findByText(/^At most [\d.]+ in\/s$/)).toBeInTheDocument();
