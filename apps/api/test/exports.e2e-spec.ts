@@ -21,6 +21,8 @@ import {
   startTestApp,
   type TestContext,
   type TestUser,
+  until,
+  waitingOnLock,
 } from './support/test-app';
 import { startWorker, stopWorker, type WorkerProcess } from './support/worker-process';
 import { createWorkshop, type WorkshopFixture } from './support/workshop-fixtures';
@@ -702,21 +704,7 @@ describe('cut packs whose job changes while they are built', () => {
     const jobId = await approvedJob(ctx, own, p);
     const design = (await ctx.http.get(`/api/jobs/${jobId}`).set(auth(p.fabricator)).expect(200)).body
       .designName as string;
-    /** Whether some statement waits for a lock and its text matches `like`. */
-    const waiting = async (like: string) =>
-      (
-        await ctx.db.query(
-          `SELECT 1 FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
-          [like],
-        )
-      ).length > 0;
-    const until = async (what: string, holds: () => Promise<boolean>) => {
-      const end = Date.now() + 30_000;
-      while (!(await holds())) {
-        if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
-        await sleep(50);
-      }
-    };
+    const waiting = (like: string) => waitingOnLock(ctx, like);
     // Holding off the files' rows stops the export's finishing transaction after it has checked the job's
     // machine version, before it commits: the moment a supervisor retires that version.
     const hold = ctx.db.createQueryRunner();

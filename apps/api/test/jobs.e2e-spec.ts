@@ -9,6 +9,8 @@ import {
   startTestApp,
   type TestContext,
   type TestUser,
+  until,
+  waitingOnLock,
 } from './support/test-app';
 import { acknowledge, isolateExports, releaseJob } from './support/export-fixtures';
 import { createWorkshop, octahedronHexagons, type WorkshopFixture } from './support/workshop-fixtures';
@@ -1171,21 +1173,7 @@ describe('jobs through their states', () => {
     await act(users.hobbyist, job.id, 'request');
     await act(users.fabricator, job.id, 'prepare', prepareBody());
     const read = await safetyRead(job.id);
-    /** Whether some statement waits for a lock and its text matches `like`. */
-    const waiting = async (like: string) =>
-      (
-        await ctx.db.query(
-          `SELECT 1 FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
-          [like],
-        )
-      ).length > 0;
-    const until = async (what: string, holds: () => Promise<boolean>) => {
-      const end = Date.now() + 30_000;
-      while (!(await holds())) {
-        if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
-        await new Promise((r) => setTimeout(r, 50));
-      }
-    };
+    const waiting = (like: string) => waitingOnLock(ctx, like);
     // Holding off the audit trail stops the second preparation after it has written the job and its prepare
     // transition (stamped with its transaction's start), before it commits: then the acknowledgement is sent.
     const hold = ctx.db.createQueryRunner();

@@ -56,6 +56,24 @@ export async function countRows(ctx: TestContext, table: string): Promise<number
   return Number(rows[0]!.n);
 }
 
+/** Whether some statement waits for a lock and its text matches `like` (a race held at a known point). */
+export async function waitingOnLock(ctx: TestContext, like: string): Promise<boolean> {
+  const rows: unknown[] = await ctx.db.query(
+    `SELECT 1 FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
+    [like],
+  );
+  return rows.length > 0;
+}
+
+/** Polls `holds` every 50 ms until it is true; throws after 30 s, naming `what` it waited for. */
+export async function until(what: string, holds: () => Promise<boolean>): Promise<void> {
+  const end = Date.now() + 30_000;
+  while (!(await holds())) {
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
 /** Asserts the one error body every non-2xx response carries. */
 export function expectErrorBody(body: unknown, statusCode: number, code?: string): void {
   expect(body).toEqual(
