@@ -49,19 +49,46 @@ describe('figures a workshop reads at a glance', () => {
     expect(formatHourlyRate(1250, 'GBP')).toBe('1,250.00 GBP/h');
   });
 
-  it('gives a kerf to two decimals, three where it was recorded to the thousandth, or five in inches', () => {
+  it('gives a kerf to two decimals, three where it was recorded to the thousandth, or in inches without trailing zeros', () => {
     expect(formatKerf(0.2, 'mm')).toBe('0.20 mm');
     expect(formatKerf(0.165, 'mm')).toBe('0.165 mm');
     expect(formatKerf(0.09, 'mm')).toBe('0.09 mm');
     expect(formatKerf(6, 'mm')).toBe('6.00 mm');
     // Floating point noise is not a thousandth recorded.
     expect(formatKerf(0.1 + 0.2, 'mm')).toBe('0.30 mm');
-    // 0.15 and 0.16 mm: 0.005906 and 0.006299 in (1 in = 25.4 mm exactly).
-    expect(formatKerf(0.15, 'in')).toBe('0.00591 in');
-    expect(formatKerf(0.16, 'in')).toBe('0.00630 in');
+    // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; NIST SP 811). Router bits are sold in
+    // fractions of an inch (common practice): a 1/8 in bit is 3.175 mm, a 1/4 in bit 6.35 mm, a 1/2 in one 12.7 mm.
+    expect(formatKerf(3.175, 'in')).toBe('0.125 in');
+    expect(formatKerf(6.35, 'in')).toBe('0.25 in');
+    expect(formatKerf(12.7, 'in')).toBe('0.5 in');
+    expect(formatKerf(25.4, 'in')).toBe('1 in');
+    // 0.15 and 0.16 mm: 0.005906 and 0.006299 in; 0.0059 in is 0.14986 mm and 0.0063 in 0.16002 mm, less than
+    // half a micrometre off, so a fifth decimal is not needed.
+    // 0.0025 in is 0.0635 mm: exactly half a micrometre from 0.064 mm, a tie, so 0.064 mm takes a fifth decimal.
+    expect(formatKerf(0.064, 'in')).toBe('0.00252 in');
+    expect(formatKerf(0.15, 'in')).toBe('0.0059 in');
+    expect(formatKerf(0.16, 'in')).toBe('0.0063 in');
     // 0.08 mm is 0.0031496 in: to four decimals, 0.0031 in would read back as 0.0787 mm.
     expect(formatKerf(0.08, 'in')).toBe('0.00315 in');
     expect(formatKerf(Number.NaN, 'mm')).toBe('—');
+  });
+
+  it('gives every kerf and tool diameter in inches that read back to less than half a micrometre, with no digit to spare', () => {
+    // Every kerf and tool diameter a profile takes (0.01–25 mm, MACHINE_PROFILE_LIMITS) to the micrometre.
+    for (let um = 10; um <= 25_000; um += 1) {
+      const mm = um / 1000;
+      const shown = formatKerf(mm, 'in');
+      const digits = /^(\d+)(?:\.(\d+))? in$/.exec(shown);
+      expect(digits, shown).not.toBeNull();
+      const decimals = digits?.[2] ?? '';
+      expect(decimals.endsWith('0'), shown).toBe(false);
+      expect(Math.abs(Number.parseFloat(shown) * 25.4 - mm), shown).toBeLessThan(0.0005);
+      // One decimal fewer would be half a micrometre off or more.
+      if (decimals.length > 0) {
+        const shorter = Number((mm / 25.4).toFixed(decimals.length - 1));
+        expect(Math.abs(shorter * 25.4 - mm), shown).toBeGreaterThan(0.0005 - 1e-12);
+      }
+    }
   });
 
   it('gives a speed per second in the unit chosen, thousands grouped and no trailing zeros', () => {

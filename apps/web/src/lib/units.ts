@@ -10,20 +10,41 @@ export function formatLength(mm: number, unit: LengthUnit): string {
 }
 
 /**
- * Inch decimals of a kerf, a tool diameter or a fit, shown and typed: five, so that the inches shown, typed
- * back, are the millimetres stored within 0.13 µm (half of 0.00001 in); four would be up to 1.27 µm off, and a
+ * Inch decimals of a kerf, a tool diameter or a fit, shown and typed, at most: five, so that the inches shown,
+ * typed back, are the millimetres stored within 0.13 µm (half of 0.00001 in); four would be up to 1.27 µm off, and a
  * 0.08 mm kerf read as 0.0031 in and retyped would be saved as 0.0787 mm.
  */
 export const KERF_INCH_DECIMALS = 5;
 
 /**
+ * Inches shown, typed back, are the millimetres stored to less than this: half a micrometre, so that a value
+ * kept to the micrometre rounds back to itself (exactly half a micrometre off would be a tie).
+ */
+export const INCH_ROUND_TRIP_MM = 0.0005;
+
+/**
+ * Millimetres as a number of inches to type or read: the fewest decimals, up to `maxDecimals`, whose inches are
+ * the millimetres to less than half a micrometre (INCH_ROUND_TRIP_MM), so no trailing zeros ("0.125" for 3.175 mm,
+ * "0.00315" for 0.08 mm); where even `maxDecimals` are not that close, the inches to `maxDecimals` ("0.0031").
+ */
+export function inchNumber(mm: number, maxDecimals: number): string {
+  const inches = mm / MM_PER_INCH;
+  for (let decimals = 0; decimals < maxDecimals; decimals++) {
+    const shown = Number(inches.toFixed(decimals));
+    // Floating point puts a tie a hair either side of the half micrometre: a tie is not within it.
+    if (Math.abs(shown * MM_PER_INCH - mm) < INCH_ROUND_TRIP_MM - 1e-12) return String(shown);
+  }
+  return String(Number(inches.toFixed(maxDecimals)));
+}
+
+/**
  * A kerf, a tool diameter or a measured cut width: millimetres with two decimals, a third where the value was
- * recorded to the thousandth ("0.20 mm", "0.165 mm"); inches to KERF_INCH_DECIMALS, as the forms take them
- * back ("0.00787 in").
+ * recorded to the thousandth ("0.20 mm", "0.165 mm"); inches as the forms show and take them back, to at most
+ * KERF_INCH_DECIMALS and without trailing zeros ("0.125 in", "0.00315 in").
  */
 export function formatKerf(mm: number, unit: LengthUnit): string {
   if (!Number.isFinite(mm)) return '—';
-  if (unit === 'in') return `${(mm / MM_PER_INCH).toFixed(KERF_INCH_DECIMALS)} in`;
+  if (unit === 'in') return `${inchNumber(mm, KERF_INCH_DECIMALS)} in`;
   const thousandths = Math.round(mm * 1000);
   return `${(thousandths / 1000).toFixed(thousandths % 10 === 0 ? 2 : 3)} mm`;
 }

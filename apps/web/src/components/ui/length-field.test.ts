@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { KERF_INCH_DECIMALS } from '../../lib/units';
+import { formatKerf, KERF_INCH_DECIMALS } from '../../lib/units';
 import { inchLabel, inchesText, inchesToMm, messageInInches } from './length-field';
 
 // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959; NIST SP 811).
@@ -23,6 +23,15 @@ describe('inch fields over millimetre values', () => {
       const mm = um / 1000;
       const back = inchesToMm(inchesText(mm, KERF_INCH_DECIMALS));
       expect(Math.abs(back - mm)).toBeLessThanOrEqual(0.0005);
+    }
+  });
+
+  it('shows a kerf or tool diameter in its field as the pages show it, so the field reads what the page said', () => {
+    // A 1/8 in bit (3.175 mm, common practice) reads 0.125 in on the page and in the field, not 0.12500.
+    expect(inchesText(3.175, KERF_INCH_DECIMALS)).toBe('0.125');
+    for (let um = 10; um <= 25_000; um += 7) {
+      const mm = um / 1000;
+      expect(`${inchesText(mm, KERF_INCH_DECIMALS)} in`).toBe(formatKerf(mm, 'in'));
     }
   });
 

@@ -1,7 +1,7 @@
 import TextField from '@mui/material/TextField';
 import { type Ref, useState } from 'react';
 import { type Control, Controller, type FieldValues, type Path, type RegisterOptions } from 'react-hook-form';
-import { type LengthUnit, MM_PER_INCH } from '../../lib/units';
+import { inchNumber, type LengthUnit, MM_PER_INCH } from '../../lib/units';
 import { type BoundFieldProps } from './form-text-field';
 import { NumberField } from './number-field';
 
@@ -22,11 +22,12 @@ type LengthFieldProps<T extends FieldValues> = Omit<BoundFieldProps<T>, 'type' |
   inchDecimals?: number;
 };
 
-/** Inches as typed back to the reader: up to `decimals` (four), no trailing zeros ("0.25", "5.6875"). */
+/**
+ * Inches as typed back to the reader: up to `decimals` (four), no more than bring them within half a micrometre
+ * of the millimetres kept, no trailing zeros ("0.25", "5.6875"); as formatKerf shows them for KERF_INCH_DECIMALS.
+ */
 export function inchesText(mm: unknown, decimals = 4): string {
-  return typeof mm === 'number' && Number.isFinite(mm)
-    ? String(Number((mm / MM_PER_INCH).toFixed(decimals)))
-    : '';
+  return typeof mm === 'number' && Number.isFinite(mm) ? inchNumber(mm, decimals) : '';
 }
 
 /** A length field's label as shown in inches: "Kerf (mm, optional)" → "Kerf (in, optional)", "(mm/s)" → "(in/s)". */

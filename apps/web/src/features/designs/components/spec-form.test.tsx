@@ -128,14 +128,15 @@ describe('design studio spec form', () => {
     expect(await screen.findByText('Thickness: enter a number')).toBeInTheDocument();
   });
 
-  it('shows the kerf in inches to five decimals, so that typing back what it shows keeps the kerf', async () => {
+  it('shows the kerf in inches to the decimals that, typed back as shown, keep the kerf', async () => {
     let submitted: DesignFormValues | undefined;
     const { user } = renderWithProviders(<Harness startUnit="in" onValues={(v) => (submitted = v)} />);
     const kerf = await screen.findByLabelText('Kerf (in)');
-    // The studio's 0.15 mm = 0.0059055 in (1 in = 25.4 mm exactly); four decimals, 0.0059 in, is 0.14986 mm.
-    expect(kerf).toHaveValue(0.00591);
+    // The studio's 0.15 mm = 0.0059055 in (1 in = 25.4 mm exactly); 0.0059 in is 0.14986 mm, less than half a
+    // micrometre off, so a fifth decimal would be one too many.
+    expect(kerf).toHaveValue(0.0059);
     await user.clear(kerf);
-    await user.type(kerf, '0.00591');
+    await user.type(kerf, '0.0059');
     await user.click(screen.getByRole('button', { name: 'Check' }));
     await waitFor(() => expect(submitted).toBeDefined());
     expect(Math.abs(submitted!.kerfMm - 0.15)).toBeLessThanOrEqual(0.0005);

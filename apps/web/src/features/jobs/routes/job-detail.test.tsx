@@ -357,8 +357,8 @@ describe('job detail', () => {
     const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
     expect(await screen.findByText('0.165 mm')).toBeInTheDocument();
     await user.click(screen.getByRole('button', { name: 'inch' }));
-    // 0.165 mm / 25.4 mm per inch = 0.0064961 in.
-    expect(screen.getByText('0.00650 in')).toBeInTheDocument();
+    // 0.165 mm / 25.4 mm per inch = 0.0064961 in; 0.0065 in is 0.1651 mm, less than half a micrometre off.
+    expect(screen.getByText('0.0065 in')).toBeInTheDocument();
   });
 
   it('shows a kerf as the machine profiles do (0.09 mm, 0.20 mm), and a router job’s as the width of its cut', async () => {

@@ -166,15 +166,16 @@ describe('kerf history panel in inches', () => {
       <KerfHistoryPanel profile={profile} unit="in" onAdopted={(m) => notices.push(m)} />,
     );
     const table = await screen.findByRole('table', { name: 'Measured kerfs' });
-    // 0.165 mm = 0.00650 in; 0.078 mm = 0.00307 in.
-    expect(within(table).getByText('0.00650 in')).toBeInTheDocument();
+    // 0.165 mm = 0.0064961 in, read 0.0065 in (0.1651 mm); 0.078 mm = 0.0030709 in, read 0.00307 in, as 0.0031 in
+    // would be 0.07874 mm.
+    expect(within(table).getByText('0.0065 in')).toBeInTheDocument();
     expect(within(table).getByText('0.00307 in')).toBeInTheDocument();
     expect(within(table).queryByText(/mm/)).not.toBeInTheDocument();
     expect(screen.getByTestId('kerf-chart')).toHaveTextContent('kerf (in)');
     // The approved version's 0.08 mm is 0.00315 in.
     expect(screen.getByTestId('kerf-reference-label')).toHaveTextContent('Approved v1: 0.00315 in');
-    await user.click(screen.getByRole('button', { name: 'Adopt 0.00650 in' }));
-    await waitFor(() => expect(notices).toEqual(['0.00650 in is in draft version 1.']));
+    await user.click(screen.getByRole('button', { name: 'Adopt 0.0065 in' }));
+    await waitFor(() => expect(notices).toEqual(['0.0065 in is in draft version 1.']));
     expect(adopted).toBe(true);
   });
 });

@@ -331,7 +331,7 @@ describe('the profile forms in inches', () => {
     expect(saved.settings[0]).toMatchObject({ kerfMm: 0.2032, cutSpeedMmS: 12.7, markSpeedMmS: 101.6 });
   });
 
-  it('shows a kerf in inches to five decimals, so that typing back what it shows keeps the kerf', async () => {
+  it('shows a kerf in inches to the decimals that, typed back as shown, keep the kerf', async () => {
     const onSubmit = vi.fn();
     const version = {
       ...EMPTY_PROFILE,

@@ -99,19 +99,19 @@ describe('comparing profile versions in inches', () => {
     const value = (key: string) => rows.find((r) => r.key === key)?.values[0];
     expect(value('machine.bed')).toBe('24.000 × 16.000 in');
     expect(value('machine.rapid')).toBe('10 in/s');
-    // 0.18 mm = 0.0070866 in.
-    expect(value('m-acrylic.kerfMm')).toBe('0.00709 in');
+    // 0.18 mm = 0.0070866 in; 0.0071 in is 0.18034 mm, less than half a micrometre off.
+    expect(value('m-acrylic.kerfMm')).toBe('0.0071 in');
     expect(value('machine.rate')).toBe('24.00 EUR/h');
   });
 
   it('tells a change by the stored value, even where the inches shown read alike', () => {
-    // 0.1800 and 0.1801 mm are both 0.00709 in to five decimals.
+    // 0.1800 and 0.1801 mm both read 0.0071 in (0.18034 mm, less than half a micrometre from either).
     const rows = versionRows(
       [version(1), version(2, { settings: [{ ...version(1).settings[0]!, kerfMm: 0.1801 }] })],
       'in',
     );
     const kerf = rows.find((r) => r.key === 'm-acrylic.kerfMm');
-    expect(kerf?.values).toEqual(['0.00709 in', '0.00709 in']);
+    expect(kerf?.values).toEqual(['0.0071 in', '0.0071 in']);
     expect(kerf?.changed).toBe(true);
   });
 
