@@ -104,6 +104,42 @@ describe('job detail', () => {
     expect(post?.body).toEqual({ version: 4, reason: 'Please pick a thinner stock' });
   });
 
+  it('says that a supervisor approved the job by hand, where the keyboard goes to its name (WCAG 2.1, 4.1.3)', async () => {
+    const prepared = { ...job, state: 'prepared' as const, actions: ['approve', 'return'] as JobAction[] };
+    const stub = stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, prepared),
+      [`POST /api/jobs/${job.id}/approve`]: () =>
+        json(200, { ...prepared, state: 'approved', version: 5, actions: ['return'] }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Approve the job' }));
+    const dialog = await screen.findByRole('dialog', { name: 'Approve the job?' });
+    await user.click(within(dialog).getByRole('button', { name: 'Approve the job' }));
+    await waitFor(() => expect(stub.calls.some((c) => c.method === 'POST')).toBe(true));
+    // The heading that gets the keyboard names the job only; the step taken is said where it is announced.
+    await waitFor(() => expect(screen.getByRole('heading', { level: 1 })).toHaveFocus());
+    expect(screen.getByRole('heading', { level: 1 })).toHaveAccessibleName(job.designName);
+    expect(await screen.findByRole('alert')).toHaveTextContent(`${job.designName} is approved for release.`);
+  });
+
+  it('says that the job went back with the reason given, as the Approvals page does', async () => {
+    stubFetch({
+      'GET /api/auth/me': () => json(200, userFixture('supervisor')),
+      [`GET /api/jobs/${job.id}`]: () => json(200, job),
+      [`POST /api/jobs/${job.id}/return`]: () =>
+        json(200, { ...job, state: 'returned', version: 5, actions: ['reopen'], returnReason: 'Too thick' }),
+    });
+    const { user } = renderApp(`/jobs/${job.id}`, { token: 't' });
+    await user.click(await screen.findByRole('button', { name: 'Return with a reason' }));
+    await user.type(await screen.findByLabelText('Reason'), 'Too thick');
+    await user.click(screen.getByRole('button', { name: 'Return with this reason' }));
+    expect(await screen.findByRole('alert')).toHaveTextContent(
+      `${job.designName} is returned, with your reason.`,
+    );
+    await waitFor(() => expect(screen.getByRole('heading', { level: 1 })).toHaveFocus());
+  });
+
   it('lists the history on a phone (390 px), each step on its own lines, with no table to scroll', async () => {
     stubScreenWidth(390);
     stubFetch({

@@ -58,6 +58,7 @@ import { SafetyDialog } from '../components/safety-dialog';
 import { countOf } from '../../../lib/plural';
 import { isBlankNumber } from '../../../lib/form-numbers';
 import { withFullStop } from '../../../lib/sentences';
+import { NoticeSnackbar } from '../../../components/ui/notice-snackbar';
 
 /** Actions that need more than a confirmation open their own dialog; so do the notices and a draft's request. */
 type Open = JobAction | 'safety' | 'change' | null;
@@ -92,6 +93,23 @@ const DONE_TO_JOB: Record<JobAction, string> = {
   return: 'returned',
   reopen: 'reopened',
   withdraw: 'withdrawn',
+};
+
+/**
+ * What the page says once a step is taken, after the job's name ("Hexagon star is approved for release."), in
+ * the words the Approvals page uses for the same decisions: the heading that gets the keyboard names the job
+ * only, so without it nobody reading with a screen reader hears that the step was taken.
+ */
+const TAKEN_NOTICE: Record<JobAction, string> = {
+  request: 'is requested',
+  prepare: 'is prepared',
+  approve: 'is approved for release',
+  release: 'is released',
+  cut: 'is recorded as cut',
+  close: 'is closed',
+  return: 'is returned, with your reason',
+  reopen: 'is a draft again',
+  withdraw: 'is a draft again: the request is withdrawn',
 };
 
 /**
@@ -146,6 +164,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
   // the keyboard focus goes to the job's name (the state beside it), instead of falling to the page.
   const heading = useRef<HTMLHeadingElement>(null);
   const [stepTaken, setStepTaken] = useState(false);
+  const [notice, setNotice] = useState<string | null>(null);
   useEffect(() => {
     if (!stepTaken || open !== null) return;
     heading.current?.focus();
@@ -158,6 +177,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
         onSuccess: () => {
           setStepTaken(true);
           setOpen(null);
+          setNotice(`${job.designName} ${TAKEN_NOTICE[a]}.`);
         },
         // Someone acted on the job meanwhile: the dialog closes, so that nobody confirms a job they have not
         // seen as it is now (a new preparation, another state); the page shows it and says so.
@@ -501,6 +521,7 @@ function JobDetail({ job }: { job: JobDetailView }) {
           onClose={() => setOpen(null)}
         />
       ) : null}
+      <NoticeSnackbar notice={notice} onClose={() => setNotice(null)} />
     </Box>
   );
 }
