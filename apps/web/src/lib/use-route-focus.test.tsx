@@ -13,6 +13,7 @@ function Layout() {
         <Link to="/a">Page A</Link>
         <Link to="/slow">Slow page</Link>
         <Link to="/form">Form page</Link>
+        <Link to="/changing">Changing page</Link>
       </nav>
       <main id="main" tabIndex={-1}>
         <Outlet />
@@ -57,7 +58,21 @@ function FormPage() {
   );
 }
 
+/** A page whose button is named anew on every visit, as a list changed by others since would be. */
+let visits = 0;
+function ChangingPage() {
+  const navigate = useNavigate();
+  const [visit] = useState(() => ++visits);
+  return (
+    <>
+      <h1>Changing page</h1>
+      <button onClick={() => void navigate('/b')}>{`Visit ${visit}: open page B`}</button>
+    </>
+  );
+}
+
 function renderRoutes() {
+  visits = 0;
   const router = createMemoryRouter(
     [
       {
@@ -67,6 +82,7 @@ function renderRoutes() {
           { path: '/b', element: <h1>Page B</h1> },
           { path: '/slow', element: <SlowPage /> },
           { path: '/form', element: <FormPage /> },
+          { path: '/changing', element: <ChangingPage /> },
         ],
       },
     ],
@@ -89,6 +105,32 @@ describe('focus on a move to another page', () => {
     await waitFor(() => expect(screen.getByRole('heading', { name: 'Page A' })).toHaveFocus());
     await act(() => router.navigate(-1));
     await waitFor(() => expect(screen.getByRole('heading', { name: 'Page B' })).toHaveFocus());
+  });
+
+  it('puts the keyboard back on the control it left a page from, on Back and on Forward', async () => {
+    const { user, router } = renderRoutes();
+    await user.click(await screen.findByRole('button', { name: 'Open page B' }));
+    await waitFor(() => expect(screen.getByRole('heading', { name: 'Page B' })).toHaveFocus());
+    // Back to where the reader was: the button they pressed, not the heading at the top of the page.
+    await act(() => router.navigate(-1));
+    await waitFor(() => expect(screen.getByRole('button', { name: 'Open page B' })).toHaveFocus());
+    // Forward to page B, where the keyboard was last on its heading.
+    await act(() => router.navigate(1));
+    await waitFor(() => expect(screen.getByRole('heading', { name: 'Page B' })).toHaveFocus());
+    // A page entered afresh by a link starts at its heading, wherever the keyboard was on it before.
+    await user.click(screen.getByRole('link', { name: 'Page A' }));
+    await waitFor(() => expect(screen.getByRole('heading', { name: 'Page A' })).toHaveFocus());
+  });
+
+  it('puts the keyboard on the heading on Back when the control it left from is gone', async () => {
+    const { user, router } = renderRoutes();
+    await user.click(await screen.findByRole('link', { name: 'Changing page' }));
+    await user.click(await screen.findByRole('button', { name: 'Visit 1: open page B' }));
+    await waitFor(() => expect(screen.getByRole('heading', { name: 'Page B' })).toHaveFocus());
+    await act(() => router.navigate(-1));
+    // The page has changed since: no control of that name is left, so the keyboard starts at the heading.
+    expect(await screen.findByRole('button', { name: 'Visit 2: open page B' })).toBeInTheDocument();
+    await waitFor(() => expect(screen.getByRole('heading', { name: 'Changing page' })).toHaveFocus());
   });
 
   it('waits for the heading of a page still loading', async () => {
