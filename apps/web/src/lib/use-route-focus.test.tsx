@@ -71,10 +71,22 @@ function ChangingPage() {
   );
 }
 
-function renderRoutes() {
+/** A page outside the layout that hands on to one inside it, as signing in does. */
+function SignInPage() {
+  const navigate = useNavigate();
+  return (
+    <main>
+      <h1>Sign in</h1>
+      <button onClick={() => void navigate('/a', { replace: true })}>Sign in</button>
+    </main>
+  );
+}
+
+function renderRoutes(start = '/a') {
   visits = 0;
   const router = createMemoryRouter(
     [
+      { path: '/sign-in', element: <SignInPage /> },
       {
         element: <Layout />,
         children: [
@@ -86,7 +98,7 @@ function renderRoutes() {
         ],
       },
     ],
-    { initialEntries: ['/a'] },
+    { initialEntries: [start] },
   );
   render(<RouterProvider router={router} />);
   return { user: userEvent.setup(), router };
@@ -131,6 +143,12 @@ describe('focus on a move to another page', () => {
     // The page has changed since: no control of that name is left, so the keyboard starts at the heading.
     expect(await screen.findByRole('button', { name: 'Visit 2: open page B' })).toBeInTheDocument();
     await waitFor(() => expect(screen.getByRole('heading', { name: 'Changing page' })).toHaveFocus());
+  });
+
+  it('puts the keyboard on the heading of the page a reader signed in to, the sign-in button being gone', async () => {
+    const { user } = renderRoutes('/sign-in');
+    await user.click(await screen.findByRole('button', { name: 'Sign in' }));
+    await waitFor(() => expect(screen.getByRole('heading', { name: 'Page A' })).toHaveFocus());
   });
 
   it('waits for the heading of a page still loading', async () => {

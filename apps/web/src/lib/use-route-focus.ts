@@ -48,7 +48,7 @@ function markedControl(main: HTMLElement, mark: FocusMark): HTMLElement | null {
  * page, nor a replaced address), the keyboard's focus goes to the new page's heading, its `h1` in `main`, so
  * that a screen reader says where the reader is and Tab goes on from the top of the page rather than from
  * the link left behind, or from the start of the document when the control that moved it has gone (WCAG 2.1,
- * 2.4.3). A page still loading is waited for; the page's own choice (a field it opens in, a dialog) stands.
+ * 2.4.3); so too on arriving from a page outside the layout (signed in, registered). A page still loading is waited for; the page's own choice (a field it opens in, a dialog) stands.
  * Back and Forward return to a page where the reader was, its scroll put back by the browser: the keyboard goes
  * back to the control it was on there (the link followed, say) while the page has it, so that it is where the
  * page is shown and Tab goes on from there, not from a heading scrolled out of sight above.
@@ -78,11 +78,11 @@ export function useRouteFocus(mainId: string): void {
   const popped = useStableCallback(() => type === 'POP');
   const markFor = useStableCallback(() => marks.current.get(key));
   useEffect(() => {
-    if (first.current) {
-      first.current = false;
-      return;
-    }
-    if (replaced()) return;
+    // The layout mounts with the first page the browser opened (left alone), or with a page moved to from one
+    // outside it, as signing in replaces the sign-in page with the page asked for: that is a move too.
+    const entered = first.current;
+    first.current = false;
+    if (entered ? popped() : replaced()) return;
     const main = document.getElementById(mainId);
     if (!main) return;
     const mark = popped() ? markFor() : undefined;
