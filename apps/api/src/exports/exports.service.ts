@@ -30,6 +30,7 @@ import { Export, ExportFile } from './export.entity';
 import { EXPORT_JOB, EXPORT_QUEUE, exportJobOptions, exportsConfig } from './exports.config';
 import { type ExportJobData } from './exports.processor';
 import { withArticle } from '../common/text';
+import { preparationInEffect } from '../jobs/preparation-in-effect';
 
 const POLL_MS = 500;
 /** How long a request waits for Redis to take a new export before answering anyway. */
@@ -132,7 +133,7 @@ export class ExportsService {
       state: 'queued',
       requestedBy: actorId,
       storagePrefix: exportPrefix(jobId, id),
-      preparationId: await this.preparationInEffect(m, jobId),
+      preparationId: await preparationInEffect(m, jobId),
     });
     await m.insert(Export, created);
     await this.audit.record(m, {
@@ -144,15 +145,6 @@ export class ExportsService {
       requestId,
     });
     return created;
-  }
-
-  /** The job's preparation in effect: its latest `prepare` transition (null: never prepared). */
-  private async preparationInEffect(m: EntityManager, jobId: string): Promise<string | null> {
-    const rows: { id: string | null }[] = await m.query(
-      `SELECT max(id)::text AS id FROM job_transitions WHERE job_id = $1 AND action = 'prepare'`,
-      [jobId],
-    );
-    return rows[0]?.id ?? null;
   }
 
   private async enqueue(exportId: string, requestId: string | null): Promise<void> {
@@ -227,7 +219,7 @@ export class ExportsService {
 
   async get(user: AuthUser, id: string): Promise<ExportView> {
     const exp = await this.visible(user, id);
-    const inEffect = await this.preparationInEffect(this.dataSource.manager, exp.jobId);
+    const inEffect = await preparationInEffect(this.dataSource.manager, exp.jobId);
     return this.toView(user, exp, exp.preparationId !== inEffect);
   }
 
@@ -239,7 +231,7 @@ export class ExportsService {
   async list(user: AuthUser, jobId: string): Promise<ExportView[]> {
     const job = await this.dataSource.manager.findOne(Job, { where: { id: jobId } });
     if (!job || !this.canSee(user, job)) throw notFound('JOB', 'No such job');
-    const inEffect = await this.preparationInEffect(this.dataSource.manager, jobId);
+    const inEffect = await preparationInEffect(this.dataSource.manager, jobId);
     const rows = await this.dataSource.manager.find(Export, {
       where: { jobId, preparationId: inEffect ?? IsNull() },
       order: { createdAt: 'DESC', id: 'DESC' },
@@ -333,7 +325,7 @@ export class ExportsService {
     }
     // A pack is for the preparation it was built from: a job returned and prepared again (another material,
     // kerf or layout) is cut from the packs built since, never from an earlier one.
-    if (exp.preparationId !== (await this.preparationInEffect(this.dataSource.manager, job.id))) {
+    if (exp.preparationId !== (await preparationInEffect(this.dataSource.manager, job.id))) {
       throw new AppError(
         HttpStatus.CONFLICT,
         'EXPORT.PREPARATION_REPLACED',

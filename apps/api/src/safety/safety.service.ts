@@ -16,6 +16,7 @@ import { AuditService } from '../audit/audit.service';
 import { type AuthUser } from '../common/decorators/auth.decorators';
 import { AppError, notFound } from '../common/errors';
 import { canReadJob } from '../jobs/job-access';
+import { preparationInEffectSql } from '../jobs/preparation-in-effect';
 
 interface NoticeRow {
   notice_key: string;
@@ -217,8 +218,7 @@ export class SafetyService {
       preparation_id: string | null;
     }[] = await m.query(
       `SELECT j.requester_id, j.state, p.kind, mat.family,
-              (SELECT max(t.id) FROM job_transitions t WHERE t.job_id = j.id AND t.action = 'prepare')::text
-                AS preparation_id
+              ${preparationInEffectSql('j.id')} AS preparation_id
          FROM jobs j
          LEFT JOIN machine_profile_versions v ON v.id = j.profile_version_id
          LEFT JOIN machine_profiles p ON p.id = v.profile_id
